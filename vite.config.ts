@@ -1,0 +1,74 @@
+import { defineConfig } from 'vitest/config';
+import react from '@vitejs/plugin-react';
+import tailwindcss from '@tailwindcss/vite';
+
+/**
+ * One file configures the client build (Vite) and every test suite (Vitest projects):
+ * - unit: pure code beside its source, plus reference fixtures; no services needed;
+ * - api: supertest against a real MariaDB started by docker-free-scripts/test.sh;
+ * - e2e: Debian's Chromium driven by playwright-core against a running app.
+ */
+export default defineConfig({
+  root: 'client',
+  publicDir: false,
+  plugins: [react(), tailwindcss()],
+  build: {
+    outDir: '../dist/client',
+    emptyOutDir: true,
+    sourcemap: true,
+  },
+  server: {
+    host: '127.0.0.1',
+    proxy: { '/api': 'http://127.0.0.1:4310', '/auth': 'http://127.0.0.1:4310', '/healthz': 'http://127.0.0.1:4310' },
+  },
+  test: {
+    root: '.',
+    projects: [
+      {
+        extends: true,
+        test: {
+          name: 'unit',
+          root: '.',
+          include: [
+            'server/**/*.test.ts',
+            'docker-free-scripts/**/*.test.ts',
+            'tests/unit/**/*.test.ts',
+            'tests/reference/**/*.test.ts',
+          ],
+          testTimeout: 30_000,
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'client',
+          root: '.',
+          include: ['client/**/*.test.tsx', 'client/**/*.test.ts'],
+          environment: 'jsdom',
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'api',
+          root: '.',
+          include: ['tests/api/**/*.test.ts'],
+          testTimeout: 30_000,
+          hookTimeout: 60_000,
+          fileParallelism: false,
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'e2e',
+          root: '.',
+          include: ['tests/e2e/**/*.test.ts'],
+          testTimeout: 90_000,
+          hookTimeout: 120_000,
+          fileParallelism: false,
+        },
+      },
+    ],
+  },
+});
