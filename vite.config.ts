@@ -10,7 +10,7 @@ import tailwindcss from '@tailwindcss/vite';
  */
 export default defineConfig({
   root: 'client',
-  publicDir: false,
+  publicDir: 'public',
   plugins: [react(), tailwindcss()],
   build: {
     outDir: '../dist/client',

@@ -1,0 +1,64 @@
+import express, { type Express } from 'express';
+import type Stripe from 'stripe';
+import type { Config } from './config.ts';
+import type { Db } from './db/create-db.ts';
+import type { Logger } from './logger.ts';
+import type { Mailer } from './integrations/mail/create-mailer.ts';
+import type { OidcEndpoints } from './integrations/identity/oidc-discovery.ts';
+import { createUsersRepo } from './db/users.repo.ts';
+import { createLabsRepo } from './db/labs.repo.ts';
+import { createSignInService } from './services/sign-in.service.ts';
+import { createMeService } from './services/me.service.ts';
+import { securityHeaders } from './http/middleware/security-headers.ts';
+import { sessionMiddleware } from './http/middleware/session.ts';
+import { sameOriginWrites } from './http/middleware/same-origin-writes.ts';
+import { errorHandler } from './http/middleware/error-handler.ts';
+import { createPassport } from './http/auth/passport-setup.ts';
+import { authRouter } from './http/auth/auth.router.ts';
+import { meRouter } from './http/me.router.ts';
+import { healthRouter } from './http/health.router.ts';
+import { staticClient } from './http/static-client.ts';
+import { NotFoundError } from './errors.ts';
+
+/** Everything the app talks to, handed in so tests can build it with stand-ins. */
+export interface AppDeps {
+  config: Config;
+  db: Db;
+  logger: Logger;
+  identity: { endpoints: OidcEndpoints };
+  mailer: Mailer;
+  billing: Stripe;
+}
+
+/**
+ * Builds the Express app. Order matters: security headers → health (no session needed) →
+ * session → passport → CSRF guard → routers → JSON 404 for the API → built client → errors.
+ */
+export function createApp(deps: AppDeps): Express {
+  const { config, db, logger } = deps;
+  const app = express();
+  app.disable('x-powered-by');
+  if (config.secureCookies) app.set('trust proxy', 1);
+
+  const users = createUsersRepo(db);
+  const labs = createLabsRepo(db);
+  const signIn = createSignInService({ users });
+  const me = createMeService({ labs });
+  const passport = createPassport({ config, endpoints: deps.identity.endpoints, users, signIn });
+
+  app.use(securityHeaders({ secure: config.secureCookies }));
+  app.use(healthRouter({ db }));
+  app.use(sessionMiddleware({ db, secret: config.sessionSecret, secure: config.secureCookies }));
+  app.use(passport.session());
+  app.use(sameOriginWrites(config.publicUrl));
+  app.use(express.json({ limit: '1mb' }));
+
+  app.use(authRouter({ passport, logger }));
+  app.use(meRouter({ me }));
+
+  app.use(['/api', '/auth'], (req, _res, next) => next(new NotFoundError(`No route for ${req.method} ${req.originalUrl.split('?')[0]}.`)));
+  if (config.clientDir) app.use(staticClient(config.clientDir));
+  app.use((req, _res, next) => next(new NotFoundError(`No route for ${req.method} ${req.path}.`)));
+  app.use(errorHandler(logger));
+  return app;
+}

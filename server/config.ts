@@ -1,0 +1,106 @@
+import { z } from 'zod';
+import { ConfigError } from './errors.ts';
+
+/**
+ * Lagbook's configuration, read from the environment once at start and validated, so a
+ * missing or malformed setting stops the process with one clear message instead of
+ * failing later on a request.
+ */
+const envSchema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  LAGBOOK_HOST: z.string().min(1).default('127.0.0.1'),
+  LAGBOOK_PORT: z.coerce.number().int().min(0).max(65535).default(4310),
+  /** The URL people reach Lagbook at; used for OIDC redirects and links in mail. */
+  LAGBOOK_PUBLIC_URL: z.url().optional(),
+  /** Folder of the built client (vite build) served by the production server. */
+  LAGBOOK_CLIENT_DIR: z.string().optional(),
+
+  LAGBOOK_DB_HOST: z.string().min(1).default('127.0.0.1'),
+  LAGBOOK_DB_PORT: z.coerce.number().int().min(1).max(65535).default(4306),
+  LAGBOOK_DB_USER: z.string().min(1).default('lagbook'),
+  LAGBOOK_DB_PASSWORD: z.string().default('lagbook'),
+  LAGBOOK_DB_NAME: z.string().regex(/^[A-Za-z0-9_]+$/, 'letters, digits and _ only').default('lagbook'),
+  LAGBOOK_DB_POOL_MAX: z.coerce.number().int().min(1).max(200).default(10),
+
+  /** Signs the session cookie; at least 32 characters. */
+  LAGBOOK_SESSION_SECRET: z.string().min(32, 'must be at least 32 characters'),
+
+  /** Any standard OpenID Connect issuer; its endpoints are read from its discovery document. */
+  OIDC_ISSUER: z.url(),
+  OIDC_CLIENT_ID: z.string().min(1),
+  OIDC_CLIENT_SECRET: z.string().min(1),
+
+  SMTP_HOST: z.string().min(1).default('127.0.0.1'),
+  SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(4325),
+  SMTP_SECURE: z.stringbool().default(false),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASSWORD: z.string().optional(),
+  MAIL_FROM: z.string().min(3).default('Lagbook <lagbook@localhost>'),
+
+  STRIPE_SECRET_KEY: z.string().regex(/^sk_(test|live)_/, 'must start with sk_test_ or sk_live_'),
+  /** Set only in development and tests: the base URL of the local Stripe stand-in. */
+  STRIPE_API_BASE: z.url().optional(),
+});
+
+export interface Config {
+  env: 'development' | 'production' | 'test';
+  host: string;
+  port: number;
+  publicUrl: string;
+  clientDir: string | null;
+  db: { host: string; port: number; user: string; password: string; database: string; poolMax: number };
+  sessionSecret: string;
+  /** Cookies carry the Secure flag when Lagbook is reached over TLS. */
+  secureCookies: boolean;
+  oidc: { issuer: string; clientId: string; clientSecret: string; redirectUri: string };
+  smtp: { host: string; port: number; secure: boolean; user?: string; password?: string; from: string };
+  stripe: { secretKey: string; apiBase: URL | null };
+}
+
+/** Parses and validates the environment; throws ConfigError listing every problem at once. */
+export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
+  const parsed = envSchema.safeParse(env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map(
+      (i) => `  ${i.path.join('.')}: ${/received undefined/.test(i.message) ? 'required but not set' : i.message}`,
+    );
+    throw new ConfigError(`Invalid configuration:\n${lines.join('\n')}`);
+  }
+  const e = parsed.data;
+  if (e.NODE_ENV === 'production' && e.STRIPE_API_BASE) {
+    throw new ConfigError('Invalid configuration:\n  STRIPE_API_BASE: the Stripe stand-in cannot be used in production');
+  }
+  const publicUrl = (e.LAGBOOK_PUBLIC_URL ?? `http://${e.LAGBOOK_HOST}:${e.LAGBOOK_PORT}`).replace(/\/$/, '');
+  return {
+    env: e.NODE_ENV,
+    host: e.LAGBOOK_HOST,
+    port: e.LAGBOOK_PORT,
+    publicUrl,
+    clientDir: e.LAGBOOK_CLIENT_DIR ?? null,
+    db: {
+      host: e.LAGBOOK_DB_HOST,
+      port: e.LAGBOOK_DB_PORT,
+      user: e.LAGBOOK_DB_USER,
+      password: e.LAGBOOK_DB_PASSWORD,
+      database: e.LAGBOOK_DB_NAME,
+      poolMax: e.LAGBOOK_DB_POOL_MAX,
+    },
+    sessionSecret: e.LAGBOOK_SESSION_SECRET,
+    secureCookies: publicUrl.startsWith('https://'),
+    oidc: {
+      issuer: e.OIDC_ISSUER.replace(/\/$/, ''),
+      clientId: e.OIDC_CLIENT_ID,
+      clientSecret: e.OIDC_CLIENT_SECRET,
+      redirectUri: `${publicUrl}/auth/callback`,
+    },
+    smtp: {
+      host: e.SMTP_HOST,
+      port: e.SMTP_PORT,
+      secure: e.SMTP_SECURE,
+      user: e.SMTP_USER,
+      password: e.SMTP_PASSWORD,
+      from: e.MAIL_FROM,
+    },
+    stripe: { secretKey: e.STRIPE_SECRET_KEY, apiBase: e.STRIPE_API_BASE ? new URL(e.STRIPE_API_BASE) : null },
+  };
+}

@@ -1,0 +1,39 @@
+import knex, { type Knex } from 'knex';
+import type { Config } from '../config.ts';
+
+export type Db = Knex;
+
+/**
+ * Builds the Knex instance for MariaDB (mysql2 driver). BIGINT ids come back as numbers
+ * while they fit, as strings beyond (supportBigNumbers); dates are read and written as UTC.
+ */
+export function createDb(db: Config['db']): Db {
+  return knex({
+    client: 'mysql2',
+    connection: {
+      host: db.host,
+      port: db.port,
+      user: db.user,
+      password: db.password,
+      database: db.database,
+      supportBigNumbers: true,
+      bigNumberStrings: false,
+      timezone: 'Z',
+      dateStrings: false,
+      charset: 'utf8mb4',
+      connectTimeout: 5000,
+    },
+    pool: { min: 0, max: db.poolMax },
+    acquireConnectionTimeout: 10_000,
+  });
+}
+
+/** True when the database answers a trivial query within the pool's timeout. */
+export async function databaseAnswers(db: Db): Promise<boolean> {
+  try {
+    await db.raw('SELECT 1');
+    return true;
+  } catch {
+    return false;
+  }
+}

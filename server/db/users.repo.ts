@@ -1,0 +1,83 @@
+import type { DbOrTrx } from './tenant-scope.ts';
+
+export interface User {
+  id: number;
+  oidcIssuer: string;
+  oidcSubject: string;
+  email: string;
+  emailVerified: boolean;
+  displayName: string;
+  createdAt: Date;
+  lastSignInAt: Date | null;
+}
+
+interface UserRow {
+  id: number;
+  oidc_issuer: string;
+  oidc_subject: string;
+  email: string;
+  email_verified: number | boolean;
+  display_name: string;
+  created_at: Date;
+  last_sign_in_at: Date | null;
+}
+
+function toUser(r: UserRow): User {
+  return {
+    id: Number(r.id),
+    oidcIssuer: r.oidc_issuer,
+    oidcSubject: r.oidc_subject,
+    email: r.email,
+    emailVerified: Boolean(r.email_verified),
+    displayName: r.display_name,
+    createdAt: r.created_at,
+    lastSignInAt: r.last_sign_in_at,
+  };
+}
+
+export interface IdentityClaims {
+  issuer: string;
+  subject: string;
+  email: string;
+  emailVerified: boolean;
+  displayName: string;
+}
+
+/** Data access for `users` (global, not lab-owned). Every method takes an optional transaction. */
+export function createUsersRepo(db: DbOrTrx) {
+  return {
+    async findById(id: number, trx: DbOrTrx = db): Promise<User | null> {
+      const row = await trx<UserRow>('users').where({ id }).first();
+      return row ? toUser(row) : null;
+    },
+
+    async findByIdentity(issuer: string, subject: string, trx: DbOrTrx = db): Promise<User | null> {
+      const row = await trx<UserRow>('users').where({ oidc_issuer: issuer, oidc_subject: subject }).first();
+      return row ? toUser(row) : null;
+    },
+
+    /**
+     * Creates the user on first sign-in or refreshes e-mail and name from the provider's
+     * claims, and stamps the sign-in time. One statement, so it is atomic on its own.
+     */
+    async upsertFromIdentity(claims: IdentityClaims, trx: DbOrTrx = db): Promise<User> {
+      const now = new Date();
+      await trx('users')
+        .insert({
+          oidc_issuer: claims.issuer,
+          oidc_subject: claims.subject,
+          email: claims.email,
+          email_verified: claims.emailVerified,
+          display_name: claims.displayName,
+          last_sign_in_at: now,
+        })
+        .onConflict(['oidc_issuer', 'oidc_subject'])
+        .merge(['email', 'email_verified', 'display_name', 'last_sign_in_at']);
+      const user = await this.findByIdentity(claims.issuer, claims.subject, trx);
+      if (!user) throw new Error('upsertFromIdentity: the user row vanished');
+      return user;
+    },
+  };
+}
+
+export type UsersRepo = ReturnType<typeof createUsersRepo>;

@@ -1,0 +1,57 @@
+import type { ErrorRequestHandler } from 'express';
+import { ZodError } from 'zod';
+import { AppError, ServiceUnavailableError, ValidationError } from '../../errors.ts';
+import type { Logger } from '../../logger.ts';
+
+const DB_DOWN_CODES = new Set([
+  'ECONNREFUSED',
+  'ECONNRESET',
+  'ETIMEDOUT',
+  'PROTOCOL_CONNECTION_LOST',
+  'ER_SERVER_SHUTDOWN',
+  'ER_CON_COUNT_ERROR',
+]);
+
+/** True for errors that mean "the database is unreachable right now", not "the query is wrong". */
+export function isDatabaseUnavailable(err: unknown): boolean {
+  const e = err as { code?: string; name?: string; errno?: number } | null;
+  if (!e) return false;
+  return (e.code !== undefined && DB_DOWN_CODES.has(e.code)) || e.name === 'KnexTimeoutError';
+}
+
+/** Turns a ZodError into `field: reason` lines (the validation message convention). */
+export function zodToValidationError(err: ZodError): ValidationError {
+  const message = err.issues.map((i) => `${i.path.join('.') || 'body'}: ${i.message}`).join('; ');
+  return new ValidationError(message, err.issues.map((i) => ({ path: i.path.join('.'), message: i.message })));
+}
+
+/**
+ * The one error middleware: typed errors become `{ error: { code, message } }` with their
+ * status; an unreachable database becomes 503 with Retry-After; anything else is logged and
+ * answered 500 without internals.
+ */
+export function errorHandler(logger: Logger): ErrorRequestHandler {
+  return (err, req, res, _next) => {
+    let error: unknown = err;
+    if (error instanceof ZodError) error = zodToValidationError(error);
+    if (!(error instanceof AppError) && isDatabaseUnavailable(error)) {
+      error = new ServiceUnavailableError('The database is unreachable; try again shortly.');
+    }
+    // body-parser errors carry a status and type (too large, malformed JSON)
+    const bp = err as { status?: number; type?: string; expose?: boolean };
+    if (!(error instanceof AppError) && bp?.type === 'entity.too.large') {
+      error = new AppError(413, 'payload_too_large', 'The request body is too large.');
+    } else if (!(error instanceof AppError) && bp?.type === 'entity.parse.failed') {
+      error = new ValidationError('body: not valid JSON');
+    }
+    if (error instanceof AppError) {
+      if (error instanceof ServiceUnavailableError) res.set('Retry-After', String(error.retryAfterSeconds));
+      if (error.status >= 500) logger.warn('request failed', { path: req.path, code: error.code });
+      res.status(error.status).json({ error: { code: error.code, message: error.message } });
+      return;
+    }
+    logger.error('unexpected error', { path: req.path, err: (err as Error)?.stack ?? String(err) });
+    if (res.headersSent) return;
+    res.status(500).json({ error: { code: 'internal', message: 'Something went wrong on our side.' } });
+  };
+}

@@ -1,0 +1,13 @@
+import type { MeView } from '../../services/me.service.ts';
+
+/** What leaves the server about the signed-in person: no provider ids, no internal flags. */
+export function presentMe(view: MeView) {
+  return {
+    user: {
+      id: view.user.id,
+      email: view.user.email,
+      name: view.user.displayName,
+    },
+    labs: view.labs.map((l) => ({ slug: l.slug, name: l.name, role: l.role })),
+  };
+}

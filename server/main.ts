@@ -1,0 +1,65 @@
+import { createServer } from 'node:http';
+import { loadConfig } from './config.ts';
+import { createDb, databaseAnswers } from './db/create-db.ts';
+import { createLogger } from './logger.ts';
+import { discoverOidcEndpoints } from './integrations/identity/oidc-discovery.ts';
+import { createMailer } from './integrations/mail/create-mailer.ts';
+import { createStripeClient } from './integrations/billing/create-stripe-client.ts';
+import { createApp } from './app.ts';
+import { ConfigError } from './errors.ts';
+import { migrateToLatest } from './db/migrate.ts';
+
+/**
+ * Lagbook's entry point: validate configuration, check the database and identity provider,
+ * optionally migrate (`--migrate`), listen. Any start-up problem prints one clear line and
+ * exits with status 1 — never a stack trace.
+ */
+async function main(): Promise<void> {
+  const config = loadConfig();
+  const logger = createLogger();
+  const db = createDb(config.db);
+  if (!(await databaseAnswers(db))) {
+    throw new ConfigError(
+      `The database at ${config.db.host}:${config.db.port} (${config.db.database}) does not answer. ` +
+        'Start it with docker-free-scripts/mariadb.sh start, or check the LAGBOOK_DB_* settings.',
+    );
+  }
+  if (process.argv.includes('--migrate')) {
+    const applied = await migrateToLatest(db);
+    logger.info('migrations applied', { applied });
+  }
+  const endpoints = await discoverOidcEndpoints(config.oidc.issuer);
+  const mailer = createMailer(config.smtp);
+  if (!(await mailer.verify())) logger.warn('the SMTP server does not answer yet; mail will be retried', { host: config.smtp.host, port: config.smtp.port });
+  const billing = createStripeClient(config.stripe);
+  const app = createApp({ config, db, logger, identity: { endpoints }, mailer, billing });
+
+  const server = createServer(app);
+  await new Promise<void>((resolve, reject) => {
+    server.once('error', (err: NodeJS.ErrnoException) => {
+      if (err.code === 'EADDRINUSE') reject(new ConfigError(`Port ${config.port} on ${config.host} is already in use; set LAGBOOK_PORT to a free port.`));
+      else reject(err);
+    });
+    server.listen(config.port, config.host, resolve);
+  });
+  logger.info('Lagbook is listening', { url: config.publicUrl });
+
+  const shutdown = () => {
+    server.close(() => {
+      mailer.close();
+      void db.destroy().then(() => process.exit(0));
+    });
+    setTimeout(() => process.exit(0), 5000).unref();
+  };
+  process.once('SIGINT', shutdown);
+  process.once('SIGTERM', shutdown);
+}
+
+main().catch((err: unknown) => {
+  if (err instanceof ConfigError) {
+    process.stderr.write(`lagbook: ${err.message}\n`);
+  } else {
+    process.stderr.write(`lagbook: could not start: ${(err as Error)?.message ?? String(err)}\n`);
+  }
+  process.exit(1);
+});

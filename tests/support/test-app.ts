@@ -1,0 +1,59 @@
+import { createServer, type Server } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import { loadConfig, type Config } from '../../server/config.ts';
+import { createDb, type Db } from '../../server/db/create-db.ts';
+import { migrateToLatest } from '../../server/db/migrate.ts';
+import { createApp } from '../../server/app.ts';
+import { createLogger } from '../../server/logger.ts';
+import { discoverOidcEndpoints } from '../../server/integrations/identity/oidc-discovery.ts';
+import { createMailer } from '../../server/integrations/mail/create-mailer.ts';
+import { createStripeClient } from '../../server/integrations/billing/create-stripe-client.ts';
+
+/**
+ * Builds the real app against the real MariaDB and the local stand-ins that
+ * docker-free-scripts/test.sh started (their addresses come from the environment).
+ */
+export async function buildTestApp(overrides: Partial<Config> = {}) {
+  const config: Config = { ...testConfig(), ...overrides };
+  const db = createDb(config.db);
+  await migrateToLatest(db);
+  const endpoints = await discoverOidcEndpoints(config.oidc.issuer);
+  const mailer = createMailer(config.smtp);
+  const billing = createStripeClient(config.stripe);
+  const app = createApp({ config, db, logger: createLogger({ silent: true }), identity: { endpoints }, mailer, billing });
+  let server: Server | null = null;
+  return {
+    app,
+    db,
+    config,
+    /** Listens on the configured port (the one registered as redirect URI at the provider). */
+    async listen(): Promise<string> {
+      server = createServer(app);
+      await new Promise<void>((resolve, reject) => {
+        server!.once('error', reject);
+        server!.listen(config.port, config.host, resolve);
+      });
+      const { port } = server.address() as AddressInfo;
+      return `http://127.0.0.1:${port}`;
+    },
+    async close(): Promise<void> {
+      if (server) {
+        server.closeAllConnections();
+        await new Promise<void>((r) => server!.close(() => r()));
+      }
+      mailer.close();
+      await db.destroy();
+    },
+  };
+}
+
+/** The configuration test.sh exported; fails with a clear hint when run outside it. */
+export function testConfig(): Config {
+  if (!process.env.OIDC_ISSUER || !process.env.LAGBOOK_DB_PORT) {
+    throw new Error('API and browser tests need the services started by `npm test` (docker-free-scripts/test.sh).');
+  }
+  return loadConfig(process.env);
+}
+
+export type TestApp = Awaited<ReturnType<typeof buildTestApp>>;
+export type { Db };
