@@ -1,0 +1,62 @@
+import { describe, expect, it } from 'vitest';
+import { loadConfig } from './config.ts';
+import { ConfigError } from './errors.ts';
+
+const valid = {
+  LAGBOOK_SESSION_SECRET: 'a'.repeat(32),
+  OIDC_ISSUER: 'https://login.example.edu/realms/lab/',
+  OIDC_CLIENT_ID: 'lagbook',
+  OIDC_CLIENT_SECRET: 'secret',
+  STRIPE_SECRET_KEY: 'sk_test_123',
+};
+
+describe('loadConfig', () => {
+  it('fills defaults and derives the redirect URI from the public URL', () => {
+    const c = loadConfig({ ...valid, LAGBOOK_PUBLIC_URL: 'https://lagbook.example.org/' });
+    expect(c.port).toBe(4310);
+    expect(c.publicUrl).toBe('https://lagbook.example.org');
+    expect(c.oidc.redirectUri).toBe('https://lagbook.example.org/auth/callback');
+    expect(c.oidc.issuer).toBe('https://login.example.edu/realms/lab');
+    expect(c.secureCookies).toBe(true);
+  });
+
+  it('lists every missing setting at once, by name, without a stack of internals', () => {
+    let message = '';
+    try {
+      loadConfig({});
+    } catch (err) {
+      expect(err).toBeInstanceOf(ConfigError);
+      message = (err as Error).message;
+    }
+    expect(message).toBe(
+      [
+        'Invalid configuration:',
+        '  LAGBOOK_SESSION_SECRET: required but not set',
+        '  OIDC_ISSUER: required but not set',
+        '  OIDC_CLIENT_ID: required but not set',
+        '  OIDC_CLIENT_SECRET: required but not set',
+        '  STRIPE_SECRET_KEY: required but not set',
+      ].join('\n'),
+    );
+  });
+
+  it('rejects malformed values with field: reason', () => {
+    expect(() => loadConfig({ ...valid, LAGBOOK_PORT: 'eighty' })).toThrow(/LAGBOOK_PORT: /);
+    expect(() => loadConfig({ ...valid, LAGBOOK_SESSION_SECRET: 'short' })).toThrow(
+      'LAGBOOK_SESSION_SECRET: must be at least 32 characters',
+    );
+    expect(() => loadConfig({ ...valid, STRIPE_SECRET_KEY: 'pk_live_1' })).toThrow(
+      'STRIPE_SECRET_KEY: must start with sk_test_ or sk_live_',
+    );
+  });
+
+  it('refuses the Stripe stand-in in production', () => {
+    expect(() => loadConfig({ ...valid, NODE_ENV: 'production', STRIPE_API_BASE: 'http://127.0.0.1:4312' })).toThrow(
+      'STRIPE_API_BASE: the Stripe stand-in cannot be used in production',
+    );
+  });
+
+  it('uses plain cookies on a plain-HTTP loopback URL', () => {
+    expect(loadConfig(valid).secureCookies).toBe(false);
+  });
+});
