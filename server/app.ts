@@ -19,6 +19,16 @@ import { meRouter } from './http/me.router.ts';
 import { healthRouter } from './http/health.router.ts';
 import { staticClient } from './http/static-client.ts';
 import { NotFoundError } from './errors.ts';
+import { createLabsService } from './services/labs.service.ts';
+import { createMembersService } from './services/members.service.ts';
+import { createInvitationsService } from './services/invitations.service.ts';
+import { createAuditService } from './services/audit.service.ts';
+import { createLabGuard } from './http/middleware/lab-guard.ts';
+import { mountLabRoutes, type LabRouteSummary } from './http/lab-routes.ts';
+import { labRoutes, labsRouter } from './http/labs/labs.router.ts';
+import { memberRoutes } from './http/labs/members.router.ts';
+import { invitationAcceptanceRouter, invitationRoutes } from './http/labs/invitations.router.ts';
+import { auditRoutes } from './http/labs/audit.router.ts';
 
 /** Everything the app talks to, handed in so tests can build it with stand-ins. */
 export interface AppDeps {
@@ -28,6 +38,8 @@ export interface AppDeps {
   identity: { endpoints: OidcEndpoints };
   mailer: Mailer;
   billing: Stripe;
+  /** The clock services use (tests move it to check expiry). */
+  now?: () => Date;
 }
 
 /**
@@ -45,6 +57,18 @@ export function createApp(deps: AppDeps): Express {
   const signIn = createSignInService({ users });
   const me = createMeService({ labs });
   const passport = createPassport({ config, endpoints: deps.identity.endpoints, users, signIn });
+  const labsService = createLabsService({ db });
+  const members = createMembersService({ db });
+  const invitations = createInvitationsService({ db, mailer: deps.mailer, publicUrl: config.publicUrl, now: deps.now });
+  const audit = createAuditService({ db });
+  const labRouteTable = mountLabRoutes(createLabGuard(db), [
+    ...labRoutes(),
+    ...memberRoutes({ members }),
+    ...invitationRoutes({ invitations }),
+    ...auditRoutes({ audit }),
+  ]);
+  // The route table, for the role × route test (every lab route and its permission).
+  app.locals.labRoutes = labRouteTable.table satisfies LabRouteSummary[];
 
   app.use(securityHeaders({ secure: config.secureCookies }));
   app.use(healthRouter({ db }));
@@ -55,6 +79,9 @@ export function createApp(deps: AppDeps): Express {
 
   app.use(authRouter({ passport, logger }));
   app.use(meRouter({ me }));
+  app.use(labsRouter({ labs: labsService }));
+  app.use(invitationAcceptanceRouter({ invitations }));
+  app.use(labRouteTable.router);
 
   app.use(['/api', '/auth'], (req, _res, next) => next(new NotFoundError(`No route for ${req.method} ${req.originalUrl.split('?')[0]}.`)));
   if (config.clientDir) app.use(staticClient(config.clientDir));

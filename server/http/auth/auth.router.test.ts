@@ -5,7 +5,7 @@ describe('safeReturnPath', () => {
   it('keeps same-site paths with their query', () => {
     expect(safeReturnPath('/labs/fernhollow/channels?range=7d')).toBe('/labs/fernhollow/channels?range=7d');
   });
-  it.each([
+  it.each<[unknown, string]>([
     ['//evil.example/x', 'protocol-relative URL'],
     ['https://evil.example/', 'absolute URL'],
     ['/\\evil.example', 'backslash trick'],

@@ -19,6 +19,12 @@ export function isDatabaseUnavailable(err: unknown): boolean {
   return (e.code !== undefined && DB_DOWN_CODES.has(e.code)) || e.name === 'KnexTimeoutError';
 }
 
+/** A deadlock or lock wait timeout: the transaction was rolled back and can simply be retried. */
+export function isLockConflict(err: unknown): boolean {
+  const code = (err as { code?: string } | null)?.code;
+  return code === 'ER_LOCK_DEADLOCK' || code === 'ER_LOCK_WAIT_TIMEOUT';
+}
+
 /** Turns a ZodError into `field: reason` lines (the validation message convention). */
 export function zodToValidationError(err: ZodError): ValidationError {
   const message = err.issues.map((i) => `${i.path.join('.') || 'body'}: ${i.message}`).join('; ');
@@ -36,6 +42,8 @@ export function errorHandler(logger: Logger): ErrorRequestHandler {
     if (error instanceof ZodError) error = zodToValidationError(error);
     if (!(error instanceof AppError) && isDatabaseUnavailable(error)) {
       error = new ServiceUnavailableError('The database is unreachable; try again shortly.');
+    } else if (!(error instanceof AppError) && isLockConflict(error)) {
+      error = new ServiceUnavailableError('The database was busy with a conflicting change; nothing was saved. Try again.', 1);
     }
     // body-parser errors carry a status and type (too large, malformed JSON)
     const bp = err as { status?: number; type?: string; expose?: boolean };

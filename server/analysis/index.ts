@@ -1,0 +1,48 @@
+/**
+ * Lagbook's numeric engine: pure functions on numeric arrays (NaN marks a missing value), with
+ * the short names the rest of the server uses. Nothing here imports from the rest of the server.
+ */
+export { AnalysisInputError, type Series } from './analysis-input-error.ts';
+export { autocorrelation as acf, type AutocorrelationOptions } from './autocorrelation.ts';
+export { partialAutocorrelation as pacf, type PartialAutocorrelationOptions } from './partial-autocorrelation.ts';
+export {
+  autocorrelationBands as acfBands,
+  type AutocorrelationBands,
+  type AutocorrelationBandsOptions,
+} from './autocorrelation-bands.ts';
+export { ljungBox } from './ljung-box.ts';
+export { boxPierce } from './box-pierce.ts';
+export type { PortmanteauOptions, PortmanteauResult } from './portmanteau-test.ts';
+export {
+  crossCorrelation as ccf,
+  type CrossCorrelationOptions,
+  type CrossCorrelationResult,
+} from './cross-correlation.ts';
+export { arYuleWalker, type ArYuleWalkerOptions, type ArYuleWalkerResult } from './ar-yule-walker.ts';
+export { difference, type DifferenceOptions } from './difference.ts';
+export {
+  regularize,
+  type RegularizeAggregate,
+  type RegularizeOptions,
+  type RegularizedSeries,
+} from './regularize.ts';
+export { detectPeriod, type DetectPeriodOptions, type DetectPeriodResult, type PeriodCandidate } from './detect-period.ts';
+export { periodogram, type PeriodogramResult } from './periodogram.ts';
+export {
+  effectiveSampleSize,
+  type EffectiveSampleSizeOptions,
+  type EffectiveSampleSizeResult,
+} from './effective-sample-size.ts';
+export {
+  augmentedDickeyFuller as adf,
+  type AugmentedDickeyFullerOptions,
+  type AugmentedDickeyFullerResult,
+} from './augmented-dickey-fuller.ts';
+export {
+  identifyProcess,
+  type IdentifyProcessOptions,
+  type ProcessIdentification,
+  type ProcessEvidence,
+  type ProcessVerdict,
+} from './identify-process.ts';
+export { durbinLevinson, type DurbinLevinsonResult } from './durbin-levinson.ts';

@@ -1,0 +1,93 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import request from 'supertest';
+import { buildTestApp, type TestApp } from '../support/test-app.ts';
+import { buildLab, buildMember, buildUser, sessionCookieFor, type TestLab } from '../support/factories.ts';
+import type { LabRouteSummary } from '../../server/http/lab-routes.ts';
+import type { Role } from '../../server/policies/permissions.ts';
+
+/**
+ * Route × role matrix, generated from the app's own route table: every lab route, for each
+ * role plus a signed-out visitor and a signed-in non-member. Who may call what is written
+ * out here by hand from DESIGN.md's role table, independently of the server's permission
+ * module, so a wrong permission on a route fails this test; a route missing from this table
+ * fails it too.
+ */
+const ALL: Role[] = ['admin', 'technician', 'scientist', 'guest'];
+const ALLOWED: Record<string, { roles: Role[]; ok: number }> = {
+  'GET ': { roles: ALL, ok: 200 },
+  'GET /members': { roles: ['admin', 'technician', 'scientist'], ok: 200 },
+  'PATCH /members/:userId': { roles: ['admin'], ok: 200 },
+  'DELETE /members/:userId': { roles: ['admin'], ok: 204 },
+  'DELETE /membership': { roles: ALL, ok: 204 },
+  'GET /invitations': { roles: ['admin'], ok: 200 },
+  'POST /invitations': { roles: ['admin'], ok: 201 },
+  'POST /invitations/:id/resend': { roles: ['admin'], ok: 200 },
+  'DELETE /invitations/:id': { roles: ['admin'], ok: 204 },
+  'GET /audit': { roles: ['admin'], ok: 200 },
+};
+
+type Caller = Role | 'signed-out' | 'non-member';
+const CALLERS: Caller[] = ['signed-out', 'non-member', ...ALL];
+
+let t: TestApp;
+let routes: LabRouteSummary[];
+beforeAll(async () => {
+  t = await buildTestApp();
+  routes = t.app.locals.labRoutes as LabRouteSummary[];
+});
+afterAll(async () => t.close());
+
+const key = (r: LabRouteSummary) => `${r.method.toUpperCase()} ${r.path}`;
+
+/** A fresh lab with a founding admin, the caller, a guest to act on and a pending invitation. */
+async function fixture(caller: Caller) {
+  const lab: TestLab = await buildLab(t.db);
+  await buildMember(t.db, lab, { role: 'admin' });
+  const target = await buildMember(t.db, lab, { role: 'guest' });
+  const invitationId = Math.floor(Math.random() * 2 ** 40) + 1;
+  await t.db('invitations').insert({
+    tenant_id: lab.id,
+    id: invitationId,
+    email: `pending-${invitationId}@lab.example`,
+    role: 'scientist',
+    token_hash: 'f'.repeat(48) + invitationId.toString(16).padStart(16, '0'),
+    expires_at: new Date(Date.now() + 86400_000),
+  });
+  let cookie: string | null = null;
+  if (caller === 'non-member') cookie = await sessionCookieFor(t.db, t.config.sessionSecret, (await buildUser(t.db)).id);
+  else if (caller !== 'signed-out') cookie = await sessionCookieFor(t.db, t.config.sessionSecret, (await buildMember(t.db, lab, { role: caller })).id);
+  return { lab, cookie, targetUserId: target.id, invitationId };
+}
+
+function bodyFor(route: LabRouteSummary): object | undefined {
+  if (route.method === 'patch') return { role: 'scientist' };
+  if (route.method === 'post' && route.path === '/invitations') return { email: `new-${Date.now()}-${Math.random().toString(36).slice(2)}@lab.example`, role: 'guest' };
+  return undefined;
+}
+
+describe('lab route table', () => {
+  it('every lab route has an entry in this matrix, and every entry is a route', () => {
+    expect(routes.map(key).sort()).toEqual(Object.keys(ALLOWED).sort());
+  });
+});
+
+describe('route × role matrix', () => {
+  for (const caller of CALLERS) {
+    it(`${caller}: gets exactly the answers the role table says on every lab route`, async () => {
+      const mismatches: string[] = [];
+      for (const route of routes) {
+        const f = await fixture(caller);
+        const path = `/api/v1/labs/${f.lab.slug}${route.path}`.replace(':userId', String(f.targetUserId)).replace(':id', String(f.invitationId));
+        let req = request(t.app)[route.method](path);
+        if (f.cookie) req = req.set('Cookie', f.cookie);
+        const body = bodyFor(route);
+        const res = await (body ? req.send(body) : req);
+        const allowed = ALLOWED[key(route)];
+        const expected =
+          caller === 'signed-out' ? 401 : caller === 'non-member' ? 404 : allowed.roles.includes(caller) ? allowed.ok : 403;
+        if (res.status !== expected) mismatches.push(`${key(route)} → ${res.status} (expected ${expected}) ${JSON.stringify(res.body)}`);
+      }
+      expect(mismatches).toEqual([]);
+    });
+  }
+});
