@@ -29,6 +29,12 @@ import { labRoutes, labsRouter } from './http/labs/labs.router.ts';
 import { memberRoutes } from './http/labs/members.router.ts';
 import { invitationAcceptanceRouter, invitationRoutes } from './http/labs/invitations.router.ts';
 import { auditRoutes } from './http/labs/audit.router.ts';
+import { createLoggersService } from './services/loggers.service.ts';
+import { createQuarantineService } from './services/quarantine.service.ts';
+import { createIngestService } from './services/ingest/ingest.service.ts';
+import { loggerRoutes } from './http/loggers/loggers.router.ts';
+import { quarantineRoutes } from './http/loggers/quarantine.router.ts';
+import { ingestRouter } from './http/ingest/ingest.router.ts';
 
 /** Everything the app talks to, handed in so tests can build it with stand-ins. */
 export interface AppDeps {
@@ -40,6 +46,8 @@ export interface AppDeps {
   billing: Stripe;
   /** The clock services use (tests move it to check expiry). */
   now?: () => Date;
+  /** Per-logger ingest allowance (requests per second, burst); defaults to 20/s, burst 40. */
+  ingestRate?: { perSecond: number; burst: number };
 }
 
 /**
@@ -61,17 +69,26 @@ export function createApp(deps: AppDeps): Express {
   const members = createMembersService({ db });
   const invitations = createInvitationsService({ db, mailer: deps.mailer, publicUrl: config.publicUrl, now: deps.now });
   const audit = createAuditService({ db });
+  const nowMs = deps.now ? () => deps.now!().getTime() : undefined;
+  const loggers = createLoggersService({ db, now: deps.now });
+  const quarantine = createQuarantineService({ db, now: nowMs });
+  const ingest = createIngestService({ db, now: nowMs });
   const labRouteTable = mountLabRoutes(createLabGuard(db), [
     ...labRoutes(),
     ...memberRoutes({ members }),
     ...invitationRoutes({ invitations }),
     ...auditRoutes({ audit }),
+    ...loggerRoutes({ loggers }),
+    ...quarantineRoutes({ quarantine }),
   ]);
   // The route table, for the role × route test (every lab route and its permission).
   app.locals.labRoutes = labRouteTable.table satisfies LabRouteSummary[];
 
   app.use(securityHeaders({ secure: config.secureCookies }));
   app.use(healthRouter({ db }));
+  // Loggers authenticate with their key, not a session: ingestion comes before the session
+  // middleware and takes its own (larger) body limits.
+  app.use(ingestRouter({ ingest, rate: deps.ingestRate }));
   app.use(sessionMiddleware({ db, secret: config.sessionSecret, secure: config.secureCookies }));
   app.use(passport.session());
   app.use(sameOriginWrites(config.publicUrl));

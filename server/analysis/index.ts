@@ -46,3 +46,5 @@ export {
   type ProcessVerdict,
 } from './identify-process.ts';
 export { durbinLevinson, type DurbinLevinsonResult } from './durbin-levinson.ts';
+export { decomposeClassical } from './decompose-classical.ts';
+export { stl } from './stl.ts';

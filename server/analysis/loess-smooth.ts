@@ -1,4 +1,5 @@
 import { loessEstimate } from './loess-estimate.ts';
+import { loessSymmetricFit } from './loess-symmetric-fit.ts';
 import { loessTricubeWeights } from './loess-tricube-weights.ts';
 
 /**
@@ -30,7 +31,7 @@ export function loessSmooth(
     return;
   }
   const step = Math.min(jump, n - 1);
-  const kernel = robustWeights === null && span < n && span % 2 === 1 ? symmetricKernel(span) : null;
+  const kernel = span < n && span % 2 === 1 ? symmetricKernel(span) : null;
   // Each sweep returns the left end of its last window (which spans `span` values, or the
   // whole series), which the reference code reuses below.
   const lastLeft =
@@ -71,8 +72,12 @@ function sweepEveryPosition(
       left++;
       right++;
     }
-    if (kernel !== null && i - left === right - i) out[outOffset + i] = symmetricFit(y, i, kernel);
-    else fitAt(y, n, span, degree, i, left, right, robustWeights, out, outOffset);
+    if (kernel !== null && i - left === right - i) {
+      const v = loessSymmetricFit(y, n, i, kernel, degree, robustWeights);
+      out[outOffset + i] = Number.isNaN(v) ? y[i] : v;
+    } else {
+      fitAt(y, n, span, degree, i, left, right, robustWeights, out, outOffset);
+    }
   }
   return left;
 }
@@ -95,7 +100,8 @@ function sweepWithJumps(
       left = i - half + 1;
       right = span + i - half;
       if (kernel !== null) {
-        out[outOffset + i] = symmetricFit(y, i, kernel);
+        const v = loessSymmetricFit(y, n, i, kernel, degree, robustWeights);
+        out[outOffset + i] = Number.isNaN(v) ? y[i] : v;
         continue;
       }
     }
@@ -105,25 +111,14 @@ function sweepWithJumps(
 }
 
 /**
- * Normalised tricube weights by distance for a full window of odd `span` centred on the fit.
- * Without robustness weights such a window is symmetric about the fitting position, so the
- * local line's slope term vanishes and degrees 0 and 1 both give this weighted mean.
+ * Tricube weights by distance for a full window of odd `span` centred on the fit, cut to the
+ * distances that have weight (the outermost ones get none).
  */
 function symmetricKernel(span: number): Float64Array {
   const radius = (span - 1) / 2;
-  const kernel = new Float64Array(radius + 1);
-  loessTricubeWeights(radius, 0, radius, kernel);
-  let total = kernel[0];
-  for (let d = 1; d <= radius; d++) total += 2 * kernel[d];
-  for (let d = 0; d <= radius; d++) kernel[d] /= total;
-  return kernel;
-}
-
-/** The symmetric-window loess value at `i` (see {@link symmetricKernel}). */
-function symmetricFit(y: Float64Array, i: number, kernel: Float64Array): number {
-  let sum = kernel[0] * y[i];
-  for (let d = 1; d < kernel.length; d++) sum += kernel[d] * (y[i - d] + y[i + d]);
-  return sum;
+  const weights = new Float64Array(radius + 1);
+  const reach = loessTricubeWeights(radius, 0, radius, weights);
+  return weights.subarray(0, Math.min(reach, radius) + 1);
 }
 
 /** One loess fit written to `out`; where every weight is zero the input value is kept. */

@@ -1,41 +1,40 @@
+// stl.f writes these cut-offs as default-real (single precision) literals that are promoted
+// to double; using the same values makes the boundary cases fall on the same side as in R.
 const NEAR_ONE = Math.fround(0.999);
 const NEAR_ZERO = Math.fround(0.001);
 
 /**
- * STL's robustness weights: Tukey's bisquare of each residual scaled by six times the
- * median absolute residual, `w = (1 − (|r| / 6m)²)²` for `|r| < 6m` and 0 beyond, so that
- * outliers stop pulling the next pass of the seasonal and trend smoothers.
+ * STL's robustness weights from the residuals `y − (trend + seasonal)`: Tukey's bisquare of
+ * each residual scaled by six times the median absolute residual, `w = (1 − (|r| / 6m)²)²`
+ * for `|r| < 6m` and 0 beyond, so that outliers stop pulling the next pass of the seasonal
+ * and trend smoothers.
  *
  * Method: Cleveland, Cleveland, McRae & Terpenning (1990), "STL: A Seasonal-Trend
  * Decomposition Procedure Based on Loess", J. Official Statistics 6(1):3–73, §2.3 (outer
  * loop), with the cut-offs of the authors' reference code (`stlrwt` in netlib's stl.f):
  * residuals within 0.001·6m get weight 1, those beyond 0.999·6m get 0. The median is exact
- * (the mean of the two middle values for an even count), found by selection in O(n) expected
- * time. Writes `out[0 .. n-1]`; `scratch` (n values) is overwritten; `y` and `fit` are only
- * read. Cost: O(n) expected.
+ * (the mean of the two middle values for an even count), found by selection; the reference
+ * code's partial sort can miss it, so R's stl may differ here while statsmodels agrees.
+ * Writes `out[0 .. n-1]`; `scratch` (n values) is overwritten; `residuals` is only read.
+ * Cost: O(n) expected.
  */
 export function robustnessWeights(
-  y: Float64Array,
-  fit: Float64Array,
+  residuals: Float64Array,
   n: number,
   out: Float64Array,
   scratch: Float64Array,
 ): void {
-  for (let i = 0; i < n; i++) scratch[i] = Math.abs(y[i] - fit[i]);
+  for (let i = 0; i < n; i++) scratch[i] = Math.abs(residuals[i]);
   const upper = n >> 1;
   const upperValue = selectInPlace(scratch, upper, n);
-  let lowerValue = upperValue;
-  if (n % 2 === 0) {
-    // After selection every value left of `upper` is at most scratch[upper]; the lower middle
-    // value is the largest of them.
-    lowerValue = -Infinity;
-    for (let i = 0; i < upper; i++) if (scratch[i] > lowerValue) lowerValue = scratch[i];
-  }
+  // After selection every value left of `upper` is at most scratch[upper]; for an even count
+  // the lower middle value is the largest of them.
+  const lowerValue = n % 2 === 0 ? largest(scratch, upper) : upperValue;
   const scale = 3 * (upperValue + lowerValue);
   const inner = NEAR_ZERO * scale;
   const outer = NEAR_ONE * scale;
   for (let i = 0; i < n; i++) {
-    const r = Math.abs(y[i] - fit[i]);
+    const r = Math.abs(residuals[i]);
     if (r <= inner) {
       out[i] = 1;
     } else if (r <= outer) {
@@ -46,6 +45,12 @@ export function robustnessWeights(
       out[i] = 0;
     }
   }
+}
+
+function largest(a: Float64Array, count: number): number {
+  let max = -Infinity;
+  for (let i = 0; i < count; i++) if (a[i] > max) max = a[i];
+  return max;
 }
 
 /**

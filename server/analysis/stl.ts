@@ -64,16 +64,15 @@ export function stl(x: Series, options: StlOptions): StlResult {
   for (let pass = 0; ; pass++) {
     stlInnerLoop(y, settings, pass === 0 ? null : weights, seasonal, trend, work);
     if (pass >= settings.outer) break;
-    const fit = work.series;
-    add(trend, seasonal, fit, n);
-    robustnessWeights(y, fit, n, weights, work.scratch);
+    const residuals = work.series;
+    remainderOf(y, seasonal, trend, residuals, n);
+    robustnessWeights(residuals, n, weights, work.scratch);
   }
   if (settings.outer <= 0) weights.fill(1);
   if (settings.periodic) replaceByCycleMeans(seasonal, period);
 
   const remainder = new Float64Array(n);
-  add(trend, seasonal, remainder, n);
-  subtract(y, remainder, remainder, n);
+  remainderOf(y, seasonal, trend, remainder, n);
   return { seasonal, trend, remainder, weights };
 }
 
@@ -101,12 +100,9 @@ function firstNonFinite(y: Float64Array): number {
   return -1;
 }
 
-/** `out[i] = a[i] + b[i]`. */
-function add(a: Float64Array, b: Float64Array, out: Float64Array, n: number): void {
-  for (let i = 0; i < n; i++) out[i] = a[i] + b[i];
-}
-
-/** `out[i] = a[i] − b[i]`. */
-function subtract(a: Float64Array, b: Float64Array, out: Float64Array, n: number): void {
-  for (let i = 0; i < n; i++) out[i] = a[i] - b[i];
+/** `out[i] = y[i] − seasonal[i] − trend[i]`. */
+function remainderOf(
+  y: Float64Array, seasonal: Float64Array, trend: Float64Array, out: Float64Array, n: number,
+): void {
+  for (let i = 0; i < n; i++) out[i] = y[i] - seasonal[i] - trend[i];
 }

@@ -4,7 +4,16 @@ import type { Knex } from 'knex';
  * Tables whose rows belong to one lab and carry `tenant_id`. Adding a lab-owned table
  * means adding its name here; nothing else may query it.
  */
-export type LabOwnedTable = 'memberships' | 'invitations' | 'audit_events';
+export type LabOwnedTable =
+  | 'memberships'
+  | 'invitations'
+  | 'audit_events'
+  | 'loggers'
+  | 'channels'
+  | 'ingest_keys'
+  | 'readings'
+  | 'reading_rollups'
+  | 'quarantined_rows';
 
 export type DbOrTrx = Knex | Knex.Transaction;
 

@@ -1,7 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
-import { buildLab, buildMember, buildUser, sessionCookieFor, type TestLab } from '../support/factories.ts';
+import { buildMember, buildUser, sessionCookieFor } from '../support/factories.ts';
+import { buildLabWithEverything, fillPath, validBodyFor } from '../support/lab-fixture.ts';
 import type { LabRouteSummary } from '../../server/http/lab-routes.ts';
 import type { Role } from '../../server/policies/permissions.ts';
 
@@ -24,6 +25,20 @@ const ALLOWED: Record<string, { roles: Role[]; ok: number }> = {
   'POST /invitations/:id/resend': { roles: ['admin'], ok: 200 },
   'DELETE /invitations/:id': { roles: ['admin'], ok: 204 },
   'GET /audit': { roles: ['admin'], ok: 200 },
+  'GET /loggers': { roles: ALL, ok: 200 },
+  'POST /loggers': { roles: ['admin', 'technician'], ok: 201 },
+  'GET /loggers/:loggerId': { roles: ALL, ok: 200 },
+  'PATCH /loggers/:loggerId': { roles: ['admin', 'technician'], ok: 200 },
+  'POST /loggers/:loggerId/retire': { roles: ['admin', 'technician'], ok: 204 },
+  'POST /loggers/:loggerId/channels': { roles: ['admin', 'technician'], ok: 201 },
+  'PATCH /loggers/:loggerId/channels/:channelId': { roles: ['admin', 'technician'], ok: 200 },
+  'POST /loggers/:loggerId/channels/:channelId/retire': { roles: ['admin', 'technician'], ok: 204 },
+  'POST /loggers/:loggerId/keys': { roles: ['admin', 'technician'], ok: 201 },
+  'DELETE /loggers/:loggerId/keys/:keyId': { roles: ['admin', 'technician'], ok: 204 },
+  'GET /quarantine': { roles: ['admin', 'technician'], ok: 200 },
+  'GET /quarantine/export.csv': { roles: ['admin', 'technician'], ok: 200 },
+  'POST /quarantine/discard': { roles: ['admin', 'technician'], ok: 200 },
+  'POST /quarantine/resubmit': { roles: ['admin', 'technician'], ok: 200 },
 };
 
 type Caller = Role | 'signed-out' | 'non-member';
@@ -39,30 +54,13 @@ afterAll(async () => t.close());
 
 const key = (r: LabRouteSummary) => `${r.method.toUpperCase()} ${r.path}`;
 
-/** A fresh lab with a founding admin, the caller, a guest to act on and a pending invitation. */
+/** A fresh lab with one of everything, and the caller's cookie. */
 async function fixture(caller: Caller) {
-  const lab: TestLab = await buildLab(t.db);
-  await buildMember(t.db, lab, { role: 'admin' });
-  const target = await buildMember(t.db, lab, { role: 'guest' });
-  const invitationId = Math.floor(Math.random() * 2 ** 40) + 1;
-  await t.db('invitations').insert({
-    tenant_id: lab.id,
-    id: invitationId,
-    email: `pending-${invitationId}@lab.example`,
-    role: 'scientist',
-    token_hash: 'f'.repeat(48) + invitationId.toString(16).padStart(16, '0'),
-    expires_at: new Date(Date.now() + 86400_000),
-  });
+  const f = await buildLabWithEverything(t.db);
   let cookie: string | null = null;
   if (caller === 'non-member') cookie = await sessionCookieFor(t.db, t.config.sessionSecret, (await buildUser(t.db)).id);
-  else if (caller !== 'signed-out') cookie = await sessionCookieFor(t.db, t.config.sessionSecret, (await buildMember(t.db, lab, { role: caller })).id);
-  return { lab, cookie, targetUserId: target.id, invitationId };
-}
-
-function bodyFor(route: LabRouteSummary): object | undefined {
-  if (route.method === 'patch') return { role: 'scientist' };
-  if (route.method === 'post' && route.path === '/invitations') return { email: `new-${Date.now()}-${Math.random().toString(36).slice(2)}@lab.example`, role: 'guest' };
-  return undefined;
+  else if (caller !== 'signed-out') cookie = await sessionCookieFor(t.db, t.config.sessionSecret, (await buildMember(t.db, f.lab, { role: caller })).id);
+  return { f, cookie };
 }
 
 describe('lab route table', () => {
@@ -76,11 +74,11 @@ describe('route × role matrix', () => {
     it(`${caller}: gets exactly the answers the role table says on every lab route`, async () => {
       const mismatches: string[] = [];
       for (const route of routes) {
-        const f = await fixture(caller);
-        const path = `/api/v1/labs/${f.lab.slug}${route.path}`.replace(':userId', String(f.targetUserId)).replace(':id', String(f.invitationId));
+        const { f, cookie } = await fixture(caller);
+        const path = `/api/v1/labs/${f.lab.slug}${fillPath(route.path, f.params)}`;
         let req = request(t.app)[route.method](path);
-        if (f.cookie) req = req.set('Cookie', f.cookie);
-        const body = bodyFor(route);
+        if (cookie) req = req.set('Cookie', cookie);
+        const body = validBodyFor(route.method, route.path, f);
         const res = await (body ? req.send(body) : req);
         const allowed = ALLOWED[key(route)];
         const expected =

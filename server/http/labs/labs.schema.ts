@@ -40,6 +40,17 @@ export const AUDIT_ACTIONS = [
   'member.role-changed',
   'member.removed',
   'member.left',
+  'logger.registered',
+  'logger.updated',
+  'logger.retired',
+  'channel.added',
+  'channel.updated',
+  'channel.retired',
+  'ingest-key.issued',
+  'ingest-key.rotated',
+  'ingest-key.revoked',
+  'quarantine.discarded',
+  'quarantine.resubmitted',
 ] as const;
 
 export const auditQuerySchema = z.object({

@@ -2,28 +2,7 @@ import type { ErrorRequestHandler } from 'express';
 import { ZodError } from 'zod';
 import { AppError, ServiceUnavailableError, ValidationError } from '../../errors.ts';
 import type { Logger } from '../../logger.ts';
-
-const DB_DOWN_CODES = new Set([
-  'ECONNREFUSED',
-  'ECONNRESET',
-  'ETIMEDOUT',
-  'PROTOCOL_CONNECTION_LOST',
-  'ER_SERVER_SHUTDOWN',
-  'ER_CON_COUNT_ERROR',
-]);
-
-/** True for errors that mean "the database is unreachable right now", not "the query is wrong". */
-export function isDatabaseUnavailable(err: unknown): boolean {
-  const e = err as { code?: string; name?: string; errno?: number } | null;
-  if (!e) return false;
-  return (e.code !== undefined && DB_DOWN_CODES.has(e.code)) || e.name === 'KnexTimeoutError';
-}
-
-/** A deadlock or lock wait timeout: the transaction was rolled back and can simply be retried. */
-export function isLockConflict(err: unknown): boolean {
-  const code = (err as { code?: string } | null)?.code;
-  return code === 'ER_LOCK_DEADLOCK' || code === 'ER_LOCK_WAIT_TIMEOUT';
-}
+import { isDatabaseUnavailable, isLockConflict } from '../../db/db-errors.ts';
 
 /** Turns a ZodError into `field: reason` lines (the validation message convention). */
 export function zodToValidationError(err: ZodError): ValidationError {

@@ -1,0 +1,99 @@
+import type { LabScope, DbOrTrx } from './tenant-scope.ts';
+
+export interface ReadingRow {
+  channelId: number;
+  ts: number;
+  value: number;
+}
+
+/** Rollup resolutions in seconds, finest first; each is computed from the one before it. */
+export const ROLLUP_RESOLUTIONS_S = [60, 3600, 86400] as const;
+
+/** Groups sorted bucket starts into runs whose neighbours are at most `maxGap` apart. */
+function runsOf(sorted: number[], maxGap: number): Array<[number, number]> {
+  const runs: Array<[number, number]> = [];
+  for (const b of sorted) {
+    const last = runs[runs.length - 1];
+    if (last && b - last[1] <= maxGap) last[1] = b;
+    else runs.push([b, b]);
+  }
+  return runs;
+}
+
+/** Data access for one lab's readings and their rollups. */
+export function readingsIn(scope: LabScope, db: DbOrTrx) {
+  const tenantId = scope.tenantId;
+  return {
+    /**
+     * Inserts rows, ignoring any (channel, ts) already stored. Returns how many were new.
+     * One multi-row statement per call (bindings, never string-built SQL).
+     */
+    async insertNew(rows: ReadingRow[]): Promise<number> {
+      if (rows.length === 0) return 0;
+      const { sql, bindings } = db('readings')
+        .insert(rows.map((r) => ({ tenant_id: tenantId, channel_id: r.channelId, ts: r.ts, value: r.value })))
+        .onConflict()
+        .ignore()
+        .toSQL();
+      const [result] = await db.raw(sql, bindings as readonly unknown[] as never);
+      return Number((result as { affectedRows: number }).affectedRows);
+    },
+
+    /** The stored values at the given times of one channel (for conflict checks). */
+    async storedAt(channelId: number, times: number[]): Promise<Map<number, number>> {
+      const out = new Map<number, number>();
+      for (let i = 0; i < times.length; i += 1000) {
+        const rows = await scope
+          .table('readings')
+          .where('readings.channel_id', channelId)
+          .whereIn('readings.ts', times.slice(i, i + 1000))
+          .select('ts', 'value');
+        for (const r of rows) out.set(Number(r.ts), Number(r.value));
+      }
+      return out;
+    },
+
+    /**
+     * Recomputes the rollups of the buckets these times fall in: minute buckets from raw
+     * readings, hours from minutes, days from hours. Recomputing (rather than adding) keeps
+     * rollups exact and idempotent whatever was inserted before; runs of touched buckets are
+     * scanned together so a live batch costs one range scan per resolution.
+     */
+    async refreshRollups(channelId: number, times: number[]): Promise<void> {
+      if (times.length === 0) return;
+      let source: 'raw' | number = 'raw';
+      for (const res of ROLLUP_RESOLUTIONS_S) {
+        const ms = res * 1000;
+        const buckets = [...new Set(times.map((t) => t - (((t % ms) + ms) % ms)))].sort((a, b) => a - b);
+        for (const [first, last] of runsOf(buckets, ms * 4)) {
+          const from = first;
+          const to = last + ms;
+          if (source === 'raw') {
+            await db.raw(
+              `INSERT INTO reading_rollups (tenant_id, channel_id, resolution_s, bucket_start, min_value, max_value, sum_value, count_value)
+               SELECT tenant_id, channel_id, ?, ts - MOD(ts, ?) AS b, MIN(value), MAX(value), SUM(value), COUNT(*)
+               FROM readings WHERE tenant_id = ? AND channel_id = ? AND ts >= ? AND ts < ?
+               GROUP BY b
+               ON DUPLICATE KEY UPDATE min_value = VALUES(min_value), max_value = VALUES(max_value),
+                 sum_value = VALUES(sum_value), count_value = VALUES(count_value)`,
+              [res, ms, tenantId, channelId, from, to],
+            );
+          } else {
+            await db.raw(
+              `INSERT INTO reading_rollups (tenant_id, channel_id, resolution_s, bucket_start, min_value, max_value, sum_value, count_value)
+               SELECT tenant_id, channel_id, ?, bucket_start - MOD(bucket_start, ?) AS b, MIN(min_value), MAX(max_value), SUM(sum_value), SUM(count_value)
+               FROM reading_rollups WHERE tenant_id = ? AND channel_id = ? AND resolution_s = ? AND bucket_start >= ? AND bucket_start < ?
+               GROUP BY b
+               ON DUPLICATE KEY UPDATE min_value = VALUES(min_value), max_value = VALUES(max_value),
+                 sum_value = VALUES(sum_value), count_value = VALUES(count_value)`,
+              [res, ms, tenantId, channelId, source, from, to],
+            );
+          }
+        }
+        source = res;
+      }
+    },
+  };
+}
+
+export type ReadingsRepo = ReturnType<typeof readingsIn>;

@@ -1,0 +1,78 @@
+import { z } from 'zod';
+import { isKnownTimeZone } from '../../policies/time-zones.ts';
+
+/**
+ * Input schemas for loggers, channels, ingest keys and quarantine review. Pure zod, shared
+ * with the client's forms.
+ */
+
+const optionalText = (max: number) =>
+  z
+    .string()
+    .trim()
+    .max(max, `must be at most ${max} characters`)
+    .transform((s) => (s === '' ? null : s))
+    .nullable()
+    .optional();
+
+export const channelKeySchema = z
+  .string()
+  .trim()
+  .regex(/^[A-Za-z0-9][A-Za-z0-9_.-]{0,63}$/, 'use 1–64 letters, digits, "_", "." or "-", starting with a letter or digit');
+
+const intervalSchema = z.number().int('must be a whole number of seconds').min(1, 'must be at least 1 second').max(604800, 'must be at most 7 days');
+
+const channelFields = {
+  key: channelKeySchema,
+  label: z.string().trim().min(1, 'must not be empty').max(120, 'must be at most 120 characters'),
+  unit: z.string().trim().max(32, 'must be at most 32 characters').optional(),
+  quantity: z.string().trim().max(64, 'must be at most 64 characters').optional(),
+  validMin: z.number().finite().nullable().optional(),
+  validMax: z.number().finite().nullable().optional(),
+  expectedIntervalS: intervalSchema.nullable().optional(),
+  seasonalPeriodHint: z.number().int('must be a whole number').min(2, 'must be at least 2').max(100000, 'must be at most 100000').nullable().optional(),
+};
+
+const rangeIsOrdered = (c: { validMin?: number | null; validMax?: number | null }) =>
+  c.validMin === undefined || c.validMin === null || c.validMax === undefined || c.validMax === null || c.validMin < c.validMax;
+const rangeMessage = { message: 'validMin must be below validMax', path: ['validMax'] };
+
+export const channelInputSchema = z.object(channelFields).refine(rangeIsOrdered, rangeMessage);
+export type ChannelInputBody = z.infer<typeof channelInputSchema>;
+
+export const channelPatchSchema = z.object(channelFields).partial().refine(rangeIsOrdered, rangeMessage);
+
+const timeZoneSchema = z.string().trim().refine(isKnownTimeZone, 'must be an IANA time zone such as Europe/Berlin or UTC');
+
+const loggerFields = {
+  name: z.string().trim().min(1, 'must not be empty').max(120, 'must be at most 120 characters'),
+  serial: optionalText(120),
+  site: optionalText(120),
+  timezone: timeZoneSchema,
+  expectedIntervalS: intervalSchema,
+};
+
+export const createLoggerSchema = z
+  .object({ ...loggerFields, channels: z.array(channelInputSchema).max(64, 'at most 64 channels per logger').default([]) })
+  .refine((l) => new Set(l.channels.map((c) => c.key)).size === l.channels.length, { message: 'channel keys must be unique within a logger', path: ['channels'] });
+export type CreateLoggerBody = z.infer<typeof createLoggerSchema>;
+
+export const loggerPatchSchema = z.object(loggerFields).partial();
+
+export const quarantineQuerySchema = z.object({
+  loggerId: z.coerce.number().int().positive('must be a positive number').optional(),
+  reason: z.string().max(48).optional(),
+  page: z.coerce.number().int().min(1, 'must be 1 or more').default(1),
+  pageSize: z.coerce.number().int().min(1, 'must be 1 or more').max(500, 'must be at most 500').default(100),
+});
+
+export const quarantineIdsSchema = z.object({
+  ids: z.array(z.number().int().positive()).min(1, 'choose at least one row').max(1000, 'at most 1000 rows at a time'),
+});
+
+export const quarantineResubmitSchema = z.object({
+  rows: z
+    .array(z.object({ id: z.number().int().positive(), channel: z.string().max(191), ts: z.union([z.string().max(191), z.number()]), value: z.union([z.number(), z.string().max(191)]) }))
+    .min(1, 'send at least one row')
+    .max(1000, 'at most 1000 rows at a time'),
+});

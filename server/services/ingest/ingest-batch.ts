@@ -1,0 +1,190 @@
+import { randomBytes } from 'node:crypto';
+import type { Db } from '../../db/create-db.ts';
+import { inLab } from '../../db/tenant-scope.ts';
+import { channelsIn } from '../../db/channels.repo.ts';
+import { loggersIn } from '../../db/loggers.repo.ts';
+import { readingsIn, type ReadingRow } from '../../db/readings.repo.ts';
+import { quarantineIn, type QuarantineInput } from '../../db/quarantine.repo.ts';
+import { parseReadingTime, type TimeFormat } from './parse-reading-time.ts';
+import { isLockConflict } from '../../db/db-errors.ts';
+
+/** One row as it arrived, before anything is checked. `index` is its position in the request. */
+export interface IncomingReading {
+  index: number;
+  channel: unknown;
+  ts: unknown;
+  value: unknown;
+  /** The row as sent (a CSV line, a JSON object), kept in quarantine for review. */
+  raw?: string;
+}
+
+export interface QuarantinedEntry {
+  index: number;
+  code: string;
+  reason: string;
+}
+
+export interface IngestOutcome {
+  accepted: number;
+  duplicates: number;
+  quarantined: QuarantinedEntry[];
+}
+
+export interface IngestTarget {
+  tenantId: number;
+  loggerId: number;
+}
+
+export interface IngestOptions {
+  source: 'api' | 'upload' | 'resubmit';
+  batchRef?: string;
+  timeFormat?: TimeFormat;
+  timeZone?: string;
+  now?: () => number;
+}
+
+/** Readings more than this far in the future are refused (a logger clock that is badly off). */
+export const MAX_FUTURE_MS = 24 * 3600 * 1000;
+const STRICT_NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+
+function readValue(raw: unknown): number | null {
+  if (typeof raw === 'number') return Number.isFinite(raw) ? raw : null;
+  if (typeof raw === 'string' && STRICT_NUMBER.test(raw.trim())) {
+    const n = Number(raw.trim());
+    return Number.isFinite(n) ? n : null;
+  }
+  return null;
+}
+
+const text = (v: unknown): string | null => (v === undefined || v === null ? null : typeof v === 'string' ? v : JSON.stringify(v));
+
+/**
+ * Stores one batch of a logger's readings, all or nothing, and accounts for every row:
+ * `accepted + duplicates + quarantined.length` equals the number of rows given.
+ *
+ * - A row whose channel, time or value cannot be read goes to quarantine with its reason.
+ * - A row already stored with the same value is a duplicate (re-sent batches change nothing).
+ * - A row for a time already stored with a different value keeps the stored value; the
+ *   newcomer is quarantined (also for two different values at one time in the same batch).
+ * - Rollups of the touched buckets are recomputed in the same transaction.
+ *
+ * The logger's row is locked for the transaction, so batches of one logger are applied one
+ * at a time; batches of different loggers run side by side. The caller answers 2xx only after
+ * this resolves, i.e. after COMMIT. A deadlock (rare) retries the whole batch.
+ */
+export async function ingestBatch(db: Db, target: IngestTarget, rows: IncomingReading[], opts: IngestOptions): Promise<IngestOutcome> {
+  for (let attempt = 1; ; attempt++) {
+    try {
+      return await db.transaction((trx) => applyBatch(trx as unknown as Db, target, rows, opts));
+    } catch (err) {
+      if (attempt < 3 && isLockConflict(err)) continue;
+      throw err;
+    }
+  }
+}
+
+async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[], opts: IngestOptions): Promise<IngestOutcome> {
+  const now = opts.now ?? Date.now;
+  const batchRef = opts.batchRef ?? randomBytes(8).toString('hex');
+  const scope = inLab(trx, target.tenantId);
+  const logger = await loggersIn(scope).find(target.loggerId, { lock: true });
+  if (!logger) throw new Error(`ingestBatch: logger ${target.loggerId} not found in lab ${target.tenantId}`);
+  const channels = new Map((await channelsIn(scope).listForLogger(target.loggerId, { includeRetired: true })).map((c) => [c.key, c]));
+
+  const quarantine: QuarantineInput[] = [];
+  const out: QuarantinedEntry[] = [];
+  const reject = (row: IncomingReading, code: string, reason: string) => {
+    out.push({ index: row.index, code, reason });
+    quarantine.push({
+      loggerId: target.loggerId,
+      source: opts.source,
+      batchRef,
+      rowIndex: row.index,
+      reasonCode: code,
+      reason,
+      channelKey: text(row.channel),
+      tsRaw: text(row.ts),
+      valueRaw: text(row.value),
+      raw: row.raw ?? null,
+    });
+  };
+
+  // 1. Read and check each row; keep the first value per (channel, ts) in this batch.
+  const candidates: Array<ReadingRow & { row: IncomingReading }> = [];
+  const seen = new Map<string, number>();
+  let duplicatesInBatch = 0;
+  const latestAllowed = now() + MAX_FUTURE_MS;
+  for (const row of rows) {
+    const key = typeof row.channel === 'string' ? row.channel.trim() : null;
+    if (!key) {
+      reject(row, 'missing_channel', 'channel: missing');
+      continue;
+    }
+    const channel = channels.get(key);
+    if (!channel) {
+      reject(row, 'unknown_channel', `channel: no channel "${key.slice(0, 64)}" on this logger`);
+      continue;
+    }
+    if (channel.retiredAt) {
+      reject(row, 'retired_channel', `channel: "${key}" is retired`);
+      continue;
+    }
+    const time = parseReadingTime(row.ts, { format: opts.timeFormat, timeZone: opts.timeZone });
+    if (!time.ok) {
+      reject(row, 'bad_time', time.reason);
+      continue;
+    }
+    if (time.ts < 0 || time.ts > latestAllowed) {
+      reject(row, 'time_out_of_range', time.ts < 0 ? 'ts: before 1970' : 'ts: more than 24 hours in the future (check the logger clock)');
+      continue;
+    }
+    const value = readValue(row.value);
+    if (value === null) {
+      reject(row, 'bad_value', 'value: must be a finite number');
+      continue;
+    }
+    const k = `${channel.id}:${time.ts}`;
+    const first = seen.get(k);
+    if (first !== undefined) {
+      if (Object.is(first, value) || first === value) duplicatesInBatch++;
+      else reject(row, 'conflict_in_batch', 'ts: this batch has another value for the same channel and time');
+      continue;
+    }
+    seen.set(k, value);
+    candidates.push({ channelId: channel.id, ts: time.ts, value, row });
+  }
+
+  // 2. Insert what is new; only if some rows were already stored, find out which and why.
+  const readings = readingsIn(scope, trx);
+  let accepted = 0;
+  for (let i = 0; i < candidates.length; i += 5000) accepted += await readings.insertNew(candidates.slice(i, i + 5000));
+  let duplicates = duplicatesInBatch;
+  if (accepted < candidates.length) {
+    const byChannel = new Map<number, typeof candidates>();
+    for (const c of candidates) (byChannel.get(c.channelId) ?? byChannel.set(c.channelId, []).get(c.channelId)!).push(c);
+    let conflicts = 0;
+    for (const [channelId, list] of byChannel) {
+      const stored = await readings.storedAt(channelId, list.map((c) => c.ts));
+      for (const c of list) {
+        const v = stored.get(c.ts);
+        if (v !== undefined && v !== c.value) {
+          conflicts++;
+          reject(c.row, 'conflicts_with_stored', `value: ${c.value} differs from the value already stored for this time (${v}); the stored value was kept`);
+        }
+      }
+    }
+    duplicates += candidates.length - accepted - conflicts;
+  }
+
+  // 3. Rollups, quarantine, last-seen — all in the same transaction.
+  if (accepted > 0) {
+    const timesByChannel = new Map<number, number[]>();
+    for (const c of candidates) (timesByChannel.get(c.channelId) ?? timesByChannel.set(c.channelId, []).get(c.channelId)!).push(c.ts);
+    for (const [channelId, times] of timesByChannel) await readings.refreshRollups(channelId, times);
+  }
+  if (quarantine.length) await quarantineIn(scope).add(quarantine);
+  if (opts.source === 'api') await loggersIn(scope).markSeen(target.loggerId, now());
+
+  out.sort((a, b) => a.index - b.index);
+  return { accepted, duplicates, quarantined: out };
+}

@@ -1,0 +1,44 @@
+import type { Db } from '../../db/create-db.ts';
+import { findIngestKeyByPrefix } from '../../db/ingest-keys.repo.ts';
+import { ingestKeysIn } from '../../db/ingest-keys.repo.ts';
+import { inLab } from '../../db/tenant-scope.ts';
+import { AppError } from '../../errors.ts';
+import { ingestKeyMatches, ingestKeyPrefix } from '../ingest-key-format.ts';
+import { ingestBatch, type IncomingReading, type IngestOptions, type IngestOutcome, type IngestTarget } from './ingest-batch.ts';
+
+/** 401 for a missing, malformed, unknown or revoked ingest key (one answer for all: nothing to probe). */
+export class InvalidIngestKeyError extends AppError {
+  constructor() {
+    super(401, 'invalid_ingest_key', 'Send a valid ingest key as "Authorization: Bearer lbk_…". Ask a technician for the logger\'s key.');
+  }
+}
+
+export interface AuthenticatedLogger extends IngestTarget {
+  keyId: number;
+}
+
+const TOUCH_EVERY_MS = 60_000;
+
+/** The logger side of ingestion: who is sending (by key) and storing what they send. */
+export function createIngestService(deps: { db: Db; now?: () => number }) {
+  const now = deps.now ?? Date.now;
+  return {
+    /** Resolves a presented key to its lab and logger; refuses revoked keys and retired loggers. */
+    async authenticate(presented: string | undefined): Promise<AuthenticatedLogger> {
+      const prefix = presented ? ingestKeyPrefix(presented) : null;
+      if (!presented || !prefix) throw new InvalidIngestKeyError();
+      const match = await findIngestKeyByPrefix(deps.db, prefix);
+      if (!match || match.revoked || match.loggerRetired || !ingestKeyMatches(presented, match.keyHash)) throw new InvalidIngestKeyError();
+      if (!match.lastUsedAt || now() - match.lastUsedAt.getTime() > TOUCH_EVERY_MS) {
+        await ingestKeysIn(inLab(deps.db, match.tenantId)).touch(match.keyId, new Date(now()));
+      }
+      return { tenantId: match.tenantId, loggerId: match.loggerId, keyId: match.keyId };
+    },
+
+    ingest(target: IngestTarget, rows: IncomingReading[], opts: Omit<IngestOptions, 'now'>): Promise<IngestOutcome> {
+      return ingestBatch(deps.db, target, rows, { ...opts, now });
+    },
+  };
+}
+
+export type IngestService = ReturnType<typeof createIngestService>;

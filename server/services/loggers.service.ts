@@ -1,0 +1,193 @@
+import type { Db } from '../db/create-db.ts';
+import { inLab } from '../db/tenant-scope.ts';
+import { loggersIn, type Logger, type LoggerInput } from '../db/loggers.repo.ts';
+import { channelsIn, type Channel, type ChannelInput } from '../db/channels.repo.ts';
+import { ingestKeysIn, type IngestKeyInfo } from '../db/ingest-keys.repo.ts';
+import { auditIn } from '../db/audit.repo.ts';
+import { NotFoundError } from '../errors.ts';
+import { ConflictError, isDuplicateKey } from './service-errors.ts';
+import { newIngestKey } from './ingest-key-format.ts';
+import type { Actor, LabContext } from './lab-context.ts';
+
+export interface LoggerDetail extends Logger {
+  channels: Channel[];
+  keys: IngestKeyInfo[];
+}
+
+/** A key as shown once, right after it is made. */
+export interface IssuedKey {
+  key: string;
+  info: IngestKeyInfo;
+}
+
+/**
+ * Loggers, their channels and ingest keys: register, edit, retire (history kept), issue,
+ * rotate and revoke keys. Every change is one transaction and leaves an audit event.
+ */
+export function createLoggersService(deps: { db: Db; now?: () => Date }) {
+  const now = deps.now ?? (() => new Date());
+  const duplicateName = (err: unknown): never => {
+    if (isDuplicateKey(err)) {
+      const msg = String((err as Error).message);
+      if (msg.includes('channels_key_unique')) throw new ConflictError('channel_key_taken', 'key: this logger already has a channel with this key');
+      throw new ConflictError('logger_name_taken', 'name: this lab already has a logger with this name');
+    }
+    throw err;
+  };
+
+  async function requireLogger(scope: ReturnType<typeof inLab>, id: number, lock = false): Promise<Logger> {
+    const logger = await loggersIn(scope).find(id, { lock });
+    if (!logger) throw new NotFoundError('No such logger in this lab.');
+    return logger;
+  }
+
+  return {
+    async list(lab: LabContext, opts: { includeRetired?: boolean } = {}): Promise<Array<Logger & { channelCount: number }>> {
+      const scope = inLab(deps.db, lab.id);
+      const loggers = await loggersIn(scope).list(opts);
+      const channels = await channelsIn(scope).list();
+      return loggers.map((l) => ({ ...l, channelCount: channels.filter((c) => c.loggerId === l.id).length }));
+    },
+
+    async detail(lab: LabContext, id: number): Promise<LoggerDetail> {
+      const scope = inLab(deps.db, lab.id);
+      const logger = await requireLogger(scope, id);
+      const [channels, keys] = await Promise.all([channelsIn(scope).listForLogger(id, { includeRetired: true }), ingestKeysIn(scope).listForLogger(id)]);
+      return { ...logger, channels, keys };
+    },
+
+    /** Registers a logger with its channels and issues its first ingest key (shown once). */
+    async register(lab: LabContext, actor: Actor | null, input: LoggerInput & { channels: ChannelInput[] }): Promise<{ logger: LoggerDetail; issued: IssuedKey }> {
+      try {
+        return await deps.db.transaction(async (trx) => {
+          const scope = inLab(trx, lab.id);
+          const id = await loggersIn(scope).insert(input);
+          for (const c of input.channels) await channelsIn(scope).insert(id, c);
+          const made = newIngestKey();
+          const keyId = await ingestKeysIn(scope).insert({ loggerId: id, prefix: made.prefix, keyHash: made.hash, createdBy: actor?.id ?? null });
+          await auditIn(scope).record({
+            actorUserId: actor?.id ?? null,
+            action: 'logger.registered',
+            targetType: 'logger',
+            targetId: id,
+            summary: `${actor?.displayName ?? 'An operator'} registered the logger "${input.name}" with ${input.channels.length} channel(s)`,
+            details: { channels: input.channels.map((c) => c.key), keyPrefix: made.prefix },
+          });
+          const logger = (await loggersIn(scope).find(id))!;
+          const channels = await channelsIn(scope).listForLogger(id);
+          const info = (await ingestKeysIn(scope).find(keyId))!;
+          return { logger: { ...logger, channels, keys: [info] }, issued: { key: made.key, info } };
+        });
+      } catch (err) {
+        return duplicateName(err);
+      }
+    },
+
+    async update(lab: LabContext, actor: Actor, id: number, patch: Partial<LoggerInput>): Promise<Logger> {
+      try {
+        return await deps.db.transaction(async (trx) => {
+          const scope = inLab(trx, lab.id);
+          const before = await requireLogger(scope, id, true);
+          await loggersIn(scope).update(id, patch);
+          await auditIn(scope).record({ actorUserId: actor.id, action: 'logger.updated', targetType: 'logger', targetId: id, summary: `${actor.displayName} edited the logger "${before.name}"`, details: { ...patch } });
+          return (await loggersIn(scope).find(id))!;
+        });
+      } catch (err) {
+        return duplicateName(err);
+      }
+    },
+
+    /** Retires a logger: its keys stop working, its readings stay. */
+    async retire(lab: LabContext, actor: Actor, id: number): Promise<void> {
+      await deps.db.transaction(async (trx) => {
+        const scope = inLab(trx, lab.id);
+        const logger = await requireLogger(scope, id, true);
+        if (logger.retiredAt) return;
+        await loggersIn(scope).retire(id, now());
+        await ingestKeysIn(scope).revokeAllForLogger(id, now());
+        await auditIn(scope).record({ actorUserId: actor.id, action: 'logger.retired', targetType: 'logger', targetId: id, summary: `${actor.displayName} retired the logger "${logger.name}"` });
+      });
+    },
+
+    async addChannel(lab: LabContext, actor: Actor, loggerId: number, input: ChannelInput): Promise<Channel> {
+      try {
+        return await deps.db.transaction(async (trx) => {
+          const scope = inLab(trx, lab.id);
+          const logger = await requireLogger(scope, loggerId, true);
+          const id = await channelsIn(scope).insert(loggerId, input);
+          await auditIn(scope).record({ actorUserId: actor.id, action: 'channel.added', targetType: 'channel', targetId: id, summary: `${actor.displayName} added the channel "${input.key}" to "${logger.name}"` });
+          return (await channelsIn(scope).find(id))!;
+        });
+      } catch (err) {
+        return duplicateName(err);
+      }
+    },
+
+    async updateChannel(lab: LabContext, actor: Actor, loggerId: number, channelId: number, patch: Partial<ChannelInput>): Promise<Channel> {
+      try {
+        return await deps.db.transaction(async (trx) => {
+          const scope = inLab(trx, lab.id);
+          await requireLogger(scope, loggerId, true);
+          const channel = await channelsIn(scope).find(channelId);
+          if (!channel || channel.loggerId !== loggerId) throw new NotFoundError('No such channel on this logger.');
+          const merged = { validMin: channel.validMin, validMax: channel.validMax, ...patch };
+          if (merged.validMin !== null && merged.validMax !== null && merged.validMin !== undefined && merged.validMax !== undefined && merged.validMin >= merged.validMax) {
+            throw new ConflictError('invalid_range', 'validMax: must be above validMin');
+          }
+          await channelsIn(scope).update(channelId, patch);
+          await auditIn(scope).record({ actorUserId: actor.id, action: 'channel.updated', targetType: 'channel', targetId: channelId, summary: `${actor.displayName} edited the channel "${channel.key}"`, details: { ...patch } });
+          return (await channelsIn(scope).find(channelId))!;
+        });
+      } catch (err) {
+        return duplicateName(err);
+      }
+    },
+
+    async retireChannel(lab: LabContext, actor: Actor, loggerId: number, channelId: number): Promise<void> {
+      await deps.db.transaction(async (trx) => {
+        const scope = inLab(trx, lab.id);
+        await requireLogger(scope, loggerId, true);
+        const channel = await channelsIn(scope).find(channelId);
+        if (!channel || channel.loggerId !== loggerId) throw new NotFoundError('No such channel on this logger.');
+        if (channel.retiredAt) return;
+        await channelsIn(scope).retire(channelId, now());
+        await auditIn(scope).record({ actorUserId: actor.id, action: 'channel.retired', targetType: 'channel', targetId: channelId, summary: `${actor.displayName} retired the channel "${channel.key}"` });
+      });
+    },
+
+    /** Issues a new key; with `rotate`, every other key of the logger stops working at once. */
+    async issueKey(lab: LabContext, actor: Actor | null, loggerId: number, opts: { rotate: boolean }): Promise<IssuedKey> {
+      return deps.db.transaction(async (trx) => {
+        const scope = inLab(trx, lab.id);
+        const logger = await requireLogger(scope, loggerId, true);
+        if (logger.retiredAt) throw new ConflictError('logger_retired', 'This logger is retired; it cannot get new keys.');
+        if (opts.rotate) await ingestKeysIn(scope).revokeAllForLogger(loggerId, now());
+        const made = newIngestKey();
+        const keyId = await ingestKeysIn(scope).insert({ loggerId, prefix: made.prefix, keyHash: made.hash, createdBy: actor?.id ?? null });
+        await auditIn(scope).record({
+          actorUserId: actor?.id ?? null,
+          action: opts.rotate ? 'ingest-key.rotated' : 'ingest-key.issued',
+          targetType: 'logger',
+          targetId: loggerId,
+          summary: `${actor?.displayName ?? 'An operator'} ${opts.rotate ? 'rotated the keys of' : 'issued a key for'} "${logger.name}" (key ${made.prefix}…)`,
+          details: { keyPrefix: made.prefix },
+        });
+        return { key: made.key, info: (await ingestKeysIn(scope).find(keyId))! };
+      });
+    },
+
+    async revokeKey(lab: LabContext, actor: Actor, loggerId: number, keyId: number): Promise<void> {
+      await deps.db.transaction(async (trx) => {
+        const scope = inLab(trx, lab.id);
+        const logger = await requireLogger(scope, loggerId, true);
+        const key = await ingestKeysIn(scope).find(keyId);
+        if (!key || key.loggerId !== loggerId) throw new NotFoundError('No such key on this logger.');
+        if (key.revokedAt) return;
+        await ingestKeysIn(scope).revoke(keyId, now());
+        await auditIn(scope).record({ actorUserId: actor.id, action: 'ingest-key.revoked', targetType: 'logger', targetId: loggerId, summary: `${actor.displayName} revoked key ${key.prefix}… of "${logger.name}"`, details: { keyPrefix: key.prefix } });
+      });
+    },
+  };
+}
+
+export type LoggersService = ReturnType<typeof createLoggersService>;

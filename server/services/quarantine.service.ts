@@ -1,0 +1,88 @@
+import type { Db } from '../db/create-db.ts';
+import { inLab } from '../db/tenant-scope.ts';
+import { quarantineIn, type QuarantinedRow } from '../db/quarantine.repo.ts';
+import { auditIn } from '../db/audit.repo.ts';
+import { NotFoundError } from '../errors.ts';
+import { ingestBatch, type IngestOutcome } from './ingest/ingest-batch.ts';
+import type { Actor, LabContext } from './lab-context.ts';
+
+export interface ResubmitRow {
+  id: number;
+  channel: string;
+  ts: string | number;
+  value: string | number;
+}
+
+/**
+ * Reviewing quarantined rows: list and filter, export, discard (audit-logged), or fix and
+ * re-submit. A re-submitted row goes through exactly the same checks as a logger's; if it
+ * fails again it returns to quarantine with its new reason, so nothing is ever lost.
+ */
+export function createQuarantineService(deps: { db: Db; now?: () => number }) {
+  return {
+    list(lab: LabContext, filter: { loggerId?: number; reasonCode?: string; page: number; pageSize: number }) {
+      return quarantineIn(inLab(deps.db, lab.id)).list(filter);
+    },
+
+    /** Every matching row, page by page (for CSV export). */
+    async *all(lab: LabContext, filter: { loggerId?: number; reasonCode?: string }): AsyncGenerator<QuarantinedRow[]> {
+      const repo = quarantineIn(inLab(deps.db, lab.id));
+      for (let page = 1; ; page++) {
+        const { rows } = await repo.list({ ...filter, page, pageSize: 5000 });
+        if (rows.length === 0) return;
+        yield rows;
+        if (rows.length < 5000) return;
+      }
+    },
+
+    async discard(lab: LabContext, actor: Actor, ids: number[]): Promise<number> {
+      return deps.db.transaction(async (trx) => {
+        const scope = inLab(trx, lab.id);
+        const found = new Set((await quarantineIn(scope).findMany(ids)).map((r) => r.id));
+        const missing = ids.filter((id) => !found.has(id));
+        if (missing.length) throw new NotFoundError(`No such quarantined row in this lab: ${missing.join(', ')}.`);
+        const removed = await quarantineIn(scope).remove(ids);
+        await auditIn(scope).record({ actorUserId: actor.id, action: 'quarantine.discarded', summary: `${actor.displayName} discarded ${removed} quarantined row(s)`, details: { count: removed } });
+        return removed;
+      });
+    },
+
+    async resubmit(lab: LabContext, actor: Actor, rows: ResubmitRow[]): Promise<IngestOutcome & { resubmitted: number }> {
+      const repo = quarantineIn(inLab(deps.db, lab.id));
+      const originals = new Map((await repo.findMany(rows.map((r) => r.id))).map((o) => [o.id, o]));
+      const missing = rows.filter((r) => !originals.has(r.id) || originals.get(r.id)!.loggerId === null);
+      if (missing.length) throw new NotFoundError(`No such quarantined row in this lab: ${missing.map((m) => m.id).join(', ')}.`);
+      const byLogger = new Map<number, Array<{ row: ResubmitRow; index: number }>>();
+      rows.forEach((row, index) => {
+        const loggerId = originals.get(row.id)!.loggerId!;
+        (byLogger.get(loggerId) ?? byLogger.set(loggerId, []).get(loggerId)!).push({ row, index });
+      });
+      const total: IngestOutcome = { accepted: 0, duplicates: 0, quarantined: [] };
+      for (const [loggerId, list] of byLogger) {
+        const outcome = await ingestBatch(
+          deps.db,
+          { tenantId: lab.id, loggerId },
+          list.map(({ row, index }) => ({ index, channel: row.channel, ts: row.ts, value: row.value, raw: JSON.stringify(row) })),
+          { source: 'resubmit', now: deps.now },
+        );
+        total.accepted += outcome.accepted;
+        total.duplicates += outcome.duplicates;
+        total.quarantined.push(...outcome.quarantined);
+      }
+      await deps.db.transaction(async (trx) => {
+        const scope = inLab(trx, lab.id);
+        await quarantineIn(scope).remove(rows.map((r) => r.id));
+        await auditIn(scope).record({
+          actorUserId: actor.id,
+          action: 'quarantine.resubmitted',
+          summary: `${actor.displayName} re-submitted ${rows.length} quarantined row(s): ${total.accepted} stored, ${total.quarantined.length} quarantined again`,
+          details: { accepted: total.accepted, duplicates: total.duplicates, quarantinedAgain: total.quarantined.length },
+        });
+      });
+      total.quarantined.sort((a, b) => a.index - b.index);
+      return { ...total, resubmitted: rows.length };
+    },
+  };
+}
+
+export type QuarantineService = ReturnType<typeof createQuarantineService>;

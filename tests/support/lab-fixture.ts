@@ -1,0 +1,82 @@
+import type { Knex } from 'knex';
+import { buildLab, buildMember, type TestLab } from './factories.ts';
+import { newIngestKey } from '../../server/services/ingest-key-format.ts';
+
+let seq = 0;
+const rid = () => Math.floor(Math.random() * 2 ** 40) + 1 + seq++;
+
+/**
+ * A lab with one of every lab-owned thing a route can address: a guest member, a pending
+ * invitation, a logger with a channel and an ingest key, and a quarantined row. `params`
+ * maps each route parameter name to the id of that lab's thing.
+ */
+export async function buildLabWithEverything(db: Knex, overrides: Partial<{ name: string }> = {}) {
+  const lab: TestLab = await buildLab(db, overrides);
+  const founder = await buildMember(db, lab, { role: 'admin' });
+  const guest = await buildMember(db, lab, { role: 'guest' });
+  const invitationId = rid();
+  await db('invitations').insert({
+    tenant_id: lab.id,
+    id: invitationId,
+    email: `pending-${invitationId}@lab.example`,
+    role: 'scientist',
+    token_hash: invitationId.toString(16).padStart(64, 'f'),
+    expires_at: new Date(Date.now() + 86400_000),
+  });
+  const loggerId = rid();
+  await db('loggers').insert({ tenant_id: lab.id, id: loggerId, name: `Logger ${loggerId}`, timezone: 'UTC', expected_interval_s: 60 });
+  const channelId = rid();
+  await db('channels').insert({ tenant_id: lab.id, id: channelId, logger_id: loggerId, channel_key: 'air_t', label: 'Air temperature', unit: '°C' });
+  const key = newIngestKey();
+  const keyId = rid();
+  await db('ingest_keys').insert({ tenant_id: lab.id, id: keyId, logger_id: loggerId, prefix: key.prefix, key_hash: key.hash });
+  const quarantinedId = rid();
+  await db('quarantined_rows').insert({
+    tenant_id: lab.id,
+    id: quarantinedId,
+    logger_id: loggerId,
+    source: 'api',
+    row_index: 0,
+    reason_code: 'bad_value',
+    reason: 'value: must be a finite number',
+    channel_key: 'air_t',
+    ts_raw: '2026-01-01T00:00:00Z',
+    value_raw: '"warm"',
+  });
+  return {
+    lab,
+    founder,
+    guest,
+    ingestKey: key.key,
+    ids: { loggerId, channelId, keyId, quarantinedId, invitationId },
+    params: { userId: guest.id, id: invitationId, loggerId, channelId, keyId } as Record<string, number>,
+  };
+}
+
+export type LabWithEverything = Awaited<ReturnType<typeof buildLabWithEverything>>;
+
+/** A route path with its parameters filled from `params`. */
+export function fillPath(path: string, params: Record<string, number>): string {
+  return path.replace(/:([A-Za-z]+)/g, (_m, name: string) => {
+    if (!(name in params)) throw new Error(`no fixture value for route parameter :${name}`);
+    return String(params[name]);
+  });
+}
+
+/** A request body that is valid for the route (so the matrix tests permissions, not validation). */
+export function validBodyFor(method: string, path: string, f: LabWithEverything): object | undefined {
+  const key = `${method.toUpperCase()} ${path}`;
+  const unique = `${Date.now().toString(36)}${Math.random().toString(36).slice(2, 8)}`;
+  const bodies: Record<string, object> = {
+    'PATCH /members/:userId': { role: 'scientist' },
+    'POST /invitations': { email: `new-${unique}@lab.example`, role: 'guest' },
+    'POST /loggers': { name: `Logger ${unique}`, timezone: 'UTC', expectedIntervalS: 60, channels: [{ key: 'rh', label: 'Humidity', unit: '%' }] },
+    'PATCH /loggers/:loggerId': { site: 'North plot' },
+    'POST /loggers/:loggerId/channels': { key: `c${unique}`.slice(0, 20), label: 'New channel' },
+    'PATCH /loggers/:loggerId/channels/:channelId': { label: 'Air temperature (shaded)' },
+    'POST /loggers/:loggerId/keys': { rotate: false },
+    'POST /quarantine/discard': { ids: [f.ids.quarantinedId] },
+    'POST /quarantine/resubmit': { rows: [{ id: f.ids.quarantinedId, channel: 'air_t', ts: '2026-01-01T00:00:00Z', value: 4.5 }] },
+  };
+  return bodies[key];
+}
