@@ -57,6 +57,26 @@ export interface Config {
   stripe: { secretKey: string; apiBase: URL | null };
 }
 
+/** Only the database settings (for operator commands that need nothing else). */
+export function loadDatabaseConfig(env: NodeJS.ProcessEnv = process.env): Config['db'] & { publicUrl: string } {
+  const parsed = envSchema
+    .pick({ LAGBOOK_DB_HOST: true, LAGBOOK_DB_PORT: true, LAGBOOK_DB_USER: true, LAGBOOK_DB_PASSWORD: true, LAGBOOK_DB_NAME: true, LAGBOOK_DB_POOL_MAX: true, LAGBOOK_PUBLIC_URL: true, LAGBOOK_HOST: true, LAGBOOK_PORT: true })
+    .safeParse(env);
+  if (!parsed.success) {
+    throw new ConfigError(`Invalid configuration:\n${parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`).join('\n')}`);
+  }
+  const e = parsed.data;
+  return {
+    host: e.LAGBOOK_DB_HOST,
+    port: e.LAGBOOK_DB_PORT,
+    user: e.LAGBOOK_DB_USER,
+    password: e.LAGBOOK_DB_PASSWORD,
+    database: e.LAGBOOK_DB_NAME,
+    poolMax: e.LAGBOOK_DB_POOL_MAX,
+    publicUrl: (e.LAGBOOK_PUBLIC_URL ?? `http://${e.LAGBOOK_HOST}:${e.LAGBOOK_PORT}`).replace(/\/$/, ''),
+  };
+}
+
 /** Parses and validates the environment; throws ConfigError listing every problem at once. */
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
   const parsed = envSchema.safeParse(env);

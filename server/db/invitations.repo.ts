@@ -78,7 +78,7 @@ export function invitationsIn(scope: LabScope) {
       return rows.map(toInvitation);
     },
 
-    async insert(input: { email: string; role: Role; tokenHash: string; invitedBy: number; expiresAt: Date }): Promise<number> {
+    async insert(input: { email: string; role: Role; tokenHash: string; invitedBy: number | null; expiresAt: Date }): Promise<number> {
       const id = newId();
       await scope.insert('invitations', {
         id,

@@ -51,6 +51,12 @@ export function createUsersRepo(db: DbOrTrx) {
       return row ? toUser(row) : null;
     },
 
+    /** A person with this verified e-mail address (operators address people by e-mail). */
+    async findByVerifiedEmail(email: string, trx: DbOrTrx = db): Promise<User | null> {
+      const row = await trx<UserRow>('users').where({ email, email_verified: true }).orderBy('id').first();
+      return row ? toUser(row) : null;
+    },
+
     async findByIdentity(issuer: string, subject: string, trx: DbOrTrx = db): Promise<User | null> {
       const row = await trx<UserRow>('users').where({ oidc_issuer: issuer, oidc_subject: subject }).first();
       return row ? toUser(row) : null;

@@ -66,37 +66,53 @@ export function createInvitationsService(deps: { db: Db; mailer: Mailer; publicU
     }
   }
 
+  async function createInvitation(lab: LabContext, actor: Actor | null, input: InviteMemberInput, deliver: 'mail' | 'return-link') {
+    return deps.db.transaction(async (trx) => {
+      await createLabsRepo(trx).lock(lab.id);
+      const scope = inLab(trx, lab.id);
+      const invitations = invitationsIn(scope);
+      const members = await membershipsIn(scope).list();
+      if (members.some((m) => m.email === input.email)) {
+        throw new ConflictError('already_member', 'email: this person is already a member of the lab');
+      }
+      if ((await invitations.pendingFor(input.email, now())).length > 0) {
+        throw new ConflictError('invitation_pending', 'email: an invitation to this address is already pending');
+      }
+      const token = randomBytes(32).toString('base64url');
+      const expiresAt = new Date(now().getTime() + INVITATION_LIFETIME_MS);
+      const id = await invitations.insert({ email: input.email, role: input.role, tokenHash: hashInvitationToken(token), invitedBy: actor?.id ?? null, expiresAt });
+      const inviter = actor?.displayName ?? 'A Lagbook operator';
+      await auditIn(scope).record({
+        actorUserId: actor?.id ?? null,
+        action: 'invitation.created',
+        targetType: 'invitation',
+        targetId: id,
+        summary: `${inviter} invited ${input.email} as ${input.role}`,
+        details: { email: input.email, role: input.role },
+      });
+      const link = linkFor(lab.slug, token);
+      if (deliver === 'mail') {
+        await sendOrFail(invitationMail({ to: input.email, labName: lab.name, role: input.role, inviterName: inviter, link, expiresAt }));
+      }
+      return { invitation: (await invitations.findById(id))!, link };
+    });
+  }
+
   return {
     listPending(lab: LabContext): Promise<Invitation[]> {
       return invitationsIn(inLab(deps.db, lab.id)).listPending(now());
     },
 
     async invite(lab: LabContext, actor: Actor, input: InviteMemberInput): Promise<Invitation> {
-      return deps.db.transaction(async (trx) => {
-        await createLabsRepo(trx).lock(lab.id);
-        const scope = inLab(trx, lab.id);
-        const invitations = invitationsIn(scope);
-        const members = await membershipsIn(scope).list();
-        if (members.some((m) => m.email === input.email)) {
-          throw new ConflictError('already_member', 'email: this person is already a member of the lab');
-        }
-        if ((await invitations.pendingFor(input.email, now())).length > 0) {
-          throw new ConflictError('invitation_pending', 'email: an invitation to this address is already pending');
-        }
-        const token = randomBytes(32).toString('base64url');
-        const expiresAt = new Date(now().getTime() + INVITATION_LIFETIME_MS);
-        const id = await invitations.insert({ email: input.email, role: input.role, tokenHash: hashInvitationToken(token), invitedBy: actor.id, expiresAt });
-        await auditIn(scope).record({
-          actorUserId: actor.id,
-          action: 'invitation.created',
-          targetType: 'invitation',
-          targetId: id,
-          summary: `${actor.displayName} invited ${input.email} as ${input.role}`,
-          details: { email: input.email, role: input.role },
-        });
-        await sendOrFail(invitationMail({ to: input.email, labName: lab.name, role: input.role, inviterName: actor.displayName, link: linkFor(lab.slug, token), expiresAt }));
-        return (await invitations.findById(id))!;
-      });
+      return (await createInvitation(lab, actor, input, 'mail')).invitation;
+    },
+
+    /**
+     * For operators (the ops CLI): invites without a signed-in admin and returns the link
+     * instead of mailing it, for the operator to pass on.
+     */
+    inviteAsOperator(lab: LabContext, input: InviteMemberInput): Promise<{ invitation: Invitation; link: string }> {
+      return createInvitation(lab, null, input, 'return-link');
     },
 
     /** Sends a fresh link with a new expiry; the old link stops working. */

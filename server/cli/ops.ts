@@ -1,0 +1,108 @@
+/**
+ * Lagbook's operator command line, for scripts and operators: `npm run ops -- <command>`.
+ * Reads the LAGBOOK_DB_* settings (and LAGBOOK_PUBLIC_URL for links) from the environment.
+ */
+import { parseArgs } from 'node:util';
+import { loadDatabaseConfig } from '../config.ts';
+import { createDb } from '../db/create-db.ts';
+import { AppError, ConfigError } from '../errors.ts';
+import { createLabCommand, registerLoggerCommand, type CommandResult } from './ops-commands.ts';
+
+const HELP = `Lagbook operator commands
+
+Usage: npm run ops -- <command> [options] [--json]
+
+Commands:
+  create-lab --name <name> --admin <email> [--slug <slug>]
+      Create a lab. The admin joins at once if they have signed in before;
+      otherwise an admin invitation link is printed (valid 7 days, single use).
+
+  register-logger --lab <slug> --name <name> --interval <seconds>
+                  [--timezone <IANA zone, default UTC>] [--site <text>] [--serial <text>]
+                  [--channel <key>[:<label>[:<unit>[:<min>:<max>]]]]...
+      Register a logger with its channels and print its ingest key (shown once).
+      Example: --channel air_t:"Air temperature":°C:-40:60 --channel rh:Humidity:%:0:100
+
+Options:
+  --json    print the result as JSON (for scripts)
+  --help    this text
+
+Settings (environment): LAGBOOK_DB_HOST, LAGBOOK_DB_PORT, LAGBOOK_DB_USER,
+LAGBOOK_DB_PASSWORD, LAGBOOK_DB_NAME, LAGBOOK_PUBLIC_URL.
+`;
+
+function fail(message: string): never {
+  process.stderr.write(`ops: ${message}\n`);
+  process.exit(2);
+}
+
+function need(values: Record<string, unknown>, name: string): string {
+  const v = values[name];
+  if (typeof v !== 'string' || v === '') fail(`--${name} is required (see --help)`);
+  return v;
+}
+
+async function run(argv: string[]): Promise<CommandResult | null> {
+  const [command, ...rest] = argv;
+  if (!command || command === '--help' || command === 'help') {
+    process.stdout.write(HELP);
+    return null;
+  }
+  const { values } = parseArgs({
+    args: rest,
+    options: {
+      name: { type: 'string' },
+      slug: { type: 'string' },
+      admin: { type: 'string' },
+      lab: { type: 'string' },
+      interval: { type: 'string' },
+      timezone: { type: 'string', default: 'UTC' },
+      site: { type: 'string' },
+      serial: { type: 'string' },
+      channel: { type: 'string', multiple: true, default: [] },
+      json: { type: 'boolean', default: false },
+      help: { type: 'boolean', default: false },
+    },
+    strict: true,
+  });
+  if (values.help) {
+    process.stdout.write(HELP);
+    return null;
+  }
+  const config = loadDatabaseConfig();
+  const db = createDb(config);
+  try {
+    switch (command) {
+      case 'create-lab':
+        return await createLabCommand(db, config.publicUrl, { name: need(values, 'name'), slug: values.slug, adminEmail: need(values, 'admin') });
+      case 'register-logger': {
+        const interval = Number(need(values, 'interval'));
+        return await registerLoggerCommand(db, {
+          lab: need(values, 'lab'),
+          name: need(values, 'name'),
+          intervalS: interval,
+          timezone: values.timezone!,
+          site: values.site,
+          serial: values.serial,
+          channels: values.channel as string[],
+        });
+      }
+      default:
+        fail(`unknown command "${command}" (see --help)`);
+    }
+  } finally {
+    await db.destroy();
+  }
+}
+
+const wantsJson = process.argv.includes('--json');
+run(process.argv.slice(2)).then(
+  (result) => {
+    if (result) process.stdout.write(wantsJson ? `${JSON.stringify(result.json)}\n` : `${result.text}\n`);
+  },
+  (err: unknown) => {
+    if (err instanceof AppError || err instanceof ConfigError) fail(err.message);
+    if ((err as { code?: string }).code === 'ERR_PARSE_ARGS_UNKNOWN_OPTION') fail(`${(err as Error).message} (see --help)`);
+    fail(`failed: ${(err as Error).message}`);
+  },
+);
