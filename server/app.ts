@@ -35,6 +35,7 @@ import { createIngestService } from './services/ingest/ingest.service.ts';
 import { loggerRoutes } from './http/loggers/loggers.router.ts';
 import { quarantineRoutes } from './http/loggers/quarantine.router.ts';
 import { ingestRouter } from './http/ingest/ingest.router.ts';
+import { uploadRoutes } from './http/loggers/uploads.router.ts';
 
 /** Everything the app talks to, handed in so tests can build it with stand-ins. */
 export interface AppDeps {
@@ -80,6 +81,7 @@ export function createApp(deps: AppDeps): Express {
     ...auditRoutes({ audit }),
     ...loggerRoutes({ loggers }),
     ...quarantineRoutes({ quarantine }),
+    ...uploadRoutes({ db, logger, now: nowMs }),
   ]);
   // The route table, for the role × route test (every lab route and its permission).
   app.locals.labRoutes = labRouteTable.table satisfies LabRouteSummary[];

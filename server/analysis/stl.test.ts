@@ -23,6 +23,23 @@ const seriesWithPeriod = fc
     }),
   );
 
+/** A seasonal pattern plus trend plus pseudo-random noise from a seed: generic real values. */
+const noisySeries = fc
+  .record({
+    period: fc.integer({ min: 2, max: 12 }),
+    cycles: fc.integer({ min: 4, max: 8 }),
+    seed: fc.integer({ min: 1, max: 2147483646 }),
+    amplitude: fc.double({ min: 0.1, max: 100, noNaN: true }),
+  })
+  .map(({ period, cycles, seed, amplitude }) => {
+    let state = seed;
+    const x = Array.from({ length: period * cycles + (seed % period) }, (_, i) => {
+      state = (state * 48271) % 2147483647;
+      return amplitude * (Math.sin((2 * Math.PI * i) / period) + 0.01 * i + state / 2147483647);
+    });
+    return { period, x };
+  });
+
 const windowChoice = fc.oneof(fc.constant<'periodic'>('periodic'), fc.integer({ min: 3, max: 15 }));
 
 function range(x: ArrayLike<number>): number {
@@ -103,26 +120,25 @@ describe('stl properties', () => {
   });
 
   // Robustness weights depend on residuals relative to their median, so rescaling and shifting
-  // the data rescales and shifts the components and leaves the weights alone.
+  // the data rescales and shifts the components and leaves the weights alone. Generic noisy
+  // series are used: where many residuals are exact zeros or rounding noise, the median scale
+  // is itself rounding noise and the weights are not meaningful (in R or statsmodels either).
   it('is equivariant under y → a·y + b, robust weights included', () => {
     fc.assert(
       fc.property(
-        seriesWithPeriod,
+        noisySeries,
         windowChoice,
         fc.double({ min: 0.25, max: 8, noNaN: true }),
         fc.double({ min: -500, max: 500, noNaN: true }),
         ({ period, x }, seasonalWindow, a, b) => {
           const base = stl(x, { period, seasonalWindow, robust: true });
-          // Where the residuals are rounding noise (a series the smoothers fit exactly), the
-          // weights are noise too; the property is about real residuals.
           const residuals = Array.from(base.remainder, Math.abs).sort((p, q) => p - q);
-          fc.pre(residuals[residuals.length >> 1] > 1e-6 * (1 + range(x)));
+          fc.pre(residuals[residuals.length >> 1] > 1e-9 * range(x));
           const moved = stl(x.map((v) => a * v + b), { period, seasonalWindow, robust: true });
           const tolerance = 1e-8 * (1 + a * range(x) + Math.abs(b));
           expectClose(moved.seasonal, base.seasonal.map((v) => a * v), tolerance);
           expectClose(moved.trend, base.trend.map((v) => a * v + b), tolerance);
-          // A weight can only move where a residual sits at the 0.001 or 0.999 cut-off.
-          expectClose(moved.weights, base.weights, 1e-6);
+          expectClose(moved.weights, base.weights, 1e-8);
         },
       ),
       { numRuns: 40 },

@@ -30,12 +30,10 @@ export function readingsIn(scope: LabScope, db: DbOrTrx) {
      */
     async insertNew(rows: ReadingRow[]): Promise<number> {
       if (rows.length === 0) return 0;
-      const { sql, bindings } = db('readings')
-        .insert(rows.map((r) => ({ tenant_id: tenantId, channel_id: r.channelId, ts: r.ts, value: r.value })))
-        .onConflict()
-        .ignore()
-        .toSQL();
-      const [result] = await db.raw(sql, bindings as readonly unknown[] as never);
+      // One bound multi-row VALUES list (the driver expands the nested array): several
+      // times faster than a query builder insert with four bindings per row.
+      const values = rows.map((r) => [tenantId, r.channelId, r.ts, r.value]);
+      const [result] = await db.raw('INSERT IGNORE INTO readings (tenant_id, channel_id, ts, value) VALUES ?', [values]);
       return Number((result as { affectedRows: number }).affectedRows);
     },
 

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
 import { buildMember, sessionCookieFor, type TestUser } from '../support/factories.ts';
-import { buildLabWithEverything, fillPath, validBodyFor, type LabWithEverything } from '../support/lab-fixture.ts';
+import { buildLabWithEverything, fillPath, rawRequestFor, validBodyFor, type LabWithEverything } from '../support/lab-fixture.ts';
 import type { LabRouteSummary } from '../../server/http/lab-routes.ts';
 
 /**
@@ -44,10 +44,11 @@ function expectNoTraceOfB(text: string) {
 }
 
 function send(route: LabRouteSummary, slug: string, params: Record<string, number>) {
-  const path = `/api/v1/labs/${slug}${fillPath(route.path, params)}`;
+  const raw = rawRequestFor(route.method, route.path);
+  const path = `/api/v1/labs/${slug}${fillPath(route.path, params)}${raw?.query ?? ''}`;
   const body = validBodyFor(route.method, route.path, B);
   const req = request(t.app)[route.method](path).set('Cookie', cookieA);
-  return body ? req.send(body) : req;
+  return raw ? req.set('Content-Type', raw.contentType).send(raw.body) : body ? req.send(body) : req;
 }
 
 describe('cross-lab isolation', () => {

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
 import { buildMember, buildUser, sessionCookieFor } from '../support/factories.ts';
-import { buildLabWithEverything, fillPath, validBodyFor } from '../support/lab-fixture.ts';
+import { buildLabWithEverything, fillPath, rawRequestFor, validBodyFor } from '../support/lab-fixture.ts';
 import type { LabRouteSummary } from '../../server/http/lab-routes.ts';
 import type { Role } from '../../server/policies/permissions.ts';
 
@@ -39,6 +39,7 @@ const ALLOWED: Record<string, { roles: Role[]; ok: number }> = {
   'GET /quarantine/export.csv': { roles: ['admin', 'technician'], ok: 200 },
   'POST /quarantine/discard': { roles: ['admin', 'technician'], ok: 200 },
   'POST /quarantine/resubmit': { roles: ['admin', 'technician'], ok: 200 },
+  'POST /loggers/:loggerId/uploads': { roles: ['admin', 'technician'], ok: 200 },
 };
 
 type Caller = Role | 'signed-out' | 'non-member';
@@ -75,11 +76,12 @@ describe('route × role matrix', () => {
       const mismatches: string[] = [];
       for (const route of routes) {
         const { f, cookie } = await fixture(caller);
-        const path = `/api/v1/labs/${f.lab.slug}${fillPath(route.path, f.params)}`;
+        const raw = rawRequestFor(route.method, route.path);
+        const path = `/api/v1/labs/${f.lab.slug}${fillPath(route.path, f.params)}${raw?.query ?? ''}`;
         let req = request(t.app)[route.method](path);
         if (cookie) req = req.set('Cookie', cookie);
         const body = validBodyFor(route.method, route.path, f);
-        const res = await (body ? req.send(body) : req);
+        const res = await (raw ? req.set('Content-Type', raw.contentType).send(raw.body) : body ? req.send(body) : req);
         const allowed = ALLOWED[key(route)];
         const expected =
           caller === 'signed-out' ? 401 : caller === 'non-member' ? 404 : allowed.roles.includes(caller) ? allowed.ok : 403;

@@ -63,6 +63,13 @@ export function fillPath(path: string, params: Record<string, number>): string {
   });
 }
 
+/** Query string and raw body for routes that take a file rather than JSON. */
+export function rawRequestFor(method: string, path: string): { query: string; body: string; contentType: string } | undefined {
+  if (`${method.toUpperCase()} ${path}` !== 'POST /loggers/:loggerId/uploads') return undefined;
+  const options = { format: 'long', timeColumn: 'ts', channelColumn: 'channel', valueColumn: 'value' };
+  return { query: `?options=${encodeURIComponent(JSON.stringify(options))}`, body: 'channel,ts,value\nair_t,2026-01-02T00:00:00Z,3.5\n', contentType: 'text/csv' };
+}
+
 /** A request body that is valid for the route (so the matrix tests permissions, not validation). */
 export function validBodyFor(method: string, path: string, f: LabWithEverything): object | undefined {
   const key = `${method.toUpperCase()} ${path}`;

@@ -76,3 +76,21 @@ export const quarantineResubmitSchema = z.object({
     .min(1, 'send at least one row')
     .max(1000, 'at most 1000 rows at a time'),
 });
+
+/** How to read an uploaded export file: long (`channel,ts,value`) or wide (a time column and one column per channel). */
+export const uploadOptionsSchema = z
+  .object({
+    format: z.enum(['long', 'wide'], { error: 'must be long or wide' }),
+    delimiter: z.enum([',', ';', '\t'], { error: 'must be a comma, a semicolon or a tab' }).default(','),
+    timeColumn: z.string().min(1, 'must name a column').max(191),
+    channelColumn: z.string().min(1).max(191).optional(),
+    valueColumn: z.string().min(1).max(191).optional(),
+    /** Wide format: file column → channel key (null skips the column). */
+    columns: z.record(z.string().max(191), channelKeySchema.nullable()).optional(),
+    timeFormat: z.enum(['auto', 'iso', 'epoch-ms', 'epoch-s'], { error: 'must be auto, iso, epoch-ms or epoch-s' }).default('auto'),
+    /** Zone for local times without an offset (e.g. the logger's own zone). */
+    timeZone: z.string().refine(isKnownTimeZone, 'must be an IANA time zone such as Europe/Berlin or UTC').optional(),
+  })
+  .refine((o) => o.format !== 'long' || (o.channelColumn && o.valueColumn), { message: 'long format needs channelColumn and valueColumn', path: ['format'] })
+  .refine((o) => o.format !== 'wide' || (o.columns && Object.values(o.columns).some((v) => v)), { message: 'wide format needs at least one column mapped to a channel', path: ['columns'] });
+export type UploadOptions = z.infer<typeof uploadOptionsSchema>;

@@ -38,18 +38,35 @@ function atOffset(w: WallTime, offset: string): number {
   return utc - sign * minutes * 60_000;
 }
 
-/** The offset (ms) of an IANA time zone at a UTC instant, from the platform's time zone data. */
+const formatters = new Map<string, Intl.DateTimeFormat>();
+const offsetCache = new Map<string, number>();
+
+/** One formatter per zone: building Intl.DateTimeFormat costs far more than using it. */
+function formatterFor(timeZone: string): Intl.DateTimeFormat {
+  let f = formatters.get(timeZone);
+  if (!f) {
+    f = new Intl.DateTimeFormat('en-US', { timeZone, hourCycle: 'h23', year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit' });
+    formatters.set(timeZone, f);
+  }
+  return f;
+}
+
+/**
+ * The offset (ms) of an IANA time zone at a UTC instant, from the platform's time zone data.
+ * Zone offsets change on whole quarter hours at most, so offsets are cached per 15 minutes.
+ */
 function zoneOffsetMs(timeZone: string, utcMs: number): number {
-  const parts = new Intl.DateTimeFormat('en-US', {
-    timeZone,
-    hourCycle: 'h23',
-    year: 'numeric',
-    month: '2-digit',
-    day: '2-digit',
-    hour: '2-digit',
-    minute: '2-digit',
-    second: '2-digit',
-  }).formatToParts(new Date(utcMs));
+  const slot = `${timeZone}|${Math.floor(utcMs / 900_000)}`;
+  const cached = offsetCache.get(slot);
+  if (cached !== undefined) return cached;
+  const offset = computeZoneOffsetMs(timeZone, utcMs);
+  if (offsetCache.size > 200_000) offsetCache.clear();
+  offsetCache.set(slot, offset);
+  return offset;
+}
+
+function computeZoneOffsetMs(timeZone: string, utcMs: number): number {
+  const parts = formatterFor(timeZone).formatToParts(new Date(utcMs));
   const get = (t: string) => Number(parts.find((p) => p.type === t)?.value);
   const asUtc = Date.UTC(get('year'), get('month') - 1, get('day'), get('hour'), get('minute'), get('second'));
   return asUtc - Math.floor(utcMs / 1000) * 1000;

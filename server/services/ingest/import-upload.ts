@@ -1,0 +1,116 @@
+import { parse } from 'csv-parse';
+import type { Readable } from 'node:stream';
+import type { Db } from '../../db/create-db.ts';
+import { ValidationError } from '../../errors.ts';
+import { ingestBatch, type IncomingReading, type IngestTarget, type QuarantinedEntry } from './ingest-batch.ts';
+
+export interface UploadLayout {
+  format: 'long' | 'wide';
+  delimiter: string;
+  timeColumn: string;
+  channelColumn?: string;
+  valueColumn?: string;
+  columns?: Record<string, string | null>;
+  timeFormat: 'auto' | 'iso' | 'epoch-ms' | 'epoch-s';
+  timeZone?: string;
+}
+
+export interface UploadProgress {
+  lines: number;
+  readings: number;
+  accepted: number;
+  duplicates: number;
+  quarantined: number;
+}
+
+export interface UploadSummary extends UploadProgress {
+  /** The first quarantined readings with their reasons (all are in the quarantine table). */
+  firstQuarantined: Array<QuarantinedEntry & { line: number }>;
+}
+
+/** Readings are stored in batches of this many: each batch is one transaction. */
+export const UPLOAD_BATCH = 5000;
+
+/**
+ * Imports a logger's export file from a stream, never holding more than one batch in
+ * memory: CSV records are turned into readings (long: one per line; wide: one per mapped
+ * column per line), stored batch by batch with the same rules as live ingestion (dedupe,
+ * quarantine with reasons), and progress is reported after each batch. Each batch commits
+ * on its own, so an interrupted upload keeps what was stored and can simply be sent again:
+ * the rows already stored count as duplicates.
+ */
+export async function importUpload(
+  db: Db,
+  target: IngestTarget,
+  input: Readable,
+  layout: UploadLayout,
+  onProgress: (p: UploadProgress) => void,
+  now?: () => number,
+): Promise<UploadSummary> {
+  const parser = input.pipe(parse({ delimiter: layout.delimiter, bom: true, trim: true, skip_empty_lines: true, relax_column_count: true, max_record_size: 1 << 20 }));
+  const summary: UploadSummary = { lines: 0, readings: 0, accepted: 0, duplicates: 0, quarantined: 0, firstQuarantined: [] };
+  const batchRef = `upload-${Date.now().toString(36)}`;
+  let header: string[] | null = null;
+  let timeAt = -1;
+  let channelAt = -1;
+  let valueAt = -1;
+  let mapped: Array<{ at: number; key: string }> = [];
+  let batch: IncomingReading[] = [];
+  const lineOf = new Map<number, number>();
+
+  const flush = async () => {
+    if (batch.length === 0) return;
+    const outcome = await ingestBatch(db, target, batch, { source: 'upload', batchRef, timeFormat: layout.timeFormat, timeZone: layout.timeZone, now });
+    summary.accepted += outcome.accepted;
+    summary.duplicates += outcome.duplicates;
+    summary.quarantined += outcome.quarantined.length;
+    for (const q of outcome.quarantined) {
+      if (summary.firstQuarantined.length < 100) summary.firstQuarantined.push({ ...q, line: lineOf.get(q.index) ?? 0 });
+    }
+    batch = [];
+    lineOf.clear();
+    onProgress({ lines: summary.lines, readings: summary.readings, accepted: summary.accepted, duplicates: summary.duplicates, quarantined: summary.quarantined });
+  };
+
+  for await (const record of parser as AsyncIterable<string[]>) {
+    if (!header) {
+      header = record;
+      const find = (name: string | undefined, what: string) => {
+        const i = name === undefined ? -1 : header!.indexOf(name);
+        if (i < 0) throw new ValidationError(`${what}: the file has no column "${name}" (columns: ${header!.join(', ').slice(0, 200)})`);
+        return i;
+      };
+      timeAt = find(layout.timeColumn, 'timeColumn');
+      if (layout.format === 'long') {
+        channelAt = find(layout.channelColumn, 'channelColumn');
+        valueAt = find(layout.valueColumn, 'valueColumn');
+      } else {
+        mapped = Object.entries(layout.columns ?? {})
+          .filter((e): e is [string, string] => typeof e[1] === 'string')
+          .map(([column, key]) => ({ at: find(column, `columns.${column}`), key }));
+      }
+      continue;
+    }
+    summary.lines++;
+    const line = summary.lines + 1; // 1-based, counting the header line
+    const raw = record.join(layout.delimiter);
+    const push = (r: Omit<IncomingReading, 'index'>) => {
+      const index = summary.readings++;
+      lineOf.set(index, line);
+      batch.push({ ...r, index, raw });
+    };
+    if (layout.format === 'long') {
+      push({ channel: record[channelAt], ts: record[timeAt], value: record[valueAt] });
+    } else {
+      for (const m of mapped) {
+        const cell = record[m.at];
+        if (cell === undefined || cell === '') continue; // an empty cell is no reading, not a bad one
+        push({ channel: m.key, ts: record[timeAt], value: cell });
+      }
+    }
+    if (batch.length >= UPLOAD_BATCH) await flush();
+  }
+  if (!header) throw new ValidationError('file: it is empty (expected a header line)');
+  await flush();
+  return summary;
+}

@@ -1,0 +1,80 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import request from 'supertest';
+import { buildTestApp, type TestApp } from '../support/test-app.ts';
+import { buildMember, sessionCookieFor } from '../support/factories.ts';
+import { buildLabWithEverything, type LabWithEverything } from '../support/lab-fixture.ts';
+
+let t: TestApp;
+let f: LabWithEverything;
+let cookie: string;
+let rhId: number;
+beforeAll(async () => {
+  t = await buildTestApp();
+  f = await buildLabWithEverything(t.db);
+  cookie = await sessionCookieFor(t.db, t.config.sessionSecret, (await buildMember(t.db, f.lab, { role: 'technician' })).id);
+  rhId = 900_000_000 + f.lab.id;
+  await t.db('channels').insert({ tenant_id: f.lab.id, id: rhId, logger_id: f.ids.loggerId, channel_key: 'rh', label: 'Humidity', unit: '%' });
+});
+afterAll(async () => t.close());
+
+function upload(options: object, body: string, contentType = 'text/csv') {
+  return request(t.app)
+    .post(`/api/v1/labs/${f.lab.slug}/loggers/${f.ids.loggerId}/uploads?options=${encodeURIComponent(JSON.stringify(options))}`)
+    .set('Cookie', cookie)
+    .set('Content-Type', contentType)
+    .send(body);
+}
+
+const ndjson = (text: string) => text.trim().split('\n').map((l) => JSON.parse(l));
+
+describe('historical uploads', () => {
+  it('imports a wide file (time column + one column per channel) in the logger\'s zone, with progress and a summary', async () => {
+    const lines = ['Timestamp;Temp (C);RH (%);Battery'];
+    for (let i = 0; i < 12_000; i++) {
+      const d = new Date(Date.UTC(2026, 0, 1, 0, 0) + i * 60_000);
+      const local = d.toISOString().slice(0, 19); // written as local wall time, zone given below
+      lines.push(`${local};${(i % 50) / 10};${i === 7 ? 'n/a' : 40 + (i % 20)};3.3`);
+    }
+    const options = { format: 'wide', delimiter: ';', timeColumn: 'Timestamp', columns: { 'Temp (C)': 'air_t', 'RH (%)': 'rh', Battery: null }, timeFormat: 'iso', timeZone: 'Etc/GMT-1' };
+    const res = await upload(options, lines.join('\n')).expect(200);
+    expect(res.headers['content-type']).toMatch(/application\/x-ndjson/);
+    const events = ndjson(res.text);
+    const progress = events.filter((e) => e.type === 'progress');
+    expect(progress.length).toBeGreaterThanOrEqual(4);
+    const summary = events.at(-1);
+    expect(summary).toMatchObject({ type: 'summary', lines: 12_000, readings: 24_000, accepted: 23_999, duplicates: 0, quarantined: 1 });
+    expect(summary.firstQuarantined).toEqual([{ index: 15, code: 'bad_value', reason: 'value: must be a finite number', line: 9 }]);
+    // Etc/GMT-1 is UTC+1 (POSIX sign convention of the IANA tz database): local 00:00 is 23:00 UTC the day before.
+    const first = await t.db('readings').where({ tenant_id: f.lab.id, channel_id: rhId }).orderBy('ts').first();
+    expect(Number(first.ts)).toBe(Date.UTC(2025, 11, 31, 23, 0));
+    expect(await t.db('readings').where({ tenant_id: f.lab.id, channel_id: rhId }).count({ n: '*' })).toEqual([{ n: 11_999 }]);
+  });
+
+  it('sending the same file again stores nothing twice', async () => {
+    const body = 'channel,ts,value\nair_t,2026-02-01T00:00:00Z,1\nair_t,2026-02-01T00:01:00Z,2\n';
+    const options = { format: 'long', timeColumn: 'ts', channelColumn: 'channel', valueColumn: 'value' };
+    expect(ndjson((await upload(options, body).expect(200)).text).at(-1)).toMatchObject({ accepted: 2, duplicates: 0 });
+    expect(ndjson((await upload(options, body).expect(200)).text).at(-1)).toMatchObject({ accepted: 0, duplicates: 2 });
+  });
+
+  it('reports a column that is not in the file as an error line', async () => {
+    const options = { format: 'long', timeColumn: 'time', channelColumn: 'channel', valueColumn: 'value' };
+    const events = ndjson((await upload(options, 'channel,ts,value\nair_t,1,2\n').expect(200)).text);
+    expect(events).toEqual([{ type: 'error', code: 'invalid_input', message: 'timeColumn: the file has no column "time" (columns: channel, ts, value)' }]);
+  });
+
+  it.each([
+    [{ format: 'long', timeColumn: 'ts' }, 'format: long format needs channelColumn and valueColumn'],
+    [{ format: 'wide', timeColumn: 'ts', columns: { a: null } }, 'columns: wide format needs at least one column mapped to a channel'],
+    [{ format: 'tall', timeColumn: 'ts' }, 'format: must be long or wide'],
+    [{ format: 'long', timeColumn: 'ts', channelColumn: 'c', valueColumn: 'v', timeZone: 'Nowhere/Else' }, 'timeZone: must be an IANA time zone such as Europe/Berlin or UTC'],
+  ])('refuses options %j with 400 and the exact message', async (options, message) => {
+    const res = await upload(options, 'x\n').expect(400);
+    expect(res.body.error).toEqual({ code: 'invalid_input', message });
+  });
+
+  it('415 for a body that is not a CSV file', async () => {
+    const options = { format: 'long', timeColumn: 'ts', channelColumn: 'channel', valueColumn: 'value' };
+    await upload(options, '{}', 'application/json').expect(415);
+  });
+});
