@@ -33,7 +33,7 @@ export function readingsIn(scope: LabScope, db: DbOrTrx) {
       // One bound multi-row VALUES list (the driver expands the nested array): several
       // times faster than a query builder insert with four bindings per row.
       const values = rows.map((r) => [tenantId, r.channelId, r.ts, r.value]);
-      const [result] = await db.raw('INSERT IGNORE INTO readings (tenant_id, channel_id, ts, value) VALUES ?', [values]);
+      const [result] = await db.raw('INSERT IGNORE INTO readings (tenant_id, channel_id, ts, value) VALUES ?', [values] as never);
       return Number((result as { affectedRows: number }).affectedRows);
     },
 
