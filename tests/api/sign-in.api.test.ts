@@ -29,7 +29,7 @@ describe('sign-in through the OpenID Connect provider', () => {
     expect(outcome.finalUrl).toBe(`${appUrl}/`);
     const me = await outcome.session.request(`${appUrl}/api/v1/me`);
     expect(me.status).toBe(200);
-    const body = await me.json();
+    const body = (await me.json()) as { user: Record<string, unknown>; labs: unknown[] };
     expect(body.user).toMatchObject({ email: scientist.email, name: scientist.name });
     expect(Array.isArray(body.labs)).toBe(true);
     // Only what the presenter allows leaves the server.
