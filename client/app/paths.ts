@@ -5,9 +5,28 @@ export const paths = {
     path: '/sign-in',
     href: (returnTo?: string) => (returnTo && returnTo !== '/' ? `/sign-in?returnTo=${encodeURIComponent(returnTo)}` : '/sign-in'),
   },
+  createLab: { path: '/labs/new', href: () => '/labs/new' },
+  lab: { path: '/labs/:lab', href: (slug: string) => `/labs/${encodeURIComponent(slug)}` },
+  labMembers: { path: '/labs/:lab/members', href: (slug: string) => `/labs/${encodeURIComponent(slug)}/members` },
+  labAudit: {
+    path: '/labs/:lab/audit',
+    href: (slug: string, search = '') => `/labs/${encodeURIComponent(slug)}/audit${search && !search.startsWith('?') ? `?${search}` : search}`,
+  },
+  joinLab: {
+    path: '/join/:lab/:token',
+    href: (slug: string, token: string) => `/join/${encodeURIComponent(slug)}/${encodeURIComponent(token)}`,
+  },
 } as const;
 
 /** Where the server's OIDC flow starts; a full page navigation, not a client route. */
-export function serverSignInUrl(returnTo: string | null): string {
-  return `/auth/sign-in${returnTo ? `?returnTo=${encodeURIComponent(returnTo)}` : ''}`;
+export function serverSignInUrl(returnTo: string | null, switchTo?: string): string {
+  const q = new URLSearchParams();
+  if (returnTo) q.set('returnTo', returnTo);
+  if (switchTo) {
+    // ask the identity provider for a fresh login (it may remember the previous person)
+    q.set('switchAccount', '1');
+    q.set('loginHint', switchTo);
+  }
+  const query = q.toString();
+  return `/auth/sign-in${query ? `?${query}` : ''}`;
 }

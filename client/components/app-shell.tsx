@@ -1,20 +1,36 @@
 import type { ReactNode } from 'react';
-import { Link } from 'react-router-dom';
+import { Link, useParams } from 'react-router-dom';
 import { Logo } from './logo.tsx';
+import { LabSwitcher, type SwitcherLab } from './lab-switcher.tsx';
 import { paths } from '../app/paths.ts';
 
 /**
- * The frame around every signed-in page: a spruce band with the mark, the person's name
- * and a sign-out button, and the page itself on paper below.
+ * The frame around every signed-in page: a spruce band with the mark, the lab switcher,
+ * the person's name and a sign-out button, and the page itself on paper below.
  */
-export function AppShell({ userName, onSignOut, children }: { userName: string; onSignOut: () => void; children: ReactNode }) {
+export function AppShell({
+  userName,
+  labs,
+  onSignOut,
+  children,
+}: {
+  userName: string;
+  labs: SwitcherLab[];
+  onSignOut: () => void;
+  children: ReactNode;
+}) {
+  // The lab in the URL (`/labs/:lab/...`), if any: the switcher names it as the current one.
+  const { lab: currentSlug } = useParams();
   return (
     <div className="min-h-screen">
       <header className="bg-spruce text-paper">
-        <div className="mx-auto flex max-w-6xl items-center justify-between px-6 py-3">
-          <Link to={paths.home.href()} className="rounded text-paper">
-            <Logo />
-          </Link>
+        <div className="mx-auto flex max-w-6xl flex-wrap items-center justify-between gap-3 px-6 py-3">
+          <div className="flex items-center gap-5">
+            <Link to={paths.home.href()} className="rounded text-paper">
+              <Logo />
+            </Link>
+            <LabSwitcher labs={labs} currentSlug={currentSlug} />
+          </div>
           <div className="flex items-center gap-4 text-sm">
             <span data-testid="signed-in-name" className="font-medium">
               {userName}

@@ -34,6 +34,10 @@ describe('sign-in through the OpenID Connect provider', () => {
     expect(Array.isArray(body.labs)).toBe(true);
     // Only what the presenter allows leaves the server.
     expect(Object.keys(body.user).sort()).toEqual(['email', 'id', 'name']);
+    // The provider vouches for the address (userinfo email_verified: true): it is stored as verified.
+    const row = await t.db('users').where({ email: scientist.email }).first();
+    expect(Boolean(row.email_verified)).toBe(true);
+    expect(row.oidc_issuer).toBe(t.config.oidc.issuer);
   });
 
   it('sends state, nonce and a PKCE S256 challenge in the authorization request (RFC 7636 §4.3)', async () => {
@@ -82,6 +86,14 @@ describe('sign-in through the OpenID Connect provider', () => {
     expect(back.finalUrl).toBe(`${appUrl}/labs/x/channels?range=7d`);
     const offsite = await signInThroughProvider(appUrl, scientist, { returnTo: '//evil.example/steal' });
     expect(offsite.finalUrl).toBe(`${appUrl}/`);
+  });
+
+  it('"use another account" asks the provider for a fresh login with the address pre-filled', async () => {
+    const session = new BrowserlessSession();
+    const res = await session.request(`${appUrl}/auth/sign-in?switchAccount=1&loginHint=${encodeURIComponent(newcomer.email)}`);
+    const location = new URL(res.headers.get('location')!);
+    expect(location.searchParams.get('prompt')).toBe('login');
+    expect(location.searchParams.get('login_hint')).toBe(newcomer.email);
   });
 
   it('sign-out ends the session: /api/v1/me answers 401 afterwards', async () => {

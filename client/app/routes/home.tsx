@@ -1,25 +1,38 @@
-import { useOutletContext } from 'react-router-dom';
+import { Link, useOutletContext } from 'react-router-dom';
 import type { Me } from '../../features/auth/api/get-me.ts';
+import { LabCards } from '../../features/labs/components/lab-cards.tsx';
+import { buttonClasses } from '../../components/button.tsx';
+import { paths } from '../paths.ts';
 
-/** The signed-in landing page: a greeting and the person's labs. */
+/** The signed-in landing page: a greeting and the person's labs, or the way to start one. */
 export default function HomeRoute() {
   const me = useOutletContext<Me>();
   return (
     <section>
       <h1 className="text-2xl font-semibold">Welcome, {me.user.name}</h1>
       <p className="mt-1 text-ink-soft">Signed in as {me.user.email}</p>
-      <h2 className="mt-8 text-lg font-semibold">Your labs</h2>
+      <div className="mt-8 flex flex-wrap items-baseline justify-between gap-3">
+        <h2 className="text-lg font-semibold">Your labs</h2>
+        {me.labs.length > 0 && (
+          <Link to={paths.createLab.href()} className={buttonClasses('secondary', 'sm')}>
+            Create a lab
+          </Link>
+        )}
+      </div>
       {me.labs.length === 0 ? (
-        <p className="mt-2 text-ink-soft">You do not belong to a lab yet. Ask a lab admin for an invitation.</p>
+        <div className="mt-3 max-w-xl rounded-xl border border-dashed border-rule bg-card p-6">
+          <p>You do not belong to a lab yet.</p>
+          <p className="mt-1 text-sm text-ink-soft">
+            Start one for your group and invite your colleagues, or open the invitation link an admin sent you.
+          </p>
+          <Link to={paths.createLab.href()} className={`mt-4 ${buttonClasses('primary')}`}>
+            Create a lab
+          </Link>
+        </div>
       ) : (
-        <ul className="mt-3 grid gap-3 sm:grid-cols-2">
-          {me.labs.map((lab) => (
-            <li key={lab.slug} className="rounded-xl border border-rule bg-card p-4">
-              <p className="font-medium">{lab.name}</p>
-              <p className="text-sm text-ink-soft">Your role: {lab.role}</p>
-            </li>
-          ))}
-        </ul>
+        <div className="mt-3">
+          <LabCards labs={me.labs} />
+        </div>
       )}
     </section>
   );

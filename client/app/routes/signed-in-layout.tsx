@@ -24,7 +24,7 @@ export default function SignedInLayout() {
     );
   }
   return (
-    <AppShell userName={me.data.user.name} onSignOut={() => signOut.mutate()}>
+    <AppShell userName={me.data.user.name} labs={me.data.labs} onSignOut={() => signOut.mutate()}>
       <Outlet context={me.data} />
     </AppShell>
   );

@@ -35,7 +35,12 @@ export function authRouter(deps: { passport: PassportInstance; logger: Logger })
 
   router.get('/auth/sign-in', (req, res, next) => {
     (req.session as unknown as Record<string, unknown>)[RETURN_TO_KEY] = safeReturnPath(req.query.returnTo);
-    passport.authenticate(OIDC_STRATEGY)(req, res, next);
+    // "Use another account": ask the provider to show its login form even if it remembers
+    // someone (OIDC Core §3.1.2.1 prompt=login), pre-filled with the expected address.
+    const switchAccount = req.query.switchAccount === '1';
+    const hint = typeof req.query.loginHint === 'string' && req.query.loginHint.length <= 191 ? req.query.loginHint : undefined;
+    const options = switchAccount ? { prompt: 'login', loginHint: hint } : {};
+    passport.authenticate(OIDC_STRATEGY, options as object)(req, res, next);
   });
 
   router.get('/auth/callback', (req: Request, res, next) => {

@@ -40,15 +40,30 @@ export function createPassport(deps: {
         skipUserProfile: false,
         nonce: 'true',
       } as ConstructorParameters<typeof PkceOidcStrategy>[0],
-      (issuer: string, profile: Profile, done: (err: Error | null, user?: User) => void) => {
-        const json = (profile as Profile & { _json?: Record<string, unknown> })._json ?? {};
+      // @ts-expect-error the typings list the shorter verify forms only
+      // The nine-argument form is the one that hands over the userinfo answer itself
+      // (`uiProfile._json`): the merged profile of the shorter forms drops `email_verified`.
+      (
+        issuer: string,
+        uiProfile: Profile | undefined,
+        idProfile: Profile,
+        _context: unknown,
+        _idToken: unknown,
+        _accessToken: unknown,
+        _refreshToken: unknown,
+        _params: unknown,
+        done: (err: Error | null, user?: User | false, info?: { message: string }) => void,
+      ) => {
+        const claims = ((uiProfile as Profile & { _json?: Record<string, unknown> } | undefined)?._json ?? {}) as Record<string, unknown>;
+        // OpenID Connect Core §5.3.2: the UserInfo `sub` must equal the ID token's, or the answer is not about this person.
+        if (uiProfile && uiProfile.id !== idProfile.id) return done(null, false, { message: 'userinfo subject mismatch' });
         deps.signIn
           .recordSignIn({
             issuer,
-            subject: profile.id,
-            email: profile.emails?.[0]?.value ?? (json.email as string | undefined),
-            emailVerified: json.email_verified === true,
-            name: profile.displayName || (json.name as string | undefined),
+            subject: idProfile.id,
+            email: (claims.email as string | undefined) ?? uiProfile?.emails?.[0]?.value ?? idProfile.emails?.[0]?.value,
+            emailVerified: claims.email_verified === true || claims.email_verified === 'true',
+            name: (claims.name as string | undefined) ?? uiProfile?.displayName ?? idProfile.displayName,
           })
           .then((user) => done(null, user), (err: Error) => done(err));
       },

@@ -1,0 +1,29 @@
+import type { AuditAction } from '../hooks/audit-search-params.ts';
+
+/** How each audit action reads in the log and in the filter. */
+export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
+  'lab.created': 'Lab created',
+  'invitation.created': 'Invitation sent',
+  'invitation.resent': 'Invitation sent again',
+  'invitation.revoked': 'Invitation revoked',
+  'invitation.accepted': 'Invitation accepted',
+  'member.role-changed': 'Role changed',
+  'member.removed': 'Member removed',
+  'member.left': 'Member left',
+  'logger.registered': 'Logger registered',
+  'logger.updated': 'Logger edited',
+  'logger.retired': 'Logger retired',
+  'channel.added': 'Channel added',
+  'channel.updated': 'Channel edited',
+  'channel.retired': 'Channel retired',
+  'ingest-key.issued': 'Ingest key issued',
+  'ingest-key.rotated': 'Ingest key replaced',
+  'ingest-key.revoked': 'Ingest key revoked',
+  'quarantine.discarded': 'Quarantined rows discarded',
+  'quarantine.resubmitted': 'Quarantined rows resubmitted',
+};
+
+/** The label of an action, or the raw action name for one this client does not know yet. */
+export function auditActionLabel(action: string): string {
+  return (AUDIT_ACTION_LABELS as Record<string, string>)[action] ?? action;
+}

@@ -1,0 +1,37 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { apiFetch } from '../../../lib/api-client.ts';
+import type { Role } from '../../../../server/policies/permissions.ts';
+
+export interface InvitationPreview {
+  invitation: {
+    lab: { slug: string; name: string };
+    role: Role;
+    email: string;
+    /** Null when the inviting account no longer exists. */
+    invitedBy: { name: string } | null;
+    expiresAt: string;
+  };
+  /** Whether the signed-in person's verified e-mail is the invited address. */
+  matchesSignedInUser: boolean;
+}
+
+/**
+ * `GET /api/v1/invitations/:lab/:token`: what an invitation link offers. 404
+ * `invitation_not_found`; 410 `invitation_expired` / `invitation_used` / `invitation_revoked`.
+ */
+export function getInvitationByToken(slug: string, token: string): Promise<InvitationPreview> {
+  return apiFetch(`/api/v1/invitations/${encodeURIComponent(slug)}/${encodeURIComponent(token)}`);
+}
+
+export const invitationByTokenQueryOptions = (slug: string, token: string) =>
+  queryOptions({
+    queryKey: ['invitations', slug, token],
+    queryFn: () => getInvitationByToken(slug, token),
+    // A dead link stays dead: no retry.
+    retry: false,
+  });
+
+/** The invitation behind a link, for the acceptance page. */
+export function useInvitationByToken(slug: string, token: string) {
+  return useQuery(invitationByTokenQueryOptions(slug, token));
+}

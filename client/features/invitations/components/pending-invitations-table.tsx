@@ -1,0 +1,54 @@
+import { useMemo } from 'react';
+import type { ColumnDef } from '@tanstack/react-table';
+import { ROLES, ROLE_LABELS } from '../../../../server/policies/permissions.ts';
+import { DataTable } from '../../../components/data-table.tsx';
+import { DateTime } from '../../../components/date-time.tsx';
+import type { PendingInvitation } from '../api/get-invitations.ts';
+import { InvitationActions } from './invitation-actions.tsx';
+
+function columnsFor(slug: string): ColumnDef<PendingInvitation>[] {
+  return [
+    { id: 'email', header: 'E-mail', accessorFn: (i) => i.email, sortingFn: 'text' },
+    {
+      id: 'role',
+      header: 'Role',
+      accessorFn: (i) => ROLES.indexOf(i.role),
+      sortDescFirst: false,
+      cell: ({ row }) => ROLE_LABELS[row.original.role],
+    },
+    { id: 'invitedBy', header: 'Invited by', accessorFn: (i) => i.invitedBy?.name ?? '—', sortingFn: 'text' },
+    {
+      id: 'lastSentAt',
+      header: 'Last sent',
+      accessorFn: (i) => Date.parse(i.lastSentAt),
+      cell: ({ row }) => <DateTime iso={row.original.lastSentAt} />,
+    },
+    {
+      id: 'expiresAt',
+      header: 'Expires',
+      accessorFn: (i) => Date.parse(i.expiresAt),
+      cell: ({ row }) => <DateTime iso={row.original.expiresAt} />,
+    },
+    {
+      id: 'actions',
+      header: 'Actions',
+      enableSorting: false,
+      cell: ({ row }) => <InvitationActions slug={slug} invitation={row.original} />,
+    },
+  ];
+}
+
+/** The lab's pending invitations, newest first, each with Resend and Revoke. */
+export function PendingInvitationsTable({ slug, invitations }: { slug: string; invitations: PendingInvitation[] }) {
+  const columns = useMemo(() => columnsFor(slug), [slug]);
+  return (
+    <DataTable
+      caption="Pending invitations"
+      columns={columns}
+      data={invitations}
+      getRowId={(i) => String(i.id)}
+      initialSorting={[{ id: 'lastSentAt', desc: true }]}
+      empty="No invitations are waiting for an answer."
+    />
+  );
+}

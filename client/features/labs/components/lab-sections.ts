@@ -1,0 +1,23 @@
+import type { Permission } from '../../../../server/policies/permissions.ts';
+import { paths } from '../../../app/paths.ts';
+
+export interface LabSection {
+  label: string;
+  href: (slug: string) => string;
+  /** The permission a role needs to see the section at all. */
+  needs: Permission;
+  /** What the section is for, as shown on the lab's overview. */
+  blurb: string;
+}
+
+/** The sections of a lab, in navigation order. */
+export const LAB_SECTIONS: LabSection[] = [
+  { label: 'Overview', href: paths.lab.href, needs: 'lab.read', blurb: 'The lab at a glance.' },
+  { label: 'Members', href: paths.labMembers.href, needs: 'members.read', blurb: 'Who belongs to the lab, and in which role.' },
+  { label: 'Audit log', href: paths.labAudit.href, needs: 'audit.read', blurb: 'Every change to membership, newest first.' },
+];
+
+/** The sections a member with `permissions` may open; the server refuses the rest anyway. */
+export function visibleSections(permissions: readonly Permission[]): LabSection[] {
+  return LAB_SECTIONS.filter((section) => permissions.includes(section.needs));
+}

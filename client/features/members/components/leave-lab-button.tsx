@@ -1,0 +1,24 @@
+import { ConfirmButton } from '../../../components/confirm-button.tsx';
+import { useLeaveLab } from '../api/leave-lab.ts';
+
+/** "Leave this lab" for any member, asked twice; the last admin is told why they cannot. */
+export function LeaveLabButton({ slug, labName, onLeft }: { slug: string; labName: string; onLeft: () => void }) {
+  const leave = useLeaveLab(slug);
+  return (
+    <div>
+      <ConfirmButton
+        label="Leave this lab"
+        question={`Leave ${labName}? You will lose access until someone invites you again.`}
+        confirmLabel="Leave the lab"
+        size="md"
+        pending={leave.isPending}
+        onConfirm={() => leave.mutate(undefined, { onSuccess: onLeft })}
+      />
+      {leave.isError && (
+        <p role="alert" className="mt-2 text-sm text-alert">
+          {leave.error.message}
+        </p>
+      )}
+    </div>
+  );
+}
