@@ -56,7 +56,16 @@ npx vite build --logLevel error
 FAILED=0
 for project in unit client api e2e; do
   say "test group: $project"
-  npx vitest run --project "$project" || FAILED=1
+  npx vitest run --project "$project" --reporter=default --reporter=json --outputFile.json="$STATE_DIR/results-$project.json" || FAILED=1
 done
+# One closing line for every group together: "tests: N passed, N failed".
+node -e '
+  let passed = 0, failed = 0;
+  for (const f of process.argv.slice(1)) {
+    try { const r = require(f); passed += r.numPassedTests; failed += r.numFailedTests + (r.numRuntimeErrorTestSuites ?? 0); }
+    catch { failed += 1; }
+  }
+  console.log(`tests: ${passed} passed, ${failed} failed`);
+' "$STATE_DIR"/results-*.json
 [ "$FAILED" = 0 ] || die "some tests failed"
 say "all test groups passed"

@@ -23,6 +23,15 @@ json_obj <- function(fields) {
 
 r_version <- R.version.string
 
+# Writes one fixture file: where the values come from, then the cases (JSON objects).
+write_fixture <- function(file, source, cases_json, note = NULL) {
+  header <- list(source = json_str(source), r = json_str(r_version),
+                 script = json_str("tests/reference/decomposition.R"))
+  if (!is.null(note)) header$note <- json_str(note)
+  header$cases <- paste0("[", paste(cases_json, collapse = ",\n"), "]")
+  writeLines(json_obj(header), file.path(out_dir, file))
+}
+
 # ---- classical moving-average decomposition -------------------------------------------------
 
 # Series with an odd period: daily maximum temperatures (airquality$Temp, New York, May-Sep 1973)
@@ -84,15 +93,7 @@ classical_json <- vapply(classical_cases, function(cs) {
   ))
 }, character(1))
 
-writeLines(
-  json_obj(list(
-    source = json_str("stats::decompose"),
-    r = json_str(r_version),
-    script = json_str("tests/reference/decomposition.R"),
-    cases = paste0("[", paste(classical_json, collapse = ",\n"), "]")
-  )),
-  file.path(out_dir, "decomposition-classical.json")
-)
+write_fixture("decomposition-classical.json", "stats::decompose", classical_json)
 
 # ---- STL ------------------------------------------------------------------------------------
 
@@ -191,17 +192,11 @@ stl_json <- vapply(stl_cases, function(cs) {
   ))
 }, character(1))
 
-writeLines(
-  json_obj(list(
-    source = json_str("stats::stl (netlib stl.f)"),
-    r = json_str(r_version),
-    script = json_str("tests/reference/decomposition.R"),
-    note = json_str(paste(
-      "medianExactInR is false where R's partial sort returned a wrong median in some robustness",
-      "pass; Lagbook uses the exact median, so those cases are compared with statsmodels instead.")),
-    cases = paste0("[", paste(stl_json, collapse = ",\n"), "]")
-  )),
-  file.path(out_dir, "decomposition-stl.json")
+write_fixture(
+  "decomposition-stl.json", "stats::stl (netlib stl.f)", stl_json,
+  note = paste(
+    "medianExactInR is false where R's partial sort returned a wrong median in some robustness",
+    "pass; Lagbook uses the exact median, so those cases are compared with statsmodels instead.")
 )
 
 cat("wrote", length(classical_cases), "classical and", length(stl_cases), "STL cases to", out_dir, "\n")

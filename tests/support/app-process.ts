@@ -1,0 +1,26 @@
+import { spawn, type ChildProcess } from 'node:child_process';
+import { join } from 'node:path';
+import type { Config } from '../../server/config.ts';
+
+const ENTRY = join(import.meta.dirname, 'app-server-entry.ts');
+
+/** Lagbook's server in a child process (so a test can kill it), answering on 127.0.0.1:port. */
+export async function startAppProcess(db: Config['db'], port: number, sessionSecret: string): Promise<{ url: string; child: ChildProcess; stopped: Promise<void> }> {
+  const child = spawn('node', ['--import', 'tsx', ENTRY], {
+    env: { ...process.env, APP_PORT: String(port), APP_DB: JSON.stringify(db), APP_SESSION_SECRET: sessionSecret },
+    stdio: ['ignore', 'ignore', 'inherit'],
+  });
+  const stopped = new Promise<void>((resolve) => child.once('exit', () => resolve()));
+  const url = `http://127.0.0.1:${port}`;
+  for (let i = 0; i < 300; i++) {
+    if (child.exitCode !== null) throw new Error('the app process exited during start');
+    try {
+      if ((await fetch(`${url}/healthz`)).ok) return { url, child, stopped };
+    } catch {
+      /* not listening yet */
+    }
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  child.kill('SIGKILL');
+  throw new Error('the app process did not answer within 30 s');
+}

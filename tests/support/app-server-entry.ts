@@ -1,0 +1,35 @@
+/**
+ * Lagbook's real app in a process of its own, for benchmarks and crash tests, without the
+ * outside services those do not exercise (no identity provider, mail or billing calls happen
+ * on the paths they use). Settings: APP_PORT, APP_DB (JSON of the database settings),
+ * APP_SESSION_SECRET.
+ */
+import { createServer } from 'node:http';
+import { createApp } from '../../server/app.ts';
+import { createDb } from '../../server/db/create-db.ts';
+import { createLogger } from '../../server/logger.ts';
+import { loadConfig } from '../../server/config.ts';
+
+const port = Number(process.env.APP_PORT);
+const dbConfig = JSON.parse(process.env.APP_DB!);
+const secret = process.env.APP_SESSION_SECRET ?? 'bench-secret-bench-secret-bench-secret';
+const config = loadConfig({
+  LAGBOOK_PORT: String(port),
+  LAGBOOK_SESSION_SECRET: secret,
+  OIDC_ISSUER: 'http://127.0.0.1:9',
+  OIDC_CLIENT_ID: 'bench',
+  OIDC_CLIENT_SECRET: 'bench',
+  STRIPE_SECRET_KEY: 'sk_test_bench',
+});
+const db = createDb({ ...dbConfig, poolMax: 20 });
+const app = createApp({
+  config: { ...config, db: dbConfig },
+  db,
+  logger: createLogger({ silent: true }),
+  identity: { endpoints: { issuer: 'http://127.0.0.1:9', authorization_endpoint: 'http://127.0.0.1:9/a', token_endpoint: 'http://127.0.0.1:9/t', userinfo_endpoint: 'http://127.0.0.1:9/u' } },
+  mailer: { send: async () => undefined, verify: async () => true, close: () => undefined },
+  billing: {} as never,
+  ingestRate: { perSecond: 10_000, burst: 10_000 },
+});
+createServer(app).listen(port, '127.0.0.1');
+process.on('SIGTERM', () => process.exit(0));
