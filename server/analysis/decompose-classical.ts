@@ -73,18 +73,18 @@ export function decomposeClassical(x: Series, options: ClassicalDecompositionOpt
 
   const multiplicative = type === 'multiplicative';
   const trend = movingAverageCentred(y, period);
+  // Mean detrended value per position in the cycle, summed in one pass in time order.
   const figure = new Float64Array(period);
-  for (let phase = 0; phase < period; phase++) {
-    let sum = 0;
-    let count = 0;
-    for (let i = phase; i < n; i += period) {
-      const detrended = multiplicative ? y[i] / trend[i] : y[i] - trend[i];
-      if (Number.isNaN(detrended)) continue;
-      sum += detrended;
-      count++;
+  const counts = new Float64Array(period);
+  for (let i = 0, phase = 0; i < n; i++) {
+    const detrended = multiplicative ? y[i] / trend[i] : y[i] - trend[i];
+    if (!Number.isNaN(detrended)) {
+      figure[phase] += detrended;
+      counts[phase]++;
     }
-    figure[phase] = sum / count;
+    if (++phase === period) phase = 0;
   }
+  for (let phase = 0; phase < period; phase++) figure[phase] /= counts[phase];
   let centre = 0;
   for (let phase = 0; phase < period; phase++) centre += figure[phase];
   centre /= period;

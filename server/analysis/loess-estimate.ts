@@ -1,7 +1,5 @@
+import { CUTOFF_LOW } from './loess-thresholds.ts';
 import { loessTricubeWeights } from './loess-tricube-weights.ts';
-
-// stl.f's 0.001 is a single-precision literal promoted to double (see loess-tricube-weights).
-const NEAR_ZERO = Math.fround(0.001);
 
 // Tricube weights by integer distance for the radius `tableRadius`, filled on demand. Most
 // calls in a sweep share one radius, so each weight is computed once instead of per call.
@@ -60,19 +58,6 @@ export function loessEstimate(
   const lo = Math.max(left, xs - tableReach);
   const hi = Math.min(right, xs + tableReach);
   if (lo > hi) return NaN;
-  if (robustWeights === null && xs - lo === hi - xs) {
-    // A window symmetric about xs with symmetric weights: the weighted mean of the positions
-    // is xs itself, so the local line's slope term vanishes and both degrees give the
-    // weighted mean, summed here in pairs.
-    let sw = 0;
-    let sy = 0;
-    for (let d = 1, a = xs - 1, b = xs + 1; a >= lo; d++, a--, b++) {
-      const wd = w[d];
-      sw += wd;
-      sy += wd * (y[a] + y[b]);
-    }
-    return (w[0] * y[xs] + sy) / (w[0] + 2 * sw);
-  }
   let sw = 0;
   let sy = 0;
   if (degree === 0) {
@@ -106,7 +91,7 @@ export function loessEstimate(
   if (h <= 0) return mean;
   const centre = sd / sw;
   const spread = sdd / sw - centre * centre;
-  if (!(Math.sqrt(spread) > NEAR_ZERO * (n - 1))) return mean;
+  if (!(Math.sqrt(spread) > CUTOFF_LOW * (n - 1))) return mean;
   // Fitted line at xs: mean + slope · (xs − centre), with xs at offset 0.
   const slope = (sdy / sw - centre * mean) / spread;
   return mean - slope * centre;

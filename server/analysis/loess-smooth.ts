@@ -1,6 +1,6 @@
 import { loessEstimate } from './loess-estimate.ts';
 import { loessSymmetricFit } from './loess-symmetric-fit.ts';
-import { loessTricubeWeights } from './loess-tricube-weights.ts';
+import { loessSymmetricKernel } from './loess-symmetric-kernel.ts';
 
 /**
  * Loess smoothing of a whole series at the integer positions, as STL uses it for its
@@ -14,7 +14,8 @@ import { loessTricubeWeights } from './loess-tricube-weights.ts';
  * every weight is zero the input value is kept, as there.
  *
  * Writes `n` values to `out[outOffset ..]`; reads `y[0 .. n-1]` and, when given,
- * `robustWeights[0 .. n-1]`. Cost: O(n·span / jump + n), no allocation.
+ * `robustWeights[0 .. n-1]`. Cost: O(n·span / jump + n); allocates only the small kernel of
+ * tricube weights for the centred windows.
  */
 export function loessSmooth(
   y: Float64Array,
@@ -31,7 +32,7 @@ export function loessSmooth(
     return;
   }
   const step = Math.min(jump, n - 1);
-  const kernel = span < n && span % 2 === 1 ? symmetricKernel(span) : null;
+  const kernel = span < n && span % 2 === 1 ? loessSymmetricKernel(span) : null;
   // Each sweep returns the left end of its last window (which spans `span` values, or the
   // whole series), which the reference code reuses below.
   const lastLeft =
@@ -73,7 +74,7 @@ function sweepEveryPosition(
       right++;
     }
     if (kernel !== null && i - left === right - i) {
-      const v = loessSymmetricFit(y, n, i, kernel, degree, robustWeights);
+      const v = loessSymmetricFit(y, n, i, kernel, degree, robustWeights, 1);
       out[outOffset + i] = Number.isNaN(v) ? y[i] : v;
     } else {
       fitAt(y, n, span, degree, i, left, right, robustWeights, out, outOffset);
@@ -100,7 +101,7 @@ function sweepWithJumps(
       left = i - half + 1;
       right = span + i - half;
       if (kernel !== null) {
-        const v = loessSymmetricFit(y, n, i, kernel, degree, robustWeights);
+        const v = loessSymmetricFit(y, n, i, kernel, degree, robustWeights, 1);
         out[outOffset + i] = Number.isNaN(v) ? y[i] : v;
         continue;
       }
@@ -108,17 +109,6 @@ function sweepWithJumps(
     fitAt(y, n, span, degree, i, left, right, robustWeights, out, outOffset);
   }
   return left;
-}
-
-/**
- * Tricube weights by distance for a full window of odd `span` centred on the fit, cut to the
- * distances that have weight (the outermost ones get none).
- */
-function symmetricKernel(span: number): Float64Array {
-  const radius = (span - 1) / 2;
-  const weights = new Float64Array(radius + 1);
-  const reach = loessTricubeWeights(radius, 0, radius, weights);
-  return weights.subarray(0, Math.min(reach, radius) + 1);
 }
 
 /** One loess fit written to `out`; where every weight is zero the input value is kept. */

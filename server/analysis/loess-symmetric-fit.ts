@@ -1,12 +1,12 @@
-// stl.f's 0.001 is a single-precision literal promoted to double (see loess-tricube-weights).
-const NEAR_ZERO = Math.fround(0.001);
+import { CUTOFF_LOW } from './loess-thresholds.ts';
 
 /**
  * Loess value at position `i` of a series of `n` values for a full window centred on `i`:
  * `kernel[d]` holds the tricube weight of distance d (zero beyond the reach), so the window
- * is `i − r .. i + r` with `r = kernel.length − 1`. Without robustness weights the weights are
- * symmetric, the local line's slope term vanishes and the result is the weighted mean for
- * degree 0 and 1 alike; with them, the weighted mean (degree 0) or the weighted least-squares
+ * is `i − r .. i + r` with `r = kernel.length − 1` (see {@link loessSymmetricKernel}). The
+ * series may be laid out with a `stride` (a cycle-subseries read in place: its neighbours of
+ * `i` are at `i ± d·stride`). Without robustness weights the weights are symmetric, the
+ * local line's slope term vanishes and the result is the weighted mean for degree 0 and 1; with them, the weighted mean (degree 0) or the weighted least-squares
  * line evaluated at `i` (degree 1). Returns NaN when every weight is zero.
  *
  * This is the interior case of {@link loessEstimate} (same method: Cleveland, Cleveland,
@@ -22,15 +22,16 @@ export function loessSymmetricFit(
   kernel: Float64Array,
   degree: number,
   robustWeights: Float64Array | null,
+  stride: number,
 ): number {
   const r = kernel.length - 1;
   if (robustWeights === null) {
     let sw = 0;
     let sy = 0;
-    for (let d = 1; d <= r; d++) {
+    for (let d = 1, o = stride; d <= r; d++, o += stride) {
       const k = kernel[d];
       sw += k;
-      sy += k * (y[i - d] + y[i + d]);
+      sy += k * (y[i - o] + y[i + o]);
     }
     return (kernel[0] * y[i] + sy) / (kernel[0] + 2 * sw);
   }
@@ -38,11 +39,11 @@ export function loessSymmetricFit(
   let sw = k0;
   let sy = k0 * y[i];
   if (degree === 0) {
-    for (let d = 1; d <= r; d++) {
-      const a = kernel[d] * robustWeights[i - d];
-      const b = kernel[d] * robustWeights[i + d];
+    for (let d = 1, o = stride; d <= r; d++, o += stride) {
+      const a = kernel[d] * robustWeights[i - o];
+      const b = kernel[d] * robustWeights[i + o];
       sw += a + b;
-      sy += a * y[i - d] + b * y[i + d];
+      sy += a * y[i - o] + b * y[i + o];
     }
     return sw > 0 ? sy / sw : NaN;
   }
@@ -50,11 +51,11 @@ export function loessSymmetricFit(
   let sd = 0;
   let sdd = 0;
   let sdy = 0;
-  for (let d = 1; d <= r; d++) {
-    const a = kernel[d] * robustWeights[i - d];
-    const b = kernel[d] * robustWeights[i + d];
-    const left = a * y[i - d];
-    const right = b * y[i + d];
+  for (let d = 1, o = stride; d <= r; d++, o += stride) {
+    const a = kernel[d] * robustWeights[i - o];
+    const b = kernel[d] * robustWeights[i + o];
+    const left = a * y[i - o];
+    const right = b * y[i + o];
     sw += a + b;
     sy += left + right;
     sd += (b - a) * d;
@@ -65,7 +66,7 @@ export function loessSymmetricFit(
   const mean = sy / sw;
   const centre = sd / sw;
   const spread = sdd / sw - centre * centre;
-  if (!(Math.sqrt(spread) > NEAR_ZERO * (n - 1))) return mean;
+  if (!(Math.sqrt(spread) > CUTOFF_LOW * (n - 1))) return mean;
   const slope = (sdy / sw - centre * mean) / spread;
   return mean - slope * centre;
 }

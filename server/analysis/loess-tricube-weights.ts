@@ -1,7 +1,4 @@
-// stl.f writes these thresholds as default-real (single precision) literals that are promoted
-// to double; using the same values makes the boundary cases fall on the same side as in R.
-const NEAR_ONE = Math.fround(0.999);
-const NEAR_ZERO = Math.fround(0.001);
+import { CUTOFF_HIGH, CUTOFF_LOW } from './loess-thresholds.ts';
 
 /**
  * Tricube neighbourhood weights `(1 − (d/h)³)³` of loess for the integer distances
@@ -15,8 +12,8 @@ const NEAR_ZERO = Math.fround(0.001);
  * netlib's stl.f). Cost: O(to − from).
  */
 export function loessTricubeWeights(h: number, from: number, to: number, out: Float64Array): number {
-  const hInner = NEAR_ZERO * h;
-  const reach = Math.floor(NEAR_ONE * h);
+  const hInner = CUTOFF_LOW * h;
+  const reach = Math.floor(CUTOFF_HIGH * h);
   for (let d = from; d <= to; d++) {
     if (d > reach) {
       out[d] = 0;

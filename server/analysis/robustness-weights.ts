@@ -1,7 +1,4 @@
-// stl.f writes these cut-offs as default-real (single precision) literals that are promoted
-// to double; using the same values makes the boundary cases fall on the same side as in R.
-const NEAR_ONE = Math.fround(0.999);
-const NEAR_ZERO = Math.fround(0.001);
+import { CUTOFF_HIGH, CUTOFF_LOW } from './loess-thresholds.ts';
 
 /**
  * STL's robustness weights from the residuals `y − (trend + seasonal)`: Tukey's bisquare of
@@ -31,8 +28,8 @@ export function robustnessWeights(
   // the lower middle value is the largest of them.
   const lowerValue = n % 2 === 0 ? largest(scratch, upper) : upperValue;
   const scale = 3 * (upperValue + lowerValue);
-  const inner = NEAR_ZERO * scale;
-  const outer = NEAR_ONE * scale;
+  const inner = CUTOFF_LOW * scale;
+  const outer = CUTOFF_HIGH * scale;
   for (let i = 0; i < n; i++) {
     const r = Math.abs(residuals[i]);
     if (r <= inner) {

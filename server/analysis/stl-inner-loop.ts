@@ -1,7 +1,7 @@
 import { loessSmooth } from './loess-smooth.ts';
 import { stlLowPass } from './stl-low-pass.ts';
 import type { StlSettings } from './stl-parameters.ts';
-import { stlSubseriesSmooth } from './stl-subseries-smooth.ts';
+import { stlSubseriesSmooth, type SubseriesScratch } from './stl-subseries-smooth.ts';
 
 /** Buffers reused by every pass of {@link stlInnerLoop}, sized for one series. */
 export interface StlWorkspace {
@@ -12,10 +12,8 @@ export interface StlWorkspace {
   /** n + 2·period values each: low-pass output and scratch. */
   lowPass: Float64Array;
   scratch: Float64Array;
-  /** The cycle-subseries side by side: period·ceil(n/period) values, period·(ceil(n/period) + 2) for the smooth. */
-  subValues: Float64Array;
-  subWeights: Float64Array;
-  subSmooth: Float64Array;
+  /** Buffers of the cycle-subseries smoother (grown on first use). */
+  subseries: SubseriesScratch;
 }
 
 /**
@@ -40,13 +38,12 @@ export function stlInnerLoop(
   const n = y.length;
   const { period } = settings;
   const { series, cycle, lowPass } = work;
-  const subScratch = { values: work.subValues, weights: work.subWeights, smooth: work.subSmooth };
   for (let pass = 0; pass < settings.inner; pass++) {
     subtract(y, trend, series, n);
     stlSubseriesSmooth(
       series, n, period,
       settings.seasonalWindow, settings.seasonalDegree, settings.seasonalJump,
-      robustWeights, cycle, subScratch,
+      robustWeights, cycle, work.subseries,
     );
     stlLowPass(
       cycle, n, period,

@@ -25,11 +25,15 @@ export interface StlResult {
  * the defaults and numerics of the authors' reference code as R's `stats::stl` runs it
  * (see {@link stlParameters}); with `seasonalWindow: 'periodic'` the seasonal is then
  * replaced by the mean of each position in the cycle, as R does, so it repeats exactly.
- * The result matches R to about 1e-12 of the series' range (tests/reference).
+ * The robustness weights use the exact median absolute residual; R's Fortran finds it with a
+ * partial sort that sometimes misses, so robust fits can differ from R's where they agree
+ * with statsmodels (tests/reference: about 1e-12 of the series' range from R where R's
+ * median is exact, and from statsmodels).
  *
  * The series must be complete: a NaN (missing value) or infinity throws
  * {@link AnalysisInputError}, as R's stl refuses NAs; fill or cut gaps first. It needs at
- * least two full periods. The input is not modified.
+ * least two full periods (R asks for more than two; exactly two works the same way). The
+ * input is not modified.
  *
  * Cost: O(passes · n · (n_s/j_s + n_l/j_l + n_t/j_t)) time for windows n_* and jumps j_*
  * (with the default jumps about 10·n per smoother and pass), O(n) memory; a robust fit adds
@@ -47,15 +51,12 @@ export function stl(x: Series, options: StlOptions): StlResult {
   }
   const { period } = settings;
   const extended = n + 2 * period;
-  const longest = Math.ceil(n / period);
   const work: StlWorkspace = {
     series: new Float64Array(n),
     cycle: new Float64Array(extended),
     lowPass: new Float64Array(extended),
     scratch: new Float64Array(extended),
-    subValues: new Float64Array(period * longest),
-    subWeights: new Float64Array(period * longest),
-    subSmooth: new Float64Array(period * (longest + 2)),
+    subseries: { values: new Float64Array(0), weights: new Float64Array(0), smooth: new Float64Array(0) },
   };
   const seasonal = new Float64Array(n);
   const trend = new Float64Array(n);

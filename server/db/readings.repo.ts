@@ -52,39 +52,39 @@ export function readingsIn(scope: LabScope, db: DbOrTrx) {
     },
 
     /**
-     * Recomputes the rollups of the buckets these times fall in: minute buckets from raw
-     * readings, hours from minutes, days from hours. Recomputing (rather than adding) keeps
-     * rollups exact and idempotent whatever was inserted before; runs of touched buckets are
-     * scanned together so a live batch costs one range scan per resolution.
+     * Recomputes the rollups of the buckets these times fall in, for these channels: minute
+     * buckets from raw readings, hours from minutes, days from hours. Recomputing (rather than
+     * adding) keeps rollups exact and idempotent whatever was inserted before; runs of touched
+     * buckets are scanned together, so a live batch costs one statement per resolution.
      */
-    async refreshRollups(channelId: number, times: number[]): Promise<void> {
-      if (times.length === 0) return;
+    async refreshRollups(channelIds: number[], times: number[]): Promise<void> {
+      if (times.length === 0 || channelIds.length === 0) return;
       let source: 'raw' | number = 'raw';
       for (const res of ROLLUP_RESOLUTIONS_S) {
         const ms = res * 1000;
         const buckets = [...new Set(times.map((t) => t - (((t % ms) + ms) % ms)))].sort((a, b) => a - b);
         for (const [first, last] of runsOf(buckets, ms * 4)) {
-          const from = first;
-          const to = last + ms;
+          const range = [tenantId, ...channelIds, first, last + ms];
+          const inList = channelIds.map(() => '?').join(', ');
           if (source === 'raw') {
             await db.raw(
               `INSERT INTO reading_rollups (tenant_id, channel_id, resolution_s, bucket_start, min_value, max_value, sum_value, count_value)
                SELECT tenant_id, channel_id, ?, ts - MOD(ts, ?) AS b, MIN(value), MAX(value), SUM(value), COUNT(*)
-               FROM readings WHERE tenant_id = ? AND channel_id = ? AND ts >= ? AND ts < ?
-               GROUP BY b
+               FROM readings WHERE tenant_id = ? AND channel_id IN (${inList}) AND ts >= ? AND ts < ?
+               GROUP BY channel_id, b
                ON DUPLICATE KEY UPDATE min_value = VALUES(min_value), max_value = VALUES(max_value),
                  sum_value = VALUES(sum_value), count_value = VALUES(count_value)`,
-              [res, ms, tenantId, channelId, from, to],
+              [res, ms, ...range],
             );
           } else {
             await db.raw(
               `INSERT INTO reading_rollups (tenant_id, channel_id, resolution_s, bucket_start, min_value, max_value, sum_value, count_value)
                SELECT tenant_id, channel_id, ?, bucket_start - MOD(bucket_start, ?) AS b, MIN(min_value), MAX(max_value), SUM(sum_value), SUM(count_value)
-               FROM reading_rollups WHERE tenant_id = ? AND channel_id = ? AND resolution_s = ? AND bucket_start >= ? AND bucket_start < ?
-               GROUP BY b
+               FROM reading_rollups WHERE tenant_id = ? AND resolution_s = ? AND channel_id IN (${inList}) AND bucket_start >= ? AND bucket_start < ?
+               GROUP BY channel_id, b
                ON DUPLICATE KEY UPDATE min_value = VALUES(min_value), max_value = VALUES(max_value),
                  sum_value = VALUES(sum_value), count_value = VALUES(count_value)`,
-              [res, ms, tenantId, channelId, source, from, to],
+              [res, ms, tenantId, source, ...channelIds, first, last + ms],
             );
           }
         }

@@ -33,7 +33,7 @@ export function errorHandler(logger: Logger): ErrorRequestHandler {
     }
     if (error instanceof AppError) {
       if (error instanceof ServiceUnavailableError) res.set('Retry-After', String(error.retryAfterSeconds));
-      if (error.status >= 500) logger.warn('request failed', { path: req.path, code: error.code });
+      if (error.status >= 500) logger.warn('request failed', { path: req.path, code: error.code, cause: (err as { code?: string; name?: string })?.code ?? (err as Error)?.name });
       res.status(error.status).json({ error: { code: error.code, message: error.message } });
       return;
     }

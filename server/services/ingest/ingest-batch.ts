@@ -75,7 +75,10 @@ const text = (v: unknown): string | null => (v === undefined || v === null ? nul
 export async function ingestBatch(db: Db, target: IngestTarget, rows: IncomingReading[], opts: IngestOptions): Promise<IngestOutcome> {
   for (let attempt = 1; ; attempt++) {
     try {
-      return await db.transaction((trx) => applyBatch(trx as unknown as Db, target, rows, opts));
+      // READ COMMITTED: the rollup INSERT … SELECT reads without gap locks (binary log is off),
+      // so batches of different loggers never block each other; the logger-row lock already
+      // serialises writers of the same channels.
+      return await db.transaction((trx) => applyBatch(trx as unknown as Db, target, rows, opts), { isolationLevel: 'read committed' });
     } catch (err) {
       if (attempt < 3 && isLockConflict(err)) continue;
       throw err;
@@ -156,6 +159,8 @@ async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[]
 
   // 2. Insert what is new; only if some rows were already stored, find out which and why.
   const readings = readingsIn(scope, trx);
+  // Primary-key order: each channel's rows go into one place of the index, not four.
+  candidates.sort((a, b) => a.channelId - b.channelId || a.ts - b.ts);
   let accepted = 0;
   for (let i = 0; i < candidates.length; i += 5000) accepted += await readings.insertNew(candidates.slice(i, i + 5000));
   let duplicates = duplicatesInBatch;
@@ -178,9 +183,7 @@ async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[]
 
   // 3. Rollups, quarantine, last-seen — all in the same transaction.
   if (accepted > 0) {
-    const timesByChannel = new Map<number, number[]>();
-    for (const c of candidates) (timesByChannel.get(c.channelId) ?? timesByChannel.set(c.channelId, []).get(c.channelId)!).push(c.ts);
-    for (const [channelId, times] of timesByChannel) await readings.refreshRollups(channelId, times);
+    await readings.refreshRollups([...new Set(candidates.map((c) => c.channelId))], candidates.map((c) => c.ts));
   }
   if (quarantine.length) await quarantineIn(scope).add(quarantine);
   if (opts.source === 'api') await loggersIn(scope).markSeen(target.loggerId, now());
