@@ -9,7 +9,6 @@
  */
 import { writeFileSync } from 'node:fs';
 import { startIdentityProvider } from './identity-provider/identity-provider.ts';
-import { DEV_ACCOUNTS } from './identity-provider/dev-accounts.ts';
 import { startStripeStandIn } from './stripe-stand-in/stripe-stand-in.ts';
 import { startMailCapture } from './mail-capture/mail-capture.ts';
 
@@ -77,13 +76,4 @@ async function main(): Promise<void> {
   process.once('SIGTERM', shutdown);
 }
 
-/** The dev accounts as printed by `npm start`. */
-export function describeDevAccounts(): string {
-  return DEV_ACCOUNTS.map((a) => `  ${a.role.padEnd(11)} ${a.email.padEnd(44)} password: ${a.password}`).join('\n');
-}
-
-if (process.argv.includes('--print-accounts')) {
-  process.stdout.write(`${describeDevAccounts()}\n`);
-} else {
-  void main();
-}
+void main();

@@ -53,6 +53,6 @@ APP_PID=$!
 wait_for_http "$LAGBOOK_PUBLIC_URL/healthz" 30 "Lagbook"
 say "Lagbook is running at $LAGBOOK_PUBLIC_URL"
 say "sign in with one of these dev accounts (local identity provider at $OIDC_ISSUER):"
-node --import tsx docker-free-scripts/dev-services.ts --print-accounts
+node --import tsx docker-free-scripts/print-dev-accounts.ts
 say "captured mail: http://127.0.0.1:$LAGBOOK_MAIL_HTTP_PORT/messages — press Ctrl-C to stop."
 wait "$APP_PID"
