@@ -12,6 +12,20 @@ export const paths = {
     path: '/labs/:lab/audit',
     href: (slug: string, search = '') => `/labs/${encodeURIComponent(slug)}/audit${search && !search.startsWith('?') ? `?${search}` : search}`,
   },
+  labLoggers: { path: '/labs/:lab/loggers', href: (slug: string) => `/labs/${encodeURIComponent(slug)}/loggers` },
+  labLoggerNew: { path: '/labs/:lab/loggers/new', href: (slug: string) => `/labs/${encodeURIComponent(slug)}/loggers/new` },
+  labLogger: {
+    path: '/labs/:lab/loggers/:loggerId',
+    href: (slug: string, loggerId: number) => `/labs/${encodeURIComponent(slug)}/loggers/${loggerId}`,
+  },
+  labLoggerUpload: {
+    path: '/labs/:lab/loggers/:loggerId/upload',
+    href: (slug: string, loggerId: number) => `/labs/${encodeURIComponent(slug)}/loggers/${loggerId}/upload`,
+  },
+  labQuarantine: {
+    path: '/labs/:lab/quarantine',
+    href: (slug: string, search = '') => `/labs/${encodeURIComponent(slug)}/quarantine${search && !search.startsWith('?') ? `?${search}` : search}`,
+  },
   joinLab: {
     path: '/join/:lab/:token',
     href: (slug: string, token: string) => `/join/${encodeURIComponent(slug)}/${encodeURIComponent(token)}`,

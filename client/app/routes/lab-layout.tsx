@@ -1,12 +1,18 @@
 import { Outlet, useOutletContext, useParams } from 'react-router-dom';
 import { ROLE_LABELS } from '../../../server/policies/permissions.ts';
 import type { Me } from '../../features/auth/api/get-me.ts';
-import { useLab } from '../../features/labs/api/get-lab.ts';
-import { LabNav } from '../../features/labs/components/lab-nav.tsx';
+import { useLab, type LabDetail } from '../../features/labs/api/get-lab.ts';
+import { visibleSections } from '../../features/labs/components/lab-sections.ts';
 import { LabNotFound } from '../../features/labs/components/lab-not-found.tsx';
 import { LoadingNote, Notice } from '../../components/notice.tsx';
+import { SectionTabs, type SectionTab } from '../../components/section-tabs.tsx';
 import { ApiError } from '../../lib/api-client.ts';
 import type { LabOutletContext } from './lab-context.ts';
+
+/** The lab's sections as tabs, only those the role may open (the server refuses the rest anyway). */
+function labTabs(detail: LabDetail): SectionTab[] {
+  return visibleSections(detail.permissions).map((s, i) => ({ label: s.label, to: s.href(detail.lab.slug), ...(i === 0 ? { exact: true } : {}) }));
+}
 
 /** `/labs/:lab/*`: loads the lab, shows its name, your role and the sections your role may open. */
 export default function LabLayout() {
@@ -31,7 +37,7 @@ export default function LabLayout() {
           Your role: <strong>{ROLE_LABELS[detail.role]}</strong>
         </p>
       </header>
-      <LabNav slug={detail.lab.slug} permissions={detail.permissions} />
+      <SectionTabs label="Lab sections" tabs={labTabs(detail)} />
       <div className="mt-6">
         <Outlet context={{ me, detail } satisfies LabOutletContext} />
       </div>

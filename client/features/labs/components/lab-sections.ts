@@ -13,8 +13,10 @@ export interface LabSection {
 /** The sections of a lab, in navigation order. */
 export const LAB_SECTIONS: LabSection[] = [
   { label: 'Overview', href: paths.lab.href, needs: 'lab.read', blurb: 'The lab at a glance.' },
+  { label: 'Loggers', href: paths.labLoggers.href, needs: 'loggers.read', blurb: 'The data loggers, their channels and keys; historical uploads.' },
+  { label: 'Quarantine', href: paths.labQuarantine.href, needs: 'quarantine.review', blurb: 'Readings that could not be stored, with the reason, to fix or discard.' },
   { label: 'Members', href: paths.labMembers.href, needs: 'members.read', blurb: 'Who belongs to the lab, and in which role.' },
-  { label: 'Audit log', href: paths.labAudit.href, needs: 'audit.read', blurb: 'Every change to membership, newest first.' },
+  { label: 'Audit log', href: paths.labAudit.href, needs: 'audit.read', blurb: 'Every admin action — members, keys, loggers, quarantine — newest first.' },
 ];
 
 /** The sections a member with `permissions` may open; the server refuses the rest anyway. */

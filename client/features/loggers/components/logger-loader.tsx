@@ -1,0 +1,18 @@
+import type { ReactNode } from 'react';
+import { LoadingNote, Notice } from '../../../components/notice.tsx';
+import { ApiError } from '../../../lib/api-client.ts';
+import { useLogger, type LoggerDetail } from '../api/get-logger.ts';
+
+/**
+ * Loads one logger of the lab and renders `children` with it; meanwhile a loading note, and
+ * for an id that is no logger of this lab (404, or 400 for a malformed id) one plain message.
+ */
+export function LoggerLoader({ slug, loggerId, children }: { slug: string; loggerId: number; children: (logger: LoggerDetail) => ReactNode }) {
+  const logger = useLogger(slug, loggerId);
+  if (logger.isPending) return <LoadingNote what="Loading the logger…" />;
+  if (logger.isError) {
+    const missing = logger.error instanceof ApiError && (logger.error.status === 404 || logger.error.status === 400);
+    return <Notice tone="alert">{missing ? 'There is no such logger in this lab.' : logger.error.message}</Notice>;
+  }
+  return children(logger.data.logger);
+}

@@ -1,0 +1,61 @@
+import { useMemo } from 'react';
+import { Link } from 'react-router-dom';
+import type { ColumnDef } from '@tanstack/react-table';
+import { paths } from '../../../app/paths.ts';
+import { DataTable } from '../../../components/data-table.tsx';
+import { RelativeTime } from '../../../components/relative-time.tsx';
+import type { LoggerSummary } from '../api/get-loggers.ts';
+import { formatInterval } from './format-interval.ts';
+
+/**
+ * The lab's loggers: name (a link to the logger's page), site, time zone, expected interval,
+ * number of channels and when it was last heard from (relative and exact). Retired loggers,
+ * when listed, are marked as such. Sortable by every column; never-seen loggers sort first
+ * when sorting by last seen ascending, so silent ones are easy to find.
+ */
+export function LoggersTable({ slug, loggers }: { slug: string; loggers: LoggerSummary[] }) {
+  const columns = useMemo<ColumnDef<LoggerSummary>[]>(
+    () => [
+      {
+        id: 'name',
+        header: 'Name',
+        accessorFn: (l) => l.name,
+        sortingFn: 'text',
+        cell: ({ row }) => (
+          <span className="inline-flex flex-wrap items-center gap-2">
+            <Link to={paths.labLogger.href(slug, row.original.id)} className="font-medium text-lichen-dark underline-offset-2 hover:underline">
+              {row.original.name}
+            </Link>
+            {row.original.retiredAt && <span className="rounded-full border border-rule px-2 text-xs text-ink-soft">retired</span>}
+          </span>
+        ),
+      },
+      { id: 'site', header: 'Site', accessorFn: (l) => l.site ?? '', sortingFn: 'text', cell: ({ row }) => row.original.site ?? '—' },
+      { id: 'timezone', header: 'Time zone', accessorFn: (l) => l.timezone, sortingFn: 'text' },
+      {
+        id: 'interval',
+        header: 'Expected interval',
+        accessorFn: (l) => l.expectedIntervalS,
+        cell: ({ row }) => formatInterval(row.original.expectedIntervalS),
+      },
+      { id: 'channels', header: 'Channels', accessorFn: (l) => l.channelCount, cell: ({ row }) => <span className="font-mono">{row.original.channelCount}</span> },
+      {
+        id: 'lastSeen',
+        header: 'Last seen',
+        accessorFn: (l) => (l.lastSeenAt ? Date.parse(l.lastSeenAt) : -1),
+        cell: ({ row }) => <RelativeTime iso={row.original.lastSeenAt} />,
+      },
+    ],
+    [slug],
+  );
+  return (
+    <DataTable
+      caption="Loggers of the lab"
+      columns={columns}
+      data={loggers}
+      getRowId={(l) => String(l.id)}
+      initialSorting={[{ id: 'name', desc: false }]}
+      empty="No loggers yet."
+    />
+  );
+}

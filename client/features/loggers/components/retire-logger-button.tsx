@@ -1,0 +1,18 @@
+import { ConfirmAction } from '../../../components/confirm-action.tsx';
+import { useRetireLogger } from '../api/retire-logger.ts';
+
+/** "Retire logger", asked first: its readings are kept, its keys stop working and it leaves the list. */
+export function RetireLoggerButton({ slug, loggerId, name }: { slug: string; loggerId: number; name: string }) {
+  const retire = useRetireLogger(slug, loggerId);
+  return (
+    <ConfirmAction
+      label="Retire logger"
+      size="md"
+      question={`Retire ${name}? Its readings are kept, but its keys stop working and it accepts no new data.`}
+      confirmLabel={`Retire ${name}`}
+      pending={retire.isPending}
+      onConfirm={() => retire.mutate()}
+      error={retire.error}
+    />
+  );
+}

@@ -1,0 +1,65 @@
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import { apiFetch } from '../../../lib/api-client.ts';
+
+/** A reading kept in quarantine, with the fields as they arrived (text) and why it was kept. */
+export interface QuarantinedRow {
+  id: number;
+  loggerId: number | null;
+  source: 'api' | 'upload' | 'resubmit';
+  rowIndex: number;
+  reasonCode: string;
+  reason: string;
+  channel: string | null;
+  ts: string | null;
+  value: string | null;
+  raw: string | null;
+  receivedAt: string;
+}
+
+export interface QuarantineQuery {
+  loggerId?: number;
+  reason?: string;
+  page: number;
+  pageSize: number;
+}
+
+export interface QuarantinePage {
+  rows: QuarantinedRow[];
+  total: number;
+  page: number;
+  pageSize: number;
+}
+
+/** The query string of a quarantine request (also used by the CSV download), empty filters left out. */
+export function quarantineSearch(query: Partial<QuarantineQuery>): string {
+  const params = new URLSearchParams();
+  if (query.loggerId) params.set('loggerId', String(query.loggerId));
+  if (query.reason) params.set('reason', query.reason);
+  if (query.page) params.set('page', String(query.page));
+  if (query.pageSize) params.set('pageSize', String(query.pageSize));
+  const text = params.toString();
+  return text ? `?${text}` : '';
+}
+
+const base = (slug: string) => `/api/v1/labs/${encodeURIComponent(slug)}/quarantine`;
+
+/** `GET /api/v1/labs/:lab/quarantine?loggerId=&reason=&page=&pageSize=` (newest first). */
+export function getQuarantine(slug: string, query: QuarantineQuery): Promise<QuarantinePage> {
+  return apiFetch(`${base(slug)}${quarantineSearch(query)}`);
+}
+
+/** `GET /api/v1/labs/:lab/quarantine/export.csv` with the same filters: every matching row, as a download. */
+export function quarantineExportUrl(slug: string, filters: { loggerId?: number; reason?: string }): string {
+  return `${base(slug)}/export.csv${quarantineSearch({ loggerId: filters.loggerId, reason: filters.reason })}`;
+}
+
+/** The prefix of every quarantine query of a lab, for refreshing them after a change. */
+export const quarantineRootKey = (slug: string) => ['labs', slug, 'quarantine'] as const;
+
+export const quarantineQueryOptions = (slug: string, query: QuarantineQuery) =>
+  queryOptions({ queryKey: [...quarantineRootKey(slug), query], queryFn: () => getQuarantine(slug, query), placeholderData: keepPreviousData });
+
+/** One page of quarantined rows; the previous page stays on screen while the next one loads. */
+export function useQuarantine(slug: string, query: QuarantineQuery) {
+  return useQuery(quarantineQueryOptions(slug, query));
+}

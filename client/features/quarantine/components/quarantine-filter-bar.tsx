@@ -1,0 +1,40 @@
+import { SelectField } from '../../../components/form-field.tsx';
+import type { QuarantineFilters } from '../hooks/quarantine-search-params.ts';
+import { REASON_CODES, REASON_LABELS, type ReasonCode } from './reason-labels.ts';
+
+/** Filters of the quarantine page: which logger and which reason. A change applies at once and starts at page 1. */
+export function QuarantineFilterBar({
+  filters,
+  loggers,
+  onChange,
+}: {
+  filters: QuarantineFilters;
+  loggers: Array<{ id: number; name: string }>;
+  onChange: (next: QuarantineFilters) => void;
+}) {
+  return (
+    <div role="group" aria-label="Filter the quarantine" className="grid gap-4 rounded-xl border border-rule bg-card p-4 sm:grid-cols-2">
+      <SelectField
+        label="Logger"
+        value={filters.loggerId ?? ''}
+        onChange={(e) => onChange({ ...filters, loggerId: e.target.value ? Number(e.target.value) : null, page: 1 })}
+      >
+        <option value="">Every logger</option>
+        {filters.loggerId && !loggers.some((l) => l.id === filters.loggerId) && <option value={filters.loggerId}>Logger #{filters.loggerId}</option>}
+        {loggers.map((l) => (
+          <option key={l.id} value={l.id}>
+            {l.name}
+          </option>
+        ))}
+      </SelectField>
+      <SelectField label="Reason" value={filters.reason} onChange={(e) => onChange({ ...filters, reason: e.target.value as ReasonCode | '', page: 1 })}>
+        <option value="">Any reason</option>
+        {REASON_CODES.map((code) => (
+          <option key={code} value={code}>
+            {REASON_LABELS[code]}
+          </option>
+        ))}
+      </SelectField>
+    </div>
+  );
+}

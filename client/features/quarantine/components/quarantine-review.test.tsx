@@ -1,0 +1,109 @@
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import { cleanup, fireEvent, screen, within } from '@testing-library/react';
+import { fakeApi, renderWithProviders } from '../../../components/test-harness.tsx';
+import type { QuarantinedRow } from '../api/get-quarantine.ts';
+import { QuarantineReview } from './quarantine-review.tsx';
+
+afterEach(() => {
+  cleanup();
+  vi.unstubAllGlobals();
+});
+
+// Quarantined rows of a fictional logger (demo data, invented); reasons worded as the server words them.
+const BAD_VALUE: QuarantinedRow = {
+  id: 801,
+  loggerId: 5,
+  source: 'upload',
+  rowIndex: 4321,
+  reasonCode: 'bad_value',
+  reason: 'value: must be a finite number',
+  channel: 'air_t',
+  ts: '2026-09-01T00:10:00+03:00',
+  value: 'n/a',
+  raw: '2026-09-01T00:10:00+03:00;n/a;81;3.61',
+  receivedAt: '2026-09-02T10:00:00Z',
+};
+const UNKNOWN: QuarantinedRow = { ...BAD_VALUE, id: 802, reasonCode: 'unknown_channel', reason: 'channel: no channel "soil_t" on this logger', channel: 'soil_t', value: '9.5', source: 'api', raw: null };
+const LOGGERS = [{ id: 5, name: 'Hedgerow mast' }];
+
+const pageOf = (rows: QuarantinedRow[], total = rows.length) => ({ status: 200, body: { rows, total, page: 1, pageSize: 50 } });
+
+describe('QuarantineReview', () => {
+  it('reads logger, reason and page from the URL, sends them to the API, and keeps filter changes in the URL', async () => {
+    const api = fakeApi({ 'GET /api/v1/labs/fernhollow/quarantine': () => pageOf([BAD_VALUE], 120) });
+    const { router } = renderWithProviders(<QuarantineReview slug="fernhollow" loggers={LOGGERS} />, '/q?loggerId=5&reason=bad_value&page=2');
+    await screen.findByText('n/a');
+    expect(api.requests[0].path).toBe('/api/v1/labs/fernhollow/quarantine?loggerId=5&reason=bad_value&page=2&pageSize=50');
+    expect((screen.getByLabelText('Logger') as HTMLSelectElement).value).toBe('5');
+    expect(screen.getByText(/Rows 51–100 of 120/)).toBeTruthy();
+    expect(screen.getByRole('link', { name: 'Download CSV' }).getAttribute('href')).toBe('/api/v1/labs/fernhollow/quarantine/export.csv?loggerId=5&reason=bad_value');
+
+    fireEvent.change(screen.getByLabelText('Reason'), { target: { value: 'unknown_channel' } });
+    await vi.waitFor(() => expect(router.state.location.search).toBe('?loggerId=5&reason=unknown_channel'));
+    await vi.waitFor(() => expect(api.requests.at(-1)!.path).toBe('/api/v1/labs/fernhollow/quarantine?loggerId=5&reason=unknown_channel&page=1&pageSize=50'));
+  });
+
+  it('fixes one row and re-submits it, then says whether it was stored', async () => {
+    let rows = [BAD_VALUE, UNKNOWN];
+    const api = fakeApi({
+      'GET /api/v1/labs/fernhollow/quarantine': () => pageOf(rows),
+      'POST /api/v1/labs/fernhollow/quarantine/resubmit': () => {
+        rows = [UNKNOWN];
+        return { status: 200, body: { resubmitted: 1, accepted: 1, duplicates: 0, quarantined: [] } };
+      },
+    });
+    renderWithProviders(<QuarantineReview slug="fernhollow" loggers={LOGGERS} />, '/q?loggerId=5');
+    fireEvent.click(await screen.findByRole('button', { name: 'Fix row 801' }));
+    const form = screen.getByRole('form', { name: 'Fix row 801' });
+    expect((within(form).getByLabelText('Time') as HTMLInputElement).value).toBe('2026-09-01T00:10:00+03:00');
+    fireEvent.change(within(form).getByLabelText('Value'), { target: { value: ' 12.3 ' } });
+    fireEvent.click(within(form).getByRole('button', { name: 'Re-submit' }));
+
+    expect((await screen.findByText(/Re-submitted 1 row:/)).textContent).toBe('Re-submitted 1 row: 1 stored, 0 already stored, 0 quarantined again.');
+    expect(api.requests.find((r) => r.method === 'POST')!.body).toEqual({ rows: [{ id: 801, channel: 'air_t', ts: '2026-09-01T00:10:00+03:00', value: '12.3' }] });
+    await vi.waitFor(() => expect(screen.queryByText('n/a')).toBeNull());
+  });
+
+  it('warns that a time without offset will fail again, and shows the new reason when it does', async () => {
+    const local = { ...BAD_VALUE, ts: '2026-09-01 00:10:00' };
+    fakeApi({
+      'GET /api/v1/labs/fernhollow/quarantine': () => pageOf([local]),
+      'POST /api/v1/labs/fernhollow/quarantine/resubmit': () => ({
+        status: 200,
+        body: { resubmitted: 1, accepted: 0, duplicates: 0, quarantined: [{ id: 801, code: 'bad_time', reason: 'ts: "2026-09-01 00:10:00" has no UTC offset (add Z or ±hh:mm, or send epoch milliseconds)' }] },
+      }),
+    });
+    renderWithProviders(<QuarantineReview slug="fernhollow" loggers={LOGGERS} />, '/q');
+    fireEvent.click(await screen.findByRole('button', { name: 'Fix row 801' }));
+    expect(screen.getByText(/No UTC offset/)).toBeTruthy();
+    fireEvent.change(screen.getByLabelText('Value'), { target: { value: '12.3' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Re-submit' }));
+    const outcome = await screen.findByText(/Row 801 is back in quarantine/);
+    expect(outcome.textContent).toContain('has no UTC offset');
+    expect(outcome.closest('[role="alert"]')).not.toBeNull();
+  });
+
+  it('discards the selected rows only after confirmation, and re-submits a selection as it is', async () => {
+    const api = fakeApi({
+      'GET /api/v1/labs/fernhollow/quarantine': () => pageOf([BAD_VALUE, UNKNOWN]),
+      'POST /api/v1/labs/fernhollow/quarantine/discard': () => ({ status: 200, body: { discarded: 2 } }),
+      'POST /api/v1/labs/fernhollow/quarantine/resubmit': () => ({ status: 200, body: { resubmitted: 1, accepted: 0, duplicates: 1, quarantined: [] } }),
+    });
+    renderWithProviders(<QuarantineReview slug="fernhollow" loggers={LOGGERS} />, '/q');
+    await screen.findByText('soil_t');
+    expect((screen.getByRole('button', { name: 'Re-submit selected' }) as HTMLButtonElement).disabled).toBe(true);
+
+    fireEvent.click(screen.getByLabelText('Select row 802'));
+    fireEvent.click(screen.getByRole('button', { name: 'Re-submit selected' }));
+    await screen.findByText(/0 stored, 1 already stored/);
+    expect(api.requests.find((r) => r.path.endsWith('/resubmit'))!.body).toEqual({ rows: [{ id: 802, channel: 'soil_t', ts: '2026-09-01T00:10:00+03:00', value: '9.5' }] });
+
+    fireEvent.click(screen.getByLabelText('Select every row on this page'));
+    expect(screen.getByText('2 selected')).toBeTruthy();
+    fireEvent.click(screen.getByRole('button', { name: 'Discard selected' }));
+    expect(api.requests.some((r) => r.path.endsWith('/discard'))).toBe(false);
+    fireEvent.click(screen.getByRole('button', { name: 'Discard' }));
+    expect(await screen.findByText('Discarded 2 rows.')).toBeTruthy();
+    expect(api.requests.find((r) => r.path.endsWith('/discard'))!.body).toEqual({ ids: [801, 802] });
+  });
+});

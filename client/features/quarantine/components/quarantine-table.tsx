@@ -1,0 +1,97 @@
+import { useMemo, useState } from 'react';
+import type { ColumnDef } from '@tanstack/react-table';
+import { Button } from '../../../components/button.tsx';
+import { DataTable } from '../../../components/data-table.tsx';
+import { DateTime } from '../../../components/date-time.tsx';
+import type { QuarantinedRow } from '../api/get-quarantine.ts';
+import type { ResubmitRow } from '../api/resubmit-rows.ts';
+import { FixRowForm } from './fix-row-form.tsx';
+import { isReasonCode, REASON_LABELS } from './reason-labels.ts';
+
+const mono = (text: string | null) => (text === null ? <span className="text-ink-soft">—</span> : <span className="break-all font-mono text-xs">{text}</span>);
+
+/** The "Fix" button of one row, turning into its fix form. */
+function FixCell({ row, pending, onResubmit }: { row: QuarantinedRow; pending: boolean; onResubmit: (rows: ResubmitRow[]) => void }) {
+  const [open, setOpen] = useState(false);
+  if (!open) {
+    return (
+      <Button size="sm" onClick={() => setOpen(true)} aria-label={`Fix row ${row.id}`}>
+        Fix
+      </Button>
+    );
+  }
+  return <FixRowForm row={row} pending={pending} onResubmit={(fixed) => onResubmit([fixed])} onCancel={() => setOpen(false)} />;
+}
+
+/**
+ * One page of quarantined rows (newest first, as the server sorts them): a checkbox per row
+ * (and one for the page), the reason, logger, channel, time, value and raw line as they
+ * arrived, when it was received, and "Fix" to correct and re-submit a single row.
+ */
+export function QuarantineTable({
+  rows,
+  loggerNames,
+  selected,
+  onSelect,
+  pending,
+  onResubmit,
+}: {
+  rows: QuarantinedRow[];
+  loggerNames: Map<number, string>;
+  selected: ReadonlySet<number>;
+  onSelect: (next: Set<number>) => void;
+  pending: boolean;
+  onResubmit: (rows: ResubmitRow[]) => void;
+}) {
+  const columns = useMemo<ColumnDef<QuarantinedRow>[]>(() => {
+    const all = rows.length > 0 && rows.every((r) => selected.has(r.id));
+    const toggle = (id: number, on: boolean) => {
+      const next = new Set(selected);
+      if (on) next.add(id);
+      else next.delete(id);
+      onSelect(next);
+    };
+    return [
+      {
+        id: 'select',
+        header: () => (
+          <input
+            type="checkbox"
+            aria-label="Select every row on this page"
+            checked={all}
+            onChange={(e) => onSelect(e.target.checked ? new Set(rows.map((r) => r.id)) : new Set())}
+            className="h-4 w-4 accent-lichen"
+          />
+        ),
+        cell: ({ row }) => (
+          <input
+            type="checkbox"
+            aria-label={`Select row ${row.original.id}`}
+            checked={selected.has(row.original.id)}
+            onChange={(e) => toggle(row.original.id, e.target.checked)}
+            className="h-4 w-4 accent-lichen"
+          />
+        ),
+      },
+      {
+        id: 'reason',
+        header: 'Reason',
+        cell: ({ row }) => (
+          <span className="grid gap-0.5">
+            <span className="font-medium">{isReasonCode(row.original.reasonCode) ? REASON_LABELS[row.original.reasonCode] : row.original.reasonCode}</span>
+            <span className="text-xs text-ink-soft">{row.original.reason}</span>
+          </span>
+        ),
+      },
+      { id: 'logger', header: 'Logger', cell: ({ row }) => (row.original.loggerId === null ? '—' : (loggerNames.get(row.original.loggerId) ?? `#${row.original.loggerId}`)) },
+      { id: 'channel', header: 'Channel', cell: ({ row }) => mono(row.original.channel) },
+      { id: 'ts', header: 'Time', cell: ({ row }) => mono(row.original.ts) },
+      { id: 'value', header: 'Value', cell: ({ row }) => mono(row.original.value) },
+      { id: 'raw', header: 'As received', cell: ({ row }) => mono(row.original.raw) },
+      { id: 'received', header: 'Received', cell: ({ row }) => <DateTime iso={row.original.receivedAt} /> },
+      { id: 'fix', header: 'Fix', cell: ({ row }) => <FixCell row={row.original} pending={pending} onResubmit={onResubmit} /> },
+    ];
+  }, [rows, loggerNames, selected, onSelect, pending, onResubmit]);
+
+  return <DataTable caption="Quarantined rows, newest first" columns={columns} data={rows} getRowId={(r) => String(r.id)} sortable={false} empty="Nothing in quarantine here." />;
+}

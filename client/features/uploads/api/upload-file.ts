@@ -1,0 +1,91 @@
+import type { UploadOptions } from '../../../../server/http/loggers/loggers.schema.ts';
+import { ApiError } from '../../../lib/api-client.ts';
+import { createNdjsonReader } from './ndjson-reader.ts';
+
+/** Counts the import reports after each stored batch. */
+export interface ImportProgress {
+  lines: number;
+  readings: number;
+  accepted: number;
+  duplicates: number;
+  quarantined: number;
+}
+
+/** The import's last word: the counts, and the first quarantined readings with their file line. */
+export interface ImportSummary extends ImportProgress {
+  firstQuarantined: Array<{ index: number; code: string; reason: string; line: number }>;
+}
+
+export interface UploadHandlers {
+  /** Bytes of the file sent so far (from the browser's upload progress). */
+  onSent?: (loaded: number, total: number) => void;
+  /** A `progress` line of the server's NDJSON answer. */
+  onProgress?: (progress: ImportProgress) => void;
+}
+
+type Line = ({ type: 'progress' } & ImportProgress) | ({ type: 'summary' } & ImportSummary) | { type: 'error'; code: string; message: string };
+
+const isLine = (v: unknown): v is Line => typeof v === 'object' && v !== null && typeof (v as { type?: unknown }).type === 'string';
+
+/**
+ * `POST /api/v1/labs/:lab/loggers/:loggerId/uploads?options=…` with the file as the raw body.
+ * XMLHttpRequest rather than fetch, because only it reports upload progress in bytes; its
+ * answer (NDJSON: progress lines, then a summary or an error line) is read as it streams in.
+ * Resolves with the summary; rejects with an ApiError for a refusal (JSON error before the
+ * import began), an `error` line, a lost connection or `abort()`.
+ */
+export function uploadFile(slug: string, loggerId: number, file: Blob, options: UploadOptions, handlers: UploadHandlers = {}) {
+  const xhr = new XMLHttpRequest();
+  const reader = createNdjsonReader();
+  let seen = 0;
+  let summary: ImportSummary | null = null;
+  let failure: ApiError | null = null;
+
+  const take = (lines: unknown[]) => {
+    for (const line of lines) {
+      if (!isLine(line)) continue;
+      if (line.type === 'progress') handlers.onProgress?.(line);
+      else if (line.type === 'summary') summary = line;
+      // The answer itself was 200: the import began, then stopped and said why.
+      else if (line.type === 'error') failure = new ApiError(xhr.status, line.code, line.message);
+    }
+  };
+  const readNew = () => {
+    const text = xhr.responseText;
+    take(reader.push(text.slice(seen)));
+    seen = text.length;
+  };
+
+  const done = new Promise<ImportSummary>((resolve, reject) => {
+    xhr.upload.onprogress = (e) => handlers.onSent?.(e.loaded, e.lengthComputable ? e.total : file.size);
+    xhr.onprogress = () => {
+      if (xhr.status === 200) readNew();
+    };
+    xhr.onload = () => {
+      if (xhr.status !== 200) {
+        let body: { error?: { code?: string; message?: string } } | null = null;
+        try {
+          body = JSON.parse(xhr.responseText);
+        } catch {
+          body = null;
+        }
+        reject(new ApiError(xhr.status, body?.error?.code ?? 'unknown', body?.error?.message ?? `The upload was refused (${xhr.status}).`));
+        return;
+      }
+      readNew();
+      take(reader.end());
+      if (failure) reject(failure);
+      else if (summary) resolve(summary);
+      else reject(new ApiError(0, 'no_summary', 'The import stopped without a summary. What was stored is kept; send the file again to finish.'));
+    };
+    xhr.onerror = () =>
+      reject(new ApiError(0, 'network', 'The connection was lost. What was stored is kept; send the file again to finish (stored rows count as duplicates).'));
+    xhr.onabort = () => reject(new ApiError(0, 'aborted', 'The upload was cancelled. What was stored before that is kept.'));
+  });
+
+  xhr.open('POST', `/api/v1/labs/${encodeURIComponent(slug)}/loggers/${loggerId}/uploads?options=${encodeURIComponent(JSON.stringify(options))}`);
+  xhr.setRequestHeader('Content-Type', 'text/csv');
+  xhr.setRequestHeader('Accept', 'application/x-ndjson, application/json');
+  xhr.send(file);
+  return { done, abort: () => xhr.abort() };
+}

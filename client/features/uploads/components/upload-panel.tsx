@@ -1,0 +1,161 @@
+import { useId, useState, type ChangeEvent } from 'react';
+import { Button } from '../../../components/button.tsx';
+import { Notice } from '../../../components/notice.tsx';
+import { PREVIEW_BYTES, previewCsv, type CsvPreview } from '../hooks/csv-preview.ts';
+import { guessUploadSetup, toUploadOptions, type UploadSetup } from '../hooks/upload-setup.ts';
+import { useUpload } from '../hooks/use-upload.ts';
+import { ColumnMapping, type MappingChannel } from './column-mapping.tsx';
+import { CsvPreviewTable } from './csv-preview-table.tsx';
+import { formatBytes, UploadProgress } from './upload-progress.tsx';
+import { UploadSummary } from './upload-summary.tsx';
+
+/** Largest file the server accepts (2 GiB, as `MAX_UPLOAD_BYTES` on the server). */
+export const MAX_UPLOAD_BYTES = 2 * 1024 ** 3;
+
+interface Chosen {
+  file: File;
+  /** The first {@link PREVIEW_BYTES} of the file as text. */
+  head: string;
+  preview: CsvPreview;
+}
+
+/**
+ * Historical upload for one logger: choose a CSV file (up to 2 GB), see its first rows as the
+ * import will read them, map its columns to the logger's channels, then send it with a bar for
+ * the bytes sent and a count of readings stored, and finally the import's summary. Only the
+ * first 64 KB are read in the browser; the file itself goes to the server as it is.
+ */
+export function UploadPanel({
+  slug,
+  loggerId,
+  loggerTimeZone,
+  channels,
+  quarantineHref,
+}: {
+  slug: string;
+  loggerId: number;
+  loggerTimeZone: string;
+  channels: MappingChannel[];
+  quarantineHref: string;
+}) {
+  const fileInputId = useId();
+  const [chosen, setChosen] = useState<Chosen | null>(null);
+  const [setup, setSetup] = useState<UploadSetup | null>(null);
+  const [problems, setProblems] = useState<string[]>([]);
+  const [fileError, setFileError] = useState<string | null>(null);
+  // A new key empties the file box, so the same file can be chosen again after an upload.
+  const [inputKey, setInputKey] = useState(0);
+  const upload = useUpload(slug, loggerId);
+
+  async function choose(e: ChangeEvent<HTMLInputElement>) {
+    const file = e.target.files?.[0];
+    setChosen(null);
+    setSetup(null);
+    setProblems([]);
+    setFileError(null);
+    upload.reset();
+    if (!file) return;
+    if (file.size > MAX_UPLOAD_BYTES) return setFileError(`${file.name} is ${formatBytes(file.size)}; files up to 2 GB are accepted. Split it and upload the parts.`);
+    if (file.size === 0) return setFileError(`${file.name} is empty.`);
+    const head = await file.slice(0, PREVIEW_BYTES).text();
+    const preview = previewCsv(head, file.size > PREVIEW_BYTES);
+    if (preview.header.length < 2) return setFileError('This does not look like a CSV file with a header line and at least two columns.');
+    setChosen({ file, head, preview });
+    setSetup(guessUploadSetup(preview.header, preview.delimiter, channels.map((c) => c.key), loggerTimeZone));
+  }
+
+  function changeSetup(next: UploadSetup) {
+    setProblems([]);
+    if (chosen && next.delimiter !== setup?.delimiter) {
+      // Another delimiter means other columns: read the preview again and guess afresh.
+      const preview = previewCsv(chosen.head, chosen.file.size > PREVIEW_BYTES, next.delimiter);
+      setChosen({ ...chosen, preview });
+      setSetup({ ...guessUploadSetup(preview.header, next.delimiter, channels.map((c) => c.key), next.timeZone), timeFormat: next.timeFormat });
+      return;
+    }
+    setSetup(next);
+  }
+
+  function start() {
+    if (!chosen || !setup) return;
+    const result = toUploadOptions(setup, chosen.preview.header);
+    if (!result.ok) return setProblems(result.problems);
+    upload.start(chosen.file, result.options);
+  }
+
+  const state = upload.state;
+  const locked = state.phase === 'running';
+  return (
+    <div className="grid gap-6">
+      <div className="grid gap-1">
+        <label htmlFor={fileInputId} className="text-sm font-medium">
+          Export file (CSV, up to 2 GB)
+        </label>
+        <input
+          key={inputKey}
+          id={fileInputId}
+          type="file"
+          accept=".csv,.txt,.tsv,text/csv,text/plain"
+          disabled={locked}
+          onChange={(e) => void choose(e)}
+          className="block text-sm file:mr-3 file:rounded-lg file:border file:border-rule file:bg-card file:px-3 file:py-1.5 file:font-medium"
+        />
+        {fileError && (
+          <p role="alert" className="text-sm text-alert">
+            {fileError}
+          </p>
+        )}
+      </div>
+
+      {chosen && setup && state.phase !== 'done' && (
+        <>
+          <p className="text-sm text-ink-soft">
+            {chosen.file.name} · {formatBytes(chosen.file.size)}
+          </p>
+          <CsvPreviewTable preview={chosen.preview} fileName={chosen.file.name} />
+          <fieldset disabled={locked} className="grid gap-5">
+            <legend className="sr-only">How to read the file</legend>
+            <ColumnMapping header={chosen.preview.header} channels={channels} setup={setup} onChange={changeSetup} />
+          </fieldset>
+          {problems.length > 0 && (
+            <Notice tone="alert">
+              <p className="font-medium">The file cannot be read this way yet:</p>
+              <ul className="mt-1 list-disc pl-5">
+                {problems.map((p) => (
+                  <li key={p}>{p}</li>
+                ))}
+              </ul>
+            </Notice>
+          )}
+          {state.phase !== 'running' && (
+            <div>
+              <Button tone="primary" onClick={start}>
+                Start the upload
+              </Button>
+            </div>
+          )}
+        </>
+      )}
+
+      {state.phase === 'running' && <UploadProgress sent={state.sent} total={state.total} progress={state.progress} onCancel={upload.cancel} />}
+      {state.phase === 'failed' && (
+        <Notice tone="alert">
+          {state.message}
+          {state.progress && ` Stored before it stopped: ${state.progress.accepted} readings.`}
+        </Notice>
+      )}
+      {state.phase === 'done' && (
+        <UploadSummary
+          summary={state.summary}
+          quarantineHref={quarantineHref}
+          onAgain={() => {
+            upload.reset();
+            setChosen(null);
+            setSetup(null);
+            setInputKey((k) => k + 1);
+          }}
+        />
+      )}
+    </div>
+  );
+}

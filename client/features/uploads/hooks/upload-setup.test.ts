@@ -1,0 +1,49 @@
+import { describe, expect, it } from 'vitest';
+import { uploadOptionsSchema } from '../../../../server/http/loggers/loggers.schema.ts';
+import { guessUploadSetup, toUploadOptions } from './upload-setup.ts';
+
+// Column names of a fictional field logger's export (demo scenario, invented).
+const WIDE = ['Timestamp', 'AIR_T', 'rh', 'battery_v'];
+const LONG = ['channel', 'time', 'value'];
+
+describe('guessUploadSetup', () => {
+  it('finds the time column, chooses wide, and maps columns named like channels (any case)', () => {
+    const setup = guessUploadSetup(WIDE, ',', ['air_t', 'rh'], 'Africa/Nairobi');
+    expect(setup).toMatchObject({ format: 'wide', timeColumn: 'Timestamp', timeZone: 'Africa/Nairobi', timeFormat: 'auto' });
+    expect(setup.columns).toEqual({ AIR_T: 'air_t', rh: 'rh', battery_v: null });
+  });
+
+  it('chooses long when the file has channel and value columns', () => {
+    expect(guessUploadSetup(LONG, ';', ['air_t'], 'UTC')).toMatchObject({ format: 'long', channelColumn: 'channel', valueColumn: 'value', timeColumn: 'time', delimiter: ';' });
+  });
+});
+
+describe('toUploadOptions', () => {
+  it('lists every non-time column in wide format, skipped ones as null, in a shape the server schema accepts unchanged', () => {
+    const setup = guessUploadSetup(WIDE, ',', ['air_t', 'rh'], 'Africa/Nairobi');
+    const result = toUploadOptions(setup, WIDE);
+    expect(result.ok).toBe(true);
+    if (!result.ok) return;
+    expect(result.options).toEqual({
+      format: 'wide',
+      delimiter: ',',
+      timeColumn: 'Timestamp',
+      columns: { AIR_T: 'air_t', rh: 'rh', battery_v: null },
+      timeFormat: 'auto',
+      timeZone: 'Africa/Nairobi',
+    });
+    expect(uploadOptionsSchema.parse(JSON.parse(JSON.stringify(result.options)))).toEqual(result.options);
+  });
+
+  it('refuses a wide mapping that skips every column, with the server schema’s own message', () => {
+    const setup = { ...guessUploadSetup(WIDE, ',', [], 'UTC') };
+    const result = toUploadOptions(setup, WIDE);
+    expect(result).toEqual({ ok: false, problems: ['columns: wide format needs at least one column mapped to a channel'] });
+  });
+
+  it('refuses a long mapping without a value column or with one column used twice', () => {
+    const setup = guessUploadSetup(LONG, ',', [], 'UTC');
+    expect(toUploadOptions({ ...setup, valueColumn: '' }, LONG)).toEqual({ ok: false, problems: ['format: long format needs channelColumn and valueColumn'] });
+    expect(toUploadOptions({ ...setup, valueColumn: 'time' }, LONG)).toEqual({ ok: false, problems: ['columns: time, channel and value must be three different columns'] });
+  });
+});
