@@ -36,6 +36,10 @@ import { loggerRoutes } from './http/loggers/loggers.router.ts';
 import { quarantineRoutes } from './http/loggers/quarantine.router.ts';
 import { ingestRouter } from './http/ingest/ingest.router.ts';
 import { uploadRoutes } from './http/loggers/uploads.router.ts';
+import { createChannelsService } from './services/channels.service.ts';
+import { createDiagnosticsService } from './services/diagnostics.service.ts';
+import { channelRoutes } from './http/channels/channels.router.ts';
+import type { AnalysisPool } from './workers/analysis-pool.ts';
 
 /** Everything the app talks to, handed in so tests can build it with stand-ins. */
 export interface AppDeps {
@@ -49,6 +53,11 @@ export interface AppDeps {
   now?: () => Date;
   /** Per-logger ingest allowance (requests per second, burst); defaults to 20/s, burst 40. */
   ingestRate?: { perSecond: number; burst: number };
+  /**
+   * Worker threads for channel diagnostics, created once by the entry point (which also closes
+   * it). Without one, diagnostics run on the request thread (fine for tests and tools).
+   */
+  analysisPool?: AnalysisPool;
 }
 
 /**
@@ -74,6 +83,8 @@ export function createApp(deps: AppDeps): Express {
   const loggers = createLoggersService({ db, now: deps.now });
   const quarantine = createQuarantineService({ db, now: nowMs });
   const ingest = createIngestService({ db, now: nowMs });
+  const channels = createChannelsService({ db, now: nowMs });
+  const diagnostics = createDiagnosticsService({ db, channels, pool: deps.analysisPool });
   const labRouteTable = mountLabRoutes(createLabGuard(db), [
     ...labRoutes(),
     ...memberRoutes({ members }),
@@ -82,6 +93,7 @@ export function createApp(deps: AppDeps): Express {
     ...loggerRoutes({ loggers }),
     ...quarantineRoutes({ quarantine }),
     ...uploadRoutes({ db, logger, now: nowMs }),
+    ...channelRoutes({ channels, diagnostics, now: nowMs }),
   ]);
   // The route table, for the role × route test (every lab route and its permission).
   app.locals.labRoutes = labRouteTable.table satisfies LabRouteSummary[];

@@ -8,6 +8,7 @@ import { createStripeClient } from './integrations/billing/create-stripe-client.
 import { createApp } from './app.ts';
 import { ConfigError } from './errors.ts';
 import { migrateToLatest } from './db/migrate.ts';
+import { createAnalysisPool } from './workers/analysis-pool.ts';
 
 /**
  * Lagbook's entry point: validate configuration, check the database and identity provider,
@@ -32,7 +33,8 @@ async function main(): Promise<void> {
   const mailer = createMailer(config.smtp);
   if (!(await mailer.verify())) logger.warn('the SMTP server does not answer yet; mail will be retried', { host: config.smtp.host, port: config.smtp.port });
   const billing = createStripeClient(config.stripe);
-  const app = createApp({ config, db, logger, identity: { endpoints }, mailer, billing });
+  const analysisPool = createAnalysisPool();
+  const app = createApp({ config, db, logger, identity: { endpoints }, mailer, billing, analysisPool });
 
   const server = createServer(app);
   await new Promise<void>((resolve, reject) => {
@@ -47,7 +49,7 @@ async function main(): Promise<void> {
   const shutdown = () => {
     server.close(() => {
       mailer.close();
-      void db.destroy().then(() => process.exit(0));
+      void Promise.all([analysisPool.close(), db.destroy()]).then(() => process.exit(0));
     });
     setTimeout(() => process.exit(0), 5000).unref();
   };

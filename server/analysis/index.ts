@@ -48,3 +48,4 @@ export {
 export { durbinLevinson, type DurbinLevinsonResult } from './durbin-levinson.ts';
 export { decomposeClassical } from './decompose-classical.ts';
 export { stl } from './stl.ts';
+export { channelDiagnostics, type ChannelDiagnostics, type ChannelDiagnosticsOptions, type ChannelReadings } from './channel-diagnostics.ts';

@@ -7,6 +7,7 @@ import { loadDatabaseConfig } from '../config.ts';
 import { createDb } from '../db/create-db.ts';
 import { AppError, ConfigError } from '../errors.ts';
 import { createLabCommand, registerLoggerCommand, type CommandResult } from './ops-commands.ts';
+import { seedDemo } from './seed-demo.ts';
 
 const HELP = `Lagbook operator commands
 
@@ -22,6 +23,10 @@ Commands:
                   [--channel <key>[:<label>[:<unit>[:<min>:<max>]]]]...
       Register a logger with its channels and print its ingest key (shown once).
       Example: --channel air_t:"Air temperature":°C:-40:60 --channel rh:Humidity:%:0:100
+
+  seed-demo [--issuer <OIDC issuer>] [--force]
+      Load the demo lab (tenants/demo) with its members as the local identity provider's
+      dev accounts. Idempotent. Refused when NODE_ENV=production unless --force.
 
 Options:
   --json    print the result as JSON (for scripts)
@@ -62,6 +67,8 @@ async function run(argv: string[]): Promise<CommandResult | null> {
       channel: { type: 'string', multiple: true, default: [] },
       json: { type: 'boolean', default: false },
       help: { type: 'boolean', default: false },
+      issuer: { type: 'string' },
+      force: { type: 'boolean', default: false },
     },
     strict: true,
   });
@@ -86,6 +93,18 @@ async function run(argv: string[]): Promise<CommandResult | null> {
           serial: values.serial,
           channels: values.channel as string[],
         });
+      }
+      case 'seed-demo': {
+        if (process.env.NODE_ENV === 'production' && !values.force) fail('seed-demo refuses to run in production without --force');
+        const issuer = values.issuer ?? process.env.OIDC_ISSUER;
+        if (!issuer) fail('seed-demo needs --issuer or OIDC_ISSUER (the identity provider the demo members sign in with)');
+        const { DEV_ACCOUNTS } = await import('../../docker-free-scripts/identity-provider/dev-accounts.ts');
+        const result = await seedDemo(db, {
+          issuer: issuer.replace(/\/$/, ''),
+          people: DEV_ACCOUNTS.map((a) => ({ email: a.email, name: a.name, subject: a.sub })),
+          log: (line) => process.stderr.write(`${line}\n`),
+        });
+        return { text: result.text, json: { ...result } };
       }
       default:
         fail(`unknown command "${command}" (see --help)`);

@@ -26,7 +26,8 @@ export interface ChannelInput {
   seasonalPeriodHint?: number | null;
 }
 
-const COLUMNS = [
+/** The channel columns every channel query selects (shared with channel-state.repo.ts). */
+export const CHANNEL_COLUMNS = [
   'channels.id',
   'channels.logger_id as loggerId',
   'channels.channel_key as key',
@@ -41,7 +42,8 @@ const COLUMNS = [
 ];
 
 const num = (v: unknown) => (v === null || v === undefined ? null : Number(v));
-const toChannel = (r: Record<string, unknown>): Channel => ({
+/** A selected row as a Channel. */
+export const toChannel = (r: Record<string, unknown>): Channel => ({
   id: Number(r.id),
   loggerId: Number(r.loggerId),
   key: r.key as string,
@@ -72,17 +74,17 @@ function columnsOf(input: Partial<ChannelInput>): Record<string, unknown> {
 export function channelsIn(scope: LabScope) {
   return {
     async listForLogger(loggerId: number, opts: { includeRetired?: boolean } = {}): Promise<Channel[]> {
-      const q = scope.table('channels').where('channels.logger_id', loggerId).orderBy('channels.channel_key').select(COLUMNS);
+      const q = scope.table('channels').where('channels.logger_id', loggerId).orderBy('channels.channel_key').select(CHANNEL_COLUMNS);
       if (!opts.includeRetired) q.whereNull('channels.retired_at');
       return (await q).map(toChannel);
     },
 
     async list(): Promise<Channel[]> {
-      return (await scope.table('channels').whereNull('channels.retired_at').orderBy('channels.label').select(COLUMNS)).map(toChannel);
+      return (await scope.table('channels').whereNull('channels.retired_at').orderBy('channels.label').select(CHANNEL_COLUMNS)).map(toChannel);
     },
 
     async find(id: number): Promise<Channel | null> {
-      const row = await scope.table('channels').where('channels.id', id).first(COLUMNS);
+      const row = await scope.table('channels').where('channels.id', id).first(CHANNEL_COLUMNS);
       return row ? toChannel(row) : null;
     },
 

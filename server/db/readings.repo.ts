@@ -1,4 +1,6 @@
+import type { Knex } from 'knex';
 import type { LabScope, DbOrTrx } from './tenant-scope.ts';
+import { executeArrays } from './execute-arrays.ts';
 
 export interface ReadingRow {
   channelId: number;
@@ -41,14 +43,50 @@ export function readingsIn(scope: LabScope, db: DbOrTrx) {
     async storedAt(channelId: number, times: number[]): Promise<Map<number, number>> {
       const out = new Map<number, number>();
       for (let i = 0; i < times.length; i += 1000) {
-        const rows = await scope
-          .table('readings')
-          .where('readings.channel_id', channelId)
-          .whereIn('readings.ts', times.slice(i, i + 1000))
-          .select('ts', 'value');
-        for (const r of rows) out.set(Number(r.ts), Number(r.value));
+        const chunk = times.slice(i, i + 1000);
+        // Binary protocol (on this transaction's connection): exact doubles, so a re-sent value
+        // with 17 significant digits is a duplicate, not a conflict.
+        const rows = await executeArrays(
+          db as Knex,
+          `SELECT ts, value FROM readings WHERE tenant_id = ? AND channel_id = ? AND ts IN (${chunk.map(() => '?').join(', ')})`,
+          [tenantId, channelId, ...chunk],
+        );
+        for (const r of rows) out.set(Number(r[0]), Number(r[1]));
       }
       return out;
+    },
+
+    /**
+     * Adds freshly inserted readings to their rollup buckets at every resolution, computing
+     * each bucket's min, max, sum and count from the rows in hand and merging them into what
+     * is stored (LEAST, GREATEST, +). Exact only when every row given was new — the caller
+     * uses `refreshRollups` otherwise. One statement per resolution, no scan of readings.
+     */
+    async addToRollups(rows: ReadingRow[]): Promise<void> {
+      if (rows.length === 0) return;
+      for (const res of ROLLUP_RESOLUTIONS_S) {
+        const ms = res * 1000;
+        const buckets = new Map<string, [number, number, number, number, number, number]>();
+        for (const r of rows) {
+          const b = r.ts - (((r.ts % ms) + ms) % ms);
+          const key = `${r.channelId}:${b}`;
+          const agg = buckets.get(key);
+          if (agg) {
+            if (r.value < agg[2]) agg[2] = r.value;
+            if (r.value > agg[3]) agg[3] = r.value;
+            agg[4] += r.value;
+            agg[5] += 1;
+          } else buckets.set(key, [r.channelId, b, r.value, r.value, r.value, 1]);
+        }
+        const values = [...buckets.values()].map(([channelId, b, mn, mx, sum, n]) => [tenantId, channelId, res, b, mn, mx, sum, n]);
+        await db.raw(
+          `INSERT INTO reading_rollups (tenant_id, channel_id, resolution_s, bucket_start, min_value, max_value, sum_value, count_value)
+           VALUES ?
+           ON DUPLICATE KEY UPDATE min_value = LEAST(min_value, VALUES(min_value)), max_value = GREATEST(max_value, VALUES(max_value)),
+             sum_value = sum_value + VALUES(sum_value), count_value = count_value + VALUES(count_value)`,
+          [values] as never,
+        );
+      }
     },
 
     /**

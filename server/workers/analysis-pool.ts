@@ -12,8 +12,12 @@ export interface AnalysisPoolOptions {
 }
 
 export interface AnalysisPool {
-  /** Runs one engine function on a worker thread; rejects with AnalysisInputError on bad input. */
-  run<T extends AnalysisTask>(task: T): Promise<AnalysisResult<T>>;
+  /**
+   * Runs one engine function on a worker thread; rejects with AnalysisInputError on bad input.
+   * With `signal`, aborting it cancels the task (a queued task never starts, a running one's
+   * thread is stopped) and the promise rejects with piscina's AbortError.
+   */
+  run<T extends AnalysisTask>(task: T, options?: { signal?: AbortSignal }): Promise<AnalysisResult<T>>;
   /** Lets running tasks finish, then stops the threads. */
   close(): Promise<void>;
 }
@@ -46,8 +50,8 @@ export function createAnalysisPool(options: AnalysisPoolOptions = {}): AnalysisP
         : {}),
   });
   return {
-    async run<T extends AnalysisTask>(task: T): Promise<AnalysisResult<T>> {
-      const outcome = (await pool.run(task)) as { value?: unknown; inputError?: string };
+    async run<T extends AnalysisTask>(task: T, runOptions: { signal?: AbortSignal } = {}): Promise<AnalysisResult<T>> {
+      const outcome = (await pool.run(task, runOptions.signal ? { signal: runOptions.signal } : {})) as { value?: unknown; inputError?: string };
       if (outcome.inputError !== undefined) throw new AnalysisInputError(outcome.inputError);
       return outcome.value as AnalysisResult<T>;
     },

@@ -5,6 +5,7 @@ import {
   arYuleWalker,
   boxPierce,
   ccf,
+  channelDiagnostics,
   detectPeriod,
   difference,
   effectiveSampleSize,
@@ -34,6 +35,7 @@ export const analysisFunctions = {
   effectiveSampleSize,
   adf,
   identifyProcess,
+  channelDiagnostics,
 };
 
 export type AnalysisFunctions = typeof analysisFunctions;

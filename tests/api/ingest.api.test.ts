@@ -75,6 +75,14 @@ describe('POST /api/v1/ingest (JSON)', () => {
     expect(await stored(f)).toHaveLength(50);
   });
 
+  it('a re-sent value with 17 significant digits is a duplicate, not a conflict (exact doubles)', async () => {
+    const f = await freshLogger();
+    const readings = [{ channel: 'air_t', ts: T0, value: 9.464301757086481 }, { channel: 'air_t', ts: T0 + 1000, value: 0.1 + 0.2 }];
+    await post(f, { readings }).expect(200);
+    const again = await post(f, { readings }).expect(200);
+    expect(again.body).toEqual({ accepted: 0, duplicates: 2, quarantined: [] });
+  });
+
   it('a different value for a stored time keeps the stored value and quarantines the newcomer', async () => {
     const f = await freshLogger();
     await post(f, { readings: [{ channel: 'air_t', ts: T0, value: 4.25 }] }).expect(200);

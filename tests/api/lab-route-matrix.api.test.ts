@@ -40,6 +40,14 @@ const ALLOWED: Record<string, { roles: Role[]; ok: number }> = {
   'POST /quarantine/discard': { roles: ['admin', 'technician'], ok: 200 },
   'POST /quarantine/resubmit': { roles: ['admin', 'technician'], ok: 200 },
   'POST /loggers/:loggerId/uploads': { roles: ['admin', 'technician'], ok: 200 },
+  'GET /channels': { roles: ALL, ok: 200 },
+  'GET /channels/:channelId': { roles: ALL, ok: 200 },
+  'GET /channels/:channelId/series': { roles: ALL, ok: 200 },
+  // The fixture's channel has no readings: a permitted caller passes the guard and gets the
+  // engine's refusal (422), the others their 401/403/404.
+  'GET /channels/:channelId/diagnostics': { roles: ALL, ok: 422 },
+  'GET /channels/:channelId/readings.csv': { roles: ['admin', 'technician', 'scientist'], ok: 200 },
+  'GET /channels/:channelId/diagnostics.csv': { roles: ['admin', 'technician', 'scientist'], ok: 422 },
 };
 
 type Caller = Role | 'signed-out' | 'non-member';

@@ -57,6 +57,23 @@ describe('historical uploads', () => {
     expect(ndjson((await upload(options, body).expect(200)).text).at(-1)).toMatchObject({ accepted: 0, duplicates: 2 });
   });
 
+  it('a quarantined upload row keeps its time as ISO UTC, so fixing only the value re-submits it at the right time', async () => {
+    const options = { format: 'wide', timeColumn: 'epoch', columns: { t: 'air_t' }, timeFormat: 'epoch-s' };
+    const summary = ndjson((await upload(options, 'epoch,t\n1790000000,1.5\n1790000060,oops\n').expect(200)).text).at(-1);
+    expect(summary).toMatchObject({ accepted: 1, quarantined: 1 });
+    const row = await t.db('quarantined_rows').where({ tenant_id: f.lab.id, source: 'upload', value_raw: 'oops' }).first();
+    expect(row.ts_raw).toBe('2026-09-21T14:14:20.000Z'); // 1790000060 s after 1970-01-01T00:00:00Z
+    expect(row.raw).toBe('1790000060,oops');
+    const res = await request(t.app)
+      .post(`/api/v1/labs/${f.lab.slug}/quarantine/resubmit`)
+      .set('Cookie', cookie)
+      .send({ rows: [{ id: Number(row.id), channel: row.channel_key, ts: row.ts_raw, value: 1.6 }] })
+      .expect(200);
+    expect(res.body.accepted).toBe(1);
+    const stored = await t.db('readings').where({ tenant_id: f.lab.id, channel_id: f.ids.channelId, ts: 1790000060_000 }).first();
+    expect(stored.value).toBe(1.6);
+  });
+
   it('reports a column that is not in the file as an error line', async () => {
     const options = { format: 'long', timeColumn: 'time', channelColumn: 'channel', valueColumn: 'value' };
     const events = ndjson((await upload(options, 'channel,ts,value\nair_t,1,2\n').expect(200)).text);

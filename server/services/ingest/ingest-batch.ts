@@ -7,6 +7,7 @@ import { readingsIn, type ReadingRow } from '../../db/readings.repo.ts';
 import { quarantineIn, type QuarantineInput } from '../../db/quarantine.repo.ts';
 import { parseReadingTime, type TimeFormat } from './parse-reading-time.ts';
 import { isLockConflict } from '../../db/db-errors.ts';
+import { channelStateIn } from '../../db/channel-state.repo.ts';
 
 /** One row as it arrived, before anything is checked. `index` is its position in the request. */
 export interface IncomingReading {
@@ -66,7 +67,8 @@ const text = (v: unknown): string | null => (v === undefined || v === null ? nul
  * - A row already stored with the same value is a duplicate (re-sent batches change nothing).
  * - A row for a time already stored with a different value keeps the stored value; the
  *   newcomer is quarantined (also for two different values at one time in the same batch).
- * - Rollups of the touched buckets are recomputed in the same transaction.
+ * - Rollups of the touched buckets are recomputed in the same transaction, and each channel's
+ *   latest reading and data version are advanced (see `channelStateIn(...).advance`).
  *
  * The logger's row is locked for the transaction, so batches of one logger are applied one
  * at a time; batches of different loggers run side by side. The caller answers 2xx only after
@@ -96,7 +98,7 @@ async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[]
 
   const quarantine: QuarantineInput[] = [];
   const out: QuarantinedEntry[] = [];
-  const reject = (row: IncomingReading, code: string, reason: string) => {
+  const reject = (row: IncomingReading, code: string, reason: string, parsedTs?: number) => {
     out.push({ index: row.index, code, reason });
     quarantine.push({
       loggerId: target.loggerId,
@@ -106,7 +108,9 @@ async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[]
       reasonCode: code,
       reason,
       channelKey: text(row.channel),
-      tsRaw: text(row.ts),
+      // a time that was read is kept as ISO 8601 UTC, so a fixed row re-submits without the
+      // upload's time zone or format; the row as sent stays in `raw`
+      tsRaw: parsedTs !== undefined ? new Date(parsedTs).toISOString() : text(row.ts),
       valueRaw: text(row.value),
       raw: row.raw ?? null,
     });
@@ -138,19 +142,19 @@ async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[]
       continue;
     }
     if (time.ts < 0 || time.ts > latestAllowed) {
-      reject(row, 'time_out_of_range', time.ts < 0 ? 'ts: before 1970' : 'ts: more than 24 hours in the future (check the logger clock)');
+      reject(row, 'time_out_of_range', time.ts < 0 ? 'ts: before 1970' : 'ts: more than 24 hours in the future (check the logger clock)', time.ts);
       continue;
     }
     const value = readValue(row.value);
     if (value === null) {
-      reject(row, 'bad_value', 'value: must be a finite number');
+      reject(row, 'bad_value', 'value: must be a finite number', time.ts);
       continue;
     }
     const k = `${channel.id}:${time.ts}`;
     const first = seen.get(k);
     if (first !== undefined) {
       if (Object.is(first, value) || first === value) duplicatesInBatch++;
-      else reject(row, 'conflict_in_batch', 'ts: this batch has another value for the same channel and time');
+      else reject(row, 'conflict_in_batch', 'ts: this batch has another value for the same channel and time', time.ts);
       continue;
     }
     seen.set(k, value);
@@ -174,16 +178,27 @@ async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[]
         const v = stored.get(c.ts);
         if (v !== undefined && v !== c.value) {
           conflicts++;
-          reject(c.row, 'conflicts_with_stored', `value: ${c.value} differs from the value already stored for this time (${v}); the stored value was kept`);
+          reject(c.row, 'conflicts_with_stored', `value: ${c.value} differs from the value already stored for this time (${v}); the stored value was kept`, c.ts);
         }
       }
     }
     duplicates += candidates.length - accepted - conflicts;
   }
 
-  // 3. Rollups, quarantine, last-seen — all in the same transaction.
+  // 3. Rollups, channel state, quarantine, last-seen — all in the same transaction.
   if (accepted > 0) {
-    await readings.refreshRollups([...new Set(candidates.map((c) => c.channelId))], candidates.map((c) => c.ts));
+    if (accepted === candidates.length) {
+      // every candidate is a new row: fold them into their buckets without rescanning readings
+      await readings.addToRollups(candidates);
+    } else {
+      // some rows were already stored: recompute the touched buckets from what is stored
+      await readings.refreshRollups([...new Set(candidates.map((c) => c.channelId))], candidates.map((c) => c.ts));
+    }
+    // Candidates are sorted by channel then time: the last of each channel is its latest.
+    // A channel whose rows were all duplicates still gets a version bump when another channel
+    // of the batch stored something (a spare cache miss, never a stale answer).
+    const latest = candidates.filter((c, i) => i + 1 === candidates.length || candidates[i + 1].channelId !== c.channelId);
+    await channelStateIn(scope, trx).advance(latest.map((c) => ({ channelId: c.channelId, ts: c.ts })));
   }
   if (quarantine.length) await quarantineIn(scope).add(quarantine);
   if (opts.source === 'api') await loggersIn(scope).markSeen(target.loggerId, now());

@@ -1,0 +1,370 @@
+import { AnalysisInputError, type Series } from './analysis-input-error.ts';
+import { autocorrelation } from './autocorrelation.ts';
+import { autocorrelationBands } from './autocorrelation-bands.ts';
+import { crossCorrelation } from './cross-correlation.ts';
+import { decomposeClassical } from './decompose-classical.ts';
+import { defaultMaxLag } from './default-max-lag.ts';
+import { detectPeriod, type PeriodCandidate } from './detect-period.ts';
+import { difference } from './difference.ts';
+import { effectiveSampleSize, type EffectiveSampleSizeResult } from './effective-sample-size.ts';
+import { identifyProcess, type ProcessIdentification } from './identify-process.ts';
+import { ljungBox } from './ljung-box.ts';
+import { normalQuantile } from './normal-quantile.ts';
+import { partialAutocorrelation } from './partial-autocorrelation.ts';
+import { regularize, type RegularizeAggregate } from './regularize.ts';
+import { stl } from './stl.ts';
+import { stlParameters, type StlSettings } from './stl-parameters.ts';
+
+/** Readings of one channel as the database returns them (epoch ms, values). */
+export interface ChannelReadings {
+  timestamps: Series;
+  values: Series;
+}
+
+export type DiagnosticsAggregate = Extract<RegularizeAggregate, 'mean' | 'median' | 'last' | 'min' | 'max'>;
+export type DecompositionMethod = 'stl' | 'stl-robust' | 'classical' | 'none';
+
+export interface ChannelDiagnosticsOptions {
+  /** Resampling step in milliseconds; cells line up with whole steps of UTC (origin 0). */
+  step: number;
+  agg: DiagnosticsAggregate;
+  /** Ordinary differences (lag 1) applied before the correlation analysis: 0, 1 or 2. */
+  difference?: number;
+  /** Seasonal differences (lag = period) applied after the ordinary ones: 0 or 1. */
+  seasonalDifference?: number;
+  /** Highest ACF/PACF lag; default R's ⌊10·log10 n⌋, raised to 2 periods (at most n/4) when a period is known. */
+  maxLag?: number;
+  /** Seasonal period in steps, 'auto' (detected) or 'none'. */
+  period?: number | 'auto' | 'none';
+  decomposition?: DecompositionMethod;
+  /** STL seasonal window (odd, ≥ 7) or 'periodic' (default). */
+  stlSeasonalWindow?: number | 'periodic';
+  /** 1 − confidence level of every band and interval (default 0.05). */
+  alpha?: number;
+  /** Remainder outliers lie beyond this many robust SDs from the remainder's median (default 3). */
+  outlierThreshold?: number;
+  /** Highest CCF lag in each direction; default R's ⌊10·log10(n/2)⌋. */
+  ccfMaxLag?: number;
+  /** Names used in the plain-language CCF sentence. */
+  labels?: { channel: string; partner: string };
+}
+
+export interface LjungBoxRow {
+  lag: number;
+  statistic: number;
+  df: number;
+  pValue: number;
+}
+
+export interface OutlierList {
+  /** Rule applied: |remainder − median| > threshold · 1.4826 · MAD. */
+  threshold: number;
+  median: number;
+  robustSd: number;
+  /** Cell indices (0 = first cell of the series). */
+  indices: number[];
+}
+
+export type DecompositionOutcome =
+  | { method: 'none'; reason: string }
+  | {
+      method: 'stl' | 'stl-robust' | 'classical';
+      period: number;
+      /** STL only: every window, degree, jump and pass as run (Cleveland et al. 1990 §3). */
+      stl: StlSettings | null;
+      trend: Float64Array;
+      seasonal: Float64Array;
+      remainder: Float64Array;
+      /** STL robustness weights (robust fit only). */
+      weights: Float64Array | null;
+      outliers: OutlierList;
+    };
+
+export interface CrossCorrelationOutcome {
+  /** Times where both channels have a value (the n of the band). */
+  pairs: number;
+  lags: Int32Array;
+  values: Float64Array;
+  /** ±z(1 − α/2)/√pairs: the white-noise band of a CCF (Box, Jenkins & Reinsel §12.1.3). */
+  band: number;
+  strongest: { lag: number; lagMs: number; value: number; significant: boolean } | null;
+  explanation: string;
+}
+
+export interface ChannelDiagnostics {
+  grid: {
+    /** Epoch ms of the first cell; cell i covers [start + i·step, start + (i+1)·step). */
+    start: number;
+    step: number;
+    /** Cells from the first to the last cell holding a reading. */
+    n: number;
+    /** Cells holding no reading (filled by linear interpolation where a method needs it). */
+    missing: number;
+    readings: number;
+    /** The regularised values (NaN = empty cell). */
+    values: Float64Array;
+  };
+  /** The series the correlation analysis ran on, after differencing. */
+  analysed: { n: number; missing: number; values: Float64Array };
+  period: { used: number | null; source: 'manual' | 'detected' | 'none'; candidates: PeriodCandidate[] };
+  maxLag: number;
+  acf: Float64Array;
+  pacf: Float64Array;
+  bands: { alpha: number; z: number; whiteNoise: number; bartlett: Float64Array };
+  ljungBox: LjungBoxRow[];
+  /** `identifyProcess` on the analysed series; `gapsFilled` when its gaps were interpolated first. */
+  identification: ProcessIdentification & { gapsFilled: boolean };
+  effectiveSampleSize: EffectiveSampleSizeResult;
+  decomposition: DecompositionOutcome;
+  crossCorrelation: CrossCorrelationOutcome | null;
+}
+
+/** Hampel's consistency factor: 1.4826 · MAD estimates σ for normal data (Rousseeuw & Croux 1993, JASA 88:1273). */
+const MAD_TO_SD = 1.4826;
+
+/** Counts NaN entries. */
+function countMissing(x: ArrayLike<number>): number {
+  let m = 0;
+  for (let i = 0; i < x.length; i++) if (Number.isNaN(x[i])) m++;
+  return m;
+}
+
+/**
+ * Fills interior NaN runs by straight lines between their neighbours (leading or trailing NaN
+ * take the nearest value). Returns the input itself when nothing is missing.
+ */
+function fillGapsLinear(x: Float64Array): Float64Array {
+  if (countMissing(x) === 0) return x;
+  const out = Float64Array.from(x);
+  let previous = -1;
+  for (let i = 0; i <= out.length; i++) {
+    if (i < out.length && Number.isNaN(out[i])) continue;
+    for (let j = previous + 1; j < i; j++) {
+      if (previous < 0) out[j] = out[i];
+      else if (i >= out.length) out[j] = out[previous];
+      else out[j] = out[previous] + ((out[i] - out[previous]) * (j - previous)) / (i - previous);
+    }
+    previous = i;
+  }
+  return out;
+}
+
+/** Median of the non-NaN values. */
+function medianOf(x: ArrayLike<number>): number {
+  const v = Array.from(x).filter((a) => !Number.isNaN(a)).sort((a, b) => a - b);
+  if (v.length === 0) return NaN;
+  const h = v.length >> 1;
+  return v.length % 2 ? v[h] : (v[h - 1] + v[h]) / 2;
+}
+
+/** Remainder cells beyond `threshold` robust SDs (1.4826 · MAD) from the remainder's median. */
+function remainderOutliers(remainder: Float64Array, threshold: number): OutlierList {
+  const median = medianOf(remainder);
+  const robustSd = MAD_TO_SD * medianOf(remainder.map((r) => Math.abs(r - median)));
+  const indices: number[] = [];
+  if (robustSd > 0) {
+    for (let i = 0; i < remainder.length; i++) if (Math.abs(remainder[i] - median) > threshold * robustSd) indices.push(i);
+  }
+  return { threshold, median, robustSd, indices };
+}
+
+/** A duration in the largest unit that divides it (d, h, min, s, ms). */
+function describeDuration(ms: number): string {
+  const units: Array<[number, string]> = [
+    [86_400_000, 'd'],
+    [3_600_000, 'h'],
+    [60_000, 'min'],
+    [1000, 's'],
+  ];
+  for (const [size, name] of units) if (ms >= size && ms % size === 0) return `${ms / size} ${name}`;
+  for (const [size, name] of units) if (ms >= size) return `${(ms / size).toFixed(2)} ${name}`;
+  return `${ms} ms`;
+}
+
+/** Puts a regularised series on another grid of the same step (NaN outside its own span). */
+function alignTo(series: { start: number; step: number; values: Float64Array }, start: number, n: number): Float64Array {
+  const out = new Float64Array(n).fill(NaN);
+  const offset = Math.round((series.start - start) / series.step);
+  for (let i = 0; i < series.values.length; i++) {
+    const j = i + offset;
+    if (j >= 0 && j < n) out[j] = series.values[i];
+  }
+  return out;
+}
+
+/** Ordinary then seasonal differences, as chosen. */
+function differenced(x: Float64Array, d: number, seasonal: number, period: number | null): Float64Array {
+  let y = x;
+  if (d > 0) y = difference(y, { lag: 1, order: d });
+  if (seasonal > 0) {
+    if (period === null) {
+      throw new AnalysisInputError('seasonalDifference needs a seasonal period, and none was given or detected');
+    }
+    y = difference(y, { lag: period, order: seasonal });
+  }
+  return y;
+}
+
+function crossCorrelationOf(
+  x: Float64Array,
+  y: Float64Array,
+  stepMs: number,
+  alpha: number,
+  maxLag: number | undefined,
+  labels: { channel: string; partner: string },
+): CrossCorrelationOutcome {
+  let pairs = 0;
+  for (let i = 0; i < x.length; i++) if (!Number.isNaN(x[i]) && !Number.isNaN(y[i])) pairs++;
+  if (pairs < 4) throw new AnalysisInputError(`ccf requires at least 4 times where both channels have a value (got ${pairs})`);
+  const { lags, values } = crossCorrelation(x, y, { maxLag: maxLag ?? Math.min(defaultMaxLag(x.length, 2), x.length - 1) });
+  const band = normalQuantile(1 - alpha / 2) / Math.sqrt(pairs);
+  let best = -1;
+  for (let i = 0; i < values.length; i++) if (!Number.isNaN(values[i]) && (best < 0 || Math.abs(values[i]) > Math.abs(values[best]))) best = i;
+  if (best < 0) return { pairs, lags, values, band, strongest: null, explanation: 'No lag has a defined cross-correlation.' };
+  const lag = lags[best];
+  const value = values[best];
+  const significant = Math.abs(value) > band;
+  const span = describeDuration(Math.abs(lag) * stepMs);
+  const direction = value >= 0 ? 'rise and fall together' : 'move in opposite directions (one rises as the other falls)';
+  const timing =
+    lag > 0
+      ? `${labels.channel} trails ${labels.partner} by ${span}`
+      : lag < 0
+        ? `${labels.partner} trails ${labels.channel} by ${span}`
+        : `${labels.channel} and ${labels.partner} move at the same time`;
+  const verdict = significant
+    ? `The strongest cross-correlation, ${value.toFixed(3)} at lag ${lag}, lies outside the ±${band.toFixed(3)} band: ${timing}, and the two ${direction}.`
+    : `The strongest cross-correlation, ${value.toFixed(3)} at lag ${lag}, stays inside the ±${band.toFixed(3)} band: no lagged relation stands out from noise.`;
+  const convention = `Lag k pairs ${labels.channel} at time t + k with ${labels.partner} at time t (R's ccf convention), so a peak at a positive lag means ${labels.channel} follows ${labels.partner}.`;
+  return { pairs, lags, values, band, strongest: { lag, lagMs: lag * stepMs, value, significant }, explanation: `${verdict} ${convention}` };
+}
+
+function decompositionOf(
+  grid: Float64Array,
+  filled: Float64Array,
+  method: DecompositionMethod,
+  period: number | null,
+  seasonalWindow: number | 'periodic',
+  threshold: number,
+): DecompositionOutcome {
+  if (method === 'none') return { method, reason: 'no decomposition was asked for' };
+  if (period === null) return { method: 'none', reason: 'no seasonal period was given or detected, so there is nothing to decompose by' };
+  if (method === 'classical') {
+    const c = decomposeClassical(grid, { period, type: 'additive' });
+    return { method, period, stl: null, trend: c.trend, seasonal: c.seasonal, remainder: c.remainder, weights: null, outliers: remainderOutliers(c.remainder, threshold) };
+  }
+  const options = { period, seasonalWindow, robust: method === 'stl-robust' };
+  const settings = stlParameters(filled.length, options);
+  const s = stl(filled, options);
+  return {
+    method,
+    period,
+    stl: settings,
+    trend: s.trend,
+    seasonal: s.seasonal,
+    remainder: s.remainder,
+    weights: method === 'stl-robust' ? s.weights : null,
+    outliers: remainderOutliers(s.remainder, threshold),
+  };
+}
+
+/**
+ * The whole diagnostics bundle of one channel (and optionally its cross-correlation with a
+ * second channel), as one call so it runs as one worker-pool task:
+ *
+ * 1. readings → regular grid (`regularize`, origin 0), from the first to the last cell with a reading;
+ * 2. seasonal period: given, or detected (`detectPeriod` on the gap-filled grid), or none;
+ * 3. ordinary (lag 1) and seasonal (lag = period) differences (`difference`);
+ * 4. ACF, PACF (R's na.pass rule for gaps) with white-noise and Bartlett bands (`acfBands`),
+ *    Ljung–Box at lags 5, 10, 15, 20 and, for a seasonal series, the period and twice it
+ *    (h = 10 and h = 2m: Hyndman & Athanasopoulos, *Forecasting: Principles and Practice*,
+ *    3rd ed., §5.4), each below the series length;
+ * 5. process identification (`identifyProcess`) on the differenced series, gaps filled linearly
+ *    (its period and unit-root checks need a gap-free series);
+ * 6. effective sample size and the autocorrelation-corrected CI of the mean of the undifferenced
+ *    grid (`effectiveSampleSize`);
+ * 7. decomposition of the undifferenced grid: STL (`stl`, gaps filled linearly) or classical
+ *    (`decomposeClassical`, additive, gaps left missing), with remainder outliers beyond
+ *    `outlierThreshold` robust SDs (1.4826 · MAD; Hampel 1974; Rousseeuw & Croux 1993);
+ * 8. cross-correlation (`ccf`) with the partner channel put on the same grid and differenced
+ *    alike, with its white-noise band and the lag of the strongest correlation.
+ *
+ * Throws AnalysisInputError (with the engine's message) when a step cannot work with the data.
+ * Cost: dominated by STL, O(n · window/jump) per pass, and by the FFTs, O(n log n).
+ */
+export function channelDiagnostics(readings: ChannelReadings, options: ChannelDiagnosticsOptions, partner?: ChannelReadings): ChannelDiagnostics {
+  const alpha = options.alpha ?? 0.05;
+  if (!(alpha > 0 && alpha < 1)) throw new AnalysisInputError(`channelDiagnostics: alpha must be between 0 and 1 (got ${alpha})`);
+  const d = options.difference ?? 0;
+  const D = options.seasonalDifference ?? 0;
+  if (![0, 1, 2].includes(d)) throw new AnalysisInputError(`channelDiagnostics: difference must be 0, 1 or 2 (got ${d})`);
+  if (![0, 1].includes(D)) throw new AnalysisInputError(`channelDiagnostics: seasonalDifference must be 0 or 1 (got ${D})`);
+  const threshold = options.outlierThreshold ?? 3;
+
+  const reg = regularize(readings.timestamps, readings.values, { step: options.step, agg: options.agg });
+  const grid = reg.values;
+  const n = grid.length;
+  const missing = countMissing(grid);
+  if (n - missing < 8) throw new AnalysisInputError(`channelDiagnostics requires readings in at least 8 cells of the grid (got ${n - missing})`);
+  const filled = fillGapsLinear(grid);
+
+  const detection = detectPeriod(filled);
+  const requested = options.period ?? 'auto';
+  let period: number | null;
+  let source: 'manual' | 'detected' | 'none';
+  if (typeof requested === 'number') {
+    if (!Number.isInteger(requested) || requested < 2 || requested > Math.floor(n / 2)) {
+      throw new AnalysisInputError(`channelDiagnostics: period must be a whole number of steps from 2 to ${Math.floor(n / 2)} for ${n} cells (got ${requested})`);
+    }
+    [period, source] = [requested, 'manual'];
+  } else if (requested === 'auto') {
+    [period, source] = detection.best === null ? [null, 'none'] : [detection.best, 'detected'];
+  } else {
+    [period, source] = [null, 'none'];
+  }
+
+  const analysed = differenced(grid, d, D, period);
+  const nA = analysed.length;
+  const presentA = nA - countMissing(analysed);
+  if (presentA < 30) throw new AnalysisInputError(`channelDiagnostics requires at least 30 values after differencing (got ${presentA})`);
+  const seasonalLags = period !== null ? Math.min(2 * period, Math.floor(nA / 4)) : 0;
+  const maxLag = options.maxLag ?? Math.max(defaultMaxLag(nA), seasonalLags);
+  const acfValues = autocorrelation(analysed, { maxLag });
+  const pacfValues = partialAutocorrelation(analysed, { maxLag });
+  const white = autocorrelationBands(acfValues, { n: presentA, alpha, kind: 'white-noise' });
+  const bartlett = autocorrelationBands(acfValues, { n: presentA, alpha, kind: 'bartlett' });
+
+  const boxLags = [...new Set([5, 10, 15, 20, ...(period !== null ? [period, 2 * period] : [])])].filter((h) => h < presentA).sort((a, b) => a - b);
+  const ljung = boxLags.map((lag) => ({ lag, ...ljungBox(analysed, { lag }) }));
+
+  const filledAnalysed = fillGapsLinear(analysed);
+  const identified = identifyProcess(filledAnalysed, {
+    alpha,
+    ...(options.maxLag !== undefined ? { maxLag: Math.max(2, Math.min(options.maxLag, Math.floor(nA / 4))) } : {}),
+  });
+
+  const ess = effectiveSampleSize(grid, { alpha });
+  const decomposition = decompositionOf(grid, filled, options.decomposition ?? 'stl', period, options.stlSeasonalWindow ?? 'periodic', threshold);
+
+  let cross: CrossCorrelationOutcome | null = null;
+  if (partner) {
+    const other = regularize(partner.timestamps, partner.values, { step: options.step, agg: options.agg });
+    const y = differenced(alignTo(other, reg.start, n), d, D, period);
+    cross = crossCorrelationOf(analysed, y, options.step, alpha, options.ccfMaxLag, options.labels ?? { channel: 'this channel', partner: 'the other channel' });
+  }
+
+  return {
+    grid: { start: reg.start, step: reg.step, n, missing, readings: readings.timestamps.length, values: grid },
+    analysed: { n: nA, missing: nA - presentA, values: analysed },
+    period: { used: period, source, candidates: detection.candidates.slice(0, 5) },
+    maxLag,
+    acf: acfValues,
+    pacf: pacfValues,
+    bands: { alpha, z: white.z, whiteNoise: white.limits[0], bartlett: bartlett.limits },
+    ljungBox: ljung,
+    identification: { ...identified, gapsFilled: filledAnalysed !== analysed },
+    effectiveSampleSize: ess,
+    decomposition,
+    crossCorrelation: cross,
+  };
+}

@@ -1,0 +1,118 @@
+import type { Knex } from 'knex';
+import { executeArrays } from './execute-arrays.ts';
+import type { LabScope } from './tenant-scope.ts';
+
+/** One channel's readings in time order, as typed arrays (epoch ms, values). */
+export interface ReadingColumns {
+  ts: Float64Array;
+  values: Float64Array;
+}
+
+/** A summary per bucket of `widthMs` (bucket start, min, max, sum and count of the readings). */
+export interface BucketRow {
+  start: number;
+  min: number;
+  max: number;
+  sum: number;
+  count: number;
+}
+
+export type CellAggregate = 'mean' | 'min' | 'max';
+
+const toColumns = (rows: unknown[][]): ReadingColumns => {
+  const ts = new Float64Array(rows.length);
+  const values = new Float64Array(rows.length);
+  for (let i = 0; i < rows.length; i++) {
+    ts[i] = Number(rows[i][0]);
+    values[i] = Number(rows[i][1]);
+  }
+  return { ts, values };
+};
+
+const toBuckets = (rows: unknown[][]): BucketRow[] =>
+  rows.map((r) => ({ start: Number(r[0]), min: Number(r[1]), max: Number(r[2]), sum: Number(r[3]), count: Number(r[4]) }));
+
+/**
+ * Read-only access to one lab's readings and rollups for charts, exports and diagnostics. Rows
+ * come back as arrays through the binary protocol (exact doubles, and about twice as fast to
+ * read as objects). Every statement is bound to the lab's tenant id and leads with it, as the
+ * keys do.
+ */
+export function channelReadingsIn(scope: LabScope, db: Knex) {
+  const tenantId = scope.tenantId;
+  const arrays = (sql: string, bindings: unknown[]) => executeArrays(db, sql, bindings);
+  return {
+    /** Raw readings with from ≤ ts < to, in time order, at most `limit` of them. */
+    async range(channelId: number, from: number, to: number, limit?: number): Promise<ReadingColumns> {
+      if (limit !== undefined && !(Number.isSafeInteger(limit) && limit > 0)) throw new Error(`range: limit must be a positive integer (got ${limit})`);
+      // LIMIT takes no DOUBLE placeholder in a prepared statement; the checked integer is inlined.
+      const sql = `SELECT ts, value FROM readings WHERE tenant_id = ? AND channel_id = ? AND ts >= ? AND ts < ? ORDER BY ts${limit ? ` LIMIT ${limit}` : ''}`;
+      return toColumns(await arrays(sql, [tenantId, channelId, from, to]));
+    },
+
+    /** Raw readings summarised per bucket of `widthMs` (aligned to whole multiples since the epoch). */
+    async rawBuckets(channelId: number, from: number, to: number, widthMs: number): Promise<BucketRow[]> {
+      return toBuckets(
+        await arrays(
+          `SELECT ts - MOD(ts, ?) AS b, MIN(value), MAX(value), SUM(value), COUNT(*)
+           FROM readings WHERE tenant_id = ? AND channel_id = ? AND ts >= ? AND ts < ?
+           GROUP BY b ORDER BY b`,
+          [widthMs, tenantId, channelId, from, to],
+        ),
+      );
+    },
+
+    /** Rollups of `resolutionS` merged into buckets of `widthMs` (a multiple of the resolution). */
+    async rollupBuckets(channelId: number, resolutionS: number, from: number, to: number, widthMs: number): Promise<BucketRow[]> {
+      return toBuckets(
+        await arrays(
+          `SELECT bucket_start - MOD(bucket_start, ?) AS b, MIN(min_value), MAX(max_value), SUM(sum_value), SUM(count_value)
+           FROM reading_rollups WHERE tenant_id = ? AND channel_id = ? AND resolution_s = ? AND bucket_start >= ? AND bucket_start < ?
+           GROUP BY b ORDER BY b`,
+          [widthMs, tenantId, channelId, resolutionS, from, to],
+        ),
+      );
+    },
+
+    /**
+     * One value per grid cell of `stepMs` from the rollups of `resolutionS` (the step a multiple
+     * of it): the exact mean (Σsum / Σcount), min or max of the readings in the cell.
+     */
+    async cellsFromRollups(channelId: number, resolutionS: number, from: number, to: number, stepMs: number, agg: CellAggregate): Promise<ReadingColumns> {
+      const value = agg === 'mean' ? 'SUM(sum_value) / SUM(count_value)' : agg === 'min' ? 'MIN(min_value)' : 'MAX(max_value)';
+      return toColumns(
+        await arrays(
+          `SELECT bucket_start - MOD(bucket_start, ?) AS b, ${value}
+           FROM reading_rollups WHERE tenant_id = ? AND channel_id = ? AND resolution_s = ? AND bucket_start >= ? AND bucket_start < ?
+           GROUP BY b ORDER BY b`,
+          [stepMs, tenantId, channelId, resolutionS, from, to],
+        ),
+      );
+    },
+
+    /**
+     * Hourly means of the given hours for these channels, in one statement (the channel list
+     * keeps it on the primary key: tenant → channel → resolution → hour).
+     */
+    async hourlyMeans(channelIds: number[], fromHour: number, toHour: number): Promise<Array<{ channelId: number; hour: number; mean: number }>> {
+      if (channelIds.length === 0) return [];
+      const rows = await arrays(
+        `SELECT channel_id, bucket_start, sum_value / count_value FROM reading_rollups
+         WHERE tenant_id = ? AND channel_id IN (${channelIds.map(() => '?').join(', ')}) AND resolution_s = 3600 AND bucket_start >= ? AND bucket_start < ?`,
+        [tenantId, ...channelIds, fromHour, toHour],
+      );
+      return rows.map((r) => ({ channelId: Number(r[0]), hour: Number(r[1]), mean: Number(r[2]) }));
+    },
+
+    /** Reading count (from the daily rollups) and the first reading's time (one index seek). */
+    async extent(channelId: number): Promise<{ count: number; firstTs: number | null }> {
+      const [[countRow], [firstRow]] = await Promise.all([
+        arrays('SELECT COALESCE(SUM(count_value), 0) FROM reading_rollups WHERE tenant_id = ? AND channel_id = ? AND resolution_s = 86400', [tenantId, channelId]),
+        arrays('SELECT MIN(ts) FROM readings WHERE tenant_id = ? AND channel_id = ?', [tenantId, channelId]),
+      ]);
+      return { count: Number(countRow[0]), firstTs: firstRow[0] === null ? null : Number(firstRow[0]) };
+    },
+  };
+}
+
+export type ChannelReadingsRepo = ReturnType<typeof channelReadingsIn>;

@@ -1,0 +1,99 @@
+import type { DbOrTrx, LabScope } from './tenant-scope.ts';
+import { CHANNEL_COLUMNS, toChannel, type Channel } from './channels.repo.ts';
+
+/** A channel with its logger and the state ingestion keeps current. */
+export interface ChannelWithState extends Channel {
+  lastReadingTs: number | null;
+  lastReadingValue: number | null;
+  dataVersion: number;
+  logger: {
+    id: number;
+    name: string;
+    site: string | null;
+    timezone: string;
+    expectedIntervalS: number;
+    retiredAt: Date | null;
+  };
+}
+
+const COLUMNS = [
+  ...CHANNEL_COLUMNS,
+  'channels.last_reading_ts as lastReadingTs',
+  'channels.last_reading_value as lastReadingValue',
+  'channels.data_version as dataVersion',
+  'loggers.name as loggerName',
+  'loggers.site as loggerSite',
+  'loggers.timezone as loggerTimezone',
+  'loggers.expected_interval_s as loggerExpectedIntervalS',
+  'loggers.retired_at as loggerRetiredAt',
+];
+
+const toChannelWithState = (r: Record<string, unknown>): ChannelWithState => ({
+  ...toChannel(r),
+  lastReadingTs: r.lastReadingTs === null ? null : Number(r.lastReadingTs),
+  lastReadingValue: r.lastReadingValue === null ? null : Number(r.lastReadingValue),
+  dataVersion: Number(r.dataVersion),
+  logger: {
+    id: Number(r.loggerId),
+    name: r.loggerName as string,
+    site: (r.loggerSite as string | null) ?? null,
+    timezone: r.loggerTimezone as string,
+    expectedIntervalS: Number(r.loggerExpectedIntervalS),
+    retiredAt: (r.loggerRetiredAt as Date | null) ?? null,
+  },
+});
+
+/** Channels joined with their logger, both limited to this lab. */
+function withLogger(scope: LabScope) {
+  return scope
+    .table('channels')
+    .join('loggers', (j) => j.on('loggers.tenant_id', '=', 'channels.tenant_id').andOn('loggers.id', '=', 'channels.logger_id'))
+    .select(COLUMNS);
+}
+
+/**
+ * Data access for the per-channel state that ingestion keeps (latest reading, data version),
+ * read together with the channel's logger.
+ */
+export function channelStateIn(scope: LabScope, db: DbOrTrx) {
+  return {
+    /** Every channel in use: neither it nor its logger retired; by logger name, then label. */
+    async listActive(): Promise<ChannelWithState[]> {
+      const rows = await withLogger(scope)
+        .whereNull('channels.retired_at')
+        .whereNull('loggers.retired_at')
+        .orderBy([{ column: 'loggers.name' }, { column: 'channels.label' }, { column: 'channels.id' }]);
+      return rows.map(toChannelWithState);
+    },
+
+    /** One channel of this lab (retired ones included: their history stays readable). */
+    async find(channelId: number): Promise<ChannelWithState | null> {
+      const row = await withLogger(scope).where('channels.id', channelId).first();
+      return row ? toChannelWithState(row) : null;
+    },
+
+    /**
+     * After a batch stored new readings: for each channel, `latest` names the latest time the
+     * batch carried for it (stored now or before, so the reading exists). The channel's last
+     * reading moves to it unless it already is later, the value is taken from the stored
+     * reading (a conflicting newcomer never replaced it), and the data version goes up by one.
+     * One statement for the whole batch. The SET expressions give the same result in either
+     * evaluation order (r.ts ≥ GREATEST(old, r.ts) exactly when r.ts ≥ old), which matters
+     * because MariaDB does not promise an order for multi-table UPDATEs.
+     */
+    async advance(latest: Array<{ channelId: number; ts: number }>): Promise<void> {
+      if (latest.length === 0) return;
+      const pairs = latest.map(() => '(r.channel_id = ? AND r.ts = ?)').join(' OR ');
+      await db.raw(
+        `UPDATE channels c JOIN readings r ON r.tenant_id = c.tenant_id AND r.channel_id = c.id
+         SET c.last_reading_value = IF(c.last_reading_ts IS NULL OR r.ts >= c.last_reading_ts, r.value, c.last_reading_value),
+             c.last_reading_ts = GREATEST(COALESCE(c.last_reading_ts, r.ts), r.ts),
+             c.data_version = c.data_version + 1
+         WHERE c.tenant_id = ? AND r.tenant_id = ? AND (${pairs})`,
+        [scope.tenantId, scope.tenantId, ...latest.flatMap((l) => [l.channelId, l.ts])],
+      );
+    },
+  };
+}
+
+export type ChannelStateRepo = ReturnType<typeof channelStateIn>;

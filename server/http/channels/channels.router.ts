@@ -1,0 +1,128 @@
+import type { Response } from 'express';
+import { labOf } from '../middleware/lab-guard.ts';
+import { parseInput } from '../validate.ts';
+import { csvLine } from '../csv-field.ts';
+import { channelParams, diagnosticsQuery, readingsExportQuery, seriesQuery } from './channels.schema.ts';
+import { presentChannelDetail, presentChannelOverview } from './channels.presenter.ts';
+import { diagnosticsCsvLines } from './diagnostics-csv.ts';
+import type { ChannelsService } from '../../services/channels.service.ts';
+import type { DiagnosticsService } from '../../services/diagnostics.service.ts';
+import type { DiagnosticsReport } from '../../services/diagnostics-report.ts';
+import type { LabRoute } from '../lab-routes.ts';
+
+/** Writes a chunk, waiting for the socket to drain when its buffer is full (streamed exports). */
+async function writeChunk(res: Response, chunk: string): Promise<void> {
+  if (!res.write(chunk)) await new Promise<void>((resolve) => res.once('drain', resolve).once('close', resolve));
+}
+
+/** An AbortSignal that fires when the client goes away before the answer is complete. */
+function signalOnDisconnect(res: Response): AbortSignal {
+  const controller = new AbortController();
+  res.once('close', () => {
+    if (!res.writableFinished) controller.abort();
+  });
+  return controller.signal;
+}
+
+/** Headers of a CSV download named `<name>.csv` (characters outside [A-Za-z0-9_.-] become "-"). */
+function csvDownload(res: Response, name: string): void {
+  res.set('Content-Type', 'text/csv; charset=utf-8');
+  res.set('Content-Disposition', `attachment; filename="${name.replace(/[^A-Za-z0-9_.-]+/g, '-')}.csv"`);
+}
+
+/** The channel browser: overview, detail, chart series, diagnostics and exports. */
+export function channelRoutes(deps: { channels: ChannelsService; diagnostics: DiagnosticsService; now?: () => number }): LabRoute[] {
+  const { channels, diagnostics } = deps;
+  const now = deps.now ?? Date.now;
+
+  /** Runs diagnostics; undefined when the client left first (the engine task was aborted). */
+  async function runDiagnostics(req: Parameters<LabRoute['handle']>[0], res: Response) {
+    const { channelId } = parseInput(channelParams, req.params);
+    const params = parseInput(diagnosticsQuery(now), req.query);
+    const signal = signalOnDisconnect(res);
+    try {
+      return { channelId, ...(await diagnostics.report(labOf(res), channelId, params, signal)) };
+    } catch (err) {
+      if (signal.aborted) return undefined;
+      throw err;
+    }
+  }
+
+  return [
+    {
+      method: 'get',
+      path: '/channels',
+      permission: 'channels.read',
+      handle: async (_req, res) => {
+        res.json({ channels: (await channels.overview(labOf(res))).map(presentChannelOverview), now: now() });
+      },
+    },
+    {
+      method: 'get',
+      path: '/channels/:channelId',
+      permission: 'channels.read',
+      handle: async (req, res) => {
+        const { channelId } = parseInput(channelParams, req.params);
+        res.json({ channel: presentChannelDetail(await channels.detail(labOf(res), channelId)) });
+      },
+    },
+    {
+      method: 'get',
+      path: '/channels/:channelId/series',
+      permission: 'channels.read',
+      handle: async (req, res) => {
+        const { channelId } = parseInput(channelParams, req.params);
+        const q = parseInput(seriesQuery(now), req.query);
+        res.json({ channelId, requested: { from: q.from, to: q.to, points: q.points }, series: await channels.series(labOf(res), channelId, q) });
+      },
+    },
+    {
+      method: 'get',
+      path: '/channels/:channelId/diagnostics',
+      permission: 'diagnostics.read',
+      handle: async (req, res) => {
+        const outcome = await runDiagnostics(req, res);
+        if (!outcome) return;
+        // The cached bytes are the report without the flag: write the flag, then the report from
+        // after its opening brace (no copy, no re-encoding, no ETag hashing of megabytes).
+        const head = Buffer.from(`{"cached":${outcome.cached},`);
+        res.set('Content-Type', 'application/json; charset=utf-8');
+        res.set('Content-Length', String(head.length + outcome.json.length - 1));
+        res.write(head);
+        res.end(outcome.json.subarray(1));
+      },
+    },
+    {
+      method: 'get',
+      path: '/channels/:channelId/readings.csv',
+      permission: 'exports.create',
+      handle: async (req, res) => {
+        const { channelId } = parseInput(channelParams, req.params);
+        const q = parseInput(readingsExportQuery(now), req.query);
+        const lab = labOf(res);
+        const channel = await channels.requireChannel(lab, channelId);
+        csvDownload(res, `${lab.slug}-${channel.key}-readings`);
+        await writeChunk(res, csvLine(['time_utc', 'epoch_ms', 'value']));
+        for await (const page of channels.readingPages(lab, channelId, q)) {
+          if (res.destroyed) return;
+          let chunk = '';
+          for (let i = 0; i < page.ts.length; i++) chunk += csvLine([new Date(page.ts[i]).toISOString(), page.ts[i], page.values[i]]);
+          await writeChunk(res, chunk);
+        }
+        res.end();
+      },
+    },
+    {
+      method: 'get',
+      path: '/channels/:channelId/diagnostics.csv',
+      permission: 'exports.create',
+      handle: async (req, res) => {
+        const outcome = await runDiagnostics(req, res);
+        if (!outcome) return;
+        const report = JSON.parse(outcome.json.toString('utf8')) as DiagnosticsReport;
+        csvDownload(res, `${labOf(res).slug}-${report.channel.key}-diagnostics`);
+        res.send([...diagnosticsCsvLines(report)].join(''));
+      },
+    },
+  ];
+}

@@ -1,0 +1,38 @@
+import { csvLine } from '../csv-field.ts';
+import type { DiagnosticsReport } from '../../services/diagnostics-report.ts';
+
+/** Columns of the diagnostics CSV: one table, every row the same fields (RFC 4180 §2.4). */
+export const DIAGNOSTICS_CSV_COLUMNS = [
+  'section',
+  'lag',
+  'acf',
+  'pacf',
+  'white_noise_band',
+  'bartlett_band',
+  'ccf',
+  'ccf_band',
+  'ljung_box_statistic',
+  'ljung_box_df',
+  'ljung_box_p_value',
+];
+
+const cell = (v: number | null | undefined) => (v === null || v === undefined || Number.isNaN(v) ? '' : v);
+
+/**
+ * The diagnostics report as CSV lines: `correlogram` rows (lag 0..maxLag: ACF, PACF from lag 1,
+ * the white-noise band and Bartlett's band from lag 1), `ccf` rows when a second channel was
+ * given, and `ljung-box` rows. Empty fields where a column does not apply.
+ */
+export function* diagnosticsCsvLines(report: DiagnosticsReport): Generator<string> {
+  yield csvLine(DIAGNOSTICS_CSV_COLUMNS);
+  const { acf, pacf, bands } = report;
+  for (let i = 0; i < acf.lags.length; i++) {
+    const k = acf.lags[i];
+    yield csvLine(['correlogram', k, cell(acf.values[i]), k > 0 ? cell(pacf.values[k - 1]) : '', k > 0 ? bands.whiteNoise : '', k > 0 ? cell(bands.bartlett[k - 1]) : '', '', '', '', '', '']);
+  }
+  const ccf = report.crossCorrelation;
+  if (ccf) {
+    for (let i = 0; i < ccf.lags.length; i++) yield csvLine(['ccf', ccf.lags[i], '', '', '', '', cell(ccf.values[i]), ccf.band, '', '', '']);
+  }
+  for (const b of report.ljungBox) yield csvLine(['ljung-box', b.lag, '', '', '', '', '', '', b.statistic, b.df, b.pValue]);
+}

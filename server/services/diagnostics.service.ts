@@ -1,0 +1,101 @@
+import type { Db } from '../db/create-db.ts';
+import { inLab } from '../db/tenant-scope.ts';
+import { channelReadingsIn, type ReadingColumns } from '../db/channel-readings.repo.ts';
+import type { ChannelWithState } from '../db/channel-state.repo.ts';
+import { ROLLUP_RESOLUTIONS_S } from '../db/readings.repo.ts';
+import { AnalysisInputError, channelDiagnostics, type ChannelDiagnostics, type ChannelDiagnosticsOptions, type ChannelReadings } from '../analysis/index.ts';
+import type { AnalysisPool } from '../workers/analysis-pool.ts';
+import { AppError, ValidationError } from '../errors.ts';
+import type { ChannelsService } from './channels.service.ts';
+import type { LabContext } from './lab-context.ts';
+import { createResultCache, type ResultCacheOptions } from './result-cache.ts';
+import { diagnosticsReport, type DiagnosticsParams, type GridSource } from './diagnostics-report.ts';
+
+/** The engine refused the data or a parameter for it (too few readings, a period too long …). */
+export class AnalysisRefusedError extends AppError {
+  constructor(message: string) {
+    super(422, 'analysis_input', message);
+  }
+}
+
+/** At most this many grid cells per run: keeps one request from occupying a worker for long. */
+export const MAX_DIAGNOSTICS_CELLS = 300_000;
+
+const DEFAULT_CACHE: ResultCacheOptions = { maxEntries: 64, maxBytes: 128 * 1024 * 1024, maxAgeMs: 15 * 60_000 };
+
+/**
+ * Channel diagnostics: loads one channel's grid for a range (from exact rollup cells when the
+ * step allows, else raw readings), runs the whole engine bundle as one worker-pool task (or in
+ * process when no pool is given) and caches the serialised report. The cache key holds the
+ * channel, range, every parameter and the data version of the channel (and of the CCF partner),
+ * read before the readings: a batch that stores new readings bumps the version, so a later
+ * request never gets a result computed without them.
+ */
+export function createDiagnosticsService(deps: { db: Db; channels: ChannelsService; pool?: AnalysisPool; cache?: Partial<ResultCacheOptions> }) {
+  const cache = createResultCache({ ...DEFAULT_CACHE, ...deps.cache });
+
+  /** One channel's values on the step grid of [from, to): exact rollup cells when possible. */
+  async function load(lab: LabContext, channelId: number, range: { from: number; to: number }, stepMs: number, agg: DiagnosticsParams['agg']): Promise<{ data: ReadingColumns; source: GridSource }> {
+    const repo = channelReadingsIn(inLab(deps.db, lab.id), deps.db);
+    const resolutionS = agg === 'mean' || agg === 'min' || agg === 'max' ? [...ROLLUP_RESOLUTIONS_S].reverse().find((r) => stepMs % (r * 1000) === 0) : undefined;
+    if (resolutionS && (agg === 'mean' || agg === 'min' || agg === 'max')) {
+      return { data: await repo.cellsFromRollups(channelId, resolutionS, range.from, range.to, stepMs, agg), source: { kind: 'rollups', resolutionS } };
+    }
+    return { data: await repo.range(channelId, range.from, range.to), source: { kind: 'readings' } };
+  }
+
+  async function compute(readings: ChannelReadings, options: ChannelDiagnosticsOptions, partner: ChannelReadings | undefined, signal?: AbortSignal): Promise<ChannelDiagnostics> {
+    try {
+      if (deps.pool) return await deps.pool.run({ fn: 'channelDiagnostics', args: [readings, options, partner] }, { signal });
+      return channelDiagnostics(readings, options, partner);
+    } catch (err) {
+      if (err instanceof AnalysisInputError) throw new AnalysisRefusedError(err.message);
+      throw err;
+    }
+  }
+
+  return {
+    /**
+     * The diagnostics report of one channel as UTF-8 JSON, and whether it came from the cache
+     * (kept encoded, so a cache hit costs no serialising or re-encoding).
+     * `signal` cancels the engine run (the client went away).
+     */
+    async report(lab: LabContext, channelId: number, params: DiagnosticsParams, signal?: AbortSignal): Promise<{ json: Buffer; cached: boolean }> {
+      const channel = await deps.channels.requireChannel(lab, channelId);
+      const partner: ChannelWithState | null = params.ccfWith === undefined ? null : await deps.channels.requireChannel(lab, params.ccfWith);
+      const stepS = params.step ?? channel.expectedIntervalS ?? channel.logger.expectedIntervalS;
+      const stepMs = stepS * 1000;
+      const range = { from: Math.floor(params.from / stepMs) * stepMs, to: Math.ceil(params.to / stepMs) * stepMs };
+      const cells = (range.to - range.from) / stepMs;
+      if (cells > MAX_DIAGNOSTICS_CELLS) {
+        throw new ValidationError(`step: the range holds ${cells} steps of ${stepS} s; at most ${MAX_DIAGNOSTICS_CELLS} (choose a longer step or a shorter range)`);
+      }
+      const key = JSON.stringify([lab.id, channelId, channel.dataVersion, partner?.id ?? null, partner?.dataVersion ?? null, range, stepS, params]);
+      const hit = cache.get(key);
+      if (hit !== undefined) return { json: hit, cached: true };
+
+      const [main, other] = await Promise.all([load(lab, channelId, range, stepMs, params.agg), partner ? load(lab, partner.id, range, stepMs, params.agg) : null]);
+      if (main.data.ts.length === 0) throw new AnalysisRefusedError('This channel has no readings in the chosen range.');
+      if (other && other.data.ts.length === 0) throw new AnalysisRefusedError('ccfWith: the other channel has no readings in the chosen range.');
+      const options: ChannelDiagnosticsOptions = {
+        step: stepMs,
+        agg: params.agg,
+        difference: params.difference,
+        seasonalDifference: params.seasonalDifference,
+        period: params.period,
+        decomposition: params.decomposition,
+        alpha: params.alpha,
+        ...(params.maxLag !== undefined ? { maxLag: params.maxLag } : {}),
+        ...(params.ccfMaxLag !== undefined ? { ccfMaxLag: params.ccfMaxLag } : {}),
+        labels: { channel: channel.label, partner: partner?.label ?? '' },
+      };
+      const asReadings = (d: ReadingColumns): ChannelReadings => ({ timestamps: d.ts, values: d.values });
+      const result = await compute(asReadings(main.data), options, other ? asReadings(other.data) : undefined, signal);
+      const json = Buffer.from(JSON.stringify(diagnosticsReport({ channel, partner, params, range, stepS, source: main.source, result })));
+      cache.set(key, json);
+      return { json, cached: false };
+    },
+  };
+}
+
+export type DiagnosticsService = ReturnType<typeof createDiagnosticsService>;

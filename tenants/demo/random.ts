@@ -1,0 +1,39 @@
+/**
+ * A small seeded random source for the demo lab, so every install generates the same data.
+ * mulberry32 (a public-domain 32-bit generator by Tommy Ettinger) and the Box–Muller
+ * transform for normal deviates (Box & Muller 1958, Ann. Math. Statist. 29:610–611).
+ */
+export interface Random {
+  /** Uniform on [0, 1). */
+  next(): number;
+  /** Standard normal. */
+  normal(): number;
+}
+
+export function seededRandom(seed: number): Random {
+  let a = seed >>> 0;
+  const next = () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+  let spare: number | null = null;
+  return {
+    next,
+    normal() {
+      if (spare !== null) {
+        const s = spare;
+        spare = null;
+        return s;
+      }
+      let u = 0;
+      while (u === 0) u = next();
+      const v = next();
+      const r = Math.sqrt(-2 * Math.log(u));
+      spare = r * Math.sin(2 * Math.PI * v);
+      return r * Math.cos(2 * Math.PI * v);
+    },
+  };
+}

@@ -1,0 +1,284 @@
+/**
+ * Channel diagnostics over HTTP on the real MariaDB: the JSON carries exactly the numbers the
+ * engine computes on the same readings (the engine is called here on the readings that were
+ * posted; its own agreement with R and statsmodels is checked in tests/reference and beside
+ * channel-diagnostics.ts), the cache, cross-correlation, the worker pool, cancellation, the CSV
+ * export and the 400/404/422 answers. The readings are simulated (behaviour checks only).
+ */
+import { createServer, get as httpGet } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import request from 'supertest';
+import { buildTestApp, type TestApp } from '../support/test-app.ts';
+import { buildMember, sessionCookieFor } from '../support/factories.ts';
+import { buildLabWithEverything, type LabWithEverything } from '../support/lab-fixture.ts';
+import { createApp, type AppDeps } from '../../server/app.ts';
+import { createLogger } from '../../server/logger.ts';
+import { createAnalysisPool, type AnalysisPool } from '../../server/workers/analysis-pool.ts';
+import { channelDiagnostics, type ChannelDiagnosticsOptions } from '../../server/analysis/index.ts';
+
+const STEP = 600_000; // 10 minutes
+const T0 = Date.UTC(2026, 9, 1);
+const N = 6 * 144; // six days
+const DAY_STEPS = 144;
+const LAG_STEPS = 12; // soil moisture follows air temperature by 2 hours
+
+let t: TestApp;
+let f: LabWithEverything;
+let cookie: string;
+let base: string;
+let soilId: number;
+const air = { timestamps: [] as number[], values: [] as number[] };
+const soil = { timestamps: [] as number[], values: [] as number[] };
+
+/** A seeded generator (Numerical Recipes' LCG constants), so the simulated data repeat exactly. */
+function lcg(seed: number) {
+  let s = seed >>> 0;
+  return () => {
+    s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
+    return s / 2 ** 32 - 0.5;
+  };
+}
+
+async function ingest(readings: Array<{ channel: string; ts: number; value: number }>) {
+  await request(t.app).post('/api/v1/ingest').set('Authorization', `Bearer ${f.ingestKey}`).send({ readings }).expect(200);
+}
+
+beforeAll(async () => {
+  t = await buildTestApp();
+  f = await buildLabWithEverything(t.db);
+  const scientist = await buildMember(t.db, f.lab, { role: 'scientist' });
+  cookie = await sessionCookieFor(t.db, t.config.sessionSecret, scientist.id);
+  base = `/api/v1/labs/${f.lab.slug}/channels/${f.ids.channelId}`;
+  const founder = await sessionCookieFor(t.db, t.config.sessionSecret, f.founder.id);
+  const made = await request(t.app)
+    .post(`/api/v1/labs/${f.lab.slug}/loggers/${f.ids.loggerId}/channels`)
+    .set('Cookie', founder)
+    .send({ key: 'soil_m', label: 'Soil moisture', unit: '%' })
+    .expect(201);
+  soilId = made.body.channel.id;
+  const rnd = lcg(7);
+  let e = 0;
+  const level: number[] = [];
+  for (let i = 0; i < N + LAG_STEPS; i++) {
+    e = 0.6 * e + rnd();
+    level.push(15 + 4 * Math.sin((2 * Math.PI * i) / DAY_STEPS) + e);
+  }
+  const rows = [];
+  for (let i = 0; i < N; i++) {
+    if (i >= 400 && i < 405) continue; // a 50-minute gap in the air channel
+    air.timestamps.push(T0 + i * STEP);
+    air.values.push(level[i + LAG_STEPS]);
+    rows.push({ channel: 'air_t', ts: T0 + i * STEP, value: level[i + LAG_STEPS] });
+  }
+  for (let i = 0; i < N; i++) {
+    const v = 30 + 2 * level[i] + rnd() / 5;
+    soil.timestamps.push(T0 + i * STEP);
+    soil.values.push(v);
+    rows.push({ channel: 'soil_m', ts: T0 + i * STEP, value: v });
+  }
+  await ingest(rows);
+});
+afterAll(async () => t.close());
+
+const range = `from=${new Date(T0).toISOString()}&to=${new Date(T0 + N * STEP).toISOString()}`;
+const engineOptions = (over: Partial<ChannelDiagnosticsOptions> = {}): ChannelDiagnosticsOptions => ({
+  step: STEP,
+  agg: 'mean',
+  difference: 0,
+  seasonalDifference: 0,
+  period: 'auto',
+  decomposition: 'stl',
+  alpha: 0.05,
+  labels: { channel: 'Air temperature', partner: 'Soil moisture' },
+  ...over,
+});
+/** What JSON makes of an engine array: NaN becomes null. */
+const json = (a: ArrayLike<number>) => Array.from(a, (v) => (Number.isNaN(v) ? null : v));
+
+function stubDeps(extra: Partial<AppDeps>): AppDeps {
+  return {
+    config: { ...t.config, clientDir: null },
+    db: t.db,
+    logger: createLogger({ silent: true }),
+    identity: { endpoints: { issuer: 'http://x', authorization_endpoint: 'http://x/a', token_endpoint: 'http://x/t', userinfo_endpoint: 'http://x/u' } },
+    mailer: { send: async () => {}, verify: async () => true, close: () => {} },
+    billing: {} as never,
+    ...extra,
+  };
+}
+
+describe('GET /channels/:channelId/diagnostics', () => {
+  it('returns the engine’s numbers for the same readings, with the method and parameters used', async () => {
+    const res = await request(t.app).get(`${base}/diagnostics?${range}&step=600`).set('Cookie', cookie).expect(200);
+    const r = res.body;
+    const engine = channelDiagnostics(air, engineOptions());
+    expect(r.cached).toBe(false);
+    expect(r.series).toMatchObject({ start: T0, stepMs: STEP, n: N, missing: 5, readings: N - 5 });
+    expect(r.series.emptyCells).toEqual([400, 401, 402, 403, 404]);
+    expect(Array.from(engine.grid.values.subarray(399, 406), Number.isNaN)).toEqual([false, true, true, true, true, true, false]);
+    expect(r.period).toMatchObject({ used: DAY_STEPS, source: 'detected' });
+    expect(r.acf.values).toEqual(json(engine.acf));
+    expect(r.acf.lags).toEqual(Array.from({ length: engine.acf.length }, (_, k) => k));
+    expect(r.pacf.values).toEqual(json(engine.pacf));
+    expect(r.bands).toEqual({ alpha: 0.05, z: engine.bands.z, whiteNoise: engine.bands.whiteNoise, bartlett: json(engine.bands.bartlett) });
+    expect(r.ljungBox).toEqual(engine.ljungBox);
+    expect(r.ljungBox.map((b: { lag: number }) => b.lag)).toEqual([5, 10, 15, 20, 144, 288]);
+    expect(r.effectiveSampleSize).toEqual({ ...engine.effectiveSampleSize });
+    expect(r.identification.verdict).toBe(engine.identification.verdict);
+    expect(r.identification.explanation).toBe(engine.identification.explanation);
+    expect(r.identification.evidence.acf).toEqual(json(engine.identification.evidence.acf));
+    if (engine.decomposition.method === 'none') throw new Error('expected a decomposition');
+    expect(r.decomposition.trend).toEqual(json(engine.decomposition.trend));
+    expect(r.decomposition.seasonal).toEqual(json(engine.decomposition.seasonal));
+    expect(r.decomposition.remainder).toEqual(json(engine.decomposition.remainder));
+    expect(r.decomposition.outliers.indices).toEqual(engine.decomposition.outliers.indices);
+    expect(r.method.resolved).toMatchObject({ stepS: 600, agg: 'mean', source: { kind: 'rollups', resolutionS: 60 }, period: 144, periodSource: 'detected', decomposition: 'stl', maxLag: engine.maxLag });
+    expect(r.method.parameters).toMatchObject({ agg: 'mean', period: 'auto', decomposition: 'stl', difference: 0, from: new Date(T0).toISOString() });
+    expect(r.method.notes.join(' ')).toContain('5 of 864 cells were empty; STL, period detection and process identification filled them by linear interpolation');
+    expect(r.channel).toMatchObject({ id: f.ids.channelId, key: 'air_t', logger: { id: f.ids.loggerId, timezone: 'UTC' } });
+  });
+
+  it('reads raw readings for a median and still matches the engine; differencing applies before the ACF', async () => {
+    const res = await request(t.app).get(`${base}/diagnostics?${range}&step=1200&agg=median&difference=1&decomposition=classical&maxLag=30`).set('Cookie', cookie).expect(200);
+    const engine = channelDiagnostics(air, engineOptions({ step: 1_200_000, agg: 'median', difference: 1, decomposition: 'classical', maxLag: 30 }));
+    expect(res.body.method.resolved.source).toEqual({ kind: 'readings' });
+    expect(res.body.acf.values).toEqual(json(engine.acf));
+    expect(res.body.acf.values).toHaveLength(31);
+    expect(res.body.analysed).toEqual({ n: engine.analysed.n, missing: engine.analysed.missing });
+    expect(res.body.decomposition.method).toBe('classical');
+    expect(res.body.decomposition.trend).toEqual(json(engine.decomposition.method === 'none' ? [] : engine.decomposition.trend));
+  });
+
+  it('serves a repeat from the cache, and recomputes after a new reading arrives', async () => {
+    const path = `${base}/diagnostics?${range}&step=600&decomposition=none&maxLag=24`;
+    const first = await request(t.app).get(path).set('Cookie', cookie).expect(200);
+    const again = await request(t.app).get(path).set('Cookie', cookie).expect(200);
+    expect(first.body.cached).toBe(false);
+    expect(again.body.cached).toBe(true);
+    expect({ ...again.body, cached: false }).toEqual(first.body);
+    // A reading after the range: the channel's data version moves on, so the cached result is
+    // no longer served (the cache never reasons about which readings a change touches).
+    await ingest([{ channel: 'air_t', ts: T0 + (N + 3) * STEP, value: 40 }]);
+    const after = await request(t.app).get(path).set('Cookie', cookie).expect(200);
+    expect(after.body.cached).toBe(false);
+    expect({ ...after.body, cached: false }).toEqual(first.body);
+    expect((await request(t.app).get(path).set('Cookie', cookie).expect(200)).body.cached).toBe(true);
+  });
+
+  it('cross-correlates with another channel of the lab and says which one trails, in R’s sign convention', async () => {
+    const res = await request(t.app).get(`${base}/diagnostics?${range}&step=600&decomposition=none&ccfWith=${soilId}&ccfMaxLag=30`).set('Cookie', cookie).expect(200);
+    const engine = channelDiagnostics(air, engineOptions({ decomposition: 'none', ccfMaxLag: 30 }), soil);
+    const ccf = res.body.crossCorrelation;
+    expect(ccf.with).toMatchObject({ id: soilId, key: 'soil_m' });
+    expect(ccf.values).toEqual(json(engine.crossCorrelation!.values));
+    expect(ccf.band).toBe(engine.crossCorrelation!.band);
+    // Soil moisture was built as air temperature 12 steps (2 h) earlier: cor(air[t+k], soil[t]) peaks at k = −12.
+    expect(ccf.strongest).toMatchObject({ lag: -LAG_STEPS, lagMs: -2 * 3_600_000, significant: true });
+    expect(ccf.explanation).toContain('Soil moisture trails Air temperature by 2 h');
+  });
+
+  it('runs the same bundle on the worker pool (one task) with identical numbers', async () => {
+    const pool = createAnalysisPool({ maxThreads: 1 });
+    try {
+      const app = createApp(stubDeps({ analysisPool: pool }));
+      const path = `${base}/diagnostics?${range}&step=600&ccfWith=${soilId}`;
+      const viaPool = await request(app).get(path).set('Cookie', cookie).expect(200);
+      const inProcess = await request(t.app).get(path).set('Cookie', cookie).expect(200);
+      expect({ ...viaPool.body, cached: null }).toEqual({ ...inProcess.body, cached: null });
+    } finally {
+      await pool.close();
+    }
+  });
+
+  it('aborts the engine task when the client disconnects', async () => {
+    let aborted = false;
+    let started = false;
+    const hanging: AnalysisPool = {
+      run: (_task, options) =>
+        new Promise((_resolve, reject) => {
+          started = true;
+          options?.signal?.addEventListener('abort', () => {
+            aborted = true;
+            reject(Object.assign(new Error('aborted'), { name: 'AbortError' }));
+          });
+        }),
+      close: async () => {},
+    };
+    const server = createServer(createApp(stubDeps({ analysisPool: hanging })));
+    await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
+    try {
+      const { port } = server.address() as AddressInfo;
+      const req = httpGet({ host: '127.0.0.1', port, path: `${base}/diagnostics?${range}&step=600&maxLag=11`, headers: { cookie } });
+      req.on('error', () => {});
+      for (let i = 0; i < 100 && !started; i++) await new Promise((r) => setTimeout(r, 20));
+      expect(started).toBe(true);
+      expect(aborted).toBe(false);
+      req.destroy();
+      for (let i = 0; i < 100 && !aborted; i++) await new Promise((r) => setTimeout(r, 20));
+      expect(aborted).toBe(true);
+    } finally {
+      server.closeAllConnections();
+      await new Promise((r) => server.close(r));
+    }
+  });
+
+  it('answers 400 with `field: reason` for bad parameters', async () => {
+    const cases: Array<[string, string]> = [
+      ['agg=mode', 'agg: must be mean, median, last, min or max'],
+      ['difference=3', 'difference: must be at most 2'],
+      ['seasonalDifference=2', 'seasonalDifference: must be at most 1'],
+      ['period=1', 'period: must be auto, none or a whole number of steps from 2 to 100000'],
+      ['period=none&seasonalDifference=1', 'seasonalDifference: needs a period (auto or a number of steps), not none'],
+      ['decomposition=x11', 'decomposition: must be stl, stl-robust, classical or none'],
+      ['alpha=0', 'alpha: must be above 0'],
+      ['alpha=0.9', 'alpha: must be at most 0.5'],
+      ['maxLag=0', 'maxLag: must be at least 1'],
+      ['ccfMaxLag=5', 'ccfMaxLag: needs ccfWith'],
+      ['step=0', 'step: must be at least 1'],
+      ['step=1', 'step: the range holds 518400 steps of 1 s; at most 300000 (choose a longer step or a shorter range)'],
+    ];
+    for (const [query, message] of cases) {
+      const res = await request(t.app).get(`${base}/diagnostics?${range}&${query}`).set('Cookie', cookie);
+      expect(res.status, query).toBe(400);
+      expect(res.body.error, query).toEqual({ code: 'invalid_input', message });
+    }
+  });
+
+  it('answers 422 with the engine’s message when the data cannot support the analysis', async () => {
+    const empty = await request(t.app).get(`${base}/diagnostics?from=${T0 - 86_400_000}&to=${T0}`).set('Cookie', cookie).expect(422);
+    expect(empty.body.error).toEqual({ code: 'analysis_input', message: 'This channel has no readings in the chosen range.' });
+    const few = await request(t.app).get(`${base}/diagnostics?from=${T0}&to=${T0 + 20 * STEP}&step=600`).set('Cookie', cookie).expect(422);
+    expect(few.body.error).toEqual({ code: 'analysis_input', message: 'channelDiagnostics requires at least 30 values after differencing (got 20)' });
+    const long = await request(t.app).get(`${base}/diagnostics?${range}&step=600&period=500&decomposition=stl`).set('Cookie', cookie).expect(422);
+    expect(long.body.error.message).toBe('channelDiagnostics: period must be a whole number of steps from 2 to 432 for 864 cells (got 500)');
+  });
+
+  it("answers 404 for another lab's channel, as the channel and as ccfWith", async () => {
+    const other = await buildLabWithEverything(t.db);
+    const asChannel = await request(t.app).get(`/api/v1/labs/${f.lab.slug}/channels/${other.ids.channelId}/diagnostics?${range}`).set('Cookie', cookie).expect(404);
+    expect(asChannel.body.error).toEqual({ code: 'not_found', message: 'No such channel in this lab.' });
+    const asPartner = await request(t.app).get(`${base}/diagnostics?${range}&step=600&ccfWith=${other.ids.channelId}`).set('Cookie', cookie).expect(404);
+    expect(asPartner.body.error).toEqual({ code: 'not_found', message: 'No such channel in this lab.' });
+  });
+});
+
+describe('GET /channels/:channelId/diagnostics.csv', () => {
+  it('exports the correlogram with both bands, the CCF and the Ljung–Box table as one RFC 4180 table', async () => {
+    const query = `${range}&step=600&decomposition=none&maxLag=20&ccfWith=${soilId}&ccfMaxLag=3`;
+    const res = await request(t.app).get(`${base}/diagnostics.csv?${query}`).set('Cookie', cookie).expect(200);
+    const report = (await request(t.app).get(`${base}/diagnostics?${query}`).set('Cookie', cookie).expect(200)).body;
+    expect(res.headers['content-disposition']).toBe(`attachment; filename="${f.lab.slug}-air_t-diagnostics.csv"`);
+    const lines = res.text.split('\r\n');
+    expect(lines[0]).toBe('section,lag,acf,pacf,white_noise_band,bartlett_band,ccf,ccf_band,ljung_box_statistic,ljung_box_df,ljung_box_p_value');
+    expect(lines[1]).toBe('correlogram,0,1,,,,,,,,');
+    const lag2 = lines[3].split(',');
+    expect(lag2.slice(0, 6).map(Number).slice(1)).toEqual([2, report.acf.values[2], report.pacf.values[1], report.bands.whiteNoise, report.bands.bartlett[1]]);
+    expect(lines.filter((l) => l.startsWith('correlogram,'))).toHaveLength(21);
+    expect(lines.filter((l) => l.startsWith('ccf,'))).toHaveLength(7);
+    const box = lines.filter((l) => l.startsWith('ljung-box,')).map((l) => l.split(','));
+    expect(box.map((b) => Number(b[1]))).toEqual(report.ljungBox.map((b: { lag: number }) => b.lag));
+    expect(Number(box[0][8])).toBe(report.ljungBox[0].statistic);
+    expect(lines.every((l) => l === '' || l.split(',').length === 11)).toBe(true);
+  });
+});
