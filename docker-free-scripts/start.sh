@@ -51,6 +51,10 @@ npx tsc -p server/tsconfig.build.json
 node dist/server/main.js --migrate &
 APP_PID=$!
 wait_for_http "$LAGBOOK_PUBLIC_URL/healthz" 30 "Lagbook"
+if [ "${LAGBOOK_SKIP_DEMO:-0}" != 1 ]; then
+  say "loading the demo lab on first run (skip with LAGBOOK_SKIP_DEMO=1)…"
+  node --import tsx server/cli/ops.ts seed-demo 2>/dev/null || die "could not load the demo lab"
+fi
 say "Lagbook is running at $LAGBOOK_PUBLIC_URL"
 say "sign in with one of these dev accounts (local identity provider at $OIDC_ISSUER):"
 node --import tsx docker-free-scripts/print-dev-accounts.ts
