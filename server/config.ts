@@ -14,6 +14,8 @@ const envSchema = z.object({
   LAGBOOK_PUBLIC_URL: z.url().optional(),
   /** Folder of the built client (vite build) served by the production server. */
   LAGBOOK_CLIENT_DIR: z.string().optional(),
+  /** Longest a request may take, in seconds (uploads of large files stream for a long time). */
+  LAGBOOK_REQUEST_TIMEOUT_S: z.coerce.number().int().min(60).max(86400).default(3600),
 
   LAGBOOK_DB_HOST: z.string().min(1).default('127.0.0.1'),
   LAGBOOK_DB_PORT: z.coerce.number().int().min(1).max(65535).default(4306),
@@ -48,6 +50,7 @@ export interface Config {
   port: number;
   publicUrl: string;
   clientDir: string | null;
+  requestTimeoutS: number;
   db: { host: string; port: number; user: string; password: string; database: string; poolMax: number };
   sessionSecret: string;
   /** Cookies carry the Secure flag when Lagbook is reached over TLS. */
@@ -97,6 +100,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     port: e.LAGBOOK_PORT,
     publicUrl,
     clientDir: e.LAGBOOK_CLIENT_DIR ?? null,
+    requestTimeoutS: e.LAGBOOK_REQUEST_TIMEOUT_S,
     db: {
       host: e.LAGBOOK_DB_HOST,
       port: e.LAGBOOK_DB_PORT,

@@ -37,6 +37,10 @@ async function main(): Promise<void> {
   const app = createApp({ config, db, logger, identity: { endpoints }, mailer, billing, analysisPool });
 
   const server = createServer(app);
+  // Node ends any request after 5 minutes by default; a historical upload of a large export
+  // file streams for longer. Headers must still arrive within a minute (slow-client guard).
+  server.requestTimeout = config.requestTimeoutS * 1000;
+  server.headersTimeout = 60_000;
   await new Promise<void>((resolve, reject) => {
     server.once('error', (err: NodeJS.ErrnoException) => {
       if (err.code === 'EADDRINUSE') reject(new ConfigError(`Port ${config.port} on ${config.host} is already in use; set LAGBOOK_PORT to a free port.`));

@@ -45,6 +45,15 @@ async function main() {
       loggers.push({ key: issued.key, channelIds: logger.channels.map((c) => c.id) });
     }
 
+    if (TOTAL > 0) await measureApiAndLoadData(stack, lab, loggers);
+    if (UPLOAD_MB > 0) await measureUpload(stack, lab, ctx, service);
+  } finally {
+    await stack.stop();
+  }
+}
+
+async function measureApiAndLoadData(stack: Awaited<ReturnType<typeof startBenchStack>>, lab: { id: number }, loggers: Array<{ key: string; channelIds: number[] }>) {
+  {
     // Pre-build every batch body so that only sending and storing are timed.
     const perLogger = Math.floor(TOTAL / LOGGERS / BATCH);
     const bodies: string[][] = loggers.map((_, l) =>
@@ -100,9 +109,17 @@ async function main() {
     await conn.end();
     console.log(`LOAD DATA LOCAL INFILE (same rows, ${BATCH}-row chunks): ${loadSeconds.toFixed(2)} s → ${Math.round(loadRate).toLocaleString('en')} rows/s`);
     console.log(`ratio API / LOAD DATA: ${(apiRate / loadRate).toFixed(2)} (target ≥ 0.35); API rate target ≥ 150,000 readings/s`);
+  }
+}
 
-    // Memory while a large file streams in.
-    if (UPLOAD_MB > 0) {
+async function measureUpload(
+  stack: Awaited<ReturnType<typeof startBenchStack>>,
+  lab: { id: number; slug: string },
+  ctx: Parameters<ReturnType<typeof createLoggersService>['register']>[0],
+  service: ReturnType<typeof createLoggersService>,
+) {
+  // Memory while a large file streams in.
+  {
       const { logger, issued: _ } = await service.register(ctx, null, { name: 'Upload target', timezone: 'UTC', expectedIntervalS: 60, channels: [{ key: 'u', label: 'Uploaded' }] });
       const targetBytes = UPLOAD_MB * 1024 * 1024;
       let produced = 0;
@@ -133,7 +150,14 @@ async function main() {
         body: Readable.toWeb(file) as ReadableStream,
         duplex: 'half',
       } as RequestInit);
-      const text = await res.text();
+      let text = '';
+      try {
+        text = await res.text();
+      } catch (err) {
+        clearInterval(sampler);
+        console.log(`upload of ${UPLOAD_MB} MB failed: ${(err as Error).message}; server RSS before ${before.toFixed(0)} MB, peak ${peak.toFixed(0)} MB`);
+        return;
+      }
       clearInterval(sampler);
       const summary = JSON.parse(text.trim().split('\n').at(-1)!);
       const upSeconds = (performance.now() - upStart) / 1000;
@@ -141,9 +165,6 @@ async function main() {
         `upload of ${UPLOAD_MB} MB (${summary.readings?.toLocaleString('en')} readings, ${summary.accepted?.toLocaleString('en')} stored) in ${upSeconds.toFixed(1)} s; ` +
           `server RSS before ${before.toFixed(0)} MB, peak ${peak.toFixed(0)} MB, after ${rssMb(pid).toFixed(0)} MB`,
       );
-    }
-  } finally {
-    await stack.stop();
   }
 }
 

@@ -31,5 +31,7 @@ const app = createApp({
   billing: {} as never,
   ingestRate: { perSecond: 10_000, burst: 10_000 },
 });
-createServer(app).listen(port, '127.0.0.1');
+const server = createServer(app);
+server.requestTimeout = 0; // benchmarks stream uploads for as long as they take
+server.listen(port, '127.0.0.1');
 process.on('SIGTERM', () => process.exit(0));
