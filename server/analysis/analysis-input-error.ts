@@ -28,3 +28,25 @@ export function toFloat64(x: Series, fn: string, minLength = 1): Float64Array {
   }
   return Float64Array.from(x as ArrayLike<number>);
 }
+
+/** Throws unless `x` is array-like (the first check every engine function makes). */
+export function assertSeries(x: unknown, fn: string): asserts x is ArrayLike<number> {
+  if (x == null || typeof (x as ArrayLike<number>).length !== 'number') {
+    throw new AnalysisInputError(`${fn}: the series must be an array of numbers`);
+  }
+}
+
+/** How many values are present (not NaN) and their sum, after checking the series is array-like. */
+export function presentValues(x: unknown, fn: string): { n: number; sum: number } {
+  assertSeries(x, fn);
+  let n = 0;
+  let sum = 0;
+  for (let i = 0; i < x.length; i++) {
+    const v = x[i];
+    if (!Number.isNaN(v)) {
+      n++;
+      sum += v;
+    }
+  }
+  return { n, sum };
+}

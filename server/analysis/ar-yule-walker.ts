@@ -1,4 +1,4 @@
-import { AnalysisInputError, type Series } from './analysis-input-error.ts';
+import { AnalysisInputError, type Series, presentValues } from './analysis-input-error.ts';
 import { autocorrelation } from './autocorrelation.ts';
 import { durbinLevinson } from './durbin-levinson.ts';
 import { integerOption } from './integer-option.ts';
@@ -44,17 +44,7 @@ export interface ArYuleWalkerResult {
  */
 export function arYuleWalker(x: Series, options: ArYuleWalkerOptions = {}): ArYuleWalkerResult {
   const fn = 'arYuleWalker';
-  if (x == null || typeof x.length !== 'number') {
-    throw new AnalysisInputError(`${fn}: the series must be an array of numbers`);
-  }
-  let n = 0;
-  let sum = 0;
-  for (let i = 0; i < x.length; i++) {
-    if (!Number.isNaN(x[i])) {
-      n++;
-      sum += x[i];
-    }
-  }
+  const { n, sum } = presentValues(x, fn);
   if (n < 3) throw new AnalysisInputError(`${fn} requires at least 3 data points (got ${n})`);
   const maxOrder = integerOption(
     fn,

@@ -1,4 +1,4 @@
-import { AnalysisInputError, type Series } from './analysis-input-error.ts';
+import { AnalysisInputError, type Series, assertSeries } from './analysis-input-error.ts';
 import { integerOption } from './integer-option.ts';
 import { leastSquares } from './least-squares.ts';
 
@@ -42,9 +42,7 @@ const TAU_C: Record<'1%' | '5%' | '10%', [number, number, number, number]> = {
  */
 export function augmentedDickeyFuller(x: Series, options: AugmentedDickeyFullerOptions = {}): AugmentedDickeyFullerResult {
   const fn = 'augmentedDickeyFuller';
-  if (x == null || typeof x.length !== 'number') {
-    throw new AnalysisInputError(`${fn}: the series must be an array of numbers`);
-  }
+  assertSeries(x, fn);
   const n = x.length;
   if (n < 10) throw new AnalysisInputError(`${fn} requires at least 10 data points (got ${n})`);
   for (let i = 0; i < n; i++) {

@@ -1,4 +1,4 @@
-import { AnalysisInputError, type Series } from './analysis-input-error.ts';
+import { AnalysisInputError, type Series, assertSeries } from './analysis-input-error.ts';
 import { defaultMaxLag } from './default-max-lag.ts';
 import { integerOption } from './integer-option.ts';
 import { laggedProducts } from './lagged-products.ts';
@@ -33,9 +33,7 @@ export interface AutocorrelationOptions {
  */
 export function autocorrelation(x: Series, options: AutocorrelationOptions = {}): Float64Array {
   const fn = 'acf';
-  if (x == null || typeof x.length !== 'number') {
-    throw new AnalysisInputError(`${fn}: the series must be an array of numbers`);
-  }
+  assertSeries(x, fn);
   const n = x.length;
   if (n < 2) throw new AnalysisInputError(`${fn} requires at least 2 data points (got ${n})`);
   const maxLag = integerOption(fn, 'maxLag', options.maxLag ?? defaultMaxLag(n), 0, n - 1);

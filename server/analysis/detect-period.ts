@@ -1,4 +1,4 @@
-import { AnalysisInputError, type Series } from './analysis-input-error.ts';
+import { AnalysisInputError, type Series, assertSeries } from './analysis-input-error.ts';
 import { autocorrelation } from './autocorrelation.ts';
 import { integerOption } from './integer-option.ts';
 import { normalQuantile } from './normal-quantile.ts';
@@ -87,9 +87,7 @@ function prominentAcfPeaks(r: Float64Array, maxPeriod: number, band: number, mar
  */
 export function detectPeriod(x: Series, options: DetectPeriodOptions = {}): DetectPeriodResult {
   const fn = 'detectPeriod';
-  if (x == null || typeof x.length !== 'number') {
-    throw new AnalysisInputError(`${fn}: the series must be an array of numbers`);
-  }
+  assertSeries(x, fn);
   const n = x.length;
   if (n < 8) throw new AnalysisInputError(`${fn} requires at least 8 data points (got ${n})`);
   const maxPeriod = integerOption(fn, 'maxPeriod', options.maxPeriod ?? Math.floor(n / 2), 2, Math.floor(n / 2));

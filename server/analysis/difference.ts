@@ -1,4 +1,4 @@
-import { AnalysisInputError, type Series } from './analysis-input-error.ts';
+import { AnalysisInputError, type Series, assertSeries } from './analysis-input-error.ts';
 import { integerOption } from './integer-option.ts';
 
 export interface DifferenceOptions {
@@ -20,9 +20,7 @@ export interface DifferenceOptions {
  */
 export function difference(x: Series, options: DifferenceOptions = {}): Float64Array {
   const fn = 'difference';
-  if (x == null || typeof x.length !== 'number') {
-    throw new AnalysisInputError(`${fn}: the series must be an array of numbers`);
-  }
+  assertSeries(x, fn);
   const lag = integerOption(fn, 'lag', options.lag ?? 1, 1);
   const order = integerOption(fn, 'order', options.order ?? 1, 1);
   if (lag * order >= x.length) {

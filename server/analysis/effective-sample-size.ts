@@ -1,4 +1,4 @@
-import { AnalysisInputError, type Series } from './analysis-input-error.ts';
+import { AnalysisInputError, type Series, presentValues } from './analysis-input-error.ts';
 import { autocorrelation } from './autocorrelation.ts';
 import { normalQuantile } from './normal-quantile.ts';
 
@@ -41,17 +41,7 @@ export interface EffectiveSampleSizeResult {
  */
 export function effectiveSampleSize(x: Series, options: EffectiveSampleSizeOptions = {}): EffectiveSampleSizeResult {
   const fn = 'effectiveSampleSize';
-  if (x == null || typeof x.length !== 'number') {
-    throw new AnalysisInputError(`${fn}: the series must be an array of numbers`);
-  }
-  let n = 0;
-  let sum = 0;
-  for (let i = 0; i < x.length; i++) {
-    if (!Number.isNaN(x[i])) {
-      n++;
-      sum += x[i];
-    }
-  }
+  const { n, sum } = presentValues(x, fn);
   if (n < 4) throw new AnalysisInputError(`${fn} requires at least 4 data points (got ${n})`);
   const alpha = options.alpha ?? 0.05;
   if (!(alpha > 0 && alpha < 1)) throw new AnalysisInputError(`${fn}: alpha must be between 0 and 1 (got ${alpha})`);

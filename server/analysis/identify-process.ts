@@ -1,4 +1,4 @@
-import { AnalysisInputError, type Series } from './analysis-input-error.ts';
+import { AnalysisInputError, type Series, assertSeries } from './analysis-input-error.ts';
 import { augmentedDickeyFuller, type AugmentedDickeyFullerResult } from './augmented-dickey-fuller.ts';
 import { autocorrelation } from './autocorrelation.ts';
 import { autocorrelationBands } from './autocorrelation-bands.ts';
@@ -91,9 +91,7 @@ function endOfInitialRun(values: ArrayLike<number>, band: (lag: number) => numbe
  */
 export function identifyProcess(x: Series, options: IdentifyProcessOptions = {}): ProcessIdentification {
   const fn = 'identifyProcess';
-  if (x == null || typeof x.length !== 'number') {
-    throw new AnalysisInputError(`${fn}: the series must be an array of numbers`);
-  }
+  assertSeries(x, fn);
   const present: number[] = [];
   for (let i = 0; i < x.length; i++) if (!Number.isNaN(x[i])) present.push(x[i]);
   const n = present.length;

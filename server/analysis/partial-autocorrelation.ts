@@ -1,4 +1,4 @@
-import { AnalysisInputError, type Series } from './analysis-input-error.ts';
+import { AnalysisInputError, type Series, assertSeries } from './analysis-input-error.ts';
 import { autocorrelation } from './autocorrelation.ts';
 import { defaultMaxLag } from './default-max-lag.ts';
 import { durbinLevinson } from './durbin-levinson.ts';
@@ -23,9 +23,7 @@ export interface PartialAutocorrelationOptions {
  */
 export function partialAutocorrelation(x: Series, options: PartialAutocorrelationOptions = {}): Float64Array {
   const fn = 'pacf';
-  if (x == null || typeof x.length !== 'number') {
-    throw new AnalysisInputError(`${fn}: the series must be an array of numbers`);
-  }
+  assertSeries(x, fn);
   if (x.length < 2) throw new AnalysisInputError(`${fn} requires at least 2 data points (got ${x.length})`);
   const maxLag = integerOption(fn, 'maxLag', options.maxLag ?? Math.max(1, defaultMaxLag(x.length)), 1, x.length - 1);
   const r = autocorrelation(x, { maxLag });

@@ -1,4 +1,4 @@
-import { AnalysisInputError, type Series } from './analysis-input-error.ts';
+import { AnalysisInputError, type Series, assertSeries } from './analysis-input-error.ts';
 import { fftOfSize } from './fft-of-size.ts';
 import { maskMissing } from './missing-values.ts';
 import { powerOfTwoAtLeast } from './power-of-two-at-least.ts';
@@ -23,9 +23,7 @@ export interface PeriodogramResult {
  */
 export function periodogram(x: Series, padTo?: number): PeriodogramResult {
   const fn = 'periodogram';
-  if (x == null || typeof x.length !== 'number') {
-    throw new AnalysisInputError(`${fn}: the series must be an array of numbers`);
-  }
+  assertSeries(x, fn);
   if (x.length < 4) throw new AnalysisInputError(`${fn} requires at least 4 data points (got ${x.length})`);
   const n = x.length;
   const size = powerOfTwoAtLeast(Math.max(n, padTo ?? 0));

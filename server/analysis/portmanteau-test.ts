@@ -1,4 +1,4 @@
-import { AnalysisInputError, type Series } from './analysis-input-error.ts';
+import { AnalysisInputError, type Series, assertSeries } from './analysis-input-error.ts';
 import { autocorrelation } from './autocorrelation.ts';
 import { chiSquareUpperTail } from './chi-square-upper-tail.ts';
 import { integerOption } from './integer-option.ts';
@@ -29,9 +29,7 @@ export function portmanteauTest(
   options: PortmanteauOptions,
   weight: (n: number, k: number) => number,
 ): PortmanteauResult {
-  if (x == null || typeof x.length !== 'number') {
-    throw new AnalysisInputError(`${fn}: the series must be an array of numbers`);
-  }
+  assertSeries(x, fn);
   if (x.length < 3) throw new AnalysisInputError(`${fn} requires at least 3 data points (got ${x.length})`);
   const lag = integerOption(fn, 'lag', options?.lag, 1, x.length - 1);
   const fitdf = integerOption(fn, 'fitdf', options.fitdf ?? 0, 0, lag - 1);
