@@ -22,6 +22,11 @@ export const paths = {
     path: '/labs/:lab/loggers/:loggerId/upload',
     href: (slug: string, loggerId: number) => `/labs/${encodeURIComponent(slug)}/loggers/${loggerId}/upload`,
   },
+  labChannels: { path: '/labs/:lab/channels', href: (slug: string) => `/labs/${encodeURIComponent(slug)}/channels` },
+  labChannel: {
+    path: '/labs/:lab/channels/:channelId',
+    href: (slug: string, channelId: number) => `/labs/${encodeURIComponent(slug)}/channels/${channelId}`,
+  },
   labQuarantine: {
     path: '/labs/:lab/quarantine',
     href: (slug: string, search = '') => `/labs/${encodeURIComponent(slug)}/quarantine${search && !search.startsWith('?') ? `?${search}` : search}`,

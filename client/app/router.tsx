@@ -20,6 +20,8 @@ const router = createBrowserRouter([
           { path: paths.labLoggerNew.path, lazy: async () => ({ Component: (await import('./routes/lab-logger-new.tsx')).default }) },
           { path: paths.labLogger.path, lazy: async () => ({ Component: (await import('./routes/lab-logger.tsx')).default }) },
           { path: paths.labLoggerUpload.path, lazy: async () => ({ Component: (await import('./routes/lab-logger-upload.tsx')).default }) },
+          { path: paths.labChannels.path, lazy: async () => ({ Component: (await import('./routes/lab-channels.tsx')).default }) },
+          { path: paths.labChannel.path, lazy: async () => ({ Component: (await import('./routes/lab-channel.tsx')).default }) },
           { path: paths.labQuarantine.path, lazy: async () => ({ Component: (await import('./routes/lab-quarantine.tsx')).default }) },
         ],
       },

@@ -74,9 +74,9 @@ const navLinks = () => within(screen.getByRole('navigation', { name: 'Lab sectio
 
 describe('lab sections for loggers', () => {
   it.each([
-    ['technician', ['Overview', 'Loggers', 'Quarantine', 'Members']],
-    ['scientist', ['Overview', 'Loggers', 'Members']],
-    ['guest', ['Overview', 'Loggers']],
+    ['technician', ['Overview', 'Channels', 'Loggers', 'Quarantine', 'Members']],
+    ['scientist', ['Overview', 'Channels', 'Loggers', 'Members']],
+    ['guest', ['Overview', 'Channels', 'Loggers']],
   ] as Array<[Role, string[]]>)('shows a %s the sections of the role', async (role, expected) => {
     fakeApi({ 'GET /api/v1/labs/fernhollow': labAs(role), 'GET /api/v1/labs/fernhollow/loggers': () => ({ status: 200, body: { loggers: [] } }) });
     renderWithProviders(routes, '/labs/fernhollow/loggers');

@@ -21,6 +21,8 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   'ingest-key.revoked': 'Ingest key revoked',
   'quarantine.discarded': 'Quarantined rows discarded',
   'quarantine.resubmitted': 'Quarantined rows resubmitted',
+  'token.created': 'Personal API token created',
+  'token.revoked': 'Personal API token revoked',
 };
 
 /** The label of an action, or the raw action name for one this client does not know yet. */

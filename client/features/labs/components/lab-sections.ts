@@ -13,6 +13,7 @@ export interface LabSection {
 /** The sections of a lab, in navigation order. */
 export const LAB_SECTIONS: LabSection[] = [
   { label: 'Overview', href: paths.lab.href, needs: 'lab.read', blurb: 'The lab at a glance.' },
+  { label: 'Channels', href: paths.labChannels.href, needs: 'channels.read', blurb: 'Every channel with its status and last day; readings, diagnostics and cross-correlation.' },
   { label: 'Loggers', href: paths.labLoggers.href, needs: 'loggers.read', blurb: 'The data loggers, their channels and keys; historical uploads.' },
   { label: 'Quarantine', href: paths.labQuarantine.href, needs: 'quarantine.review', blurb: 'Readings that could not be stored, with the reason, to fix or discard.' },
   { label: 'Members', href: paths.labMembers.href, needs: 'members.read', blurb: 'Who belongs to the lab, and in which role.' },

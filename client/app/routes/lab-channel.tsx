@@ -1,0 +1,67 @@
+import { useMemo, useState } from 'react';
+import { Link, useParams } from 'react-router-dom';
+import { useChannel } from '../../features/channels/api/get-channel.ts';
+import { useChannels } from '../../features/channels/api/get-channels.ts';
+import type { TimeRange } from '../../features/channels/api/get-series.ts';
+import { ChannelHeader } from '../../features/channels/components/channel-header.tsx';
+import { presetRange, type RangePreset } from '../../features/channels/components/range-presets.ts';
+import { ReadingsPanel } from '../../features/channels/components/readings-panel.tsx';
+import { SafetyCautionNote } from '../../features/channels/components/safety-caution-note.tsx';
+import { CrossCorrelationPanel } from '../../features/diagnostics/components/cross-correlation-panel.tsx';
+import { DiagnosticsPanel } from '../../features/diagnostics/components/diagnostics-panel.tsx';
+import { MissingPermission } from '../../features/labs/components/lab-not-found.tsx';
+import { LoadingNote, Notice } from '../../components/notice.tsx';
+import { ApiError } from '../../lib/api-client.ts';
+import { paths } from '../paths.ts';
+import { useLabContext } from './lab-context.ts';
+
+/**
+ * `/labs/:lab/channels/:channelId`: one channel's header, readings chart, diagnostics and
+ * cross-correlation. The chart's range is kept here, so the diagnostics default to it.
+ */
+export default function LabChannelRoute() {
+  const { detail } = useLabContext();
+  const slug = detail.lab.slug;
+  const channelId = Number(useParams().channelId);
+  const can = (p: (typeof detail.permissions)[number]) => detail.permissions.includes(p);
+  const channel = useChannel(slug, channelId);
+  const all = useChannels(slug);
+  const [view, setView] = useState<{ range: TimeRange; preset: RangePreset | null }>(() => ({ range: presetRange('7d', Date.now()), preset: '7d' }));
+  const partners = useMemo(
+    () => (all.data?.channels ?? []).filter((c) => c.id !== channelId).map((c) => ({ id: c.id, label: c.label, loggerName: c.logger.name })),
+    [all.data, channelId],
+  );
+
+  if (!can('channels.read')) return <MissingPermission what="the channels" />;
+  if (channel.isPending) return <LoadingNote what="Opening the channel…" />;
+  if (channel.isError) {
+    if (channel.error instanceof ApiError && channel.error.status === 404) {
+      return (
+        <Notice tone="status">
+          This lab has no channel {Number.isFinite(channelId) ? channelId : ''}.{' '}
+          <Link to={paths.labChannels.href(slug)} className="underline">
+            Back to the channels
+          </Link>
+        </Notice>
+      );
+    }
+    return <Notice tone="alert">{channel.error.message}</Notice>;
+  }
+  const c = channel.data.channel;
+  return (
+    <div className="grid gap-5">
+      <Link to={paths.labChannels.href(slug)} className="text-sm text-lichen-dark underline-offset-2 hover:underline">
+        ← All channels
+      </Link>
+      <ChannelHeader channel={c} now={Date.now()} />
+      <SafetyCautionNote channel={c} />
+      <ReadingsPanel slug={slug} channel={c} range={view.range} preset={view.preset} onRange={(range, preset) => setView({ range, preset })} canExport={can('exports.create')} />
+      {can('diagnostics.read') && (
+        <>
+          <DiagnosticsPanel slug={slug} channelId={c.id} channelKey={c.key} timezone={c.logger.timezone} chartRange={view.range} canExport={can('exports.create')} />
+          <CrossCorrelationPanel slug={slug} channelId={c.id} channelLabel={c.label} chartRange={view.range} partners={partners} />
+        </>
+      )}
+    </div>
+  );
+}

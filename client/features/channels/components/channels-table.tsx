@@ -1,0 +1,142 @@
+import { useMemo, useState } from 'react';
+import { Link } from 'react-router-dom';
+import {
+  flexRender,
+  getCoreRowModel,
+  getPaginationRowModel,
+  getSortedRowModel,
+  useReactTable,
+  type ColumnDef,
+  type PaginationState,
+  type SortingState,
+} from '@tanstack/react-table';
+import { paths } from '../../../app/paths.ts';
+import { Pager } from '../../../components/pager.tsx';
+import type { ChannelOverviewRow, ChannelStatus } from '../api/get-channels.ts';
+import { ChannelValue } from './channel-value.tsx';
+import { LastReadingTime } from './last-reading-time.tsx';
+import { Sparkline } from './sparkline.tsx';
+import { StatusBadge } from './status-badge.tsx';
+
+// Sorting by status puts the channels that need a look first.
+const STATUS_ORDER: Record<ChannelStatus, number> = { 'out-of-range': 0, silent: 1, 'no-data': 2, live: 3 };
+export const CHANNELS_PAGE_SIZE = 25;
+
+/**
+ * Every channel of the lab as a sortable, paged table (sorting runs over all rows, then the
+ * page is cut): label and key (a link to the channel's page), logger, site, unit, last value,
+ * last reading time, status and the last 24 hours as a sparkline.
+ */
+export function ChannelsTable({ slug, rows, now }: { slug: string; rows: ChannelOverviewRow[]; now: number }) {
+  const [sorting, setSorting] = useState<SortingState>([{ id: 'logger', desc: false }]);
+  const [pagination, setPagination] = useState<PaginationState>({ pageIndex: 0, pageSize: CHANNELS_PAGE_SIZE });
+  const columns = useMemo<ColumnDef<ChannelOverviewRow>[]>(
+    () => [
+      {
+        id: 'label',
+        header: 'Channel',
+        accessorFn: (c) => c.label,
+        sortingFn: 'text',
+        cell: ({ row }) => (
+          <span className="inline-flex flex-col">
+            <Link to={paths.labChannel.href(slug, row.original.id)} className="font-medium text-lichen-dark underline-offset-2 hover:underline">
+              {row.original.label}
+            </Link>
+            <span className="font-mono text-xs text-ink-soft">{row.original.key}</span>
+          </span>
+        ),
+      },
+      { id: 'logger', header: 'Logger', accessorFn: (c) => `${c.logger.name}\u0000${c.label}`, sortingFn: 'text', cell: ({ row }) => row.original.logger.name },
+      { id: 'site', header: 'Site', accessorFn: (c) => c.logger.site ?? '', sortingFn: 'text', cell: ({ row }) => row.original.logger.site ?? '—' },
+      { id: 'unit', header: 'Unit', accessorFn: (c) => c.unit ?? '', sortingFn: 'text', cell: ({ row }) => row.original.unit ?? '—' },
+      {
+        id: 'value',
+        header: 'Last value',
+        accessorFn: (c) => c.lastReading?.value ?? -Infinity,
+        cell: ({ row }) => <ChannelValue value={row.original.lastReading?.value} unit={row.original.unit} />,
+      },
+      {
+        id: 'lastReading',
+        header: 'Last reading',
+        accessorFn: (c) => c.lastReading?.ts ?? -1,
+        cell: ({ row }) => <LastReadingTime reading={row.original.lastReading} timezone={row.original.logger.timezone} now={now} />,
+      },
+      { id: 'status', header: 'Status', accessorFn: (c) => STATUS_ORDER[c.status], sortDescFirst: false, cell: ({ row }) => <StatusBadge status={row.original.status} /> },
+      { id: 'spark', header: 'Last 24 h', enableSorting: false, cell: ({ row }) => <Sparkline means={row.original.sparkline.means} unit={row.original.unit} /> },
+    ],
+    [slug, now],
+  );
+  const table = useReactTable({
+    data: rows,
+    columns,
+    getRowId: (c) => String(c.id),
+    state: { sorting, pagination },
+    onSortingChange: setSorting,
+    onPaginationChange: setPagination,
+    enableSortingRemoval: false,
+    getCoreRowModel: getCoreRowModel(),
+    getSortedRowModel: getSortedRowModel(),
+    getPaginationRowModel: getPaginationRowModel(),
+  });
+
+  return (
+    <div className="grid gap-3">
+      <div className="overflow-x-auto rounded-xl border border-rule bg-card">
+        <table className="w-full border-collapse text-left text-sm">
+          <caption className="sr-only">Channels of the lab</caption>
+          <thead className="border-b border-rule bg-paper/60 text-xs uppercase tracking-wide text-ink-soft">
+            <tr>
+              {table.getFlatHeaders().map((header) => {
+                const sorted = header.column.getIsSorted();
+                const text = flexRender(header.column.columnDef.header, header.getContext());
+                const canSort = header.column.getCanSort();
+                return (
+                  <th key={header.id} scope="col" className="px-3 py-2.5 font-semibold" aria-sort={canSort ? (sorted ? (sorted === 'asc' ? 'ascending' : 'descending') : 'none') : undefined}>
+                    {canSort ? (
+                      <button type="button" onClick={header.column.getToggleSortingHandler()} className="inline-flex items-center gap-1 rounded uppercase tracking-wide hover:text-ink">
+                        {text}
+                        <span aria-hidden="true" className="font-mono text-amber">
+                          {sorted === 'asc' ? '↑' : sorted === 'desc' ? '↓' : '·'}
+                        </span>
+                      </button>
+                    ) : (
+                      text
+                    )}
+                  </th>
+                );
+              })}
+            </tr>
+          </thead>
+          <tbody>
+            {table.getRowModel().rows.map((row) => (
+              <tr key={row.id} className="border-b border-rule/70 align-top last:border-b-0" data-status={row.original.status}>
+                {row.getVisibleCells().map((cell) => (
+                  <td key={cell.id} className="px-3 py-2.5">
+                    {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                  </td>
+                ))}
+              </tr>
+            ))}
+            {rows.length === 0 && (
+              <tr>
+                <td colSpan={columns.length} className="px-4 py-6 text-center text-ink-soft">
+                  No channel matches.
+                </td>
+              </tr>
+            )}
+          </tbody>
+        </table>
+      </div>
+      {rows.length > CHANNELS_PAGE_SIZE && (
+        <Pager
+          label="Channel pages"
+          noun="Channels"
+          page={pagination.pageIndex + 1}
+          pageSize={pagination.pageSize}
+          total={rows.length}
+          onPage={(p) => setPagination((s) => ({ ...s, pageIndex: p - 1 }))}
+        />
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,45 @@
+import { describe, expect, it } from 'vitest';
+import type { BucketSeries, ReadingsSeries } from '../api/get-series.ts';
+import { outOfRangePoints, readingsSummary } from './readings-chart-option.ts';
+
+// Small invented series (demo values) in the API's documented shapes; expectations worked by hand.
+const T0 = Date.parse('2026-01-10T00:00:00Z');
+const raw: ReadingsSeries = { shape: 'readings', source: 'raw', from: T0, to: T0 + 4 * 60_000, t: [T0, T0 + 60_000, T0 + 120_000, T0 + 180_000], value: [1, 72, null, -50] };
+const buckets: BucketSeries = {
+  shape: 'buckets',
+  source: 'rollup',
+  resolutionS: 3600,
+  bucketMs: 7_200_000,
+  from: T0,
+  to: T0 + 14_400_000,
+  t: [T0, T0 + 7_200_000],
+  min: [-45, null],
+  max: [65, null],
+  mean: [3, null],
+  count: [120, 0],
+};
+const ctx = { label: 'Air', unit: '°C', timezone: 'Europe/Berlin', validMin: -40, validMax: 60, range: { from: T0, to: T0 + 14_400_000 } };
+
+describe('readings chart helpers', () => {
+  it('marks raw readings outside the valid range and skips gap markers', () => {
+    expect(outOfRangePoints(raw, -40, 60)).toEqual([
+      [T0 + 60_000, 72],
+      [T0 + 180_000, -50],
+    ]);
+    expect(outOfRangePoints(raw, null, null)).toEqual([]);
+  });
+
+  it('marks a bucket whose extremes leave the range, at the bucket middle', () => {
+    expect(outOfRangePoints(buckets, -40, 60)).toEqual([
+      [T0 + 3_600_000, 65],
+      [T0 + 3_600_000, -45],
+    ]);
+  });
+
+  it('says in words what the chart shows, on the logger’s clock', () => {
+    expect(readingsSummary(raw, ctx)).toBe(
+      '3 readings from 2026-01-10 01:00 to 2026-01-10 05:00 (Europe/Berlin, UTC+01:00); lowest -50 °C, highest 72 °C; 2 outside the valid range.',
+    );
+    expect(readingsSummary(buckets, ctx)).toContain('2 buckets of 120 min (mean with minimum–maximum envelope, from rollups)');
+  });
+});

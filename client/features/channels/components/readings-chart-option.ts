@@ -1,0 +1,125 @@
+import type { EChartsCoreOption } from 'echarts/core';
+import { formatZoned, zoneOffsetLabel } from '../../../components/zoned-time.ts';
+import type { Series, TimeRange } from '../api/get-series.ts';
+
+/** What the readings chart needs to know about its channel. */
+export interface ReadingsChartContext {
+  label: string;
+  unit: string | null;
+  timezone: string;
+  validMin: number | null;
+  validMax: number | null;
+  range: TimeRange;
+}
+
+const INK = '#1b2624';
+const LICHEN = '#2f6f5e';
+const ENVELOPE = '#8fb3a8';
+const ALERT = '#b23a2a';
+const AMBER = '#c98d1c';
+
+type Point = [number, number | null];
+
+const isOutside = (v: number, min: number | null, max: number | null) => (min !== null && v < min) || (max !== null && v > max);
+
+/** Points (time, value) of the series that lie outside the valid range; for buckets, their extremes. */
+export function outOfRangePoints(series: Series, validMin: number | null, validMax: number | null): Array<[number, number]> {
+  const out: Array<[number, number]> = [];
+  if (validMin === null && validMax === null) return out;
+  if (series.shape === 'readings') {
+    series.t.forEach((t, i) => {
+      const v = series.value[i];
+      if (v !== null && isOutside(v, validMin, validMax)) out.push([t, v]);
+    });
+  } else {
+    series.t.forEach((t, i) => {
+      const lo = series.min[i];
+      const hi = series.max[i];
+      const mid = t + series.bucketMs / 2;
+      if (hi !== null && validMax !== null && hi > validMax) out.push([mid, hi]);
+      if (lo !== null && validMin !== null && lo < validMin) out.push([mid, lo]);
+    });
+  }
+  return out;
+}
+
+/**
+ * The ECharts option of a channel's readings over its range: a line broken at gaps (raw
+ * readings, or the bucket means with the min and max of each bucket drawn as an envelope when
+ * the series is downsampled), the valid minimum and maximum as dashed lines, readings outside
+ * them as triangles, the time axis and tooltip on the logger's clock with its UTC offset, and
+ * zoom (mouse wheel, drag, and a slider) whose window the page turns into a new request.
+ * Animation is off, so the `finished` event follows the first frame.
+ */
+export function readingsChartOption(series: Series, ctx: ReadingsChartContext): EChartsCoreOption {
+  const tz = ctx.timezone;
+  const unit = ctx.unit ? ` ${ctx.unit}` : '';
+  const midOffset = zoneOffsetLabel((ctx.range.from + ctx.range.to) / 2, tz);
+  const lines: EChartsCoreOption[] = [];
+  if (series.shape === 'readings') {
+    lines.push({ name: 'Reading', type: 'line', data: series.t.map((t, i): Point => [t, series.value[i]]), showSymbol: series.t.length < 200, symbolSize: 4, connectNulls: false, lineStyle: { color: LICHEN, width: 1.5 }, itemStyle: { color: LICHEN } });
+  } else {
+    const at = (arr: Array<number | null>) => series.t.map((t, i): Point => [t + series.bucketMs / 2, arr[i]]);
+    lines.push(
+      { name: 'Bucket maximum', type: 'line', data: at(series.max), showSymbol: false, connectNulls: false, lineStyle: { color: ENVELOPE, width: 1 }, itemStyle: { color: ENVELOPE } },
+      { name: 'Bucket minimum', type: 'line', data: at(series.min), showSymbol: false, connectNulls: false, lineStyle: { color: ENVELOPE, width: 1 }, itemStyle: { color: ENVELOPE } },
+      { name: 'Bucket mean', type: 'line', data: at(series.mean), showSymbol: false, connectNulls: false, lineStyle: { color: LICHEN, width: 1.5 }, itemStyle: { color: LICHEN } },
+    );
+  }
+  const limits = [
+    ...(ctx.validMin !== null ? [{ yAxis: ctx.validMin, name: 'valid minimum' }] : []),
+    ...(ctx.validMax !== null ? [{ yAxis: ctx.validMax, name: 'valid maximum' }] : []),
+  ];
+  if (limits.length > 0) {
+    lines[lines.length - 1] = {
+      ...lines[lines.length - 1],
+      markLine: { silent: true, symbol: 'none', lineStyle: { color: AMBER, type: 'dashed' }, label: { formatter: '{b}: {c}', position: 'insideEndTop' }, data: limits },
+    };
+  }
+  const outside = outOfRangePoints(series, ctx.validMin, ctx.validMax);
+  const scatter = outside.length
+    ? [{ name: 'Outside the valid range', type: 'scatter', data: outside, symbol: 'triangle', symbolSize: 9, itemStyle: { color: ALERT }, z: 5 }]
+    : [];
+  return {
+    animation: false,
+    textStyle: { fontFamily: 'Figtree Variable, system-ui, sans-serif', color: INK },
+    legend: { top: 0, right: 0 },
+    grid: { left: 56, right: 24, top: 36, bottom: 84 },
+    tooltip: {
+      trigger: 'axis',
+      valueFormatter: (v: unknown) => (typeof v === 'number' ? `${Number(v.toPrecision(6))}${unit}` : '—'),
+      axisPointer: { label: { formatter: (p: { value: unknown }) => `${formatZoned(Number(p.value), tz, { seconds: true })} ${zoneOffsetLabel(Number(p.value), tz)}` } },
+    },
+    xAxis: {
+      type: 'time',
+      min: ctx.range.from,
+      max: ctx.range.to,
+      name: `${tz} (${midOffset})`,
+      nameLocation: 'middle',
+      nameGap: 30,
+      axisLabel: { hideOverlap: true, formatter: (v: number) => formatZoned(v, tz).replace(' ', '\n') },
+    },
+    yAxis: { type: 'value', scale: true, name: ctx.unit ?? '', nameTextStyle: { align: 'left' } },
+    dataZoom: [
+      { type: 'inside', xAxisIndex: 0, filterMode: 'none' },
+      { type: 'slider', xAxisIndex: 0, filterMode: 'none', bottom: 8, height: 18, labelFormatter: (v: number) => formatZoned(v, tz) },
+    ],
+    series: [...lines, ...scatter],
+  };
+}
+
+/** The chart's content in words: how many points, the extremes and how many lie outside the valid range. */
+export function readingsSummary(series: Series, ctx: ReadingsChartContext): string {
+  const tz = ctx.timezone;
+  const values = (series.shape === 'readings' ? series.value : [...series.min, ...series.max]).filter((v): v is number => v !== null);
+  const span = `from ${formatZoned(ctx.range.from, tz)} to ${formatZoned(ctx.range.to, tz)} (${tz}, ${zoneOffsetLabel(ctx.range.to, tz)})`;
+  if (values.length === 0) return `No readings ${span}.`;
+  const unit = ctx.unit ? ` ${ctx.unit}` : '';
+  const what =
+    series.shape === 'readings'
+      ? `${series.value.filter((v) => v !== null).length} readings`
+      : `${series.t.length} buckets of ${Math.round(series.bucketMs / 60_000)} min (mean with minimum–maximum envelope, from ${series.source === 'rollup' ? 'rollups' : 'raw readings'})`;
+  const outside = outOfRangePoints(series, ctx.validMin, ctx.validMax).length;
+  const fmt = (v: number) => Number(v.toPrecision(6));
+  return `${what} ${span}; lowest ${fmt(Math.min(...values))}${unit}, highest ${fmt(Math.max(...values))}${unit}${outside ? `; ${outside} outside the valid range` : ''}.`;
+}

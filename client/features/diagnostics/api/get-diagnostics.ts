@@ -1,0 +1,152 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { apiFetch } from '../../../lib/api-client.ts';
+
+/**
+ * What the diagnostics panel asks for; optional fields fall back to the server's defaults.
+ * Mirrors the server's `DiagnosticsParams`: importing it (even as a type) would pull the numeric
+ * engine's typings into the client's type-check.
+ */
+export interface DiagnosticsParams {
+  from: number;
+  to: number;
+  step?: number;
+  agg: 'mean' | 'median' | 'last' | 'min' | 'max';
+  difference: number;
+  seasonalDifference: number;
+  maxLag?: number;
+  period: 'auto' | 'none' | number;
+  decomposition: 'stl' | 'stl-robust' | 'classical' | 'none';
+  alpha: number;
+  ccfWith?: number;
+}
+
+export interface ReportChannel {
+  id: number;
+  key: string;
+  label: string;
+  unit: string | null;
+  quantity: string | null;
+  logger: { id: number; name: string; site: string | null; timezone: string };
+}
+
+export interface PeriodCandidate {
+  period: number;
+  periodS: number;
+  exactPeriod: number;
+  acf: number;
+  peakRatio: number;
+  pValue: number;
+  sources: string[];
+  significant: boolean;
+}
+
+export interface LjungBoxRow {
+  lag: number;
+  statistic: number;
+  df: number;
+  pValue: number;
+}
+
+export interface Outliers {
+  threshold: number;
+  median: number;
+  robustSd: number;
+  indices: number[];
+  times: number[];
+  values: number[];
+}
+
+export type Decomposition =
+  | { method: 'none'; reason: string }
+  | {
+      method: 'stl' | 'stl-robust' | 'classical';
+      period: number;
+      trend: Array<number | null>;
+      seasonal: Array<number | null>;
+      remainder: Array<number | null>;
+      weights: Array<number | null> | null;
+      outliers: Outliers;
+    };
+
+export interface CrossCorrelation {
+  with: ReportChannel;
+  pairs: number;
+  lags: number[];
+  values: Array<number | null>;
+  band: number;
+  strongest: { lag: number; lagMs: number; value: number; significant: boolean } | null;
+  explanation: string;
+}
+
+/** The diagnostics answer; every number comes from the server's engine (see the API README). */
+export interface DiagnosticsReport {
+  cached: boolean;
+  channel: ReportChannel;
+  method: {
+    parameters: Record<string, unknown>;
+    resolved: Record<string, unknown> & { from: number; to: number; stepS: number; maxLag: number; alpha: number; period: number | null; periodSource: string };
+    notes: string[];
+    references: string[];
+  };
+  series: { start: number; stepMs: number; n: number; missing: number; readings: number; emptyCells: number[] };
+  analysed: { n: number; missing: number };
+  period: { used: number | null; source: string; candidates: PeriodCandidate[] };
+  acf: { lags: number[]; values: Array<number | null> };
+  pacf: { lags: number[]; values: Array<number | null> };
+  bands: { alpha: number; z: number; whiteNoise: number; bartlett: number[] };
+  ljungBox: LjungBoxRow[];
+  identification: {
+    verdict: 'white-noise' | 'ar' | 'ma' | 'arma' | 'needs-differencing' | 'seasonal';
+    p?: number;
+    q?: number;
+    period?: number;
+    explanation: string;
+    evidence: Record<string, unknown>;
+    gapsFilled: boolean;
+  };
+  effectiveSampleSize: {
+    n: number;
+    ess: number;
+    tau: number;
+    lagsUsed: number;
+    mean: number;
+    standardError: number;
+    confidenceInterval: [number, number];
+    alpha: number;
+  };
+  decomposition: Decomposition;
+  crossCorrelation: CrossCorrelation | null;
+}
+
+const base = (slug: string, channelId: number) => `/api/v1/labs/${encodeURIComponent(slug)}/channels/${channelId}`;
+
+/** The query string of a diagnostics request; parameters left out take the server's defaults. */
+export function diagnosticsSearch(p: DiagnosticsParams): string {
+  const q = new URLSearchParams();
+  for (const [k, v] of Object.entries(p)) if (v !== undefined && v !== '') q.set(k, String(v));
+  return q.toString();
+}
+
+/** `GET …/channels/:channelId/diagnostics?…`; aborting `signal` drops the request, and the server then cancels the work. */
+export function getDiagnostics(slug: string, channelId: number, params: DiagnosticsParams, signal?: AbortSignal): Promise<DiagnosticsReport> {
+  return apiFetch(`${base(slug, channelId)}/diagnostics?${diagnosticsSearch(params)}`, { signal });
+}
+
+/** Links to the diagnostics as JSON (the answer itself) and as the server's CSV table. */
+export function diagnosticsExportUrls(slug: string, channelId: number, params: DiagnosticsParams): { json: string; csv: string } {
+  const search = diagnosticsSearch(params);
+  return { json: `${base(slug, channelId)}/diagnostics?${search}`, csv: `${base(slug, channelId)}/diagnostics.csv?${search}` };
+}
+
+export const diagnosticsQueryOptions = (slug: string, channelId: number, params: DiagnosticsParams | null) =>
+  queryOptions({
+    queryKey: ['labs', slug, 'diagnostics', channelId, params],
+    queryFn: ({ signal }) => getDiagnostics(slug, channelId, params!, signal),
+    enabled: params !== null,
+    staleTime: 5 * 60_000,
+  });
+
+/** The diagnostics for `params`, fetched only once `params` is set (the "Analyse" button). */
+export function useDiagnostics(slug: string, channelId: number, params: DiagnosticsParams | null) {
+  return useQuery(diagnosticsQueryOptions(slug, channelId, params));
+}

@@ -1,0 +1,36 @@
+import { useMemo } from 'react';
+import { EChart } from '../../../components/charts/echart.tsx';
+import { formatZoned } from '../../../components/zoned-time.ts';
+import type { DiagnosticsReport } from '../api/get-diagnostics.ts';
+import { decompositionChartOption } from './decomposition-chart-option.ts';
+
+const METHOD_NAMES = { stl: 'STL', 'stl-robust': 'robust STL', classical: 'classical additive decomposition' } as const;
+
+/** The seasonal decomposition as stacked panels, or why there is none. */
+export function DecompositionPanel({ report, timezone, pngPrefix }: { report: DiagnosticsReport; timezone: string; pngPrefix: string }) {
+  const d = report.decomposition;
+  const option = useMemo(() => (d.method === 'none' ? null : decompositionChartOption(d, report.series, timezone)), [d, report.series, timezone]);
+  if (d.method === 'none' || !option) {
+    return (
+      <p className="text-sm text-ink-soft" data-testid="no-decomposition">
+        No decomposition: {d.method === 'none' ? d.reason : ''}
+      </p>
+    );
+  }
+  const o = d.outliers;
+  const outliers =
+    o.indices.length === 0
+      ? 'no remainder outliers'
+      : `${o.indices.length} remainder outlier${o.indices.length === 1 ? '' : 's'} (|remainder − ${o.median.toPrecision(3)}| > ${o.threshold} × ${o.robustSd.toPrecision(3)}), first at ${formatZoned(o.times[0], timezone)}`;
+  return (
+    <div data-testid="decomposition">
+      <EChart
+        option={option}
+        label={`Seasonal decomposition (${METHOD_NAMES[d.method]}, period ${d.period} steps): observed, trend, seasonal and remainder`}
+        summary={`${METHOD_NAMES[d.method]} with a period of ${d.period} steps; ${outliers}. Times on the logger’s clock (${timezone}).`}
+        height={560}
+        pngName={`${pngPrefix}-decomposition`}
+      />
+    </div>
+  );
+}

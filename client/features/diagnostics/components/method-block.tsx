@@ -1,0 +1,40 @@
+import type { DiagnosticsReport } from '../api/get-diagnostics.ts';
+
+const show = (v: unknown): string => (v === null || v === undefined ? '—' : typeof v === 'object' ? JSON.stringify(v) : String(v));
+
+/**
+ * Exactly what was computed, as the server reports it: the resolved parameters, the steps taken
+ * with the data and the published methods, so a figure can be reproduced and cited.
+ */
+export function MethodBlock({ method, cached }: { method: DiagnosticsReport['method']; cached: boolean }) {
+  const r = method.resolved;
+  return (
+    <section aria-labelledby="method-heading" className="grid gap-2 text-sm">
+      <h4 id="method-heading" className="font-semibold">
+        Method and parameters
+      </h4>
+      <dl className="grid gap-x-4 gap-y-0.5 font-mono text-xs sm:grid-cols-[auto_1fr]">
+        {Object.entries(r).map(([k, v]) => (
+          <div key={k} className="contents">
+            <dt className="text-ink-soft">{k}</dt>
+            <dd className="break-all">{k === 'from' || k === 'to' ? `${new Date(Number(v)).toISOString()} (${show(v)})` : show(v)}</dd>
+          </div>
+        ))}
+      </dl>
+      <ul className="list-disc pl-5">
+        {method.notes.map((n) => (
+          <li key={n}>{n}</li>
+        ))}
+      </ul>
+      <p className="font-medium">References</p>
+      <ul className="list-disc pl-5 text-ink-soft">
+        {method.references.map((n) => (
+          <li key={n}>{n}</li>
+        ))}
+      </ul>
+      <p className="text-xs text-ink-soft" data-testid="cached">
+        {cached ? 'Served from the result cache (same data version and parameters).' : 'Computed for this request.'}
+      </p>
+    </section>
+  );
+}

@@ -1,0 +1,47 @@
+import type { DiagnosticsReport } from '../api/get-diagnostics.ts';
+import { fmtP, fmtSeconds, fmtStat } from './format-number.ts';
+
+/** The seasonal periods the engine considered, the one used and where it came from. */
+export function PeriodCandidates({ period }: { period: DiagnosticsReport['period'] }) {
+  const used = period.used === null ? 'none' : `${period.used} steps (${period.source === 'manual' ? 'set by hand' : 'detected'})`;
+  return (
+    <section aria-labelledby="periods-heading" className="grid gap-2 text-sm">
+      <h4 id="periods-heading" className="font-semibold">
+        Seasonal period
+      </h4>
+      <p>Used: {used}</p>
+      {period.candidates.length === 0 ? (
+        <p className="text-ink-soft">No period candidates.</p>
+      ) : (
+        <table className="w-full border-collapse text-left">
+          <caption className="sr-only">Period candidates</caption>
+          <thead className="border-b border-rule text-xs uppercase tracking-wide text-ink-soft">
+            <tr>
+              <th scope="col" className="py-1 pr-3">Period</th>
+              <th scope="col" className="py-1 pr-3">Length</th>
+              <th scope="col" className="py-1 pr-3">ACF there</th>
+              <th scope="col" className="py-1 pr-3">Peak ratio</th>
+              <th scope="col" className="py-1 pr-3">p-value</th>
+              <th scope="col" className="py-1">Seen in</th>
+            </tr>
+          </thead>
+          <tbody>
+            {period.candidates.map((c) => (
+              <tr key={c.period} className={`border-b border-rule/60 last:border-b-0 ${c.significant ? 'font-semibold' : ''}`}>
+                <td className="py-1 pr-3 font-mono">{c.period}</td>
+                <td className="py-1 pr-3">{fmtSeconds(c.periodS)}</td>
+                <td className="py-1 pr-3 font-mono">{fmtStat(c.acf, 3)}</td>
+                <td className="py-1 pr-3 font-mono">{fmtStat(c.peakRatio, 3)}</td>
+                <td className="py-1 pr-3 font-mono">{fmtP(c.pValue)}</td>
+                <td className="py-1">
+                  {c.sources.join(' and ')}
+                  {c.significant ? ' · significant' : ''}
+                </td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      )}
+    </section>
+  );
+}

@@ -1,0 +1,159 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { buildTestApp, type TestApp } from '../support/test-app.ts';
+import { buildLab, type TestLab } from '../support/factories.ts';
+import { keepScreenshot, launchBrowser, signInAtProvider } from '../support/browser.ts';
+import { ingestBatch, type IncomingReading } from '../../server/services/ingest/ingest-batch.ts';
+import { DEV_ACCOUNTS } from '../../docker-free-scripts/identity-provider/dev-accounts.ts';
+
+const scientist = DEV_ACCOUNTS.find((a) => a.role === 'scientist')!;
+
+// A fictional orchard plot, named afresh on every run. Simulated data (for a behaviour test, not
+// a numeric one): drip irrigation runs in short random pulses; soil moisture answers each pulse
+// exactly 24 steps (2 h) later on top of a daily drying cycle, so its cross-correlation with the
+// flow peaks at lag +24.
+const run = Date.now().toString(36);
+const STEP_MS = 300_000;
+const DAYS = 4;
+const N = (DAYS * 86_400_000) / STEP_MS;
+const LAG_STEPS = 24;
+
+/** A seeded linear congruential generator (Numerical Recipes constants), so every run sees the same data. */
+function lcg(seed: number) {
+  let s = seed >>> 0;
+  return () => {
+    s = (Math.imul(s, 1664525) + 1013904223) >>> 0;
+    return s / 2 ** 32;
+  };
+}
+
+function simulate(): { flow: number[]; moisture: number[] } {
+  const rnd = lcg(20260512);
+  const flow = Array.from({ length: N }, () => (rnd() < 0.06 ? 80 + 120 * rnd() : 0));
+  const moisture = flow.map((_, i) => {
+    const daily = -2.5 * Math.sin((2 * Math.PI * i) / 288);
+    const pulse = i >= LAG_STEPS ? 0.06 * flow[i - LAG_STEPS] : 0;
+    return 28 + daily + pulse + 0.4 * (rnd() - 0.5);
+  });
+  return { flow, moisture };
+}
+
+let t: TestApp;
+let appUrl: string;
+let browser: Awaited<ReturnType<typeof launchBrowser>>;
+let page: Page;
+let lab: TestLab;
+let soilId = 0;
+
+beforeAll(async () => {
+  t = await buildTestApp();
+  appUrl = await t.listen();
+  browser = await launchBrowser();
+  await browser.context.clearCookies();
+  page = await browser.context.newPage();
+
+  // First sign-in creates the scientist's user row; then make that person a scientist of a fresh lab.
+  await page.goto(`${appUrl}/sign-in`);
+  await page.getByRole('link', { name: "Continue with your institution's account" }).click();
+  await page.waitForURL((u) => u.href.startsWith(t.config.oidc.issuer));
+  await signInAtProvider(page, scientist);
+  await page.getByRole('button', { name: 'Allow' }).click();
+  await page.getByTestId('signed-in-name').waitFor();
+  const user = await t.db('users').where({ oidc_issuer: t.config.oidc.issuer, oidc_subject: scientist.sub }).first();
+  lab = await buildLab(t.db, { name: `Quincewood Orchard ${run}` });
+  await t.db('memberships').insert({ tenant_id: lab.id, user_id: user.id, role: 'scientist' });
+
+  const id = () => Math.floor(Math.random() * 2 ** 40) + 1;
+  const loggerId = id();
+  await t.db('loggers').insert({ tenant_id: lab.id, id: loggerId, name: `Row 7 mast ${run}`, site: 'Quince rows, east block', timezone: 'Europe/Lisbon', expected_interval_s: 300 });
+  soilId = id();
+  await t.db('channels').insert([
+    { tenant_id: lab.id, id: id(), logger_id: loggerId, channel_key: 'drip_flow', label: 'Drip irrigation flow', unit: 'L/h', valid_min: 0, valid_max: 400 },
+    { tenant_id: lab.id, id: soilId, logger_id: loggerId, channel_key: 'soil_vwc', label: 'Soil moisture', unit: '%', valid_min: 0, valid_max: 60 },
+  ]);
+  const { flow, moisture } = simulate();
+  const end = Math.floor(Date.now() / STEP_MS) * STEP_MS;
+  const start = end - (N - 1) * STEP_MS;
+  const rows: IncomingReading[] = [];
+  for (let i = 0; i < N; i++) {
+    rows.push({ index: rows.length, channel: 'drip_flow', ts: start + i * STEP_MS, value: Math.round(flow[i] * 100) / 100 });
+    rows.push({ index: rows.length, channel: 'soil_vwc', ts: start + i * STEP_MS, value: Math.round(moisture[i] * 1000) / 1000 });
+  }
+  for (let i = 0; i < rows.length; i += 1000) {
+    const outcome = await ingestBatch(t.db, { tenantId: lab.id, loggerId }, rows.slice(i, i + 1000), { source: 'api' });
+    expect(outcome.quarantined).toEqual([]);
+  }
+});
+afterAll(async () => {
+  await browser?.close();
+  await t?.close();
+});
+
+const chartsReady = (scope: ReturnType<Page['locator']>, count: number) =>
+  expect
+    .poll(async () => scope.locator('figure[data-chart-ready="true"]').count(), { timeout: 30_000, interval: 250 })
+    .toBeGreaterThanOrEqual(count);
+
+describe('browsing channels and reading their diagnostics', () => {
+  it('lists the channels with status and sparkline, and opens one from the keyboard with visible focus', async () => {
+    await page.goto(`${appUrl}/labs/${lab.slug}`);
+    await page.getByRole('navigation', { name: 'Lab sections' }).getByRole('link', { name: 'Channels' }).click();
+    const table = page.getByRole('table', { name: 'Channels of the lab' });
+    await table.getByRole('link', { name: 'Soil moisture' }).waitFor();
+    expect(await table.getByRole('row').count()).toBe(3); // header + two channels
+    expect(await table.locator('[data-status="live"]').count()).toBe(4); // two rows, two badges
+    expect(await table.getByRole('img', { name: /Hourly means over the last 24 hours/ }).count()).toBe(2);
+    await keepScreenshot(page, 'channels-table');
+
+    // Keyboard: from the search field, Tab until a channel link has focus; it must show its focus ring.
+    await page.getByLabel('Find').focus();
+    let onLink = false;
+    for (let i = 0; i < 30 && !onLink; i++) {
+      await page.keyboard.press('Tab');
+      onLink = await page.evaluate(() => document.activeElement?.textContent === 'Soil moisture' && document.activeElement.tagName === 'A');
+    }
+    expect(onLink).toBe(true);
+    const focus = await page.evaluate(() => {
+      const el = document.activeElement as HTMLElement;
+      const style = getComputedStyle(el);
+      return { visible: el.matches(':focus-visible'), outline: style.outlineStyle, width: style.outlineWidth };
+    });
+    expect(focus).toEqual({ visible: true, outline: 'solid', width: '3px' });
+    await keepScreenshot(page, 'channels-keyboard-focus');
+    await page.keyboard.press('Enter');
+    await page.waitForURL(`${appUrl}/labs/${lab.slug}/channels/${soilId}`);
+  });
+
+  it('draws the readings chart in the logger’s time zone', async () => {
+    await page.getByRole('heading', { name: 'Soil moisture', level: 2 }).waitFor();
+    expect(await page.getByText(/Europe\/Lisbon \(now UTC\+0[01]:00\)/).count()).toBe(1);
+    const readings = page.getByRole('region', { name: 'Readings' });
+    await chartsReady(readings, 1);
+    expect(await readings.locator('figcaption').textContent()).toMatch(/^\d+ readings from .* \(Europe\/Lisbon, UTC\+0[01]:00\); lowest .* %, highest .* %\.$/);
+    await keepScreenshot(page, 'channel-readings');
+  });
+
+  it('runs the diagnostics and shows the ACF, PACF and the decomposition', async () => {
+    const panel = page.getByRole('region', { name: 'Diagnostics' });
+    await panel.getByRole('button', { name: 'Analyse' }).click();
+    await panel.getByTestId('diagnostics-results').waitFor({ timeout: 60_000 });
+    await chartsReady(panel, 3); // ACF, PACF, decomposition
+    expect(await panel.getByRole('img', { name: 'Autocorrelation function (ACF)' }).count()).toBe(1);
+    expect(await panel.getByRole('img', { name: /^Seasonal decomposition \(STL, period \d+ steps\)/ }).count()).toBe(1);
+    expect(await panel.getByRole('table', { name: /Ljung–Box tests/ }).getByRole('row').count()).toBeGreaterThan(1);
+    expect(await panel.getByTestId('verdict').textContent()).not.toBe('');
+    expect(await panel.getByText('Method and parameters').count()).toBe(1);
+    await keepScreenshot(page, 'channel-diagnostics');
+  });
+
+  it('cross-correlates with the irrigation flow and states the lag in words', async () => {
+    const panel = page.getByRole('region', { name: 'Cross-correlation' });
+    expect(await panel.getByLabel('Compare with').inputValue()).not.toBe('');
+    await panel.getByRole('button', { name: 'Cross-correlate' }).click();
+    const sentence = panel.getByTestId('ccf-sentence');
+    await sentence.waitFor({ timeout: 60_000 });
+    expect(await sentence.textContent()).toMatch(/at lag 24, lies outside .* band: Soil moisture trails Drip irrigation flow by 2 h, and the two rise and fall together\./);
+    await chartsReady(panel, 1);
+    await keepScreenshot(page, 'channel-cross-correlation');
+  });
+});
