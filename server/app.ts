@@ -39,6 +39,10 @@ import { uploadRoutes } from './http/loggers/uploads.router.ts';
 import { createChannelsService } from './services/channels.service.ts';
 import { createDiagnosticsService } from './services/diagnostics.service.ts';
 import { channelRoutes } from './http/channels/channels.router.ts';
+import { createPersonalTokensService } from './services/personal-tokens.service.ts';
+import { tokenRoutes } from './http/tokens/tokens.router.ts';
+import { buildOpenApiDocument } from './http/openapi/openapi-document.ts';
+import { openApiRouter } from './http/openapi/openapi.router.ts';
 import type { AnalysisPool } from './workers/analysis-pool.ts';
 
 /** Everything the app talks to, handed in so tests can build it with stand-ins. */
@@ -85,7 +89,8 @@ export function createApp(deps: AppDeps): Express {
   const ingest = createIngestService({ db, now: nowMs });
   const channels = createChannelsService({ db, now: nowMs });
   const diagnostics = createDiagnosticsService({ db, channels, pool: deps.analysisPool });
-  const labRouteTable = mountLabRoutes(createLabGuard(db), [
+  const tokens = createPersonalTokensService({ db, now: deps.now });
+  const labRouteTable = mountLabRoutes(createLabGuard(db, { tokens }), [
     ...labRoutes(),
     ...memberRoutes({ members }),
     ...invitationRoutes({ invitations }),
@@ -94,12 +99,14 @@ export function createApp(deps: AppDeps): Express {
     ...quarantineRoutes({ quarantine }),
     ...uploadRoutes({ db, logger, now: nowMs }),
     ...channelRoutes({ channels, diagnostics, now: nowMs }),
+    ...tokenRoutes({ tokens }),
   ]);
   // The route table, for the role × route test (every lab route and its permission).
   app.locals.labRoutes = labRouteTable.table satisfies LabRouteSummary[];
 
   app.use(securityHeaders({ secure: config.secureCookies }));
   app.use(healthRouter({ db }));
+  app.use(openApiRouter({ document: buildOpenApiDocument(labRouteTable.table, { serverUrl: config.publicUrl }) }));
   // Loggers authenticate with their key, not a session: ingestion comes before the session
   // middleware and takes its own (larger) body limits.
   app.use(ingestRouter({ ingest, rate: deps.ingestRate }));

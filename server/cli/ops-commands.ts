@@ -8,6 +8,12 @@ import { createLabSchema } from '../http/labs/labs.schema.ts';
 import { parseInput } from '../http/validate.ts';
 import type { LabContext } from '../services/lab-context.ts';
 import { AppError } from '../errors.ts';
+import { inLab } from '../db/tenant-scope.ts';
+import { membershipsIn } from '../db/memberships.repo.ts';
+import { createUsersRepo } from '../db/users.repo.ts';
+import { can } from '../policies/permissions.ts';
+import { createPersonalTokensService } from '../services/personal-tokens.service.ts';
+import { createPersonalTokenSchema } from '../http/tokens/tokens.schema.ts';
 
 /** What each operator command returns (printed as text, or as JSON with --json). */
 export interface CommandResult {
@@ -76,5 +82,30 @@ export async function registerLoggerCommand(
       `  ${issued.key}`,
     ].join('\n'),
     json: { loggerId: logger.id, channels: logger.channels.map((c) => ({ id: c.id, key: c.key })), ingestKey: issued.key },
+  };
+}
+
+/**
+ * `mint-token`: a personal API token for a member of a lab (scientist and above), for a
+ * notebook or script on their behalf. Printed once; only its hash is stored.
+ */
+export async function mintTokenCommand(db: Db, opts: { lab: string; email: string; name: string; days: number }): Promise<CommandResult> {
+  const lab = await labContext(db, opts.lab);
+  const input = parseInput(createPersonalTokenSchema, { name: opts.name, expiresInDays: opts.days });
+  const email = opts.email.trim().toLowerCase();
+  const member = (await membershipsIn(inLab(db, lab.id)).list()).find((m) => m.email.toLowerCase() === email);
+  if (!member) throw new AppError(404, 'not_found', `${opts.email} is not a member of ${lab.slug}.`);
+  if (!can(member.role, 'tokens.manage-own')) throw new AppError(403, 'forbidden', `${opts.email} is a ${member.role} in ${lab.slug}; personal tokens are for scientists and above.`);
+  const user = (await createUsersRepo(db).findById(member.userId))!;
+  const actor = { id: user.id, email: user.email, emailVerified: user.emailVerified, displayName: user.displayName };
+  const issued = await createPersonalTokensService({ db }).create({ ...lab, role: member.role }, actor, input);
+  const expiresAt = issued.info.expiresAt.toISOString();
+  return {
+    text: [
+      `Personal token "${issued.info.name}" for ${user.email} in ${lab.slug} (reads only; expires ${expiresAt}).`,
+      'Token (shown once; hand it to its owner now):',
+      `  ${issued.token}`,
+    ].join('\n'),
+    json: { token: issued.token, tokenId: issued.info.id, prefix: issued.info.prefix, lab: lab.slug, email: user.email, expiresAt },
   };
 }

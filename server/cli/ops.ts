@@ -6,7 +6,7 @@ import { parseArgs } from 'node:util';
 import { loadDatabaseConfig } from '../config.ts';
 import { createDb } from '../db/create-db.ts';
 import { AppError, ConfigError } from '../errors.ts';
-import { createLabCommand, registerLoggerCommand, type CommandResult } from './ops-commands.ts';
+import { createLabCommand, mintTokenCommand, registerLoggerCommand, type CommandResult } from './ops-commands.ts';
 import { seedDemo } from './seed-demo.ts';
 
 const HELP = `Lagbook operator commands
@@ -23,6 +23,10 @@ Commands:
                   [--channel <key>[:<label>[:<unit>[:<min>:<max>]]]]...
       Register a logger with its channels and print its ingest key (shown once).
       Example: --channel air_t:"Air temperature":°C:-40:60 --channel rh:Humidity:%:0:100
+
+  mint-token --lab <slug> --email <member e-mail> --name <name> [--days <1-365, default 90>]
+      Make a personal API token (read routes only) for a scientist, technician or admin
+      of the lab and print it (shown once). They can revoke it on their tokens page.
 
   seed-demo [--issuer <OIDC issuer>] [--force]
       Load the demo lab (tenants/demo) with its members as the local identity provider's
@@ -69,6 +73,8 @@ async function run(argv: string[]): Promise<CommandResult | null> {
       help: { type: 'boolean', default: false },
       issuer: { type: 'string' },
       force: { type: 'boolean', default: false },
+      email: { type: 'string' },
+      days: { type: 'string', default: '90' },
     },
     strict: true,
   });
@@ -94,6 +100,8 @@ async function run(argv: string[]): Promise<CommandResult | null> {
           channels: values.channel as string[],
         });
       }
+      case 'mint-token':
+        return await mintTokenCommand(db, { lab: need(values, 'lab'), email: need(values, 'email'), name: need(values, 'name'), days: Number(values.days) });
       case 'seed-demo': {
         if (process.env.NODE_ENV === 'production' && !values.force) fail('seed-demo refuses to run in production without --force');
         const issuer = values.issuer ?? process.env.OIDC_ISSUER;

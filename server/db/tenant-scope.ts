@@ -13,7 +13,8 @@ export type LabOwnedTable =
   | 'ingest_keys'
   | 'readings'
   | 'reading_rollups'
-  | 'quarantined_rows';
+  | 'quarantined_rows'
+  | 'personal_tokens';
 
 export type DbOrTrx = Knex | Knex.Transaction;
 

@@ -1,4 +1,5 @@
 import { Router, type Request, type Response } from 'express';
+import type { z } from 'zod';
 import type { Permission } from '../policies/permissions.ts';
 import type { LabGuard } from './middleware/lab-guard.ts';
 
@@ -8,11 +9,19 @@ export interface LabRoute {
   /** Path below `/api/v1/labs/:lab`, e.g. `/members/:userId` ('' for the lab itself). */
   path: string;
   permission: Permission;
+  /** One short sentence for the API document (`GET /api/v1/openapi.json`). */
+  summary: string;
+  /** The schema the handler validates its body with (documented from the same object). */
+  body?: z.ZodType;
+  /** Media type of the body when it is not JSON (e.g. an uploaded `text/csv` file). */
+  bodyMediaType?: string;
+  /** The schema the handler validates its query string with. */
+  query?: z.ZodType;
   handle: (req: Request, res: Response) => Promise<void>;
 }
 
-/** What the route table exposes (tests generate the role matrix from it). */
-export type LabRouteSummary = Pick<LabRoute, 'method' | 'path' | 'permission'>;
+/** What the route table exposes (tests generate the role matrix from it; the API document too). */
+export type LabRouteSummary = Omit<LabRoute, 'handle'>;
 
 /**
  * Mounts lab routes behind the one lab guard. Every lab route is declared through here, so
@@ -23,5 +32,5 @@ export function mountLabRoutes(guard: LabGuard, routes: LabRoute[]): { router: R
   for (const r of routes) {
     router[r.method](`/api/v1/labs/:lab${r.path}`, guard(r.permission), r.handle);
   }
-  return { router, table: routes.map(({ method, path, permission }) => ({ method, path, permission })) };
+  return { router, table: routes.map(({ handle: _handle, ...summary }) => summary) };
 }

@@ -11,7 +11,7 @@ import type { LabRouteSummary } from '../../server/http/lab-routes.ts';
  * readings with B's channel keys. Every answer must be a 404 (or a quarantine in A) that
  * carries none of B's data, and B's rows must be byte-for-byte unchanged afterwards.
  */
-const LAB_OWNED_TABLES = ['memberships', 'invitations', 'audit_events', 'loggers', 'channels', 'ingest_keys', 'readings', 'reading_rollups', 'quarantined_rows'];
+const LAB_OWNED_TABLES = ['memberships', 'invitations', 'audit_events', 'loggers', 'channels', 'ingest_keys', 'readings', 'reading_rollups', 'quarantined_rows', 'personal_tokens'];
 
 let t: TestApp;
 let routes: LabRouteSummary[];

@@ -48,6 +48,11 @@ const ALLOWED: Record<string, { roles: Role[]; ok: number }> = {
   'GET /channels/:channelId/diagnostics': { roles: ALL, ok: 422 },
   'GET /channels/:channelId/readings.csv': { roles: ['admin', 'technician', 'scientist'], ok: 200 },
   'GET /channels/:channelId/diagnostics.csv': { roles: ['admin', 'technician', 'scientist'], ok: 422 },
+  'GET /tokens': { roles: ['admin', 'technician', 'scientist'], ok: 200 },
+  'POST /tokens': { roles: ['admin', 'technician', 'scientist'], ok: 201 },
+  // The fixture's token is the founder's: a permitted caller passes the guard and is told it
+  // has no such token of its own (404, same as a missing one); a guest is refused (403).
+  'DELETE /tokens/:tokenId': { roles: ['admin', 'technician', 'scientist'], ok: 404 },
 };
 
 type Caller = Role | 'signed-out' | 'non-member';

@@ -3,7 +3,8 @@ import { execFile } from 'node:child_process';
 import { promisify } from 'node:util';
 import request from 'supertest';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
-import { buildUser, sessionCookieFor } from '../support/factories.ts';
+import { buildLab, buildMember, buildUser, sessionCookieFor } from '../support/factories.ts';
+import { hashPersonalToken } from '../../server/services/personal-token-format.ts';
 
 const run = promisify(execFile);
 
@@ -30,6 +31,37 @@ describe('operator CLI', () => {
     expect(res.code).toBe(0);
     expect(res.stdout).toContain('create-lab --name <name> --admin <email>');
     expect(res.stdout).toContain('register-logger --lab <slug>');
+    expect(res.stdout).toContain('mint-token --lab <slug> --email <member e-mail> --name <name>');
+  });
+
+  it("mint-token prints a personal token once; it reads the member's lab and is stored only hashed", async () => {
+    const lab = await buildLab(t.db);
+    const member = await buildMember(t.db, lab, { role: 'scientist' });
+    const res = await ops('mint-token', '--lab', lab.slug, '--email', member.email.toUpperCase(), '--name', 'Field notebook', '--days', '7', '--json');
+    expect(res.code).toBe(0);
+    const out = JSON.parse(res.stdout);
+    expect(out.token).toMatch(/^lbt_[0-9a-f]{12}_[A-Za-z0-9_-]{43}$/);
+    const row = await t.db('personal_tokens').where({ tenant_id: lab.id, id: out.tokenId }).first();
+    expect([row.user_id, row.name, row.token_hash]).toEqual([member.id, 'Field notebook', hashPersonalToken(out.token)]);
+    expect(Math.abs(row.expires_at.getTime() - row.created_at.getTime() - 7 * 86_400_000)).toBeLessThan(1000);
+    const read = await request(t.app).get(`/api/v1/labs/${lab.slug}/channels`).set('Authorization', `Bearer ${out.token}`).expect(200);
+    expect(read.body.channels).toEqual([]);
+    const text = await ops('mint-token', '--lab', lab.slug, '--email', member.email, '--name', 'Second');
+    expect(text.code).toBe(0);
+    expect(text.stdout).toMatch(/Token \(shown once; hand it to its owner now\):\n {2}lbt_[0-9a-f]{12}_/);
+  });
+
+  it('mint-token refuses guests, strangers and bad expiries with exit code 2', async () => {
+    const lab = await buildLab(t.db);
+    const guest = await buildMember(t.db, lab, { role: 'guest' });
+    const stranger = await buildUser(t.db);
+    const g = await ops('mint-token', '--lab', lab.slug, '--email', guest.email, '--name', 'x');
+    expect([g.code, g.stderr.trim()]).toEqual([2, `ops: ${guest.email} is a guest in ${lab.slug}; personal tokens are for scientists and above.`]);
+    const s = await ops('mint-token', '--lab', lab.slug, '--email', stranger.email, '--name', 'x');
+    expect([s.code, s.stderr.trim()]).toEqual([2, `ops: ${stranger.email} is not a member of ${lab.slug}.`]);
+    const d = await ops('mint-token', '--lab', lab.slug, '--email', guest.email, '--name', 'x', '--days', '400');
+    expect([d.code, d.stderr.trim()]).toEqual([2, 'ops: expiresInDays: must be at most 365']);
+    expect(await t.db('personal_tokens').where({ tenant_id: lab.id })).toHaveLength(0);
   });
 
   it('create-lab makes a person who has signed in before the admin at once', async () => {

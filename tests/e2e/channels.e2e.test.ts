@@ -110,14 +110,15 @@ describe('browsing channels and reading their diagnostics', () => {
     let onLink = false;
     for (let i = 0; i < 30 && !onLink; i++) {
       await page.keyboard.press('Tab');
-      onLink = await page.evaluate(() => document.activeElement?.textContent === 'Soil moisture' && document.activeElement.tagName === 'A');
+      // evaluated in the page (a string keeps DOM types out of the server-side type-check)
+      onLink = await page.evaluate<boolean>("document.activeElement?.textContent === 'Soil moisture' && document.activeElement.tagName === 'A'");
     }
     expect(onLink).toBe(true);
-    const focus = await page.evaluate(() => {
-      const el = document.activeElement as HTMLElement;
+    const focus = await page.evaluate<{ visible: boolean; outline: string; width: string }>(`(() => {
+      const el = document.activeElement;
       const style = getComputedStyle(el);
       return { visible: el.matches(':focus-visible'), outline: style.outlineStyle, width: style.outlineWidth };
-    });
+    })()`);
     expect(focus).toEqual({ visible: true, outline: 'solid', width: '3px' });
     await keepScreenshot(page, 'channels-keyboard-focus');
     await page.keyboard.press('Enter');

@@ -1,14 +1,15 @@
 import type { Knex } from 'knex';
 import { buildLab, buildMember, type TestLab } from './factories.ts';
 import { newIngestKey } from '../../server/services/ingest-key-format.ts';
+import { newPersonalToken } from '../../server/services/personal-token-format.ts';
 
 let seq = 0;
 const rid = () => Math.floor(Math.random() * 2 ** 40) + 1 + seq++;
 
 /**
  * A lab with one of every lab-owned thing a route can address: a guest member, a pending
- * invitation, a logger with a channel and an ingest key, and a quarantined row. `params`
- * maps each route parameter name to the id of that lab's thing.
+ * invitation, a logger with a channel and an ingest key, a quarantined row, and a personal
+ * token of the founder's. `params` maps each route parameter name to the id of that lab's thing.
  */
 export async function buildLabWithEverything(db: Knex, overrides: Partial<{ name: string }> = {}) {
   const lab: TestLab = await buildLab(db, overrides);
@@ -43,13 +44,25 @@ export async function buildLabWithEverything(db: Knex, overrides: Partial<{ name
     ts_raw: '2026-01-01T00:00:00Z',
     value_raw: '"warm"',
   });
+  const personal = newPersonalToken();
+  const tokenId = rid();
+  await db('personal_tokens').insert({
+    tenant_id: lab.id,
+    id: tokenId,
+    user_id: founder.id,
+    name: 'Founder notebook',
+    prefix: personal.prefix,
+    token_hash: personal.hash,
+    expires_at: new Date(Date.now() + 30 * 86400_000),
+  });
   return {
     lab,
     founder,
     guest,
     ingestKey: key.key,
-    ids: { loggerId, channelId, keyId, quarantinedId, invitationId },
-    params: { userId: guest.id, id: invitationId, loggerId, channelId, keyId } as Record<string, number>,
+    personalToken: personal.token,
+    ids: { loggerId, channelId, keyId, quarantinedId, invitationId, tokenId },
+    params: { userId: guest.id, id: invitationId, loggerId, channelId, keyId, tokenId } as Record<string, number>,
   };
 }
 
@@ -83,6 +96,7 @@ export function validBodyFor(method: string, path: string, f: LabWithEverything)
     'PATCH /loggers/:loggerId/channels/:channelId': { label: 'Air temperature (shaded)' },
     'POST /loggers/:loggerId/keys': { rotate: false },
     'POST /quarantine/discard': { ids: [f.ids.quarantinedId] },
+    'POST /tokens': { name: `Notebook ${unique}`, expiresInDays: 30 },
     'POST /quarantine/resubmit': { rows: [{ id: f.ids.quarantinedId, channel: 'air_t', ts: '2026-01-01T00:00:00Z', value: 4.5 }] },
   };
   return bodies[key];

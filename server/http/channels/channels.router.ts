@@ -53,6 +53,7 @@ export function channelRoutes(deps: { channels: ChannelsService; diagnostics: Di
       method: 'get',
       path: '/channels',
       permission: 'channels.read',
+      summary: 'Every live channel with its status, last reading and a 24-hour sparkline.',
       handle: async (_req, res) => {
         res.json({ channels: (await channels.overview(labOf(res))).map(presentChannelOverview), now: now() });
       },
@@ -61,6 +62,7 @@ export function channelRoutes(deps: { channels: ChannelsService; diagnostics: Di
       method: 'get',
       path: '/channels/:channelId',
       permission: 'channels.read',
+      summary: 'One channel with its first and last reading and reading count.',
       handle: async (req, res) => {
         const { channelId } = parseInput(channelParams, req.params);
         res.json({ channel: presentChannelDetail(await channels.detail(labOf(res), channelId)) });
@@ -70,6 +72,8 @@ export function channelRoutes(deps: { channels: ChannelsService; diagnostics: Di
       method: 'get',
       path: '/channels/:channelId/series',
       permission: 'channels.read',
+      summary: "A channel's readings, or min/max buckets from rollups, for charting.",
+      query: seriesQuery(now),
       handle: async (req, res) => {
         const { channelId } = parseInput(channelParams, req.params);
         const q = parseInput(seriesQuery(now), req.query);
@@ -80,6 +84,8 @@ export function channelRoutes(deps: { channels: ChannelsService; diagnostics: Di
       method: 'get',
       path: '/channels/:channelId/diagnostics',
       permission: 'diagnostics.read',
+      summary: 'ACF, PACF, Ljung–Box, process identification, STL, effective sample size and cross-correlation for a channel.',
+      query: diagnosticsQuery(now),
       handle: async (req, res) => {
         const outcome = await runDiagnostics(req, res);
         if (!outcome) return;
@@ -96,6 +102,8 @@ export function channelRoutes(deps: { channels: ChannelsService; diagnostics: Di
       method: 'get',
       path: '/channels/:channelId/readings.csv',
       permission: 'exports.create',
+      summary: "A channel's raw readings as CSV.",
+      query: readingsExportQuery(now),
       handle: async (req, res) => {
         const { channelId } = parseInput(channelParams, req.params);
         const q = parseInput(readingsExportQuery(now), req.query);
@@ -116,6 +124,8 @@ export function channelRoutes(deps: { channels: ChannelsService; diagnostics: Di
       method: 'get',
       path: '/channels/:channelId/diagnostics.csv',
       permission: 'exports.create',
+      summary: "A channel's correlogram, cross-correlation and Ljung–Box tables as CSV.",
+      query: diagnosticsQuery(now),
       handle: async (req, res) => {
         const outcome = await runDiagnostics(req, res);
         if (!outcome) return;

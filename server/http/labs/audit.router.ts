@@ -12,6 +12,8 @@ export function auditRoutes(deps: { audit: AuditService }): LabRoute[] {
       method: 'get',
       path: '/audit',
       permission: 'audit.read',
+      summary: 'The audit log, filtered and paged.',
+      query: auditQuerySchema,
       handle: async (req, res) => {
         const q = parseInput(auditQuerySchema, req.query);
         const page = await deps.audit.query(labOf(res), q);

@@ -17,6 +17,7 @@ export function invitationRoutes(deps: { invitations: InvitationsService }): Lab
       method: 'get',
       path: '/invitations',
       permission: 'invitations.manage',
+      summary: 'List pending invitations.',
       handle: async (_req, res) => {
         const list = await deps.invitations.listPending(labOf(res));
         res.json({ invitations: list.map(presentInvitation) });
@@ -26,6 +27,8 @@ export function invitationRoutes(deps: { invitations: InvitationsService }): Lab
       method: 'post',
       path: '/invitations',
       permission: 'invitations.manage',
+      summary: 'Invite someone by e-mail with a role.',
+      body: inviteMemberSchema,
       handle: async (req, res) => {
         const input = parseInput(inviteMemberSchema, req.body);
         const invitation = await deps.invitations.invite(labOf(res), actorOf(req), input);
@@ -36,6 +39,7 @@ export function invitationRoutes(deps: { invitations: InvitationsService }): Lab
       method: 'post',
       path: '/invitations/:id/resend',
       permission: 'invitations.manage',
+      summary: 'Send a pending invitation again with a fresh link.',
       handle: async (req, res) => {
         const { id } = parseInput(idParam, req.params);
         const invitation = await deps.invitations.resend(labOf(res), actorOf(req), id);
@@ -46,6 +50,7 @@ export function invitationRoutes(deps: { invitations: InvitationsService }): Lab
       method: 'delete',
       path: '/invitations/:id',
       permission: 'invitations.manage',
+      summary: 'Revoke a pending invitation.',
       handle: async (req, res) => {
         const { id } = parseInput(idParam, req.params);
         await deps.invitations.revoke(labOf(res), actorOf(req), id);

@@ -25,6 +25,7 @@ export function labRoutes(): LabRoute[] {
       method: 'get',
       path: '',
       permission: 'lab.read',
+      summary: 'The lab, your role in it and what that role may do.',
       handle: async (_req, res) => {
         const lab = labOf(res);
         res.json(presentLabForMember(lab, lab.role));

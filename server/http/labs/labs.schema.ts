@@ -51,6 +51,8 @@ export const AUDIT_ACTIONS = [
   'ingest-key.revoked',
   'quarantine.discarded',
   'quarantine.resubmitted',
+  'token.created',
+  'token.revoked',
 ] as const;
 
 export const auditQuerySchema = z.object({

@@ -15,6 +15,7 @@ export function memberRoutes(deps: { members: MembersService }): LabRoute[] {
       method: 'get',
       path: '/members',
       permission: 'members.read',
+      summary: 'List the members of the lab with their roles.',
       handle: async (_req, res) => {
         const members = await deps.members.list(labOf(res));
         res.json({ members: members.map(presentMember) });
@@ -24,6 +25,8 @@ export function memberRoutes(deps: { members: MembersService }): LabRoute[] {
       method: 'patch',
       path: '/members/:userId',
       permission: 'members.manage',
+      summary: "Change a member's role.",
+      body: changeRoleSchema,
       handle: async (req, res) => {
         const { userId } = parseInput(userIdParam, req.params);
         const { role } = parseInput(changeRoleSchema, req.body);
@@ -35,6 +38,7 @@ export function memberRoutes(deps: { members: MembersService }): LabRoute[] {
       method: 'delete',
       path: '/members/:userId',
       permission: 'members.manage',
+      summary: 'Remove a member from the lab.',
       handle: async (req, res) => {
         const { userId } = parseInput(userIdParam, req.params);
         await deps.members.remove(labOf(res), actorOf(req), userId);
@@ -45,6 +49,7 @@ export function memberRoutes(deps: { members: MembersService }): LabRoute[] {
       method: 'delete',
       path: '/membership',
       permission: 'lab.read',
+      summary: 'Leave the lab yourself.',
       handle: async (req, res) => {
         const actor = actorOf(req);
         await deps.members.remove(labOf(res), actor, actor.id);

@@ -22,6 +22,8 @@ export function loggerRoutes(deps: { loggers: LoggersService }): LabRoute[] {
       method: 'get',
       path: '/loggers',
       permission: 'loggers.read',
+      summary: 'List the loggers of the lab.',
+      query: listQuery,
       handle: async (req, res) => {
         const q = parseInput(listQuery, req.query);
         const list = await loggers.list(labOf(res), { includeRetired: q.includeRetired === 'true' });
@@ -32,6 +34,8 @@ export function loggerRoutes(deps: { loggers: LoggersService }): LabRoute[] {
       method: 'post',
       path: '/loggers',
       permission: 'loggers.manage',
+      summary: 'Register a logger with its channels; its first ingest key is shown once.',
+      body: createLoggerSchema,
       handle: async (req, res) => {
         const input = parseInput(createLoggerSchema, req.body);
         const { logger, issued } = await loggers.register(labOf(res), actorOf(req), input);
@@ -42,6 +46,7 @@ export function loggerRoutes(deps: { loggers: LoggersService }): LabRoute[] {
       method: 'get',
       path: '/loggers/:loggerId',
       permission: 'loggers.read',
+      summary: 'A logger with its channels (and key metadata for those who manage keys).',
       handle: async (req, res) => {
         const { loggerId } = parseInput(loggerParam, req.params);
         const lab = labOf(res);
@@ -53,6 +58,8 @@ export function loggerRoutes(deps: { loggers: LoggersService }): LabRoute[] {
       method: 'patch',
       path: '/loggers/:loggerId',
       permission: 'loggers.manage',
+      summary: "Edit a logger's name, site, serial, time zone or interval.",
+      body: loggerPatchSchema,
       handle: async (req, res) => {
         const { loggerId } = parseInput(loggerParam, req.params);
         const patch = parseInput(loggerPatchSchema, req.body);
@@ -63,6 +70,7 @@ export function loggerRoutes(deps: { loggers: LoggersService }): LabRoute[] {
       method: 'post',
       path: '/loggers/:loggerId/retire',
       permission: 'loggers.manage',
+      summary: 'Retire a logger: its keys stop working, its readings stay.',
       handle: async (req, res) => {
         const { loggerId } = parseInput(loggerParam, req.params);
         await loggers.retire(labOf(res), actorOf(req), loggerId);
@@ -73,6 +81,8 @@ export function loggerRoutes(deps: { loggers: LoggersService }): LabRoute[] {
       method: 'post',
       path: '/loggers/:loggerId/channels',
       permission: 'loggers.manage',
+      summary: 'Add a channel to a logger.',
+      body: channelInputSchema,
       handle: async (req, res) => {
         const { loggerId } = parseInput(loggerParam, req.params);
         const input = parseInput(channelInputSchema, req.body);
@@ -83,6 +93,8 @@ export function loggerRoutes(deps: { loggers: LoggersService }): LabRoute[] {
       method: 'patch',
       path: '/loggers/:loggerId/channels/:channelId',
       permission: 'loggers.manage',
+      summary: 'Edit a channel.',
+      body: channelPatchSchema,
       handle: async (req, res) => {
         const { loggerId, channelId } = parseInput(channelParam, req.params);
         const patch = parseInput(channelPatchSchema, req.body);
@@ -93,6 +105,7 @@ export function loggerRoutes(deps: { loggers: LoggersService }): LabRoute[] {
       method: 'post',
       path: '/loggers/:loggerId/channels/:channelId/retire',
       permission: 'loggers.manage',
+      summary: 'Retire a channel (its readings stay).',
       handle: async (req, res) => {
         const { loggerId, channelId } = parseInput(channelParam, req.params);
         await loggers.retireChannel(labOf(res), actorOf(req), loggerId, channelId);
@@ -103,6 +116,8 @@ export function loggerRoutes(deps: { loggers: LoggersService }): LabRoute[] {
       method: 'post',
       path: '/loggers/:loggerId/keys',
       permission: 'ingest-keys.manage',
+      summary: 'Issue an ingest key (shown once); with rotate, every other key stops working.',
+      body: issueKeySchema,
       handle: async (req, res) => {
         const { loggerId } = parseInput(loggerParam, req.params);
         const { rotate } = parseInput(issueKeySchema, req.body ?? {});
@@ -113,6 +128,7 @@ export function loggerRoutes(deps: { loggers: LoggersService }): LabRoute[] {
       method: 'delete',
       path: '/loggers/:loggerId/keys/:keyId',
       permission: 'ingest-keys.manage',
+      summary: 'Revoke an ingest key.',
       handle: async (req, res) => {
         const { loggerId, keyId } = parseInput(keyParam, req.params);
         await loggers.revokeKey(labOf(res), actorOf(req), loggerId, keyId);

@@ -16,6 +16,8 @@ export function quarantineRoutes(deps: { quarantine: QuarantineService }): LabRo
       method: 'get',
       path: '/quarantine',
       permission: 'quarantine.review',
+      summary: 'Quarantined rows with their reasons, paged.',
+      query: quarantineQuerySchema,
       handle: async (req, res) => {
         const q = parseInput(quarantineQuerySchema, req.query);
         const page = await quarantine.list(labOf(res), { loggerId: q.loggerId, reasonCode: q.reason, page: q.page, pageSize: q.pageSize });
@@ -26,6 +28,8 @@ export function quarantineRoutes(deps: { quarantine: QuarantineService }): LabRo
       method: 'get',
       path: '/quarantine/export.csv',
       permission: 'quarantine.review',
+      summary: 'Quarantined rows as a CSV file.',
+      query: quarantineQuerySchema,
       handle: async (req, res) => {
         const q = parseInput(quarantineQuerySchema, req.query);
         const lab = labOf(res);
@@ -44,6 +48,8 @@ export function quarantineRoutes(deps: { quarantine: QuarantineService }): LabRo
       method: 'post',
       path: '/quarantine/discard',
       permission: 'quarantine.review',
+      summary: 'Discard quarantined rows.',
+      body: quarantineIdsSchema,
       handle: async (req, res) => {
         const { ids } = parseInput(quarantineIdsSchema, req.body);
         res.json({ discarded: await quarantine.discard(labOf(res), actorOf(req), ids) });
@@ -53,6 +59,8 @@ export function quarantineRoutes(deps: { quarantine: QuarantineService }): LabRo
       method: 'post',
       path: '/quarantine/resubmit',
       permission: 'quarantine.review',
+      summary: 'Fix quarantined rows and send them through ingestion again.',
+      body: quarantineResubmitSchema,
       handle: async (req, res) => {
         const { rows } = parseInput(quarantineResubmitSchema, req.body);
         const outcome = await quarantine.resubmit(labOf(res), actorOf(req), rows);

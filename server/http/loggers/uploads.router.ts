@@ -27,6 +27,10 @@ export function uploadRoutes(deps: { db: Db; logger: Logger; now?: () => number 
       method: 'post',
       path: '/loggers/:loggerId/uploads',
       permission: 'uploads.create',
+      summary: "Upload a logger's historical export file (text/csv); progress and a summary stream back as NDJSON.",
+      query: optionsParam,
+      body: z.string(),
+      bodyMediaType: 'text/csv',
       handle: async (req, res) => {
         const { loggerId } = parseInput(loggerParam, req.params);
         const { options } = parseInput(optionsParam, req.query);

@@ -1,0 +1,56 @@
+import { z } from 'zod';
+import { createLabSchema } from '../labs/labs.schema.ts';
+
+/** How a route outside the lab table is reached (lab routes are described by their permission). */
+export type PublicRouteAuth = 'none' | 'session' | 'ingest-key';
+
+/** A route outside the lab route table, documented in the API document. */
+export interface PublicRoute {
+  method: 'get' | 'post';
+  /** Express-style path, e.g. `/api/v1/invitations/:lab/:token`. */
+  path: string;
+  summary: string;
+  auth: PublicRouteAuth;
+  /** Request bodies by media type (the zod schema the route validates with, where it has one). */
+  bodies?: Record<string, z.ZodType>;
+}
+
+/**
+ * The shape `POST /api/v1/ingest` reads from a JSON body (`readingsFromJson`). That function
+ * takes the envelope apart by hand so one bad row is quarantined rather than refusing the batch;
+ * this schema documents the shape a well-formed batch has.
+ */
+export const ingestJsonBody = z.object({
+  readings: z
+    .array(
+      z.object({
+        channel: z.string().describe("the channel's key on this logger"),
+        ts: z.union([z.number().int(), z.string()]).describe('epoch milliseconds, or ISO 8601 with a zone'),
+        value: z.number().describe('a finite number'),
+      }),
+    )
+    .max(100_000),
+});
+
+/** An uploaded or posted CSV file, documented as text (its header is described in the summary). */
+const csvText = z.string().describe('CSV text with the header channel,ts,value');
+
+/**
+ * Every route outside the lab route table that the API serves, for the API document.
+ * The OpenAPI test walks the app's router and fails when a route is missing here.
+ */
+export const PUBLIC_ROUTES: PublicRoute[] = [
+  { method: 'get', path: '/healthz', summary: 'Liveness and database check for load balancers (200 ok, 503 degraded).', auth: 'none' },
+  { method: 'get', path: '/api/v1/openapi.json', summary: 'This API document (OpenAPI 3.1).', auth: 'none' },
+  { method: 'get', path: '/api/v1/me', summary: 'The signed-in person and the labs they belong to.', auth: 'session' },
+  { method: 'post', path: '/api/v1/labs', summary: 'Create a lab; the signed-in person becomes its admin.', auth: 'session', bodies: { 'application/json': createLabSchema } },
+  { method: 'get', path: '/api/v1/invitations/:lab/:token', summary: 'Preview an invitation link before accepting it.', auth: 'session' },
+  { method: 'post', path: '/api/v1/invitations/:lab/:token/accept', summary: 'Accept an invitation and join the lab with its role.', auth: 'session' },
+  {
+    method: 'post',
+    path: '/api/v1/ingest',
+    summary: "A logger posts readings with its ingest key, as JSON or as CSV (header channel,ts,value); 200 means committed, bad rows are quarantined with reasons.",
+    auth: 'ingest-key',
+    bodies: { 'application/json': ingestJsonBody, 'text/csv': csvText },
+  },
+];
