@@ -340,6 +340,8 @@ export function channelDiagnostics(readings: ChannelReadings, options: ChannelDi
   const filledAnalysed = fillGapsLinear(analysed);
   const identified = identifyProcess(filledAnalysed, {
     alpha,
+    // undifferenced, the analysed series is the one the period search just ran on
+    ...(d === 0 && D === 0 ? { knownPeriod: detection.best } : {}),
     ...(options.maxLag !== undefined ? { maxLag: Math.max(2, Math.min(options.maxLag, Math.floor(nA / 4))) } : {}),
   });
 

@@ -30,6 +30,13 @@ describe('identifyProcess on simulated processes', () => {
     expect(result.explanation).toMatch(/differences/);
   });
 
+  it('takes a period already found by the caller instead of searching again (knownPeriod)', () => {
+    const noise = simulateArma({ ar: [0.5] }, 288 * 10, 6);
+    const daily = noise.map((v, t) => v + 1.5 * Math.sin((2 * Math.PI * t) / 288));
+    expect(identifyProcess(daily, { knownPeriod: 288 })).toMatchObject({ verdict: 'seasonal', period: 288 });
+    expect(identifyProcess(daily, { knownPeriod: null }).verdict).not.toBe('seasonal');
+  });
+
   it('a daily cycle in 5-minute readings is seasonal with s ≈ 288', () => {
     const noise = simulateArma({ ar: [0.5] }, 288 * 10, 6);
     const result = identifyProcess(noise.map((v, t) => v + 1.5 * Math.sin((2 * Math.PI * t) / 288)));

@@ -20,6 +20,11 @@ export interface IdentifyProcessOptions {
   maxOrder?: number;
   /** Overall significance level of the lag-by-lag judgements (default 0.05). */
   alpha?: number;
+  /**
+   * The cycle length already found on this same series by `detectPeriod` (its `best`, null for
+   * none), so a caller that has run the period search does not pay for it twice.
+   */
+  knownPeriod?: number | null;
 }
 
 export interface ProcessEvidence {
@@ -112,10 +117,11 @@ export function identifyProcess(x: Series, options: IdentifyProcessOptions = {})
   const lbLag = Math.min(10, Math.floor(n / 5));
   const ljung = { ...ljungBox(x, { lag: lbLag }), lag: lbLag };
   // Schwert's lag rule grows like n^¼ (95 lags at 400 000 readings) and the regression costs
-  // n·lags²; 24 lags already absorb the short-term structure a unit-root decision needs.
-  const adfLags = Math.min(Math.floor(12 * (n / 100) ** 0.25), 24, Math.floor((n - 4) / 2));
+  // n·lags²; 24 lags already absorb the short-term structure a unit-root decision needs, and
+  // beyond 20 000 readings 12 do (the test's power then comes from n, not from more lags).
+  const adfLags = Math.min(Math.floor(12 * (n / 100) ** 0.25), n > 20_000 ? 12 : 24, Math.floor((n - 4) / 2));
   const unitRoot = n >= 50 ? augmentedDickeyFuller(present, { lags: adfLags }) : null;
-  const period = detectPeriod(x, { maxPeriod: Math.floor(x.length / 2) }).best;
+  const period = options.knownPeriod !== undefined ? options.knownPeriod : detectPeriod(x, { maxPeriod: Math.floor(x.length / 2) }).best;
 
   const ordinary = autocorrelationBands(acf, { n, alpha, kind: 'bartlett' }).limits;
   const strict = autocorrelationBands(acf, { n, alpha: alpha / maxLag, kind: 'bartlett' }).limits;
