@@ -152,7 +152,9 @@ describe('registering a logger and uploading its history through the browser', (
     await table.getByText('ERR', { exact: true }).waitFor();
     expect(await table.getByRole('row').count()).toBe(2); // header + the one bad row
     const badTime = new Date(START + BAD_ROW * 600_000 + 3 * 3600_000).toISOString().slice(0, 19) + '+03:00';
-    expect(await table.getByText(badTime, { exact: true }).count()).toBe(1);
+    // A time that was read is kept in quarantine as ISO 8601 UTC (the line as sent stays in `raw`).
+    const badTimeUtc = new Date(Date.parse(badTime)).toISOString();
+    expect(await table.getByText(badTimeUtc, { exact: true }).count()).toBe(1);
 
     await table.getByRole('button', { name: /^Fix row / }).click();
     const form = page.getByRole('form', { name: /^Fix row / });
