@@ -31,6 +31,9 @@ export const paths = {
     path: '/labs/:lab/quarantine',
     href: (slug: string, search = '') => `/labs/${encodeURIComponent(slug)}/quarantine${search && !search.startsWith('?') ? `?${search}` : search}`,
   },
+  labTokens: { path: '/labs/:lab/tokens', href: (slug: string) => `/labs/${encodeURIComponent(slug)}/tokens` },
+  // Not `/api`: the server answers everything below /api itself, so a reload there would miss the client.
+  apiReference: { path: '/api-reference', href: () => '/api-reference' },
   joinLab: {
     path: '/join/:lab/:token',
     href: (slug: string, token: string) => `/join/${encodeURIComponent(slug)}/${encodeURIComponent(token)}`,

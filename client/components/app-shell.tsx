@@ -32,6 +32,9 @@ export function AppShell({
             <LabSwitcher labs={labs} currentSlug={currentSlug} />
           </div>
           <div className="flex items-center gap-4 text-sm">
+            <Link to={paths.apiReference.href()} className="rounded underline-offset-2 hover:underline" title="Lagbook's HTTP API">
+              API
+            </Link>
             <span data-testid="signed-in-name" className="font-medium">
               {userName}
             </span>

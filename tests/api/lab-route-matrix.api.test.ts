@@ -35,6 +35,7 @@ const ALLOWED: Record<string, { roles: Role[]; ok: number }> = {
   'POST /loggers/:loggerId/channels/:channelId/retire': { roles: ['admin', 'technician'], ok: 204 },
   'POST /loggers/:loggerId/keys': { roles: ['admin', 'technician'], ok: 201 },
   'DELETE /loggers/:loggerId/keys/:keyId': { roles: ['admin', 'technician'], ok: 204 },
+  'POST /loggers/:loggerId/test-reading': { roles: ['admin', 'technician'], ok: 200 },
   'GET /quarantine': { roles: ['admin', 'technician'], ok: 200 },
   'GET /quarantine/export.csv': { roles: ['admin', 'technician'], ok: 200 },
   'POST /quarantine/discard': { roles: ['admin', 'technician'], ok: 200 },

@@ -95,6 +95,7 @@ export function validBodyFor(method: string, path: string, f: LabWithEverything)
     'POST /loggers/:loggerId/channels': { key: `c${unique}`.slice(0, 20), label: 'New channel' },
     'PATCH /loggers/:loggerId/channels/:channelId': { label: 'Air temperature (shaded)' },
     'POST /loggers/:loggerId/keys': { rotate: false },
+    'POST /loggers/:loggerId/test-reading': { channel: 'air_t', value: 4.2 },
     'POST /quarantine/discard': { ids: [f.ids.quarantinedId] },
     'POST /tokens': { name: `Notebook ${unique}`, expiresInDays: 30 },
     'POST /quarantine/resubmit': { rows: [{ id: f.ids.quarantinedId, channel: 'air_t', ts: '2026-01-01T00:00:00Z', value: 4.5 }] },

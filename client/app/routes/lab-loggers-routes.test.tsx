@@ -74,8 +74,8 @@ const navLinks = () => within(screen.getByRole('navigation', { name: 'Lab sectio
 
 describe('lab sections for loggers', () => {
   it.each([
-    ['technician', ['Overview', 'Channels', 'Loggers', 'Quarantine', 'Members']],
-    ['scientist', ['Overview', 'Channels', 'Loggers', 'Members']],
+    ['technician', ['Overview', 'Channels', 'Loggers', 'Quarantine', 'Members', 'API tokens']],
+    ['scientist', ['Overview', 'Channels', 'Loggers', 'Members', 'API tokens']],
     ['guest', ['Overview', 'Channels', 'Loggers']],
   ] as Array<[Role, string[]]>)('shows a %s the sections of the role', async (role, expected) => {
     fakeApi({ 'GET /api/v1/labs/fernhollow': labAs(role), 'GET /api/v1/labs/fernhollow/loggers': () => ({ status: 200, body: { loggers: [] } }) });

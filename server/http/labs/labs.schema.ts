@@ -49,6 +49,7 @@ export const AUDIT_ACTIONS = [
   'ingest-key.issued',
   'ingest-key.rotated',
   'ingest-key.revoked',
+  'logger.test-reading',
   'quarantine.discarded',
   'quarantine.resubmitted',
   'token.created',

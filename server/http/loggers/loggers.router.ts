@@ -2,9 +2,10 @@ import { z } from 'zod';
 import { actorOf, labOf } from '../middleware/lab-guard.ts';
 import { parseInput } from '../validate.ts';
 import { can } from '../../policies/permissions.ts';
-import { channelInputSchema, channelPatchSchema, createLoggerSchema, loggerPatchSchema } from './loggers.schema.ts';
+import { channelInputSchema, channelPatchSchema, createLoggerSchema, loggerPatchSchema, testReadingSchema } from './loggers.schema.ts';
 import { presentChannel, presentIssuedKey, presentLogger, presentLoggerDetail } from '../presenters/loggers.presenter.ts';
 import type { LoggersService } from '../../services/loggers.service.ts';
+import type { TestReadingService } from '../../services/test-reading.service.ts';
 import type { LabRoute } from '../lab-routes.ts';
 
 const id = () => z.coerce.number().int('must be a whole number').positive('must be a positive number');
@@ -15,8 +16,8 @@ const issueKeySchema = z.object({ rotate: z.boolean().default(false) });
 const listQuery = z.object({ includeRetired: z.enum(['true', 'false']).optional() });
 
 /** Loggers, channels and ingest keys of a lab (read: every member; change: technicians and admins). */
-export function loggerRoutes(deps: { loggers: LoggersService }): LabRoute[] {
-  const { loggers } = deps;
+export function loggerRoutes(deps: { loggers: LoggersService; testReadings: TestReadingService }): LabRoute[] {
+  const { loggers, testReadings } = deps;
   return [
     {
       method: 'get',
@@ -75,6 +76,18 @@ export function loggerRoutes(deps: { loggers: LoggersService }): LabRoute[] {
         const { loggerId } = parseInput(loggerParam, req.params);
         await loggers.retire(labOf(res), actorOf(req), loggerId);
         res.status(204).end();
+      },
+    },
+    {
+      method: 'post',
+      path: '/loggers/:loggerId/test-reading',
+      permission: 'loggers.manage',
+      summary: 'Store one reading of a channel now, through the ingestion path, and read it back.',
+      body: testReadingSchema,
+      handle: async (req, res) => {
+        const { loggerId } = parseInput(loggerParam, req.params);
+        const input = parseInput(testReadingSchema, req.body);
+        res.json(await testReadings.send(labOf(res), actorOf(req), loggerId, input));
       },
     },
     {

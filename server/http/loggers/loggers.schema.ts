@@ -94,3 +94,10 @@ export const uploadOptionsSchema = z
   .refine((o) => o.format !== 'long' || (o.channelColumn && o.valueColumn), { message: 'long format needs channelColumn and valueColumn', path: ['format'] })
   .refine((o) => o.format !== 'wide' || (o.columns && Object.values(o.columns).some((v) => v)), { message: 'wide format needs at least one column mapped to a channel', path: ['columns'] });
 export type UploadOptions = z.infer<typeof uploadOptionsSchema>;
+
+/** One reading sent by hand from a logger's page, stored "now" through the ingestion path. */
+export const testReadingSchema = z.object({
+  channel: channelKeySchema.describe("the channel's key on this logger"),
+  value: z.number({ error: 'must be a number' }).finite('must be a finite number'),
+});
+export type TestReadingBody = z.infer<typeof testReadingSchema>;

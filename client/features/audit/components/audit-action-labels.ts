@@ -19,6 +19,7 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   'ingest-key.issued': 'Ingest key issued',
   'ingest-key.rotated': 'Ingest key replaced',
   'ingest-key.revoked': 'Ingest key revoked',
+  'logger.test-reading': 'Test reading sent',
   'quarantine.discarded': 'Quarantined rows discarded',
   'quarantine.resubmitted': 'Quarantined rows resubmitted',
   'token.created': 'Personal API token created',

@@ -18,6 +18,7 @@ export const LAB_SECTIONS: LabSection[] = [
   { label: 'Quarantine', href: paths.labQuarantine.href, needs: 'quarantine.review', blurb: 'Readings that could not be stored, with the reason, to fix or discard.' },
   { label: 'Members', href: paths.labMembers.href, needs: 'members.read', blurb: 'Who belongs to the lab, and in which role.' },
   { label: 'Audit log', href: paths.labAudit.href, needs: 'audit.read', blurb: 'Every admin action — members, keys, loggers, quarantine — newest first.' },
+  { label: 'API tokens', href: paths.labTokens.href, needs: 'tokens.manage-own', blurb: 'Your personal tokens for reading the lab’s data from notebooks and scripts.' },
 ];
 
 /** The sections a member with `permissions` may open; the server refuses the rest anyway. */

@@ -5,11 +5,11 @@ import { Button, buttonClasses } from '../../../components/button.tsx';
 import { Notice } from '../../../components/notice.tsx';
 import type { LoggerDetail } from '../api/get-logger.ts';
 import { ChannelsTable } from './channels-table.tsx';
-import { curlIngestExample } from './ingest-example.ts';
 import { KeysPanel } from './keys-panel.tsx';
 import { LoggerDetails } from './logger-details.tsx';
 import { LoggerEditForm } from './logger-edit-form.tsx';
 import { RetireLoggerButton } from './retire-logger-button.tsx';
+import { SetupGuidePanel } from './setup-guide-panel.tsx';
 
 /** What the signed-in member may do on a logger's page (from the lab's permission list). */
 export interface LoggerPageRights {
@@ -21,7 +21,7 @@ export interface LoggerPageRights {
 
 /**
  * A logger's page: details (editable), channels (add, edit, retire), ingest keys (issue,
- * rotate, revoke), historical upload, how a logger sends readings, and retirement. Each part
+ * rotate, revoke), historical upload, the set-up guide (with a test reading), and retirement. Each part
  * that changes something appears only for a role that may do it; others see it read-only.
  * A retired logger is read-only for everyone.
  */
@@ -29,7 +29,8 @@ export function LoggerPage({ slug, logger, rights }: { slug: string; logger: Log
   const [editing, setEditing] = useState(false);
   const retired = logger.retiredAt !== null;
   const manage = rights.manage && !retired;
-  const firstChannel = logger.channels.find((c) => !c.retiredAt);
+  const activeChannels = logger.channels.filter((c) => !c.retiredAt);
+  const firstChannel = activeChannels[0];
 
   return (
     <div className="grid gap-10">
@@ -89,18 +90,19 @@ export function LoggerPage({ slug, logger, rights }: { slug: string; logger: Log
         </section>
       )}
 
-      {!retired && firstChannel && (
-        <section aria-labelledby="logger-send-heading" className="grid gap-2">
-          <h3 id="logger-send-heading" className="text-xl font-semibold">
-            Sending readings
+      {!retired && activeChannels.length > 0 && (
+        <section aria-labelledby="logger-setup-heading" className="grid gap-3">
+          <h3 id="logger-setup-heading" className="text-xl font-semibold">
+            Set up this logger
           </h3>
-          <p className="text-sm text-ink-soft">
-            The logger posts readings with its ingest key, as JSON (below) or as CSV with the header{' '}
-            <span className="font-mono">channel,ts,value</span>. Times carry a UTC offset or are epoch milliseconds.
-          </p>
-          <pre className="overflow-x-auto rounded-lg bg-spruce p-3 font-mono text-xs text-paper">
-            {curlIngestExample(window.location.origin, '<ingest key>', firstChannel, new Date())}
-          </pre>
+          <SetupGuidePanel
+            slug={slug}
+            loggerId={logger.id}
+            timezone={logger.timezone}
+            channels={activeChannels}
+            origin={window.location.origin}
+            canSendTest={manage}
+          />
         </section>
       )}
 

@@ -1,0 +1,28 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { apiFetch } from '../../../lib/api-client.ts';
+
+/** A personal API token as listed: metadata only, never the secret. */
+export interface PersonalToken {
+  id: number;
+  name: string;
+  prefix: string;
+  createdAt: string;
+  expiresAt: string;
+  lastUsedAt: string | null;
+  revokedAt: string | null;
+}
+
+/** Every token query of a lab lives under this key, so one invalidation refreshes them all. */
+export const tokensRootKey = (slug: string) => ['labs', slug, 'tokens'] as const;
+
+/** `GET /api/v1/labs/:lab/tokens`: the signed-in member's own tokens in this lab. */
+export function getTokens(slug: string): Promise<{ tokens: PersonalToken[] }> {
+  return apiFetch(`/api/v1/labs/${encodeURIComponent(slug)}/tokens`);
+}
+
+export const tokensQueryOptions = (slug: string) => queryOptions({ queryKey: [...tokensRootKey(slug), 'own'], queryFn: () => getTokens(slug) });
+
+/** The member's own personal tokens in the lab. */
+export function useTokens(slug: string) {
+  return useQuery(tokensQueryOptions(slug));
+}

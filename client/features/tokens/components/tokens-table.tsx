@@ -1,0 +1,71 @@
+import { useMemo } from 'react';
+import type { ColumnDef } from '@tanstack/react-table';
+import { ConfirmAction } from '../../../components/confirm-action.tsx';
+import { DataTable } from '../../../components/data-table.tsx';
+import { DateTime } from '../../../components/date-time.tsx';
+import { RelativeTime } from '../../../components/relative-time.tsx';
+import type { PersonalToken } from '../api/get-tokens.ts';
+import { useRevokeToken } from '../api/revoke-token.ts';
+
+/** A token as people recognise it: the public part of `lbt_<prefix>_<secret>`, secret elided. */
+const shownToken = (prefix: string) => `lbt_${prefix}_…`;
+
+/** Where a token stands now: revoked, expired or usable. */
+export function tokenState(t: PersonalToken, now = Date.now()): 'revoked' | 'expired' | 'active' {
+  if (t.revokedAt) return 'revoked';
+  return Date.parse(t.expiresAt) <= now ? 'expired' : 'active';
+}
+
+function RevokeTokenButton({ slug, token }: { slug: string; token: PersonalToken }) {
+  const revoke = useRevokeToken(slug, token.id);
+  return (
+    <ConfirmAction
+      label="Revoke"
+      question={`Revoke “${token.name}”? Scripts using it are refused from now on.`}
+      confirmLabel={`Revoke ${shownToken(token.prefix)}`}
+      pending={revoke.isPending}
+      onConfirm={() => revoke.mutate()}
+      error={revoke.error}
+    />
+  );
+}
+
+/** The member's personal tokens: name, prefix, made, expires, last used, state, and "Revoke" for usable ones. */
+export function TokensTable({ slug, tokens }: { slug: string; tokens: PersonalToken[] }) {
+  const columns = useMemo<ColumnDef<PersonalToken>[]>(
+    () => [
+      { id: 'name', header: 'Name', accessorFn: (t) => t.name, sortingFn: 'text' },
+      { id: 'prefix', header: 'Token', accessorFn: (t) => t.prefix, enableSorting: false, cell: ({ row }) => <span className="font-mono">{shownToken(row.original.prefix)}</span> },
+      { id: 'created', header: 'Made', accessorFn: (t) => Date.parse(t.createdAt), cell: ({ row }) => <DateTime iso={row.original.createdAt} /> },
+      { id: 'expires', header: 'Expires', accessorFn: (t) => Date.parse(t.expiresAt), cell: ({ row }) => <DateTime iso={row.original.expiresAt} dateOnly /> },
+      { id: 'lastUsed', header: 'Last used', accessorFn: (t) => (t.lastUsedAt ? Date.parse(t.lastUsedAt) : -1), cell: ({ row }) => <RelativeTime iso={row.original.lastUsedAt} /> },
+      {
+        id: 'state',
+        header: 'State',
+        accessorFn: (t) => tokenState(t),
+        cell: ({ row }) => {
+          const state = tokenState(row.original);
+          if (state === 'revoked') return <span>revoked <DateTime iso={row.original.revokedAt!} dateOnly /></span>;
+          return <span className={state === 'active' ? 'text-lichen-dark' : 'text-ink-soft'}>{state}</span>;
+        },
+      },
+      {
+        id: 'actions',
+        header: 'Actions',
+        enableSorting: false,
+        cell: ({ row }) => (tokenState(row.original) === 'active' ? <RevokeTokenButton slug={slug} token={row.original} /> : null),
+      },
+    ],
+    [slug],
+  );
+  return (
+    <DataTable
+      caption="Your personal API tokens in this lab"
+      columns={columns}
+      data={tokens}
+      getRowId={(t) => String(t.id)}
+      initialSorting={[{ id: 'created', desc: true }]}
+      empty="No tokens yet: make one for a notebook or a script."
+    />
+  );
+}
