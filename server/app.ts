@@ -32,6 +32,7 @@ import { auditRoutes } from './http/labs/audit.router.ts';
 import { createLoggersService } from './services/loggers.service.ts';
 import { createQuarantineService } from './services/quarantine.service.ts';
 import { createIngestService } from './services/ingest/ingest.service.ts';
+import { createTestReadingService } from './services/test-reading.service.ts';
 import { loggerRoutes } from './http/loggers/loggers.router.ts';
 import { quarantineRoutes } from './http/loggers/quarantine.router.ts';
 import { ingestRouter } from './http/ingest/ingest.router.ts';
@@ -44,6 +45,7 @@ import { tokenRoutes } from './http/tokens/tokens.router.ts';
 import { buildOpenApiDocument } from './http/openapi/openapi-document.ts';
 import { openApiRouter } from './http/openapi/openapi.router.ts';
 import type { AnalysisPool } from './workers/analysis-pool.ts';
+import { resolveRateLimits, type RateLimits } from './http/middleware/rate-limits.ts';
 
 /** Everything the app talks to, handed in so tests can build it with stand-ins. */
 export interface AppDeps {
@@ -62,6 +64,8 @@ export interface AppDeps {
    * it). Without one, diagnostics run on the request thread (fine for tests and tools).
    */
   analysisPool?: AnalysisPool;
+  /** Limits on sign-in redirects (per IP) and invitation mail (per admin); defaults in rate-limits.ts. */
+  rateLimits?: Partial<RateLimits>;
 }
 
 /**
@@ -70,6 +74,7 @@ export interface AppDeps {
  */
 export function createApp(deps: AppDeps): Express {
   const { config, db, logger } = deps;
+  const limits = resolveRateLimits(deps.rateLimits);
   const app = express();
   app.disable('x-powered-by');
   if (config.secureCookies) app.set('trust proxy', 1);
@@ -93,9 +98,9 @@ export function createApp(deps: AppDeps): Express {
   const labRouteTable = mountLabRoutes(createLabGuard(db, { tokens }), [
     ...labRoutes(),
     ...memberRoutes({ members }),
-    ...invitationRoutes({ invitations }),
+    ...invitationRoutes({ invitations, sendLimit: limits.invitations }),
     ...auditRoutes({ audit }),
-    ...loggerRoutes({ loggers }),
+    ...loggerRoutes({ loggers, testReadings: createTestReadingService({ db, now: nowMs }) }),
     ...quarantineRoutes({ quarantine }),
     ...uploadRoutes({ db, logger, now: nowMs }),
     ...channelRoutes({ channels, diagnostics, now: nowMs }),
@@ -115,7 +120,7 @@ export function createApp(deps: AppDeps): Express {
   app.use(sameOriginWrites(config.publicUrl));
   app.use(express.json({ limit: '1mb' }));
 
-  app.use(authRouter({ passport, logger }));
+  app.use(authRouter({ passport, logger, signInLimit: limits.signIn }));
   app.use(meRouter({ me }));
   app.use(labsRouter({ labs: labsService }));
   app.use(invitationAcceptanceRouter({ invitations }));

@@ -1,4 +1,4 @@
-import { Router, type Request, type Response } from 'express';
+import { Router, type Request, type RequestHandler, type Response } from 'express';
 import type { z } from 'zod';
 import type { Permission } from '../policies/permissions.ts';
 import type { LabGuard } from './middleware/lab-guard.ts';
@@ -17,11 +17,13 @@ export interface LabRoute {
   bodyMediaType?: string;
   /** The schema the handler validates its query string with. */
   query?: z.ZodType;
+  /** A rate limit applied after the guard (so it can count per signed-in person). */
+  limit?: RequestHandler;
   handle: (req: Request, res: Response) => Promise<void>;
 }
 
 /** What the route table exposes (tests generate the role matrix from it; the API document too). */
-export type LabRouteSummary = Omit<LabRoute, 'handle'>;
+export type LabRouteSummary = Omit<LabRoute, 'handle' | 'limit'>;
 
 /**
  * Mounts lab routes behind the one lab guard. Every lab route is declared through here, so
@@ -30,7 +32,8 @@ export type LabRouteSummary = Omit<LabRoute, 'handle'>;
 export function mountLabRoutes(guard: LabGuard, routes: LabRoute[]): { router: Router; table: LabRouteSummary[] } {
   const router = Router();
   for (const r of routes) {
-    router[r.method](`/api/v1/labs/:lab${r.path}`, guard(r.permission), r.handle);
+    const chain: RequestHandler[] = r.limit ? [guard(r.permission), r.limit] : [guard(r.permission)];
+    router[r.method](`/api/v1/labs/:lab${r.path}`, ...chain, r.handle);
   }
-  return { router, table: routes.map(({ handle: _handle, ...summary }) => summary) };
+  return { router, table: routes.map(({ handle: _handle, limit: _limit, ...summary }) => summary) };
 }

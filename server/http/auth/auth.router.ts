@@ -2,6 +2,7 @@ import { Router, type Request } from 'express';
 import { OIDC_STRATEGY, type PassportInstance } from './passport-setup.ts';
 import { SignInRefusedError } from '../../services/sign-in.service.ts';
 import type { Logger } from '../../logger.ts';
+import { DEFAULT_RATE_LIMITS, perClientLimit, type RateLimit } from '../middleware/rate-limits.ts';
 
 const RETURN_TO_KEY = 'lagbookReturnTo';
 
@@ -27,13 +28,15 @@ function failureCode(err: unknown, info: unknown): string {
 /**
  * Sign-in and sign-out through the lab's OpenID Connect provider:
  * `GET /auth/sign-in[?returnTo=/path]` → provider → `GET /auth/callback` → back in Lagbook;
- * `POST /auth/sign-out` ends the session.
+ * `POST /auth/sign-out` ends the session. Both redirects are rate-limited per client IP
+ * (`signInLimit`, counted separately for each), since each costs a round trip to the provider.
  */
-export function authRouter(deps: { passport: PassportInstance; logger: Logger }): Router {
+export function authRouter(deps: { passport: PassportInstance; logger: Logger; signInLimit?: RateLimit }): Router {
   const router = Router();
   const { passport, logger } = deps;
+  const rule = deps.signInLimit ?? DEFAULT_RATE_LIMITS.signIn;
 
-  router.get('/auth/sign-in', (req, res, next) => {
+  router.get('/auth/sign-in', perClientLimit(rule, 'sign-in attempts'), (req, res, next) => {
     (req.session as unknown as Record<string, unknown>)[RETURN_TO_KEY] = safeReturnPath(req.query.returnTo);
     // "Use another account": ask the provider to show its login form even if it remembers
     // someone (OIDC Core §3.1.2.1 prompt=login), pre-filled with the expected address.
@@ -43,7 +46,7 @@ export function authRouter(deps: { passport: PassportInstance; logger: Logger })
     passport.authenticate(OIDC_STRATEGY, options as object)(req, res, next);
   });
 
-  router.get('/auth/callback', (req: Request, res, next) => {
+  router.get('/auth/callback', perClientLimit(rule, 'sign-in callbacks'), (req: Request, res, next) => {
     const returnTo = safeReturnPath((req.session as unknown as Record<string, unknown> | undefined)?.[RETURN_TO_KEY]);
     passport.authenticate(OIDC_STRATEGY, (err: unknown, user: Express.User | false, info: unknown) => {
       if (err || !user) {

@@ -7,11 +7,16 @@ import { inviteMemberSchema } from './labs.schema.ts';
 import { presentInvitation } from '../presenters/labs.presenter.ts';
 import type { InvitationsService } from '../../services/invitations.service.ts';
 import type { LabRoute } from '../lab-routes.ts';
+import { DEFAULT_RATE_LIMITS, perPersonLimit, type RateLimit } from '../middleware/rate-limits.ts';
 
 const idParam = z.object({ id: z.coerce.number().int('must be a whole number').positive('must be a positive number') });
 
-/** Admins list, create, resend and revoke a lab's pending invitations. */
-export function invitationRoutes(deps: { invitations: InvitationsService }): LabRoute[] {
+/**
+ * Admins list, create, resend and revoke a lab's pending invitations. Creating and resending
+ * send mail, so they share one per-admin rate limit (`sendLimit`).
+ */
+export function invitationRoutes(deps: { invitations: InvitationsService; sendLimit?: RateLimit }): LabRoute[] {
+  const limit = perPersonLimit(deps.sendLimit ?? DEFAULT_RATE_LIMITS.invitations, 'invitations sent');
   return [
     {
       method: 'get',
@@ -29,6 +34,7 @@ export function invitationRoutes(deps: { invitations: InvitationsService }): Lab
       permission: 'invitations.manage',
       summary: 'Invite someone by e-mail with a role.',
       body: inviteMemberSchema,
+      limit,
       handle: async (req, res) => {
         const input = parseInput(inviteMemberSchema, req.body);
         const invitation = await deps.invitations.invite(labOf(res), actorOf(req), input);
@@ -40,6 +46,7 @@ export function invitationRoutes(deps: { invitations: InvitationsService }): Lab
       path: '/invitations/:id/resend',
       permission: 'invitations.manage',
       summary: 'Send a pending invitation again with a fresh link.',
+      limit,
       handle: async (req, res) => {
         const { id } = parseInput(idParam, req.params);
         const invitation = await deps.invitations.resend(labOf(res), actorOf(req), id);
