@@ -8,6 +8,7 @@ import { createDb } from '../db/create-db.ts';
 import { AppError, ConfigError } from '../errors.ts';
 import { createLabCommand, mintTokenCommand, registerLoggerCommand, type CommandResult } from './ops-commands.ts';
 import { seedDemo } from './seed-demo.ts';
+import { BackupError, backupCommand, restoreCommand } from './backup-commands.ts';
 
 const HELP = `Lagbook operator commands
 
@@ -31,6 +32,17 @@ Commands:
   seed-demo [--issuer <OIDC issuer>] [--force]
       Load the demo lab (tenants/demo) with its members as the local identity provider's
       dev accounts. Idempotent. Refused when NODE_ENV=production unless --force.
+
+  backup --out <file.sql.gz> [--force]
+      Write a consistent, gzip-compressed dump of the whole database (taken in one
+      transaction, so loggers keep posting). Refuses an existing file unless --force.
+      Needs mariadb-dump (Debian's mariadb-client).
+
+  restore --from <file.sql.gz> [--database <name>] [--force]
+      Load a backup into LAGBOOK_DB_NAME, or into --database (created if missing).
+      Refuses a database that already holds tables unless --force (then each table in
+      the backup replaces the one of that name). Stop the app before restoring over
+      its live database.
 
 Options:
   --json    print the result as JSON (for scripts)
@@ -75,6 +87,9 @@ async function run(argv: string[]): Promise<CommandResult | null> {
       force: { type: 'boolean', default: false },
       email: { type: 'string' },
       days: { type: 'string', default: '90' },
+      out: { type: 'string' },
+      from: { type: 'string' },
+      database: { type: 'string' },
     },
     strict: true,
   });
@@ -114,6 +129,10 @@ async function run(argv: string[]): Promise<CommandResult | null> {
         });
         return { text: result.text, json: { ...result } };
       }
+      case 'backup':
+        return await backupCommand(config, { out: need(values, 'out'), force: values.force! });
+      case 'restore':
+        return await restoreCommand(db, config, { from: need(values, 'from'), database: values.database, force: values.force! });
       default:
         fail(`unknown command "${command}" (see --help)`);
     }
@@ -128,7 +147,7 @@ run(process.argv.slice(2)).then(
     if (result) process.stdout.write(wantsJson ? `${JSON.stringify(result.json)}\n` : `${result.text}\n`);
   },
   (err: unknown) => {
-    if (err instanceof AppError || err instanceof ConfigError) fail(err.message);
+    if (err instanceof AppError || err instanceof ConfigError || err instanceof BackupError) fail(err.message);
     if ((err as { code?: string }).code === 'ERR_PARSE_ARGS_UNKNOWN_OPTION') fail(`${(err as Error).message} (see --help)`);
     fail(`failed: ${(err as Error).message}`);
   },
