@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
 import { buildLab, type TestLab } from '../support/factories.ts';
-import { keepScreenshot, launchBrowser, signInAtProvider } from '../support/browser.ts';
+import { keepScreenshot, launchBrowser, signInThroughLagbook } from '../support/browser.ts';
 import { ingestBatch, type IncomingReading } from '../../server/services/ingest/ingest-batch.ts';
 import { DEV_ACCOUNTS } from '../../docker-free-scripts/identity-provider/dev-accounts.ts';
 
@@ -53,12 +53,7 @@ beforeAll(async () => {
   page = await browser.context.newPage();
 
   // First sign-in creates the scientist's user row; then make that person a scientist of a fresh lab.
-  await page.goto(`${appUrl}/sign-in`);
-  await page.getByRole('link', { name: "Continue with your institution's account" }).click();
-  await page.waitForURL((u) => u.href.startsWith(t.config.oidc.issuer));
-  await signInAtProvider(page, scientist);
-  await page.getByRole('button', { name: 'Allow' }).click();
-  await page.getByTestId('signed-in-name').waitFor();
+  await signInThroughLagbook(page, appUrl, t.config.oidc.issuer, scientist);
   const user = await t.db('users').where({ oidc_issuer: t.config.oidc.issuer, oidc_subject: scientist.sub }).first();
   lab = await buildLab(t.db, { name: `Quincewood Orchard ${run}` });
   await t.db('memberships').insert({ tenant_id: lab.id, user_id: user.id, role: 'scientist' });

@@ -4,7 +4,7 @@ import { promisify } from 'node:util';
 import type { Page } from 'playwright-core';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
 import { buildLab, type TestLab } from '../support/factories.ts';
-import { keepScreenshot, launchBrowser, signInAtProvider } from '../support/browser.ts';
+import { keepScreenshot, launchBrowser, signInThroughLagbook } from '../support/browser.ts';
 import { DEV_ACCOUNTS } from '../../docker-free-scripts/identity-provider/dev-accounts.ts';
 
 const technician = DEV_ACCOUNTS.find((a) => a.role === 'technician')!;
@@ -48,12 +48,7 @@ beforeAll(async () => {
 
   // Sign in once through the provider, so Lagbook creates the technician's user row; then
   // make that person a technician of a fresh lab.
-  await page.goto(`${appUrl}/sign-in`);
-  await page.getByRole('link', { name: "Continue with your institution's account" }).click();
-  await page.waitForURL((u) => u.href.startsWith(t.config.oidc.issuer));
-  await signInAtProvider(page, technician);
-  await page.getByRole('button', { name: 'Allow' }).click();
-  await page.getByTestId('signed-in-name').waitFor();
+  await signInThroughLagbook(page, appUrl, t.config.oidc.issuer, technician);
   const user = await t.db('users').where({ oidc_issuer: t.config.oidc.issuer, oidc_subject: technician.sub }).first();
   lab = await buildLab(t.db, { name: `Reedbank Wetland Station ${run}` });
   await t.db('memberships').insert({ tenant_id: lab.id, user_id: user.id, role: 'technician' });

@@ -50,3 +50,16 @@ export async function signInAtProvider(page: Page, account: { email: string; pas
   await page.locator('#password').fill(account.password);
   await page.getByRole('button', { name: 'Sign in' }).click();
 }
+
+/**
+ * From Lagbook's sign-in page through the identity provider's login and consent, back into
+ * Lagbook signed in (waits for the signed-in name in the app shell).
+ */
+export async function signInThroughLagbook(page: Page, appUrl: string, issuer: string, account: { email: string; password: string }): Promise<void> {
+  await page.goto(`${appUrl}/sign-in`);
+  await page.getByRole('link', { name: "Continue with your institution's account" }).click();
+  await page.waitForURL((u) => u.href.startsWith(issuer));
+  await signInAtProvider(page, account);
+  await page.getByRole('button', { name: 'Allow' }).click();
+  await page.getByTestId('signed-in-name').waitFor();
+}

@@ -1,6 +1,6 @@
 import { useAuditLog } from '../../features/audit/api/get-audit-log.ts';
 import { AuditFilterForm } from '../../features/audit/components/audit-filter-form.tsx';
-import { AuditPager } from '../../features/audit/components/audit-pager.tsx';
+import { Pager } from '../../components/pager.tsx';
 import { AuditTable } from '../../features/audit/components/audit-table.tsx';
 import { toAuditQuery, writeAuditFilters } from '../../features/audit/hooks/audit-search-params.ts';
 import { useAuditFilters } from '../../features/audit/hooks/use-audit-filters.ts';
@@ -34,7 +34,9 @@ function AuditLog({ slug }: { slug: string }) {
       ) : (
         <>
           <AuditTable entries={log.data.entries} />
-          <AuditPager
+          <Pager
+            label="Audit log pages"
+            noun="Entries"
             page={filters.page}
             pageSize={PAGE_SIZE}
             total={log.data.total}
