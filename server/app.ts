@@ -37,6 +37,7 @@ import { loggerRoutes } from './http/loggers/loggers.router.ts';
 import { quarantineRoutes } from './http/loggers/quarantine.router.ts';
 import { ingestRouter } from './http/ingest/ingest.router.ts';
 import { uploadRoutes } from './http/loggers/uploads.router.ts';
+import { createUploadsService } from './services/uploads.service.ts';
 import { createChannelsService } from './services/channels.service.ts';
 import { createDiagnosticsService } from './services/diagnostics.service.ts';
 import { channelRoutes } from './http/channels/channels.router.ts';
@@ -102,7 +103,7 @@ export function createApp(deps: AppDeps): Express {
     ...auditRoutes({ audit }),
     ...loggerRoutes({ loggers, testReadings: createTestReadingService({ db, now: nowMs }) }),
     ...quarantineRoutes({ quarantine }),
-    ...uploadRoutes({ db, logger, now: nowMs }),
+    ...uploadRoutes({ uploads: createUploadsService({ db, now: nowMs }), logger }),
     ...channelRoutes({ channels, diagnostics, now: nowMs }),
     ...tokenRoutes({ tokens }),
   ]);

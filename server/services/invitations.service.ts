@@ -1,4 +1,5 @@
-import { createHash, randomBytes } from 'node:crypto';
+import { randomBytes } from 'node:crypto';
+import { hashSecret } from './secret-format.ts';
 import type { Db } from '../db/create-db.ts';
 import { inLab } from '../db/tenant-scope.ts';
 import { invitationsIn, type Invitation } from '../db/invitations.repo.ts';
@@ -20,9 +21,7 @@ export interface InviteMemberInput {
 export const INVITATION_LIFETIME_MS = 7 * 24 * 3600 * 1000;
 
 /** SHA-256 of an invitation secret; only this is stored. */
-export function hashInvitationToken(token: string): string {
-  return createHash('sha256').update(token).digest('hex');
-}
+export const hashInvitationToken = hashSecret;
 
 export interface InvitationPreview {
   lab: Pick<Lab, 'slug' | 'name'>;

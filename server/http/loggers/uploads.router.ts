@@ -2,11 +2,8 @@ import { z } from 'zod';
 import { labOf } from '../middleware/lab-guard.ts';
 import { parseInput } from '../validate.ts';
 import { uploadOptionsSchema } from './loggers.schema.ts';
-import { AppError, NotFoundError } from '../../errors.ts';
-import type { Db } from '../../db/create-db.ts';
-import { inLab } from '../../db/tenant-scope.ts';
-import { loggersIn } from '../../db/loggers.repo.ts';
-import { importUpload } from '../../services/ingest/import-upload.ts';
+import { AppError } from '../../errors.ts';
+import type { UploadsService } from '../../services/uploads.service.ts';
 import type { LabRoute } from '../lab-routes.ts';
 import type { Logger } from '../../logger.ts';
 
@@ -21,7 +18,7 @@ export const MAX_UPLOAD_BYTES = 2 * 1024 ** 3;
  * file as the raw request body (text/csv). The answer streams NDJSON: `progress` lines after
  * each stored batch, then one `summary` (or `error`) line.
  */
-export function uploadRoutes(deps: { db: Db; logger: Logger; now?: () => number }): LabRoute[] {
+export function uploadRoutes(deps: { uploads: UploadsService; logger: Logger }): LabRoute[] {
   return [
     {
       method: 'post',
@@ -41,10 +38,7 @@ export function uploadRoutes(deps: { db: Db; logger: Logger; now?: () => number 
           throw new AppError(400, 'invalid_input', 'options: not valid JSON');
         }
         const layout = parseInput(uploadOptionsSchema, json);
-        const lab = labOf(res);
-        const logger = await loggersIn(inLab(deps.db, lab.id)).find(loggerId);
-        if (!logger) throw new NotFoundError('No such logger in this lab.');
-        if (logger.retiredAt) throw new AppError(409, 'logger_retired', 'This logger is retired; its history cannot be extended.');
+        const target = await deps.uploads.targetFor(labOf(res), loggerId);
         if (!req.is(['text/csv', 'text/plain', 'application/octet-stream'])) {
           throw new AppError(415, 'unsupported_media_type', 'Upload the export file as text/csv.');
         }
@@ -55,7 +49,7 @@ export function uploadRoutes(deps: { db: Db; logger: Logger; now?: () => number 
         res.flushHeaders();
         const line = (o: object) => res.write(`${JSON.stringify(o)}\n`);
         try {
-          const summary = await importUpload(deps.db, { tenantId: lab.id, loggerId }, req, layout, (p) => line({ type: 'progress', ...p }), deps.now);
+          const summary = await deps.uploads.run(target, req, layout, (p) => line({ type: 'progress', ...p }));
           line({ type: 'summary', ...summary });
         } catch (err) {
           const e = err as AppError;

@@ -1,0 +1,31 @@
+import type { Readable } from 'node:stream';
+import type { Db } from '../db/create-db.ts';
+import { inLab } from '../db/tenant-scope.ts';
+import { loggersIn } from '../db/loggers.repo.ts';
+import { NotFoundError } from '../errors.ts';
+import { ConflictError } from './service-errors.ts';
+import { importUpload, type UploadLayout, type UploadProgress, type UploadSummary } from './ingest/import-upload.ts';
+import type { IngestTarget } from './ingest/ingest-batch.ts';
+import type { LabContext } from './lab-context.ts';
+
+/**
+ * Historical uploads: which logger a file goes to (checked before the answer starts
+ * streaming), then the streamed import itself under the same rules as live ingestion.
+ */
+export function createUploadsService(deps: { db: Db; now?: () => number }) {
+  return {
+    /** The ingest target for a logger of this lab that can still take history. */
+    async targetFor(lab: LabContext, loggerId: number): Promise<IngestTarget> {
+      const logger = await loggersIn(inLab(deps.db, lab.id)).find(loggerId);
+      if (!logger) throw new NotFoundError('No such logger in this lab.');
+      if (logger.retiredAt) throw new ConflictError('logger_retired', 'This logger is retired; its history cannot be extended.');
+      return { tenantId: lab.id, loggerId };
+    },
+
+    run(target: IngestTarget, file: Readable, layout: UploadLayout, onProgress: (p: UploadProgress) => void): Promise<UploadSummary> {
+      return importUpload(deps.db, target, file, layout, onProgress, deps.now);
+    },
+  };
+}
+
+export type UploadsService = ReturnType<typeof createUploadsService>;
