@@ -1,7 +1,8 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { buildTestApp, type TestApp } from '../support/test-app.ts';
-import { keepScreenshot, launchBrowser, signInAtProvider } from '../support/browser.ts';
+import type { TestApp } from '../support/test-app.ts';
+import { browserSuite } from '../support/browser-suite.ts';
+import { keepScreenshot, signInAtProvider } from '../support/browser.ts';
 import { DEV_ACCOUNTS, type DevAccount } from '../../docker-free-scripts/identity-provider/dev-accounts.ts';
 import { waitForMail } from '../../docker-free-scripts/mail-capture/read-captured-mail.ts';
 import { slugFromName } from '../../server/http/labs/labs.schema.ts';
@@ -13,28 +14,14 @@ const newcomer = DEV_ACCOUNTS.find((a) => a.role === 'none')!;
 const labName = `Quillmere Bog Station ${Date.now().toString(36)}`;
 const slug = slugFromName(labName);
 
+const suite = browserSuite();
 let t: TestApp;
 let appUrl: string;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-
-beforeAll(async () => {
-  t = await buildTestApp();
-  appUrl = await t.listen();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await t?.close();
+beforeAll(() => {
+  ({ t, appUrl } = suite);
 });
 
-/**
- * A page in a browser with no cookies at all (neither Lagbook's session nor the identity
- * provider's), as a different person on their own machine would have.
- */
-async function freshPage(): Promise<Page> {
-  await browser.context.clearCookies();
-  return browser.context.newPage();
-}
+const freshPage = () => suite.freshPage();
 
 /** From Lagbook's sign-in page through the provider's login and consent, back into Lagbook. */
 async function signInThroughProvider(page: Page, account: DevAccount): Promise<void> {

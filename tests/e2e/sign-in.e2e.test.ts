@@ -1,30 +1,20 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Page } from 'playwright-core';
-import { buildTestApp, type TestApp } from '../support/test-app.ts';
-import { keepScreenshot, launchBrowser, signInAtProvider } from '../support/browser.ts';
+import { beforeAll, describe, expect, it } from 'vitest';
+import type { TestApp } from '../support/test-app.ts';
+import { browserSuite } from '../support/browser-suite.ts';
+import { keepScreenshot, signInAtProvider } from '../support/browser.ts';
 import { DEV_ACCOUNTS } from '../../docker-free-scripts/identity-provider/dev-accounts.ts';
 
 const admin = DEV_ACCOUNTS.find((a) => a.role === 'admin')!;
 const newcomer = DEV_ACCOUNTS.find((a) => a.role === 'none')!;
 
+const suite = browserSuite();
 let t: TestApp;
 let appUrl: string;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-
-beforeAll(async () => {
-  t = await buildTestApp();
-  appUrl = await t.listen();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await t?.close();
+beforeAll(() => {
+  ({ t, appUrl } = suite);
 });
 
-async function freshPage(): Promise<Page> {
-  await browser.context.clearCookies();
-  return browser.context.newPage();
-}
+const freshPage = () => suite.freshPage();
 
 describe('signing in through the browser', () => {
   it('a signed-out visitor is sent to sign-in, signs in at the provider and sees their name', async () => {
