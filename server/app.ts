@@ -32,6 +32,8 @@ import { auditRoutes } from './http/labs/audit.router.ts';
 import { createLoggersService } from './services/loggers.service.ts';
 import { createQuarantineService } from './services/quarantine.service.ts';
 import { createIngestService } from './services/ingest/ingest.service.ts';
+import { startBackgroundJobs, type BackgroundJob } from './jobs/background-jobs.ts';
+import { composeIngestHooks } from './services/ingest/ingest-hooks.ts';
 import { createTestReadingService } from './services/test-reading.service.ts';
 import { loggerRoutes } from './http/loggers/loggers.router.ts';
 import { quarantineRoutes } from './http/loggers/quarantine.router.ts';
@@ -91,8 +93,18 @@ export function createApp(deps: AppDeps): Express {
   const audit = createAuditService({ db });
   const nowMs = deps.now ? () => deps.now!().getTime() : undefined;
   const loggers = createLoggersService({ db, now: deps.now });
-  const quarantine = createQuarantineService({ db, now: nowMs });
-  const ingest = createIngestService({ db, now: nowMs });
+  // Every way a reading comes in (API, upload, re-submit, test reading) runs the same hooks.
+  const ingestHooks = composeIngestHooks([
+    // plan limits (billing)
+    // alert evaluation (alerts)
+  ]);
+  /** Scheduled work main.ts starts after listening (tests drive each job directly instead). */
+  const backgroundJobs: BackgroundJob[] = [
+    // usage reconciliation (billing)
+    // alert evaluation and notification sending (alerts)
+  ];
+  const quarantine = createQuarantineService({ db, now: nowMs, hooks: ingestHooks });
+  const ingest = createIngestService({ db, now: nowMs, hooks: ingestHooks });
   const channels = createChannelsService({ db, now: nowMs });
   const diagnostics = createDiagnosticsService({ db, channels, pool: deps.analysisPool });
   const tokens = createPersonalTokensService({ db, now: deps.now });
@@ -101,14 +113,15 @@ export function createApp(deps: AppDeps): Express {
     ...memberRoutes({ members }),
     ...invitationRoutes({ invitations, sendLimit: limits.invitations }),
     ...auditRoutes({ audit }),
-    ...loggerRoutes({ loggers, testReadings: createTestReadingService({ db, now: nowMs }) }),
+    ...loggerRoutes({ loggers, testReadings: createTestReadingService({ db, now: nowMs, hooks: ingestHooks }) }),
     ...quarantineRoutes({ quarantine }),
-    ...uploadRoutes({ uploads: createUploadsService({ db, now: nowMs }), logger }),
+    ...uploadRoutes({ uploads: createUploadsService({ db, now: nowMs, hooks: ingestHooks }), logger }),
     ...channelRoutes({ channels, diagnostics, now: nowMs }),
     ...tokenRoutes({ tokens }),
   ]);
   // The route table, for the role × route test (every lab route and its permission).
   app.locals.labRoutes = labRouteTable.table satisfies LabRouteSummary[];
+  app.locals.startBackgroundJobs = (): (() => Promise<void>) => startBackgroundJobs(backgroundJobs, logger);
 
   app.use(securityHeaders({ secure: config.secureCookies }));
   app.use(healthRouter({ db }));

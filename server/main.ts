@@ -49,11 +49,16 @@ async function main(): Promise<void> {
     server.listen(config.port, config.host, resolve);
   });
   logger.info('Lagbook is listening', { url: config.publicUrl });
+  const stopBackgroundJobs = (app.locals.startBackgroundJobs as () => () => Promise<void>)();
 
   const shutdown = () => {
     server.close(() => {
-      mailer.close();
-      void Promise.all([analysisPool.close(), db.destroy()]).then(() => process.exit(0));
+      void stopBackgroundJobs()
+        .then(() => {
+          mailer.close();
+          return Promise.all([analysisPool.close(), db.destroy()]);
+        })
+        .then(() => process.exit(0));
     });
     setTimeout(() => process.exit(0), 5000).unref();
   };

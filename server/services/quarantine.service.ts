@@ -3,6 +3,7 @@ import { inLab } from '../db/tenant-scope.ts';
 import { quarantineIn, type QuarantinedRow } from '../db/quarantine.repo.ts';
 import { auditIn } from '../db/audit.repo.ts';
 import { NotFoundError } from '../errors.ts';
+import type { IngestHooks } from './ingest/ingest-hooks.ts';
 import { ingestBatch, type IngestOutcome } from './ingest/ingest-batch.ts';
 import type { Actor, LabContext } from './lab-context.ts';
 
@@ -18,7 +19,7 @@ export interface ResubmitRow {
  * re-submit. A re-submitted row goes through exactly the same checks as a logger's; if it
  * fails again it returns to quarantine with its new reason, so nothing is ever lost.
  */
-export function createQuarantineService(deps: { db: Db; now?: () => number }) {
+export function createQuarantineService(deps: { db: Db; now?: () => number; hooks?: IngestHooks }) {
   return {
     list(lab: LabContext, filter: { loggerId?: number; reasonCode?: string; page: number; pageSize: number }) {
       return quarantineIn(inLab(deps.db, lab.id)).list(filter);
@@ -63,7 +64,7 @@ export function createQuarantineService(deps: { db: Db; now?: () => number }) {
           deps.db,
           { tenantId: lab.id, loggerId },
           list.map(({ row, index }) => ({ index, channel: row.channel, ts: row.ts, value: row.value, raw: JSON.stringify(row) })),
-          { source: 'resubmit', now: deps.now },
+          { source: 'resubmit', now: deps.now, hooks: deps.hooks },
         );
         total.accepted += outcome.accepted;
         total.duplicates += outcome.duplicates;

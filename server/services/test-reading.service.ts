@@ -7,6 +7,7 @@ import { readingsIn } from '../db/readings.repo.ts';
 import { auditIn } from '../db/audit.repo.ts';
 import { NotFoundError } from '../errors.ts';
 import { ConflictError } from './service-errors.ts';
+import type { IngestHooks } from './ingest/ingest-hooks.ts';
 import { ingestBatch, type IngestOutcome } from './ingest/ingest-batch.ts';
 import type { Actor, LabContext } from './lab-context.ts';
 
@@ -25,7 +26,7 @@ export interface TestReadingResult {
  * stored through the very ingestion path a logger uses (`ingestBatch`, source `api`), then read
  * back from the database, so a technician sees the whole round trip work before wiring a logger.
  */
-export function createTestReadingService(deps: { db: Db; now?: () => number }) {
+export function createTestReadingService(deps: { db: Db; now?: () => number; hooks?: IngestHooks }) {
   const now = deps.now ?? Date.now;
   return {
     /** Stores `value` for `channel` of the logger at "now", reads it back and audit-logs the attempt. */
@@ -41,7 +42,7 @@ export function createTestReadingService(deps: { db: Db; now?: () => number }) {
         deps.db,
         { tenantId: lab.id, loggerId },
         [{ index: 0, channel: input.channel, ts, value: input.value, raw: JSON.stringify({ channel: input.channel, ts, value: input.value }) }],
-        { source: 'api', now },
+        { source: 'api', now, hooks: deps.hooks },
       );
       const channel = (await channelsIn(scope).listForLogger(loggerId, { includeRetired: true })).find((c) => c.key === input.channel);
       const storedValue = channel ? ((await readingsIn(scope, deps.db).storedAt(channel.id, [ts])).get(ts) ?? null) : null;

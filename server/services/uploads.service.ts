@@ -5,6 +5,7 @@ import { loggersIn } from '../db/loggers.repo.ts';
 import { NotFoundError } from '../errors.ts';
 import { ConflictError } from './service-errors.ts';
 import { importUpload, type UploadLayout, type UploadProgress, type UploadSummary } from './ingest/import-upload.ts';
+import type { IngestHooks } from './ingest/ingest-hooks.ts';
 import type { IngestTarget } from './ingest/ingest-batch.ts';
 import type { LabContext } from './lab-context.ts';
 
@@ -12,7 +13,7 @@ import type { LabContext } from './lab-context.ts';
  * Historical uploads: which logger a file goes to (checked before the answer starts
  * streaming), then the streamed import itself under the same rules as live ingestion.
  */
-export function createUploadsService(deps: { db: Db; now?: () => number }) {
+export function createUploadsService(deps: { db: Db; now?: () => number; hooks?: IngestHooks }) {
   return {
     /** The ingest target for a logger of this lab that can still take history. */
     async targetFor(lab: LabContext, loggerId: number): Promise<IngestTarget> {
@@ -23,7 +24,7 @@ export function createUploadsService(deps: { db: Db; now?: () => number }) {
     },
 
     run(target: IngestTarget, file: Readable, layout: UploadLayout, onProgress: (p: UploadProgress) => void): Promise<UploadSummary> {
-      return importUpload(deps.db, target, file, layout, onProgress, deps.now);
+      return importUpload(deps.db, target, file, layout, onProgress, { now: deps.now, hooks: deps.hooks });
     },
   };
 }

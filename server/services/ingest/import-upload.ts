@@ -2,6 +2,7 @@ import { parse } from 'csv-parse';
 import type { Readable } from 'node:stream';
 import type { Db } from '../../db/create-db.ts';
 import { ValidationError } from '../../errors.ts';
+import type { IngestHooks } from './ingest-hooks.ts';
 import { ingestBatch, type IncomingReading, type IngestTarget, type QuarantinedEntry } from './ingest-batch.ts';
 
 export interface UploadLayout {
@@ -45,7 +46,7 @@ export async function importUpload(
   input: Readable,
   layout: UploadLayout,
   onProgress: (p: UploadProgress) => void,
-  now?: () => number,
+  opts: { now?: () => number; hooks?: IngestHooks } = {},
 ): Promise<UploadSummary> {
   const parser = input.pipe(parse({ delimiter: layout.delimiter, bom: true, trim: true, skip_empty_lines: true, relax_column_count: true, max_record_size: 1 << 20 }));
   const summary: UploadSummary = { lines: 0, readings: 0, accepted: 0, duplicates: 0, quarantined: 0, firstQuarantined: [] };
@@ -60,7 +61,7 @@ export async function importUpload(
 
   const flush = async () => {
     if (batch.length === 0) return;
-    const outcome = await ingestBatch(db, target, batch, { source: 'upload', batchRef, timeFormat: layout.timeFormat, timeZone: layout.timeZone, now });
+    const outcome = await ingestBatch(db, target, batch, { source: 'upload', batchRef, timeFormat: layout.timeFormat, timeZone: layout.timeZone, now: opts.now, hooks: opts.hooks });
     summary.accepted += outcome.accepted;
     summary.duplicates += outcome.duplicates;
     summary.quarantined += outcome.quarantined.length;

@@ -8,6 +8,7 @@ import { quarantineIn, type QuarantineInput } from '../../db/quarantine.repo.ts'
 import { parseReadingTime, type TimeFormat } from './parse-reading-time.ts';
 import { isLockConflict } from '../../db/db-errors.ts';
 import { channelStateIn } from '../../db/channel-state.repo.ts';
+import type { IngestHooks, StoredBatch } from './ingest-hooks.ts';
 
 /** One row as it arrived, before anything is checked. `index` is its position in the request. */
 export interface IncomingReading {
@@ -42,6 +43,8 @@ export interface IngestOptions {
   timeFormat?: TimeFormat;
   timeZone?: string;
   now?: () => number;
+  /** Plan limits, alerts and the like (see ingest-hooks.ts). */
+  hooks?: IngestHooks;
 }
 
 /** Readings more than this far in the future are refused (a logger clock that is badly off). */
@@ -80,7 +83,9 @@ export async function ingestBatch(db: Db, target: IngestTarget, rows: IncomingRe
       // READ COMMITTED: the rollup INSERT … SELECT reads without gap locks (binary log is off),
       // so batches of different loggers never block each other; the logger-row lock already
       // serialises writers of the same channels.
-      return await db.transaction((trx) => applyBatch(trx as unknown as Db, target, rows, opts), { isolationLevel: 'read committed' });
+      const { outcome, stored } = await db.transaction((trx) => applyBatch(trx as unknown as Db, target, rows, opts), { isolationLevel: 'read committed' });
+      if (stored.accepted > 0) opts.hooks?.afterCommit?.(stored);
+      return outcome;
     } catch (err) {
       if (attempt < 3 && isLockConflict(err)) continue;
       throw err;
@@ -88,7 +93,7 @@ export async function ingestBatch(db: Db, target: IngestTarget, rows: IncomingRe
   }
 }
 
-async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[], opts: IngestOptions): Promise<IngestOutcome> {
+async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[], opts: IngestOptions): Promise<{ outcome: IngestOutcome; stored: StoredBatch }> {
   const now = opts.now ?? Date.now;
   const batchRef = opts.batchRef ?? randomBytes(8).toString('hex');
   const scope = inLab(trx, target.tenantId);
@@ -200,9 +205,23 @@ async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[]
     const latest = candidates.filter((c, i) => i + 1 === candidates.length || candidates[i + 1].channelId !== c.channelId);
     await channelStateIn(scope, trx).advance(latest.map((c) => ({ channelId: c.channelId, ts: c.ts })));
   }
+  const stored: StoredBatch = { target, source: opts.source, accepted, channels: accepted > 0 ? channelSpans(candidates) : [] };
+  // Last before the rows become final: a hook may still refuse the whole batch.
+  if (opts.hooks?.beforeCommit) await opts.hooks.beforeCommit(trx, stored);
   if (quarantine.length) await quarantineIn(scope).add(quarantine);
   if (opts.source === 'api') await loggersIn(scope).markSeen(target.loggerId, now());
 
   out.sort((a, b) => a.index - b.index);
-  return { accepted, duplicates, quarantined: out };
+  return { outcome: { accepted, duplicates, quarantined: out }, stored };
+}
+
+/** Oldest and newest time per channel of candidates sorted by channel, then time. */
+function channelSpans(sorted: ReadonlyArray<{ channelId: number; ts: number }>): StoredBatch['channels'] {
+  const spans: StoredBatch['channels'] = [];
+  for (const c of sorted) {
+    const last = spans[spans.length - 1];
+    if (last && last.channelId === c.channelId) last.newestTs = c.ts;
+    else spans.push({ channelId: c.channelId, oldestTs: c.ts, newestTs: c.ts });
+  }
+  return spans;
 }

@@ -4,6 +4,7 @@ import { ingestKeysIn } from '../../db/ingest-keys.repo.ts';
 import { inLab } from '../../db/tenant-scope.ts';
 import { AppError } from '../../errors.ts';
 import { ingestKeyMatches, ingestKeyPrefix } from '../ingest-key-format.ts';
+import type { IngestHooks } from './ingest-hooks.ts';
 import { ingestBatch, type IncomingReading, type IngestOptions, type IngestOutcome, type IngestTarget } from './ingest-batch.ts';
 
 /** 401 for a missing, malformed, unknown or revoked ingest key (one answer for all: nothing to probe). */
@@ -20,7 +21,7 @@ export interface AuthenticatedLogger extends IngestTarget {
 const TOUCH_EVERY_MS = 60_000;
 
 /** The logger side of ingestion: who is sending (by key) and storing what they send. */
-export function createIngestService(deps: { db: Db; now?: () => number }) {
+export function createIngestService(deps: { db: Db; now?: () => number; hooks?: IngestHooks }) {
   const now = deps.now ?? Date.now;
   return {
     /** Resolves a presented key to its lab and logger; refuses revoked keys and retired loggers. */
@@ -36,7 +37,7 @@ export function createIngestService(deps: { db: Db; now?: () => number }) {
     },
 
     ingest(target: IngestTarget, rows: IncomingReading[], opts: Omit<IngestOptions, 'now'>): Promise<IngestOutcome> {
-      return ingestBatch(deps.db, target, rows, { ...opts, now });
+      return ingestBatch(deps.db, target, rows, { ...opts, now, hooks: deps.hooks });
     },
   };
 }
