@@ -20,6 +20,7 @@ const config = loadConfig({
   OIDC_CLIENT_ID: 'bench',
   OIDC_CLIENT_SECRET: 'bench',
   STRIPE_SECRET_KEY: 'sk_test_bench',
+  STRIPE_WEBHOOK_SECRET: 'whsec_bench',
 });
 const db = createDb({ ...dbConfig, poolMax: 20 });
 const app = createApp({

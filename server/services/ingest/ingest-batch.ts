@@ -16,8 +16,11 @@ export interface IncomingReading {
   channel: unknown;
   ts: unknown;
   value: unknown;
-  /** The row as sent (a CSV line, a JSON object), kept in quarantine for review. */
-  raw?: string;
+  /**
+   * The row as sent (a CSV line, a JSON object), kept in quarantine for review — or a function
+   * that renders it, called only for a row that goes to quarantine (most rows never need it).
+   */
+  raw?: string | (() => string);
 }
 
 export interface QuarantinedEntry {
@@ -117,13 +120,14 @@ async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[]
       // upload's time zone or format; the row as sent stays in `raw`
       tsRaw: parsedTs !== undefined ? new Date(parsedTs).toISOString() : text(row.ts),
       valueRaw: text(row.value),
-      raw: row.raw ?? null,
+      raw: (typeof row.raw === 'function' ? row.raw() : row.raw) ?? null,
     });
   };
 
   // 1. Read and check each row; keep the first value per (channel, ts) in this batch.
   const candidates: Array<ReadingRow & { row: IncomingReading }> = [];
-  const seen = new Map<string, number>();
+  // first value per channel and time (numeric keys: no string built per row)
+  const seen = new Map<number, Map<number, number>>();
   let duplicatesInBatch = 0;
   const latestAllowed = now() + MAX_FUTURE_MS;
   for (const row of rows) {
@@ -155,14 +159,14 @@ async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[]
       reject(row, 'bad_value', 'value: must be a finite number', time.ts);
       continue;
     }
-    const k = `${channel.id}:${time.ts}`;
-    const first = seen.get(k);
+    const seenOfChannel = seen.get(channel.id) ?? seen.set(channel.id, new Map()).get(channel.id)!;
+    const first = seenOfChannel.get(time.ts);
     if (first !== undefined) {
       if (Object.is(first, value) || first === value) duplicatesInBatch++;
       else reject(row, 'conflict_in_batch', 'ts: this batch has another value for the same channel and time', time.ts);
       continue;
     }
-    seen.set(k, value);
+    seenOfChannel.set(time.ts, value);
     candidates.push({ channelId: channel.id, ts: time.ts, value, row });
   }
 
