@@ -17,10 +17,10 @@ export interface IncomingReading {
   ts: unknown;
   value: unknown;
   /**
-   * The row as sent (a CSV line, a JSON object), kept in quarantine for review — or a function
-   * that renders it, called only for a row that goes to quarantine (most rows never need it).
+   * The row as sent, kept in quarantine for review: a CSV line, or the JSON value itself, which
+   * is rendered as text only if the row goes to quarantine (most rows never need it).
    */
-  raw?: string | (() => string);
+  raw?: string | object;
 }
 
 export interface QuarantinedEntry {
@@ -120,7 +120,7 @@ async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[]
       // upload's time zone or format; the row as sent stays in `raw`
       tsRaw: parsedTs !== undefined ? new Date(parsedTs).toISOString() : text(row.ts),
       valueRaw: text(row.value),
-      raw: (typeof row.raw === 'function' ? row.raw() : row.raw) ?? null,
+      raw: row.raw === undefined ? null : typeof row.raw === 'string' ? row.raw : (JSON.stringify(row.raw) ?? null),
     });
   };
 

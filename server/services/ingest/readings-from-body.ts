@@ -13,10 +13,11 @@ export function readingsFromJson(body: unknown): IncomingReading[] {
     throw new ValidationError('body: expected {"readings": [{"channel": …, "ts": …, "value": …}, …]}');
   }
   return list.map((item, index) => {
-    const raw = () => JSON.stringify(item) ?? 'undefined';
-    if (!item || typeof item !== 'object' || Array.isArray(item)) return { index, channel: undefined, ts: undefined, value: undefined, raw };
+    if (!item || typeof item !== 'object' || Array.isArray(item)) {
+      return { index, channel: undefined, ts: undefined, value: undefined, raw: JSON.stringify(item) ?? 'undefined' };
+    }
     const r = item as Record<string, unknown>;
-    return { index, channel: r.channel, ts: r.ts, value: r.value, raw };
+    return { index, channel: r.channel, ts: r.ts, value: r.value, raw: r };
   });
 }
 
@@ -39,7 +40,7 @@ export function readingsFromCsv(text: string): IncomingReading[] {
   const at = REQUIRED.map((name) => header.indexOf(name));
   if (at.some((i) => i < 0)) throw new ValidationError(`header: expected columns channel, ts, value (got ${header.join(', ').slice(0, 120)})`);
   return records.slice(1).map((fields, i) => {
-    const raw = () => fields.join(',');
+    const raw = fields.join(',');
     if (fields.length !== header.length) return { index: i, channel: undefined, ts: undefined, value: undefined, raw };
     return { index: i, channel: fields[at[0]], ts: fields[at[1]], value: fields[at[2]], raw };
   });

@@ -27,7 +27,9 @@ export async function startBenchStack(): Promise<BenchStack> {
   const db = createDb(dbConfig);
   await migrateToLatest(db);
   const [appPort] = freePorts(1);
-  const app = spawn('node', ['--import', 'tsx', join(ROOT, 'tests/support/app-server-entry.ts')], {
+  // BENCH_APP_NODE_ARGS passes extra flags to the app's node, e.g. "--cpu-prof --cpu-prof-dir=/tmp/p" to profile it.
+  const extraArgs = (process.env.BENCH_APP_NODE_ARGS ?? '').split(' ').filter(Boolean);
+  const app = spawn('node', [...extraArgs, '--import', 'tsx', join(ROOT, 'tests/support/app-server-entry.ts')], {
     env: { ...server.env, APP_PORT: String(appPort), APP_DB: JSON.stringify(dbConfig) },
     stdio: ['ignore', 'inherit', 'inherit'],
   });
