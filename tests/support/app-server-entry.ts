@@ -24,7 +24,7 @@ const config = loadConfig({
 });
 const db = createDb({ ...dbConfig, poolMax: 20 });
 const app = createApp({
-  config: { ...config, db: dbConfig },
+  config: { ...config, db: { ...dbConfig, poolMax: 20 } },
   db,
   logger: createLogger({ silent: true }),
   identity: { endpoints: { issuer: 'http://127.0.0.1:9', authorization_endpoint: 'http://127.0.0.1:9/a', token_endpoint: 'http://127.0.0.1:9/t', userinfo_endpoint: 'http://127.0.0.1:9/u' } },

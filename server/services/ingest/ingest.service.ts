@@ -1,3 +1,4 @@
+import pLimit from 'p-limit';
 import type { Db } from '../../db/create-db.ts';
 import { findIngestKeyByPrefix } from '../../db/ingest-keys.repo.ts';
 import { ingestKeysIn } from '../../db/ingest-keys.repo.ts';
@@ -21,8 +22,11 @@ export interface AuthenticatedLogger extends IngestTarget {
 const TOUCH_EVERY_MS = 60_000;
 
 /** The logger side of ingestion: who is sending (by key) and storing what they send. */
-export function createIngestService(deps: { db: Db; now?: () => number; hooks?: IngestHooks }) {
+export function createIngestService(deps: { db: Db; now?: () => number; hooks?: IngestHooks; maxConcurrentBatches?: number }) {
   const now = deps.now ?? Date.now;
+  // Batches beyond this many wait their turn here instead of taking every pooled connection,
+  // so people browsing while many loggers post still find a free connection at once.
+  const gate = pLimit(deps.maxConcurrentBatches ?? 4);
   return {
     /** Resolves a presented key to its lab and logger; refuses revoked keys and retired loggers. */
     async authenticate(presented: string | undefined): Promise<AuthenticatedLogger> {
@@ -37,7 +41,7 @@ export function createIngestService(deps: { db: Db; now?: () => number; hooks?: 
     },
 
     ingest(target: IngestTarget, rows: IncomingReading[], opts: Omit<IngestOptions, 'now'>): Promise<IngestOutcome> {
-      return ingestBatch(deps.db, target, rows, { ...opts, now, hooks: deps.hooks });
+      return gate(() => ingestBatch(deps.db, target, rows, { ...opts, now, hooks: deps.hooks }));
     },
   };
 }
