@@ -11,6 +11,7 @@ import { writeFileSync } from 'node:fs';
 import { startIdentityProvider } from './identity-provider/identity-provider.ts';
 import { startStripeStandIn } from './stripe-stand-in/stripe-stand-in.ts';
 import { startMailCapture } from './mail-capture/mail-capture.ts';
+import { loadPlanCatalog } from '../server/services/billing/plan-catalog.ts';
 
 function setting(name: string, fallback?: string): string {
   const value = process.env[name] ?? fallback;
@@ -49,7 +50,15 @@ async function main(): Promise<void> {
       ],
     });
     started.push(idp);
-    const stripe = await startStripeStandIn({ port: portOf(stripeBase) });
+    // the catalog's paid plans become the stand-in's prices; its webhooks go to the app
+    const catalog = loadPlanCatalog(setting('LAGBOOK_PLANS_FILE', 'tenants/plans.json'));
+    const stripe = await startStripeStandIn({
+      port: portOf(stripeBase),
+      prices: catalog.plans
+        .filter((p) => p.priceLookupKey !== null)
+        .map((p) => ({ lookupKey: p.priceLookupKey!, productName: `Lagbook ${p.name}`, unitAmount: p.monthlyAmount, currency: catalog.currency, interval: 'month' as const })),
+      webhook: { url: `${publicUrl}/api/v1/billing/stripe-webhooks`, secret: setting('STRIPE_WEBHOOK_SECRET', 'whsec_lagbook_local_stand_in') },
+    });
     started.push(stripe);
     const mail = await startMailCapture({ smtpPort, httpPort: mailHttpPort });
     started.push(mail);

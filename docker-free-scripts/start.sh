@@ -26,6 +26,7 @@ export OIDC_CLIENT_SECRET="${OIDC_CLIENT_SECRET:-lagbook-dev-secret}"
 export SMTP_PORT="${SMTP_PORT:-4325}"
 export LAGBOOK_MAIL_HTTP_PORT="${LAGBOOK_MAIL_HTTP_PORT:-4326}"
 export STRIPE_SECRET_KEY="${STRIPE_SECRET_KEY:-sk_test_lagbook_local_stand_in}"
+export STRIPE_WEBHOOK_SECRET="${STRIPE_WEBHOOK_SECRET:-whsec_lagbook_local_stand_in}"
 # The Stripe stand-in is a development tool; config refuses it when NODE_ENV=production,
 # so the local run is marked as development while still serving the production build.
 export NODE_ENV=development

@@ -25,6 +25,7 @@ export OIDC_CLIENT_ID=lagbook-test
 export OIDC_CLIENT_SECRET="test-client-secret"
 export STRIPE_API_BASE="http://127.0.0.1:${PORTS[3]}"
 export STRIPE_SECRET_KEY=sk_test_lagbook_tests
+export STRIPE_WEBHOOK_SECRET=whsec_lagbook_tests
 export SMTP_PORT="${PORTS[4]}"
 export LAGBOOK_MAIL_HTTP_PORT="${PORTS[5]}"
 export LAGBOOK_MAIL_CAPTURE_URL="http://127.0.0.1:$LAGBOOK_MAIL_HTTP_PORT"

@@ -45,6 +45,16 @@ import { createDiagnosticsService } from './services/diagnostics.service.ts';
 import { channelRoutes } from './http/channels/channels.router.ts';
 import { createPersonalTokensService } from './services/personal-tokens.service.ts';
 import { tokenRoutes } from './http/tokens/tokens.router.ts';
+import { alertRoutes } from './http/alerts/alerts.router.ts';
+import { createAlertsFeature } from './services/alerts/alerts-feature.ts';
+import { loadPlanCatalog } from './services/billing/plan-catalog.ts';
+import { createPlanLimits } from './services/billing/plan-limits.ts';
+import { createUsageJob } from './services/billing/usage-job.ts';
+import { createBillingService } from './services/billing/billing.service.ts';
+import { createStripeWebhooks } from './services/billing/stripe-webhooks.service.ts';
+import { billingRoutes } from './http/billing/billing.router.ts';
+import { stripeWebhooksRouter } from './http/billing/stripe-webhooks.router.ts';
+import { billingRetryAfter } from './http/billing/billing-retry-after.ts';
 import { buildOpenApiDocument } from './http/openapi/openapi-document.ts';
 import { openApiRouter } from './http/openapi/openapi.router.ts';
 import type { AnalysisPool } from './workers/analysis-pool.ts';
@@ -78,6 +88,10 @@ export interface AppDeps {
 export function createApp(deps: AppDeps): Express {
   const { config, db, logger } = deps;
   const limits = resolveRateLimits(deps.rateLimits);
+  // The plan catalog is read and validated at start: a bad file stops the server (ConfigError).
+  const plans = loadPlanCatalog(config.stripe.plansFile);
+  const planLimits = createPlanLimits({ db, catalog: plans, logger, now: deps.now });
+  const usageJob = createUsageJob({ db, catalog: plans, mailer: deps.mailer, logger, publicUrl: config.publicUrl, now: deps.now });
   const app = express();
   app.disable('x-powered-by');
   if (config.secureCookies) app.set('trust proxy', 1);
@@ -89,25 +103,30 @@ export function createApp(deps: AppDeps): Express {
   const passport = createPassport({ config, endpoints: deps.identity.endpoints, users, signIn });
   const labsService = createLabsService({ db });
   const members = createMembersService({ db });
-  const invitations = createInvitationsService({ db, mailer: deps.mailer, publicUrl: config.publicUrl, now: deps.now });
+  const invitations = createInvitationsService({ db, mailer: deps.mailer, publicUrl: config.publicUrl, now: deps.now, planLimits });
   const audit = createAuditService({ db });
   const nowMs = deps.now ? () => deps.now!().getTime() : undefined;
-  const loggers = createLoggersService({ db, now: deps.now });
+  const loggers = createLoggersService({ db, now: deps.now, planLimits });
+  const alerts = createAlertsFeature({ db, mailer: deps.mailer, logger, config, now: nowMs });
   // Every way a reading comes in (API, upload, re-submit, test reading) runs the same hooks.
   const ingestHooks = composeIngestHooks([
-    // plan limits (billing)
+    planLimits.ingestHooks,
     // alert evaluation (alerts)
+    alerts.ingestHooks,
   ]);
   /** Scheduled work main.ts starts after listening (tests drive each job directly instead). */
   const backgroundJobs: BackgroundJob[] = [
-    // usage reconciliation (billing)
+    usageJob.job,
     // alert evaluation and notification sending (alerts)
+    alerts.job,
   ];
   const quarantine = createQuarantineService({ db, now: nowMs, hooks: ingestHooks });
-  const ingest = createIngestService({ db, now: nowMs, hooks: ingestHooks });
+  // Half the database pool at most for logger batches; the rest stays free for people browsing.
+  const ingest = createIngestService({ db, now: nowMs, hooks: ingestHooks, maxConcurrentBatches: Math.max(1, Math.ceil(config.db.poolMax / 2)) });
   const channels = createChannelsService({ db, now: nowMs });
   const diagnostics = createDiagnosticsService({ db, channels, pool: deps.analysisPool });
   const tokens = createPersonalTokensService({ db, now: deps.now });
+  const billingService = createBillingService({ db, stripe: deps.billing, catalog: plans, publicUrl: config.publicUrl, now: deps.now });
   const labRouteTable = mountLabRoutes(createLabGuard(db, { tokens }), [
     ...labRoutes(),
     ...memberRoutes({ members }),
@@ -116,8 +135,10 @@ export function createApp(deps: AppDeps): Express {
     ...loggerRoutes({ loggers, testReadings: createTestReadingService({ db, now: nowMs, hooks: ingestHooks }) }),
     ...quarantineRoutes({ quarantine }),
     ...uploadRoutes({ uploads: createUploadsService({ db, now: nowMs, hooks: ingestHooks }), logger }),
-    ...channelRoutes({ channels, diagnostics, now: nowMs }),
+    ...channelRoutes({ channels, diagnostics, now: nowMs, historyWindow: (lab) => billingService.historyWindowFor(lab) }),
+    ...alertRoutes({ alerts: alerts.service, now: nowMs }),
     ...tokenRoutes({ tokens }),
+    ...billingRoutes({ billing: billingService }),
   ]);
   // The route table, for the role × route test (every lab route and its permission).
   app.locals.labRoutes = labRouteTable.table satisfies LabRouteSummary[];
@@ -129,6 +150,12 @@ export function createApp(deps: AppDeps): Express {
   // Loggers authenticate with their key, not a session: ingestion comes before the session
   // middleware and takes its own (larger) body limits.
   app.use(ingestRouter({ ingest, rate: deps.ingestRate }));
+  // Stripe signs the raw body: its webhook route also comes before sessions and JSON parsing.
+  app.use(
+    stripeWebhooksRouter({
+      webhooks: createStripeWebhooks({ db, stripe: deps.billing, catalog: plans, mailer: deps.mailer, logger, webhookSecret: config.stripe.webhookSecret, graceDays: config.stripe.graceDays, publicUrl: config.publicUrl }),
+    }),
+  );
   app.use(sessionMiddleware({ db, secret: config.sessionSecret, secure: config.secureCookies }));
   app.use(passport.session());
   app.use(sameOriginWrites(config.publicUrl));
@@ -143,6 +170,7 @@ export function createApp(deps: AppDeps): Express {
   app.use(['/api', '/auth'], (req, _res, next) => next(new NotFoundError(`No route for ${req.method} ${req.originalUrl.split('?')[0]}.`)));
   if (config.clientDir) app.use(staticClient(config.clientDir));
   app.use((req, _res, next) => next(new NotFoundError(`No route for ${req.method} ${req.path}.`)));
+  app.use(billingRetryAfter());
   app.use(errorHandler(logger));
   return app;
 }

@@ -8,6 +8,7 @@ const valid = {
   OIDC_CLIENT_ID: 'lagbook',
   OIDC_CLIENT_SECRET: 'secret',
   STRIPE_SECRET_KEY: 'sk_test_123',
+  STRIPE_WEBHOOK_SECRET: 'whsec_123',
 };
 
 describe('loadConfig', () => {
@@ -36,6 +37,7 @@ describe('loadConfig', () => {
         '  OIDC_CLIENT_ID: required but not set',
         '  OIDC_CLIENT_SECRET: required but not set',
         '  STRIPE_SECRET_KEY: required but not set',
+        '  STRIPE_WEBHOOK_SECRET: required but not set',
       ].join('\n'),
     );
   });

@@ -38,10 +38,20 @@ const envSchema = z.object({
   SMTP_USER: z.string().optional(),
   SMTP_PASSWORD: z.string().optional(),
   MAIL_FROM: z.string().min(3).default('Lagbook <lagbook@localhost>'),
+  /** Seconds between scheduled alert evaluations (silence, reminders, queued mail). */
+  LAGBOOK_ALERT_EVALUATE_EVERY_S: z.coerce.number().int().min(5).max(3600).default(30),
+  /** Minutes an alert stays open before its first reminder, when its rule sets none (0: no reminders). */
+  LAGBOOK_ALERT_REMINDER_AFTER_MIN: z.coerce.number().int().min(0).max(10080).default(60),
 
   STRIPE_SECRET_KEY: z.string().regex(/^sk_(test|live)_/, 'must start with sk_test_ or sk_live_'),
   /** Set only in development and tests: the base URL of the local Stripe stand-in. */
   STRIPE_API_BASE: z.url().optional(),
+  /** Signing secret of the Stripe webhook endpoint (Stripe dashboard → the endpoint's signing secret). */
+  STRIPE_WEBHOOK_SECRET: z.string().regex(/^whsec_\w+$/, 'must start with whsec_'),
+  /** Days a lab keeps its paid plan after a failed payment before it is treated as free. */
+  LAGBOOK_BILLING_GRACE_DAYS: z.coerce.number().int().min(0).max(60).default(7),
+  /** The plan catalog (limits and Stripe price lookup keys). */
+  LAGBOOK_PLANS_FILE: z.string().min(1).default('tenants/plans.json'),
 });
 
 export interface Config {
@@ -57,7 +67,8 @@ export interface Config {
   secureCookies: boolean;
   oidc: { issuer: string; clientId: string; clientSecret: string; redirectUri: string };
   smtp: { host: string; port: number; secure: boolean; user?: string; password?: string; from: string };
-  stripe: { secretKey: string; apiBase: URL | null };
+  alerts: { evaluateEveryS: number; reminderAfterMin: number };
+  stripe: { secretKey: string; apiBase: URL | null; webhookSecret: string; graceDays: number; plansFile: string };
 }
 
 /** Only the database settings (for operator commands that need nothing else). */
@@ -125,6 +136,13 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
       password: e.SMTP_PASSWORD,
       from: e.MAIL_FROM,
     },
-    stripe: { secretKey: e.STRIPE_SECRET_KEY, apiBase: e.STRIPE_API_BASE ? new URL(e.STRIPE_API_BASE) : null },
+    alerts: { evaluateEveryS: e.LAGBOOK_ALERT_EVALUATE_EVERY_S, reminderAfterMin: e.LAGBOOK_ALERT_REMINDER_AFTER_MIN },
+    stripe: {
+      secretKey: e.STRIPE_SECRET_KEY,
+      apiBase: e.STRIPE_API_BASE ? new URL(e.STRIPE_API_BASE) : null,
+      webhookSecret: e.STRIPE_WEBHOOK_SECRET,
+      graceDays: e.LAGBOOK_BILLING_GRACE_DAYS,
+      plansFile: e.LAGBOOK_PLANS_FILE,
+    },
   };
 }

@@ -27,11 +27,13 @@ export const paths = {
     path: '/labs/:lab/channels/:channelId',
     href: (slug: string, channelId: number) => `/labs/${encodeURIComponent(slug)}/channels/${channelId}`,
   },
+  labAlerts: { path: '/labs/:lab/alerts', href: (slug: string) => `/labs/${encodeURIComponent(slug)}/alerts` },
   labQuarantine: {
     path: '/labs/:lab/quarantine',
     href: (slug: string, search = '') => `/labs/${encodeURIComponent(slug)}/quarantine${search && !search.startsWith('?') ? `?${search}` : search}`,
   },
   labTokens: { path: '/labs/:lab/tokens', href: (slug: string) => `/labs/${encodeURIComponent(slug)}/tokens` },
+  labBilling: { path: '/labs/:lab/billing', href: (slug: string) => `/labs/${encodeURIComponent(slug)}/billing` },
   // Not `/api`: the server answers everything below /api itself, so a reload there would miss the client.
   apiReference: { path: '/api-reference', href: () => '/api-reference' },
   joinLab: {

@@ -1,3 +1,5 @@
+import { createServer, type Server } from 'node:http';
+import type { AddressInfo } from 'node:net';
 import Stripe from 'stripe';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startStripeStandIn, type RunningStripeStandIn } from './stripe-stand-in.ts';
@@ -117,5 +119,137 @@ describe('Stripe stand-in', () => {
     const anonymous = await fetch(`${standIn.url}/v1/customers`, { method: 'POST' });
     expect(anonymous.status).toBe(401);
     expect(await anonymous.json()).toMatchObject({ error: { type: 'invalid_request_error' } });
+  });
+});
+
+describe('Stripe stand-in: checkout, portal, subscriptions, invoices and signed webhooks', () => {
+  const SECRET = 'whsec_stand_in_unit_test';
+  const received: Stripe.Event[] = [];
+  let failNext = 1; // the first delivery is answered 500, to exercise the retry
+  let receiver: Server;
+  let receiverUrl: string;
+  let billing: RunningStripeStandIn;
+  let client: Stripe;
+
+  beforeAll(async () => {
+    receiver = createServer((req, res) => {
+      const chunks: Buffer[] = [];
+      req.on('data', (c: Buffer) => chunks.push(c));
+      req.on('end', () => {
+        if (failNext > 0) {
+          failNext--;
+          res.writeHead(500).end();
+          return;
+        }
+        try {
+          // the official SDK's verification is the check on signature and body
+          received.push(client.webhooks.constructEvent(Buffer.concat(chunks), String(req.headers['stripe-signature']), SECRET));
+          res.writeHead(200).end();
+        } catch {
+          res.writeHead(400).end();
+        }
+      });
+    });
+    await new Promise<void>((r) => receiver.listen(0, '127.0.0.1', r));
+    receiverUrl = `http://127.0.0.1:${(receiver.address() as AddressInfo).port}/hook`;
+    billing = await startStripeStandIn({ port: 0, prices: PRICES, webhook: { url: receiverUrl, secret: SECRET }, webhookBackoffMs: [0, 20, 20] });
+    client = new Stripe('sk_test_standin', { host: '127.0.0.1', port: billing.port, protocol: 'http', maxNetworkRetries: 0 });
+  });
+  afterAll(async () => {
+    await billing?.close();
+    receiver?.closeAllConnections();
+    await new Promise((r) => receiver?.close(r));
+  });
+
+  async function openCheckout() {
+    const customer = await client.customers.create({ name: 'Fernhollow Field Station' });
+    const [price] = (await client.prices.list({ lookup_keys: ['canopy-monthly'] })).data;
+    const session = await client.checkout.sessions.create({
+      mode: 'subscription',
+      customer: customer.id,
+      client_reference_id: 'lab-7',
+      line_items: [{ price: price.id, quantity: 1 }],
+      metadata: { plan_key: 'canopy' },
+      subscription_data: { metadata: { plan_key: 'canopy' } },
+      success_url: 'http://127.0.0.1:1/back?checkout=complete',
+      cancel_url: 'http://127.0.0.1:1/back?checkout=cancelled',
+    });
+    return { customer, session };
+  }
+
+  it('creates a Checkout Session whose page sells the price, and paying sends signed events in order, retrying a failed delivery', async () => {
+    const { customer, session } = await openCheckout();
+    expect(session).toMatchObject({ object: 'checkout.session', status: 'open', payment_status: 'unpaid', customer: customer.id, amount_total: 9900 });
+    expect(session.url).toBe(`${billing.url}/checkout/${session.id}`);
+    const html = await (await fetch(session.url!)).text();
+    expect(html).toContain('Subscribe to Canopy plan');
+    expect(html).toContain('99.00 EUR');
+
+    const declined = await fetch(`${session.url}/decline`, { method: 'POST' });
+    expect(await declined.text()).toContain('The card was declined');
+    expect((await client.checkout.sessions.retrieve(session.id)).status).toBe('open');
+
+    const paid = await fetch(`${session.url}/pay`, { method: 'POST', redirect: 'manual' });
+    expect(paid.status).toBe(303);
+    expect(paid.headers.get('location')).toBe('http://127.0.0.1:1/back?checkout=complete');
+    await billing.webhooks.idle();
+
+    expect(received.map((e) => e.type)).toEqual(['customer.subscription.created', 'invoice.paid', 'checkout.session.completed']);
+    const attempts = billing.webhooks.deliveries();
+    expect(attempts[0]).toMatchObject({ type: 'customer.subscription.created', attempt: 1, status: 500 });
+    expect(attempts[1]).toMatchObject({ type: 'customer.subscription.created', attempt: 2, status: 200 });
+
+    const completed = received[2].data.object as Stripe.Checkout.Session;
+    expect(completed).toMatchObject({ status: 'complete', payment_status: 'paid', client_reference_id: 'lab-7', metadata: { plan_key: 'canopy' } });
+    const sub = await client.subscriptions.retrieve(completed.subscription as string);
+    expect(sub).toMatchObject({ status: 'active', customer: customer.id, metadata: { plan_key: 'canopy' } });
+    expect(sub.items.data[0].price.lookup_key).toBe('canopy-monthly');
+    const invoices = await client.invoices.list({ customer: customer.id });
+    expect(invoices.data).toHaveLength(1);
+    expect(invoices.data[0]).toMatchObject({ status: 'paid', amount_paid: 9900, currency: 'eur' });
+    expect(invoices.data[0].parent?.subscription_details?.subscription).toBe(sub.id);
+    expect((await fetch(invoices.data[0].hosted_invoice_url!)).status).toBe(200);
+    // a completed session cannot be paid twice
+    expect((await fetch(`${session.url}/pay`, { method: 'POST', redirect: 'manual' })).status).toBe(400);
+  });
+
+  it('runs the portal: a failed renewal makes the subscription past due, paying restores it, cancelling deletes it', async () => {
+    received.length = 0;
+    const { customer, session } = await openCheckout();
+    await fetch(`${session.url}/pay`, { method: 'POST', redirect: 'manual' });
+    const sub = (await client.subscriptions.list({ customer: customer.id })).data[0];
+    const portal = await client.billingPortal.sessions.create({ customer: customer.id, return_url: 'http://127.0.0.1:1/back' });
+    expect(portal.url).toBe(`${billing.url}/portal/${portal.id}`);
+    expect(await (await fetch(portal.url)).text()).toContain('Make the next renewal fail');
+
+    const press = (what: string) => fetch(`${portal.url}/${what}`, { method: 'POST', body: new URLSearchParams({ subscription: sub.id }), redirect: 'manual' });
+    expect((await press('fail-renewal')).status).toBe(303);
+    expect((await client.subscriptions.retrieve(sub.id)).status).toBe('past_due');
+    expect((await press('pay-open')).status).toBe(303);
+    expect((await client.subscriptions.retrieve(sub.id)).status).toBe('active');
+    expect((await press('cancel')).status).toBe(303);
+    expect((await client.subscriptions.retrieve(sub.id)).status).toBe('canceled');
+    await billing.webhooks.idle();
+    expect(received.map((e) => e.type).slice(3)).toEqual([
+      'invoice.payment_failed',
+      'customer.subscription.updated',
+      'invoice.paid',
+      'customer.subscription.updated',
+      'customer.subscription.deleted',
+    ]);
+    // each event carries the object as it was then (a snapshot), not as it is now
+    expect((received[4].data.object as Stripe.Subscription).status).toBe('past_due');
+    expect((await client.invoices.list({ customer: customer.id })).data.map((i) => i.status)).toEqual(['paid', 'paid']);
+  });
+
+  it('refuses a checkout for an unknown price or customer the way Stripe does', async () => {
+    const customer = await client.customers.create({});
+    const failure = await client.checkout.sessions
+      .create({ mode: 'subscription', customer: customer.id, line_items: [{ price: 'price_missing', quantity: 1 }], success_url: 'http://127.0.0.1:1/' })
+      .catch((e: unknown) => e);
+    expect(failure).toBeInstanceOf(Stripe.errors.StripeInvalidRequestError);
+    expect((failure as Stripe.errors.StripeError).code).toBe('resource_missing');
+    const noCustomer = await client.billingPortal.sessions.create({ customer: 'cus_missing' }).catch((e: unknown) => e);
+    expect((noCustomer as Stripe.errors.StripeError).statusCode).toBe(404);
   });
 });

@@ -50,20 +50,16 @@ export function augmentedDickeyFuller(x: Series, options: AugmentedDickeyFullerO
   }
   const maxLags = Math.floor((n - 4) / 2);
   const lags = integerOption(fn, 'lags', options.lags ?? Math.min(maxLags, Math.floor(12 * (n / 100) ** 0.25)), 0, maxLags);
+  const values = x instanceof Float64Array ? x : Float64Array.from(x);
   const diff = new Float64Array(n - 1);
-  for (let t = 1; t < n; t++) diff[t - 1] = x[t] - x[t - 1];
-  // Row r answers Δx at diff index d = lags + r.
+  for (let t = 1; t < n; t++) diff[t - 1] = values[t] - values[t - 1];
+  // Row r answers Δx at diff index d = lags + r; every column is a view, nothing is copied.
   const rows = n - 1 - lags;
-  const y = diff.slice(lags);
-  const level = new Float64Array(rows);
+  const y = diff.subarray(lags);
+  const level = values.subarray(lags, lags + rows);
   const constant = new Float64Array(rows).fill(1);
   const lagged: Float64Array[] = [];
-  for (let r = 0; r < rows; r++) level[r] = x[lags + r];
-  for (let i = 1; i <= lags; i++) {
-    const col = new Float64Array(rows);
-    for (let r = 0; r < rows; r++) col[r] = diff[lags + r - i];
-    lagged.push(col);
-  }
+  for (let i = 1; i <= lags; i++) lagged.push(diff.subarray(lags - i, lags - i + rows));
   const fit = leastSquares([level, ...lagged, constant], y);
   const statistic = fit.coefficients[0] / fit.standardErrors[0];
   const crit = (c: [number, number, number, number]) => c[0] + c[1] / rows + c[2] / rows ** 2 + c[3] / rows ** 3;

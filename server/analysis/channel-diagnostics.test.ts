@@ -145,6 +145,24 @@ describe('channelDiagnostics: decomposition', () => {
     expect(outliers.indices).toContain(200);
     for (const i of outliers.indices) expect(Math.abs(remainder[i] - outliers.median)).toBeGreaterThan(3 * outliers.robustSd);
   });
+
+  it('the outlier rule’s median and MAD are the textbook order statistics (sorted middle values), for odd and even n', () => {
+    const ref = find(STL.cases, (c) => c.name === 'co2-periodic');
+    const sortedMedian = (a: ArrayLike<number>) => {
+      const v = Array.from(a).sort((p, q) => p - q);
+      const h = v.length >> 1;
+      return v.length % 2 ? v[h] : (v[h - 1] + v[h]) / 2;
+    };
+    for (const input of [ref.input, ref.input.slice(0, ref.input.length - 1)]) {
+      const out = channelDiagnostics(asReadings(input), { step: HOUR, agg: 'mean', period: 12, decomposition: 'stl' });
+      if (out.decomposition.method === 'none') throw new Error('expected a decomposition');
+      const { outliers, remainder } = out.decomposition;
+      const median = sortedMedian(remainder);
+      expect(outliers.median).toBe(median);
+      // Hampel's 1.4826 · MAD (Rousseeuw & Croux 1993)
+      expect(outliers.robustSd).toBe(1.4826 * sortedMedian(remainder.map((r) => Math.abs(r - median))));
+    }
+  });
 });
 
 describe('channelDiagnostics: gaps, differencing and bad input', () => {

@@ -6,11 +6,12 @@ import { decomposeClassical } from './decompose-classical.ts';
 import { defaultMaxLag } from './default-max-lag.ts';
 import { detectPeriod, type PeriodCandidate } from './detect-period.ts';
 import { difference } from './difference.ts';
+import { durbinLevinson } from './durbin-levinson.ts';
 import { effectiveSampleSize, type EffectiveSampleSizeResult } from './effective-sample-size.ts';
 import { identifyProcess, type ProcessIdentification } from './identify-process.ts';
 import { ljungBox } from './ljung-box.ts';
+import { medianInPlace } from './median-in-place.ts';
 import { normalQuantile } from './normal-quantile.ts';
-import { partialAutocorrelation } from './partial-autocorrelation.ts';
 import { regularize, type RegularizeAggregate } from './regularize.ts';
 import { stl } from './stl.ts';
 import { stlParameters, type StlSettings } from './stl-parameters.ts';
@@ -149,18 +150,20 @@ function fillGapsLinear(x: Float64Array): Float64Array {
   return out;
 }
 
-/** Median of the non-NaN values. */
+/** Median of the non-NaN values (exact, by selection on a copy). */
 function medianOf(x: ArrayLike<number>): number {
-  const v = Array.from(x).filter((a) => !Number.isNaN(a)).sort((a, b) => a - b);
-  if (v.length === 0) return NaN;
-  const h = v.length >> 1;
-  return v.length % 2 ? v[h] : (v[h - 1] + v[h]) / 2;
+  const values = new Float64Array(x.length);
+  let count = 0;
+  for (let i = 0; i < x.length; i++) if (!Number.isNaN(x[i])) values[count++] = x[i];
+  return medianInPlace(values, count);
 }
 
 /** Remainder cells beyond `threshold` robust SDs (1.4826 · MAD) from the remainder's median. */
 function remainderOutliers(remainder: Float64Array, threshold: number): OutlierList {
   const median = medianOf(remainder);
-  const robustSd = MAD_TO_SD * medianOf(remainder.map((r) => Math.abs(r - median)));
+  const deviations = new Float64Array(remainder.length);
+  for (let i = 0; i < remainder.length; i++) deviations[i] = Math.abs(remainder[i] - median);
+  const robustSd = MAD_TO_SD * medianOf(deviations);
   const indices: number[] = [];
   if (robustSd > 0) {
     for (let i = 0; i < remainder.length; i++) if (Math.abs(remainder[i] - median) > threshold * robustSd) indices.push(i);
@@ -330,22 +333,25 @@ export function channelDiagnostics(readings: ChannelReadings, options: ChannelDi
   const seasonalLags = period !== null ? Math.min(2 * period, Math.floor(nA / 4)) : 0;
   const maxLag = options.maxLag ?? Math.max(defaultMaxLag(nA), seasonalLags);
   const acfValues = autocorrelation(analysed, { maxLag });
-  const pacfValues = partialAutocorrelation(analysed, { maxLag });
+  // The PACF is the Durbin–Levinson recursion on this same ACF (what `partialAutocorrelation` computes).
+  const pacfValues = durbinLevinson(acfValues, maxLag, { keepCoefficients: false }).partial;
   const white = autocorrelationBands(acfValues, { n: presentA, alpha, kind: 'white-noise' });
   const bartlett = autocorrelationBands(acfValues, { n: presentA, alpha, kind: 'bartlett' });
 
   const boxLags = [...new Set([5, 10, 15, 20, ...(period !== null ? [period, 2 * period] : [])])].filter((h) => h < presentA).sort((a, b) => a - b);
-  const ljung = boxLags.map((lag) => ({ lag, ...ljungBox(analysed, { lag }) }));
+  const ljung = boxLags.map((lag) => ({ lag, ...ljungBox(analysed, lag <= maxLag ? { lag, acf: acfValues } : { lag }) }));
 
   const filledAnalysed = fillGapsLinear(analysed);
   const identified = identifyProcess(filledAnalysed, {
     alpha,
     // undifferenced, the analysed series is the one the period search just ran on
     ...(d === 0 && D === 0 ? { knownPeriod: detection.best } : {}),
+    // without gaps it is the series whose ACF was just computed
+    ...(filledAnalysed === analysed ? { acf: acfValues } : {}),
     ...(options.maxLag !== undefined ? { maxLag: Math.max(2, Math.min(options.maxLag, Math.floor(nA / 4))) } : {}),
   });
 
-  const ess = effectiveSampleSize(grid, { alpha });
+  const ess = effectiveSampleSize(grid, analysed === grid ? { alpha, acf: acfValues } : { alpha });
   const decomposition = decompositionOf(grid, filled, options.decomposition ?? 'stl', period, options.stlSeasonalWindow ?? 'periodic', threshold);
 
   let cross: CrossCorrelationOutcome | null = null;

@@ -1,5 +1,6 @@
 import { AnalysisInputError, type Series, assertSeries } from './analysis-input-error.ts';
 import { autocorrelation } from './autocorrelation.ts';
+import { autocorrelationFromPeriodogram } from './autocorrelation-from-periodogram.ts';
 import { integerOption } from './integer-option.ts';
 import { normalQuantile } from './normal-quantile.ts';
 import { periodogram } from './periodogram.ts';
@@ -68,6 +69,22 @@ function prominentAcfPeaks(r: Float64Array, maxPeriod: number, band: number, mar
 }
 
 /**
+ * The ACF of the detrended series: read off its periodogram when nothing is missing (one
+ * transform instead of three), else by `autocorrelation` (R's na.pass rule for the gaps).
+ */
+function autocorrelationOf(detrended: Float64Array, power: Float64Array, size: number, maxLag: number): Float64Array {
+  const n = detrended.length;
+  let sum = 0;
+  for (let i = 0; i < n; i++) sum += detrended[i];
+  if (!Number.isFinite(sum) || size < n + maxLag) return autocorrelation(detrended, { maxLag });
+  // Ordinate at frequency 0 of the mean-corrected series (zero up to rounding).
+  const mean = sum / n;
+  let centred = 0;
+  for (let i = 0; i < n; i++) centred += detrended[i] - mean;
+  return autocorrelationFromPeriodogram(power, size, (centred * centred) / n, n, maxLag);
+}
+
+/**
  * Finds the length of a repeating cycle (daily, weekly, yearly …) in samples from two views of
  * the linearly detrended series: the periodogram and the sample ACF.
  *
@@ -95,22 +112,27 @@ export function detectPeriod(x: Series, options: DetectPeriodOptions = {}): Dete
   if (!(alpha > 0 && alpha < 1)) throw new AnalysisInputError(`${fn}: alpha must be between 0 and 1 (got ${alpha})`);
 
   const detrended = removeLinearTrend(x);
-  const r = autocorrelation(detrended, { maxLag: Math.min(maxPeriod + 1, n - 1) });
-  const band = normalQuantile(1 - alpha / 2) / Math.sqrt(n);
   const { power, size } = periodogram(detrended, PAD_FACTOR * n);
+  const r = autocorrelationOf(detrended, power, size, Math.min(maxPeriod + 1, n - 1));
+  const band = normalQuantile(1 - alpha / 2) / Math.sqrt(n);
   const logPower = (i: number) => Math.log(Math.max(power[i], Number.MIN_VALUE));
 
+  // The SPECTRAL_PEAKS highest local maxima, highest first (on equal power the lower frequency first).
   const peaks: number[] = [];
   for (let i = 1; i + 1 < power.length; i++) {
     const period = size / (i + 1);
     if (period > maxPeriod || period < 2) continue;
-    if (power[i] > power[i - 1] && power[i] >= power[i + 1]) peaks.push(i);
+    if (!(power[i] > power[i - 1] && power[i] >= power[i + 1])) continue;
+    if (peaks.length === SPECTRAL_PEAKS && !(power[i] > power[peaks[SPECTRAL_PEAKS - 1]])) continue;
+    let at = peaks.length;
+    while (at > 0 && power[peaks[at - 1]] < power[i]) at--;
+    peaks.splice(at, 0, i);
+    if (peaks.length > SPECTRAL_PEAKS) peaks.pop();
   }
-  peaks.sort((a, b) => power[b] - power[a]);
 
   const candidates: PeriodCandidate[] = [];
   const seen = new Set<number>();
-  for (const i of peaks.slice(0, SPECTRAL_PEAKS)) {
+  for (const i of peaks) {
     const background: number[] = [];
     for (let k = Math.max(0, i - BACKGROUND_HALF_WIDTH * PAD_FACTOR); k <= Math.min(power.length - 1, i + BACKGROUND_HALF_WIDTH * PAD_FACTOR); k++) {
       if (Math.abs(k - i) > PEAK_EXCLUSION) background.push(power[k]);

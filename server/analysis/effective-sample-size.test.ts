@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { autocorrelation } from './autocorrelation.ts';
 import { effectiveSampleSize } from './effective-sample-size.ts';
 import { simulateArma } from './seeded-simulation.testkit.ts';
 
@@ -26,4 +27,18 @@ describe('effectiveSampleSize', () => {
     expect(r.standardError).toBeCloseTo(Math.sqrt((s2 * r.tau) / x.length), 12);
     expect(r.confidenceInterval[1] - r.mean).toBeCloseTo(1.959963984540054 * r.standardError, 10); // qnorm(0.975), R 4.2.2
   });
+
+  it('an ACF handed in gives the same answer as the one it computes, and a too-short one is extended', () => {
+    const x = simulateArma({ ar: [0.95] }, 20_000, 9);
+    const own = effectiveSampleSize(x);
+    const long = effectiveSampleSize(x, { acf: autocorrelation(x, { maxLag: 3000 }) });
+    const short = effectiveSampleSize(x, { acf: autocorrelation(x, { maxLag: 3 }) });
+    for (const r of [long, short]) {
+      expect(r.lagsUsed).toBe(own.lagsUsed);
+      expect(Math.abs(r.tau - own.tau)).toBeLessThan(1e-9 * own.tau);
+      expect(Math.abs(r.ess - own.ess)).toBeLessThan(1e-9 * own.ess);
+    }
+    expect(own.lagsUsed).toBeGreaterThan(3);
+  });
 });
+

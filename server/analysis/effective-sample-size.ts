@@ -5,6 +5,11 @@ import { normalQuantile } from './normal-quantile.ts';
 export interface EffectiveSampleSizeOptions {
   /** 1 − confidence level of the interval for the mean (default 0.05). */
   alpha?: number;
+  /**
+   * The sample ACF of this same series at lags 0..K (as `acf` returns it), when the caller already
+   * has it: used as long as the initial monotone sequence ends within it.
+   */
+  acf?: Float64Array;
 }
 
 export interface EffectiveSampleSizeResult {
@@ -37,7 +42,8 @@ export interface EffectiveSampleSizeResult {
  * Strongly alternating series can make τ tiny; as is common practice the result is capped at
  * ess ≤ n·log10(n). Missing values follow the na.pass rule of `acf`.
  *
- * Cost: O(n log n) time (the ACF is extended by doubling until the sequence ends).
+ * Cost: O(n log n) time (the ACF is extended fourfold until the sequence ends; an ACF passed in
+ * `options.acf` is read first).
  */
 export function effectiveSampleSize(x: Series, options: EffectiveSampleSizeOptions = {}): EffectiveSampleSizeResult {
   const fn = 'effectiveSampleSize';
@@ -51,9 +57,10 @@ export function effectiveSampleSize(x: Series, options: EffectiveSampleSizeOptio
   const variance = squares / (n - 1);
   if (!(variance > 0)) throw new AnalysisInputError(`${fn}: the series is constant, so its sample size cannot be corrected`);
 
-  let maxLag = Math.min(x.length - 1, 128);
-  for (;;) {
-    const r = autocorrelation(x, { maxLag });
+  const given = options.acf;
+  let maxLag = given ? Math.min(x.length - 1, given.length - 1) : Math.min(x.length - 1, 128);
+  for (let round = 0; ; round++) {
+    const r = round === 0 && given ? given : autocorrelation(x, { maxLag });
     let total = 0;
     let previous = Infinity;
     let m = 0;
@@ -85,6 +92,6 @@ export function effectiveSampleSize(x: Series, options: EffectiveSampleSizeOptio
         alpha,
       };
     }
-    maxLag = Math.min(x.length - 1, maxLag * 4);
+    maxLag = Math.min(x.length - 1, Math.max(128, maxLag * 4));
   }
 }

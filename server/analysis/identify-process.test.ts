@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { autocorrelation } from './autocorrelation.ts';
 import { identifyProcess } from './identify-process.ts';
 import { simulateArma } from './seeded-simulation.testkit.ts';
 
@@ -52,5 +53,17 @@ describe('identifyProcess on simulated processes', () => {
     expect(result.evidence.significantPacfLags[0]).toBe(1);
     expect(result.evidence.ljungBox.pValue).toBeLessThan(1e-10);
     expect(result.evidence.period).toBeNull();
+  });
+
+  it('reads an ACF handed in (a longer one is cut to its lags) and reaches the same verdict and evidence', () => {
+    const x = simulateArma({ ma: [0.5, 0.4] }, 2000, 2);
+    const own = identifyProcess(x);
+    const given = identifyProcess(x, { acf: autocorrelation(x, { maxLag: 300 }) });
+    expect(given.verdict).toBe(own.verdict);
+    expect(given.q).toBe(own.q);
+    expect(given.evidence.acf).toHaveLength(own.evidence.acf.length);
+    for (let k = 0; k < own.evidence.acf.length; k++) expect(Math.abs(given.evidence.acf[k] - own.evidence.acf[k])).toBeLessThan(1e-12);
+    expect(Math.abs(given.evidence.ljungBox.statistic - own.evidence.ljungBox.statistic)).toBeLessThan(1e-9);
+    expect(given.evidence.significantAcfLags).toEqual(own.evidence.significantAcfLags);
   });
 });

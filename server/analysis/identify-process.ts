@@ -25,6 +25,11 @@ export interface IdentifyProcessOptions {
    * none), so a caller that has run the period search does not pay for it twice.
    */
   knownPeriod?: number | null;
+  /**
+   * The sample ACF of this same series at lags 0..K (as `acf` returns it), when the caller has
+   * it already; read instead of computed again when K reaches the lags examined.
+   */
+  acf?: Float64Array;
 }
 
 export interface ProcessEvidence {
@@ -97,9 +102,10 @@ function endOfInitialRun(values: ArrayLike<number>, band: (lag: number) => numbe
 export function identifyProcess(x: Series, options: IdentifyProcessOptions = {}): ProcessIdentification {
   const fn = 'identifyProcess';
   assertSeries(x, fn);
-  const present: number[] = [];
-  for (let i = 0; i < x.length; i++) if (!Number.isNaN(x[i])) present.push(x[i]);
-  const n = present.length;
+  let n = 0;
+  for (let i = 0; i < x.length; i++) if (!Number.isNaN(x[i])) n++;
+  const present = n === x.length && x instanceof Float64Array ? x : new Float64Array(n);
+  if (present !== x) for (let i = 0, j = 0; i < x.length; i++) if (!Number.isNaN(x[i])) present[j++] = x[i];
   if (n < 30) throw new AnalysisInputError(`${fn} requires at least 30 data points (got ${n})`);
   const maxLag = integerOption(
     fn,
@@ -112,10 +118,10 @@ export function identifyProcess(x: Series, options: IdentifyProcessOptions = {})
   const alpha = options.alpha ?? 0.05;
   if (!(alpha > 0 && alpha < 1)) throw new AnalysisInputError(`${fn}: alpha must be between 0 and 1 (got ${alpha})`);
 
-  const acf = autocorrelation(x, { maxLag });
-  const pacf = durbinLevinson(acf, maxLag).partial;
+  const acf = options.acf && options.acf.length > maxLag ? options.acf.slice(0, maxLag + 1) : autocorrelation(x, { maxLag });
+  const pacf = durbinLevinson(acf, maxLag, { keepCoefficients: false }).partial;
   const lbLag = Math.min(10, Math.floor(n / 5));
-  const ljung = { ...ljungBox(x, { lag: lbLag }), lag: lbLag };
+  const ljung = { ...ljungBox(x, lbLag <= maxLag ? { lag: lbLag, acf } : { lag: lbLag }), lag: lbLag };
   // Schwert's lag rule grows like n^¼ (95 lags at 400 000 readings) and the regression costs
   // n·lags²; 24 lags already absorb the short-term structure a unit-root decision needs, and
   // beyond 20 000 readings 12 do (the test's power then comes from n, not from more lags).

@@ -48,4 +48,5 @@ export {
 export { durbinLevinson, type DurbinLevinsonResult } from './durbin-levinson.ts';
 export { decomposeClassical } from './decompose-classical.ts';
 export { stl } from './stl.ts';
+export { thinForDrawing, type ThinForDrawingOptions, type ThinnedCells } from './thin-for-drawing.ts';
 export { channelDiagnostics, type ChannelDiagnostics, type ChannelDiagnosticsOptions, type ChannelReadings } from './channel-diagnostics.ts';

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { autocorrelation } from './autocorrelation.ts';
 import { durbinLevinson } from './durbin-levinson.ts';
 import { partialAutocorrelation } from './partial-autocorrelation.ts';
 import { simulateArma } from './seeded-simulation.testkit.ts';
@@ -24,4 +25,16 @@ describe('partialAutocorrelation', () => {
     expect(p[0]).toBeGreaterThan(0.55);
     for (let k = 1; k < 10; k++) expect(Math.abs(p[k])).toBeLessThan(3 / Math.sqrt(5000));
   });
+
+  it('without the coefficients of every order, Durbin–Levinson gives the same partials and variances', () => {
+    const x = simulateArma({ ar: [0.6, -0.2] }, 3000, 5);
+    const r = autocorrelation(x, { maxLag: 200 });
+    const full = durbinLevinson(r, 200);
+    const lean = durbinLevinson(r, 200, { keepCoefficients: false });
+    expect(lean.partial).toEqual(full.partial);
+    expect(lean.variances).toEqual(full.variances);
+    expect(lean.coefficients).toEqual([]);
+    expect(full.coefficients).toHaveLength(200);
+  });
 });
+

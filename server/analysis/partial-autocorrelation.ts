@@ -27,5 +27,5 @@ export function partialAutocorrelation(x: Series, options: PartialAutocorrelatio
   if (x.length < 2) throw new AnalysisInputError(`${fn} requires at least 2 data points (got ${x.length})`);
   const maxLag = integerOption(fn, 'maxLag', options.maxLag ?? Math.max(1, defaultMaxLag(x.length)), 1, x.length - 1);
   const r = autocorrelation(x, { maxLag });
-  return durbinLevinson(r, maxLag).partial;
+  return durbinLevinson(r, maxLag, { keepCoefficients: false }).partial;
 }

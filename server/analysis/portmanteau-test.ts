@@ -8,6 +8,11 @@ export interface PortmanteauOptions {
   lag: number;
   /** Parameters fitted before the test (p + q for ARMA residuals); df = lag − fitdf. Default 0. */
   fitdf?: number;
+  /**
+   * The sample ACF of this same series at lags 0..K with K ≥ lag (as `acf` returns it), when the
+   * caller already has it: the test then reads r_1..r_h from it instead of computing them again.
+   */
+  acf?: ArrayLike<number>;
 }
 
 export interface PortmanteauResult {
@@ -20,6 +25,7 @@ export interface PortmanteauResult {
  * Shared core of the Box–Pierce and Ljung–Box tests: pools the squared sample autocorrelations
  * r_1..r_h with per-lag weights w_k(n) into Q = Σ w_k r_k² and refers Q to χ²(h − fitdf).
  * n counts the non-missing values and r_k follows R's na.pass rule, as `stats::Box.test` does.
+ * A caller holding the ACF already passes it as `options.acf`.
  *
  * Cost: O(n · h) time.
  */
@@ -35,7 +41,10 @@ export function portmanteauTest(
   const fitdf = integerOption(fn, 'fitdf', options.fitdf ?? 0, 0, lag - 1);
   let n = 0;
   for (let i = 0; i < x.length; i++) if (!Number.isNaN(x[i])) n++;
-  const r = autocorrelation(x, { maxLag: lag });
+  if (options.acf !== undefined && options.acf.length <= lag) {
+    throw new AnalysisInputError(`${fn}: the given acf stops at lag ${options.acf.length - 1}, below lag ${lag}`);
+  }
+  const r = options.acf ?? autocorrelation(x, { maxLag: lag });
   let statistic = 0;
   for (let k = 1; k <= lag; k++) statistic += weight(n, k) * r[k] * r[k];
   const df = lag - fitdf;

@@ -1,4 +1,5 @@
 import { CUTOFF_HIGH, CUTOFF_LOW } from './loess-thresholds.ts';
+import { medianInPlace } from './median-in-place.ts';
 
 /**
  * STL's robustness weights from the residuals `y − (trend + seasonal)`: Tukey's bisquare of
@@ -22,12 +23,7 @@ export function robustnessWeights(
   scratch: Float64Array,
 ): void {
   for (let i = 0; i < n; i++) scratch[i] = Math.abs(residuals[i]);
-  const upper = n >> 1;
-  const upperValue = selectInPlace(scratch, upper, n);
-  // After selection every value left of `upper` is at most scratch[upper]; for an even count
-  // the lower middle value is the largest of them.
-  const lowerValue = n % 2 === 0 ? largest(scratch, upper) : upperValue;
-  const scale = 3 * (upperValue + lowerValue);
+  const scale = 6 * medianInPlace(scratch, n);
   const inner = CUTOFF_LOW * scale;
   const outer = CUTOFF_HIGH * scale;
   for (let i = 0; i < n; i++) {
@@ -42,47 +38,4 @@ export function robustnessWeights(
       out[i] = 0;
     }
   }
-}
-
-function largest(a: Float64Array, count: number): number {
-  let max = -Infinity;
-  for (let i = 0; i < count; i++) if (a[i] > max) max = a[i];
-  return max;
-}
-
-/**
- * Rearranges `a[0 .. n-1]` so that `a[k]` holds the value of rank k, smaller-or-equal values
- * before it and greater-or-equal after (Hoare's FIND, CACM 4(7):321–322, 1961), and returns it.
- */
-function selectInPlace(a: Float64Array, k: number, n: number): number {
-  let lo = 0;
-  let hi = n - 1;
-  while (lo < hi) {
-    const mid = (lo + hi) >> 1;
-    if (a[mid] < a[lo]) swap(a, mid, lo);
-    if (a[hi] < a[lo]) swap(a, hi, lo);
-    if (a[hi] < a[mid]) swap(a, hi, mid);
-    const pivot = a[mid];
-    let i = lo;
-    let j = hi;
-    while (i <= j) {
-      while (a[i] < pivot) i++;
-      while (a[j] > pivot) j--;
-      if (i <= j) {
-        swap(a, i, j);
-        i++;
-        j--;
-      }
-    }
-    if (k <= j) hi = j;
-    else if (k >= i) lo = i;
-    else break;
-  }
-  return a[k];
-}
-
-function swap(a: Float64Array, i: number, j: number): void {
-  const t = a[i];
-  a[i] = a[j];
-  a[j] = t;
 }

@@ -79,6 +79,20 @@ export function channelReadingsIn(scope: LabScope, db: Knex) {
      * of it): the exact mean (Σsum / Σcount), min or max of the readings in the cell.
      */
     async cellsFromRollups(channelId: number, resolutionS: number, from: number, to: number, stepMs: number, agg: CellAggregate): Promise<ReadingColumns> {
+      if (stepMs === resolutionS * 1000) {
+        // One rollup per cell: read the cells straight off the key, with no grouping (the
+        // grouped form costs a temporary table, ≈ 0.4 s for 100,000 cells). Same numbers:
+        // a sum over one row is that row.
+        const single = agg === 'mean' ? 'sum_value / count_value' : agg === 'min' ? 'min_value' : 'max_value';
+        return toColumns(
+          await arrays(
+            `SELECT bucket_start, ${single}
+             FROM reading_rollups WHERE tenant_id = ? AND channel_id = ? AND resolution_s = ? AND bucket_start >= ? AND bucket_start < ?
+             ORDER BY bucket_start`,
+            [tenantId, channelId, resolutionS, from, to],
+          ),
+        );
+      }
       const value = agg === 'mean' ? 'SUM(sum_value) / SUM(count_value)' : agg === 'min' ? 'MIN(min_value)' : 'MAX(max_value)';
       return toColumns(
         await arrays(

@@ -14,7 +14,13 @@ export type LabOwnedTable =
   | 'readings'
   | 'reading_rollups'
   | 'quarantined_rows'
-  | 'personal_tokens';
+  | 'alert_rules'
+  | 'alert_subscriptions'
+  | 'alerts'
+  | 'notification_outbox'
+  | 'personal_tokens'
+  | 'lab_billing'
+  | 'usage_snapshots';
 
 export type DbOrTrx = Knex | Knex.Transaction;
 

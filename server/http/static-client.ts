@@ -17,7 +17,9 @@ export function staticClient(clientDir: string): Router {
   router.use(express.static(clientDir, { index: false, maxAge: 0 }));
   router.get(/^\/(?!api\/|auth\/|healthz).*/, (_req, res) => {
     res.set('Cache-Control', 'no-cache');
-    res.sendFile(index);
+    // `root` rather than an absolute path: send refuses absolute paths with a dot-folder in
+    // them (a client built under .lagbook/ would answer 404 otherwise).
+    res.sendFile('index.html', { root: clientDir });
   });
   return router;
 }

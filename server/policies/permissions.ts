@@ -24,10 +24,13 @@ export const PERMISSIONS = [
   'exports.create',
   'tokens.manage-own',
   'billing.manage',
+  'alerts.read',
+  'alerts.subscribe',
+  'alerts.manage',
 ] as const;
 export type Permission = (typeof PERMISSIONS)[number];
 
-const READ: Permission[] = ['lab.read', 'loggers.read', 'channels.read', 'diagnostics.read'];
+const READ: Permission[] = ['lab.read', 'loggers.read', 'channels.read', 'diagnostics.read', 'alerts.read'];
 
 /** DESIGN.md's role table, as permissions. */
 export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
@@ -41,8 +44,10 @@ export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
     'quarantine.review',
     'exports.create',
     'tokens.manage-own',
+    'alerts.subscribe',
+    'alerts.manage',
   ],
-  scientist: [...READ, 'members.read', 'exports.create', 'tokens.manage-own'],
+  scientist: [...READ, 'members.read', 'exports.create', 'tokens.manage-own', 'alerts.subscribe'],
   guest: READ,
 };
 

@@ -1,4 +1,4 @@
-import type { ChannelDiagnostics } from '../analysis/index.ts';
+import { thinForDrawing, type ChannelDiagnostics } from '../analysis/index.ts';
 import type { ChannelWithState } from '../db/channel-state.repo.ts';
 
 /** The diagnostics parameters as the request chose them, defaults filled in. */
@@ -18,6 +18,15 @@ export interface DiagnosticsParams {
   ccfMaxLag?: number;
 }
 
+/**
+ * 'drawing' thins a long decomposition to what a chart can show (the page and the JSON answer);
+ * 'full' keeps every cell (the CSV export).
+ */
+export type DecompositionResolution = 'drawing' | 'full';
+
+/** Above this many cells the JSON answer carries the decomposition thinned for drawing. */
+export const MAX_DRAWN_CELLS = 4000;
+
 /** Where the grid values came from: raw readings, or exact cell summaries of a rollup resolution. */
 export type GridSource = { kind: 'readings' } | { kind: 'rollups'; resolutionS: number };
 
@@ -29,6 +38,7 @@ const REFERENCES = [
   'Geyer (1992), Statistical Science 7:473–483 — initial monotone sequence for the effective sample size',
   'Said & Dickey (1984), Biometrika 71:599–607 — augmented Dickey–Fuller test in the identification',
   'Rousseeuw & Croux (1993), JASA 88:1273–1283 — 1.4826 · MAD as a robust SD for the outlier rule',
+  'Jugel, Jerzak, Hackenbroich & Markl (2014), Proc. VLDB Endowment 7:797–808 — min/max per bucket when a long decomposition is thinned for drawing',
 ];
 
 type Plain<T> = T extends Float64Array | Int32Array ? number[] : T extends object ? { [K in keyof T]: Plain<T[K]> } : T;
@@ -41,6 +51,30 @@ function plain<T>(value: T): Plain<T> {
     return Object.fromEntries(Object.entries(value).map(([k, v]) => [k, plain(v)])) as Plain<T>;
   }
   return value as Plain<T>;
+}
+
+/** The decomposition's parts at the cells worth drawing (every cell for 'full' or a short series). */
+function decompositionParts(dec: Extract<ChannelDiagnostics['decomposition'], { trend: Float64Array }>, resolution: DecompositionResolution) {
+  const n = dec.trend.length;
+  const parts = (pick: (a: Float64Array) => number[]) => ({
+    trend: pick(dec.trend),
+    seasonal: pick(dec.seasonal),
+    remainder: pick(dec.remainder),
+    weights: dec.weights ? pick(dec.weights) : null,
+  });
+  if (resolution === 'full' || n <= MAX_DRAWN_CELLS) return { cells: null, thinned: null, ...parts(plain) };
+  const { cells, bucketCells } = thinForDrawing([dec.trend, dec.seasonal, dec.remainder], n, { maxPoints: MAX_DRAWN_CELLS, always: dec.outliers.indices });
+  const kept = cells.length;
+  return {
+    cells: Array.from(cells),
+    thinned: {
+      cells: kept,
+      of: n,
+      bucketCells,
+      note: `Thinned for drawing: ${kept.toLocaleString('en')} of ${n.toLocaleString('en')} cells (in each run of ${bucketCells} cells the first, the last and those holding the lowest and highest trend, seasonal and remainder value, plus every remainder outlier: min/max per bucket, Jugel et al. 2014). The CSV export holds every cell.`,
+    },
+    ...parts((a) => Array.from(cells, (i) => a[i])),
+  };
 }
 
 /** Indices of the grid cells without a reading (the cells gap filling interpolated). */
@@ -63,7 +97,10 @@ const channelSummary = (c: ChannelWithState) => ({
  * The JSON report of one diagnostics run: what was computed, from what, and how — every number
  * the engine produced, the parameters as requested and as resolved, the steps taken with the
  * data (gap filling, differencing) and the published methods, so a figure can be reproduced
- * and cited. Missing values come out as null.
+ * and cited. Missing values come out as null. A decomposition longer than MAX_DRAWN_CELLS is
+ * thinned for drawing unless `resolution` is 'full': `decomposition.cells` then lists the cell
+ * index of each value and `decomposition.thinned` says what was kept (both null when every cell
+ * is there).
  */
 export function diagnosticsReport(input: {
   channel: ChannelWithState;
@@ -73,6 +110,8 @@ export function diagnosticsReport(input: {
   stepS: number;
   source: GridSource;
   result: ChannelDiagnostics;
+  /** Default 'drawing'. */
+  resolution?: DecompositionResolution;
 }) {
   const { result: r, params, stepS } = input;
   const stepMs = stepS * 1000;
@@ -129,10 +168,7 @@ export function diagnosticsReport(input: {
         : {
             method: dec.method,
             period: dec.period,
-            trend: plain(dec.trend),
-            seasonal: plain(dec.seasonal),
-            remainder: plain(dec.remainder),
-            weights: dec.weights ? plain(dec.weights) : null,
+            ...decompositionParts(dec, input.resolution ?? 'drawing'),
             outliers: {
               ...dec.outliers,
               times: dec.outliers.indices.map((i) => r.grid.start + i * stepMs),

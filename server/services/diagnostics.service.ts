@@ -9,7 +9,7 @@ import { AppError, ValidationError } from '../errors.ts';
 import type { ChannelsService } from './channels.service.ts';
 import type { LabContext } from './lab-context.ts';
 import { createResultCache, type ResultCacheOptions } from './result-cache.ts';
-import { diagnosticsReport, type DiagnosticsParams, type GridSource } from './diagnostics-report.ts';
+import { diagnosticsReport, type DecompositionResolution, type DiagnosticsParams, type GridSource } from './diagnostics-report.ts';
 
 /** The engine refused the data or a parameter for it (too few readings, a period too long …). */
 export class AnalysisRefusedError extends AppError {
@@ -58,9 +58,11 @@ export function createDiagnosticsService(deps: { db: Db; channels: ChannelsServi
     /**
      * The diagnostics report of one channel as UTF-8 JSON, and whether it came from the cache
      * (kept encoded, so a cache hit costs no serialising or re-encoding).
-     * `signal` cancels the engine run (the client went away).
+     * `signal` cancels the engine run (the client went away). `resolution` 'drawing' (default)
+     * thins a long decomposition for charts; 'full' keeps every cell (the CSV export). Each is
+     * cached on its own.
      */
-    async report(lab: LabContext, channelId: number, params: DiagnosticsParams, signal?: AbortSignal): Promise<{ json: Buffer; cached: boolean }> {
+    async report(lab: LabContext, channelId: number, params: DiagnosticsParams, signal?: AbortSignal, resolution: DecompositionResolution = 'drawing'): Promise<{ json: Buffer; cached: boolean }> {
       const channel = await deps.channels.requireChannel(lab, channelId);
       const partner: ChannelWithState | null = params.ccfWith === undefined ? null : await deps.channels.requireChannel(lab, params.ccfWith);
       const stepS = params.step ?? channel.expectedIntervalS ?? channel.logger.expectedIntervalS;
@@ -70,7 +72,7 @@ export function createDiagnosticsService(deps: { db: Db; channels: ChannelsServi
       if (cells > MAX_DIAGNOSTICS_CELLS) {
         throw new ValidationError(`step: the range holds ${cells} steps of ${stepS} s; at most ${MAX_DIAGNOSTICS_CELLS} (choose a longer step or a shorter range)`);
       }
-      const key = JSON.stringify([lab.id, channelId, channel.dataVersion, partner?.id ?? null, partner?.dataVersion ?? null, range, stepS, params]);
+      const key = JSON.stringify([lab.id, channelId, channel.dataVersion, partner?.id ?? null, partner?.dataVersion ?? null, range, stepS, params, resolution]);
       const hit = cache.get(key);
       if (hit !== undefined) return { json: hit, cached: true };
 
@@ -91,7 +93,7 @@ export function createDiagnosticsService(deps: { db: Db; channels: ChannelsServi
       };
       const asReadings = (d: ReadingColumns): ChannelReadings => ({ timestamps: d.ts, values: d.values });
       const result = await compute(asReadings(main.data), options, other ? asReadings(other.data) : undefined, signal);
-      const json = Buffer.from(JSON.stringify(diagnosticsReport({ channel, partner, params, range, stepS, source: main.source, result })));
+      const json = Buffer.from(JSON.stringify(diagnosticsReport({ channel, partner, params, range, stepS, source: main.source, result, resolution })));
       cache.set(key, json);
       return { json, cached: false };
     },

@@ -12,6 +12,7 @@ import { ConflictError, GoneError } from './service-errors.ts';
 import { invitationMail } from './mail/invitation-mail.ts';
 import type { Actor, LabContext } from './lab-context.ts';
 import type { Role } from '../policies/permissions.ts';
+import type { PlanLimitGuard } from './billing/plan-limits.ts';
 
 export interface InviteMemberInput {
   email: string;
@@ -35,7 +36,7 @@ export interface InvitationPreview {
  * that verified address. The mail is sent before the transaction commits, so a mail server
  * that is down leaves nothing half-made.
  */
-export function createInvitationsService(deps: { db: Db; mailer: Mailer; publicUrl: string; now?: () => Date }) {
+export function createInvitationsService(deps: { db: Db; mailer: Mailer; publicUrl: string; now?: () => Date; planLimits?: PlanLimitGuard }) {
   const now = deps.now ?? (() => new Date());
   const linkFor = (slug: string, token: string) => `${deps.publicUrl}/join/${slug}/${token}`;
 
@@ -77,6 +78,7 @@ export function createInvitationsService(deps: { db: Db; mailer: Mailer; publicU
       if ((await invitations.pendingFor(input.email, now())).length > 0) {
         throw new ConflictError('invitation_pending', 'email: an invitation to this address is already pending');
       }
+      await deps.planLimits?.assertRoomFor(trx, lab.id, 'members');
       const token = randomBytes(32).toString('base64url');
       const expiresAt = new Date(now().getTime() + INVITATION_LIFETIME_MS);
       const id = await invitations.insert({ email: input.email, role: input.role, tokenHash: hashInvitationToken(token), invitedBy: actor?.id ?? null, expiresAt });

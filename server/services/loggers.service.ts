@@ -8,6 +8,7 @@ import { NotFoundError } from '../errors.ts';
 import { ConflictError, isDuplicateKey } from './service-errors.ts';
 import { newIngestKey } from './ingest-key-format.ts';
 import type { Actor, LabContext } from './lab-context.ts';
+import type { PlanLimitGuard } from './billing/plan-limits.ts';
 
 export interface LoggerDetail extends Logger {
   channels: Channel[];
@@ -24,7 +25,7 @@ export interface IssuedKey {
  * Loggers, their channels and ingest keys: register, edit, retire (history kept), issue,
  * rotate and revoke keys. Every change is one transaction and leaves an audit event.
  */
-export function createLoggersService(deps: { db: Db; now?: () => Date }) {
+export function createLoggersService(deps: { db: Db; now?: () => Date; planLimits?: PlanLimitGuard }) {
   const now = deps.now ?? (() => new Date());
   const duplicateName = (err: unknown): never => {
     if (isDuplicateKey(err)) {
@@ -61,6 +62,7 @@ export function createLoggersService(deps: { db: Db; now?: () => Date }) {
       try {
         return await deps.db.transaction(async (trx) => {
           const scope = inLab(trx, lab.id);
+          await deps.planLimits?.assertRoomFor(trx, lab.id, 'loggers');
           const id = await loggersIn(scope).insert(input);
           for (const c of input.channels) await channelsIn(scope).insert(id, c);
           const made = newIngestKey();

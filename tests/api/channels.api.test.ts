@@ -9,6 +9,7 @@ import request from 'supertest';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
 import { buildMember, sessionCookieFor } from '../support/factories.ts';
 import { buildLabWithEverything, type LabWithEverything } from '../support/lab-fixture.ts';
+import { onLargestPlan } from '../support/largest-plan.ts';
 
 let t: TestApp;
 beforeAll(async () => {
@@ -25,8 +26,10 @@ interface Reading {
   value: number;
 }
 
-async function setup(): Promise<{ f: LabWithEverything; cookie: string; base: string }> {
+/** A lab with one channel and a scientist; on the largest plan unless `freePlan` (the readings here reach back years). */
+async function setup(opts: { freePlan?: boolean } = {}): Promise<{ f: LabWithEverything; cookie: string; base: string }> {
   const f = await buildLabWithEverything(t.db);
+  if (!opts.freePlan) await onLargestPlan(t.db, f.lab.id);
   const scientist = await buildMember(t.db, f.lab, { role: 'scientist' });
   return { f, cookie: await sessionCookieFor(t.db, t.config.sessionSecret, scientist.id), base: `/api/v1/labs/${f.lab.slug}` };
 }
@@ -221,5 +224,42 @@ describe('GET /channels/:channelId/readings.csv', () => {
     const founderCookie = await sessionCookieFor(t.db, t.config.sessionSecret, f.founder.id);
     const res = await get(founderCookie, `${base}/channels/${f.ids.channelId}/readings.csv?from=5&to=5`).expect(400);
     expect(res.body.error.message).toBe('to: must be after from');
+  });
+});
+
+describe("the plan's history window", () => {
+  const DAY = 24 * HOUR;
+  it('shows a free-plan lab its last historyDays only: older readings are kept, cut from charts and exports, and come back on a larger plan', async () => {
+    const { f, cookie, base } = await setup({ freePlan: true });
+    const historyDays = 90; // tenants/plans.json: the free plan's historyDays
+    const now = Date.now();
+    const old = now - 120 * DAY; // stored, but before the free plan's window
+    const recent = now - 10 * DAY;
+    await ingest(f, [
+      { channel: 'air_t', ts: old, value: 11.5 },
+      { channel: 'air_t', ts: recent, value: 12.5 },
+    ]);
+
+    // A range reaching back past the window is cut at its start, and the answer says where.
+    const range = `from=${now - 200 * DAY}&to=${now}`;
+    let csv = await get(cookie, `${base}/channels/${f.ids.channelId}/readings.csv?${range}`).expect(200);
+    const starts = Date.parse(csv.headers['lagbook-history-starts']);
+    expect(Math.abs(starts - (now - historyDays * DAY))).toBeLessThan(60_000);
+    expect(csv.text).toContain(new Date(recent).toISOString());
+    expect(csv.text).not.toContain(new Date(old).toISOString());
+    const series = await get(cookie, `${base}/channels/${f.ids.channelId}/series?${range}&points=100`).expect(200);
+    expect(Math.abs(Date.parse(series.headers['lagbook-history-starts']) - starts)).toBeLessThan(60_000); // the window moves with the clock
+    expect(series.body.series.from).toBeGreaterThanOrEqual(Math.floor(starts / HOUR) * HOUR - DAY);
+
+    // A range wholly before the window is refused with a reason, not answered as empty.
+    const before = await get(cookie, `${base}/channels/${f.ids.channelId}/readings.csv?from=${old - DAY}&to=${old + DAY}`).expect(402);
+    expect(before.body.error.code).toBe('outside_plan_history');
+    expect(before.body.error.message).toContain('kept, not deleted');
+
+    // Nothing was deleted: on the largest plan the old reading is there again.
+    await onLargestPlan(t.db, f.lab.id);
+    csv = await get(cookie, `${base}/channels/${f.ids.channelId}/readings.csv?${range}`).expect(200);
+    expect(csv.headers['lagbook-history-starts']).toBeUndefined();
+    expect(csv.text).toContain(new Date(old).toISOString());
   });
 });

@@ -12,6 +12,7 @@ import request from 'supertest';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
 import { buildMember, sessionCookieFor } from '../support/factories.ts';
 import { buildLabWithEverything, type LabWithEverything } from '../support/lab-fixture.ts';
+import { onLargestPlan } from '../support/largest-plan.ts';
 import { createApp, type AppDeps } from '../../server/app.ts';
 import { createLogger } from '../../server/logger.ts';
 import { createAnalysisPool, type AnalysisPool } from '../../server/workers/analysis-pool.ts';
@@ -47,6 +48,7 @@ async function ingest(readings: Array<{ channel: string; ts: number; value: numb
 beforeAll(async () => {
   t = await buildTestApp();
   f = await buildLabWithEverything(t.db);
+  await onLargestPlan(t.db, f.lab.id); // the simulated readings reach back further than the free plan shows
   const scientist = await buildMember(t.db, f.lab, { role: 'scientist' });
   cookie = await sessionCookieFor(t.db, t.config.sessionSecret, scientist.id);
   base = `/api/v1/labs/${f.lab.slug}/channels/${f.ids.channelId}`;
@@ -148,6 +150,34 @@ describe('GET /channels/:channelId/diagnostics', () => {
     expect(res.body.analysed).toEqual({ n: engine.analysed.n, missing: engine.analysed.missing });
     expect(res.body.decomposition.method).toBe('classical');
     expect(res.body.decomposition.trend).toEqual(json(engine.decomposition.method === 'none' ? [] : engine.decomposition.trend));
+  });
+
+  it('thins a long decomposition for drawing: the kept cells carry the engine’s values, extremes and outliers included', async () => {
+    // One-minute steps over six days of ten-minute readings: 8,631 cells, above the 4,000 drawn.
+    const res = await request(t.app).get(`${base}/diagnostics?${range}&step=60&period=1440&maxLag=20`).set('Cookie', cookie).expect(200);
+    const engine = channelDiagnostics(air, engineOptions({ step: 60_000, period: 1440, maxLag: 20 }));
+    if (engine.decomposition.method === 'none') throw new Error('expected a decomposition');
+    const e = engine.decomposition;
+    const d = res.body.decomposition;
+    expect(res.body.method.resolved.source).toEqual({ kind: 'rollups', resolutionS: 60 });
+    expect(res.body.acf.values).toEqual(json(engine.acf));
+    expect(engine.grid.n).toBe(8631);
+    const cells: number[] = d.cells;
+    expect(cells.length).toBeLessThanOrEqual(4000);
+    expect(cells.length).toBeGreaterThan(1000);
+    expect(cells.every((c, j) => j === 0 || c > cells[j - 1])).toBe(true);
+    expect(d.thinned).toMatchObject({ cells: cells.length, of: engine.grid.n });
+    expect(d.thinned.note).toContain(`Thinned for drawing: ${cells.length.toLocaleString('en')} of 8,631 cells`);
+    expect(d.trend).toEqual(json(cells.map((i) => e.trend[i])));
+    expect(d.seasonal).toEqual(json(cells.map((i) => e.seasonal[i])));
+    expect(d.remainder).toEqual(json(cells.map((i) => e.remainder[i])));
+    for (const part of [e.trend, e.seasonal, e.remainder]) {
+      const values = Array.from(part);
+      expect(cells).toContain(values.indexOf(Math.max(...values)));
+      expect(cells).toContain(values.indexOf(Math.min(...values)));
+    }
+    expect(d.outliers.indices).toEqual(e.outliers.indices);
+    for (const i of e.outliers.indices) expect(cells).toContain(i);
   });
 
   it('serves a repeat from the cache, and recomputes after a new reading arrives', async () => {
@@ -270,8 +300,10 @@ describe('GET /channels/:channelId/diagnostics.csv', () => {
     const report = (await request(t.app).get(`${base}/diagnostics?${query}`).set('Cookie', cookie).expect(200)).body;
     expect(res.headers['content-disposition']).toBe(`attachment; filename="${f.lab.slug}-air_t-diagnostics.csv"`);
     const lines = res.text.split('\r\n');
-    expect(lines[0]).toBe('section,lag,acf,pacf,white_noise_band,bartlett_band,ccf,ccf_band,ljung_box_statistic,ljung_box_df,ljung_box_p_value');
-    expect(lines[1]).toBe('correlogram,0,1,,,,,,,,');
+    expect(lines[0]).toBe(
+      'section,lag,acf,pacf,white_noise_band,bartlett_band,ccf,ccf_band,ljung_box_statistic,ljung_box_df,ljung_box_p_value,cell,time_utc,trend,seasonal,remainder,robustness_weight,remainder_outlier',
+    );
+    expect(lines[1]).toBe('correlogram,0,1,,,,,,,,,,,,,,,');
     const lag2 = lines[3].split(',');
     expect(lag2.slice(0, 6).map(Number).slice(1)).toEqual([2, report.acf.values[2], report.pacf.values[1], report.bands.whiteNoise, report.bands.bartlett[1]]);
     expect(lines.filter((l) => l.startsWith('correlogram,'))).toHaveLength(21);
@@ -279,6 +311,28 @@ describe('GET /channels/:channelId/diagnostics.csv', () => {
     const box = lines.filter((l) => l.startsWith('ljung-box,')).map((l) => l.split(','));
     expect(box.map((b) => Number(b[1]))).toEqual(report.ljungBox.map((b: { lag: number }) => b.lag));
     expect(Number(box[0][8])).toBe(report.ljungBox[0].statistic);
-    expect(lines.every((l) => l === '' || l.split(',').length === 11)).toBe(true);
+    expect(lines.every((l) => l === '' || l.split(',').length === 18)).toBe(true);
+    expect(lines.some((l) => l.startsWith('decomposition,'))).toBe(false);
+  });
+
+  it('adds every cell of the decomposition, even where the JSON answer thins it for drawing', async () => {
+    const query = `${range}&step=60&period=1440&decomposition=stl-robust&maxLag=20`;
+    const res = await request(t.app).get(`${base}/diagnostics.csv?${query}`).set('Cookie', cookie).expect(200);
+    const engine = channelDiagnostics(air, engineOptions({ step: 60_000, period: 1440, decomposition: 'stl-robust', maxLag: 20 }));
+    if (engine.decomposition.method === 'none') throw new Error('expected a decomposition');
+    const rows = res.text
+      .split('\r\n')
+      .filter((l) => l.startsWith('decomposition,'))
+      .map((l) => l.split(','));
+    expect(rows).toHaveLength(engine.grid.n);
+    const outliers = new Set(engine.decomposition.outliers.indices);
+    expect(outliers.size).toBeGreaterThan(0);
+    for (const i of [0, 1, 4321, engine.grid.n - 1, ...outliers]) {
+      const row = rows[i];
+      expect(Number(row[11])).toBe(i);
+      expect(row[12]).toBe(new Date(engine.grid.start + i * 60_000).toISOString());
+      expect(row.slice(13, 17).map(Number)).toEqual([engine.decomposition.trend[i], engine.decomposition.seasonal[i], engine.decomposition.remainder[i], engine.decomposition.weights![i]]);
+      expect(row[17]).toBe(outliers.has(i) ? '1' : '0');
+    }
   });
 });

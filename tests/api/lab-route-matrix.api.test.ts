@@ -25,6 +25,15 @@ const ALLOWED: Record<string, { roles: Role[]; ok: number }> = {
   'POST /invitations/:id/resend': { roles: ['admin'], ok: 200 },
   'DELETE /invitations/:id': { roles: ['admin'], ok: 204 },
   'GET /audit': { roles: ['admin'], ok: 200 },
+  'GET /alert-rules': { roles: ALL, ok: 200 },
+  'POST /alert-rules': { roles: ['admin', 'technician'], ok: 201 },
+  'PATCH /alert-rules/:ruleId': { roles: ['admin', 'technician'], ok: 200 },
+  'DELETE /alert-rules/:ruleId': { roles: ['admin', 'technician'], ok: 204 },
+  'PUT /alert-rules/:ruleId/subscription': { roles: ['admin', 'technician', 'scientist'], ok: 204 },
+  'DELETE /alert-rules/:ruleId/subscription': { roles: ['admin', 'technician', 'scientist'], ok: 204 },
+  'GET /alerts': { roles: ALL, ok: 200 },
+  'POST /alerts/:alertId/acknowledge': { roles: ['admin', 'technician'], ok: 200 },
+  'GET /channels/:channelId/alerts': { roles: ALL, ok: 200 },
   'GET /loggers': { roles: ALL, ok: 200 },
   'POST /loggers': { roles: ['admin', 'technician'], ok: 201 },
   'GET /loggers/:loggerId': { roles: ALL, ok: 200 },
@@ -54,6 +63,11 @@ const ALLOWED: Record<string, { roles: Role[]; ok: number }> = {
   // The fixture's token is the founder's: a permitted caller passes the guard and is told it
   // has no such token of its own (404, same as a missing one); a guest is refused (403).
   'DELETE /tokens/:tokenId': { roles: ['admin', 'technician', 'scientist'], ok: 404 },
+  // Plan and payment are the admins' (DESIGN.md role table); checkout and portal talk to the Stripe stand-in.
+  'GET /billing': { roles: ['admin'], ok: 200 },
+  'POST /billing/checkout-session': { roles: ['admin'], ok: 201 },
+  'POST /billing/portal-session': { roles: ['admin'], ok: 201 },
+  'GET /billing/invoices': { roles: ['admin'], ok: 200 },
 };
 
 type Caller = Role | 'signed-out' | 'non-member';

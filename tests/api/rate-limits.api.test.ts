@@ -6,6 +6,7 @@ import { buildLab, buildMember, sessionCookieFor, type TestLab } from '../suppor
 import { createApp } from '../../server/app.ts';
 import { createLogger } from '../../server/logger.ts';
 import type { RateLimits } from '../../server/http/middleware/rate-limits.ts';
+import { onLargestPlan } from '../support/largest-plan.ts';
 
 /**
  * Rate limits on the routes that are cheap to call and costly to answer: the sign-in
@@ -125,6 +126,7 @@ describe('invitations, per signed-in admin', () => {
   it('defaults to 30 per admin per hour', async () => {
     const { app, sent } = appWith();
     const busy = await buildLab(t.db);
+    await onLargestPlan(t.db, busy.id); // 30 pending invitations: more than the free plan's members
     const cookie = await sessionCookieFor(t.db, t.config.sessionSecret, (await buildMember(t.db, busy, { role: 'admin' })).id);
     for (let i = 0; i < 30; i++) await invite(app, cookie, busy.slug).expect(201);
     expectLimited(await invite(app, cookie, busy.slug), 3600);

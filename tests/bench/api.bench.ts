@@ -5,7 +5,8 @@
  * `readings`, rollups computed by the same statements ingestion runs), then prints p50/p95 of:
  * 1. the series endpoint for the whole year at 2,000 points (target p50 ≤ 150 ms);
  * 2. the diagnostics endpoint over 100,000 one-minute steps, uncached (target p50 ≤ 300 ms;
- *    each run changes alpha slightly, so every run computes) and cached (target p50 ≤ 20 ms);
+ *    each run changes alpha slightly, so every run computes) and cached (target p50 ≤ 20 ms),
+ *    with the answer's size (its decomposition comes thinned for drawing);
  * 3. the gzip size of the client's entry chunk in dist/client (or BENCH_CLIENT_DIR; build it
  *    first with `npx vite build`).
  * The readings are simulated (a daily cycle, AR(1) noise and one spike). Reports; asserts nothing.
@@ -14,6 +15,7 @@ import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { gzipSync } from 'node:zlib';
 import { startBenchStack, type BenchStack } from './support/bench-stack.ts';
+import { onLargestPlan } from '../support/largest-plan.ts';
 import { median } from './bench-helpers.ts';
 import { createLabsRepo } from '../../server/db/labs.repo.ts';
 import { createLoggersService } from '../../server/services/loggers.service.ts';
@@ -35,15 +37,17 @@ async function timeRequests(label: string, urls: string[], cookie: string, warmu
   let last: unknown;
   for (let i = 0; i < warmup; i++) await (await fetch(urls[i % urls.length], { headers: { cookie } })).arrayBuffer();
   const times: number[] = [];
+  let bytes = 0;
   for (const url of urls) {
     const start = performance.now();
     const res = await fetch(url, { headers: { cookie } });
     const body = await res.text();
     times.push(performance.now() - start);
     if (!res.ok) throw new Error(`${label}: ${res.status} ${body.slice(0, 300)}`);
+    bytes = Buffer.byteLength(body);
     last = JSON.parse(body);
   }
-  console.log(`${label}: p50 ${median(times).toFixed(1)} ms, p95 ${percentile(times, 95).toFixed(1)} ms (${times.length} requests)`);
+  console.log(`${label}: p50 ${median(times).toFixed(1)} ms, p95 ${percentile(times, 95).toFixed(1)} ms (${times.length} requests, ${(bytes / 1024).toFixed(0)} kB each)`);
   return last;
 }
 
@@ -92,6 +96,7 @@ async function main() {
   const stack = await startBenchStack();
   try {
     const lab = await createLabsRepo(stack.db).insert({ slug: 'bench-channels', name: 'Bench channels' });
+    await onLargestPlan(stack.db, lab.id);
     const { logger } = await createLoggersService({ db: stack.db }).register({ ...lab, role: 'admin' }, null, {
       name: 'Roof station',
       timezone: 'UTC',
@@ -122,8 +127,12 @@ async function main() {
       series: { n: number };
       period: { used: number };
       identification: { verdict: string };
+      decomposition: { thinned: { cells: number; of: number } | null };
     };
-    console.log(`  n = ${report.series.n}, period ${report.period.used} steps, verdict ${report.identification.verdict}, cached ${report.cached}`);
+    const thinned = report.decomposition.thinned;
+    console.log(
+      `  n = ${report.series.n}, period ${report.period.used} steps, verdict ${report.identification.verdict}, cached ${report.cached}, decomposition ${thinned ? `thinned for drawing to ${thinned.cells} of ${thinned.of} cells` : 'at every cell'}`,
+    );
     const hit = (await timeRequests('diagnostics, 100,000 points, cached', new Array(RUNS * 2).fill(diagUrl(0.05)), cookie, 1)) as { cached: boolean };
     console.log(`  cached ${hit.cached}`);
     entryChunkGzip();

@@ -13,6 +13,7 @@ import { readFileSync } from 'node:fs';
 import { Readable } from 'node:stream';
 import mysql from 'mysql2/promise';
 import { startBenchStack } from './support/bench-stack.ts';
+import { onLargestPlan } from '../support/largest-plan.ts';
 import { createLabsRepo } from '../../server/db/labs.repo.ts';
 import { createLoggersService } from '../../server/services/loggers.service.ts';
 
@@ -32,6 +33,7 @@ async function main() {
   const stack = await startBenchStack();
   try {
     const lab = await createLabsRepo(stack.db).insert({ slug: 'bench-lab', name: 'Bench lab' });
+    await onLargestPlan(stack.db, lab.id);
     const ctx = { ...lab, role: 'admin' as const };
     const service = createLoggersService({ db: stack.db });
     const loggers: Array<{ key: string; channelIds: number[] }> = [];

@@ -15,6 +15,7 @@
  */
 import { performance } from 'node:perf_hooks';
 import { startBenchStack, type BenchStack } from './support/bench-stack.ts';
+import { onLargestPlan } from '../support/largest-plan.ts';
 import { median } from './bench-helpers.ts';
 import { createLabsRepo } from '../../server/db/labs.repo.ts';
 import { createLoggersService } from '../../server/services/loggers.service.ts';
@@ -90,6 +91,7 @@ async function main() {
   const stack = await startBenchStack();
   try {
     const lab = await createLabsRepo(stack.db).insert({ slug: 'bench-load', name: 'Bench load' });
+    await onLargestPlan(stack.db, lab.id);
     const loggersService = createLoggersService({ db: stack.db });
     const labContext = { ...lab, role: 'admin' as const };
     const loggers: Array<{ key: string; channelId: number }> = [];

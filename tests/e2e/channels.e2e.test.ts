@@ -5,6 +5,7 @@ import { buildLab, type TestLab } from '../support/factories.ts';
 import { keepScreenshot, launchBrowser, signInThroughLagbook } from '../support/browser.ts';
 import { ingestBatch, type IncomingReading } from '../../server/services/ingest/ingest-batch.ts';
 import { DEV_ACCOUNTS } from '../../docker-free-scripts/identity-provider/dev-accounts.ts';
+import { onLargestPlan } from '../support/largest-plan.ts';
 
 const scientist = DEV_ACCOUNTS.find((a) => a.role === 'scientist')!;
 
@@ -56,6 +57,7 @@ beforeAll(async () => {
   await signInThroughLagbook(page, appUrl, t.config.oidc.issuer, scientist);
   const user = await t.db('users').where({ oidc_issuer: t.config.oidc.issuer, oidc_subject: scientist.sub }).first();
   lab = await buildLab(t.db, { name: `Quincewood Orchard ${run}` });
+  await onLargestPlan(t.db, lab.id); // a year of readings: more history than the free plan shows
   await t.db('memberships').insert({ tenant_id: lab.id, user_id: user.id, role: 'scientist' });
 
   const id = () => Math.floor(Math.random() * 2 ** 40) + 1;

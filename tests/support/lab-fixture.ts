@@ -55,14 +55,19 @@ export async function buildLabWithEverything(db: Knex, overrides: Partial<{ name
     token_hash: personal.hash,
     expires_at: new Date(Date.now() + 30 * 86400_000),
   });
+  const ruleId = rid();
+  await db('alert_rules').insert({ tenant_id: lab.id, id: ruleId, name: 'Air too warm', kind: 'bounds', channel_id: channelId, params: JSON.stringify({ low: null, high: 30, holdS: 0 }), enabled: false, created_by: founder.id, watching_since: Date.now() });
+  await db('alert_subscriptions').insert({ tenant_id: lab.id, rule_id: ruleId, user_id: founder.id });
+  const alertId = rid();
+  await db('alerts').insert({ tenant_id: lab.id, id: alertId, rule_id: ruleId, rule_name: 'Air too warm', kind: 'bounds', channel_id: channelId, opened_at: Date.now() - 3_600_000, opened_value: 31, opened_detail: '31 is above the high limit 30', resolved_at: Date.now() - 1_800_000, resolved_value: 29, resolved_detail: '29 is back within the limits', last_notified_at: Date.now() - 3_600_000 });
   return {
     lab,
     founder,
     guest,
     ingestKey: key.key,
     personalToken: personal.token,
-    ids: { loggerId, channelId, keyId, quarantinedId, invitationId, tokenId },
-    params: { userId: guest.id, id: invitationId, loggerId, channelId, keyId, tokenId } as Record<string, number>,
+    ids: { loggerId, channelId, keyId, quarantinedId, invitationId, tokenId, ruleId, alertId },
+    params: { userId: guest.id, id: invitationId, loggerId, channelId, keyId, tokenId, ruleId, alertId } as Record<string, number>,
   };
 }
 
@@ -98,7 +103,12 @@ export function validBodyFor(method: string, path: string, f: LabWithEverything)
     'POST /loggers/:loggerId/test-reading': { channel: 'air_t', value: 4.2 },
     'POST /quarantine/discard': { ids: [f.ids.quarantinedId] },
     'POST /tokens': { name: `Notebook ${unique}`, expiresInDays: 30 },
+    'POST /alert-rules': { name: `Rule ${unique}`, kind: 'bounds', channelId: f.ids.channelId, params: { high: 35, holdS: 60 } },
+    'PATCH /alert-rules/:ruleId': { name: 'Air far too warm' },
+    'POST /alerts/:alertId/acknowledge': { note: 'Door was open; closed it.' },
     'POST /quarantine/resubmit': { rows: [{ id: f.ids.quarantinedId, channel: 'air_t', ts: '2026-01-01T00:00:00Z', value: 4.5 }] },
+    // a paid plan of tenants/plans.json
+    'POST /billing/checkout-session': { plan: 'transect' },
   };
   return bodies[key];
 }

@@ -1,5 +1,5 @@
 import { useMemo, useState } from 'react';
-import { Link, useParams } from 'react-router-dom';
+import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { useChannel } from '../../features/channels/api/get-channel.ts';
 import { useChannels } from '../../features/channels/api/get-channels.ts';
 import type { TimeRange } from '../../features/channels/api/get-series.ts';
@@ -10,6 +10,9 @@ import { SafetyCautionNote } from '../../features/channels/components/safety-cau
 import { CrossCorrelationPanel } from '../../features/diagnostics/components/cross-correlation-panel.tsx';
 import { DiagnosticsPanel } from '../../features/diagnostics/components/diagnostics-panel.tsx';
 import { MissingPermission } from '../../features/labs/components/lab-not-found.tsx';
+import { useChannelAlerts } from '../../features/alerts/api/get-channel-alerts.ts';
+import { alertBands } from '../../features/alerts/components/alert-bands.ts';
+import { ChannelAlertsPanel } from '../../features/alerts/components/channel-alerts-panel.tsx';
 import { LoadingNote, Notice } from '../../components/notice.tsx';
 import { ApiError } from '../../lib/api-client.ts';
 import { paths } from '../paths.ts';
@@ -26,7 +29,16 @@ export default function LabChannelRoute() {
   const can = (p: (typeof detail.permissions)[number]) => detail.permissions.includes(p);
   const channel = useChannel(slug, channelId);
   const all = useChannels(slug);
-  const [view, setView] = useState<{ range: TimeRange; preset: RangePreset | null }>(() => ({ range: presetRange('7d', Date.now()), preset: '7d' }));
+  // `?from=…&to=…` (epoch ms, as alert mail links carry) opens the chart on that range.
+  const [search] = useSearchParams();
+  const [view, setView] = useState<{ range: TimeRange; preset: RangePreset | null }>(() => {
+    const from = Number(search.get('from'));
+    const to = Number(search.get('to'));
+    if (search.has('from') && search.has('to') && Number.isSafeInteger(from) && Number.isSafeInteger(to) && from < to) return { range: { from, to }, preset: null };
+    return { range: presetRange('7d', Date.now()), preset: '7d' };
+  });
+  const channelAlerts = useChannelAlerts(slug, channelId, view.range, can('alerts.read'));
+  const bands = useMemo(() => alertBands(channelAlerts.data?.alerts ?? [], view.range, Date.now()), [channelAlerts.data, view.range]);
   const partners = useMemo(
     () => (all.data?.channels ?? []).filter((c) => c.id !== channelId).map((c) => ({ id: c.id, label: c.label, loggerName: c.logger.name })),
     [all.data, channelId],
@@ -55,7 +67,8 @@ export default function LabChannelRoute() {
       </Link>
       <ChannelHeader channel={c} now={Date.now()} />
       <SafetyCautionNote channel={c} />
-      <ReadingsPanel slug={slug} channel={c} range={view.range} preset={view.preset} onRange={(range, preset) => setView({ range, preset })} canExport={can('exports.create')} />
+      <ReadingsPanel slug={slug} channel={c} range={view.range} preset={view.preset} onRange={(range, preset) => setView({ range, preset })} canExport={can('exports.create')} bands={bands} />
+      {can('alerts.read') && channelAlerts.data && <ChannelAlertsPanel slug={slug} alerts={channelAlerts.data.alerts} canAcknowledge={can('alerts.manage')} />}
       {can('diagnostics.read') && (
         <>
           <DiagnosticsPanel slug={slug} channelId={c.id} channelKey={c.key} timezone={c.logger.timezone} chartRange={view.range} canExport={can('exports.create')} />

@@ -7,8 +7,9 @@ import { presentChannelDetail, presentChannelOverview } from './channels.present
 import { diagnosticsCsvLines } from './diagnostics-csv.ts';
 import type { ChannelsService } from '../../services/channels.service.ts';
 import type { DiagnosticsService } from '../../services/diagnostics.service.ts';
-import type { DiagnosticsReport } from '../../services/diagnostics-report.ts';
+import { MAX_DRAWN_CELLS, type DiagnosticsReport } from '../../services/diagnostics-report.ts';
 import type { LabRoute } from '../lab-routes.ts';
+import { withinPlanHistory, type HistoryWindow } from './plan-history.ts';
 
 /** Writes a chunk, waiting for the socket to drain when its buffer is full (streamed exports). */
 async function writeChunk(res: Response, chunk: string): Promise<void> {
@@ -31,17 +32,17 @@ function csvDownload(res: Response, name: string): void {
 }
 
 /** The channel browser: overview, detail, chart series, diagnostics and exports. */
-export function channelRoutes(deps: { channels: ChannelsService; diagnostics: DiagnosticsService; now?: () => number }): LabRoute[] {
+export function channelRoutes(deps: { channels: ChannelsService; diagnostics: DiagnosticsService; now?: () => number; historyWindow?: HistoryWindow }): LabRoute[] {
   const { channels, diagnostics } = deps;
   const now = deps.now ?? Date.now;
 
   /** Runs diagnostics; undefined when the client left first (the engine task was aborted). */
-  async function runDiagnostics(req: Parameters<LabRoute['handle']>[0], res: Response) {
+  async function runDiagnostics(req: Parameters<LabRoute['handle']>[0], res: Response, resolution: 'drawing' | 'full' = 'drawing') {
     const { channelId } = parseInput(channelParams, req.params);
-    const params = parseInput(diagnosticsQuery(now), req.query);
+    const params = await withinPlanHistory(deps.historyWindow, labOf(res), parseInput(diagnosticsQuery(now), req.query), res);
     const signal = signalOnDisconnect(res);
     try {
-      return { channelId, ...(await diagnostics.report(labOf(res), channelId, params, signal)) };
+      return { channelId, ...(await diagnostics.report(labOf(res), channelId, params, signal, resolution)) };
     } catch (err) {
       if (signal.aborted) return undefined;
       throw err;
@@ -76,7 +77,7 @@ export function channelRoutes(deps: { channels: ChannelsService; diagnostics: Di
       query: seriesQuery(now),
       handle: async (req, res) => {
         const { channelId } = parseInput(channelParams, req.params);
-        const q = parseInput(seriesQuery(now), req.query);
+        const q = await withinPlanHistory(deps.historyWindow, labOf(res), parseInput(seriesQuery(now), req.query), res);
         res.json({ channelId, requested: { from: q.from, to: q.to, points: q.points }, series: await channels.series(labOf(res), channelId, q) });
       },
     },
@@ -84,7 +85,8 @@ export function channelRoutes(deps: { channels: ChannelsService; diagnostics: Di
       method: 'get',
       path: '/channels/:channelId/diagnostics',
       permission: 'diagnostics.read',
-      summary: 'ACF, PACF, Ljung–Box, process identification, STL, effective sample size and cross-correlation for a channel.',
+      summary:
+        `ACF, PACF, Ljung–Box, process identification, STL, effective sample size and cross-correlation for a channel. A decomposition longer than ${MAX_DRAWN_CELLS.toLocaleString('en')} cells comes thinned for drawing (\`decomposition.cells\` lists the cells kept, \`decomposition.thinned\` says how); diagnostics.csv holds every cell.`,
       query: diagnosticsQuery(now),
       handle: async (req, res) => {
         const outcome = await runDiagnostics(req, res);
@@ -106,7 +108,7 @@ export function channelRoutes(deps: { channels: ChannelsService; diagnostics: Di
       query: readingsExportQuery(now),
       handle: async (req, res) => {
         const { channelId } = parseInput(channelParams, req.params);
-        const q = parseInput(readingsExportQuery(now), req.query);
+        const q = await withinPlanHistory(deps.historyWindow, labOf(res), parseInput(readingsExportQuery(now), req.query), res);
         const lab = labOf(res);
         const channel = await channels.requireChannel(lab, channelId);
         csvDownload(res, `${lab.slug}-${channel.key}-readings`);
@@ -124,14 +126,23 @@ export function channelRoutes(deps: { channels: ChannelsService; diagnostics: Di
       method: 'get',
       path: '/channels/:channelId/diagnostics.csv',
       permission: 'exports.create',
-      summary: "A channel's correlogram, cross-correlation and Ljung–Box tables as CSV.",
+      summary: "A channel's correlogram, cross-correlation, Ljung–Box and full-resolution decomposition tables as CSV.",
       query: diagnosticsQuery(now),
       handle: async (req, res) => {
-        const outcome = await runDiagnostics(req, res);
+        const outcome = await runDiagnostics(req, res, 'full');
         if (!outcome) return;
         const report = JSON.parse(outcome.json.toString('utf8')) as DiagnosticsReport;
         csvDownload(res, `${labOf(res).slug}-${report.channel.key}-diagnostics`);
-        res.send([...diagnosticsCsvLines(report)].join(''));
+        // A full-resolution decomposition adds a row per cell: stream it in pieces.
+        let chunk = '';
+        for (const line of diagnosticsCsvLines(report)) {
+          chunk += line;
+          if (chunk.length < 64 * 1024) continue;
+          if (res.destroyed) return;
+          await writeChunk(res, chunk);
+          chunk = '';
+        }
+        res.end(chunk);
       },
     },
   ];

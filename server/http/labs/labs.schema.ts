@@ -52,8 +52,15 @@ export const AUDIT_ACTIONS = [
   'logger.test-reading',
   'quarantine.discarded',
   'quarantine.resubmitted',
+  'alert-rule.created',
+  'alert-rule.updated',
+  'alert-rule.deleted',
+  'alert.acknowledged',
   'token.created',
   'token.revoked',
+  'billing.checkout-started',
+  'billing.plan-changed',
+  'billing.status-changed',
 ] as const;
 
 export const auditQuerySchema = z.object({

@@ -53,4 +53,10 @@ export const PUBLIC_ROUTES: PublicRoute[] = [
     auth: 'ingest-key',
     bodies: { 'application/json': ingestJsonBody, 'text/csv': csvText },
   },
+  {
+    method: 'post',
+    path: '/api/v1/billing/stripe-webhooks',
+    summary: "Stripe's webhook events (checkout, subscription and invoice changes); the Stripe-Signature header is verified against the raw body, 400 when it does not match.",
+    auth: 'none',
+  },
 ];

@@ -54,3 +54,4 @@ export async function startBenchStack(): Promise<BenchStack> {
     },
   };
 }
+

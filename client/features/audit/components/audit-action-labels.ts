@@ -22,8 +22,15 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   'logger.test-reading': 'Test reading sent',
   'quarantine.discarded': 'Quarantined rows discarded',
   'quarantine.resubmitted': 'Quarantined rows resubmitted',
+  'alert-rule.created': 'Alert rule made',
+  'alert-rule.updated': 'Alert rule changed',
+  'alert-rule.deleted': 'Alert rule deleted',
+  'alert.acknowledged': 'Alert acknowledged',
   'token.created': 'Personal API token created',
   'token.revoked': 'Personal API token revoked',
+  'billing.checkout-started': 'Plan checkout started',
+  'billing.plan-changed': 'Plan changed',
+  'billing.status-changed': 'Payment status changed',
 };
 
 /** The label of an action, or the raw action name for one this client does not know yet. */

@@ -1,4 +1,5 @@
 import { useEffect, useMemo, useRef } from 'react';
+import type { EChartsCoreOption } from 'echarts/core';
 import { EChart, type ZoomWindow } from '../../../components/charts/echart.tsx';
 import { LoadingNote, Notice } from '../../../components/notice.tsx';
 import type { ChannelDetail } from '../api/get-channel.ts';
@@ -8,6 +9,41 @@ import { zoomedRange, type RangePreset } from './range-presets.ts';
 import { readingsChartOption, readingsSummary } from './readings-chart-option.ts';
 
 const ZOOM_SETTLE_MS = 450;
+
+const NO_BANDS: readonly ChartBand[] = [];
+
+/** A stretch of time to shade on the chart (e.g. while an alert was open). */
+export interface ChartBand {
+  from: number;
+  to: number;
+  label: string;
+}
+
+/**
+ * The chart option with `bands` shaded over the full height: each band is a filled line on a
+ * hidden 0–1 axis (only the line chart is registered, so no extra ECharts component is needed).
+ */
+export function withBands(option: EChartsCoreOption, bands: readonly ChartBand[]): EChartsCoreOption {
+  if (bands.length === 0) return option;
+  const yAxes = (Array.isArray(option.yAxis) ? option.yAxis : [option.yAxis]) as EChartsCoreOption[];
+  const shaded = bands.map((b) => ({
+    name: `Alert: ${b.label}`,
+    type: 'line',
+    yAxisIndex: yAxes.length,
+    data: [[b.from, 1], [b.to, 1]],
+    showSymbol: false,
+    lineStyle: { width: 0 },
+    itemStyle: { color: 'rgba(178, 58, 42, 0.5)' },
+    areaStyle: { color: 'rgba(178, 58, 42, 0.16)' },
+    tooltip: { show: false },
+    silent: true,
+    z: 0,
+  }));
+  const series = option.series as EChartsCoreOption[];
+  // the legend keeps naming only the chart's own lines
+  const legend = option.legend ? { ...(option.legend as EChartsCoreOption), data: series.map((s) => s.name).filter(Boolean) } : undefined;
+  return { ...option, ...(legend ? { legend } : {}), yAxis: [...yAxes, { type: 'value', min: 0, max: 1, show: false }], series: [...series, ...shaded] };
+}
 
 /**
  * The readings of one channel over the chosen range: range presets and custom range, the chart
@@ -21,6 +57,7 @@ export function ReadingsPanel({
   preset,
   onRange,
   canExport,
+  bands = NO_BANDS,
 }: {
   slug: string;
   channel: ChannelDetail;
@@ -28,6 +65,8 @@ export function ReadingsPanel({
   preset: RangePreset | null;
   onRange: (range: TimeRange, preset: RangePreset | null) => void;
   canExport: boolean;
+  /** Stretches to shade (when alerts were open), from the channel page. */
+  bands?: readonly ChartBand[];
 }) {
   const series = useSeries(slug, channel.id, range);
   const ctx = useMemo(
@@ -35,7 +74,7 @@ export function ReadingsPanel({
     [channel, range],
   );
   const data = series.data?.series;
-  const option = useMemo(() => (data ? readingsChartOption(data, ctx) : null), [data, ctx]);
+  const option = useMemo(() => (data ? withBands(readingsChartOption(data, ctx), bands) : null), [data, ctx, bands]);
 
   const timer = useRef<ReturnType<typeof setTimeout> | undefined>(undefined);
   useEffect(() => () => clearTimeout(timer.current), []);

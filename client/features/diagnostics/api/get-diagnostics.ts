@@ -61,6 +61,10 @@ export type Decomposition =
   | {
       method: 'stl' | 'stl-robust' | 'classical';
       period: number;
+      /** Grid cell of each value when the parts were thinned for drawing; null when every cell is there. */
+      cells: number[] | null;
+      /** What thinning kept, in the server's words; null when nothing was thinned. */
+      thinned: { cells: number; of: number; bucketCells: number; note: string } | null;
       trend: Array<number | null>;
       seasonal: Array<number | null>;
       remainder: Array<number | null>;

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { observedFromParts } from './decomposition-chart-option.ts';
+import { decompositionChartOption, observedFromParts } from './decomposition-chart-option.ts';
 
 // The additive identity observed = trend + seasonal + remainder (Cleveland et al. 1990, eq. 1 —
 // equation number from memory); parts invented for the test.
@@ -8,6 +8,8 @@ describe('observedFromParts', () => {
     const d = {
       method: 'classical' as const,
       period: 2,
+      cells: null,
+      thinned: null,
       trend: [null, 10, 11, 12],
       seasonal: [1, -1, 1, -1],
       remainder: [null, 0.5, 0.25, -0.5],
@@ -16,5 +18,27 @@ describe('observedFromParts', () => {
     };
     expect(observedFromParts(d, [])).toEqual([null, 9.5, 12.25, 10.5]);
     expect(observedFromParts(d, [2])).toEqual([null, 9.5, null, 10.5]);
+  });
+
+  it('puts thinned parts at their kept cells: the empty-cell rule and the time axis follow `cells`', () => {
+    const d = {
+      method: 'stl' as const,
+      period: 4,
+      cells: [0, 5, 9],
+      thinned: { cells: 3, of: 10, bucketCells: 5, note: 'Thinned for drawing: 3 of 10 cells' },
+      trend: [10, 11, 12],
+      seasonal: [1, -1, 0],
+      remainder: [0, 0.5, -0.5],
+      weights: null,
+      outliers: { threshold: 3, median: 0, robustSd: 1, indices: [], times: [], values: [] },
+    };
+    // cell 5 held no reading; the value at index 1 is cell 5, the one at index 2 is cell 9
+    expect(observedFromParts(d, [5])).toEqual([11, null, 11.5]);
+    const option = decompositionChartOption(d, { start: 1_000, stepMs: 60_000, emptyCells: [] }, 'UTC') as { series: Array<{ data: Array<[number, number | null]> }> };
+    expect(option.series[1].data).toEqual([
+      [1_000, 10],
+      [1_000 + 5 * 60_000, 11],
+      [1_000 + 9 * 60_000, 12],
+    ]);
   });
 });

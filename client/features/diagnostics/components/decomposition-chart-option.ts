@@ -6,6 +6,11 @@ type Parts = Extract<Decomposition, { trend: unknown }>;
 
 const PANELS = ['Observed', 'Trend', 'Seasonal', 'Remainder'] as const;
 
+/** The grid cell of each value of the parts: `d.cells` when thinned for drawing, else 0, 1, 2 … */
+export function cellsOfParts(d: Parts): number[] {
+  return d.cells ?? d.trend.map((_, i) => i);
+}
+
 /**
  * The observed grid value of each cell as trend + seasonal + remainder (the decomposition's
  * identity; Cleveland et al. 1990 eq. 1), left missing where a part is missing or the cell held
@@ -14,19 +19,21 @@ const PANELS = ['Observed', 'Trend', 'Seasonal', 'Remainder'] as const;
  */
 export function observedFromParts(d: Parts, emptyCells: readonly number[]): Array<number | null> {
   const empty = new Set(emptyCells);
-  return d.trend.map((t, i) => {
-    const s = d.seasonal[i];
-    const r = d.remainder[i];
-    return empty.has(i) || t === null || s === null || r === null ? null : t + s + r;
+  const cells = cellsOfParts(d);
+  return d.trend.map((t, j) => {
+    const s = d.seasonal[j];
+    const r = d.remainder[j];
+    return empty.has(cells[j]) || t === null || s === null || r === null ? null : t + s + r;
   });
 }
 
 /**
  * Four stacked panels sharing one time axis on the logger's clock: observed, trend, seasonal
- * and remainder, with the remainder's outliers as red diamonds. Animation is off.
+ * and remainder, with the remainder's outliers as red diamonds. A decomposition thinned for
+ * drawing is drawn at its kept cells (their times come from `d.cells`). Animation is off.
  */
 export function decompositionChartOption(d: Parts, grid: { start: number; stepMs: number; emptyCells: number[] }, timezone: string): EChartsCoreOption {
-  const times = d.trend.map((_, i) => grid.start + i * grid.stepMs);
+  const times = cellsOfParts(d).map((i) => grid.start + i * grid.stepMs);
   const columns = [observedFromParts(d, grid.emptyCells), d.trend, d.seasonal, d.remainder];
   const panelHeight = 18; // percent of the chart per panel
   const grids = PANELS.map((_, i) => ({ left: 64, right: 16, top: `${4 + i * (panelHeight + 5.5)}%`, height: `${panelHeight}%` }));

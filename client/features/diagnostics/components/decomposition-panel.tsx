@@ -31,6 +31,11 @@ export function DecompositionPanel({ report, timezone, pngPrefix }: { report: Di
         height={560}
         pngName={`${pngPrefix}-decomposition`}
       />
+      {d.thinned && (
+        <p className="mt-1 text-xs text-ink-soft" data-testid="decomposition-thinned">
+          {d.thinned.note}
+        </p>
+      )}
     </div>
   );
 }

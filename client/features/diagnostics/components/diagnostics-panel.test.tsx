@@ -83,6 +83,30 @@ describe('DiagnosticsPanel', () => {
     expect(screen.getByText('ACF: 2 lags outside the 95% Bartlett band; strongest lag 1 (0.600), lag 2 (0.300).')).toBeTruthy();
   });
 
+  it('draws a decomposition thinned by the server and says so under the chart', async () => {
+    const note = 'Thinned for drawing: 3 of 4 cells (invented note for this test).';
+    const thinned: DiagnosticsReport = {
+      ...REPORT,
+      decomposition: {
+        method: 'stl',
+        period: 2,
+        cells: [0, 1, 3],
+        thinned: { cells: 3, of: 4, bucketCells: 2, note },
+        trend: [10, 10.5, 11],
+        seasonal: [1, -1, -1],
+        remainder: [0, 0.2, 0.1],
+        weights: null,
+        outliers: { threshold: 3, median: 0, robustSd: 0.1, indices: [], times: [], values: [] },
+      },
+    };
+    fakeApi({ 'GET /api/v1/labs/fernhollow/channels/5/diagnostics': () => ({ status: 200, body: thinned }) });
+    renderPanel();
+    fireEvent.click(screen.getByRole('button', { name: 'Analyse' }));
+    expect((await screen.findByTestId('decomposition-thinned')).textContent).toBe(note);
+    await vi.waitFor(() => expect(document.querySelectorAll('figure[data-chart-ready="true"]').length).toBe(3));
+    expect(screen.getByRole('img', { name: /^Seasonal decomposition \(STL, period 2 steps\)/ })).toBeTruthy();
+  });
+
   it('refuses a bad α before asking the server', () => {
     const api = fakeApi({});
     renderPanel();

@@ -1,0 +1,28 @@
+import { useMemo } from 'react';
+import { useChannels } from '../../features/channels/api/get-channels.ts';
+import { AlertsPage } from '../../features/alerts/components/alerts-page.tsx';
+import { MissingPermission } from '../../features/labs/components/lab-not-found.tsx';
+import { paths } from '../paths.ts';
+import { useLabContext } from './lab-context.ts';
+
+const HOUR = 3_600_000;
+
+/** `/labs/:lab/alerts`: the alert centre (every role that may read channels). */
+export default function LabAlertsRoute() {
+  const { detail } = useLabContext();
+  const slug = detail.lab.slug;
+  const channels = useChannels(slug);
+  const targets = useMemo(
+    () => (channels.data?.channels ?? []).map((c) => ({ id: c.id, label: c.label, unit: c.unit, loggerId: c.logger.id, loggerName: c.logger.name })),
+    [channels.data],
+  );
+  if (!detail.permissions.includes('alerts.read')) return <MissingPermission what="the alerts" />;
+  return (
+    <AlertsPage
+      slug={slug}
+      targets={targets}
+      channelHref={(a) => (a.channelId === null ? null : `${paths.labChannel.href(slug, a.channelId)}?from=${a.openedAt - 6 * HOUR}&to=${(a.resolvedAt ?? a.openedAt) + HOUR}`)}
+      can={{ manage: detail.permissions.includes('alerts.manage'), subscribe: detail.permissions.includes('alerts.subscribe') }}
+    />
+  );
+}

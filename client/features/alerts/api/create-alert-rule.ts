@@ -1,0 +1,14 @@
+import type { CreateAlertRuleInput } from '../../../../server/http/alerts/alerts.schema.ts';
+import { useRefreshingMutation } from '../../../components/use-refreshing-mutation.ts';
+import { apiFetch } from '../../../lib/api-client.ts';
+import { alertsRootKey, type AlertRule } from './get-alert-rules.ts';
+
+/** `POST /api/v1/labs/:lab/alert-rules`: makes a rule; its maker is subscribed. */
+export function createAlertRule(slug: string, input: CreateAlertRuleInput): Promise<{ rule: AlertRule }> {
+  return apiFetch(`/api/v1/labs/${encodeURIComponent(slug)}/alert-rules`, { method: 'POST', body: JSON.stringify(input) });
+}
+
+/** Makes a rule, then refreshes the lab's alert queries. */
+export function useCreateAlertRule(slug: string) {
+  return useRefreshingMutation(alertsRootKey(slug), (input: CreateAlertRuleInput) => createAlertRule(slug, input));
+}

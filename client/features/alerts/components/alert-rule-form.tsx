@@ -1,0 +1,122 @@
+import { useState, type FormEvent } from 'react';
+import { Button } from '../../../components/button.tsx';
+import { SelectField, TextField } from '../../../components/form-field.tsx';
+import { Notice } from '../../../components/notice.tsx';
+import { useCreateAlertRule } from '../api/create-alert-rule.ts';
+import { AlertCaution } from './alert-caution.tsx';
+import { checkRuleForm, EMPTY_RULE_FORM, errorsFromServerMessage, type RuleFormState } from './rule-form-input.ts';
+
+/** A channel that a rule can watch (with its logger, for silence rules on a whole logger). */
+export interface RuleTarget {
+  id: number;
+  label: string;
+  unit: string | null;
+  loggerId: number;
+  loggerName: string;
+}
+
+const KIND_LABELS: Record<RuleFormState['kind'], string> = {
+  bounds: 'Readings outside limits',
+  silence: 'No readings arrive',
+  rate: 'Readings change too fast',
+  unusual: 'Unusual reading for the time of day',
+};
+
+/**
+ * "New alert rule": what to watch, which kind of rule and its parameters, checked with the
+ * server's own schema (and the server's refusals shown on the field they name), with the
+ * caution beside it that alerts are no certified alarm.
+ */
+export function AlertRuleForm({ slug, targets, initialChannelId }: { slug: string; targets: RuleTarget[]; initialChannelId?: number }) {
+  const create = useCreateAlertRule(slug);
+  const [f, setF] = useState<RuleFormState>({ ...EMPTY_RULE_FORM, target: initialChannelId ? `channel:${initialChannelId}` : '' });
+  const [errors, setErrors] = useState<Record<string, string>>({});
+  const [made, setMade] = useState<string | null>(null);
+  const set = <K extends keyof RuleFormState>(key: K) => (e: { target: { value: string } }) => setF((old) => ({ ...old, [key]: e.target.value as RuleFormState[K] }));
+  const loggers = [...new Map(targets.map((t) => [t.loggerId, t.loggerName])).entries()];
+  const unit = targets.find((t) => `channel:${t.id}` === f.target)?.unit ?? '';
+
+  async function onSubmit(e: FormEvent) {
+    e.preventDefault();
+    setMade(null);
+    const checked = checkRuleForm(f);
+    if ('errors' in checked) return setErrors(checked.errors);
+    setErrors({});
+    try {
+      const { rule } = await create.mutateAsync(checked.input);
+      setMade(`The rule “${rule.name}” watches ${rule.watched.label} now; you will be mailed when it fires.`);
+      setF((old) => ({ ...EMPTY_RULE_FORM, target: old.target }));
+    } catch (err) {
+      setErrors(errorsFromServerMessage((err as Error).message));
+    }
+  }
+
+  const err = (key: string) => errors[key];
+  return (
+    <section aria-labelledby="new-rule-heading" className="grid gap-3 rounded-xl border border-rule bg-card p-4">
+      <h3 id="new-rule-heading" className="text-lg font-semibold">
+        New alert rule
+      </h3>
+      <AlertCaution />
+      <form noValidate aria-label="New alert rule" onSubmit={onSubmit} className="grid gap-4 sm:grid-cols-2">
+        <TextField label="Name" placeholder="e.g. Freezer 3 too warm" autoComplete="off" value={f.name} onChange={set('name')} error={err('name')} />
+        <SelectField label="Alert when" value={f.kind} onChange={set('kind')} error={err('kind')}>
+          {Object.entries(KIND_LABELS).map(([k, label]) => (
+            <option key={k} value={k}>
+              {label}
+            </option>
+          ))}
+        </SelectField>
+        <SelectField label="Watch" value={f.target} onChange={set('target')} error={err('channelId') ?? err('loggerId')}>
+          <option value="">Choose a channel…</option>
+          {targets.map((t) => (
+            <option key={t.id} value={`channel:${t.id}`}>
+              {t.loggerName} · {t.label}
+            </option>
+          ))}
+          {f.kind === 'silence' &&
+            loggers.map(([id, name]) => (
+              <option key={`l${id}`} value={`logger:${id}`}>
+                Every channel of {name}
+              </option>
+            ))}
+        </SelectField>
+        <TextField label="Remind after (minutes, empty: lab default, 0: never)" type="number" inputMode="numeric" value={f.reminderAfterMin} onChange={set('reminderAfterMin')} error={err('reminderAfterMin')} />
+        {f.kind === 'bounds' && (
+          <>
+            <TextField label={`Low limit${unit ? ` (${unit})` : ''}`} type="number" inputMode="decimal" value={f.low} onChange={set('low')} error={err('params.low')} />
+            <TextField label={`High limit${unit ? ` (${unit})` : ''}`} type="number" inputMode="decimal" value={f.high} onChange={set('high')} error={err('params.high')} />
+            <TextField label="Hold time (seconds outside before it fires)" type="number" inputMode="numeric" value={f.holdS} onChange={set('holdS')} error={err('params.holdS')} hint="So that one noisy reading pages nobody." />
+          </>
+        )}
+        {f.kind === 'silence' && (
+          <TextField label="Silent for more than (× expected interval)" type="number" inputMode="decimal" value={f.factor} onChange={set('factor')} error={err('params.factor')} />
+        )}
+        {f.kind === 'rate' && (
+          <>
+            <TextField label={`Largest change per minute${unit ? ` (${unit})` : ''}`} type="number" inputMode="decimal" value={f.maxPerMinute} onChange={set('maxPerMinute')} error={err('params.maxPerMinute')} />
+            <SelectField label="Direction" value={f.direction} onChange={set('direction')} error={err('params.direction')}>
+              <option value="either">Rises and falls</option>
+              <option value="rise">Rises only</option>
+              <option value="fall">Falls only</option>
+            </SelectField>
+          </>
+        )}
+        {f.kind === 'unusual' && (
+          <>
+            <TextField label="Cycle (hours)" type="number" inputMode="decimal" value={f.periodH} onChange={set('periodH')} error={err('params.periodH')} />
+            <TextField label="Robust SDs off the usual pattern" type="number" inputMode="decimal" value={f.k} onChange={set('k')} error={err('params.k')} hint="The usual daily shape is learnt from recent cycles (STL), so a normal afternoon peak does not count." />
+            <TextField label="Cycles of history" type="number" inputMode="numeric" value={f.historyCycles} onChange={set('historyCycles')} error={err('params.historyCycles')} />
+          </>
+        )}
+        <div className="sm:col-span-2">
+          <Button type="submit" tone="primary" disabled={create.isPending}>
+            {create.isPending ? 'Saving…' : 'Make rule'}
+          </Button>
+        </div>
+        {errors.body && <Notice tone="alert" className="sm:col-span-2">{errors.body}</Notice>}
+        {made && <Notice tone="status" className="sm:col-span-2">{made}</Notice>}
+      </form>
+    </section>
+  );
+}

@@ -1,0 +1,29 @@
+import { describe, expect, it } from 'vitest';
+import { checkRuleForm, EMPTY_RULE_FORM, errorsFromServerMessage } from './rule-form-input.ts';
+
+describe('the rule form', () => {
+  it('makes a bounds rule body from the typed fields', () => {
+    const r = checkRuleForm({ ...EMPTY_RULE_FORM, name: 'Freezer warm', target: 'channel:12', high: '-15', holdS: '300' });
+    expect(r).toEqual({ input: { name: 'Freezer warm', kind: 'bounds', channelId: 12, params: { low: null, high: -15, holdS: 300 }, reminderAfterMin: null, enabled: true } });
+  });
+
+  it('gives the server schema messages per field', () => {
+    const r = checkRuleForm({ ...EMPTY_RULE_FORM, name: 'Band', target: 'channel:12', low: '9', high: '2', holdS: '-1' });
+    expect(r).toEqual({ errors: { 'params.holdS': 'must not be negative (seconds)', 'params.low': 'must be below the high limit' } });
+  });
+
+  it('needs a channel', () => {
+    const r = checkRuleForm({ ...EMPTY_RULE_FORM, name: 'x', high: '1' });
+    expect('errors' in r && r.errors.channelId).toBe('must be a number');
+  });
+
+  it('a silence rule may watch a logger', () => {
+    const r = checkRuleForm({ ...EMPTY_RULE_FORM, name: 'Quiet', kind: 'silence', target: 'logger:7', factor: '4' });
+    expect(r).toMatchObject({ input: { kind: 'silence', loggerId: 7, params: { factor: 4 } } });
+  });
+
+  it('splits server messages into fields', () => {
+    expect(errorsFromServerMessage('params.low: must be below the high limit; name: must not be empty')).toEqual({ 'params.low': 'must be below the high limit', name: 'must not be empty' });
+    expect(errorsFromServerMessage('No such channel in this lab.')).toEqual({ body: 'No such channel in this lab.' });
+  });
+});

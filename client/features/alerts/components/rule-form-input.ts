@@ -1,0 +1,79 @@
+import { createAlertRuleSchema, type AlertRuleKind, type CreateAlertRuleInput } from '../../../../server/http/alerts/alerts.schema.ts';
+
+/** The rule form's fields as typed (text), before they become a request body. */
+export interface RuleFormState {
+  name: string;
+  kind: AlertRuleKind;
+  /** `channel:<id>` or `logger:<id>` (loggers only for silence). */
+  target: string;
+  low: string;
+  high: string;
+  holdS: string;
+  factor: string;
+  maxPerMinute: string;
+  direction: 'rise' | 'fall' | 'either';
+  periodH: string;
+  k: string;
+  historyCycles: string;
+  reminderAfterMin: string;
+}
+
+export const EMPTY_RULE_FORM: RuleFormState = {
+  name: '',
+  kind: 'bounds',
+  target: '',
+  low: '',
+  high: '',
+  holdS: '300',
+  factor: '3',
+  maxPerMinute: '',
+  direction: 'either',
+  periodH: '24',
+  k: '5',
+  historyCycles: '3',
+  reminderAfterMin: '',
+};
+
+/** A typed number, or undefined for an empty field (NaN for text that is no number, so the schema names it). */
+const num = (s: string): number | undefined => (s.trim() === '' ? undefined : Number(s));
+
+/** The request body the form's fields make (not yet checked). */
+export function ruleInputFromForm(f: RuleFormState): Record<string, unknown> {
+  const [what, id] = f.target.split(':');
+  const target = what === 'logger' ? { loggerId: Number(id) } : what === 'channel' ? { channelId: Number(id) } : { channelId: undefined };
+  const params =
+    f.kind === 'bounds'
+      ? { low: num(f.low) ?? null, high: num(f.high) ?? null, holdS: num(f.holdS) ?? 0 }
+      : f.kind === 'silence'
+        ? { factor: num(f.factor) }
+        : f.kind === 'rate'
+          ? { maxPerMinute: num(f.maxPerMinute), direction: f.direction }
+          : { periodH: num(f.periodH), k: num(f.k), historyCycles: num(f.historyCycles) };
+  return { name: f.name, kind: f.kind, ...target, params, reminderAfterMin: num(f.reminderAfterMin) ?? null };
+}
+
+/**
+ * Checks the form with the server's own schema: the valid body, or the messages per field
+ * (`params.high`, `channelId` …) exactly as the server would word them.
+ */
+export function checkRuleForm(f: RuleFormState): { input: CreateAlertRuleInput } | { errors: Record<string, string> } {
+  const result = createAlertRuleSchema.safeParse(ruleInputFromForm(f));
+  if (result.success) return { input: result.data };
+  const errors: Record<string, string> = {};
+  for (const issue of result.error.issues) {
+    const key = issue.path.join('.') || 'body';
+    errors[key] ??= issue.message;
+  }
+  return { errors };
+}
+
+/** Splits a server message of `field: reason; field: reason` into its fields (others under `body`). */
+export function errorsFromServerMessage(message: string): Record<string, string> {
+  const errors: Record<string, string> = {};
+  for (const part of message.split('; ')) {
+    const m = /^([A-Za-z][\w.]*):\s*(.+)$/s.exec(part);
+    if (m) errors[m[1]] ??= m[2];
+    else errors.body = errors.body ? `${errors.body}; ${part}` : part;
+  }
+  return errors;
+}

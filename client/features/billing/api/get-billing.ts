@@ -1,0 +1,57 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { apiFetch } from '../../../lib/api-client.ts';
+
+/** A plan's limits, as in tenants/plans.json. */
+export interface PlanLimits {
+  readings: number;
+  loggers: number;
+  members: number;
+  historyDays: number;
+}
+
+/** A plan of the catalog. */
+export interface BillingPlan {
+  key: string;
+  name: string;
+  summary: string;
+  /** Per month, in the currency's smallest unit. */
+  monthlyAmount: number;
+  paid: boolean;
+  limits: PlanLimits;
+}
+
+/** `GET /api/v1/labs/:lab/billing`. */
+export interface BillingOverview {
+  plan: BillingPlan;
+  subscribedPlanKey: string;
+  status: 'none' | 'active' | 'past_due' | 'canceled';
+  graceUntil: string | null;
+  usage: { readings: number; loggers: number; members: number };
+  limits: PlanLimits;
+  ingestionRefused: boolean;
+  historyStartsAt: string;
+  trend: Array<{ day: string; readings: number; loggers: number; members: number }>;
+  currency: string;
+  plans: BillingPlan[];
+}
+
+/** Every billing query of a lab lives under this key. */
+export const billingRootKey = (slug: string) => ['labs', slug, 'billing'] as const;
+
+export function getBilling(slug: string): Promise<BillingOverview> {
+  return apiFetch(`/api/v1/labs/${encodeURIComponent(slug)}/billing`);
+}
+
+export const billingQueryOptions = (slug: string) => queryOptions({ queryKey: [...billingRootKey(slug), 'overview'], queryFn: () => getBilling(slug) });
+
+/** True once Stripe's confirmation of a checkout has reached Lagbook (a paid plan, active). */
+export const isConfirmed = (o: BillingOverview | undefined): boolean => !!o && o.status === 'active' && o.plan.paid;
+
+/**
+ * The lab's plan and usage. With `untilConfirmed` (back from Checkout) it refetches every
+ * `pollMs` until the webhook has landed, then stops.
+ */
+export function useBilling(slug: string, opts: { untilConfirmed?: boolean; pollMs?: number } = {}) {
+  const every = opts.pollMs ?? 1500;
+  return useQuery({ ...billingQueryOptions(slug), refetchInterval: (query) => (opts.untilConfirmed && !isConfirmed(query.state.data) ? every : false) });
+}

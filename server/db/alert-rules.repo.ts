@@ -1,0 +1,177 @@
+import type { LabScope } from './tenant-scope.ts';
+import { newId } from './new-id.ts';
+import type { AlertRuleKind } from '../http/alerts/alerts.schema.ts';
+
+/** A rule's memory between evaluations (see migrations/20261202001600_create-alert-rules.ts). */
+export interface AlertRuleCursor {
+  /** Newest reading time already judged, or null before the first evaluation. */
+  cursorTs: number | null;
+  pendingSince: number | null;
+  previous: { ts: number; value: number } | null;
+}
+
+export interface AlertRule {
+  id: number;
+  name: string;
+  kind: AlertRuleKind;
+  channelId: number | null;
+  loggerId: number | null;
+  params: Record<string, unknown>;
+  reminderAfterMin: number | null;
+  enabled: boolean;
+  createdBy: number | null;
+  createdAt: Date;
+  updatedAt: Date;
+  /** Epoch ms the rule started watching (silence counts from here when nothing ever reported). */
+  watchingSince: number;
+  cursor: AlertRuleCursor;
+}
+
+export type AlertRuleInsert = Pick<AlertRule, 'name' | 'kind' | 'channelId' | 'loggerId' | 'params' | 'reminderAfterMin' | 'enabled' | 'watchingSince'> & {
+  createdBy: number;
+  /** Start judging readings after this time (readings already stored when the rule was made are history). */
+  cursorTs: number | null;
+};
+
+const COLUMNS = [
+  'alert_rules.id',
+  'alert_rules.name',
+  'alert_rules.kind',
+  'alert_rules.channel_id as channelId',
+  'alert_rules.logger_id as loggerId',
+  'alert_rules.params',
+  'alert_rules.reminder_after_min as reminderAfterMin',
+  'alert_rules.enabled',
+  'alert_rules.created_by as createdBy',
+  'alert_rules.created_at as createdAt',
+  'alert_rules.updated_at as updatedAt',
+  'alert_rules.watching_since as watchingSince',
+  'alert_rules.cursor_ts as cursorTs',
+  'alert_rules.pending_since_ts as pendingSince',
+  'alert_rules.previous_ts as previousTs',
+  'alert_rules.previous_value as previousValue',
+];
+const opt = (v: unknown) => (v === null || v === undefined ? null : Number(v));
+const toRule = (r: Record<string, unknown>): AlertRule => ({
+  id: Number(r.id),
+  name: r.name as string,
+  kind: r.kind as AlertRuleKind,
+  channelId: opt(r.channelId),
+  loggerId: opt(r.loggerId),
+  params: JSON.parse(r.params as string) as Record<string, unknown>,
+  reminderAfterMin: opt(r.reminderAfterMin),
+  enabled: Boolean(r.enabled),
+  createdBy: opt(r.createdBy),
+  createdAt: r.createdAt as Date,
+  updatedAt: r.updatedAt as Date,
+  watchingSince: Number(r.watchingSince),
+  cursor: {
+    cursorTs: opt(r.cursorTs),
+    pendingSince: opt(r.pendingSince),
+    previous: r.previousTs === null || r.previousTs === undefined ? null : { ts: Number(r.previousTs), value: Number(r.previousValue) },
+  },
+});
+
+/** Data access for one lab's `alert_rules` and their `alert_subscriptions`. */
+export function alertRulesIn(scope: LabScope) {
+  return {
+    async list(): Promise<AlertRule[]> {
+      return (await scope.table('alert_rules').orderBy('alert_rules.name').select(COLUMNS)).map(toRule);
+    },
+    async listEnabled(): Promise<AlertRule[]> {
+      return (await scope.table('alert_rules').where('alert_rules.enabled', true).select(COLUMNS)).map(toRule);
+    },
+    async find(id: number, opts: { forUpdate?: boolean } = {}): Promise<AlertRule | null> {
+      const q = scope.table('alert_rules').where('alert_rules.id', id).first(COLUMNS);
+      if (opts.forUpdate) q.forUpdate();
+      const row = await q;
+      return row ? toRule(row) : null;
+    },
+    /** Enabled rules watching any of `channelIds` (value rules; the ingest nudge uses it). */
+    async enabledForChannels(channelIds: number[]): Promise<AlertRule[]> {
+      if (channelIds.length === 0) return [];
+      return (await scope.table('alert_rules').where('alert_rules.enabled', true).whereIn('alert_rules.channel_id', channelIds).select(COLUMNS)).map(toRule);
+    },
+    async insert(input: AlertRuleInsert): Promise<number> {
+      const id = newId();
+      await scope.insert('alert_rules', {
+        id,
+        name: input.name,
+        kind: input.kind,
+        channel_id: input.channelId,
+        logger_id: input.loggerId,
+        params: JSON.stringify(input.params),
+        reminder_after_min: input.reminderAfterMin,
+        enabled: input.enabled,
+        created_by: input.createdBy,
+        watching_since: input.watchingSince,
+        cursor_ts: input.cursorTs,
+      });
+      return id;
+    },
+    async update(id: number, change: { name?: string; params?: Record<string, unknown>; reminderAfterMin?: number | null; enabled?: boolean }, at: Date): Promise<void> {
+      const cols: Record<string, unknown> = { updated_at: at };
+      if (change.name !== undefined) cols.name = change.name;
+      if (change.params !== undefined) cols.params = JSON.stringify(change.params);
+      if (change.reminderAfterMin !== undefined) cols.reminder_after_min = change.reminderAfterMin;
+      if (change.enabled !== undefined) cols.enabled = change.enabled;
+      await scope.table('alert_rules').where('alert_rules.id', id).update(cols);
+    },
+    /** Stores a rule's memory after an evaluation (in the same transaction as its alerts). */
+    async saveCursor(id: number, cursor: AlertRuleCursor): Promise<void> {
+      await scope
+        .table('alert_rules')
+        .where('alert_rules.id', id)
+        .update({
+          cursor_ts: cursor.cursorTs,
+          pending_since_ts: cursor.pendingSince,
+          previous_ts: cursor.previous?.ts ?? null,
+          previous_value: cursor.previous?.value ?? null,
+        });
+    },
+    /** Forgets a pending hold and the reference reading (after the limits change or the rule is re-enabled). */
+    async resetMemory(id: number): Promise<void> {
+      await scope.table('alert_rules').where('alert_rules.id', id).update({ pending_since_ts: null, previous_ts: null, previous_value: null });
+    },
+    /** Starts watching afresh (re-enabled): readings up to `cursorTs` count as history, the memory is cleared. */
+    async restart(id: number, cursorTs: number | null, watchingSince: number): Promise<void> {
+      await scope
+        .table('alert_rules')
+        .where('alert_rules.id', id)
+        .update({ cursor_ts: cursorTs, watching_since: watchingSince, pending_since_ts: null, previous_ts: null, previous_value: null });
+    },
+    async remove(id: number): Promise<void> {
+      await scope.table('alert_subscriptions').where('alert_subscriptions.rule_id', id).delete();
+      await scope.table('alert_rules').where('alert_rules.id', id).delete();
+    },
+    async subscribe(ruleId: number, userId: number): Promise<void> {
+      await scope.insert('alert_subscriptions', { rule_id: ruleId, user_id: userId }).onConflict(['tenant_id', 'rule_id', 'user_id']).ignore();
+    },
+    async unsubscribe(ruleId: number, userId: number): Promise<void> {
+      await scope.table('alert_subscriptions').where({ 'alert_subscriptions.rule_id': ruleId, 'alert_subscriptions.user_id': userId }).delete();
+    },
+    /** Rule ids the user is subscribed to. */
+    async subscribedRuleIds(userId: number): Promise<Set<number>> {
+      const rows = await scope.table('alert_subscriptions').where('alert_subscriptions.user_id', userId).select('alert_subscriptions.rule_id as ruleId');
+      return new Set(rows.map((r: { ruleId: unknown }) => Number(r.ruleId)));
+    },
+    /**
+     * Subscribers of a rule who are still members of the lab, with their address: mail goes
+     * only to people who may still see the lab.
+     */
+    async recipients(ruleId: number): Promise<Array<{ userId: number; email: string; displayName: string }>> {
+      const rows = await scope
+        .table('alert_subscriptions')
+        .join('memberships', function joinMembership() {
+          this.on('memberships.tenant_id', 'alert_subscriptions.tenant_id').andOn('memberships.user_id', 'alert_subscriptions.user_id');
+        })
+        .join('users', 'users.id', 'alert_subscriptions.user_id')
+        .where('alert_subscriptions.rule_id', ruleId)
+        .orderBy('alert_subscriptions.user_id')
+        .select('users.id as userId', 'users.email', 'users.display_name as displayName');
+      return rows.map((r: Record<string, unknown>) => ({ userId: Number(r.userId), email: r.email as string, displayName: r.displayName as string }));
+    },
+  };
+}
+
+export type AlertRulesRepo = ReturnType<typeof alertRulesIn>;

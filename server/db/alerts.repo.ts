@@ -1,0 +1,149 @@
+import type { LabScope } from './tenant-scope.ts';
+import { newId } from './new-id.ts';
+import type { AlertRuleKind } from '../http/alerts/alerts.schema.ts';
+
+export interface AlertRecord {
+  id: number;
+  ruleId: number;
+  ruleName: string;
+  kind: AlertRuleKind;
+  channelId: number | null;
+  loggerId: number | null;
+  openedAt: number;
+  openedValue: number | null;
+  openedDetail: string;
+  resolvedAt: number | null;
+  resolvedValue: number | null;
+  resolvedDetail: string | null;
+  remindersSent: number;
+  lastNotifiedAt: number;
+  acknowledgedAt: Date | null;
+  acknowledgedBy: { name: string; email: string } | null;
+  acknowledgementNote: string | null;
+}
+
+const COLUMNS = [
+  'alerts.id',
+  'alerts.rule_id as ruleId',
+  'alerts.rule_name as ruleName',
+  'alerts.kind',
+  'alerts.channel_id as channelId',
+  'alerts.logger_id as loggerId',
+  'alerts.opened_at as openedAt',
+  'alerts.opened_value as openedValue',
+  'alerts.opened_detail as openedDetail',
+  'alerts.resolved_at as resolvedAt',
+  'alerts.resolved_value as resolvedValue',
+  'alerts.resolved_detail as resolvedDetail',
+  'alerts.reminders_sent as remindersSent',
+  'alerts.last_notified_at as lastNotifiedAt',
+  'alerts.acknowledged_at as acknowledgedAt',
+  'alerts.acknowledgement_note as acknowledgementNote',
+  'ack_user.display_name as ackName',
+  'ack_user.email as ackEmail',
+];
+const opt = (v: unknown) => (v === null || v === undefined ? null : Number(v));
+const toAlert = (r: Record<string, unknown>): AlertRecord => ({
+  id: Number(r.id),
+  ruleId: Number(r.ruleId),
+  ruleName: r.ruleName as string,
+  kind: r.kind as AlertRuleKind,
+  channelId: opt(r.channelId),
+  loggerId: opt(r.loggerId),
+  openedAt: Number(r.openedAt),
+  openedValue: opt(r.openedValue),
+  openedDetail: r.openedDetail as string,
+  resolvedAt: opt(r.resolvedAt),
+  resolvedValue: opt(r.resolvedValue),
+  resolvedDetail: (r.resolvedDetail as string | null) ?? null,
+  remindersSent: Number(r.remindersSent),
+  lastNotifiedAt: Number(r.lastNotifiedAt),
+  acknowledgedAt: (r.acknowledgedAt as Date | null) ?? null,
+  acknowledgedBy: r.ackEmail ? { name: r.ackName as string, email: r.ackEmail as string } : null,
+  acknowledgementNote: (r.acknowledgementNote as string | null) ?? null,
+});
+
+/** Data access for one lab's `alerts`. */
+export function alertsIn(scope: LabScope) {
+  const base = () => scope.table('alerts').leftJoin('users as ack_user', 'ack_user.id', 'alerts.acknowledged_by').select(COLUMNS);
+  return {
+    async find(id: number): Promise<AlertRecord | null> {
+      const row = await base().where('alerts.id', id).first();
+      return row ? toAlert(row) : null;
+    },
+    /** The rule's open alert, if any. */
+    async openForRule(ruleId: number): Promise<AlertRecord | null> {
+      const row = await base().where('alerts.open_rule_id', ruleId).first();
+      return row ? toAlert(row) : null;
+    },
+    /** Open alerts, and (unless `openOnly`) those opened since `since`; newest first, at most `limit`. */
+    async list(filter: { openOnly: boolean; since: number; channelId?: number; limit: number }): Promise<AlertRecord[]> {
+      const q = base().orderBy('alerts.opened_at', 'desc').limit(filter.limit);
+      if (filter.openOnly) q.whereNotNull('alerts.open_rule_id');
+      else q.where((w) => w.whereNotNull('alerts.open_rule_id').orWhere('alerts.opened_at', '>=', filter.since));
+      if (filter.channelId !== undefined) q.where('alerts.channel_id', filter.channelId);
+      return (await q).map(toAlert);
+    },
+    /** A channel's alerts that overlap [from, to) (still-open ones count as lasting until now). */
+    async overlapping(channelId: number, from: number, to: number): Promise<AlertRecord[]> {
+      const rows = await base()
+        .where('alerts.channel_id', channelId)
+        .where('alerts.opened_at', '<', to)
+        .where((w) => w.whereNull('alerts.resolved_at').orWhere('alerts.resolved_at', '>=', from))
+        .orderBy('alerts.opened_at')
+        .limit(1000);
+      return rows.map(toAlert);
+    },
+    /** Every alert still open in the lab. */
+    async openAlerts(): Promise<AlertRecord[]> {
+      return (await base().whereNotNull('alerts.open_rule_id')).map(toAlert);
+    },
+    /** Opens an alert; `notifiedAt` (the evaluation's clock) is when its first mail was queued, reminders count from it. */
+    async open(input: { ruleId: number; ruleName: string; kind: AlertRuleKind; channelId: number | null; loggerId: number | null; at: number; value: number | null; detail: string; notifiedAt: number }): Promise<number> {
+      const id = newId();
+      await scope.insert('alerts', {
+        id,
+        rule_id: input.ruleId,
+        open_rule_id: input.ruleId,
+        rule_name: input.ruleName,
+        kind: input.kind,
+        channel_id: input.channelId,
+        logger_id: input.loggerId,
+        opened_at: input.at,
+        opened_value: input.value,
+        opened_detail: input.detail.slice(0, 255),
+        last_notified_at: input.notifiedAt,
+      });
+      return id;
+    },
+    async resolve(id: number, input: { at: number; value: number | null; detail: string }): Promise<boolean> {
+      const n = await scope
+        .table('alerts')
+        .where('alerts.id', id)
+        .whereNotNull('alerts.open_rule_id')
+        .update({ open_rule_id: null, resolved_at: input.at, resolved_value: input.value, resolved_detail: input.detail.slice(0, 255) });
+      return n === 1;
+    },
+    /** Counts one more reminder, only if nobody else counted it first (compare-and-set on the count). */
+    async countReminder(id: number, expectedSent: number, at: number): Promise<boolean> {
+      const n = await scope
+        .table('alerts')
+        .where({ 'alerts.id': id, 'alerts.reminders_sent': expectedSent })
+        .whereNotNull('alerts.open_rule_id')
+        .update({ reminders_sent: expectedSent + 1, last_notified_at: at });
+      return n === 1;
+    },
+    async acknowledge(id: number, by: number, note: string, at: Date): Promise<void> {
+      await scope.table('alerts').where('alerts.id', id).update({ acknowledged_at: at, acknowledged_by: by, acknowledgement_note: note || null });
+    },
+    /** Closes a deleted rule's open alert without mail (its history stays). */
+    async closeForDeletedRule(ruleId: number, at: number): Promise<void> {
+      await scope
+        .table('alerts')
+        .where('alerts.open_rule_id', ruleId)
+        .update({ open_rule_id: null, resolved_at: at, resolved_detail: 'the rule was deleted' });
+    },
+  };
+}
+
+export type AlertsRepo = ReturnType<typeof alertsIn>;

@@ -1,0 +1,124 @@
+import type { DbOrTrx, LabScope } from './tenant-scope.ts';
+
+/** Subscription status as Lagbook mirrors it from Stripe. */
+export type BillingStatus = 'none' | 'active' | 'past_due' | 'canceled';
+
+/** A lab's billing row (see migration 20261202001500). */
+export interface LabBilling {
+  tenantId: number;
+  planKey: string;
+  status: BillingStatus;
+  stripeCustomerId: string | null;
+  stripeSubscriptionId: string | null;
+  graceUntil: Date | null;
+  /** Stripe `created` (Unix seconds) of the newest event applied. */
+  stateAt: number;
+  readingsCount: number;
+  reconciledAt: Date | null;
+  /** Highest usage warning already mailed (0, 80 or 100). */
+  warnedPercent: number;
+}
+
+/** Fields a Stripe event may change. */
+export type BillingStatePatch = Partial<Pick<LabBilling, 'planKey' | 'status' | 'stripeSubscriptionId' | 'graceUntil' | 'stateAt' | 'stripeCustomerId'>>;
+
+const COLUMNS = [
+  'lab_billing.tenant_id as tenantId',
+  'lab_billing.plan_key as planKey',
+  'lab_billing.status',
+  'lab_billing.stripe_customer_id as stripeCustomerId',
+  'lab_billing.stripe_subscription_id as stripeSubscriptionId',
+  'lab_billing.grace_until as graceUntil',
+  'lab_billing.state_at as stateAt',
+  'lab_billing.readings_count as readingsCount',
+  'lab_billing.reconciled_at as reconciledAt',
+  'lab_billing.warned_percent as warnedPercent',
+];
+
+const toBilling = (r: Record<string, unknown>): LabBilling => ({
+  tenantId: Number(r.tenantId),
+  planKey: r.planKey as string,
+  status: r.status as BillingStatus,
+  stripeCustomerId: (r.stripeCustomerId as string | null) ?? null,
+  stripeSubscriptionId: (r.stripeSubscriptionId as string | null) ?? null,
+  graceUntil: (r.graceUntil as Date | null) ?? null,
+  stateAt: Number(r.stateAt),
+  readingsCount: Number(r.readingsCount),
+  reconciledAt: (r.reconciledAt as Date | null) ?? null,
+  warnedPercent: Number(r.warnedPercent),
+});
+
+const PATCH_COLUMNS: Record<keyof BillingStatePatch, string> = {
+  planKey: 'plan_key',
+  status: 'status',
+  stripeSubscriptionId: 'stripe_subscription_id',
+  stripeCustomerId: 'stripe_customer_id',
+  graceUntil: 'grace_until',
+  stateAt: 'state_at',
+};
+
+/**
+ * The one billing lookup that starts without a lab: a Stripe webhook names only the customer.
+ * Returns the lab id the customer was created for, or null.
+ */
+export async function findLabByStripeCustomer(db: DbOrTrx, customerId: string): Promise<number | null> {
+  const row = await db('lab_billing').where('lab_billing.stripe_customer_id', customerId).first('tenant_id as tenantId');
+  return row ? Number(row.tenantId) : null;
+}
+
+/**
+ * Data access for one lab's `lab_billing` row (`db` is the same connection or transaction as
+ * `scope`, for the upserts); `freePlanKey` fills the row when it is first made.
+ */
+export function labBillingIn(scope: LabScope, db: DbOrTrx, freePlanKey: string) {
+  const ensure = async () => {
+    // INSERT IGNORE: two first-time writers never fail on each other.
+    await db.raw('INSERT IGNORE INTO lab_billing (tenant_id, plan_key) VALUES (?, ?)', [scope.tenantId, freePlanKey]);
+  };
+  return {
+    /** The lab's row; `lock` takes a row lock for a read-modify-write (webhooks only, never ingestion). */
+    async get(opts: { lock?: boolean } = {}): Promise<LabBilling | null> {
+      const q = scope.table('lab_billing').first(COLUMNS);
+      const row = await (opts.lock ? q.forUpdate() : q);
+      return row ? toBilling(row) : null;
+    },
+
+    /** The row, made first (free plan, nothing counted) when the lab has none. */
+    async getOrCreate(opts: { lock?: boolean } = {}): Promise<LabBilling> {
+      await ensure();
+      return (await this.get(opts))!;
+    },
+
+    async patch(patch: BillingStatePatch): Promise<void> {
+      const update: Record<string, unknown> = {};
+      for (const [key, column] of Object.entries(PATCH_COLUMNS)) {
+        const value = patch[key as keyof BillingStatePatch];
+        if (value !== undefined) update[column] = value;
+      }
+      await ensure();
+      await scope.table('lab_billing').update({ ...update, updated_at: new Date() });
+    },
+
+    /** Adds newly stored readings to the counter in one statement (no lock held past it). */
+    async addReadings(count: number): Promise<void> {
+      await db.raw('INSERT INTO lab_billing (tenant_id, plan_key, readings_count) VALUES (?, ?, ?) ON DUPLICATE KEY UPDATE readings_count = readings_count + VALUES(readings_count)', [
+          scope.tenantId,
+          freePlanKey,
+          count,
+        ]);
+    },
+
+    /** Replaces the counter with an exact count (the usage job). */
+    async setReadings(count: number, at: Date): Promise<void> {
+      await ensure();
+      await scope.table('lab_billing').update({ readings_count: count, reconciled_at: at });
+    },
+
+    async setWarnedPercent(percent: number): Promise<void> {
+      await ensure();
+      await scope.table('lab_billing').update({ warned_percent: percent });
+    },
+  };
+}
+
+export type LabBillingRepo = ReturnType<typeof labBillingIn>;

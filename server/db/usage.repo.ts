@@ -1,0 +1,83 @@
+import type { DbOrTrx, LabScope } from './tenant-scope.ts';
+
+/** What a lab uses, against which plans are limited. */
+export interface UsageCounts {
+  readings: number;
+  loggers: number;
+  members: number;
+}
+
+/** One day of the usage trend. */
+export interface UsageSnapshot extends UsageCounts {
+  /** UTC day, `YYYY-MM-DD`. */
+  day: string;
+}
+
+/** Rollup resolution whose counts are summed for the exact stored-readings count (one day). */
+const DAY_RESOLUTION_S = 86400;
+
+const dayOf = (v: unknown): string => (v instanceof Date ? v.toISOString().slice(0, 10) : String(v).slice(0, 10));
+
+/** Every lab's id, slug and name, for jobs that visit each lab in turn (labs is the tenant table itself). */
+export async function listLabs(db: DbOrTrx): Promise<Array<{ id: number; slug: string; name: string }>> {
+  return (await db('labs').orderBy('id').select('id', 'slug', 'name')).map((r: { id: number; slug: string; name: string }) => ({ id: Number(r.id), slug: r.slug, name: r.name }));
+}
+
+/** One lab's id, slug and name, or null (webhooks name a lab by id in their metadata). */
+export async function findLabById(db: DbOrTrx, id: number): Promise<{ id: number; slug: string; name: string } | null> {
+  const r = await db('labs').where('id', id).first('id', 'slug', 'name');
+  return r ? { id: Number(r.id), slug: r.slug as string, name: r.name as string } : null;
+}
+
+/** Data access for one lab's usage: exact counts and the daily snapshots. */
+export function usageIn(scope: LabScope) {
+  return {
+    /**
+     * Stored readings, exactly: rollups are kept current in the batch transaction and each
+     * reading sits in exactly one day bucket, so the day rollups' counts sum to the number of
+     * rows in `readings` — one small row per channel-day instead of a scan of every reading.
+     */
+    async storedReadings(): Promise<number> {
+      const row = await scope.table('reading_rollups').where('reading_rollups.resolution_s', DAY_RESOLUTION_S).sum({ n: 'reading_rollups.count_value' }).first();
+      return Number(row?.n ?? 0);
+    },
+
+    /** Loggers registered and not retired. */
+    async activeLoggers(): Promise<number> {
+      const row = await scope.table('loggers').whereNull('loggers.retired_at').count({ n: '*' }).first();
+      return Number(row?.n ?? 0);
+    },
+
+    /** Members plus invitations still pending (each may become a member). */
+    async seatsTaken(now: Date): Promise<number> {
+      const members = await scope.table('memberships').count({ n: '*' }).first();
+      const pending = await scope
+        .table('invitations')
+        .whereNull('invitations.accepted_at')
+        .whereNull('invitations.revoked_at')
+        .where('invitations.expires_at', '>', now)
+        .count({ n: '*' })
+        .first();
+      return Number(members?.n ?? 0) + Number(pending?.n ?? 0);
+    },
+
+    /** Writes (or overwrites) the lab's snapshot for one UTC day. */
+    async saveSnapshot(day: string, counts: UsageCounts): Promise<void> {
+      await scope
+        .insert('usage_snapshots', { day, readings: counts.readings, loggers: counts.loggers, members: counts.members })
+        .onConflict(['tenant_id', 'day'])
+        .merge(['readings', 'loggers', 'members']);
+    },
+
+    /** Snapshots from `fromDay` (inclusive), oldest first. */
+    async snapshotsSince(fromDay: string): Promise<UsageSnapshot[]> {
+      const rows = await scope
+        .table('usage_snapshots')
+        .where('usage_snapshots.day', '>=', fromDay)
+        .orderBy('usage_snapshots.day')
+        .select('usage_snapshots.day', 'readings', 'loggers', 'members');
+      // DATE comes back as UTC midnight (the pool runs with timezone 'Z')
+      return rows.map((r: Record<string, unknown>) => ({ day: dayOf(r.day), readings: Number(r.readings), loggers: Number(r.loggers), members: Number(r.members) }));
+    },
+  };
+}

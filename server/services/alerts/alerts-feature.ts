@@ -1,0 +1,21 @@
+import type { Config } from '../../config.ts';
+import type { Db } from '../../db/create-db.ts';
+import type { Mailer } from '../../integrations/mail/create-mailer.ts';
+import type { Logger } from '../../logger.ts';
+import { createAlertEvaluator } from './alert-evaluator.ts';
+import { createAlertRulesService } from './alert-rules.service.ts';
+import { alertEvaluationJob, alertIngestNudge } from './alert-triggers.ts';
+
+/**
+ * Alerts wired together for createApp: the rules service for the routes, the evaluator (with
+ * `runOnce(now)` for tests), its ingestion hook and its scheduled job.
+ */
+export function createAlertsFeature(deps: { db: Db; mailer: Mailer; logger: Logger; config: Pick<Config, 'publicUrl' | 'alerts'>; now?: () => number }) {
+  const evaluator = createAlertEvaluator({ db: deps.db, mailer: deps.mailer, logger: deps.logger, publicUrl: deps.config.publicUrl, reminderAfterMin: deps.config.alerts.reminderAfterMin });
+  return {
+    service: createAlertRulesService({ db: deps.db, now: deps.now }),
+    evaluator,
+    ingestHooks: alertIngestNudge({ evaluator, logger: deps.logger, now: deps.now }),
+    job: alertEvaluationJob({ evaluator, logger: deps.logger, everyS: deps.config.alerts.evaluateEveryS, now: deps.now }),
+  };
+}

@@ -1,0 +1,43 @@
+import type { Db } from '../../db/create-db.ts';
+import { inLab } from '../../db/tenant-scope.ts';
+import { outboxIn } from '../../db/notification-outbox.repo.ts';
+import type { Mailer } from '../../integrations/mail/create-mailer.ts';
+import type { Logger } from '../../logger.ts';
+import { retryDelayMs } from './retry-delay.ts';
+
+/** How long a claimed message is reserved for its sender (after that another may try it). */
+export const CLAIM_MS = 120_000;
+
+/** What one pass of the sender did. */
+export interface SendSummary {
+  sent: number;
+  failed: number;
+}
+
+/**
+ * Sends one lab's due alert mail from the outbox: claims each message (so two senders never
+ * send the same one), hands it to SMTP, marks it sent. A failure keeps the message with the
+ * error and its next attempt after {@link retryDelayMs}. Exactly once on the normal path; if
+ * the process dies after the SMTP server accepted a message and before it is marked sent, the
+ * claim expires and the message goes out a second time (at most once more): SMTP offers no
+ * way to make the hand-over and the mark one step.
+ */
+export async function sendDueMail(deps: { db: Db; mailer: Mailer; logger: Logger }, tenantId: number, now: number, limit = 100): Promise<SendSummary> {
+  const outbox = outboxIn(inLab(deps.db, tenantId));
+  const summary: SendSummary = { sent: 0, failed: 0 };
+  for (const message of await outbox.due(now, limit)) {
+    if (!(await outbox.claim(message.id, now, now + CLAIM_MS))) continue;
+    try {
+      await deps.mailer.send({ to: message.to, subject: message.subject, text: message.text, html: message.html || undefined });
+    } catch (err) {
+      const attempts = message.attempts + 1;
+      await outbox.markFailed(message.id, attempts, now + retryDelayMs(attempts), (err as Error).message ?? String(err));
+      deps.logger.warn('alert mail not sent; will retry', { tenantId, outboxId: message.id, attempts, error: (err as Error).message });
+      summary.failed++;
+      continue;
+    }
+    await outbox.markSent(message.id, now);
+    summary.sent++;
+  }
+  return summary;
+}

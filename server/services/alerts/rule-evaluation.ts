@@ -1,0 +1,139 @@
+import type { Db } from '../../db/create-db.ts';
+import { inLab, type LabScope } from '../../db/tenant-scope.ts';
+import { alertRulesIn, type AlertRule } from '../../db/alert-rules.repo.ts';
+import { alertsIn } from '../../db/alerts.repo.ts';
+import { alertReadingsIn, type WatchedTarget } from '../../db/alert-readings.repo.ts';
+import { channelReadingsIn } from '../../db/channel-readings.repo.ts';
+import type { AlertRuleParams } from '../../http/alerts/alerts.schema.ts';
+import { queueAlertMail } from './alert-notifications.ts';
+import { evaluateBounds } from './rules/bounds-rule.ts';
+import { evaluateRate } from './rules/rate-rule.ts';
+import { evaluateSilence } from './rules/silence-rule.ts';
+import { evaluateUnusualReading, unusualScores } from './rules/unusual-reading-rule.ts';
+import type { RuleMemory, RuleReading, RuleStep, RuleTransition } from './rules/rule-step.ts';
+
+/** Readings judged per rule and transaction; a longer backlog is worked off in further chunks. */
+export const READINGS_PER_CHUNK = 5000;
+/** The most grid cells of history an unusual-reading rule may decompose (longer cycles judge nothing). */
+const MAX_BASELINE_CELLS = 60_000;
+
+/** Everything one rule evaluation needs besides the rule. */
+export interface EvaluationContext {
+  db: Db;
+  tenantId: number;
+  lab: { name: string; slug: string };
+  publicUrl: string;
+  now: number;
+  /** Test seam: runs inside the rule's transaction just before it commits (throwing rolls it back). */
+  beforeCommit?: (ruleId: number) => void;
+}
+
+/** What an evaluation changed. */
+export interface EvaluationCounts {
+  opened: number;
+  resolved: number;
+}
+
+/**
+ * Writes a rule's transitions: opens and resolves alerts and queues their mail, all in the
+ * caller's transaction. Returns the counts.
+ */
+async function applyTransitions(ctx: EvaluationContext, scope: LabScope, rule: AlertRule, target: WatchedTarget, transitions: RuleTransition[]): Promise<EvaluationCounts> {
+  const alerts = alertsIn(scope);
+  let current = await alerts.openForRule(rule.id);
+  const counts = { opened: 0, resolved: 0 };
+  for (const t of transitions) {
+    const common = { lab: ctx.lab, publicUrl: ctx.publicUrl, rule, target, sequence: 0, at: t.ts, now: ctx.now, value: t.value, detail: t.detail };
+    if (t.kind === 'open' && !current) {
+      const id = await alerts.open({ ruleId: rule.id, ruleName: rule.name, kind: rule.kind, channelId: target.channelId, loggerId: target.loggerId, at: t.ts, value: t.value, detail: t.detail, notifiedAt: ctx.now });
+      current = (await alerts.find(id))!;
+      await queueAlertMail(scope, { ...common, alert: current, kind: 'opened' });
+      counts.opened++;
+    } else if (t.kind === 'resolve' && current) {
+      await alerts.resolve(current.id, { at: t.ts, value: t.value, detail: t.detail });
+      await queueAlertMail(scope, { ...common, alert: current, kind: 'resolved' });
+      current = null;
+      counts.resolved++;
+    }
+  }
+  return counts;
+}
+
+/** The readings of a chunk as rule readings. */
+function toReadings(cols: { ts: Float64Array; values: Float64Array }): RuleReading[] {
+  return Array.from(cols.ts, (ts, i) => ({ ts, value: cols.values[i] }));
+}
+
+/** One step of a value rule over new readings (the unusual-reading rule reads its history first). */
+async function stepValueRule(ctx: EvaluationContext, rule: AlertRule, target: WatchedTarget, memory: RuleMemory, readings: RuleReading[]): Promise<RuleStep> {
+  if (rule.kind === 'bounds') return evaluateBounds(rule.params as AlertRuleParams['bounds'], memory, readings);
+  if (rule.kind === 'rate') return evaluateRate(rule.params as AlertRuleParams['rate'], memory, readings);
+  const params = rule.params as AlertRuleParams['unusual'];
+  const stepMs = target.expectedIntervalS * 1000;
+  const periodSteps = Math.round((params.periodH * 3_600_000) / stepMs);
+  const span = periodSteps * params.historyCycles;
+  let scores = null;
+  if (periodSteps >= 2 && span <= MAX_BASELINE_CELLS) {
+    const first = readings[0].ts;
+    const history = await channelReadingsIn(inLab(ctx.db, ctx.tenantId), ctx.db).range(target.channelId!, first - span * stepMs, first);
+    scores = unusualScores({ ts: history.ts, values: history.values }, readings, stepMs, periodSteps);
+  }
+  return evaluateUnusualReading(params, scores, memory, readings);
+}
+
+/**
+ * Judges the readings a value rule (bounds, rate, unusual) has not seen yet, oldest first, in
+ * chunks of {@link READINGS_PER_CHUNK}. Each chunk is one transaction that locks the rule's
+ * row, writes the alert transitions with their queued mail and the rule's new memory together,
+ * so a crash at any point loses nothing and doubles nothing: the next run starts from the last
+ * committed cursor.
+ */
+export async function evaluateValueRule(ctx: EvaluationContext, ruleId: number): Promise<EvaluationCounts> {
+  const total = { opened: 0, resolved: 0 };
+  for (let chunk = 0; chunk < 100; chunk++) {
+    const more = await ctx.db.transaction(async (trx) => {
+      const scope = inLab(trx, ctx.tenantId);
+      const rule = await alertRulesIn(scope).find(ruleId, { forUpdate: true });
+      if (!rule || !rule.enabled || rule.kind === 'silence' || rule.channelId === null) return false;
+      const target = await alertReadingsIn(scope).channelTarget(rule.channelId);
+      if (!target) return false;
+      const from = rule.cursor.cursorTs === null ? Number.MIN_SAFE_INTEGER : rule.cursor.cursorTs + 1;
+      const readings = toReadings(await channelReadingsIn(inLab(ctx.db, ctx.tenantId), ctx.db).range(rule.channelId, from, Number.MAX_SAFE_INTEGER, READINGS_PER_CHUNK));
+      if (readings.length === 0) return false;
+      const open = (await alertsIn(scope).openForRule(rule.id)) !== null;
+      const step = await stepValueRule(ctx, rule, target, { pendingSince: rule.cursor.pendingSince, previous: rule.cursor.previous, open }, readings);
+      const counts = await applyTransitions(ctx, scope, rule, target, step.transitions);
+      await alertRulesIn(scope).saveCursor(rule.id, { cursorTs: readings[readings.length - 1].ts, pendingSince: step.memory.pendingSince, previous: step.memory.previous });
+      ctx.beforeCommit?.(rule.id);
+      total.opened += counts.opened;
+      total.resolved += counts.resolved;
+      return readings.length === READINGS_PER_CHUNK;
+    });
+    if (!more) break;
+  }
+  return total;
+}
+
+/** Checks a silence rule against the clock, in one transaction that locks the rule's row. */
+export async function evaluateSilenceRule(ctx: EvaluationContext, ruleId: number): Promise<EvaluationCounts> {
+  return ctx.db.transaction(async (trx) => {
+    const scope = inLab(trx, ctx.tenantId);
+    const rule = await alertRulesIn(scope).find(ruleId, { forUpdate: true });
+    if (!rule || !rule.enabled || rule.kind !== 'silence') return { opened: 0, resolved: 0 };
+    const reads = alertReadingsIn(scope);
+    const target = rule.channelId !== null ? await reads.channelTarget(rule.channelId) : await reads.loggerTarget(rule.loggerId!);
+    if (!target) return { opened: 0, resolved: 0 };
+    const open = (await alertsIn(scope).openForRule(rule.id)) !== null;
+    const { factor } = rule.params as AlertRuleParams['silence'];
+    const r = evaluateSilence({ lastReadingTs: target.lastReadingTs, watchingSince: rule.watchingSince, expectedIntervalS: target.expectedIntervalS, factor, open, now: ctx.now });
+    const counts = r.transition ? await applyTransitions(ctx, scope, rule, target, [r.transition]) : { opened: 0, resolved: 0 };
+    ctx.beforeCommit?.(rule.id);
+    return counts;
+  });
+}
+
+/** The watched target of a rule (for reminder mail), outside any transaction. */
+export async function targetOf(scope: LabScope, rule: AlertRule): Promise<WatchedTarget | null> {
+  const reads = alertReadingsIn(scope);
+  return rule.channelId !== null ? reads.channelTarget(rule.channelId) : reads.loggerTarget(rule.loggerId!);
+}

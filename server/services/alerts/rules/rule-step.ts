@@ -1,0 +1,43 @@
+/** One stored reading as the rules see it (epoch ms, value). */
+export interface RuleReading {
+  ts: number;
+  value: number;
+}
+
+/**
+ * What a rule remembers between evaluations (kept in MariaDB on the rule's row, so a restart
+ * neither forgets a pending hold nor re-reads readings already judged).
+ */
+export interface RuleMemory {
+  /** Time of the first reading of the current unbroken breach (for hold times), or null. */
+  pendingSince: number | null;
+  /** The last reading judged (rate of change compares the next one with it), or null. */
+  previous: RuleReading | null;
+  /** Whether the rule has an open alert. */
+  open: boolean;
+}
+
+/** An alert opening or resolving, at the reading (or moment) that caused it. */
+export interface RuleTransition {
+  kind: 'open' | 'resolve';
+  /** Epoch ms of the reading (or, for silence, of the moment) that decided it. */
+  ts: number;
+  /** The reading's value; null for silence. */
+  value: number | null;
+  /** One sentence for people: what was seen. */
+  detail: string;
+}
+
+/** A rule's new memory and the transitions it produced, oldest first. */
+export interface RuleStep {
+  memory: RuleMemory;
+  transitions: RuleTransition[];
+}
+
+/** The memory of a rule that has never seen a reading. */
+export const FRESH_MEMORY: RuleMemory = Object.freeze({ pendingSince: null, previous: null, open: false });
+
+/** Formats a number for alert texts: at most 4 significant decimals, no trailing zeros. */
+export function formatValue(v: number): string {
+  return String(Number(v.toPrecision(6)));
+}

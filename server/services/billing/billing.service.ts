@@ -1,0 +1,180 @@
+import type Stripe from 'stripe';
+import type { Db } from '../../db/create-db.ts';
+import { inLab } from '../../db/tenant-scope.ts';
+import { labBillingIn, type BillingStatus } from '../../db/lab-billing.repo.ts';
+import { usageIn, type UsageCounts, type UsageSnapshot } from '../../db/usage.repo.ts';
+import { auditIn } from '../../db/audit.repo.ts';
+import { ValidationError } from '../../errors.ts';
+import { ConflictError } from '../service-errors.ts';
+import type { Actor, LabContext } from '../lab-context.ts';
+import { effectivePlan, historyStart } from './effective-plan.ts';
+import { BillingUnavailableError } from './billing-errors.ts';
+import type { Plan, PlanCatalog, PlanLimits } from './plan-catalog.ts';
+
+/** What the billing page shows. */
+export interface BillingOverview {
+  /** The plan whose limits apply now. */
+  plan: Plan;
+  /** The plan Stripe last confirmed (differs from `plan` once a grace period is over). */
+  subscribedPlanKey: string;
+  status: BillingStatus;
+  graceUntil: Date | null;
+  usage: UsageCounts;
+  limits: PlanLimits;
+  /** True when stored readings are at or over the limit: ingestion is refused. */
+  ingestionRefused: boolean;
+  historyStartsAt: Date;
+  trend: UsageSnapshot[];
+  currency: string;
+  plans: readonly Plan[];
+}
+
+/** One invoice as the billing page lists it. */
+export interface InvoiceSummary {
+  id: string;
+  number: string | null;
+  status: string | null;
+  currency: string;
+  amountDue: number;
+  amountPaid: number;
+  created: Date;
+  hostedUrl: string | null;
+  pdfUrl: string | null;
+}
+
+const TREND_DAYS = 30;
+
+/** Anything the Stripe SDK throws becomes a typed 503 (the plan is never touched on this path). */
+async function callStripe<T>(call: () => Promise<T>): Promise<T> {
+  try {
+    return await call();
+  } catch {
+    throw new BillingUnavailableError();
+  }
+}
+
+/**
+ * A lab's plan and payment through Stripe, for its admins: usage against limits, starting a
+ * Checkout Session, opening the billing portal, listing invoices. Nothing here changes the
+ * lab's plan: only a verified webhook does (see stripe-webhooks.service.ts).
+ */
+export function createBillingService(deps: { db: Db; stripe: Stripe; catalog: PlanCatalog; publicUrl: string; now?: () => Date }) {
+  const { db, stripe, catalog } = deps;
+  const now = deps.now ?? (() => new Date());
+  const billingOf = (labId: number) => labBillingIn(inLab(db, labId), db, catalog.free.key);
+  const pageUrl = (lab: LabContext) => `${deps.publicUrl}/labs/${encodeURIComponent(lab.slug)}/billing`;
+
+  /** The lab's Stripe customer, created (with the lab id in its metadata) the first time. */
+  async function customerFor(lab: LabContext, actor: Actor): Promise<string> {
+    const row = await billingOf(lab.id).getOrCreate();
+    if (row.stripeCustomerId) return row.stripeCustomerId;
+    const customer = await callStripe(() => stripe.customers.create({ name: lab.name, email: actor.email, metadata: { lab_id: String(lab.id), lab_slug: lab.slug } }));
+    await billingOf(lab.id).patch({ stripeCustomerId: customer.id });
+    return customer.id;
+  }
+
+  return {
+    /** Plan, status, usage against limits, the 30-day trend and the catalog. */
+    async overview(lab: LabContext): Promise<BillingOverview> {
+      const at = now();
+      const row = await billingOf(lab.id).get();
+      const plan = effectivePlan(row, catalog, at);
+      const usage = usageIn(inLab(db, lab.id));
+      const readings = row?.readingsCount ?? 0;
+      const since = new Date(at.getTime() - (TREND_DAYS - 1) * 86_400_000).toISOString().slice(0, 10);
+      return {
+        plan,
+        subscribedPlanKey: row?.planKey ?? catalog.free.key,
+        status: row?.status ?? 'none',
+        graceUntil: row?.status === 'past_due' ? row.graceUntil : null,
+        usage: { readings, loggers: await usage.activeLoggers(), members: await usage.seatsTaken(at) },
+        limits: plan.limits,
+        ingestionRefused: readings >= plan.limits.readings,
+        historyStartsAt: new Date(historyStart(plan, at.getTime())),
+        trend: await usage.snapshotsSince(since),
+        currency: catalog.currency,
+        plans: catalog.plans,
+      };
+    },
+
+    /**
+     * The earliest reading time the lab's plan lets it browse and analyse (older readings stay
+     * stored). For the channel browser and diagnostics.
+     */
+    async historyWindowFor(lab: { id: number }): Promise<{ earliestMs: number; historyDays: number }> {
+      const plan = effectivePlan(await billingOf(lab.id).get(), catalog, now());
+      return { earliestMs: historyStart(plan, now().getTime()), historyDays: plan.limits.historyDays };
+    },
+
+    /**
+     * Starts a Stripe Checkout Session for a paid plan and returns its URL. The plan changes
+     * only when Stripe's `checkout.session.completed` webhook arrives. A lab that already has a
+     * subscription changes it in the billing portal instead.
+     */
+    async startCheckout(lab: LabContext, actor: Actor, planKey: string): Promise<{ url: string }> {
+      const plan = catalog.byKey(planKey);
+      if (!plan) throw new ValidationError(`plan: no plan "${planKey}" in the catalog`);
+      if (!plan.priceLookupKey) throw new ValidationError('plan: the free plan needs no checkout; cancel the subscription in the billing portal instead');
+      const row = await billingOf(lab.id).getOrCreate();
+      if (row.stripeSubscriptionId && (row.status === 'active' || row.status === 'past_due')) {
+        throw new ConflictError('subscription_exists', 'The lab already has a subscription: change or cancel it under "Manage payment".');
+      }
+      const customer = await customerFor(lab, actor);
+      const lookupKey = plan.priceLookupKey;
+      const prices = await callStripe(() => stripe.prices.list({ lookup_keys: [lookupKey], active: true, limit: 1 }));
+      const price = prices.data[0];
+      if (!price) throw new BillingUnavailableError(`The payment service has no price "${lookupKey}" for the ${plan.name} plan; your plan is unchanged. Tell the Lagbook operator.`);
+      const metadata = { lab_id: String(lab.id), plan_key: plan.key };
+      const session = await callStripe(() =>
+        stripe.checkout.sessions.create({
+          mode: 'subscription',
+          customer,
+          client_reference_id: String(lab.id),
+          line_items: [{ price: price.id, quantity: 1 }],
+          metadata,
+          subscription_data: { metadata },
+          success_url: `${pageUrl(lab)}?checkout=complete`,
+          cancel_url: `${pageUrl(lab)}?checkout=cancelled`,
+        }),
+      );
+      if (!session.url) throw new BillingUnavailableError();
+      await auditIn(inLab(db, lab.id)).record({
+        actorUserId: actor.id,
+        action: 'billing.checkout-started',
+        targetType: 'lab',
+        targetId: lab.id,
+        summary: `${actor.displayName} started checkout for the ${plan.name} plan`,
+        details: { plan: plan.key, session: session.id },
+      });
+      return { url: session.url };
+    },
+
+    /** A billing-portal session (card, invoices, cancellation) that returns to the billing page. */
+    async openPortal(lab: LabContext, actor: Actor): Promise<{ url: string }> {
+      const customer = await customerFor(lab, actor);
+      const session = await callStripe(() => stripe.billingPortal.sessions.create({ customer, return_url: pageUrl(lab) }));
+      return { url: session.url };
+    },
+
+    /** The lab's invoices, newest first (none before its first checkout). */
+    async invoices(lab: LabContext): Promise<InvoiceSummary[]> {
+      const row = await billingOf(lab.id).get();
+      if (!row?.stripeCustomerId) return [];
+      const customer = row.stripeCustomerId;
+      const list = await callStripe(() => stripe.invoices.list({ customer, limit: 24 }));
+      return list.data.map((i) => ({
+        id: i.id ?? '',
+        number: i.number,
+        status: i.status,
+        currency: i.currency,
+        amountDue: i.amount_due,
+        amountPaid: i.amount_paid,
+        created: new Date(i.created * 1000),
+        hostedUrl: i.hosted_invoice_url ?? null,
+        pdfUrl: i.invoice_pdf ?? null,
+      }));
+    },
+  };
+}
+
+export type BillingService = ReturnType<typeof createBillingService>;

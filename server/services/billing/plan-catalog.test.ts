@@ -1,0 +1,51 @@
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { loadPlanCatalog, parsePlanCatalog } from './plan-catalog.ts';
+import { ConfigError } from '../../errors.ts';
+
+const free = { key: 'seedling', name: 'Seedling', monthlyAmount: 0, priceLookupKey: null, limits: { readings: 10, loggers: 1, members: 2, historyDays: 30 } };
+const paid = { key: 'transect', name: 'Transect', monthlyAmount: 4900, priceLookupKey: 'lagbook-transect-monthly', limits: { readings: 100, loggers: 5, members: 9, historyDays: 365 } };
+
+describe('plan catalog', () => {
+  it('loads the shipped tenants/plans.json with one free plan and paid plans that have lookup keys', () => {
+    const catalog = loadPlanCatalog('tenants/plans.json');
+    expect(catalog.free.priceLookupKey).toBeNull();
+    expect(catalog.free.monthlyAmount).toBe(0);
+    const paidPlans = catalog.plans.filter((p) => p !== catalog.free);
+    expect(paidPlans.length).toBeGreaterThan(0);
+    for (const p of paidPlans) {
+      expect(catalog.byLookupKey(p.priceLookupKey!)).toBe(p);
+      expect(p.limits.readings).toBeGreaterThan(catalog.free.limits.readings);
+    }
+  });
+
+  it('finds plans by key and by price lookup key', () => {
+    const catalog = parsePlanCatalog({ currency: 'eur', plans: [free, paid] });
+    expect(catalog.byKey('transect')?.name).toBe('Transect');
+    expect(catalog.byLookupKey('lagbook-transect-monthly')?.key).toBe('transect');
+    expect(catalog.byKey('nope')).toBeUndefined();
+  });
+
+  it('refuses a catalog without exactly one free plan, with the path and reason', () => {
+    expect(() => parsePlanCatalog({ currency: 'eur', plans: [paid, { ...paid, key: 'other', priceLookupKey: 'other-key' }] })).toThrow(
+      'Invalid plan catalog plan catalog: plans: needs exactly one free plan (priceLookupKey null), found 0',
+    );
+  });
+
+  it('refuses duplicate keys, a priced free plan and a negative limit', () => {
+    expect(() => parsePlanCatalog({ currency: 'eur', plans: [free, paid, { ...paid }] })).toThrow(/plans\.2\.key: "transect" is used twice/);
+    expect(() => parsePlanCatalog({ currency: 'eur', plans: [{ ...free, monthlyAmount: 5 }, paid] })).toThrow(/plans\.0\.monthlyAmount: the free plan costs 0/);
+    expect(() => parsePlanCatalog({ currency: 'eur', plans: [free, { ...paid, limits: { ...paid.limits, readings: -1 } }] })).toThrow(/plans\.1\.limits\.readings/);
+  });
+
+  it('turns a missing or malformed file into one ConfigError line', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'plans-'));
+    const broken = join(dir, 'plans.json');
+    writeFileSync(broken, '{ "currency": ');
+    expect(() => loadPlanCatalog(broken)).toThrow(ConfigError);
+    expect(() => loadPlanCatalog(broken)).toThrow(/not valid JSON/);
+    expect(() => loadPlanCatalog(join(dir, 'missing.json'))).toThrow(/cannot read it \(ENOENT\)/);
+  });
+});

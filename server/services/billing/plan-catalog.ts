@@ -1,0 +1,95 @@
+import { readFileSync } from 'node:fs';
+import { z } from 'zod';
+import { ConfigError } from '../../errors.ts';
+
+const limitsSchema = z.object({
+  /** Readings the lab may keep stored. */
+  readings: z.number().int().positive(),
+  /** Loggers registered and not retired. */
+  loggers: z.number().int().positive(),
+  /** Members plus pending invitations. */
+  members: z.number().int().positive(),
+  /** How many days back the lab may browse and analyse (older readings stay stored). */
+  historyDays: z.number().int().positive(),
+});
+
+const planSchema = z.object({
+  key: z.string().regex(/^[a-z][a-z0-9-]{1,39}$/, 'lower-case letters, digits and -, 2 to 40 characters'),
+  name: z.string().min(1).max(40),
+  summary: z.string().max(200).default(''),
+  /** Price per month in the currency's smallest unit (cents); 0 for the free plan. */
+  monthlyAmount: z.number().int().min(0),
+  /** The Stripe price's lookup key; null for the free plan. */
+  priceLookupKey: z.string().regex(/^[A-Za-z0-9_-]{3,200}$/).nullable(),
+  limits: limitsSchema,
+});
+
+export const planCatalogSchema = z
+  .object({
+    currency: z.string().regex(/^[a-z]{3}$/, 'an ISO 4217 code in lower case'),
+    plans: z.array(planSchema).min(2, 'needs the free plan and at least one paid plan'),
+  })
+  .superRefine((catalog, ctx) => {
+    const free = catalog.plans.filter((p) => p.priceLookupKey === null);
+    if (free.length !== 1) ctx.addIssue({ code: 'custom', path: ['plans'], message: `needs exactly one free plan (priceLookupKey null), found ${free.length}` });
+    catalog.plans.forEach((p, i) => {
+      if (p.priceLookupKey === null && p.monthlyAmount !== 0) ctx.addIssue({ code: 'custom', path: ['plans', i, 'monthlyAmount'], message: 'the free plan costs 0' });
+      if (p.priceLookupKey !== null && p.monthlyAmount === 0) ctx.addIssue({ code: 'custom', path: ['plans', i, 'monthlyAmount'], message: 'a paid plan needs a price above 0' });
+      if (catalog.plans.findIndex((q) => q.key === p.key) !== i) ctx.addIssue({ code: 'custom', path: ['plans', i, 'key'], message: `"${p.key}" is used twice` });
+      if (p.priceLookupKey !== null && catalog.plans.findIndex((q) => q.priceLookupKey === p.priceLookupKey) !== i) {
+        ctx.addIssue({ code: 'custom', path: ['plans', i, 'priceLookupKey'], message: `"${p.priceLookupKey}" is used twice` });
+      }
+    });
+  });
+
+export type Plan = z.infer<typeof planSchema>;
+export type PlanLimits = Plan['limits'];
+export type LimitName = 'readings' | 'loggers' | 'members';
+
+/** The validated plan catalog with the look-ups billing needs. */
+export interface PlanCatalog {
+  currency: string;
+  plans: readonly Plan[];
+  free: Plan;
+  /** The plan with this key, or undefined. */
+  byKey(key: string): Plan | undefined;
+  /** The paid plan sold under this Stripe price lookup key, or undefined. */
+  byLookupKey(lookupKey: string): Plan | undefined;
+}
+
+/**
+ * Validates a parsed catalog document and returns it with its look-ups; throws ConfigError
+ * with one `path: reason` per problem, so a bad catalog stops the server like bad settings do.
+ */
+export function parsePlanCatalog(document: unknown, source = 'plan catalog'): PlanCatalog {
+  const parsed = planCatalogSchema.safeParse(document);
+  if (!parsed.success) {
+    const reasons = parsed.error.issues.map((i) => `${i.path.join('.') || '(root)'}: ${i.message}`).join('; ');
+    throw new ConfigError(`Invalid plan catalog ${source}: ${reasons}`);
+  }
+  const { currency, plans } = parsed.data;
+  return {
+    currency,
+    plans,
+    free: plans.find((p) => p.priceLookupKey === null)!,
+    byKey: (key) => plans.find((p) => p.key === key),
+    byLookupKey: (lookupKey) => plans.find((p) => p.priceLookupKey === lookupKey),
+  };
+}
+
+/** Reads and validates the catalog file (`tenants/plans.json` unless LAGBOOK_PLANS_FILE says otherwise). */
+export function loadPlanCatalog(path: string): PlanCatalog {
+  let text: string;
+  try {
+    text = readFileSync(path, 'utf8');
+  } catch (err) {
+    throw new ConfigError(`Invalid plan catalog ${path}: cannot read it (${(err as NodeJS.ErrnoException).code ?? (err as Error).message})`);
+  }
+  let document: unknown;
+  try {
+    document = JSON.parse(text);
+  } catch (err) {
+    throw new ConfigError(`Invalid plan catalog ${path}: not valid JSON (${(err as Error).message})`);
+  }
+  return parsePlanCatalog(document, path);
+}

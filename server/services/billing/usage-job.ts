@@ -1,0 +1,88 @@
+import type { Db } from '../../db/create-db.ts';
+import { inLab } from '../../db/tenant-scope.ts';
+import { labBillingIn } from '../../db/lab-billing.repo.ts';
+import { listLabs, usageIn } from '../../db/usage.repo.ts';
+import type { Mailer } from '../../integrations/mail/create-mailer.ts';
+import type { Logger } from '../../logger.ts';
+import type { BackgroundJob } from '../../jobs/background-jobs.ts';
+import { effectivePlan } from './effective-plan.ts';
+import { usageWarningMail } from './billing-mail.ts';
+import { mailLabAdmins } from './notify-admins.ts';
+import type { PlanCatalog } from './plan-catalog.ts';
+
+/** How often the job runs in the server (it also runs once right after start). */
+export const USAGE_JOB_INTERVAL_MS = 15 * 60_000;
+
+/** The warning level a usage share has reached: 100, 80 or 0 (percent). */
+export function warningLevel(used: number, allowed: number): 0 | 80 | 100 {
+  if (used >= allowed) return 100;
+  if (used * 5 >= allowed * 4) return 80;
+  return 0;
+}
+
+/**
+ * The usage job: for every lab, replaces the stored-readings counter with the exact count
+ * (from the day rollups), writes today's usage snapshot (the 30-day trend), and mails the
+ * admins when usage crosses 80% or 100% of the plan. The level already mailed is kept in the
+ * database, so each crossing mails once, even across restarts; falling back below a level
+ * re-arms it. `runOnce` takes the time from `now`, so tests drive it with a simulated clock.
+ */
+export function createUsageJob(deps: { db: Db; catalog: PlanCatalog; mailer: Mailer; logger: Logger; publicUrl: string; now?: () => Date }) {
+  const now = deps.now ?? (() => new Date());
+
+  async function reconcileLab(lab: { id: number; slug: string; name: string }): Promise<void> {
+    const labId = lab.id;
+    const scope = inLab(deps.db, labId);
+    const usage = usageIn(scope);
+    const billing = labBillingIn(scope, deps.db, deps.catalog.free.key);
+    const at = now();
+    const counts = { readings: await usage.storedReadings(), loggers: await usage.activeLoggers(), members: await usage.seatsTaken(at) };
+    await billing.setReadings(counts.readings, at);
+    await usage.saveSnapshot(at.toISOString().slice(0, 10), counts);
+
+    const row = await billing.getOrCreate();
+    const plan = effectivePlan(row, deps.catalog, at);
+    const level = warningLevel(counts.readings, plan.limits.readings);
+    if (level > row.warnedPercent) {
+      const link = `${deps.publicUrl}/labs/${lab.slug}/billing`;
+      await mailLabAdmins(deps.db, deps.mailer, labId, (to) =>
+        usageWarningMail({ to, labName: lab.name, planName: plan.name, percent: level as 80 | 100, used: counts.readings, allowed: plan.limits.readings, link }),
+      );
+    }
+    if (level !== row.warnedPercent) await billing.setWarnedPercent(level);
+  }
+
+  async function runOnce(): Promise<void> {
+    for (const lab of await listLabs(deps.db)) {
+      try {
+        await reconcileLab(lab);
+      } catch (err) {
+        // one lab's failure (e.g. the mail relay) must not hold up the others; retried next run
+        deps.logger.warn('usage reconciliation failed for a lab', { labId: lab.id, err: String(err) });
+      }
+    }
+  }
+
+  let timer: NodeJS.Timeout | null = null;
+  let running: Promise<void> | null = null;
+  const tick = () => {
+    if (running) return;
+    running = runOnce().finally(() => {
+      running = null;
+    });
+  };
+  const job: BackgroundJob = {
+    name: 'usage reconciliation',
+    start() {
+      tick();
+      timer = setInterval(tick, USAGE_JOB_INTERVAL_MS);
+      timer.unref();
+    },
+    async stop() {
+      if (timer) clearInterval(timer);
+      timer = null;
+      await running;
+    },
+  };
+  return { job, runOnce, reconcileLab };
+}

@@ -1,0 +1,44 @@
+import { describe, expect, it } from 'vitest';
+import { alertMail, channelLinkAt } from './alert-mail.ts';
+
+const at = Date.UTC(2026, 2, 4, 14, 30);
+const base = {
+  to: 'ines@lab.example',
+  labName: 'Hollowbrook Cryo Store',
+  ruleName: 'Freezer too warm',
+  watched: 'Freezer 3 · Cabinet temperature',
+  reading: '-12.5 °C',
+  at,
+  detail: '-12.5 is above the high limit -15 for 300 s',
+  openedAt: at,
+  link: channelLinkAt('https://lagbook.example', 'hollowbrook', 42, at),
+};
+
+describe('alertMail', () => {
+  it('an opened alert names the rule, the reading, its time and links the channel at that time', () => {
+    const m = alertMail({ ...base, kind: 'opened', sequence: 0 });
+    expect(m.subject).toBe('[Hollowbrook Cryo Store] Alert: Freezer too warm — Freezer 3 · Cabinet temperature');
+    expect(m.text).toContain('Reading: -12.5 °C at 2026-03-04 14:30:00 UTC.');
+    expect(m.text).toContain(`https://lagbook.example/labs/hollowbrook/channels/42?from=${at - 6 * 3_600_000}&to=${at + 3_600_000}`);
+    expect(m.text).toContain('no replacement for a certified alarm system');
+    expect(m.text).not.toContain('Open since');
+  });
+
+  it('a reminder is numbered and says since when the alert is open', () => {
+    const m = alertMail({ ...base, kind: 'reminder', sequence: 2, at: at + 7_200_000 });
+    expect(m.subject).toContain('Still open (reminder 2): Freezer too warm');
+    expect(m.text).toContain('Open since: 2026-03-04 14:30:00 UTC.');
+  });
+
+  it('escapes HTML in names', () => {
+    const m = alertMail({ ...base, kind: 'resolved', sequence: 0, ruleName: '<b>x</b> & "y"' });
+    expect(m.html).toContain('&lt;b&gt;x&lt;/b&gt; &amp; &quot;y&quot;');
+    expect(m.html).not.toContain('<b>x</b>');
+  });
+
+  it('a silence alert has no reading', () => {
+    const m = alertMail({ ...base, kind: 'opened', sequence: 0, reading: null, detail: 'no reading for 15 min (limit 10 min)' });
+    expect(m.text).toContain('At: 2026-03-04 14:30:00 UTC.');
+    expect(m.text).not.toContain('Reading:');
+  });
+});

@@ -1,0 +1,69 @@
+import type { OutgoingMail } from '../../integrations/mail/create-mailer.ts';
+import type { NotificationKind } from '../../db/notification-outbox.repo.ts';
+
+/** Escapes text for HTML mail bodies. */
+function esc(s: string): string {
+  return s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+}
+
+/** What one alert mail tells its reader. */
+export interface AlertMailInput {
+  to: string;
+  labName: string;
+  kind: NotificationKind;
+  /** Reminder number (1 for the first reminder); ignored for other kinds. */
+  sequence: number;
+  ruleName: string;
+  /** What the rule watches ("Freezer 3 · Cabinet temperature"). */
+  watched: string;
+  /** The reading that decided it (value with unit, or null for silence) and its time (epoch ms). */
+  reading: string | null;
+  at: number;
+  /** One sentence of what was seen. */
+  detail: string;
+  /** When the alert opened (for reminders and resolutions). */
+  openedAt: number;
+  /** The channel page around the moment, or the alert centre for logger-wide rules. */
+  link: string;
+}
+
+const utc = (ms: number) => `${new Date(ms).toISOString().slice(0, 19).replace('T', ' ')} UTC`;
+
+const HEADLINE: Record<NotificationKind, string> = { opened: 'Alert', reminder: 'Still open', resolved: 'Resolved' };
+
+/**
+ * An alert e-mail (opened, reminder, resolved): the rule, what it watches, the reading and its
+ * time, what was seen and a link to the channel at that time; with the caution that Lagbook is
+ * no certified alarm system.
+ */
+export function alertMail(input: AlertMailInput): OutgoingMail {
+  const headline = input.kind === 'reminder' ? `${HEADLINE.reminder} (reminder ${input.sequence})` : HEADLINE[input.kind];
+  const subject = `[${input.labName}] ${headline}: ${input.ruleName} — ${input.watched}`;
+  const lines = [
+    `${headline}: the rule "${input.ruleName}" on ${input.watched} in ${input.labName}.`,
+    '',
+    `What was seen: ${input.detail}.`,
+    input.reading !== null ? `Reading: ${input.reading} at ${utc(input.at)}.` : `At: ${utc(input.at)}.`,
+    ...(input.kind !== 'opened' ? [`Open since: ${utc(input.openedAt)}.`] : []),
+    '',
+    `See the channel at that time: ${input.link}`,
+    '',
+    "Lagbook's alerts depend on networks and mail delivery and are no replacement for a certified alarm system on critical equipment; follow your lab's own safety rules and local regulations.",
+    'You receive this because you subscribed to the rule; unsubscribe on the alerts page of the lab.',
+  ];
+  const html = `<p><strong>${esc(headline)}</strong>: the rule “${esc(input.ruleName)}” on ${esc(input.watched)} in ${esc(input.labName)}.</p>
+<p>What was seen: ${esc(input.detail)}.<br>${input.reading !== null ? `Reading: <strong>${esc(input.reading)}</strong> at ${esc(utc(input.at))}.` : `At: ${esc(utc(input.at))}.`}${input.kind !== 'opened' ? `<br>Open since: ${esc(utc(input.openedAt))}.` : ''}</p>
+<p><a href="${esc(input.link)}">See the channel at that time</a></p>
+<p><small>Lagbook's alerts depend on networks and mail delivery and are no replacement for a certified alarm system on critical equipment; follow your lab's own safety rules and local regulations. You receive this because you subscribed to the rule; unsubscribe on the alerts page of the lab.</small></p>`;
+  return { to: input.to, subject, text: lines.join('\n'), html };
+}
+
+/**
+ * The channel page link around an alert moment: from a few hours before to an hour after (or
+ * to the resolution), as epoch ms in the `from` and `to` query the channel page reads.
+ */
+export function channelLinkAt(publicUrl: string, labSlug: string, channelId: number, at: number, until?: number): string {
+  const from = at - 6 * 3_600_000;
+  const to = Math.max(until ?? at, at) + 3_600_000;
+  return `${publicUrl}/labs/${encodeURIComponent(labSlug)}/channels/${channelId}?from=${from}&to=${to}`;
+}

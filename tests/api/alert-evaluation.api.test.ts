@@ -1,0 +1,267 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import request from 'supertest';
+import { buildTestApp, type TestApp } from '../support/test-app.ts';
+import { buildMember, sessionCookieFor, type TestUser } from '../support/factories.ts';
+import { buildLabWithEverything, type LabWithEverything } from '../support/lab-fixture.ts';
+import { createDb, type Db } from '../../server/db/create-db.ts';
+import { createLogger } from '../../server/logger.ts';
+import { createMailer, type Mailer } from '../../server/integrations/mail/create-mailer.ts';
+import { ingestBatch } from '../../server/services/ingest/ingest-batch.ts';
+import { createAlertEvaluator } from '../../server/services/alerts/alert-evaluator.ts';
+import { fetchCapturedMail, waitForMail } from '../../docker-free-scripts/mail-capture/read-captured-mail.ts';
+
+/**
+ * The alert evaluator against the real database and the local mail capture: rules fire and
+ * resolve at the right readings, every notification goes out exactly once across restarts,
+ * crashes, two racing evaluators and a mail server that is down. The clock is simulated
+ * (passed to runOnce); readings are stored through the ingestion path.
+ */
+let t: TestApp;
+let mailer: Mailer;
+const extraDbs: Db[] = [];
+const captureUrl = process.env.LAGBOOK_MAIL_CAPTURE_URL!;
+const logger = createLogger({ silent: true });
+
+beforeAll(async () => {
+  t = await buildTestApp();
+  mailer = createMailer(t.config.smtp);
+});
+afterAll(async () => {
+  mailer.close();
+  await Promise.all(extraDbs.map((d) => d.destroy()));
+  await t.close();
+});
+
+const evaluator = (over: Partial<Parameters<typeof createAlertEvaluator>[0]> = {}) =>
+  createAlertEvaluator({ db: t.db, mailer, logger, publicUrl: t.config.publicUrl, reminderAfterMin: 0, ...over });
+
+let seq = 0;
+/** A lab with a watcher (technician) subscribed to nothing yet, the fixture's alert material removed. */
+async function setup(): Promise<{ f: LabWithEverything; watcher: TestUser; cookie: string }> {
+  const f = await buildLabWithEverything(t.db);
+  await t.db('alerts').where({ tenant_id: f.lab.id }).delete();
+  await t.db('alert_subscriptions').where({ tenant_id: f.lab.id }).delete();
+  await t.db('alert_rules').where({ tenant_id: f.lab.id }).delete();
+  const watcher = await buildMember(t.db, f.lab, { role: 'technician', email: `watch-${Date.now().toString(36)}-${seq++}@cryo.example` });
+  return { f, watcher, cookie: await sessionCookieFor(t.db, t.config.sessionSecret, watcher.id) };
+}
+
+async function makeRule(s: { f: LabWithEverything; cookie: string }, body: object): Promise<number> {
+  const res = await request(t.app).post(`/api/v1/labs/${s.f.lab.slug}/alert-rules`).set('Cookie', s.cookie).send(body).expect(201);
+  return res.body.rule.id;
+}
+
+/** Stores readings of the fixture channel (air_t) through the ingestion path, without the app's hooks. */
+async function store(f: LabWithEverything, start: number, stepMs: number, values: number[], channel = 'air_t') {
+  const rows = values.map((value, i) => ({ index: i, channel, ts: start + i * stepMs, value }));
+  await ingestBatch(t.db, { tenantId: f.lab.id, loggerId: f.ids.loggerId }, rows, { source: 'api' });
+}
+
+const mailTo = async (who: TestUser) => (await fetchCapturedMail(captureUrl, { to: who.email })).map((m) => m.subject.replace(/^\[[^\]]*\] /, ''));
+const alertsOf = (f: LabWithEverything) => t.db('alerts').where({ tenant_id: f.lab.id }).orderBy('opened_at');
+
+describe('alert evaluation', () => {
+  it('bounds with hold: a single warm reading pages nobody; a sustained one opens once and resolves; each subscriber is mailed once per event', async () => {
+    const s = await setup();
+    const colleague = await buildMember(t.db, s.f.lab, { role: 'scientist', email: `colleague-${Date.now().toString(36)}@cryo.example` });
+    const ruleId = await makeRule(s, { name: 'Freezer too warm', kind: 'bounds', channelId: s.f.ids.channelId, params: { high: -15, holdS: 300 } });
+    await request(t.app).put(`/api/v1/labs/${s.f.lab.slug}/alert-rules/${ruleId}/subscription`).set('Cookie', await sessionCookieFor(t.db, t.config.sessionSecret, colleague.id)).expect(204);
+    const t0 = Date.now() - 3_600_000;
+    // minute:  0    1    2   3    4 … 9 (warm for 6 min)          10   11
+    const values = [-20, -20, -5, -20, -10, -10, -10, -10, -10, -10, -20, -19];
+    await store(s.f, t0, 60_000, values);
+    const run = await evaluator().runOnce(t0 + 12 * 60_000);
+    expect(run.ran).toBe(true);
+    const rows = await alertsOf(s.f);
+    expect(rows).toHaveLength(1);
+    // first warm reading of the sustained run at minute 4; hold 300 s → opens at minute 9; resolves at minute 10
+    expect([Number(rows[0].opened_at), Number(rows[0].opened_value), Number(rows[0].resolved_at), Number(rows[0].resolved_value)]).toEqual([t0 + 9 * 60_000, -10, t0 + 10 * 60_000, -20]);
+    for (const who of [s.watcher, colleague]) {
+      expect((await mailTo(who)).sort()).toEqual([`Alert: Freezer too warm — Logger ${s.f.ids.loggerId} · Air temperature`, `Resolved: Freezer too warm — Logger ${s.f.ids.loggerId} · Air temperature`]);
+    }
+    const opened = (await fetchCapturedMail(captureUrl, { to: s.watcher.email })).find((m) => m.subject.includes('Alert:'))!;
+    expect(opened.text).toContain(`${t.config.publicUrl}/labs/${s.f.lab.slug}/channels/${s.f.ids.channelId}?from=${t0 + 9 * 60_000 - 6 * 3_600_000}&to=${t0 + 9 * 60_000 + 3_600_000}`);
+    expect(opened.text).toContain('Reading: -10 °C at');
+    expect(opened.text).toContain('-10 is above the high limit -15 for 300 s');
+    // running again (as after a restart) changes and sends nothing
+    const again = await evaluator().runOnce(t0 + 13 * 60_000);
+    expect(again.ran).toBe(true);
+    expect(await alertsOf(s.f)).toHaveLength(1);
+    expect(await mailTo(s.watcher)).toHaveLength(2);
+  });
+
+  it('a hold pending at the end of one run is remembered by the next (state in MariaDB)', async () => {
+    const s = await setup();
+    await makeRule(s, { name: 'Incubator warm', kind: 'bounds', channelId: s.f.ids.channelId, params: { high: 38, holdS: 120 } });
+    const t0 = Date.now() - 3_600_000;
+    await store(s.f, t0, 60_000, [37, 39, 39]); // warm since minute 1, only 60 s so far
+    await evaluator().runOnce(t0 + 3 * 60_000);
+    expect(await alertsOf(s.f)).toHaveLength(0);
+    await store(s.f, t0 + 3 * 60_000, 60_000, [39]); // minute 3: 120 s since minute 1
+    await evaluator().runOnce(t0 + 4 * 60_000);
+    const rows = await alertsOf(s.f);
+    expect(rows.map((r) => Number(r.opened_at))).toEqual([t0 + 3 * 60_000]);
+  });
+
+  it('rate of change opens at the jump and resolves at the next calm reading', async () => {
+    const s = await setup();
+    await makeRule(s, { name: 'Door opened', kind: 'rate', channelId: s.f.ids.channelId, params: { maxPerMinute: 1, direction: 'rise' } });
+    const t0 = Date.now() - 3_600_000;
+    // +0.2, +0.2, +3 (jump), +0.1, −4 (a fall, not watched)
+    await store(s.f, t0, 60_000, [4, 4.2, 4.4, 7.4, 7.5, 3.5]);
+    await evaluator().runOnce(t0 + 6 * 60_000);
+    const rows = await alertsOf(s.f);
+    expect(rows.map((r) => [Number(r.opened_at) - t0, Number(r.resolved_at) - t0])).toEqual([[3 * 60_000, 4 * 60_000]]);
+  });
+
+  it('silence on a logger opens after factor × interval without readings and resolves when readings return; reminders follow the delay and stop once acknowledged', async () => {
+    const s = await setup();
+    const t0 = Date.now() - 7_200_000;
+    await store(s.f, t0, 60_000, [5]);
+    await makeRule(s, { name: 'Logger quiet', kind: 'silence', loggerId: s.f.ids.loggerId, params: { factor: 3 }, reminderAfterMin: 10 });
+    const quietSince = t0; // the fixture logger reports every 60 s: limit 180 s
+    const ev = evaluator();
+    const start = Date.now();
+    await ev.runOnce(start);
+    const [open] = await alertsOf(s.f);
+    expect(Number(open.opened_at)).toBe(quietSince + 180_000);
+    expect(await mailTo(s.watcher)).toEqual([`Alert: Logger quiet — every channel of Logger ${s.f.ids.loggerId}`]);
+    await ev.runOnce(start + 9 * 60_000);
+    expect(await mailTo(s.watcher)).toHaveLength(1);
+    await ev.runOnce(start + 11 * 60_000);
+    await ev.runOnce(start + 12 * 60_000);
+    expect((await mailTo(s.watcher)).filter((m) => m.startsWith('Still open (reminder 1)'))).toHaveLength(1);
+    await request(t.app).post(`/api/v1/labs/${s.f.lab.slug}/alerts/${open.id}/acknowledge`).set('Cookie', s.cookie).send({ note: 'Battery swap under way' }).expect(200);
+    await ev.runOnce(start + 40 * 60_000);
+    expect(await mailTo(s.watcher)).toHaveLength(2);
+    await store(s.f, start + 41 * 60_000, 60_000, [5.5]);
+    await ev.runOnce(start + 41.5 * 60_000);
+    const [closed] = await alertsOf(s.f);
+    expect(Number(closed.resolved_at)).toBe(start + 41 * 60_000);
+    expect((await mailTo(s.watcher)).filter((m) => m.startsWith('Resolved: Logger quiet'))).toHaveLength(1);
+  });
+
+  it('unusual reading: the usual afternoon peak passes, a 3 a.m. spike of the same height opens an alert', async () => {
+    const s = await setup();
+    await t.db('channels').where({ tenant_id: s.f.lab.id, id: s.f.ids.channelId }).update({ expected_interval_s: 3600 });
+    // Simulated hourly readings (behaviour test): 21 °C ± 3 °C daily cycle peaking at 15:00, seeded noise ±0.2 °C.
+    let seed = 11;
+    const noise = () => ((seed = (Math.imul(seed, 1664525) + 1013904223) >>> 0) / 2 ** 32 - 0.5) * 0.4;
+    const day0 = Math.floor(Date.now() / 86_400_000) * 86_400_000 - 5 * 86_400_000;
+    const usual = (h: number) => 21 + 3 * Math.cos((2 * Math.PI * (h - 15)) / 24) + noise();
+    await makeRule(s, { name: 'Growth room odd', kind: 'unusual', channelId: s.f.ids.channelId, params: { periodH: 24, k: 5, historyCycles: 3 } });
+    await store(s.f, day0, 3_600_000, Array.from({ length: 72 }, (_, h) => usual(h)));
+    await evaluator().runOnce(day0 + 72 * 3_600_000);
+    await store(s.f, day0 + 72 * 3_600_000, 3_600_000, Array.from({ length: 24 }, (_, h) => usual(72 + h))); // day 4, peak ≈ 24 °C at 15:00
+    await evaluator().runOnce(day0 + 96 * 3_600_000);
+    expect(await alertsOf(s.f)).toHaveLength(0);
+    await store(s.f, day0 + 96 * 3_600_000, 3_600_000, [usual(96), usual(97), usual(98), 24, usual(100)]); // 24 °C at 03:00
+    await evaluator().runOnce(day0 + 101 * 3_600_000);
+    const rows = await alertsOf(s.f);
+    expect(rows.map((r) => [Number(r.opened_at), Number(r.opened_value), Number(r.resolved_at)])).toEqual([[day0 + 99 * 3_600_000, 24, day0 + 100 * 3_600_000]]);
+    expect(rows[0].opened_detail).toMatch(/^24 lies [\d.]+ robust SD above the usual pattern \(limit 5\)$/);
+  });
+
+  it('two evaluators on two connection pools racing the same due work mail each notification once', async () => {
+    const s = await setup();
+    await makeRule(s, { name: 'Cold room warm', kind: 'bounds', channelId: s.f.ids.channelId, params: { high: 8 } });
+    const t0 = Date.now() - 3_600_000;
+    await store(s.f, t0, 60_000, [5, 9, 5, 9, 5]); // opens twice, resolves twice
+    const second = createDb(t.config.db);
+    extraDbs.push(second);
+    const a = evaluator();
+    const b = createAlertEvaluator({ db: second, mailer, logger, publicUrl: t.config.publicUrl, reminderAfterMin: 0 });
+    const [ra, rb] = await Promise.all([a.runOnce(t0 + 5 * 60_000), b.runOnce(t0 + 5 * 60_000)]);
+    expect(ra.ran && rb.ran).toBe(true); // the second waited for the first, then found nothing to do
+    expect(await alertsOf(s.f)).toHaveLength(2);
+    expect((await mailTo(s.watcher)).sort()).toEqual([
+      `Alert: Cold room warm — Logger ${s.f.ids.loggerId} · Air temperature`,
+      `Alert: Cold room warm — Logger ${s.f.ids.loggerId} · Air temperature`,
+      `Resolved: Cold room warm — Logger ${s.f.ids.loggerId} · Air temperature`,
+      `Resolved: Cold room warm — Logger ${s.f.ids.loggerId} · Air temperature`,
+    ]);
+    expect(Number((await t.db('notification_outbox').where({ tenant_id: s.f.lab.id }).count({ n: '*' }))[0].n)).toBe(4);
+  });
+
+  it('an evaluator that cannot get the lock within its wait skips the run', async () => {
+    const second = createDb(t.config.db);
+    extraDbs.push(second);
+    let release!: () => void;
+    const held = new Promise<void>((r) => (release = r));
+    const { withEvaluatorLock } = await import('../../server/services/alerts/evaluator-lock.ts');
+    const holding = withEvaluatorLock(t.db, 0, () => held);
+    await new Promise((r) => setTimeout(r, 100));
+    const skipped = await createAlertEvaluator({ db: second, mailer, logger, publicUrl: t.config.publicUrl, reminderAfterMin: 0, lockWaitS: 0 }).runOnce(Date.now());
+    expect(skipped.ran).toBe(false);
+    release();
+    expect((await holding).ran).toBe(true);
+  });
+
+  it('an evaluator stopped mid-run and restarted loses nothing and doubles nothing', async () => {
+    const s = await setup();
+    const first = await makeRule(s, { name: 'A warm', kind: 'bounds', channelId: s.f.ids.channelId, params: { high: 8 } });
+    const secondRule = await makeRule(s, { name: 'B warm', kind: 'bounds', channelId: s.f.ids.channelId, params: { high: 7 } });
+    const t0 = Date.now() - 3_600_000;
+    await store(s.f, t0, 60_000, [5, 9]);
+    // the run dies inside the second rule's transaction (before its commit); which rule runs first is not fixed
+    const mine = new Set([first, secondRule]);
+    let committed = 0;
+    const crashing = evaluator({
+      beforeRuleCommit: (ruleId) => {
+        if (mine.has(ruleId) && ++committed === 2) throw new Error('process killed');
+      },
+    });
+    const stopped = await crashing.runOnce(t0 + 2 * 60_000);
+    expect(stopped.errors).toBeGreaterThanOrEqual(1);
+    const afterCrash = await alertsOf(s.f);
+    expect(afterCrash).toHaveLength(1);
+    expect(await mailTo(s.watcher)).toEqual([]); // queued with the alert, not sent yet
+    await evaluator().runOnce(t0 + 3 * 60_000);
+    const rows = await alertsOf(s.f);
+    expect(rows.map((r) => Number(r.rule_id)).sort()).toEqual([first, secondRule].sort());
+    expect((await mailTo(s.watcher)).sort()).toEqual([`Alert: A warm — Logger ${s.f.ids.loggerId} · Air temperature`, `Alert: B warm — Logger ${s.f.ids.loggerId} · Air temperature`]);
+    await evaluator().runOnce(t0 + 4 * 60_000);
+    expect(await mailTo(s.watcher)).toHaveLength(2);
+  });
+
+  it('a mail server that is down: the notification waits in the outbox and is retried with back-off, sent once', async () => {
+    const s = await setup();
+    await makeRule(s, { name: 'Tank low', kind: 'bounds', channelId: s.f.ids.channelId, params: { low: 2 } });
+    const t0 = Date.now() - 3_600_000;
+    await store(s.f, t0, 60_000, [3, 1]);
+    let tries = 0;
+    const down: Mailer = {
+      send: async (m) => {
+        if (m.to === s.watcher.email) tries++;
+        throw new Error('connect ECONNREFUSED 127.0.0.1:25');
+      },
+      verify: async () => false,
+      close: () => undefined,
+    };
+    const now = t0 + 2 * 60_000;
+    await evaluator({ mailer: down }).runOnce(now);
+    expect(tries).toBe(1);
+    const row = await t.db('notification_outbox').where({ tenant_id: s.f.lab.id }).first();
+    expect([row.attempts, Number(row.next_attempt_at) - now, row.sent_at, row.last_error]).toEqual([1, 30_000, null, 'connect ECONNREFUSED 127.0.0.1:25']);
+    await evaluator({ mailer: down }).runOnce(now + 10_000); // not due yet: no second try
+    expect(tries).toBe(1);
+    await evaluator({ mailer: down }).runOnce(now + 31_000); // due, still down: back-off doubles
+    expect(tries).toBe(2);
+    const row2 = await t.db('notification_outbox').where({ tenant_id: s.f.lab.id }).first();
+    expect([row2.attempts, Number(row2.next_attempt_at) - (now + 31_000)]).toEqual([2, 60_000]);
+    expect(await mailTo(s.watcher)).toEqual([]);
+    await evaluator().runOnce(now + 92_000); // the server is back
+    await evaluator().runOnce(now + 200_000);
+    expect(await mailTo(s.watcher)).toEqual([`Alert: Tank low — Logger ${s.f.ids.loggerId} · Air temperature`]);
+  });
+
+  it('ingestion through POST /api/v1/ingest nudges the evaluator: the alert mail arrives without a scheduled run', async () => {
+    const s = await setup();
+    await makeRule(s, { name: 'Seed store humid', kind: 'bounds', channelId: s.f.ids.channelId, params: { high: 40 } });
+    const ts = Date.now() - 60_000;
+    await request(t.app).post('/api/v1/ingest').set('Authorization', `Bearer ${s.f.ingestKey}`).send({ readings: [{ channel: 'air_t', ts, value: 55 }] }).expect(200);
+    const mail = await waitForMail(captureUrl, (m) => m.to.includes(s.watcher.email), 8000);
+    expect(mail.subject).toContain('Alert: Seed store humid');
+    expect(mail.text).toContain('Reading: 55 °C at');
+  });
+});
