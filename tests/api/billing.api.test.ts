@@ -17,7 +17,8 @@ import { createLogger } from '../../server/logger.ts';
  * (free: 10 readings, 2 loggers, 4 seats; first paid plan: 25 readings).
  */
 const WEBHOOK = '/api/v1/billing/stripe-webhooks';
-const T0 = Date.UTC(2026, 10, 1);
+// Two days ago, on the hour: inside every test plan's history window whatever the date of the run.
+const T0 = Math.floor(Date.now() / 3_600_000) * 3_600_000 - 2 * 86_400_000;
 const plansFile = writeTestPlanCatalog();
 const catalog = loadPlanCatalog(plansFile);
 const paidPlan = catalog.plans.find((p) => p.priceLookupKey !== null)!;
