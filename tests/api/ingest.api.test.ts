@@ -95,6 +95,29 @@ describe('POST /api/v1/ingest (JSON)', () => {
     expect(await stored(f)).toEqual([{ ts: T0, value: 4.25 }, { ts: T0 + 60_000, value: 5 }]);
   });
 
+  it('within one batch, in or out of time order: a repeated time with the same value is a duplicate, with another value a conflict', async () => {
+    const f = await freshLogger();
+    const at = (s: number) => T0 + s * 1000;
+    const res = await post(f, {
+      readings: [
+        { channel: 'air_t', ts: at(1), value: 1 },
+        { channel: 'air_t', ts: at(3), value: 3 },
+        { channel: 'air_t', ts: at(2), value: 2 }, // back in time, new
+        { channel: 'air_t', ts: at(1), value: 1 }, // back in time, same value: duplicate
+        { channel: 'air_t', ts: at(3), value: 30 }, // repeat of the newest, another value: conflict
+        { channel: 'air_t', ts: at(4), value: 4 }, // forward again
+        { channel: 'air_t', ts: at(2), value: 20 }, // repeat of a row that came out of order: conflict
+      ],
+    }).expect(200);
+    expect(res.body.accepted).toBe(4);
+    expect(res.body.duplicates).toBe(1);
+    expect(res.body.quarantined.map((q: { index: number; code: string }) => [q.index, q.code])).toEqual([
+      [4, 'conflict_in_batch'],
+      [6, 'conflict_in_batch'],
+    ]);
+    expect(await stored(f)).toEqual([1, 2, 3, 4].map((s) => ({ ts: at(s), value: s })));
+  });
+
   it('quarantines unreadable rows with their reasons and stores the rest', async () => {
     const f = await freshLogger();
     const res = await post(f, {

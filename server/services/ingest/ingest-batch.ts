@@ -126,10 +126,23 @@ async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[]
 
   // 1. Read and check each row; keep the first value per (channel, ts) in this batch.
   const candidates: Array<ReadingRow & { row: IncomingReading }> = [];
-  // first value per channel and time (numeric keys: no string built per row)
-  const seen = new Map<number, Map<number, number>>();
+  // Loggers send each channel's readings in time order: while a channel's times only rise, no
+  // row can repeat an earlier one, so only its newest time is kept. The first time a channel's
+  // times go back, its (time → value) map is built from the rows so far and used from then on.
+  const newestOf = new Map<number, number>();
+  const seenOf = new Map<number, Map<number, number>>();
+  const seenFor = (channelId: number) => {
+    let seen = seenOf.get(channelId);
+    if (!seen) {
+      seen = new Map();
+      for (const c of candidates) if (c.channelId === channelId) seen.set(c.ts, c.value);
+      seenOf.set(channelId, seen);
+    }
+    return seen;
+  };
   let duplicatesInBatch = 0;
   const latestAllowed = now() + MAX_FUTURE_MS;
+  const timeOptions = { format: opts.timeFormat, timeZone: opts.timeZone };
   for (const row of rows) {
     const key = typeof row.channel === 'string' ? row.channel.trim() : null;
     if (!key) {
@@ -145,7 +158,7 @@ async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[]
       reject(row, 'retired_channel', `channel: "${key}" is retired`);
       continue;
     }
-    const time = parseReadingTime(row.ts, { format: opts.timeFormat, timeZone: opts.timeZone });
+    const time = parseReadingTime(row.ts, timeOptions);
     if (!time.ok) {
       reject(row, 'bad_time', time.reason);
       continue;
@@ -159,14 +172,20 @@ async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[]
       reject(row, 'bad_value', 'value: must be a finite number', time.ts);
       continue;
     }
-    const seenOfChannel = seen.get(channel.id) ?? seen.set(channel.id, new Map()).get(channel.id)!;
-    const first = seenOfChannel.get(time.ts);
-    if (first !== undefined) {
-      if (Object.is(first, value) || first === value) duplicatesInBatch++;
-      else reject(row, 'conflict_in_batch', 'ts: this batch has another value for the same channel and time', time.ts);
-      continue;
+    const newest = newestOf.get(channel.id);
+    if (newest === undefined || time.ts > newest) {
+      newestOf.set(channel.id, time.ts);
+      seenOf.get(channel.id)?.set(time.ts, value);
+    } else {
+      const seen = seenFor(channel.id);
+      const first = seen.get(time.ts);
+      if (first !== undefined) {
+        if (Object.is(first, value) || first === value) duplicatesInBatch++;
+        else reject(row, 'conflict_in_batch', 'ts: this batch has another value for the same channel and time', time.ts);
+        continue;
+      }
+      seen.set(time.ts, value);
     }
-    seenOfChannel.set(time.ts, value);
     candidates.push({ channelId: channel.id, ts: time.ts, value, row });
   }
 
