@@ -9,6 +9,7 @@
 #   LAGBOOK_DB_DIR   data folder (default: .lagbook/dev/mariadb, git-ignored)
 #   LAGBOOK_DB_PORT  TCP port on 127.0.0.1 (default: 4306)
 #   LAGBOOK_DB_NAME  database to create (default: lagbook)
+#   LAGBOOK_DB_EXTRA_ARGS  more server options, space-separated (tests use it, e.g. to cap the tablespace)
 # The server runs with --no-defaults so Debian's /etc/mysql settings never take over.
 set -euo pipefail
 
@@ -16,6 +17,7 @@ ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 DB_DIR="${LAGBOOK_DB_DIR:-$ROOT/.lagbook/dev/mariadb}"
 DB_PORT="${LAGBOOK_DB_PORT:-4306}"
 DB_NAME="${LAGBOOK_DB_NAME:-lagbook}"
+read -r -a EXTRA_ARGS <<< "${LAGBOOK_DB_EXTRA_ARGS:-}"
 DATA="$DB_DIR/data"
 SOCK="$DB_DIR/mysqld.sock"
 PIDFILE="$DB_DIR/mysqld.pid"
@@ -50,6 +52,7 @@ start() {
     --collation-server=utf8mb4_unicode_ci --skip-log-bin \
     --innodb-buffer-pool-size=512M --innodb-log-file-size=256M \
     --innodb-flush-log-at-trx-commit=1 --max-connections=300 --max-allowed-packet=64M \
+    ${EXTRA_ARGS[@]+"${EXTRA_ARGS[@]}"} \
     >/dev/null 2>&1 < /dev/null &
   for _ in $(seq 1 150); do
     if answers; then ensure_database; echo "mariadb: ready on 127.0.0.1:$DB_PORT (data in $DATA)"; return; fi

@@ -17,6 +17,12 @@ export function isDatabaseUnavailable(err: unknown): boolean {
   return (e.code !== undefined && DB_DOWN_CODES.has(e.code)) || e.name === 'KnexTimeoutError' || (e as { fatal?: boolean }).fatal === true;
 }
 
+/** The server has no room for the write: its disk, or a capped tablespace, is full. */
+export function isDatabaseFull(err: unknown): boolean {
+  const code = (err as { code?: string } | null)?.code;
+  return code === 'ER_RECORD_FILE_FULL' || code === 'ER_DISK_FULL';
+}
+
 /** The server refuses writes (read_only set, e.g. during maintenance or on a replica). */
 export function isDatabaseReadOnly(err: unknown): boolean {
   return (err as { code?: string } | null)?.code === 'ER_OPTION_PREVENTS_STATEMENT';

@@ -35,11 +35,14 @@ export interface PrivateMariaDb {
   destroy(): Promise<void>;
 }
 
-/** Initialises and starts a private server whose database is `database` (must match `lagbook_%`). */
-export async function startPrivateMariaDb(database: string): Promise<PrivateMariaDb> {
+/**
+ * Initialises and starts a private server whose database is `database` (must match `lagbook_%`);
+ * `serverArgs` are extra mariadbd options (e.g. a capped tablespace).
+ */
+export async function startPrivateMariaDb(database: string, opts: { serverArgs?: string[] } = {}): Promise<PrivateMariaDb> {
   const [port] = freePorts(1);
   const dir = mkdtempSync(join(tmpdir(), 'lagbook-private-db-'));
-  const env = { ...process.env, LAGBOOK_DB_DIR: dir, LAGBOOK_DB_PORT: String(port), LAGBOOK_DB_NAME: database };
+  const env = { ...process.env, LAGBOOK_DB_DIR: dir, LAGBOOK_DB_PORT: String(port), LAGBOOK_DB_NAME: database, LAGBOOK_DB_EXTRA_ARGS: (opts.serverArgs ?? []).join(' ') };
   const script = async (action: 'start' | 'stop') => void (await run('bash', [SCRIPT, action], { env }));
   let destroyed = false;
   const server: PrivateMariaDb = {

@@ -2,7 +2,7 @@ import type { ErrorRequestHandler } from 'express';
 import { ZodError } from 'zod';
 import { AppError, ServiceUnavailableError, ValidationError } from '../../errors.ts';
 import type { Logger } from '../../logger.ts';
-import { isDatabaseReadOnly, isDatabaseUnavailable, isLockConflict } from '../../db/db-errors.ts';
+import { isDatabaseFull, isDatabaseReadOnly, isDatabaseUnavailable, isLockConflict } from '../../db/db-errors.ts';
 
 /** Turns a ZodError into `field: reason` lines (the validation message convention). */
 export function zodToValidationError(err: ZodError): ValidationError {
@@ -21,6 +21,8 @@ export function errorHandler(logger: Logger): ErrorRequestHandler {
     if (error instanceof ZodError) error = zodToValidationError(error);
     if (!(error instanceof AppError) && isDatabaseReadOnly(error)) {
       error = new ServiceUnavailableError('The database accepts no changes right now (read-only, e.g. during maintenance); nothing was saved. Try again later.', 30);
+    } else if (!(error instanceof AppError) && isDatabaseFull(error)) {
+      error = new ServiceUnavailableError('The database has no room left (its disk or tablespace is full); nothing was saved. Operators must free space or grow the disk; try again later.', 300);
     } else if (!(error instanceof AppError) && isDatabaseUnavailable(error)) {
       error = new ServiceUnavailableError('The database is unreachable; try again shortly.');
     } else if (!(error instanceof AppError) && isLockConflict(error)) {
