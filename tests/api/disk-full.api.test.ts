@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createDb, type Db } from '../../server/db/create-db.ts';
 import { migrateToLatest } from '../../server/db/migrate.ts';
 import { buildLabWithEverything, type LabWithEverything } from '../support/lab-fixture.ts';
-import { startAppProcess } from '../support/app-process.ts';
+import { startAppProcess, stopAppProcess } from '../support/app-process.ts';
 import { freePorts, startPrivateMariaDb, type PrivateMariaDb } from '../support/private-mariadb.ts';
 import { batchBody, postBatch } from '../support/posting-logger.ts';
 
@@ -37,11 +37,7 @@ describe('a database that is full', () => {
   }, 90_000);
 
   afterAll(async () => {
-    if (app) {
-      app.child.kill('SIGTERM');
-      await Promise.race([app.stopped, new Promise((r) => setTimeout(r, 5000))]);
-      if (app.child.exitCode === null) app.child.kill('SIGKILL');
-    }
+    await stopAppProcess(app);
     await db?.destroy();
     await server?.destroy();
   }, 30_000);

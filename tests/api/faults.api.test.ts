@@ -4,7 +4,7 @@ import { migrateToLatest } from '../../server/db/migrate.ts';
 import { testConfig } from '../support/test-app.ts';
 import { buildLabWithEverything, type LabWithEverything } from '../support/lab-fixture.ts';
 import { buildMember, sessionCookieFor } from '../support/factories.ts';
-import { startAppProcess } from '../support/app-process.ts';
+import { startAppProcess, stopAppProcess } from '../support/app-process.ts';
 import { freePorts, startPrivateMariaDb, type PrivateMariaDb } from '../support/private-mariadb.ts';
 import { T0, batchBody, newRecord, postBatch, postUntilAcknowledged, type PostingRecord } from '../support/posting-logger.ts';
 
@@ -40,11 +40,7 @@ describe('on a private MariaDB', () => {
   }, 60_000);
 
   afterAll(async () => {
-    if (app) {
-      app.child.kill('SIGTERM');
-      await Promise.race([app.stopped, new Promise((r) => setTimeout(r, 5000))]);
-      if (app.child.exitCode === null) app.child.kill('SIGKILL');
-    }
+    await stopAppProcess(app);
     await db?.destroy();
     await server?.destroy();
   }, 30_000);

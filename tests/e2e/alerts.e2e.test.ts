@@ -1,8 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
-import { buildLab, type TestLab } from '../support/factories.ts';
-import { keepScreenshot, launchBrowser, signInThroughLagbook } from '../support/browser.ts';
+import type { TestLab } from '../support/factories.ts';
+import { keepScreenshot, launchBrowser } from '../support/browser.ts';
+import { signInAsMemberOfNewLab } from '../support/browser-lab-member.ts';
 import { newIngestKey } from '../../server/services/ingest-key-format.ts';
 import { waitForMail } from '../../docker-free-scripts/mail-capture/read-captured-mail.ts';
 import { DEV_ACCOUNTS } from '../../docker-free-scripts/identity-provider/dev-accounts.ts';
@@ -26,10 +27,7 @@ beforeAll(async () => {
   browser = await launchBrowser();
   await browser.context.clearCookies();
   page = await browser.context.newPage();
-  await signInThroughLagbook(page, appUrl, t.config.oidc.issuer, technician);
-  const user = await t.db('users').where({ oidc_issuer: t.config.oidc.issuer, oidc_subject: technician.sub }).first();
-  lab = await buildLab(t.db, { name: `Marrowgate Seed Bank ${run}` });
-  await t.db('memberships').insert({ tenant_id: lab.id, user_id: user.id, role: 'technician' });
+  lab = await signInAsMemberOfNewLab(t, page, appUrl, technician, { name: `Marrowgate Seed Bank ${run}`, role: 'technician' });
   const id = () => Math.floor(Math.random() * 2 ** 40) + 1;
   const loggerId = id();
   await t.db('loggers').insert({ tenant_id: lab.id, id: loggerId, name: `Cold room ${run}`, timezone: 'UTC', expected_interval_s: 60 });

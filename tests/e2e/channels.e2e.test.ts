@@ -1,8 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
-import { buildLab, type TestLab } from '../support/factories.ts';
-import { keepScreenshot, launchBrowser, signInThroughLagbook } from '../support/browser.ts';
+import type { TestLab } from '../support/factories.ts';
+import { keepScreenshot, launchBrowser } from '../support/browser.ts';
+import { signInAsMemberOfNewLab } from '../support/browser-lab-member.ts';
 import { ingestBatch, type IncomingReading } from '../../server/services/ingest/ingest-batch.ts';
 import { DEV_ACCOUNTS } from '../../docker-free-scripts/identity-provider/dev-accounts.ts';
 import { onLargestPlan } from '../support/largest-plan.ts';
@@ -54,11 +55,8 @@ beforeAll(async () => {
   page = await browser.context.newPage();
 
   // First sign-in creates the scientist's user row; then make that person a scientist of a fresh lab.
-  await signInThroughLagbook(page, appUrl, t.config.oidc.issuer, scientist);
-  const user = await t.db('users').where({ oidc_issuer: t.config.oidc.issuer, oidc_subject: scientist.sub }).first();
-  lab = await buildLab(t.db, { name: `Quincewood Orchard ${run}` });
+  lab = await signInAsMemberOfNewLab(t, page, appUrl, scientist, { name: `Quincewood Orchard ${run}`, role: 'scientist' });
   await onLargestPlan(t.db, lab.id); // a year of readings: more history than the free plan shows
-  await t.db('memberships').insert({ tenant_id: lab.id, user_id: user.id, role: 'scientist' });
 
   const id = () => Math.floor(Math.random() * 2 ** 40) + 1;
   const loggerId = id();

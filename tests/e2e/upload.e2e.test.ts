@@ -3,8 +3,9 @@ import { execFile } from 'node:child_process';
 import { promisify } from 'node:util';
 import type { Page } from 'playwright-core';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
-import { buildLab, type TestLab } from '../support/factories.ts';
-import { keepScreenshot, launchBrowser, signInThroughLagbook } from '../support/browser.ts';
+import type { TestLab } from '../support/factories.ts';
+import { keepScreenshot, launchBrowser } from '../support/browser.ts';
+import { signInAsMemberOfNewLab } from '../support/browser-lab-member.ts';
 import { DEV_ACCOUNTS } from '../../docker-free-scripts/identity-provider/dev-accounts.ts';
 
 const technician = DEV_ACCOUNTS.find((a) => a.role === 'technician')!;
@@ -48,10 +49,7 @@ beforeAll(async () => {
 
   // Sign in once through the provider, so Lagbook creates the technician's user row; then
   // make that person a technician of a fresh lab.
-  await signInThroughLagbook(page, appUrl, t.config.oidc.issuer, technician);
-  const user = await t.db('users').where({ oidc_issuer: t.config.oidc.issuer, oidc_subject: technician.sub }).first();
-  lab = await buildLab(t.db, { name: `Reedbank Wetland Station ${run}` });
-  await t.db('memberships').insert({ tenant_id: lab.id, user_id: user.id, role: 'technician' });
+  lab = await signInAsMemberOfNewLab(t, page, appUrl, technician, { name: `Reedbank Wetland Station ${run}`, role: 'technician' });
 });
 afterAll(async () => {
   await browser?.close();

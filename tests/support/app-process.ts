@@ -24,3 +24,11 @@ export async function startAppProcess(db: Config['db'], port: number, sessionSec
   child.kill('SIGKILL');
   throw new Error('the app process did not answer within 30 s');
 }
+
+/** Stops an app process started by {@link startAppProcess}: SIGTERM, then SIGKILL after 5 s. */
+export async function stopAppProcess(app: { child: ChildProcess; stopped: Promise<void> } | undefined): Promise<void> {
+  if (!app) return;
+  app.child.kill('SIGTERM');
+  await Promise.race([app.stopped, new Promise((r) => setTimeout(r, 5000))]);
+  if (app.child.exitCode === null) app.child.kill('SIGKILL');
+}
