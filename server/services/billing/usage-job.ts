@@ -67,9 +67,12 @@ export function createUsageJob(deps: { db: Db; catalog: PlanCatalog; mailer: Mai
   let running: Promise<void> | null = null;
   const tick = () => {
     if (running) return;
-    running = runOnce().finally(() => {
-      running = null;
-    });
+    // A database outage must not become an unhandled rejection (that would end the process).
+    running = runOnce()
+      .catch((err: unknown) => deps.logger.warn('usage reconciliation failed; the next run retries', { err: String(err) }))
+      .finally(() => {
+        running = null;
+      });
   };
   const job: BackgroundJob = {
     name: 'usage reconciliation',
