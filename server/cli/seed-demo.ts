@@ -11,6 +11,8 @@ import { DEMO_BAD_ROWS, DEMO_DAYS, DEMO_LAB, DEMO_LOGGERS, DEMO_SEED } from '../
 import { generateLogger } from '../../tenants/demo/generate.ts';
 import { seededRandom } from '../../tenants/demo/random.ts';
 import type { Role } from '../policies/permissions.ts';
+import { labBillingIn } from '../db/lab-billing.repo.ts';
+import { loadPlanCatalog } from '../services/billing/plan-catalog.ts';
 
 export interface DemoPerson {
   email: string;
@@ -91,6 +93,9 @@ export async function seedDemo(db: Db, opts: { issuer: string; people: DemoPerso
     }
     log(`  ${spec.name}: ${spec.channels.length} channel(s)`);
   }
+  // The plan's usage meter counts what was just stored (seeding bypasses the ingestion hooks),
+  // so the billing page is right at once rather than after the next usage reconciliation.
+  await labBillingIn(inLab(db, lab.id), db, loadPlanCatalog(process.env.LAGBOOK_PLANS_FILE ?? 'tenants/plans.json').free.key).setReadings(readings, new Date());
   await auditIn(inLab(db, lab.id)).record({ actorUserId: null, action: 'demo.seeded', summary: `The demo scenario was loaded (${readings} readings, seed ${DEMO_SEED})` });
   return {
     seeded: true,

@@ -55,6 +55,8 @@ describe('demo lab seed', () => {
     labId = Number((await db('labs').where({ slug: 'fernhollow-field-station' }).first()).id);
     const count = async () => Number((await db('readings').where({ tenant_id: labId }).count({ n: '*' }))[0].n);
     const before = await count();
+    // the plan's usage meter already counts every stored reading (no wait for the usage job)
+    expect(Number((await db('lab_billing').where({ tenant_id: labId }).first()).readings_count)).toBe(before);
     const second = await seedDemo(db, { issuer: config.oidc.issuer, people, end: END });
     expect(second.seeded).toBe(false);
     expect(await count()).toBe(before);
