@@ -250,6 +250,8 @@ describe("the plan's history window", () => {
     const series = await get(cookie, `${base}/channels/${f.ids.channelId}/series?${range}&points=100`).expect(200);
     expect(Math.abs(Date.parse(series.headers['lagbook-history-starts']) - starts)).toBeLessThan(60_000); // the window moves with the clock
     expect(series.body.series.from).toBeGreaterThanOrEqual(Math.floor(starts / HOUR) * HOUR - DAY);
+    expect(Math.abs(series.body.historyStartsAt - starts)).toBeLessThan(60_000);
+    expect(series.body.requested.from).toBe(now - 200 * DAY);
 
     // A range wholly before the window is refused with a reason, not answered as empty.
     const before = await get(cookie, `${base}/channels/${f.ids.channelId}/readings.csv?from=${old - DAY}&to=${old + DAY}`).expect(402);
@@ -260,6 +262,7 @@ describe("the plan's history window", () => {
     await onLargestPlan(t.db, f.lab.id);
     csv = await get(cookie, `${base}/channels/${f.ids.channelId}/readings.csv?${range}`).expect(200);
     expect(csv.headers['lagbook-history-starts']).toBeUndefined();
+    expect((await get(cookie, `${base}/channels/${f.ids.channelId}/series?${range}&points=100`).expect(200)).body.historyStartsAt).toBeNull();
     expect(csv.text).toContain(new Date(old).toISOString());
   });
 });

@@ -77,8 +77,15 @@ export function channelRoutes(deps: { channels: ChannelsService; diagnostics: Di
       query: seriesQuery(now),
       handle: async (req, res) => {
         const { channelId } = parseInput(channelParams, req.params);
-        const q = await withinPlanHistory(deps.historyWindow, labOf(res), parseInput(seriesQuery(now), req.query), res);
-        res.json({ channelId, requested: { from: q.from, to: q.to, points: q.points }, series: await channels.series(labOf(res), channelId, q) });
+        const asked = parseInput(seriesQuery(now), req.query);
+        const q = await withinPlanHistory(deps.historyWindow, labOf(res), asked, res);
+        res.json({
+          channelId,
+          requested: { from: asked.from, to: asked.to, points: asked.points },
+          // set when the plan's history window cut the start of the range (older readings are kept)
+          historyStartsAt: q.from !== asked.from ? q.from : null,
+          series: await channels.series(labOf(res), channelId, q),
+        });
       },
     },
     {

@@ -36,7 +36,13 @@ export interface TimeRange {
 }
 
 /** `GET /api/v1/labs/:lab/channels/:channelId/series?from&to&points`. */
-export function getSeries(slug: string, channelId: number, range: TimeRange, points: number, signal?: AbortSignal): Promise<{ series: Series }> {
+export function getSeries(
+  slug: string,
+  channelId: number,
+  range: TimeRange,
+  points: number,
+  signal?: AbortSignal,
+): Promise<{ series: Series; /** Epoch ms where the lab's plan cut the range's start, or null. */ historyStartsAt: number | null }> {
   const q = new URLSearchParams({ from: String(range.from), to: String(range.to), points: String(points) });
   return apiFetch(`${channelsBase(slug)}/${channelId}/series?${q}`, { signal });
 }

@@ -75,4 +75,12 @@ describe('ReadingsPanel', () => {
     fireEvent.click(screen.getByRole('button', { name: 'Show range' }));
     await vi.waitFor(() => expect(api.requests.at(-1)!.path).toBe(`/api/v1/labs/canopy/channels/7/series?from=${T0 + 2 * DAY}&to=${T0 + 3 * DAY}&points=2000`));
   });
+
+  it('says where the plan’s history window cut the range, and that older readings are kept', async () => {
+    const cut = T0 + DAY / 2;
+    fakeApi({ 'GET /api/v1/labs/canopy/channels/7/series': () => ({ status: 200, body: { historyStartsAt: cut, series: { shape: 'readings', source: 'raw', from: cut, to: T0 + DAY, t: [], value: [] } } }) });
+    renderWithProviders(<Harness />);
+    const note = await screen.findByText(/plan shows readings from/);
+    expect(note.textContent).toContain('from 2026-06-01 on; older readings are kept');
+  });
 });

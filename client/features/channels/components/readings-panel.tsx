@@ -97,6 +97,12 @@ export function ReadingsPanel({
         )}
       </div>
       <RangePicker range={range} preset={preset} timezone={channel.logger.timezone} onChange={onRange} />
+      {series.data?.historyStartsAt != null && (
+        <Notice tone="status">
+          The lab’s plan shows readings from {new Date(series.data.historyStartsAt).toISOString().slice(0, 10)} on; older readings are kept and come
+          back with a plan that keeps more history.
+        </Notice>
+      )}
       {series.isError ? (
         <Notice tone="alert">{series.error.message}</Notice>
       ) : !option || !data ? (
