@@ -65,16 +65,16 @@ export function readingsIn(scope: LabScope, db: DbOrTrx) {
      * Adds freshly inserted readings to their rollup buckets at every resolution, computing
      * each bucket's min, max, sum and count from the rows in hand and merging them into what
      * is stored (LEAST, GREATEST, +). Exact only when every row given was new — the caller
-     * uses `refreshRollups` otherwise. One statement per resolution, no scan of readings.
+     * uses `refreshRollups` otherwise. One statement for every resolution, no scan of readings.
      */
     async addToRollups(rows: ReadingRow[]): Promise<void> {
       if (rows.length === 0) return;
+      // Rows come sorted by channel, then time, so each bucket is one run of neighbours. (Were
+      // they not, a bucket would appear more than once; the upsert below merges such repeats
+      // correctly, only less cheaply.) Every resolution goes into one statement.
+      const values: Array<[number, number, number, number, number, number, number, number]> = [];
       for (const res of ROLLUP_RESOLUTIONS_S) {
         const ms = res * 1000;
-        // Rows come sorted by channel, then time, so each bucket is one run of neighbours. (Were
-        // they not, a bucket would appear more than once; the upsert below merges such repeats
-        // correctly, only less cheaply.)
-        const values: Array<[number, number, number, number, number, number, number, number]> = [];
         let open: (typeof values)[number] | null = null;
         for (const r of rows) {
           const b = r.ts - (((r.ts % ms) + ms) % ms);
@@ -88,14 +88,14 @@ export function readingsIn(scope: LabScope, db: DbOrTrx) {
             values.push(open);
           }
         }
-        await db.raw(
-          `INSERT INTO reading_rollups (tenant_id, channel_id, resolution_s, bucket_start, min_value, max_value, sum_value, count_value)
-           VALUES ?
-           ON DUPLICATE KEY UPDATE min_value = LEAST(min_value, VALUES(min_value)), max_value = GREATEST(max_value, VALUES(max_value)),
-             sum_value = sum_value + VALUES(sum_value), count_value = count_value + VALUES(count_value)`,
-          [values] as never,
-        );
       }
+      await db.raw(
+        `INSERT INTO reading_rollups (tenant_id, channel_id, resolution_s, bucket_start, min_value, max_value, sum_value, count_value)
+         VALUES ?
+         ON DUPLICATE KEY UPDATE min_value = LEAST(min_value, VALUES(min_value)), max_value = GREATEST(max_value, VALUES(max_value)),
+           sum_value = sum_value + VALUES(sum_value), count_value = count_value + VALUES(count_value)`,
+        [values] as never,
+      );
     },
 
     /**
