@@ -54,7 +54,6 @@ import { createBillingService } from './services/billing/billing.service.ts';
 import { createStripeWebhooks } from './services/billing/stripe-webhooks.service.ts';
 import { billingRoutes } from './http/billing/billing.router.ts';
 import { stripeWebhooksRouter } from './http/billing/stripe-webhooks.router.ts';
-import { billingRetryAfter } from './http/billing/billing-retry-after.ts';
 import { buildOpenApiDocument } from './http/openapi/openapi-document.ts';
 import { openApiRouter } from './http/openapi/openapi.router.ts';
 import type { AnalysisPool } from './workers/analysis-pool.ts';
@@ -111,13 +110,11 @@ export function createApp(deps: AppDeps): Express {
   // Every way a reading comes in (API, upload, re-submit, test reading) runs the same hooks.
   const ingestHooks = composeIngestHooks([
     planLimits.ingestHooks,
-    // alert evaluation (alerts)
     alerts.ingestHooks,
   ]);
   /** Scheduled work main.ts starts after listening (tests drive each job directly instead). */
   const backgroundJobs: BackgroundJob[] = [
     usageJob.job,
-    // alert evaluation and notification sending (alerts)
     alerts.job,
   ];
   const quarantine = createQuarantineService({ db, now: nowMs, hooks: ingestHooks });
@@ -170,7 +167,6 @@ export function createApp(deps: AppDeps): Express {
   app.use(['/api', '/auth'], (req, _res, next) => next(new NotFoundError(`No route for ${req.method} ${req.originalUrl.split('?')[0]}.`)));
   if (config.clientDir) app.use(staticClient(config.clientDir));
   app.use((req, _res, next) => next(new NotFoundError(`No route for ${req.method} ${req.path}.`)));
-  app.use(billingRetryAfter());
   app.use(errorHandler(logger));
   return app;
 }

@@ -1,9 +1,12 @@
 /**
  * Typed application errors. Each carries the HTTP status it maps to and a stable `code`
  * that clients and tests can rely on; the one error middleware renders them as
- * `{ "error": { "code": "...", "message": "..." } }`.
+ * `{ "error": { "code": "...", "message": "..." } }`. An error that sets `retryAfterSeconds`
+ * (a refusal the caller may simply repeat later) is answered with a `Retry-After` header.
  */
 export class AppError extends Error {
+  readonly retryAfterSeconds?: number;
+
   constructor(
     readonly status: number,
     readonly code: string,
@@ -47,7 +50,7 @@ export class ValidationError extends AppError {
 export class ServiceUnavailableError extends AppError {
   constructor(
     message: string,
-    readonly retryAfterSeconds = 5,
+    override readonly retryAfterSeconds = 5,
   ) {
     super(503, 'service_unavailable', message);
   }

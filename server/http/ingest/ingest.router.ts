@@ -2,7 +2,7 @@ import express, { Router } from 'express';
 import { AppError } from '../../errors.ts';
 import type { IngestService } from '../../services/ingest/ingest.service.ts';
 import { readingsFromCsv, readingsFromJson } from '../../services/ingest/readings-from-body.ts';
-import { createLoggerRateLimit, RateLimitedError } from './logger-rate-limit.ts';
+import { createLoggerRateLimit } from './logger-rate-limit.ts';
 
 export const INGEST_BODY_LIMIT = '8mb';
 
@@ -24,12 +24,7 @@ export function ingestRouter(deps: { ingest: IngestService; rate?: { perSecond: 
       const header = req.get('authorization') ?? '';
       const presented = /^Bearer\s+(\S+)$/i.exec(header)?.[1];
       res.locals.logger = await deps.ingest.authenticate(presented);
-      try {
-        limiter.take(res.locals.logger.loggerId);
-      } catch (err) {
-        if (err instanceof RateLimitedError) res.set('Retry-After', String(err.retryAfterSeconds));
-        throw err;
-      }
+      limiter.take(res.locals.logger.loggerId);
       if (!req.is(['application/json', 'application/*+json', 'text/csv'])) {
         throw new AppError(415, 'unsupported_media_type', 'Send readings as application/json or text/csv.');
       }

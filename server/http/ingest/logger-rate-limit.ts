@@ -2,7 +2,7 @@ import { AppError } from '../../errors.ts';
 
 /** 429 with the seconds to wait, for a logger that posts faster than its allowance. */
 export class RateLimitedError extends AppError {
-  constructor(readonly retryAfterSeconds: number) {
+  constructor(override readonly retryAfterSeconds: number) {
     super(429, 'rate_limited', `Too many requests from this logger; retry in ${retryAfterSeconds} s.`);
   }
 }

@@ -36,7 +36,7 @@ export function errorHandler(logger: Logger): ErrorRequestHandler {
       error = new ValidationError('body: not valid JSON');
     }
     if (error instanceof AppError) {
-      if (error instanceof ServiceUnavailableError) res.set('Retry-After', String(error.retryAfterSeconds));
+      if (error.retryAfterSeconds !== undefined && !res.headersSent) res.set('Retry-After', String(error.retryAfterSeconds));
       if (error.status >= 500) logger.warn('request failed', { path: req.path, code: error.code, cause: (err as { code?: string; name?: string })?.code ?? (err as Error)?.name });
       res.status(error.status).json({ error: { code: error.code, message: error.message } });
       return;

@@ -12,7 +12,7 @@ const WHAT: Record<LimitName, string> = { readings: 'stored readings', loggers: 
  * and the same request succeeds once an admin raises the plan (or usage drops).
  */
 export class PlanLimitError extends AppError {
-  readonly retryAfterSeconds = PLAN_LIMIT_RETRY_AFTER_S;
+  override readonly retryAfterSeconds = PLAN_LIMIT_RETRY_AFTER_S;
 
   constructor(
     readonly limit: LimitName,
@@ -29,7 +29,7 @@ export class PlanLimitError extends AppError {
 
 /** Stripe could not be reached or refused the call; nothing about the lab's plan changed. */
 export class BillingUnavailableError extends AppError {
-  readonly retryAfterSeconds = 30;
+  override readonly retryAfterSeconds = 30;
 
   constructor(message = 'The payment service cannot be reached right now; your plan is unchanged. Try again in a few minutes.') {
     super(503, 'billing_unavailable', message);
