@@ -1,10 +1,10 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { buildTestApp, type TestApp } from '../support/test-app.ts';
 import type { TestLab } from '../support/factories.ts';
-import { keepScreenshot, launchBrowser } from '../support/browser.ts';
+import { keepScreenshot } from '../support/browser.ts';
+import { browserSuite } from '../support/browser-suite.ts';
 import { signInAsMemberOfNewLab } from '../support/browser-lab-member.ts';
-import { newIngestKey } from '../../server/services/ingest-key-format.ts';
+import { createLoggersService } from '../../server/services/loggers.service.ts';
 import { waitForMail } from '../../docker-free-scripts/mail-capture/read-captured-mail.ts';
 import { DEV_ACCOUNTS } from '../../docker-free-scripts/identity-provider/dev-accounts.ts';
 
@@ -13,38 +13,28 @@ const technician = DEV_ACCOUNTS.find((a) => a.role === 'technician')!;
 const run = Date.now().toString(36);
 const ruleName = `Cold room above 6 °C ${run}`;
 
-let t: TestApp;
-let appUrl: string;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
+const s = browserSuite();
 let page: Page;
 let lab: TestLab;
 let channelId = 0;
 let ingestKey = '';
 
 beforeAll(async () => {
-  t = await buildTestApp();
-  appUrl = await t.listen();
-  browser = await launchBrowser();
-  await browser.context.clearCookies();
-  page = await browser.context.newPage();
-  lab = await signInAsMemberOfNewLab(t, page, appUrl, technician, { name: `Marrowgate Seed Bank ${run}`, role: 'technician' });
-  const id = () => Math.floor(Math.random() * 2 ** 40) + 1;
-  const loggerId = id();
-  await t.db('loggers').insert({ tenant_id: lab.id, id: loggerId, name: `Cold room ${run}`, timezone: 'UTC', expected_interval_s: 60 });
-  channelId = id();
-  await t.db('channels').insert({ tenant_id: lab.id, id: channelId, logger_id: loggerId, channel_key: 'room_t', label: 'Room temperature', unit: '°C' });
-  const key = newIngestKey();
-  await t.db('ingest_keys').insert({ tenant_id: lab.id, id: id(), logger_id: loggerId, prefix: key.prefix, key_hash: key.hash });
-  ingestKey = key.key;
-});
-afterAll(async () => {
-  await browser?.close();
-  await t?.close();
+  page = await s.freshPage();
+  lab = await signInAsMemberOfNewLab(s.t, page, s.appUrl, technician, { name: `Marrowgate Seed Bank ${run}`, role: 'technician' });
+  const { logger, issued } = await createLoggersService({ db: s.t.db }).register({ ...lab, createdAt: new Date(), role: 'technician' }, null, {
+    name: `Cold room ${run}`,
+    timezone: 'UTC',
+    expectedIntervalS: 60,
+    channels: [{ key: 'room_t', label: 'Room temperature', unit: '°C' }],
+  });
+  channelId = logger.channels[0].id;
+  ingestKey = issued.key;
 });
 
 describe('alerts in the browser', () => {
   it('makes a rule beside the caution, sees the alert after readings break it, and the mail links to the channel at that time', async () => {
-    await page.goto(`${appUrl}/labs/${lab.slug}`);
+    await page.goto(`${s.appUrl}/labs/${lab.slug}`);
     await page.getByRole('navigation', { name: 'Lab sections' }).getByRole('link', { name: 'Alerts' }).click();
     const form = page.getByRole('form', { name: 'New alert rule' });
     await form.waitFor();
@@ -66,7 +56,7 @@ describe('alerts in the browser', () => {
 
     // a logger posts readings with its real ingest key: 4.8 °C, then 7.5 °C
     const now = Date.now();
-    const res = await fetch(`${appUrl}/api/v1/ingest`, {
+    const res = await fetch(`${s.appUrl}/api/v1/ingest`, {
       method: 'POST',
       headers: { Authorization: `Bearer ${ingestKey}`, 'Content-Type': 'application/json' },
       body: JSON.stringify({ readings: [{ channel: 'room_t', ts: now - 120_000, value: 4.8 }, { channel: 'room_t', ts: now - 60_000, value: 7.5 }] }),
@@ -77,7 +67,7 @@ describe('alerts in the browser', () => {
     expect(mail.subject).toBe(`[Marrowgate Seed Bank ${run}] Alert: ${ruleName} — Cold room ${run} · Room temperature`);
     expect(mail.text).toContain('Reading: 7.5 °C at');
     const link = /See the channel at that time: (\S+)/.exec(mail.text)![1];
-    expect(link).toBe(`${t.config.publicUrl}/labs/${lab.slug}/channels/${channelId}?from=${now - 60_000 - 6 * 3_600_000}&to=${now - 60_000 + 3_600_000}`);
+    expect(link).toBe(`${s.t.config.publicUrl}/labs/${lab.slug}/channels/${channelId}?from=${now - 60_000 - 6 * 3_600_000}&to=${now - 60_000 + 3_600_000}`);
 
     await page.reload();
     const open = page.getByRole('list', { name: 'Open alerts' });
@@ -86,14 +76,14 @@ describe('alerts in the browser', () => {
     await keepScreenshot(page, 'alerts-open');
 
     // the mail's link opens the channel on the alert's time range, with the alert listed (and shaded: screenshot)
-    await page.goto(link.replace(t.config.publicUrl, appUrl));
+    await page.goto(link.replace(s.t.config.publicUrl, s.appUrl));
     const panel = page.getByRole('region', { name: /Alerts in this range/ });
     await panel.getByText(`Open: ${ruleName}`).waitFor();
     await expect.poll(async () => page.getByRole('region', { name: 'Readings' }).locator('figure[data-chart-ready="true"]').count(), { timeout: 30_000 }).toBe(1);
     await keepScreenshot(page, 'alerts-channel-band');
 
     // acknowledge with a note from the alert centre
-    await page.goto(`${appUrl}/labs/${lab.slug}/alerts`);
+    await page.goto(`${s.appUrl}/labs/${lab.slug}/alerts`);
     const ack = page.getByRole('form', { name: `Acknowledge ${ruleName}` });
     await ack.getByLabel('Note').fill('Door was propped open; closed it.');
     await ack.getByRole('button', { name: 'Acknowledge' }).click();
