@@ -45,6 +45,8 @@ export default defineConfig({
           root: '.',
           include: ['client/**/*.test.tsx', 'client/**/*.test.ts'],
           environment: 'jsdom',
+          setupFiles: ['client/test-setup.ts'],
+          testTimeout: 20_000,
         },
       },
       {

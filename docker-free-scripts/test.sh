@@ -59,13 +59,23 @@ for project in unit client api e2e; do
   say "test group: $project"
   npx vitest run --project "$project" --reporter=default --reporter=json --outputFile.json="$STATE_DIR/results-$project.json" || FAILED=1
 done
-# One closing line for every group together: "tests: N passed, N failed".
+# One closing line for every group together: "tests: N passed, N failed", preceded by the name and
+# first message line of each failure, so that the end of a long log says what broke.
 node -e '
   let passed = 0, failed = 0;
+  const failures = [];
   for (const f of process.argv.slice(1)) {
-    try { const r = require(f); passed += r.numPassedTests; failed += r.numFailedTests + (r.numRuntimeErrorTestSuites ?? 0); }
-    catch { failed += 1; }
+    try {
+      const r = require(f);
+      passed += r.numPassedTests; failed += r.numFailedTests + (r.numRuntimeErrorTestSuites ?? 0);
+      for (const file of r.testResults) {
+        const where = file.name.replace(process.cwd() + "/", "");
+        if (file.status === "failed" && file.assertionResults.every((t) => t.status !== "failed")) failures.push(`${where}: ${String(file.message).split("\n")[0]}`);
+        for (const t of file.assertionResults) if (t.status === "failed") failures.push(`${where} › ${t.fullName}: ${String(t.failureMessages[0] ?? "").split("\n")[0]}`);
+      }
+    } catch { failed += 1; failures.push(`${f}: no readable results`); }
   }
+  for (const line of failures) console.log(`FAILED ${line}`);
   console.log(`tests: ${passed} passed, ${failed} failed`);
 ' "$STATE_DIR"/results-*.json
 [ "$FAILED" = 0 ] || die "some tests failed"

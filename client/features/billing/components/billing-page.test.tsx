@@ -67,7 +67,7 @@ describe('billing page', () => {
     });
     renderWithProviders(<BillingPage slug="fernhollow" returned="complete" />);
     expect(await screen.findByText(/waiting for confirmation/)).toBeTruthy();
-    expect(await screen.findByText('Payment confirmed: the lab is now on the Transect plan.', undefined, { timeout: 4000 })).toBeTruthy();
+    expect(await screen.findByText('Payment confirmed: the lab is now on the Transect plan.', undefined, { timeout: 8000 })).toBeTruthy();
     expect(screen.getByTestId('current-plan').textContent).toBe('Transect');
   });
 

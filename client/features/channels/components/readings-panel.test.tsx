@@ -58,7 +58,7 @@ describe('ReadingsPanel', () => {
 
     // The slider reports percentages; the middle half of the day is asked for at full detail.
     fake.module!.emitters[0]('datazoom', { start: 25, end: 75 });
-    await vi.waitFor(() => expect(api.requests.at(-1)!.path).toBe(`/api/v1/labs/canopy/channels/7/series?from=${T0 + DAY / 4}&to=${T0 + (3 * DAY) / 4}&points=2000`), { timeout: 2000 });
+    await vi.waitFor(() => expect(api.requests.at(-1)!.path).toBe(`/api/v1/labs/canopy/channels/7/series?from=${T0 + DAY / 4}&to=${T0 + (3 * DAY) / 4}&points=2000`), { timeout: 5000 });
     expect(screen.getByRole('button', { name: '24 h' }).getAttribute('aria-pressed')).toBe('false');
     expect((screen.getByLabelText('From (Asia/Kolkata)') as HTMLInputElement).value).toBe('2026-06-01T11:30');
   });
