@@ -49,7 +49,10 @@ start_dev_services "$STATE_DIR/dev-services.log"
 say "building the client and the server…"
 npx vite build --logLevel error
 npx tsc -p server/tsconfig.build.json
-node dist/server/main.js --migrate &
+# The server's V8 flags live in package.json ("config.serverNodeFlags", see README "Configuration").
+SERVER_NODE_FLAGS="$(node -p "require('./package.json').config.serverNodeFlags")"
+# shellcheck disable=SC2086 # the flags are words
+node $SERVER_NODE_FLAGS dist/server/main.js --migrate &
 APP_PID=$!
 wait_for_http "$LAGBOOK_PUBLIC_URL/healthz" 30 "Lagbook"
 if [ "${LAGBOOK_SKIP_DEMO:-0}" != 1 ]; then

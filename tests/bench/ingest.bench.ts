@@ -10,9 +10,11 @@
  * Reports; asserts nothing. Everything runs on 127.0.0.1 and stops by itself.
  */
 import { readFileSync } from 'node:fs';
+import http from 'node:http';
 import { Readable } from 'node:stream';
 import mysql from 'mysql2/promise';
 import { startBenchStack } from './support/bench-stack.ts';
+import { processCpuSeconds } from './support/process-cpu.ts';
 import { onLargestPlan } from '../support/largest-plan.ts';
 import { createLabsRepo } from '../../server/db/labs.repo.ts';
 import { createLoggersService } from '../../server/services/loggers.service.ts';
@@ -69,21 +71,28 @@ async function measureApiAndLoadData(stack: Awaited<ReturnType<typeof startBench
       }),
     );
     const sent = LOGGERS * perLogger * BATCH;
+    // Each logger keeps one connection open, as a real logger would.
+    const agent = new http.Agent({ keepAlive: true, maxSockets: LOGGERS });
     let accepted = 0;
     let failures = 0;
+    const cpuBefore = { app: processCpuSeconds(stack.app.pid!), db: processCpuSeconds(stack.dbPid), bench: process.cpuUsage() };
     const started = performance.now();
     await Promise.all(
       loggers.map(async (lg, l) => {
         for (const body of bodies[l]) {
-          const res = await fetch(`${stack.appUrl}/api/v1/ingest`, { method: 'POST', headers: { authorization: `Bearer ${lg.key}`, 'content-type': 'application/json' }, body });
-          if (!res.ok) failures++;
-          else accepted += ((await res.json()) as { accepted: number }).accepted;
+          const res = await postJson(agent, `${stack.appUrl}/api/v1/ingest`, lg.key, body);
+          if (res.status !== 200) failures++;
+          else accepted += (JSON.parse(res.text) as { accepted: number }).accepted;
         }
       }),
     );
     const apiSeconds = (performance.now() - started) / 1000;
     const apiRate = sent / apiSeconds;
+    const benchCpu = process.cpuUsage(cpuBefore.bench);
     console.log(`POST /api/v1/ingest: ${sent.toLocaleString('en')} readings (${LOGGERS} loggers × ${CHANNELS} channels, batches of ${BATCH}) in ${apiSeconds.toFixed(2)} s → ${Math.round(apiRate).toLocaleString('en')} readings/s (accepted ${accepted.toLocaleString('en')}, failed batches ${failures})`);
+    // CPU each process spent on it: on a 2-core machine the sum over wall time shows how close to saturation the run was.
+    const cpu = { app: processCpuSeconds(stack.app.pid!) - cpuBefore.app, db: processCpuSeconds(stack.dbPid) - cpuBefore.db, bench: (benchCpu.user + benchCpu.system) / 1e6 };
+    console.log(`  CPU seconds: app ${cpu.app.toFixed(2)}, MariaDB ${cpu.db.toFixed(2)}, benchmark client ${cpu.bench.toFixed(2)} (${((cpu.app + cpu.db + cpu.bench) / apiSeconds).toFixed(2)} cores busy on average)`);
 
     // The same rows through LOAD DATA LOCAL INFILE into an identical table.
     await stack.db.raw('CREATE TABLE readings_load_copy LIKE readings');
@@ -112,6 +121,24 @@ async function measureApiAndLoadData(stack: Awaited<ReturnType<typeof startBench
     console.log(`LOAD DATA LOCAL INFILE (same rows, ${BATCH}-row chunks): ${loadSeconds.toFixed(2)} s → ${Math.round(loadRate).toLocaleString('en')} rows/s`);
     console.log(`ratio API / LOAD DATA: ${(apiRate / loadRate).toFixed(2)} (target ≥ 0.35); API rate target ≥ 150,000 readings/s`);
   }
+}
+
+/**
+ * POSTs a JSON body with node:http. The load generator shares the machine's two cores with the
+ * server and the database, so it uses the leanest client Node has (fetch took about twice
+ * the CPU for the same requests); loggers in the field run on their own hardware.
+ */
+function postJson(agent: http.Agent, url: string, key: string, body: string): Promise<{ status: number; text: string }> {
+  return new Promise((resolve, reject) => {
+    const req = http.request(url, { method: 'POST', agent, headers: { authorization: `Bearer ${key}`, 'content-type': 'application/json', 'content-length': Buffer.byteLength(body) } }, (res) => {
+      const parts: Buffer[] = [];
+      res.on('data', (b: Buffer) => parts.push(b));
+      res.on('end', () => resolve({ status: res.statusCode ?? 0, text: Buffer.concat(parts).toString() }));
+      res.on('error', reject);
+    });
+    req.on('error', reject);
+    req.end(body);
+  });
 }
 
 async function measureUpload(

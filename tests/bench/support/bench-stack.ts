@@ -4,6 +4,7 @@
  * in a child process (so the load generator does not share its event loop).
  */
 import { spawn, type ChildProcess } from 'node:child_process';
+import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { createDb, type Db } from '../../../server/db/create-db.ts';
 import { migrateToLatest } from '../../../server/db/migrate.ts';
@@ -17,18 +18,25 @@ export interface BenchStack {
   dbConfig: Config['db'];
   appUrl: string;
   app: ChildProcess;
+  /** The private MariaDB server's process id (for CPU accounting). */
+  dbPid: number;
+  /** Runs SQL as the server's root user (see PrivateMariaDb.asRoot). */
+  asRoot(sql: string): Promise<string>;
   stop(): Promise<void>;
 }
 
 /** The private database, its schema and one app process; `stop()` removes all three. */
 export async function startBenchStack(): Promise<BenchStack> {
-  const server = await startPrivateMariaDb('lagbook_bench');
+  // BENCH_DB_ARGS passes extra mariadbd options, e.g. "--performance-schema=ON" to see where its time goes.
+  const server = await startPrivateMariaDb('lagbook_bench', { serverArgs: (process.env.BENCH_DB_ARGS ?? '').split(' ').filter(Boolean) });
   const dbConfig = server.dbConfig;
   const db = createDb(dbConfig);
   await migrateToLatest(db);
   const [appPort] = freePorts(1);
-  // BENCH_APP_NODE_ARGS passes extra flags to the app's node, e.g. "--cpu-prof --cpu-prof-dir=/tmp/p" to profile it.
-  const extraArgs = (process.env.BENCH_APP_NODE_ARGS ?? '').split(' ').filter(Boolean);
+  // The app runs with the production server's V8 flags (package.json "config.serverNodeFlags");
+  // BENCH_APP_NODE_ARGS adds more, e.g. "--cpu-prof --cpu-prof-dir=/tmp/p" to profile it.
+  const serverFlags = (JSON.parse(readFileSync(join(ROOT, 'package.json'), 'utf8')) as { config: { serverNodeFlags: string } }).config.serverNodeFlags;
+  const extraArgs = `${serverFlags} ${process.env.BENCH_APP_NODE_ARGS ?? ''}`.split(' ').filter(Boolean);
   const app = spawn('node', [...extraArgs, '--import', 'tsx', join(ROOT, 'tests/support/app-server-entry.ts')], {
     env: { ...server.env, APP_PORT: String(appPort), APP_DB: JSON.stringify(dbConfig) },
     stdio: ['ignore', 'inherit', 'inherit'],
@@ -47,6 +55,8 @@ export async function startBenchStack(): Promise<BenchStack> {
     dbConfig,
     appUrl,
     app,
+    asRoot: (sql) => server.asRoot(sql),
+    dbPid: Number(readFileSync(join(server.env.LAGBOOK_DB_DIR!, 'mysqld.pid'), 'utf8').trim()),
     async stop() {
       app.kill('SIGTERM');
       await db.destroy();
