@@ -3,11 +3,27 @@ import type { LabScope, DbOrTrx } from './tenant-scope.ts';
 import { executeArrays } from './execute-arrays.ts';
 import { loadDataRows } from './load-data-rows.ts';
 
-export interface ReadingRow {
-  channelId: number;
-  ts: number;
-  value: number;
+/**
+ * Readings in columns, `length` of them: reading i is (channelId[i], ts[i], value[i]), ts in
+ * epoch ms. Batches are handed over this way rather than as one object per reading (see
+ * services/ingest/batch-candidates.ts).
+ */
+export interface ReadingColumns {
+  length: number;
+  channelId: Float64Array;
+  ts: Float64Array;
+  value: Float64Array;
 }
+
+/** Readings from..to (exclusive) of `cols`, as views on the same memory. */
+export function sliceColumns(cols: ReadingColumns, from: number, to: number): ReadingColumns {
+  return { length: to - from, channelId: cols.channelId.subarray(from, to), ts: cols.ts.subarray(from, to), value: cols.value.subarray(from, to) };
+}
+
+type RollupRow = [tenantId: number, channelId: number, resolutionS: number, bucketStart: number, min: number, max: number, sum: number, count: number];
+
+/** Start of the bucket of width `ms` that holds `t` (floor, also for times before 1970). */
+const bucketOf = (t: number, ms: number) => t - (((t % ms) + ms) % ms);
 
 /** Rollup resolutions in seconds, finest first; each is computed from the one before it. */
 export const ROLLUP_RESOLUTIONS_S = [60, 3600, 86400] as const;
@@ -33,13 +49,22 @@ export function readingsIn(scope: LabScope, db: DbOrTrx) {
      * load-data-rows.ts); where the server refuses local infile, one bound multi-row INSERT
      * (bindings, never string-built SQL).
      */
-    async insertNew(rows: ReadingRow[]): Promise<number> {
+    async insertNew(rows: ReadingColumns): Promise<number> {
       if (rows.length === 0) return 0;
       let tsv = '';
-      for (const r of rows) tsv += `${tenantId}\t${r.channelId}\t${r.ts}\t${r.value}\n`;
+      let prefix = '';
+      let prefixFor = Number.NaN;
+      for (let i = 0; i < rows.length; i++) {
+        const channelId = rows.channelId[i];
+        if (channelId !== prefixFor) {
+          prefixFor = channelId;
+          prefix = `${tenantId}\t${channelId}\t`;
+        }
+        tsv += `${prefix}${rows.ts[i]}\t${rows.value[i]}\n`;
+      }
       const loaded = await loadDataRows(db as Knex, 'readings', ['tenant_id', 'channel_id', 'ts', 'value'], tsv);
       if (loaded !== null) return loaded;
-      const values = rows.map((r) => [tenantId, r.channelId, r.ts, r.value]);
+      const values = Array.from({ length: rows.length }, (_, i) => [tenantId, rows.channelId[i], rows.ts[i], rows.value[i]]);
       const [result] = await db.raw('INSERT IGNORE INTO readings (tenant_id, channel_id, ts, value) VALUES ?', [values] as never);
       return Number((result as { affectedRows: number }).affectedRows);
     },
@@ -67,27 +92,42 @@ export function readingsIn(scope: LabScope, db: DbOrTrx) {
      * is stored (LEAST, GREATEST, +). Exact only when every row given was new — the caller
      * uses `refreshRollups` otherwise. One statement for every resolution, no scan of readings.
      */
-    async addToRollups(rows: ReadingRow[]): Promise<void> {
+    async addToRollups(rows: ReadingColumns): Promise<void> {
       if (rows.length === 0) return;
-      // Rows come sorted by channel, then time, so each bucket is one run of neighbours. (Were
-      // they not, a bucket would appear more than once; the upsert below merges such repeats
-      // correctly, only less cheaply.) Every resolution goes into one statement.
-      const values: Array<[number, number, number, number, number, number, number, number]> = [];
-      for (const res of ROLLUP_RESOLUTIONS_S) {
+      // Rows come sorted by channel, then time, so each minute bucket is one run of neighbours
+      // (were they not, a bucket would appear more than once; the upsert below merges such
+      // repeats correctly, only less cheaply). Each coarser resolution folds the one before it.
+      const [finest, ...coarser] = ROLLUP_RESOLUTIONS_S;
+      let level: RollupRow[] = [];
+      const finestMs = finest * 1000;
+      for (let i = 0; i < rows.length; i++) {
+        const channelId = rows.channelId[i];
+        const v = rows.value[i];
+        const b = bucketOf(rows.ts[i], finestMs);
+        const open = level[level.length - 1];
+        if (open && open[1] === channelId && open[3] === b) {
+          if (v < open[4]) open[4] = v;
+          if (v > open[5]) open[5] = v;
+          open[6] += v;
+          open[7] += 1;
+        } else level.push([tenantId, channelId, finest, b, v, v, v, 1]);
+      }
+      const values = level;
+      for (const res of coarser) {
         const ms = res * 1000;
-        let open: (typeof values)[number] | null = null;
-        for (const r of rows) {
-          const b = r.ts - (((r.ts % ms) + ms) % ms);
-          if (open && open[1] === r.channelId && open[3] === b) {
-            if (r.value < open[4]) open[4] = r.value;
-            if (r.value > open[5]) open[5] = r.value;
-            open[6] += r.value;
-            open[7] += 1;
-          } else {
-            open = [tenantId, r.channelId, res, b, r.value, r.value, r.value, 1];
-            values.push(open);
-          }
+        const folded: RollupRow[] = [];
+        for (const r of level) {
+          const b = bucketOf(r[3], ms);
+          const open = folded[folded.length - 1];
+          if (open && open[1] === r[1] && open[3] === b) {
+            if (r[4] < open[4]) open[4] = r[4];
+            if (r[5] > open[5]) open[5] = r[5];
+            open[6] += r[6];
+            open[7] += r[7];
+          } else folded.push([tenantId, r[1], res, b, r[4], r[5], r[6], r[7]]);
         }
+        values.push(...folded);
+        level = folded;
       }
       await db.raw(
         `INSERT INTO reading_rollups (tenant_id, channel_id, resolution_s, bucket_start, min_value, max_value, sum_value, count_value)
@@ -109,7 +149,7 @@ export function readingsIn(scope: LabScope, db: DbOrTrx) {
       let source: 'raw' | number = 'raw';
       for (const res of ROLLUP_RESOLUTIONS_S) {
         const ms = res * 1000;
-        const buckets = [...new Set(times.map((t) => t - (((t % ms) + ms) % ms)))].sort((a, b) => a - b);
+        const buckets = [...new Set(times.map((t) => bucketOf(t, ms)))].sort((a, b) => a - b);
         for (const [first, last] of runsOf(buckets, ms * 4)) {
           const range = [tenantId, ...channelIds, first, last + ms];
           const inList = channelIds.map(() => '?').join(', ');

@@ -3,7 +3,8 @@ import type { Db } from '../../db/create-db.ts';
 import { inLab } from '../../db/tenant-scope.ts';
 import { channelsIn } from '../../db/channels.repo.ts';
 import { loggersIn } from '../../db/loggers.repo.ts';
-import { readingsIn, type ReadingRow } from '../../db/readings.repo.ts';
+import { readingsIn, sliceColumns } from '../../db/readings.repo.ts';
+import { BatchCandidates } from './batch-candidates.ts';
 import { quarantineIn, type QuarantineInput } from '../../db/quarantine.repo.ts';
 import { parseReadingTime, type TimeFormat } from './parse-reading-time.ts';
 import { isLockConflict } from '../../db/db-errors.ts';
@@ -125,25 +126,12 @@ async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[]
   };
 
   // 1. Read and check each row; keep the first value per (channel, ts) in this batch.
-  const candidates: Array<ReadingRow & { row: IncomingReading }> = [];
-  // Loggers send each channel's readings in time order: while a channel's times only rise, no
-  // row can repeat an earlier one, so only its newest time is kept. The first time a channel's
-  // times go back, its (time → value) map is built from the rows so far and used from then on.
-  const newestOf = new Map<number, number>();
-  const seenOf = new Map<number, Map<number, number>>();
-  const seenFor = (channelId: number) => {
-    let seen = seenOf.get(channelId);
-    if (!seen) {
-      seen = new Map();
-      for (const c of candidates) if (c.channelId === channelId) seen.set(c.ts, c.value);
-      seenOf.set(channelId, seen);
-    }
-    return seen;
-  };
+  const offered = new BatchCandidates(rows.length);
   let duplicatesInBatch = 0;
   const latestAllowed = now() + MAX_FUTURE_MS;
   const timeOptions = { format: opts.timeFormat, timeZone: opts.timeZone };
-  for (const row of rows) {
+  for (let at = 0; at < rows.length; at++) {
+    const row = rows[at];
     const key = typeof row.channel === 'string' ? row.channel.trim() : null;
     if (!key) {
       reject(row, 'missing_channel', 'channel: missing');
@@ -172,63 +160,48 @@ async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[]
       reject(row, 'bad_value', 'value: must be a finite number', time.ts);
       continue;
     }
-    const newest = newestOf.get(channel.id);
-    if (newest === undefined || time.ts > newest) {
-      newestOf.set(channel.id, time.ts);
-      seenOf.get(channel.id)?.set(time.ts, value);
-    } else {
-      const seen = seenFor(channel.id);
-      const first = seen.get(time.ts);
-      if (first !== undefined) {
-        if (Object.is(first, value) || first === value) duplicatesInBatch++;
-        else reject(row, 'conflict_in_batch', 'ts: this batch has another value for the same channel and time', time.ts);
-        continue;
-      }
-      seen.set(time.ts, value);
-    }
-    candidates.push({ channelId: channel.id, ts: time.ts, value, row });
+    const offer = offered.offer(channel.id, time.ts, value, at);
+    if (offer === 'duplicate') duplicatesInBatch++;
+    else if (offer === 'conflict') reject(row, 'conflict_in_batch', 'ts: this batch has another value for the same channel and time', time.ts);
   }
 
-  // 2. Insert what is new; only if some rows were already stored, find out which and why.
+  // 2. Insert what is new, in primary-key order; only if some rows were already stored, find out which and why.
   const readings = readingsIn(scope, trx);
-  // Primary-key order: each channel's rows go into one place of the index, not four.
-  candidates.sort((a, b) => a.channelId - b.channelId || a.ts - b.ts);
+  const { columns, rowAt, runs } = offered.sorted();
   let accepted = 0;
-  for (let i = 0; i < candidates.length; i += 5000) accepted += await readings.insertNew(candidates.slice(i, i + 5000));
+  for (let i = 0; i < columns.length; i += 5000) accepted += await readings.insertNew(sliceColumns(columns, i, Math.min(i + 5000, columns.length)));
   let duplicates = duplicatesInBatch;
-  if (accepted < candidates.length) {
-    const byChannel = new Map<number, typeof candidates>();
-    for (const c of candidates) (byChannel.get(c.channelId) ?? byChannel.set(c.channelId, []).get(c.channelId)!).push(c);
+  if (accepted < columns.length) {
     let conflicts = 0;
-    for (const [channelId, list] of byChannel) {
-      const stored = await readings.storedAt(channelId, list.map((c) => c.ts));
-      for (const c of list) {
-        const v = stored.get(c.ts);
-        if (v !== undefined && v !== c.value) {
+    for (const run of runs) {
+      const stored = await readings.storedAt(run.channelId, Array.from(columns.ts.subarray(run.from, run.to)));
+      for (let i = run.from; i < run.to; i++) {
+        const v = stored.get(columns.ts[i]);
+        if (v !== undefined && v !== columns.value[i]) {
           conflicts++;
-          reject(c.row, 'conflicts_with_stored', `value: ${c.value} differs from the value already stored for this time (${v}); the stored value was kept`, c.ts);
+          reject(rows[rowAt[i]], 'conflicts_with_stored', `value: ${columns.value[i]} differs from the value already stored for this time (${v}); the stored value was kept`, columns.ts[i]);
         }
       }
     }
-    duplicates += candidates.length - accepted - conflicts;
+    duplicates += columns.length - accepted - conflicts;
   }
 
   // 3. Rollups, channel state, quarantine, last-seen — all in the same transaction.
   if (accepted > 0) {
-    if (accepted === candidates.length) {
+    if (accepted === columns.length) {
       // every candidate is a new row: fold them into their buckets without rescanning readings
-      await readings.addToRollups(candidates);
+      await readings.addToRollups(columns);
     } else {
       // some rows were already stored: recompute the touched buckets from what is stored
-      await readings.refreshRollups([...new Set(candidates.map((c) => c.channelId))], candidates.map((c) => c.ts));
+      await readings.refreshRollups(runs.map((r) => r.channelId), Array.from(columns.ts));
     }
-    // Candidates are sorted by channel then time: the last of each channel is its latest.
-    // A channel whose rows were all duplicates still gets a version bump when another channel
-    // of the batch stored something (a spare cache miss, never a stale answer).
-    const latest = candidates.filter((c, i) => i + 1 === candidates.length || candidates[i + 1].channelId !== c.channelId);
-    await channelStateIn(scope, trx).advance(latest.map((c) => ({ channelId: c.channelId, ts: c.ts })));
+    // Each channel's run ends with its latest time. A channel whose rows were all duplicates
+    // still gets a version bump when another channel of the batch stored something (a spare
+    // cache miss, never a stale answer).
+    await channelStateIn(scope, trx).advance(runs.map((r) => ({ channelId: r.channelId, ts: columns.ts[r.to - 1] })));
   }
-  const stored: StoredBatch = { target, source: opts.source, accepted, channels: accepted > 0 ? channelSpans(candidates) : [] };
+  const spans = runs.map((r) => ({ channelId: r.channelId, oldestTs: columns.ts[r.from], newestTs: columns.ts[r.to - 1] }));
+  const stored: StoredBatch = { target, source: opts.source, accepted, channels: accepted > 0 ? spans : [] };
   // Last before the rows become final: a hook may still refuse the whole batch.
   if (opts.hooks?.beforeCommit) await opts.hooks.beforeCommit(trx, stored);
   if (quarantine.length) await quarantineIn(scope).add(quarantine);
@@ -236,15 +209,4 @@ async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[]
 
   out.sort((a, b) => a.index - b.index);
   return { outcome: { accepted, duplicates, quarantined: out }, stored };
-}
-
-/** Oldest and newest time per channel of candidates sorted by channel, then time. */
-function channelSpans(sorted: ReadonlyArray<{ channelId: number; ts: number }>): StoredBatch['channels'] {
-  const spans: StoredBatch['channels'] = [];
-  for (const c of sorted) {
-    const last = spans[spans.length - 1];
-    if (last && last.channelId === c.channelId) last.newestTs = c.ts;
-    else spans.push({ channelId: c.channelId, oldestTs: c.ts, newestTs: c.ts });
-  }
-  return spans;
 }
