@@ -10,6 +10,8 @@
 #   LAGBOOK_DB_PORT  TCP port on 127.0.0.1 (default: 4306)
 #   LAGBOOK_DB_NAME  database to create (default: lagbook)
 #   LAGBOOK_DB_EXTRA_ARGS  more server options, space-separated (tests use it, e.g. to cap the tablespace)
+# The lagbook user may connect over TCP (127.0.0.1) or through the Unix socket $LAGBOOK_DB_DIR/mysqld.sock
+# (as 'lagbook'@'localhost'; npm start's server uses the socket, see LAGBOOK_DB_SOCKET).
 # The server runs with --no-defaults so Debian's /etc/mysql settings never take over.
 set -euo pipefail
 
@@ -67,7 +69,11 @@ ensure_database() {
              CREATE USER IF NOT EXISTS 'lagbook'@'127.0.0.1' IDENTIFIED BY 'lagbook';
              GRANT ALL PRIVILEGES ON \`$DB_NAME\`.* TO 'lagbook'@'127.0.0.1';
              GRANT ALL PRIVILEGES ON \`${DB_NAME}\_%\`.* TO 'lagbook'@'127.0.0.1';
-             GRANT RELOAD, PROCESS ON *.* TO 'lagbook'@'127.0.0.1';" \
+             GRANT RELOAD, PROCESS ON *.* TO 'lagbook'@'127.0.0.1';
+             CREATE USER IF NOT EXISTS 'lagbook'@'localhost' IDENTIFIED BY 'lagbook';
+             GRANT ALL PRIVILEGES ON \`$DB_NAME\`.* TO 'lagbook'@'localhost';
+             GRANT ALL PRIVILEGES ON \`${DB_NAME}\_%\`.* TO 'lagbook'@'localhost';
+             GRANT RELOAD, PROCESS ON *.* TO 'lagbook'@'localhost';" \
     || fail "could not create database $DB_NAME"
 }
 

@@ -17,6 +17,8 @@ export LAGBOOK_PORT="${LAGBOOK_PORT:-4310}"
 export LAGBOOK_PUBLIC_URL="${LAGBOOK_PUBLIC_URL:-http://127.0.0.1:$LAGBOOK_PORT}"
 export LAGBOOK_DB_PORT="${LAGBOOK_DB_PORT:-4306}"
 export LAGBOOK_DB_NAME="${LAGBOOK_DB_NAME:-lagbook}"
+# The server and the demo loader reach MariaDB through its Unix socket (same machine; see README "Configuration").
+export LAGBOOK_DB_SOCKET="$LAGBOOK_DB_DIR/mysqld.sock"
 export LAGBOOK_CLIENT_DIR="$ROOT/dist/client"
 [ -f "$STATE_DIR/session-secret" ] || node -e "console.log(require('crypto').randomBytes(32).toString('base64url'))" > "$STATE_DIR/session-secret"
 export LAGBOOK_SESSION_SECRET="$(cat "$STATE_DIR/session-secret")"

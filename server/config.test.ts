@@ -21,6 +21,11 @@ describe('loadConfig', () => {
     expect(c.secureCookies).toBe(true);
   });
 
+  it('reaches MariaDB over TCP by default and through its Unix socket when LAGBOOK_DB_SOCKET is set', () => {
+    expect(loadConfig(valid).db).not.toHaveProperty('socketPath');
+    expect(loadConfig({ ...valid, LAGBOOK_DB_SOCKET: '/run/mysqld/mysqld.sock' }).db.socketPath).toBe('/run/mysqld/mysqld.sock');
+  });
+
   it('lists every missing setting at once, by name, without a stack of internals', () => {
     let message = '';
     try {

@@ -23,6 +23,7 @@ const envSchema = z.object({
   LAGBOOK_DB_PASSWORD: z.string().default('lagbook'),
   LAGBOOK_DB_NAME: z.string().regex(/^[A-Za-z0-9_]+$/, 'letters, digits and _ only').default('lagbook'),
   LAGBOOK_DB_POOL_MAX: z.coerce.number().int().min(1).max(200).default(10),
+  LAGBOOK_DB_SOCKET: z.string().min(1).optional(),
 
   /** Signs the session cookie; at least 32 characters. */
   LAGBOOK_SESSION_SECRET: z.string().min(32, 'must be at least 32 characters'),
@@ -61,7 +62,8 @@ export interface Config {
   publicUrl: string;
   clientDir: string | null;
   requestTimeoutS: number;
-  db: { host: string; port: number; user: string; password: string; database: string; poolMax: number };
+  /** `socketPath`, when set, is MariaDB's Unix socket on this machine and replaces host and port. */
+  db: { host: string; port: number; socketPath?: string; user: string; password: string; database: string; poolMax: number };
   sessionSecret: string;
   /** Cookies carry the Secure flag when Lagbook is reached over TLS. */
   secureCookies: boolean;
@@ -74,7 +76,7 @@ export interface Config {
 /** Only the database settings (for operator commands that need nothing else). */
 export function loadDatabaseConfig(env: NodeJS.ProcessEnv = process.env): Config['db'] & { publicUrl: string } {
   const parsed = envSchema
-    .pick({ LAGBOOK_DB_HOST: true, LAGBOOK_DB_PORT: true, LAGBOOK_DB_USER: true, LAGBOOK_DB_PASSWORD: true, LAGBOOK_DB_NAME: true, LAGBOOK_DB_POOL_MAX: true, LAGBOOK_PUBLIC_URL: true, LAGBOOK_HOST: true, LAGBOOK_PORT: true })
+    .pick({ LAGBOOK_DB_HOST: true, LAGBOOK_DB_PORT: true, LAGBOOK_DB_USER: true, LAGBOOK_DB_PASSWORD: true, LAGBOOK_DB_NAME: true, LAGBOOK_DB_POOL_MAX: true, LAGBOOK_DB_SOCKET: true, LAGBOOK_PUBLIC_URL: true, LAGBOOK_HOST: true, LAGBOOK_PORT: true })
     .safeParse(env);
   if (!parsed.success) {
     throw new ConfigError(`Invalid configuration:\n${parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`).join('\n')}`);
@@ -87,6 +89,7 @@ export function loadDatabaseConfig(env: NodeJS.ProcessEnv = process.env): Config
     password: e.LAGBOOK_DB_PASSWORD,
     database: e.LAGBOOK_DB_NAME,
     poolMax: e.LAGBOOK_DB_POOL_MAX,
+    ...(e.LAGBOOK_DB_SOCKET ? { socketPath: e.LAGBOOK_DB_SOCKET } : {}),
     publicUrl: (e.LAGBOOK_PUBLIC_URL ?? `http://${e.LAGBOOK_HOST}:${e.LAGBOOK_PORT}`).replace(/\/$/, ''),
   };
 }
@@ -119,6 +122,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
       password: e.LAGBOOK_DB_PASSWORD,
       database: e.LAGBOOK_DB_NAME,
       poolMax: e.LAGBOOK_DB_POOL_MAX,
+      ...(e.LAGBOOK_DB_SOCKET ? { socketPath: e.LAGBOOK_DB_SOCKET } : {}),
     },
     sessionSecret: e.LAGBOOK_SESSION_SECRET,
     secureCookies: publicUrl.startsWith('https://'),

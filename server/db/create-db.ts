@@ -6,13 +6,14 @@ export type Db = Knex;
 /**
  * Builds the Knex instance for MariaDB (mysql2 driver). BIGINT ids come back as numbers
  * while they fit, as strings beyond (supportBigNumbers); dates are read and written as UTC.
+ * With `socketPath` (a server on the same machine) it connects through the Unix socket, which
+ * skips the TCP stack on both sides: `npm run bench:ingest` spent less CPU per reading that way.
  */
 export function createDb(db: Config['db']): Db {
   return knex({
     client: 'mysql2',
     connection: {
-      host: db.host,
-      port: db.port,
+      ...(db.socketPath ? { socketPath: db.socketPath } : { host: db.host, port: db.port }),
       user: db.user,
       password: db.password,
       database: db.database,

@@ -4,7 +4,8 @@
  * 1. Posts 1,000,000 readings through POST /api/v1/ingest (JSON, batches of 5,000, several
  *    loggers in parallel, each logger sequential like a real one) and prints readings/s.
  * 2. Loads the same rows with MariaDB's LOAD DATA LOCAL INFILE (5,000-row chunks, from a
- *    generated stream) into an identical table and prints that rate and the ratio.
+ *    generated stream) into an identical table and prints that rate and the ratio. Both the app
+ *    and this load reach MariaDB through its Unix socket, as `npm start` runs it.
  * 3. Uploads a generated CSV file of BENCH_UPLOAD_MB megabytes (default 200) through the
  *    streaming upload route and prints the server's resident memory before, at peak and after.
  * Reports; asserts nothing. Everything runs on 127.0.0.1 and stops by itself.
@@ -96,7 +97,8 @@ async function measureApiAndLoadData(stack: Awaited<ReturnType<typeof startBench
 
     // The same rows through LOAD DATA LOCAL INFILE into an identical table.
     await stack.db.raw('CREATE TABLE readings_load_copy LIKE readings');
-    const conn = await mysql.createConnection({ host: '127.0.0.1', port: stack.dbConfig.port, user: 'lagbook', password: 'lagbook', database: stack.dbConfig.database, flags: ['+LOCAL_FILES'] });
+    // over the same Unix socket as the app, so both rates pay the same transport
+    const conn = await mysql.createConnection({ socketPath: stack.dbConfig.socketPath, user: 'lagbook', password: 'lagbook', database: stack.dbConfig.database, flags: ['+LOCAL_FILES'] });
     const chunks: Buffer[] = [];
     for (let l = 0; l < LOGGERS; l++) {
       for (let b = 0; b < perLogger; b++) {

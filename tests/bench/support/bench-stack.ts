@@ -29,7 +29,8 @@ export interface BenchStack {
 export async function startBenchStack(): Promise<BenchStack> {
   // BENCH_DB_ARGS passes extra mariadbd options, e.g. "--performance-schema=ON" to see where its time goes.
   const server = await startPrivateMariaDb('lagbook_bench', { serverArgs: (process.env.BENCH_DB_ARGS ?? '').split(' ').filter(Boolean) });
-  const dbConfig = server.dbConfig;
+  // Through MariaDB's Unix socket, as `npm start` runs the server (LAGBOOK_DB_SOCKET).
+  const dbConfig = { ...server.dbConfig, socketPath: join(server.env.LAGBOOK_DB_DIR!, 'mysqld.sock') };
   const db = createDb(dbConfig);
   await migrateToLatest(db);
   const [appPort] = freePorts(1);
