@@ -1,9 +1,10 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { buildTestApp, type TestApp } from '../support/test-app.ts';
 import type { TestLab } from '../support/factories.ts';
-import { keepScreenshot, launchBrowser } from '../support/browser.ts';
+import { keepScreenshot } from '../support/browser.ts';
+import { browserSuite } from '../support/browser-suite.ts';
 import { signInAsMemberOfNewLab } from '../support/browser-lab-member.ts';
+import { createLoggersService } from '../../server/services/loggers.service.ts';
 import { ingestBatch, type IncomingReading } from '../../server/services/ingest/ingest-batch.ts';
 import { DEV_ACCOUNTS } from '../../docker-free-scripts/identity-provider/dev-accounts.ts';
 import { onLargestPlan } from '../support/largest-plan.ts';
@@ -40,32 +41,29 @@ function simulate(): { flow: number[]; moisture: number[] } {
   return { flow, moisture };
 }
 
-let t: TestApp;
-let appUrl: string;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
+const suite = browserSuite();
 let page: Page;
 let lab: TestLab;
 let soilId = 0;
 
 beforeAll(async () => {
-  t = await buildTestApp();
-  appUrl = await t.listen();
-  browser = await launchBrowser();
-  await browser.context.clearCookies();
-  page = await browser.context.newPage();
-
+  page = await suite.freshPage();
   // First sign-in creates the scientist's user row; then make that person a scientist of a fresh lab.
-  lab = await signInAsMemberOfNewLab(t, page, appUrl, scientist, { name: `Quincewood Orchard ${run}`, role: 'scientist' });
-  await onLargestPlan(t.db, lab.id); // a year of readings: more history than the free plan shows
+  lab = await signInAsMemberOfNewLab(suite.t, page, suite.appUrl, scientist, { name: `Quincewood Orchard ${run}`, role: 'scientist' });
+  await onLargestPlan(suite.t.db, lab.id); // a year of readings: more history than the free plan shows
 
-  const id = () => Math.floor(Math.random() * 2 ** 40) + 1;
-  const loggerId = id();
-  await t.db('loggers').insert({ tenant_id: lab.id, id: loggerId, name: `Row 7 mast ${run}`, site: 'Quince rows, east block', timezone: 'Europe/Lisbon', expected_interval_s: 300 });
-  soilId = id();
-  await t.db('channels').insert([
-    { tenant_id: lab.id, id: id(), logger_id: loggerId, channel_key: 'drip_flow', label: 'Drip irrigation flow', unit: 'L/h', valid_min: 0, valid_max: 400 },
-    { tenant_id: lab.id, id: soilId, logger_id: loggerId, channel_key: 'soil_vwc', label: 'Soil moisture', unit: '%', valid_min: 0, valid_max: 60 },
-  ]);
+  // the logger is registered as a technician would (the scientist only reads)
+  const { logger } = await createLoggersService({ db: suite.t.db }).register({ ...lab, createdAt: new Date(), role: 'technician' }, null, {
+    name: `Row 7 mast ${run}`,
+    site: 'Quince rows, east block',
+    timezone: 'Europe/Lisbon',
+    expectedIntervalS: 300,
+    channels: [
+      { key: 'drip_flow', label: 'Drip irrigation flow', unit: 'L/h', validMin: 0, validMax: 400 },
+      { key: 'soil_vwc', label: 'Soil moisture', unit: '%', validMin: 0, validMax: 60 },
+    ],
+  });
+  soilId = logger.channels.find((c) => c.key === 'soil_vwc')!.id;
   const { flow, moisture } = simulate();
   const end = Math.floor(Date.now() / STEP_MS) * STEP_MS;
   const start = end - (N - 1) * STEP_MS;
@@ -75,13 +73,9 @@ beforeAll(async () => {
     rows.push({ index: rows.length, channel: 'soil_vwc', ts: start + i * STEP_MS, value: Math.round(moisture[i] * 1000) / 1000 });
   }
   for (let i = 0; i < rows.length; i += 1000) {
-    const outcome = await ingestBatch(t.db, { tenantId: lab.id, loggerId }, rows.slice(i, i + 1000), { source: 'api' });
+    const outcome = await ingestBatch(suite.t.db, { tenantId: lab.id, loggerId: logger.id }, rows.slice(i, i + 1000), { source: 'api' });
     expect(outcome.quarantined).toEqual([]);
   }
-});
-afterAll(async () => {
-  await browser?.close();
-  await t?.close();
 });
 
 const chartsReady = (scope: ReturnType<Page['locator']>, count: number) =>
@@ -91,7 +85,7 @@ const chartsReady = (scope: ReturnType<Page['locator']>, count: number) =>
 
 describe('browsing channels and reading their diagnostics', () => {
   it('lists the channels with status and sparkline, and opens one from the keyboard with visible focus', async () => {
-    await page.goto(`${appUrl}/labs/${lab.slug}`);
+    await page.goto(`${suite.appUrl}/labs/${lab.slug}`);
     await page.getByRole('navigation', { name: 'Lab sections' }).getByRole('link', { name: 'Channels' }).click();
     const table = page.getByRole('table', { name: 'Channels of the lab' });
     await table.getByRole('link', { name: 'Soil moisture' }).waitFor();
@@ -117,7 +111,7 @@ describe('browsing channels and reading their diagnostics', () => {
     expect(focus).toEqual({ visible: true, outline: 'solid', width: '3px' });
     await keepScreenshot(page, 'channels-keyboard-focus');
     await page.keyboard.press('Enter');
-    await page.waitForURL(`${appUrl}/labs/${lab.slug}/channels/${soilId}`);
+    await page.waitForURL(`${suite.appUrl}/labs/${lab.slug}/channels/${soilId}`);
   });
 
   it('draws the readings chart in the logger’s time zone', async () => {

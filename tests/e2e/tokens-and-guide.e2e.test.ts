@@ -1,11 +1,11 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { execFile } from 'node:child_process';
 import { promisify } from 'node:util';
 import request from 'supertest';
 import type { Page } from 'playwright-core';
-import { buildTestApp, type TestApp } from '../support/test-app.ts';
 import { buildLab, buildMember, sessionCookieFor, type TestLab } from '../support/factories.ts';
-import { keepScreenshot, launchBrowser } from '../support/browser.ts';
+import { keepScreenshot } from '../support/browser.ts';
+import { browserSuite } from '../support/browser-suite.ts';
 
 /**
  * Personal tokens and the logger set-up guide, end to end in Debian's Chromium against the real
@@ -18,9 +18,7 @@ import { keepScreenshot, launchBrowser } from '../support/browser.ts';
 // A fictional lab and logger, named afresh on every run.
 const run = Date.now().toString(36);
 
-let t: TestApp;
-let appUrl: string;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
+const suite = browserSuite();
 let page: Page;
 let lab: TestLab;
 let techCookie: string;
@@ -29,17 +27,15 @@ let loggerId: number;
 /** Signs the browser in as `cookie` (a `name=value` session cookie), replacing whoever was signed in. */
 async function signInAs(cookie: string) {
   const [name, value] = [cookie.slice(0, cookie.indexOf('=')), cookie.slice(cookie.indexOf('=') + 1)];
-  await browser.context.clearCookies();
-  await browser.context.addCookies([{ name, value, url: appUrl }]);
+  await suite.browser.context.clearCookies();
+  await suite.browser.context.addCookies([{ name, value, url: suite.appUrl }]);
 }
 
 beforeAll(async () => {
-  t = await buildTestApp();
-  appUrl = await t.listen();
-  lab = await buildLab(t.db, { name: `Quillmere Aquatics Lab ${run}` });
-  const tech = await buildMember(t.db, lab, { role: 'technician', displayName: 'Ines Varga' });
-  techCookie = await sessionCookieFor(t.db, t.config.sessionSecret, tech.id);
-  const made = await request(t.app)
+  lab = await buildLab(suite.t.db, { name: `Quillmere Aquatics Lab ${run}` });
+  const tech = await buildMember(suite.t.db, lab, { role: 'technician', displayName: 'Ines Varga' });
+  techCookie = await sessionCookieFor(suite.t.db, suite.t.config.sessionSecret, tech.id);
+  const made = await request(suite.t.app)
     .post(`/api/v1/labs/${lab.slug}/loggers`)
     .set('Cookie', techCookie)
     .send({
@@ -53,21 +49,16 @@ beforeAll(async () => {
     })
     .expect(201);
   loggerId = made.body.logger.id;
-  browser = await launchBrowser();
-  page = await browser.context.newPage();
-});
-afterAll(async () => {
-  await browser?.close();
-  await t?.close();
+  page = await suite.browser.context.newPage();
 });
 
 describe('personal tokens in the browser', () => {
   it('a scientist makes a token; a script reads the channels with it and is refused a write', async () => {
-    const scientist = await buildMember(t.db, lab, { role: 'scientist', displayName: 'Oren Malick' });
-    await signInAs(await sessionCookieFor(t.db, t.config.sessionSecret, scientist.id));
-    await page.goto(`${appUrl}/labs/${lab.slug}`);
+    const scientist = await buildMember(suite.t.db, lab, { role: 'scientist', displayName: 'Oren Malick' });
+    await signInAs(await sessionCookieFor(suite.t.db, suite.t.config.sessionSecret, scientist.id));
+    await page.goto(`${suite.appUrl}/labs/${lab.slug}`);
     await page.getByRole('navigation', { name: 'Lab sections' }).getByRole('link', { name: 'API tokens' }).click();
-    await page.waitForURL(`${appUrl}/labs/${lab.slug}/tokens`);
+    await page.waitForURL(`${suite.appUrl}/labs/${lab.slug}/tokens`);
     await page.getByText('No tokens yet: make one for a notebook or a script.').waitFor();
     await page.getByLabel('What is it for?').fill('Tank notebook');
     await page.getByLabel('Expires after (days)').fill('30');
@@ -75,15 +66,15 @@ describe('personal tokens in the browser', () => {
     const token = (await page.getByTestId('issued-token').textContent())!;
     expect(token).toMatch(/^lbt_[0-9a-f]{12}_[A-Za-z0-9_-]{43}$/);
     await page.getByRole('table', { name: 'Your personal API tokens in this lab' }).getByText('Tank notebook').waitFor();
-    expect(await page.getByTestId('lab-api-base').textContent()).toBe(`${appUrl}/api/v1/labs/${lab.slug}`);
-    expect(await page.getByTestId('notebook-python').textContent()).toContain(`BASE = "${appUrl}/api/v1/labs/${lab.slug}"`);
+    expect(await page.getByTestId('lab-api-base').textContent()).toBe(`${suite.appUrl}/api/v1/labs/${lab.slug}`);
+    expect(await page.getByTestId('notebook-python').textContent()).toContain(`BASE = "${suite.appUrl}/api/v1/labs/${lab.slug}"`);
     await keepScreenshot(page, 'tokens-made-once');
 
     // No cookie: only the token.
-    const read = await fetch(`${appUrl}/api/v1/labs/${lab.slug}/channels`, { headers: { Authorization: `Bearer ${token}` } });
+    const read = await fetch(`${suite.appUrl}/api/v1/labs/${lab.slug}/channels`, { headers: { Authorization: `Bearer ${token}` } });
     expect(read.status).toBe(200);
     expect(((await read.json()) as { channels: Array<{ key: string }> }).channels.map((c) => c.key).sort()).toEqual(['do.sat', 'tank_t']);
-    const write = await fetch(`${appUrl}/api/v1/labs/${lab.slug}/loggers`, {
+    const write = await fetch(`${suite.appUrl}/api/v1/labs/${lab.slug}/loggers`, {
       method: 'POST',
       headers: { Authorization: `Bearer ${token}`, 'Content-Type': 'application/json' },
       body: JSON.stringify({ name: 'Sneaky', timezone: 'UTC', expectedIntervalS: 60 }),
@@ -99,7 +90,7 @@ describe('personal tokens in the browser', () => {
 
   it('the header’s API link opens the reference built from the server’s own document', async () => {
     await page.getByRole('link', { name: 'API', exact: true }).click();
-    await page.waitForURL(`${appUrl}/api-reference`);
+    await page.waitForURL(`${suite.appUrl}/api-reference`);
     await page.getByRole('heading', { level: 1, name: 'Lagbook API' }).waitFor();
     const op = page.getByRole('article', { name: 'post /api/v1/labs/{lab}/loggers/{loggerId}/test-reading' });
     expect(await op.textContent()).toContain('needs the permission loggers.manage');
@@ -115,22 +106,22 @@ describe('personal tokens in the browser', () => {
 describe('the logger set-up panel', () => {
   it('a technician sends a test reading and sees the value stored and read back', async () => {
     await signInAs(techCookie);
-    await page.goto(`${appUrl}/labs/${lab.slug}/loggers/${loggerId}`);
+    await page.goto(`${suite.appUrl}/labs/${lab.slug}/loggers/${loggerId}`);
     await page.getByRole('heading', { name: 'Set up this logger' }).waitFor();
-    expect(await page.getByTestId('ingest-endpoint').textContent()).toBe(`POST ${appUrl}/api/v1/ingest`);
+    expect(await page.getByTestId('ingest-endpoint').textContent()).toBe(`POST ${suite.appUrl}/api/v1/ingest`);
     await page.getByLabel('Channel', { exact: true }).selectOption('do.sat');
     await page.getByLabel('Value', { exact: true }).fill('87.25');
     await page.getByRole('button', { name: 'Send a test reading' }).click();
     expect(await page.getByTestId('stored-value').textContent()).toBe('87.25');
     expect(await page.getByTestId('test-reading-result').textContent()).toMatch(/Round trip\s*[\d.]+ ms/);
     await keepScreenshot(page, 'logger-test-reading');
-    const channel = await t.db('channels').where({ tenant_id: lab.id, logger_id: loggerId, channel_key: 'do.sat' }).first();
-    const stored = await t.db('readings').where({ tenant_id: lab.id, channel_id: channel.id });
+    const channel = await suite.t.db('channels').where({ tenant_id: lab.id, logger_id: loggerId, channel_key: 'do.sat' }).first();
+    const stored = await suite.t.db('readings').where({ tenant_id: lab.id, channel_id: channel.id });
     expect(stored.map((r: { value: number }) => r.value)).toEqual([87.25]);
   });
 
   it('the curl example on the page, run as printed with a real key in $LAGBOOK_INGEST_KEY, stores a reading per channel', async () => {
-    const issued = await request(t.app).post(`/api/v1/labs/${lab.slug}/loggers/${loggerId}/keys`).set('Cookie', techCookie).send({ rotate: false }).expect(201);
+    const issued = await request(suite.t.app).post(`/api/v1/labs/${lab.slug}/loggers/${loggerId}/keys`).set('Cookie', techCookie).send({ rotate: false }).expect(201);
     const key: string = issued.body.ingestKey.key;
     const command = (await page.getByTestId('setup-curl').textContent())!;
     expect(command).toContain('$LAGBOOK_INGEST_KEY');
@@ -139,7 +130,7 @@ describe('the logger set-up panel', () => {
     const { stdout } = await promisify(execFile)('bash', ['-c', command], { encoding: 'utf8', timeout: 20_000, env: { PATH: process.env.PATH ?? '', LAGBOOK_INGEST_KEY: key } });
     expect(JSON.parse(stdout)).toEqual({ accepted: 2, duplicates: 0, quarantined: [] });
     const ts = Date.parse(JSON.parse(/-d '([^']*)'/.exec(command)![1]).readings[0].ts);
-    const rows = await t.db('readings').join('channels', function () {
+    const rows = await suite.t.db('readings').join('channels', function () {
       this.on('channels.tenant_id', 'readings.tenant_id').andOn('channels.id', 'readings.channel_id');
     }).where({ 'readings.tenant_id': lab.id, 'readings.ts': ts, 'channels.logger_id': loggerId }).select('channels.channel_key as key', 'readings.value as value');
     expect(rows.map((r: { key: string; value: number }) => [r.key, r.value]).sort()).toEqual([

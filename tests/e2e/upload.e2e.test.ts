@@ -1,10 +1,10 @@
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { execFile } from 'node:child_process';
 import { promisify } from 'node:util';
 import type { Page } from 'playwright-core';
-import { buildTestApp, type TestApp } from '../support/test-app.ts';
 import type { TestLab } from '../support/factories.ts';
-import { keepScreenshot, launchBrowser } from '../support/browser.ts';
+import { keepScreenshot } from '../support/browser.ts';
+import { browserSuite } from '../support/browser-suite.ts';
 import { signInAsMemberOfNewLab } from '../support/browser-lab-member.ts';
 import { DEV_ACCOUNTS } from '../../docker-free-scripts/identity-provider/dev-accounts.ts';
 
@@ -33,39 +33,28 @@ function exportFile(): string {
   return `${lines.join('\n')}\n`;
 }
 
-let t: TestApp;
-let appUrl: string;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
+const suite = browserSuite();
 let page: Page;
 let lab: TestLab;
 let loggerId = 0;
 
 beforeAll(async () => {
-  t = await buildTestApp();
-  appUrl = await t.listen();
-  browser = await launchBrowser();
-  await browser.context.clearCookies();
-  page = await browser.context.newPage();
-
+  page = await suite.freshPage();
   // Sign in once through the provider, so Lagbook creates the technician's user row; then
   // make that person a technician of a fresh lab.
-  lab = await signInAsMemberOfNewLab(t, page, appUrl, technician, { name: `Reedbank Wetland Station ${run}`, role: 'technician' });
-});
-afterAll(async () => {
-  await browser?.close();
-  await t?.close();
+  lab = await signInAsMemberOfNewLab(suite.t, page, suite.appUrl, technician, { name: `Reedbank Wetland Station ${run}`, role: 'technician' });
 });
 
 const digits = async (id: string) => Number(((await page.getByTestId(`summary-${id}`).textContent()) ?? '').replace(/\D/g, ''));
 
 describe('registering a logger and uploading its history through the browser', () => {
   it('a technician registers a logger with two channels and sees its key once, with a command that works', async () => {
-    await page.goto(`${appUrl}/labs/${lab.slug}`);
+    await page.goto(`${suite.appUrl}/labs/${lab.slug}`);
     expect(await page.getByTestId('lab-role').textContent()).toBe('Your role: Technician');
     await page.getByRole('navigation', { name: 'Lab sections' }).getByRole('link', { name: 'Loggers' }).click();
     await page.getByText('No loggers yet.').waitFor();
     await page.getByRole('link', { name: 'Register a logger' }).click();
-    await page.waitForURL(`${appUrl}/labs/${lab.slug}/loggers/new`);
+    await page.waitForURL(`${suite.appUrl}/labs/${lab.slug}/loggers/new`);
 
     await page.getByLabel('Name', { exact: true }).fill(loggerName);
     await page.getByLabel('Site').fill('Reed bed, north transect');
@@ -111,7 +100,7 @@ describe('registering a logger and uploading its history through the browser', (
   it('uploads a wide export, maps its columns, and gets the counts and the quarantined line', async () => {
     expect(loggerId).toBeGreaterThan(0);
     await page.getByRole('link', { name: 'Upload historical data' }).click();
-    await page.waitForURL(`${appUrl}/labs/${lab.slug}/loggers/${loggerId}/upload`);
+    await page.waitForURL(`${suite.appUrl}/labs/${lab.slug}/loggers/${loggerId}/upload`);
     await page.getByLabel('Export file (CSV, up to 2 GB)').setInputFiles({ name: 'reedbank-mast-2026-09.csv', mimeType: 'text/csv', buffer: Buffer.from(exportFile()) });
     await page.getByRole('table', { name: /First 10 rows of reedbank-mast-2026-09\.csv/ }).waitFor();
     expect(await page.getByLabel('Delimiter').inputValue()).toBe(',');
@@ -139,7 +128,7 @@ describe('registering a logger and uploading its history through the browser', (
 
   it('opens the quarantine filtered to the logger, fixes the bad row, re-submits it and sees it stored', async () => {
     await page.getByRole('link', { name: 'Review the quarantined rows' }).click();
-    await page.waitForURL(`${appUrl}/labs/${lab.slug}/quarantine?loggerId=${loggerId}`);
+    await page.waitForURL(`${suite.appUrl}/labs/${lab.slug}/quarantine?loggerId=${loggerId}`);
     expect(await page.getByLabel('Logger').inputValue()).toBe(String(loggerId));
     const table = page.getByRole('table', { name: 'Quarantined rows, newest first' });
     await table.getByText('ERR', { exact: true }).waitFor();
@@ -160,10 +149,10 @@ describe('registering a logger and uploading its history through the browser', (
     await keepScreenshot(page, 'upload-quarantine-resubmitted');
 
     // The fixed reading is in the readings table at the instant of its line.
-    const channel = await t.db('channels').where({ tenant_id: lab.id, logger_id: loggerId, channel_key: 'air_t' }).first();
-    const stored = await t.db('readings').where({ tenant_id: lab.id, channel_id: channel.id, ts: Date.parse(badTime) }).first();
+    const channel = await suite.t.db('channels').where({ tenant_id: lab.id, logger_id: loggerId, channel_key: 'air_t' }).first();
+    const stored = await suite.t.db('readings').where({ tenant_id: lab.id, channel_id: channel.id, ts: Date.parse(badTime) }).first();
     expect(stored?.value).toBe(16.8);
-    const [{ n }] = await t.db('readings').where({ tenant_id: lab.id }).count({ n: '*' });
+    const [{ n }] = await suite.t.db('readings').where({ tenant_id: lab.id }).count({ n: '*' });
     // 2 × 3000 cells − 1 bad + 1 fixed, plus the reading the example command sent.
     expect(Number(n)).toBe(2 * ROWS + 1);
   });
