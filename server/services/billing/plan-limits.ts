@@ -7,6 +7,7 @@ import type { IngestHooks } from '../ingest/ingest-hooks.ts';
 import { effectivePlan } from './effective-plan.ts';
 import { PlanLimitError } from './billing-errors.ts';
 import type { Plan, PlanCatalog } from './plan-catalog.ts';
+import { createUsageCounterWrites } from './usage-counter-writes.ts';
 
 /** Plan limits at the points where usage grows: ingestion, registering a logger, inviting a member. */
 export interface PlanLimitGuard {
@@ -22,17 +23,24 @@ export interface PlanLimitGuard {
  * Builds the plan-limit checks.
  *
  * Readings: `beforeCommit` runs in the batch transaction once the new rows are inserted and
- * counted (`accepted` excludes duplicates), reads the lab's counter WITHOUT a lock and refuses
- * the whole batch when `counter + accepted` would pass the limit (exactly at the limit is
- * allowed). `afterCommit` adds `accepted` to the counter in one statement. Because the counter
- * is read unlocked, two batches of one lab committing at the same moment may together pass
- * the limit by at most one batch; the usage job then reconciles the exact count and the next
- * batch is refused. Locking a per-lab row here would serialise every logger of a lab.
+ * counted (`accepted` excludes duplicates), reads the lab's counter WITHOUT a lock, adds the
+ * bumps this process has not yet written, and refuses the whole batch when that plus `accepted`
+ * would pass the limit (exactly at the limit is allowed). `afterCommit` bumps the counter by
+ * `accepted` through usage-counter-writes.ts (one write in flight per lab, bumps arriving
+ * meanwhile summed). A bump whose write has just committed may be counted twice for a moment,
+ * which errs towards refusing. Because the counter is read unlocked, batches of one lab
+ * committing at the same moment in different processes may together pass the limit by at most
+ * one batch each; the usage job then reconciles the exact count and the next batch is refused.
+ * Locking a per-lab row here would serialise every logger of a lab.
  */
 export function createPlanLimits(deps: { db: Db; catalog: PlanCatalog; logger: Logger; now?: () => Date }): PlanLimitGuard {
   const { catalog } = deps;
   const now = deps.now ?? (() => new Date());
   const billingOf = (trx: DbOrTrx, labId: number) => labBillingIn(inLab(trx, labId), trx, catalog.free.key);
+  const counterWrites = createUsageCounterWrites(
+    (labId, count) => billingOf(deps.db, labId).addReadings(count),
+    (labId, err) => deps.logger.warn('usage counter update failed; the usage job will reconcile it', { labId, err: String(err) }),
+  );
 
   async function planOf(trx: DbOrTrx, labId: number): Promise<Plan> {
     return effectivePlan(await billingOf(trx, labId).get(), catalog, now());
@@ -45,15 +53,13 @@ export function createPlanLimits(deps: { db: Db; catalog: PlanCatalog; logger: L
         if (batch.accepted === 0) return;
         const billing = await billingOf(trx, batch.target.tenantId).get();
         const plan = effectivePlan(billing, catalog, now());
-        const used = billing?.readingsCount ?? 0;
+        const used = (billing?.readingsCount ?? 0) + counterWrites.pending(batch.target.tenantId);
         if (used + batch.accepted > plan.limits.readings) {
           throw new PlanLimitError('readings', { planName: plan.name, allowed: plan.limits.readings, used, adding: batch.accepted });
         }
       },
       afterCommit(batch) {
-        billingOf(deps.db, batch.target.tenantId)
-          .addReadings(batch.accepted)
-          .catch((err: unknown) => deps.logger.warn('usage counter update failed; the usage job will reconcile it', { labId: batch.target.tenantId, err: String(err) }));
+        counterWrites.add(batch.target.tenantId, batch.accepted);
       },
     },
     async assertRoomFor(trx, labId, what) {
