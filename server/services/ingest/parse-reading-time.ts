@@ -1,3 +1,5 @@
+import { wallClockFormatter } from '../../policies/time-zones.ts';
+
 /** Result of reading one time field: epoch milliseconds, or why it could not be read. */
 export type TimeParse = { ok: true; ts: number } | { ok: false; reason: string };
 
@@ -38,18 +40,7 @@ function atOffset(w: WallTime, offset: string): number {
   return utc - sign * minutes * 60_000;
 }
 
-const formatters = new Map<string, Intl.DateTimeFormat>();
 const offsetCache = new Map<string, number>();
-
-/** One formatter per zone: building Intl.DateTimeFormat costs far more than using it. */
-function formatterFor(timeZone: string): Intl.DateTimeFormat {
-  let f = formatters.get(timeZone);
-  if (!f) {
-    f = new Intl.DateTimeFormat('en-US', { timeZone, hourCycle: 'h23', year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit' });
-    formatters.set(timeZone, f);
-  }
-  return f;
-}
 
 /**
  * The offset (ms) of an IANA time zone at a UTC instant, from the platform's time zone data.
@@ -66,7 +57,7 @@ function zoneOffsetMs(timeZone: string, utcMs: number): number {
 }
 
 function computeZoneOffsetMs(timeZone: string, utcMs: number): number {
-  const parts = formatterFor(timeZone).formatToParts(new Date(utcMs));
+  const parts = wallClockFormatter(timeZone).formatToParts(new Date(utcMs));
   const get = (t: string) => Number(parts.find((p) => p.type === t)?.value);
   const asUtc = Date.UTC(get('year'), get('month') - 1, get('day'), get('hour'), get('minute'), get('second'));
   return asUtc - Math.floor(utcMs / 1000) * 1000;

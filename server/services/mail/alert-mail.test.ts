@@ -12,6 +12,7 @@ const base = {
   detail: '-12.5 is above the high limit -15 for 300 s',
   openedAt: at,
   link: channelLinkAt('https://lagbook.example', 'hollowbrook', 42, at),
+  timeZone: 'UTC',
 };
 
 describe('alertMail', () => {
@@ -28,6 +29,16 @@ describe('alertMail', () => {
     const m = alertMail({ ...base, kind: 'reminder', sequence: 2, at: at + 7_200_000 });
     expect(m.subject).toContain('Still open (reminder 2): Freezer too warm');
     expect(m.text).toContain('Open since: 2026-03-04 14:30:00 UTC.');
+  });
+
+  it('gives times on the logger’s wall clock with UTC beside, across a daylight-saving change', () => {
+    // IANA tz database: Europe/Berlin is UTC+1 until the last Sunday of March 2026 (29 March), UTC+2 after.
+    const winter = alertMail({ ...base, kind: 'opened', sequence: 0, timeZone: 'Europe/Berlin' });
+    expect(winter.text).toContain('Reading: -12.5 °C at 2026-03-04 15:30:00 Europe/Berlin (14:30 UTC).');
+    const summer = alertMail({ ...base, kind: 'reminder', sequence: 1, at: Date.UTC(2026, 3, 2, 14, 30), timeZone: 'Europe/Berlin' });
+    expect(summer.text).toContain('at 2026-04-02 16:30:00 Europe/Berlin (14:30 UTC).');
+    expect(summer.text).toContain('Open since: 2026-03-04 15:30:00 Europe/Berlin (14:30 UTC).');
+    expect(summer.html).toContain('2026-04-02 16:30:00 Europe/Berlin (14:30 UTC)');
   });
 
   it('escapes HTML in names', () => {

@@ -1,5 +1,6 @@
 import type { OutgoingMail } from '../../integrations/mail/create-mailer.ts';
 import type { NotificationKind } from '../../db/notification-outbox.repo.ts';
+import { wallClockText } from '../../policies/time-zones.ts';
 
 /** Escapes text for HTML mail bodies. */
 function esc(s: string): string {
@@ -25,9 +26,16 @@ export interface AlertMailInput {
   openedAt: number;
   /** The channel page around the moment, or the alert centre for logger-wide rules. */
   link: string;
+  /** The logger's IANA time zone: times are given on its wall clock, and in UTC beside. */
+  timeZone: string;
 }
 
-const utc = (ms: number) => `${new Date(ms).toISOString().slice(0, 19).replace('T', ' ')} UTC`;
+/** "2026-03-04 15:30:00 Europe/Berlin (14:30 UTC)", or "… UTC" alone for a logger on UTC. */
+function timeText(ms: number, timeZone: string): string {
+  const utc = `${new Date(ms).toISOString().slice(0, 19).replace('T', ' ')} UTC`;
+  if (timeZone === 'UTC' || timeZone === 'Etc/UTC') return utc;
+  return `${wallClockText(timeZone, ms)} ${timeZone} (${utc.slice(11, 16)} UTC)`;
+}
 
 const HEADLINE: Record<NotificationKind, string> = { opened: 'Alert', reminder: 'Still open', resolved: 'Resolved' };
 
@@ -37,14 +45,15 @@ const HEADLINE: Record<NotificationKind, string> = { opened: 'Alert', reminder: 
  * no certified alarm system.
  */
 export function alertMail(input: AlertMailInput): OutgoingMail {
+  const when = (ms: number) => timeText(ms, input.timeZone);
   const headline = input.kind === 'reminder' ? `${HEADLINE.reminder} (reminder ${input.sequence})` : HEADLINE[input.kind];
   const subject = `[${input.labName}] ${headline}: ${input.ruleName} — ${input.watched}`;
   const lines = [
     `${headline}: the rule "${input.ruleName}" on ${input.watched} in ${input.labName}.`,
     '',
     `What was seen: ${input.detail}.`,
-    input.reading !== null ? `Reading: ${input.reading} at ${utc(input.at)}.` : `At: ${utc(input.at)}.`,
-    ...(input.kind !== 'opened' ? [`Open since: ${utc(input.openedAt)}.`] : []),
+    input.reading !== null ? `Reading: ${input.reading} at ${when(input.at)}.` : `At: ${when(input.at)}.`,
+    ...(input.kind !== 'opened' ? [`Open since: ${when(input.openedAt)}.`] : []),
     '',
     `See the channel at that time: ${input.link}`,
     '',
@@ -52,7 +61,7 @@ export function alertMail(input: AlertMailInput): OutgoingMail {
     'You receive this because you subscribed to the rule; unsubscribe on the alerts page of the lab.',
   ];
   const html = `<p><strong>${esc(headline)}</strong>: the rule “${esc(input.ruleName)}” on ${esc(input.watched)} in ${esc(input.labName)}.</p>
-<p>What was seen: ${esc(input.detail)}.<br>${input.reading !== null ? `Reading: <strong>${esc(input.reading)}</strong> at ${esc(utc(input.at))}.` : `At: ${esc(utc(input.at))}.`}${input.kind !== 'opened' ? `<br>Open since: ${esc(utc(input.openedAt))}.` : ''}</p>
+<p>What was seen: ${esc(input.detail)}.<br>${input.reading !== null ? `Reading: <strong>${esc(input.reading)}</strong> at ${esc(when(input.at))}.` : `At: ${esc(when(input.at))}.`}${input.kind !== 'opened' ? `<br>Open since: ${esc(when(input.openedAt))}.` : ''}</p>
 <p><a href="${esc(input.link)}">See the channel at that time</a></p>
 <p><small>Lagbook's alerts depend on networks and mail delivery and are no replacement for a certified alarm system on critical equipment; follow your lab's own safety rules and local regulations. You receive this because you subscribed to the rule; unsubscribe on the alerts page of the lab.</small></p>`;
   return { to: input.to, subject, text: lines.join('\n'), html };
