@@ -5,6 +5,7 @@ import { Notice } from '../../../components/notice.tsx';
 import { useCreateAlertRule } from '../api/create-alert-rule.ts';
 import { AlertCaution } from './alert-caution.tsx';
 import { checkRuleForm, EMPTY_RULE_FORM, errorsFromServerMessage, type RuleFormState } from './rule-form-input.ts';
+import { RuleParamFields } from './rule-param-fields.tsx';
 
 /** A channel that a rule can watch (with its logger, for silence rules on a whole logger). */
 export interface RuleTarget {
@@ -15,7 +16,7 @@ export interface RuleTarget {
   loggerName: string;
 }
 
-const KIND_LABELS: Record<RuleFormState['kind'], string> = {
+export const KIND_LABELS: Record<RuleFormState['kind'], string> = {
   bounds: 'Readings outside limits',
   silence: 'No readings arrive',
   rate: 'Readings change too fast',
@@ -81,34 +82,7 @@ export function AlertRuleForm({ slug, targets, initialChannelId }: { slug: strin
               </option>
             ))}
         </SelectField>
-        <TextField label="Remind after (minutes, empty: lab default, 0: never)" type="number" inputMode="numeric" value={f.reminderAfterMin} onChange={set('reminderAfterMin')} error={err('reminderAfterMin')} />
-        {f.kind === 'bounds' && (
-          <>
-            <TextField label={`Low limit${unit ? ` (${unit})` : ''}`} type="number" inputMode="decimal" value={f.low} onChange={set('low')} error={err('params.low')} />
-            <TextField label={`High limit${unit ? ` (${unit})` : ''}`} type="number" inputMode="decimal" value={f.high} onChange={set('high')} error={err('params.high')} />
-            <TextField label="Hold time (seconds outside before it fires)" type="number" inputMode="numeric" value={f.holdS} onChange={set('holdS')} error={err('params.holdS')} hint="So that one noisy reading pages nobody." />
-          </>
-        )}
-        {f.kind === 'silence' && (
-          <TextField label="Silent for more than (× expected interval)" type="number" inputMode="decimal" value={f.factor} onChange={set('factor')} error={err('params.factor')} />
-        )}
-        {f.kind === 'rate' && (
-          <>
-            <TextField label={`Largest change per minute${unit ? ` (${unit})` : ''}`} type="number" inputMode="decimal" value={f.maxPerMinute} onChange={set('maxPerMinute')} error={err('params.maxPerMinute')} />
-            <SelectField label="Direction" value={f.direction} onChange={set('direction')} error={err('params.direction')}>
-              <option value="either">Rises and falls</option>
-              <option value="rise">Rises only</option>
-              <option value="fall">Falls only</option>
-            </SelectField>
-          </>
-        )}
-        {f.kind === 'unusual' && (
-          <>
-            <TextField label="Cycle (hours)" type="number" inputMode="decimal" value={f.periodH} onChange={set('periodH')} error={err('params.periodH')} />
-            <TextField label="Robust SDs off the usual pattern" type="number" inputMode="decimal" value={f.k} onChange={set('k')} error={err('params.k')} hint="The usual daily shape is learnt from recent cycles (STL), so a normal afternoon peak does not count." />
-            <TextField label="Cycles of history" type="number" inputMode="numeric" value={f.historyCycles} onChange={set('historyCycles')} error={err('params.historyCycles')} />
-          </>
-        )}
+        <RuleParamFields f={f} set={set} err={err} unit={unit} />
         <div className="sm:col-span-2">
           <Button type="submit" tone="primary" disabled={create.isPending}>
             {create.isPending ? 'Saving…' : 'Make rule'}

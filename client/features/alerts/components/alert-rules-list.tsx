@@ -1,3 +1,4 @@
+import { useState } from 'react';
 import { Button } from '../../../components/button.tsx';
 import { ConfirmButton } from '../../../components/confirm-button.tsx';
 import { useDeleteAlertRule } from '../api/delete-alert-rule.ts';
@@ -5,12 +6,14 @@ import type { AlertRule } from '../api/get-alert-rules.ts';
 import { useSetAlertSubscription } from '../api/set-alert-subscription.ts';
 import { useUpdateAlertRule } from '../api/update-alert-rule.ts';
 import { describeAlertRule } from './alert-rule-describe.ts';
+import { AlertRuleEditForm } from './alert-rule-edit-form.tsx';
 
-/** One rule: what it watches and for what, whether it is firing; subscribe, turn off/on, delete. */
+/** One rule: what it watches and for what, whether it is firing; subscribe, change, turn off/on, delete. */
 function RuleItem({ slug, rule, canManage, canSubscribe }: { slug: string; rule: AlertRule; canManage: boolean; canSubscribe: boolean }) {
   const subscribe = useSetAlertSubscription(slug, rule.id);
   const update = useUpdateAlertRule(slug, rule.id);
   const remove = useDeleteAlertRule(slug, rule.id);
+  const [changing, setChanging] = useState(false);
   const where = rule.watched.channelId === null ? rule.watched.label : `${rule.watched.loggerName} · ${rule.watched.label}`;
   return (
     <li className="grid gap-2 border-b border-rule py-3 sm:grid-cols-[1fr_auto] sm:items-center">
@@ -32,6 +35,9 @@ function RuleItem({ slug, rule, canManage, canSubscribe }: { slug: string; rule:
         )}
         {canManage && (
           <>
+            <Button size="sm" aria-expanded={changing} onClick={() => setChanging((open) => !open)}>
+              Change
+            </Button>
             <Button size="sm" disabled={update.isPending} onClick={() => update.mutate({ enabled: !rule.enabled })}>
               {rule.enabled ? 'Turn off' : 'Turn on'}
             </Button>
@@ -39,6 +45,7 @@ function RuleItem({ slug, rule, canManage, canSubscribe }: { slug: string; rule:
           </>
         )}
       </div>
+      {canManage && changing && <AlertRuleEditForm slug={slug} rule={rule} onDone={() => setChanging(false)} />}
     </li>
   );
 }

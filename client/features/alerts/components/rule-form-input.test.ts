@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { checkRuleForm, EMPTY_RULE_FORM, errorsFromServerMessage } from './rule-form-input.ts';
+import { checkRuleForm, EMPTY_RULE_FORM, errorsFromServerMessage, formFromRule } from './rule-form-input.ts';
 
 describe('the rule form', () => {
   it('makes a bounds rule body from the typed fields', () => {
@@ -25,5 +25,22 @@ describe('the rule form', () => {
   it('splits server messages into fields', () => {
     expect(errorsFromServerMessage('params.low: must be below the high limit; name: must not be empty')).toEqual({ 'params.low': 'must be below the high limit', name: 'must not be empty' });
     expect(errorsFromServerMessage('No such channel in this lab.')).toEqual({ body: 'No such channel in this lab.' });
+  });
+
+  it('fills the change form from a stored rule of each kind, and gives back the same body', () => {
+    const stored = [
+      { name: 'Freezer warm', kind: 'bounds' as const, channelId: 12, loggerId: null, params: { low: null, high: -15, holdS: 300 }, reminderAfterMin: 30 },
+      { name: 'Quiet mast', kind: 'silence' as const, channelId: null, loggerId: 7, params: { factor: 4 }, reminderAfterMin: null },
+      { name: 'Fast drop', kind: 'rate' as const, channelId: 12, loggerId: null, params: { maxPerMinute: 0.5, direction: 'fall' }, reminderAfterMin: 0 },
+      { name: 'Odd night', kind: 'unusual' as const, channelId: 12, loggerId: null, params: { periodH: 24, k: 5, historyCycles: 3 }, reminderAfterMin: null },
+    ];
+    for (const rule of stored) {
+      const form = formFromRule(rule);
+      expect(form.name).toBe(rule.name);
+      const checked = checkRuleForm(form);
+      expect(checked).toMatchObject({ input: { name: rule.name, kind: rule.kind, params: rule.params, reminderAfterMin: rule.reminderAfterMin } });
+    }
+    expect(formFromRule(stored[0])).toMatchObject({ target: 'channel:12', low: '', high: '-15', holdS: '300', reminderAfterMin: '30' });
+    expect(formFromRule(stored[1]).target).toBe('logger:7');
   });
 });

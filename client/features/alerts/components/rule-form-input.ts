@@ -34,6 +34,26 @@ export const EMPTY_RULE_FORM: RuleFormState = {
   reminderAfterMin: '',
 };
 
+/** A stored number as the form shows it ('' for none). */
+const text = (v: unknown): string => (typeof v === 'number' && Number.isFinite(v) ? String(v) : '');
+
+/** The form's fields for a rule as stored (the change form starts from these). */
+export function formFromRule(rule: { name: string; kind: RuleFormState['kind']; channelId: number | null; loggerId: number | null; params: Record<string, unknown>; reminderAfterMin: number | null }): RuleFormState {
+  const p = rule.params;
+  const direction = p.direction === 'rise' || p.direction === 'fall' ? p.direction : 'either';
+  return {
+    ...EMPTY_RULE_FORM,
+    name: rule.name,
+    kind: rule.kind,
+    target: rule.channelId !== null ? `channel:${rule.channelId}` : `logger:${rule.loggerId}`,
+    ...(rule.kind === 'bounds' && { low: text(p.low), high: text(p.high), holdS: text(p.holdS) }),
+    ...(rule.kind === 'silence' && { factor: text(p.factor) }),
+    ...(rule.kind === 'rate' && { maxPerMinute: text(p.maxPerMinute), direction }),
+    ...(rule.kind === 'unusual' && { periodH: text(p.periodH), k: text(p.k), historyCycles: text(p.historyCycles) }),
+    reminderAfterMin: text(rule.reminderAfterMin),
+  };
+}
+
 /** A typed number, or undefined for an empty field (NaN for text that is no number, so the schema names it). */
 const num = (s: string): number | undefined => (s.trim() === '' ? undefined : Number(s));
 
