@@ -1,12 +1,13 @@
-import { useState, type FormEvent } from 'react';
+import type { FormEvent } from 'react';
 import { Button } from '../../../components/button.tsx';
 import { TextField } from '../../../components/form-field.tsx';
 import { Notice } from '../../../components/notice.tsx';
 import type { AlertRule } from '../api/get-alert-rules.ts';
 import { useUpdateAlertRule } from '../api/update-alert-rule.ts';
 import { KIND_LABELS } from './alert-rule-form.tsx';
-import { checkRuleForm, errorsFromServerMessage, formFromRule, type RuleFormState } from './rule-form-input.ts';
+import { formFromRule } from './rule-form-input.ts';
 import { RuleParamFields } from './rule-param-fields.tsx';
+import { useRuleForm } from './use-rule-form.ts';
 
 /**
  * Changing a rule in place: its name, reminder delay and the parameters of its kind, checked with
@@ -15,23 +16,15 @@ import { RuleParamFields } from './rule-param-fields.tsx';
  */
 export function AlertRuleEditForm({ slug, rule, onDone }: { slug: string; rule: AlertRule; onDone: () => void }) {
   const update = useUpdateAlertRule(slug, rule.id);
-  const [f, setF] = useState<RuleFormState>(() => formFromRule(rule));
-  const [errors, setErrors] = useState<Record<string, string>>({});
-  const set = <K extends keyof RuleFormState>(key: K) => (e: { target: { value: string } }) => setF((old) => ({ ...old, [key]: e.target.value as RuleFormState[K] }));
-  const err = (key: string) => errors[key];
+  const { f, set, err, errors, submit } = useRuleForm(() => formFromRule(rule));
   const where = rule.watched.channelId === null ? rule.watched.label : `${rule.watched.loggerName} · ${rule.watched.label}`;
 
   async function onSubmit(e: FormEvent) {
     e.preventDefault();
-    const checked = checkRuleForm(f);
-    if ('errors' in checked) return setErrors(checked.errors);
-    setErrors({});
-    try {
-      await update.mutateAsync({ name: checked.input.name, reminderAfterMin: checked.input.reminderAfterMin, params: checked.input.params });
+    await submit(async (input) => {
+      await update.mutateAsync({ name: input.name, reminderAfterMin: input.reminderAfterMin, params: input.params });
       onDone();
-    } catch (error) {
-      setErrors(errorsFromServerMessage((error as Error).message));
-    }
+    });
   }
 
   return (

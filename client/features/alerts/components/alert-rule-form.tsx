@@ -4,8 +4,9 @@ import { SelectField, TextField } from '../../../components/form-field.tsx';
 import { Notice } from '../../../components/notice.tsx';
 import { useCreateAlertRule } from '../api/create-alert-rule.ts';
 import { AlertCaution } from './alert-caution.tsx';
-import { checkRuleForm, EMPTY_RULE_FORM, errorsFromServerMessage, type RuleFormState } from './rule-form-input.ts';
+import { EMPTY_RULE_FORM, type RuleFormState } from './rule-form-input.ts';
 import { RuleParamFields } from './rule-param-fields.tsx';
+import { useRuleForm } from './use-rule-form.ts';
 
 /** A channel that a rule can watch (with its logger, for silence rules on a whole logger). */
 export interface RuleTarget {
@@ -30,29 +31,21 @@ export const KIND_LABELS: Record<RuleFormState['kind'], string> = {
  */
 export function AlertRuleForm({ slug, targets, initialChannelId }: { slug: string; targets: RuleTarget[]; initialChannelId?: number }) {
   const create = useCreateAlertRule(slug);
-  const [f, setF] = useState<RuleFormState>({ ...EMPTY_RULE_FORM, target: initialChannelId ? `channel:${initialChannelId}` : '' });
-  const [errors, setErrors] = useState<Record<string, string>>({});
+  const { f, setF, set, err, errors, submit } = useRuleForm(() => ({ ...EMPTY_RULE_FORM, target: initialChannelId ? `channel:${initialChannelId}` : '' }));
   const [made, setMade] = useState<string | null>(null);
-  const set = <K extends keyof RuleFormState>(key: K) => (e: { target: { value: string } }) => setF((old) => ({ ...old, [key]: e.target.value as RuleFormState[K] }));
   const loggers = [...new Map(targets.map((t) => [t.loggerId, t.loggerName])).entries()];
   const unit = targets.find((t) => `channel:${t.id}` === f.target)?.unit ?? '';
 
   async function onSubmit(e: FormEvent) {
     e.preventDefault();
     setMade(null);
-    const checked = checkRuleForm(f);
-    if ('errors' in checked) return setErrors(checked.errors);
-    setErrors({});
-    try {
-      const { rule } = await create.mutateAsync(checked.input);
+    await submit(async (input) => {
+      const { rule } = await create.mutateAsync(input);
       setMade(`The rule “${rule.name}” watches ${rule.watched.label} now; you will be mailed when it fires.`);
       setF((old) => ({ ...EMPTY_RULE_FORM, target: old.target }));
-    } catch (err) {
-      setErrors(errorsFromServerMessage((err as Error).message));
-    }
+    });
   }
 
-  const err = (key: string) => errors[key];
   return (
     <section aria-labelledby="new-rule-heading" className="grid gap-3 rounded-xl border border-rule bg-card p-4">
       <h3 id="new-rule-heading" className="text-lg font-semibold">
