@@ -29,14 +29,19 @@ const UPLOAD_MB = Number(process.env.BENCH_UPLOAD_MB ?? 200);
 const T0 = Date.UTC(2026, 0, 1);
 const WARMUP_BATCHES = Number(process.env.BENCH_WARMUP_BATCHES ?? 4);
 
-/** Logger `l`'s batch number `b` as a JSON body: CHANNELS channels, one reading a second from `t0`. */
-function batchBody(l: number, b: number, t0: number): string {
+/** Logger `l`'s batch number `b`: CHANNELS channels (by index), one reading a second from `t0`. */
+function batchReadings(l: number, b: number, t0: number): Array<{ c: number; ts: number; value: number }> {
   const readings = [];
   for (let i = 0; i < BATCH / CHANNELS; i++) {
     const ts = t0 + (b * (BATCH / CHANNELS) + i) * 1000;
-    for (let c = 0; c < CHANNELS; c++) readings.push({ channel: `c${c}`, ts, value: Math.round(Math.sin(ts / 3.6e6 + l + c) * 1e4) / 100 });
+    for (let c = 0; c < CHANNELS; c++) readings.push({ c, ts, value: Math.round(Math.sin(ts / 3.6e6 + l + c) * 1e4) / 100 });
   }
-  return JSON.stringify({ readings });
+  return readings;
+}
+
+/** The same batch as a JSON ingest body. */
+function batchBody(l: number, b: number, t0: number): string {
+  return JSON.stringify({ readings: batchReadings(l, b, t0).map((r) => ({ channel: `c${r.c}`, ts: r.ts, value: r.value })) });
 }
 
 function rssMb(pid: number): number {
@@ -114,10 +119,7 @@ async function measureApiAndLoadData(stack: Awaited<ReturnType<typeof startBench
     for (let l = 0; l < LOGGERS; l++) {
       for (let b = 0; b < perLogger; b++) {
         let tsv = '';
-        for (let i = 0; i < BATCH / CHANNELS; i++) {
-          const ts = T0 + (b * (BATCH / CHANNELS) + i) * 1000;
-          for (let c = 0; c < CHANNELS; c++) tsv += `${lab.id}\t${loggers[l].channelIds[c]}\t${ts}\t${Math.round(Math.sin(ts / 3.6e6 + l + c) * 1e4) / 100}\n`;
-        }
+        for (const r of batchReadings(l, b, T0)) tsv += `${lab.id}\t${loggers[l].channelIds[r.c]}\t${r.ts}\t${r.value}\n`;
         chunks.push(Buffer.from(tsv));
       }
     }
