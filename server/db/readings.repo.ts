@@ -8,7 +8,7 @@ import { loadDataRows } from './load-data-rows.ts';
  * epoch ms. Batches are handed over this way rather than as one object per reading (see
  * services/ingest/batch-candidates.ts).
  */
-export interface ReadingColumns {
+export interface ReadingBatchColumns {
   length: number;
   channelId: Float64Array;
   ts: Float64Array;
@@ -16,7 +16,7 @@ export interface ReadingColumns {
 }
 
 /** Readings from..to (exclusive) of `cols`, as views on the same memory. */
-export function sliceColumns(cols: ReadingColumns, from: number, to: number): ReadingColumns {
+export function sliceColumns(cols: ReadingBatchColumns, from: number, to: number): ReadingBatchColumns {
   return { length: to - from, channelId: cols.channelId.subarray(from, to), ts: cols.ts.subarray(from, to), value: cols.value.subarray(from, to) };
 }
 
@@ -49,7 +49,7 @@ export function readingsIn(scope: LabScope, db: DbOrTrx) {
      * load-data-rows.ts); where the server refuses local infile, one bound multi-row INSERT
      * (bindings, never string-built SQL).
      */
-    async insertNew(rows: ReadingColumns): Promise<number> {
+    async insertNew(rows: ReadingBatchColumns): Promise<number> {
       if (rows.length === 0) return 0;
       let tsv = '';
       let prefix = '';
@@ -92,7 +92,7 @@ export function readingsIn(scope: LabScope, db: DbOrTrx) {
      * is stored (LEAST, GREATEST, +). Exact only when every row given was new — the caller
      * uses `refreshRollups` otherwise. One statement for every resolution, no scan of readings.
      */
-    async addToRollups(rows: ReadingColumns): Promise<void> {
+    async addToRollups(rows: ReadingBatchColumns): Promise<void> {
       if (rows.length === 0) return;
       // Rows come sorted by channel, then time, so each minute bucket is one run of neighbours
       // (were they not, a bucket would appear more than once; the upsert below merges such

@@ -1,4 +1,4 @@
-import type { ReadingColumns } from '../../db/readings.repo.ts';
+import type { ReadingBatchColumns } from '../../db/readings.repo.ts';
 
 /** What became of a reading offered to a batch's candidates. */
 export type Offer = 'added' | 'duplicate' | 'conflict';
@@ -6,7 +6,7 @@ export type Offer = 'added' | 'duplicate' | 'conflict';
 /** The candidates of a batch in primary-key order, with where each came from. */
 export interface SortedCandidates {
   /** Sorted by channel id, then time; no (channel, time) twice. */
-  columns: ReadingColumns;
+  columns: ReadingBatchColumns;
   /** `rowAt[i]`: the position, in the rows given to the batch, of the reading at `i`. */
   rowAt: Int32Array;
   /** One run per channel: the readings at `from` (inclusive) to `to` (exclusive). */
@@ -105,7 +105,7 @@ export class BatchCandidates {
       runs.push({ channelId: slots[r].id, from, to });
     }
 
-    const columns: ReadingColumns = { length: this.length, channelId: new Float64Array(this.length), ts: new Float64Array(this.length), value: new Float64Array(this.length) };
+    const columns: ReadingBatchColumns = { length: this.length, channelId: new Float64Array(this.length), ts: new Float64Array(this.length), value: new Float64Array(this.length) };
     const rowAt = new Int32Array(this.length);
     for (const run of runs) {
       for (let k = run.from; k < run.to; k++) {
