@@ -23,8 +23,12 @@ export interface DurbinLevinsonResult {
  * v_k = v_{k−1}(1 − φ_kk²) (Brockwell & Davis, *Introduction to Time Series and Forecasting*,
  * 2nd ed., Prop. 2.5.1 and §5.1.1; Durbin 1960, Rev. Int. Stat. Inst. 28:233–244).
  *
- * With `keepCoefficients: false` only two rows are kept (the partial autocorrelations and
- * variances are the same numbers), which saves the K²/2 doubles of every order's coefficients.
+ * The order-k coefficients replace the order-(k − 1) ones in one array, φ_{k,j} and φ_{k,k−j}
+ * updated together from the old pair (the in-place Levinson step: Golub & Van Loan, *Matrix
+ * Computations*, 4th ed., Algorithm 4.7.1), and the sum for φ_kk runs forward over a reversed
+ * copy of γ, so both inner loops stream through memory in one direction. With
+ * `keepCoefficients: false` nothing else is kept (the partial autocorrelations and variances
+ * are the same numbers), which saves the K²/2 doubles of every order's coefficients.
  *
  * Cost: O(K²) time; O(K²) space, O(K) without the coefficients.
  */
@@ -34,33 +38,36 @@ export function durbinLevinson(gamma: ArrayLike<number>, maxOrder: number, optio
   const coefficients: Float64Array[] = [];
   const variances = new Float64Array(maxOrder + 1);
   variances[0] = gamma[0];
-  let previous = new Float64Array(keep ? 0 : maxOrder);
-  let spare = keep ? previous : new Float64Array(maxOrder);
+  // phi[j] = φ_{k,j} for j = 1..k (index 0 unused); reversed[maxOrder − h] = γ_h.
+  const phi = new Float64Array(maxOrder + 1);
+  const reversed = new Float64Array(maxOrder + 1);
+  for (let h = 0; h <= maxOrder; h++) reversed[maxOrder - h] = gamma[h];
   for (let k = 1; k <= maxOrder; k++) {
-    // Four partial sums break the chain of dependent additions (the order of summation changes
-    // the result only by rounding).
+    // Σ_{j<k} φ_{k−1,j} γ_{k−j}, with γ_{k−j} = reversed[maxOrder − k + j]. Two partial sums
+    // break the chain of dependent additions (the order changes the result only by rounding).
+    const offset = maxOrder - k;
     let s0 = 0;
     let s1 = 0;
-    let s2 = 0;
-    let s3 = 0;
     let j = 1;
-    for (; j + 3 < k; j += 4) {
-      s0 += previous[j - 1] * gamma[k - j];
-      s1 += previous[j] * gamma[k - j - 1];
-      s2 += previous[j + 1] * gamma[k - j - 2];
-      s3 += previous[j + 2] * gamma[k - j - 3];
+    for (; j + 1 < k; j += 2) {
+      s0 += phi[j] * reversed[offset + j];
+      s1 += phi[j + 1] * reversed[offset + j + 1];
     }
-    for (; j < k; j++) s0 += previous[j - 1] * gamma[k - j];
-    const num = gamma[k] - (s0 + s1 + (s2 + s3));
-    const phiKK = num / variances[k - 1];
-    const row = keep ? new Float64Array(k) : spare;
-    for (let i = 1; i < k; i++) row[i - 1] = previous[i - 1] - phiKK * previous[k - i - 1];
-    row[k - 1] = phiKK;
+    if (j < k) s0 += phi[j] * reversed[offset + j];
+    const phiKK = (gamma[k] - (s0 + s1)) / variances[k - 1];
+    let low = 1;
+    let high = k - 1;
+    for (; low < high; low++, high--) {
+      const a = phi[low];
+      const b = phi[high];
+      phi[low] = a - phiKK * b;
+      phi[high] = b - phiKK * a;
+    }
+    if (low === high) phi[low] -= phiKK * phi[low];
+    phi[k] = phiKK;
     partial[k - 1] = phiKK;
     variances[k] = variances[k - 1] * (1 - phiKK * phiKK);
-    if (keep) coefficients.push(row);
-    spare = previous;
-    previous = row;
+    if (keep) coefficients.push(phi.slice(1, k + 1));
   }
   return { partial, coefficients, variances };
 }
