@@ -1,6 +1,8 @@
 import { AnalysisInputError, type Series, assertSeries } from './analysis-input-error.ts';
 import { integerOption } from './integer-option.ts';
+import { dickeyFullerCrossProducts } from './dickey-fuller-cross-products.ts';
 import { leastSquares } from './least-squares.ts';
+import { leastSquaresFromGram } from './least-squares-from-gram.ts';
 
 export interface AugmentedDickeyFullerOptions {
   /** Lagged differences in the regression; default Schwert's ⌊12 (n/100)^{1/4}⌋ (Schwert 1989). */
@@ -38,7 +40,8 @@ const TAU_C: Record<'1%' | '5%' | '10%', [number, number, number, number]> = {
  * §10.1). Same statistic as statsmodels' `adfuller(x, maxlag=lags, autolag=None, regression="c")`.
  * Missing values are not allowed here (a regression row would straddle the gap).
  *
- * Cost: O(n · lags²) time.
+ * Cost: O(n · lags) time (O(n · lags²) when the regression is too ill-conditioned for the
+ * cross-product route and QR takes over).
  */
 export function augmentedDickeyFuller(x: Series, options: AugmentedDickeyFullerOptions = {}): AugmentedDickeyFullerResult {
   const fn = 'augmentedDickeyFuller';
@@ -53,14 +56,15 @@ export function augmentedDickeyFuller(x: Series, options: AugmentedDickeyFullerO
   const values = x instanceof Float64Array ? x : Float64Array.from(x);
   const diff = new Float64Array(n - 1);
   for (let t = 1; t < n; t++) diff[t - 1] = values[t] - values[t - 1];
-  // Row r answers Δx at diff index d = lags + r; every column is a view, nothing is copied.
+  // Row r answers Δx at diff index lags + r. The cross products come from the lag structure;
+  // Householder QR on the columns themselves when they are too ill-conditioned for that route.
   const rows = n - 1 - lags;
+  let shift = 0;
+  for (let r = 0; r < rows; r++) shift += values[lags + r];
+  shift /= rows;
+  const { columns, gram, xty, yty } = dickeyFullerCrossProducts(values, diff, lags, shift);
   const y = diff.subarray(lags);
-  const level = values.subarray(lags, lags + rows);
-  const constant = new Float64Array(rows).fill(1);
-  const lagged: Float64Array[] = [];
-  for (let i = 1; i <= lags; i++) lagged.push(diff.subarray(lags - i, lags - i + rows));
-  const fit = leastSquares([level, ...lagged, constant], y);
+  const fit = leastSquaresFromGram(gram, xty, yty, columns, y) ?? leastSquares(columns, y);
   const statistic = fit.coefficients[0] / fit.standardErrors[0];
   const crit = (c: [number, number, number, number]) => c[0] + c[1] / rows + c[2] / rows ** 2 + c[3] / rows ** 3;
   const criticalValues = { '1%': crit(TAU_C['1%']), '5%': crit(TAU_C['5%']), '10%': crit(TAU_C['10%']) };
