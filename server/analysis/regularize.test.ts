@@ -1,3 +1,4 @@
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { regularize } from './regularize.ts';
 
@@ -44,6 +45,29 @@ describe('regularize', () => {
     );
     expect(() => regularize([1], [1], { step: 1, agg: 'mode' as never })).toThrow(
       'regularize: agg must be one of mean, last, min, max, median, sum, count (got mode)',
+    );
+  });
+
+  it('gives each cell its only reading whether the readings come in grid order or not', () => {
+    // Readings already on the grid take the shortcut; shuffled, the same readings take the
+    // counting sort. Both must give each cell its only reading (count: 1), gaps NaN.
+    fc.assert(
+      fc.property(
+        fc.uniqueArray(fc.integer({ min: 0, max: 400 }), { minLength: 1, maxLength: 60 }),
+        fc.constantFrom('mean', 'last', 'min', 'max', 'median', 'sum', 'count' as const),
+        (cellList, agg) => {
+          const cells = [...cellList].sort((a, b) => a - b);
+          const ts = cells.map((c) => t0 + c * MIN + 7_000);
+          const vs = cells.map((c) => Math.sin(c) * 100);
+          const inOrder = regularize(ts, vs, { step: MIN, agg });
+          const reversed = regularize([...ts].reverse(), [...vs].reverse(), { step: MIN, agg });
+          const expected = new Array(cells[cells.length - 1] - cells[0] + 1).fill(NaN);
+          cells.forEach((c, i) => (expected[c - cells[0]] = agg === 'count' ? 1 : vs[i]));
+          expect(Array.from(inOrder.values)).toEqual(expected);
+          expect(Array.from(reversed.values)).toEqual(expected);
+          expect(inOrder.start).toBe(t0 + cells[0] * MIN);
+        },
+      ),
     );
   });
 });

@@ -79,6 +79,8 @@ export function regularize(timestamps: Series, values: Series, options: Regulari
   // Counting sort of the readings by cell.
   const cellOf = new Int32Array(timestamps.length);
   const offsets = new Int32Array(cells + 1);
+  let previousCell = -1;
+  let onePerCellInOrder = true;
   for (let i = 0; i < timestamps.length; i++) {
     if (Number.isNaN(values[i])) {
       cellOf[i] = -1;
@@ -87,6 +89,15 @@ export function regularize(timestamps: Series, values: Series, options: Regulari
     const c = Math.min(cells - 1, Math.floor((timestamps[i] - start) / step));
     cellOf[i] = c;
     offsets[c + 1]++;
+    if (c <= previousCell) onePerCellInOrder = false;
+    previousCell = c;
+  }
+  if (onePerCellInOrder && agg !== 'count') {
+    // Already on the grid (cells read from rollups, or one reading per step): each cell's
+    // aggregate is its only reading.
+    const out = new Float64Array(cells).fill(NaN);
+    for (let i = 0; i < timestamps.length; i++) if (cellOf[i] >= 0) out[cellOf[i]] = values[i];
+    return { start, step, values: out };
   }
   for (let c = 0; c < cells; c++) offsets[c + 1] += offsets[c];
   const order = new Int32Array(readings);

@@ -1,14 +1,15 @@
 /**
  * Lagbook's real app in a process of its own, for benchmarks and crash tests, without the
  * outside services those do not exercise (no identity provider, mail or billing calls happen
- * on the paths they use). Settings: APP_PORT, APP_DB (JSON of the database settings),
- * APP_SESSION_SECRET.
+ * on the paths they use). Heavy analysis runs on the worker pool, as in production. Settings:
+ * APP_PORT, APP_DB (JSON of the database settings), APP_SESSION_SECRET.
  */
 import { createServer } from 'node:http';
 import { createApp } from '../../server/app.ts';
 import { createDb } from '../../server/db/create-db.ts';
 import { createLogger } from '../../server/logger.ts';
 import { loadConfig } from '../../server/config.ts';
+import { createAnalysisPool } from '../../server/workers/analysis-pool.ts';
 
 const port = Number(process.env.APP_PORT);
 const dbConfig = JSON.parse(process.env.APP_DB!);
@@ -31,6 +32,7 @@ const app = createApp({
   mailer: { send: async () => undefined, verify: async () => true, close: () => undefined },
   billing: {} as never,
   ingestRate: { perSecond: 10_000, burst: 10_000 },
+  analysisPool: createAnalysisPool(),
 });
 const server = createServer(app);
 server.requestTimeout = 0; // benchmarks stream uploads for as long as they take
