@@ -29,6 +29,48 @@ const toColumns = (rows: unknown[][]): ReadingColumns => {
   return { ts, values };
 };
 
+/** Joins column slices read in time order. */
+function concatColumns(parts: ReadingColumns[]): ReadingColumns {
+  if (parts.length === 1) return parts[0];
+  const length = parts.reduce((sum, p) => sum + p.ts.length, 0);
+  const ts = new Float64Array(length);
+  const values = new Float64Array(length);
+  let at = 0;
+  for (const p of parts) {
+    ts.set(p.ts, at);
+    values.set(p.values, at);
+    at += p.ts.length;
+  }
+  return { ts, values };
+}
+
+/**
+ * [from, to) cut into at most `maxSlices` slices of at least `sliceSteps` steps each (one slice
+ * when the range is shorter than two). Inner boundaries fall on whole multiples of `stepMs`
+ * since the epoch, where the grid's cells begin, so no cell is split between two slices.
+ */
+export function rangeSlices(from: number, to: number, stepMs: number, sliceSteps: number, maxSlices: number): Array<[number, number]> {
+  const steps = Math.ceil((to - from) / stepMs);
+  const count = Math.max(1, Math.min(maxSlices, Math.floor(steps / sliceSteps)));
+  const bounds = [from];
+  for (let i = 1; i < count; i++) bounds.push(Math.ceil((from + (i * (to - from)) / count) / stepMs) * stepMs);
+  bounds.push(to);
+  const slices: Array<[number, number]> = [];
+  for (let i = 0; i < count; i++) if (bounds[i] < bounds[i + 1]) slices.push([bounds[i], bounds[i + 1]]);
+  return slices;
+}
+
+export interface ChannelReadingsOptions {
+  /**
+   * Grid reads of at least twice this many steps are split into slices read concurrently, each
+   * on its own connection (default 50,000): MariaDB scans one statement on one thread, so
+   * two slices of a 100,000-cell range come back in about two thirds of the time on two cores.
+   */
+  sliceSteps?: number;
+  /** At most this many slices per read (default 4). */
+  maxSlices?: number;
+}
+
 const toBuckets = (rows: unknown[][]): BucketRow[] =>
   rows.map((r) => ({ start: Number(r[0]), min: Number(r[1]), max: Number(r[2]), sum: Number(r[3]), count: Number(r[4]) }));
 
@@ -38,9 +80,11 @@ const toBuckets = (rows: unknown[][]): BucketRow[] =>
  * read as objects). Every statement is bound to the lab's tenant id and leads with it, as the
  * keys do.
  */
-export function channelReadingsIn(scope: LabScope, db: Knex) {
+export function channelReadingsIn(scope: LabScope, db: Knex, options: ChannelReadingsOptions = {}) {
   const tenantId = scope.tenantId;
   const arrays = (sql: string, bindings: unknown[]) => executeArrays(db, sql, bindings);
+  const sliceSteps = options.sliceSteps ?? 50_000;
+  const maxSlices = options.maxSlices ?? 4;
   return {
     /** Raw readings with from ≤ ts < to, in time order, at most `limit` of them. */
     async range(channelId: number, from: number, to: number, limit?: number): Promise<ReadingColumns> {
@@ -79,29 +123,18 @@ export function channelReadingsIn(scope: LabScope, db: Knex) {
      * of it): the exact mean (Σsum / Σcount), min or max of the readings in the cell.
      */
     async cellsFromRollups(channelId: number, resolutionS: number, from: number, to: number, stepMs: number, agg: CellAggregate): Promise<ReadingColumns> {
-      if (stepMs === resolutionS * 1000) {
-        // One rollup per cell: read the cells straight off the key, with no grouping (the
-        // grouped form costs a temporary table, ≈ 0.4 s for 100,000 cells). Same numbers:
-        // a sum over one row is that row.
-        const single = agg === 'mean' ? 'sum_value / count_value' : agg === 'min' ? 'min_value' : 'max_value';
-        return toColumns(
-          await arrays(
-            `SELECT bucket_start, ${single}
-             FROM reading_rollups WHERE tenant_id = ? AND channel_id = ? AND resolution_s = ? AND bucket_start >= ? AND bucket_start < ?
-             ORDER BY bucket_start`,
-            [tenantId, channelId, resolutionS, from, to],
-          ),
-        );
-      }
-      const value = agg === 'mean' ? 'SUM(sum_value) / SUM(count_value)' : agg === 'min' ? 'MIN(min_value)' : 'MAX(max_value)';
-      return toColumns(
-        await arrays(
-          `SELECT bucket_start - MOD(bucket_start, ?) AS b, ${value}
-           FROM reading_rollups WHERE tenant_id = ? AND channel_id = ? AND resolution_s = ? AND bucket_start >= ? AND bucket_start < ?
-           GROUP BY b ORDER BY b`,
-          [stepMs, tenantId, channelId, resolutionS, from, to],
-        ),
-      );
+      // One rollup per cell: read the cells straight off the key, with no grouping (the grouped
+      // form costs a temporary table, ≈ 0.4 s for 100,000 cells). Same numbers: a sum over one
+      // row is that row.
+      const single = agg === 'mean' ? 'sum_value / count_value' : agg === 'min' ? 'min_value' : 'max_value';
+      const grouped = agg === 'mean' ? 'SUM(sum_value) / SUM(count_value)' : agg === 'min' ? 'MIN(min_value)' : 'MAX(max_value)';
+      const where = 'FROM reading_rollups WHERE tenant_id = ? AND channel_id = ? AND resolution_s = ? AND bucket_start >= ? AND bucket_start < ?';
+      const slice = ([a, b]: [number, number]) =>
+        stepMs === resolutionS * 1000
+          ? arrays(`SELECT bucket_start, ${single} ${where} ORDER BY bucket_start`, [tenantId, channelId, resolutionS, a, b])
+          : arrays(`SELECT bucket_start - MOD(bucket_start, ?) AS b, ${grouped} ${where} GROUP BY b ORDER BY b`, [stepMs, tenantId, channelId, resolutionS, a, b]);
+      const parts = await Promise.all(rangeSlices(from, to, stepMs, sliceSteps, maxSlices).map(async (r) => toColumns(await slice(r))));
+      return concatColumns(parts);
     },
 
     /**

@@ -1,5 +1,9 @@
 import { AnalysisInputError } from '../analysis/index.ts';
 import { analysisFunctions, type AnalysisTask } from './analysis-registry.ts';
+import { warmUpEngine } from './engine-warm-up.ts';
+
+// Before the first task: piscina hands this thread work once the module has loaded.
+warmUpEngine();
 
 /** What crosses back to the pool when the engine rejects its input. */
 export interface WorkerInputFailure {
