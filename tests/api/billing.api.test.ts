@@ -6,6 +6,7 @@ import { buildLabWithEverything, type LabWithEverything } from '../support/lab-f
 import { eventually, signedEvent, TEST_LIMITS, writeTestPlanCatalog } from '../support/stripe-test-billing.ts';
 import { waitForMail } from '../../docker-free-scripts/mail-capture/read-captured-mail.ts';
 import { createUsageJob } from '../../server/services/billing/usage-job.ts';
+import { createPlanLimits } from '../../server/services/billing/plan-limits.ts';
 import { loadPlanCatalog } from '../../server/services/billing/plan-catalog.ts';
 import { createMailer } from '../../server/integrations/mail/create-mailer.ts';
 import { createLogger } from '../../server/logger.ts';
@@ -312,6 +313,20 @@ describe('webhook endpoint', () => {
     const res = await send(event);
     expect(res.status).toBe(200);
     expect(res.body.outcome).toBe('unknown-lab');
+  });
+});
+
+describe('usage counter on shutdown', () => {
+  it('settles once the bumps of the last batches are written, so the server can close the pool after it', async () => {
+    const lab = await newLab();
+    const limits = createPlanLimits({ db: t.db, catalog, logger: createLogger({ silent: true }) });
+    const before = await counter(lab);
+    const batch = { target: { tenantId: lab.f.lab.id, loggerId: lab.f.ids.loggerId }, source: 'api' as const, channels: [] };
+    limits.ingestHooks.afterCommit!({ ...batch, accepted: 5 });
+    limits.ingestHooks.afterCommit!({ ...batch, accepted: 2 }); // arrives while the first write is in flight
+    await limits.settled();
+    expect(await counter(lab)).toBe(before + 7);
+    await limits.settled(); // nothing pending: resolves at once
   });
 });
 

@@ -17,6 +17,11 @@ export interface PlanLimitGuard {
   assertRoomFor(trx: DbOrTrx, labId: number, what: 'loggers' | 'members'): Promise<void>;
   /** The plan whose limits apply to the lab now. */
   planOf(trx: DbOrTrx, labId: number): Promise<Plan>;
+  /**
+   * Resolves once every counter bump made so far is written (or has failed and been logged):
+   * the server waits for it on shutdown, before the database pool closes.
+   */
+  settled(): Promise<void>;
 }
 
 /**
@@ -48,6 +53,7 @@ export function createPlanLimits(deps: { db: Db; catalog: PlanCatalog; logger: L
 
   return {
     planOf,
+    settled: () => counterWrites.settled(),
     ingestHooks: {
       async beforeCommit(trx, batch) {
         if (batch.accepted === 0) return;
