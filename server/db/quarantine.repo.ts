@@ -1,9 +1,12 @@
 import type { LabScope } from './tenant-scope.ts';
 import { newId } from './new-id.ts';
 
+/** Where a reading came in: the ingest API, a file upload, or a re-submit from quarantine. */
+export type ReadingSource = 'api' | 'upload' | 'resubmit';
+
 export interface QuarantineInput {
   loggerId: number | null;
-  source: 'api' | 'upload' | 'resubmit';
+  source: ReadingSource;
   batchRef: string;
   rowIndex: number;
   reasonCode: string;
@@ -17,7 +20,7 @@ export interface QuarantineInput {
 export interface QuarantinedRow {
   id: number;
   loggerId: number | null;
-  source: string;
+  source: ReadingSource;
   batchRef: string | null;
   rowIndex: number;
   reasonCode: string;

@@ -1,16 +1,15 @@
-import type { ChannelDetail, ChannelOverview } from '../../services/channels.service.ts';
+import type { ChannelDetail, ChannelOverview, ChannelStatus } from '../../services/channels.service.ts';
 import type { ChannelWithState } from '../../db/channel-state.repo.ts';
 import { presentChannel } from '../presenters/loggers.presenter.ts';
 
-const isoOrNull = (ms: number | null) => (ms === null ? null : new Date(ms).toISOString());
-
-function presentChannelCore(c: ChannelWithState & { status: string; intervalS: number }) {
+function presentChannelCore(c: ChannelWithState & { status: ChannelStatus; intervalS: number }) {
   return {
     ...presentChannel(c),
     logger: { id: c.logger.id, name: c.logger.name, site: c.logger.site, timezone: c.logger.timezone, expectedIntervalS: c.logger.expectedIntervalS },
     status: c.status,
     statusIntervalS: c.intervalS,
-    lastReading: c.lastReadingTs === null ? null : { ts: c.lastReadingTs, time: isoOrNull(c.lastReadingTs), value: c.lastReadingValue },
+    // as the status reads it: no last reading until both its time and value are known
+    lastReading: c.lastReadingTs === null || c.lastReadingValue === null ? null : { ts: c.lastReadingTs, time: new Date(c.lastReadingTs).toISOString(), value: c.lastReadingValue },
     dataVersion: c.dataVersion,
   };
 }
@@ -24,7 +23,7 @@ export function presentChannelOverview(c: ChannelOverview) {
 export function presentChannelDetail(c: ChannelDetail) {
   return {
     ...presentChannelCore(c),
-    firstReading: c.firstReadingTs === null ? null : { ts: c.firstReadingTs, time: isoOrNull(c.firstReadingTs) },
+    firstReading: c.firstReadingTs === null ? null : { ts: c.firstReadingTs, time: new Date(c.firstReadingTs).toISOString() },
     readingCount: c.readingCount,
   };
 }

@@ -3,8 +3,7 @@ import type { Channel } from '../../db/channels.repo.ts';
 import type { IngestKeyInfo } from '../../db/ingest-keys.repo.ts';
 import type { QuarantinedRow } from '../../db/quarantine.repo.ts';
 import type { LoggerDetail, IssuedKey } from '../../services/loggers.service.ts';
-
-const iso = (d: Date | null) => (d ? d.toISOString() : null);
+import { isoTime } from './iso-time.ts';
 
 export function presentLogger(l: Logger & { channelCount?: number }) {
   return {
@@ -14,8 +13,8 @@ export function presentLogger(l: Logger & { channelCount?: number }) {
     site: l.site,
     timezone: l.timezone,
     expectedIntervalS: l.expectedIntervalS,
-    createdAt: iso(l.createdAt),
-    retiredAt: iso(l.retiredAt),
+    createdAt: isoTime(l.createdAt),
+    retiredAt: isoTime(l.retiredAt),
     lastSeenAt: l.lastSeenAt === null ? null : new Date(l.lastSeenAt).toISOString(),
     ...(l.channelCount !== undefined ? { channelCount: l.channelCount } : {}),
   };
@@ -33,13 +32,13 @@ export function presentChannel(c: Channel) {
     validMax: c.validMax,
     expectedIntervalS: c.expectedIntervalS,
     seasonalPeriodHint: c.seasonalPeriodHint,
-    retiredAt: iso(c.retiredAt),
+    retiredAt: isoTime(c.retiredAt),
   };
 }
 
 /** Key metadata only: the key itself is never shown again after it is issued. */
 export function presentKeyInfo(k: IngestKeyInfo) {
-  return { id: k.id, prefix: k.prefix, createdAt: iso(k.createdAt), lastUsedAt: iso(k.lastUsedAt), revokedAt: iso(k.revokedAt) };
+  return { id: k.id, prefix: k.prefix, createdAt: isoTime(k.createdAt), lastUsedAt: isoTime(k.lastUsedAt), revokedAt: isoTime(k.revokedAt) };
 }
 
 export function presentLoggerDetail(d: LoggerDetail, opts: { includeKeys: boolean }) {
@@ -52,7 +51,7 @@ export function presentLoggerDetail(d: LoggerDetail, opts: { includeKeys: boolea
 
 /** The one response that carries a whole key, with the reminder that it is shown once. */
 export function presentIssuedKey(k: IssuedKey) {
-  return { ingestKey: { ...presentKeyInfo(k.info), key: k.key, shownOnce: true } };
+  return { ingestKey: { ...presentKeyInfo(k.info), key: k.key, shownOnce: true as const } };
 }
 
 export function presentQuarantinedRow(r: QuarantinedRow) {
@@ -67,6 +66,6 @@ export function presentQuarantinedRow(r: QuarantinedRow) {
     ts: r.tsRaw,
     value: r.valueRaw,
     raw: r.raw,
-    receivedAt: iso(r.receivedAt),
+    receivedAt: isoTime(r.receivedAt),
   };
 }

@@ -1,7 +1,6 @@
 import type { PersonalTokenInfo } from '../../db/personal-tokens.repo.ts';
 import type { IssuedPersonalToken } from '../../services/personal-tokens.service.ts';
-
-const iso = (d: Date | null) => (d ? d.toISOString() : null);
+import { isoTime } from '../presenters/iso-time.ts';
 
 /** Token metadata only: the secret is never shown again after it is made. */
 export function presentPersonalToken(t: PersonalTokenInfo) {
@@ -9,14 +8,14 @@ export function presentPersonalToken(t: PersonalTokenInfo) {
     id: t.id,
     name: t.name,
     prefix: t.prefix,
-    createdAt: iso(t.createdAt),
-    expiresAt: iso(t.expiresAt),
-    lastUsedAt: iso(t.lastUsedAt),
-    revokedAt: iso(t.revokedAt),
+    createdAt: isoTime(t.createdAt),
+    expiresAt: isoTime(t.expiresAt),
+    lastUsedAt: isoTime(t.lastUsedAt),
+    revokedAt: isoTime(t.revokedAt),
   };
 }
 
 /** The answer to "make a token": the whole token, this once, and its metadata. */
 export function presentIssuedPersonalToken(issued: IssuedPersonalToken) {
-  return { token: issued.token, tokenInfo: presentPersonalToken(issued.info), shownOnce: true };
+  return { token: issued.token, tokenInfo: presentPersonalToken(issued.info), shownOnce: true as const };
 }

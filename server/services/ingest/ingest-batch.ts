@@ -5,7 +5,7 @@ import { channelsIn } from '../../db/channels.repo.ts';
 import { loggersIn } from '../../db/loggers.repo.ts';
 import { readingsIn, sliceColumns } from '../../db/readings.repo.ts';
 import { BatchCandidates } from './batch-candidates.ts';
-import { quarantineIn, type QuarantineInput } from '../../db/quarantine.repo.ts';
+import { quarantineIn, type QuarantineInput, type ReadingSource } from '../../db/quarantine.repo.ts';
 import { parseReadingTime, type TimeFormat } from './parse-reading-time.ts';
 import { isLockConflict } from '../../db/db-errors.ts';
 import { channelStateIn } from '../../db/channel-state.repo.ts';
@@ -42,7 +42,7 @@ export interface IngestTarget {
 }
 
 export interface IngestOptions {
-  source: 'api' | 'upload' | 'resubmit';
+  source: ReadingSource;
   batchRef?: string;
   timeFormat?: TimeFormat;
   timeZone?: string;

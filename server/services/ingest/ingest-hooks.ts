@@ -1,10 +1,11 @@
 import type { Db } from '../../db/create-db.ts';
 import type { IngestTarget } from './ingest-batch.ts';
+import type { ReadingSource } from '../../db/quarantine.repo.ts';
 
 /** What one committed batch stored: the lab, the logger and, per channel, the newest time written. */
 export interface StoredBatch {
   target: IngestTarget;
-  source: 'api' | 'upload' | 'resubmit';
+  source: ReadingSource;
   /** Readings newly stored by this batch (duplicates and quarantined rows excluded). */
   accepted: number;
   /** Each channel the batch stored into, with the oldest and newest time it carried (epoch ms). */

@@ -4,7 +4,8 @@ import { apiFetch } from '../../../lib/api-client.ts';
 /**
  * What the diagnostics panel asks for; optional fields fall back to the server's defaults.
  * Mirrors the server's `DiagnosticsParams`: importing it (even as a type) would pull the numeric
- * engine's typings into the client's type-check.
+ * engine's typings into the client's type-check. The answer types below are checked against the
+ * server's report in tests/contracts/wire-types.typecheck.ts.
  */
 export interface DiagnosticsParams {
   from: number;

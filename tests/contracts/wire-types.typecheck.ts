@@ -1,0 +1,76 @@
+/**
+ * Compile-time contract between the server's JSON answers and the client's hand-written API
+ * types: `npm run typecheck` (and `npm test`, which runs it) fails when a presenter stops
+ * producing a field the client reads, or produces it with another type. The client keeps its
+ * own types so its type-check does not pull in the server's (database, engine) typings; this
+ * file, checked with the server's configuration, holds the two together. Nothing imports it.
+ */
+import type { presentChannelDetail, presentChannelOverview } from '../../server/http/channels/channels.presenter.ts';
+import type { ChannelSeries } from '../../server/services/channels.service.ts';
+import type { DiagnosticsReport as ServerDiagnosticsReport } from '../../server/services/diagnostics-report.ts';
+import type { presentAlert, presentAlertRule } from '../../server/http/alerts/alerts.presenter.ts';
+import type { presentAuditEntry, presentInvitation, presentLabForMember, presentMember } from '../../server/http/presenters/labs.presenter.ts';
+import type { presentChannel, presentIssuedKey, presentKeyInfo, presentLogger, presentLoggerDetail, presentQuarantinedRow } from '../../server/http/presenters/loggers.presenter.ts';
+import type { presentMe } from '../../server/http/presenters/me.presenter.ts';
+import type { presentIssuedPersonalToken, presentPersonalToken } from '../../server/http/tokens/tokens.presenter.ts';
+import type { presentBillingOverview, presentInvoice } from '../../server/http/billing/billing.presenter.ts';
+import type { AuditEntry } from '../../client/features/audit/api/get-audit-log.ts';
+import type { Me } from '../../client/features/auth/api/get-me.ts';
+import type { BillingOverview } from '../../client/features/billing/api/get-billing.ts';
+import type { Invoice } from '../../client/features/billing/api/get-invoices.ts';
+import type { PendingInvitation } from '../../client/features/invitations/api/get-invitations.ts';
+import type { LabDetail } from '../../client/features/labs/api/get-lab.ts';
+import type { IssuedKey } from '../../client/features/loggers/api/create-logger.ts';
+import type { Channel, IngestKeyInfo, LoggerDetail } from '../../client/features/loggers/api/get-logger.ts';
+import type { LoggerSummary } from '../../client/features/loggers/api/get-loggers.ts';
+import type { Member } from '../../client/features/members/api/get-members.ts';
+import type { QuarantinedRow } from '../../client/features/quarantine/api/get-quarantine.ts';
+import type { IssuedToken } from '../../client/features/tokens/api/create-token.ts';
+import type { PersonalToken } from '../../client/features/tokens/api/get-tokens.ts';
+import type { ChannelOverviewRow } from '../../client/features/channels/api/get-channels.ts';
+import type { ChannelDetail } from '../../client/features/channels/api/get-channel.ts';
+import type { Series } from '../../client/features/channels/api/get-series.ts';
+import type { DiagnosticsReport } from '../../client/features/diagnostics/api/get-diagnostics.ts';
+import type { Alert } from '../../client/features/alerts/api/get-alerts.ts';
+import type { AlertRule } from '../../client/features/alerts/api/get-alert-rules.ts';
+
+/** What `JSON.stringify` makes of T: dates become strings, typed arrays plain arrays. */
+type Json<T> = T extends Date
+  ? string
+  : T extends Float64Array | Int32Array
+    ? number[]
+    : T extends readonly unknown[]
+      ? { [K in keyof T]: Json<T[K]> }
+      : T extends object
+        ? { [K in keyof T]: Json<T[K]> }
+        : T;
+
+/** Compiles only when the server's answer A can be read as the client's type B. */
+type Reads<A extends B, B> = [A, B];
+type Answer<F extends (...args: never[]) => unknown> = Json<ReturnType<F>>;
+
+export type Contracts = [
+  Reads<Answer<typeof presentChannelOverview>, ChannelOverviewRow>,
+  Reads<Answer<typeof presentChannelDetail>, ChannelDetail>,
+  Reads<Json<ChannelSeries>, Series>,
+  // the router adds whether the report came from the cache
+  Reads<Json<ServerDiagnosticsReport> & { cached: boolean }, DiagnosticsReport>,
+  Reads<Answer<typeof presentAlert>, Alert>,
+  Reads<Answer<typeof presentAlertRule>, AlertRule>,
+  Reads<Answer<typeof presentAuditEntry>, AuditEntry>,
+  Reads<Answer<typeof presentMe>, Me>,
+  Reads<Answer<typeof presentBillingOverview>, BillingOverview>,
+  Reads<Answer<typeof presentInvoice>, Invoice>,
+  Reads<Answer<typeof presentInvitation>, PendingInvitation>,
+  Reads<Answer<typeof presentLabForMember>, LabDetail>,
+  Reads<Answer<typeof presentMember>, Member>,
+  // the logger list presents every logger with its channel count
+  Reads<Answer<typeof presentLogger> & { channelCount: number }, LoggerSummary>,
+  Reads<Answer<typeof presentLoggerDetail>, LoggerDetail>,
+  Reads<Answer<typeof presentChannel>, Channel>,
+  Reads<Answer<typeof presentKeyInfo>, IngestKeyInfo>,
+  Reads<Answer<typeof presentIssuedKey>['ingestKey'], IssuedKey>,
+  Reads<Answer<typeof presentQuarantinedRow>, QuarantinedRow>,
+  Reads<Answer<typeof presentPersonalToken>, PersonalToken>,
+  Reads<Answer<typeof presentIssuedPersonalToken>, IssuedToken>,
+];
