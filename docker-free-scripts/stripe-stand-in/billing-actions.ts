@@ -105,6 +105,24 @@ export function createBillingActions(state: StandInState, webhooks: WebhookSende
       }
     },
 
+    /**
+     * Moves the subscription's one item to another price (Stripe's `POST /v1/subscriptions/:id`
+     * with `items[0][id]` and `items[0][price]`): the difference is prorated onto the next
+     * invoice, as Stripe's default `proration_behavior` does, so no invoice is issued now.
+     */
+    changePrice(subscriptionId: string, itemId: string, priceId: string, metadata: Record<string, string> | undefined): StripeSubscription {
+      const sub = subscription(subscriptionId);
+      if (sub.status === 'canceled') throw new StripeApiError(400, 'invalid_request_error', 'A canceled subscription can only update its cancellation_details and metadata.');
+      const item = sub.items.data.find((i) => i.id === itemId);
+      if (!item) throw resourceMissing('subscription_item', itemId);
+      const price = state.prices.get(priceId);
+      if (!price) throw resourceMissing('price', priceId);
+      item.price = price;
+      if (metadata) sub.metadata = { ...sub.metadata, ...metadata };
+      webhooks.emit('customer.subscription.updated', sub);
+      return sub;
+    },
+
     /** Cancels the subscription at once (Stripe's `DELETE /v1/subscriptions/:id`). */
     cancel(subscriptionId: string): StripeSubscription {
       const sub = subscription(subscriptionId);

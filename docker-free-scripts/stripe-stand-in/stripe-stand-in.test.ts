@@ -242,6 +242,31 @@ describe('Stripe stand-in: checkout, portal, subscriptions, invoices and signed 
     expect((await client.invoices.list({ customer: customer.id })).data.map((i) => i.status)).toEqual(['paid', 'paid']);
   });
 
+  it('moves a subscription to another price through the SDK and sends customer.subscription.updated', async () => {
+    received.length = 0;
+    const { customer, session } = await openCheckout();
+    await fetch(`${session.url}/pay`, { method: 'POST', redirect: 'manual' });
+    const sub = (await client.subscriptions.list({ customer: customer.id })).data[0];
+    const [other] = (await client.prices.list({ lookup_keys: ['greenhouse-monthly'] })).data;
+    const updated = await client.subscriptions.update(sub.id, {
+      items: [{ id: sub.items.data[0].id, price: other.id }],
+      proration_behavior: 'create_prorations',
+      metadata: { plan_key: 'greenhouse' },
+    });
+    expect(updated.items.data[0].price.lookup_key).toBe('greenhouse-monthly');
+    expect(updated.metadata).toMatchObject({ plan_key: 'greenhouse' });
+    expect((await client.subscriptions.retrieve(sub.id)).items.data[0].price.id).toBe(other.id);
+    await billing.webhooks.idle();
+    const last = received[received.length - 1];
+    expect(last.type).toBe('customer.subscription.updated');
+    expect((last.data.object as Stripe.Subscription).items.data[0].price.lookup_key).toBe('greenhouse-monthly');
+    // prorations go onto the next invoice: still only the first one
+    expect((await client.invoices.list({ customer: customer.id })).data).toHaveLength(1);
+    await expect(client.subscriptions.update(sub.id, { items: [{ id: 'si_missing', price: other.id }] })).rejects.toMatchObject({ code: 'resource_missing' });
+    await client.subscriptions.cancel(sub.id);
+    await expect(client.subscriptions.update(sub.id, { items: [{ id: sub.items.data[0].id, price: other.id }] })).rejects.toMatchObject({ type: 'StripeInvalidRequestError' });
+  });
+
   it('refuses a checkout for an unknown price or customer the way Stripe does', async () => {
     const customer = await client.customers.create({});
     const failure = await client.checkout.sessions

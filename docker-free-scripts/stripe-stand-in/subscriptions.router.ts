@@ -1,12 +1,13 @@
 import express, { type Router } from 'express';
-import { resourceMissing } from './stripe-api-error.ts';
-import { optionalString, rejectUnknownParams, type StripeParams } from './request-params.ts';
+import { parameterInvalid, resourceMissing } from './stripe-api-error.ts';
+import { optionalMetadata, optionalString, rejectUnknownParams, type StripeParams } from './request-params.ts';
 import { stripeList } from './stripe-objects.ts';
 import type { BillingActions } from './billing-actions.ts';
 import type { StandInState } from './stand-in-state.ts';
 
 /**
- * Subscriptions: retrieve, list by customer, cancel (`DELETE`, which sends
+ * Subscriptions: retrieve, list by customer, move the item to another price (`POST /:id`, which
+ * sends `customer.subscription.updated`), cancel (`DELETE`, which sends
  * `customer.subscription.deleted`); and invoices: list by customer, newest first.
  */
 export function createSubscriptionsRouter(state: StandInState, actions: BillingActions): Router {
@@ -22,6 +23,16 @@ export function createSubscriptionsRouter(state: StandInState, actions: BillingA
     const sub = state.subscriptions.get(req.params.id);
     if (!sub) throw resourceMissing('subscription', req.params.id);
     res.json(sub);
+  });
+  router.post('/:id', (req, res) => {
+    const params: StripeParams = req.body ?? {};
+    rejectUnknownParams(params, ['items', 'proration_behavior', 'metadata', 'expand']);
+    const behaviour = optionalString(params, 'proration_behavior');
+    if (behaviour !== undefined && behaviour !== 'create_prorations') throw parameterInvalid('proration_behavior', 'The stand-in supports proration_behavior=create_prorations only.');
+    const items = params.items;
+    const first = (Array.isArray(items) ? items[0] : items && typeof items === 'object' ? Object.values(items)[0] : undefined) as Record<string, unknown> | undefined;
+    if (typeof first?.id !== 'string' || typeof first?.price !== 'string') throw parameterInvalid('items', 'The stand-in takes exactly items[0][id] and items[0][price].');
+    res.json(actions.changePrice(req.params.id, first.id, first.price, optionalMetadata(params)));
   });
   router.delete('/:id', (req, res) => {
     res.json(actions.cancel(req.params.id));

@@ -238,6 +238,65 @@ describe('upgrade through Stripe Checkout (stand-in) and back', () => {
   });
 });
 
+describe('switching between paid plans (stand-in)', () => {
+  const bigPlan = catalog.plans.filter((p) => p.priceLookupKey !== null)[1];
+  const switchTo = (lab: Lab, plan: string, acknowledgeLimits?: boolean) =>
+    request(t.app).post(lab.path('/billing/plan-change')).set('Cookie', lab.cookie).send(acknowledgeLimits === undefined ? { plan } : { plan, acknowledgeLimits });
+
+  it('moves the subscription to a larger plan once Stripe confirms, and back to a smaller one only when told the lab is over its limits', async () => {
+    const lab = await newLab();
+    await upgrade(lab);
+    const up = await switchTo(lab, bigPlan.key);
+    expect(up.status).toBe(202);
+    expect(up.body).toMatchObject({ plan: bigPlan.key });
+    expect(up.body.message).toContain('prorated');
+    const bigger = await eventually(async () => {
+      const o = await overview(lab);
+      return o.plan.key === bigPlan.key && o;
+    });
+    expect(bigger).toMatchObject({ status: 'active', limits: { readings: 1000 } });
+    // 30 readings: more than the first paid plan's 25
+    expect((await ingest(lab, 0, 30)).status).toBe(200);
+    await counterReaches(lab, 30);
+
+    const refused = await switchTo(lab, paidPlan.key);
+    expect(refused.status).toBe(409);
+    expect(refused.body.error.code).toBe('plan_too_small');
+    expect(refused.body.error.message).toContain('allows 25 stored readings and the lab has 30');
+    expect((await overview(lab)).plan.key).toBe(bigPlan.key);
+
+    expect((await switchTo(lab, paidPlan.key, true)).status).toBe(202);
+    const smaller = await eventually(async () => {
+      const o = await overview(lab);
+      return o.plan.key === paidPlan.key && o;
+    });
+    expect(smaller).toMatchObject({ ingestionRefused: true, usage: { readings: 30 } });
+    expect(await storedReadings(lab)).toBe(30);
+    expect((await ingest(lab, 30, 1)).status).toBe(402);
+
+    const audit = await request(t.app).get(lab.path('/audit')).set('Cookie', lab.cookie).expect(200);
+    const actions = audit.body.entries.map((e: { action: string }) => e.action);
+    expect(actions.filter((a: string) => a === 'billing.plan-change-requested')).toHaveLength(2);
+    expect(actions.filter((a: string) => a === 'billing.plan-changed')).toHaveLength(3); // checkout, up, down
+  });
+
+  it('refuses a switch without a subscription, to the plan already paid for, and to the free plan', async () => {
+    const lab = await newLab();
+    const none = await switchTo(lab, bigPlan.key);
+    expect(none.status).toBe(409);
+    expect(none.body.error.code).toBe('no_subscription');
+    await upgrade(lab);
+    const same = await switchTo(lab, paidPlan.key);
+    expect(same.status).toBe(409);
+    expect(same.body.error.code).toBe('same_plan');
+    const free = await switchTo(lab, catalog.free.key);
+    expect(free.status).toBe(400);
+    expect(free.body.error.message).toContain('cancel the subscription');
+    expect((await switchTo(lab, 'no-such-plan')).status).toBe(400);
+    expect((await overview(lab)).plan.key).toBe(paidPlan.key);
+  });
+});
+
 describe('webhook endpoint', () => {
   const secret = () => t.config.stripe.webhookSecret;
   const send = (e: { body: string; signature: string }) => request(t.app).post(WEBHOOK).set('Content-Type', 'application/json').set('Stripe-Signature', e.signature).send(e.body);

@@ -66,6 +66,8 @@ const ALLOWED: Record<string, { roles: Role[]; ok: number }> = {
   // Plan and payment are the admins' (DESIGN.md role table); checkout and portal talk to the Stripe stand-in.
   'GET /billing': { roles: ['admin'], ok: 200 },
   'POST /billing/checkout-session': { roles: ['admin'], ok: 201 },
+  // The fixture's lab has no subscription: a permitted caller passes the guard and is told so (409).
+  'POST /billing/plan-change': { roles: ['admin'], ok: 409 },
   'POST /billing/portal-session': { roles: ['admin'], ok: 201 },
   'GET /billing/invoices': { roles: ['admin'], ok: 200 },
 };

@@ -109,6 +109,7 @@ export function validBodyFor(method: string, path: string, f: LabWithEverything)
     'POST /quarantine/resubmit': { rows: [{ id: f.ids.quarantinedId, channel: 'air_t', ts: '2026-01-01T00:00:00Z', value: 4.5 }] },
     // a paid plan of tenants/plans.json
     'POST /billing/checkout-session': { plan: 'transect' },
+    'POST /billing/plan-change': { plan: 'watershed' },
   };
   return bodies[key];
 }

@@ -1,6 +1,6 @@
 import { actorOf, labOf } from '../middleware/lab-guard.ts';
 import { parseInput } from '../validate.ts';
-import { startCheckoutSchema } from './billing.schema.ts';
+import { changePlanSchema, startCheckoutSchema } from './billing.schema.ts';
 import { presentBillingOverview, presentInvoice } from './billing.presenter.ts';
 import type { BillingService } from '../../services/billing/billing.service.ts';
 import type { LabRoute } from '../lab-routes.ts';
@@ -27,6 +27,17 @@ export function billingRoutes(deps: { billing: BillingService }): LabRoute[] {
       handle: async (req, res) => {
         const { plan } = parseInput(startCheckoutSchema, req.body);
         res.status(201).json(await billing.startCheckout(labOf(res), actorOf(req), plan));
+      },
+    },
+    {
+      method: 'post',
+      path: '/billing/plan-change',
+      permission: 'billing.manage',
+      summary: 'Move a paid subscription to another paid plan (prorated); 202: the plan changes when Stripe confirms. 409 plan_too_small lists what the lab already uses beyond the plan unless acknowledgeLimits is true.',
+      body: changePlanSchema,
+      handle: async (req, res) => {
+        const { plan, acknowledgeLimits } = parseInput(changePlanSchema, req.body);
+        res.status(202).json(await billing.changePlan(labOf(res), actorOf(req), plan, acknowledgeLimits));
       },
     },
     {

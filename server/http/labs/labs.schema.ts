@@ -59,6 +59,7 @@ export const AUDIT_ACTIONS = [
   'token.created',
   'token.revoked',
   'billing.checkout-started',
+  'billing.plan-change-requested',
   'billing.plan-changed',
   'billing.status-changed',
 ] as const;

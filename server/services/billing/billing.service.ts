@@ -44,6 +44,14 @@ export interface InvoiceSummary {
 
 const TREND_DAYS = 30;
 
+/** The limits of `limits` that `used` already passes, in words ("40 loggers, the lab has 52"). */
+function overLimits(used: { readings: number; loggers: number; members: number }, limits: PlanLimits): string[] {
+  const words = { readings: 'stored readings', loggers: 'active loggers', members: 'members' } as const;
+  return (Object.keys(words) as Array<keyof typeof words>)
+    .filter((k) => used[k] > limits[k])
+    .map((k) => `${limits[k].toLocaleString('en')} ${words[k]} and the lab has ${used[k].toLocaleString('en')}`);
+}
+
 /** Anything the Stripe SDK throws becomes a typed 503 (the plan is never touched on this path). */
 async function callStripe<T>(call: () => Promise<T>): Promise<T> {
   try {
@@ -71,6 +79,16 @@ export function createBillingService(deps: { db: Db; stripe: Stripe; catalog: Pl
     const customer = await callStripe(() => stripe.customers.create({ name: lab.name, email: actor.email, metadata: { lab_id: String(lab.id), lab_slug: lab.slug } }));
     await billingOf(lab.id).patch({ stripeCustomerId: customer.id });
     return customer.id;
+  }
+
+  /** The active Stripe price a paid plan is sold under (found by its lookup key). */
+  async function priceOf(plan: Plan): Promise<Stripe.Price> {
+    const lookupKey = plan.priceLookupKey;
+    if (!lookupKey) throw new Error(`priceOf: the ${plan.name} plan is free and has no price`); // callers refuse free plans first
+    const prices = await callStripe(() => stripe.prices.list({ lookup_keys: [lookupKey], active: true, limit: 1 }));
+    const price = prices.data[0];
+    if (!price) throw new BillingUnavailableError(`The payment service has no price "${lookupKey}" for the ${plan.name} plan; your plan is unchanged. Tell the Lagbook operator.`);
+    return price;
   }
 
   return {
@@ -120,10 +138,7 @@ export function createBillingService(deps: { db: Db; stripe: Stripe; catalog: Pl
         throw new ConflictError('subscription_exists', 'The lab already has a subscription: change or cancel it under "Manage payment".');
       }
       const customer = await customerFor(lab, actor);
-      const lookupKey = plan.priceLookupKey;
-      const prices = await callStripe(() => stripe.prices.list({ lookup_keys: [lookupKey], active: true, limit: 1 }));
-      const price = prices.data[0];
-      if (!price) throw new BillingUnavailableError(`The payment service has no price "${lookupKey}" for the ${plan.name} plan; your plan is unchanged. Tell the Lagbook operator.`);
+      const price = await priceOf(plan);
       const metadata = { lab_id: String(lab.id), plan_key: plan.key };
       const session = await callStripe(() =>
         stripe.checkout.sessions.create({
@@ -147,6 +162,57 @@ export function createBillingService(deps: { db: Db; stripe: Stripe; catalog: Pl
         details: { plan: plan.key, session: session.id },
       });
       return { url: session.url };
+    },
+
+    /**
+     * Moves the lab's subscription to another paid plan: the subscription item gets the new
+     * plan's price and Stripe prorates the difference onto the next invoice. Like a checkout,
+     * it changes nothing here: the plan follows Stripe's `customer.subscription.updated`
+     * webhook. Refused (409) without an active subscription, for the plan already paid for,
+     * and — unless `acknowledgeLimits` — when the lab already uses more than the new plan
+     * allows (stored readings, loggers, members), with what exceeds in the message.
+     */
+    async changePlan(lab: LabContext, actor: Actor, planKey: string, acknowledgeLimits: boolean): Promise<{ plan: string; message: string }> {
+      const plan = catalog.byKey(planKey);
+      if (!plan) throw new ValidationError(`plan: no plan "${planKey}" in the catalog`);
+      if (!plan.priceLookupKey) throw new ValidationError(`plan: to return to the ${plan.name} plan, cancel the subscription under "Manage payment"`);
+      const row = await billingOf(lab.id).get();
+      if (!row?.stripeSubscriptionId || row.status === 'canceled' || row.status === 'none') {
+        throw new ConflictError('no_subscription', 'The lab has no subscription to change: choose a plan to subscribe to it.');
+      }
+      if (row.status !== 'active') throw new ConflictError('payment_overdue', 'The last payment failed: settle it under "Manage payment" before changing the plan.');
+      if (row.planKey === plan.key) throw new ConflictError('same_plan', `The lab is already on the ${plan.name} plan.`);
+      const at = now();
+      const usage = usageIn(inLab(db, lab.id));
+      const used = { readings: row.readingsCount, loggers: await usage.activeLoggers(), members: await usage.seatsTaken(at) };
+      const over = overLimits(used, plan.limits);
+      if (over.length > 0 && !acknowledgeLimits) {
+        throw new ConflictError(
+          'plan_too_small',
+          `The ${plan.name} plan allows ${over.join('; ')}. Nothing is deleted, but while the lab is over a limit it cannot add more of that (new readings are refused while stored readings are at the limit). Confirm to switch anyway.`,
+        );
+      }
+      const subscriptionId = row.stripeSubscriptionId;
+      const [price, subscription] = await Promise.all([priceOf(plan), callStripe(() => stripe.subscriptions.retrieve(subscriptionId))]);
+      const item = subscription.items.data[0];
+      if (!item) throw new BillingUnavailableError();
+      await callStripe(() =>
+        stripe.subscriptions.update(subscriptionId, {
+          items: [{ id: item.id, price: price.id }],
+          proration_behavior: 'create_prorations',
+          metadata: { lab_id: String(lab.id), plan_key: plan.key },
+        }),
+      );
+      const from = catalog.byKey(row.planKey)?.name ?? row.planKey;
+      await auditIn(inLab(db, lab.id)).record({
+        actorUserId: actor.id,
+        action: 'billing.plan-change-requested',
+        targetType: 'lab',
+        targetId: lab.id,
+        summary: `${actor.displayName} asked to move the subscription from the ${from} plan to the ${plan.name} plan`,
+        details: { from: row.planKey, to: plan.key, overLimits: over },
+      });
+      return { plan: plan.key, message: `The switch to the ${plan.name} plan is sent; the plan changes as soon as the payment service confirms it. The price difference is prorated on the next invoice.` };
     },
 
     /** A billing-portal session (card, invoices, cancellation) that returns to the billing page. */

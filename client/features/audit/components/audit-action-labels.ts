@@ -29,6 +29,7 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   'token.created': 'Personal API token created',
   'token.revoked': 'Personal API token revoked',
   'billing.checkout-started': 'Plan checkout started',
+  'billing.plan-change-requested': 'Plan switch requested',
   'billing.plan-changed': 'Plan changed',
   'billing.status-changed': 'Payment status changed',
 };

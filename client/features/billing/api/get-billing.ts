@@ -49,9 +49,11 @@ export const isConfirmed = (o: BillingOverview | undefined): boolean => !!o && o
 
 /**
  * The lab's plan and usage. With `untilConfirmed` (back from Checkout) it refetches every
- * `pollMs` until the webhook has landed, then stops.
+ * `pollMs` until the webhook has landed; with `untilPlan` (after a plan switch) until the
+ * subscription is on that plan; then it stops.
  */
-export function useBilling(slug: string, opts: { untilConfirmed?: boolean; pollMs?: number } = {}) {
+export function useBilling(slug: string, opts: { untilConfirmed?: boolean; untilPlan?: string | null; pollMs?: number } = {}) {
   const every = opts.pollMs ?? 1500;
-  return useQuery({ ...billingQueryOptions(slug), refetchInterval: (query) => (opts.untilConfirmed && !isConfirmed(query.state.data) ? every : false) });
+  const waiting = (o: BillingOverview | undefined) => (opts.untilConfirmed && !isConfirmed(o)) || (!!opts.untilPlan && o?.subscribedPlanKey !== opts.untilPlan);
+  return useQuery({ ...billingQueryOptions(slug), refetchInterval: (query) => (waiting(query.state.data) ? every : false) });
 }

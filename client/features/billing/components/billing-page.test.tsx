@@ -71,6 +71,47 @@ describe('billing page', () => {
     expect(screen.getByTestId('current-plan').textContent).toBe('Transect');
   });
 
+  it('switches an active subscription to another paid plan, asks first when the lab is over the new limits, and polls until confirmed', async () => {
+    const BIG: BillingPlan = { key: 'watershed', name: 'Watershed', summary: '', monthlyAmount: 18900, paid: true, limits: { readings: 900000, loggers: 300, members: 150, historyDays: 7300 } };
+    const onBig = overview({ plan: BIG, subscribedPlanKey: 'watershed', status: 'active', limits: BIG.limits, usage: { readings: 60000, loggers: 4, members: 3 }, plans: [FREE, PAID, BIG] });
+    let switched = false;
+    const api = fakeApi({
+      [`GET ${BASE}`]: () => ({ status: 200, body: switched ? { ...onBig, plan: PAID, subscribedPlanKey: 'transect', limits: PAID.limits } : onBig }),
+      [`GET ${BASE}/invoices`]: () => ({ status: 200, body: { invoices: [] } }),
+      [`POST ${BASE}/plan-change`]: (req) => {
+        if (!(req.body as { acknowledgeLimits?: boolean }).acknowledgeLimits) {
+          return apiError(409, 'plan_too_small', 'The Transect plan allows 50,000 stored readings and the lab has 60,000. Confirm to switch anyway.');
+        }
+        switched = true;
+        return { status: 202, body: { plan: 'transect', message: 'The switch to the Transect plan is sent; the plan changes as soon as the payment service confirms it.' } };
+      },
+    });
+    renderWithProviders(<BillingPage slug="fernhollow" returned={null} />);
+    // a subscribed lab switches instead of checking out again; the free plan is reached by cancelling
+    expect(screen.queryByRole('button', { name: 'Choose Transect' })).toBeNull();
+    fireEvent.click(await screen.findByRole('button', { name: 'Switch to Transect' }));
+    expect(await screen.findByText(/allows 50,000 stored readings and the lab has 60,000/)).toBeTruthy();
+    expect(screen.getByTestId('current-plan').textContent).toBe('Watershed');
+    fireEvent.click(screen.getByRole('button', { name: 'Switch to Transect anyway' }));
+    expect(await screen.findByText('Switch confirmed: the lab is now on the Transect plan.', undefined, { timeout: 8000 })).toBeTruthy();
+    expect(screen.getByTestId('current-plan').textContent).toBe('Transect');
+    expect(api.requests.filter((r) => r.method === 'POST').map((r) => r.body)).toEqual([
+      { plan: 'transect', acknowledgeLimits: false },
+      { plan: 'transect', acknowledgeLimits: true },
+    ]);
+  });
+
+  it('offers no switch while a payment is overdue', async () => {
+    const BIG: BillingPlan = { key: 'watershed', name: 'Watershed', summary: '', monthlyAmount: 18900, paid: true, limits: PAID.limits };
+    fakeApi({
+      [`GET ${BASE}`]: () => ({ status: 200, body: overview({ plan: PAID, subscribedPlanKey: 'transect', status: 'past_due', graceUntil: '2026-12-20T00:00:00.000Z', limits: PAID.limits, plans: [FREE, PAID, BIG] }) }),
+      [`GET ${BASE}/invoices`]: () => ({ status: 200, body: { invoices: [] } }),
+    });
+    renderWithProviders(<BillingPage slug="fernhollow" returned={null} />);
+    expect(await screen.findByText('Settle the overdue payment under “Manage payment” to switch')).toBeTruthy();
+    expect(screen.queryByRole('button', { name: 'Switch to Watershed' })).toBeNull();
+  });
+
   it('shows the grace period when a payment failed, and a clear message when the payment service is down', async () => {
     fakeApi({
       [`GET ${BASE}`]: () => ({ status: 200, body: overview({ plan: PAID, status: 'past_due', graceUntil: '2026-12-09T10:00:00.000Z', limits: PAID.limits }) }),
