@@ -8,16 +8,17 @@ import { loadPlanCatalog } from '../../server/services/billing/plan-catalog.ts';
  * Upgrading in the browser (Debian's Chromium, the real app, the Stripe stand-in started by
  * dev-services): an admin opens Billing, chooses a paid plan, pays on the stand-in's checkout
  * page, comes back to "waiting for confirmation" and sees the new plan and raised limits once
- * the signed webhook has landed. The admin signs in by a session cookie (sign-in itself is
+ * the signed webhook has landed, then switches to the larger plan in place. The admin signs in by a session cookie (sign-in itself is
  * covered by sign-in.e2e.test.ts).
  */
 const s = browserSuite();
 const catalog = loadPlanCatalog('tenants/plans.json');
 const paid = catalog.plans.find((p) => p.priceLookupKey !== null)!;
+const larger = catalog.plans.filter((p) => p.priceLookupKey !== null)[1];
 const grouped = (n: number) => n.toLocaleString('en-GB');
 
 describe('billing in the browser', () => {
-  it('upgrades through the checkout page and shows the confirmed plan with its limits', async () => {
+  it('upgrades through the checkout page, shows the confirmed plan with its limits, then switches to a larger plan', async () => {
     const run = Date.now().toString(36);
     const lab = await buildLab(s.t.db, { name: `Brackenfold Peat Station ${run}` });
     const admin = await buildMember(s.t.db, lab, { role: 'admin', displayName: 'Tamsin Oyelaran' });
@@ -47,6 +48,15 @@ describe('billing in the browser', () => {
     await expect.poll(() => page.getByText(`0 of ${grouped(paid.limits.loggers)}`).count()).toBe(1);
     await expect.poll(() => page.getByRole('link', { name: /^LBSI-/ }).count()).toBe(1);
     await keepScreenshot(page, 'billing-upgraded');
+
+    // a subscribed lab switches plans in place (the stand-in moves the subscription's price)
+    await page.getByRole('button', { name: `Switch to ${larger.name}` }).click();
+    await expect.poll(() => page.getByText(`Switch confirmed: the lab is now on the ${larger.name} plan.`).count(), { timeout: 15_000 }).toBe(1);
+    expect(await page.getByTestId('current-plan').textContent()).toBe(larger.name);
+    // the checkout's own confirmation still names the plan that was paid for
+    expect(await page.getByText(`Payment confirmed: the lab is now on the ${paid.name} plan.`).count()).toBe(1);
+    expect(await page.getByRole('meter', { name: 'Stored readings' }).getAttribute('aria-valuemax')).toBe(String(larger.limits.readings));
+    await keepScreenshot(page, 'billing-switched');
     await page.close();
   });
 });

@@ -1,3 +1,4 @@
+import { useRef } from 'react';
 import { Button } from '../../../components/button.tsx';
 import { DateTime } from '../../../components/date-time.tsx';
 import { LoadingNote, Notice } from '../../../components/notice.tsx';
@@ -26,9 +27,12 @@ function StatusNotice({ overview }: { overview: BillingOverview }) {
 }
 
 function CheckoutNotice({ returned, overview }: { returned: CheckoutReturn; overview: BillingOverview }) {
+  // The plan the checkout confirmed, kept: a later switch on this page must not rename it.
+  const confirmedPlan = useRef<string | null>(null);
+  if (confirmedPlan.current === null && isConfirmed(overview)) confirmedPlan.current = overview.plan.name;
   if (returned === 'cancelled') return <Notice tone="status">Checkout was cancelled; nothing was charged and the plan is unchanged.</Notice>;
   if (returned !== 'complete') return null;
-  if (isConfirmed(overview)) return <Notice tone="status">Payment confirmed: the lab is now on the {overview.plan.name} plan.</Notice>;
+  if (confirmedPlan.current !== null) return <Notice tone="status">Payment confirmed: the lab is now on the {confirmedPlan.current} plan.</Notice>;
   return <Notice tone="status">Payment received — waiting for confirmation from Stripe. This page updates by itself.</Notice>;
 }
 
