@@ -22,6 +22,14 @@ export class AnalysisRefusedError extends AppError {
 export const MAX_DIAGNOSTICS_CELLS = 300_000;
 
 const DEFAULT_CACHE: ResultCacheOptions = { maxEntries: 64, maxBytes: 128 * 1024 * 1024, maxAgeMs: 15 * 60_000 };
+/** Grids read from the database, kept for the next request on the same range with other parameters. */
+const DEFAULT_GRID_CACHE: ResultCacheOptions = { maxEntries: 16, maxBytes: 64 * 1024 * 1024, maxAgeMs: 15 * 60_000 };
+
+/** One channel's cells for a range, as read, and where they came from. */
+interface LoadedGrid {
+  data: ReadingColumns;
+  source: GridSource;
+}
 
 /**
  * Channel diagnostics: loads one channel's grid for a range (from exact rollup cells when the
@@ -29,13 +37,30 @@ const DEFAULT_CACHE: ResultCacheOptions = { maxEntries: 64, maxBytes: 128 * 1024
  * process when no pool is given) and caches the serialised report. The cache key holds the
  * channel, range, every parameter and the data version of the channel (and of the CCF partner),
  * read before the readings: a batch that stores new readings bumps the version, so a later
- * request never gets a result computed without them.
+ * request never gets a result computed without them. The grids read are cached apart, under
+ * the same data version: another differencing, lag or decomposition on the same range runs the
+ * engine again without reading the database again.
  */
-export function createDiagnosticsService(deps: { db: Db; channels: ChannelsService; pool?: AnalysisPool; cache?: Partial<ResultCacheOptions> }) {
+export function createDiagnosticsService(deps: { db: Db; channels: ChannelsService; pool?: AnalysisPool; cache?: Partial<ResultCacheOptions>; gridCache?: Partial<ResultCacheOptions> }) {
   const cache = createResultCache({ ...DEFAULT_CACHE, ...deps.cache });
+  const grids = createResultCache<LoadedGrid>({ ...DEFAULT_GRID_CACHE, ...deps.gridCache, sizeOf: (g) => g.data.ts.byteLength + g.data.values.byteLength });
+
+  /**
+   * One channel's values on the step grid of [from, to), from memory when the same channel,
+   * data version, range, step and aggregate were read lately (the panel's other parameters
+   * change nothing here), else from the database.
+   */
+  async function load(lab: LabContext, channel: ChannelWithState, range: { from: number; to: number }, stepMs: number, agg: DiagnosticsParams['agg']): Promise<LoadedGrid> {
+    const key = JSON.stringify([lab.id, channel.id, channel.dataVersion, range, stepMs, agg]);
+    const kept = grids.get(key);
+    if (kept) return kept;
+    const grid = await read(lab, channel.id, range, stepMs, agg);
+    grids.set(key, grid);
+    return grid;
+  }
 
   /** One channel's values on the step grid of [from, to): exact rollup cells when possible. */
-  async function load(lab: LabContext, channelId: number, range: { from: number; to: number }, stepMs: number, agg: DiagnosticsParams['agg']): Promise<{ data: ReadingColumns; source: GridSource }> {
+  async function read(lab: LabContext, channelId: number, range: { from: number; to: number }, stepMs: number, agg: DiagnosticsParams['agg']): Promise<LoadedGrid> {
     const repo = channelReadingsIn(inLab(deps.db, lab.id), deps.db);
     const resolutionS = agg === 'mean' || agg === 'min' || agg === 'max' ? [...ROLLUP_RESOLUTIONS_S].reverse().find((r) => stepMs % (r * 1000) === 0) : undefined;
     if (resolutionS && (agg === 'mean' || agg === 'min' || agg === 'max')) {
@@ -76,7 +101,7 @@ export function createDiagnosticsService(deps: { db: Db; channels: ChannelsServi
       const hit = cache.get(key);
       if (hit !== undefined) return { json: hit, cached: true };
 
-      const [main, other] = await Promise.all([load(lab, channelId, range, stepMs, params.agg), partner ? load(lab, partner.id, range, stepMs, params.agg) : null]);
+      const [main, other] = await Promise.all([load(lab, channel, range, stepMs, params.agg), partner ? load(lab, partner, range, stepMs, params.agg) : null]);
       if (main.data.ts.length === 0) throw new AnalysisRefusedError('This channel has no readings in the chosen range.');
       if (other && other.data.ts.length === 0) throw new AnalysisRefusedError('ccfWith: the other channel has no readings in the chosen range.');
       const options: ChannelDiagnosticsOptions = {

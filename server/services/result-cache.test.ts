@@ -41,3 +41,18 @@ describe('createResultCache', () => {
     expect(cache.size).toBe(0);
   });
 });
+
+describe('createResultCache with sizeOf', () => {
+  it('budgets any value by the size it reports', () => {
+    const cache = createResultCache<Float64Array>({ maxEntries: 10, maxBytes: 100, maxAgeMs: 1000, now: () => 0, sizeOf: (v) => v.byteLength });
+    cache.set('a', new Float64Array(6)); // 48 bytes
+    cache.set('b', new Float64Array(6)); // 96 in all
+    cache.set('c', new Float64Array(2)); // 112: 'a' goes
+    expect(cache.get('a')).toBeUndefined();
+    expect(cache.get('b')?.length).toBe(6);
+    expect(cache.get('c')?.length).toBe(2);
+    cache.set('huge', new Float64Array(13)); // 104 bytes, more than the whole budget
+    expect(cache.get('huge')).toBeUndefined();
+    expect(cache.size).toBe(2);
+  });
+});

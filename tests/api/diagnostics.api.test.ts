@@ -196,6 +196,29 @@ describe('GET /channels/:channelId/diagnostics', () => {
     expect((await request(t.app).get(path).set('Cookie', cookie).expect(200)).body.cached).toBe(true);
   });
 
+  it('reads a range once for other parameters on it, and again after a new reading', async () => {
+    // The cached grid is told apart from a fresh read by changing one stored cell behind the
+    // app's back (no new data version): requests that reuse the grid do not see the change.
+    const path = (extra: string) => `${base}/diagnostics?${range}&step=600&decomposition=none&maxLag=24${extra}`;
+    const meanOf = async (extra: string) => (await request(t.app).get(path(extra)).set('Cookie', cookie).expect(200)).body.effectiveSampleSize.mean as number;
+    const cell = { tenant_id: f.lab.id, channel_id: f.ids.channelId, resolution_s: 60, bucket_start: T0 + 100 * STEP };
+    const stored = await t.db('reading_rollups').where(cell).first('sum_value', 'count_value');
+    const first = await meanOf('&alpha=0.049');
+    try {
+      await t.db('reading_rollups').where(cell).update({ sum_value: 1000 * stored.count_value });
+      // other parameters (the mean is of the undifferenced grid either way): the grid read before
+      expect(await meanOf('&alpha=0.048&difference=1')).toBe(first);
+      // a reading after the range moves the channel's data version on: the range is read again
+      await ingest([{ channel: 'air_t', ts: T0 + (N + 5) * STEP, value: 12 }]);
+      expect(await meanOf('&alpha=0.047&difference=1')).toBeGreaterThan(first + 0.5);
+    } finally {
+      await t.db('reading_rollups').where(cell).update({ sum_value: stored.sum_value });
+      // and once more, so that no later test is served the changed cell from memory
+      await ingest([{ channel: 'air_t', ts: T0 + (N + 6) * STEP, value: 12 }]);
+    }
+    expect(await meanOf('&alpha=0.046')).toBeCloseTo(first, 10);
+  });
+
   it('cross-correlates with another channel of the lab and says which one trails, in R’s sign convention', async () => {
     const res = await request(t.app).get(`${base}/diagnostics?${range}&step=600&decomposition=none&ccfWith=${soilId}&ccfMaxLag=30`).set('Cookie', cookie).expect(200);
     const engine = channelDiagnostics(air, engineOptions({ decomposition: 'none', ccfMaxLag: 30 }), soil);
