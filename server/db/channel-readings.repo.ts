@@ -94,6 +94,16 @@ export function channelReadingsIn(scope: LabScope, db: Knex, options: ChannelRea
       return toColumns(await arrays(sql, [tenantId, channelId, from, to]));
     },
 
+    /**
+     * Raw readings with from ≤ ts < to, in time order, for a grid of `stepMs` cells: a range of
+     * many steps is read as concurrent slices (see `sliceSteps`), like `cellsFromRollups`.
+     */
+    async rangeForGrid(channelId: number, from: number, to: number, stepMs: number): Promise<ReadingColumns> {
+      const sql = 'SELECT ts, value FROM readings WHERE tenant_id = ? AND channel_id = ? AND ts >= ? AND ts < ? ORDER BY ts';
+      const parts = await Promise.all(rangeSlices(from, to, stepMs, sliceSteps, maxSlices).map(async ([a, b]) => toColumns(await arrays(sql, [tenantId, channelId, a, b]))));
+      return concatColumns(parts);
+    },
+
     /** Raw readings summarised per bucket of `widthMs` (aligned to whole multiples since the epoch). */
     async rawBuckets(channelId: number, from: number, to: number, widthMs: number): Promise<BucketRow[]> {
       return toBuckets(

@@ -66,7 +66,7 @@ export function createDiagnosticsService(deps: { db: Db; channels: ChannelsServi
     if (resolutionS && (agg === 'mean' || agg === 'min' || agg === 'max')) {
       return { data: await repo.cellsFromRollups(channelId, resolutionS, range.from, range.to, stepMs, agg), source: { kind: 'rollups', resolutionS } };
     }
-    return { data: await repo.range(channelId, range.from, range.to), source: { kind: 'readings' } };
+    return { data: await repo.rangeForGrid(channelId, range.from, range.to, stepMs), source: { kind: 'readings' } };
   }
 
   async function compute(readings: ChannelReadings, options: ChannelDiagnosticsOptions, partner: ChannelReadings | undefined, signal?: AbortSignal): Promise<ChannelDiagnostics> {

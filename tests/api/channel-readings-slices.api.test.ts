@@ -8,7 +8,8 @@ import { buildLabWithEverything } from '../support/lab-fixture.ts';
 /**
  * Grid reads split into slices read concurrently (channelReadingsIn's `sliceSteps`) must give
  * exactly the cells of one read: same times, same values, nothing doubled at a cut, for the
- * one-rollup-per-cell form and the grouped form, with a range that does not start on the grid.
+ * one-rollup-per-cell form, the grouped form and raw readings, with a range that does not
+ * start on the grid.
  * Simulated minute rollups with gaps (behaviour check only).
  */
 const MIN = 60_000;
@@ -29,6 +30,14 @@ beforeAll(async () => {
     rows.push({ tenant_id: tenantId, channel_id: channelId, resolution_s: 60, bucket_start: T0 + m * MIN, min_value: value - 0.5, max_value: value + 0.5, sum_value: 3 * value, count_value: 3 });
   }
   await db('reading_rollups').insert(rows);
+  // raw readings every 20 s with the same gaps, for the raw read
+  const raw = [];
+  for (let k = 0; k < 240 * 3; k++) {
+    const m = Math.floor(k / 3);
+    if (m % 17 === 5 || (m >= 100 && m < 112)) continue;
+    raw.push({ tenant_id: tenantId, channel_id: channelId, ts: T0 + k * 20_000, value: 20 + Math.sin(k / 27) });
+  }
+  await db('readings').insert(raw);
 });
 
 afterAll(async () => {
@@ -44,6 +53,16 @@ describe('sliced grid reads', () => {
     ['five rollups per cell, mean', 5 * MIN, 'mean'],
     ['seven rollups per cell, min', 7 * MIN, 'min'],
   ];
+  it('equal one read: raw readings for a grid, cut at whole steps', async () => {
+    const from = T0 + 3 * MIN + 17_000;
+    const to = T0 + 233 * MIN;
+    const one = await whole().range(channelId, from, to);
+    const parts = await sliced().rangeForGrid(channelId, from, to, MIN);
+    expect(one.ts.length).toBeGreaterThan(500);
+    expect(Array.from(parts.ts)).toEqual(Array.from(one.ts));
+    expect(Array.from(parts.values)).toEqual(Array.from(one.values));
+  });
+
   for (const [name, stepMs, agg] of cases) {
     it(`equal one read: ${name}`, async () => {
       const from = T0 + 3 * MIN + 17_000; // not on any grid
