@@ -98,7 +98,7 @@ export function createApp(deps: AppDeps): Express {
   const users = createUsersRepo(db);
   const labs = createLabsRepo(db);
   const signIn = createSignInService({ users });
-  const me = createMeService({ labs });
+  const me = createMeService({ labs, users });
   const passport = createPassport({ config, endpoints: deps.identity.endpoints, users, signIn });
   const labsService = createLabsService({ db });
   const members = createMembersService({ db });

@@ -6,6 +6,7 @@ export const paths = {
     href: (returnTo?: string) => (returnTo && returnTo !== '/' ? `/sign-in?returnTo=${encodeURIComponent(returnTo)}` : '/sign-in'),
   },
   createLab: { path: '/labs/new', href: () => '/labs/new' },
+  account: { path: '/account', href: () => '/account' },
   lab: { path: '/labs/:lab', href: (slug: string) => `/labs/${encodeURIComponent(slug)}` },
   labMembers: { path: '/labs/:lab/members', href: (slug: string) => `/labs/${encodeURIComponent(slug)}/members` },
   labAudit: {

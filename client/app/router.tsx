@@ -9,6 +9,7 @@ const router = createBrowserRouter([
     children: [
       { index: true, lazy: async () => ({ Component: (await import('./routes/home.tsx')).default }) },
       { path: paths.createLab.path, lazy: async () => ({ Component: (await import('./routes/create-lab.tsx')).default }) },
+      { path: paths.account.path, lazy: async () => ({ Component: (await import('./routes/account.tsx')).default }) },
       {
         path: paths.lab.path,
         lazy: async () => ({ Component: (await import('./routes/lab-layout.tsx')).default }),

@@ -6,7 +6,8 @@ import { paths } from '../app/paths.ts';
 
 /**
  * The frame around every signed-in page: a spruce band with the mark, the lab switcher,
- * the person's name and a sign-out button, and the page itself on paper below.
+ * the person's name (a link to their account settings) and a sign-out button, and the page
+ * itself on paper below.
  */
 export function AppShell({
   userName,
@@ -35,9 +36,9 @@ export function AppShell({
             <Link to={paths.apiReference.href()} className="rounded underline-offset-2 hover:underline" title="Lagbook's HTTP API">
               API
             </Link>
-            <span data-testid="signed-in-name" className="font-medium">
+            <Link to={paths.account.href()} data-testid="signed-in-name" className="rounded font-medium underline-offset-2 hover:underline" title="Your account">
               {userName}
-            </span>
+            </Link>
             <button
               type="button"
               onClick={onSignOut}

@@ -156,10 +156,10 @@ export function alertRulesIn(scope: LabScope) {
       return new Set(rows.map((r: { ruleId: unknown }) => Number(r.ruleId)));
     },
     /**
-     * Subscribers of a rule who are still members of the lab, with their address: mail goes
-     * only to people who may still see the lab.
+     * Subscribers of a rule who are still members of the lab, with their address and own time
+     * zone: mail goes only to people who may still see the lab.
      */
-    async recipients(ruleId: number): Promise<Array<{ userId: number; email: string; displayName: string }>> {
+    async recipients(ruleId: number): Promise<Array<{ userId: number; email: string; displayName: string; timeZone: string | null }>> {
       const rows = await scope
         .table('alert_subscriptions')
         .join('memberships', function joinMembership() {
@@ -168,8 +168,8 @@ export function alertRulesIn(scope: LabScope) {
         .join('users', 'users.id', 'alert_subscriptions.user_id')
         .where('alert_subscriptions.rule_id', ruleId)
         .orderBy('alert_subscriptions.user_id')
-        .select('users.id as userId', 'users.email', 'users.display_name as displayName');
-      return rows.map((r: Record<string, unknown>) => ({ userId: Number(r.userId), email: r.email as string, displayName: r.displayName as string }));
+        .select('users.id as userId', 'users.email', 'users.display_name as displayName', 'users.time_zone as timeZone');
+      return rows.map((r: Record<string, unknown>) => ({ userId: Number(r.userId), email: r.email as string, displayName: r.displayName as string, timeZone: (r.timeZone as string | null) ?? null }));
     },
   };
 }

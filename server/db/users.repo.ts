@@ -9,6 +9,8 @@ export interface User {
   displayName: string;
   createdAt: Date;
   lastSignInAt: Date | null;
+  /** The person's own IANA time zone, if they chose one (alert mails add their clock). */
+  timeZone: string | null;
 }
 
 interface UserRow {
@@ -20,6 +22,7 @@ interface UserRow {
   display_name: string;
   created_at: Date;
   last_sign_in_at: Date | null;
+  time_zone: string | null;
 }
 
 function toUser(r: UserRow): User {
@@ -32,6 +35,7 @@ function toUser(r: UserRow): User {
     displayName: r.display_name,
     createdAt: r.created_at,
     lastSignInAt: r.last_sign_in_at,
+    timeZone: r.time_zone ?? null,
   };
 }
 
@@ -82,6 +86,11 @@ export function createUsersRepo(db: DbOrTrx) {
       const user = await this.findByIdentity(claims.issuer, claims.subject, trx);
       if (!user) throw new Error('upsertFromIdentity: the user row vanished');
       return user;
+    },
+
+    /** Sets (or, with null, clears) the person's own time zone; the caller has checked the name. */
+    async setTimeZone(id: number, timeZone: string | null, trx: DbOrTrx = db): Promise<void> {
+      await trx('users').where({ id }).update({ time_zone: timeZone });
     },
   };
 }

@@ -7,7 +7,7 @@ function fakeUsers() {
   const repo = {
     async upsertFromIdentity(claims: IdentityClaims): Promise<User> {
       saved.push(claims);
-      return { id: 1, oidcIssuer: claims.issuer, oidcSubject: claims.subject, email: claims.email, emailVerified: claims.emailVerified, displayName: claims.displayName, createdAt: new Date(0), lastSignInAt: null };
+      return { id: 1, oidcIssuer: claims.issuer, oidcSubject: claims.subject, email: claims.email, emailVerified: claims.emailVerified, displayName: claims.displayName, createdAt: new Date(0), lastSignInAt: null, timeZone: null };
     },
   } as unknown as UsersRepo;
   return { repo, saved };

@@ -25,6 +25,20 @@ describe('POST /api/v1/labs', () => {
     expect(audit.body.entries.map((e: { action: string }) => e.action)).toEqual(['lab.created']);
   });
 
+  it("keeps the person's own time zone: set, shown by GET /me, refused when unknown, cleared with null", async () => {
+    const user = await buildUser(t.db);
+    const cookie = await sessionCookieFor(t.db, t.config.sessionSecret, user.id);
+    expect((await request(t.app).get('/api/v1/me').set('Cookie', cookie).expect(200)).body.user.timeZone).toBeNull();
+    const set = await request(t.app).patch('/api/v1/me').set('Cookie', cookie).send({ timeZone: ' America/New_York ' }).expect(200);
+    expect(set.body.user.timeZone).toBe('America/New_York');
+    expect((await request(t.app).get('/api/v1/me').set('Cookie', cookie).expect(200)).body.user.timeZone).toBe('America/New_York');
+    const bad = await request(t.app).patch('/api/v1/me').set('Cookie', cookie).send({ timeZone: 'Mars/Olympus_Mons' }).expect(400);
+    expect(bad.body.error.message).toBe('timeZone: must be an IANA time zone such as Europe/Berlin or UTC');
+    expect((await request(t.app).get('/api/v1/me').set('Cookie', cookie).expect(200)).body.user.timeZone).toBe('America/New_York');
+    expect((await request(t.app).patch('/api/v1/me').set('Cookie', cookie).send({ timeZone: null }).expect(200)).body.user.timeZone).toBeNull();
+    await request(t.app).patch('/api/v1/me').send({ timeZone: 'UTC' }).expect(401);
+  });
+
   it('answers 401 when signed out', async () => {
     await request(t.app).post('/api/v1/labs').send({ name: 'Nope' }).expect(401);
   });

@@ -14,7 +14,7 @@ afterEach(() => {
 });
 
 // People and lab invented for the test; permissions come from the server's own role table.
-const me = (role: Role): Me => ({ user: { id: 7, email: 'odalys.brennick@fernhollow.example', name: 'Odalys Brennick' }, labs: [{ slug: 'fernhollow', name: 'Fernhollow Field Station', role }] });
+const me = (role: Role): Me => ({ user: { id: 7, email: 'odalys.brennick@fernhollow.example', name: 'Odalys Brennick', timeZone: null }, labs: [{ slug: 'fernhollow', name: 'Fernhollow Field Station', role }] });
 const routes = (role: Role): RouteObject[] => [
   { element: <Outlet context={me(role)} />, children: [{ path: paths.lab.path, element: <LabLayout />, children: [{ path: paths.labBilling.path, element: <LabBillingRoute /> }] }] },
 ];

@@ -19,7 +19,7 @@ afterEach(() => {
 
 // People from docker-free-scripts/identity-provider/dev-accounts.ts; loggers, ids and dates invented for the test.
 const ME: Me = {
-  user: { id: 7, email: 'tobiah.quarrie@fernhollow.example', name: 'Tobiah Quarrie' },
+  user: { id: 7, email: 'tobiah.quarrie@fernhollow.example', name: 'Tobiah Quarrie', timeZone: null },
   labs: [{ slug: 'fernhollow', name: 'Fernhollow Field Station', role: 'technician' }],
 };
 

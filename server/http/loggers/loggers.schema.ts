@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { isKnownTimeZone } from '../../policies/time-zones.ts';
+import { timeZoneSchema } from '../time-zone.schema.ts';
 
 /**
  * Input schemas for loggers, channels, ingest keys and quarantine review. Pure zod, shared
@@ -41,8 +41,6 @@ export const channelInputSchema = z.object(channelFields).refine(rangeIsOrdered,
 export type ChannelInputBody = z.infer<typeof channelInputSchema>;
 
 export const channelPatchSchema = z.object(channelFields).partial().refine(rangeIsOrdered, rangeMessage);
-
-const timeZoneSchema = z.string().trim().refine(isKnownTimeZone, 'must be an IANA time zone such as Europe/Berlin or UTC');
 
 const loggerFields = {
   name: z.string().trim().min(1, 'must not be empty').max(120, 'must be at most 120 characters'),
@@ -89,7 +87,7 @@ export const uploadOptionsSchema = z
     columns: z.record(z.string().max(191), channelKeySchema.nullable()).optional(),
     timeFormat: z.enum(['auto', 'iso', 'epoch-ms', 'epoch-s'], { error: 'must be auto, iso, epoch-ms or epoch-s' }).default('auto'),
     /** Zone for local times without an offset (e.g. the logger's own zone). */
-    timeZone: z.string().refine(isKnownTimeZone, 'must be an IANA time zone such as Europe/Berlin or UTC').optional(),
+    timeZone: timeZoneSchema.optional(),
   })
   .refine((o) => o.format !== 'long' || (o.channelColumn && o.valueColumn), { message: 'long format needs channelColumn and valueColumn', path: ['format'] })
   .refine((o) => o.format !== 'wide' || (o.columns && Object.values(o.columns).some((v) => v)), { message: 'wide format needs at least one column mapped to a channel', path: ['columns'] });

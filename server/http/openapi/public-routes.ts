@@ -1,12 +1,13 @@
 import { z } from 'zod';
 import { createLabSchema } from '../labs/labs.schema.ts';
+import { updateMeSchema } from '../me.schema.ts';
 
 /** How a route outside the lab table is reached (lab routes are described by their permission). */
 export type PublicRouteAuth = 'none' | 'session' | 'ingest-key';
 
 /** A route outside the lab route table, documented in the API document. */
 export interface PublicRoute {
-  method: 'get' | 'post';
+  method: 'get' | 'post' | 'patch';
   /** Express-style path, e.g. `/api/v1/invitations/:lab/:token`. */
   path: string;
   summary: string;
@@ -43,6 +44,7 @@ export const PUBLIC_ROUTES: PublicRoute[] = [
   { method: 'get', path: '/healthz', summary: 'Liveness and database check for load balancers (200 ok, 503 degraded).', auth: 'none' },
   { method: 'get', path: '/api/v1/openapi.json', summary: 'This API document (OpenAPI 3.1).', auth: 'none' },
   { method: 'get', path: '/api/v1/me', summary: 'The signed-in person and the labs they belong to.', auth: 'session' },
+  { method: 'patch', path: '/api/v1/me', summary: "The signed-in person's own settings: the time zone alert mails add to each time (null clears it).", auth: 'session', bodies: { 'application/json': updateMeSchema } },
   { method: 'post', path: '/api/v1/labs', summary: 'Create a lab; the signed-in person becomes its admin.', auth: 'session', bodies: { 'application/json': createLabSchema } },
   { method: 'get', path: '/api/v1/invitations/:lab/:token', summary: 'Preview an invitation link before accepting it.', auth: 'session' },
   { method: 'post', path: '/api/v1/invitations/:lab/:token/accept', summary: 'Accept an invitation and join the lab with its role.', auth: 'session' },

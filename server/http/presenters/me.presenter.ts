@@ -7,6 +7,7 @@ export function presentMe(view: MeView) {
       id: view.user.id,
       email: view.user.email,
       name: view.user.displayName,
+      timeZone: view.user.timeZone,
     },
     labs: view.labs.map((l) => ({ slug: l.slug, name: l.name, role: l.role })),
   };

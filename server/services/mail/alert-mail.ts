@@ -28,13 +28,23 @@ export interface AlertMailInput {
   link: string;
   /** The logger's IANA time zone: times are given on its wall clock, and in UTC beside. */
   timeZone: string;
+  /** The reader's own time zone, when they set one and it is another: their clock is added. */
+  readerTimeZone?: string | null;
 }
 
-/** "2026-03-04 15:30:00 Europe/Berlin (14:30 UTC)", or "… UTC" alone for a logger on UTC. */
-function timeText(ms: number, timeZone: string): string {
+const isUtc = (zone: string) => zone === 'UTC' || zone === 'Etc/UTC';
+
+/**
+ * "2026-03-04 15:30:00 Europe/Berlin (14:30 UTC)", or "… UTC" alone for a logger on UTC; with
+ * a reader's zone of their own that differs, their clock first in the brackets:
+ * "2026-03-04 15:30:00 Europe/Berlin (your time 2026-03-04 09:30 America/New_York; 14:30 UTC)".
+ */
+function timeText(ms: number, timeZone: string, readerTimeZone?: string | null): string {
   const utc = `${new Date(ms).toISOString().slice(0, 19).replace('T', ' ')} UTC`;
-  if (timeZone === 'UTC' || timeZone === 'Etc/UTC') return utc;
-  return `${wallClockText(timeZone, ms)} ${timeZone} (${utc.slice(11, 16)} UTC)`;
+  const reader = readerTimeZone && readerTimeZone !== timeZone && !(isUtc(readerTimeZone) && isUtc(timeZone)) ? `your time ${wallClockText(readerTimeZone, ms).slice(0, 16)} ${readerTimeZone}` : null;
+  if (isUtc(timeZone)) return reader ? `${utc} (${reader})` : utc;
+  const beside = reader ? `${reader}; ${utc.slice(11, 16)} UTC` : `${utc.slice(11, 16)} UTC`;
+  return `${wallClockText(timeZone, ms)} ${timeZone} (${beside})`;
 }
 
 const HEADLINE: Record<NotificationKind, string> = { opened: 'Alert', reminder: 'Still open', resolved: 'Resolved' };
@@ -45,7 +55,7 @@ const HEADLINE: Record<NotificationKind, string> = { opened: 'Alert', reminder: 
  * no certified alarm system.
  */
 export function alertMail(input: AlertMailInput): OutgoingMail {
-  const when = (ms: number) => timeText(ms, input.timeZone);
+  const when = (ms: number) => timeText(ms, input.timeZone, input.readerTimeZone);
   const headline = input.kind === 'reminder' ? `${HEADLINE.reminder} (reminder ${input.sequence})` : HEADLINE[input.kind];
   const subject = `[${input.labName}] ${headline}: ${input.ruleName} — ${input.watched}`;
   const lines = [

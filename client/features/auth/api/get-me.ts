@@ -4,7 +4,8 @@ import { apiFetch } from '../../../lib/api-client.ts';
 export type Role = 'admin' | 'technician' | 'scientist' | 'guest';
 
 export interface Me {
-  user: { id: number; email: string; name: string };
+  /** `timeZone`: the person's own IANA zone for alert mails, null when not set. */
+  user: { id: number; email: string; name: string; timeZone: string | null };
   labs: Array<{ slug: string; name: string; role: Role }>;
 }
 
