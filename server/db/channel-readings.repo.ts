@@ -85,23 +85,29 @@ export function channelReadingsIn(scope: LabScope, db: Knex, options: ChannelRea
   const arrays = (sql: string, bindings: unknown[]) => executeArrays(db, sql, bindings);
   const sliceSteps = options.sliceSteps ?? 50_000;
   const maxSlices = options.maxSlices ?? 4;
+
+  /** Raw readings with from ≤ ts < to, in time order, at most `limit` of them. */
+  async function range(channelId: number, from: number, to: number, limit?: number): Promise<ReadingColumns> {
+    if (limit !== undefined && !(Number.isSafeInteger(limit) && limit > 0)) throw new Error(`range: limit must be a positive integer (got ${limit})`);
+    // LIMIT takes no DOUBLE placeholder in a prepared statement; the checked integer is inlined.
+    const sql = `SELECT ts, value FROM readings WHERE tenant_id = ? AND channel_id = ? AND ts >= ? AND ts < ? ORDER BY ts${limit ? ` LIMIT ${limit}` : ''}`;
+    return toColumns(await arrays(sql, [tenantId, channelId, from, to]));
+  }
+
+  /** [from, to) read by `readSlice` in concurrent slices of a grid of `stepMs` (see `sliceSteps`), joined in order. */
+  async function inSlices(from: number, to: number, stepMs: number, readSlice: (a: number, b: number) => Promise<ReadingColumns>): Promise<ReadingColumns> {
+    return concatColumns(await Promise.all(rangeSlices(from, to, stepMs, sliceSteps, maxSlices).map(([a, b]) => readSlice(a, b))));
+  }
+
   return {
-    /** Raw readings with from ≤ ts < to, in time order, at most `limit` of them. */
-    async range(channelId: number, from: number, to: number, limit?: number): Promise<ReadingColumns> {
-      if (limit !== undefined && !(Number.isSafeInteger(limit) && limit > 0)) throw new Error(`range: limit must be a positive integer (got ${limit})`);
-      // LIMIT takes no DOUBLE placeholder in a prepared statement; the checked integer is inlined.
-      const sql = `SELECT ts, value FROM readings WHERE tenant_id = ? AND channel_id = ? AND ts >= ? AND ts < ? ORDER BY ts${limit ? ` LIMIT ${limit}` : ''}`;
-      return toColumns(await arrays(sql, [tenantId, channelId, from, to]));
-    },
+    range,
 
     /**
      * Raw readings with from ≤ ts < to, in time order, for a grid of `stepMs` cells: a range of
-     * many steps is read as concurrent slices (see `sliceSteps`), like `cellsFromRollups`.
+     * many steps is read as concurrent slices, like `cellsFromRollups`.
      */
     async rangeForGrid(channelId: number, from: number, to: number, stepMs: number): Promise<ReadingColumns> {
-      const sql = 'SELECT ts, value FROM readings WHERE tenant_id = ? AND channel_id = ? AND ts >= ? AND ts < ? ORDER BY ts';
-      const parts = await Promise.all(rangeSlices(from, to, stepMs, sliceSteps, maxSlices).map(async ([a, b]) => toColumns(await arrays(sql, [tenantId, channelId, a, b]))));
-      return concatColumns(parts);
+      return inSlices(from, to, stepMs, (a, b) => range(channelId, a, b));
     },
 
     /** Raw readings summarised per bucket of `widthMs` (aligned to whole multiples since the epoch). */
@@ -139,12 +145,13 @@ export function channelReadingsIn(scope: LabScope, db: Knex, options: ChannelRea
       const single = agg === 'mean' ? 'sum_value / count_value' : agg === 'min' ? 'min_value' : 'max_value';
       const grouped = agg === 'mean' ? 'SUM(sum_value) / SUM(count_value)' : agg === 'min' ? 'MIN(min_value)' : 'MAX(max_value)';
       const where = 'FROM reading_rollups WHERE tenant_id = ? AND channel_id = ? AND resolution_s = ? AND bucket_start >= ? AND bucket_start < ?';
-      const slice = ([a, b]: [number, number]) =>
-        stepMs === resolutionS * 1000
-          ? arrays(`SELECT bucket_start, ${single} ${where} ORDER BY bucket_start`, [tenantId, channelId, resolutionS, a, b])
-          : arrays(`SELECT bucket_start - MOD(bucket_start, ?) AS b, ${grouped} ${where} GROUP BY b ORDER BY b`, [stepMs, tenantId, channelId, resolutionS, a, b]);
-      const parts = await Promise.all(rangeSlices(from, to, stepMs, sliceSteps, maxSlices).map(async (r) => toColumns(await slice(r))));
-      return concatColumns(parts);
+      return inSlices(from, to, stepMs, async (a, b) =>
+        toColumns(
+          stepMs === resolutionS * 1000
+            ? await arrays(`SELECT bucket_start, ${single} ${where} ORDER BY bucket_start`, [tenantId, channelId, resolutionS, a, b])
+            : await arrays(`SELECT bucket_start - MOD(bucket_start, ?) AS b, ${grouped} ${where} GROUP BY b ORDER BY b`, [stepMs, tenantId, channelId, resolutionS, a, b]),
+        ),
+      );
     },
 
     /**

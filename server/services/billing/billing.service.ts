@@ -81,6 +81,12 @@ export function createBillingService(deps: { db: Db; stripe: Stripe; catalog: Pl
     return customer.id;
   }
 
+  /** What the lab uses against each limit: the stored-readings counter given, loggers and seats counted. */
+  async function usageCounts(labId: number, readings: number, at: Date): Promise<UsageCounts> {
+    const usage = usageIn(inLab(db, labId));
+    return { readings, loggers: await usage.activeLoggers(), members: await usage.seatsTaken(at) };
+  }
+
   /** The active Stripe price a paid plan is sold under (found by its lookup key). */
   async function priceOf(plan: Plan): Promise<Stripe.Price> {
     const lookupKey = plan.priceLookupKey;
@@ -98,16 +104,16 @@ export function createBillingService(deps: { db: Db; stripe: Stripe; catalog: Pl
       const row = await billingOf(lab.id).get();
       const plan = effectivePlan(row, catalog, at);
       const usage = usageIn(inLab(db, lab.id));
-      const readings = row?.readingsCount ?? 0;
+      const counts = await usageCounts(lab.id, row?.readingsCount ?? 0, at);
       const since = new Date(at.getTime() - (TREND_DAYS - 1) * 86_400_000).toISOString().slice(0, 10);
       return {
         plan,
         subscribedPlanKey: row?.planKey ?? catalog.free.key,
         status: row?.status ?? 'none',
         graceUntil: row?.status === 'past_due' ? row.graceUntil : null,
-        usage: { readings, loggers: await usage.activeLoggers(), members: await usage.seatsTaken(at) },
+        usage: counts,
         limits: plan.limits,
-        ingestionRefused: readings >= plan.limits.readings,
+        ingestionRefused: counts.readings >= plan.limits.readings,
         historyStartsAt: new Date(historyStart(plan, at.getTime())),
         trend: await usage.snapshotsSince(since),
         currency: catalog.currency,
@@ -127,7 +133,7 @@ export function createBillingService(deps: { db: Db; stripe: Stripe; catalog: Pl
     /**
      * Starts a Stripe Checkout Session for a paid plan and returns its URL. The plan changes
      * only when Stripe's `checkout.session.completed` webhook arrives. A lab that already has a
-     * subscription changes it in the billing portal instead.
+     * subscription switches plans with `changePlan` or cancels in the billing portal instead.
      */
     async startCheckout(lab: LabContext, actor: Actor, planKey: string): Promise<{ url: string }> {
       const plan = catalog.byKey(planKey);
@@ -135,7 +141,7 @@ export function createBillingService(deps: { db: Db; stripe: Stripe; catalog: Pl
       if (!plan.priceLookupKey) throw new ValidationError('plan: the free plan needs no checkout; cancel the subscription in the billing portal instead');
       const row = await billingOf(lab.id).getOrCreate();
       if (row.stripeSubscriptionId && (row.status === 'active' || row.status === 'past_due')) {
-        throw new ConflictError('subscription_exists', 'The lab already has a subscription: change or cancel it under "Manage payment".');
+        throw new ConflictError('subscription_exists', 'The lab already has a subscription: switch to another plan, or cancel it under "Manage payment".');
       }
       const customer = await customerFor(lab, actor);
       const price = await priceOf(plan);
@@ -182,10 +188,7 @@ export function createBillingService(deps: { db: Db; stripe: Stripe; catalog: Pl
       }
       if (row.status !== 'active') throw new ConflictError('payment_overdue', 'The last payment failed: settle it under "Manage payment" before changing the plan.');
       if (row.planKey === plan.key) throw new ConflictError('same_plan', `The lab is already on the ${plan.name} plan.`);
-      const at = now();
-      const usage = usageIn(inLab(db, lab.id));
-      const used = { readings: row.readingsCount, loggers: await usage.activeLoggers(), members: await usage.seatsTaken(at) };
-      const over = overLimits(used, plan.limits);
+      const over = overLimits(await usageCounts(lab.id, row.readingsCount, now()), plan.limits);
       if (over.length > 0 && !acknowledgeLimits) {
         throw new ConflictError(
           'plan_too_small',
