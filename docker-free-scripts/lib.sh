@@ -48,6 +48,29 @@ apt_install_for() {
     || die "apt-get install ${missing[*]} failed"
 }
 
+# The reference libraries the engine is checked against (R's stats, forecast, sandwich and nlme;
+# Python's statsmodels), from Debian's packages, installed when missing. Reference tests read
+# committed fixtures; the live checks and `npm run bench:analysis` call R and statsmodels directly.
+install_reference_libraries() {
+  local missing=()
+  if ! command -v Rscript >/dev/null; then
+    missing+=(r-base-core r-cran-forecast r-cran-sandwich r-cran-nlme)
+  elif ! Rscript --vanilla -e 'quit(status = !all(sapply(c("forecast", "sandwich", "nlme"), requireNamespace, quietly = TRUE)))' >/dev/null 2>&1; then
+    missing+=(r-cran-forecast r-cran-sandwich r-cran-nlme)
+  fi
+  /usr/bin/python3 -c 'import statsmodels' >/dev/null 2>&1 || missing+=(python3-statsmodels)
+  [ ${#missing[@]} -eq 0 ] && return
+  local SUDO=""
+  [ "$(id -u)" -ne 0 ] && SUDO="sudo"
+  say "installing the reference libraries: ${missing[*]}…"
+  if [ "$APT_UPDATED" = 0 ]; then
+    $SUDO apt-get update -q >/dev/null || die "apt-get update failed"
+    APT_UPDATED=1
+  fi
+  DEBIAN_FRONTEND=noninteractive $SUDO apt-get install -y -q --no-install-recommends "${missing[@]}" >/dev/null \
+    || die "apt-get install ${missing[*]} failed"
+}
+
 # Waits until an HTTP URL answers 2xx: wait_for_http <url> <seconds> <what>
 wait_for_http() {
   local url="$1" seconds="$2" what="$3"

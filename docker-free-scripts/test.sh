@@ -7,6 +7,7 @@ source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
 
 require_node
 apt_install_for mariadbd mariadb-server chromium chromium
+install_reference_libraries
 install_node_modules
 
 export STATE_DIR="$ROOT/.lagbook/test-run-$$"
