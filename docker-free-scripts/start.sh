@@ -1,6 +1,9 @@
 #!/usr/bin/env bash
 # `npm start`: installs what is missing, starts MariaDB and the local stand-ins, migrates,
 # builds the client and the server, and serves Lagbook on 127.0.0.1. Ctrl-C stops everything.
+# The server runs under supervise.sh: if it dies it is started again (pauses of 1 s, 2 s, 4 s … at
+# most 30 s, reset after a minute's run; the log says why it stopped) while MariaDB and the
+# stand-ins keep running and nothing is rebuilt.
 set -euo pipefail
 source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
 
@@ -54,7 +57,7 @@ npx tsc -p server/tsconfig.build.json
 # The server's V8 flags live in package.json ("config.serverNodeFlags", see README "Configuration").
 SERVER_NODE_FLAGS="$(node -p "require('./package.json').config.serverNodeFlags")"
 # shellcheck disable=SC2086 # the flags are words
-node $SERVER_NODE_FLAGS dist/server/main.js --migrate &
+docker-free-scripts/supervise.sh node $SERVER_NODE_FLAGS dist/server/main.js --migrate &
 APP_PID=$!
 wait_for_http "$LAGBOOK_PUBLIC_URL/healthz" 30 "Lagbook"
 if [ "${LAGBOOK_SKIP_DEMO:-0}" != 1 ]; then
