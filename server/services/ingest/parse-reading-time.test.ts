@@ -27,14 +27,72 @@ describe('parseReadingTime', () => {
     ['yesterday', 'ts: "yesterday" is not an ISO 8601 time or epoch milliseconds'],
     ['', 'ts: missing'],
   ])('refuses %j with a reason', (raw, reason) => {
-    expect(parseReadingTime(raw)).toEqual({ ok: false, reason });
+    expect(parseReadingTime(raw)).toEqual({ ok: false, code: 'bad_time', reason });
+  });
+
+  // ECMA-262 §21.4.1.1: a Date holds ±8.64e15 ms; beyond that `new Date(t).toISOString()` throws.
+  it.each([
+    [1796303000000000000, '1796303000000000000'], // nanoseconds since the epoch, a common logger mistake
+    [1e16, '10000000000000000'],
+    [1e300, '1e+300'],
+    [-1e16, '-10000000000000000'],
+    ['9999999999999999', '9999999999999999'],
+    ['1796303000000000000', '1796303000000000000'],
+    ['8640000000000001', '8640000000000001'],
+  ])('refuses %j as time_out_of_range, naming the text sent', (raw, sent) => {
+    expect(parseReadingTime(raw)).toEqual({
+      ok: false,
+      code: 'time_out_of_range',
+      reason: `ts: "${sent}" is beyond the times that can be stored (±8.64e15 ms from 1970, about ±273,000 years)`,
+    });
+  });
+
+  it('keeps the outermost representable times', () => {
+    expect(parseReadingTime(8.64e15)).toEqual({ ok: true, ts: 8.64e15 });
+    expect(parseReadingTime('-8640000000000000')).toEqual({ ok: true, ts: -8.64e15 });
+    expect(parseReadingTime('1e+16', { format: 'epoch-s' }).ok).toBe(false);
+    expect(parseReadingTime(1e13, { format: 'epoch-s' })).toMatchObject({ ok: false, code: 'time_out_of_range' });
+  });
+
+  it('refuses fractional epoch milliseconds, sent as a number or as text alike', () => {
+    expect(parseReadingTime(1796303000000.7)).toEqual({ ok: false, code: 'bad_time', reason: 'ts: 1796303000000.7 is not whole epoch milliseconds' });
+    expect(parseReadingTime('1796303000003.5')).toEqual({ ok: false, code: 'bad_time', reason: 'ts: "1796303000003.5" is not whole epoch milliseconds' });
+    expect(parseReadingTime(1796303000000.7, { format: 'epoch-ms' }).ok).toBe(false);
+  });
+
+  // ISO 8601-1:2019 §4.2.5.1: offset hours 00–23, minutes 00–59; offsets in use run from
+  // −12:00 to +14:00 (IANA tz database: Etc/GMT+12 … Pacific/Kiritimati).
+  it.each([
+    ['2026-03-01T06:00:00+99:99', 'offset "+99:99" is not a valid UTC offset (hours 00–23, minutes 00–59)'],
+    ['2026-03-01T06:00:00+2400', 'offset "+2400" is not a valid UTC offset (hours 00–23, minutes 00–59)'],
+    ['2026-03-01T06:00:00+01:60', 'offset "+01:60" is not a valid UTC offset (hours 00–23, minutes 00–59)'],
+    ['2026-03-01T06:00:00-23:59', 'offset "-23:59" is outside the UTC offsets in use (−12:00 to +14:00)'],
+    ['2026-03-01T06:00:00+14:01', 'offset "+14:01" is outside the UTC offsets in use (−12:00 to +14:00)'],
+    ['2026-03-01T06:00:00-12:01', 'offset "-12:01" is outside the UTC offsets in use (−12:00 to +14:00)'],
+  ])('refuses the offset of %s', (raw, why) => {
+    expect(parseReadingTime(raw)).toEqual({ ok: false, code: 'bad_time', reason: `ts: "${raw}": ${why}` });
+  });
+
+  it('accepts the outermost offsets in use', () => {
+    expect(parseReadingTime('2026-03-01T14:00:00+14:00')).toEqual({ ok: true, ts: Date.UTC(2026, 2, 1, 0) });
+    expect(parseReadingTime('2026-03-01T00:00:00-12:00')).toEqual({ ok: true, ts: Date.UTC(2026, 2, 1, 12) });
+    expect(parseReadingTime('2026-03-01T05:45:00+0545')).toEqual({ ok: true, ts: Date.UTC(2026, 2, 1, 0) });
+  });
+
+  it('reads years below 100 as written, not as 19xx', () => {
+    // Proleptic Gregorian: 0070-01-01 is 1900 years before 1970-01-01 (common practice: Date.UTC maps 0–99 to 1900–1999).
+    const ts = parseReadingTime('0070-01-01T00:00:00Z');
+    expect(ts.ok && ts.ts).toBe(new Date('0070-01-01T00:00:00Z').getTime());
+    expect(ts.ok && ts.ts).toBeLessThan(0);
+    expect(parseReadingTime('0004-02-29T00:00:00Z').ok).toBe(true); // year 4 is a leap year
+    expect(parseReadingTime('0100-02-29T00:00:00Z').ok).toBe(false); // year 100 is not
   });
 
   it('refuses non-finite numbers and non-string, non-number values', () => {
     expect(parseReadingTime(Number.NaN).ok).toBe(false);
     expect(parseReadingTime(Infinity).ok).toBe(false);
-    expect(parseReadingTime(null)).toEqual({ ok: false, reason: 'ts: missing' });
-    expect(parseReadingTime({})).toEqual({ ok: false, reason: 'ts: missing' });
+    expect(parseReadingTime(null)).toEqual({ ok: false, code: 'bad_time', reason: 'ts: missing' });
+    expect(parseReadingTime({})).toEqual({ ok: false, code: 'bad_time', reason: 'ts: missing' });
   });
 
   it('interprets local times in a named zone, including across daylight-saving changes', () => {
