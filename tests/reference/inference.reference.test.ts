@@ -1,0 +1,64 @@
+/**
+ * Lagbook's inference engine against R 4.2.2 (`stats`, `sandwich` 3.0.2) on datasets that ship
+ * with R and one seeded simulation made in R. The fixture (series, exact calls, versions) is
+ * written by inference.R in this folder; see README.md to regenerate it.
+ */
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { prewhitenedCcf } from '../../server/analysis/prewhitened-ccf.ts';
+
+type Json = Record<string, any>;
+const R: Json = JSON.parse(readFileSync(new URL('./fixtures/inference-r.json', import.meta.url), 'utf8'));
+
+/** R's NA is stored as null; the engine's missing value is NaN. */
+const seriesOf = (name: string): number[] => R.series[name].map((v: number | null) => (v === null ? NaN : v));
+/** inference.R stores scalars as one-element arrays. */
+const one = (v: number[] | number): number => (Array.isArray(v) ? v[0] : v);
+
+function expectClose(actual: number, expected: number, absTol: number, relTol: number, label: string): void {
+  expect(Math.abs(actual - expected), `${label}: ${actual} vs ${expected}`).toBeLessThanOrEqual(absTol + relTol * Math.abs(expected));
+}
+
+function expectAllClose(actual: ArrayLike<number>, expected: ArrayLike<number | null>, absTol: number, relTol: number, label: string): void {
+  expect(actual.length).toBe(expected.length);
+  for (let i = 0; i < expected.length; i++) {
+    const e = expected[i];
+    if (e === null) {
+      expect(Number.isNaN(actual[i]), `${label} index ${i}: expected missing`).toBe(true);
+      continue;
+    }
+    expectClose(actual[i], e, absTol, relTol, `${label} index ${i}`);
+  }
+}
+
+describe('the fixture records its provenance', () => {
+  it('names R 4.2.2 and sandwich 3.0.2', () => {
+    expect(R.generator.tool).toMatch(/^R version 4\.2\.2/);
+    expect(R.generator.sandwich).toBe('3.0.2');
+  });
+});
+
+describe('prewhitenedCcf against R ar() + filter() + ccf(na.action = na.pass) (CCF 1e-10; AR 1e-8)', () => {
+  for (const c of R.prewhitenedCcf) {
+    it(c.call, () => {
+      const r = prewhitenedCcf(seriesOf(c.response), seriesOf(c.input), { maxLag: one(c.maxLag) });
+      expect(r.ar.order).toBe(one(c.order));
+      expectAllClose(r.ar.coefficients, c.coefficients ?? [], 1e-8, 1e-8, 'ar');
+      expectClose(r.ar.variance, one(c.variance), 0, 1e-8, 'var.pred');
+      expect(r.pairs).toBe(one(c.pairs));
+      expect(Array.from(r.lags)).toEqual(c.lags);
+      expectAllClose(r.values, c.values, 1e-10, 0, 'ccf');
+      expectClose(r.band, one(c.band), 0, 1e-12, 'band');
+      expectClose(r.simultaneousBand, one(c.simultaneousBand), 0, 1e-12, 'simultaneous band');
+    });
+  }
+  it('the seeded transfer-function pair (response answers the input after 3 steps): the first lag beyond the simultaneous band is +3', () => {
+    const c = R.prewhitenedCcf.find((x: Json) => x.response === 'sim.response');
+    const r = prewhitenedCcf(seriesOf(c.response), seriesOf(c.input), { maxLag: one(c.maxLag) });
+    const crossing = Array.from(r.lags).filter((_, i) => Math.abs(r.values[i]) > r.simultaneousBand);
+    expect(crossing[0]).toBe(3);
+    // The impulse response 0.5·0.9^(k−3) decays slowly, so the single largest value may sit at +3 or just after it.
+    expect(r.strongest?.significant).toBe(true);
+    expect(r.strongest!.lag).toBeGreaterThanOrEqual(3);
+  });
+});
