@@ -19,6 +19,8 @@ export interface DiagnosticsParams {
   decomposition: 'stl' | 'stl-robust' | 'classical' | 'none';
   alpha: number;
   ccfWith?: number;
+  /** Cross-correlation lag window in steps (only with `ccfWith`); absent: the server's default. */
+  ccfMaxLag?: number;
 }
 
 export interface ReportChannel {
@@ -73,6 +75,11 @@ export type Decomposition =
       outliers: Outliers;
     };
 
+/**
+ * Cross-correlation with a partner channel. `lags`/`values`/`band`/`strongest`/`explanation`
+ * describe the prewhitened CCF (when `method` is 'prewhitened'); `strongest.significant` means
+ * beyond the simultaneous band. The CCF of the unfiltered pair stays beside it as `raw`.
+ */
 export interface CrossCorrelation {
   with: ReportChannel;
   pairs: number;
@@ -81,7 +88,68 @@ export interface CrossCorrelation {
   band: number;
   strongest: { lag: number; lagMs: number; value: number; significant: boolean } | null;
   explanation: string;
+  method: 'prewhitened' | 'raw';
+  /** AR filter of the partner (the input), applied to both series. */
+  prewhitening: { order: number; coefficients: number[] } | null;
+  /** Band over all lags together. */
+  simultaneousBand: number;
+  /** How the simultaneous band was made, e.g. 'Šidák over 145 lags'. */
+  simultaneousMethod: string;
+  raw: { lags: number[]; values: Array<number | null>; band: number; strongest: { lag: number; lagMs: number; value: number; significant: boolean } | null };
 }
+
+/** One fitted ARMA(p, q) model: coefficients with standard errors and its fit criteria. */
+export interface ArmaFitSummary {
+  p: number;
+  q: number;
+  ar: number[];
+  ma: number[];
+  mean: number | null;
+  standardErrors: { ar: number[]; ma: number[]; mean: number | null };
+  sigma2: number;
+  logLik: number;
+  aicc: number;
+  converged: boolean;
+}
+
+/** The ARMA model chosen by AICc for the series (or its remainder after the seasonal component), or why there is none. */
+export type ProcessModel =
+  | { available: false; reason: string }
+  | {
+      available: true;
+      /** 'remainder': fitted to the remainder after the seasonal component (channel has a period). */
+      fittedOn: 'series' | 'remainder';
+      period: number | null;
+      /** Cells the fit used (the most recent ones when the range is longer than the fitting cap). */
+      cells: number;
+      /** Epoch ms of the first cell fitted. */
+      fittedFrom: number;
+      /** Epoch ms just after the last cell fitted. */
+      fittedTo: number;
+      candidates: Array<{ p: number; q: number; aicc: number | null; logLik: number | null; converged: boolean }>;
+      chosen: ArmaFitSummary;
+      residualTest: { lag: number; statistic: number; df: number; pValue: number };
+      /** Readings per independent piece of information the model implies (1 for white noise). */
+      readingsPerIndependent: number;
+      /** Plain sentence written by the server. */
+      sentence: string;
+    };
+
+/** A least-squares slope with its autocorrelation-robust (Newey–West) and naive intervals, or why there is none. */
+export type TrendAnswer =
+  | { available: false; reason: string }
+  | {
+      available: true;
+      unit: string | null;
+      n: number;
+      /** Newey–West lag used. */
+      lag: number;
+      perDay: { slope: number; hacInterval: [number, number]; olsInterval: [number, number]; hacStandardError: number; olsStandardError: number };
+      perYear: { slope: number; hacInterval: [number, number]; olsInterval: [number, number]; hacStandardError: number; olsStandardError: number };
+      pValueHac: number;
+      alpha: number;
+      sentence: string;
+    };
 
 /** The diagnostics answer; every number comes from the server's engine (see the API README). */
 export interface DiagnosticsReport {
@@ -108,6 +176,8 @@ export interface DiagnosticsReport {
     explanation: string;
     evidence: Record<string, unknown>;
     gapsFilled: boolean;
+    model: ArmaFitSummary | null;
+    fittedOn: 'series' | 'remainder' | null;
   };
   effectiveSampleSize: {
     n: number;
@@ -121,6 +191,8 @@ export interface DiagnosticsReport {
   };
   decomposition: Decomposition;
   crossCorrelation: CrossCorrelation | null;
+  processModel: ProcessModel;
+  trend: TrendAnswer;
 }
 
 const base = (slug: string, channelId: number) => `/api/v1/labs/${encodeURIComponent(slug)}/channels/${channelId}`;

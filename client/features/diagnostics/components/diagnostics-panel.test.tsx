@@ -4,6 +4,7 @@ import { fakeApi, renderWithProviders } from '../../../components/test-harness.t
 import { stubResizeObserver } from '../../../components/charts/fake-echarts.ts';
 import type { DiagnosticsReport } from '../api/get-diagnostics.ts';
 import { DiagnosticsPanel } from './diagnostics-panel.tsx';
+import { FROM, PROCESS_MODEL, REPORT, TO, TREND } from './report-fixture.ts';
 
 vi.mock(import('../../../components/charts/echarts-setup.ts'), async () => {
   const { fakeEchartsModule } = await import('../../../components/charts/fake-echarts.ts');
@@ -15,39 +16,6 @@ afterEach(() => {
   cleanup();
   vi.unstubAllGlobals();
 });
-
-// A diagnostics answer in the API's documented shape. The numbers are invented for this UI test
-// (they only have to be shown faithfully); z = 1.959964 is the standard normal 97.5% quantile
-// (R: qnorm(0.975)).
-const FROM = Date.parse('2026-06-01T00:00:00Z');
-const TO = Date.parse('2026-06-08T00:00:00Z');
-const REPORT: DiagnosticsReport = {
-  cached: true,
-  channel: { id: 5, key: 'soil_vwc', label: 'Soil moisture', unit: '%', quantity: null, logger: { id: 2, name: 'Row 7 mast', site: null, timezone: 'UTC' } },
-  method: {
-    parameters: {},
-    resolved: { from: FROM, to: TO, stepS: 300, maxLag: 4, alpha: 0.05, period: null, periodSource: 'none', agg: 'mean' },
-    notes: ['Readings were put on a regular grid of 300 s cells.'],
-    references: ['Ljung & Box (1978), Biometrika 65:297–303 — portmanteau test'],
-  },
-  series: { start: FROM, stepMs: 300_000, n: 4, missing: 0, readings: 4, emptyCells: [] },
-  analysed: { n: 4, missing: 0 },
-  period: { used: null, source: 'none', candidates: [] },
-  acf: { lags: [0, 1, 2, 3, 4], values: [1, 0.6, 0.3, 0.1, 0] },
-  pacf: { lags: [1, 2, 3, 4], values: [0.6, -0.1, 0, 0.05] },
-  bands: { alpha: 0.05, z: 1.959964, whiteNoise: 0.2, bartlett: [0.2, 0.25, 0.26, 0.26] },
-  ljungBox: [{ lag: 5, statistic: 12.5, df: 5, pValue: 0.0285 }],
-  identification: {
-    verdict: 'ar',
-    p: 1,
-    explanation: 'The PACF cuts off after lag 1 while the ACF dies down: an AR(1) process.',
-    evidence: { n: 4, maxLag: 4, significantAcfLags: [1, 2], significantPacfLags: [1], acfCutoff: 2, pacfCutoff: 1, acfPattern: 'tails-off', pacfPattern: 'cuts-off', unitRoot: null, period: null },
-    gapsFilled: false,
-  },
-  effectiveSampleSize: { n: 2016, ess: 504, tau: 4, lagsUsed: 10, mean: 10, standardError: 0.5, confidenceInterval: [9.020018, 10.979982], alpha: 0.05 },
-  decomposition: { method: 'none', reason: 'no seasonal period' },
-  crossCorrelation: null,
-};
 
 function renderPanel() {
   return renderWithProviders(<DiagnosticsPanel slug="fernhollow" channelId={5} channelKey="soil_vwc" timezone="UTC" chartRange={{ from: FROM, to: TO }} canExport />);
@@ -81,6 +49,46 @@ describe('DiagnosticsPanel', () => {
     await vi.waitFor(() => expect(document.querySelectorAll('figure[data-chart-ready="true"]').length).toBe(2));
     expect(screen.getByRole('img', { name: 'Autocorrelation function (ACF)' })).toBeTruthy();
     expect(screen.getByText('ACF: 2 lags outside the 95% Bartlett band; strongest lag 1 (0.600), lag 2 (0.300).')).toBeTruthy();
+  });
+
+  it('shows the fitted process model with coefficients ± SE, marks the chosen candidate, and shows the trend with both intervals', async () => {
+    if (!PROCESS_MODEL.available) throw new Error('fixture: the process model must be available');
+    const model = PROCESS_MODEL;
+    const withModel: DiagnosticsReport = {
+      ...REPORT,
+      identification: { ...REPORT.identification, model: model.chosen, fittedOn: 'remainder' },
+      processModel: model,
+      trend: TREND,
+    };
+    fakeApi({ 'GET /api/v1/labs/fernhollow/channels/5/diagnostics': () => ({ status: 200, body: withModel }) });
+    renderPanel();
+    fireEvent.click(screen.getByRole('button', { name: 'Analyse' }));
+
+    expect((await screen.findByTestId('process-model-chosen')).textContent).toBe('AR(1)(1, 0)');
+    expect(screen.getByTestId('verdict-model').textContent).toBe('remainder: AR(1): φ₁ = 0.821 ± 0.031');
+    const coefs = screen.getByRole('table', { name: /Estimated coefficients/ });
+    const coefRows = within(coefs).getAllByRole('row').map((r) => r.textContent);
+    expect(coefRows[1]).toBe('φ₁ autoregressive, lag 10.8213± 0.0312');
+    expect(coefRows[2]).toBe('μ mean21.42 %± 0.587');
+    expect(coefRows[3]).toBe('σ² innovation variance0.0441');
+    expect(screen.getByTestId('process-model-fitted-on').textContent).toBe(
+      'Fitted on the remainder after the 1-day cycle (288 steps): 2,016 cells of 5 min, 2026-06-01 00:00 to 2026-06-08 00:00 (UTC). About 1 in 10.2 readings is independent information.',
+    );
+    const candidates = within(screen.getByTestId('process-model-candidates')).getAllByRole('row');
+    const chosen = candidates.filter((r) => r.getAttribute('aria-current') === 'true');
+    expect(chosen.map((r) => r.textContent)).toEqual(['AR(1)-1018.580512.3chosen']);
+    expect(candidates[2].textContent).toBe('AR(1)-1018.580512.3chosen');
+    // ΔAICc of ARMA(1, 1): −1016.6 − (−1018.58) = 1.98 (worked by hand)
+    expect(candidates[3].textContent).toBe('ARMA(1, 1)-1016.61.98512.31');
+    expect(candidates[4].textContent).toBe('ARMA(3, 3)———did not converge');
+    expect(screen.getByTestId('process-model-residuals').textContent).toBe(
+      'Ljung–Box on the residuals up to lag 20: Q = 18.7, df = 19, p = 0.4760 — no evidence of remaining autocorrelation at α = 0.05.',
+    );
+    expect(screen.getByTestId('process-model-sentence').textContent).toBe(PROCESS_MODEL.available ? PROCESS_MODEL.sentence : '');
+
+    expect(screen.getByTestId('trend-sentence').textContent).toBe('Invented sentence: no drift that the autocorrelation cannot explain.');
+    expect(screen.getByTestId('trend-hac').textContent).toBe('allowing for autocorrelation (Newey–West, lag 8)± 0.0114-0.0101 … 0.0347-3.687 … 12.67');
+    expect(screen.getByTestId('trend-ols').textContent).toBe('assuming independent readings (ordinary least squares)± 0.002140.0081 … 0.01652.957 … 6.023');
   });
 
   it('draws a decomposition thinned by the server and says so under the chart', async () => {

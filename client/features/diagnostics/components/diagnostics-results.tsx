@@ -6,6 +6,8 @@ import { LjungBoxTable } from './ljung-box-table.tsx';
 import { MeanBlock } from './mean-block.tsx';
 import { MethodBlock } from './method-block.tsx';
 import { PeriodCandidates } from './period-candidates.tsx';
+import { ProcessModelBlock } from './process-model-block.tsx';
+import { TrendBlock } from './trend-block.tsx';
 
 /** Everything one diagnostics answer holds, laid out for reading top to bottom. */
 export function DiagnosticsResults({ report, timezone, pngPrefix }: { report: DiagnosticsReport; timezone: string; pngPrefix: string }) {
@@ -17,11 +19,13 @@ export function DiagnosticsResults({ report, timezone, pngPrefix }: { report: Di
         Analysed after differencing: {report.analysed.n.toLocaleString('en')} values.
       </p>
       <IdentificationBlock identification={report.identification} stepS={report.method.resolved.stepS} />
+      <ProcessModelBlock model={report.processModel} stepS={report.method.resolved.stepS} alpha={report.bands.alpha} unit={report.channel.unit} timezone={timezone} />
       <CorrelogramCharts report={report} pngPrefix={pngPrefix} />
       <div className="grid gap-6 lg:grid-cols-2">
         <LjungBoxTable rows={report.ljungBox} alpha={report.bands.alpha} />
         <MeanBlock ess={report.effectiveSampleSize} z={report.bands.z} unit={report.channel.unit} />
       </div>
+      <TrendBlock trend={report.trend} />
       <PeriodCandidates period={report.period} />
       <section aria-labelledby="decomposition-heading" className="grid gap-2">
         <h4 id="decomposition-heading" className="text-sm font-semibold">

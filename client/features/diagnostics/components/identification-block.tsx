@@ -1,4 +1,5 @@
 import type { DiagnosticsReport } from '../api/get-diagnostics.ts';
+import { armaOneLine } from './arma-notation.ts';
 
 const VERDICTS: Record<DiagnosticsReport['identification']['verdict'], string> = {
   'white-noise': 'White noise — no structure left to model',
@@ -25,6 +26,12 @@ export function IdentificationBlock({ identification: id, stepS }: { identificat
         {VERDICTS[id.verdict]}
         {order && <span className="ml-2 font-mono text-base text-lichen-dark">{order}</span>}
       </p>
+      {id.model && (
+        <p className="font-mono text-sm text-lichen-dark" data-testid="verdict-model">
+          {id.fittedOn === 'remainder' ? 'remainder: ' : ''}
+          {armaOneLine(id.model)}
+        </p>
+      )}
       <p>{id.explanation}</p>
       <details className="text-sm">
         <summary className="cursor-pointer font-medium">Evidence</summary>
