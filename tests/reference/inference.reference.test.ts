@@ -6,6 +6,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { prewhitenedCcf } from '../../server/analysis/prewhitened-ccf.ts';
+import { trendTest } from '../../server/analysis/trend-test.ts';
 
 type Json = Record<string, any>;
 const R: Json = JSON.parse(readFileSync(new URL('./fixtures/inference-r.json', import.meta.url), 'utf8'));
@@ -61,4 +62,25 @@ describe('prewhitenedCcf against R ar() + filter() + ccf(na.action = na.pass) (C
     expect(r.strongest?.significant).toBe(true);
     expect(r.strongest!.lag).toBeGreaterThanOrEqual(3);
   });
+});
+
+describe('trendTest against R lm(x ~ t) + sandwich::NeweyWest(prewhite = FALSE, adjust = FALSE) (1e-8 relative)', () => {
+  const TOL = 1e-8;
+  for (const c of R.trend) {
+    it(`${c.call}${c.lagGiven ? '' : ' (default lag ⌊4 (n/100)^(2/9)⌋)'}`, () => {
+      const r = trendTest(seriesOf(c.series), c.lagGiven ? { lag: one(c.lag) } : {});
+      expect(r.lag).toBe(one(c.lag));
+      expect(r.nonMissing).toBe(one(c.nonMissing));
+      expectClose(r.slope, one(c.slope), 0, TOL, 'slope');
+      expectClose(r.intercept, one(c.intercept), 0, TOL, 'intercept');
+      expectClose(r.standardErrorOls, one(c.standardErrorOls), 0, TOL, 'OLS se');
+      expectClose(r.standardErrorHac, one(c.standardErrorHac), 0, TOL, 'HAC se (slope)');
+      expectClose(r.interceptStandardErrorHac, one(c.standardErrorInterceptHac), 0, TOL, 'HAC se (intercept)');
+      expectClose(r.tHac, one(c.tHac), 0, TOL, 'tHac');
+      // 2 * pnorm(-|t|); below 1e-300 both are 0 (co2's slope is 100+ standard errors from 0).
+      expectClose(r.pValueHac, one(c.pValueHac), 1e-300, TOL, 'pValueHac');
+      expectAllClose(r.interval, c.interval, 0, TOL, 'interval');
+      expectAllClose(r.intervalOls, c.intervalOls, 0, TOL, 'confint(fit)');
+    });
+  }
 });
