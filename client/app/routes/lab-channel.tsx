@@ -72,7 +72,7 @@ export default function LabChannelRoute() {
       {can('diagnostics.read') && (
         <>
           <DiagnosticsPanel slug={slug} channelId={c.id} channelKey={c.key} timezone={c.logger.timezone} chartRange={view.range} canExport={can('exports.create')} />
-          <CrossCorrelationPanel slug={slug} channelId={c.id} channelLabel={c.label} chartRange={view.range} partners={partners} />
+          <CrossCorrelationPanel slug={slug} channelId={c.id} channelLabel={c.label} chartRange={view.range} partners={partners} stepS={c.expectedIntervalS ?? c.logger.expectedIntervalS} />
         </>
       )}
     </div>

@@ -29,4 +29,19 @@ describe('stem chart helpers', () => {
     expect(pacf.legend.data).toEqual(['PACF', 'White-noise band ±z/√n']);
     expect(pacf.series).toHaveLength(4);
   });
+
+  it('draws the band over all lags as its own solid legend entry and writes lags with the given labels', () => {
+    const o = stemChartOption({ name: 'CCF', lags: [-1, 0, 1], values: [0.1, 0.2, 0.3], whiteNoise: 0.05, simultaneous: { halfWidth: 0.08, label: 'All lags' }, lagLabel: (k) => `${k * 5} min`, xName: 'Lag' }) as {
+      legend: { data: string[] };
+      series: Array<{ name: string; data: unknown[]; lineStyle?: { type: string } }>;
+      xAxis: { data: string[] };
+    };
+    expect(o.legend.data).toEqual(['CCF', 'White-noise band ±z/√n', 'All lags']);
+    const all = o.series.filter((x) => x.name === 'All lags');
+    expect(all.map((x) => [x.data, x.lineStyle?.type])).toEqual([
+      [[0.08, 0.08, 0.08], 'solid'],
+      [[-0.08, -0.08, -0.08], 'solid'],
+    ]);
+    expect(o.xAxis.data).toEqual(['-5 min', '0 min', '5 min']);
+  });
 });

@@ -4,6 +4,7 @@ const STEM = '#1f3b36';
 const WHITE_NOISE = '#c98d1c';
 const BARTLETT = '#2f6f5e';
 const STRONG = '#b23a2a';
+const SIMULTANEOUS = '#7a4f9a';
 
 /** One correlogram to draw: values at lags, with the bands to draw around zero. */
 export interface StemInput {
@@ -17,6 +18,10 @@ export interface StemInput {
   bartlett?: Array<number | null>;
   /** A lag to pick out (the strongest cross-correlation). */
   highlightLag?: number | null;
+  /** A second constant band over all lags together (e.g. a Šidák band for the CCF), drawn solid. */
+  simultaneous?: { halfWidth: number; label: string };
+  /** How a lag is written on the axis (default: the lag number). */
+  lagLabel?: (lag: number) => string;
   xName: string;
 }
 
@@ -24,12 +29,13 @@ export interface StemInput {
  * A stem plot of a correlogram (ACF, PACF or CCF): a thin bar per lag with a dot at its value,
  * the white-noise band ±z/√n as dashed lines and, for the ACF, Bartlett's band (the band under
  * the hypothesis that the correlations beyond each lag are zero; Box, Jenkins, Reinsel & Ljung
- * 2015, §2.1.6 — section cited from memory) as a dotted step line. Each band is one legend entry. Animation is off.
+ * 2015, §2.1.6 — section cited from memory) as a dotted step line; for a CCF, an optional band
+ * over all lags together as a solid line. Each band is one legend entry. Animation is off.
  */
 export function stemChartOption(input: StemInput): EChartsCoreOption {
-  const cats = input.lags.map(String);
+  const cats = input.lags.map(input.lagLabel ?? String);
   const flat = (v: number) => input.lags.map(() => v);
-  const bandLine = (name: string, data: Array<number | null>, color: string, type: 'dashed' | 'dotted') => ({
+  const bandLine = (name: string, data: Array<number | null>, color: string, type: 'dashed' | 'dotted' | 'solid') => ({
     name,
     type: 'line',
     data,
@@ -58,10 +64,18 @@ export function stemChartOption(input: StemInput): EChartsCoreOption {
     const name = 'Bartlett band (MA null up to the previous lag)';
     series.push(bandLine(name, input.bartlett, BARTLETT, 'dotted'), bandLine(name, input.bartlett.map((b) => (b === null ? null : -b)), BARTLETT, 'dotted'));
   }
+  if (input.simultaneous) {
+    const { halfWidth, label } = input.simultaneous;
+    series.push(bandLine(label, flat(halfWidth), SIMULTANEOUS, 'solid'), bandLine(label, flat(-halfWidth), SIMULTANEOUS, 'solid'));
+  }
   return {
     animation: false,
     textStyle: { fontFamily: 'Figtree Variable, system-ui, sans-serif', color: '#1b2624' },
-    legend: { top: 0, left: 0, data: [input.name, wnName, ...(input.bartlett ? ['Bartlett band (MA null up to the previous lag)'] : [])] },
+    legend: {
+      top: 0,
+      left: 0,
+      data: [input.name, wnName, ...(input.bartlett ? ['Bartlett band (MA null up to the previous lag)'] : []), ...(input.simultaneous ? [input.simultaneous.label] : [])],
+    },
     grid: { left: 48, right: 16, top: 40, bottom: 44 },
     tooltip: { trigger: 'axis', axisPointer: { type: 'shadow' }, valueFormatter: (v: unknown) => (typeof v === 'number' ? v.toFixed(3) : '—') },
     xAxis: { type: 'category', data: cats, name: input.xName, nameLocation: 'middle', nameGap: 28, axisTick: { alignWithLabel: true }, axisLabel: { hideOverlap: true } },
