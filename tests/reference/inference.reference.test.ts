@@ -5,6 +5,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
+import { compareMeans } from '../../server/analysis/compare-means.ts';
 import { prewhitenedCcf } from '../../server/analysis/prewhitened-ccf.ts';
 import { trendTest } from '../../server/analysis/trend-test.ts';
 
@@ -83,4 +84,42 @@ describe('trendTest against R lm(x ~ t) + sandwich::NeweyWest(prewhite = FALSE, 
       expectAllClose(r.intervalOls, c.intervalOls, 0, TOL, 'confint(fit)');
     });
   }
+});
+
+describe('compareMeans: Welch part against R t.test(b, a); effective part against the same formulas evaluated in R on acf() (1e-10)', () => {
+  const TOL = 1e-10;
+  const expectTest = (actual: Json, expected: Json, label: string) => {
+    expectClose(actual.standardError, one(expected.standardError), 0, TOL, `${label} se`);
+    expectClose(actual.df, one(expected.df), 0, TOL, `${label} df`);
+    expectClose(actual.statistic, one(expected.statistic), 0, TOL, `${label} t`);
+    expectClose(actual.pValue, one(expected.pValue), 0, TOL, `${label} p`);
+    expectAllClose(actual.interval, expected.interval, 0, TOL, `${label} interval`);
+  };
+  for (const c of R.compareMeans) {
+    it(c.call, () => {
+      const r = compareMeans(seriesOf(c.a), seriesOf(c.b));
+      expectClose(r.difference, one(c.difference), 1e-13, TOL, 'mean(b) - mean(a)');
+      // R 4.2.2 stats::t.test (Welch, var.equal = FALSE)
+      expectTest(r.welch, c.welch, 'Welch');
+      // inference.R: tau by Geyer's initial monotone sequence on acf(x, lag.max = n - 1), nEff = n/tau,
+      // se = sqrt(sd_a^2/nEff_a + sd_b^2/nEff_b), Welch-Satterthwaite df on nEff, qt/pt.
+      for (const [mine, theirs] of [
+        [r.a, c.summaryA],
+        [r.b, c.summaryB],
+      ] as const) {
+        expect(mine.n).toBe(one(theirs.n));
+        expectClose(mine.mean, one(theirs.mean), 0, TOL, 'mean');
+        expectClose(mine.sd, one(theirs.sd), 0, TOL, 'sd');
+        expectClose(mine.tau, one(theirs.tau), 0, TOL, 'tau');
+        expectClose(mine.nEff, one(theirs.nEff), 0, TOL, 'nEff');
+      }
+      expectTest(r.effective, c.effective, 'effective');
+    });
+  }
+  it('Nile before/after 1898 (Cobb 1978): the flow fell by about 244 (10^8 m^3/yr); both intervals exclude 0', () => {
+    const c = R.compareMeans.find((x: Json) => x.a === 'Nile.1871to1897');
+    const r = compareMeans(seriesOf(c.a), seriesOf(c.b));
+    expect(r.effective.interval[1]).toBeLessThan(0);
+    expect(r.effective.interval[1] - r.effective.interval[0]).toBeGreaterThan(r.welch.interval[1] - r.welch.interval[0]);
+  });
 });
