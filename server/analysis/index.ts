@@ -13,6 +13,8 @@ export {
 export { ljungBox } from './ljung-box.ts';
 export { boxPierce } from './box-pierce.ts';
 export type { PortmanteauOptions, PortmanteauResult } from './portmanteau-test.ts';
+export { fitArma, type FitArmaOptions, type FitArmaResult } from './fit-arma.ts';
+export { selectArma, type ArmaCandidate, type SelectArmaOptions, type SelectArmaResult } from './select-arma.ts';
 export {
   crossCorrelation as ccf,
   type CrossCorrelationOptions,
@@ -33,6 +35,20 @@ export {
   type EffectiveSampleSizeOptions,
   type EffectiveSampleSizeResult,
 } from './effective-sample-size.ts';
+export { trendTest, type TrendTestOptions, type TrendTestResult } from './trend-test.ts';
+export {
+  prewhitenedCcf,
+  type PrewhitenedCcfOptions,
+  type PrewhitenedCcfResult,
+  type PrewhitenedCcfStrongest,
+} from './prewhitened-ccf.ts';
+export {
+  compareMeans,
+  type CompareMeansOptions,
+  type CompareMeansResult,
+  type MeanDifferenceTest,
+  type RangeMeanSummary,
+} from './compare-means.ts';
 export {
   augmentedDickeyFuller as adf,
   type AugmentedDickeyFullerOptions,
@@ -44,7 +60,11 @@ export {
   type ProcessIdentification,
   type ProcessEvidence,
   type ProcessVerdict,
+  type ProcessModelFit,
 } from './identify-process.ts';
+export { describeModel } from './identify-process-explanation.ts';
+export { readingsPerIndependent } from './readings-per-independent.ts';
+export { andrewsBartlettLag } from './andrews-bartlett-lag.ts';
 export { durbinLevinson, type DurbinLevinsonResult } from './durbin-levinson.ts';
 export { decomposeClassical } from './decompose-classical.ts';
 export { stl } from './stl.ts';
