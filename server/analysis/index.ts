@@ -60,9 +60,7 @@ export {
   type ProcessIdentification,
   type ProcessEvidence,
   type ProcessVerdict,
-  type ProcessModelFit,
 } from './identify-process.ts';
-export { describeModel } from './identify-process-explanation.ts';
 export { readingsPerIndependent } from './readings-per-independent.ts';
 export { andrewsBartlettLag } from './andrews-bartlett-lag.ts';
 export { durbinLevinson, type DurbinLevinsonResult } from './durbin-levinson.ts';
