@@ -75,6 +75,7 @@ describe('compareMeans', () => {
     a[3] = NaN;
     const [ca, cb] = [a.slice(), b.slice()];
     compareMeans(a, b);
+    expect(() => compareMeans(Object.freeze([...a]), Object.freeze([...b]))).not.toThrow(); // a write would throw
     expect(a).toEqual(ca);
     expect(b).toEqual(cb);
   });

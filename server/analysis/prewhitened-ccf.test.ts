@@ -98,6 +98,7 @@ describe('prewhitenedCcf', () => {
     const y = simulateArma({ ar: [0.5] }, 200, 2);
     const [xc, yc] = [Float64Array.from(x), Float64Array.from(y)];
     prewhitenedCcf(x, y);
+    expect(() => prewhitenedCcf(Object.freeze(Array.from(x)), Object.freeze(Array.from(y)))).not.toThrow(); // a write would throw
     expect(x).toEqual(xc);
     expect(y).toEqual(yc);
   });

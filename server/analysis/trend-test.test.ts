@@ -69,6 +69,7 @@ describe('trendTest', () => {
     const copy = x.slice();
     trendTest(x);
     expect(x).toEqual(copy);
+    expect(() => trendTest(Object.freeze([...x]))).not.toThrow(); // a write would throw
   });
 
   it('refuses bad input with a clear message', () => {
