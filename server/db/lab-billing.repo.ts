@@ -14,6 +14,8 @@ export interface LabBilling {
   /** Stripe `created` (Unix seconds) of the newest event applied. */
   stateAt: number;
   readingsCount: number;
+  /** Quarantined rows the lab keeps, counted in the transactions that add and remove them. */
+  quarantinedCount: number;
   reconciledAt: Date | null;
   /** Highest usage warning already mailed (0, 80 or 100). */
   warnedPercent: number;
@@ -31,6 +33,7 @@ const COLUMNS = [
   'lab_billing.grace_until as graceUntil',
   'lab_billing.state_at as stateAt',
   'lab_billing.readings_count as readingsCount',
+  'lab_billing.quarantined_count as quarantinedCount',
   'lab_billing.reconciled_at as reconciledAt',
   'lab_billing.warned_percent as warnedPercent',
 ];
@@ -44,6 +47,7 @@ const toBilling = (r: Record<string, unknown>): LabBilling => ({
   graceUntil: (r.graceUntil as Date | null) ?? null,
   stateAt: Number(r.stateAt),
   readingsCount: Number(r.readingsCount),
+  quarantinedCount: Number(r.quarantinedCount),
   reconciledAt: (r.reconciledAt as Date | null) ?? null,
   warnedPercent: Number(r.warnedPercent),
 });
@@ -106,6 +110,30 @@ export function labBillingIn(scope: LabScope, db: DbOrTrx, freePlanKey: string) 
           freePlanKey,
           count,
         ]);
+    },
+
+    /**
+     * Counts one ingest batch in the lab's row inside the batch's transaction, if it fits:
+     * adds `readings` to the stored-readings counter only when the result stays within
+     * `limits.readings`, and checks that the quarantine, grown by `quarantined` less
+     * `quarantineFreed`, stays within `limits.quarantinedRows` (the quarantined rows themselves
+     * are counted by quarantine.repo.ts when they are written). One conditional UPDATE: it
+     * row-locks the counters until the transaction ends, so a concurrent batch of the same lab
+     * sees this one's readings before it checks. Returns false (and changes nothing) when the
+     * batch does not fit.
+     */
+    async reserveBatch(add: { readings: number; quarantined: number; quarantineFreed: number }, limits: { readings: number; quarantinedRows: number }): Promise<boolean> {
+      const grow = add.quarantined - add.quarantineFreed;
+      const sql =
+        'UPDATE lab_billing SET readings_count = readings_count + ? WHERE tenant_id = ? AND (? = 0 OR readings_count + ? <= ?) AND (? <= 0 OR quarantined_count + ? <= ?)';
+      const run = async () => {
+        const [result] = await db.raw(sql, [add.readings, scope.tenantId, add.readings, add.readings, limits.readings, grow, grow, limits.quarantinedRows]);
+        return Number((result as { affectedRows: number }).affectedRows) > 0;
+      };
+      if (await run()) return true;
+      if (await this.get()) return false;
+      await ensure();
+      return run();
     },
 
     /** Replaces the counter with an exact count (the usage job). */

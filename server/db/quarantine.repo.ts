@@ -56,9 +56,36 @@ const toRow = (r: Record<string, unknown>): QuarantinedRow => ({
   rowIndex: Number(r.rowIndex),
 });
 
-/** Data access for one lab's quarantined rows. */
+/** Where a page of the quarantine list ends: the sort key of its last row. */
+export interface QuarantineCursor {
+  receivedAt: Date;
+  rowIndex: number;
+  id: number;
+}
+
+export interface QuarantineFilter {
+  loggerId?: number;
+  reasonCode?: string;
+}
+
+/** A count of matching rows stops here: a lab keeps at most its plan's cap, and the list needs no more. */
+export const QUARANTINE_COUNT_LIMIT = 100_000;
+
+/**
+ * Data access for one lab's quarantined rows. `add` and `remove` also keep the lab's
+ * `lab_billing.quarantined_count` in step, in the caller's transaction, so the plan's
+ * quarantine cap is checked and shown without counting rows.
+ */
 export function quarantineIn(scope: LabScope) {
+  const filtered = (filter: QuarantineFilter) => {
+    const q = scope.table('quarantined_rows');
+    if (filter.loggerId) q.where('quarantined_rows.logger_id', filter.loggerId);
+    if (filter.reasonCode) q.where('quarantined_rows.reason_code', filter.reasonCode);
+    return q;
+  };
+
   return {
+    /** Writes quarantined rows and adds them to the lab's count (the billing row exists once plan limits counted the batch). */
     async add(rows: QuarantineInput[]): Promise<void> {
       for (let i = 0; i < rows.length; i += 1000) {
         await scope.insert(
@@ -78,22 +105,54 @@ export function quarantineIn(scope: LabScope) {
           })),
         );
       }
+      if (rows.length > 0) await scope.table('lab_billing').increment('quarantined_count', rows.length);
     },
 
-    async list(filter: { loggerId?: number; reasonCode?: string; page: number; pageSize: number }): Promise<{ rows: QuarantinedRow[]; total: number }> {
-      const filtered = () => {
-        const q = scope.table('quarantined_rows');
-        if (filter.loggerId) q.where('quarantined_rows.logger_id', filter.loggerId);
-        if (filter.reasonCode) q.where('quarantined_rows.reason_code', filter.reasonCode);
-        return q;
-      };
-      const [{ n }] = await filtered().count({ n: '*' });
-      const rows = await filtered()
-        .orderBy([{ column: 'quarantined_rows.received_at', order: 'desc' }, { column: 'quarantined_rows.row_index', order: 'asc' }])
-        .limit(filter.pageSize)
-        .offset((filter.page - 1) * filter.pageSize)
-        .select(COLUMNS);
-      return { rows: rows.map(toRow), total: Number(n) };
+    /**
+     * One page of the list, newest first and a batch's rows in their order, after `cursor`
+     * (keyset pagination on `(received_at DESC, row_index, id)`, read from the
+     * `quarantine_*recent_index` indexes however deep the page). `nextCursor` is null on the
+     * last page.
+     */
+    async page(filter: QuarantineFilter & { after?: QuarantineCursor; pageSize: number }): Promise<{ rows: QuarantinedRow[]; nextCursor: QuarantineCursor | null }> {
+      const q = filtered(filter);
+      const c = filter.after;
+      if (c) {
+        q.where('quarantined_rows.received_at', '<=', c.receivedAt).andWhere((w) =>
+          w
+            .where('quarantined_rows.received_at', '<', c.receivedAt)
+            .orWhere((same) =>
+              same
+                .where('quarantined_rows.row_index', '>', c.rowIndex)
+                .orWhere((tie) => tie.where('quarantined_rows.row_index', c.rowIndex).andWhere('quarantined_rows.id', '>', c.id)),
+            ),
+        );
+      }
+      const rows = (
+        await q
+          .orderBy([
+            { column: 'quarantined_rows.received_at', order: 'desc' },
+            { column: 'quarantined_rows.row_index', order: 'asc' },
+            { column: 'quarantined_rows.id', order: 'asc' },
+          ])
+          .limit(filter.pageSize + 1)
+          .select(COLUMNS)
+      ).map(toRow);
+      const more = rows.length > filter.pageSize;
+      if (more) rows.length = filter.pageSize;
+      const last = rows[rows.length - 1];
+      return { rows, nextCursor: more ? { receivedAt: last.receivedAt, rowIndex: last.rowIndex, id: last.id } : null };
+    },
+
+    /**
+     * Matching rows, counted from the index up to `QUARANTINE_COUNT_LIMIT` (`atLeast` when the
+     * count stopped there), so a lab with a huge backlog never makes the list scan it all.
+     */
+    async countUpTo(filter: QuarantineFilter): Promise<{ count: number; atLeast: boolean }> {
+      const inner = filtered(filter).select('quarantined_rows.id').limit(QUARANTINE_COUNT_LIMIT);
+      const row = await scope.table('quarantined_rows').client.queryBuilder().count({ n: '*' }).from(inner.as('matching')).first();
+      const count = Number(row?.n ?? 0);
+      return { count, atLeast: count >= QUARANTINE_COUNT_LIMIT };
     },
 
     async findMany(ids: number[]): Promise<QuarantinedRow[]> {
@@ -101,11 +160,22 @@ export function quarantineIn(scope: LabScope) {
       return (await scope.table('quarantined_rows').whereIn('quarantined_rows.id', ids).select(COLUMNS)).map(toRow);
     },
 
+    /**
+     * Deletes rows and takes them off the lab's count. The lab's billing row is locked first,
+     * in the same order an ingest batch takes its locks, so a removal and a batch never deadlock.
+     */
     async remove(ids: number[]): Promise<number> {
       if (ids.length === 0) return 0;
-      return scope.table('quarantined_rows').whereIn('quarantined_rows.id', ids).delete();
+      await scope.table('lab_billing').forUpdate().first('lab_billing.tenant_id');
+      const removed = Number(await scope.table('quarantined_rows').whereIn('quarantined_rows.id', ids).delete());
+      if (removed > 0) {
+        const taken = await scope.table('lab_billing').where('lab_billing.quarantined_count', '>=', removed).decrement('quarantined_count', removed);
+        if (!taken) await scope.table('lab_billing').update({ quarantined_count: 0 });
+      }
+      return removed;
     },
 
+    /** Every quarantined row of the lab, counted (tests and operators; the billing page reads the kept count). */
     async count(): Promise<number> {
       const [{ n }] = await scope.table('quarantined_rows').count({ n: '*' });
       return Number(n);

@@ -4,6 +4,7 @@ import { loggersIn, type Logger, type LoggerInput } from '../db/loggers.repo.ts'
 import { channelsIn, type Channel, type ChannelInput } from '../db/channels.repo.ts';
 import { ingestKeysIn, type IngestKeyInfo } from '../db/ingest-keys.repo.ts';
 import { auditIn } from '../db/audit.repo.ts';
+import { createLabsRepo } from '../db/labs.repo.ts';
 import { NotFoundError } from '../errors.ts';
 import { ConflictError, isDuplicateKey } from './service-errors.ts';
 import { newIngestKey } from './ingest-key-format.ts';
@@ -57,11 +58,16 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
       return { ...logger, channels, keys };
     },
 
-    /** Registers a logger with its channels and issues its first ingest key (shown once). */
+    /**
+     * Registers a logger with its channels and issues its first ingest key (shown once). The
+     * lab's row is locked first, so concurrent registrations in one lab check the plan's logger
+     * limit one after another and never pass it together.
+     */
     async register(lab: LabContext, actor: Actor | null, input: LoggerInput & { channels: ChannelInput[] }): Promise<{ logger: LoggerDetail; issued: IssuedKey }> {
       try {
         return await deps.db.transaction(async (trx) => {
           const scope = inLab(trx, lab.id);
+          await createLabsRepo(trx).lock(lab.id);
           await deps.planLimits?.assertRoomFor(trx, lab.id, 'loggers');
           const id = await loggersIn(scope).insert(input);
           for (const c of input.channels) await channelsIn(scope).insert(id, c);

@@ -1,6 +1,6 @@
 import type { Db } from '../db/create-db.ts';
 import { inLab } from '../db/tenant-scope.ts';
-import { quarantineIn, type QuarantinedRow } from '../db/quarantine.repo.ts';
+import { quarantineIn, type QuarantineCursor, type QuarantineFilter, type QuarantinedRow } from '../db/quarantine.repo.ts';
 import { auditIn } from '../db/audit.repo.ts';
 import { NotFoundError } from '../errors.ts';
 import type { IngestHooks } from './ingest/ingest-hooks.ts';
@@ -15,24 +15,44 @@ export interface ResubmitRow {
 }
 
 /**
+ * The hooks for a re-submit of `originals` quarantined rows: the batch's rows that fail again
+ * replace those originals (removed right after), so the quarantine cap sees only the net growth
+ * and a lab at its cap can still fix its rows.
+ */
+function replacing(hooks: IngestHooks, originals: number): IngestHooks {
+  return {
+    beforeCommit: hooks.beforeCommit && ((trx, batch) => hooks.beforeCommit!(trx, { ...batch, replacesQuarantined: originals })),
+    afterCommit: hooks.afterCommit && ((batch) => hooks.afterCommit!(batch)),
+  };
+}
+
+/**
  * Reviewing quarantined rows: list and filter, export, discard (audit-logged), or fix and
  * re-submit. A re-submitted row goes through exactly the same checks as a logger's; if it
  * fails again it returns to quarantine with its new reason, so nothing is ever lost.
  */
 export function createQuarantineService(deps: { db: Db; now?: () => number; hooks?: IngestHooks }) {
   return {
-    list(lab: LabContext, filter: { loggerId?: number; reasonCode?: string; page: number; pageSize: number }) {
-      return quarantineIn(inLab(deps.db, lab.id)).list(filter);
+    /**
+     * One page of matching rows after `after` (keyset pagination: each page costs the same however
+     * deep it is), with the number of matching rows counted up to QUARANTINE_COUNT_LIMIT.
+     */
+    async list(lab: LabContext, filter: QuarantineFilter & { after?: QuarantineCursor; pageSize: number }) {
+      const repo = quarantineIn(inLab(deps.db, lab.id));
+      const page = await repo.page(filter);
+      const total = await repo.countUpTo(filter);
+      return { ...page, total: total.count, totalAtLeast: total.atLeast };
     },
 
-    /** Every matching row, page by page (for CSV export). */
-    async *all(lab: LabContext, filter: { loggerId?: number; reasonCode?: string }): AsyncGenerator<QuarantinedRow[]> {
+    /** Every matching row, 5,000 at a time along the same keyset (for CSV export). */
+    async *all(lab: LabContext, filter: QuarantineFilter): AsyncGenerator<QuarantinedRow[]> {
       const repo = quarantineIn(inLab(deps.db, lab.id));
-      for (let page = 1; ; page++) {
-        const { rows } = await repo.list({ ...filter, page, pageSize: 5000 });
-        if (rows.length === 0) return;
-        yield rows;
-        if (rows.length < 5000) return;
+      let after: QuarantineCursor | undefined;
+      for (;;) {
+        const page = await repo.page({ ...filter, after, pageSize: 5000 });
+        if (page.rows.length > 0) yield page.rows;
+        if (!page.nextCursor) return;
+        after = page.nextCursor;
       }
     },
 
@@ -64,7 +84,7 @@ export function createQuarantineService(deps: { db: Db; now?: () => number; hook
           deps.db,
           { tenantId: lab.id, loggerId },
           list.map(({ row, index }) => ({ index, channel: row.channel, ts: row.ts, value: row.value, raw: JSON.stringify(row) })),
-          { source: 'resubmit', now: deps.now, hooks: deps.hooks },
+          { source: 'resubmit', now: deps.now, hooks: deps.hooks && replacing(deps.hooks, list.length) },
         );
         total.accepted += outcome.accepted;
         total.duplicates += outcome.duplicates;

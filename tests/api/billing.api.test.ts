@@ -375,17 +375,16 @@ describe('webhook endpoint', () => {
   });
 });
 
-describe('usage counter on shutdown', () => {
-  it('settles once the bumps of the last batches are written, so the server can close the pool after it', async () => {
+describe('usage counter in the batch transaction', () => {
+  it('counts a batch before its 200 answers (no write left for shutdown), and a refused batch counts nothing', async () => {
     const lab = await newLab();
     const limits = createPlanLimits({ db: t.db, catalog, logger: createLogger({ silent: true }) });
-    const before = await counter(lab);
-    const batch = { target: { tenantId: lab.f.lab.id, loggerId: lab.f.ids.loggerId }, source: 'api' as const, channels: [] };
-    limits.ingestHooks.afterCommit!({ ...batch, accepted: 5 });
-    limits.ingestHooks.afterCommit!({ ...batch, accepted: 2 }); // arrives while the first write is in flight
-    await limits.settled();
-    expect(await counter(lab)).toBe(before + 7);
-    await limits.settled(); // nothing pending: resolves at once
+    expect((await ingest(lab, 0, 7)).status).toBe(200);
+    expect(await counter(lab)).toBe(7); // read at once, no waiting for a later write
+    expect((await ingest(lab, 7, 4)).status).toBe(402);
+    expect(await counter(lab)).toBe(7);
+    expect(await storedReadings(lab)).toBe(7);
+    await limits.settled(); // nothing is ever outstanding: resolves at once
   });
 });
 

@@ -9,8 +9,8 @@ import Stripe from 'stripe';
  * polling until a webhook delivered out of band has landed.
  */
 export const TEST_LIMITS = {
-  free: { readings: 10, loggers: 2, members: 4, historyDays: 30 },
-  paid: { readings: 25, loggers: 4, members: 8, historyDays: 400 },
+  free: { readings: 10, loggers: 2, members: 4, historyDays: 30, quarantinedRows: 3 },
+  paid: { readings: 25, loggers: 4, members: 8, historyDays: 400, quarantinedRows: 6 },
 };
 
 /** Writes a copy of tenants/plans.json whose limits are TEST_LIMITS (first paid plan) and returns its path. */
@@ -22,7 +22,7 @@ export function writeTestPlanCatalog(): string {
     else if (firstPaid) {
       plan.limits = TEST_LIMITS.paid;
       firstPaid = false;
-    } else plan.limits = { readings: 1000, loggers: 50, members: 50, historyDays: 4000 };
+    } else plan.limits = { readings: 1000, loggers: 50, members: 50, historyDays: 4000, quarantinedRows: 100 };
   }
   const path = join(mkdtempSync(join(tmpdir(), 'lagbook-plans-')), 'plans.json');
   writeFileSync(path, JSON.stringify(shipped));

@@ -57,10 +57,48 @@ export type CreateLoggerBody = z.infer<typeof createLoggerSchema>;
 
 export const loggerPatchSchema = z.object(loggerFields).partial();
 
+/** Where a quarantine page ends: the sort key of its last row (see quarantine.repo.ts). */
+export interface QuarantineCursorKey {
+  receivedAt: Date;
+  rowIndex: number;
+  id: number;
+}
+
+/** The `nextCursor` text for a page's last row: `receivedAtMs.rowIndex.id` (treat it as opaque). */
+export function encodeQuarantineCursor(c: QuarantineCursorKey): string {
+  return `${c.receivedAt.getTime()}.${c.rowIndex}.${c.id}`;
+}
+
+const CURSOR_TEXT = /^(\d{1,15})\.(\d{1,10})\.(\d{1,16})$/;
+const BAD_CURSOR = 'not a cursor of this list (send nextCursor exactly as the previous page gave it)';
+
+/** The cursor's sort key, or null when the text is not one `encodeQuarantineCursor` made. */
+export function decodeQuarantineCursor(text: string): QuarantineCursorKey | null {
+  const m = CURSOR_TEXT.exec(text);
+  if (!m) return null;
+  const [receivedAtMs, rowIndex, id] = [Number(m[1]), Number(m[2]), Number(m[3])];
+  if (!Number.isSafeInteger(id) || receivedAtMs > 8.64e15 || rowIndex > 4294967295) return null;
+  return { receivedAt: new Date(receivedAtMs), rowIndex, id };
+}
+
+/**
+ * `GET …/quarantine` and its CSV export. Keyset pages: the first page without `cursor`, each
+ * next one with the previous page's `nextCursor`. Page numbers are refused with a 400 (a deep
+ * OFFSET page made the database skip millions of rows).
+ */
 export const quarantineQuerySchema = z.object({
   loggerId: z.coerce.number().int().positive('must be a positive number').optional(),
-  reason: z.string().max(48).optional(),
-  page: z.coerce.number().int().min(1, 'must be 1 or more').default(1),
+  reason: z.string().max(48, 'must be at most 48 characters').optional(),
+  cursor: z
+    .string()
+    .max(64, BAD_CURSOR)
+    .transform((text, ctx) => {
+      const key = decodeQuarantineCursor(text);
+      if (!key) ctx.addIssue({ code: 'custom', message: BAD_CURSOR });
+      return key ?? undefined;
+    })
+    .optional(),
+  page: z.undefined({ error: 'page numbers are not supported; follow nextCursor from the previous page' }).optional(),
   pageSize: z.coerce.number().int().min(1, 'must be 1 or more').max(500, 'must be at most 500').default(100),
 });
 

@@ -1,6 +1,6 @@
 import { actorOf, labOf } from '../middleware/lab-guard.ts';
 import { parseInput } from '../validate.ts';
-import { quarantineIdsSchema, quarantineQuerySchema, quarantineResubmitSchema } from './loggers.schema.ts';
+import { encodeQuarantineCursor, quarantineIdsSchema, quarantineQuerySchema, quarantineResubmitSchema } from './loggers.schema.ts';
 import { presentQuarantinedRow } from '../presenters/loggers.presenter.ts';
 import { csvLine } from '../csv-field.ts';
 import type { QuarantineService } from '../../services/quarantine.service.ts';
@@ -16,19 +16,26 @@ export function quarantineRoutes(deps: { quarantine: QuarantineService }): LabRo
       method: 'get',
       path: '/quarantine',
       permission: 'quarantine.review',
-      summary: 'Quarantined rows with their reasons, paged.',
+      summary:
+        'Quarantined rows with their reasons, newest first, in keyset pages: ask for the next page with `cursor` set to the `nextCursor` of the previous one (null on the last page). `total` counts matching rows up to 100,000 (`totalAtLeast` is true when there are at least that many).',
       query: quarantineQuerySchema,
       handle: async (req, res) => {
         const q = parseInput(quarantineQuerySchema, req.query);
-        const page = await quarantine.list(labOf(res), { loggerId: q.loggerId, reasonCode: q.reason, page: q.page, pageSize: q.pageSize });
-        res.json({ rows: page.rows.map(presentQuarantinedRow), total: page.total, page: q.page, pageSize: q.pageSize });
+        const page = await quarantine.list(labOf(res), { loggerId: q.loggerId, reasonCode: q.reason, after: q.cursor, pageSize: q.pageSize });
+        res.json({
+          rows: page.rows.map(presentQuarantinedRow),
+          total: page.total,
+          totalAtLeast: page.totalAtLeast,
+          pageSize: q.pageSize,
+          nextCursor: page.nextCursor ? encodeQuarantineCursor(page.nextCursor) : null,
+        });
       },
     },
     {
       method: 'get',
       path: '/quarantine/export.csv',
       permission: 'quarantine.review',
-      summary: 'Quarantined rows as a CSV file.',
+      summary: 'Quarantined rows as a CSV file (every matching row; text cells that a spreadsheet would read as a formula start with an apostrophe).',
       query: quarantineQuerySchema,
       handle: async (req, res) => {
         const q = parseInput(quarantineQuerySchema, req.query);

@@ -4,7 +4,7 @@ import type { LimitName } from './plan-catalog.ts';
 /** How long a refused logger should wait before trying again (seconds): usage changes slowly. */
 export const PLAN_LIMIT_RETRY_AFTER_S = 3600;
 
-const WHAT: Record<LimitName, string> = { readings: 'stored readings', loggers: 'loggers', members: 'members (with pending invitations)' };
+const WHAT: Record<LimitName, string> = { readings: 'stored readings', loggers: 'loggers', members: 'members (with pending invitations)', quarantinedRows: 'quarantined rows' };
 
 /**
  * The lab's plan does not allow this (a batch past the stored-readings limit, one logger or
@@ -22,7 +22,9 @@ export class PlanLimitError extends AppError {
       402,
       'plan_limit_reached',
       `The lab's ${detail.planName} plan allows ${detail.allowed} ${WHAT[limit]}; ${detail.used} are in use and this would add ${detail.adding}. ` +
-        'Nothing was saved. A lab admin can raise the limit under Billing; retry after that.',
+        (limit === 'quarantinedRows'
+          ? 'Nothing of this batch was saved, its good readings included. A technician can make room by discarding or re-submitting quarantined rows, or a lab admin can raise the limit under Billing; retry after that.'
+          : 'Nothing was saved. A lab admin can raise the limit under Billing; retry after that.'),
     );
   }
 }

@@ -5,8 +5,8 @@ import { parsePlanCatalog } from './plan-catalog.ts';
 export const testCatalog = parsePlanCatalog({
   currency: 'eur',
   plans: [
-    { key: 'seedling', name: 'Seedling', monthlyAmount: 0, priceLookupKey: null, limits: { readings: 10, loggers: 1, members: 2, historyDays: 30 } },
-    { key: 'transect', name: 'Transect', monthlyAmount: 4900, priceLookupKey: 'lagbook-transect-monthly', limits: { readings: 100, loggers: 5, members: 9, historyDays: 365 } },
+    { key: 'seedling', name: 'Seedling', monthlyAmount: 0, priceLookupKey: null, limits: { readings: 10, loggers: 1, members: 2, historyDays: 30, quarantinedRows: 5 } },
+    { key: 'transect', name: 'Transect', monthlyAmount: 4900, priceLookupKey: 'lagbook-transect-monthly', limits: { readings: 100, loggers: 5, members: 9, historyDays: 365, quarantinedRows: 50 } },
   ],
 });
 
@@ -21,6 +21,7 @@ export function billingRow(over: Partial<LabBilling> = {}): LabBilling {
     graceUntil: null,
     stateAt: 0,
     readingsCount: 0,
+    quarantinedCount: 0,
     reconciledAt: null,
     warnedPercent: 0,
     ...over,

@@ -19,7 +19,8 @@ export interface BillingOverview {
   subscribedPlanKey: string;
   status: BillingStatus;
   graceUntil: Date | null;
-  usage: UsageCounts;
+  /** What the lab uses; `quarantinedRows` is the kept count of rows in quarantine. */
+  usage: UsageCounts & { quarantinedRows: number };
   limits: PlanLimits;
   /** True when stored readings are at or over the limit: ingestion is refused. */
   ingestionRefused: boolean;
@@ -111,7 +112,7 @@ export function createBillingService(deps: { db: Db; stripe: Stripe; catalog: Pl
         subscribedPlanKey: row?.planKey ?? catalog.free.key,
         status: row?.status ?? 'none',
         graceUntil: row?.status === 'past_due' ? row.graceUntil : null,
-        usage: counts,
+        usage: { ...counts, quarantinedRows: row?.quarantinedCount ?? 0 },
         limits: plan.limits,
         ingestionRefused: counts.readings >= plan.limits.readings,
         historyStartsAt: new Date(historyStart(plan, at.getTime())),

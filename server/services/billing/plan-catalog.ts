@@ -11,6 +11,11 @@ const limitsSchema = z.object({
   members: z.number().int().positive(),
   /** How many days back the lab may browse and analyse (older readings stay stored). */
   historyDays: z.number().int().positive(),
+  /**
+   * Rows the lab may keep in quarantine (rows that could not be stored, kept for review); a
+   * batch that would pass it is refused whole until technicians discard or re-submit rows.
+   */
+  quarantinedRows: z.number().int().positive(),
 });
 
 const planSchema = z.object({
@@ -44,7 +49,7 @@ export const planCatalogSchema = z
 
 export type Plan = z.infer<typeof planSchema>;
 export type PlanLimits = Plan['limits'];
-export type LimitName = 'readings' | 'loggers' | 'members';
+export type LimitName = 'readings' | 'loggers' | 'members' | 'quarantinedRows';
 
 /** The validated plan catalog with the look-ups billing needs. */
 export interface PlanCatalog {

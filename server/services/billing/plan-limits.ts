@@ -3,23 +3,22 @@ import { inLab, type DbOrTrx } from '../../db/tenant-scope.ts';
 import { labBillingIn } from '../../db/lab-billing.repo.ts';
 import { usageIn } from '../../db/usage.repo.ts';
 import type { Logger } from '../../logger.ts';
-import type { IngestHooks } from '../ingest/ingest-hooks.ts';
+import type { IngestHooks, StoredBatch } from '../ingest/ingest-hooks.ts';
 import { effectivePlan } from './effective-plan.ts';
 import { PlanLimitError } from './billing-errors.ts';
 import type { Plan, PlanCatalog } from './plan-catalog.ts';
-import { createUsageCounterWrites } from './usage-counter-writes.ts';
 
 /** Plan limits at the points where usage grows: ingestion, registering a logger, inviting a member. */
 export interface PlanLimitGuard {
-  /** The ingestion hooks: refuse a batch past the readings limit; count what was stored. */
+  /** The ingestion hooks: count a batch's readings and quarantined rows, refusing it past the plan's limits. */
   ingestHooks: IngestHooks;
   /** Throws PlanLimitError when the lab has no room for one more logger or member. */
   assertRoomFor(trx: DbOrTrx, labId: number, what: 'loggers' | 'members'): Promise<void>;
   /** The plan whose limits apply to the lab now. */
   planOf(trx: DbOrTrx, labId: number): Promise<Plan>;
   /**
-   * Resolves once every counter bump made so far is written (or has failed and been logged):
-   * the server waits for it on shutdown, before the database pool closes.
+   * Resolves once no counter write is outstanding. Batches are counted inside their own
+   * transactions now, so there is never one left; kept for the shutdown sequence in app.ts.
    */
   settled(): Promise<void>;
 }
@@ -27,45 +26,52 @@ export interface PlanLimitGuard {
 /**
  * Builds the plan-limit checks.
  *
- * Readings: `beforeCommit` runs in the batch transaction once the new rows are inserted and
- * counted (`accepted` excludes duplicates), reads the lab's counter WITHOUT a lock, adds the
- * bumps this process has not yet written, and refuses the whole batch when that plus `accepted`
- * would pass the limit (exactly at the limit is allowed). `afterCommit` bumps the counter by
- * `accepted` through usage-counter-writes.ts (one write in flight per lab, bumps arriving
- * meanwhile summed). A bump whose write has just committed may be counted twice for a moment,
- * which errs towards refusing. Because the counter is read unlocked, batches of one lab
- * committing at the same moment in different processes may together pass the limit by at most
- * one batch each; the usage job then reconciles the exact count and the next batch is refused.
- * Locking a per-lab row here would serialise every logger of a lab.
+ * Readings and quarantine: `beforeCommit` runs in the batch transaction once the new rows are
+ * inserted and counted (`accepted` excludes duplicates) and counts the batch in the lab's
+ * `lab_billing` row with one conditional UPDATE (`reserveBatch`): the readings are added to the
+ * counter only if the result stays within the plan, and the quarantine may grow only within its
+ * cap. That row stays locked until the batch commits or rolls back, so a concurrent batch of the
+ * same lab — in this process or another — reads a counter that already includes every batch
+ * ahead of it: stored readings never pass the limit as counted, whatever the number of batches
+ * in flight. A batch that does not fit is refused whole (PlanLimitError, 402, Retry-After;
+ * nothing of it is written). Only the short tail of a batch (quarantine rows, last-seen, COMMIT)
+ * runs under the lock, so loggers of one lab queue for milliseconds, not for their batches.
+ * The quarantined rows themselves are counted where they are written (`addQuarantined`), in the
+ * same transaction. A batch with nothing new to store or quarantine takes no lock.
  */
 export function createPlanLimits(deps: { db: Db; catalog: PlanCatalog; logger: Logger; now?: () => Date }): PlanLimitGuard {
   const { catalog } = deps;
   const now = deps.now ?? (() => new Date());
   const billingOf = (trx: DbOrTrx, labId: number) => labBillingIn(inLab(trx, labId), trx, catalog.free.key);
-  const counterWrites = createUsageCounterWrites(
-    (labId, count) => billingOf(deps.db, labId).addReadings(count),
-    (labId, err) => deps.logger.warn('usage counter update failed; the usage job will reconcile it', { labId, err: String(err) }),
-  );
 
   async function planOf(trx: DbOrTrx, labId: number): Promise<Plan> {
     return effectivePlan(await billingOf(trx, labId).get(), catalog, now());
   }
 
+  /** The limit a batch that did not fit passes, with the figures for its message (read after the refusal). */
+  async function refusal(trx: DbOrTrx, batch: StoredBatch): Promise<PlanLimitError> {
+    const billing = await billingOf(trx, batch.target.tenantId).get();
+    const plan = effectivePlan(billing, catalog, now());
+    const readings = billing?.readingsCount ?? 0;
+    if (batch.accepted > 0 && readings + batch.accepted > plan.limits.readings) {
+      return new PlanLimitError('readings', { planName: plan.name, allowed: plan.limits.readings, used: readings, adding: batch.accepted });
+    }
+    const growth = batch.quarantined - (batch.replacesQuarantined ?? 0);
+    return new PlanLimitError('quarantinedRows', { planName: plan.name, allowed: plan.limits.quarantinedRows, used: billing?.quarantinedCount ?? 0, adding: growth });
+  }
+
   return {
     planOf,
-    settled: () => counterWrites.settled(),
+    settled: () => Promise.resolve(),
     ingestHooks: {
       async beforeCommit(trx, batch) {
-        if (batch.accepted === 0) return;
-        const billing = await billingOf(trx, batch.target.tenantId).get();
-        const plan = effectivePlan(billing, catalog, now());
-        const used = (billing?.readingsCount ?? 0) + counterWrites.pending(batch.target.tenantId);
-        if (used + batch.accepted > plan.limits.readings) {
-          throw new PlanLimitError('readings', { planName: plan.name, allowed: plan.limits.readings, used, adding: batch.accepted });
-        }
-      },
-      afterCommit(batch) {
-        counterWrites.add(batch.target.tenantId, batch.accepted);
+        if (batch.accepted === 0 && batch.quarantined === 0) return;
+        const plan = await planOf(trx, batch.target.tenantId);
+        const fits = await billingOf(trx, batch.target.tenantId).reserveBatch(
+          { readings: batch.accepted, quarantined: batch.quarantined, quarantineFreed: batch.replacesQuarantined ?? 0 },
+          plan.limits,
+        );
+        if (!fits) throw await refusal(trx, batch);
       },
     },
     async assertRoomFor(trx, labId, what) {

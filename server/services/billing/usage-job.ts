@@ -36,8 +36,20 @@ export function createUsageJob(deps: { db: Db; catalog: PlanCatalog; mailer: Mai
     const usage = usageIn(scope);
     const billing = labBillingIn(scope, deps.db, deps.catalog.free.key);
     const at = now();
-    const counts = { readings: await usage.storedReadings(), loggers: await usage.activeLoggers(), members: await usage.seatsTaken(at) };
-    await billing.setReadings(counts.readings, at);
+    // The recount and its write hold the lab's billing row: a batch counts itself in that row
+    // inside its own transaction (plan-limits.ts), so it either committed before the recount
+    // reads (and is in it) or adds itself on top of the recount afterwards — none is lost.
+    const counts = await deps.db.transaction(
+      async (trx) => {
+        const locked = labBillingIn(inLab(trx, labId), trx, deps.catalog.free.key);
+        await locked.getOrCreate({ lock: true });
+        const inTrx = usageIn(inLab(trx, labId));
+        const c = { readings: await inTrx.storedReadings(), loggers: await inTrx.activeLoggers(), members: await inTrx.seatsTaken(at) };
+        await locked.setReadings(c.readings, at);
+        return c;
+      },
+      { isolationLevel: 'read committed' },
+    );
     await usage.saveSnapshot(at.toISOString().slice(0, 10), counts);
 
     const row = await billing.getOrCreate();

@@ -201,7 +201,7 @@ async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[]
     await channelStateIn(scope, trx).advance(runs.map((r) => ({ channelId: r.channelId, ts: columns.ts[r.to - 1] })));
   }
   const spans = runs.map((r) => ({ channelId: r.channelId, oldestTs: columns.ts[r.from], newestTs: columns.ts[r.to - 1] }));
-  const stored: StoredBatch = { target, source: opts.source, accepted, channels: accepted > 0 ? spans : [] };
+  const stored: StoredBatch = { target, source: opts.source, accepted, quarantined: quarantine.length, channels: accepted > 0 ? spans : [] };
   // Last before the rows become final: a hook may still refuse the whole batch.
   if (opts.hooks?.beforeCommit) await opts.hooks.beforeCommit(trx, stored);
   if (quarantine.length) await quarantineIn(scope).add(quarantine);

@@ -8,6 +8,13 @@ export interface StoredBatch {
   source: ReadingSource;
   /** Readings newly stored by this batch (duplicates and quarantined rows excluded). */
   accepted: number;
+  /** Rows of this batch going to quarantine (stored with the batch unless a hook refuses it). */
+  quarantined: number;
+  /**
+   * Quarantined rows this batch replaces once it commits (a re-submit from quarantine removes
+   * its originals afterwards), so a quarantine cap looks at the net growth. 0 or absent otherwise.
+   */
+  replacesQuarantined?: number;
   /** Each channel the batch stored into, with the oldest and newest time it carried (epoch ms). */
   channels: Array<{ channelId: number; oldestTs: number; newestTs: number }>;
 }

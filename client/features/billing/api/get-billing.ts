@@ -7,6 +7,8 @@ export interface PlanLimits {
   loggers: number;
   members: number;
   historyDays: number;
+  /** Rows the lab may keep in quarantine. */
+  quarantinedRows: number;
 }
 
 /** A plan of the catalog. */
@@ -26,7 +28,7 @@ export interface BillingOverview {
   subscribedPlanKey: string;
   status: 'none' | 'active' | 'past_due' | 'canceled';
   graceUntil: string | null;
-  usage: { readings: number; loggers: number; members: number };
+  usage: { readings: number; loggers: number; members: number; quarantinedRows: number };
   limits: PlanLimits;
   ingestionRefused: boolean;
   historyStartsAt: string;

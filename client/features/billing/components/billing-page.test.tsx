@@ -11,14 +11,14 @@ afterEach(() => {
 
 // Plans and numbers invented for the test; the JSON shape is the API contract (billing.presenter.ts).
 const BASE = '/api/v1/labs/fernhollow/billing';
-const FREE: BillingPlan = { key: 'seedling', name: 'Seedling', summary: '', monthlyAmount: 0, paid: false, limits: { readings: 1000, loggers: 3, members: 5, historyDays: 90 } };
-const PAID: BillingPlan = { key: 'transect', name: 'Transect', summary: 'More room.', monthlyAmount: 4900, paid: true, limits: { readings: 50000, loggers: 30, members: 25, historyDays: 1095 } };
+const FREE: BillingPlan = { key: 'seedling', name: 'Seedling', summary: '', monthlyAmount: 0, paid: false, limits: { readings: 1000, loggers: 3, members: 5, historyDays: 90, quarantinedRows: 200 } };
+const PAID: BillingPlan = { key: 'transect', name: 'Transect', summary: 'More room.', monthlyAmount: 4900, paid: true, limits: { readings: 50000, loggers: 30, members: 25, historyDays: 1095, quarantinedRows: 2000 } };
 const overview = (over: Partial<BillingOverview> = {}): BillingOverview => ({
   plan: FREE,
   subscribedPlanKey: 'seedling',
   status: 'none',
   graceUntil: null,
-  usage: { readings: 850, loggers: 1, members: 2 },
+  usage: { readings: 850, loggers: 1, members: 2, quarantinedRows: 150 },
   limits: FREE.limits,
   ingestionRefused: false,
   historyStartsAt: '2026-09-03T00:00:00.000Z',
@@ -40,6 +40,9 @@ describe('billing page', () => {
     expect(meter.getAttribute('aria-valuenow')).toBe('850');
     expect(meter.getAttribute('aria-valuemax')).toBe('1000');
     expect(screen.getByText('850 of 1,000 (85%)')).toBeTruthy();
+    const quarantine = screen.getByRole('meter', { name: 'Rows in quarantine' });
+    expect([quarantine.getAttribute('aria-valuenow'), quarantine.getAttribute('aria-valuemax')]).toEqual(['150', '200']);
+    expect(screen.getByText('150 of 200 (75%)')).toBeTruthy();
     expect(screen.getByRole('img', { name: 'Stored readings over 2 day(s), latest 850' })).toBeTruthy();
     expect(screen.getByText('€49.00 / month')).toBeTruthy();
     expect(await screen.findByText('No invoices yet.')).toBeTruthy();
@@ -72,8 +75,8 @@ describe('billing page', () => {
   });
 
   it('switches an active subscription to another paid plan, asks first when the lab is over the new limits, and polls until confirmed', async () => {
-    const BIG: BillingPlan = { key: 'watershed', name: 'Watershed', summary: '', monthlyAmount: 18900, paid: true, limits: { readings: 900000, loggers: 300, members: 150, historyDays: 7300 } };
-    const onBig = overview({ plan: BIG, subscribedPlanKey: 'watershed', status: 'active', limits: BIG.limits, usage: { readings: 60000, loggers: 4, members: 3 }, plans: [FREE, PAID, BIG] });
+    const BIG: BillingPlan = { key: 'watershed', name: 'Watershed', summary: '', monthlyAmount: 18900, paid: true, limits: { readings: 900000, loggers: 300, members: 150, historyDays: 7300, quarantinedRows: 20000 } };
+    const onBig = overview({ plan: BIG, subscribedPlanKey: 'watershed', status: 'active', limits: BIG.limits, usage: { readings: 60000, loggers: 4, members: 3, quarantinedRows: 0 }, plans: [FREE, PAID, BIG] });
     let switched = false;
     const api = fakeApi({
       [`GET ${BASE}`]: () => ({ status: 200, body: switched ? { ...onBig, plan: PAID, subscribedPlanKey: 'transect', limits: PAID.limits } : onBig }),

@@ -89,6 +89,12 @@ export function BillingPage({ slug, returned }: { slug: string; returned: Checko
               <UsageBar label="Stored readings" used={data.usage.readings} allowed={data.limits.readings} note="Counted as batches arrive; recounted exactly every 15 minutes." />
               <UsageBar label="Loggers" used={data.usage.loggers} allowed={data.limits.loggers} />
               <UsageBar label="Members and pending invitations" used={data.usage.members} allowed={data.limits.members} />
+              <UsageBar
+                label="Rows in quarantine"
+                used={data.usage.quarantinedRows}
+                allowed={data.limits.quarantinedRows}
+                note="Rows that could not be stored, kept for review. At the limit, batches carrying more such rows are refused until a technician discards or re-submits some."
+              />
             </div>
             <p className="text-sm text-ink-soft">
               Browsing and analysis reach back to <DateTime iso={data.historyStartsAt} dateOnly /> ({data.limits.historyDays} days). Older readings stay

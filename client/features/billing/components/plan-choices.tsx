@@ -65,6 +65,7 @@ export function PlanChoices({ slug, overview }: { slug: string; overview: Billin
                 <li>{formatCount(plan.limits.loggers)} loggers</li>
                 <li>{formatCount(plan.limits.members)} members</li>
                 <li>{formatCount(plan.limits.historyDays)} days of history to browse</li>
+                <li>{formatCount(plan.limits.quarantinedRows)} rows kept in quarantine</li>
               </ul>
               {action(plan)}
             </li>

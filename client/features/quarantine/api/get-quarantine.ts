@@ -19,15 +19,20 @@ export interface QuarantinedRow {
 export interface QuarantineQuery {
   loggerId?: number;
   reason?: string;
-  page: number;
+  /** The `nextCursor` of the page before; absent for the first page. */
+  cursor?: string;
   pageSize: number;
 }
 
+/** One keyset page: `nextCursor` asks for the following one (null on the last page). */
 export interface QuarantinePage {
   rows: QuarantinedRow[];
+  /** Matching rows, counted up to 100,000. */
   total: number;
-  page: number;
+  /** True when `total` stopped at the counting limit (there are at least that many). */
+  totalAtLeast: boolean;
   pageSize: number;
+  nextCursor: string | null;
 }
 
 /** The query string of a quarantine request (also used by the CSV download), empty filters left out. */
@@ -35,7 +40,7 @@ export function quarantineSearch(query: Partial<QuarantineQuery>): string {
   const params = new URLSearchParams();
   if (query.loggerId) params.set('loggerId', String(query.loggerId));
   if (query.reason) params.set('reason', query.reason);
-  if (query.page) params.set('page', String(query.page));
+  if (query.cursor) params.set('cursor', query.cursor);
   if (query.pageSize) params.set('pageSize', String(query.pageSize));
   const text = params.toString();
   return text ? `?${text}` : '';
@@ -43,7 +48,7 @@ export function quarantineSearch(query: Partial<QuarantineQuery>): string {
 
 const base = (slug: string) => `/api/v1/labs/${encodeURIComponent(slug)}/quarantine`;
 
-/** `GET /api/v1/labs/:lab/quarantine?loggerId=&reason=&page=&pageSize=` (newest first). */
+/** `GET /api/v1/labs/:lab/quarantine?loggerId=&reason=&cursor=&pageSize=` (newest first). */
 export function getQuarantine(slug: string, query: QuarantineQuery): Promise<QuarantinePage> {
   return apiFetch(`${base(slug)}${quarantineSearch(query)}`);
 }

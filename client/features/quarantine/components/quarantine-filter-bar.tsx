@@ -2,7 +2,7 @@ import { SelectField } from '../../../components/form-field.tsx';
 import type { QuarantineFilters } from '../hooks/quarantine-search-params.ts';
 import { REASON_CODES, REASON_LABELS, type ReasonCode } from './reason-labels.ts';
 
-/** Filters of the quarantine page: which logger and which reason. A change applies at once and starts at page 1. */
+/** Filters of the quarantine page: which logger and which reason. A change applies at once and starts at the newest rows. */
 export function QuarantineFilterBar({
   filters,
   loggers,
@@ -17,7 +17,7 @@ export function QuarantineFilterBar({
       <SelectField
         label="Logger"
         value={filters.loggerId ?? ''}
-        onChange={(e) => onChange({ ...filters, loggerId: e.target.value ? Number(e.target.value) : null, page: 1 })}
+        onChange={(e) => onChange({ ...filters, loggerId: e.target.value ? Number(e.target.value) : null, cursor: null })}
       >
         <option value="">Every logger</option>
         {filters.loggerId && !loggers.some((l) => l.id === filters.loggerId) && <option value={filters.loggerId}>Logger #{filters.loggerId}</option>}
@@ -27,7 +27,7 @@ export function QuarantineFilterBar({
           </option>
         ))}
       </SelectField>
-      <SelectField label="Reason" value={filters.reason} onChange={(e) => onChange({ ...filters, reason: e.target.value as ReasonCode | '', page: 1 })}>
+      <SelectField label="Reason" value={filters.reason} onChange={(e) => onChange({ ...filters, reason: e.target.value as ReasonCode | '', cursor: null })}>
         <option value="">Any reason</option>
         {REASON_CODES.map((code) => (
           <option key={code} value={code}>

@@ -26,21 +26,40 @@ const BAD_VALUE: QuarantinedRow = {
 const UNKNOWN: QuarantinedRow = { ...BAD_VALUE, id: 802, reasonCode: 'unknown_channel', reason: 'channel: no channel "soil_t" on this logger', channel: 'soil_t', value: '9.5', source: 'api', raw: null };
 const LOGGERS = [{ id: 5, name: 'Hedgerow mast' }];
 
-const pageOf = (rows: QuarantinedRow[], total = rows.length) => ({ status: 200, body: { rows, total, page: 1, pageSize: 50 } });
+const pageOf = (rows: QuarantinedRow[], total = rows.length, nextCursor: string | null = null) => ({ status: 200, body: { rows, total, totalAtLeast: false, pageSize: 50, nextCursor } });
 
 describe('QuarantineReview', () => {
-  it('reads logger, reason and page from the URL, sends them to the API, and keeps filter changes in the URL', async () => {
-    const api = fakeApi({ 'GET /api/v1/labs/fernhollow/quarantine': () => pageOf([BAD_VALUE], 120) });
-    const { router } = renderWithProviders(<QuarantineReview slug="fernhollow" loggers={LOGGERS} />, '/q?loggerId=5&reason=bad_value&page=2');
+  it('reads logger, reason and cursor from the URL, sends them to the API, and keeps filter changes in the URL', async () => {
+    const api = fakeApi({ 'GET /api/v1/labs/fernhollow/quarantine': () => pageOf([BAD_VALUE], 120, '1790000000000.4321.801') });
+    const { router } = renderWithProviders(<QuarantineReview slug="fernhollow" loggers={LOGGERS} />, '/q?loggerId=5&reason=bad_value&cursor=1790000000000.1.9');
     await screen.findByText('n/a');
-    expect(api.requests[0].path).toBe('/api/v1/labs/fernhollow/quarantine?loggerId=5&reason=bad_value&page=2&pageSize=50');
+    expect(api.requests[0].path).toBe('/api/v1/labs/fernhollow/quarantine?loggerId=5&reason=bad_value&cursor=1790000000000.1.9&pageSize=50');
     expect((screen.getByLabelText('Logger') as HTMLSelectElement).value).toBe('5');
-    expect(screen.getByText(/Rows 51–100 of 120/)).toBeTruthy();
+    expect(screen.getByText('1 rows shown · 120 matching')).toBeTruthy();
     expect(screen.getByRole('link', { name: 'Download CSV' }).getAttribute('href')).toBe('/api/v1/labs/fernhollow/quarantine/export.csv?loggerId=5&reason=bad_value');
 
     fireEvent.change(screen.getByLabelText('Reason'), { target: { value: 'unknown_channel' } });
     await vi.waitFor(() => expect(router.state.location.search).toBe('?loggerId=5&reason=unknown_channel'));
-    await vi.waitFor(() => expect(api.requests.at(-1)!.path).toBe('/api/v1/labs/fernhollow/quarantine?loggerId=5&reason=unknown_channel&page=1&pageSize=50'));
+    await vi.waitFor(() => expect(api.requests.at(-1)!.path).toBe('/api/v1/labs/fernhollow/quarantine?loggerId=5&reason=unknown_channel&pageSize=50'));
+  });
+
+  it('pages by cursor: Older follows nextCursor, Newer goes back the way it came', async () => {
+    const api = fakeApi({
+      'GET /api/v1/labs/fernhollow/quarantine': (req) =>
+        req.path.includes('cursor=1790000000000.0.801') ? pageOf([UNKNOWN], 2) : pageOf([BAD_VALUE], 2, '1790000000000.0.801'),
+    });
+    const { router } = renderWithProviders(<QuarantineReview slug="fernhollow" loggers={LOGGERS} />, '/q');
+    await screen.findByText('n/a');
+    const button = (name: string) => screen.getByRole('button', { name }) as HTMLButtonElement;
+    expect([button('⇤ Newest').disabled, button('← Newer').disabled, button('Older →').disabled]).toEqual([true, true, false]);
+    fireEvent.click(button('Older →'));
+    await screen.findByText('soil_t');
+    expect(router.state.location.search).toBe('?cursor=1790000000000.0.801');
+    expect(api.requests.at(-1)!.path).toBe('/api/v1/labs/fernhollow/quarantine?cursor=1790000000000.0.801&pageSize=50');
+    expect([button('⇤ Newest').disabled, button('← Newer').disabled, button('Older →').disabled]).toEqual([false, false, true]);
+    fireEvent.click(button('← Newer'));
+    await screen.findByText('n/a');
+    expect(router.state.location.search).toBe('');
   });
 
   it('fixes one row and re-submits it, then says whether it was stored', async () => {

@@ -2,33 +2,42 @@ import { useCallback, useMemo, useState } from 'react';
 import { Button } from '../../../components/button.tsx';
 import { ConfirmButton } from '../../../components/confirm-button.tsx';
 import { LoadingNote, Notice } from '../../../components/notice.tsx';
-import { Pager } from '../../../components/pager.tsx';
 import { quarantineExportUrl, useQuarantine } from '../api/get-quarantine.ts';
 import { useDiscardRows } from '../api/discard-rows.ts';
 import { useResubmitRows, type ResubmitOutcome as Outcome, type ResubmitRow } from '../api/resubmit-rows.ts';
 import { useQuarantineFilters } from '../hooks/use-quarantine-filters.ts';
 import { asResubmitRow } from './fix-row-form.tsx';
 import { QuarantineFilterBar } from './quarantine-filter-bar.tsx';
+import { QuarantinePager } from './quarantine-pager.tsx';
 import { QuarantineTable } from './quarantine-table.tsx';
 import { ResubmitOutcome } from './resubmit-outcome.tsx';
 
 export const QUARANTINE_PAGE_SIZE = 50;
 
 /**
- * The quarantine review: filters (logger, reason) and page in the URL, the rows of the page,
+ * The quarantine review: filters (logger, reason) and the page's cursor in the URL, the rows
+ * of the page (keyset pages: Next follows the server's `nextCursor`, Newer goes back along the
+ * cursors this view came through, First returns to the newest rows),
  * and what can be done with them — select rows to discard (asked first) or re-submit as they
  * are, fix a single row and re-submit it, download every matching row as CSV. The outcome
  * of the last re-submission stays on screen until the next action.
  */
 export function QuarantineReview({ slug, loggers }: { slug: string; loggers: Array<{ id: number; name: string }> }) {
   const [filters, setFilters] = useQuarantineFilters();
-  const query = { ...(filters.loggerId ? { loggerId: filters.loggerId } : {}), ...(filters.reason ? { reason: filters.reason } : {}), page: filters.page, pageSize: QUARANTINE_PAGE_SIZE };
+  const query = {
+    ...(filters.loggerId ? { loggerId: filters.loggerId } : {}),
+    ...(filters.reason ? { reason: filters.reason } : {}),
+    ...(filters.cursor ? { cursor: filters.cursor } : {}),
+    pageSize: QUARANTINE_PAGE_SIZE,
+  };
   const list = useQuarantine(slug, query);
   const discard = useDiscardRows(slug);
   const resubmit = useResubmitRows(slug);
   const [selected, setSelected] = useState<Set<number>>(new Set());
   const [outcome, setOutcome] = useState<Outcome | null>(null);
   const [discarded, setDiscarded] = useState<number | null>(null);
+  // the cursors of the pages before the shown one, newest first page = null
+  const [trail, setTrail] = useState<Array<string | null>>([]);
   const loggerNames = useMemo(() => new Map(loggers.map((l) => [l.id, l.name])), [loggers]);
 
   const send = useCallback(
@@ -53,6 +62,7 @@ export function QuarantineReview({ slug, loggers }: { slug: string; loggers: Arr
         loggers={loggers}
         onChange={(next) => {
           setSelected(new Set());
+          setTrail([]);
           setFilters(next);
         }}
       />
@@ -102,15 +112,27 @@ export function QuarantineReview({ slug, loggers }: { slug: string; loggers: Arr
       ) : (
         <>
           <QuarantineTable rows={rows} loggerNames={loggerNames} selected={selected} onSelect={setSelected} pending={resubmit.isPending} onResubmit={send} />
-          <Pager
-            label="Quarantine pages"
-            noun="Rows"
-            page={filters.page}
-            pageSize={QUARANTINE_PAGE_SIZE}
+          <QuarantinePager
+            shown={rows.length}
             total={list.data.total}
-            onPage={(page) => {
+            totalAtLeast={list.data.totalAtLeast}
+            atFirst={!filters.cursor}
+            canGoBack={trail.length > 0}
+            nextCursor={list.data.nextCursor}
+            onFirst={() => {
               setSelected(new Set());
-              setFilters({ ...filters, page });
+              setTrail([]);
+              setFilters({ ...filters, cursor: null });
+            }}
+            onBack={() => {
+              setSelected(new Set());
+              setTrail(trail.slice(0, -1));
+              setFilters({ ...filters, cursor: trail[trail.length - 1] ?? null });
+            }}
+            onNext={(cursor) => {
+              setSelected(new Set());
+              setTrail([...trail, filters.cursor]);
+              setFilters({ ...filters, cursor });
             }}
           />
         </>

@@ -4,8 +4,12 @@ import { isReasonCode, type ReasonCode } from '../components/reason-labels.ts';
 export interface QuarantineFilters {
   loggerId: number | null;
   reason: ReasonCode | '';
-  page: number;
+  /** Where the shown page starts: the `nextCursor` the page before it gave (null: the newest rows). */
+  cursor: string | null;
 }
+
+/** The shape of the server's cursors (`receivedAtMs.rowIndex.id`); anything else is dropped. */
+const CURSOR = /^\d{1,15}\.\d{1,10}\.\d{1,16}$/;
 
 const positiveInt = (text: string | null) => {
   const n = Number(text);
@@ -15,14 +19,15 @@ const positiveInt = (text: string | null) => {
 /** Reads the filters from search params, dropping what is malformed (a hand-edited URL shows everything, not an error). */
 export function readQuarantineFilters(params: URLSearchParams): QuarantineFilters {
   const reason = params.get('reason') ?? '';
-  return { loggerId: positiveInt(params.get('loggerId')), reason: isReasonCode(reason) ? reason : '', page: positiveInt(params.get('page')) ?? 1 };
+  const cursor = params.get('cursor');
+  return { loggerId: positiveInt(params.get('loggerId')), reason: isReasonCode(reason) ? reason : '', cursor: cursor && CURSOR.test(cursor) ? cursor : null };
 }
 
-/** Writes filters as search params, leaving out empty ones and page 1. */
+/** Writes filters as search params, leaving out empty ones and the first page's (absent) cursor. */
 export function writeQuarantineFilters(filters: QuarantineFilters): URLSearchParams {
   const params = new URLSearchParams();
   if (filters.loggerId) params.set('loggerId', String(filters.loggerId));
   if (filters.reason) params.set('reason', filters.reason);
-  if (filters.page > 1) params.set('page', String(filters.page));
+  if (filters.cursor) params.set('cursor', filters.cursor);
   return params;
 }
