@@ -67,9 +67,10 @@ function minimumLength(p: number, q: number): number {
  *   part unconstrained and made invertible afterwards (`armaInvertMa`), as R's
  *   `transform.pars = TRUE` and `maInvert`;
  * - optimiser: BFGS with central-difference gradients (`bfgsMinimize`; Nocedal & Wright 2006,
- *   Alg. 6.1), the mean scaled by 10 × its naive standard error (R's `parscale`), started from
- *   the conditional-sum-of-squares estimates (`armaConditionalSumOfSquares`, R's "CSS-ML" start;
- *   zeros when those are not stationary);
+ *   Alg. 6.1), the mean scaled by 10 × its naive standard error (R's `parscale`), run from two
+ *   starts — the conditional-sum-of-squares estimates (`armaConditionalSumOfSquares`, R's
+ *   "CSS-ML" start) and R's `method = "ML"` start (ARMA part zero, sample mean) — keeping the
+ *   higher likelihood;
  * - standard errors: the inverse of n × the numerical Hessian of the per-value objective in the
  *   optimiser's parameters (`numericalHessian`, as R's `optim(hessian = TRUE)`), carried to φ by
  *   the delta method with the Jacobian of the tanh/Durbin–Levinson map, as R (`ARIMA_Gradtrans`);
@@ -154,9 +155,24 @@ export function fitArma(x: Series, options: FitArmaOptions): FitArmaResult {
   let best: Float64Array = start;
   let converged = true;
   if (k > 0) {
-    const fit = bfgsMinimize(objective, start, { scale });
-    best = fit.x;
-    converged = fit.converged;
+    // Two starts: the CSS estimates and R's own `method = "ML"` start (ARMA part zero, sample
+    // mean); the higher likelihood wins. With p + q ≥ 2 the likelihood surface often has
+    // several local maxima, and either start alone misses the global one on some series.
+    const starts = [start];
+    if (p + q > 0) {
+      const zero = new Float64Array(k);
+      if (includeMean) zero[k - 1] = mean0;
+      if (zero.some((v, i) => v !== start[i])) starts.push(zero);
+    }
+    let bestValue = Infinity;
+    for (const from of starts) {
+      const fit = bfgsMinimize(objective, from, { scale });
+      if (fit.value < bestValue) {
+        bestValue = fit.value;
+        best = fit.x;
+        converged = fit.converged;
+      }
+    }
     // MA invertibility, then (as R) the Hessian at the inverted point.
     const inverted = armaInvertMa(best.subarray(p, p + q));
     for (let j = 0; j < q; j++) best[p + j] = inverted[j];

@@ -59,6 +59,7 @@ export function kalmanArmaLikelihood(y: Float64Array, p: number, q: number): Kal
   const disturbance = new Float64Array(r * r);
   const work = new Float64Array(r * r * r * r);
   const sums: KalmanArmaSums = { sumSquares: 0, sumLogVariance: 0, counted: 0 };
+  const tally = new Float64Array(2);
   const steadyTolerance = 1e-13;
 
   return (phi, theta, mean, residuals) => {
@@ -75,27 +76,27 @@ export function kalmanArmaLikelihood(y: Float64Array, p: number, q: number): Kal
     let counted = 0;
     let steady = false;
     for (let t = 0; t < n; t++) {
+      if (steady) {
+        // Runs the O(r) innovations recursion up to the next gap (or the end).
+        const stop = steadyRun(y, t, mean, phiPad, loading, a, r, residuals, tally);
+        sumSquares += tally[0];
+        counted += tally[1];
+        if (stop >= n) break;
+        // A gap at `stop`: predict through it; the state is uncertain again, P = R R′.
+        steady = false;
+        const a0 = a[0];
+        for (let i = 0; i < r - 1; i++) a[i] = a[i + 1] + phiPad[i] * a0;
+        a[r - 1] = phiPad[r - 1] * a0;
+        cov.set(disturbance);
+        if (residuals) residuals[stop] = NaN;
+        t = stop;
+        continue;
+      }
       // Prediction of the state: aNew = T a.
       const a0 = a[0];
       for (let i = 0; i < r - 1; i++) aNew[i] = a[i + 1] + phiPad[i] * a0;
       aNew[r - 1] = phiPad[r - 1] * a0;
       const obs = y[t];
-      if (steady) {
-        if (obs === obs) {
-          const v = obs - mean - aNew[0];
-          for (let i = 0; i < r; i++) a[i] = aNew[i] + loading[i] * v;
-          sumSquares += v * v;
-          counted++;
-          if (residuals) residuals[t] = v;
-          continue;
-        }
-        // A gap: the state is uncertain again; P_t = R R′ after this prediction step.
-        steady = false;
-        for (let i = 0; i < r; i++) a[i] = aNew[i];
-        cov.set(disturbance);
-        if (residuals) residuals[t] = NaN;
-        continue;
-      }
       if (t > 0) {
         // covNew = T cov T′ + R R′, written out for the sparse T (as ARIMA_Like).
         const c00 = cov[0];
@@ -143,4 +144,41 @@ export function kalmanArmaLikelihood(y: Float64Array, p: number, q: number): Kal
     sums.counted = counted;
     return sums;
   };
+}
+
+/**
+ * The steady-state filter from step `from` on: with P = 0 the prediction is
+ * ŷ_t = a_{t,1} + φ_1 a_{t−1,0} folded into one pass, v_t = y_t − μ − ŷ_t, F_t = 1, and the state
+ * update a_i ← a_{i+1} + φ_i a_0 + R_i v_t runs in place (ascending i reads a_{i+1} before
+ * writing it). Stops at the first missing value and returns its index (n when none); Σ v² and
+ * the count go to tally[0], tally[1].
+ */
+function steadyRun(
+  y: Float64Array,
+  from: number,
+  mean: number,
+  phi: Float64Array,
+  loading: Float64Array,
+  a: Float64Array,
+  r: number,
+  residuals: Float64Array | undefined,
+  tally: Float64Array,
+): number {
+  const n = y.length;
+  let ssq = 0;
+  let t = from;
+  const last = r - 1;
+  for (; t < n; t++) {
+    const obs = y[t];
+    if (obs !== obs) break;
+    const a0 = a[0];
+    const v = obs - mean - ((last > 0 ? a[1] : 0) + phi[0] * a0);
+    for (let i = 0; i < last; i++) a[i] = a[i + 1] + phi[i] * a0 + loading[i] * v;
+    a[last] = phi[last] * a0 + loading[last] * v;
+    ssq += v * v;
+    if (residuals) residuals[t] = v;
+  }
+  tally[0] = ssq;
+  tally[1] = t - from;
+  return t;
 }
