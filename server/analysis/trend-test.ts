@@ -1,6 +1,7 @@
 import { AnalysisInputError, type Series, assertSeries } from './analysis-input-error.ts';
 import { chiSquareUpperTail } from './chi-square-upper-tail.ts';
 import { integerOption } from './integer-option.ts';
+import { laggedProducts } from './lagged-products.ts';
 import { normalQuantile } from './normal-quantile.ts';
 import { studentTQuantile } from './student-t-quantile.ts';
 
@@ -64,26 +65,28 @@ export interface TrendTestResult {
  * Throws AnalysisInputError for fewer than 10 readings, a bad lag or alpha, a constant series, or
  * readings lying exactly on a line (no sampling error to estimate).
  *
- * Cost: O(n · L).
+ * Cost: O(n · min(L, log n)): the lagged sums go through `laggedProducts` (direct or FFT).
  */
 export function trendTest(x: Series, options: TrendTestOptions = {}): TrendTestResult {
   const fn = 'trendTest';
   assertSeries(x, fn);
   const alpha = options.alpha ?? 0.05;
   if (!(alpha > 0 && alpha < 1)) throw new AnalysisInputError(`${fn}: alpha must be between 0 and 1 (got ${alpha})`);
-  const times: number[] = [];
-  const values: number[] = [];
-  for (let i = 0; i < x.length; i++) {
-    if (Number.isNaN(x[i])) continue;
-    times.push(i + 1);
-    values.push(x[i]);
-  }
-  const n = values.length;
+  let n = 0;
+  for (let i = 0; i < x.length; i++) if (!Number.isNaN(x[i])) n++;
   if (n < MIN_POINTS) throw new AnalysisInputError(`${fn} requires at least ${MIN_POINTS} data points (got ${n})`);
   const lag = integerOption(fn, 'lag', options.lag ?? Math.floor(4 * (n / 100) ** (2 / 9)), 0, n - 1);
-  if (values.every((v) => v === values[0])) {
-    throw new AnalysisInputError(`${fn}: the series is constant, so it has no trend to test`);
+  const times = new Float64Array(n);
+  const values = new Float64Array(n);
+  let constant = true;
+  for (let i = 0, j = 0; i < x.length; i++) {
+    if (Number.isNaN(x[i])) continue;
+    times[j] = i + 1;
+    values[j] = x[i];
+    if (values[j] !== values[0]) constant = false;
+    j++;
   }
+  if (constant) throw new AnalysisInputError(`${fn}: the series is constant, so it has no trend to test`);
 
   let tMean = 0;
   let xMean = 0;
@@ -116,26 +119,21 @@ export function trendTest(x: Series, options: TrendTestOptions = {}): TrendTestR
   const standardErrorOls = Math.sqrt(rss / (n - 2) / stt);
 
   // Meat S = Γ_0 + Σ_l w_l (Γ_l + Γ_lᵀ) for ψ_i = u_i (1, c_i); in the centred design XᵀX = diag(n, Σc²).
-  let s11 = 0;
-  let s1c = 0;
-  let scc = 0;
-  for (let l = 0; l <= lag; l++) {
-    const w = l === 0 ? 1 : 1 - l / (lag + 1);
-    let g11 = 0;
-    let g1c = 0;
-    let gc1 = 0;
-    let gcc = 0;
-    for (let i = l; i < n; i++) {
-      const uu = residuals[i] * residuals[i - l];
-      g11 += uu;
-      g1c += uu * centred[i - l];
-      gc1 += uu * centred[i];
-      gcc += uu * centred[i] * centred[i - l];
-    }
-    const twice = l === 0 ? 1 : 2;
-    s11 += w * twice * g11;
-    scc += w * twice * gcc;
-    s1c += w * (l === 0 ? g1c : g1c + gc1);
+  // With v_i = u_i c_i the entries of Γ_l are lagged products of u and v.
+  const weighted = new Float64Array(n);
+  for (let i = 0; i < n; i++) weighted[i] = residuals[i] * centred[i];
+  const uu = laggedProducts(residuals, residuals, lag);
+  const uv = laggedProducts(residuals, weighted, lag); // Σ u_i v_{i−l}
+  const vu = laggedProducts(weighted, residuals, lag); // Σ v_i u_{i−l}
+  const vv = laggedProducts(weighted, weighted, lag);
+  let s11 = uu[0];
+  let s1c = uv[0];
+  let scc = vv[0];
+  for (let l = 1; l <= lag; l++) {
+    const w = 1 - l / (lag + 1);
+    s11 += 2 * w * uu[l];
+    scc += 2 * w * vv[l];
+    s1c += w * (uv[l] + vu[l]);
   }
   const varSlope = scc / (stt * stt);
   const varLevel = s11 / (n * n);
