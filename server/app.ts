@@ -42,6 +42,7 @@ import { uploadRoutes } from './http/loggers/uploads.router.ts';
 import { createUploadsService } from './services/uploads.service.ts';
 import { createChannelsService } from './services/channels.service.ts';
 import { createDiagnosticsService } from './services/diagnostics.service.ts';
+import { createDiagnosticsConcurrency } from './services/diagnostics-concurrency.ts';
 import { channelRoutes } from './http/channels/channels.router.ts';
 import { createPersonalTokensService } from './services/personal-tokens.service.ts';
 import { tokenRoutes } from './http/tokens/tokens.router.ts';
@@ -100,7 +101,7 @@ export function createApp(deps: AppDeps): Express {
   const signIn = createSignInService({ users });
   const me = createMeService({ labs, users });
   const passport = createPassport({ config, endpoints: deps.identity.endpoints, users, signIn });
-  const labsService = createLabsService({ db });
+  const labsService = createLabsService({ db, caps: config.labCreation, catalog: plans, now: deps.now });
   const members = createMembersService({ db });
   const invitations = createInvitationsService({ db, mailer: deps.mailer, publicUrl: config.publicUrl, now: deps.now, planLimits });
   const audit = createAuditService({ db });
@@ -134,7 +135,14 @@ export function createApp(deps: AppDeps): Express {
     ...loggerRoutes({ loggers, testReadings: createTestReadingService({ db, now: nowMs, hooks: ingestHooks }) }),
     ...quarantineRoutes({ quarantine }),
     ...uploadRoutes({ uploads: createUploadsService({ db, now: nowMs, hooks: ingestHooks }), logger }),
-    ...channelRoutes({ channels, diagnostics, now: nowMs, historyWindow: (lab) => billingService.historyWindowFor(lab) }),
+    ...channelRoutes({
+      channels,
+      diagnostics,
+      now: nowMs,
+      historyWindow: (lab) => billingService.historyWindowFor(lab),
+      // At most this many diagnostics runs in flight per person (per process): one person cannot hog the workers.
+      diagnosticsRuns: createDiagnosticsConcurrency({ maxPerPerson: config.diagnostics.runsPerPerson }),
+    }),
     ...alertRoutes({ alerts: alerts.service, now: nowMs }),
     ...tokenRoutes({ tokens }),
     ...billingRoutes({ billing: billingService }),

@@ -66,4 +66,17 @@ describe('loadConfig', () => {
   it('uses plain cookies on a plain-HTTP loopback URL', () => {
     expect(loadConfig(valid).secureCookies).toBe(false);
   });
+
+  it('caps labs per account (3, 10 for admins of paid labs) and diagnostics runs per person (2) unless set', () => {
+    expect(loadConfig(valid).labCreation).toEqual({ perAccount: 3, perPaidAdmin: 10 });
+    expect(loadConfig(valid).diagnostics).toEqual({ runsPerPerson: 2 });
+    const set = loadConfig({ ...valid, LAGBOOK_MAX_LABS_PER_ACCOUNT: '5', LAGBOOK_MAX_LABS_PER_PAID_ADMIN: '5', LAGBOOK_DIAGNOSTICS_RUNS_PER_PERSON: '4' });
+    expect(set.labCreation).toEqual({ perAccount: 5, perPaidAdmin: 5 });
+    expect(set.diagnostics).toEqual({ runsPerPerson: 4 });
+    expect(() => loadConfig({ ...valid, LAGBOOK_MAX_LABS_PER_ACCOUNT: '0' })).toThrow('LAGBOOK_MAX_LABS_PER_ACCOUNT: must be at least 1');
+    expect(() => loadConfig({ ...valid, LAGBOOK_DIAGNOSTICS_RUNS_PER_PERSON: 'many' })).toThrow(/LAGBOOK_DIAGNOSTICS_RUNS_PER_PERSON: /);
+    expect(() => loadConfig({ ...valid, LAGBOOK_MAX_LABS_PER_ACCOUNT: '4', LAGBOOK_MAX_LABS_PER_PAID_ADMIN: '3' })).toThrow(
+      'LAGBOOK_MAX_LABS_PER_PAID_ADMIN: must be at least LAGBOOK_MAX_LABS_PER_ACCOUNT (4)',
+    );
+  });
 });

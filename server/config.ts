@@ -53,6 +53,12 @@ const envSchema = z.object({
   LAGBOOK_BILLING_GRACE_DAYS: z.coerce.number().int().min(0).max(60).default(7),
   /** The plan catalog (limits and Stripe price lookup keys). */
   LAGBOOK_PLANS_FILE: z.string().min(1).default('tenants/plans.json'),
+  /** Labs one person may create. */
+  LAGBOOK_MAX_LABS_PER_ACCOUNT: z.coerce.number().int().min(1, 'must be at least 1').max(1000, 'must be at most 1000').default(3),
+  /** Labs one person may create when they are admin of a lab on a paid plan. */
+  LAGBOOK_MAX_LABS_PER_PAID_ADMIN: z.coerce.number().int().min(1, 'must be at least 1').max(1000, 'must be at most 1000').default(10),
+  /** Diagnostics runs one person may have in flight at once, per app process. */
+  LAGBOOK_DIAGNOSTICS_RUNS_PER_PERSON: z.coerce.number().int().min(1, 'must be at least 1').max(64, 'must be at most 64').default(2),
 });
 
 export interface Config {
@@ -71,6 +77,10 @@ export interface Config {
   smtp: { host: string; port: number; secure: boolean; user?: string; password?: string; from: string };
   alerts: { evaluateEveryS: number; reminderAfterMin: number };
   stripe: { secretKey: string; apiBase: URL | null; webhookSecret: string; graceDays: number; plansFile: string };
+  /** Labs a person may create: `perAccount`, or `perPaidAdmin` once they administer a lab on a paid plan. */
+  labCreation: { perAccount: number; perPaidAdmin: number };
+  /** Diagnostics runs one person may have in flight at once (per app process). */
+  diagnostics: { runsPerPerson: number };
 }
 
 /** Only the database settings (for operator commands that need nothing else). */
@@ -106,6 +116,11 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
   const e = parsed.data;
   if (e.NODE_ENV === 'production' && e.STRIPE_API_BASE) {
     throw new ConfigError('Invalid configuration:\n  STRIPE_API_BASE: the Stripe stand-in cannot be used in production');
+  }
+  if (e.LAGBOOK_MAX_LABS_PER_PAID_ADMIN < e.LAGBOOK_MAX_LABS_PER_ACCOUNT) {
+    throw new ConfigError(
+      `Invalid configuration:\n  LAGBOOK_MAX_LABS_PER_PAID_ADMIN: must be at least LAGBOOK_MAX_LABS_PER_ACCOUNT (${e.LAGBOOK_MAX_LABS_PER_ACCOUNT})`,
+    );
   }
   const publicUrl = (e.LAGBOOK_PUBLIC_URL ?? `http://${e.LAGBOOK_HOST}:${e.LAGBOOK_PORT}`).replace(/\/$/, '');
   return {
@@ -148,5 +163,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
       graceDays: e.LAGBOOK_BILLING_GRACE_DAYS,
       plansFile: e.LAGBOOK_PLANS_FILE,
     },
+    labCreation: { perAccount: e.LAGBOOK_MAX_LABS_PER_ACCOUNT, perPaidAdmin: e.LAGBOOK_MAX_LABS_PER_PAID_ADMIN },
+    diagnostics: { runsPerPerson: e.LAGBOOK_DIAGNOSTICS_RUNS_PER_PERSON },
   };
 }

@@ -1,12 +1,17 @@
+import { randomBytes } from 'node:crypto';
 import type { Db } from '../db/create-db.ts';
-import { createLabsRepo, type Lab } from '../db/labs.repo.ts';
-import { inLab } from '../db/tenant-scope.ts';
+import { createLabsRepo, type Lab, type LabsRepo } from '../db/labs.repo.ts';
+import { inLab, type DbOrTrx } from '../db/tenant-scope.ts';
 import { membershipsIn } from '../db/memberships.repo.ts';
 import { auditIn } from '../db/audit.repo.ts';
 import { createUsersRepo } from '../db/users.repo.ts';
+import type { LabBilling } from '../db/lab-billing.repo.ts';
 import { slugFromName } from '../policies/lab-slug.ts';
+import { effectivePlan } from './billing/effective-plan.ts';
+import type { PlanCatalog } from './billing/plan-catalog.ts';
 import { ConflictError, isDuplicateKey } from './service-errors.ts';
-import { ValidationError } from '../errors.ts';
+import { isLockConflict } from '../db/db-errors.ts';
+import { AppError, ValidationError } from '../errors.ts';
 import type { Actor } from './lab-context.ts';
 
 export interface CreateLabInput {
@@ -14,45 +19,142 @@ export interface CreateLabInput {
   slug?: string;
 }
 
-/** Creating labs. The creator becomes the lab's first admin, in the same transaction. */
-export function createLabsService(deps: { db: Db }) {
-  async function createLab(input: CreateLabInput, actor: Actor | null, adminUserId: number | null): Promise<Lab> {
+/** A lab a person created, and the address they asked for (the lab's own may differ: see create). */
+export interface CreatedLab {
+  lab: Lab;
+  requestedSlug: string;
+}
+
+/** How many labs one person may create (see Config.labCreation). */
+export interface LabCreationCaps {
+  perAccount: number;
+  /** For a person who is admin of at least one lab on a paid plan. */
+  perPaidAdmin: number;
+}
+
+/** Longest lab address the API accepts (labSlugSchema); variants are cut to fit it. */
+const MAX_SLUG_LENGTH = 48;
+/** Addresses tried in order when the requested one is unavailable: "x", "x-2" … "x-9". */
+export const SLUG_VARIANTS = 9;
+/** Whole creation retried this many times when another creation took the chosen address meanwhile. */
+const CREATE_ATTEMPTS = 10;
+
+/** `slug` with `suffix` appended, cut so the whole stays within MAX_SLUG_LENGTH (no hyphen before the suffix doubles). */
+function withSuffix(slug: string, suffix: string): string {
+  return `${slug.slice(0, MAX_SLUG_LENGTH - suffix.length).replace(/-+$/, '')}${suffix}`;
+}
+
+/**
+ * The addresses a person's new lab may get for a requested `slug`, in order of preference: the
+ * slug itself, then "-2" … "-9" appended (cut to 48 characters). Creation takes the first free
+ * one, so a taken address answers exactly like a free one, only with another address.
+ */
+export function slugCandidates(slug: string): string[] {
+  return [slug, ...Array.from({ length: SLUG_VARIANTS - 1 }, (_, i) => withSuffix(slug, `-${i + 2}`))];
+}
+
+/** The person has created as many labs as their account may. */
+export class LabLimitError extends AppError {
+  constructor(detail: { created: number; allowed: number; paidAdmin: boolean; perPaidAdmin: number }) {
+    const raise = !detail.paidAdmin && detail.perPaidAdmin > detail.allowed ? ` Admins of a lab on a paid plan may create up to ${detail.perPaidAdmin}.` : '';
+    super(
+      403,
+      'lab_limit_reached',
+      detail.paidAdmin
+        ? `You have created ${detail.created} labs; an admin of a lab on a paid plan may create at most ${detail.allowed}.`
+        : `You have created ${detail.created} labs; one account may create at most ${detail.allowed}.${raise}`,
+    );
+  }
+}
+
+/**
+ * Creating labs. The creator becomes the lab's first admin, in the same transaction.
+ * A person's creation never tells them whether an address belongs to another lab: an address
+ * in use gets the next free variant, with the same answer as a free one. A person may create
+ * `caps.perAccount` labs (more, `caps.perPaidAdmin`, once they administer a lab on a paid plan);
+ * their `users` row is locked while counting, so creations at once cannot pass the cap together.
+ */
+export function createLabsService(deps: { db: Db; caps?: LabCreationCaps; catalog?: PlanCatalog; now?: () => Date }) {
+  const now = deps.now ?? (() => new Date());
+
+  /** Inserts the lab at `slug`, its first admin (if known) and the audit event, in `trx`. */
+  async function insertLab(trx: DbOrTrx, slug: string, name: string, actor: Actor | null, adminUserId: number | null): Promise<Lab> {
+    const lab = await createLabsRepo(trx).insert({ slug, name, createdBy: actor?.id ?? null });
+    const scope = inLab(trx, lab.id);
+    if (adminUserId !== null) await membershipsIn(scope).add(adminUserId, 'admin');
+    await auditIn(scope).record({
+      actorUserId: actor?.id ?? null,
+      action: 'lab.created',
+      targetType: 'lab',
+      targetId: lab.slug,
+      summary: `${actor?.displayName ?? 'A Lagbook operator'} created the lab "${lab.name}"`,
+    });
+    return lab;
+  }
+
+  /** Refuses with LabLimitError when the person has created as many labs as they may. */
+  async function checkCap(repo: LabsRepo, userId: number, caps: LabCreationCaps, catalog: PlanCatalog): Promise<void> {
+    const created = await repo.countCreatedBy(userId);
+    if (created < caps.perAccount) return;
+    const at = now();
+    // effectivePlan reads only the plan, status and grace period of a billing row.
+    const paidAdmin = (await repo.adminPlansOf(userId)).some((b) => effectivePlan(b as LabBilling, catalog, at).key !== catalog.free.key);
+    const allowed = paidAdmin ? caps.perPaidAdmin : caps.perAccount;
+    if (created >= allowed) throw new LabLimitError({ created, allowed, paidAdmin, perPaidAdmin: caps.perPaidAdmin });
+  }
+
+  function requestedSlugOf(input: CreateLabInput): string {
     const slug = input.slug ?? slugFromName(input.name);
     if (slug.length < 3) throw new ValidationError('slug: choose an address of at least 3 letters or digits');
-    try {
-      return await deps.db.transaction(async (trx) => {
-        const lab = await createLabsRepo(trx).insert({ slug, name: input.name });
-        const scope = inLab(trx, lab.id);
-        if (adminUserId !== null) await membershipsIn(scope).add(adminUserId, 'admin');
-        await auditIn(scope).record({
-          actorUserId: actor?.id ?? null,
-          action: 'lab.created',
-          targetType: 'lab',
-          targetId: lab.slug,
-          summary: `${actor?.displayName ?? 'A Lagbook operator'} created the lab "${lab.name}"`,
-        });
-        return lab;
-      });
-    } catch (err) {
-      if (isDuplicateKey(err)) throw new ConflictError('slug_taken', 'slug: this address is already taken');
-      throw err;
-    }
+    return slug;
   }
 
   return {
-    /** A signed-in person creates a lab and becomes its admin. */
-    create(actor: Actor, input: CreateLabInput): Promise<Lab> {
-      return createLab(input, actor, actor.id);
+    /**
+     * A signed-in person creates a lab and becomes its admin. The lab gets the requested
+     * address, or the first free of its variants (slugCandidates; a random suffix if all are in
+     * use); the answer is the same either way apart from the address.
+     */
+    async create(actor: Actor, input: CreateLabInput): Promise<CreatedLab> {
+      const { caps, catalog } = deps;
+      if (!caps || !catalog) throw new Error('labs service: creating labs for people needs the creation caps and the plan catalog');
+      const requestedSlug = requestedSlugOf(input);
+      const candidates = slugCandidates(requestedSlug);
+      for (let attempt = 1; ; attempt++) {
+        try {
+          const lab = await deps.db.transaction(async (trx) => {
+            const repo = createLabsRepo(trx);
+            await repo.lockCreator(actor.id);
+            await checkCap(repo, actor.id, caps, catalog);
+            const taken = await repo.takenAmong(candidates);
+            const slug = candidates.find((c) => !taken.has(c)) ?? withSuffix(requestedSlug, `-${randomBytes(3).toString('hex')}`);
+            return insertLab(trx, slug, input.name, actor, actor.id);
+          });
+          return { lab, requestedSlug };
+        } catch (err) {
+          // Someone else's creation took the chosen address between the look-up and the insert
+          // (or InnoDB chose this transaction as a deadlock victim on that key): start again.
+          if (!isDuplicateKey(err) && !isLockConflict(err)) throw err;
+          if (attempt >= CREATE_ATTEMPTS) throw new ConflictError('slug_busy', 'Many labs are being created at this address right now; please try again.');
+        }
+      }
     },
 
     /**
      * An operator creates a lab for someone (ops CLI): that person becomes admin at once if
      * they have signed in before (verified e-mail), otherwise when they accept the invitation.
+     * Operators name the exact address: a taken one is refused (409 slug_taken), not varied.
      */
     async createForOperator(input: CreateLabInput & { adminEmail: string }): Promise<{ lab: Lab; adminUserId: number | null }> {
       const existing = await createUsersRepo(deps.db).findByVerifiedEmail(input.adminEmail.toLowerCase());
-      const lab = await createLab(input, null, existing?.id ?? null);
-      return { lab, adminUserId: existing?.id ?? null };
+      const slug = requestedSlugOf(input);
+      try {
+        const lab = await deps.db.transaction((trx) => insertLab(trx, slug, input.name, null, existing?.id ?? null));
+        return { lab, adminUserId: existing?.id ?? null };
+      } catch (err) {
+        if (isDuplicateKey(err)) throw new ConflictError('slug_taken', 'slug: this address is already taken');
+        throw err;
+      }
     },
   };
 }

@@ -55,13 +55,15 @@ describe('POST /api/v1/labs', () => {
     expect(res.body.error).toEqual({ code: 'invalid_input', message });
   });
 
-  it('refuses a taken slug with 409 and changes nothing', async () => {
+  it('gives a lab at a taken address the next free variant instead of refusing (no existence oracle; see lab-oracle.api.test.ts)', async () => {
     const existing = await buildLab(t.db);
     const user = await buildUser(t.db);
     const cookie = await sessionCookieFor(t.db, t.config.sessionSecret, user.id);
-    const res = await request(t.app).post('/api/v1/labs').set('Cookie', cookie).send({ name: 'Another', slug: existing.slug }).expect(409);
-    expect(res.body.error).toEqual({ code: 'slug_taken', message: 'slug: this address is already taken' });
-    expect(await t.db('memberships').where({ user_id: user.id })).toEqual([]);
+    const res = await request(t.app).post('/api/v1/labs').set('Cookie', cookie).send({ name: 'Another', slug: existing.slug }).expect(201);
+    expect(res.body).toEqual({ lab: { slug: `${existing.slug}-2`, name: 'Another', role: 'admin' }, requestedSlug: existing.slug });
+    const mine = await t.db('memberships').join('labs', 'labs.id', 'memberships.tenant_id').where({ user_id: user.id }).select('labs.slug', 'memberships.role');
+    expect(mine).toEqual([{ slug: `${existing.slug}-2`, role: 'admin' }]);
+    expect(await t.db('memberships').where({ tenant_id: existing.id })).toEqual([]);
   });
 });
 

@@ -12,6 +12,7 @@ import type { presentAlert, presentAlertRule } from '../../server/http/alerts/al
 import type { presentAuditEntry, presentInvitation, presentLabForMember, presentMember } from '../../server/http/presenters/labs.presenter.ts';
 import type { presentChannel, presentIssuedKey, presentKeyInfo, presentLogger, presentLoggerDetail, presentQuarantinedRow } from '../../server/http/presenters/loggers.presenter.ts';
 import type { presentMe } from '../../server/http/presenters/me.presenter.ts';
+import type { presentCreatedLab } from '../../server/http/labs/labs.router.ts';
 import type { presentIssuedPersonalToken, presentPersonalToken } from '../../server/http/tokens/tokens.presenter.ts';
 import type { presentBillingOverview, presentInvoice } from '../../server/http/billing/billing.presenter.ts';
 import type { AuditEntry } from '../../client/features/audit/api/get-audit-log.ts';
@@ -20,6 +21,7 @@ import type { BillingOverview } from '../../client/features/billing/api/get-bill
 import type { Invoice } from '../../client/features/billing/api/get-invoices.ts';
 import type { PendingInvitation } from '../../client/features/invitations/api/get-invitations.ts';
 import type { LabDetail } from '../../client/features/labs/api/get-lab.ts';
+import type { CreatedLab } from '../../client/features/labs/api/create-lab.ts';
 import type { IssuedKey } from '../../client/features/loggers/api/create-logger.ts';
 import type { Channel, IngestKeyInfo, LoggerDetail } from '../../client/features/loggers/api/get-logger.ts';
 import type { LoggerSummary } from '../../client/features/loggers/api/get-loggers.ts';
@@ -63,6 +65,7 @@ export type Contracts = [
   Reads<Answer<typeof presentInvoice>, Invoice>,
   Reads<Answer<typeof presentInvitation>, PendingInvitation>,
   Reads<Answer<typeof presentLabForMember>, LabDetail>,
+  Reads<Answer<typeof presentCreatedLab>, CreatedLab>,
   Reads<Answer<typeof presentMember>, Member>,
   // the logger list presents every logger with its channel count
   Reads<Answer<typeof presentLogger> & { channelCount: number }, LoggerSummary>,

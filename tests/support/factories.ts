@@ -2,6 +2,8 @@ import { createHmac, randomBytes } from 'node:crypto';
 import type { Knex } from 'knex';
 import type { Role } from '../../server/policies/permissions.ts';
 import { SESSION_COOKIE } from '../../server/http/middleware/session.ts';
+import type { AppDeps } from '../../server/app.ts';
+import { createLogger } from '../../server/logger.ts';
 
 /**
  * Test data factories with overrides (`buildUser`, `buildLab`, `buildMember`) writing
@@ -64,4 +66,21 @@ export async function sessionCookieFor(db: Knex, secret: string, userId: number)
   await db('sessions').insert({ sid, sess: JSON.stringify(sess), expired: new Date(Date.now() + maxAge) });
   const mac = createHmac('sha256', secret).update(sid).digest('base64').replace(/=+$/, '');
   return `${SESSION_COOKIE}=${encodeURIComponent(`s:${sid}.${mac}`)}`;
+}
+
+/**
+ * Dependencies for a second app on the test database (`t.config`, `t.db`) whose sign-in, mail
+ * and billing are inert stand-ins — for routes that use none of them, e.g. to hand in another
+ * analysis pool. `extra` replaces any of them.
+ */
+export function standInAppDeps(base: Pick<AppDeps, 'config' | 'db'>, extra: Partial<AppDeps> = {}): AppDeps {
+  return {
+    config: { ...base.config, clientDir: null },
+    db: base.db,
+    logger: createLogger({ silent: true }),
+    identity: { endpoints: { issuer: 'http://x', authorization_endpoint: 'http://x/a', token_endpoint: 'http://x/t', userinfo_endpoint: 'http://x/u' } },
+    mailer: { send: async () => {}, verify: async () => true, close: () => {} },
+    billing: {} as never,
+    ...extra,
+  };
 }

@@ -1,5 +1,5 @@
 import type { Response } from 'express';
-import { labOf } from '../middleware/lab-guard.ts';
+import { callerIdOf, labOf } from '../middleware/lab-guard.ts';
 import { parseInput } from '../validate.ts';
 import { csvLine } from '../csv-field.ts';
 import { channelParams, diagnosticsQuery, readingsExportQuery, seriesQuery } from './channels.schema.ts';
@@ -7,6 +7,7 @@ import { presentChannelDetail, presentChannelOverview } from './channels.present
 import { diagnosticsCsvLines } from './diagnostics-csv.ts';
 import type { ChannelsService } from '../../services/channels.service.ts';
 import type { DiagnosticsService } from '../../services/diagnostics.service.ts';
+import type { DiagnosticsConcurrency } from '../../services/diagnostics-concurrency.ts';
 import { MAX_DRAWN_CELLS, type DiagnosticsReport } from '../../services/diagnostics-report.ts';
 import type { LabRoute } from '../lab-routes.ts';
 import { withinPlanHistory, type HistoryWindow } from './plan-history.ts';
@@ -32,20 +33,26 @@ function csvDownload(res: Response, name: string): void {
 }
 
 /** The channel browser: overview, detail, chart series, diagnostics and exports. */
-export function channelRoutes(deps: { channels: ChannelsService; diagnostics: DiagnosticsService; now?: () => number; historyWindow?: HistoryWindow }): LabRoute[] {
+export function channelRoutes(deps: { channels: ChannelsService; diagnostics: DiagnosticsService; now?: () => number; historyWindow?: HistoryWindow; diagnosticsRuns?: DiagnosticsConcurrency }): LabRoute[] {
   const { channels, diagnostics } = deps;
   const now = deps.now ?? Date.now;
 
-  /** Runs diagnostics; undefined when the client left first (the engine task was aborted). */
+  /**
+   * Runs diagnostics; undefined when the client left first (the engine task was aborted).
+   * Holds one of the person's diagnostics slots meanwhile (429 when they have none free).
+   */
   async function runDiagnostics(req: Parameters<LabRoute['handle']>[0], res: Response, resolution: 'drawing' | 'full' = 'drawing') {
     const { channelId } = parseInput(channelParams, req.params);
     const params = await withinPlanHistory(deps.historyWindow, labOf(res), parseInput(diagnosticsQuery(now), req.query), res);
+    const leave = deps.diagnosticsRuns?.enter(callerIdOf(res), `channel '${(await channels.requireChannel(labOf(res), channelId)).label}'`);
     const signal = signalOnDisconnect(res);
     try {
       return { channelId, ...(await diagnostics.report(labOf(res), channelId, params, signal, resolution)) };
     } catch (err) {
       if (signal.aborted) return undefined;
       throw err;
+    } finally {
+      leave?.();
     }
   }
 

@@ -1,8 +1,6 @@
 import type { Request, RequestHandler, Response } from 'express';
 import type { Db } from '../../db/create-db.ts';
 import { createLabsRepo } from '../../db/labs.repo.ts';
-import { inLab } from '../../db/tenant-scope.ts';
-import { membershipsIn } from '../../db/memberships.repo.ts';
 import { can, type Permission } from '../../policies/permissions.ts';
 import { AppError, ForbiddenError, NotFoundError, UnauthenticatedError } from '../../errors.ts';
 import type { PersonalTokenHolder, PersonalTokensService } from '../../services/personal-tokens.service.ts';
@@ -25,9 +23,11 @@ const PERSONAL_TOKEN_HEADER = /^Bearer\s+(lbt_\S*)$/i;
 
 /**
  * The lab and role guard in front of every `/api/v1/labs/:lab/...` route: signed in →
- * the lab exists → the person is a member (else 404, so a lab's existence never leaks) →
- * the role has the route's permission (else 403). The membership is read on every request,
- * so a removed member loses access on their next request.
+ * the lab exists and the person is a member (else 404, so a lab's existence never leaks: one
+ * statement reads the lab with the person's membership, and comes back empty the same way for
+ * a lab that is someone else's and for one that does not exist) → the role has the route's
+ * permission (else 403). The membership is read on every request, so a removed member loses
+ * access on their next request.
  *
  * Without a session, `Authorization: Bearer lbt_…` (a personal token) is accepted on GET
  * routes whose permission is in TOKEN_READ_PERMISSIONS (else 403 token_not_allowed); the token
@@ -51,13 +51,15 @@ export function createLabGuard(db: Db, deps: { tokens?: PersonalTokensService } 
     async (req, res, next) => {
       const caller = await callerOf(req, permission);
       const slug = String(req.params.lab ?? '');
-      const lab = /^[a-z0-9-]{1,64}$/.test(slug) ? await labs.findBySlug(slug) : null;
-      if (!lab || (caller.token && caller.token.tenantId !== lab.id)) throw new NotFoundError(NO_SUCH_LAB);
-      const role = await membershipsIn(inLab(db, lab.id)).roleOf(caller.userId);
-      if (!role) throw new NotFoundError(NO_SUCH_LAB);
+      // One statement whether the lab is someone else's or does not exist: both come back empty.
+      // (A slug no lab can have — wrong characters or length — is not looked up: that tells nothing about any lab.)
+      const found = /^[a-z0-9-]{1,64}$/.test(slug) ? await labs.findForMember(slug, caller.userId) : null;
+      if (!found || (caller.token && caller.token.tenantId !== found.id)) throw new NotFoundError(NO_SUCH_LAB);
+      const { role, ...lab } = found;
       if (!can(role, permission)) throw new ForbiddenError();
       if (caller.token) await deps.tokens!.recordUse(caller.token);
       res.locals.lab = { ...lab, role } satisfies LabContext;
+      res.locals.callerUserId = caller.userId;
       next();
     };
 }
@@ -69,6 +71,13 @@ export function labOf(res: Response): LabContext {
   const lab = res.locals.lab as LabContext | undefined;
   if (!lab) throw new Error('labOf: the lab guard did not run for this route');
   return lab;
+}
+
+/** The id of the person acting on this lab route (the session's user or a personal token's owner). */
+export function callerIdOf(res: Response): number {
+  const id = res.locals.callerUserId as number | undefined;
+  if (id === undefined) throw new Error('callerIdOf: the lab guard did not run for this route');
+  return id;
 }
 
 /** The signed-in person as services need them. */

@@ -5,6 +5,8 @@ import type { Role } from '../../../../server/policies/permissions.ts';
 
 export interface CreatedLab {
   lab: { slug: string; name: string; role: Role };
+  /** The address asked for; `lab.slug` differs when that one was unavailable and the lab got a variant. */
+  requestedSlug: string;
 }
 
 /** `POST /api/v1/labs`: creates a lab with the signed-in person as its first admin. */
@@ -12,7 +14,7 @@ export function createLab(input: CreateLabInput): Promise<CreatedLab> {
   return apiFetch<CreatedLab>('/api/v1/labs', { method: 'POST', body: JSON.stringify(input) });
 }
 
-/** Creates a lab; a 409 `slug_taken` ApiError names the slug field. */
+/** Creates a lab; a 403 `lab_limit_reached` ApiError says how many labs the account may create. */
 export function useCreateLab() {
   return useMutation({ mutationFn: createLab });
 }

@@ -13,7 +13,7 @@ const slugInput = () => screen.getByLabelText('Address') as HTMLInputElement;
 
 describe('CreateLabForm', () => {
   it('derives the address from the name with the server\'s slugFromName, and posts both', async () => {
-    const api = fakeApi({ 'POST /api/v1/labs': () => ({ status: 201, body: { lab: { slug: 'fernhollow-field-station', name: 'Fernhollow Field Station', role: 'admin' } } }) });
+    const api = fakeApi({ 'POST /api/v1/labs': () => ({ status: 201, body: { lab: { slug: 'fernhollow-field-station', name: 'Fernhollow Field Station', role: 'admin' }, requestedSlug: 'fernhollow-field-station' } }) });
     const onCreated = vi.fn();
     renderWithProviders(<CreateLabForm onCreated={onCreated} />);
     fireEvent.change(nameInput(), { target: { value: 'Fernhollow Field Station' } });
@@ -49,13 +49,26 @@ describe('CreateLabForm', () => {
     expect(api.requests).toHaveLength(0);
   });
 
-  it('shows a taken address on the address field', async () => {
-    fakeApi({ 'POST /api/v1/labs': () => apiError(409, 'slug_taken', 'slug: this address is already taken') });
+  it('says which address the lab got when the one asked for was not available, then opens it', async () => {
+    fakeApi({ 'POST /api/v1/labs': () => ({ status: 201, body: { lab: { slug: 'tarnbeck-institute-2', name: 'Tarnbeck Institute', role: 'admin' }, requestedSlug: 'tarnbeck-institute' } }) });
+    const onCreated = vi.fn();
+    renderWithProviders(<CreateLabForm onCreated={onCreated} />);
+    fireEvent.change(nameInput(), { target: { value: 'Tarnbeck Institute' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Create lab' }));
+    const notice = await screen.findByRole('status');
+    expect(notice.textContent).toBe('Tarnbeck Institute is ready. Its address is /labs/tarnbeck-institute-2: /labs/tarnbeck-institute was not available.');
+    expect(onCreated).not.toHaveBeenCalled();
+    fireEvent.click(screen.getByRole('button', { name: 'Open the lab' }));
+    expect(onCreated).toHaveBeenCalledWith({ slug: 'tarnbeck-institute-2', name: 'Tarnbeck Institute', role: 'admin' });
+  });
+
+  it("shows the account's lab limit on the form", async () => {
+    const message = 'You have created 3 labs; one account may create at most 3. Admins of a lab on a paid plan may create up to 10.';
+    fakeApi({ 'POST /api/v1/labs': () => apiError(403, 'lab_limit_reached', message) });
     renderWithProviders(<CreateLabForm onCreated={vi.fn()} />);
     fireEvent.change(nameInput(), { target: { value: 'Tarnbeck Institute' } });
     fireEvent.click(screen.getByRole('button', { name: 'Create lab' }));
-    expect(await screen.findByText('this address is already taken')).toBeTruthy();
-    expect(slugInput().getAttribute('aria-invalid')).toBe('true');
-    expect(slugInput().getAttribute('aria-describedby')).toContain('-error');
+    expect((await screen.findByRole('alert')).textContent).toBe(message);
+    expect(slugInput().getAttribute('aria-invalid')).not.toBe('true');
   });
 });

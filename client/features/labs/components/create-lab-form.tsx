@@ -14,12 +14,14 @@ type CreateLabForm = z.input<typeof createLabSchema>;
 /**
  * The "create a lab" form. The address (slug) follows the name as it is typed, via the
  * same `slugFromName` the server uses, until the person edits the address themselves;
- * an emptied address is left for the server to derive. Server refusals (a taken address)
- * appear on the field they concern.
+ * an emptied address is left for the server to derive. When the address asked for was not
+ * available the server gives the lab a variant (e.g. "…-2"): the form then says which address
+ * the lab got before opening it. Server refusals (the account's lab limit) appear on the form.
  */
 export function CreateLabForm({ onCreated }: { onCreated: (lab: CreatedLab['lab']) => void }) {
   const createLab = useCreateLab();
   const [slugEdited, setSlugEdited] = useState(false);
+  const [varied, setVaried] = useState<CreatedLab | null>(null);
   const form = useForm<CreateLabForm, unknown, z.output<typeof createLabSchema>>({
     resolver: zodResolver(createLabSchema),
     defaultValues: { name: '', slug: '' },
@@ -31,10 +33,26 @@ export function CreateLabForm({ onCreated }: { onCreated: (lab: CreatedLab['lab'
 
   const onSubmit = form.handleSubmit((values) =>
     createLab.mutateAsync(values).then(
-      (created) => onCreated(created.lab),
+      (created) => (created.lab.slug === created.requestedSlug ? onCreated(created.lab) : setVaried(created)),
       (error: unknown) => applyServerError(error, ['name', 'slug'] as const, form.setError),
     ),
   );
+
+  if (varied) {
+    return (
+      <div className="grid max-w-xl gap-5">
+        <Notice tone="status">
+          <strong>{varied.lab.name}</strong> is ready. Its address is <span className="font-mono">/labs/{varied.lab.slug}</span>:{' '}
+          <span className="font-mono">/labs/{varied.requestedSlug}</span> was not available.
+        </Notice>
+        <div>
+          <Button tone="primary" onClick={() => onCreated(varied.lab)}>
+            Open the lab
+          </Button>
+        </div>
+      </div>
+    );
+  }
 
   return (
     <form noValidate onSubmit={onSubmit} className="grid max-w-xl gap-5">
