@@ -11,9 +11,34 @@ export function zodToValidationError(err: ZodError): ValidationError {
 }
 
 /**
+ * The typed error for a failure of reading a request body (body-parser's errors carry a 4xx
+ * status and a `type`; decompression errors carry zlib's `Z_…` code), or null for anything else.
+ */
+function bodyParserError(err: unknown): AppError | null {
+  const bp = err as { status?: number; type?: string; expose?: boolean; code?: string; message?: string } | null;
+  if (!bp || typeof bp !== 'object' || typeof bp.status !== 'number' || bp.status < 400 || bp.status >= 500) return null;
+  switch (bp.type) {
+    case 'entity.too.large':
+      return new AppError(413, 'payload_too_large', 'The request body is too large.');
+    case 'entity.parse.failed':
+      return new ValidationError('body: not valid JSON');
+    case 'charset.unsupported':
+      return new AppError(415, 'unsupported_charset', 'body: only UTF-8 is accepted.');
+    case 'encoding.unsupported':
+      return new AppError(415, 'unsupported_encoding', 'body: only uncompressed, gzip or deflate bodies are accepted.');
+  }
+  if (typeof bp.code === 'string' && bp.code.startsWith('Z_')) {
+    return new AppError(400, 'corrupt_body', 'body: the compressed body is corrupt or truncated (Content-Encoding says gzip or deflate).');
+  }
+  if (bp.expose) return new AppError(bp.status, 'bad_request', `body: ${String(bp.message ?? 'could not be read').slice(0, 120)}`);
+  return null;
+}
+
+/**
  * The one error middleware: typed errors become `{ error: { code, message } }` with their
- * status; an unreachable database becomes 503 with Retry-After; anything else is logged and
- * answered 500 without internals.
+ * status; body-parser failures (too large, bad JSON, unsupported charset or coding, corrupt
+ * gzip) become 4xx; an unreachable database becomes 503 with Retry-After; anything else is
+ * logged and answered 500 without internals.
  */
 export function errorHandler(logger: Logger): ErrorRequestHandler {
   return (err, req, res, _next) => {
@@ -28,17 +53,14 @@ export function errorHandler(logger: Logger): ErrorRequestHandler {
     } else if (!(error instanceof AppError) && isLockConflict(error)) {
       error = new ServiceUnavailableError('The database was busy with a conflicting change; nothing was saved. Try again.', 1);
     }
-    // body-parser errors carry a status and type (too large, malformed JSON)
-    const bp = err as { status?: number; type?: string; expose?: boolean };
-    if (!(error instanceof AppError) && bp?.type === 'entity.too.large') {
-      error = new AppError(413, 'payload_too_large', 'The request body is too large.');
-    } else if (!(error instanceof AppError) && bp?.type === 'entity.parse.failed') {
-      error = new ValidationError('body: not valid JSON');
-    }
+    if (!(error instanceof AppError)) error = bodyParserError(err) ?? error;
     if (error instanceof AppError) {
       if (error.retryAfterSeconds !== undefined && !res.headersSent) res.set('Retry-After', String(error.retryAfterSeconds));
       if (error.status >= 500) logger.warn('request failed', { path: req.path, code: error.code, cause: (err as { code?: string; name?: string })?.code ?? (err as Error)?.name });
-      res.status(error.status).json({ error: { code: error.code, message: error.message } });
+      if (res.headersSent) return;
+      // a batch refused whole shows the first rows it could not read (see TooManyQuarantinedError)
+      const sample = (error as { sample?: unknown }).sample;
+      res.status(error.status).json({ error: { code: error.code, message: error.message, ...(Array.isArray(sample) ? { sample } : {}) } });
       return;
     }
     logger.error('unexpected error', { path: req.path, err: (err as Error)?.stack ?? String(err) });

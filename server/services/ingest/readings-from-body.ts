@@ -1,47 +1,366 @@
-import { parse } from 'csv-parse/sync';
-import { ValidationError } from '../../errors.ts';
+import { AppError, ValidationError } from '../../errors.ts';
 import type { IncomingReading } from './ingest-batch.ts';
 
+/** Most readings one ingest request may carry; more is refused with 413 (send several requests). */
+export const MAX_READINGS_PER_REQUEST = 100_000;
 /**
- * Turns a JSON ingest body `{"readings":[{"channel","ts","value"}, …]}` into rows. A body of
- * the wrong shape is refused as a whole (400); a single row of the wrong shape becomes a row
- * whose fields are missing, so it is quarantined with a reason and the rest are stored.
+ * Most rows of one batch (one ingest request, one upload batch) that may go to quarantine; a
+ * batch with more is refused whole with 422 and nothing is stored, so a logger that sends
+ * garbage cannot fill the quarantine (and the answer) with a row per line.
  */
-export function readingsFromJson(body: unknown): IncomingReading[] {
-  const list = (body as { readings?: unknown } | null)?.readings;
-  if (!body || typeof body !== 'object' || !Array.isArray(list)) {
-    throw new ValidationError('body: expected {"readings": [{"channel": …, "ts": …, "value": …}, …]}');
+export const MAX_QUARANTINED_PER_BATCH = 1_000;
+/** Deepest nesting a JSON ingest body may have (`{"readings":[{…}]}` is 3 levels). */
+export const MAX_JSON_DEPTH = 32;
+/** How many rows of a refused batch the answer shows with their reasons. */
+const SAMPLE_SIZE = 10;
+/** Work done between two yields to the event loop: characters of CSV, bytes of JSON scanned, JSON bytes parsed. */
+const SLICE_CHARS = 64 * 1024;
+const SCAN_SLICE_BYTES = 1024 * 1024;
+const JSON_GROUP_BYTES = 128 * 1024;
+/** Largest part of a JSON body outside its "readings" array, parsed in one go. */
+const OUTSIDE_BYTES = 64 * 1024;
+
+/** 413: more readings in one request than `MAX_READINGS_PER_REQUEST`. */
+export class TooManyReadingsError extends AppError {
+  constructor(limit = MAX_READINGS_PER_REQUEST) {
+    super(413, 'too_many_readings', `body: at most ${limit.toLocaleString('en')} readings per request; send the rest in further requests.`);
   }
-  return list.map((item, index) => {
-    if (!item || typeof item !== 'object' || Array.isArray(item)) {
-      return { index, channel: undefined, ts: undefined, value: undefined, raw: JSON.stringify(item) ?? 'undefined' };
+}
+
+/** One refused row of a batch refused whole: its position and why. */
+export interface RefusedRow {
+  index: number;
+  reason: string;
+}
+
+/**
+ * 422: a batch in which more than `MAX_QUARANTINED_PER_BATCH` rows would go to quarantine;
+ * nothing of it is stored. `sample` (the first rows with their reasons) is sent in the answer.
+ */
+export class TooManyQuarantinedError extends AppError {
+  constructor(
+    readonly sample: RefusedRow[],
+    limit = MAX_QUARANTINED_PER_BATCH,
+  ) {
+    super(
+      422,
+      'too_many_quarantined',
+      `body: more than ${limit.toLocaleString('en')} rows of this batch cannot be read, so none was stored (e.g. ${sample
+        .slice(0, 3)
+        .map((s) => `row ${s.index}: ${s.reason}`)
+        .join('; ')}). Check what the logger sends.`,
+      { sample },
+    );
+  }
+}
+
+/** Counts rows and the rows certain to be quarantined as a body is read; throws once a cap is passed. */
+class BodyCaps {
+  rows = 0;
+  private bad = 0;
+  private readonly sample: RefusedRow[] = [];
+  constructor(private readonly maxRows: number, private readonly maxBad: number) {}
+  row(): void {
+    if (++this.rows > this.maxRows) throw new TooManyReadingsError(this.maxRows);
+  }
+  badRow(index: number, reason: string): void {
+    if (this.sample.length < SAMPLE_SIZE) this.sample.push({ index, reason });
+    if (++this.bad > this.maxBad) throw new TooManyQuarantinedError(this.sample, this.maxBad);
+  }
+}
+
+export interface BodyLimits {
+  maxReadings?: number;
+  maxQuarantined?: number;
+  /** Called between slices of work; the default waits for the event loop's next turn (`setImmediate`). */
+  pause?: () => Promise<void>;
+}
+
+const nextTurn = () => new Promise<void>((resolve) => setImmediate(resolve));
+
+function capsOf(limits: BodyLimits): BodyCaps {
+  return new BodyCaps(limits.maxReadings ?? MAX_READINGS_PER_REQUEST, limits.maxQuarantined ?? MAX_QUARANTINED_PER_BATCH);
+}
+
+const isBlank = (v: unknown) => v === undefined || v === null || (typeof v === 'string' && v.trim() === '');
+
+/** Why a row is certain to be quarantined before any lookup (a missing field), or null. */
+function missingField(channel: unknown, ts: unknown, value: unknown): string | null {
+  if (isBlank(channel)) return 'channel: missing';
+  if (isBlank(ts)) return 'ts: missing';
+  if (isBlank(value)) return 'value: missing';
+  return null;
+}
+
+/** The reading row of one item of a JSON `readings` array (items of the wrong shape keep only their text). */
+function readingOfItem(item: unknown, index: number, caps: BodyCaps): IncomingReading {
+  caps.row();
+  if (!item || typeof item !== 'object' || Array.isArray(item)) {
+    caps.badRow(index, 'row: expected an object {"channel", "ts", "value"}');
+    return { index, channel: undefined, ts: undefined, value: undefined, raw: JSON.stringify(item) ?? 'undefined' };
+  }
+  const r = item as Record<string, unknown>;
+  const missing = missingField(r.channel, r.ts, r.value);
+  if (missing) caps.badRow(index, missing);
+  return { index, channel: r.channel, ts: r.ts, value: r.value, raw: r };
+}
+
+const SHAPE = 'body: expected {"readings": [{"channel": …, "ts": …, "value": …}, …]}';
+
+/**
+ * Turns a parsed JSON ingest body `{"readings":[{"channel","ts","value"}, …]}` into rows. A body of
+ * the wrong shape is refused as a whole (400); a single row of the wrong shape becomes a row
+ * whose fields are missing, so it is quarantined with a reason and the rest are stored. The
+ * caps of `readingsFromJsonBody` apply (413, 422).
+ */
+export function readingsFromJson(body: unknown, limits: BodyLimits = {}): IncomingReading[] {
+  const list = (body as { readings?: unknown } | null)?.readings;
+  if (!body || typeof body !== 'object' || !Array.isArray(list)) throw new ValidationError(SHAPE);
+  const caps = capsOf(limits);
+  return list.map((item, index) => readingOfItem(item, index, caps));
+}
+
+/** Where the items of the top-level `readings` array lie in a JSON body, found without parsing it. */
+interface ReadingsSpan {
+  /** Offset of `[` and of the matching `]`. */
+  open: number;
+  close: number;
+  /** Offsets of the commas between items (depth 2). */
+  commas: number[];
+}
+
+const QUOTE = 0x22;
+const BACKSLASH = 0x5c;
+const COLON = 0x3a;
+const COMMA = 0x2c;
+const isSpace = (c: number) => c === 0x20 || c === 0x0a || c === 0x0d || c === 0x09;
+
+/**
+ * One pass over the bytes of a JSON body, in slices with a pause between them: refuses nesting
+ * deeper than `MAX_JSON_DEPTH` (so no later step recurses deeply), counts the items of the
+ * top-level "readings" array (413 before any is parsed) and finds where they lie. Every byte
+ * that starts or ends a string or container is ASCII, so UTF-8 needs no decoding here; syntax
+ * errors are left to `JSON.parse`.
+ */
+async function scanJson(buf: Buffer, maxItems: number, pause: () => Promise<void>): Promise<ReadingsSpan | null> {
+  let depth = 0;
+  let inString = false;
+  let escaped = false;
+  let stringStart = -1;
+  let lastKey: string | null = null;
+  let pendingKey = -1; // offset after a depth-1 string, until we know whether a colon follows
+  let span: ReadingsSpan | null = null;
+  let current: ReadingsSpan | null = null;
+  for (let from = 0; from < buf.length; from += SCAN_SLICE_BYTES) {
+    if (from > 0) await pause();
+    const to = Math.min(buf.length, from + SCAN_SLICE_BYTES);
+    for (let i = from; i < to; i++) {
+      const c = buf[i];
+      if (inString) {
+        if (escaped) escaped = false;
+        else if (c === BACKSLASH) escaped = true;
+        else if (c === QUOTE) {
+          inString = false;
+          if (depth === 1) pendingKey = i + 1;
+        }
+        continue;
+      }
+      if (pendingKey >= 0 && !isSpace(c)) {
+        lastKey = c === COLON ? safeKey(buf, stringStart, pendingKey) : null;
+        pendingKey = -1;
+        if (c === COLON) continue;
+      }
+      if (c === QUOTE) {
+        inString = true;
+        stringStart = i;
+      } else if (c === 0x7b || c === 0x5b) {
+        if (++depth > MAX_JSON_DEPTH) throw new ValidationError(`body: nested deeper than ${MAX_JSON_DEPTH} levels`);
+        if (depth === 2 && c === 0x5b && lastKey === 'readings') current = { open: i, close: -1, commas: [] };
+      } else if (c === 0x7d || c === 0x5d) {
+        if (depth === 2 && current && c === 0x5d) {
+          current.close = i;
+          span = current; // a repeated key: the last one wins, as in JSON.parse
+          current = null;
+        }
+        depth--;
+        if (depth === 1) lastKey = null;
+      } else if (c === COMMA && depth === 2 && current) {
+        current.commas.push(i);
+        if (current.commas.length >= maxItems) throw new TooManyReadingsError(maxItems);
+      } else if (c === COMMA && depth === 1) lastKey = null;
     }
-    const r = item as Record<string, unknown>;
-    return { index, channel: r.channel, ts: r.ts, value: r.value, raw: r };
-  });
+  }
+  return span;
+}
+
+function safeKey(buf: Buffer, start: number, end: number): string | null {
+  if (end - start > 64) return null;
+  try {
+    return JSON.parse(buf.toString('utf8', start, end)) as string;
+  } catch {
+    return null;
+  }
+}
+
+function parseJsonText(text: string): unknown {
+  try {
+    return JSON.parse(text);
+  } catch {
+    throw new ValidationError('body: not valid JSON');
+  }
+}
+
+/**
+ * Reads a JSON ingest body (UTF-8 bytes) into rows without holding the event loop: one scan
+ * finds the items of "readings" (refusing deep nesting with 400 and too many readings with 413
+ * before parsing), then the items are parsed a group of about 128 KB at a time with a pause
+ * between groups, and the rest of the body is checked to be valid JSON of the expected shape.
+ * A parse of the whole body at once would hold the thread for ~50–200 ms at the 8 MB limit.
+ */
+export async function readingsFromJsonBody(buf: Buffer, limits: BodyLimits = {}): Promise<IncomingReading[]> {
+  const pause = limits.pause ?? nextTurn;
+  const caps = capsOf(limits);
+  const span = await scanJson(buf, limits.maxReadings ?? MAX_READINGS_PER_REQUEST, pause);
+  if (!span) {
+    // no top-level "readings" array: the wrong shape; a small body is parsed for the exact answer
+    if (buf.length > OUTSIDE_BYTES) throw new ValidationError(SHAPE);
+    return readingsFromJson(parseJsonText(buf.toString('utf8')), limits);
+  }
+  // Everything outside the array must be valid JSON of the right shape (and small).
+  if (buf.length - (span.close - span.open) > OUTSIDE_BYTES) throw new ValidationError(`body: only "readings" may be large (the rest of the body is over ${OUTSIDE_BYTES / 1024} KB)`);
+  const outside = parseJsonText(`${buf.toString('utf8', 0, span.open)}[]${buf.toString('utf8', span.close + 1)}`);
+  if (!outside || typeof outside !== 'object' || Array.isArray(outside)) throw new ValidationError(SHAPE);
+  const bounds = [span.open, ...span.commas, span.close];
+  if (span.commas.length === 0 && buf.toString('utf8', span.open + 1, span.close).trim() === '') return [];
+  const rows: IncomingReading[] = [];
+  let first = 0; // index of the item that starts the next group
+  while (first < bounds.length - 1) {
+    let last = first;
+    while (last + 1 < bounds.length - 1 && bounds[last + 1] - bounds[first] < JSON_GROUP_BYTES) last++;
+    const items = parseJsonText(`[${buf.toString('utf8', bounds[first] + 1, bounds[last + 1])}]`) as unknown[];
+    if (items.length !== last - first + 1) throw new ValidationError('body: not valid JSON');
+    for (const item of items) rows.push(readingOfItem(item, rows.length, caps));
+    first = last + 1;
+    if (first < bounds.length - 1) await pause();
+  }
+  return rows;
 }
 
 const REQUIRED = ['channel', 'ts', 'value'] as const;
 
 /**
- * Turns a CSV ingest body with the header `channel,ts,value` (any order, any case) into rows.
- * A missing header column refuses the body (400); a line with the wrong number of fields
- * becomes a row that is quarantined.
+ * A small RFC 4180 reader for ingest bodies: records end at LF, CRLF or CR; fields are split at
+ * commas and trimmed; a quoted field may hold commas, line breaks and doubled quotes. Empty
+ * lines are skipped. It reads from `at` up to roughly `budget` characters and stops at a record
+ * boundary, so the caller can pause between slices. (A general CSV library builds an Error with
+ * a stack trace for every line of the wrong length, ≈ 30–50 µs a line: too slow for hostile
+ * bodies of a million one-field lines.)
  */
-export function readingsFromCsv(text: string): IncomingReading[] {
-  let records: string[][];
-  try {
-    records = parse(text, { relax_column_count: true, skip_empty_lines: true, bom: true, trim: true });
-  } catch (err) {
-    throw new ValidationError(`body: not valid CSV (${(err as Error).message.slice(0, 120)})`);
+function readRecords(text: string, at: number, budget: number, onRecord: (fields: string[]) => void): number {
+  const stop = Math.min(text.length, at + budget);
+  // next quote and next CR, looked up again only once passed (no rescans of a body without any)
+  let quote = -2;
+  let cr = -2;
+  let i = at;
+  while (i < text.length && (i < stop || i === at)) {
+    const lf = text.indexOf('\n', i);
+    const lineEnd = lf < 0 ? text.length : lf;
+    if (quote !== -1 && quote < i) quote = text.indexOf('"', i);
+    if (cr !== -1 && cr < i) cr = text.indexOf('\r', i);
+    if ((quote < 0 || quote > lineEnd) && (cr < 0 || cr >= lineEnd - 1)) {
+      // fast path: no quote, and no CR except one just before the LF
+      const line = text.slice(i, cr >= 0 && cr === lineEnd - 1 ? cr : lineEnd);
+      i = lineEnd + 1;
+      if (line.trim() === '') continue;
+      onRecord(line.split(',').map((f) => f.trim()));
+      continue;
+    }
+    i = readQuotedRecord(text, i, onRecord);
   }
-  if (records.length === 0) throw new ValidationError('body: expected a header line "channel,ts,value"');
-  const header = records[0].map((h) => h.toLowerCase());
-  const at = REQUIRED.map((name) => header.indexOf(name));
-  if (at.some((i) => i < 0)) throw new ValidationError(`header: expected columns channel, ts, value (got ${header.join(', ').slice(0, 120)})`);
-  return records.slice(1).map((fields, i) => {
-    const raw = fields.join(',');
-    if (fields.length !== header.length) return { index: i, channel: undefined, ts: undefined, value: undefined, raw };
-    return { index: i, channel: fields[at[0]], ts: fields[at[1]], value: fields[at[2]], raw };
-  });
+  return i;
+}
+
+/** Reads one record that holds a quote or a lone CR, character by character; returns where the next record starts. */
+function readQuotedRecord(text: string, start: number, onRecord: (fields: string[]) => void): number {
+  const fields: string[] = [];
+  let i = start;
+  for (;;) {
+    while (i < text.length && (text[i] === ' ' || text[i] === '\t')) i++;
+    let value = '';
+    if (text[i] === '"') {
+      i++;
+      for (;;) {
+        const q = text.indexOf('"', i);
+        if (q < 0) throw new ValidationError('body: not valid CSV (a quoted field is never closed)');
+        value += text.slice(i, q);
+        if (text[q + 1] === '"') {
+          value += '"';
+          i = q + 2;
+        } else {
+          i = q + 1;
+          break;
+        }
+      }
+      while (i < text.length && (text[i] === ' ' || text[i] === '\t')) i++;
+      if (i < text.length && text[i] !== ',' && text[i] !== '\n' && text[i] !== '\r') {
+        throw new ValidationError('body: not valid CSV (text after a closing quote; a quote inside a field is written "")');
+      }
+    } else {
+      let j = i;
+      while (j < text.length && text[j] !== ',' && text[j] !== '\n' && text[j] !== '\r') j++;
+      value = text.slice(i, j).trim();
+      i = j;
+    }
+    fields.push(value);
+    if (text[i] === ',') {
+      i++;
+      continue;
+    }
+    if (text[i] === '\r' && text[i + 1] === '\n') i += 2;
+    else if (i < text.length) i++;
+    if (!(fields.length === 1 && fields[0] === '')) onRecord(fields);
+    return i;
+  }
+}
+
+/**
+ * Reads a CSV ingest body with the header `channel,ts,value` (any order, any case, more columns
+ * allowed) into rows, about 64 KB at a time with a pause between slices, so a large or hostile
+ * body never holds the event loop for long. A missing header column refuses the body (400); a
+ * line with the wrong number of fields becomes a row that is quarantined — up to
+ * `MAX_QUARANTINED_PER_BATCH` of them, beyond which the body is refused (422); more than
+ * `MAX_READINGS_PER_REQUEST` lines are refused (413) as soon as they are counted.
+ */
+export async function readingsFromCsvBody(text: string, limits: BodyLimits = {}): Promise<IncomingReading[]> {
+  const pause = limits.pause ?? nextTurn;
+  const caps = capsOf(limits);
+  const rows: IncomingReading[] = [];
+  let header: string[] | null = null;
+  let at: number[] = [];
+  const onRecord = (fields: string[]) => {
+    if (!header) {
+      header = fields.map((h) => h.toLowerCase());
+      at = REQUIRED.map((name) => header!.indexOf(name));
+      if (at.some((i) => i < 0)) throw new ValidationError(`header: expected columns channel, ts, value (got ${header.join(', ').slice(0, 120)})`);
+      return;
+    }
+    const index = rows.length;
+    caps.row();
+    if (fields.length !== header.length) {
+      caps.badRow(index, `row: expected ${header.length} fields, got ${fields.length}`);
+      rows.push({ index, channel: undefined, ts: undefined, value: undefined, raw: fields.join(',') });
+      return;
+    }
+    const row = { index, channel: fields[at[0]], ts: fields[at[1]], value: fields[at[2]], raw: fields.join(',') };
+    const missing = missingField(row.channel, row.ts, row.value);
+    if (missing) caps.badRow(index, missing);
+    rows.push(row);
+  };
+  let i = text.charCodeAt(0) === 0xfeff ? 1 : 0;
+  while (i < text.length) {
+    i = readRecords(text, i, SLICE_CHARS, onRecord);
+    if (i < text.length) await pause();
+  }
+  if (!header) throw new ValidationError('body: expected a header line "channel,ts,value"');
+  return rows;
 }
