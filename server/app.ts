@@ -13,6 +13,7 @@ import { securityHeaders } from './http/middleware/security-headers.ts';
 import { sessionMiddleware } from './http/middleware/session.ts';
 import { sameOriginWrites } from './http/middleware/same-origin-writes.ts';
 import { errorHandler } from './http/middleware/error-handler.ts';
+import { bodyEncodingGuard, refuseDeepJson } from './http/middleware/body-encoding.ts';
 import { createPassport } from './http/auth/passport-setup.ts';
 import { authRouter } from './http/auth/auth.router.ts';
 import { meRouter } from './http/me.router.ts';
@@ -152,6 +153,8 @@ export function createApp(deps: AppDeps): Express {
   app.locals.startBackgroundJobs = (): (() => Promise<void>) => startBackgroundJobs(backgroundJobs, logger);
 
   app.use(securityHeaders({ secure: config.secureCookies }));
+  // Unsupported Content-Encoding or charset: 415 before any body parser runs, on every route.
+  app.use(bodyEncodingGuard());
   app.use(healthRouter({ db }));
   app.use(openApiRouter({ document: buildOpenApiDocument(labRouteTable.table, { serverUrl: config.publicUrl }) }));
   // Loggers authenticate with their key, not a session: ingestion comes before the session
@@ -166,7 +169,7 @@ export function createApp(deps: AppDeps): Express {
   app.use(sessionMiddleware({ db, secret: config.sessionSecret, secure: config.secureCookies }));
   app.use(passport.session());
   app.use(sameOriginWrites(config.publicUrl));
-  app.use(express.json({ limit: '1mb' }));
+  app.use(express.json({ limit: '1mb', verify: refuseDeepJson }));
 
   app.use(authRouter({ passport, logger, signInLimit: limits.signIn }));
   app.use(meRouter({ me }));

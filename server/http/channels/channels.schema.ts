@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { parseReadingTime } from '../../services/ingest/parse-reading-time.ts';
 
 /**
  * Query schemas of the channel browser, series, exports and diagnostics. Pure zod, shared with
@@ -17,12 +18,17 @@ export const timeParam = z
   .string()
   .trim()
   .transform((s, ctx) => {
-    const ms = /^-?\d{1,16}$/.test(s) ? Number(s) : ZONED_ISO.test(s) ? Date.parse(s) : NaN;
-    if (!Number.isSafeInteger(ms)) {
+    if (!/^-?\d{1,16}$/.test(s) && !ZONED_ISO.test(s)) {
       ctx.addIssue({ code: 'custom', message: TIME_MESSAGE });
       return z.NEVER;
     }
-    return ms;
+    // the calendar and offset checks of ingestion (no 30 February, offsets −12:00…+14:00)
+    const parsed = parseReadingTime(s);
+    if (!parsed.ok) {
+      ctx.addIssue({ code: 'custom', message: parsed.reason.replace(/^ts: /, '') });
+      return z.NEVER;
+    }
+    return parsed.ts;
   });
 
 const wholeNumber = (min: number, max: number) =>
