@@ -77,6 +77,15 @@ describe("fitArma against R's arima(x, order = c(p, 0, q), method = \"ML\")", ()
   }
 });
 
+/**
+ * Selection candidates where R 4.2.2's arima(method = "ML") converges (optim code 0) to a lower
+ * local maximum than Lagbook's (seen while writing this test; Lagbook's loglik is higher by
+ * 0.087 on LakeHuron ARMA(3,2), 0.17 and 0.52 on the simulated ARMA(1,1) series' ARMA(3,2) and
+ * ARMA(3,3)). Everywhere else both agree to 1e-4, apart from candidates where R reports a
+ * non-zero optim code.
+ */
+const R_LOCAL_MAXIMUM: Record<string, string[]> = { LakeHuron: ['3,2'], 'sim.arma11.300': ['3,2', '3,3'] };
+
 describe('selectArma against an AICc table over p, q ≤ 3 from R 4.2.2 arima(method = "ML")', () => {
   for (const sel of R.selections as Json[]) {
     it(`${sel.series}: same candidates' likelihoods (ours ≥ R's − 1e-4), same choice, same Box.test`, () => {
@@ -84,7 +93,12 @@ describe('selectArma against an AICc table over p, q ≤ 3 from R 4.2.2 arima(me
       for (const rc of sel.candidates as Json[]) {
         const mine = ours.candidates.find((c) => c.p === one(rc.p) && c.q === one(rc.q))!;
         if (rc.loglik[0] === null) continue; // R's arima stopped with an error for this candidate
-        expect(mine.logLik, `ARMA(${one(rc.p)},${one(rc.q)})`).toBeGreaterThanOrEqual(one(rc.loglik) - TOL.logLik);
+        const key = `${one(rc.p)},${one(rc.q)}`;
+        expect(mine.logLik, `ARMA(${key})`).toBeGreaterThanOrEqual(one(rc.loglik) - TOL.logLik);
+        if (one(rc.optimCode) === 0 && !(R_LOCAL_MAXIMUM[sel.series] ?? []).includes(key)) {
+          expect(Math.abs(mine.logLik - one(rc.loglik)), `ARMA(${key}) loglik`).toBeLessThanOrEqual(TOL.logLik);
+          expect(Math.abs(mine.aicc - one(rc.aicc)), `ARMA(${key}) AICc`).toBeLessThanOrEqual(2 * TOL.logLik);
+        }
       }
       expect([ours.p, ours.q]).toEqual([one(sel.chosenP), one(sel.chosenQ)]);
       expect(ours.residualTest.df).toBe(one(sel.boxDf));
