@@ -1,6 +1,11 @@
+import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
+import { arYuleWalker } from './ar-yule-walker.ts';
 import { detectPeriod } from './detect-period.ts';
+import { removeLinearTrend } from './remove-linear-trend.ts';
 import { simulateArma } from './seeded-simulation.testkit.ts';
+
+const MINUTE = 60_000;
 
 /** Simulation (not a reference value): 14 days of 5-minute readings, daily sine plus AR(1) noise. */
 function dailyCycle(seed: number): Float64Array {
@@ -8,27 +13,91 @@ function dailyCycle(seed: number): Float64Array {
   return noise.map((v, t) => v + 2 * Math.sin((2 * Math.PI * t) / 288) + 0.001 * t);
 }
 
+const correlationFixture = JSON.parse(readFileSync('tests/reference/fixtures/correlation-r.json', 'utf8')) as { series: Record<string, number[]> };
+const classicalFixture = JSON.parse(readFileSync('tests/reference/fixtures/decomposition-classical.json', 'utf8')) as { cases: { name: string; input: number[] }[] };
+
+/** R 4.2.2 datasets::lynx (annual Canadian lynx trappings 1821–1934), printed by `cat(lynx, sep = ",")`. */
+const LYNX = [
+  269, 321, 585, 871, 1475, 2821, 3928, 5943, 4950, 2577, 523, 98, 184, 279, 409, 2285, 2685, 3409, 1824, 409, 151, 45, 68, 213, 546, 1033, 2129, 2536, 957, 361,
+  377, 225, 360, 731, 1638, 2725, 2871, 2119, 684, 299, 236, 245, 552, 1623, 3311, 6721, 4254, 687, 255, 473, 358, 784, 1594, 1676, 2251, 1426, 756, 299, 201, 229,
+  469, 736, 2042, 2811, 4431, 2511, 389, 73, 39, 49, 59, 188, 377, 1292, 4031, 3495, 587, 105, 153, 387, 758, 1307, 3465, 6991, 6313, 3794, 1836, 345, 382, 808,
+  1388, 2713, 3800, 3091, 2985, 3790, 674, 81, 80, 108, 229, 399, 1132, 2432, 3574, 2935, 1537, 529, 485, 662, 1000, 1590, 2657, 3396,
+];
+
 describe('detectPeriod', () => {
-  it('finds the 288-sample day in 5-minute data (within 1%, as the spectral resolution allows)', () => {
+  it('finds the 288-sample day in 5-minute data: within the spectral resolution without a step, exactly 288 with one', () => {
     for (const seed of [1, 2, 3]) {
-      const result = detectPeriod(dailyCycle(seed));
-      expect(result.best).not.toBeNull();
-      expect(Math.abs((result.best ?? 0) - 288)).toBeLessThanOrEqual(3);
-      expect(result.candidates[0].sources).toEqual(['periodogram', 'acf']);
+      const raw = detectPeriod(dailyCycle(seed));
+      expect(raw.best).not.toBeNull();
+      // One Fourier bin at n = 4032 spans 288²/4032 ≈ 20.6 steps of period.
+      expect(Math.abs((raw.best ?? 0) - 288)).toBeLessThanOrEqual(3);
+      expect(raw.candidates[0].sources).toEqual(['periodogram', 'acf']);
+      expect(raw.candidates[0].calendar).toBeNull();
+      expect(raw.candidates[0].note).toContain('no grid step given');
+
+      const snapped = detectPeriod(dailyCycle(seed), { stepMs: 5 * MINUTE });
+      expect(snapped.best).toBe(288);
+      const day = snapped.candidates[0];
+      expect([day.period, day.calendar, day.significant]).toEqual([288, 'day', true]);
+      expect(day.exactPeriod).toBeCloseTo(raw.candidates[0].exactPeriod, 10);
+      expect(day.note).toMatch(/^288 steps = 1 day \(raw estimate \d+(\.\d)?, within the spectral resolution/);
+      expect(snapped.calendarPeriods.map((c) => c.steps)).toEqual([12, 288, 2016]);
     }
   });
 
-  it('reports no period for white noise, AR(1) or AR(2) with real roots', () => {
+  it('snaps only within one Fourier bin: a 300-step cycle stays 300 at n = 8640 (day 3.1 bins away)', () => {
+    const noise = simulateArma({ ar: [0.5] }, 8640, 11);
+    const x = noise.map((v, t) => v + 2 * Math.sin((2 * Math.PI * t) / 300));
+    const result = detectPeriod(x, { stepMs: 5 * MINUTE });
+    expect(result.best).toBe(300);
+    expect(result.candidates[0].calendar).toBeNull();
+    expect(result.candidates[0].note).toContain('no calendar period within the spectral resolution');
+  });
+
+  it('reports no period for white noise, AR(1), AR(2) with real roots or MA(1)', () => {
     for (const seed of [1, 2, 3]) {
       expect(detectPeriod(simulateArma({}, 2000, seed)).best).toBeNull();
       expect(detectPeriod(simulateArma({ ar: [0.7] }, 2000, seed)).best).toBeNull();
       expect(detectPeriod(simulateArma({ ar: [0.5, 0.3] }, 2000, seed)).best).toBeNull();
+      expect(detectPeriod(simulateArma({ ma: [0.6] }, 2000, seed)).best).toBeNull();
+      expect(detectPeriod(simulateArma({ ar: [0.97] }, 4032, seed), { stepMs: 5 * MINUTE }).best).toBeNull();
     }
   });
 
-  it('finds 12 in monthly data with a yearly cycle and a trend', () => {
+  it('finds 12 in monthly data with a yearly cycle and a trend (no noise at all)', () => {
     const noise = simulateArma({ ar: [0.5] }, 240, 4);
-    const x = noise.map((v, t) => 0.05 * t + 3 * Math.cos((2 * Math.PI * t) / 12));
+    const x = noise.map((_v, t) => 0.05 * t + 3 * Math.cos((2 * Math.PI * t) / 12));
     expect(detectPeriod(x).best).toBe(12);
+  });
+
+  it('judges peaks against the AR(≤5) Yule–Walker fit of the detrended series, as arYuleWalker (R ar.yw) gives it', () => {
+    const x = dailyCycle(7);
+    const fit = arYuleWalker(removeLinearTrend(x), { maxOrder: 5 });
+    const { background } = detectPeriod(x);
+    expect(background.order).toBe(fit.order);
+    background.coefficients.forEach((c, j) => expect(c).toBeCloseTo(fit.coefficients[j], 9));
+    expect(background.variance / fit.variance).toBeCloseTo(1, 9);
+  });
+
+  it('datasets shipped with R: the periods documented in their help pages', () => {
+    // co2, nottem: monthly series with a yearly cycle (R's ?co2, ?nottem: frequency 12).
+    expect(detectPeriod(correlationFixture.series.co2).best).toBe(12);
+    expect(detectPeriod(classicalFixture.cases.find((c) => c.name === 'nottem-additive')!.input).best).toBe(12);
+    // sunspot.year: the ~11-year solar cycle (R's ?sunspot.year; the cycle length is common knowledge).
+    const sunspots = detectPeriod(correlationFixture.series['sunspot.year']);
+    expect(sunspots.best).toBe(11);
+    expect(sunspots.candidates[0].calendar).toBeNull();
+    // lynx: the ~10-year cycle of the trappings (R's ?lynx names Campbell & Walker 1977, who studied it; period from memory of that literature).
+    expect(detectPeriod(LYNX).best).toBe(10);
+    expect(detectPeriod(LYNX.map(Math.log10)).best).toBe(10);
+    // LakeHuron, Nile, lh: no cycle described in their help pages; judged persistent, not periodic.
+    expect(detectPeriod(correlationFixture.series.LakeHuron).best).toBeNull();
+    expect(detectPeriod(correlationFixture.series.Nile).best).toBeNull();
+    expect(detectPeriod(correlationFixture.series.lh).best).toBeNull();
+  });
+
+  it('refuses a step that is not a positive number of milliseconds', () => {
+    expect(() => detectPeriod(dailyCycle(1), { stepMs: 0 })).toThrow('detectPeriod: stepMs must be a positive number of milliseconds (got 0)');
+    expect(() => detectPeriod(dailyCycle(1), { stepMs: Number.NaN })).toThrow('detectPeriod: stepMs must be a positive number of milliseconds (got NaN)');
   });
 });

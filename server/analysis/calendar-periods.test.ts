@@ -1,0 +1,47 @@
+import { describe, expect, it } from 'vitest';
+import { calendarPeriodNear, calendarPeriods } from './calendar-periods.ts';
+
+const MINUTE = 60_000;
+
+describe('calendarPeriods', () => {
+  it('lists the hour, day and week that are whole numbers of steps, within 2..maxPeriod', () => {
+    expect(calendarPeriods(5 * MINUTE, 2016)).toEqual([
+      { name: 'hour', steps: 12 },
+      { name: 'day', steps: 288 },
+      { name: 'week', steps: 2016 },
+    ]);
+    expect(calendarPeriods(5 * MINUTE, 2015).map((c) => c.name)).toEqual(['hour', 'day']);
+    // An hourly grid: the hour is one step, below 2, so it is not a cycle of the grid.
+    expect(calendarPeriods(60 * MINUTE, 1000)).toEqual([
+      { name: 'day', steps: 24 },
+      { name: 'week', steps: 168 },
+    ]);
+    // 7 minutes: an hour is 8.57 steps and a day 205.7 steps; only the week (1440 steps) is whole.
+    expect(calendarPeriods(7 * MINUTE, 5000)).toEqual([{ name: 'week', steps: 1440 }]);
+    expect(calendarPeriods(1000 / 3, 20_000)).toEqual([{ name: 'hour', steps: 10_800 }]);
+  });
+
+  it('refuses a step that is not a positive number of milliseconds', () => {
+    expect(() => calendarPeriods(0, 100)).toThrow('calendarPeriods: stepMs must be a positive number of milliseconds (got 0)');
+    expect(() => calendarPeriods(Number.NaN, 100)).toThrow('(got NaN)');
+  });
+});
+
+describe('calendarPeriodNear', () => {
+  const periods = calendarPeriods(5 * MINUTE, 2016);
+  it('snaps a raw frequency within one Fourier bin (1/n) of a calendar frequency, and no further', () => {
+    const n = 4032; // two weeks of 5-minute steps: one bin is 1/4032 cycles per step
+    expect(calendarPeriodNear(1 / 289.4, n, periods)?.name).toBe('day');
+    expect(calendarPeriodNear(1 / 288 + 0.999 / n, n, periods)?.name).toBe('day');
+    expect(calendarPeriodNear(1 / 288 - 1.001 / n, n, periods)).toBeNull();
+    // 1/310 is 0.99 bins from 1/288 at n = 4032 but 2.5 bins at n = 10,000.
+    expect(calendarPeriodNear(1 / 310, n, periods)?.name).toBe('day');
+    expect(calendarPeriodNear(1 / 310, 10_000, periods)).toBeNull();
+  });
+
+  it('takes the nearest when two calendar frequencies are within one bin', () => {
+    // n = 20: one bin is 0.05 cycles per step; the hour (1/12 ≈ 0.083) and the day (1/288 ≈ 0.003) are both within it of 0.04 and 0.045.
+    expect(calendarPeriodNear(0.045, 20, periods)?.name).toBe('hour');
+    expect(calendarPeriodNear(0.04, 20, periods)?.name).toBe('day');
+  });
+});
