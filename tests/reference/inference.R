@@ -51,7 +51,10 @@ series <- list(
   sleep.group1 = sleep$extra[sleep$group == 1],
   sleep.group2 = sleep$extra[sleep$group == 2],
   lh.first24 = as.numeric(lh)[1:24],
-  lh.last24 = as.numeric(lh)[25:48]
+  lh.last24 = as.numeric(lh)[25:48],
+  # Quarterly approval ratings with NAs: t.test drops them; tau uses acf(..., na.action = na.pass).
+  presidents.1945to1959 = as.numeric(window(presidents, end = c(1959, 4))),
+  presidents.1960to1974 = as.numeric(window(presidents, start = 1960))
 )
 get_series <- function(name) series[[name]]
 
@@ -124,14 +127,14 @@ geyer_tau <- function(x) {
 }
 compare_cases <- list(
   list("Nile.1871to1897", "Nile.1898to1970"), list("sleep.group1", "sleep.group2"),
-  list("lh.first24", "lh.last24")
+  list("lh.first24", "lh.last24"), list("presidents.1945to1959", "presidents.1960to1974")
 )
 compare_out <- lapply(compare_cases, function(cs) {
   a <- get_series(cs[[1]]); b <- get_series(cs[[2]])
   w <- t.test(b, a)   # Welch (var.equal = FALSE): estimate mean(b) - mean(a)
   side <- function(x) {
+    tau <- geyer_tau(x)      # on the series with its gaps (na.pass), as effectiveSampleSize
     x <- x[!is.na(x)]
-    tau <- geyer_tau(x)
     list(n = length(x), mean = mean(x), sd = sd(x), tau = tau, nEff = length(x) / tau)
   }
   sa <- side(a); sb <- side(b)
