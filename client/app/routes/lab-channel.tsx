@@ -9,6 +9,7 @@ import { ReadingsPanel } from '../../features/channels/components/readings-panel
 import { SafetyCautionNote } from '../../features/channels/components/safety-caution-note.tsx';
 import { CrossCorrelationPanel } from '../../features/diagnostics/components/cross-correlation-panel.tsx';
 import { DiagnosticsPanel } from '../../features/diagnostics/components/diagnostics-panel.tsx';
+import { RangeComparisonPanel } from '../../features/diagnostics/components/range-comparison-panel.tsx';
 import { MissingPermission } from '../../features/labs/components/lab-not-found.tsx';
 import { useChannelAlerts } from '../../features/alerts/api/get-channel-alerts.ts';
 import { alertBands } from '../../features/alerts/components/alert-bands.ts';
@@ -73,6 +74,7 @@ export default function LabChannelRoute() {
         <>
           <DiagnosticsPanel slug={slug} channelId={c.id} channelKey={c.key} timezone={c.logger.timezone} chartRange={view.range} canExport={can('exports.create')} />
           <CrossCorrelationPanel slug={slug} channelId={c.id} channelLabel={c.label} chartRange={view.range} partners={partners} stepS={c.expectedIntervalS ?? c.logger.expectedIntervalS} />
+          <RangeComparisonPanel slug={slug} channelId={c.id} channelLabel={c.label} timezone={c.logger.timezone} chartRange={view.range} partners={partners} />
         </>
       )}
     </div>

@@ -1,8 +1,8 @@
 import { useState, type FormEvent } from 'react';
-import { Button } from '../../../components/button.tsx';
 import { SelectField, TextField } from '../../../components/form-field.tsx';
 import { fromZonedInput, toZonedInput } from '../../../components/zoned-time.ts';
 import type { DiagnosticsParams } from '../api/get-diagnostics.ts';
+import { AggregateSelect, FormFooter } from './form-parts.tsx';
 
 /** The form's fields as typed (strings until submitted). */
 interface Draft {
@@ -112,13 +112,7 @@ export function DiagnosticsForm({
       </fieldset>
       <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
         <TextField label="Resampling step (s)" inputMode="numeric" placeholder="channel interval" hint="Empty: the channel’s expected interval." value={d.step} onChange={(e) => set('step', e.target.value)} />
-        <SelectField label="Aggregate per step" value={d.agg} onChange={(e) => set('agg', e.target.value as Draft['agg'])}>
-          {(['mean', 'median', 'last', 'min', 'max'] as const).map((a) => (
-            <option key={a} value={a}>
-              {a}
-            </option>
-          ))}
-        </SelectField>
+        <AggregateSelect value={d.agg} onChange={(agg) => set('agg', agg)} />
         <SelectField label="Differencing" value={d.difference} onChange={(e) => set('difference', e.target.value)}>
           <option value="0">none</option>
           <option value="1">once (lag 1)</option>
@@ -145,16 +139,7 @@ export function DiagnosticsForm({
         </SelectField>
         <TextField label="α (1 − confidence)" inputMode="decimal" value={d.alpha} onChange={(e) => set('alpha', e.target.value)} />
       </div>
-      {error && (
-        <p role="alert" className="text-sm text-alert">
-          {error}
-        </p>
-      )}
-      <div>
-        <Button type="submit" tone="primary" disabled={running}>
-          Analyse
-        </Button>
-      </div>
+      <FormFooter error={error} submitLabel="Analyse" running={running} />
     </form>
   );
 }
