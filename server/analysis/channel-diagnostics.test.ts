@@ -6,7 +6,9 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { AnalysisInputError, acf, ccf, effectiveSampleSize, identifyProcess, ljungBox, pacf } from './index.ts';
-import { channelDiagnostics, type ChannelReadings } from './channel-diagnostics.ts';
+import { channelDiagnostics, defaultCcfMaxLag, type ChannelReadings } from './channel-diagnostics.ts';
+import { prewhitenedCcf } from './prewhitened-ccf.ts';
+import { simulateArma } from './seeded-simulation.testkit.ts';
 
 type Json = Record<string, any>;
 const load = (name: string): Json => JSON.parse(readFileSync(new URL(`../../tests/reference/fixtures/${name}`, import.meta.url), 'utf8'));
@@ -76,31 +78,60 @@ describe('channelDiagnostics against R (lh: acf, pacf, plot.acf bands, Box.test)
 });
 
 describe('channelDiagnostics: cross-correlation in R’s sign convention', () => {
-  it('equals ccf(LakeHuron, Nile, 12) over 1875–1970 and says Nile trails Lake Huron by 4 steps (R 4.2.2, tol 1e-10)', () => {
+  it('keeps the raw CCF equal to ccf(LakeHuron, Nile, 12) over 1875–1970 (R 4.2.2, tol 1e-10) and prewhitens with the partner’s AR model', () => {
     const ref = find(R.ccf, (c) => c.x === 'LakeHuron.1875to1970');
-    const out = channelDiagnostics(asReadings(R.series['LakeHuron.1875to1970']), {
+    const lake = R.series['LakeHuron.1875to1970'] as number[];
+    const nile = R.series['Nile.1875to1970'] as number[];
+    const out = channelDiagnostics(asReadings(lake), {
       step: HOUR,
       agg: 'mean',
       period: 'none',
       decomposition: 'none',
       ccfMaxLag: 12,
       labels: { channel: 'Lake level', partner: 'River flow' },
-    }, asReadings(R.series['Nile.1875to1970']));
+    }, asReadings(nile));
     const cross = out.crossCorrelation!;
-    expect(Array.from(cross.lags)).toEqual(ref.lags);
-    expectAllClose(cross.values, ref.values, 1e-10);
-    // R's strongest |ccf| in this fixture sits at lag −4 (value 0.3926): lake level leads.
-    expect(cross.strongest).toMatchObject({ lag: -4, lagMs: -4 * HOUR, significant: true });
-    expect(cross.explanation).toContain('River flow trails Lake level by 4 h');
-    expect(cross.band).toBeCloseTo(1.959963984540054 / Math.sqrt(96), 12); // qnorm(0.975) from R 4.2.2 (from memory)
+    expect(Array.from(cross.raw.lags)).toEqual(ref.lags);
+    expectAllClose(cross.raw.values, ref.values, 1e-10);
+    // R's strongest |ccf| in this fixture sits at lag −4 (value 0.3926)
+    expect(cross.raw.strongest).toMatchObject({ lag: -4, lagMs: -4 * HOUR, significant: true });
+    expect(cross.raw.band).toBeCloseTo(1.959963984540054 / Math.sqrt(96), 12); // qnorm(0.975) from R 4.2.2 (from memory)
+    // the headline CCF is the prewhitened one (its R check is prewhitened-ccf's reference test)
+    const white = prewhitenedCcf(lake, nile, { maxLag: 12 });
+    expect(cross.method).toBe('prewhitened');
+    expect(Array.from(cross.values)).toEqual(Array.from(white.values));
+    expect(cross.prewhitening).toEqual({ order: white.ar.order, coefficients: Array.from(white.ar.coefficients) });
+    expect(cross.simultaneousBand).toBe(white.simultaneousBand);
+    expect(cross.simultaneousMethod).toBe('Šidák over 25 lags');
+    expect(cross.explanation).toContain(`filtered by the AR(${white.ar.order}) model of River flow`);
   });
 
-  it('a channel that repeats another 3 steps later peaks at lag +3 (follows from the definition cor(x[t+k], y[t]))', () => {
+  it('a channel that repeats another 3 steps later peaks at lag +3 beyond the simultaneous band (follows from the definition cor(x[t+k], y[t]))', () => {
     const base = R.series['sunspot.year'].slice(0, 200) as number[];
     const late = base.map((_, i) => (i >= 3 ? base[i - 3] : base[0]));
     const out = channelDiagnostics(asReadings(late, 600_000), { step: 600_000, agg: 'mean', period: 'none', decomposition: 'none', labels: { channel: 'B', partner: 'A' } }, asReadings(base, 600_000));
-    expect(out.crossCorrelation!.strongest!.lag).toBe(3);
-    expect(out.crossCorrelation!.explanation).toContain('B trails A by 30 min');
+    expect(out.crossCorrelation!.strongest).toMatchObject({ lag: 3, lagMs: 1_800_000, significant: true });
+    expect(out.crossCorrelation!.explanation).toContain('B follows A by about 30 min, and the two move in the same direction');
+  });
+
+  it('claims no relation between two independent persistent series where the raw CCF does (prewhitening, Box, Jenkins, Reinsel & Ljung §12.2)', () => {
+    let claimedRaw = 0;
+    let claimedWhite = 0;
+    for (let seed = 1; seed <= 6; seed++) {
+      const a = simulateArma({ ar: [0.9] }, 1000, 100 + seed);
+      const b = simulateArma({ ar: [0.9] }, 1000, 200 + seed);
+      const out = channelDiagnostics(asReadings(Array.from(a), 600_000), { step: 600_000, agg: 'mean', period: 'none', decomposition: 'none' }, asReadings(Array.from(b), 600_000));
+      if (out.crossCorrelation!.raw.strongest!.significant) claimedRaw++;
+      if (out.crossCorrelation!.strongest!.significant) claimedWhite++;
+    }
+    expect(claimedRaw).toBeGreaterThanOrEqual(4);
+    expect(claimedWhite).toBeLessThanOrEqual(1);
+  }, 120_000);
+
+  it('defaults the CCF window to 12 hours of steps when that is shorter than a quarter of the range', () => {
+    expect(defaultCcfMaxLag(8640, 300_000)).toBe(144);
+    expect(defaultCcfMaxLag(200, 300_000)).toBe(50);
+    expect(defaultCcfMaxLag(96, 3_600_000)).toBe(16); // R's ⌊10·log10(96/2)⌋ = 16 is longer than 12 h
   });
 
   it('differences both channels alike before the CCF', () => {
@@ -109,7 +140,8 @@ describe('channelDiagnostics: cross-correlation in R’s sign convention', () =>
     const out = channelDiagnostics(asReadings(x), { step: HOUR, agg: 'mean', difference: 1, period: 'none', decomposition: 'none', ccfMaxLag: 5 }, asReadings(y));
     const dx = x.slice(1).map((v, i) => v - x[i]);
     const dy = y.slice(1).map((v, i) => v - y[i]);
-    expect(Array.from(out.crossCorrelation!.values)).toEqual(Array.from(ccf(dx, dy, { maxLag: 5 }).values));
+    expect(Array.from(out.crossCorrelation!.raw.values)).toEqual(Array.from(ccf(dx, dy, { maxLag: 5 }).values));
+    expect(Array.from(out.crossCorrelation!.values)).toEqual(Array.from(prewhitenedCcf(dx, dy, { maxLag: 5 }).values));
   });
 });
 

@@ -12,7 +12,10 @@ import { identifyProcess, type ProcessIdentification } from './identify-process.
 import { ljungBox } from './ljung-box.ts';
 import { medianInPlace } from './median-in-place.ts';
 import { normalQuantile } from './normal-quantile.ts';
+import { prewhitenedCcf } from './prewhitened-ccf.ts';
 import { regularize, type RegularizeAggregate } from './regularize.ts';
+import { trendTest } from './trend-test.ts';
+import { andrewsBartlettLag } from './andrews-bartlett-lag.ts';
 import { stl } from './stl.ts';
 import { stlParameters, type StlSettings } from './stl-parameters.ts';
 
@@ -46,6 +49,8 @@ export interface ChannelDiagnosticsOptions {
   outlierThreshold?: number;
   /** Highest CCF lag in each direction; default R's ⌊10·log10(n/2)⌋. */
   ccfMaxLag?: number;
+  /** The process model is fitted to at most this many of the most recent cells (default 1,000). */
+  modelCells?: number;
   /** Names used in the plain-language CCF sentence. */
   labels?: { channel: string; partner: string };
 }
@@ -81,16 +86,53 @@ export type DecompositionOutcome =
       outliers: OutlierList;
     };
 
+export interface CcfStrongest {
+  lag: number;
+  lagMs: number;
+  value: number;
+  significant: boolean;
+}
+
 export interface CrossCorrelationOutcome {
-  /** Times where both channels have a value (the n of the band). */
+  /** 'prewhitened': both channels filtered by the partner's AR model first; 'raw' when that could not be done. */
+  method: 'prewhitened' | 'raw';
+  /** The partner's AR filter (order chosen by AIC, Yule–Walker), or null for a raw CCF. */
+  prewhitening: { order: number; coefficients: number[] } | null;
+  /** Times where both (filtered) channels have a value (the n of the bands). */
   pairs: number;
   lags: Int32Array;
   values: Float64Array;
-  /** ±z(1 − α/2)/√pairs: the white-noise band of a CCF (Box, Jenkins & Reinsel §12.1.3). */
+  /** ±z(1 − α/2)/√pairs: the per-lag white-noise band of a CCF (Box, Jenkins & Reinsel §12.1.3). */
   band: number;
-  strongest: { lag: number; lagMs: number; value: number; significant: boolean } | null;
+  /** The band that all lags together stay inside with probability 1 − α when there is no relation. */
+  simultaneousBand: number;
+  simultaneousMethod: string;
+  /** The strongest lag; `significant` means beyond the simultaneous band. */
+  strongest: CcfStrongest | null;
   explanation: string;
+  /** The CCF of the unfiltered channels with its per-lag band: shown for contrast, not a test. */
+  raw: { lags: Int32Array; values: Float64Array; band: number; strongest: CcfStrongest | null };
 }
+
+/** A least-squares trend with its Newey–West (HAC) and naive OLS standard errors, per step. */
+export type TrendOutcome =
+  | { available: false; reason: string }
+  | {
+      available: true;
+      /** 'adjusted': the series less its seasonal component. */
+      fittedOn: 'series' | 'adjusted';
+      n: number;
+      slope: number;
+      intercept: number;
+      standardErrorOls: number;
+      standardErrorHac: number;
+      lag: number;
+      pValueHac: number;
+      /** slope ∓ z(1 − α/2) · standardErrorHac. */
+      interval: [number, number];
+      /** slope ∓ t(1 − α/2; n − 2) · standardErrorOls, as if the readings were independent. */
+      intervalOls: [number, number];
+    };
 
 export interface ChannelDiagnostics {
   grid: {
@@ -118,7 +160,11 @@ export interface ChannelDiagnostics {
   effectiveSampleSize: EffectiveSampleSizeResult;
   decomposition: DecompositionOutcome;
   crossCorrelation: CrossCorrelationOutcome | null;
+  trend: TrendOutcome;
 }
+
+/** Cells the process model is fitted to by default: enough for the orders and coefficients, cheap enough for a request. */
+export const DEFAULT_MODEL_CELLS = 1000;
 
 /** Hampel's consistency factor: 1.4826 · MAD estimates σ for normal data (Rousseeuw & Croux 1993, JASA 88:1273). */
 const MAD_TO_SD = 1.4826;
@@ -208,6 +254,46 @@ function differenced(x: Float64Array, d: number, seasonal: number, period: numbe
   return y;
 }
 
+/** The lag with the largest |value| (NaN skipped), with whether it clears `band`. */
+function strongestLag(lags: Int32Array, values: Float64Array, band: number, stepMs: number): CcfStrongest | null {
+  let best = -1;
+  for (let i = 0; i < values.length; i++) if (!Number.isNaN(values[i]) && (best < 0 || Math.abs(values[i]) > Math.abs(values[best]))) best = i;
+  if (best < 0) return null;
+  return { lag: lags[best], lagMs: lags[best] * stepMs, value: values[best], significant: Math.abs(values[best]) > band };
+}
+
+/**
+ * Default CCF window: R's ⌊10·log10(n/2)⌋ raised to reach physical delays — 12 hours or a
+ * quarter of the range, whichever is shorter (our rule), never beyond n − 1 lags.
+ */
+export function defaultCcfMaxLag(n: number, stepMs: number): number {
+  const halfDay = Math.ceil(43_200_000 / stepMs);
+  return Math.max(1, Math.min(n - 1, Math.max(defaultMaxLag(n, 2), Math.min(halfDay, Math.floor(n / 4)))));
+}
+
+/** Plain sentence of a CCF outcome (R's sign convention: a positive lag means the channel follows its partner). */
+function ccfSentence(strongest: CcfStrongest | null, bandText: string, method: 'prewhitened' | 'raw', labels: { channel: string; partner: string }, arOrder: number | null): string {
+  const how =
+    method === 'prewhitened'
+      ? `After both channels were filtered by the AR(${arOrder}) model of ${labels.partner} (prewhitening, so that each channel's own persistence cannot pass for a relation)`
+      : 'Without prewhitening (the AR filter of the partner could not be fitted)';
+  if (!strongest) return `${how}, no lag has a defined cross-correlation.`;
+  const { lag, value } = strongest;
+  const at = `${value.toFixed(3)} at lag ${lag}${lag !== 0 ? ` (${describeDuration(Math.abs(strongest.lagMs))})` : ''}`;
+  if (!strongest.significant) {
+    return `${how}, the strongest cross-correlation, ${at}, stays inside the ${bandText}: no lead or lag between ${labels.channel} and ${labels.partner} stands out from noise in this range.`;
+  }
+  const span = describeDuration(Math.abs(strongest.lagMs));
+  const timing =
+    lag > 0
+      ? `${labels.channel} follows ${labels.partner} by about ${span}`
+      : lag < 0
+        ? `${labels.partner} follows ${labels.channel} by about ${span}`
+        : `${labels.channel} and ${labels.partner} move within the same step`;
+  const direction = value >= 0 ? 'in the same direction' : 'in opposite directions (one rises as the other falls)';
+  return `${how}, the strongest cross-correlation, ${at}, lies beyond the ${bandText}: ${timing}, and the two move ${direction}.`;
+}
+
 function crossCorrelationOf(
   x: Float64Array,
   y: Float64Array,
@@ -219,27 +305,57 @@ function crossCorrelationOf(
   let pairs = 0;
   for (let i = 0; i < x.length; i++) if (!Number.isNaN(x[i]) && !Number.isNaN(y[i])) pairs++;
   if (pairs < 4) throw new AnalysisInputError(`ccf requires at least 4 times where both channels have a value (got ${pairs})`);
-  const { lags, values } = crossCorrelation(x, y, { maxLag: maxLag ?? Math.min(defaultMaxLag(x.length, 2), x.length - 1) });
-  const band = normalQuantile(1 - alpha / 2) / Math.sqrt(pairs);
-  let best = -1;
-  for (let i = 0; i < values.length; i++) if (!Number.isNaN(values[i]) && (best < 0 || Math.abs(values[i]) > Math.abs(values[best]))) best = i;
-  if (best < 0) return { pairs, lags, values, band, strongest: null, explanation: 'No lag has a defined cross-correlation.' };
-  const lag = lags[best];
-  const value = values[best];
-  const significant = Math.abs(value) > band;
-  const span = describeDuration(Math.abs(lag) * stepMs);
-  const direction = value >= 0 ? 'rise and fall together' : 'move in opposite directions (one rises as the other falls)';
-  const timing =
-    lag > 0
-      ? `${labels.channel} trails ${labels.partner} by ${span}`
-      : lag < 0
-        ? `${labels.partner} trails ${labels.channel} by ${span}`
-        : `${labels.channel} and ${labels.partner} move at the same time`;
-  const verdict = significant
-    ? `The strongest cross-correlation, ${value.toFixed(3)} at lag ${lag}, lies outside the ±${band.toFixed(3)} band: ${timing}, and the two ${direction}.`
-    : `The strongest cross-correlation, ${value.toFixed(3)} at lag ${lag}, stays inside the ±${band.toFixed(3)} band: no lagged relation stands out from noise.`;
-  const convention = `Lag k pairs ${labels.channel} at time t + k with ${labels.partner} at time t (R's ccf convention), so a peak at a positive lag means ${labels.channel} follows ${labels.partner}.`;
-  return { pairs, lags, values, band, strongest: { lag, lagMs: lag * stepMs, value, significant }, explanation: `${verdict} ${convention}` };
+  const window = Math.min(maxLag ?? defaultCcfMaxLag(x.length, stepMs), x.length - 1);
+  const raw = crossCorrelation(x, y, { maxLag: window });
+  const rawBand = normalQuantile(1 - alpha / 2) / Math.sqrt(pairs);
+  const rawOutcome = { lags: raw.lags, values: raw.values, band: rawBand, strongest: strongestLag(raw.lags, raw.values, rawBand, stepMs) };
+  const convention = `Lag k pairs ${labels.channel} at time t + k with ${labels.partner} at time t, so a peak at a positive lag means ${labels.channel} follows ${labels.partner}.`;
+  // The partner is the input: its AR model filters both channels (Box, Jenkins, Reinsel & Ljung 2015, §12.2).
+  const white = prewhitenedCcf(x, y, { maxLag: window, alpha });
+  const simultaneousMethod = `Šidák over ${white.lags.length} lags`;
+  const strongest = white.strongest ? { ...white.strongest, lagMs: white.strongest.lag * stepMs } : null;
+  const bandText = `±${white.simultaneousBand.toFixed(3)} band that holds for all ${white.lags.length} lags together (${simultaneousMethod})`;
+  return {
+    method: 'prewhitened',
+    prewhitening: { order: white.ar.order, coefficients: Array.from(white.ar.coefficients) },
+    pairs: white.pairs,
+    lags: white.lags,
+    values: white.values,
+    band: white.band,
+    simultaneousBand: white.simultaneousBand,
+    simultaneousMethod,
+    strongest,
+    explanation: `${ccfSentence(strongest, bandText, 'prewhitened', labels, white.ar.order)} ${convention}`,
+    raw: rawOutcome,
+  };
+}
+
+/**
+ * Least-squares trend of the (seasonally adjusted) grid with its Newey–West standard error at
+ * Andrews' data-driven lag (never below R's ⌊4 (n/100)^{2/9}⌋), beside the naive OLS one.
+ */
+function trendOf(values: Float64Array, fittedOn: 'series' | 'adjusted', alpha: number): TrendOutcome {
+  let present = 0;
+  for (let i = 0; i < values.length; i++) if (!Number.isNaN(values[i])) present++;
+  if (present < 10) return { available: false, reason: `a trend needs at least 10 cells with readings (got ${present})` };
+  const first = trendTest(values, { alpha });
+  const residuals = new Float64Array(values.length);
+  for (let i = 0; i < values.length; i++) residuals[i] = values[i] - (first.intercept + first.slope * (i + 1));
+  const lag = andrewsBartlettLag(residuals, first.lag);
+  const t = lag === first.lag ? first : trendTest(values, { lag, alpha });
+  return {
+    available: true,
+    fittedOn,
+    n: present,
+    slope: t.slope,
+    intercept: t.intercept,
+    standardErrorOls: t.standardErrorOls,
+    standardErrorHac: t.standardErrorHac,
+    lag: t.lag,
+    pValueHac: t.pValueHac,
+    interval: t.interval,
+    intervalOls: t.intervalOls,
+  };
 }
 
 function decompositionOf(
@@ -311,7 +427,7 @@ export function channelDiagnostics(readings: ChannelReadings, options: ChannelDi
   if (n - missing < 8) throw new AnalysisInputError(`channelDiagnostics requires readings in at least 8 cells of the grid (got ${n - missing})`);
   const filled = fillGapsLinear(grid);
 
-  const detection = detectPeriod(filled);
+  const detection = detectPeriod(filled, { stepMs: options.step });
   const requested = options.period ?? 'auto';
   let period: number | null;
   let source: 'manual' | 'detected' | 'none';
@@ -341,24 +457,39 @@ export function channelDiagnostics(readings: ChannelReadings, options: ChannelDi
   const boxLags = [...new Set([5, 10, 15, 20, ...(period !== null ? [period, 2 * period] : [])])].filter((h) => h < presentA).sort((a, b) => a - b);
   const ljung = boxLags.map((lag) => ({ lag, ...ljungBox(analysed, lag <= maxLag ? { lag, acf: acfValues } : { lag }) }));
 
+  const decomposition = decompositionOf(grid, filled, options.decomposition ?? 'stl', period, options.stlSeasonalWindow ?? 'periodic', threshold);
+  // The seasonal component the model and the trend are fitted without: the decomposition's when
+  // it is complete, else periodic STL computed inside identifyProcess.
+  const seasonal = decomposition.method !== 'none' && !decomposition.seasonal.some(Number.isNaN) ? decomposition.seasonal : undefined;
+
   const filledAnalysed = fillGapsLinear(analysed);
   const identified = identifyProcess(filledAnalysed, {
     alpha,
-    // undifferenced, the analysed series is the one the period search just ran on
-    ...(d === 0 && D === 0 ? { knownPeriod: detection.best } : {}),
+    // the period in use (given or detected); a seasonal difference has removed it
+    knownPeriod: D > 0 ? null : period,
     // without gaps it is the series whose ACF was just computed
     ...(filledAnalysed === analysed ? { acf: acfValues } : {}),
     ...(options.maxLag !== undefined ? { maxLag: Math.max(2, Math.min(options.maxLag, Math.floor(nA / 4))) } : {}),
+    ...(d === 0 && D === 0 && seasonal ? { seasonal } : {}),
+    fitCells: options.modelCells ?? DEFAULT_MODEL_CELLS,
   });
 
   const ess = effectiveSampleSize(grid, analysed === grid ? { alpha, acf: acfValues } : { alpha });
-  const decomposition = decompositionOf(grid, filled, options.decomposition ?? 'stl', period, options.stlSeasonalWindow ?? 'periodic', threshold);
 
   let cross: CrossCorrelationOutcome | null = null;
   if (partner) {
     const other = regularize(partner.timestamps, partner.values, { step: options.step, agg: options.agg });
     const y = differenced(alignTo(other, reg.start, n), d, D, period);
     cross = crossCorrelationOf(analysed, y, options.step, alpha, options.ccfMaxLag, options.labels ?? { channel: 'this channel', partner: 'the other channel' });
+  }
+
+  let trend: TrendOutcome;
+  if (seasonal) {
+    const adjusted = new Float64Array(n);
+    for (let i = 0; i < n; i++) adjusted[i] = grid[i] - seasonal[i];
+    trend = trendOf(adjusted, 'adjusted', alpha);
+  } else {
+    trend = trendOf(grid, 'series', alpha);
   }
 
   return {
@@ -374,5 +505,6 @@ export function channelDiagnostics(readings: ChannelReadings, options: ChannelDi
     effectiveSampleSize: ess,
     decomposition,
     crossCorrelation: cross,
+    trend,
   };
 }

@@ -1,3 +1,5 @@
+import type { ProcessModelFit } from './identify-process.ts';
+
 /** What the explanation needs to know about the verdict. */
 export interface ExplanationFacts {
   verdict: 'white-noise' | 'ar' | 'ma' | 'arma' | 'needs-differencing' | 'seasonal';
@@ -6,9 +8,39 @@ export interface ExplanationFacts {
   period?: number;
   ljungBoxP: number;
   lag1: number;
+  /** The fitted model behind the verdict, when there is one. */
+  model?: ProcessModelFit | null;
 }
 
 const plural = (k: number, word: string) => `${k} ${word}${k === 1 ? '' : 's'}`;
+
+/** `0.82 ± 0.03` with two significant decimals of the standard error. */
+function withError(value: number, se: number): string {
+  const digits = Number.isFinite(se) && se > 0 ? Math.min(6, Math.max(2, 1 - Math.floor(Math.log10(se)))) : 3;
+  return Number.isFinite(se) ? `${value.toFixed(digits)} ± ${se.toFixed(digits)}` : value.toFixed(digits);
+}
+
+/** "AR(1), φ₁ = 0.82 ± 0.03" — the model's orders and coefficients with standard errors. */
+export function describeModel(m: Pick<ProcessModelFit, 'p' | 'q' | 'ar' | 'ma' | 'standardErrors'>): string {
+  const name = m.p === 0 && m.q === 0 ? 'white noise' : m.q === 0 ? `AR(${m.p})` : m.p === 0 ? `MA(${m.q})` : `ARMA(${m.p},${m.q})`;
+  const terms = [
+    ...m.ar.map((v, i) => `φ${i + 1} = ${withError(v, m.standardErrors.ar[i])}`),
+    ...m.ma.map((v, i) => `θ${i + 1} = ${withError(v, m.standardErrors.ma[i])}`),
+  ];
+  return terms.length ? `${name}, ${terms.join(', ')}` : name;
+}
+
+/** The model's sentence: what was fitted, and how much independent information the readings hold. */
+function modelSentence(m: ProcessModelFit, seasonal: boolean): string {
+  const on = seasonal ? 'After the cycle is removed, the rest of the series' : 'The series';
+  const ratio = m.readingsPerIndependent;
+  const information =
+    ratio < 1.5
+      ? 'nearly every reading is independent information about the mean'
+      : `about 1 in ${ratio < 10 ? ratio.toFixed(1) : Math.round(ratio).toLocaleString('en')} readings is independent information about the mean`;
+  const fit = m.residualTest.pValue < 0.05 ? ` Its residuals still fail the Ljung–Box test (p = ${m.residualTest.pValue.toPrecision(2)}), so treat the model as a rough description.` : '';
+  return ` ${on} is described best by ${describeModel(m)} (exact maximum likelihood, lowest BIC among ARMA orders up to 3), fitted on the last ${m.cells.toLocaleString('en')} values: ${information}.${fit}`;
+}
 
 /**
  * Plain-language explanation of a process verdict for a bench scientist: what the pattern
@@ -19,6 +51,12 @@ const plural = (k: number, word: string) => `${k} ${word}${k === 1 ? '' : 's'}`;
  * Cost: O(1).
  */
 export function explainVerdict(f: ExplanationFacts): string {
+  const text = verdictText(f);
+  return f.model ? text + modelSentence(f.model, f.verdict === 'seasonal') : text;
+}
+
+/** The verdict's own text, before the model sentence. */
+function verdictText(f: ExplanationFacts): string {
   const persistence = f.lag1 > 0 ? 'similar to' : 'on the opposite side of the mean from';
   switch (f.verdict) {
     case 'white-noise':
@@ -33,24 +71,22 @@ export function explainVerdict(f: ExplanationFacts): string {
       return (
         `Each reading is largely carried over from the previous ${f.p === 1 ? 'one' : plural(f.p ?? 1, 'reading')}: ` +
         `the channel has memory, so a reading tends to be ${persistence} the one before it, and the effect of a ` +
-        'disturbance fades gradually instead of vanishing at once. The partial autocorrelation stops after ' +
-        `lag ${f.p} while the ordinary autocorrelation dies away slowly, the signature of an autoregressive ` +
-        `process of order ${f.p}. Neighbouring readings are not independent: use the effective sample size, ` +
-        `not the raw count, for confidence intervals, or model the series as AR(${f.p}).`
+        'disturbance fades gradually instead of vanishing at once, as in an autoregressive process of order ' +
+        `${f.p}. Neighbouring readings are not independent: use the effective sample size, not the raw count, ` +
+        `for confidence intervals, or model the series as AR(${f.p}).`
       );
     case 'ma':
       return (
         `A disturbance affects the next ${plural(f.q ?? 1, 'reading')} and is then forgotten completely: ` +
-        `readings more than ${plural(f.q ?? 1, 'step')} apart are unrelated. The autocorrelation stops after ` +
-        `lag ${f.q} while the partial autocorrelation fades gradually, the signature of a moving-average ` +
+        `readings more than ${plural(f.q ?? 1, 'step')} apart are unrelated, as in a moving-average ` +
         `process of order ${f.q} (short-lived shocks, such as a door opening or a brief sensor transient). ` +
         `Treat readings within ${plural(f.q ?? 1, 'step')} of each other as dependent, or model the series as MA(${f.q}).`
       );
     case 'arma':
       return (
-        'Both the autocorrelation and the partial autocorrelation fade gradually rather than stopping at a ' +
-        'particular lag, so the channel mixes lasting memory with short-lived shocks. A mixed ARMA model ' +
-        `(start with ARMA(${f.p ?? 1},${f.q ?? 1}) and compare a few neighbours) describes this better than a pure AR or MA model.`
+        'The channel mixes lasting memory with short-lived shocks: a reading carries over into the next ones ' +
+        'and each disturbance also leaves a brief echo of its own. A mixed ' +
+        `ARMA(${f.p ?? 1},${f.q ?? 1}) model describes this better than a pure AR or MA model.`
       );
     case 'needs-differencing':
       return (

@@ -9,6 +9,10 @@ import { explainVerdict } from './identify-process-explanation.ts';
 import { integerOption } from './integer-option.ts';
 import { ljungBox } from './ljung-box.ts';
 import type { PortmanteauResult } from './portmanteau-test.ts';
+import { readingsPerIndependent } from './readings-per-independent.ts';
+import { fitArma } from './fit-arma.ts';
+import { selectArma } from './select-arma.ts';
+import { stl } from './stl.ts';
 
 export type ProcessVerdict = 'white-noise' | 'ar' | 'ma' | 'arma' | 'needs-differencing' | 'seasonal';
 export type CorrelogramPattern = 'none' | 'cuts-off' | 'tails-off';
@@ -30,6 +34,46 @@ export interface IdentifyProcessOptions {
    * it already; read instead of computed again when K reaches the lags examined.
    */
   acf?: Float64Array;
+  /**
+   * The seasonal component of this same series (as long as it), removed before the model is
+   * fitted when a period is found; computed here by periodic STL when left out.
+   */
+  seasonal?: Float64Array;
+  /** The model is fitted to at most this many of the most recent values (default 2,000). */
+  fitCells?: number;
+  /** Highest AR and MA orders among the fitted candidates (default 3 each). */
+  maxP?: number;
+  maxQ?: number;
+}
+
+/** The fitted ARMA model behind a verdict, and what it was fitted on. */
+export interface ProcessModelFit {
+  fittedOn: 'series' | 'remainder';
+  /** Index of the first value fitted (the fit uses values [start, start + cells)). */
+  start: number;
+  cells: number;
+  p: number;
+  q: number;
+  ar: number[];
+  ma: number[];
+  mean: number | null;
+  standardErrors: { ar: number[]; ma: number[]; mean: number | null };
+  sigma2: number;
+  logLik: number;
+  aicc: number;
+  /** −2 log L + (p + q + 2) log n, n the values fitted. */
+  bic: number;
+  converged: boolean;
+  /** Every order tried; `admissible`: converged with all AR and MA roots outside 1.01. */
+  candidates: { p: number; q: number; aicc: number; bic: number; logLik: number; converged: boolean; admissible: boolean }[];
+  /** The order with the lowest AICc (selectArma's choice), shown beside the BIC choice. */
+  lowestAicc: { p: number; q: number };
+  /** Ljung–Box on the chosen model's residuals, fitdf = p + q. */
+  residualTest: { lag: number; statistic: number; df: number; pValue: number };
+  /** n / n_eff for the mean that the model implies (1 for white noise). */
+  readingsPerIndependent: number;
+  /** Set when the BIC choice differs from the lowest AICc, saying so. */
+  criterionNote: string | null;
 }
 
 export interface ProcessEvidence {
@@ -51,6 +95,8 @@ export interface ProcessEvidence {
   /** ADF test on the series with gaps closed; null when too short. */
   unitRoot: AugmentedDickeyFullerResult | null;
   period: number | null;
+  /** What the correlogram alone suggested (the first look, before any model was fitted). */
+  correlogram: { verdict: ProcessVerdict; p?: number; q?: number };
 }
 
 export interface ProcessIdentification {
@@ -63,6 +109,10 @@ export interface ProcessIdentification {
   period?: number;
   explanation: string;
   evidence: ProcessEvidence;
+  /** The model the verdict rests on; null when none could be fitted (see `modelNote`). */
+  model: ProcessModelFit | null;
+  /** Why no model was fitted, or a caution about the one fitted; null otherwise. */
+  modelNote: string | null;
 }
 
 /** A cut-off must drop from at least this many band widths to inside the band. */
@@ -78,26 +128,123 @@ function endOfInitialRun(values: ArrayLike<number>, band: (lag: number) => numbe
   return last;
 }
 
+/** Lag-1 persistence at or above which a series the ADF test cannot clear needs differencing. */
+const UNIT_ROOT_PHI = 0.95;
+
+/** Least-squares AR(1) coefficient of the mean-removed series (Σ x_t x_{t−1} / Σ x_{t−1}²). */
+function lagOneCoefficient(x: Float64Array): number {
+  let mean = 0;
+  for (let i = 0; i < x.length; i++) mean += x[i] / x.length;
+  let cross = 0;
+  let square = 0;
+  for (let i = 1; i < x.length; i++) {
+    cross += (x[i] - mean) * (x[i - 1] - mean);
+    square += (x[i - 1] - mean) ** 2;
+  }
+  return square > 0 ? cross / square : 0;
+}
+
+/** The correlogram's own reading (Box, Jenkins & Reinsel Table 6.1), used as the first look. */
+function correlogramVerdict(acf: Float64Array, pacf: Float64Array, p: number, q: number, acfCuts: boolean, pacfCuts: boolean): { verdict: ProcessVerdict; p?: number; q?: number } {
+  if (p === 0 && q === 0) return { verdict: 'white-noise' };
+  if (pacfCuts && acfCuts) {
+    // Both look abrupt: the lower order wins (parsimony); on a tie, the sharper drop (next value
+    // relative to the last significant one).
+    if (p !== q) return p < q ? { verdict: 'ar', p } : { verdict: 'ma', q };
+    const dropPacf = Math.abs(pacf[p] ?? 0) / Math.abs(pacf[p - 1]);
+    const dropAcf = Math.abs(acf[q + 1] ?? 0) / Math.abs(acf[q]);
+    return dropPacf <= dropAcf ? { verdict: 'ar', p } : { verdict: 'ma', q };
+  }
+  if (pacfCuts) return { verdict: 'ar', p };
+  if (acfCuts) return { verdict: 'ma', q };
+  return { verdict: 'arma', p: 1, q: 1 };
+}
+
+/** The class a fitted (p, q) belongs to. */
+function verdictOfOrders(p: number, q: number): ProcessVerdict {
+  return p === 0 ? (q === 0 ? 'white-noise' : 'ma') : q === 0 ? 'ar' : 'arma';
+}
+
+/**
+ * Fits every ARMA(p, q) candidate to the most recent `fitCells` values of `series`
+ * (`selectArma`, exact likelihood, AICc) and takes the admissible candidate with the lowest BIC
+ * for the verdict. BIC is a consistent order estimator for ARMA processes while AIC and AICc
+ * over-fit with positive probability however long the series (Schwarz 1978, Ann. Statist.
+ * 6:461–464; Hannan 1980, Ann. Statist. 8:1071–1081; Shibata 1976, Biometrika 63:117–126): the
+ * verdict names an order, so the consistent criterion decides it; the AICc choice is kept beside it.
+ */
+function fitModel(series: Float64Array, fittedOn: 'series' | 'remainder', options: IdentifyProcessOptions): ProcessModelFit {
+  const cells = Math.min(series.length, options.fitCells ?? 2000);
+  const start = series.length - cells;
+  const window = series.subarray(start);
+  const selection = selectArma(window, { maxP: options.maxP ?? 3, maxQ: options.maxQ ?? 3 });
+  const bic = (c: { p: number; q: number; logLik: number }) => -2 * c.logLik + (c.p + c.q + 2) * Math.log(cells);
+  const candidates = selection.candidates.map((c) => ({ p: c.p, q: c.q, aicc: c.aicc, bic: bic(c), logLik: c.logLik, converged: c.converged, admissible: c.admissible }));
+  const byBic = candidates.filter((c) => c.admissible).sort((a, b) => a.bic - b.bic)[0];
+  let model = selection.model;
+  let residualTest = selection.residualTest;
+  let criterionNote: string | null = null;
+  if (byBic && (byBic.p !== selection.p || byBic.q !== selection.q)) {
+    model = fitArma(window, { p: byBic.p, q: byBic.q });
+    const lag = Math.max(selection.residualTest.lag, byBic.p + byBic.q + 1);
+    residualTest = { lag, ...ljungBox(model.residuals, { lag, fitdf: byBic.p + byBic.q }) };
+    criterionNote = `The lowest AICc was ARMA(${selection.p},${selection.q}); the verdict follows the lowest BIC, ARMA(${byBic.p},${byBic.q}), the criterion that finds the true order as the series grows.`;
+  }
+  const p = model.ar.length;
+  const q = model.ma.length;
+  return {
+    fittedOn,
+    start,
+    cells,
+    p,
+    q,
+    ar: model.ar,
+    ma: model.ma,
+    mean: model.mean,
+    standardErrors: model.standardErrors,
+    sigma2: model.sigma2,
+    logLik: model.logLik,
+    aicc: model.aicc,
+    bic: bic({ p, q, logLik: model.logLik }),
+    converged: model.converged,
+    candidates,
+    lowestAicc: { p: selection.p, q: selection.q },
+    residualTest: { lag: residualTest.lag, statistic: residualTest.statistic, df: residualTest.df, pValue: residualTest.pValue },
+    readingsPerIndependent: readingsPerIndependent(model.ar, model.ma),
+    criterionNote,
+  };
+}
+
+/** The series less its seasonal component (periodic STL of the series when none is handed in). */
+function seasonallyAdjusted(x: Float64Array, period: number, seasonal: Float64Array | undefined): Float64Array {
+  const component = seasonal && seasonal.length === x.length ? seasonal : stl(x, { period, seasonalWindow: 'periodic' }).seasonal;
+  const out = new Float64Array(x.length);
+  for (let i = 0; i < x.length; i++) out[i] = x[i] - component[i];
+  return out;
+}
+
 /**
  * Suggests which simple process describes a channel — white noise, AR(p), MA(q), ARMA, a series
- * that must be differenced first, or a seasonal one — with the evidence behind the suggestion and
- * an explanation in plain language.
+ * that must be differenced first, or a seasonal one — with the fitted model it rests on, the
+ * evidence behind it and an explanation in plain language.
  *
- * Follows the Box–Jenkins identification rules (Box, Jenkins & Reinsel, *Time Series Analysis*,
- * 4th ed., §6.2, Table 6.1; Brockwell & Davis, *Introduction to Time Series and Forecasting*,
- * 2nd ed., §5.1 and §6.1): a unit root (augmented Dickey–Fuller, Said & Dickey 1984) means
- * difference first; a confirmed cycle (see `detectPeriod`) means seasonal; otherwise the PACF
- * cutting off after lag p marks AR(p), the ACF cutting off after lag q marks MA(q), both fading
- * marks ARMA. ACF lags are judged against Bartlett's (1946) MA bands and PACF lags against
- * ±z/√n (Quenouille 1949); for the cut-off the band uses z at α/(2·maxLag) so that a stray lag
- * among many does not pass for structure, the cut-off lag is the end of the initial run of
- * significant lags (one quiet lag allowed inside it), and a function "cuts off" when that last
- * lag stands at least twice the band high (our rules for "abrupt"). When both cut off, the one
- * of lower order wins, and on equal orders the one whose next value falls furthest relative to
- * the last significant one. The Ljung–Box
- * test (Ljung & Box 1978) is reported alongside.
+ * Box–Jenkins in two steps (Box, Jenkins, Reinsel & Ljung, *Time Series Analysis*, 5th ed.,
+ * §6.2 and ch. 7; Brockwell & Davis, *Introduction to Time Series and Forecasting*, 3rd ed.,
+ * §5.1 and §5.5):
+ * 1. the first look: a unit root (augmented Dickey–Fuller, Said & Dickey 1984) means difference
+ *    first; a confirmed cycle (`detectPeriod`) means seasonal; the correlogram patterns (PACF
+ *    cutting off → AR, ACF cutting off → MA, both fading → ARMA; Table 6.1) are kept as
+ *    `evidence.correlogram`. ACF lags are judged against Bartlett's MA bands, PACF lags against
+ *    ±z/√n, with z at α/(2·maxLag) for the cut-off so a stray lag among many does not count;
+ * 2. the model: every ARMA(p, q) with p ≤ maxP, q ≤ maxQ is fitted by exact maximum likelihood
+ *    (`selectArma`) to the most recent `fitCells` values — to the series less its seasonal
+ *    component when it has a period — and the admissible model with the lowest BIC gives
+ *    the verdict (white noise, AR, MA or ARMA with its orders; a seasonal series keeps the
+ *    verdict 'seasonal' and carries the remainder's model). The correlogram verdict stands in
+ *    only when no model can be fitted (`modelNote` says why).
  *
- * Cost: O(n log n + n · maxLag) time.
+ * Cost: O(n log n + n · maxLag) for the first look, plus (maxP + 1)(maxQ + 1) likelihood
+ * optimisations of O(fitCells · (p + q)²) each.
  */
 export function identifyProcess(x: Series, options: IdentifyProcessOptions = {}): ProcessIdentification {
   const fn = 'identifyProcess';
@@ -115,6 +262,7 @@ export function identifyProcess(x: Series, options: IdentifyProcessOptions = {})
     Math.floor(n / 4),
   );
   const maxOrder = integerOption(fn, 'maxOrder', options.maxOrder ?? 5, 1, maxLag - 1);
+  integerOption(fn, 'fitCells', options.fitCells ?? 2000, 30, Number.MAX_SAFE_INTEGER);
   const alpha = options.alpha ?? 0.05;
   if (!(alpha > 0 && alpha < 1)) throw new AnalysisInputError(`${fn}: alpha must be between 0 and 1 (got ${alpha})`);
 
@@ -147,6 +295,7 @@ export function identifyProcess(x: Series, options: IdentifyProcessOptions = {})
   const acfCuts = cutsOff(acfFromLag1, q, q ? strict[q - 1] : 0);
   const pacfCuts = cutsOff(pacf, p, whiteStrict);
   const pattern = (lag: number, cuts: boolean): CorrelogramPattern => (lag === 0 ? 'none' : cuts ? 'cuts-off' : 'tails-off');
+  const firstLook = correlogramVerdict(acf, pacf, p, q, acfCuts, pacfCuts);
 
   const evidence: ProcessEvidence = {
     n,
@@ -162,26 +311,43 @@ export function identifyProcess(x: Series, options: IdentifyProcessOptions = {})
     ljungBox: ljung,
     unitRoot,
     period,
+    correlogram: firstLook,
   };
-  const finish = (verdict: ProcessVerdict, extra: { p?: number; q?: number; period?: number } = {}) => ({
+  const finish = (verdict: ProcessVerdict, extra: { p?: number; q?: number; period?: number }, model: ProcessModelFit | null, modelNote: string | null): ProcessIdentification => ({
     verdict,
     ...extra,
-    explanation: explainVerdict({ verdict, ...extra, ljungBoxP: ljung.pValue, lag1: acf[1] }),
+    explanation: explainVerdict({ verdict, ...extra, ljungBoxP: ljung.pValue, lag1: acf[1], model }),
     evidence,
+    model,
+    modelNote,
   });
 
-  if (unitRoot && !unitRoot.rejectsUnitRoot) return finish('needs-differencing');
-  if (period !== null) return finish('seasonal', { period });
-  if (p === 0 && q === 0) return finish('white-noise');
-  if (pacfCuts && acfCuts) {
-    // Both look abrupt: the lower order wins (parsimony); on a tie, the sharper drop (next value
-    // relative to the last significant one).
-    if (p !== q) return p < q ? finish('ar', { p }) : finish('ma', { q });
-    const dropPacf = Math.abs(pacf[p] ?? 0) / Math.abs(pacf[p - 1]);
-    const dropAcf = Math.abs(acf[q + 1] ?? 0) / Math.abs(acf[q]);
-    return dropPacf <= dropAcf ? finish('ar', { p }) : finish('ma', { q });
+  // The ADF test has little power against persistence just below a unit root in short series
+  // (DeJong, Nankervis, Savin & Whiteman 1992, J. Econometrics 53:323–343): a series it cannot
+  // clear is called non-stationary only when its fitted AR(1) coefficient is also 0.95 or more
+  // (our rule); below that, the stationary model is fitted and the explanation says so.
+  let unitRootDoubt = false;
+  if (unitRoot && !unitRoot.rejectsUnitRoot) {
+    const phi = present.length === x.length ? lagOneCoefficient(present) : 1;
+    if (phi >= UNIT_ROOT_PHI) return finish('needs-differencing', {}, null, 'No model is fitted to a series that still needs differencing.');
+    unitRootDoubt = true;
   }
-  if (pacfCuts) return finish('ar', { p });
-  if (acfCuts) return finish('ma', { q });
-  return finish('arma', { p: 1, q: 1 });
+  if (present.length !== x.length) {
+    const note = 'The series has gaps; fill them (the channel diagnostics interpolate) to fit a model.';
+    return period !== null ? finish('seasonal', { period }, null, note) : finish(firstLook.verdict, { p: firstLook.p, q: firstLook.q }, null, note);
+  }
+  let model: ProcessModelFit;
+  try {
+    model = period !== null ? fitModel(seasonallyAdjusted(present, period, options.seasonal), 'remainder', options) : fitModel(present, 'series', options);
+  } catch (err) {
+    if (!(err instanceof AnalysisInputError)) throw err;
+    const note = `No model could be fitted: ${err.message}`;
+    return period !== null ? finish('seasonal', { period }, null, note) : finish(firstLook.verdict, { p: firstLook.p, q: firstLook.q }, null, note);
+  }
+  const orders = { ...(model.p > 0 ? { p: model.p } : {}), ...(model.q > 0 ? { q: model.q } : {}) };
+  const doubt = unitRootDoubt
+    ? `The unit-root test could not rule out a wandering level at this length (ADF statistic ${unitRoot!.statistic.toFixed(2)} above the 5 % critical value ${unitRoot!.criticalValues["5%"].toFixed(2)}), but the fitted persistence stays below 0.95, so a stationary model is used.`
+    : null;
+  if (period !== null) return finish('seasonal', { period, ...orders }, model, doubt);
+  return finish(verdictOfOrders(model.p, model.q), orders, model, doubt);
 }

@@ -60,8 +60,11 @@ export {
   type ProcessIdentification,
   type ProcessEvidence,
   type ProcessVerdict,
+  type ProcessModelFit,
 } from './identify-process.ts';
+export { describeModel } from './identify-process-explanation.ts';
 export { readingsPerIndependent } from './readings-per-independent.ts';
+export { rangeComparison, type RangeComparisonOptions } from './range-comparison.ts';
 export { andrewsBartlettLag } from './andrews-bartlett-lag.ts';
 export { durbinLevinson, type DurbinLevinsonResult } from './durbin-levinson.ts';
 export { decomposeClassical } from './decompose-classical.ts';

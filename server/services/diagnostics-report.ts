@@ -1,4 +1,4 @@
-import { thinForDrawing, type ChannelDiagnostics } from '../analysis/index.ts';
+import { describeModel, thinForDrawing, type ChannelDiagnostics } from '../analysis/index.ts';
 import type { ChannelWithState } from '../db/channel-state.repo.ts';
 
 /** The diagnostics parameters as the request chose them, defaults filled in. */
@@ -39,6 +39,10 @@ const REFERENCES = [
   'Said & Dickey (1984), Biometrika 71:599–607 — augmented Dickey–Fuller test in the identification',
   'Rousseeuw & Croux (1993), JASA 88:1273–1283 — 1.4826 · MAD as a robust SD for the outlier rule',
   'Jugel, Jerzak, Hackenbroich & Markl (2014), Proc. VLDB Endowment 7:797–808 — min/max per bucket when a long decomposition is thinned for drawing',
+  'Gardner, Harvey & Phillips (1980), Applied Statistics 29:311–322 — exact ARMA likelihood by the Kalman filter',
+  'Hurvich & Tsai (1989), Biometrika 76:297–307 — AICc; Burnham & Anderson (2002), Model Selection and Multimodel Inference, 2nd ed., §2.6 — models within 2 AICc',
+  'Haugh (1976), JASA 71:378–385, and Box, Jenkins, Reinsel & Ljung (2015) §12.2 — prewhitened cross-correlation; Šidák (1967), JASA 62:626–633 — simultaneous band',
+  'Newey & West (1987), Econometrica 55:703–708 — HAC standard error of the trend; Andrews (1991), Econometrica 59:817–858 — its data-driven lag',
 ];
 
 type Plain<T> = T extends Float64Array | Int32Array ? number[] : T extends object ? { [K in keyof T]: Plain<T[K]> } : T;
@@ -84,7 +88,8 @@ function emptyCellsOf(values: Float64Array): number[] {
   return out;
 }
 
-const channelSummary = (c: ChannelWithState) => ({
+/** What a report says about a channel: ids, names, unit and its logger. */
+export const channelSummary = (c: ChannelWithState) => ({
   id: c.id,
   key: c.key,
   label: c.label,
@@ -92,6 +97,110 @@ const channelSummary = (c: ChannelWithState) => ({
   quantity: c.quantity,
   logger: { id: c.logger.id, name: c.logger.name, site: c.logger.site, timezone: c.logger.timezone },
 });
+
+/** A step count as time: "5 min", "1 h", "1 d". */
+function durationOf(ms: number): string {
+  for (const [size, unit] of [[86_400_000, 'd'], [3_600_000, 'h'], [60_000, 'min'], [1000, 's']] as const) {
+    if (ms >= size && ms % size === 0) return `${ms / size} ${unit}`;
+  }
+  return ms >= 60_000 ? `${(ms / 60_000).toFixed(1)} min` : `${ms / 1000} s`;
+}
+
+/** A number with `digits` significant digits, without exponent for everyday sizes. */
+function sig(x: number, digits = 3): string {
+  if (!Number.isFinite(x)) return String(x);
+  if (x === 0) return '0';
+  const magnitude = Math.floor(Math.log10(Math.abs(x)));
+  const decimals = Math.max(0, digits - 1 - magnitude);
+  return decimals > 12 ? x.toExponential(digits - 1) : x.toFixed(decimals);
+}
+
+type ModelFit = NonNullable<ChannelDiagnostics['identification']['model']>;
+
+/** The process model section: the chosen ARMA model, its candidates, residual test and a plain sentence. */
+function processModelSection(r: ChannelDiagnostics, stepMs: number, label: string) {
+  const m = r.identification.model;
+  if (!m) return { available: false as const, reason: r.identification.modelNote ?? 'No model was fitted.' };
+  const offset = r.grid.n - r.analysed.n;
+  const fittedFrom = r.grid.start + (offset + m.start) * stepMs;
+  const step = durationOf(stepMs);
+  const ratio = m.readingsPerIndependent;
+  const information = ratio < 1.5 ? 'nearly every reading is independent information' : `about 1 in ${ratio < 10 ? ratio.toFixed(1) : Math.round(ratio).toLocaleString('en')} readings is independent information`;
+  const what = m.fittedOn === 'remainder' ? `Once its ${durationOf((r.period.used ?? 0) * stepMs)} cycle is removed, ${label}` : label;
+  let behaviour: string;
+  if (m.p === 0 && m.q === 0) behaviour = `${what} behaves like independent noise from one ${step} step to the next`;
+  else if (m.q === 0 && m.p === 1) behaviour = `${what} carries over from one ${step} step to the next with φ = ${m.ar[0].toFixed(2)}`;
+  else if (m.p === 0) behaviour = `in ${label} a disturbance echoes for ${m.q} step${m.q === 1 ? '' : 's'} of ${step} and is then forgotten`;
+  else behaviour = `${what} follows ${describeModel(m)} on its ${step} steps`;
+  const sentence = `${behaviour.charAt(0).toUpperCase()}${behaviour.slice(1)}; ${information} about the mean.`;
+  return {
+    available: true as const,
+    fittedOn: m.fittedOn,
+    period: m.fittedOn === 'remainder' ? r.period.used : null,
+    cells: m.cells,
+    fittedFrom,
+    fittedTo: fittedFrom + m.cells * stepMs,
+    candidates: m.candidates,
+    chosen: {
+      p: m.p,
+      q: m.q,
+      ar: m.ar,
+      ma: m.ma,
+      mean: m.mean,
+      standardErrors: m.standardErrors,
+      sigma2: m.sigma2,
+      logLik: m.logLik,
+      aicc: m.aicc,
+      bic: m.bic,
+      converged: m.converged,
+    },
+    residualTest: m.residualTest,
+    readingsPerIndependent: ratio,
+    lowestAicc: m.lowestAicc,
+    criterionNote: m.criterionNote,
+    note: r.identification.modelNote,
+    sentence,
+  };
+}
+
+/** The trend section: slope per day and per year with the Newey–West and naive intervals, and a sentence. */
+function trendSection(r: ChannelDiagnostics, stepMs: number, label: string, unit: string | null) {
+  const t = r.trend;
+  if (!t.available) return t;
+  const scale = (factor: number) => ({
+    slope: t.slope * factor,
+    hacStandardError: t.standardErrorHac * factor,
+    olsStandardError: t.standardErrorOls * factor,
+    hacInterval: [t.interval[0] * factor, t.interval[1] * factor] as [number, number],
+    olsInterval: [t.intervalOls[0] * factor, t.intervalOls[1] * factor] as [number, number],
+  });
+  const perDay = scale(86_400_000 / stepMs);
+  const perYear = scale((365.25 * 86_400_000) / stepMs);
+  const u = unit ? ` ${unit}` : '';
+  const level = `${Math.round((1 - r.bands.alpha) * 100)} %`;
+  const [lo, hi] = perDay.hacInterval;
+  const verdict = lo > 0 || hi < 0 ? `a drift ${perDay.slope > 0 ? 'upwards' : 'downwards'} that noise alone does not explain` : 'no drift distinguishable from the channel’s own slow wandering';
+  const widening = perDay.olsInterval[1] > perDay.olsInterval[0] ? (hi - lo) / (perDay.olsInterval[1] - perDay.olsInterval[0]) : NaN;
+  const naive =
+    Number.isFinite(widening) && widening > 1.2
+      ? ` Assuming independent readings would give ${sig(perDay.olsInterval[0])} to ${sig(perDay.olsInterval[1])}${u} per day, an interval ${widening.toFixed(1)} times too narrow.`
+      : '';
+  const adjusted = t.fittedOn === 'adjusted' ? ' (after removing the seasonal cycle)' : '';
+  return {
+    available: true as const,
+    fittedOn: t.fittedOn,
+    unit,
+    n: t.n,
+    lag: t.lag,
+    perDay,
+    perYear,
+    pValueHac: t.pValueHac,
+    alpha: r.bands.alpha,
+    sentence:
+      `Allowing for autocorrelation, ${label}${adjusted} changes by ${sig(perDay.slope)}${u} per day ` +
+      `(${level} interval ${sig(lo)} to ${sig(hi)}${u} per day; least squares with a Newey–West standard error, lag ${t.lag}): ${verdict}.${naive}`,
+  };
+}
 
 /**
  * The JSON report of one diagnostics run: what was computed, from what, and how — every number
@@ -160,7 +269,9 @@ export function diagnosticsReport(input: {
     pacf: { lags: Array.from({ length: r.pacf.length }, (_, k) => k + 1), values: plain(r.pacf) },
     bands: { alpha: r.bands.alpha, z: r.bands.z, whiteNoise: r.bands.whiteNoise, bartlett: plain(r.bands.bartlett) },
     ljungBox: r.ljungBox,
-    identification: plain(r.identification),
+    identification: { ...plain(r.identification), fittedOn: r.identification.model?.fittedOn ?? null },
+    processModel: processModelSection(r, stepMs, input.channel.label),
+    trend: trendSection(r, stepMs, input.channel.label, input.channel.unit),
     effectiveSampleSize: plain(r.effectiveSampleSize),
     decomposition:
       dec.method === 'none'

@@ -3,13 +3,14 @@ import { inLab } from '../db/tenant-scope.ts';
 import { channelReadingsIn, type ReadingColumns } from '../db/channel-readings.repo.ts';
 import type { ChannelWithState } from '../db/channel-state.repo.ts';
 import { ROLLUP_RESOLUTIONS_S } from '../db/readings.repo.ts';
-import { AnalysisInputError, channelDiagnostics, type ChannelDiagnostics, type ChannelDiagnosticsOptions, type ChannelReadings } from '../analysis/index.ts';
+import { AnalysisInputError, channelDiagnostics, rangeComparison, type ChannelDiagnostics, type ChannelDiagnosticsOptions, type ChannelReadings, type CompareMeansResult, type RangeComparisonOptions } from '../analysis/index.ts';
 import type { AnalysisPool } from '../workers/analysis-pool.ts';
 import { AppError, ValidationError } from '../errors.ts';
 import type { ChannelsService } from './channels.service.ts';
 import type { LabContext } from './lab-context.ts';
 import { createResultCache, type ResultCacheOptions } from './result-cache.ts';
 import { diagnosticsReport, type DecompositionResolution, type DiagnosticsParams, type GridSource } from './diagnostics-report.ts';
+import { rangeComparisonReport, type RangeComparisonParams } from './range-comparison-report.ts';
 
 /** The engine refused the data or a parameter for it (too few readings, a period too long …). */
 export class AnalysisRefusedError extends AppError {
@@ -79,7 +80,47 @@ export function createDiagnosticsService(deps: { db: Db; channels: ChannelsServi
     }
   }
 
+  async function compare(a: ChannelReadings, b: ChannelReadings, options: RangeComparisonOptions, signal?: AbortSignal): Promise<CompareMeansResult> {
+    try {
+      if (deps.pool) return await deps.pool.run({ fn: 'rangeComparison', args: [a, b, options] }, { signal });
+      return rangeComparison(a, b, options);
+    } catch (err) {
+      if (err instanceof AnalysisInputError) throw new AnalysisRefusedError(err.message);
+      throw err;
+    }
+  }
+
+  /** A range aligned outward to whole steps, refused when it holds more cells than one run may. */
+  function alignedRange(from: number, to: number, stepMs: number, field: string): { from: number; to: number } {
+    const range = { from: Math.floor(from / stepMs) * stepMs, to: Math.ceil(to / stepMs) * stepMs };
+    const cells = (range.to - range.from) / stepMs;
+    if (cells > MAX_DIAGNOSTICS_CELLS) {
+      throw new ValidationError(`${field}: the range holds ${cells} steps of ${stepMs / 1000} s; at most ${MAX_DIAGNOSTICS_CELLS} (choose a longer step or a shorter range)`);
+    }
+    return range;
+  }
+
   return {
+    /**
+     * Before/after comparison: the mean of range b (of `otherChannel`, or this channel) against
+     * the mean of range a of this channel, with the interval from each range's effective sample
+     * size beside the naive Welch one, on the diagnostics grid (step and aggregate as there).
+     */
+    async comparison(lab: LabContext, channelId: number, params: RangeComparisonParams, signal?: AbortSignal) {
+      const channel = await deps.channels.requireChannel(lab, channelId);
+      const other = params.otherChannel === undefined ? null : await deps.channels.requireChannel(lab, params.otherChannel);
+      const stepS = params.step ?? channel.expectedIntervalS ?? channel.logger.expectedIntervalS;
+      const stepMs = stepS * 1000;
+      const rangeA = alignedRange(params.aFrom, params.aTo, stepMs, 'aTo');
+      const rangeB = alignedRange(params.bFrom, params.bTo, stepMs, 'bTo');
+      const [a, b] = await Promise.all([load(lab, channel, rangeA, stepMs, params.agg), load(lab, other ?? channel, rangeB, stepMs, params.agg)]);
+      if (a.data.ts.length === 0) throw new AnalysisRefusedError(`aFrom: ${channel.label} has no readings in range a.`);
+      if (b.data.ts.length === 0) throw new AnalysisRefusedError(`bFrom: ${(other ?? channel).label} has no readings in range b.`);
+      const asReadings = (d: ReadingColumns): ChannelReadings => ({ timestamps: d.ts, values: d.values });
+      const result = await compare(asReadings(a.data), asReadings(b.data), { step: stepMs, agg: params.agg, alpha: params.alpha }, signal);
+      return rangeComparisonReport({ channel, other, params, stepS, rangeA, rangeB, result });
+    },
+
     /**
      * The diagnostics report of one channel as UTF-8 JSON, and whether it came from the cache
      * (kept encoded, so a cache hit costs no serialising or re-encoding).

@@ -7,6 +7,7 @@ import {
   ccf,
   channelDiagnostics,
   detectPeriod,
+  rangeComparison,
   difference,
   effectiveSampleSize,
   identifyProcess,
@@ -36,6 +37,7 @@ export const analysisFunctions = {
   adf,
   identifyProcess,
   channelDiagnostics,
+  rangeComparison,
 };
 
 export type AnalysisFunctions = typeof analysisFunctions;

@@ -56,6 +56,8 @@ const ALLOWED: Record<string, { roles: Role[]; ok: number }> = {
   // The fixture's channel has no readings: a permitted caller passes the guard and gets the
   // engine's refusal (422), the others their 401/403/404.
   'GET /channels/:channelId/diagnostics': { roles: ALL, ok: 422 },
+  // Without its ranges a permitted caller passes the guard and gets the validation refusal (400).
+  'GET /channels/:channelId/comparison': { roles: ALL, ok: 400 },
   'GET /channels/:channelId/readings.csv': { roles: ['admin', 'technician', 'scientist'], ok: 200 },
   'GET /channels/:channelId/diagnostics.csv': { roles: ['admin', 'technician', 'scientist'], ok: 422 },
   'GET /tokens': { roles: ['admin', 'technician', 'scientist'], ok: 200 },

@@ -2,7 +2,7 @@ import type { Response } from 'express';
 import { callerIdOf, labOf } from '../middleware/lab-guard.ts';
 import { parseInput } from '../validate.ts';
 import { csvLine } from '../csv-field.ts';
-import { channelParams, diagnosticsQuery, readingsExportQuery, seriesQuery } from './channels.schema.ts';
+import { channelParams, comparisonQuery, diagnosticsQuery, readingsExportQuery, seriesQuery } from './channels.schema.ts';
 import { presentChannelDetail, presentChannelOverview } from './channels.presenter.ts';
 import { diagnosticsCsvLines } from './diagnostics-csv.ts';
 import type { ChannelsService } from '../../services/channels.service.ts';
@@ -25,6 +25,11 @@ function signalOnDisconnect(res: Response): AbortSignal {
   });
   return controller.signal;
 }
+
+/** The refusal the per-person diagnostics cap gives, for the API document. */
+const DIAGNOSTICS_BUSY = {
+  '429': '`diagnostics_busy`: you already have as many diagnostics runs in flight as one person may (LAGBOOK_DIAGNOSTICS_RUNS_PER_PERSON, default 2, per app process); the message names them and Retry-After says when to try again.',
+};
 
 /** Headers of a CSV download named `<name>.csv` (characters outside [A-Za-z0-9_.-] become "-"). */
 function csvDownload(res: Response, name: string): void {
@@ -102,6 +107,7 @@ export function channelRoutes(deps: { channels: ChannelsService; diagnostics: Di
       summary:
         `ACF, PACF, Ljung–Box, process identification, STL, effective sample size and cross-correlation for a channel. A decomposition longer than ${MAX_DRAWN_CELLS.toLocaleString('en')} cells comes thinned for drawing (\`decomposition.cells\` lists the cells kept, \`decomposition.thinned\` says how); diagnostics.csv holds every cell.`,
       query: diagnosticsQuery(now),
+      responses: DIAGNOSTICS_BUSY,
       handle: async (req, res) => {
         const outcome = await runDiagnostics(req, res);
         if (!outcome) return;
@@ -112,6 +118,32 @@ export function channelRoutes(deps: { channels: ChannelsService; diagnostics: Di
         res.set('Content-Length', String(head.length + outcome.json.length - 1));
         res.write(head);
         res.end(outcome.json.subarray(1));
+      },
+    },
+    {
+      method: 'get',
+      path: '/channels/:channelId/comparison',
+      permission: 'diagnostics.read',
+      summary:
+        'Before/after comparison of means: range a of this channel against range b of `otherChannel` (this channel when left out), mean(b) − mean(a) with an interval from each range’s effective sample size beside the naive Welch interval.',
+      query: comparisonQuery,
+      responses: DIAGNOSTICS_BUSY,
+      handle: async (req, res) => {
+        const { channelId } = parseInput(channelParams, req.params);
+        const q = parseInput(comparisonQuery, req.query);
+        const lab = labOf(res);
+        const a = await withinPlanHistory(deps.historyWindow, lab, { from: q.aFrom, to: q.aTo }, res);
+        const b = await withinPlanHistory(deps.historyWindow, lab, { from: q.bFrom, to: q.bTo }, res);
+        const leave = deps.diagnosticsRuns?.enter(callerIdOf(res), `a comparison on channel '${(await channels.requireChannel(lab, channelId)).label}'`);
+        const signal = signalOnDisconnect(res);
+        try {
+          res.json(await diagnostics.comparison(lab, channelId, { ...q, aFrom: a.from, aTo: a.to, bFrom: b.from, bTo: b.to }, signal));
+        } catch (err) {
+          if (signal.aborted) return;
+          throw err;
+        } finally {
+          leave?.();
+        }
       },
     },
     {
@@ -142,6 +174,7 @@ export function channelRoutes(deps: { channels: ChannelsService; diagnostics: Di
       permission: 'exports.create',
       summary: "A channel's correlogram, cross-correlation, Ljung–Box and full-resolution decomposition tables as CSV.",
       query: diagnosticsQuery(now),
+      responses: DIAGNOSTICS_BUSY,
       handle: async (req, res) => {
         const outcome = await runDiagnostics(req, res, 'full');
         if (!outcome) return;

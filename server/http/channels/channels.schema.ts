@@ -95,3 +95,34 @@ export const diagnosticsQuery = (now: () => number = Date.now) =>
     .transform((q, ctx) => resolveRange(q, ctx, now));
 
 export type DiagnosticsQuery = z.infer<ReturnType<typeof diagnosticsQuery>>;
+
+/** A time that must be given. */
+const requiredTime = z.string({ error: 'is required: epoch milliseconds or an ISO 8601 time with a zone' }).pipe(timeParam);
+
+/** Checks one comparison range: start before end, at most 20 years. */
+function checkRange(from: number, to: number, path: string, ctx: z.RefinementCtx): void {
+  if (!(from < to)) ctx.addIssue({ code: 'custom', path: [path], message: 'must be after the start of its range' });
+  else if (to - from > MAX_RANGE_MS) ctx.addIssue({ code: 'custom', path: [path], message: 'the range must be at most 20 years' });
+}
+
+/**
+ * `GET …/channels/:channelId/comparison?aFrom&aTo&bFrom&bTo…`: range a of this channel against
+ * range b of `otherChannel` (this channel when left out).
+ */
+export const comparisonQuery = z
+  .object({
+    aFrom: requiredTime,
+    aTo: requiredTime,
+    bFrom: requiredTime,
+    bTo: requiredTime,
+    step: wholeNumber(1, 31 * 86_400).optional(),
+    agg: z.enum(['mean', 'median', 'last', 'min', 'max'], { error: 'must be mean, median, last, min or max' }).default('mean'),
+    otherChannel: wholeNumber(1, Number.MAX_SAFE_INTEGER).optional(),
+    alpha: z.coerce.number({ error: 'must be a number' }).gt(0, 'must be above 0').max(0.5, 'must be at most 0.5').default(0.05),
+  })
+  .superRefine((q, ctx) => {
+    checkRange(q.aFrom, q.aTo, 'aTo', ctx);
+    checkRange(q.bFrom, q.bTo, 'bTo', ctx);
+  });
+
+export type ComparisonQuery = z.infer<typeof comparisonQuery>;
