@@ -1,3 +1,4 @@
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { AnalysisInputError } from './analysis-input-error.ts';
 import { compareMeans } from './compare-means.ts';
@@ -67,6 +68,25 @@ describe('compareMeans', () => {
     expect(r.a).toEqual({ n: 30, mean: 4, sd: 0, tau: 1, nEff: 30 });
     expect(r.b.n).toBe(49);
     expect(r.effective.standardError).toBeCloseTo(r.b.sd / Math.sqrt(r.b.nEff), 13);
+  });
+
+  it('property: shifting range b by δ shifts the difference and both intervals by δ and leaves the standard errors alone', () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 10_000 }), fc.double({ min: -1e3, max: 1e3, noNaN: true }), (seed, delta) => {
+        const a = simulateArma({ ar: [0.7] }, 120, seed);
+        const b = simulateArma({ ar: [0.7] }, 90, seed + 1);
+        const r = compareMeans(a, b);
+        const s = compareMeans(a, b.map((v) => v + delta));
+        const tol = 1e-9 * (1 + Math.abs(delta));
+        expect(Math.abs(s.difference - r.difference - delta)).toBeLessThanOrEqual(tol);
+        for (const k of ['effective', 'welch'] as const) {
+          expect(Math.abs(s[k].standardError - r[k].standardError)).toBeLessThanOrEqual(1e-9 * r[k].standardError);
+          expect(Math.abs(s[k].interval[0] - r[k].interval[0] - delta)).toBeLessThanOrEqual(tol);
+          expect(Math.abs(s[k].interval[1] - r[k].interval[1] - delta)).toBeLessThanOrEqual(tol);
+        }
+      }),
+      { numRuns: 60 },
+    );
   });
 
   it('never mutates its inputs', () => {

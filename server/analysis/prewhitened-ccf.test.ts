@@ -1,3 +1,4 @@
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { AnalysisInputError } from './analysis-input-error.ts';
 import { arYuleWalker } from './ar-yule-walker.ts';
@@ -91,6 +92,29 @@ describe('prewhitenedCcf', () => {
     const r = prewhitenedCcf(gappy, input, { maxLag: 5 });
     expect(r.pairs).toBe(300 - r.ar.order - (r.ar.order + 1));
     expect(r.values.every((v) => Number.isFinite(v))).toBe(true);
+  });
+
+  it('property: positive affine changes of either series leave the values alone; negating the response negates them', () => {
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 1, max: 10_000 }),
+        fc.double({ min: 1e-2, max: 1e3, noNaN: true }),
+        fc.double({ min: -1e3, max: 1e3, noNaN: true }),
+        (seed, scale, shift) => {
+          const input = simulateArma({ ar: [0.6] }, 150, seed);
+          const response = delayedResponse(input, 2, seed + 1);
+          const r = prewhitenedCcf(response, input, { maxLag: 6 });
+          const s = prewhitenedCcf(response.map((v) => scale * v + shift), input.map((v) => v / scale - shift), { maxLag: 6 });
+          const flipped = prewhitenedCcf(response.map((v) => -v), input, { maxLag: 6 });
+          for (let i = 0; i < r.values.length; i++) {
+            expect(Math.abs(s.values[i] - r.values[i])).toBeLessThanOrEqual(1e-9);
+            expect(Math.abs(flipped.values[i] + r.values[i])).toBeLessThanOrEqual(1e-12);
+          }
+          expect(s.ar.order).toBe(r.ar.order);
+        },
+      ),
+      { numRuns: 60 },
+    );
   });
 
   it('never mutates its inputs', () => {

@@ -1,3 +1,4 @@
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { AnalysisInputError } from './analysis-input-error.ts';
 import { simulateArma } from './seeded-simulation.testkit.ts';
@@ -61,6 +62,30 @@ describe('trendTest', () => {
     }
     expect(hac / runs).toBeGreaterThan(0.8);
     expect(ols / runs).toBeLessThan(0.6);
+  });
+
+  it('property: x → k·x + c + β·t scales slope by k and adds β, intercept k·a + c, SEs scale by |k| (same residuals up to k)', () => {
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 1, max: 10_000 }),
+        fc.double({ min: -50, max: 50, noNaN: true }).filter((k) => Math.abs(k) > 1e-3),
+        fc.double({ min: -1e3, max: 1e3, noNaN: true }),
+        fc.double({ min: -5, max: 5, noNaN: true }),
+        fc.integer({ min: 0, max: 8 }),
+        (seed, k, c, beta, lag) => {
+          const x = simulateArma({ ar: [0.6] }, 80, seed);
+          const y = x.map((v, i) => k * v + c + beta * (i + 1));
+          const r = trendTest(x, { lag });
+          const s = trendTest(y, { lag });
+          const close = (a: number, b: number, scale: number) => expect(Math.abs(a - b)).toBeLessThanOrEqual(1e-9 * scale);
+          close(s.slope, k * r.slope + beta, Math.abs(k * r.slope) + Math.abs(beta) + Math.abs(k));
+          close(s.intercept, k * r.intercept + c, Math.abs(k * r.intercept) + Math.abs(c) + 80 * Math.abs(beta) + Math.abs(k));
+          close(s.standardErrorHac, Math.abs(k) * r.standardErrorHac, Math.abs(k) * r.standardErrorHac);
+          close(s.standardErrorOls, Math.abs(k) * r.standardErrorOls, Math.abs(k) * r.standardErrorOls);
+        },
+      ),
+      { numRuns: 100 },
+    );
   });
 
   it('never mutates its input', () => {
