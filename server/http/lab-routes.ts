@@ -17,6 +17,8 @@ export interface LabRoute {
   bodyMediaType?: string;
   /** The schema the handler validates its query string with. */
   query?: z.ZodType;
+  /** Answers beyond the usual ones, by status, for the API document (e.g. `'429': 'diagnostics_busy: …'`). */
+  responses?: Record<string, string>;
   /** A rate limit applied after the guard (so it can count per signed-in person). */
   limit?: RequestHandler;
   handle: (req: Request, res: Response) => Promise<void>;

@@ -108,6 +108,16 @@ describe('diagnostics runs in flight per person', () => {
     expect((await fourth).status).toBe(200);
   });
 
+  it('is documented: 429 with Retry-After on both diagnostics routes', async () => {
+    const doc = (await request(app).get('/api/v1/openapi.json').expect(200)).body;
+    for (const path of ['/api/v1/labs/{lab}/channels/{channelId}/diagnostics', '/api/v1/labs/{lab}/channels/{channelId}/diagnostics.csv']) {
+      const busy = doc.paths[path].get.responses['429'];
+      expect(busy.description).toMatch(/^`diagnostics_busy`: /);
+      expect(Object.keys(busy.headers)).toEqual(['Retry-After']);
+      expect(busy.content['application/json'].schema).toEqual({ $ref: '#/components/schemas/Error' });
+    }
+  });
+
   it('gives the slot back when a run is refused by the engine or the channel does not exist', async () => {
     const guest = await sessionCookieFor(t.db, t.config.sessionSecret, f.guest.id);
     // An empty range: the service refuses it (422) before the engine; twice, more than the cap allows at once.

@@ -59,6 +59,13 @@ describe('POST /api/v1/labs at an address another lab uses', () => {
     expect(await t.db('labs').where({ id: other.id }).first('name')).toEqual({ name: other.name });
   });
 
+  it('is documented: the 201 answer with requestedSlug and the 403 of the lab cap', async () => {
+    const op = (await request(t.app).get('/api/v1/openapi.json').expect(200)).body.paths['/api/v1/labs'].post;
+    expect(op.responses['201'].description).toContain('requestedSlug');
+    expect(op.responses['201'].description).toContain('never says whether another lab uses an address');
+    expect(op.responses['403'].description).toMatch(/^`lab_limit_reached`: /);
+  });
+
   it('takes the first free variant, also for an address derived from the name', async () => {
     const word = `ridge-${unique()}`;
     await buildLab(t.db, { slug: word });

@@ -41,6 +41,19 @@ function pathParameters(template: string): JsonObject[] {
 }
 
 const ref = (kind: 'responses' | 'schemas', name: string) => ({ $ref: `#/components/${kind}/${name}` });
+const errorBody = { content: { 'application/json': { schema: ref('schemas', 'Error') } } };
+
+/** A route's own answers (status → description): errors carry the error body, 429/503 a Retry-After header. */
+function routeResponses(responses: Record<string, string> = {}): JsonObject {
+  return Object.fromEntries(
+    Object.entries(responses).map(([status, description]) => [
+      status,
+      /^[45]/.test(status)
+        ? { description, ...errorBody, ...(status === '429' || status === '503' ? { headers: { 'Retry-After': { description: 'Seconds to wait before trying again.', schema: { type: 'integer' } } } } : {}) }
+        : { description },
+    ]),
+  );
+}
 
 /** The standard answers every operation may give, besides its success. */
 function errorResponses(auth: 'none' | 'signed-in'): JsonObject {
@@ -62,7 +75,7 @@ function labOperation(route: LabRouteSummary, template: string): JsonObject {
     'x-lagbook-permission': route.permission,
     security: tokenReadable ? [{ sessionCookie: [] }, { personalToken: [] }] : [{ sessionCookie: [] }],
     parameters: [...pathParameters(template), ...(route.query ? queryParameters(route.query) : [])],
-    responses: { '2XX': { description: 'Success.' }, ...errorResponses('signed-in') },
+    responses: { '2XX': { description: 'Success.' }, ...errorResponses('signed-in'), ...routeResponses(route.responses) },
   };
   if (route.body) {
     op.requestBody = { required: true, content: { [route.bodyMediaType ?? 'application/json']: { schema: inputJsonSchema(route.body) } } };
@@ -78,7 +91,7 @@ function publicOperation(route: PublicRoute, template: string): JsonObject {
     tags: [route.auth === 'ingest-key' ? 'ingest' : route.auth === 'none' ? 'service' : 'account'],
     security,
     parameters: pathParameters(template),
-    responses: { '2XX': { description: 'Success.' }, ...errorResponses(route.auth === 'none' ? 'none' : 'signed-in') },
+    responses: { '2XX': { description: 'Success.' }, ...errorResponses(route.auth === 'none' ? 'none' : 'signed-in'), ...routeResponses(route.responses) },
   };
   if (route.bodies) {
     const content = Object.fromEntries(Object.entries(route.bodies).map(([type, schema]) => [type, { schema: inputJsonSchema(schema) }]));
@@ -105,7 +118,6 @@ export function buildOpenApiDocument(labRoutes: LabRouteSummary[], opts: { serve
     const template = openApiPath(r.path);
     add(r.method, template, publicOperation(r, template));
   }
-  const errorBody = { content: { 'application/json': { schema: ref('schemas', 'Error') } } };
   return {
     openapi: '3.1.0',
     info: {
