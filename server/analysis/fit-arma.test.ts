@@ -59,6 +59,15 @@ describe('fitArma', () => {
     expect(gappy.bic - (-2 * gappy.logLik)).toBeCloseTo(3 * Math.log(298), 10);
   });
 
+  it('fits through every-other-value gaps, where the CSS start is undefined, from the zero start', () => {
+    // Observed at even steps only, an AR(1) identifies φ² (lag-2 correlation), so |φ̂| is checked.
+    const x = Array.from(simulateArma({ ar: [0.8] }, 400, 21), (v, i) => (i % 2 ? NaN : v));
+    const fit = fitArma(x, { p: 1, q: 0 });
+    expect(fit.converged).toBe(true);
+    expect(Math.abs(Math.abs(fit.ar[0]) - 0.8)).toBeLessThan(0.1);
+    expect(fit.aic).toBeCloseTo(-2 * fit.logLik + 6, 10);
+  });
+
   it('does not mutate its input', () => {
     const x = Object.freeze(Array.from(simulateArma({ ma: [0.4] }, 120, 3)));
     const copy = [...x];

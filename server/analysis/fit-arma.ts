@@ -70,7 +70,8 @@ function minimumLength(p: number, q: number): number {
  *   Alg. 6.1), the mean scaled by 10 × its naive standard error (R's `parscale`), run from two
  *   starts — the conditional-sum-of-squares estimates (`armaConditionalSumOfSquares`, R's
  *   "CSS-ML" start) and R's `method = "ML"` start (ARMA part zero, sample mean) — keeping the
- *   higher likelihood;
+ *   higher likelihood (without a usable CSS start: zeros and zeros with φ_1's partial
+ *   autocorrelation at 0.5);
  * - standard errors: the inverse of n × the numerical Hessian of the per-value objective in the
  *   optimiser's parameters (`numericalHessian`, as R's `optim(hessian = TRUE)`), carried to φ by
  *   the delta method with the Jacobian of the tanh/Durbin–Levinson map, as R (`ARIMA_Gradtrans`);
@@ -130,15 +131,19 @@ export function fitArma(x: Series, options: FitArmaOptions): FitArmaResult {
   // Starting values: conditional sum of squares in the untransformed parameters.
   const start = new Float64Array(k);
   if (includeMean) start[k - 1] = mean0;
-  if (p + q > 0) {
-    const css = armaConditionalSumOfSquares(y, p, q);
-    const cssObjective = (v: Float64Array): number => css(v.subarray(0, p), v.subarray(p, p + q), meanOf(v));
+  let cssStart = false;
+  const css = armaConditionalSumOfSquares(y, p, q);
+  const cssObjective = (v: Float64Array): number => css(v.subarray(0, p), v.subarray(p, p + q), meanOf(v));
+  // No CSS start when its criterion is undefined at zero (gaps leave no complete residual).
+  if (p + q > 0 && Number.isFinite(cssObjective(start))) {
     const cssFit = bfgsMinimize(cssObjective, start, { scale, relativeTolerance: 1e-8, maxIterations: 200 });
     const pacf = armaArToPacf(cssFit.x.subarray(0, p));
+    // A PACF beyond tanh(5) = 0.9999 would start ML on the edge of stationarity: use zeros then.
     if (pacf && pacf.every((u) => Math.abs(u) < 5)) {
       start.set(pacf, 0);
       start.set(armaInvertMa(cssFit.x.subarray(p, p + q)), p);
       if (includeMean) start[k - 1] = cssFit.x[k - 1];
+      cssStart = true;
     }
   }
 
@@ -158,14 +163,23 @@ export function fitArma(x: Series, options: FitArmaOptions): FitArmaResult {
     // Two starts: the CSS estimates and R's own `method = "ML"` start (ARMA part zero, sample
     // mean); the higher likelihood wins. With p + q ≥ 2 the likelihood surface often has
     // several local maxima, and either start alone misses the global one on some series.
+    // Without a CSS start (it failed, or gaps leave no complete residual), a second start has
+    // φ_1's partial autocorrelation at 0.5: where only φ² is identified (e.g. every other value
+    // missing) the likelihood is flat at φ = 0 and the zero start alone would stay there.
     const starts = [start];
     if (p + q > 0) {
       const zero = new Float64Array(k);
       if (includeMean) zero[k - 1] = mean0;
-      if (zero.some((v, i) => v !== start[i])) starts.push(zero);
+      if (cssStart) starts.push(zero);
+      else if (p > 0) {
+        const tilted = Float64Array.from(zero);
+        tilted[0] = Math.atanh(0.5);
+        starts.push(tilted);
+      }
     }
     let bestValue = Infinity;
     for (const from of starts) {
+      if (!Number.isFinite(objective(from))) continue; // a start with θ = 0 always is finite
       const fit = bfgsMinimize(objective, from, { scale });
       if (fit.value < bestValue) {
         bestValue = fit.value;
