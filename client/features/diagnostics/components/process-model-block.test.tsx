@@ -27,6 +27,15 @@ describe('process model and trend blocks', () => {
     expect(screen.getByTestId('process-model-fitted-on').textContent).toMatch(/^Fitted on the series: 2,016 cells of 1 min,.*Each reading counts as independent information\.$/);
   });
 
+  it('names the lowest-AICc candidate when the server chose another model', () => {
+    if (!PROCESS_MODEL.available) throw new Error('fixture');
+    const arma11 = { ...PROCESS_MODEL.chosen, p: 1, q: 1, ma: [0.05], standardErrors: { ar: [0.04], ma: [0.06], mean: 0.6 }, aicc: -1016.6 };
+    render(<ProcessModelBlock model={{ ...PROCESS_MODEL, chosen: arma11 }} stepS={300} alpha={0.05} unit="%" timezone="UTC" />);
+    const notes = screen.getAllByRole('row').filter((r) => r.closest('[data-testid="process-model-candidates"]')).map((r) => r.lastElementChild?.textContent);
+    expect(notes).toEqual(['Note', '', 'lowest AICc', 'chosen', 'did not converge']);
+    expect(screen.getByTestId('process-model-chosen').textContent).toBe('ARMA(1, 1)(1, 1)');
+  });
+
   it('names cycles in whole units where it can', () => {
     expect(cycleLength(288 * 300)).toBe('1-day');
     expect(cycleLength(12 * 3600)).toBe('12-hour');

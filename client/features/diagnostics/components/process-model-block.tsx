@@ -20,9 +20,9 @@ export function cycleLength(seconds: number): string {
 }
 
 /**
- * The ARMA model the server chose by AICc (Hurvich & Tsai 1989) for the series, or for the
- * remainder after its seasonal component: coefficients ± standard errors, what it was fitted on,
- * the table of candidates, Ljung–Box on the residuals (Ljung & Box 1978, df = lag − p − q) and
+ * The ARMA model the server chose for the series, or for the remainder after its seasonal
+ * component: coefficients ± standard errors, what it was fitted on, the table of candidates with
+ * their AICc (Hurvich & Tsai 1989; the lowest is named when the server chose another), Ljung–Box on the residuals (Ljung & Box 1978, df = lag − p − q) and
  * the server's sentence. When no model could be fitted, the server's reason.
  */
 export function ProcessModelBlock({ model, stepS, alpha, unit, timezone }: { model: ProcessModel; stepS: number; alpha: number; unit: string | null; timezone: string }) {
@@ -85,7 +85,7 @@ export function ProcessModelBlock({ model, stepS, alpha, unit, timezone }: { mod
           </tbody>
         </table>
         <table className="w-full border-collapse text-left text-sm" data-testid="process-model-candidates">
-          <caption className="mb-1 text-left text-sm font-semibold">Candidates by AICc (lowest chosen)</caption>
+          <caption className="mb-1 text-left text-sm font-semibold">Candidate models and their AICc (the chosen one marked)</caption>
           <thead className="border-b border-rule text-xs uppercase tracking-wide text-ink-soft">
             <tr>
               <th scope="col" className={TH}>Model</th>
@@ -104,7 +104,7 @@ export function ProcessModelBlock({ model, stepS, alpha, unit, timezone }: { mod
                   <td className={TH}>{fmtStat(c.aicc, 6)}</td>
                   <td className={TH}>{c.aicc === null || best === null ? '—' : fmtStat(c.aicc - best, 3)}</td>
                   <td className={TH}>{fmtStat(c.logLik, 6)}</td>
-                  <td className="py-1 font-sans">{[chosen ? 'chosen' : null, c.converged ? null : 'did not converge'].filter(Boolean).join(' · ')}</td>
+                  <td className="py-1 font-sans">{[chosen ? 'chosen' : null, !chosen && c.aicc !== null && c.aicc === best ? 'lowest AICc' : null, c.converged ? null : 'did not converge'].filter(Boolean).join(' · ')}</td>
                 </tr>
               );
             })}
