@@ -160,6 +160,22 @@ describe('hostile ingest bodies', () => {
     expect(summaryOf((await send()).text)).toMatchObject({ type: 'summary', accepted: 0, duplicates: 4000, quarantined: 1 });
   });
 
+  it('an upload of a million one-field lines stops at the first batch with too many unreadable rows; nothing is quarantined', async () => {
+    const before = await quarantined();
+    const options = encodeURIComponent(JSON.stringify({ format: 'long', timeColumn: 'ts', channelColumn: 'channel', valueColumn: 'value', timeFormat: 'auto' }));
+    const res = await request(t.app)
+      .post(`/api/v1/labs/${f.lab.slug}/loggers/${f.ids.loggerId}/uploads?options=${options}`)
+      .set('Cookie', cookie)
+      .set('Content-Type', 'text/csv')
+      .send(`channel,ts,value\n${'a\n'.repeat(1_000_000)}`)
+      .expect(200);
+    const last = JSON.parse(res.text.trim().split('\n').at(-1)!);
+    expect(last).toMatchObject({ type: 'error', code: 'too_many_quarantined' });
+    expect(last.message).toMatch(/^body: more than 1,000 rows of this batch cannot be read, so none was stored \(e\.g\. row 0: line 2: ts: missing;/);
+    expect(res.text.length).toBeLessThan(2000);
+    expect(await quarantined()).toBe(before);
+  });
+
   it('JSON nested 5,000 levels: 400 on ingest and on a session route', async () => {
     const deep = `${'['.repeat(5000)}${']'.repeat(5000)}`;
     const res = await ingest().set('Content-Type', 'application/json').send(`{"readings":[{"channel":"air_t","ts":${T},"value":${deep}}]}`).expect(400);

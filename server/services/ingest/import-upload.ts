@@ -1,7 +1,8 @@
-import { parse } from 'csv-parse';
 import type { Readable } from 'node:stream';
 import type { Db } from '../../db/create-db.ts';
 import { ValidationError } from '../../errors.ts';
+import { csvRecordChunks } from './csv-records.ts';
+import { MAX_QUARANTINED_PER_BATCH, TooManyQuarantinedError, type RefusedRow } from './readings-from-body.ts';
 import type { IngestHooks } from './ingest-hooks.ts';
 import { ingestBatch, type IncomingReading, type IngestTarget, type QuarantinedEntry } from './ingest-batch.ts';
 
@@ -38,7 +39,10 @@ export const UPLOAD_BATCH = 5000;
  * column per line), stored batch by batch with the same rules as live ingestion (dedupe,
  * quarantine with reasons), and progress is reported after each batch. Each batch commits
  * on its own, so an interrupted upload keeps what was stored and can simply be sent again:
- * the rows already stored count as duplicates.
+ * the rows already stored count as duplicates. A batch with more than
+ * `MAX_QUARANTINED_PER_BATCH` rows missing a field stops the upload (422-style error line;
+ * the batches before it stay stored), so a file of garbage cannot fill the quarantine.
+ * The CSV is read with `csvRecordChunks` (lines up to 1 MB).
  */
 export async function importUpload(
   db: Db,
@@ -48,7 +52,6 @@ export async function importUpload(
   onProgress: (p: UploadProgress) => void,
   opts: { now?: () => number; hooks?: IngestHooks } = {},
 ): Promise<UploadSummary> {
-  const parser = input.pipe(parse({ delimiter: layout.delimiter, bom: true, trim: true, skip_empty_lines: true, relax_column_count: true, max_record_size: 1 << 20 }));
   const summary: UploadSummary = { lines: 0, readings: 0, accepted: 0, duplicates: 0, quarantined: 0, firstQuarantined: [] };
   const batchRef = `upload-${Date.now().toString(36)}`;
   let header: string[] | null = null;
@@ -58,6 +61,13 @@ export async function importUpload(
   let mapped: Array<{ at: number; key: string }> = [];
   let batch: IncomingReading[] = [];
   const lineOf = new Map<number, number>();
+  // rows of this batch certain to be quarantined (a field missing); past the cap the upload stops
+  let unreadable: RefusedRow[] = [];
+  let unreadableCount = 0;
+  const refuseIfUnreadable = (index: number, line: number, reason: string) => {
+    if (unreadable.length < 10) unreadable.push({ index, reason: `line ${line}: ${reason}` });
+    if (++unreadableCount > MAX_QUARANTINED_PER_BATCH) throw new TooManyQuarantinedError(unreadable);
+  };
 
   const flush = async () => {
     if (batch.length === 0) return;
@@ -70,46 +80,53 @@ export async function importUpload(
     }
     batch = [];
     lineOf.clear();
+    unreadable = [];
+    unreadableCount = 0;
     onProgress({ lines: summary.lines, readings: summary.readings, accepted: summary.accepted, duplicates: summary.duplicates, quarantined: summary.quarantined });
   };
 
-  for await (const record of parser as AsyncIterable<string[]>) {
-    if (!header) {
-      header = record;
-      const find = (name: string | undefined, what: string) => {
-        const i = name === undefined ? -1 : header!.indexOf(name);
-        if (i < 0) throw new ValidationError(`${what}: the file has no column "${name}" (columns: ${header!.join(', ').slice(0, 200)})`);
-        return i;
+  // an early stop (a bad header, a refused batch) leaves the request readable, so the answer can still be written
+  for await (const records of csvRecordChunks(input.iterator({ destroyOnReturn: false }), layout.delimiter)) {
+    for (const record of records) {
+      if (!header) {
+        header = record;
+        const find = (name: string | undefined, what: string) => {
+          const i = name === undefined ? -1 : header!.indexOf(name);
+          if (i < 0) throw new ValidationError(`${what}: the file has no column "${name}" (columns: ${header!.join(', ').slice(0, 200)})`);
+          return i;
+        };
+        timeAt = find(layout.timeColumn, 'timeColumn');
+        if (layout.format === 'long') {
+          channelAt = find(layout.channelColumn, 'channelColumn');
+          valueAt = find(layout.valueColumn, 'valueColumn');
+        } else {
+          mapped = Object.entries(layout.columns ?? {})
+            .filter((e): e is [string, string] => typeof e[1] === 'string')
+            .map(([column, key]) => ({ at: find(column, `columns.${column}`), key }));
+        }
+        continue;
+      }
+      summary.lines++;
+      const line = summary.lines + 1; // 1-based, counting the header line
+      const raw = record.join(layout.delimiter);
+      const push = (r: Omit<IncomingReading, 'index'>) => {
+        const index = summary.readings++;
+        lineOf.set(index, line);
+        batch.push({ ...r, index, raw });
+        const missing = r.channel === undefined || r.channel === '' ? 'channel: missing' : r.ts === undefined || r.ts === '' ? 'ts: missing' : r.value === undefined || r.value === '' ? 'value: missing' : null;
+        if (missing) refuseIfUnreadable(index, line, missing);
       };
-      timeAt = find(layout.timeColumn, 'timeColumn');
       if (layout.format === 'long') {
-        channelAt = find(layout.channelColumn, 'channelColumn');
-        valueAt = find(layout.valueColumn, 'valueColumn');
+        push({ channel: record[channelAt], ts: record[timeAt], value: record[valueAt] });
       } else {
-        mapped = Object.entries(layout.columns ?? {})
-          .filter((e): e is [string, string] => typeof e[1] === 'string')
-          .map(([column, key]) => ({ at: find(column, `columns.${column}`), key }));
+        for (const m of mapped) {
+          const cell = record[m.at];
+          if (cell === undefined || cell === '') continue; // an empty cell is no reading, not a bad one
+          push({ channel: m.key, ts: record[timeAt], value: cell });
+        }
       }
-      continue;
+      if (batch.length >= UPLOAD_BATCH) await flush();
     }
-    summary.lines++;
-    const line = summary.lines + 1; // 1-based, counting the header line
-    const raw = record.join(layout.delimiter);
-    const push = (r: Omit<IncomingReading, 'index'>) => {
-      const index = summary.readings++;
-      lineOf.set(index, line);
-      batch.push({ ...r, index, raw });
-    };
-    if (layout.format === 'long') {
-      push({ channel: record[channelAt], ts: record[timeAt], value: record[valueAt] });
-    } else {
-      for (const m of mapped) {
-        const cell = record[m.at];
-        if (cell === undefined || cell === '') continue; // an empty cell is no reading, not a bad one
-        push({ channel: m.key, ts: record[timeAt], value: cell });
-      }
-    }
-    if (batch.length >= UPLOAD_BATCH) await flush();
   }
   if (!header) throw new ValidationError('file: it is empty (expected a header line)');
   await flush();

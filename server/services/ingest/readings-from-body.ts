@@ -1,5 +1,6 @@
 import { AppError, ValidationError } from '../../errors.ts';
 import type { IncomingReading } from './ingest-batch.ts';
+import { readRecords } from './csv-records.ts';
 
 /** Most readings one ingest request may carry; more is refused with 413 (send several requests). */
 export const MAX_READINGS_PER_REQUEST = 100_000;
@@ -249,81 +250,6 @@ export async function readingsFromJsonBody(buf: Buffer, limits: BodyLimits = {})
 const REQUIRED = ['channel', 'ts', 'value'] as const;
 
 /**
- * A small RFC 4180 reader for ingest bodies: records end at LF, CRLF or CR; fields are split at
- * commas and trimmed; a quoted field may hold commas, line breaks and doubled quotes. Empty
- * lines are skipped. It reads from `at` up to roughly `budget` characters and stops at a record
- * boundary, so the caller can pause between slices. (A general CSV library builds an Error with
- * a stack trace for every line of the wrong length, ≈ 30–50 µs a line: too slow for hostile
- * bodies of a million one-field lines.)
- */
-function readRecords(text: string, at: number, budget: number, onRecord: (fields: string[]) => void): number {
-  const stop = Math.min(text.length, at + budget);
-  // next quote and next CR, looked up again only once passed (no rescans of a body without any)
-  let quote = -2;
-  let cr = -2;
-  let i = at;
-  while (i < text.length && (i < stop || i === at)) {
-    const lf = text.indexOf('\n', i);
-    const lineEnd = lf < 0 ? text.length : lf;
-    if (quote !== -1 && quote < i) quote = text.indexOf('"', i);
-    if (cr !== -1 && cr < i) cr = text.indexOf('\r', i);
-    if ((quote < 0 || quote > lineEnd) && (cr < 0 || cr >= lineEnd - 1)) {
-      // fast path: no quote, and no CR except one just before the LF
-      const line = text.slice(i, cr >= 0 && cr === lineEnd - 1 ? cr : lineEnd);
-      i = lineEnd + 1;
-      if (line.trim() === '') continue;
-      onRecord(line.split(',').map((f) => f.trim()));
-      continue;
-    }
-    i = readQuotedRecord(text, i, onRecord);
-  }
-  return i;
-}
-
-/** Reads one record that holds a quote or a lone CR, character by character; returns where the next record starts. */
-function readQuotedRecord(text: string, start: number, onRecord: (fields: string[]) => void): number {
-  const fields: string[] = [];
-  let i = start;
-  for (;;) {
-    while (i < text.length && (text[i] === ' ' || text[i] === '\t')) i++;
-    let value = '';
-    if (text[i] === '"') {
-      i++;
-      for (;;) {
-        const q = text.indexOf('"', i);
-        if (q < 0) throw new ValidationError('body: not valid CSV (a quoted field is never closed)');
-        value += text.slice(i, q);
-        if (text[q + 1] === '"') {
-          value += '"';
-          i = q + 2;
-        } else {
-          i = q + 1;
-          break;
-        }
-      }
-      while (i < text.length && (text[i] === ' ' || text[i] === '\t')) i++;
-      if (i < text.length && text[i] !== ',' && text[i] !== '\n' && text[i] !== '\r') {
-        throw new ValidationError('body: not valid CSV (text after a closing quote; a quote inside a field is written "")');
-      }
-    } else {
-      let j = i;
-      while (j < text.length && text[j] !== ',' && text[j] !== '\n' && text[j] !== '\r') j++;
-      value = text.slice(i, j).trim();
-      i = j;
-    }
-    fields.push(value);
-    if (text[i] === ',') {
-      i++;
-      continue;
-    }
-    if (text[i] === '\r' && text[i + 1] === '\n') i += 2;
-    else if (i < text.length) i++;
-    if (!(fields.length === 1 && fields[0] === '')) onRecord(fields);
-    return i;
-  }
-}
-
-/**
  * Reads a CSV ingest body with the header `channel,ts,value` (any order, any case, more columns
  * allowed) into rows, about 64 KB at a time with a pause between slices, so a large or hostile
  * body never holds the event loop for long. A missing header column refuses the body (400); a
@@ -358,7 +284,7 @@ export async function readingsFromCsvBody(text: string, limits: BodyLimits = {})
   };
   let i = text.charCodeAt(0) === 0xfeff ? 1 : 0;
   while (i < text.length) {
-    i = readRecords(text, i, SLICE_CHARS, onRecord);
+    i = readRecords(text, i, SLICE_CHARS, ',', onRecord);
     if (i < text.length) await pause();
   }
   if (!header) throw new ValidationError('body: expected a header line "channel,ts,value"');
