@@ -4,6 +4,8 @@
  * (then computes it with the real engine), so "two runs still running" is a state the test
  * controls, not a matter of timing. The readings are simulated (behaviour checks only).
  */
+import { createServer, get as httpGet } from 'node:http';
+import type { AddressInfo } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import type { Express } from 'express';
@@ -25,9 +27,16 @@ let from: number;
 /** Engine tasks the stand-in pool holds, in the order they arrived. */
 const held: Array<{ finish: () => void }> = [];
 
+/** Engine tasks cancelled because their client went away (the route aborts them). */
+let aborted = 0;
+
 const heldPool: AnalysisPool = {
-  run: (task) =>
+  run: (task, options) =>
     new Promise((resolve, reject) => {
+      options?.signal?.addEventListener('abort', () => {
+        aborted++;
+        reject(Object.assign(new Error('aborted'), { name: 'AbortError' }));
+      });
       held.push({
         finish: () => {
           try {
@@ -115,6 +124,47 @@ describe('diagnostics runs in flight per person', () => {
       expect(busy.description).toMatch(/^`diagnostics_busy`: /);
       expect(Object.keys(busy.headers)).toEqual(['Retry-After']);
       expect(busy.content['application/json'].schema).toEqual({ $ref: '#/components/schemas/Error' });
+    }
+  });
+
+  it('gives the slot back when the client of a run goes away (its engine task is aborted)', async () => {
+    const guest = await sessionCookieFor(t.db, t.config.sessionSecret, f.guest.id);
+    const server = createServer(app);
+    await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
+    try {
+      const { port } = server.address() as AddressInfo;
+      const before = held.length;
+      const leaving = httpGet({ host: '127.0.0.1', port, path: `/api/v1/labs/${f.lab.slug}/channels/${f.ids.channelId}/diagnostics?from=${from}&to=${from + N * STEP}&step=600&maxLag=18`, headers: { cookie: guest } });
+      leaving.on('error', () => {});
+      await until('the leaving run', () => held.length === before + 1);
+      const staying = diagnostics(guest, soilId, 19).then((r) => r);
+      await until('the staying run', () => held.length === before + 2);
+      await diagnostics(guest, f.ids.channelId, 20).expect(429);
+
+      const abortedBefore = aborted;
+      leaving.destroy();
+      await until('the abort', () => aborted === abortedBefore + 1);
+      // The freed slot takes the next run (a 429 here only means the release has not run yet).
+      let next: Promise<request.Response> | undefined;
+      for (const give = Date.now() + 5_000; held.length === before + 2; ) {
+        if (Date.now() > give) throw new Error('the slot was not given back');
+        const attempt = diagnostics(guest, f.ids.channelId, 21).then((r) => r);
+        let outcome: number | 'started' | undefined;
+        void attempt.then((r) => (outcome ??= r.status));
+        await until('the next run to start or be refused', () => {
+          if (held.length === before + 3) outcome ??= 'started';
+          return outcome !== undefined;
+        });
+        if (outcome === 'started') next = attempt;
+        else expect(outcome).toBe(429);
+      }
+      held[before + 1].finish();
+      held[before + 2].finish();
+      expect((await staying).status).toBe(200);
+      expect((await next!).status).toBe(200);
+    } finally {
+      server.closeAllConnections();
+      await new Promise((r) => server.close(r));
     }
   });
 
