@@ -9,6 +9,7 @@ import { createServer, get as httpGet } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
+import { parse as parseCsv } from 'csv-parse/sync';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
 import { buildMember, sessionCookieFor } from '../support/factories.ts';
 import { buildLabWithEverything, type LabWithEverything } from '../support/lab-fixture.ts';
@@ -16,7 +17,7 @@ import { onLargestPlan } from '../support/largest-plan.ts';
 import { createApp, type AppDeps } from '../../server/app.ts';
 import { createLogger } from '../../server/logger.ts';
 import { createAnalysisPool, type AnalysisPool } from '../../server/workers/analysis-pool.ts';
-import { channelDiagnostics, type ChannelDiagnosticsOptions } from '../../server/analysis/index.ts';
+import { channelDiagnostics, rangeComparison, type ChannelDiagnosticsOptions } from '../../server/analysis/index.ts';
 
 const STEP = 600_000; // 10 minutes
 const T0 = Date.UTC(2026, 9, 1);
@@ -139,6 +140,22 @@ describe('GET /channels/:channelId/diagnostics', () => {
     expect(r.method.parameters).toMatchObject({ agg: 'mean', period: 'auto', decomposition: 'stl', difference: 0, from: new Date(T0).toISOString() });
     expect(r.method.notes.join(' ')).toContain('5 of 864 cells were empty; STL, period detection and process identification filled them by linear interpolation');
     expect(r.channel).toMatchObject({ id: f.ids.channelId, key: 'air_t', logger: { id: f.ids.loggerId, timezone: 'UTC' } });
+    // the process model is the engine's, fitted on the series less its daily cycle
+    const model = engine.identification.model!;
+    expect(r.processModel).toMatchObject({ available: true, fittedOn: 'remainder', period: DAY_STEPS, cells: model.cells, readingsPerIndependent: model.readingsPerIndependent });
+    expect(r.processModel.chosen).toMatchObject({ p: model.p, q: model.q, ar: model.ar, ma: model.ma, standardErrors: model.standardErrors, logLik: model.logLik });
+    expect(r.processModel.fittedTo).toBe(T0 + N * STEP);
+    expect(r.processModel.candidates).toHaveLength(16);
+    expect(r.processModel.sentence).toMatch(/^Once its 1 d cycle is removed, Air temperature /);
+    expect(r.identification.fittedOn).toBe('remainder');
+    // the trend is the engine's slope per 10-minute step, scaled to a day (144 steps) and a year
+    if (!engine.trend.available) throw new Error('expected a trend');
+    expect(r.trend).toMatchObject({ available: true, fittedOn: 'adjusted', unit: '°C', lag: engine.trend.lag, n: N - 5 });
+    expect(r.trend.perDay.slope).toBeCloseTo(engine.trend.slope * 144, 12);
+    expect(r.trend.perYear.slope).toBeCloseTo(engine.trend.slope * 144 * 365.25, 9);
+    expect(r.trend.perDay.hacInterval[0]).toBeCloseTo(engine.trend.interval[0] * 144, 12);
+    expect(r.trend.perDay.olsInterval[1]).toBeCloseTo(engine.trend.intervalOls[1] * 144, 12);
+    expect(r.trend.sentence).toMatch(/^Allowing for autocorrelation, Air temperature \(after removing the seasonal cycle\) changes by /);
   });
 
   it('reads raw readings for a median and still matches the engine; differencing applies before the ACF', async () => {
@@ -224,11 +241,18 @@ describe('GET /channels/:channelId/diagnostics', () => {
     const engine = channelDiagnostics(air, engineOptions({ decomposition: 'none', ccfMaxLag: 30 }), soil);
     const ccf = res.body.crossCorrelation;
     expect(ccf.with).toMatchObject({ id: soilId, key: 'soil_m' });
+    expect(ccf.method).toBe('prewhitened');
     expect(ccf.values).toEqual(json(engine.crossCorrelation!.values));
     expect(ccf.band).toBe(engine.crossCorrelation!.band);
-    // Soil moisture was built as air temperature 12 steps (2 h) earlier: cor(air[t+k], soil[t]) peaks at k = −12.
+    expect(ccf.simultaneousBand).toBe(engine.crossCorrelation!.simultaneousBand);
+    expect(ccf.prewhitening).toEqual(engine.crossCorrelation!.prewhitening);
+    expect(ccf.raw.values).toEqual(json(engine.crossCorrelation!.raw.values));
+    // Soil moisture was built as air temperature 12 steps (2 h) earlier: cor(air[t+k], soil[t]) peaks at k = −12,
+    // prewhitened and raw alike, and beyond the band that holds for all 61 lags together.
     expect(ccf.strongest).toMatchObject({ lag: -LAG_STEPS, lagMs: -2 * 3_600_000, significant: true });
-    expect(ccf.explanation).toContain('Soil moisture trails Air temperature by 2 h');
+    expect(ccf.raw.strongest).toMatchObject({ lag: -LAG_STEPS });
+    expect(Math.abs(ccf.strongest.value)).toBeGreaterThan(ccf.simultaneousBand);
+    expect(ccf.explanation).toContain('Soil moisture follows Air temperature by about 2 h, and the two move in the same direction');
   });
 
   it('runs the same bundle on the worker pool (one task) with identical numbers', async () => {
@@ -316,6 +340,59 @@ describe('GET /channels/:channelId/diagnostics', () => {
   });
 });
 
+describe('GET /channels/:channelId/comparison', () => {
+  const half = T0 + (N / 2) * STEP;
+  const ranges = `aFrom=${new Date(T0).toISOString()}&aTo=${new Date(half).toISOString()}&bFrom=${new Date(half).toISOString()}&bTo=${new Date(T0 + N * STEP).toISOString()}`;
+
+  it('compares two ranges of one channel with the engine’s numbers: effective-size interval beside Welch’s', async () => {
+    const res = await request(t.app).get(`${base}/comparison?${ranges}&step=600`).set('Cookie', cookie).expect(200);
+    const inA = (ts: number) => ts < half;
+    const pick = (keep: (ts: number) => boolean) => {
+      const idx = air.timestamps.map((ts, i) => (keep(ts) ? i : -1)).filter((i) => i >= 0);
+      return { timestamps: idx.map((i) => air.timestamps[i]), values: idx.map((i) => air.values[i]) };
+    };
+    const engine = rangeComparison(pick(inA), pick((ts) => !inA(ts)), { step: STEP, agg: 'mean', alpha: 0.05 });
+    const r = res.body;
+    expect(r.channel).toMatchObject({ id: f.ids.channelId, key: 'air_t' });
+    expect(r.other).toBeNull();
+    expect(r.difference).toBe(engine.difference);
+    expect(r.a).toMatchObject({ from: T0, to: half, n: engine.a.n, mean: engine.a.mean, effectiveN: engine.a.nEff, autocorrelationTime: engine.a.tau });
+    expect(r.b).toMatchObject({ n: engine.b.n, mean: engine.b.mean, effectiveN: engine.b.nEff });
+    expect(r.dependent).toEqual({ standardError: engine.effective.standardError, df: engine.effective.df, interval: engine.effective.interval });
+    expect(r.welch).toEqual({ standardError: engine.welch.standardError, df: engine.welch.df, interval: engine.welch.interval });
+    // persistent readings: the honest interval is wider than the one that assumes independence
+    expect(r.dependent.interval[1] - r.dependent.interval[0]).toBeGreaterThan(r.welch.interval[1] - r.welch.interval[0]);
+    expect(r.sentence).toMatch(/^The mean of range b differs from Air temperature in range a by /);
+    expect(r.method).toMatchObject({ stepS: 600, agg: 'mean' });
+    expect(r.method.references.join(' ')).toContain('Zwiers & von Storch (1995)');
+  });
+
+  it('compares the same range of two channels (otherChannel)', async () => {
+    const whole = `aFrom=${T0}&aTo=${T0 + N * STEP}&bFrom=${T0}&bTo=${T0 + N * STEP}`;
+    const res = await request(t.app).get(`${base}/comparison?${whole}&otherChannel=${soilId}`).set('Cookie', cookie).expect(200);
+    expect(res.body.other).toMatchObject({ id: soilId, key: 'soil_m' });
+    expect(res.body.b.n).toBe(N);
+    expect(res.body.a.n).toBe(N - 5);
+    expect(res.body.sentence).toMatch(/^The mean of Soil moisture in range b differs from Air temperature in range a by /);
+  });
+
+  it('answers 400 with `field: reason`, 422 for a range without readings, 404 for another lab’s channel', async () => {
+    const bad = async (query: string, message: string) => {
+      const res = await request(t.app).get(`${base}/comparison?${query}`).set('Cookie', cookie).expect(400);
+      expect(res.body.error.message).toBe(message);
+    };
+    await bad(`aTo=${T0}&bFrom=${T0}&bTo=${T0 + STEP}`, 'aFrom: is required: epoch milliseconds or an ISO 8601 time with a zone');
+    await bad(`aFrom=${T0 + STEP}&aTo=${T0}&bFrom=${T0}&bTo=${T0 + STEP}`, 'aTo: must be after the start of its range');
+    await bad(`${ranges}&agg=mode`, 'agg: must be mean, median, last, min or max');
+    const empty = await request(t.app).get(`${base}/comparison?aFrom=${T0 - 10 * STEP}&aTo=${T0 - STEP}&bFrom=${T0}&bTo=${half}`).set('Cookie', cookie).expect(422);
+    expect(empty.body.error.message).toBe('aFrom: Air temperature has no readings in range a.');
+    const few = await request(t.app).get(`${base}/comparison?aFrom=${T0}&aTo=${T0 + 4 * STEP}&bFrom=${T0}&bTo=${half}`).set('Cookie', cookie).expect(422);
+    expect(few.body.error.code).toBe('analysis_input');
+    const other = await buildLabWithEverything(t.db);
+    await request(t.app).get(`${base}/comparison?${ranges}&otherChannel=${other.ids.channelId}`).set('Cookie', cookie).expect(404);
+  });
+});
+
 describe('GET /channels/:channelId/diagnostics.csv', () => {
   it('exports the correlogram with both bands, the CCF and the Ljung–Box table as one RFC 4180 table', async () => {
     const query = `${range}&step=600&decomposition=none&maxLag=20&ccfWith=${soilId}&ccfMaxLag=3`;
@@ -324,17 +401,36 @@ describe('GET /channels/:channelId/diagnostics.csv', () => {
     expect(res.headers['content-disposition']).toBe(`attachment; filename="${f.lab.slug}-air_t-diagnostics.csv"`);
     const lines = res.text.split('\r\n');
     expect(lines[0]).toBe(
-      'section,lag,acf,pacf,white_noise_band,bartlett_band,ccf,ccf_band,ljung_box_statistic,ljung_box_df,ljung_box_p_value,cell,time_utc,trend,seasonal,remainder,robustness_weight,remainder_outlier',
+      'section,lag,acf,pacf,white_noise_band,bartlett_band,ccf,ccf_band,ljung_box_statistic,ljung_box_df,ljung_box_p_value,cell,time_utc,trend,seasonal,remainder,robustness_weight,remainder_outlier,' +
+        'ccf_simultaneous_band,term,estimate,standard_error,interval_low,interval_high,aicc,bic,log_likelihood,note',
     );
-    expect(lines[1]).toBe('correlogram,0,1,,,,,,,,,,,,,,,');
-    const lag2 = lines[3].split(',');
-    expect(lag2.slice(0, 6).map(Number).slice(1)).toEqual([2, report.acf.values[2], report.pacf.values[1], report.bands.whiteNoise, report.bands.bartlett[1]]);
-    expect(lines.filter((l) => l.startsWith('correlogram,'))).toHaveLength(21);
-    expect(lines.filter((l) => l.startsWith('ccf,'))).toHaveLength(7);
-    const box = lines.filter((l) => l.startsWith('ljung-box,')).map((l) => l.split(','));
-    expect(box.map((b) => Number(b[1]))).toEqual(report.ljungBox.map((b: { lag: number }) => b.lag));
-    expect(Number(box[0][8])).toBe(report.ljungBox[0].statistic);
-    expect(lines.every((l) => l === '' || l.split(',').length === 18)).toBe(true);
+    expect(lines[1]).toBe(`correlogram,0,1${','.repeat(25)}`);
+    const rows = parseCsv(res.text, { columns: true }) as Array<Record<string, string>>;
+    const lag2 = rows[2];
+    expect([lag2.lag, lag2.acf, lag2.pacf, lag2.white_noise_band, lag2.bartlett_band].map(Number)).toEqual([2, report.acf.values[2], report.pacf.values[1], report.bands.whiteNoise, report.bands.bartlett[1]]);
+    expect(rows.filter((r) => r.section === 'correlogram')).toHaveLength(21);
+    const ccf = rows.filter((r) => r.section === 'ccf');
+    expect(ccf.map((r) => Number(r.ccf))).toEqual(report.crossCorrelation.values);
+    expect(ccf.every((r) => Number(r.ccf_simultaneous_band) === report.crossCorrelation.simultaneousBand && r.note.startsWith('prewhitened by the AR('))).toBe(true);
+    expect(rows.filter((r) => r.section === 'ccf-raw').map((r) => Number(r.ccf))).toEqual(report.crossCorrelation.raw.values);
+    const box = rows.filter((r) => r.section === 'ljung-box');
+    expect(box.map((b) => Number(b.lag))).toEqual(report.ljungBox.map((b: { lag: number }) => b.lag));
+    expect(Number(box[0].ljung_box_statistic)).toBe(report.ljungBox[0].statistic);
+    // the process model: every coefficient with its standard error, every candidate, the residual test
+    const model = report.processModel;
+    const coefficients = rows.filter((r) => r.section === 'model-coefficient');
+    expect(coefficients.filter((r) => /^(ar|ma)\d$/.test(r.term)).map((r) => [r.term, Number(r.estimate), Number(r.standard_error)])).toEqual([
+      ...model.chosen.ar.map((v: number, i: number) => [`ar${i + 1}`, v, model.chosen.standardErrors.ar[i]]),
+      ...model.chosen.ma.map((v: number, i: number) => [`ma${i + 1}`, v, model.chosen.standardErrors.ma[i]]),
+    ]);
+    expect(rows.filter((r) => r.section === 'model-candidate')).toHaveLength(model.candidates.length);
+    expect(rows.find((r) => r.section === 'model-candidate' && r.note === 'chosen')?.term).toBe(`ARMA(${model.chosen.p},${model.chosen.q})`);
+    expect(Number(rows.find((r) => r.section === 'model-residual-test')?.ljung_box_p_value)).toBe(model.residualTest.pValue);
+    // the trend with both intervals, and what each assumes
+    const trend = rows.find((r) => r.section === 'trend')!;
+    expect([Number(trend.estimate), Number(trend.interval_low), Number(trend.interval_high)]).toEqual([report.trend.perDay.slope, ...report.trend.perDay.hacInterval]);
+    expect(trend.note).toContain(`Newey–West standard error, Bartlett lag ${report.trend.lag}`);
+    expect(Number(rows.find((r) => r.section === 'trend-independent')!.interval_low)).toBe(report.trend.perDay.olsInterval[0]);
     expect(lines.some((l) => l.startsWith('decomposition,'))).toBe(false);
   });
 
