@@ -67,6 +67,14 @@ export const PUBLIC_ROUTES: PublicRoute[] = [
     summary: "A logger posts readings with its ingest key, as JSON or as CSV (header channel,ts,value); 200 means committed, bad rows are quarantined with reasons.",
     auth: 'ingest-key',
     bodies: { 'application/json': ingestJsonBody, 'text/csv': csvText },
+    responses: {
+      '400': '`invalid_input`: not valid JSON or CSV, the wrong shape, a CSV header without channel, ts and value, or JSON nested deeper than 32 levels; `corrupt_body`: a gzip or deflate body that does not decompress.',
+      '401': '`invalid_ingest_key`: a missing, unknown or revoked key (one answer for all).',
+      '413': '`too_many_readings`: more than 100,000 readings in one request (send the rest in further requests); `payload_too_large`: a body over 8 MB after decompression.',
+      '415': '`unsupported_media_type` (send application/json or text/csv), `unsupported_charset` (only UTF-8) or `unsupported_encoding` (Content-Encoding other than gzip or deflate).',
+      '422': '`too_many_quarantined`: more than 1,000 rows of the batch cannot be read (a field missing, the wrong number of CSV fields, not an object); nothing of the batch is stored. `error.sample` lists the first rows with their reasons.',
+      '429': '`rate_limited`: this logger posts faster than 20 requests/s (bursts of 40); `too_many_wrong_keys`: more than 20 wrong keys from this address within a minute (counted per app process; a key that worked recently still gets through). Retry-After gives the seconds to wait.',
+    },
   },
   {
     method: 'post',
