@@ -68,8 +68,8 @@ export interface QuarantineFilter {
   reasonCode?: string;
 }
 
-/** A count of matching rows stops here: a lab keeps at most its plan's cap, and the list needs no more. */
-export const QUARANTINE_COUNT_LIMIT = 100_000;
+/** A count of matching rows stops here, so a list request never walks a large quarantine (the page says "10,000 or more"). */
+export const QUARANTINE_COUNT_LIMIT = 10_000;
 
 /**
  * Data access for one lab's quarantined rows. `add` and `remove` also keep the lab's

@@ -4,6 +4,7 @@ import { buildTestApp, testConfig, type TestApp } from '../support/test-app.ts';
 import { buildMember, sessionCookieFor } from '../support/factories.ts';
 import { buildLabWithEverything, type LabWithEverything } from '../support/lab-fixture.ts';
 import { TEST_LIMITS, writeTestPlanCatalog } from '../support/stripe-test-billing.ts';
+import { QUARANTINE_COUNT_LIMIT } from '../../server/db/quarantine.repo.ts';
 
 /**
  * Quarantine bounded and counted (issue 15, finding 2, per lab): the plan's `quarantinedRows`
@@ -132,6 +133,24 @@ describe('quarantine list: keyset pages', () => {
     expect([filtered.body.total, filtered.body.rows[0].rowIndex, typeof filtered.body.nextCursor]).toEqual([2, 0, 'string']);
     const last = await request(t.app).get(lab.path(`/quarantine?reason=unknown_channel&pageSize=1&cursor=${filtered.body.nextCursor}`)).set('Cookie', lab.tech).expect(200);
     expect([last.body.rows[0].rowIndex, last.body.nextCursor]).toEqual([1, null]);
+  });
+
+  it('counts matching rows up to 10,000 and says when there are more', async () => {
+    const lab = await newLab();
+    const rows = Array.from({ length: QUARANTINE_COUNT_LIMIT + 1 }, (_, i) => ({
+      tenant_id: lab.f.lab.id,
+      id: i + 1,
+      logger_id: lab.f.ids.loggerId,
+      source: 'api',
+      row_index: i,
+      reason_code: 'unknown_channel',
+      reason: 'channel: no channel "x" on this logger',
+    }));
+    for (let i = 0; i < rows.length; i += 2000) await t.db('quarantined_rows').insert(rows.slice(i, i + 2000));
+    const res = await request(t.app).get(lab.path('/quarantine?pageSize=1')).set('Cookie', lab.tech).expect(200);
+    expect([res.body.total, res.body.totalAtLeast]).toEqual([QUARANTINE_COUNT_LIMIT, true]);
+    const one = await request(t.app).get(lab.path('/quarantine?reason=bad_value')).set('Cookie', lab.tech).expect(200);
+    expect([one.body.total, one.body.totalAtLeast, one.body.nextCursor]).toEqual([0, false, null]);
   });
 
   it('refuses page numbers and made-up cursors with 400 and the field named', async () => {

@@ -17,7 +17,7 @@ export function quarantineRoutes(deps: { quarantine: QuarantineService }): LabRo
       path: '/quarantine',
       permission: 'quarantine.review',
       summary:
-        'Quarantined rows with their reasons, newest first, in keyset pages: ask for the next page with `cursor` set to the `nextCursor` of the previous one (null on the last page). `total` counts matching rows up to 100,000 (`totalAtLeast` is true when there are at least that many).',
+        'Quarantined rows with their reasons, newest first, in keyset pages: ask for the next page with `cursor` set to the `nextCursor` of the previous one (null on the last page). `total` counts matching rows up to 10,000 (`totalAtLeast` is true when there are at least that many).',
       query: quarantineQuerySchema,
       handle: async (req, res) => {
         const q = parseInput(quarantineQuerySchema, req.query);

@@ -27,7 +27,7 @@ export interface QuarantineQuery {
 /** One keyset page: `nextCursor` asks for the following one (null on the last page). */
 export interface QuarantinePage {
   rows: QuarantinedRow[];
-  /** Matching rows, counted up to 100,000. */
+  /** Matching rows, counted up to 10,000. */
   total: number;
   /** True when `total` stopped at the counting limit (there are at least that many). */
   totalAtLeast: boolean;

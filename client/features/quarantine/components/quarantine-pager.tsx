@@ -2,7 +2,7 @@ import { Button } from '../../../components/button.tsx';
 
 /**
  * Paging for the quarantine's keyset pages: how many rows match (counted up to the server's
- * limit, "100,000 or more" beyond), and First / Newer / Older. Newer is available only back
+ * limit, "10,000 or more" beyond), and First / Newer / Older. Newer is available only back
  * along the pages this view came through; Older follows the server's `nextCursor`.
  */
 const formatCount = (n: number) => n.toLocaleString('en');
