@@ -8,6 +8,7 @@
 import type { presentChannelDetail, presentChannelOverview } from '../../server/http/channels/channels.presenter.ts';
 import type { ChannelSeries } from '../../server/services/channels.service.ts';
 import type { DiagnosticsReport as ServerDiagnosticsReport } from '../../server/services/diagnostics-report.ts';
+import type { RangeComparisonReport } from '../../server/services/range-comparison-report.ts';
 import type { presentAlert, presentAlertRule } from '../../server/http/alerts/alerts.presenter.ts';
 import type { presentAuditEntry, presentInvitation, presentLabForMember, presentMember } from '../../server/http/presenters/labs.presenter.ts';
 import type { presentChannel, presentIssuedKey, presentKeyInfo, presentLogger, presentLoggerDetail, presentQuarantinedRow } from '../../server/http/presenters/loggers.presenter.ts';
@@ -33,6 +34,7 @@ import type { ChannelOverviewRow } from '../../client/features/channels/api/get-
 import type { ChannelDetail } from '../../client/features/channels/api/get-channel.ts';
 import type { Series } from '../../client/features/channels/api/get-series.ts';
 import type { DiagnosticsReport } from '../../client/features/diagnostics/api/get-diagnostics.ts';
+import type { ComparisonAnswer } from '../../client/features/diagnostics/api/get-comparison.ts';
 import type { Alert } from '../../client/features/alerts/api/get-alerts.ts';
 import type { AlertRule } from '../../client/features/alerts/api/get-alert-rules.ts';
 
@@ -57,6 +59,7 @@ export type Contracts = [
   Reads<Json<ChannelSeries>, Series>,
   // the router adds whether the report came from the cache
   Reads<Json<ServerDiagnosticsReport> & { cached: boolean }, DiagnosticsReport>,
+  Reads<Json<RangeComparisonReport>, ComparisonAnswer>,
   Reads<Answer<typeof presentAlert>, Alert>,
   Reads<Answer<typeof presentAlertRule>, AlertRule>,
   Reads<Answer<typeof presentAuditEntry>, AuditEntry>,
