@@ -19,6 +19,13 @@ export interface FitArmaOptions {
   q: number;
   /** Estimate a mean (default true); false fixes it at 0. */
   includeMean?: boolean;
+  /**
+   * Further starting points for the optimiser besides its own two, e.g. a nested model's
+   * estimates padded with zeros (what `selectArma` passes, so a larger model never ends below a
+   * smaller one it contains). AR parts must be stationary (others are ignored); `ar`/`ma` are
+   * padded with zeros or cut to p and q; a missing mean starts at the sample mean.
+   */
+  starts?: { ar: ArrayLike<number>; ma: ArrayLike<number>; mean?: number | null }[];
 }
 
 export interface FitArmaResult {
@@ -176,6 +183,16 @@ export function fitArma(x: Series, options: FitArmaOptions): FitArmaResult {
         tilted[0] = Math.atanh(0.5);
         starts.push(tilted);
       }
+    }
+    for (const given of options.starts ?? []) {
+      const padded = (v: ArrayLike<number>, m: number) => Array.from({ length: m }, (_, i) => (i < v.length ? Number(v[i]) : 0));
+      const pacf = armaArToPacf(padded(given.ar, p));
+      if (!pacf || !pacf.every(Number.isFinite)) continue;
+      const from = new Float64Array(k);
+      from.set(pacf, 0);
+      from.set(padded(given.ma, q), p);
+      if (includeMean) from[k - 1] = typeof given.mean === 'number' && Number.isFinite(given.mean) ? given.mean : mean0;
+      starts.push(from);
     }
     let bestValue = Infinity;
     for (const from of starts) {

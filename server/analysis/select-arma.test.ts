@@ -18,6 +18,17 @@ describe('selectArma', () => {
     expect(refit.logLik).toBeCloseTo(result.model.logLik, 10);
   });
 
+  it("never leaves a candidate's likelihood below a nested candidate's (warm starts from nested fits)", () => {
+    // Without the warm starts ARMA(3,3) ended 1.2 below ARMA(3,2) on this series.
+    const x = simulateArma({ ar: [0.5, 0.2], ma: [0.4] }, 300, 5);
+    const { candidates } = selectArma(x);
+    const logLik = (p: number, q: number) => candidates.find((c) => c.p === p && c.q === q)!.logLik;
+    for (const c of candidates) {
+      if (c.p > 0) expect(c.logLik, `ARMA(${c.p},${c.q}) vs ARMA(${c.p - 1},${c.q})`).toBeGreaterThanOrEqual(logLik(c.p - 1, c.q) - 1e-6);
+      if (c.q > 0) expect(c.logLik, `ARMA(${c.p},${c.q}) vs ARMA(${c.p},${c.q - 1})`).toBeGreaterThanOrEqual(logLik(c.p, c.q - 1) - 1e-6);
+    }
+  });
+
   it('tests the residuals with Ljung–Box, fitdf = p + q, lag min(10, n/5) but above fitdf', () => {
     const x = simulateArma({ ma: [0.5] }, 300, 7);
     const result = selectArma(x, { maxP: 1, maxQ: 1 });

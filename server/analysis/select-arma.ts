@@ -55,6 +55,10 @@ export interface SelectArmaResult {
  * redundant model whose higher likelihood is spurious (Box, Jenkins, Reinsel & Ljung 2015,
  * §7.3.5). R's `forecast::auto.arima` (8.20) rejects candidates by the same 1.01 bound.
  *
+ * Each candidate's optimiser also starts from the better of its two nested fits (one AR or MA
+ * term fewer, padded with a zero), so a candidate's likelihood is never below that of a model it
+ * contains: AICc then compares the models' real maxima, not an optimiser's luck.
+ *
  * A candidate with too few values for `fitArma` (3·(p + q + 1) + 10) is left out of
  * `candidates`; the search fails with an AnalysisInputError when no candidate is admissible. Ties in AICc go to the first candidate in the order above (fewer AR
  * terms first). Cost: (maxP + 1)(maxQ + 1) fits.
@@ -69,11 +73,16 @@ export function selectArma(x: Series, options: SelectArmaOptions = {}): SelectAr
   for (let i = 0; i < x.length; i++) if (!Number.isNaN(x[i])) present++;
 
   const candidates: ArmaCandidate[] = [];
+  const fits = new Map<string, FitArmaResult>();
   let best: { p: number; q: number; fit: FitArmaResult } | null = null;
   for (let p = 0; p <= maxP; p++) {
     for (let q = 0; q <= maxQ; q++) {
       if (p + q > 0 && present < 3 * (p + q + 1) + 10) continue;
-      const fit = fitOrExplain(x, p, q);
+      // Warm start from the better of the two nested fits (one AR or one MA term fewer).
+      const nested = [fits.get(`${p - 1},${q}`), fits.get(`${p},${q - 1}`)].filter((f) => f !== undefined);
+      const warm = nested.sort((a, b) => b.logLik - a.logLik)[0];
+      const fit = fitOrExplain(x, p, q, warm);
+      fits.set(`${p},${q}`, fit);
       const smallestRoot = armaSmallestRoot(fit.ar, fit.ma);
       const admissible = fit.converged && smallestRoot >= 1.01 && Number.isFinite(fit.aicc);
       candidates.push({ p, q, aicc: fit.aicc, logLik: fit.logLik, converged: fit.converged, smallestRoot, admissible });
@@ -97,9 +106,9 @@ export function selectArma(x: Series, options: SelectArmaOptions = {}): SelectAr
 }
 
 /** fitArma, with its input complaints (raised by the first candidate) worded for selectArma. */
-function fitOrExplain(x: Series, p: number, q: number): FitArmaResult {
+function fitOrExplain(x: Series, p: number, q: number, warm: FitArmaResult | undefined): FitArmaResult {
   try {
-    return fitArma(x, { p, q });
+    return fitArma(x, { p, q, starts: warm ? [warm] : undefined });
   } catch (error) {
     if (error instanceof AnalysisInputError && p + q === 0) {
       throw new AnalysisInputError(error.message.replace(/^fitArma/, 'selectArma').replace(' for ARMA(0,0)', '').replace('or a lower order', 'of readings'));

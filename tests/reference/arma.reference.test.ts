@@ -80,11 +80,15 @@ describe("fitArma against R's arima(x, order = c(p, 0, q), method = \"ML\")", ()
 /**
  * Selection candidates where R 4.2.2's arima(method = "ML") converges (optim code 0) to a lower
  * local maximum than Lagbook's (seen while writing this test; Lagbook's loglik is higher by
- * 0.087 on LakeHuron ARMA(3,2), 0.17 and 0.52 on the simulated ARMA(1,1) series' ARMA(3,2) and
- * ARMA(3,3)). Everywhere else both agree to 1e-4, apart from candidates where R reports a
- * non-zero optim code.
+ * 0.19 and 0.087 on LakeHuron ARMA(3,1) and ARMA(3,2), 0.29 on log10(lynx) ARMA(3,1), 0.17 and
+ * 0.52 on the simulated ARMA(1,1) series' ARMA(3,2) and ARMA(3,3)). Everywhere else both agree
+ * to 1e-4, apart from candidates where R reports a non-zero optim code.
  */
-const R_LOCAL_MAXIMUM: Record<string, string[]> = { LakeHuron: ['3,2'], 'sim.arma11.300': ['3,2', '3,3'] };
+const R_LOCAL_MAXIMUM: Record<string, string[]> = {
+  LakeHuron: ['3,1', '3,2'],
+  'log10.lynx': ['3,1'],
+  'sim.arma11.300': ['3,2', '3,3'],
+};
 
 describe('selectArma against an AICc table over p, q ≤ 3 from R 4.2.2 arima(method = "ML")', () => {
   for (const sel of R.selections as Json[]) {
