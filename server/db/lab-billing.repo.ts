@@ -76,8 +76,13 @@ export async function findLabByStripeCustomer(db: DbOrTrx, customerId: string): 
  */
 export function labBillingIn(scope: LabScope, db: DbOrTrx, freePlanKey: string) {
   const ensure = async () => {
-    // INSERT IGNORE: two first-time writers never fail on each other.
-    await db.raw('INSERT IGNORE INTO lab_billing (tenant_id, plan_key) VALUES (?, ?)', [scope.tenantId, freePlanKey]);
+    // INSERT IGNORE: two first-time writers never fail on each other. The quarantine count
+    // starts from the rows already there (e.g. written by the demo seed, which bypasses the
+    // ingestion hooks); from then on it is kept where rows are added and removed.
+    await db.raw(
+      'INSERT IGNORE INTO lab_billing (tenant_id, plan_key, quarantined_count) SELECT ?, ?, COUNT(*) FROM quarantined_rows WHERE quarantined_rows.tenant_id = ?',
+      [scope.tenantId, freePlanKey, scope.tenantId],
+    );
   };
   return {
     /** The lab's row; `lock` takes a row lock for a read-modify-write (webhooks only, never ingestion). */
@@ -101,15 +106,6 @@ export function labBillingIn(scope: LabScope, db: DbOrTrx, freePlanKey: string) 
       }
       await ensure();
       await scope.table('lab_billing').update({ ...update, updated_at: new Date() });
-    },
-
-    /** Adds newly stored readings to the counter in one statement (no lock held past it). */
-    async addReadings(count: number): Promise<void> {
-      await db.raw('INSERT INTO lab_billing (tenant_id, plan_key, readings_count) VALUES (?, ?, ?) ON DUPLICATE KEY UPDATE readings_count = readings_count + VALUES(readings_count)', [
-          scope.tenantId,
-          freePlanKey,
-          count,
-        ]);
     },
 
     /**

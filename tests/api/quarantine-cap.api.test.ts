@@ -98,6 +98,17 @@ describe(`per-lab quarantine cap (free plan here: ${CAP} rows)`, () => {
   });
 });
 
+describe('quarantine count', () => {
+  it('starts from the rows already there when the lab first gets its billing row (rows written without the hooks, as the demo seed does)', async () => {
+    const f = await buildLabWithEverything(t.db); // one quarantined row inserted directly, no billing row yet
+    const admin = await sessionCookieFor(t.db, t.config.sessionSecret, f.founder.id);
+    const lab: Lab = { f, admin, tech: admin, path: (p = '') => `/api/v1/labs/${f.lab.slug}${p}` };
+    expect(await t.db('lab_billing').where({ tenant_id: f.lab.id }).first()).toBeUndefined();
+    expect((await ingest(lab, 0, 1, 1)).status).toBe(200);
+    expect([(await billingUsage(lab)).usage.quarantinedRows, await quarantined(lab)]).toEqual([2, 2]);
+  });
+});
+
 describe('quarantine list: keyset pages', () => {
   it('walks every row once with nextCursor, newest batch first and a batch in row order, with filters', async () => {
     const lab = await newLab();
