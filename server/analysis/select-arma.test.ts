@@ -15,7 +15,13 @@ describe('selectArma', () => {
     expect(result.model.aicc).toBe(lowest);
     expect([result.p, result.q]).toEqual([1, 0]); // the simulated truth wins here
     const refit = fitArma(x, { p: result.p, q: result.q });
-    expect(refit.logLik).toBeCloseTo(result.model.logLik, 10);
+    expect(refit.logLik).toBeCloseTo(result.model.logLik, 6);
+    for (const c of result.candidates) {
+      expect(c.model.ar).toHaveLength(c.p);
+      expect(c.model.ma).toHaveLength(c.q);
+      expect(c.model.logLik).toBe(c.logLik);
+    }
+    expect(result.candidates.find((c) => c.p === result.p && c.q === result.q)!.model).toBe(result.model);
   });
 
   it("never leaves a candidate's likelihood below a nested candidate's (warm starts from nested fits)", () => {

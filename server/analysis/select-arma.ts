@@ -22,6 +22,11 @@ export interface ArmaCandidate {
   smallestRoot: number;
   /** Whether the candidate may be chosen: converged, and smallestRoot ≥ 1.01. */
   admissible: boolean;
+  /**
+   * The candidate's fit itself, so a caller choosing by another criterion (e.g. BIC) needs no
+   * refit. It holds the residuals (n values): pick fields before serialising a candidate.
+   */
+  model: FitArmaResult;
 }
 
 export interface SelectArmaResult {
@@ -85,7 +90,7 @@ export function selectArma(x: Series, options: SelectArmaOptions = {}): SelectAr
       fits.set(`${p},${q}`, fit);
       const smallestRoot = armaSmallestRoot(fit.ar, fit.ma);
       const admissible = fit.converged && smallestRoot >= 1.01 && Number.isFinite(fit.aicc);
-      candidates.push({ p, q, aicc: fit.aicc, logLik: fit.logLik, converged: fit.converged, smallestRoot, admissible });
+      candidates.push({ p, q, aicc: fit.aicc, logLik: fit.logLik, converged: fit.converged, smallestRoot, admissible, model: fit });
       if (admissible && (best === null || fit.aicc < best.fit.aicc)) best = { p, q, fit };
     }
   }
