@@ -101,6 +101,8 @@ describe('readingsFromJsonBody', () => {
         const body = JSON.stringify({ ...extra, readings });
         const expected = readingsFromJson(JSON.parse(body), { maxQuarantined: Infinity });
         expect(await readingsFromJsonBody(Buffer.from(body), { maxQuarantined: Infinity })).toEqual(expected);
+        // and through the sliced path large bodies take
+        expect(await readingsFromJsonBody(Buffer.from(body), { maxQuarantined: Infinity, wholeJsonBytes: 0 })).toEqual(expected);
       }),
       { numRuns: 200 },
     );
@@ -108,28 +110,35 @@ describe('readingsFromJsonBody', () => {
 
   it('finds "readings" only at the top level, whatever strings and escapes come before it', async () => {
     const body = '{"note":"a \\"readings\\": [ ] ] {","nested":{"readings":[1,2]},"readings":[{"channel":"air_t","ts":1,"value":2}]}';
-    expect(fields(await readingsFromJsonBody(Buffer.from(body)))).toEqual([['air_t', 1, 2]]);
+    expect(fields(await readingsFromJsonBody(Buffer.from(body), { wholeJsonBytes: 0 }))).toEqual([['air_t', 1, 2]]);
   });
 
   it('refuses what JSON.parse refuses, and the wrong shape', async () => {
     for (const body of ['{"readings":[1,]}', '{"readings":[,1]}', '{"readings":[1,,2]}', '{"readings":[1]', '{"readings":[1]} x', '{"readings":[{"a":1}]', '']) {
-      await expect(readingsFromJsonBody(Buffer.from(body)), body).rejects.toThrow('body: not valid JSON');
+      for (const wholeJsonBytes of [0, undefined]) await expect(readingsFromJsonBody(Buffer.from(body), { wholeJsonBytes }), body).rejects.toThrow('body: not valid JSON');
     }
-    await expect(readingsFromJsonBody(Buffer.from('[{"readings":[]}]'))).rejects.toThrow('body: expected {"readings"');
-    await expect(readingsFromJsonBody(Buffer.from('{"readings":{}}'))).rejects.toThrow('body: expected {"readings"');
-    await expect(readingsFromJsonBody(Buffer.from('{"readings":[ ]}'))).resolves.toEqual([]);
+    for (const wholeJsonBytes of [0, undefined]) {
+      await expect(readingsFromJsonBody(Buffer.from('[{"readings":[]}]'), { wholeJsonBytes })).rejects.toThrow('body: expected {"readings"');
+      await expect(readingsFromJsonBody(Buffer.from('{"readings":{}}'), { wholeJsonBytes })).rejects.toThrow('body: expected {"readings"');
+      await expect(readingsFromJsonBody(Buffer.from('{"readings":[ ]}'), { wholeJsonBytes })).resolves.toEqual([]);
+    }
   });
 
   it('refuses nesting deeper than the limit with 400 before parsing (5,000 levels overflowed the stack when stringified)', async () => {
     const deep = (d: number) => Buffer.from(`{"readings":[{"channel":"air_t","ts":1,"value":${'['.repeat(d)}${']'.repeat(d)}}]}`);
-    await expect(readingsFromJsonBody(deep(5000))).rejects.toMatchObject({ status: 400, message: `body: nested deeper than ${MAX_JSON_DEPTH} levels` });
-    await expect(readingsFromJsonBody(deep(MAX_JSON_DEPTH - 3))).resolves.toHaveLength(1);
+    for (const wholeJsonBytes of [0, undefined]) {
+      await expect(readingsFromJsonBody(deep(5000), { wholeJsonBytes })).rejects.toMatchObject({ status: 400, message: `body: nested deeper than ${MAX_JSON_DEPTH} levels` });
+      await expect(readingsFromJsonBody(deep(MAX_JSON_DEPTH - 2), { wholeJsonBytes })).rejects.toMatchObject({ status: 400 });
+      await expect(readingsFromJsonBody(deep(MAX_JSON_DEPTH - 3), { wholeJsonBytes })).resolves.toHaveLength(1);
+    }
+    // a deep item that is not even an object
+    await expect(readingsFromJsonBody(Buffer.from(`{"readings":[${'['.repeat(5000)}${']'.repeat(5000)}]}`))).rejects.toMatchObject({ status: 400 });
   });
 
   it('refuses more than the readings cap with 413 before parsing any item', async () => {
     await expect(readingsFromJsonBody(Buffer.from(jsonOf(MAX_READINGS_PER_REQUEST)))).resolves.toHaveLength(MAX_READINGS_PER_REQUEST);
     const pauses = countPauses();
-    await expect(readingsFromJsonBody(Buffer.from(`{"readings":[${'0,'.repeat(MAX_READINGS_PER_REQUEST)}0]}`), { pause: pauses.pause })).rejects.toBeInstanceOf(TooManyReadingsError);
+    await expect(readingsFromJsonBody(Buffer.from(`{"readings":[${'0,'.repeat(MAX_READINGS_PER_REQUEST)}0]}`), { pause: pauses.pause, wholeJsonBytes: 0 })).rejects.toBeInstanceOf(TooManyReadingsError);
     expect(pauses.n).toBe(0);
   });
 
@@ -141,9 +150,11 @@ describe('readingsFromJsonBody', () => {
 
   it('lets other work run between groups of a large body (ordering, not timing)', async () => {
     const order: string[] = [];
-    const parsing = readingsFromJsonBody(Buffer.from(jsonOf(20_000))).then((rows) => order.push(`parsed ${rows.length}`));
+    const body = Buffer.from(jsonOf(40_000));
+    expect(body.length).toBeGreaterThan(1024 * 1024); // past the size parsed in one go
+    const parsing = readingsFromJsonBody(body).then((rows) => order.push(`parsed ${rows.length}`));
     setImmediate(() => order.push('other request'));
     await parsing;
-    expect(order).toEqual(['other request', 'parsed 20000']);
+    expect(order).toEqual(['other request', 'parsed 40000']);
   });
 });

@@ -16,7 +16,9 @@ export const MAX_JSON_DEPTH = 32;
 const SAMPLE_SIZE = 10;
 /** Work done between two yields to the event loop: characters of CSV, bytes of JSON scanned, JSON bytes parsed. */
 const SLICE_CHARS = 64 * 1024;
-const SCAN_SLICE_BYTES = 1024 * 1024;
+const SCAN_SLICE_BYTES = 512 * 1024;
+/** Largest JSON body parsed in one go (JSON.parse of 1 MB takes a few ms). */
+const WHOLE_JSON_BYTES = 1024 * 1024;
 const JSON_GROUP_BYTES = 128 * 1024;
 /** Largest part of a JSON body outside its "readings" array, parsed in one go. */
 const OUTSIDE_BYTES = 64 * 1024;
@@ -75,6 +77,8 @@ export interface BodyLimits {
   maxQuarantined?: number;
   /** Called between slices of work; the default waits for the event loop's next turn (`setImmediate`). */
   pause?: () => Promise<void>;
+  /** JSON bodies up to this many bytes are parsed in one go (default 1 MB; tests lower it). */
+  wholeJsonBytes?: number;
 }
 
 const nextTurn = () => new Promise<void>((resolve) => setImmediate(resolve));
@@ -93,9 +97,37 @@ function missingField(channel: unknown, ts: unknown, value: unknown): string | n
   return null;
 }
 
+/**
+ * True when `value` nests deeper than `max` levels, found with an explicit stack (no recursion).
+ * A row goes to quarantine as JSON text, and JSON.stringify recurses: thousands of levels
+ * overflow the stack, so such a row is refused before it gets there.
+ */
+function nestsDeeperThan(value: unknown, max: number): boolean {
+  const stack: Array<[unknown, number]> = [[value, 1]];
+  while (stack.length > 0) {
+    const [v, depth] = stack.pop()!;
+    if (depth > max) return true;
+    for (const child of Object.values(v as object)) if (child !== null && typeof child === 'object') stack.push([child, depth + 1]);
+  }
+  return false;
+}
+
+/** Whether any field of a reading item holds an object (rare: most items are three plain values). */
+function holdsObjects(item: object): boolean {
+  for (const key in item) {
+    const v = (item as Record<string, unknown>)[key];
+    if (v !== null && typeof v === 'object') return true;
+  }
+  return false;
+}
+
 /** The reading row of one item of a JSON `readings` array (items of the wrong shape keep only their text). */
 function readingOfItem(item: unknown, index: number, caps: BodyCaps): IncomingReading {
   caps.row();
+  // the item sits 2 levels down in the body
+  if (item !== null && typeof item === 'object' && (Array.isArray(item) || holdsObjects(item)) && nestsDeeperThan(item, MAX_JSON_DEPTH - 2)) {
+    throw new ValidationError(`body: nested deeper than ${MAX_JSON_DEPTH} levels`);
+  }
   if (!item || typeof item !== 'object' || Array.isArray(item)) {
     caps.badRow(index, 'row: expected an object {"channel", "ts", "value"}');
     return { index, channel: undefined, ts: undefined, value: undefined, raw: JSON.stringify(item) ?? 'undefined' };
@@ -136,6 +168,58 @@ const COLON = 0x3a;
 const COMMA = 0x2c;
 const isSpace = (c: number) => c === 0x20 || c === 0x0a || c === 0x0d || c === 0x09;
 
+/** Where the scan of a JSON body stands between two slices. */
+interface ScanState {
+  depth: number;
+  inString: boolean;
+  escaped: boolean;
+  stringStart: number;
+  lastKey: string | null;
+  /** Offset after a depth-1 string, until we know whether a colon follows (then it was a key). */
+  pendingKey: number;
+  span: ReadingsSpan | null;
+  current: ReadingsSpan | null;
+}
+
+/** Scans bytes `from`..`to` (kept in a plain function of its own so V8 optimises the loop). */
+function scanSlice(buf: Buffer, from: number, to: number, st: ScanState, maxItems: number): void {
+  for (let i = from; i < to; i++) {
+    const c = buf[i];
+    if (st.inString) {
+      if (st.escaped) st.escaped = false;
+      else if (c === BACKSLASH) st.escaped = true;
+      else if (c === QUOTE) {
+        st.inString = false;
+        if (st.depth === 1) st.pendingKey = i + 1;
+      }
+      continue;
+    }
+    if (st.pendingKey >= 0 && !isSpace(c)) {
+      st.lastKey = c === COLON ? safeKey(buf, st.stringStart, st.pendingKey) : null;
+      st.pendingKey = -1;
+      if (c === COLON) continue;
+    }
+    if (c === QUOTE) {
+      st.inString = true;
+      st.stringStart = i;
+    } else if (c === 0x7b || c === 0x5b) {
+      if (++st.depth > MAX_JSON_DEPTH) throw new ValidationError(`body: nested deeper than ${MAX_JSON_DEPTH} levels`);
+      if (st.depth === 2 && c === 0x5b && st.lastKey === 'readings') st.current = { open: i, close: -1, commas: [] };
+    } else if (c === 0x7d || c === 0x5d) {
+      if (st.depth === 2 && st.current && c === 0x5d) {
+        st.current.close = i;
+        st.span = st.current; // a repeated key: the last one wins, as in JSON.parse
+        st.current = null;
+      }
+      st.depth--;
+      if (st.depth === 1) st.lastKey = null;
+    } else if (c === COMMA && st.depth === 2 && st.current) {
+      st.current.commas.push(i);
+      if (st.current.commas.length >= maxItems) throw new TooManyReadingsError(maxItems);
+    } else if (c === COMMA && st.depth === 1) st.lastKey = null;
+  }
+}
+
 /**
  * One pass over the bytes of a JSON body, in slices with a pause between them: refuses nesting
  * deeper than `MAX_JSON_DEPTH` (so no later step recurses deeply), counts the items of the
@@ -144,54 +228,12 @@ const isSpace = (c: number) => c === 0x20 || c === 0x0a || c === 0x0d || c === 0
  * errors are left to `JSON.parse`.
  */
 async function scanJson(buf: Buffer, maxItems: number, pause: () => Promise<void>): Promise<ReadingsSpan | null> {
-  let depth = 0;
-  let inString = false;
-  let escaped = false;
-  let stringStart = -1;
-  let lastKey: string | null = null;
-  let pendingKey = -1; // offset after a depth-1 string, until we know whether a colon follows
-  let span: ReadingsSpan | null = null;
-  let current: ReadingsSpan | null = null;
+  const st: ScanState = { depth: 0, inString: false, escaped: false, stringStart: -1, lastKey: null, pendingKey: -1, span: null, current: null };
   for (let from = 0; from < buf.length; from += SCAN_SLICE_BYTES) {
     if (from > 0) await pause();
-    const to = Math.min(buf.length, from + SCAN_SLICE_BYTES);
-    for (let i = from; i < to; i++) {
-      const c = buf[i];
-      if (inString) {
-        if (escaped) escaped = false;
-        else if (c === BACKSLASH) escaped = true;
-        else if (c === QUOTE) {
-          inString = false;
-          if (depth === 1) pendingKey = i + 1;
-        }
-        continue;
-      }
-      if (pendingKey >= 0 && !isSpace(c)) {
-        lastKey = c === COLON ? safeKey(buf, stringStart, pendingKey) : null;
-        pendingKey = -1;
-        if (c === COLON) continue;
-      }
-      if (c === QUOTE) {
-        inString = true;
-        stringStart = i;
-      } else if (c === 0x7b || c === 0x5b) {
-        if (++depth > MAX_JSON_DEPTH) throw new ValidationError(`body: nested deeper than ${MAX_JSON_DEPTH} levels`);
-        if (depth === 2 && c === 0x5b && lastKey === 'readings') current = { open: i, close: -1, commas: [] };
-      } else if (c === 0x7d || c === 0x5d) {
-        if (depth === 2 && current && c === 0x5d) {
-          current.close = i;
-          span = current; // a repeated key: the last one wins, as in JSON.parse
-          current = null;
-        }
-        depth--;
-        if (depth === 1) lastKey = null;
-      } else if (c === COMMA && depth === 2 && current) {
-        current.commas.push(i);
-        if (current.commas.length >= maxItems) throw new TooManyReadingsError(maxItems);
-      } else if (c === COMMA && depth === 1) lastKey = null;
-    }
+    scanSlice(buf, from, Math.min(buf.length, from + SCAN_SLICE_BYTES), st, maxItems);
   }
-  return span;
+  return st.span;
 }
 
 function safeKey(buf: Buffer, start: number, end: number): string | null {
@@ -212,13 +254,17 @@ function parseJsonText(text: string): unknown {
 }
 
 /**
- * Reads a JSON ingest body (UTF-8 bytes) into rows without holding the event loop: one scan
- * finds the items of "readings" (refusing deep nesting with 400 and too many readings with 413
- * before parsing), then the items are parsed a group of about 128 KB at a time with a pause
- * between groups, and the rest of the body is checked to be valid JSON of the expected shape.
- * A parse of the whole body at once would hold the thread for ~50–200 ms at the 8 MB limit.
+ * Reads a JSON ingest body (UTF-8 bytes) into rows without holding the event loop for long. A
+ * body of up to 1 MB is parsed at once. A larger one is scanned first, in slices with a pause
+ * between them, to find the items of "readings" (refusing deep nesting with 400 and too many
+ * readings with 413 before parsing); then the items are parsed a group of about 128 KB at a
+ * time with a pause between groups, and the rest of the body is checked to be valid JSON of the
+ * expected shape. A parse of the whole body at once would hold the thread for ~50–200 ms at the
+ * 8 MB limit. Items nested deeper than `MAX_JSON_DEPTH` are refused with 400 either way.
  */
 export async function readingsFromJsonBody(buf: Buffer, limits: BodyLimits = {}): Promise<IncomingReading[]> {
+  // A body of up to 1 MB is parsed in one go (a few ms); items are checked for depth one by one.
+  if (buf.length <= (limits.wholeJsonBytes ?? WHOLE_JSON_BYTES)) return readingsFromJson(parseJsonText(buf.toString('utf8')), limits);
   const pause = limits.pause ?? nextTurn;
   const caps = capsOf(limits);
   const span = await scanJson(buf, limits.maxReadings ?? MAX_READINGS_PER_REQUEST, pause);
