@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createDb, type Db } from '../../server/db/create-db.ts';
 import { migrateToLatest } from '../../server/db/migrate.ts';
 import { seedDemo } from '../../server/cli/seed-demo.ts';
-import { ccf, detectPeriod, identifyProcess } from '../../server/analysis/index.ts';
+import { ccf, channelDiagnostics, detectPeriod, identifyProcess } from '../../server/analysis/index.ts';
 import { DEV_ACCOUNTS } from '../../docker-free-scripts/identity-provider/dev-accounts.ts';
 import { testConfig } from '../support/test-app.ts';
 
@@ -89,6 +89,36 @@ describe('demo lab seed', () => {
     expect(hours).toBeGreaterThan(2);
     expect(hours).toBeLessThan(12);
   });
+
+  /** The last `days` of a channel as the diagnostics read them. */
+  async function lastDays(loggerName: string, key: string, days: number) {
+    const s = await series(loggerName, key);
+    const from = s.ts.findIndex((t) => t >= s.ts.at(-1)! - days * DAY);
+    return { timestamps: s.ts.slice(from), values: s.values.slice(from) };
+  }
+
+  it('the diagnostics conclusions a scientist reads on the demo are right (30 days, 5-minute steps)', async () => {
+    // soil moisture follows watering by hours, in the same direction (the scenario's delay kernel peaks at 3.5 h and the level then drains over a day)
+    const soil = channelDiagnostics(await lastDays('North plot soil station', 'soil_moisture', 30), { step: 300_000, agg: 'mean', labels: { channel: 'Soil moisture', partner: 'Irrigation flow' } }, await lastDays('North plot soil station', 'irrigation', 30));
+    const cross = soil.crossCorrelation!;
+    expect(cross.method).toBe('prewhitened');
+    expect(cross.strongest!.significant).toBe(true);
+    expect(cross.strongest!.value).toBeGreaterThan(0);
+    expect(cross.strongest!.lagMs).toBeGreaterThanOrEqual(2 * 3_600_000);
+    expect(cross.strongest!.lagMs).toBeLessThanOrEqual(10 * 3_600_000);
+    expect(cross.explanation).toMatch(/Soil moisture follows Irrigation flow by about \d+(\.\d)? h, and the two move in the same direction/);
+    // the glasshouse air temperature: exactly one day of 5-minute steps, and a model for what is left after it
+    const air = channelDiagnostics(await lastDays('Glasshouse 2 climate', 'air_t', 30), { step: 300_000, agg: 'mean' });
+    expect(air.period).toMatchObject({ used: 288, source: 'detected' });
+    expect(air.identification).toMatchObject({ verdict: 'seasonal', period: 288 });
+    expect(air.identification.model).toMatchObject({ fittedOn: 'remainder' });
+    // the water bath: no cycle, persistent AR(1), and a trend whose honest interval is far wider than the naive one
+    const bath = channelDiagnostics(await lastDays('Water bath B', 'bath_t', 30), { step: 300_000, agg: 'mean' });
+    expect(bath.period.used).toBeNull();
+    expect(bath.identification).toMatchObject({ verdict: 'ar', p: 1 });
+    if (!bath.trend.available) throw new Error('expected a trend');
+    expect(bath.trend.interval[1] - bath.trend.interval[0]).toBeGreaterThan(3 * (bath.trend.intervalOls[1] - bath.trend.intervalOls[0]));
+  }, 120_000);
 
   it('the brook gauge went silent nine days before the end; the cold-room probe drifted out of range', async () => {
     const brook = await series('Fern Brook gauge', 'level');

@@ -134,6 +134,19 @@ describe('browsing channels and reading their diagnostics', () => {
     expect(await panel.getByTestId('verdict').textContent()).not.toBe('');
     expect(await panel.getByText('Method and parameters').count()).toBe(1);
     await keepScreenshot(page, 'channel-diagnostics');
+    // the process model fitted to what is left after the daily cycle, and the trend with both intervals
+    const model = panel.getByTestId('process-model');
+    await model.scrollIntoViewIfNeeded();
+    expect(await model.getByTestId('process-model-chosen').textContent()).toMatch(/(AR|MA|ARMA)\(\d(,\d)?\)|white noise/i);
+    expect(await model.getByTestId('process-model-candidates').getByRole('row').count()).toBeGreaterThan(10);
+    expect(await model.getByTestId('process-model-sentence').textContent()).toMatch(/independent information about the mean\.$/);
+    await keepScreenshot(page, 'channel-process-model');
+    const trend = panel.getByTestId('trend');
+    await trend.scrollIntoViewIfNeeded();
+    expect(await trend.getByTestId('trend-sentence').textContent()).toMatch(/^Allowing for autocorrelation, Soil moisture/);
+    expect(await trend.getByTestId('trend-hac').textContent()).toMatch(/Newey–West, lag \d+/);
+    expect(await trend.getByTestId('trend-ols').count()).toBe(1);
+    await keepScreenshot(page, 'channel-trend');
   });
 
   it('cross-correlates with the irrigation flow and states the lag in words', async () => {
@@ -142,8 +155,24 @@ describe('browsing channels and reading their diagnostics', () => {
     await panel.getByRole('button', { name: 'Cross-correlate' }).click();
     const sentence = panel.getByTestId('ccf-sentence');
     await sentence.waitFor({ timeout: 60_000 });
-    expect(await sentence.textContent()).toMatch(/at lag 24, lies outside .* band: Soil moisture trails Drip irrigation flow by 2 h, and the two rise and fall together\./);
+    expect(await sentence.textContent()).toMatch(/^After both channels were filtered by the AR\(\d+\) model of Drip irrigation flow .* at lag 24 \(2 h\), lies beyond the ±[0-9.]+ band that holds for all \d+ lags together \(Šidák over \d+ lags\): Soil moisture follows Drip irrigation flow by about 2 h, and the two move in the same direction\./);
     await chartsReady(panel, 1);
     await keepScreenshot(page, 'channel-cross-correlation');
+    await panel.getByLabel('Show the raw cross-correlation beside it').check();
+    await panel.getByTestId('ccf-raw').waitFor();
+    await chartsReady(panel, 2);
+    await keepScreenshot(page, 'channel-cross-correlation-raw');
+  });
+
+  it('compares the mean of two ranges with an interval that allows for autocorrelation, beside Welch’s', async () => {
+    const panel = page.getByRole('region', { name: 'Before and after' });
+    await panel.scrollIntoViewIfNeeded();
+    await panel.getByRole('button', { name: 'Compare' }).click();
+    const result = panel.getByTestId('comparison-result');
+    await result.waitFor({ timeout: 60_000 });
+    expect(await panel.getByTestId('comparison-sentence').textContent()).toMatch(/^The mean of range b differs from Soil moisture in range a by /);
+    expect(await panel.getByTestId('comparison-dependent').textContent()).not.toBe('');
+    expect(await panel.getByTestId('comparison-welch').textContent()).not.toBe('');
+    await keepScreenshot(page, 'channel-before-after');
   });
 });
