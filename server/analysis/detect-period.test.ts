@@ -54,6 +54,17 @@ describe('detectPeriod', () => {
     expect(result.candidates[0].note).toContain('no calendar period within the spectral resolution');
   });
 
+  it('finds a daily cycle under a drift that is no straight line (a probe drifting away over the last 10 of 30 days)', () => {
+    // Simulation: 2-minute steps (a day is 720), daily sine of 0.15 in AR(1) noise (φ 0.3, SD ≈ 0.13), ramp of 5 over the last third.
+    const n = 30 * 720;
+    const noise = simulateArma({ ar: [0.3] }, n, 21);
+    const x = noise.map((v, t) => 0.12 * v + 0.15 * Math.sin((2 * Math.PI * t) / 720) + (t > 20 * 720 ? (5 * (t - 20 * 720)) / (10 * 720) : 0));
+    const result = detectPeriod(x, { stepMs: 2 * MINUTE });
+    expect(result.best).toBe(720);
+    // The drift makes the AR(5) fit nearly a unit root, far above the spectrum near one day.
+    expect(result.candidates[0].note).toContain('scaled down to it');
+  });
+
   it('reports no period for white noise, AR(1), AR(2) with real roots or MA(1)', () => {
     for (const seed of [1, 2, 3]) {
       expect(detectPeriod(simulateArma({}, 2000, seed)).best).toBeNull();

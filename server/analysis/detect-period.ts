@@ -34,13 +34,15 @@ export interface PeriodCandidate {
   acf: number;
   /** Autocorrelation at `period` that the fitted AR background alone implies (persistence, not a cycle). */
   backgroundAcf: number;
+  /** Bartlett's band for the ACF at `period` under the AR background (wider than `band` for a persistent series). */
+  acfBand: number;
   /** Periodogram ordinate over the AR background spectrum there (≈ Exp(1) without a cycle). */
   peakRatio: number;
   /** Order of the AR background fitted for this candidate (its harmonics removed first). */
   backgroundOrder: number;
   /** Chance of a ratio this large among the frequencies searched in a series without cycles (multiplicity-corrected). */
   pValue: number;
-  /** Which views support it: the periodogram always, the ACF when it exceeds the background ACF by the band. */
+  /** Which views support it: the periodogram always, the ACF when it exceeds the background's ACF by `acfBand`. */
   sources: ('periodogram' | 'acf')[];
   /** pValue < alpha. */
   significant: boolean;
@@ -82,11 +84,26 @@ const HARMONICS = 4;
  * repeats at least this often in the record. Below that, the AR level at the lowest
  * frequencies rests on the few ordinates there: removing one of them lowers the fitted
  * persistence and makes the removed ordinate look significant (on two weeks of a simulated
- * storm-driven level the week was "found" in 29 of 100 series with the fundamental always
- * removed, in 1 of 100 with this rule).
+ * storm-driven level the week, 2 cycles, was "found" in 29 of 100 series with the fundamental
+ * always removed; in none of 200 with this rule and ACF_FREE_CYCLES).
  */
-const NOTCH_MIN_CYCLES = 4;
-/** Largest AR order of the background (AIC chooses up to this, and up to a quarter of the candidate period). */
+const NOTCH_MIN_CYCLES = 6;
+/** Half-width, in Fourier bins, of the neighbourhood whose median checks the AR level at a peak. */
+const LOCAL_BINS = 24;
+/** The AR level is replaced by the local one when the whitened local median is below this share of ln 2. */
+const LOCAL_MISFIT = 0.25;
+/**
+ * A candidate repeating fewer times than this in the record must also be supported by the ACF
+ * (above the background's own ACF by Bartlett's band under it): with so few repetitions the
+ * spectral test rests on the few lowest ordinates, where a drift or a slow wander is hard to
+ * tell from a cycle.
+ */
+const ACF_FREE_CYCLES = 6;
+/**
+ * Largest AR order of the background (AIC chooses up to this). Low on purpose: an AR(5)
+ * spectrum cannot form a peak narrower than about a fifth of the frequency range, so even with
+ * a harmonic left in the data it cannot take a one-bin cycle into the background.
+ */
 const AR_ORDER_CAP = 5;
 
 /** ACF local maxima at lags 2..maxPeriod whose rise above the preceding trough exceeds `margin`. */
@@ -248,23 +265,30 @@ const fmt = (v: number) => (Math.round(v * 10) / 10).toString();
  * 2. Background: the spectrum of an autoregressive model, σ²/|1 − Σ φ_j e^{−2πifj}|²
  *    (Brockwell & Davis, *Introduction to Time Series and Forecasting*, 2nd ed., §4.4;
  *    Priestley, *Spectral Analysis and Time Series*, 1981, §7.8), fitted by Yule–Walker with
- *    the order chosen by AIC (as `arYuleWalker`). Without a cycle the periodogram ordinates
- *    are ≈ S(f)·Exp(1) (Brockwell & Davis, *Time Series: Theory and Methods*, 2nd ed.,
- *    Thm 10.3.2), so I(f)/S(f) is the test ratio. The order is limited to AR_ORDER_CAP (5)
- *    and to a quarter of the candidate period, and for each candidate the model is fitted after
- *    its fundamental and first harmonics are taken out of the autocovariances: an AR model of
- *    high order fitted to a series that still contains the cycle reproduces the cycle in its
- *    own spectrum and would explain the peak away; a low-order model cannot form a peak as
- *    narrow as one Fourier bin, and with the harmonics removed its spectrum describes the
- *    persistence only (a slow AR(1) "weather" has its power at low frequencies, so a
- *    persistent series without a cycle is not mistaken for one, and a weak daily cycle on top
- *    of it stands out against the right level).
+ *    the order chosen by AIC up to 5 (as `arYuleWalker`, R's `ar.yw`). Without a cycle the
+ *    periodogram ordinates are ≈ S(f)·Exp(1) (Brockwell & Davis, *Time Series: Theory and
+ *    Methods*, 2nd ed., Thm 10.3.2), so I(f)/S(f) is the test ratio.
+ *    The order and the cycle: an AR model fitted to a series that still contains a strong
+ *    cycle shapes its own spectrum around it and explains the peak away (an AR(5) fitted to a
+ *    12-step cosine of amplitude 5 in AR(1) noise, n = 240, leaves the peak 1.7 times its
+ *    background instead of about 770 times the noise spectrum). So
+ *    for each candidate frequency f the model is fitted to the autocovariances with the
+ *    sinusoids at f, 2f, 3f, 4f taken out ((1 − h/n)(2I(f_k)/n)cos 2πf_k h each). A low order
+ *    (≤ 5) then describes persistence only: it cannot form a peak one Fourier bin wide, so
+ *    the cycle cannot hide in it, and a slow AR(1) "weather" keeps its power at low
+ *    frequencies, where it belongs. Two limits: the fundamental is not taken out when it
+ *    repeats fewer than 6 times in the record (or lies within 6 bins of the Nyquist
+ *    frequency), because the AR level at the lowest frequencies rests on the few ordinates
+ *    there and removing one makes that one look significant; and where the AR level is more
+ *    than 4 times the median of the periodogram around the peak (±24 bins, median of Exp(1) =
+ *    ln 2), as when a drift that is no straight line passes for persistence, the background
+ *    is scaled down to that local level.
  * 3. Open search: the local maxima of the periodogram with the highest ratio to the whole
- *    series' AR spectrum are examined (SPECTRAL_PEAKS of them); the raw period comes from the
- *    parabola through the log power at the grid maximum. The chance of a ratio c somewhere
- *    among the M grid frequencies searched is 1 − (1 − e^{−c})^M (a Fisher-type maximum test,
- *    Fisher 1929, Proc. R. Soc. A 125:54–59, against the AR background instead of a flat one;
- *    counting every padded grid point keeps it on the safe side).
+ *    series' AR spectrum (8) and the highest power alone (3) are examined; the raw period comes
+ *    from the parabola through the log power at the grid maximum. The chance of a ratio c
+ *    somewhere among the M grid frequencies searched is 1 − (1 − e^{−c})^M (a Fisher-type
+ *    maximum test, Fisher 1929, Proc. R. Soc. A 125:54–59, against the AR background instead
+ *    of a flat one; counting every padded grid point keeps it on the safe side).
  * 4. Calendar periods (with `stepMs`): the hour, day and week that are whole numbers of steps
  *    are tested at their exact frequency, corrected over the K calendar frequencies only
  *    (1 − (1 − e^{−c})^K), so a weak daily cycle under strong persistence, which a search over
@@ -273,15 +297,18 @@ const fmt = (v: number) => (Math.round(v * 10) / 10).toString();
  *    lies within one Fourier bin (|f_raw − 1/P| ≤ 1/n, the resolution of the periodogram;
  *    Priestley 1981 §6.2.3, §7.5) of a calendar period P is reported as exactly P steps, with
  *    the raw estimate kept in `exactPeriod` and a `note` saying so.
- * 5. The best guess is the significant candidate whose ACF most exceeds the ACF its own AR
- *    background implies at that lag: at the true period a seasonal series repeats (ACF near
- *    its peak value; Box, Jenkins & Reinsel, *Time Series Analysis*, 4th ed., §9.1), which
- *    prefers the fundamental over its harmonics, while the subtraction keeps persistence alone
- *    from favouring short periods. The ACF no longer vetoes a peak: under strong persistence
- *    its sampling error is far wider than the white-noise band.
+ * 5. A candidate that repeats fewer than 6 times in the record must also show in the ACF:
+ *    r(P) above the background model's ACF by Bartlett's band under that model. Otherwise the
+ *    ACF does not veto a peak: under strong persistence its sampling error is far wider than
+ *    the white-noise band (the issue's cold room: ACF 0.8 at one day, but mostly drift).
+ * 6. The best guess is the significant candidate whose ACF most exceeds the ACF its own AR
+ *    background implies at that lag: at the true period a seasonal series repeats (Box,
+ *    Jenkins & Reinsel, *Time Series Analysis*, 4th ed., §9.1), which prefers the fundamental
+ *    over its harmonics, while the subtraction keeps persistence alone from favouring short
+ *    periods.
  *
- * Cost: O(n log n) time (the transforms), O(n) per calendar frequency, O(p²) per candidate;
- * O(n) space.
+ * Cost: O(n log n) time (the transforms), O(n) per calendar frequency, O(p·n) over the grid
+ * for the background spectrum, O(p²) per candidate; O(n) space.
  */
 export function detectPeriod(x: Series, options: DetectPeriodOptions = {}): DetectPeriodResult {
   const fn = 'detectPeriod';
@@ -308,7 +335,6 @@ export function detectPeriod(x: Series, options: DetectPeriodOptions = {}): Dete
   const orderLimit = Math.max(1, Math.min(AR_ORDER_CAP, n - 3, r.length - 1));
   const gamma = new Float64Array(orderLimit + 1);
   for (let h = 0; h <= orderLimit; h++) gamma[h] = r[h] * c0;
-  const orderFor = (_period: number) => orderLimit;
   const spectrumOf = (b: Background, f: number) => arSpectrum(b.coefficients, b.variance, f);
 
   // Grid indices searched: periods 2..maxPeriod, the Nyquist ordinate (χ²₁) left out.
@@ -330,14 +356,47 @@ export function detectPeriod(x: Series, options: DetectPeriodOptions = {}): Dete
   const peaks = [...new Set([...byRatio.indices(), ...byPower.indices()])];
 
   /** Background fitted with the harmonics k·f (k ≤ HARMONICS, below Nyquist) taken out. */
-  const backgroundFor = (f: number, fundamentalPower: number, period: number): Background => {
+  const backgroundFor = (f: number, fundamentalPower: number): Background => {
     // Away from 0 and 1/2, where the cosine and sine at f are not nearly collinear.
     const notchable = (g: number) => n * Math.min(g, 0.5 - g) >= NOTCH_MIN_CYCLES;
     const notch = notchable(f) ? [{ frequency: f, power: fundamentalPower }] : [];
     for (let k = 2; k <= HARMONICS && k * f < 0.5; k++) if (notchable(k * f)) notch.push({ frequency: k * f, power: gridOrdinateNear(power, size, k * f) });
-    return fitBackground(gamma, n, orderFor(period), notch);
+    return fitBackground(gamma, n, orderLimit, notch);
   };
-  const acfBeyond = (b: Background, period: number) => arAutocorrelations(b.coefficients, b.start, period)[period];
+  /**
+   * The ACF the background implies at `period`, and Bartlett's band for the sample ACF there,
+   * z(1 − α/2)·√((1 + 2 Σ_{k≥1} ρ(k)²)/n) (Bartlett 1946; Box, Jenkins & Reinsel, 4th ed.,
+   * eq. 2.1.13, for a lag beyond which the model's ACF has died out).
+   */
+  const acfOf = (b: Background, period: number): { rho: number; band: number } => {
+    const rho = arAutocorrelations(b.coefficients, b.start, period);
+    let squares = 0;
+    for (let k = 1; k < period; k++) squares += rho[k] * rho[k];
+    return { rho: rho[period], band: (band * Math.sqrt(1 + 2 * squares)) };
+  };
+  /**
+   * The background level at f: the AR spectrum, unless the periodogram around f (±LOCAL_BINS
+   * Fourier bins, the peak's own ±2 bins left out) lies far below it — median of I/S under
+   * LOCAL_MISFIT·ln 2 — as when a drift that is not a straight line makes the AR model see
+   * persistence the spectrum near f does not have; the AR spectrum is then scaled to that
+   * local median (median of Exp(1) = ln 2). Returns the level and the scale applied (1 if none).
+   */
+  const levelAt = (b: Background, f: number): { level: number; scale: number } => {
+    const spectrum = spectrumOf(b, f);
+    const centre = f * size - 1;
+    const inner = (2 * size) / n;
+    const outer = (LOCAL_BINS * size) / n;
+    const whitened: number[] = [];
+    for (let k = Math.max(0, Math.ceil(centre - outer)); k <= Math.min(power.length - 2, Math.floor(centre + outer)); k++) {
+      if (Math.abs(k - centre) > inner) whitened.push(power[k] / spectrumOf(b, (k + 1) / size));
+    }
+    if (whitened.length < 8) return { level: spectrum, scale: 1 };
+    whitened.sort((u, v) => u - v);
+    const mid = whitened.length >> 1;
+    const median = whitened.length % 2 ? whitened[mid] : (whitened[mid - 1] + whitened[mid]) / 2;
+    const scale = median / Math.LN2;
+    return scale < LOCAL_MISFIT ? { level: spectrum * scale, scale } : { level: spectrum, scale: 1 };
+  };
 
   interface Draft {
     period: number;
@@ -347,6 +406,8 @@ export function detectPeriod(x: Series, options: DetectPeriodOptions = {}): Dete
     pFamily: number;
     background: Background;
     how: 'search' | 'calendar' | 'both';
+    /** Scale applied to the AR spectrum where it overstated the local level (1 if none). */
+    scale: number;
   }
   const drafts: Draft[] = [];
 
@@ -354,22 +415,24 @@ export function detectPeriod(x: Series, options: DetectPeriodOptions = {}): Dete
   for (const c of calendars) {
     const f = 1 / c.steps;
     const ordinate = ordinateAt(detrended, f);
-    const background = backgroundFor(f, ordinate, c.steps);
-    const peakRatio = ordinate / spectrumOf(background, f);
+    const background = backgroundFor(f, ordinate);
+    const { level, scale } = levelAt(background, f);
+    const peakRatio = ordinate / level;
     // Raw estimate: the highest grid point within one Fourier bin, refined.
     let top = -1;
     for (let i = Math.max(0, Math.ceil((f - 1 / n) * size) - 1); i <= Math.min(power.length - 1, Math.floor((f + 1 / n) * size) - 1); i++) {
       if (top < 0 || power[i] > power[top]) top = i;
     }
     const exactPeriod = top < 0 ? c.steps : 1 / refinedFrequency(power, size, top);
-    drafts.push({ period: c.steps, exactPeriod, calendar: c.name, peakRatio, pFamily: maxExponentialPValue(peakRatio, calendars.length), background, how: 'calendar' });
+    drafts.push({ period: c.steps, exactPeriod, calendar: c.name, peakRatio, pFamily: maxExponentialPValue(peakRatio, calendars.length), background, how: 'calendar', scale });
   }
 
   for (const i of peaks) {
     const f = refinedFrequency(power, size, i);
     const exactPeriod = 1 / f;
-    const background = backgroundFor(f, gridOrdinateNear(power, size, f), exactPeriod);
-    const peakRatio = power[i] / spectrumOf(background, (i + 1) / size);
+    const background = backgroundFor(f, gridOrdinateNear(power, size, f));
+    const { level, scale } = levelAt(background, (i + 1) / size);
+    const peakRatio = power[i] / level;
     const pFamily = maxExponentialPValue(peakRatio, searched);
     const near = calendarPeriodNear(f, n, calendars);
     if (near) {
@@ -378,19 +441,21 @@ export function detectPeriod(x: Series, options: DetectPeriodOptions = {}): Dete
       if (pFamily < merged.pFamily) {
         merged.pFamily = pFamily;
         merged.peakRatio = peakRatio;
+        merged.scale = scale;
       }
       merged.how = 'both';
       continue;
     }
     const period = Math.min(maxPeriod, Math.max(2, Math.round(exactPeriod)));
     if (drafts.some((d) => d.period === period)) continue;
-    drafts.push({ period, exactPeriod, calendar: null, peakRatio, pFamily, background, how: 'search' });
+    drafts.push({ period, exactPeriod, calendar: null, peakRatio, pFamily, background, how: 'search', scale });
   }
 
   const candidates: PeriodCandidate[] = drafts.map((d) => {
     const pValue = Math.min(1, families * d.pFamily);
     const acf = r[d.period];
-    const backgroundAcf = acfBeyond(d.background, d.period);
+    const { rho: backgroundAcf, band: acfBand } = acfOf(d.background, d.period);
+    const acfSupports = acf - backgroundAcf > acfBand;
     const model = `AR(${d.background.order})`;
     let note: string;
     if (d.calendar) {
@@ -402,17 +467,19 @@ export function detectPeriod(x: Series, options: DetectPeriodOptions = {}): Dete
     } else {
       note = `${d.period} steps (raw estimate ${fmt(d.exactPeriod)}; ${calendars.length ? 'no calendar period within the spectral resolution' : 'no grid step given, so no calendar period was checked'})`;
     }
+    if (d.scale < 1) note += `; the ${model} background was ${fmt(1 / d.scale)} times the periodogram around the peak and was scaled down to it`;
     return {
       period: d.period,
       exactPeriod: d.exactPeriod,
       calendar: d.calendar,
       acf,
       backgroundAcf,
+      acfBand,
       peakRatio: d.peakRatio,
       backgroundOrder: d.background.order,
       pValue,
-      sources: acf - backgroundAcf > band ? ['periodogram', 'acf'] : ['periodogram'],
-      significant: pValue < alpha,
+      sources: acfSupports ? ['periodogram', 'acf'] : ['periodogram'],
+      significant: pValue < alpha && (acfSupports || n / d.period >= ACF_FREE_CYCLES),
       note,
     };
   });
