@@ -10,8 +10,7 @@ import { integerOption } from './integer-option.ts';
 import { ljungBox } from './ljung-box.ts';
 import type { PortmanteauResult } from './portmanteau-test.ts';
 import { readingsPerIndependent } from './readings-per-independent.ts';
-import { fitArma } from './fit-arma.ts';
-import { selectArma } from './select-arma.ts';
+import { selectArma, type SelectArmaResult } from './select-arma.ts';
 import { stl } from './stl.ts';
 
 export type ProcessVerdict = 'white-noise' | 'ar' | 'ma' | 'arma' | 'needs-differencing' | 'seasonal';
@@ -64,7 +63,7 @@ export interface ProcessModelFit {
   /** −2 log L + (p + q + 2) log n, n the values fitted. */
   bic: number;
   converged: boolean;
-  /** Every order tried; `admissible`: converged with all AR and MA roots outside 1.01. */
+  /** Every order tried; `admissible`: converged with all roots outside 1.01 (a pure AR model: stationary). */
   candidates: { p: number; q: number; aicc: number; bic: number; logLik: number; converged: boolean; admissible: boolean }[];
   /** The order with the lowest AICc (selectArma's choice), shown beside the BIC choice. */
   lowestAicc: { p: number; q: number };
@@ -179,16 +178,18 @@ function fitModel(series: Float64Array, fittedOn: 'series' | 'remainder', option
   const window = series.subarray(start);
   const selection = selectArma(window, { maxP: options.maxP ?? 3, maxQ: options.maxQ ?? 3 });
   const bic = (c: { p: number; q: number; logLik: number }) => -2 * c.logLik + (c.p + c.q + 2) * Math.log(cells);
-  const candidates = selection.candidates.map((c) => ({ p: c.p, q: c.q, aicc: c.aicc, bic: bic(c), logLik: c.logLik, converged: c.converged, admissible: c.admissible }));
-  const byBic = candidates.filter((c) => c.admissible).sort((a, b) => a.bic - b.bic)[0];
-  let model = selection.model;
+  // A pure AR model has no MA root for an AR root to cancel, so only stationarity matters there:
+  // a very persistent channel (φ above 1/1.01) keeps its AR(1) instead of losing it to the 1.01 rule.
+  const usable = (c: SelectArmaResult['candidates'][number]) => c.admissible || (c.converged && c.q === 0 && Number.isFinite(c.aicc));
+  const candidates = selection.candidates.map((c) => ({ p: c.p, q: c.q, aicc: c.aicc, bic: bic(c), logLik: c.logLik, converged: c.converged, admissible: usable(c) }));
+  const chosen = selection.candidates.filter(usable).sort((a, b) => bic(a) - bic(b))[0];
+  const model = chosen ? chosen.model : selection.model;
   let residualTest = selection.residualTest;
   let criterionNote: string | null = null;
-  if (byBic && (byBic.p !== selection.p || byBic.q !== selection.q)) {
-    model = fitArma(window, { p: byBic.p, q: byBic.q });
-    const lag = Math.max(selection.residualTest.lag, byBic.p + byBic.q + 1);
-    residualTest = { lag, ...ljungBox(model.residuals, { lag, fitdf: byBic.p + byBic.q }) };
-    criterionNote = `The lowest AICc was ARMA(${selection.p},${selection.q}); the verdict follows the lowest BIC, ARMA(${byBic.p},${byBic.q}), the criterion that finds the true order as the series grows.`;
+  if (chosen && (chosen.p !== selection.p || chosen.q !== selection.q)) {
+    const lag = Math.max(selection.residualTest.lag, chosen.p + chosen.q + 1);
+    residualTest = { lag, ...ljungBox(model.residuals, { lag, fitdf: chosen.p + chosen.q }) };
+    criterionNote = `The lowest AICc was ARMA(${selection.p},${selection.q}); the verdict follows the lowest BIC, ARMA(${chosen.p},${chosen.q}), the criterion that finds the true order as the series grows.`;
   }
   const p = model.ar.length;
   const q = model.ma.length;

@@ -130,11 +130,13 @@ export function channelRoutes(deps: { channels: ChannelsService; diagnostics: Di
       responses: DIAGNOSTICS_BUSY,
       handle: async (req, res) => {
         const { channelId } = parseInput(channelParams, req.params);
-        const q = parseInput(comparisonQuery, req.query);
         const lab = labOf(res);
+        // another lab's channel answers 404 whatever the query holds
+        const channel = await channels.requireChannel(lab, channelId);
+        const q = parseInput(comparisonQuery, req.query);
         const a = await withinPlanHistory(deps.historyWindow, lab, { from: q.aFrom, to: q.aTo }, res);
         const b = await withinPlanHistory(deps.historyWindow, lab, { from: q.bFrom, to: q.bTo }, res);
-        const leave = deps.diagnosticsRuns?.enter(callerIdOf(res), `a comparison on channel '${(await channels.requireChannel(lab, channelId)).label}'`);
+        const leave = deps.diagnosticsRuns?.enter(callerIdOf(res), `a comparison on channel '${channel.label}'`);
         const signal = signalOnDisconnect(res);
         try {
           res.json(await diagnostics.comparison(lab, channelId, { ...q, aFrom: a.from, aTo: a.to, bFrom: b.from, bTo: b.to }, signal));
