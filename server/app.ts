@@ -35,6 +35,7 @@ import { createQuarantineService } from './services/quarantine.service.ts';
 import { createIngestService } from './services/ingest/ingest.service.ts';
 import { startBackgroundJobs, type BackgroundJob } from './jobs/background-jobs.ts';
 import { composeIngestHooks } from './services/ingest/ingest-hooks.ts';
+import { quarantineCapHook } from './services/ingest/quarantine-cap.ts';
 import { createTestReadingService } from './services/test-reading.service.ts';
 import { loggerRoutes } from './http/loggers/loggers.router.ts';
 import { quarantineRoutes } from './http/loggers/quarantine.router.ts';
@@ -111,6 +112,8 @@ export function createApp(deps: AppDeps): Express {
   const alerts = createAlertsFeature({ db, mailer: deps.mailer, logger, config, now: nowMs });
   // Every way a reading comes in (API, upload, re-submit, test reading) runs the same hooks.
   const ingestHooks = composeIngestHooks([
+    // more than 1,000 rows of one batch to quarantine: 422 before the plan's quarantine cap is even asked
+    quarantineCapHook(),
     planLimits.ingestHooks,
     alerts.ingestHooks,
   ]);

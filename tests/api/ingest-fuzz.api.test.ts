@@ -130,6 +130,18 @@ describe('hostile ingest bodies', () => {
     }
   });
 
+  it('a batch with more than 1,000 rows for channels the logger does not have: 422, nothing stored or quarantined', async () => {
+    const before = [await quarantined(), await storedCount()];
+    const readings = Array.from({ length: 1001 }, (_, i) => ({ channel: 'no_such_channel', ts: T + i * 1000, value: 1 }));
+    readings.push({ channel: 'air_t', ts: T + 2_000_000, value: 2 });
+    const res = await ingest().send({ readings }).expect(422);
+    expect(res.body.error).toMatchObject({
+      code: 'too_many_quarantined',
+      message: 'body: more than 1,000 rows of this batch cannot be read (1,001 would go to quarantine), so none was stored. Check what the logger sends.',
+    });
+    expect([await quarantined(), await storedCount()]).toEqual(before);
+  });
+
   it('more readings than the cap in one request: 413 naming the cap', async () => {
     const csv = `channel,ts,value\n${'air_t,1796303000000,1\n'.repeat(100_001)}`;
     const res = await ingest().set('Content-Type', 'text/csv').send(csv).expect(413);

@@ -44,16 +44,12 @@ export class TooManyQuarantinedError extends AppError {
   constructor(
     readonly sample: RefusedRow[],
     limit = MAX_QUARANTINED_PER_BATCH,
+    /** How many rows would have gone to quarantine, when known. */
+    count?: number,
   ) {
-    super(
-      422,
-      'too_many_quarantined',
-      `body: more than ${limit.toLocaleString('en')} rows of this batch cannot be read, so none was stored (e.g. ${sample
-        .slice(0, 3)
-        .map((s) => `row ${s.index}: ${s.reason}`)
-        .join('; ')}). Check what the logger sends.`,
-      { sample },
-    );
+    const examples = sample.length ? ` (e.g. ${sample.slice(0, 3).map((s) => `row ${s.index}: ${s.reason}`).join('; ')})` : '';
+    const counted = count === undefined ? '' : ` (${count.toLocaleString('en')} would go to quarantine)`;
+    super(422, 'too_many_quarantined', `body: more than ${limit.toLocaleString('en')} rows of this batch cannot be read${counted}, so none was stored${examples}. Check what the logger sends.`, { sample });
   }
 }
 
