@@ -73,7 +73,7 @@ export const PUBLIC_ROUTES: PublicRoute[] = [
       '402': "`plan_limit_reached`: the batch would take the lab past its plan's stored readings, or its quarantine past the plan's quarantined-rows cap (`quarantinedRows` in the plan catalog). Nothing of the batch is stored, its good readings included. Retry-After (3600 s); the same batch succeeds once an admin raises the plan or, for the quarantine, a technician discards or re-submits quarantined rows.",
       '413': '`too_many_readings`: more than 100,000 readings in one request (send the rest in further requests); `payload_too_large`: a body over 8 MB after decompression.',
       '415': '`unsupported_media_type` (send application/json or text/csv), `unsupported_charset` (only UTF-8) or `unsupported_encoding` (Content-Encoding other than gzip or deflate).',
-      '422': '`too_many_quarantined`: more than 1,000 rows of the batch cannot be read (a field missing, the wrong number of CSV fields, not an object); nothing of the batch is stored. `error.sample` lists the first rows with their reasons.',
+      '422': '`too_many_quarantined`: more than 1,000 rows of the batch would go to quarantine (a field missing, the wrong number of CSV fields, not an object, an unknown channel, an unreadable time or value); nothing of the batch is stored. When the body reader caught it, `error.sample` lists the first rows with their reasons.',
       '429': '`rate_limited`: this logger posts faster than 20 requests/s (bursts of 40); `too_many_wrong_keys`: more than 20 wrong keys from this address within a minute (counted per app process; a key that worked recently still gets through). Retry-After gives the seconds to wait.',
     },
   },
