@@ -76,6 +76,8 @@ describe('fitArma', () => {
     // Without the nested start this ARMA(3,3) fit ends 1.2 below ARMA(3,2) (seen while writing this test).
     expect(plain.logLik).toBeLessThan(nested.logLik - 1);
     expect(warm.logLik).toBeGreaterThanOrEqual(nested.logLik - 1e-6);
+    expect(() => fitArma(x, { p: 1, q: 0, starts: [{ ar: [0.5] }] as never })).toThrow('fitArma: starts must be a list of { ar, ma } coefficient arrays');
+    expect(() => fitArma(x, { p: 1, q: 0, starts: 'x' as never })).toThrow('fitArma: starts must be a list of { ar, ma } coefficient arrays');
   });
 
   it('does not mutate its input', () => {

@@ -56,6 +56,11 @@ export interface FitArmaResult {
   converged: boolean;
 }
 
+/** True for an array or typed array of numbers (what a start's `ar` / `ma` must be). */
+function isArrayLike(v: unknown): v is ArrayLike<number> {
+  return Array.isArray(v) || v instanceof Float64Array;
+}
+
 /** Fewest present values `fitArma` accepts for ARMA(p, q): 3·(p + q + 1) + 10. */
 function minimumLength(p: number, q: number): number {
   return 3 * (p + q + 1) + 10;
@@ -78,7 +83,7 @@ function minimumLength(p: number, q: number): number {
  *   starts — the conditional-sum-of-squares estimates (`armaConditionalSumOfSquares`, R's
  *   "CSS-ML" start) and R's `method = "ML"` start (ARMA part zero, sample mean) — keeping the
  *   higher likelihood (without a usable CSS start: zeros and zeros with φ_1's partial
- *   autocorrelation at 0.5);
+ *   autocorrelation at 0.5), and from any `starts` the caller adds;
  * - standard errors: the inverse of n × the numerical Hessian of the per-value objective in the
  *   optimiser's parameters (`numericalHessian`, as R's `optim(hessian = TRUE)`), carried to φ by
  *   the delta method with the Jacobian of the tanh/Durbin–Levinson map, as R (`ARIMA_Gradtrans`);
@@ -100,6 +105,10 @@ export function fitArma(x: Series, options: FitArmaOptions): FitArmaResult {
   const q = integerOption(fn, 'q', options.q, 0, MAX_ORDER);
   const includeMean = options.includeMean ?? true;
   if (typeof includeMean !== 'boolean') throw new AnalysisInputError(`${fn}: includeMean must be true or false (got ${String(includeMean)})`);
+  const given = options.starts ?? [];
+  if (!Array.isArray(given) || !given.every((g) => g != null && isArrayLike(g.ar) && isArrayLike(g.ma))) {
+    throw new AnalysisInputError(`${fn}: starts must be a list of { ar, ma } coefficient arrays`);
+  }
 
   const y = Float64Array.from(x as ArrayLike<number>);
   let used = 0;
@@ -184,14 +193,15 @@ export function fitArma(x: Series, options: FitArmaOptions): FitArmaResult {
         starts.push(tilted);
       }
     }
-    for (const given of options.starts ?? []) {
+    for (const extra of given) {
       const padded = (v: ArrayLike<number>, m: number) => Array.from({ length: m }, (_, i) => (i < v.length ? Number(v[i]) : 0));
-      const pacf = armaArToPacf(padded(given.ar, p));
-      if (!pacf || !pacf.every(Number.isFinite)) continue;
+      const pacf = armaArToPacf(padded(extra.ar, p));
+      const ma = padded(extra.ma, q);
+      if (!pacf || !pacf.every(Number.isFinite) || !ma.every(Number.isFinite)) continue;
       const from = new Float64Array(k);
       from.set(pacf, 0);
-      from.set(padded(given.ma, q), p);
-      if (includeMean) from[k - 1] = typeof given.mean === 'number' && Number.isFinite(given.mean) ? given.mean : mean0;
+      from.set(ma, p);
+      if (includeMean) from[k - 1] = typeof extra.mean === 'number' && Number.isFinite(extra.mean) ? extra.mean : mean0;
       starts.push(from);
     }
     let bestValue = Infinity;
