@@ -186,6 +186,12 @@ function trendSection(r: ChannelDiagnostics, stepMs: number, label: string, unit
       ? ` Assuming independent readings would give ${sig(perDay.olsInterval[0])} to ${sig(perDay.olsInterval[1])}${u} per day, an interval ${widening.toFixed(1)} times too narrow.`
       : '';
   const adjusted = t.fittedOn === 'adjusted' ? ' (after removing the seasonal cycle)' : '';
+  // Simulated coverage of this interval falls short of nominal on strongly persistent series
+  // (≈ 87 % at AR(1) φ = 0.9, n = 1,000; tests/bench/RESULTS.md), so say so when the range holds few independent readings.
+  const persistent =
+    r.effectiveSampleSize.ess < 100
+      ? ` The range holds only about ${Math.max(1, Math.round(r.effectiveSampleSize.ess))} independent readings' worth of information, so even this interval is likely somewhat too narrow; a longer range gives a firmer answer.`
+      : '';
   return {
     available: true as const,
     fittedOn: t.fittedOn,
@@ -198,7 +204,7 @@ function trendSection(r: ChannelDiagnostics, stepMs: number, label: string, unit
     alpha: r.bands.alpha,
     sentence:
       `Allowing for autocorrelation, ${label}${adjusted} changes by ${sig(perDay.slope)}${u} per day ` +
-      `(${level} interval ${sig(lo)} to ${sig(hi)}${u} per day; least squares with a Newey–West standard error, lag ${t.lag}): ${verdict}.${naive}`,
+      `(${level} interval ${sig(lo)} to ${sig(hi)}${u} per day; least squares with a Newey–West standard error, lag ${t.lag}): ${verdict}.${naive}${persistent}`,
   };
 }
 
