@@ -40,11 +40,15 @@ export interface PeriodCandidate {
   peakRatio: number;
   /** Order of the AR background fitted for this candidate (its harmonics removed first). */
   backgroundOrder: number;
-  /** Chance of a ratio this large among the frequencies searched in a series without cycles (multiplicity-corrected). */
+  /**
+   * Chance of a ratio this large among the frequencies tested in a series without cycles:
+   * corrected over the grid searched, or over the calendar periods for a calendar candidate,
+   * and doubled when both families are tested (Bonferroni over the two).
+   */
   pValue: number;
   /** Which views support it: the periodogram always, the ACF when it exceeds the background's ACF by `acfBand`. */
   sources: ('periodogram' | 'acf')[];
-  /** pValue < alpha. */
+  /** pValue < alpha, and — for a candidate repeating fewer than 6 times in the record — ACF support. */
   significant: boolean;
   /** One sentence on how the period was obtained, e.g. "288 steps = 1 day (raw estimate 289.4, …)". */
   note: string;
@@ -55,7 +59,7 @@ export interface DetectPeriodResult {
   best: number | null;
   /** Candidates, significant ones first, then by ACF beyond the background's. */
   candidates: PeriodCandidate[];
-  /** White-noise ACF band z(1 − α/2)/√n (the ACF must exceed the background's ACF by this much to count as support). */
+  /** White-noise ACF band z(1 − α/2)/√n (each candidate's `acfBand` widens it by Bartlett's factor under its background). */
   band: number;
   /** Local maxima of the ACF that clear the band by a clear margin, for display. */
   acfPeaks: number[];
