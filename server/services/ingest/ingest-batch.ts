@@ -202,10 +202,12 @@ async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[]
   }
   const spans = runs.map((r) => ({ channelId: r.channelId, oldestTs: columns.ts[r.from], newestTs: columns.ts[r.to - 1] }));
   const stored: StoredBatch = { target, source: opts.source, accepted, quarantined: quarantine.length, channels: accepted > 0 ? spans : [] };
-  // Last before the rows become final: a hook may still refuse the whole batch.
+  if (opts.source === 'api') await loggersIn(scope).markSeen(target.loggerId, now());
+  // Last before the rows become final: a hook may still refuse the whole batch. Plan limits
+  // lock the lab's usage row here until COMMIT, so as little as possible follows (only the
+  // quarantine rows, which the hooks must see counted before they are written).
   if (opts.hooks?.beforeCommit) await opts.hooks.beforeCommit(trx, stored);
   if (quarantine.length) await quarantineIn(scope).add(quarantine);
-  if (opts.source === 'api') await loggersIn(scope).markSeen(target.loggerId, now());
 
   out.sort((a, b) => a.index - b.index);
   return { outcome: { accepted, duplicates, quarantined: out }, stored };
