@@ -34,7 +34,7 @@ export interface PlanLimitGuard {
  * same lab — in this process or another — reads a counter that already includes every batch
  * ahead of it: stored readings never pass the limit as counted, whatever the number of batches
  * in flight. A batch that does not fit is refused whole (PlanLimitError, 402, Retry-After;
- * nothing of it is written). Only the short tail of a batch (quarantine rows, last-seen, COMMIT)
+ * nothing of it is written). Only the short tail of a batch (its quarantine rows, if any, and COMMIT)
  * runs under the lock, so loggers of one lab queue for milliseconds, not for their batches.
  * The quarantined rows themselves are counted where they are written (`addQuarantined`), in the
  * same transaction. A batch with nothing new to store or quarantine takes no lock.
