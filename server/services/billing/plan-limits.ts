@@ -36,7 +36,7 @@ export interface PlanLimitGuard {
  * in flight. A batch that does not fit is refused whole (PlanLimitError, 402, Retry-After;
  * nothing of it is written). Only the short tail of a batch (its quarantine rows, if any, and COMMIT)
  * runs under the lock, so loggers of one lab queue for milliseconds, not for their batches.
- * The quarantined rows themselves are counted where they are written (`addQuarantined`), in the
+ * The quarantined rows themselves are counted where they are written (quarantine.repo.ts), in the
  * same transaction. A batch with nothing new to store or quarantine takes no lock.
  */
 export function createPlanLimits(deps: { db: Db; catalog: PlanCatalog; logger: Logger; now?: () => Date }): PlanLimitGuard {
