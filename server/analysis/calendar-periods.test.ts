@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { calendarPeriodNear, calendarPeriods } from './calendar-periods.ts';
+import { calendarPeriodNear } from './calendar-period-near.ts';
+import { calendarPeriods } from './calendar-periods.ts';
 
 const MINUTE = 60_000;
 
