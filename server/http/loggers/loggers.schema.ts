@@ -97,8 +97,12 @@ export const quarantineQuerySchema = z.object({
       if (!key) ctx.addIssue({ code: 'custom', message: BAD_CURSOR });
       return key ?? undefined;
     })
-    .optional(),
-  page: z.undefined({ error: 'page numbers are not supported; follow nextCursor from the previous page' }).optional(),
+    .optional()
+    .describe("The previous page's `nextCursor`; leave out for the newest rows."),
+  page: z
+    .undefined({ error: 'page numbers are not supported; follow nextCursor from the previous page' })
+    .optional()
+    .describe('Not supported (400): page with `cursor` instead.'),
   pageSize: z.coerce.number().int().min(1, 'must be 1 or more').max(500, 'must be at most 500').default(100),
 });
 
