@@ -237,6 +237,25 @@ export function diagnosticsReport(input: {
     'ACF, PACF, Ljung–Box, the effective sample size and the CCF skip empty cells as R does with na.action = na.pass.',
     `Ordinary differences: ${params.difference}; seasonal differences: ${params.seasonalDifference}${r.period.used !== null && params.seasonalDifference ? ` (lag ${r.period.used})` : ''}. The decomposition and the effective sample size use the undifferenced grid; the CCF differences both channels alike.`,
   ];
+  const model = r.identification.model;
+  if (model) {
+    notes.push(
+      `Process model: every ARMA(p, q) with p, q ≤ 3 and a mean fitted by exact Gaussian maximum likelihood (Kalman filter, as R's arima(method = "ML")) to the last ${model.cells} cells of ${model.fittedOn === 'remainder' ? 'the series less its seasonal component' : 'the analysed series'}; ` +
+        'the verdict follows the lowest BIC among admissible fits (converged, every root at least 1.01 from the unit circle; a pure AR model only needs to be stationary), and AICc is listed beside it.',
+    );
+  }
+  if (r.crossCorrelation) {
+    const c = r.crossCorrelation;
+    notes.push(
+      `Cross-correlation: both channels filtered by the AR(${c.prewhitening?.order ?? 0}) model of the partner (Yule–Walker, order by AIC, as R's ar()), then the CCF of the filtered pair over ±${c.lags.length >> 1} lags; ` +
+        `a lag counts as a relation only beyond the band that holds for all lags together (${c.simultaneousMethod}). The raw CCF is kept under crossCorrelation.raw for contrast and is no test.`,
+    );
+  }
+  if (r.trend.available) {
+    notes.push(
+      `Trend: least squares against the step number on ${r.trend.fittedOn === 'adjusted' ? 'the series less its seasonal component' : 'the series'}, with a Newey–West standard error (Bartlett kernel, lag ${r.trend.lag} from Andrews' AR(1) plug-in rule, never below R's ⌊4(n/100)^(2/9)⌋); the ordinary least-squares interval is given beside it for contrast.`,
+    );
+  }
   if (r.grid.missing > 0) {
     notes.push(`${r.grid.missing} of ${r.grid.n} cells were empty; STL, period detection and process identification filled them by linear interpolation between the neighbouring cells (the classical decomposition leaves them missing).`);
   }
@@ -260,6 +279,9 @@ export function diagnosticsReport(input: {
         stl: dec.method === 'none' ? null : dec.stl,
         outlierRule: dec.method === 'none' ? null : `|remainder − median| > ${dec.outliers.threshold} × 1.4826 × MAD of the remainder`,
         ljungBoxLags: r.ljungBox.map((b) => b.lag),
+        ccfMaxLag: r.crossCorrelation ? r.crossCorrelation.lags.length >> 1 : null,
+        modelCells: r.identification.model?.cells ?? null,
+        trendLag: r.trend.available ? r.trend.lag : null,
       },
       notes,
       references: REFERENCES,

@@ -41,6 +41,10 @@ export interface PeriodCandidate {
   pValue: number;
   sources: string[];
   significant: boolean;
+  /** The calendar period the raw estimate was snapped to, if any. */
+  calendar?: 'hour' | 'day' | 'week' | null;
+  /** How the length was read, e.g. "288 steps = 1 day (raw estimate 289.4, …)". */
+  note?: string;
 }
 
 export interface LjungBoxRow {
@@ -126,7 +130,12 @@ export type ProcessModel =
       fittedFrom: number;
       /** Epoch ms just after the last cell fitted. */
       fittedTo: number;
-      candidates: Array<{ p: number; q: number; aicc: number | null; logLik: number | null; converged: boolean }>;
+      /** `admissible`: converged with every root at least 1.01 from the unit circle (a pure AR model: stationary). */
+      candidates: Array<{ p: number; q: number; aicc: number | null; bic: number | null; logLik: number | null; converged: boolean; admissible: boolean }>;
+      /** Set when the lowest-BIC choice differs from the lowest AICc, saying so. */
+      criterionNote: string | null;
+      /** A caution about the model (e.g. the unit-root test could not clear the series), or null. */
+      note: string | null;
       chosen: ArmaFitSummary;
       residualTest: { lag: number; statistic: number; df: number; pValue: number };
       /** Readings per independent piece of information the model implies (1 for white noise). */

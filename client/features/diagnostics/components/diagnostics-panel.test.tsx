@@ -76,11 +76,11 @@ describe('DiagnosticsPanel', () => {
     );
     const candidates = within(screen.getByTestId('process-model-candidates')).getAllByRole('row');
     const chosen = candidates.filter((r) => r.getAttribute('aria-current') === 'true');
-    expect(chosen.map((r) => r.textContent)).toEqual(['AR(1)-1018.580512.3chosen']);
-    expect(candidates[2].textContent).toBe('AR(1)-1018.580512.3chosen');
+    expect(chosen.map((r) => r.textContent)).toEqual(['AR(1)-1018.580-1005.4512.3chosen']);
+    expect(candidates[2].textContent).toBe('AR(1)-1018.580-1005.4512.3chosen');
     // ΔAICc of ARMA(1, 1): −1016.6 − (−1018.58) = 1.98 (worked by hand)
-    expect(candidates[3].textContent).toBe('ARMA(1, 1)-1016.61.98512.31');
-    expect(candidates[4].textContent).toBe('ARMA(3, 3)———did not converge');
+    expect(candidates[3].textContent).toBe('ARMA(1, 1)-1016.61.98-999512.31');
+    expect(candidates[4].textContent).toBe('ARMA(3, 3)————did not converge');
     expect(screen.getByTestId('process-model-residuals').textContent).toBe(
       'Ljung–Box on the residuals up to lag 20: Q = 18.7, df = 19, p = 0.4760 — no evidence of remaining autocorrelation at α = 0.05.',
     );

@@ -30,7 +30,10 @@ describe('process model and trend blocks', () => {
   it('names the lowest-AICc candidate when the server chose another model', () => {
     if (!PROCESS_MODEL.available) throw new Error('fixture');
     const arma11 = { ...PROCESS_MODEL.chosen, p: 1, q: 1, ma: [0.05], standardErrors: { ar: [0.04], ma: [0.06], mean: 0.6 }, aicc: -1016.6 };
-    render(<ProcessModelBlock model={{ ...PROCESS_MODEL, chosen: arma11 }} stepS={300} alpha={0.05} unit="%" timezone="UTC" />);
+    const criterionNote = 'Invented note: the lowest AICc was ARMA(1,0); the verdict follows the lowest BIC.';
+    render(<ProcessModelBlock model={{ ...PROCESS_MODEL, chosen: arma11, criterionNote }} stepS={300} alpha={0.05} unit="%" timezone="UTC" />);
+    expect(screen.getByTestId('process-model-criterion').textContent).toBe(criterionNote);
+    expect(screen.queryByTestId('process-model-note')).toBeNull();
     const notes = screen.getAllByRole('row').filter((r) => r.closest('[data-testid="process-model-candidates"]')).map((r) => r.lastElementChild?.textContent);
     expect(notes).toEqual(['Note', '', 'lowest AICc', 'chosen', 'did not converge']);
     expect(screen.getByTestId('process-model-chosen').textContent).toBe('ARMA(1, 1)(1, 1)');

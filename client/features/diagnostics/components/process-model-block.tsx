@@ -85,12 +85,13 @@ export function ProcessModelBlock({ model, stepS, alpha, unit, timezone }: { mod
           </tbody>
         </table>
         <table className="w-full border-collapse text-left text-sm" data-testid="process-model-candidates">
-          <caption className="mb-1 text-left text-sm font-semibold">Candidate models and their AICc (the chosen one marked)</caption>
+          <caption className="mb-1 text-left text-sm font-semibold">Candidate models, their AICc and BIC (chosen: lowest BIC among admissible fits)</caption>
           <thead className="border-b border-rule text-xs uppercase tracking-wide text-ink-soft">
             <tr>
               <th scope="col" className={TH}>Model</th>
               <th scope="col" className={TH}>AICc</th>
               <th scope="col" className={TH}>ΔAICc</th>
+              <th scope="col" className={TH}>BIC</th>
               <th scope="col" className={TH}>Log-likelihood</th>
               <th scope="col" className="py-1">Note</th>
             </tr>
@@ -103,14 +104,17 @@ export function ProcessModelBlock({ model, stepS, alpha, unit, timezone }: { mod
                   <td className={`${TH} font-sans`}>{armaName(c.p, c.q)}</td>
                   <td className={TH}>{fmtStat(c.aicc, 6)}</td>
                   <td className={TH}>{c.aicc === null || best === null ? '—' : fmtStat(c.aicc - best, 3)}</td>
+                  <td className={TH}>{fmtStat(c.bic, 6)}</td>
                   <td className={TH}>{fmtStat(c.logLik, 6)}</td>
-                  <td className="py-1 font-sans">{[chosen ? 'chosen' : null, !chosen && c.aicc !== null && c.aicc === best ? 'lowest AICc' : null, c.converged ? null : 'did not converge'].filter(Boolean).join(' · ')}</td>
+                  <td className="py-1 font-sans">{[chosen ? 'chosen' : null, !chosen && c.aicc !== null && c.aicc === best ? 'lowest AICc' : null, c.converged ? (c.admissible ? null : 'root too close to the unit circle') : 'did not converge'].filter(Boolean).join(' · ')}</td>
                 </tr>
               );
             })}
           </tbody>
         </table>
       </div>
+      {model.criterionNote && <p className="text-sm" data-testid="process-model-criterion">{model.criterionNote}</p>}
+      {model.note && <p className="text-sm" data-testid="process-model-note">{model.note}</p>}
       <p className="text-sm" data-testid="process-model-residuals">
         Ljung–Box on the residuals up to lag {rt.lag}: Q = {fmtStat(rt.statistic, 5)}, df = {rt.df}, p = {fmtP(rt.pValue)} —{' '}
         {rt.pValue < alpha ? `autocorrelation remains at α = ${alpha}; the model misses some structure.` : `no evidence of remaining autocorrelation at α = ${alpha}.`}
