@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
 import { buildLabWithEverything, type LabWithEverything } from '../support/lab-fixture.ts';
+import { newIngestKey } from '../../server/services/ingest-key-format.ts';
 
 /** Issue 15, finding 9: wrong ingest keys were never throttled (6,000 at 414/s, each a database lookup). */
 let t: TestApp;
@@ -35,8 +36,22 @@ describe('wrong ingest keys from one address', () => {
 
   it('do not count valid lookups or refused bodies', async () => {
     const g = await buildLabWithEverything(t.db);
-    const app = (await buildTestApp()).app; // fresh counters
-    for (let i = 0; i < 30; i++) await request(app).post('/api/v1/ingest').set('Authorization', `Bearer ${g.ingestKey}`).set('Content-Type', 'text/csv').send('no header').expect(400);
-    await request(app).post('/api/v1/ingest').set('Authorization', `Bearer ${g.ingestKey}`).send({ readings: [] }).expect(200);
+    // 25 more keys of the same logger, each used for the first time below (so none is "known good" yet)
+    const keys = [];
+    for (let i = 0; i < 25; i++) {
+      const k = newIngestKey();
+      await t.db('ingest_keys').insert({ tenant_id: g.lab.id, id: Math.floor(Math.random() * 2 ** 40) + 1, logger_id: g.ids.loggerId, prefix: k.prefix, key_hash: k.hash });
+      keys.push(k.key);
+    }
+    const other = await buildTestApp(); // fresh counters
+    const send = (key: string) => request(other.app).post('/api/v1/ingest').set('Authorization', `Bearer ${key}`);
+    try {
+      for (const key of keys) await send(key).set('Content-Type', 'text/csv').send('no header').expect(400); // a valid key, a refused body
+      const wrong = `lbk_${'1'.repeat(12)}_${'B'.repeat(43)}`;
+      for (let i = 0; i < 20; i++) await send(wrong).send({ readings: [] }).expect(401);
+      await send(wrong).send({ readings: [] }).expect(429);
+    } finally {
+      await other.close();
+    }
   });
 });
