@@ -12,6 +12,9 @@ import { numericalHessian } from './numerical-hessian.ts';
 /** Highest AR or MA order `fitArma` accepts. */
 const MAX_ORDER = 5;
 
+/** R's `optim` default relative tolerance, √(double epsilon) ≈ 1.49e-8, which `arima` keeps. */
+const R_RELTOL = Math.sqrt(Number.EPSILON);
+
 export interface FitArmaOptions {
   /** AR order, a whole number 0..5. */
   p: number;
@@ -26,6 +29,11 @@ export interface FitArmaOptions {
    * padded with zeros or cut to p and q; a missing mean starts at the sample mean.
    */
   starts?: { ar: ArrayLike<number>; ma: ArrayLike<number>; mean?: number | null }[];
+  /**
+   * BFGS iterations allowed from each start (default 100, R's `optim` default `maxit` for its
+   * derivative-based methods, which R's `arima` keeps); running out leaves `converged` false.
+   */
+  maxIterations?: number;
 }
 
 export interface FitArmaResult {
@@ -105,6 +113,7 @@ export function fitArma(x: Series, options: FitArmaOptions): FitArmaResult {
   const q = integerOption(fn, 'q', options.q, 0, MAX_ORDER);
   const includeMean = options.includeMean ?? true;
   if (typeof includeMean !== 'boolean') throw new AnalysisInputError(`${fn}: includeMean must be true or false (got ${String(includeMean)})`);
+  const maxIterations = integerOption(fn, 'maxIterations', options.maxIterations ?? 100, 1, 100_000);
   const given = options.starts ?? [];
   if (!Array.isArray(given) || !given.every((g) => g != null && isArrayLike(g.ar) && isArrayLike(g.ma))) {
     throw new AnalysisInputError(`${fn}: starts must be a list of { ar, ma } coefficient arrays`);
@@ -207,7 +216,7 @@ export function fitArma(x: Series, options: FitArmaOptions): FitArmaResult {
     let bestValue = Infinity;
     for (const from of starts) {
       if (!Number.isFinite(objective(from))) continue; // a start with θ = 0 always is finite
-      const fit = bfgsMinimize(objective, from, { scale });
+      const fit = bfgsMinimize(objective, from, { scale, maxIterations, relativeTolerance: R_RELTOL });
       if (fit.value < bestValue) {
         bestValue = fit.value;
         best = fit.x;

@@ -43,6 +43,11 @@ export interface IdentifyProcessOptions {
   /** Highest AR and MA orders among the fitted candidates (default 3 each). */
   maxP?: number;
   maxQ?: number;
+  /**
+   * Highest p + q among the candidates (default 3). On the identification benchmark BIC never
+   * chose a larger model, and those are the slow ones to fit.
+   */
+  maxTotalOrder?: number;
 }
 
 /** The fitted ARMA model behind a verdict, and what it was fitted on. */
@@ -176,7 +181,7 @@ function fitModel(series: Float64Array, fittedOn: 'series' | 'remainder', option
   const cells = Math.min(series.length, options.fitCells ?? 2000);
   const start = series.length - cells;
   const window = series.subarray(start);
-  const selection = selectArma(window, { maxP: options.maxP ?? 3, maxQ: options.maxQ ?? 3 });
+  const selection = selectArma(window, { maxP: options.maxP ?? 3, maxQ: options.maxQ ?? 3, maxTotalOrder: options.maxTotalOrder ?? 3 });
   const bic = (c: { p: number; q: number; logLik: number }) => -2 * c.logLik + (c.p + c.q + 2) * Math.log(cells);
   // A pure AR model has no MA root for an AR root to cancel, so only stationarity matters there:
   // a very persistent channel (φ above 1/1.01) keeps its AR(1) instead of losing it to the 1.01 rule.

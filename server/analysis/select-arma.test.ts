@@ -79,4 +79,13 @@ describe('selectArma', () => {
     expect(() => selectArma('abc' as never)).toThrow('selectArma: the series must be an array of numbers');
     expect(() => selectArma(new Array(50).fill(2))).toThrow('selectArma: the series is constant (every value is 2), so no ARMA model can be fitted: choose a range where the readings vary');
   });
+
+  it('skips candidates above maxTotalOrder (p + q) and fits the same models it keeps', () => {
+    const x = simulateArma({ ar: [0.6] }, 300, 31);
+    const capped = selectArma(x, { maxTotalOrder: 2 });
+    expect(capped.candidates.map((c) => `${c.p}${c.q}`)).toEqual(['00', '01', '02', '10', '11', '20']);
+    const full = selectArma(x);
+    for (const c of capped.candidates) expect(c.logLik).toBeCloseTo(full.candidates.find((f) => f.p === c.p && f.q === c.q)!.logLik, 6);
+    expect(() => selectArma(x, { maxTotalOrder: 11 })).toThrow('selectArma: maxTotalOrder must be a whole number from 0 to 10 (got 11)');
+  });
 });

@@ -9,6 +9,12 @@ export interface SelectArmaOptions {
   maxP?: number;
   /** Highest MA order tried, 0..5 (default 3). */
   maxQ?: number;
+  /**
+   * Highest p + q tried (default maxP + maxQ: every pair). A cap skips the large redundant
+   * models, which cost the most to fit (a flat likelihood ridge) and which BIC hardly ever
+   * chooses; R's `forecast::auto.arima` caps p + q the same way (its `max.order`, default 5).
+   */
+  maxTotalOrder?: number;
 }
 
 /** One fitted candidate of `selectArma`. */
@@ -74,6 +80,7 @@ export function selectArma(x: Series, options: SelectArmaOptions = {}): SelectAr
   assertSeries(x, fn);
   const maxP = integerOption(fn, 'maxP', options.maxP ?? 3, 0, 5);
   const maxQ = integerOption(fn, 'maxQ', options.maxQ ?? 3, 0, 5);
+  const maxTotalOrder = integerOption(fn, 'maxTotalOrder', options.maxTotalOrder ?? maxP + maxQ, 0, 10);
   let present = 0;
   for (let i = 0; i < x.length; i++) if (!Number.isNaN(x[i])) present++;
 
@@ -82,6 +89,7 @@ export function selectArma(x: Series, options: SelectArmaOptions = {}): SelectAr
   let best: { p: number; q: number; fit: FitArmaResult } | null = null;
   for (let p = 0; p <= maxP; p++) {
     for (let q = 0; q <= maxQ; q++) {
+      if (p + q > maxTotalOrder) continue;
       if (p + q > 0 && present < 3 * (p + q + 1) + 10) continue;
       // Warm start from the better of the two nested fits (one AR or one MA term fewer).
       const nested = [fits.get(`${p - 1},${q}`), fits.get(`${p},${q - 1}`)].filter((f) => f !== undefined);
