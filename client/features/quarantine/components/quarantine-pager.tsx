@@ -31,7 +31,7 @@ export function QuarantinePager({
   const matching = `${formatCount(total)}${totalAtLeast ? ' or more' : ''}`;
   return (
     <nav aria-label="Quarantine pages" className="flex flex-wrap items-center justify-between gap-3 text-sm">
-      <p aria-live="polite">{total === 0 ? 'No rows' : `${formatCount(shown)} rows shown · ${matching} matching`}</p>
+      <p aria-live="polite">{total === 0 ? 'No rows' : `${formatCount(shown)} row${shown === 1 ? '' : 's'} shown · ${matching} matching`}</p>
       <div className="flex gap-2">
         <Button size="sm" disabled={atFirst} onClick={onFirst}>
           ⇤ Newest

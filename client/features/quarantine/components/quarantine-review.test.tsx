@@ -35,7 +35,7 @@ describe('QuarantineReview', () => {
     await screen.findByText('n/a');
     expect(api.requests[0].path).toBe('/api/v1/labs/fernhollow/quarantine?loggerId=5&reason=bad_value&cursor=1790000000000.1.9&pageSize=50');
     expect((screen.getByLabelText('Logger') as HTMLSelectElement).value).toBe('5');
-    expect(screen.getByText('1 rows shown · 120 matching')).toBeTruthy();
+    expect(screen.getByText('1 row shown · 120 matching')).toBeTruthy();
     expect(screen.getByRole('link', { name: 'Download CSV' }).getAttribute('href')).toBe('/api/v1/labs/fernhollow/quarantine/export.csv?loggerId=5&reason=bad_value');
 
     fireEvent.change(screen.getByLabelText('Reason'), { target: { value: 'unknown_channel' } });
