@@ -155,6 +155,7 @@ describe('hostile ingest bodies', () => {
     expect(res.body.accepted).toBe(2);
     expect(res.body.quarantined.map((q: { index: number }) => q.index)).toEqual([1, 2, 3, 4]);
     for (const q of res.body.quarantined) expect(q.reason).toMatch(/^ts: ".*" is beyond the times that can be stored/);
+    for (const q of res.body.quarantined) expect(q.code).toBe('time_out_of_range');
     expect(res.body.quarantined[3].reason).toContain('"9999999999999999"');
     expect(await storedCount()).toBe(storedBefore + 2);
   });
@@ -250,6 +251,19 @@ describe('hostile ingest bodies', () => {
     expect(res.body.quarantined.map((q: { index: number; code: string }) => [q.index, q.code])).toEqual([0, 1, 2, 3, 4].map((i) => [i, 'bad_time']));
     expect(res.body.quarantined[2].reason).toBe('ts: "2026-11-02T00:00:00-23:59": offset "-23:59" is outside the UTC offsets in use (−12:00 to +14:00)');
     expect(res.body.quarantined[3].reason).toBe('ts: 1796303000000.7 is not whole epoch milliseconds');
+  });
+
+  it('strict values: text that underflows to 0 or overflows to infinity is quarantined, not stored as 0', async () => {
+    const readings = [
+      { channel: 'air_t', ts: T + 7000, value: '1e-400' },
+      { channel: 'air_t', ts: T + 8000, value: '1e400' },
+      { channel: 'air_t', ts: T + 9000, value: '0.0e-400' },
+    ];
+    const res = await ingest().send({ readings }).expect(200);
+    expect(res.body.accepted).toBe(1); // an exact zero written with an exponent is still zero
+    expect(res.body.quarantined.map((q: { index: number; code: string }) => [q.index, q.code])).toEqual([[0, 'bad_value'], [1, 'bad_value']]);
+    expect(res.body.quarantined[0].reason).toBe('value: "1e-400" is too small for a double (below 2.2e-308 it would lose digits or become 0)');
+    expect(res.body.quarantined[1].reason).toBe('value: "1e400" is too large for a double (beyond ±1.8e308)');
   });
 
   it('range queries refuse dates the calendar does not have, as ingestion does', async () => {

@@ -6,6 +6,7 @@ import { loggersIn } from '../../db/loggers.repo.ts';
 import { readingsIn, sliceColumns } from '../../db/readings.repo.ts';
 import { BatchCandidates } from './batch-candidates.ts';
 import { quarantineIn, type QuarantineInput, type ReadingSource } from '../../db/quarantine.repo.ts';
+import { parseReadingValue } from './parse-reading-value.ts';
 import { parseReadingTime, type TimeFormat } from './parse-reading-time.ts';
 import { isLockConflict } from '../../db/db-errors.ts';
 import { channelStateIn } from '../../db/channel-state.repo.ts';
@@ -53,16 +54,8 @@ export interface IngestOptions {
 
 /** Readings more than this far in the future are refused (a logger clock that is badly off). */
 export const MAX_FUTURE_MS = 24 * 3600 * 1000;
-const STRICT_NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
-
-function readValue(raw: unknown): number | null {
-  if (typeof raw === 'number') return Number.isFinite(raw) ? raw : null;
-  if (typeof raw === 'string' && STRICT_NUMBER.test(raw.trim())) {
-    const n = Number(raw.trim());
-    return Number.isFinite(n) ? n : null;
-  }
-  return null;
-}
+/** Rows checked between two yields to the event loop, so a large batch does not hold other requests up. */
+const ROWS_PER_TURN = 10_000;
 
 const text = (v: unknown): string | null => (v === undefined || v === null ? null : typeof v === 'string' ? v : JSON.stringify(v));
 
@@ -131,6 +124,7 @@ async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[]
   const latestAllowed = now() + MAX_FUTURE_MS;
   const timeOptions = { format: opts.timeFormat, timeZone: opts.timeZone };
   for (let at = 0; at < rows.length; at++) {
+    if (at > 0 && at % ROWS_PER_TURN === 0) await new Promise<void>((resolve) => setImmediate(resolve));
     const row = rows[at];
     const key = typeof row.channel === 'string' ? row.channel.trim() : null;
     if (!key) {
@@ -148,19 +142,19 @@ async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[]
     }
     const time = parseReadingTime(row.ts, timeOptions);
     if (!time.ok) {
-      reject(row, 'bad_time', time.reason);
+      reject(row, time.code, time.reason);
       continue;
     }
     if (time.ts < 0 || time.ts > latestAllowed) {
       reject(row, 'time_out_of_range', time.ts < 0 ? 'ts: before 1970' : 'ts: more than 24 hours in the future (check the logger clock)', time.ts);
       continue;
     }
-    const value = readValue(row.value);
-    if (value === null) {
-      reject(row, 'bad_value', 'value: must be a finite number', time.ts);
+    const value = parseReadingValue(row.value);
+    if (!value.ok) {
+      reject(row, 'bad_value', value.reason, time.ts);
       continue;
     }
-    const offer = offered.offer(channel.id, time.ts, value, at);
+    const offer = offered.offer(channel.id, time.ts, value.value, at);
     if (offer === 'duplicate') duplicatesInBatch++;
     else if (offer === 'conflict') reject(row, 'conflict_in_batch', 'ts: this batch has another value for the same channel and time', time.ts);
   }
