@@ -121,8 +121,6 @@ export function createApp(deps: AppDeps): Express {
   const backgroundJobs: BackgroundJob[] = [
     usageJob.job,
     alerts.job,
-    // Nothing to start; stopping waits until the usage counter bumps of the last batches are written.
-    { name: 'usage counter writes', start: () => undefined, stop: () => planLimits.settled() },
   ];
   const quarantine = createQuarantineService({ db, now: nowMs, hooks: ingestHooks });
   // Half the database pool at most for logger batches; the rest stays free for people browsing.

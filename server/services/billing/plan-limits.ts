@@ -16,11 +16,6 @@ export interface PlanLimitGuard {
   assertRoomFor(trx: DbOrTrx, labId: number, what: 'loggers' | 'members'): Promise<void>;
   /** The plan whose limits apply to the lab now. */
   planOf(trx: DbOrTrx, labId: number): Promise<Plan>;
-  /**
-   * Resolves once no counter write is outstanding. Batches are counted inside their own
-   * transactions now, so there is never one left; kept for the shutdown sequence in app.ts.
-   */
-  settled(): Promise<void>;
 }
 
 /**
@@ -62,7 +57,6 @@ export function createPlanLimits(deps: { db: Db; catalog: PlanCatalog; logger: L
 
   return {
     planOf,
-    settled: () => Promise.resolve(),
     ingestHooks: {
       async beforeCommit(trx, batch) {
         if (batch.accepted === 0 && batch.quarantined === 0) return;
