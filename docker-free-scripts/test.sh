@@ -10,23 +10,8 @@ apt_install_for mariadbd mariadb-server chromium chromium
 install_reference_libraries
 install_node_modules
 
-export STATE_DIR="$ROOT/.lagbook/test-run-$$"
-rm -rf "$STATE_DIR"; mkdir -p "$STATE_DIR"
+TEST_STATE_NAME=test-run
 source "$ROOT/docker-free-scripts/test-env.sh"
-
-DEV_SERVICES_PID=""
-cleanup() {
-  local status=$?
-  trap - INT TERM EXIT
-  [ -n "$DEV_SERVICES_PID" ] && kill "$DEV_SERVICES_PID" 2>/dev/null && wait "$DEV_SERVICES_PID" 2>/dev/null || true
-  docker-free-scripts/mariadb.sh stop >/dev/null 2>&1 || true
-  rm -rf "$STATE_DIR"
-  exit $status
-}
-trap cleanup INT TERM EXIT
-
-docker-free-scripts/mariadb.sh start >/dev/null
-start_dev_services "$STATE_DIR/dev-services.log"
 
 say "type-checking…"
 npx tsc -p tsconfig.json

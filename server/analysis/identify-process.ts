@@ -10,6 +10,7 @@ import { integerOption } from './integer-option.ts';
 import { ljungBox } from './ljung-box.ts';
 import type { PortmanteauResult } from './portmanteau-test.ts';
 import { readingsPerIndependent } from './readings-per-independent.ts';
+import type { FitArmaResult } from './fit-arma.ts';
 import { selectArma, type SelectArmaResult } from './select-arma.ts';
 import { stl } from './stl.ts';
 
@@ -50,24 +51,16 @@ export interface IdentifyProcessOptions {
   maxTotalOrder?: number;
 }
 
-/** The fitted ARMA model behind a verdict, and what it was fitted on. */
-export interface ProcessModelFit {
+/** The fitted ARMA model behind a verdict (as `fitArma` returns it), and what it was fitted on. */
+export interface ProcessModelFit extends Pick<FitArmaResult, 'ar' | 'ma' | 'mean' | 'standardErrors' | 'sigma2' | 'logLik' | 'aicc' | 'converged'> {
   fittedOn: 'series' | 'remainder';
   /** Index of the first value fitted (the fit uses values [start, start + cells)). */
   start: number;
   cells: number;
   p: number;
   q: number;
-  ar: number[];
-  ma: number[];
-  mean: number | null;
-  standardErrors: { ar: number[]; ma: number[]; mean: number | null };
-  sigma2: number;
-  logLik: number;
-  aicc: number;
   /** −2 log L + (p + q + 2) log n, n the values fitted. */
   bic: number;
-  converged: boolean;
   /** Every order tried; `admissible`: converged with all roots outside 1.01 (a pure AR model: stationary). */
   candidates: { p: number; q: number; aicc: number; bic: number; logLik: number; converged: boolean; admissible: boolean }[];
   /** The order with the lowest AICc (selectArma's choice), shown beside the BIC choice. */

@@ -5,6 +5,7 @@ import type { ChannelWithState } from '../db/channel-state.repo.ts';
 import { ROLLUP_RESOLUTIONS_S } from '../db/readings.repo.ts';
 import { AnalysisInputError, channelDiagnostics, rangeComparison, type ChannelDiagnostics, type ChannelDiagnosticsOptions, type ChannelReadings, type CompareMeansResult, type RangeComparisonOptions } from '../analysis/index.ts';
 import type { AnalysisPool } from '../workers/analysis-pool.ts';
+import type { AnalysisResult, AnalysisTask } from '../workers/analysis-registry.ts';
 import { AppError, ValidationError } from '../errors.ts';
 import type { ChannelsService } from './channels.service.ts';
 import type { LabContext } from './lab-context.ts';
@@ -70,25 +71,22 @@ export function createDiagnosticsService(deps: { db: Db; channels: ChannelsServi
     return { data: await repo.rangeForGrid(channelId, range.from, range.to, stepMs), source: { kind: 'readings' } };
   }
 
-  async function compute(readings: ChannelReadings, options: ChannelDiagnosticsOptions, partner: ChannelReadings | undefined, signal?: AbortSignal): Promise<ChannelDiagnostics> {
+  /** Runs one engine task on the pool (in process without one); the engine's refusals become 422. */
+  async function runEngine<T extends AnalysisTask>(task: T, inProcess: () => AnalysisResult<T>, signal?: AbortSignal): Promise<AnalysisResult<T>> {
     try {
-      if (deps.pool) return await deps.pool.run({ fn: 'channelDiagnostics', args: [readings, options, partner] }, { signal });
-      return channelDiagnostics(readings, options, partner);
+      if (deps.pool) return await deps.pool.run(task, { signal });
+      return inProcess();
     } catch (err) {
       if (err instanceof AnalysisInputError) throw new AnalysisRefusedError(err.message);
       throw err;
     }
   }
 
-  async function compare(a: ChannelReadings, b: ChannelReadings, options: RangeComparisonOptions, signal?: AbortSignal): Promise<CompareMeansResult> {
-    try {
-      if (deps.pool) return await deps.pool.run({ fn: 'rangeComparison', args: [a, b, options] }, { signal });
-      return rangeComparison(a, b, options);
-    } catch (err) {
-      if (err instanceof AnalysisInputError) throw new AnalysisRefusedError(err.message);
-      throw err;
-    }
-  }
+  const compute = (readings: ChannelReadings, options: ChannelDiagnosticsOptions, partner: ChannelReadings | undefined, signal?: AbortSignal): Promise<ChannelDiagnostics> =>
+    runEngine({ fn: 'channelDiagnostics', args: [readings, options, partner] }, () => channelDiagnostics(readings, options, partner), signal);
+
+  const compare = (a: ChannelReadings, b: ChannelReadings, options: RangeComparisonOptions, signal?: AbortSignal): Promise<CompareMeansResult> =>
+    runEngine({ fn: 'rangeComparison', args: [a, b, options] }, () => rangeComparison(a, b, options), signal);
 
   /** A range aligned outward to whole steps, refused when it holds more cells than one run may. */
   function alignedRange(from: number, to: number, stepMs: number, field: string): { from: number; to: number } {

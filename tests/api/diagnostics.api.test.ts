@@ -11,11 +11,10 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { parse as parseCsv } from 'csv-parse/sync';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
-import { buildMember, sessionCookieFor } from '../support/factories.ts';
+import { buildMember, sessionCookieFor, standInAppDeps } from '../support/factories.ts';
 import { buildLabWithEverything, type LabWithEverything } from '../support/lab-fixture.ts';
 import { onLargestPlan } from '../support/largest-plan.ts';
-import { createApp, type AppDeps } from '../../server/app.ts';
-import { createLogger } from '../../server/logger.ts';
+import { createApp } from '../../server/app.ts';
 import { createAnalysisPool, type AnalysisPool } from '../../server/workers/analysis-pool.ts';
 import { channelDiagnostics, rangeComparison, type ChannelDiagnosticsOptions } from '../../server/analysis/index.ts';
 
@@ -99,17 +98,6 @@ const engineOptions = (over: Partial<ChannelDiagnosticsOptions> = {}): ChannelDi
 /** What JSON makes of an engine array: NaN becomes null. */
 const json = (a: ArrayLike<number>) => Array.from(a, (v) => (Number.isNaN(v) ? null : v));
 
-function stubDeps(extra: Partial<AppDeps>): AppDeps {
-  return {
-    config: { ...t.config, clientDir: null },
-    db: t.db,
-    logger: createLogger({ silent: true }),
-    identity: { endpoints: { issuer: 'http://x', authorization_endpoint: 'http://x/a', token_endpoint: 'http://x/t', userinfo_endpoint: 'http://x/u' } },
-    mailer: { send: async () => {}, verify: async () => true, close: () => {} },
-    billing: {} as never,
-    ...extra,
-  };
-}
 
 describe('GET /channels/:channelId/diagnostics', () => {
   it('returns the engine’s numbers for the same readings, with the method and parameters used', async () => {
@@ -145,7 +133,7 @@ describe('GET /channels/:channelId/diagnostics', () => {
     expect(r.processModel).toMatchObject({ available: true, fittedOn: 'remainder', period: DAY_STEPS, cells: model.cells, readingsPerIndependent: model.readingsPerIndependent });
     expect(r.processModel.chosen).toMatchObject({ p: model.p, q: model.q, ar: model.ar, ma: model.ma, standardErrors: model.standardErrors, logLik: model.logLik });
     expect(r.processModel.fittedTo).toBe(T0 + N * STEP);
-    expect(r.processModel.candidates).toHaveLength(16);
+    expect(r.processModel.candidates).toHaveLength(10); // every p, q ≤ 3 with p + q ≤ 3
     expect(r.processModel.sentence).toMatch(/^Once its 1 d cycle is removed, Air temperature /);
     expect(r.identification.fittedOn).toBe('remainder');
     // the trend is the engine's slope per 10-minute step, scaled to a day (144 steps) and a year
@@ -258,7 +246,7 @@ describe('GET /channels/:channelId/diagnostics', () => {
   it('runs the same bundle on the worker pool (one task) with identical numbers', async () => {
     const pool = createAnalysisPool({ maxThreads: 1 });
     try {
-      const app = createApp(stubDeps({ analysisPool: pool }));
+      const app = createApp(standInAppDeps(t, { analysisPool: pool }));
       const path = `${base}/diagnostics?${range}&step=600&ccfWith=${soilId}`;
       const viaPool = await request(app).get(path).set('Cookie', cookie).expect(200);
       const inProcess = await request(t.app).get(path).set('Cookie', cookie).expect(200);
@@ -282,7 +270,7 @@ describe('GET /channels/:channelId/diagnostics', () => {
         }),
       close: async () => {},
     };
-    const server = createServer(createApp(stubDeps({ analysisPool: hanging })));
+    const server = createServer(createApp(standInAppDeps(t, { analysisPool: hanging })));
     await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
     try {
       const { port } = server.address() as AddressInfo;
