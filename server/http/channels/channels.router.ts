@@ -105,7 +105,7 @@ export function channelRoutes(deps: { channels: ChannelsService; diagnostics: Di
       path: '/channels/:channelId/diagnostics',
       permission: 'diagnostics.read',
       summary:
-        `ACF, PACF, Ljung–Box, process identification, STL, effective sample size and cross-correlation for a channel. A decomposition longer than ${MAX_DRAWN_CELLS.toLocaleString('en')} cells comes thinned for drawing (\`decomposition.cells\` lists the cells kept, \`decomposition.thinned\` says how); diagnostics.csv holds every cell.`,
+        `ACF, PACF, Ljung–Box, process identification with the fitted ARMA model (\`processModel\`: coefficients ± standard errors, candidates with AICc and BIC, residual test), the trend with Newey–West and naive intervals (\`trend\`), STL, effective sample size and the prewhitened cross-correlation with a simultaneous band (\`crossCorrelation\`, the raw CCF under \`raw\`) for a channel. A decomposition longer than ${MAX_DRAWN_CELLS.toLocaleString('en')} cells comes thinned for drawing (\`decomposition.cells\` lists the cells kept, \`decomposition.thinned\` says how); diagnostics.csv holds every cell.`,
       query: diagnosticsQuery(now),
       responses: DIAGNOSTICS_BUSY,
       handle: async (req, res) => {
@@ -127,7 +127,10 @@ export function channelRoutes(deps: { channels: ChannelsService; diagnostics: Di
       summary:
         'Before/after comparison of means: range a of this channel against range b of `otherChannel` (this channel when left out), mean(b) − mean(a) with an interval from each range’s effective sample size beside the naive Welch interval.',
       query: comparisonQuery,
-      responses: DIAGNOSTICS_BUSY,
+      responses: {
+        ...DIAGNOSTICS_BUSY,
+        '422': '`analysis_input`: a range holds no readings, fewer than 10, or fewer than 2 effective readings, or both ranges are constant; the message says which.',
+      },
       handle: async (req, res) => {
         const { channelId } = parseInput(channelParams, req.params);
         const lab = labOf(res);
