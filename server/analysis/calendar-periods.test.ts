@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { calendarPeriodNear } from './calendar-period-near.ts';
-import { calendarPeriods } from './calendar-periods.ts';
+import { calendarPeriods, dayMultiples } from './calendar-periods.ts';
 
 const MINUTE = 60_000;
 
@@ -44,5 +44,11 @@ describe('calendarPeriodNear', () => {
     // n = 20: one bin is 0.05 cycles per step; the hour (1/12 ≈ 0.083) and the day (1/288 ≈ 0.003) are both within it of 0.04 and 0.045.
     expect(calendarPeriodNear(0.045, 20, periods)?.name).toBe('hour');
     expect(calendarPeriodNear(0.04, 20, periods)?.name).toBe('day');
+  });
+
+  it('lists 2 to 6 whole days for snapping when a day is a whole number of steps (dayMultiples)', () => {
+    expect(dayMultiples(300_000, 10_000)).toEqual([2, 3, 4, 5, 6].map((k) => ({ name: 'days', steps: 288 * k })));
+    expect(dayMultiples(300_000, 1000).map((c) => c.steps)).toEqual([576, 864]);
+    expect(dayMultiples(7 * 60_000, 10_000)).toEqual([]); // a day is not a whole number of 7-minute steps
   });
 });

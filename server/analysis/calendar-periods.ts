@@ -1,7 +1,7 @@
 import { AnalysisInputError } from './analysis-input-error.ts';
 
 /** The calendar cycles a logger's grid can carry. */
-export type CalendarName = 'hour' | 'day' | 'week';
+export type CalendarName = 'hour' | 'day' | 'week' | 'days';
 
 export interface CalendarPeriod {
   name: CalendarName;
@@ -38,5 +38,22 @@ export function calendarPeriods(stepMs: number, maxPeriod: number): CalendarPeri
     if (Math.abs(steps - whole) > 1e-9 * steps) continue;
     if (whole >= 2 && whole <= maxPeriod) out.push({ name, steps: whole });
   }
+  return out;
+}
+
+/**
+ * Whole numbers of days from 2 to 6 that are a whole number of grid steps between 2 and
+ * `maxPeriod` (name 'days'): cycles such as watering every other day. They are not tested at
+ * their own frequency as the hour, day and week are (that would add tests for cycles few
+ * channels have), but a cycle the open search finds within one Fourier bin of one of them is
+ * reported as exactly that many steps, for the same reason as the calendar periods.
+ *
+ * Cost: O(1).
+ */
+export function dayMultiples(stepMs: number, maxPeriod: number): CalendarPeriod[] {
+  const day = calendarPeriods(stepMs, Number.MAX_SAFE_INTEGER).find((c) => c.name === 'day');
+  if (!day) return [];
+  const out: CalendarPeriod[] = [];
+  for (let k = 2; k <= 6; k++) if (k * day.steps <= maxPeriod) out.push({ name: 'days', steps: k * day.steps });
   return out;
 }

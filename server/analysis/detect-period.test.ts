@@ -111,4 +111,16 @@ describe('detectPeriod', () => {
     expect(() => detectPeriod(dailyCycle(1), { stepMs: 0 })).toThrow('detectPeriod: stepMs must be a positive number of milliseconds (got 0)');
     expect(() => detectPeriod(dailyCycle(1), { stepMs: Number.NaN })).toThrow('detectPeriod: stepMs must be a positive number of milliseconds (got NaN)');
   });
+
+  it('reports a cycle of whole days (watering every other day) as exactly 576 five-minute steps, with the raw estimate', () => {
+    const noise = simulateArma({ ar: [0.9] }, 8640, 17);
+    const x = noise.map((v, t) => v + 2 * Math.sin((2 * Math.PI * t) / 576 + 0.4));
+    const result = detectPeriod(x, { stepMs: 300_000 });
+    expect(result.best).toBe(576);
+    const c = result.candidates.find((k) => k.period === 576)!;
+    expect(c.calendar).toBe('days');
+    expect(c.note).toMatch(/^576 steps = 2 days \(raw estimate [\d.]+, within the spectral resolution/);
+    // without the grid step nothing is snapped
+    expect(detectPeriod(x).candidates[0].calendar).toBeNull();
+  });
 });

@@ -4,7 +4,7 @@ import { arSpectrum } from './ar-spectrum.ts';
 import { autocorrelation } from './autocorrelation.ts';
 import { autocorrelationFromPeriodogram } from './autocorrelation-from-periodogram.ts';
 import { calendarPeriodNear } from './calendar-period-near.ts';
-import { type CalendarName, type CalendarPeriod, calendarPeriods } from './calendar-periods.ts';
+import { type CalendarName, type CalendarPeriod, calendarPeriods, dayMultiples } from './calendar-periods.ts';
 import { durbinLevinson } from './durbin-levinson.ts';
 import { integerOption } from './integer-option.ts';
 import { normalQuantile } from './normal-quantile.ts';
@@ -256,7 +256,7 @@ function maxExponentialPValue(ratio: number, count: number): number {
   return Math.min(1, -Math.expm1(count * Math.log1p(-Math.exp(-ratio))));
 }
 
-const CALENDAR_WORDS: Record<CalendarName, string> = { hour: '1 hour', day: '1 day', week: '1 week' };
+const CALENDAR_WORDS: Record<Exclude<CalendarName, 'days'>, string> = { hour: '1 hour', day: '1 day', week: '1 week' };
 
 /** Rounded for a note: one decimal. */
 const fmt = (v: number) => (Math.round(v * 10) / 10).toString();
@@ -327,6 +327,7 @@ export function detectPeriod(x: Series, options: DetectPeriodOptions = {}): Dete
     throw new AnalysisInputError(`${fn}: stepMs must be a positive number of milliseconds (got ${options.stepMs})`);
   }
   const calendars = options.stepMs === undefined ? [] : calendarPeriods(options.stepMs, maxPeriod);
+  const multiples = options.stepMs === undefined ? [] : dayMultiples(options.stepMs, maxPeriod);
 
   const detrended = removeLinearTrend(x);
   const { power, size } = periodogram(detrended, PAD_FACTOR * n);
@@ -451,9 +452,11 @@ export function detectPeriod(x: Series, options: DetectPeriodOptions = {}): Dete
       merged.how = 'both';
       continue;
     }
-    const period = Math.min(maxPeriod, Math.max(2, Math.round(exactPeriod)));
+    // A cycle of whole days (e.g. watering every other day) is reported as exactly that many steps.
+    const days = calendarPeriodNear(f, n, multiples);
+    const period = days ? days.steps : Math.min(maxPeriod, Math.max(2, Math.round(exactPeriod)));
     if (drafts.some((d) => d.period === period)) continue;
-    drafts.push({ period, exactPeriod, calendar: null, peakRatio, pFamily, background, how: 'search', scale });
+    drafts.push({ period, exactPeriod, calendar: days ? 'days' : null, peakRatio, pFamily, background, how: 'search', scale });
   }
 
   const candidates: PeriodCandidate[] = drafts.map((d) => {
@@ -464,7 +467,7 @@ export function detectPeriod(x: Series, options: DetectPeriodOptions = {}): Dete
     const model = `AR(${d.background.order})`;
     let note: string;
     if (d.calendar) {
-      const what = `${d.period} steps = ${CALENDAR_WORDS[d.calendar]}`;
+      const what = `${d.period} steps = ${d.calendar === 'days' ? `${Math.round((2 * d.period) / multiples[0].steps)} days` : CALENDAR_WORDS[d.calendar]}`;
       note =
         d.how === 'calendar'
           ? `${what} (tested at the calendar frequency: periodogram ${fmt(d.peakRatio)} times the ${model} background)`

@@ -41,8 +41,8 @@ export interface PeriodCandidate {
   pValue: number;
   sources: string[];
   significant: boolean;
-  /** The calendar period the raw estimate was snapped to, if any. */
-  calendar?: 'hour' | 'day' | 'week' | null;
+  /** The calendar period the raw estimate was snapped to, if any ('days': a whole number of days from 2 to 6). */
+  calendar?: 'hour' | 'day' | 'week' | 'days' | null;
   /** How the length was read, e.g. "288 steps = 1 day (raw estimate 289.4, …)". */
   note?: string;
 }
