@@ -32,7 +32,7 @@ export type Permission = (typeof PERMISSIONS)[number];
 
 const READ: Permission[] = ['lab.read', 'loggers.read', 'channels.read', 'diagnostics.read', 'alerts.read'];
 
-/** DESIGN.md's role table, as permissions. */
+/** The product brief's role table (admin, technician, scientist, guest), as permissions. */
 export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
   admin: PERMISSIONS,
   technician: [

@@ -9,7 +9,7 @@ import type { Role } from '../../server/policies/permissions.ts';
 /**
  * Route × role matrix, generated from the app's own route table: every lab route, for each
  * role plus a signed-out visitor and a signed-in non-member. Who may call what is written
- * out here by hand from DESIGN.md's role table, independently of the server's permission
+ * out here by hand from the product brief's role table, independently of the server's permission
  * module, so a wrong permission on a route fails this test; a route missing from this table
  * fails it too.
  */
@@ -65,7 +65,7 @@ const ALLOWED: Record<string, { roles: Role[]; ok: number }> = {
   // The fixture's token is the founder's: a permitted caller passes the guard and is told it
   // has no such token of its own (404, same as a missing one); a guest is refused (403).
   'DELETE /tokens/:tokenId': { roles: ['admin', 'technician', 'scientist'], ok: 404 },
-  // Plan and payment are the admins' (DESIGN.md role table); checkout and portal talk to the Stripe stand-in.
+  // Plan and payment are the admins' (the product brief's role table); checkout and portal talk to the Stripe stand-in.
   'GET /billing': { roles: ['admin'], ok: 200 },
   'POST /billing/checkout-session': { roles: ['admin'], ok: 201 },
   // The fixture's lab has no subscription: a permitted caller passes the guard and is told so (409).

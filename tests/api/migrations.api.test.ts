@@ -4,7 +4,7 @@ import { migrateToLatest, rollbackAll } from '../../server/db/migrate.ts';
 import { testConfig } from '../support/test-app.ts';
 
 /**
- * Indexes allowed not to lead with tenant_id, each with its reason (DESIGN.md data rules:
+ * Indexes allowed not to lead with tenant_id, each with its reason (the product brief's data rules:
  * every key and index on a lab-owned table leads with tenant_id).
  */
 const DOCUMENTED_EXCEPTIONS = new Set([

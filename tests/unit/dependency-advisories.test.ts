@@ -7,7 +7,7 @@ import { describe, expect, it } from 'vitest';
  * The installed production packages (package-lock.json, entries not marked dev) checked against
  * the high and critical advisories of dependency-advisories.json — what a hand review of the
  * OSV / GitHub Advisory records found while `npm audit` could not reach its endpoint from the
- * build machine (README "Reliability"). It keeps a fixed version from sliding back, e.g. an
+ * build machine (tests/unit/dependency-advisories.md). It keeps a fixed version from sliding back, e.g. an
  * override being dropped; it is no substitute for `npm audit` where that runs.
  */
 interface Advisory {

@@ -2,7 +2,7 @@ import { labApiBase, pythonNotebookSnippet, rNotebookSnippet } from './notebook-
 import { SnippetBlock } from './snippet-block.tsx';
 
 /**
- * "Use it from a notebook": the README's Python and R examples with this lab's read API
+ * "Use it from a notebook": the Python and R examples of server/http/tokens/README.md with this lab's read API
  * filled in, and where the token goes (an environment variable, never the notebook itself).
  */
 export function NotebookGuide({ slug, origin }: { slug: string; origin: string }) {

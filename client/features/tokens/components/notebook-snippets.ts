@@ -1,5 +1,5 @@
 /**
- * The notebook examples of README.md ("API, tokens and notebooks"), filled with this lab's
+ * The notebook examples of server/http/tokens/README.md ("Notebooks"), filled with this lab's
  * address and the server the page was loaded from, so they run as shown once the token is in
  * the `LAGBOOK_TOKEN` environment variable.
  */
