@@ -14,6 +14,9 @@ export interface ExplanationFacts {
 
 const plural = (k: number, word: string) => `${k} ${word}${k === 1 ? '' : 's'}`;
 
+/** An AR root closer to the unit circle than this makes the model's information figure unreliable (auto.arima's bound). */
+export const NEAR_UNIT_ROOT = 1.01;
+
 /** `0.82 ± 0.03` with two significant decimals of the standard error. */
 function withError(value: number, se: number): string {
   const digits = Number.isFinite(se) && se > 0 ? Math.min(6, Math.max(2, 1 - Math.floor(Math.log10(se)))) : 3;
@@ -34,8 +37,9 @@ export function describeModel(m: Pick<ProcessModelFit, 'p' | 'q' | 'ar' | 'ma' |
 function modelSentence(m: ProcessModelFit, seasonal: boolean): string {
   const on = seasonal ? 'After the cycle is removed, the rest of the series' : 'The series';
   const ratio = m.readingsPerIndependent;
-  const information =
-    ratio < 1.5
+  const information = m.smallestArRoot < NEAR_UNIT_ROOT
+    ? 'it sits so close to a wandering level (an AR root within 1 % of the unit circle) that it cannot say how many readings are independent information; the effective sample size is the better guide'
+    : ratio < 1.5
       ? 'nearly every reading is independent information about the mean'
       : `about 1 in ${ratio < 10 ? ratio.toFixed(1) : Math.round(ratio).toLocaleString('en')} readings is independent information about the mean`;
   const fit = m.residualTest.pValue < 0.05 ? ` Its residuals still fail the Ljung–Box test (p = ${m.residualTest.pValue.toPrecision(2)}), so treat the model as a rough description.` : '';

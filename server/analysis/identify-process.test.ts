@@ -66,4 +66,13 @@ describe('identifyProcess on simulated processes', () => {
     expect(Math.abs(given.evidence.ljungBox.statistic - own.evidence.ljungBox.statistic)).toBeLessThan(1e-9);
     expect(given.evidence.significantAcfLags).toEqual(own.evidence.significantAcfLags);
   });
+
+  it('does not quote an information figure for a model at the edge of a wandering level (AR root within 1.01)', () => {
+    const x = simulateArma({ ar: [0.997] }, 40_000, 23);
+    const result = identifyProcess(x, { knownPeriod: null });
+    expect(result.evidence.unitRoot?.rejectsUnitRoot).toBe(true);
+    expect(result.model?.smallestArRoot).toBeLessThan(1.01);
+    expect(result.explanation).toContain('cannot say how many readings are independent information');
+    expect(result.explanation).not.toMatch(/about 1 in [\d,.]+ readings/);
+  });
 });

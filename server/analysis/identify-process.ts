@@ -10,6 +10,7 @@ import { integerOption } from './integer-option.ts';
 import { ljungBox } from './ljung-box.ts';
 import type { PortmanteauResult } from './portmanteau-test.ts';
 import { readingsPerIndependent } from './readings-per-independent.ts';
+import { armaSmallestRoot } from './arma-smallest-root.ts';
 import type { FitArmaResult } from './fit-arma.ts';
 import { selectArma, type SelectArmaResult } from './select-arma.ts';
 import { stl } from './stl.ts';
@@ -69,6 +70,11 @@ export interface ProcessModelFit extends Pick<FitArmaResult, 'ar' | 'ma' | 'mean
   residualTest: { lag: number; statistic: number; df: number; pValue: number };
   /** n / n_eff for the mean that the model implies (1 for white noise). */
   readingsPerIndependent: number;
+  /**
+   * Smallest modulus of the AR polynomial's roots (Infinity without AR terms). Below 1.01 the
+   * model sits at the edge of stationarity and `readingsPerIndependent` is not a figure to quote.
+   */
+  smallestArRoot: number;
   /** Set when the BIC choice differs from the lowest AICc, saying so. */
   criterionNote: string | null;
 }
@@ -210,6 +216,7 @@ function fitModel(series: Float64Array, fittedOn: 'series' | 'remainder', option
     lowestAicc: { p: selection.p, q: selection.q },
     residualTest: { lag: residualTest.lag, statistic: residualTest.statistic, df: residualTest.df, pValue: residualTest.pValue },
     readingsPerIndependent: readingsPerIndependent(model.ar, model.ma),
+    smallestArRoot: armaSmallestRoot(model.ar, []),
     criterionNote,
   };
 }

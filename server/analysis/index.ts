@@ -62,7 +62,7 @@ export {
   type ProcessVerdict,
   type ProcessModelFit,
 } from './identify-process.ts';
-export { describeModel } from './identify-process-explanation.ts';
+export { describeModel, NEAR_UNIT_ROOT } from './identify-process-explanation.ts';
 export { readingsPerIndependent } from './readings-per-independent.ts';
 export { rangeComparison, type RangeComparisonOptions } from './range-comparison.ts';
 export { andrewsBartlettLag } from './andrews-bartlett-lag.ts';

@@ -1,4 +1,4 @@
-import { describeModel, thinForDrawing, type ChannelDiagnostics } from '../analysis/index.ts';
+import { describeModel, NEAR_UNIT_ROOT, thinForDrawing, type ChannelDiagnostics } from '../analysis/index.ts';
 import type { ChannelWithState } from '../db/channel-state.repo.ts';
 
 /** The diagnostics parameters as the request chose them, defaults filled in. */
@@ -125,14 +125,19 @@ function processModelSection(r: ChannelDiagnostics, stepMs: number, label: strin
   const fittedFrom = r.grid.start + (offset + m.start) * stepMs;
   const step = durationOf(stepMs);
   const ratio = m.readingsPerIndependent;
-  const information = ratio < 1.5 ? 'nearly every reading is independent information' : `about 1 in ${ratio < 10 ? ratio.toFixed(1) : Math.round(ratio).toLocaleString('en')} readings is independent information`;
+  const information =
+    m.smallestArRoot < NEAR_UNIT_ROOT
+      ? `the model sits at the edge of a wandering level, so it cannot say how many readings are independent (the effective sample size of the range is about ${Math.max(1, Math.round(r.effectiveSampleSize.ess)).toLocaleString('en')})`
+      : ratio < 1.5
+        ? 'nearly every reading is independent information'
+        : `about 1 in ${ratio < 10 ? ratio.toFixed(1) : Math.round(ratio).toLocaleString('en')} readings is independent information`;
   const what = m.fittedOn === 'remainder' ? `Once its ${durationOf((r.period.used ?? 0) * stepMs)} cycle is removed, ${label}` : label;
   let behaviour: string;
   if (m.p === 0 && m.q === 0) behaviour = `${what} behaves like independent noise from one ${step} step to the next`;
   else if (m.q === 0 && m.p === 1) behaviour = `${what} carries over from one ${step} step to the next with φ = ${m.ar[0].toFixed(2)}`;
   else if (m.p === 0) behaviour = `in ${label} a disturbance echoes for ${m.q} step${m.q === 1 ? '' : 's'} of ${step} and is then forgotten`;
   else behaviour = `${what} follows ${describeModel(m)} on its ${step} steps`;
-  const sentence = `${behaviour.charAt(0).toUpperCase()}${behaviour.slice(1)}; ${information} about the mean.`;
+  const sentence = `${behaviour.charAt(0).toUpperCase()}${behaviour.slice(1)}; ${information}${m.smallestArRoot < NEAR_UNIT_ROOT ? '' : ' about the mean'}.`;
   return {
     available: true as const,
     fittedOn: m.fittedOn,
@@ -155,7 +160,7 @@ function processModelSection(r: ChannelDiagnostics, stepMs: number, label: strin
       converged: m.converged,
     },
     residualTest: m.residualTest,
-    readingsPerIndependent: ratio,
+    readingsPerIndependent: m.smallestArRoot < NEAR_UNIT_ROOT ? null : ratio,
     lowestAicc: m.lowestAicc,
     criterionNote: m.criterionNote,
     note: r.identification.modelNote,

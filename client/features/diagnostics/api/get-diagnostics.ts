@@ -138,8 +138,8 @@ export type ProcessModel =
       note: string | null;
       chosen: ArmaFitSummary;
       residualTest: { lag: number; statistic: number; df: number; pValue: number };
-      /** Readings per independent piece of information the model implies (1 for white noise). */
-      readingsPerIndependent: number;
+      /** Readings per independent piece of information the model implies (1 for white noise); null when an AR root lies within 1 % of the unit circle. */
+      readingsPerIndependent: number | null;
       /** Plain sentence written by the server. */
       sentence: string;
     };

@@ -50,7 +50,11 @@ export function ProcessModelBlock({ model, stepS, alpha, unit, timezone }: { mod
       <p className="text-sm text-ink-soft" data-testid="process-model-fitted-on">
         Fitted on {fittedOn}: {model.cells.toLocaleString('en')} cells of {fmtSeconds(stepS)}, {formatZoned(model.fittedFrom, timezone)} to {formatZoned(model.fittedTo, timezone)} ({timezone}).
         {' '}
-        {model.readingsPerIndependent < 1.05 ? 'Each reading counts as independent information.' : `About 1 in ${fmtStat(model.readingsPerIndependent, 3)} readings is independent information.`}
+        {model.readingsPerIndependent === null
+          ? 'The model sits at the edge of a wandering level, so it gives no figure for the independent information; see the effective sample size.'
+          : model.readingsPerIndependent < 1.05
+            ? 'Each reading counts as independent information.'
+            : `About 1 in ${fmtStat(model.readingsPerIndependent, 3)} readings is independent information.`}
       </p>
       <div className="grid gap-6 lg:grid-cols-2">
         <table className="w-full border-collapse text-left text-sm">
