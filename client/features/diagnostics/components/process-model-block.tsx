@@ -56,7 +56,7 @@ export function ProcessModelBlock({ model, stepS, alpha, unit, timezone }: { mod
             ? 'Each reading counts as independent information.'
             : `About 1 in ${fmtStat(model.readingsPerIndependent, 3)} readings is independent information.`}
       </p>
-      <div className="grid gap-6 lg:grid-cols-2">
+      <div className="grid items-start gap-6 lg:grid-cols-2">
         <table className="w-full border-collapse text-left text-sm">
           <caption className="mb-1 text-left text-sm font-semibold">Estimated coefficients (± standard error)</caption>
           <thead className="border-b border-rule text-xs uppercase tracking-wide text-ink-soft">
