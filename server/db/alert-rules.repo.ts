@@ -1,6 +1,6 @@
 import type { LabScope } from './tenant-scope.ts';
 import { newId } from './new-id.ts';
-import type { AlertRuleKind } from '../http/alerts/alerts.schema.ts';
+import type { AlertRuleKind } from '../contract/alerts.ts';
 
 /** A rule's memory between evaluations (see migrations/20261202001600_create-alert-rules.ts). */
 export interface AlertRuleCursor {

@@ -1,6 +1,6 @@
 import type { LabScope } from './tenant-scope.ts';
 import { newId } from './new-id.ts';
-import type { AlertRuleKind } from '../http/alerts/alerts.schema.ts';
+import type { AlertRuleKind } from '../contract/alerts.ts';
 
 export interface AlertRecord {
   id: number;

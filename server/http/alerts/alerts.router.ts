@@ -1,7 +1,8 @@
 import { actorOf, labOf } from '../middleware/lab-guard.ts';
 import { parseInput } from '../validate.ts';
 import { channelParams } from '../channels/channels.schema.ts';
-import { acknowledgeAlertSchema, alertIdParams, channelAlertsQuery, createAlertRuleSchema, listAlertsQuery, ruleIdParams, updateAlertRuleSchema } from './alerts.schema.ts';
+import { createAlertRuleSchema, updateAlertRuleSchema } from '../../contract/alerts.ts';
+import { acknowledgeAlertSchema, alertIdParams, channelAlertsQuery, listAlertsQuery, ruleIdParams } from './alerts.schema.ts';
 import { presentAlert, presentAlertRule } from './alerts.presenter.ts';
 import { parseRuleInput } from '../../services/alerts/alert-errors.ts';
 import type { AlertRulesService } from '../../services/alerts/alert-rules.service.ts';

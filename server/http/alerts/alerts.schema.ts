@@ -2,91 +2,10 @@ import { z } from 'zod';
 import { timeParam } from '../channels/channels.schema.ts';
 
 /**
- * Input schemas of the alert routes. Pure zod, shared with the client's rule form, so both
- * give the same `field: reason` messages.
+ * Input schemas of the alert routes that are not shared with the other layers: path parameters
+ * and list queries. The rule kinds, parameters and create/update inputs live in
+ * `server/contract/alerts.ts`, which services, repositories and the client import too.
  */
-
-export const ALERT_RULE_KINDS = ['silence', 'bounds', 'rate', 'unusual'] as const;
-export type AlertRuleKind = (typeof ALERT_RULE_KINDS)[number];
-
-const num = (what = 'a number') => z.number({ error: `must be ${what}` }).refine(Number.isFinite, 'must be a finite number');
-const whole = (min: number, max: number, negative = 'must not be negative') =>
-  z
-    .number({ error: 'must be a number' })
-    .int('must be a whole number')
-    .min(min, min === 0 ? negative : `must be at least ${min}`)
-    .max(max, `must be at most ${max}`);
-const id = z.number({ error: 'must be a number' }).int('must be a whole number').positive('must be a positive number');
-
-export const silenceParamsSchema = z.object({
-  factor: z.number({ error: 'must be a number' }).min(1, 'must be at least 1 (one expected interval)').max(1000, 'must be at most 1000'),
-});
-export const boundsParamsSchema = z
-  .object({
-    low: num().nullable().default(null),
-    high: num().nullable().default(null),
-    holdS: whole(0, 7 * 86_400, 'must not be negative (seconds)').default(0),
-  })
-  .refine((p) => p.low !== null || p.high !== null, { path: ['high'], message: 'set a low limit, a high limit or both' })
-  .refine((p) => p.low === null || p.high === null || p.low < p.high, { path: ['low'], message: 'must be below the high limit' });
-export const rateParamsSchema = z.object({
-  maxPerMinute: z.number({ error: 'must be a number' }).gt(0, 'must be above 0').max(1e9, 'must be at most 1e9'),
-  direction: z.enum(['rise', 'fall', 'either'], { error: 'must be rise, fall or either' }).default('either'),
-});
-export const unusualParamsSchema = z.object({
-  periodH: z.number({ error: 'must be a number' }).gt(0, 'must be above 0 hours').max(24 * 31, 'must be at most 744 hours (31 days)').default(24),
-  k: z.number({ error: 'must be a number' }).min(2, 'must be at least 2').max(50, 'must be at most 50').default(5),
-  historyCycles: whole(3, 14).default(3),
-});
-
-/** The parameter schema of each kind of rule. */
-export const PARAMS_SCHEMAS = {
-  silence: silenceParamsSchema,
-  bounds: boundsParamsSchema,
-  rate: rateParamsSchema,
-  unusual: unusualParamsSchema,
-} as const;
-export type AlertRuleParams = {
-  silence: z.infer<typeof silenceParamsSchema>;
-  bounds: z.infer<typeof boundsParamsSchema>;
-  rate: z.infer<typeof rateParamsSchema>;
-  unusual: z.infer<typeof unusualParamsSchema>;
-};
-
-const common = {
-  name: z.string({ error: 'must be text' }).trim().min(1, 'must not be empty').max(80, 'must be at most 80 characters'),
-  /** Minutes before the first reminder (and between reminders); null uses the lab's default; 0 sends none. */
-  reminderAfterMin: whole(0, 10_080, 'must not be negative (minutes)').nullable().default(null),
-  enabled: z.boolean({ error: 'must be true or false' }).default(true),
-};
-const onChannel = { channelId: id };
-
-/** `POST …/alert-rules`: a value rule watches one channel; a silence rule a channel or a whole logger. */
-export const createAlertRuleSchema = z.discriminatedUnion(
-  'kind',
-  [
-    z
-      .object({ ...common, kind: z.literal('silence'), channelId: id.optional(), loggerId: id.optional(), params: silenceParamsSchema })
-      .refine((r) => (r.channelId === undefined) !== (r.loggerId === undefined), { path: ['channelId'], message: 'give either a channel or a logger to watch' }),
-    z.object({ ...common, kind: z.literal('bounds'), ...onChannel, params: boundsParamsSchema }),
-    z.object({ ...common, kind: z.literal('rate'), ...onChannel, params: rateParamsSchema }),
-    z.object({ ...common, kind: z.literal('unusual'), ...onChannel, params: unusualParamsSchema }),
-  ],
-  { error: 'must be silence, bounds, rate or unusual' },
-);
-export type CreateAlertRuleInput = z.infer<typeof createAlertRuleSchema>;
-
-/** `PATCH …/alert-rules/:ruleId`: what may change (the kind and what is watched may not; make a new rule). */
-export const updateAlertRuleSchema = z
-  .object({
-    name: common.name.optional(),
-    reminderAfterMin: common.reminderAfterMin.unwrap().unwrap().nullable().optional(),
-    enabled: z.boolean({ error: 'must be true or false' }).optional(),
-    /** Checked against the rule's kind by the service. */
-    params: z.record(z.string(), z.unknown(), { error: 'must be an object' }).optional(),
-  })
-  .strict();
-export type UpdateAlertRuleInput = z.infer<typeof updateAlertRuleSchema>;
 
 export const ruleIdParams = z.object({ ruleId: z.coerce.number().int('must be a whole number').positive('must be a positive number') });
 export const alertIdParams = z.object({ alertId: z.coerce.number().int('must be a whole number').positive('must be a positive number') });

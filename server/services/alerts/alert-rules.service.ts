@@ -7,7 +7,7 @@ import { channelsIn } from '../../db/channels.repo.ts';
 import { loggersIn } from '../../db/loggers.repo.ts';
 import { auditIn } from '../../db/audit.repo.ts';
 import { NotFoundError } from '../../errors.ts';
-import { PARAMS_SCHEMAS, type CreateAlertRuleInput, type UpdateAlertRuleInput } from '../../http/alerts/alerts.schema.ts';
+import { PARAMS_SCHEMAS, type CreateAlertRuleInput, type UpdateAlertRuleInput } from '../../contract/alerts.ts';
 import type { Actor, LabContext } from '../lab-context.ts';
 import { InvalidAlertRuleError, parseRuleInput } from './alert-errors.ts';
 

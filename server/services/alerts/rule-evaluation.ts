@@ -4,7 +4,7 @@ import { alertRulesIn, type AlertRule } from '../../db/alert-rules.repo.ts';
 import { alertsIn } from '../../db/alerts.repo.ts';
 import { alertReadingsIn, type WatchedTarget } from '../../db/alert-readings.repo.ts';
 import { channelReadingsIn } from '../../db/channel-readings.repo.ts';
-import type { AlertRuleParams } from '../../http/alerts/alerts.schema.ts';
+import type { AlertRuleParams } from '../../contract/alerts.ts';
 import { queueAlertMail } from './alert-notifications.ts';
 import { evaluateBounds } from './rules/bounds-rule.ts';
 import { evaluateRate } from './rules/rate-rule.ts';

@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { AlertRuleKind } from '../../../../server/http/alerts/alerts.schema.ts';
+import type { AlertRuleKind } from '../../../../server/contract/alerts.ts';
 import { apiFetch } from '../../../lib/api-client.ts';
 
 /** An alert rule as listed, with what it watches and whether the viewer is subscribed. */

@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { AlertRuleKind } from '../../../../server/http/alerts/alerts.schema.ts';
+import type { AlertRuleKind } from '../../../../server/contract/alerts.ts';
 import { apiFetch } from '../../../lib/api-client.ts';
 import { alertsRootKey } from './get-alert-rules.ts';
 

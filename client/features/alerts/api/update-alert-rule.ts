@@ -1,4 +1,4 @@
-import type { UpdateAlertRuleInput } from '../../../../server/http/alerts/alerts.schema.ts';
+import type { UpdateAlertRuleInput } from '../../../../server/contract/alerts.ts';
 import { useRefreshingMutation } from '../../../components/use-refreshing-mutation.ts';
 import { apiFetch } from '../../../lib/api-client.ts';
 import { alertsRootKey, type AlertRule } from './get-alert-rules.ts';

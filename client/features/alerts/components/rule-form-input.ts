@@ -1,4 +1,4 @@
-import { createAlertRuleSchema, type AlertRuleKind, type CreateAlertRuleInput } from '../../../../server/http/alerts/alerts.schema.ts';
+import { createAlertRuleSchema, type AlertRuleKind, type CreateAlertRuleInput } from '../../../../server/contract/alerts.ts';
 
 /** The rule form's fields as typed (text), before they become a request body. */
 export interface RuleFormState {

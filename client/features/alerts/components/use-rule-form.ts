@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import type { CreateAlertRuleInput } from '../../../../server/http/alerts/alerts.schema.ts';
+import type { CreateAlertRuleInput } from '../../../../server/contract/alerts.ts';
 import { checkRuleForm, errorsFromServerMessage, type RuleFormState } from './rule-form-input.ts';
 
 /**
