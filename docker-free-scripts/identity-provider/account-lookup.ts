@@ -1,5 +1,5 @@
 import { createHash, timingSafeEqual } from 'node:crypto';
-import type { DevAccount } from './dev-accounts.ts';
+import type { DevAccount } from '../../tenants/demo/people.ts';
 
 function digest(value: string): Buffer {
   return createHash('sha256').update(value, 'utf8').digest();

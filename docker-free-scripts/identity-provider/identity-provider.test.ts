@@ -1,7 +1,7 @@
 import { createHash, createPublicKey, randomBytes, verify, type JsonWebKey } from 'node:crypto';
 import { CookieJar } from 'tough-cookie';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { DEV_ACCOUNTS } from './dev-accounts.ts';
+import { DEV_ACCOUNTS } from '../../tenants/demo/people.ts';
 import { IDENTITY_PROVIDER_PATHS, startIdentityProvider, type RunningIdentityProvider } from './identity-provider.ts';
 import { WRONG_CREDENTIALS_MESSAGE } from './interaction-routes.ts';
 

@@ -3,7 +3,7 @@ import { randomBytes } from 'node:crypto';
 import express from 'express';
 import Provider from 'oidc-provider';
 import { listenHttpServer } from '../shared/listen-http-server.ts';
-import { DEV_ACCOUNTS, type DevAccount } from './dev-accounts.ts';
+import { DEV_ACCOUNTS, type DevAccount } from '../../tenants/demo/people.ts';
 import { IDENTITY_PROVIDER_PATHS } from './identity-provider-paths.ts';
 import { createInteractionRouter } from './interaction-routes.ts';
 import { buildProviderConfiguration, type StandInClient } from './provider-configuration.ts';

@@ -2,7 +2,7 @@ import express, { type NextFunction, type Request, type Response, type Router } 
 import type { Interaction, Provider } from 'oidc-provider';
 import { errors } from 'oidc-provider';
 import { findDevAccountBySub, matchDevAccount } from './account-lookup.ts';
-import type { DevAccount } from './dev-accounts.ts';
+import type { DevAccount } from '../../tenants/demo/people.ts';
 import { renderConsentPage, renderLoginPage, renderNoticePage } from './interaction-pages.ts';
 
 /** Message shown when the e-mail and password match no dev account. */

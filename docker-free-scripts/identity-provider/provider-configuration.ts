@@ -1,6 +1,6 @@
 import type { Account, ClientMetadata, Configuration, ProviderContext } from 'oidc-provider';
 import { findDevAccountBySub } from './account-lookup.ts';
-import type { DevAccount } from './dev-accounts.ts';
+import type { DevAccount } from '../../tenants/demo/people.ts';
 import { IDENTITY_PROVIDER_PATHS } from './identity-provider-paths.ts';
 import { escapeHtml, renderNoticePage } from './interaction-pages.ts';
 import type { SigningJwk } from './signing-key.ts';

@@ -121,7 +121,7 @@ async function run(argv: string[]): Promise<CommandResult | null> {
         if (process.env.NODE_ENV === 'production' && !values.force) fail('seed-demo refuses to run in production without --force');
         const issuer = values.issuer ?? process.env.OIDC_ISSUER;
         if (!issuer) fail('seed-demo needs --issuer or OIDC_ISSUER (the identity provider the demo members sign in with)');
-        const { DEV_ACCOUNTS } = await import('../../docker-free-scripts/identity-provider/dev-accounts.ts');
+        const { DEV_ACCOUNTS } = await import('../../tenants/demo/people.ts');
         const result = await seedDemo(db, {
           issuer: issuer.replace(/\/$/, ''),
           people: DEV_ACCOUNTS.map((a) => ({ email: a.email, name: a.name, subject: a.sub })),

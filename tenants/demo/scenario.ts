@@ -42,7 +42,7 @@ export const DEMO_DAYS = 90;
 export const DEMO_LAB = {
   slug: 'fernhollow-field-station',
   name: 'Fernhollow Field Station',
-  /** Dev accounts (docker-free-scripts/identity-provider/dev-accounts.ts) and their roles here. */
+  /** Dev accounts (tenants/demo/people.ts) and their roles here. */
   members: [
     { email: 'odalys.brennick@fernhollow.example', role: 'admin' },
     { email: 'tobiah.quarrie@fernhollow.example', role: 'technician' },

@@ -3,7 +3,7 @@ import { createDb, type Db } from '../../server/db/create-db.ts';
 import { migrateToLatest } from '../../server/db/migrate.ts';
 import { seedDemo } from '../../server/cli/seed-demo.ts';
 import { ccf, channelDiagnostics, detectPeriod, identifyProcess } from '../../server/analysis/index.ts';
-import { DEV_ACCOUNTS } from '../../docker-free-scripts/identity-provider/dev-accounts.ts';
+import { DEV_ACCOUNTS } from '../../tenants/demo/people.ts';
 import { testConfig } from '../support/test-app.ts';
 
 /**

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
 import { BrowserlessSession, signInThroughProvider } from '../support/browserless-session.ts';
-import { DEV_ACCOUNTS } from '../../docker-free-scripts/identity-provider/dev-accounts.ts';
+import { DEV_ACCOUNTS } from '../../tenants/demo/people.ts';
 
 const scientist = DEV_ACCOUNTS.find((a) => a.role === 'scientist')!;
 const newcomer = DEV_ACCOUNTS.find((a) => a.role === 'none')!;

@@ -6,7 +6,7 @@ import { browserSuite } from '../support/browser-suite.ts';
 import { signInAsMemberOfNewLab } from '../support/browser-lab-member.ts';
 import { createLoggersService } from '../../server/services/loggers.service.ts';
 import { waitForMail } from '../../docker-free-scripts/mail-capture/read-captured-mail.ts';
-import { DEV_ACCOUNTS } from '../../docker-free-scripts/identity-provider/dev-accounts.ts';
+import { DEV_ACCOUNTS } from '../../tenants/demo/people.ts';
 
 const technician = DEV_ACCOUNTS.find((a) => a.role === 'technician')!;
 // A fictional seed bank, named afresh on every run; its cold room must stay at or below 6 °C.

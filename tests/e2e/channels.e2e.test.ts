@@ -6,7 +6,7 @@ import { browserSuite } from '../support/browser-suite.ts';
 import { signInAsMemberOfNewLab } from '../support/browser-lab-member.ts';
 import { createLoggersService } from '../../server/services/loggers.service.ts';
 import { ingestBatch, type IncomingReading } from '../../server/services/ingest/ingest-batch.ts';
-import { DEV_ACCOUNTS } from '../../docker-free-scripts/identity-provider/dev-accounts.ts';
+import { DEV_ACCOUNTS } from '../../tenants/demo/people.ts';
 import { onLargestPlan } from '../support/largest-plan.ts';
 
 const scientist = DEV_ACCOUNTS.find((a) => a.role === 'scientist')!;

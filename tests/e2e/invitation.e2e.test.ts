@@ -3,7 +3,7 @@ import type { Page } from 'playwright-core';
 import type { TestApp } from '../support/test-app.ts';
 import { browserSuite } from '../support/browser-suite.ts';
 import { keepScreenshot, signInAtProvider } from '../support/browser.ts';
-import { DEV_ACCOUNTS, type DevAccount } from '../../docker-free-scripts/identity-provider/dev-accounts.ts';
+import { DEV_ACCOUNTS, type DevAccount } from '../../tenants/demo/people.ts';
 import { waitForMail } from '../../docker-free-scripts/mail-capture/read-captured-mail.ts';
 import { slugFromName } from '../../server/http/labs/labs.schema.ts';
 

@@ -2,7 +2,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import type { TestApp } from '../support/test-app.ts';
 import { browserSuite } from '../support/browser-suite.ts';
 import { keepScreenshot, signInAtProvider } from '../support/browser.ts';
-import { DEV_ACCOUNTS } from '../../docker-free-scripts/identity-provider/dev-accounts.ts';
+import { DEV_ACCOUNTS } from '../../tenants/demo/people.ts';
 
 const admin = DEV_ACCOUNTS.find((a) => a.role === 'admin')!;
 const newcomer = DEV_ACCOUNTS.find((a) => a.role === 'none')!;

@@ -6,7 +6,7 @@ import type { TestLab } from '../support/factories.ts';
 import { keepScreenshot } from '../support/browser.ts';
 import { browserSuite } from '../support/browser-suite.ts';
 import { signInAsMemberOfNewLab } from '../support/browser-lab-member.ts';
-import { DEV_ACCOUNTS } from '../../docker-free-scripts/identity-provider/dev-accounts.ts';
+import { DEV_ACCOUNTS } from '../../tenants/demo/people.ts';
 
 const technician = DEV_ACCOUNTS.find((a) => a.role === 'technician')!;
 

@@ -1,3 +1,9 @@
+/**
+ * The people of the demo scenario. They live here, beside the demo lab they belong to, so that
+ * both the server's `seed-demo` command and the identity provider stand-in
+ * (`docker-free-scripts/identity-provider/`) can import them without either importing the other's folder.
+ */
+
 /** One person who can sign in at the local identity provider stand-in (development only). */
 export interface DevAccount {
   /** Stable subject identifier the provider puts in `sub`. */
