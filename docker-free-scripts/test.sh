@@ -16,6 +16,8 @@ source "$ROOT/docker-free-scripts/test-env.sh"
 say "type-checking…"
 npx tsc -p tsconfig.json
 npx tsc -p client/tsconfig.json
+say "checking import boundaries…"
+npm run --silent lint:boundaries
 say "building the client (the browser tests use the production build)…"
 npx vite build --logLevel error
 

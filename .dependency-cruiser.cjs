@@ -1,0 +1,82 @@
+// Import boundaries of Lagbook, checked by `npm run lint:boundaries` (dependency-cruiser) and by
+// `npm test` right after the type-check. Only boundary rules live here: no style rules.
+// A rule names the direction that is forbidden; every path is relative to the repository root.
+// Type-only imports count too (tsPreCompilationDeps), so `import type` cannot slip through.
+
+/** Server files the client may import besides `server/contract/` and `server/policies/`:
+ *  the zod input schemas beside the routers, which the client's forms share (DEVELOPERS.md). */
+const CLIENT_SHARED_SERVER = '^server/http/.*[.]schema[.]ts$';
+
+/** Pure server functions that client tests (only tests) run, to check that the payloads and
+ *  times the client shows in its setup guide are the ones the server's ingest accepts. */
+const CLIENT_TEST_ORACLES = '^server/services/ingest/(?:readings-from-body|parse-reading-time)\\.ts$';
+
+/** An error-level rule: no import from a module whose path matches `from` to one matching `to`. */
+function forbid(name, comment, from, to) {
+  return { name, comment, severity: 'error', from, to };
+}
+
+/** A rule: `server/<folder>/` imports nothing of the server outside itself (npm packages are fine). */
+function pureFolder(folder, why) {
+  return forbid(`${folder}-is-pure`, `server/${folder}/ is ${why}: it imports nothing else of the server.`, { path: `^server/${folder}/` }, { path: '^server/', pathNot: `^server/${folder}/` });
+}
+
+/** A rule: files of the client matching `from` import, outside `client/` and npm packages, only `allowed`. */
+function clientImportsOnly(name, comment, from, allowed) {
+  const packages = ['npm', 'npm-dev', 'npm-optional', 'npm-peer', 'npm-no-pkg', 'npm-unknown', 'core'];
+  return forbid(name, comment, from, { path: '^(?!client/)', pathNot: ['^server/contract/', '^server/policies/', ...allowed], dependencyTypesNot: packages });
+}
+
+/** @type {import('dependency-cruiser').IConfiguration} */
+module.exports = {
+  forbidden: [
+    clientImportsOnly(
+      'client-imports-only-shared-server-code',
+      'The client is built separately: from the server it may import server/contract/, server/policies/ and the zod schemas server/http/**/*.schema.ts, nothing else.',
+      { path: '^client/', pathNot: '\\.test\\.tsx?$' },
+      [CLIENT_SHARED_SERVER],
+    ),
+    clientImportsOnly(
+      'client-tests-import-only-shared-server-code',
+      'Client tests may in addition run the two pure ingest parsers as an oracle for the setup guide.',
+      { path: '^client/.+\\.test\\.tsx?$' },
+      [CLIENT_SHARED_SERVER, CLIENT_TEST_ORACLES],
+    ),
+    forbid(
+      'services-never-import-http',
+      'http → services → db: a service never reaches back into the HTTP layer (schemas, routers, presenters).',
+      { path: '^server/services/' },
+      { path: '^server/http/' },
+    ),
+    forbid('db-never-imports-services-or-http', 'http → services → db: repositories know nothing of the layers above them.', { path: '^server/db/' }, { path: '^server/(?:services|http)/' }),
+    pureFolder('analysis', 'pure numerics'),
+    pureFolder('policies', 'shared with the client'),
+    pureFolder('contract', 'shared with the client'),
+    forbid(
+      'server-never-imports-dev-scripts',
+      'docker-free-scripts/ is development tooling and stand-ins; the server must run without it.',
+      { path: '^server/' },
+      { path: '^docker-free-scripts/' },
+    ),
+    forbid('server-never-imports-client', 'The server does not depend on the browser bundle.', { path: '^server/' }, { path: '^client/' }),
+    forbid(
+      'not-to-unresolvable',
+      'An import that cannot be resolved would hide its target from every rule above.',
+      { path: '^(?:server|client|tenants|docker-free-scripts)/' },
+      { couldNotResolve: true },
+    ),
+  ],
+  options: {
+    doNotFollow: { path: 'node_modules' },
+    exclude: { path: '(?:^|/)(?:node_modules|dist)/' },
+    tsPreCompilationDeps: true,
+    combinedDependencies: false,
+    // Resolve package.json "exports" (e.g. csv-parse/sync) the way Node does.
+    enhancedResolveOptions: {
+      exportsFields: ['exports'],
+      conditionNames: ['import', 'require', 'node', 'default', 'types'],
+      mainFields: ['module', 'main', 'types'],
+    },
+    reporterOptions: { text: { highlightFocused: true } },
+  },
+};
