@@ -141,7 +141,7 @@ export function createApp(deps: AppDeps): Express {
       channels,
       diagnostics,
       now: nowMs,
-      historyWindow: (lab) => billingService.historyWindowFor(lab),
+      historyWindow: billingService,
       // At most this many diagnostics runs in flight per person (per process): one person cannot hog the workers.
       diagnosticsRuns: createDiagnosticsConcurrency({ maxPerPerson: config.diagnostics.runsPerPerson }),
     }),

@@ -1,31 +1,18 @@
 import type { Response } from 'express';
-import { AppError } from '../../errors.ts';
+import type { BillingService } from '../../services/billing/billing.service.ts';
 
-/** Where a lab's plan lets it look back to (billing's `historyWindowFor`). */
-export type HistoryWindow = (lab: { id: number }) => Promise<{ earliestMs: number; historyDays: number }>;
-
-/** 402: the whole range asked for lies before what the lab's plan shows. */
-export class OutsidePlanHistoryError extends AppError {
-  constructor(historyDays: number, earliestMs: number) {
-    super(
-      402,
-      'outside_plan_history',
-      `This lab's plan shows the last ${historyDays} days (from ${new Date(earliestMs).toISOString()}). ` +
-        'Older readings are kept, not deleted; a plan with a longer history shows them again.',
-    );
-  }
-}
+/** The billing service's plan-history rule, which the channel routes pass their ranges through. */
+export type HistoryWindow = Pick<BillingService, 'clampToPlanHistory'>;
 
 /**
- * Clamps a range's start to the plan's history window, so the channel browser, diagnostics and
- * exports all show the same span, and says so in the `Lagbook-History-Starts` header (ISO 8601)
- * whenever the range was cut. A range wholly before the window is refused with 402.
+ * Passes a range through the lab's plan history (the rule is the billing service's
+ * `clampToPlanHistory`: clamp the start, or 402 when the range lies wholly before the window)
+ * and, whenever the range was cut, says so in the `Lagbook-History-Starts` header (ISO 8601).
+ * Without a billing service every range passes unchanged.
  */
 export async function withinPlanHistory<Q extends { from: number; to: number }>(window: HistoryWindow | undefined, lab: { id: number }, q: Q, res: Response): Promise<Q> {
   if (!window) return q;
-  const { earliestMs, historyDays } = await window(lab);
-  if (q.from >= earliestMs) return q;
-  if (q.to <= earliestMs) throw new OutsidePlanHistoryError(historyDays, earliestMs);
-  res.set('Lagbook-History-Starts', new Date(earliestMs).toISOString());
-  return { ...q, from: earliestMs };
+  const { range, cutAtMs } = await window.clampToPlanHistory(lab, q);
+  if (cutAtMs !== null) res.set('Lagbook-History-Starts', new Date(cutAtMs).toISOString());
+  return range;
 }

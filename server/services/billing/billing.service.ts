@@ -9,6 +9,7 @@ import { ConflictError } from '../service-errors.ts';
 import type { Actor, LabContext } from '../lab-context.ts';
 import { effectivePlan, historyStart } from './effective-plan.ts';
 import { BillingUnavailableError } from './billing-errors.ts';
+import { clampToHistory, type HistoryWindow } from './plan-history.ts';
 import type { Plan, PlanCatalog, PlanLimits } from './plan-catalog.ts';
 
 /** What the billing page shows. */
@@ -123,12 +124,16 @@ export function createBillingService(deps: { db: Db; stripe: Stripe; catalog: Pl
     },
 
     /**
-     * The earliest reading time the lab's plan lets it browse and analyse (older readings stay
-     * stored). For the channel browser and diagnostics.
+     * A time range under the lab's plan history: the plan lets the lab browse and analyse only its
+     * last `historyDays` (older readings stay stored). The range comes back unchanged, or starting
+     * at the window with `cutAtMs` set, or is refused with 402 when it lies wholly before the
+     * window (`clampToHistory`). The channel browser, diagnostics, comparisons and exports all
+     * pass their range through here.
      */
-    async historyWindowFor(lab: { id: number }): Promise<{ earliestMs: number; historyDays: number }> {
+    async clampToPlanHistory<Q extends { from: number; to: number }>(lab: { id: number }, q: Q): Promise<{ range: Q; cutAtMs: number | null }> {
       const plan = effectivePlan(await billingOf(lab.id).get(), catalog, now());
-      return { earliestMs: historyStart(plan, now().getTime()), historyDays: plan.limits.historyDays };
+      const window: HistoryWindow = { earliestMs: historyStart(plan, now().getTime()), historyDays: plan.limits.historyDays };
+      return clampToHistory(window, q);
     },
 
     /**
