@@ -7,6 +7,10 @@
  *  the zod input schemas beside the routers, which the client's forms share (DEVELOPERS.md). */
 const CLIENT_SHARED_SERVER = '^server/http/.*[.]schema[.]ts$';
 
+/** A pure server function (it imports only server/policies/) that a shared schema uses to parse
+ *  reading times (channels.schema.ts); a candidate for server/contract/. */
+const SCHEMA_HELPERS = '^server/services/ingest/parse-reading-time[.]ts$';
+
 /** Pure server functions that client tests (only tests) run, to check that the payloads and
  *  times the client shows in its setup guide are the ones the server's ingest accepts. */
 const CLIENT_TEST_ORACLES = '^server/services/ingest/(?:readings-from-body|parse-reading-time)\\.ts$';
@@ -49,6 +53,12 @@ module.exports = {
       { path: '^server/http/' },
     ),
     forbid('db-never-imports-services-or-http', 'http → services → db: repositories know nothing of the layers above them.', { path: '^server/db/' }, { path: '^server/(?:services|http)/' }),
+    forbid(
+      'shared-schemas-stay-pure',
+      'The zod schemas beside the routers may be bundled into the client: they import only other schemas, server/contract/, server/policies/ and the reading-time parser.',
+      { path: CLIENT_SHARED_SERVER },
+      { path: '^server/', pathNot: [CLIENT_SHARED_SERVER, '^server/contract/', '^server/policies/', SCHEMA_HELPERS] },
+    ),
     pureFolder('analysis', 'pure numerics'),
     pureFolder('policies', 'shared with the client'),
     pureFolder('contract', 'shared with the client'),

@@ -42,6 +42,7 @@ const TREE: Record<string, string[]> = {
   'server/bad-missing.ts': ['./no-such-file.ts'],
   'client/features/bad.ts': ['../../server/services/alerts.service.ts'],
   'client/features/bad.test.ts': ['../../server/db/alerts.repo.ts'],
+  'server/http/loggers/bad.schema.ts': ['../../services/alerts.service.ts'],
 };
 
 /** Each planted violation and the rule that must report it. */
@@ -57,6 +58,7 @@ const PLANTED = [
   'server/bad-missing.ts not-to-unresolvable',
   'client/features/bad.ts client-imports-only-shared-server-code',
   'client/features/bad.test.ts client-tests-import-only-shared-server-code',
+  'server/http/loggers/bad.schema.ts shared-schemas-stay-pure',
 ];
 
 let dir = '';
