@@ -17,7 +17,7 @@ afterEach(() => {
   vi.unstubAllGlobals();
 });
 
-// People from docker-free-scripts/identity-provider/dev-accounts.ts; loggers, ids and dates invented for the test.
+// People from tenants/demo/people.ts; loggers, ids and dates invented for the test.
 const ME: Me = {
   user: { id: 7, email: 'tobiah.quarrie@fernhollow.example', name: 'Tobiah Quarrie', timeZone: null },
   labs: [{ slug: 'fernhollow', name: 'Fernhollow Field Station', role: 'technician' }],

@@ -9,7 +9,7 @@ afterEach(() => {
   vi.unstubAllGlobals();
 });
 
-// Demo people (docker-free-scripts/identity-provider/dev-accounts.ts); ids and dates invented for the test.
+// Demo people (tenants/demo/people.ts); ids and dates invented for the test.
 const MEMBERS: Member[] = [
   { userId: 1, name: 'Odalys Brennick', email: 'odalys.brennick@fernhollow.example', role: 'admin', joinedAt: '2026-01-02T09:00:00Z' },
   { userId: 2, name: 'Tobiah Quarrie', email: 'tobiah.quarrie@fernhollow.example', role: 'technician', joinedAt: '2026-01-04T09:00:00Z' },
