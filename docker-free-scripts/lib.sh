@@ -25,8 +25,24 @@ install_node_modules() {
   echo "$hash" > "$stamp"
 }
 
-# Installs Debian packages whose command is missing: apt_install_for <command> <package> …
+# Installs the named Debian packages (root, or sudo), running `apt-get update` once per script.
 APT_UPDATED=0
+apt_install() {
+  [ $# -eq 0 ] && return
+  local SUDO=""
+  if [ "$(id -u)" -ne 0 ]; then
+    command -v sudo >/dev/null || die "need root (or sudo) to install Debian packages: $*"
+    SUDO="sudo"
+  fi
+  if [ "$APT_UPDATED" = 0 ]; then
+    $SUDO apt-get update -q >/dev/null || die "apt-get update failed"
+    APT_UPDATED=1
+  fi
+  DEBIAN_FRONTEND=noninteractive $SUDO apt-get install -y -q --no-install-recommends "$@" >/dev/null \
+    || die "apt-get install $* failed"
+}
+
+# Installs Debian packages whose command is missing: apt_install_for <command> <package> …
 apt_install_for() {
   local missing=()
   while [ $# -ge 2 ]; do
@@ -34,18 +50,8 @@ apt_install_for() {
     shift 2
   done
   [ ${#missing[@]} -eq 0 ] && return
-  local SUDO=""
-  if [ "$(id -u)" -ne 0 ]; then
-    command -v sudo >/dev/null || die "need root (or sudo) to install Debian packages: ${missing[*]}"
-    SUDO="sudo"
-  fi
   say "installing Debian packages: ${missing[*]}…"
-  if [ "$APT_UPDATED" = 0 ]; then
-    $SUDO apt-get update -q >/dev/null || die "apt-get update failed"
-    APT_UPDATED=1
-  fi
-  DEBIAN_FRONTEND=noninteractive $SUDO apt-get install -y -q --no-install-recommends "${missing[@]}" >/dev/null \
-    || die "apt-get install ${missing[*]} failed"
+  apt_install "${missing[@]}"
 }
 
 # The reference libraries the engine is checked against (R's stats, forecast, sandwich and nlme;
@@ -60,15 +66,8 @@ install_reference_libraries() {
   fi
   /usr/bin/python3 -c 'import statsmodels' >/dev/null 2>&1 || missing+=(python3-statsmodels)
   [ ${#missing[@]} -eq 0 ] && return
-  local SUDO=""
-  [ "$(id -u)" -ne 0 ] && SUDO="sudo"
   say "installing the reference libraries: ${missing[*]}…"
-  if [ "$APT_UPDATED" = 0 ]; then
-    $SUDO apt-get update -q >/dev/null || die "apt-get update failed"
-    APT_UPDATED=1
-  fi
-  DEBIAN_FRONTEND=noninteractive $SUDO apt-get install -y -q --no-install-recommends "${missing[@]}" >/dev/null \
-    || die "apt-get install ${missing[*]} failed"
+  apt_install "${missing[@]}"
 }
 
 # Waits until an HTTP URL answers 2xx: wait_for_http <url> <seconds> <what>

@@ -1,4 +1,5 @@
 import { AnalysisInputError, type Series } from './analysis-input-error.ts';
+import { lagOneCoefficient } from './lag-one-coefficient.ts';
 
 /**
  * Data-driven truncation lag of the Bartlett (Newey–West) kernel for a long-run variance: the
@@ -13,21 +14,10 @@ import { AnalysisInputError, type Series } from './analysis-input-error.ts';
  * Use it on regression residuals (a trend line's, for `trendTest`). Cost: O(n).
  */
 export function andrewsBartlettLag(u: Series, minimum = 1): number {
-  let sum = 0;
   let count = 0;
-  for (let i = 0; i < u.length; i++) if (!Number.isNaN(u[i])) (sum += u[i]), count++;
+  for (let i = 0; i < u.length; i++) if (!Number.isNaN(u[i])) count++;
   if (count < 8) throw new AnalysisInputError(`andrewsBartlettLag requires at least 8 values (got ${count})`);
-  const mean = sum / count;
-  let cross = 0;
-  let square = 0;
-  for (let i = 1; i < u.length; i++) {
-    const a = u[i - 1] - mean;
-    const b = u[i] - mean;
-    if (Number.isNaN(a) || Number.isNaN(b)) continue;
-    cross += a * b;
-    square += a * a;
-  }
-  const rho = square > 0 ? Math.max(-0.99, Math.min(0.99, cross / square)) : 0;
+  const rho = Math.max(-0.99, Math.min(0.99, lagOneCoefficient(u)));
   const alpha1 = (4 * rho * rho) / ((1 - rho) ** 2 * (1 + rho) ** 2);
   const bandwidth = 1.1447 * Math.cbrt(alpha1 * count);
   return Math.max(minimum, Math.min(Math.floor(count / 4), Math.ceil(bandwidth) - 1));

@@ -4,6 +4,7 @@ import { autocorrelationBands } from './autocorrelation-bands.ts';
 import { crossCorrelation } from './cross-correlation.ts';
 import { decomposeClassical } from './decompose-classical.ts';
 import { defaultMaxLag } from './default-max-lag.ts';
+import { describeDuration } from './describe-duration.ts';
 import { detectPeriod, type PeriodCandidate } from './detect-period.ts';
 import { difference } from './difference.ts';
 import { durbinLevinson } from './durbin-levinson.ts';
@@ -217,21 +218,6 @@ function remainderOutliers(remainder: Float64Array, threshold: number): OutlierL
   return { threshold, median, robustSd, indices };
 }
 
-/** A duration in the largest unit that divides it (d, h, min, s, ms). */
-function describeDuration(ms: number): string {
-  const units: Array<[number, string]> = [
-    [86_400_000, 'd'],
-    [3_600_000, 'h'],
-    [60_000, 'min'],
-    [1000, 's'],
-  ];
-  // beyond two hours a delay reads better in hours (385 min → 6.4 h)
-  if (ms >= 2 * 3_600_000 && ms < 2 * 86_400_000 && ms % 3_600_000 !== 0) return `${(ms / 3_600_000).toFixed(1)} h`;
-  for (const [size, name] of units) if (ms >= size && ms % size === 0) return `${ms / size} ${name}`;
-  for (const [size, name] of units) if (ms >= size) return `${(ms / size).toFixed(2)} ${name}`;
-  return `${ms} ms`;
-}
-
 /** Puts a regularised series on another grid of the same step (NaN outside its own span). */
 function alignTo(series: { start: number; step: number; values: Float64Array }, start: number, n: number): Float64Array {
   const out = new Float64Array(n).fill(NaN);
@@ -340,11 +326,12 @@ function trendOf(values: Float64Array, fittedOn: 'series' | 'adjusted', alpha: n
   let present = 0;
   for (let i = 0; i < values.length; i++) if (!Number.isNaN(values[i])) present++;
   if (present < 10) return { available: false, reason: `a trend needs at least 10 cells with readings (got ${present})` };
-  const first = trendTest(values, { alpha });
+  // The line first (lag 0 costs no lagged sums), then its residuals choose the Newey–West lag.
+  const line = trendTest(values, { lag: 0, alpha });
   const residuals = new Float64Array(values.length);
-  for (let i = 0; i < values.length; i++) residuals[i] = values[i] - (first.intercept + first.slope * (i + 1));
-  const lag = andrewsBartlettLag(residuals, first.lag);
-  const t = lag === first.lag ? first : trendTest(values, { lag, alpha });
+  for (let i = 0; i < values.length; i++) residuals[i] = values[i] - (line.intercept + line.slope * (i + 1));
+  const defaultLag = Math.floor(4 * (present / 100) ** (2 / 9)); // R's NeweyWest default, trendTest's too
+  const t = trendTest(values, { lag: andrewsBartlettLag(residuals, defaultLag), alpha });
   return {
     available: true,
     fittedOn,

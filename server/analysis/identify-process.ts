@@ -7,6 +7,7 @@ import { detectPeriod } from './detect-period.ts';
 import { durbinLevinson } from './durbin-levinson.ts';
 import { explainVerdict } from './identify-process-explanation.ts';
 import { integerOption } from './integer-option.ts';
+import { lagOneCoefficient } from './lag-one-coefficient.ts';
 import { ljungBox } from './ljung-box.ts';
 import type { PortmanteauResult } from './portmanteau-test.ts';
 import { readingsPerIndependent } from './readings-per-independent.ts';
@@ -133,19 +134,6 @@ function endOfInitialRun(values: ArrayLike<number>, band: (lag: number) => numbe
 
 /** Lag-1 persistence at or above which a series the ADF test cannot clear needs differencing. */
 const UNIT_ROOT_PHI = 0.95;
-
-/** Least-squares AR(1) coefficient of the mean-removed series (Σ x_t x_{t−1} / Σ x_{t−1}²). */
-function lagOneCoefficient(x: Float64Array): number {
-  let mean = 0;
-  for (let i = 0; i < x.length; i++) mean += x[i] / x.length;
-  let cross = 0;
-  let square = 0;
-  for (let i = 1; i < x.length; i++) {
-    cross += (x[i] - mean) * (x[i - 1] - mean);
-    square += (x[i - 1] - mean) ** 2;
-  }
-  return square > 0 ? cross / square : 0;
-}
 
 /** The correlogram's own reading (Box, Jenkins & Reinsel Table 6.1), used as the first look. */
 function correlogramVerdict(acf: Float64Array, pacf: Float64Array, p: number, q: number, acfCuts: boolean, pacfCuts: boolean): { verdict: ProcessVerdict; p?: number; q?: number } {

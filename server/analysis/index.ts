@@ -63,6 +63,7 @@ export {
   type ProcessModelFit,
 } from './identify-process.ts';
 export { describeModel, NEAR_UNIT_ROOT } from './identify-process-explanation.ts';
+export { describeDuration } from './describe-duration.ts';
 export { readingsPerIndependent } from './readings-per-independent.ts';
 export { rangeComparison, type RangeComparisonOptions } from './range-comparison.ts';
 export { andrewsBartlettLag } from './andrews-bartlett-lag.ts';

@@ -1,4 +1,4 @@
-import { describeModel, NEAR_UNIT_ROOT, thinForDrawing, type ChannelDiagnostics } from '../analysis/index.ts';
+import { describeDuration, describeModel, NEAR_UNIT_ROOT, thinForDrawing, type ChannelDiagnostics } from '../analysis/index.ts';
 import type { ChannelWithState } from '../db/channel-state.repo.ts';
 
 /** The diagnostics parameters as the request chose them, defaults filled in. */
@@ -98,14 +98,6 @@ export const channelSummary = (c: ChannelWithState) => ({
   logger: { id: c.logger.id, name: c.logger.name, site: c.logger.site, timezone: c.logger.timezone },
 });
 
-/** A step count as time: "5 min", "1 h", "1 d". */
-function durationOf(ms: number): string {
-  for (const [size, unit] of [[86_400_000, 'd'], [3_600_000, 'h'], [60_000, 'min'], [1000, 's']] as const) {
-    if (ms >= size && ms % size === 0) return `${ms / size} ${unit}`;
-  }
-  return ms >= 60_000 ? `${(ms / 60_000).toFixed(1)} min` : `${ms / 1000} s`;
-}
-
 /** A number with `digits` significant digits, without exponent for everyday sizes. */
 function sig(x: number, digits = 3): string {
   if (!Number.isFinite(x)) return String(x);
@@ -123,7 +115,7 @@ function processModelSection(r: ChannelDiagnostics, stepMs: number, label: strin
   if (!m) return { available: false as const, reason: r.identification.modelNote ?? 'No model was fitted.' };
   const offset = r.grid.n - r.analysed.n;
   const fittedFrom = r.grid.start + (offset + m.start) * stepMs;
-  const step = durationOf(stepMs);
+  const step = describeDuration(stepMs);
   const ratio = m.readingsPerIndependent;
   const information =
     m.smallestArRoot < NEAR_UNIT_ROOT
@@ -131,7 +123,7 @@ function processModelSection(r: ChannelDiagnostics, stepMs: number, label: strin
       : ratio < 1.5
         ? 'nearly every reading is independent information'
         : `about 1 in ${ratio < 10 ? ratio.toFixed(1) : Math.round(ratio).toLocaleString('en')} readings is independent information`;
-  const what = m.fittedOn === 'remainder' ? `Once its ${durationOf((r.period.used ?? 0) * stepMs)} cycle is removed, ${label}` : label;
+  const what = m.fittedOn === 'remainder' ? `Once its ${describeDuration((r.period.used ?? 0) * stepMs)} cycle is removed, ${label}` : label;
   let behaviour: string;
   if (m.p === 0 && m.q === 0) behaviour = `${what} behaves like independent noise from one ${step} step to the next`;
   else if (m.q === 0 && m.p === 1) behaviour = `${what} carries over from one ${step} step to the next with φ = ${m.ar[0].toFixed(2)}`;
