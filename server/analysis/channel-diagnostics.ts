@@ -15,7 +15,7 @@ import { medianInPlace } from './median-in-place.ts';
 import { normalQuantile } from './normal-quantile.ts';
 import { prewhitenedCcf } from './prewhitened-ccf.ts';
 import { regularize, type RegularizeAggregate } from './regularize.ts';
-import { trendTest } from './trend-test.ts';
+import { trendTest, type TrendTestResult } from './trend-test.ts';
 import { andrewsBartlettLag } from './andrews-bartlett-lag.ts';
 import { stl } from './stl.ts';
 import { stlParameters, type StlSettings } from './stl-parameters.ts';
@@ -115,25 +115,15 @@ export interface CrossCorrelationOutcome {
   raw: { lags: Int32Array; values: Float64Array; band: number; strongest: CcfStrongest | null };
 }
 
-/** A least-squares trend with its Newey–West (HAC) and naive OLS standard errors, per step. */
+/** A least-squares trend with its Newey–West (HAC) and naive OLS standard errors, per step (`trendTest`'s figures). */
 export type TrendOutcome =
   | { available: false; reason: string }
-  | {
+  | ({
       available: true;
       /** 'adjusted': the series less its seasonal component. */
       fittedOn: 'series' | 'adjusted';
       n: number;
-      slope: number;
-      intercept: number;
-      standardErrorOls: number;
-      standardErrorHac: number;
-      lag: number;
-      pValueHac: number;
-      /** slope ∓ z(1 − α/2) · standardErrorHac. */
-      interval: [number, number];
-      /** slope ∓ t(1 − α/2; n − 2) · standardErrorOls, as if the readings were independent. */
-      intervalOls: [number, number];
-    };
+    } & Pick<TrendTestResult, 'slope' | 'intercept' | 'standardErrorOls' | 'standardErrorHac' | 'lag' | 'pValueHac' | 'interval' | 'intervalOls'>);
 
 export interface ChannelDiagnostics {
   grid: {
