@@ -1,6 +1,7 @@
 import { defineConfig } from 'vitest/config';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
+import { fileURLToPath } from 'node:url';
 
 /**
  * One file configures the client build (Vite) and every test suite (Vitest projects):
@@ -12,6 +13,9 @@ export default defineConfig({
   root: 'client',
   publicDir: 'public',
   plugins: [react(), tailwindcss()],
+  // The one way the client reaches server code: `@shared/contract/…` and `@shared/policies/…`
+  // (the import-boundary check refuses any other server folder).
+  resolve: { alias: { '@shared': fileURLToPath(new URL('./server', import.meta.url)) } },
   build: {
     outDir: '../dist/client',
     emptyOutDir: true,

@@ -3,7 +3,7 @@ import request from 'supertest';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
 import { buildMember, sessionCookieFor, type TestUser } from '../support/factories.ts';
 import { buildLabWithEverything, fillPath, rawRequestFor, validBodyFor, type LabWithEverything } from '../support/lab-fixture.ts';
-import type { LabRouteSummary } from '../../server/http/lab-routes.ts';
+import type { LabRouteSummary } from '../../server/http/routes/route.ts';
 
 /**
  * Cross-lab isolation: an admin of lab A (the most powerful role) aims every lab route at

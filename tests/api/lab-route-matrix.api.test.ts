@@ -3,7 +3,7 @@ import request from 'supertest';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
 import { buildMember, buildUser, sessionCookieFor } from '../support/factories.ts';
 import { buildLabWithEverything, fillPath, rawRequestFor, validBodyFor } from '../support/lab-fixture.ts';
-import type { LabRouteSummary } from '../../server/http/lab-routes.ts';
+import type { LabRouteSummary } from '../../server/http/routes/route.ts';
 import type { Role } from '../../server/policies/permissions.ts';
 
 /**

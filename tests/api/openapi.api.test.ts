@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { execFileSync } from 'node:child_process';
 import request from 'supertest';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
-import type { LabRouteSummary } from '../../server/http/lab-routes.ts';
+import type { LabRouteSummary } from '../../server/http/routes/route.ts';
 
 /**
  * The API document at /api/v1/openapi.json: OpenAPI 3.1 in shape (checked here against the

@@ -10,7 +10,7 @@ import type { ChannelSeries } from '../../server/services/channels.service.ts';
 import type { DiagnosticsReport as ServerDiagnosticsReport } from '../../server/services/diagnostics-report.ts';
 import type { RangeComparisonReport } from '../../server/services/range-comparison-report.ts';
 import type { presentAlert, presentAlertRule } from '../../server/http/alerts/alerts.presenter.ts';
-import type { presentAuditEntry, presentInvitation, presentLabForMember, presentMember } from '../../server/http/presenters/labs.presenter.ts';
+import type { presentAuditEntry, presentInvitation, presentLabForMember } from '../../server/http/presenters/labs.presenter.ts';
 import type { presentChannel, presentIssuedKey, presentKeyInfo, presentLogger, presentLoggerDetail, presentQuarantinedRow } from '../../server/http/presenters/loggers.presenter.ts';
 import type { presentMe } from '../../server/http/presenters/me.presenter.ts';
 import type { presentCreatedLab } from '../../server/http/labs/labs.router.ts';
@@ -26,7 +26,6 @@ import type { CreatedLab } from '../../client/features/labs/api/create-lab.ts';
 import type { IssuedKey } from '../../client/features/loggers/api/create-logger.ts';
 import type { Channel, IngestKeyInfo, LoggerDetail } from '../../client/features/loggers/api/get-logger.ts';
 import type { LoggerSummary } from '../../client/features/loggers/api/get-loggers.ts';
-import type { Member } from '../../client/features/members/api/get-members.ts';
 import type { QuarantinedRow } from '../../client/features/quarantine/api/get-quarantine.ts';
 import type { IssuedToken } from '../../client/features/tokens/api/create-token.ts';
 import type { PersonalToken } from '../../client/features/tokens/api/get-tokens.ts';
@@ -69,7 +68,6 @@ export type Contracts = [
   Reads<Answer<typeof presentInvitation>, PendingInvitation>,
   Reads<Answer<typeof presentLabForMember>, LabDetail>,
   Reads<Answer<typeof presentCreatedLab>, CreatedLab>,
-  Reads<Answer<typeof presentMember>, Member>,
   // the logger list presents every logger with its channel count
   Reads<Answer<typeof presentLogger> & { channelCount: number }, LoggerSummary>,
   Reads<Answer<typeof presentLoggerDetail>, LoggerDetail>,

@@ -20,7 +20,10 @@ export async function buildTestApp(overrides: Partial<Config> = {}) {
   const endpoints = await discoverOidcEndpoints(config.oidc.issuer);
   const mailer = createMailer(config.smtp);
   const billing = createStripeClient(config.stripe);
-  const app = createApp({ config, db, logger: createLogger({ silent: true }), identity: { endpoints }, mailer, billing });
+  // every answer a route gives must be documented in its route-table entry (and so in the API document)
+  const undocumented = new Set<string>();
+  const onUndocumentedStatus = (where: string, status: number) => undocumented.add(`${where} answered ${status}`);
+  const app = createApp({ config, db, logger: createLogger({ silent: true }), identity: { endpoints }, mailer, billing, onUndocumentedStatus });
   let server: Server | null = null;
   return {
     app,
@@ -43,6 +46,9 @@ export async function buildTestApp(overrides: Partial<Config> = {}) {
       }
       mailer.close();
       await db.destroy();
+      if (undocumented.size > 0) {
+        throw new Error(`Routes answered statuses their route-table entries do not document (add them to \`errors\`):\n${[...undocumented].join('\n')}`);
+      }
     },
   };
 }

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { ROLES } from '../../policies/permissions.ts';
+import { roleSchema } from '../../contract/members.ts';
 
 /**
  * Input schemas of the lab, member, invitation and audit routes. The client's forms import
@@ -20,7 +20,6 @@ export const createLabSchema = z.object({
 });
 export type CreateLabInput = z.infer<typeof createLabSchema>;
 
-export const roleSchema = z.enum(ROLES, { error: `must be one of ${ROLES.join(', ')}` });
 
 export const inviteMemberSchema = z.object({
   email: z.string().trim().toLowerCase().max(191, 'must be at most 191 characters').pipe(z.email('must be a valid e-mail address')),
@@ -28,8 +27,6 @@ export const inviteMemberSchema = z.object({
 });
 export type InviteMemberInput = z.infer<typeof inviteMemberSchema>;
 
-export const changeRoleSchema = z.object({ role: roleSchema });
-export type ChangeRoleInput = z.infer<typeof changeRoleSchema>;
 
 export const AUDIT_ACTIONS = [
   'lab.created',

@@ -1,5 +1,6 @@
 import { z } from 'zod';
-import type { LabRouteSummary } from '../lab-routes.ts';
+import { fullPathOf, permissionOf, type Route } from '../routes/route.ts';
+import { answersOf, STANDARD_ANSWERS, type StandardStatus } from '../routes/standard-answers.ts';
 import { TOKEN_READ_PERMISSIONS } from '../middleware/lab-guard.ts';
 import { SESSION_COOKIE } from '../middleware/session.ts';
 import { PUBLIC_ROUTES, type PublicRoute } from './public-routes.ts';
@@ -42,23 +43,22 @@ function pathParameters(template: string): JsonObject[] {
 
 const ref = (kind: 'responses' | 'schemas', name: string) => ({ $ref: `#/components/${kind}/${name}` });
 const errorBody = { content: { 'application/json': { schema: ref('schemas', 'Error') } } };
+const retryAfter = { 'Retry-After': { description: 'Seconds to wait before trying again.', schema: { type: 'integer' } } };
 
-/** A route's own answers (status → description): errors carry the error body, 429/503 a Retry-After header. */
-function routeResponses(responses: Record<string, string> = {}): JsonObject {
-  return Object.fromEntries(
-    Object.entries(responses).map(([status, description]) => [
-      status,
-      /^[45]/.test(status)
-        ? { description, ...errorBody, ...(status === '429' || status === '503' ? { headers: { 'Retry-After': { description: 'Seconds to wait before trying again.', schema: { type: 'integer' } } } } : {}) }
-        : { description },
-    ]),
-  );
-}
+/** The shared description of a standard answer (a `$ref`), when the route keeps the standard wording. */
+const STANDARD_REFS: Record<number, string> = { 400: 'InvalidInput', 401: 'Unauthenticated', 403: 'Forbidden', 404: 'NotFound', 500: 'Internal', 503: 'Unavailable' };
 
-/** The standard answers every operation may give, besides its success. */
-function errorResponses(auth: 'none' | 'signed-in'): JsonObject {
-  if (auth === 'none') return {};
-  return { '400': ref('responses', 'InvalidInput'), '401': ref('responses', 'Unauthenticated'), '403': ref('responses', 'Forbidden'), '404': ref('responses', 'NotFound') };
+/** Every answer of a route: success with its media type, errors with the error body, 429/503 with Retry-After. */
+function responsesOf(route: Route): JsonObject {
+  const out: JsonObject = {};
+  for (const [status, description] of answersOf(route)) {
+    const standardRef = STANDARD_REFS[status];
+    if (standardRef && description === STANDARD_ANSWERS[status as StandardStatus]) out[String(status)] = ref('responses', standardRef);
+    else if (status >= 400) out[String(status)] = { description, ...errorBody, ...(status === 429 || status === 503 ? { headers: retryAfter } : {}) };
+    else if (status === 204) out[String(status)] = { description };
+    else out[String(status)] = { description, content: { [route.response.mediaType ?? 'application/json']: {} } };
+  }
+  return out;
 }
 
 function operationId(method: string, template: string): string {
@@ -66,32 +66,61 @@ function operationId(method: string, template: string): string {
   return [method, ...words].map((w, i) => (i === 0 ? w : w[0].toUpperCase() + w.slice(1))).join('');
 }
 
-function labOperation(route: LabRouteSummary, template: string): JsonObject {
-  const tokenReadable = route.method === 'get' && TOKEN_READ_PERMISSIONS.includes(route.permission);
+/** Who may call a route, as OpenAPI security requirements. */
+function securityOf(route: Route): JsonObject[] {
+  const permission = permissionOf(route);
+  if (permission) {
+    const tokenReadable = route.method === 'get' && TOKEN_READ_PERMISSIONS.includes(permission);
+    return tokenReadable ? [{ sessionCookie: [] }, { personalToken: [] }] : [{ sessionCookie: [] }];
+  }
+  if (route.auth === 'session') return [{ sessionCookie: [] }];
+  if (route.auth === 'ingest-key') return [{ ingestKey: [] }];
+  return [];
+}
+
+function tagOf(route: Route): string {
+  if (route.tag) return route.tag;
+  if (permissionOf(route)) return route.path.split('/')[1] || 'lab';
+  if (route.auth === 'ingest-key') return 'ingest';
+  if (route.auth === 'session') return 'account';
+  return 'service';
+}
+
+function operationOf(route: Route, template: string): JsonObject {
+  const permission = permissionOf(route);
   const op: JsonObject = {
     operationId: operationId(route.method, template),
     summary: route.summary,
-    tags: [route.path.split('/')[1] || 'lab'],
-    'x-lagbook-permission': route.permission,
-    security: tokenReadable ? [{ sessionCookie: [] }, { personalToken: [] }] : [{ sessionCookie: [] }],
+    tags: [tagOf(route)],
+    ...(permission ? { 'x-lagbook-permission': permission } : {}),
+    security: securityOf(route),
     parameters: [...pathParameters(template), ...(route.query ? queryParameters(route.query) : [])],
-    responses: { '2XX': { description: 'Success.' }, ...errorResponses('signed-in'), ...routeResponses(route.responses) },
+    responses: responsesOf(route),
   };
-  if (route.body) {
-    op.requestBody = { required: true, content: { [route.bodyMediaType ?? 'application/json']: { schema: inputJsonSchema(route.body) } } };
+  const bodies = route.bodyMediaTypes ?? (route.body ? { 'application/json': route.body } : null);
+  if (bodies) {
+    op.requestBody = { required: true, content: Object.fromEntries(Object.entries(bodies).map(([type, schema]) => [type, { schema: inputJsonSchema(schema) }])) };
   }
   return op;
 }
 
+/** TRANSITIONAL: a route outside the table that still has its own router, documented from PUBLIC_ROUTES. */
 function publicOperation(route: PublicRoute, template: string): JsonObject {
   const security = route.auth === 'none' ? [] : route.auth === 'session' ? [{ sessionCookie: [] }] : [{ ingestKey: [] }];
+  const standard: JsonObject = route.auth === 'none' ? {} : { '400': ref('responses', 'InvalidInput'), '401': ref('responses', 'Unauthenticated'), '403': ref('responses', 'Forbidden'), '404': ref('responses', 'NotFound') };
+  const own = Object.fromEntries(
+    Object.entries(route.responses ?? {}).map(([status, description]) => [
+      status,
+      /^[45]/.test(status) ? { description, ...errorBody, ...(status === '429' || status === '503' ? { headers: retryAfter } : {}) } : { description },
+    ]),
+  );
   const op: JsonObject = {
     operationId: operationId(route.method, template),
     summary: route.summary,
     tags: [route.auth === 'ingest-key' ? 'ingest' : route.auth === 'none' ? 'service' : 'account'],
     security,
     parameters: pathParameters(template),
-    responses: { '2XX': { description: 'Success.' }, ...errorResponses(route.auth === 'none' ? 'none' : 'signed-in'), ...routeResponses(route.responses) },
+    responses: { '2XX': { description: 'Success.' }, ...standard, ...own },
   };
   if (route.bodies) {
     const content = Object.fromEntries(Object.entries(route.bodies).map(([type, schema]) => [type, { schema: inputJsonSchema(schema) }]));
@@ -101,18 +130,18 @@ function publicOperation(route: PublicRoute, template: string): JsonObject {
 }
 
 /**
- * Lagbook's OpenAPI 3.1 document, generated from the lab route table (each route's permission,
- * summary and the zod schemas its handler validates with) plus the routes outside it
- * (`PUBLIC_ROUTES`). Built once at start; the same object is served every time.
+ * Lagbook's OpenAPI 3.1 document, generated from the route table: each route's auth, summary,
+ * the zod schemas its input is parsed with, and every status it can answer (standard-answers.ts).
+ * Built once at start; the same object is served every time.
  */
-export function buildOpenApiDocument(labRoutes: LabRouteSummary[], opts: { serverUrl?: string } = {}): JsonObject {
+export function buildOpenApiDocument(routes: readonly Route[], opts: { serverUrl?: string } = {}): JsonObject {
   const paths: Record<string, Record<string, JsonObject>> = {};
   const add = (method: string, template: string, op: JsonObject) => {
     (paths[template] ??= {})[method] = op;
   };
-  for (const r of labRoutes) {
-    const template = openApiPath(`/api/v1/labs/:lab${r.path}`);
-    add(r.method, template, labOperation(r, template));
+  for (const r of routes) {
+    const template = openApiPath(fullPathOf(r));
+    add(r.method, template, operationOf(r, template));
   }
   for (const r of PUBLIC_ROUTES) {
     const template = openApiPath(r.path);
@@ -143,10 +172,12 @@ export function buildOpenApiDocument(labRoutes: LabRouteSummary[], opts: { serve
         },
       },
       responses: {
-        InvalidInput: { description: 'The input failed validation (`invalid_input`, message `field: reason`).', ...errorBody },
-        Unauthenticated: { description: 'Not signed in, or the token or key is not valid (`unauthenticated`, `invalid_token`).', ...errorBody },
-        Forbidden: { description: 'The role (or a personal token) does not allow this (`forbidden`, `token_not_allowed`).', ...errorBody },
-        NotFound: { description: 'No such thing here — also the answer for another lab and its resources (`not_found`).', ...errorBody },
+        InvalidInput: { description: STANDARD_ANSWERS[400], ...errorBody },
+        Unauthenticated: { description: STANDARD_ANSWERS[401], ...errorBody },
+        Forbidden: { description: STANDARD_ANSWERS[403], ...errorBody },
+        NotFound: { description: STANDARD_ANSWERS[404], ...errorBody },
+        Internal: { description: STANDARD_ANSWERS[500], ...errorBody },
+        Unavailable: { description: STANDARD_ANSWERS[503], ...errorBody, headers: retryAfter },
       },
     },
   };

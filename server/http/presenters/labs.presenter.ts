@@ -1,5 +1,6 @@
 import type { Lab } from '../../db/labs.repo.ts';
 import type { Member } from '../../db/memberships.repo.ts';
+import type { Member as MemberAnswer } from '../../contract/members.ts';
 import type { Invitation } from '../../db/invitations.repo.ts';
 import type { AuditEntry } from '../../db/audit.repo.ts';
 import { ROLE_PERMISSIONS, type Role } from '../../policies/permissions.ts';
@@ -13,7 +14,7 @@ export function presentLabForMember(lab: Lab, role: Role) {
   };
 }
 
-export function presentMember(m: Member) {
+export function presentMember(m: Member): MemberAnswer {
   return { userId: m.userId, name: m.name, email: m.email, role: m.role, joinedAt: m.joinedAt.toISOString() };
 }
 

@@ -1,17 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { apiFetch } from '../../../lib/api-client.ts';
-import type { Role } from '../../../../server/policies/permissions.ts';
-
-export interface Member {
-  userId: number;
-  name: string;
-  email: string;
-  role: Role;
-  joinedAt: string;
-}
+import type { MembersAnswer } from '@shared/contract/members.ts';
 
 /** `GET /api/v1/labs/:lab/members`. */
-export function getMembers(slug: string): Promise<{ members: Member[] }> {
+export function getMembers(slug: string): Promise<MembersAnswer> {
   return apiFetch(`/api/v1/labs/${encodeURIComponent(slug)}/members`);
 }
 

@@ -1,9 +1,8 @@
 import { useState } from 'react';
-import { changeRoleSchema } from '../../../../server/http/labs/labs.schema.ts';
-import { ROLES, ROLE_LABELS, type Role } from '../../../../server/policies/permissions.ts';
+import { changeRoleSchema, type Member } from '@shared/contract/members.ts';
+import { ROLES, ROLE_LABELS, type Role } from '@shared/policies/permissions.ts';
 import { Button } from '../../../components/button.tsx';
 import { useChangeMemberRole } from '../api/change-member-role.ts';
-import type { Member } from '../api/get-members.ts';
 
 /**
  * An admin's role picker for one member. Choosing a role only stages it; "Save role" sends

@@ -2,7 +2,7 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import { cleanup, fireEvent, screen, within } from '@testing-library/react';
 import { apiError, fakeApi, renderWithProviders } from '../../../components/test-harness.tsx';
 import { MembersTable } from './members-table.tsx';
-import type { Member } from '../api/get-members.ts';
+import type { Member } from '@shared/contract/members.ts';
 
 afterEach(() => {
   cleanup();

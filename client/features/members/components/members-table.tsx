@@ -3,7 +3,7 @@ import type { ColumnDef } from '@tanstack/react-table';
 import { ROLES, ROLE_LABELS } from '../../../../server/policies/permissions.ts';
 import { DataTable } from '../../../components/data-table.tsx';
 import { DateTime } from '../../../components/date-time.tsx';
-import type { Member } from '../api/get-members.ts';
+import type { Member } from '@shared/contract/members.ts';
 import { MemberRoleControl } from './member-role-control.tsx';
 import { RemoveMemberButton } from './remove-member-button.tsx';
 

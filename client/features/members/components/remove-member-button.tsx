@@ -1,6 +1,6 @@
 import { ConfirmButton } from '../../../components/confirm-button.tsx';
 import { useRemoveMember } from '../api/remove-member.ts';
-import type { Member } from '../api/get-members.ts';
+import type { Member } from '@shared/contract/members.ts';
 
 /** An admin's "Remove" for one member, asked twice; the server's refusal is shown beside it. */
 export function RemoveMemberButton({ slug, member, onRemoved }: { slug: string; member: Member; onRemoved?: () => void }) {
