@@ -27,7 +27,7 @@ import { createAuditService } from './services/audit.service.ts';
 import { createLabGuard } from './http/middleware/lab-guard.ts';
 import { fromLabRoutes } from './http/lab-routes.ts';
 import { mountRoutes } from './http/routes/mount-routes.ts';
-import { labRouteSummaries, type LabRouteSummary, type Route } from './http/routes/route.ts';
+import { labRouteSummaries, runsBeforeSession, type LabRouteSummary, type Route } from './http/routes/route.ts';
 import { labRoutes, labsRouter } from './http/labs/labs.router.ts';
 import { memberRoutes } from './http/labs/members.routes.ts';
 import { invitationAcceptanceRouter, invitationRoutes } from './http/labs/invitations.router.ts';
@@ -175,6 +175,7 @@ export function createApp(deps: AppDeps): Express {
       webhooks: createStripeWebhooks({ db, stripe: deps.billing, catalog: plans, mailer: deps.mailer, logger, webhookSecret: config.stripe.webhookSecret, graceDays: config.stripe.graceDays, publicUrl: config.publicUrl }),
     }),
   );
+  app.use(mountRoutes(routes.filter(runsBeforeSession), mountContext));
   app.use(sessionMiddleware({ db, secret: config.sessionSecret, secure: config.secureCookies }));
   app.use(passport.session());
   app.use(sameOriginWrites(config.publicUrl));
@@ -184,7 +185,7 @@ export function createApp(deps: AppDeps): Express {
   app.use(meRouter({ me }));
   app.use(labsRouter({ labs: labsService }));
   app.use(invitationAcceptanceRouter({ invitations }));
-  app.use(mountRoutes(routes, mountContext));
+  app.use(mountRoutes(routes.filter((r) => !runsBeforeSession(r)), mountContext));
 
   app.use(['/api', '/auth'], (req, _res, next) => next(new NotFoundError(`No route for ${req.method} ${req.originalUrl.split('?')[0]}.`)));
   if (config.clientDir) app.use(staticClient(config.clientDir));

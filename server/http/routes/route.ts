@@ -100,6 +100,15 @@ export function permissionOf(route: Pick<Route, 'auth'>): Permission | null {
   return typeof route.auth === 'object' ? route.auth.permission : null;
 }
 
+/**
+ * Whether a route is mounted before the session middleware: routes that need no session (health,
+ * the API document) or authenticate otherwise (a logger's key, a signed webhook that must see the
+ * raw body) skip the session store and the JSON parser.
+ */
+export function runsBeforeSession(route: Pick<Route, 'auth'>): boolean {
+  return route.auth === 'none' || route.auth === 'ingest-key' || route.auth === 'webhook-signature';
+}
+
 /** The prefix of every lab route. */
 export const LAB_PREFIX = '/api/v1/labs/:lab';
 
