@@ -61,7 +61,12 @@ module.exports = {
     ),
     pureFolder('analysis', 'pure numerics'),
     pureFolder('policies', 'shared with the client'),
-    pureFolder('contract', 'shared with the client'),
+    forbid(
+      'contract-imports-only-contract-and-policies',
+      'server/contract/ is bundled into the client: it imports only other contract files, server/policies/ and the reading-time parser.',
+      { path: '^server/contract/' },
+      { path: '^server/', pathNot: ['^server/contract/', '^server/policies/', SCHEMA_HELPERS] },
+    ),
     forbid(
       'server-never-imports-dev-scripts',
       'docker-free-scripts/ is development tooling and stand-ins; the server must run without it.',
@@ -80,6 +85,8 @@ module.exports = {
     doNotFollow: { path: 'node_modules' },
     exclude: { path: '(?:^|/)(?:node_modules|dist)/' },
     tsPreCompilationDeps: true,
+    // the client's one alias into the server (`@shared/contract/…`, `@shared/policies/…`)
+    tsConfig: { fileName: 'tsconfig.json' },
     combinedDependencies: false,
     // Resolve package.json "exports" (e.g. csv-parse/sync) the way Node does.
     enhancedResolveOptions: {
