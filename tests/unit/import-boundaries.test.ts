@@ -52,7 +52,7 @@ const PLANTED = [
   'server/db/bad-http.repo.ts db-never-imports-services-or-http',
   'server/analysis/bad.ts analysis-is-pure',
   'server/policies/bad.ts policies-is-pure',
-  'server/contract/bad.ts contract-is-pure',
+  'server/contract/bad.ts contract-imports-only-contract-and-policies',
   'server/cli/bad.ts server-never-imports-dev-scripts',
   'server/bad-client.ts server-never-imports-client',
   'server/bad-missing.ts not-to-unresolvable',
