@@ -1,17 +1,17 @@
 import type { Db } from '../db/create-db.ts';
-import { createLabsRepo } from '../db/labs.repo.ts';
-import { createUsersRepo } from '../db/users.repo.ts';
+import { labsRepo } from '../db/labs.repo.ts';
+import { usersRepo } from '../db/users.repo.ts';
 import { inLab } from '../db/tenant-scope.ts';
-import { membershipsIn } from '../db/memberships.repo.ts';
-import { loggersIn } from '../db/loggers.repo.ts';
-import { auditIn } from '../db/audit.repo.ts';
+import { membershipsRepo } from '../db/memberships.repo.ts';
+import { loggersRepo } from '../db/loggers.repo.ts';
+import { auditRepo } from '../db/audit.repo.ts';
 import { createLoggersService } from '../services/loggers.service.ts';
 import { ingestBatch, type IncomingReading } from '../services/ingest/ingest-batch.ts';
 import { DEMO_BAD_ROWS, DEMO_DAYS, DEMO_LAB, DEMO_LOGGERS, DEMO_SEED } from '../../tenants/demo/scenario.ts';
 import { generateLogger } from '../../tenants/demo/generate.ts';
 import { seededRandom } from '../../tenants/demo/random.ts';
 import type { Role } from '../policies/permissions.ts';
-import { labBillingIn } from '../db/lab-billing.repo.ts';
+import { labBillingRepo } from '../db/lab-billing.repo.ts';
 import { loadPlanCatalog } from '../services/billing/plan-catalog.ts';
 
 export interface DemoPerson {
@@ -39,17 +39,17 @@ const DAY = 24 * 3600_000;
  */
 export async function seedDemo(db: Db, opts: { issuer: string; people: DemoPerson[]; end?: number; log?: (line: string) => void }): Promise<SeedDemoResult> {
   const log = opts.log ?? (() => undefined);
-  const existing = await createLabsRepo(db).findBySlug(DEMO_LAB.slug);
+  const existing = await labsRepo(db).findBySlug(DEMO_LAB.slug);
   if (existing) return { seeded: false, readings: 0, quarantined: 0, text: `The demo lab "${existing.name}" is already there; nothing changed.` };
 
-  const lab = await createLabsRepo(db).insert({ slug: DEMO_LAB.slug, name: DEMO_LAB.name });
+  const lab = await labsRepo(db).insert({ slug: DEMO_LAB.slug, name: DEMO_LAB.name });
   const ctx = { ...lab, role: 'admin' as Role };
-  const users = createUsersRepo(db);
+  const users = usersRepo(db);
   for (const member of DEMO_LAB.members) {
     const person = opts.people.find((p) => p.email === member.email);
     if (!person) throw new Error(`seedDemo: no identity for the demo member ${member.email}`);
     const user = await users.upsertFromIdentity({ issuer: opts.issuer, subject: person.subject, email: person.email, emailVerified: true, displayName: person.name });
-    await membershipsIn(inLab(db, lab.id)).add(user.id, member.role as Role);
+    await membershipsRepo(inLab(db, lab.id)).add(user.id, member.role as Role);
   }
 
   const rnd = seededRandom(DEMO_SEED);
@@ -83,7 +83,7 @@ export async function seedDemo(db: Db, opts: { issuer: string; people: DemoPerso
       if (rows.length >= 5000) await flush();
     }
     await flush();
-    await loggersIn(inLab(db, lab.id)).markSeen(logger.id, Math.min(lastTime, times[times.length - 1]));
+    await loggersRepo(inLab(db, lab.id)).markSeen(logger.id, Math.min(lastTime, times[times.length - 1]));
     if (spec.name === 'North plot soil station') {
       // a firmware hiccup two weeks before the end: these rows cannot be stored and are kept in quarantine
       const at = end - 14 * DAY;
@@ -95,8 +95,8 @@ export async function seedDemo(db: Db, opts: { issuer: string; people: DemoPerso
   }
   // The plan's usage meter counts what was just stored (seeding bypasses the ingestion hooks),
   // so the billing page is right at once rather than after the next usage reconciliation.
-  await labBillingIn(inLab(db, lab.id), db, loadPlanCatalog(process.env.LAGBOOK_PLANS_FILE ?? 'tenants/plans.json').free.key).setReadings(readings, new Date());
-  await auditIn(inLab(db, lab.id)).record({ actorUserId: null, action: 'demo.seeded', summary: `The demo scenario was loaded (${readings} readings, seed ${DEMO_SEED})` });
+  await labBillingRepo(inLab(db, lab.id)).setReadings(readings, new Date(), loadPlanCatalog(process.env.LAGBOOK_PLANS_FILE ?? 'tenants/plans.json').free.key);
+  await auditRepo(inLab(db, lab.id)).record({ actorUserId: null, action: 'demo.seeded', summary: `The demo scenario was loaded (${readings} readings, seed ${DEMO_SEED})` });
   return {
     seeded: true,
     readings,

@@ -22,7 +22,7 @@ const opt = (v: unknown) => (v === null || v === undefined ? null : Number(v));
  * channel-readings.repo.ts): the watched channel or logger with its newest reading time,
  * kept current by ingestion on the channel row, so silence checks never scan readings.
  */
-export function alertReadingsIn(scope: LabScope) {
+export function alertReadingsRepo(scope: LabScope) {
   return {
     async channelTarget(channelId: number): Promise<WatchedTarget | null> {
       const r = await scope
@@ -72,8 +72,4 @@ export function alertReadingsIn(scope: LabScope) {
   };
 }
 
-/** A lab's name and slug for alert mail (the `labs` table itself is not lab-owned). */
-export async function labForMail(db: import('./tenant-scope.ts').DbOrTrx, tenantId: number): Promise<{ name: string; slug: string } | null> {
-  const row = await db('labs').where('labs.id', tenantId).first('labs.name', 'labs.slug');
-  return row ? { name: row.name, slug: row.slug } : null;
-}
+export type AlertReadingsRepo = ReturnType<typeof alertReadingsRepo>;

@@ -73,7 +73,7 @@ const toRule = (r: Record<string, unknown>): AlertRule => ({
 });
 
 /** Data access for one lab's `alert_rules` and their `alert_subscriptions`. */
-export function alertRulesIn(scope: LabScope) {
+export function alertRulesRepo(scope: LabScope) {
   return {
     async list(): Promise<AlertRule[]> {
       return (await scope.table('alert_rules').orderBy('alert_rules.name').select(COLUMNS)).map(toRule);
@@ -174,4 +174,4 @@ export function alertRulesIn(scope: LabScope) {
   };
 }
 
-export type AlertRulesRepo = ReturnType<typeof alertRulesIn>;
+export type AlertRulesRepo = ReturnType<typeof alertRulesRepo>;

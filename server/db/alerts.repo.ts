@@ -64,7 +64,7 @@ const toAlert = (r: Record<string, unknown>): AlertRecord => ({
 });
 
 /** Data access for one lab's `alerts`. */
-export function alertsIn(scope: LabScope) {
+export function alertsRepo(scope: LabScope) {
   const base = () => scope.table('alerts').leftJoin('users as ack_user', 'ack_user.id', 'alerts.acknowledged_by').select(COLUMNS);
   return {
     async find(id: number): Promise<AlertRecord | null> {
@@ -146,4 +146,4 @@ export function alertsIn(scope: LabScope) {
   };
 }
 
-export type AlertsRepo = ReturnType<typeof alertsIn>;
+export type AlertsRepo = ReturnType<typeof alertsRepo>;

@@ -29,7 +29,7 @@ export interface AuditFilter {
 }
 
 /** Data access for one lab's append-only `audit_events`. */
-export function auditIn(scope: LabScope) {
+export function auditRepo(scope: LabScope) {
   return {
     async record(event: AuditEventInput): Promise<void> {
       await scope.insert('audit_events', {
@@ -77,4 +77,4 @@ export function auditIn(scope: LabScope) {
   };
 }
 
-export type AuditRepo = ReturnType<typeof auditIn>;
+export type AuditRepo = ReturnType<typeof auditRepo>;

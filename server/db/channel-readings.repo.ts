@@ -1,5 +1,3 @@
-import type { Knex } from 'knex';
-import { executeArrays } from './execute-arrays.ts';
 import type { LabScope } from './tenant-scope.ts';
 
 /** One channel's readings in time order, as typed arrays (epoch ms, values). */
@@ -77,12 +75,12 @@ const toBuckets = (rows: unknown[][]): BucketRow[] =>
 /**
  * Read-only access to one lab's readings and rollups for charts, exports and diagnostics. Rows
  * come back as arrays through the binary protocol (exact doubles, and about twice as fast to
- * read as objects). Every statement is bound to the lab's tenant id and leads with it, as the
- * keys do.
+ * read as objects). Every statement leads with the lab's tenant id, as the keys do; the scope
+ * binds it (`:lab`). Build it on a scope over the Knex instance, not a transaction, for the
+ * concurrent slices to get a connection each.
  */
-export function channelReadingsIn(scope: LabScope, db: Knex, options: ChannelReadingsOptions = {}) {
-  const tenantId = scope.tenantId;
-  const arrays = (sql: string, bindings: unknown[]) => executeArrays(db, sql, bindings);
+export function channelReadingsRepo(scope: LabScope, options: ChannelReadingsOptions = {}) {
+  const arrays = (sql: string, bindings: unknown[]) => scope.arrays(sql, bindings);
   const sliceSteps = options.sliceSteps ?? 50_000;
   const maxSlices = options.maxSlices ?? 4;
 
@@ -90,8 +88,8 @@ export function channelReadingsIn(scope: LabScope, db: Knex, options: ChannelRea
   async function range(channelId: number, from: number, to: number, limit?: number): Promise<ReadingColumns> {
     if (limit !== undefined && !(Number.isSafeInteger(limit) && limit > 0)) throw new Error(`range: limit must be a positive integer (got ${limit})`);
     // LIMIT takes no DOUBLE placeholder in a prepared statement; the checked integer is inlined.
-    const sql = `SELECT ts, value FROM readings WHERE tenant_id = ? AND channel_id = ? AND ts >= ? AND ts < ? ORDER BY ts${limit ? ` LIMIT ${limit}` : ''}`;
-    return toColumns(await arrays(sql, [tenantId, channelId, from, to]));
+    const sql = `SELECT ts, value FROM readings WHERE tenant_id = :lab AND channel_id = ? AND ts >= ? AND ts < ? ORDER BY ts${limit ? ` LIMIT ${limit}` : ''}`;
+    return toColumns(await arrays(sql, [channelId, from, to]));
   }
 
   /** [from, to) read by `readSlice` in concurrent slices of a grid of `stepMs` (see `sliceSteps`), joined in order. */
@@ -115,9 +113,9 @@ export function channelReadingsIn(scope: LabScope, db: Knex, options: ChannelRea
       return toBuckets(
         await arrays(
           `SELECT ts - MOD(ts, ?) AS b, MIN(value), MAX(value), SUM(value), COUNT(*)
-           FROM readings WHERE tenant_id = ? AND channel_id = ? AND ts >= ? AND ts < ?
+           FROM readings WHERE tenant_id = :lab AND channel_id = ? AND ts >= ? AND ts < ?
            GROUP BY b ORDER BY b`,
-          [widthMs, tenantId, channelId, from, to],
+          [widthMs, channelId, from, to],
         ),
       );
     },
@@ -127,9 +125,9 @@ export function channelReadingsIn(scope: LabScope, db: Knex, options: ChannelRea
       return toBuckets(
         await arrays(
           `SELECT bucket_start - MOD(bucket_start, ?) AS b, MIN(min_value), MAX(max_value), SUM(sum_value), SUM(count_value)
-           FROM reading_rollups WHERE tenant_id = ? AND channel_id = ? AND resolution_s = ? AND bucket_start >= ? AND bucket_start < ?
+           FROM reading_rollups WHERE tenant_id = :lab AND channel_id = ? AND resolution_s = ? AND bucket_start >= ? AND bucket_start < ?
            GROUP BY b ORDER BY b`,
-          [widthMs, tenantId, channelId, resolutionS, from, to],
+          [widthMs, channelId, resolutionS, from, to],
         ),
       );
     },
@@ -144,12 +142,12 @@ export function channelReadingsIn(scope: LabScope, db: Knex, options: ChannelRea
       // row is that row.
       const single = agg === 'mean' ? 'sum_value / count_value' : agg === 'min' ? 'min_value' : 'max_value';
       const grouped = agg === 'mean' ? 'SUM(sum_value) / SUM(count_value)' : agg === 'min' ? 'MIN(min_value)' : 'MAX(max_value)';
-      const where = 'FROM reading_rollups WHERE tenant_id = ? AND channel_id = ? AND resolution_s = ? AND bucket_start >= ? AND bucket_start < ?';
+      const where = 'FROM reading_rollups WHERE tenant_id = :lab AND channel_id = ? AND resolution_s = ? AND bucket_start >= ? AND bucket_start < ?';
       return inSlices(from, to, stepMs, async (a, b) =>
         toColumns(
           stepMs === resolutionS * 1000
-            ? await arrays(`SELECT bucket_start, ${single} ${where} ORDER BY bucket_start`, [tenantId, channelId, resolutionS, a, b])
-            : await arrays(`SELECT bucket_start - MOD(bucket_start, ?) AS b, ${grouped} ${where} GROUP BY b ORDER BY b`, [stepMs, tenantId, channelId, resolutionS, a, b]),
+            ? await arrays(`SELECT bucket_start, ${single} ${where} ORDER BY bucket_start`, [channelId, resolutionS, a, b])
+            : await arrays(`SELECT bucket_start - MOD(bucket_start, ?) AS b, ${grouped} ${where} GROUP BY b ORDER BY b`, [stepMs, channelId, resolutionS, a, b]),
         ),
       );
     },
@@ -162,8 +160,8 @@ export function channelReadingsIn(scope: LabScope, db: Knex, options: ChannelRea
       if (channelIds.length === 0) return [];
       const rows = await arrays(
         `SELECT channel_id, bucket_start, sum_value / count_value FROM reading_rollups
-         WHERE tenant_id = ? AND channel_id IN (${channelIds.map(() => '?').join(', ')}) AND resolution_s = 3600 AND bucket_start >= ? AND bucket_start < ?`,
-        [tenantId, ...channelIds, fromHour, toHour],
+         WHERE tenant_id = :lab AND channel_id IN (${channelIds.map(() => '?').join(', ')}) AND resolution_s = 3600 AND bucket_start >= ? AND bucket_start < ?`,
+        [...channelIds, fromHour, toHour],
       );
       return rows.map((r) => ({ channelId: Number(r[0]), hour: Number(r[1]), mean: Number(r[2]) }));
     },
@@ -171,12 +169,12 @@ export function channelReadingsIn(scope: LabScope, db: Knex, options: ChannelRea
     /** Reading count (from the daily rollups) and the first reading's time (one index seek). */
     async extent(channelId: number): Promise<{ count: number; firstTs: number | null }> {
       const [[countRow], [firstRow]] = await Promise.all([
-        arrays('SELECT COALESCE(SUM(count_value), 0) FROM reading_rollups WHERE tenant_id = ? AND channel_id = ? AND resolution_s = 86400', [tenantId, channelId]),
-        arrays('SELECT MIN(ts) FROM readings WHERE tenant_id = ? AND channel_id = ?', [tenantId, channelId]),
+        arrays('SELECT COALESCE(SUM(count_value), 0) FROM reading_rollups WHERE tenant_id = :lab AND channel_id = ? AND resolution_s = 86400', [channelId]),
+        arrays('SELECT MIN(ts) FROM readings WHERE tenant_id = :lab AND channel_id = ?', [channelId]),
       ]);
       return { count: Number(countRow[0]), firstTs: firstRow[0] === null ? null : Number(firstRow[0]) };
     },
   };
 }
 
-export type ChannelReadingsRepo = ReturnType<typeof channelReadingsIn>;
+export type ChannelReadingsRepo = ReturnType<typeof channelReadingsRepo>;

@@ -1,4 +1,4 @@
-import type { DbOrTrx, LabScope } from './tenant-scope.ts';
+import type { LabScope } from './tenant-scope.ts';
 import { CHANNEL_COLUMNS, toChannel, type Channel } from './channels.repo.ts';
 
 /** A channel with its logger and the state ingestion keeps current. */
@@ -55,7 +55,7 @@ function withLogger(scope: LabScope) {
  * Data access for the per-channel state that ingestion keeps (latest reading, data version),
  * read together with the channel's logger.
  */
-export function channelStateIn(scope: LabScope, db: DbOrTrx) {
+export function channelStateRepo(scope: LabScope) {
   return {
     /** Every channel in use: neither it nor its logger retired; by logger name, then label. */
     async listActive(): Promise<ChannelWithState[]> {
@@ -84,16 +84,16 @@ export function channelStateIn(scope: LabScope, db: DbOrTrx) {
     async advance(latest: Array<{ channelId: number; ts: number }>): Promise<void> {
       if (latest.length === 0) return;
       const pairs = latest.map(() => '(r.channel_id = ? AND r.ts = ?)').join(' OR ');
-      await db.raw(
+      await scope.raw(
         `UPDATE channels c JOIN readings r ON r.tenant_id = c.tenant_id AND r.channel_id = c.id
          SET c.last_reading_value = IF(c.last_reading_ts IS NULL OR r.ts >= c.last_reading_ts, r.value, c.last_reading_value),
              c.last_reading_ts = GREATEST(COALESCE(c.last_reading_ts, r.ts), r.ts),
              c.data_version = c.data_version + 1
-         WHERE c.tenant_id = ? AND r.tenant_id = ? AND (${pairs})`,
-        [scope.tenantId, scope.tenantId, ...latest.flatMap((l) => [l.channelId, l.ts])],
+         WHERE c.tenant_id = :lab AND r.tenant_id = :lab AND (${pairs})`,
+        latest.flatMap((l) => [l.channelId, l.ts]),
       );
     },
   };
 }
 
-export type ChannelStateRepo = ReturnType<typeof channelStateIn>;
+export type ChannelStateRepo = ReturnType<typeof channelStateRepo>;

@@ -71,7 +71,7 @@ function columnsOf(input: Partial<ChannelInput>): Record<string, unknown> {
 }
 
 /** Data access for one lab's `channels`. */
-export function channelsIn(scope: LabScope) {
+export function channelsRepo(scope: LabScope) {
   return {
     async listForLogger(loggerId: number, opts: { includeRetired?: boolean } = {}): Promise<Channel[]> {
       const q = scope.table('channels').where('channels.logger_id', loggerId).orderBy('channels.channel_key').select(CHANNEL_COLUMNS);
@@ -104,4 +104,4 @@ export function channelsIn(scope: LabScope) {
   };
 }
 
-export type ChannelsRepo = ReturnType<typeof channelsIn>;
+export type ChannelsRepo = ReturnType<typeof channelsRepo>;

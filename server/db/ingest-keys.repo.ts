@@ -1,4 +1,4 @@
-import type { DbOrTrx, LabScope } from './tenant-scope.ts';
+import type { LabScope } from './tenant-scope.ts';
 import { newId } from './new-id.ts';
 
 export interface IngestKeyInfo {
@@ -8,49 +8,6 @@ export interface IngestKeyInfo {
   createdAt: Date;
   lastUsedAt: Date | null;
   revokedAt: Date | null;
-}
-
-/** What the ingest endpoint learns from a key's prefix. */
-export interface IngestKeyMatch {
-  tenantId: number;
-  keyId: number;
-  loggerId: number;
-  keyHash: string;
-  revoked: boolean;
-  loggerRetired: boolean;
-  lastUsedAt: Date | null;
-}
-
-/**
- * The one lookup that starts without a lab: a logger presents only its key. Matching on the
- * random public prefix yields the lab and logger; the caller then compares the full key's
- * hash in constant time. Everything after this goes through the lab scope.
- */
-export async function findIngestKeyByPrefix(db: DbOrTrx, prefix: string): Promise<IngestKeyMatch | null> {
-  const row = await db('ingest_keys')
-    .join('loggers', function joinLogger() {
-      this.on('loggers.tenant_id', '=', 'ingest_keys.tenant_id').andOn('loggers.id', '=', 'ingest_keys.logger_id');
-    })
-    .where('ingest_keys.prefix', prefix)
-    .first(
-      'ingest_keys.tenant_id as tenantId',
-      'ingest_keys.id as keyId',
-      'ingest_keys.logger_id as loggerId',
-      'ingest_keys.key_hash as keyHash',
-      'ingest_keys.revoked_at as revokedAt',
-      'ingest_keys.last_used_at as lastUsedAt',
-      'loggers.retired_at as loggerRetiredAt',
-    );
-  if (!row) return null;
-  return {
-    tenantId: Number(row.tenantId),
-    keyId: Number(row.keyId),
-    loggerId: Number(row.loggerId),
-    keyHash: row.keyHash,
-    revoked: row.revokedAt !== null,
-    loggerRetired: row.loggerRetiredAt !== null,
-    lastUsedAt: row.lastUsedAt ?? null,
-  };
 }
 
 const COLUMNS = [
@@ -71,7 +28,7 @@ const toInfo = (r: Record<string, unknown>): IngestKeyInfo => ({
 });
 
 /** Data access for one lab's `ingest_keys`. */
-export function ingestKeysIn(scope: LabScope) {
+export function ingestKeysRepo(scope: LabScope) {
   return {
     async listForLogger(loggerId: number): Promise<IngestKeyInfo[]> {
       const rows = await scope.table('ingest_keys').where('ingest_keys.logger_id', loggerId).orderBy('ingest_keys.created_at', 'desc').select(COLUMNS);
@@ -103,4 +60,4 @@ export function ingestKeysIn(scope: LabScope) {
   };
 }
 
-export type IngestKeysRepo = ReturnType<typeof ingestKeysIn>;
+export type IngestKeysRepo = ReturnType<typeof ingestKeysRepo>;

@@ -42,7 +42,7 @@ function toInvitation(r: Record<string, unknown>): Invitation {
 }
 
 /** Data access for one lab's `invitations`; every query starts at the lab scope. */
-export function invitationsIn(scope: LabScope) {
+export function invitationsRepo(scope: LabScope) {
   const base = () => scope.table('invitations').leftJoin('users as inviter', 'inviter.id', 'invitations.invited_by_user_id');
   return {
     async listPending(now: Date): Promise<Invitation[]> {
@@ -105,4 +105,4 @@ export function invitationsIn(scope: LabScope) {
   };
 }
 
-export type InvitationsRepo = ReturnType<typeof invitationsIn>;
+export type InvitationsRepo = ReturnType<typeof invitationsRepo>;

@@ -1,4 +1,4 @@
-import type { DbOrTrx, LabScope } from './tenant-scope.ts';
+import type { LabScope } from './tenant-scope.ts';
 
 /** Subscription status as Lagbook mirrors it from Stripe. */
 export type BillingStatus = 'none' | 'active' | 'past_due' | 'canceled';
@@ -62,26 +62,18 @@ const PATCH_COLUMNS: Record<keyof BillingStatePatch, string> = {
 };
 
 /**
- * The one billing lookup that starts without a lab: a Stripe webhook names only the customer.
- * Returns the lab id the customer was created for, or null.
+ * Data access for one lab's `lab_billing` row. A lab without a row is on the free plan; the
+ * methods that may write make the row first, on the free plan named by `freePlanKey` (the plan
+ * catalog's, which the repo does not know).
  */
-export async function findLabByStripeCustomer(db: DbOrTrx, customerId: string): Promise<number | null> {
-  const row = await db('lab_billing').where('lab_billing.stripe_customer_id', customerId).first('tenant_id as tenantId');
-  return row ? Number(row.tenantId) : null;
-}
-
-/**
- * Data access for one lab's `lab_billing` row (`db` is the same connection or transaction as
- * `scope`, for the upserts); `freePlanKey` fills the row when it is first made.
- */
-export function labBillingIn(scope: LabScope, db: DbOrTrx, freePlanKey: string) {
-  const ensure = async () => {
+export function labBillingRepo(scope: LabScope) {
+  const ensure = async (freePlanKey: string) => {
     // INSERT IGNORE: two first-time writers never fail on each other. The quarantine count
     // starts from the rows already there (e.g. written by the demo seed, which bypasses the
     // ingestion hooks); from then on it is kept where rows are added and removed.
-    await db.raw(
-      'INSERT IGNORE INTO lab_billing (tenant_id, plan_key, quarantined_count) SELECT ?, ?, COUNT(*) FROM quarantined_rows WHERE quarantined_rows.tenant_id = ?',
-      [scope.tenantId, freePlanKey, scope.tenantId],
+    await scope.raw(
+      'INSERT IGNORE INTO lab_billing (tenant_id, plan_key, quarantined_count) SELECT :lab, ?, COUNT(*) FROM quarantined_rows WHERE quarantined_rows.tenant_id = :lab',
+      [freePlanKey],
     );
   };
   return {
@@ -92,19 +84,19 @@ export function labBillingIn(scope: LabScope, db: DbOrTrx, freePlanKey: string) 
       return row ? toBilling(row) : null;
     },
 
-    /** The row, made first (free plan, nothing counted) when the lab has none. */
-    async getOrCreate(opts: { lock?: boolean } = {}): Promise<LabBilling> {
-      await ensure();
+    /** The row, made first (on `freePlanKey`, nothing counted) when the lab has none. */
+    async getOrCreate(freePlanKey: string, opts: { lock?: boolean } = {}): Promise<LabBilling> {
+      await ensure(freePlanKey);
       return (await this.get(opts))!;
     },
 
-    async patch(patch: BillingStatePatch): Promise<void> {
+    async patch(patch: BillingStatePatch, freePlanKey: string): Promise<void> {
       const update: Record<string, unknown> = {};
       for (const [key, column] of Object.entries(PATCH_COLUMNS)) {
         const value = patch[key as keyof BillingStatePatch];
         if (value !== undefined) update[column] = value;
       }
-      await ensure();
+      await ensure(freePlanKey);
       await scope.table('lab_billing').update({ ...update, updated_at: new Date() });
     },
 
@@ -118,31 +110,30 @@ export function labBillingIn(scope: LabScope, db: DbOrTrx, freePlanKey: string) 
      * sees this one's readings before it checks. Returns false (and changes nothing) when the
      * batch does not fit.
      */
-    async reserveBatch(add: { readings: number; quarantined: number; quarantineFreed: number }, limits: { readings: number; quarantinedRows: number }): Promise<boolean> {
+    async reserveBatch(add: { readings: number; quarantined: number; quarantineFreed: number }, limits: { readings: number; quarantinedRows: number }, freePlanKey: string): Promise<boolean> {
       const grow = add.quarantined - add.quarantineFreed;
-      const sql =
-        'UPDATE lab_billing SET readings_count = readings_count + ? WHERE tenant_id = ? AND (? = 0 OR readings_count + ? <= ?) AND (? <= 0 OR quarantined_count + ? <= ?)';
+      const sql = 'UPDATE lab_billing SET readings_count = readings_count + ? WHERE tenant_id = :lab AND (? = 0 OR readings_count + ? <= ?) AND (? <= 0 OR quarantined_count + ? <= ?)';
       const run = async () => {
-        const [result] = await db.raw(sql, [add.readings, scope.tenantId, add.readings, add.readings, limits.readings, grow, grow, limits.quarantinedRows]);
+        const [result] = await scope.raw(sql, [add.readings, add.readings, add.readings, limits.readings, grow, grow, limits.quarantinedRows]);
         return Number((result as { affectedRows: number }).affectedRows) > 0;
       };
       if (await run()) return true;
       if (await this.get()) return false;
-      await ensure();
+      await ensure(freePlanKey);
       return run();
     },
 
     /** Replaces the counter with an exact count (the usage job). */
-    async setReadings(count: number, at: Date): Promise<void> {
-      await ensure();
+    async setReadings(count: number, at: Date, freePlanKey: string): Promise<void> {
+      await ensure(freePlanKey);
       await scope.table('lab_billing').update({ readings_count: count, reconciled_at: at });
     },
 
-    async setWarnedPercent(percent: number): Promise<void> {
-      await ensure();
+    async setWarnedPercent(percent: number, freePlanKey: string): Promise<void> {
+      await ensure(freePlanKey);
       await scope.table('lab_billing').update({ warned_percent: percent });
     },
   };
 }
 
-export type LabBillingRepo = ReturnType<typeof labBillingIn>;
+export type LabBillingRepo = ReturnType<typeof labBillingRepo>;

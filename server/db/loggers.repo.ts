@@ -46,7 +46,7 @@ const toLogger = (r: Record<string, unknown>): Logger => ({
 });
 
 /** Data access for one lab's `loggers`. */
-export function loggersIn(scope: LabScope) {
+export function loggersRepo(scope: LabScope) {
   return {
     async list(opts: { includeRetired?: boolean } = {}): Promise<Logger[]> {
       const q = scope.table('loggers').orderBy('loggers.name').select(COLUMNS);
@@ -98,4 +98,4 @@ export function loggersIn(scope: LabScope) {
   };
 }
 
-export type LoggersRepo = ReturnType<typeof loggersIn>;
+export type LoggersRepo = ReturnType<typeof loggersRepo>;

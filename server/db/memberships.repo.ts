@@ -10,7 +10,7 @@ export interface Member {
 }
 
 /** Data access for one lab's `memberships`; every query starts at the lab scope. */
-export function membershipsIn(scope: LabScope) {
+export function membershipsRepo(scope: LabScope) {
   return {
     async roleOf(userId: number): Promise<Role | null> {
       const row = await scope.table('memberships').where('memberships.user_id', userId).first('role');
@@ -58,4 +58,4 @@ export function membershipsIn(scope: LabScope) {
   };
 }
 
-export type MembershipsRepo = ReturnType<typeof membershipsIn>;
+export type MembershipsRepo = ReturnType<typeof membershipsRepo>;

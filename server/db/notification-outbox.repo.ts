@@ -1,4 +1,4 @@
-import type { DbOrTrx, LabScope } from './tenant-scope.ts';
+import type { LabScope } from './tenant-scope.ts';
 import { newId } from './new-id.ts';
 
 export type NotificationKind = 'opened' | 'reminder' | 'resolved';
@@ -16,18 +16,8 @@ export interface OutboxMessage {
   attempts: number;
 }
 
-/**
- * Labs with enabled alert rules or mail waiting: the evaluator's one look across labs (like
- * the key lookups that start without a lab, it returns lab ids only; all else goes through
- * inLab). Small tables: rules are few per lab, sent mail may be pruned.
- */
-export async function labsWithAlertWork(db: DbOrTrx): Promise<number[]> {
-  const rows = await db.raw('SELECT DISTINCT tenant_id AS id FROM alert_rules WHERE enabled = 1 UNION SELECT DISTINCT tenant_id FROM notification_outbox WHERE sent_at IS NULL');
-  return (rows[0] as Array<{ id: unknown }>).map((r) => Number(r.id));
-}
-
 /** Data access for one lab's `notification_outbox`. */
-export function outboxIn(scope: LabScope) {
+export function outboxRepo(scope: LabScope) {
   return {
     /**
      * Queues messages; a row already queued for the same (alert, subscriber, kind, sequence) is
@@ -98,3 +88,5 @@ export function outboxIn(scope: LabScope) {
     },
   };
 }
+
+export type OutboxRepo = ReturnType<typeof outboxRepo>;

@@ -1,4 +1,4 @@
-import type { DbOrTrx, LabScope } from './tenant-scope.ts';
+import type { LabScope } from './tenant-scope.ts';
 import { newId } from './new-id.ts';
 
 /** A personal token as its owner sees it (never the secret or its hash). */
@@ -11,38 +11,6 @@ export interface PersonalTokenInfo {
   expiresAt: Date;
   lastUsedAt: Date | null;
   revokedAt: Date | null;
-}
-
-/** What the lab guard learns from a token's prefix. */
-export interface PersonalTokenMatch {
-  tenantId: number;
-  tokenId: number;
-  userId: number;
-  tokenHash: string;
-  expiresAt: Date;
-  revokedAt: Date | null;
-  lastUsedAt: Date | null;
-}
-
-/**
- * The one personal-token lookup that starts without a lab: a script presents only its token.
- * The random public prefix yields the lab and owner; the caller compares the full token's hash
- * in constant time and checks the lab against the URL's. Everything else goes through the lab scope.
- */
-export async function findPersonalTokenByPrefix(db: DbOrTrx, prefix: string): Promise<PersonalTokenMatch | null> {
-  const row = await db('personal_tokens')
-    .where('personal_tokens.prefix', prefix)
-    .first('tenant_id as tenantId', 'id as tokenId', 'user_id as userId', 'token_hash as tokenHash', 'expires_at as expiresAt', 'revoked_at as revokedAt', 'last_used_at as lastUsedAt');
-  if (!row) return null;
-  return {
-    tenantId: Number(row.tenantId),
-    tokenId: Number(row.tokenId),
-    userId: Number(row.userId),
-    tokenHash: row.tokenHash,
-    expiresAt: row.expiresAt,
-    revokedAt: row.revokedAt ?? null,
-    lastUsedAt: row.lastUsedAt ?? null,
-  };
 }
 
 const COLUMNS = [
@@ -67,7 +35,7 @@ const toInfo = (r: Record<string, unknown>): PersonalTokenInfo => ({
 });
 
 /** Data access for one lab's `personal_tokens`. */
-export function personalTokensIn(scope: LabScope) {
+export function personalTokensRepo(scope: LabScope) {
   return {
     async listForUser(userId: number): Promise<PersonalTokenInfo[]> {
       const rows = await scope
@@ -107,4 +75,4 @@ export function personalTokensIn(scope: LabScope) {
   };
 }
 
-export type PersonalTokensRepo = ReturnType<typeof personalTokensIn>;
+export type PersonalTokensRepo = ReturnType<typeof personalTokensRepo>;

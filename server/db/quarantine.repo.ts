@@ -76,7 +76,7 @@ export const QUARANTINE_COUNT_LIMIT = 10_000;
  * `lab_billing.quarantined_count` in step, in the caller's transaction, so the plan's
  * quarantine cap is checked and shown without counting rows.
  */
-export function quarantineIn(scope: LabScope) {
+export function quarantineRepo(scope: LabScope) {
   const filtered = (filter: QuarantineFilter) => {
     const q = scope.table('quarantined_rows');
     if (filter.loggerId) q.where('quarantined_rows.logger_id', filter.loggerId);
@@ -183,4 +183,4 @@ export function quarantineIn(scope: LabScope) {
   };
 }
 
-export type QuarantineRepo = ReturnType<typeof quarantineIn>;
+export type QuarantineRepo = ReturnType<typeof quarantineRepo>;

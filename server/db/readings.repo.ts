@@ -1,6 +1,4 @@
-import type { Knex } from 'knex';
-import type { LabScope, DbOrTrx } from './tenant-scope.ts';
-import { executeArrays } from './execute-arrays.ts';
+import type { LabScope } from './tenant-scope.ts';
 import { loadDataRows } from './load-data-rows.ts';
 
 /**
@@ -39,9 +37,13 @@ function runsOf(sorted: number[], maxGap: number): Array<[number, number]> {
   return runs;
 }
 
-/** Data access for one lab's readings and their rollups. */
-export function readingsIn(scope: LabScope, db: DbOrTrx) {
-  const tenantId = scope.tenantId;
+/**
+ * Data access for one lab's readings and their rollups, on the scope's connection (the batch's
+ * transaction during ingestion). Rows written carry the scope's lab id, stamped here as
+ * `scope.insert` stamps it; every statement that reads or filters binds it through `:lab`.
+ */
+export function readingsRepo(scope: LabScope) {
+  const { tenantId, db } = scope;
   return {
     /**
      * Inserts rows, ignoring any (channel, ts) already stored. Returns how many were new.
@@ -62,7 +64,7 @@ export function readingsIn(scope: LabScope, db: DbOrTrx) {
         }
         tsv += `${prefix}${rows.ts[i]}\t${rows.value[i]}\n`;
       }
-      const loaded = await loadDataRows(db as Knex, 'readings', ['tenant_id', 'channel_id', 'ts', 'value'], tsv);
+      const loaded = await loadDataRows(db, 'readings', ['tenant_id', 'channel_id', 'ts', 'value'], tsv);
       if (loaded !== null) return loaded;
       const values = Array.from({ length: rows.length }, (_, i) => [tenantId, rows.channelId[i], rows.ts[i], rows.value[i]]);
       const [result] = await db.raw('INSERT IGNORE INTO readings (tenant_id, channel_id, ts, value) VALUES ?', [values] as never);
@@ -76,11 +78,10 @@ export function readingsIn(scope: LabScope, db: DbOrTrx) {
         const chunk = times.slice(i, i + 1000);
         // Binary protocol (on this transaction's connection): exact doubles, so a re-sent value
         // with 17 significant digits is a duplicate, not a conflict.
-        const rows = await executeArrays(
-          db as Knex,
-          `SELECT ts, value FROM readings WHERE tenant_id = ? AND channel_id = ? AND ts IN (${chunk.map(() => '?').join(', ')})`,
-          [tenantId, channelId, ...chunk],
-        );
+        const rows = await scope.arrays(`SELECT ts, value FROM readings WHERE tenant_id = :lab AND channel_id = ? AND ts IN (${chunk.map(() => '?').join(', ')})`, [
+          channelId,
+          ...chunk,
+        ]);
         for (const r of rows) out.set(Number(r[0]), Number(r[1]));
       }
       return out;
@@ -151,27 +152,27 @@ export function readingsIn(scope: LabScope, db: DbOrTrx) {
         const ms = res * 1000;
         const buckets = [...new Set(times.map((t) => bucketOf(t, ms)))].sort((a, b) => a - b);
         for (const [first, last] of runsOf(buckets, ms * 4)) {
-          const range = [tenantId, ...channelIds, first, last + ms];
+          const range = [...channelIds, first, last + ms];
           const inList = channelIds.map(() => '?').join(', ');
           if (source === 'raw') {
-            await db.raw(
+            await scope.raw(
               `INSERT INTO reading_rollups (tenant_id, channel_id, resolution_s, bucket_start, min_value, max_value, sum_value, count_value)
                SELECT tenant_id, channel_id, ?, ts - MOD(ts, ?) AS b, MIN(value), MAX(value), SUM(value), COUNT(*)
-               FROM readings WHERE tenant_id = ? AND channel_id IN (${inList}) AND ts >= ? AND ts < ?
+               FROM readings WHERE tenant_id = :lab AND channel_id IN (${inList}) AND ts >= ? AND ts < ?
                GROUP BY channel_id, b
                ON DUPLICATE KEY UPDATE min_value = VALUES(min_value), max_value = VALUES(max_value),
                  sum_value = VALUES(sum_value), count_value = VALUES(count_value)`,
               [res, ms, ...range],
             );
           } else {
-            await db.raw(
+            await scope.raw(
               `INSERT INTO reading_rollups (tenant_id, channel_id, resolution_s, bucket_start, min_value, max_value, sum_value, count_value)
                SELECT tenant_id, channel_id, ?, bucket_start - MOD(bucket_start, ?) AS b, MIN(min_value), MAX(max_value), SUM(sum_value), SUM(count_value)
-               FROM reading_rollups WHERE tenant_id = ? AND resolution_s = ? AND channel_id IN (${inList}) AND bucket_start >= ? AND bucket_start < ?
+               FROM reading_rollups WHERE tenant_id = :lab AND resolution_s = ? AND channel_id IN (${inList}) AND bucket_start >= ? AND bucket_start < ?
                GROUP BY channel_id, b
                ON DUPLICATE KEY UPDATE min_value = VALUES(min_value), max_value = VALUES(max_value),
                  sum_value = VALUES(sum_value), count_value = VALUES(count_value)`,
-              [res, ms, tenantId, source, ...channelIds, first, last + ms],
+              [res, ms, source, ...channelIds, first, last + ms],
             );
           }
         }
@@ -181,4 +182,4 @@ export function readingsIn(scope: LabScope, db: DbOrTrx) {
   };
 }
 
-export type ReadingsRepo = ReturnType<typeof readingsIn>;
+export type ReadingsRepo = ReturnType<typeof readingsRepo>;

@@ -1,4 +1,4 @@
-import type { DbOrTrx, LabScope } from './tenant-scope.ts';
+import type { LabScope } from './tenant-scope.ts';
 
 /** What a lab uses, against which plans are limited. */
 export interface UsageCounts {
@@ -18,19 +18,8 @@ const DAY_RESOLUTION_S = 86400;
 
 const dayOf = (v: unknown): string => (v instanceof Date ? v.toISOString().slice(0, 10) : String(v).slice(0, 10));
 
-/** Every lab's id, slug and name, for jobs that visit each lab in turn (labs is the tenant table itself). */
-export async function listLabs(db: DbOrTrx): Promise<Array<{ id: number; slug: string; name: string }>> {
-  return (await db('labs').orderBy('id').select('id', 'slug', 'name')).map((r: { id: number; slug: string; name: string }) => ({ id: Number(r.id), slug: r.slug, name: r.name }));
-}
-
-/** One lab's id, slug and name, or null (webhooks name a lab by id in their metadata). */
-export async function findLabById(db: DbOrTrx, id: number): Promise<{ id: number; slug: string; name: string } | null> {
-  const r = await db('labs').where('id', id).first('id', 'slug', 'name');
-  return r ? { id: Number(r.id), slug: r.slug as string, name: r.name as string } : null;
-}
-
 /** Data access for one lab's usage: exact counts and the daily snapshots. */
-export function usageIn(scope: LabScope) {
+export function usageRepo(scope: LabScope) {
   return {
     /**
      * Stored readings, exactly: rollups are kept current in the batch transaction and each
@@ -81,3 +70,5 @@ export function usageIn(scope: LabScope) {
     },
   };
 }
+
+export type UsageRepo = ReturnType<typeof usageRepo>;

@@ -47,22 +47,22 @@ export interface IdentityClaims {
   displayName: string;
 }
 
-/** Data access for `users` (global, not lab-owned). Every method takes an optional transaction. */
-export function createUsersRepo(db: DbOrTrx) {
+/** Data access for `users` (global, not lab-owned), on `db` — a connection or a transaction. */
+export function usersRepo(db: DbOrTrx) {
   return {
-    async findById(id: number, trx: DbOrTrx = db): Promise<User | null> {
-      const row = await trx<UserRow>('users').where({ id }).first();
+    async findById(id: number): Promise<User | null> {
+      const row = await db<UserRow>('users').where({ id }).first();
       return row ? toUser(row) : null;
     },
 
     /** A person with this verified e-mail address (operators address people by e-mail). */
-    async findByVerifiedEmail(email: string, trx: DbOrTrx = db): Promise<User | null> {
-      const row = await trx<UserRow>('users').where({ email, email_verified: true }).orderBy('id').first();
+    async findByVerifiedEmail(email: string): Promise<User | null> {
+      const row = await db<UserRow>('users').where({ email, email_verified: true }).orderBy('id').first();
       return row ? toUser(row) : null;
     },
 
-    async findByIdentity(issuer: string, subject: string, trx: DbOrTrx = db): Promise<User | null> {
-      const row = await trx<UserRow>('users').where({ oidc_issuer: issuer, oidc_subject: subject }).first();
+    async findByIdentity(issuer: string, subject: string): Promise<User | null> {
+      const row = await db<UserRow>('users').where({ oidc_issuer: issuer, oidc_subject: subject }).first();
       return row ? toUser(row) : null;
     },
 
@@ -70,9 +70,9 @@ export function createUsersRepo(db: DbOrTrx) {
      * Creates the user on first sign-in or refreshes e-mail and name from the provider's
      * claims, and stamps the sign-in time. One statement, so it is atomic on its own.
      */
-    async upsertFromIdentity(claims: IdentityClaims, trx: DbOrTrx = db): Promise<User> {
+    async upsertFromIdentity(claims: IdentityClaims): Promise<User> {
       const now = new Date();
-      await trx('users')
+      await db('users')
         .insert({
           oidc_issuer: claims.issuer,
           oidc_subject: claims.subject,
@@ -83,16 +83,19 @@ export function createUsersRepo(db: DbOrTrx) {
         })
         .onConflict(['oidc_issuer', 'oidc_subject'])
         .merge(['email', 'email_verified', 'display_name', 'last_sign_in_at']);
-      const user = await this.findByIdentity(claims.issuer, claims.subject, trx);
+      const user = await this.findByIdentity(claims.issuer, claims.subject);
       if (!user) throw new Error('upsertFromIdentity: the user row vanished');
       return user;
     },
 
     /** Sets (or, with null, clears) the person's own time zone; the caller has checked the name. */
-    async setTimeZone(id: number, timeZone: string | null, trx: DbOrTrx = db): Promise<void> {
-      await trx('users').where({ id }).update({ time_zone: timeZone });
+    async setTimeZone(id: number, timeZone: string | null): Promise<void> {
+      await db('users').where({ id }).update({ time_zone: timeZone });
     },
   };
 }
 
-export type UsersRepo = ReturnType<typeof createUsersRepo>;
+export type UsersRepo = ReturnType<typeof usersRepo>;
+
+/** @deprecated Transitional name, for `server/app.ts` only: use `usersRepo`. */
+export const createUsersRepo = usersRepo;

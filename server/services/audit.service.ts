@@ -1,6 +1,6 @@
 import type { Db } from '../db/create-db.ts';
 import { inLab } from '../db/tenant-scope.ts';
-import { auditIn, type AuditEntry } from '../db/audit.repo.ts';
+import { auditRepo, type AuditEntry } from '../db/audit.repo.ts';
 import type { LabContext } from './lab-context.ts';
 
 export interface AuditQuery {
@@ -16,7 +16,7 @@ export interface AuditQuery {
 export function createAuditService(deps: { db: Db }) {
   return {
     async query(lab: LabContext, q: AuditQuery): Promise<{ entries: AuditEntry[]; total: number; page: number; pageSize: number }> {
-      const result = await auditIn(inLab(deps.db, lab.id)).query({
+      const result = await auditRepo(inLab(deps.db, lab.id)).query({
         action: q.action,
         actor: q.actor,
         from: q.from ? new Date(q.from) : undefined,

@@ -2,10 +2,11 @@ import { randomBytes } from 'node:crypto';
 import { hashSecret } from './secret-format.ts';
 import type { Db } from '../db/create-db.ts';
 import { inLab } from '../db/tenant-scope.ts';
-import { invitationsIn, type Invitation } from '../db/invitations.repo.ts';
-import { membershipsIn } from '../db/memberships.repo.ts';
-import { auditIn } from '../db/audit.repo.ts';
-import { createLabsRepo, type Lab } from '../db/labs.repo.ts';
+import { invitationsRepo, type Invitation } from '../db/invitations.repo.ts';
+import { membershipsRepo } from '../db/memberships.repo.ts';
+import { auditRepo } from '../db/audit.repo.ts';
+import { labsRepo, type Lab } from '../db/labs.repo.ts';
+import { crossLabRepo } from '../db/cross-lab.repo.ts';
 import type { Mailer } from '../integrations/mail/create-mailer.ts';
 import { AppError, NotFoundError, ServiceUnavailableError } from '../errors.ts';
 import { ConflictError, GoneError } from './service-errors.ts';
@@ -50,12 +51,10 @@ export function createInvitationsService(deps: { db: Db; mailer: Mailer; publicU
 
   /** Finds an invitation by lab slug and secret; unknown lab or secret is the same 404. */
   async function resolve(slug: string, token: string, trx: Db, lock: boolean) {
-    const lab = await createLabsRepo(trx).findBySlug(slug);
-    const notFound = new AppError(404, 'invitation_not_found', 'This invitation link is not valid. Ask the lab admin for a new one.');
-    if (!lab || !/^[A-Za-z0-9_-]{20,100}$/.test(token)) throw notFound;
-    const invitation = await invitationsIn(inLab(trx, lab.id)).findByTokenHash(hashInvitationToken(token), { lock });
-    if (!invitation) throw notFound;
-    return { lab, invitation };
+    const tokenHash = /^[A-Za-z0-9_-]{20,100}$/.test(token) ? hashInvitationToken(token) : null;
+    const found = await crossLabRepo(trx).invitationByToken(slug, tokenHash, { lock });
+    if (!found) throw new AppError(404, 'invitation_not_found', 'This invitation link is not valid. Ask the lab admin for a new one.');
+    return found;
   }
 
   function assertUsable(invitation: Invitation): void {
@@ -68,10 +67,10 @@ export function createInvitationsService(deps: { db: Db; mailer: Mailer; publicU
 
   async function createInvitation(lab: LabContext, actor: Actor | null, input: InviteMemberInput, deliver: 'mail' | 'return-link') {
     return deps.db.transaction(async (trx) => {
-      await createLabsRepo(trx).lock(lab.id);
+      await labsRepo(trx).lock(lab.id);
       const scope = inLab(trx, lab.id);
-      const invitations = invitationsIn(scope);
-      const members = await membershipsIn(scope).list();
+      const invitations = invitationsRepo(scope);
+      const members = await membershipsRepo(scope).list();
       if (members.some((m) => m.email === input.email)) {
         throw new ConflictError('already_member', 'email: this person is already a member of the lab');
       }
@@ -83,7 +82,7 @@ export function createInvitationsService(deps: { db: Db; mailer: Mailer; publicU
       const expiresAt = new Date(now().getTime() + INVITATION_LIFETIME_MS);
       const id = await invitations.insert({ email: input.email, role: input.role, tokenHash: hashInvitationToken(token), invitedBy: actor?.id ?? null, expiresAt });
       const inviter = actor?.displayName ?? 'A Lagbook operator';
-      await auditIn(scope).record({
+      await auditRepo(scope).record({
         actorUserId: actor?.id ?? null,
         action: 'invitation.created',
         targetType: 'invitation',
@@ -101,7 +100,7 @@ export function createInvitationsService(deps: { db: Db; mailer: Mailer; publicU
 
   return {
     listPending(lab: LabContext): Promise<Invitation[]> {
-      return invitationsIn(inLab(deps.db, lab.id)).listPending(now());
+      return invitationsRepo(inLab(deps.db, lab.id)).listPending(now());
     },
 
     async invite(lab: LabContext, actor: Actor, input: InviteMemberInput): Promise<Invitation> {
@@ -120,13 +119,13 @@ export function createInvitationsService(deps: { db: Db; mailer: Mailer; publicU
     async resend(lab: LabContext, actor: Actor, id: number): Promise<Invitation> {
       return deps.db.transaction(async (trx) => {
         const scope = inLab(trx, lab.id);
-        const invitations = invitationsIn(scope);
+        const invitations = invitationsRepo(scope);
         const invitation = await invitations.findById(id, { lock: true });
         if (!invitation || invitation.acceptedAt || invitation.revokedAt) throw new NotFoundError('No such pending invitation.');
         const token = randomBytes(32).toString('base64url');
         const expiresAt = new Date(now().getTime() + INVITATION_LIFETIME_MS);
         await invitations.renew(id, hashInvitationToken(token), expiresAt, now());
-        await auditIn(scope).record({
+        await auditRepo(scope).record({
           actorUserId: actor.id,
           action: 'invitation.resent',
           targetType: 'invitation',
@@ -142,11 +141,11 @@ export function createInvitationsService(deps: { db: Db; mailer: Mailer; publicU
     async revoke(lab: LabContext, actor: Actor, id: number): Promise<void> {
       await deps.db.transaction(async (trx) => {
         const scope = inLab(trx, lab.id);
-        const invitations = invitationsIn(scope);
+        const invitations = invitationsRepo(scope);
         const invitation = await invitations.findById(id, { lock: true });
         if (!invitation || invitation.acceptedAt || invitation.revokedAt) throw new NotFoundError('No such pending invitation.');
         await invitations.markRevoked(id, now());
-        await auditIn(scope).record({
+        await auditRepo(scope).record({
           actorUserId: actor.id,
           action: 'invitation.revoked',
           targetType: 'invitation',
@@ -173,10 +172,10 @@ export function createInvitationsService(deps: { db: Db; mailer: Mailer; publicU
           throw new AppError(403, 'invitation_wrong_account', `This invitation is for ${invitation.email}. Sign in with that address to accept it.`);
         }
         const scope = inLab(trx, lab.id);
-        if (await membershipsIn(scope).roleOf(actor.id)) throw new ConflictError('already_member', 'You are already a member of this lab.');
-        await membershipsIn(scope).add(actor.id, invitation.role);
-        await invitationsIn(scope).markAccepted(invitation.id, actor.id, now());
-        await auditIn(scope).record({
+        if (await membershipsRepo(scope).roleOf(actor.id)) throw new ConflictError('already_member', 'You are already a member of this lab.');
+        await membershipsRepo(scope).add(actor.id, invitation.role);
+        await invitationsRepo(scope).markAccepted(invitation.id, actor.id, now());
+        await auditRepo(scope).record({
           actorUserId: actor.id,
           action: 'invitation.accepted',
           targetType: 'invitation',

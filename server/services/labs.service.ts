@@ -1,10 +1,11 @@
 import { randomBytes } from 'node:crypto';
 import type { Db } from '../db/create-db.ts';
-import { createLabsRepo, type Lab, type LabsRepo } from '../db/labs.repo.ts';
+import { labsRepo, type Lab, type LabsRepo } from '../db/labs.repo.ts';
+import { crossLabRepo, type CrossLabRepo } from '../db/cross-lab.repo.ts';
 import { inLab, type DbOrTrx } from '../db/tenant-scope.ts';
-import { membershipsIn } from '../db/memberships.repo.ts';
-import { auditIn } from '../db/audit.repo.ts';
-import { createUsersRepo } from '../db/users.repo.ts';
+import { membershipsRepo } from '../db/memberships.repo.ts';
+import { auditRepo } from '../db/audit.repo.ts';
+import { usersRepo } from '../db/users.repo.ts';
 import type { LabBilling } from '../db/lab-billing.repo.ts';
 import { slugFromName } from '../policies/lab-slug.ts';
 import { effectivePlan } from './billing/effective-plan.ts';
@@ -79,10 +80,10 @@ export function createLabsService(deps: { db: Db; caps?: LabCreationCaps; catalo
 
   /** Inserts the lab at `slug`, its first admin (if known) and the audit event, in `trx`. */
   async function insertLab(trx: DbOrTrx, slug: string, name: string, actor: Actor | null, adminUserId: number | null): Promise<Lab> {
-    const lab = await createLabsRepo(trx).insert({ slug, name, createdBy: actor?.id ?? null });
+    const lab = await labsRepo(trx).insert({ slug, name, createdBy: actor?.id ?? null });
     const scope = inLab(trx, lab.id);
-    if (adminUserId !== null) await membershipsIn(scope).add(adminUserId, 'admin');
-    await auditIn(scope).record({
+    if (adminUserId !== null) await membershipsRepo(scope).add(adminUserId, 'admin');
+    await auditRepo(scope).record({
       actorUserId: actor?.id ?? null,
       action: 'lab.created',
       targetType: 'lab',
@@ -93,12 +94,12 @@ export function createLabsService(deps: { db: Db; caps?: LabCreationCaps; catalo
   }
 
   /** Refuses with LabLimitError when the person has created as many labs as they may. */
-  async function checkCap(repo: LabsRepo, userId: number, caps: LabCreationCaps, catalog: PlanCatalog): Promise<void> {
+  async function checkCap(repo: LabsRepo, crossLab: CrossLabRepo, userId: number, caps: LabCreationCaps, catalog: PlanCatalog): Promise<void> {
     const created = await repo.countCreatedBy(userId);
     if (created < caps.perAccount) return;
     const at = now();
     // effectivePlan reads only the plan, status and grace period of a billing row.
-    const paidAdmin = (await repo.adminPlansOf(userId)).some((b) => effectivePlan(b as LabBilling, catalog, at).key !== catalog.free.key);
+    const paidAdmin = (await crossLab.adminPlansOf(userId)).some((b) => effectivePlan(b as LabBilling, catalog, at).key !== catalog.free.key);
     const allowed = paidAdmin ? caps.perPaidAdmin : caps.perAccount;
     if (created >= allowed) throw new LabLimitError({ created, allowed, paidAdmin, perPaidAdmin: caps.perPaidAdmin });
   }
@@ -123,9 +124,9 @@ export function createLabsService(deps: { db: Db; caps?: LabCreationCaps; catalo
       for (let attempt = 1; ; attempt++) {
         try {
           const lab = await deps.db.transaction(async (trx) => {
-            const repo = createLabsRepo(trx);
+            const repo = labsRepo(trx);
             await repo.lockCreator(actor.id);
-            await checkCap(repo, actor.id, caps, catalog);
+            await checkCap(repo, crossLabRepo(trx), actor.id, caps, catalog);
             const taken = await repo.takenAmong(candidates);
             const slug = candidates.find((c) => !taken.has(c)) ?? withSuffix(requestedSlug, `-${randomBytes(3).toString('hex')}`);
             return insertLab(trx, slug, input.name, actor, actor.id);
@@ -146,7 +147,7 @@ export function createLabsService(deps: { db: Db; caps?: LabCreationCaps; catalo
      * Operators name the exact address: a taken one is refused (409 slug_taken), not varied.
      */
     async createForOperator(input: CreateLabInput & { adminEmail: string }): Promise<{ lab: Lab; adminUserId: number | null }> {
-      const existing = await createUsersRepo(deps.db).findByVerifiedEmail(input.adminEmail.toLowerCase());
+      const existing = await usersRepo(deps.db).findByVerifiedEmail(input.adminEmail.toLowerCase());
       const slug = requestedSlugOf(input);
       try {
         const lab = await deps.db.transaction((trx) => insertLab(trx, slug, input.name, null, existing?.id ?? null));

@@ -1,10 +1,10 @@
 import type { Db } from '../db/create-db.ts';
 import { inLab } from '../db/tenant-scope.ts';
-import { loggersIn, type Logger, type LoggerInput } from '../db/loggers.repo.ts';
-import { channelsIn, type Channel, type ChannelInput } from '../db/channels.repo.ts';
-import { ingestKeysIn, type IngestKeyInfo } from '../db/ingest-keys.repo.ts';
-import { auditIn } from '../db/audit.repo.ts';
-import { createLabsRepo } from '../db/labs.repo.ts';
+import { loggersRepo, type Logger, type LoggerInput } from '../db/loggers.repo.ts';
+import { channelsRepo, type Channel, type ChannelInput } from '../db/channels.repo.ts';
+import { ingestKeysRepo, type IngestKeyInfo } from '../db/ingest-keys.repo.ts';
+import { auditRepo } from '../db/audit.repo.ts';
+import { labsRepo } from '../db/labs.repo.ts';
 import { NotFoundError } from '../errors.ts';
 import { ConflictError, isDuplicateKey } from './service-errors.ts';
 import { newIngestKey } from './ingest-key-format.ts';
@@ -38,7 +38,7 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
   };
 
   async function requireLogger(scope: ReturnType<typeof inLab>, id: number, lock = false): Promise<Logger> {
-    const logger = await loggersIn(scope).find(id, { lock });
+    const logger = await loggersRepo(scope).find(id, { lock });
     if (!logger) throw new NotFoundError('No such logger in this lab.');
     return logger;
   }
@@ -46,15 +46,15 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
   return {
     async list(lab: LabContext, opts: { includeRetired?: boolean } = {}): Promise<Array<Logger & { channelCount: number }>> {
       const scope = inLab(deps.db, lab.id);
-      const loggers = await loggersIn(scope).list(opts);
-      const channels = await channelsIn(scope).list();
+      const loggers = await loggersRepo(scope).list(opts);
+      const channels = await channelsRepo(scope).list();
       return loggers.map((l) => ({ ...l, channelCount: channels.filter((c) => c.loggerId === l.id).length }));
     },
 
     async detail(lab: LabContext, id: number): Promise<LoggerDetail> {
       const scope = inLab(deps.db, lab.id);
       const logger = await requireLogger(scope, id);
-      const [channels, keys] = await Promise.all([channelsIn(scope).listForLogger(id, { includeRetired: true }), ingestKeysIn(scope).listForLogger(id)]);
+      const [channels, keys] = await Promise.all([channelsRepo(scope).listForLogger(id, { includeRetired: true }), ingestKeysRepo(scope).listForLogger(id)]);
       return { ...logger, channels, keys };
     },
 
@@ -67,13 +67,13 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
       try {
         return await deps.db.transaction(async (trx) => {
           const scope = inLab(trx, lab.id);
-          await createLabsRepo(trx).lock(lab.id);
+          await labsRepo(trx).lock(lab.id);
           await deps.planLimits?.assertRoomFor(trx, lab.id, 'loggers');
-          const id = await loggersIn(scope).insert(input);
-          for (const c of input.channels) await channelsIn(scope).insert(id, c);
+          const id = await loggersRepo(scope).insert(input);
+          for (const c of input.channels) await channelsRepo(scope).insert(id, c);
           const made = newIngestKey();
-          const keyId = await ingestKeysIn(scope).insert({ loggerId: id, prefix: made.prefix, keyHash: made.hash, createdBy: actor?.id ?? null });
-          await auditIn(scope).record({
+          const keyId = await ingestKeysRepo(scope).insert({ loggerId: id, prefix: made.prefix, keyHash: made.hash, createdBy: actor?.id ?? null });
+          await auditRepo(scope).record({
             actorUserId: actor?.id ?? null,
             action: 'logger.registered',
             targetType: 'logger',
@@ -81,9 +81,9 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
             summary: `${actor?.displayName ?? 'An operator'} registered the logger "${input.name}" with ${input.channels.length} channel(s)`,
             details: { channels: input.channels.map((c) => c.key), keyPrefix: made.prefix },
           });
-          const logger = (await loggersIn(scope).find(id))!;
-          const channels = await channelsIn(scope).listForLogger(id);
-          const info = (await ingestKeysIn(scope).find(keyId))!;
+          const logger = (await loggersRepo(scope).find(id))!;
+          const channels = await channelsRepo(scope).listForLogger(id);
+          const info = (await ingestKeysRepo(scope).find(keyId))!;
           return { logger: { ...logger, channels, keys: [info] }, issued: { key: made.key, info } };
         });
       } catch (err) {
@@ -96,9 +96,9 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
         return await deps.db.transaction(async (trx) => {
           const scope = inLab(trx, lab.id);
           const before = await requireLogger(scope, id, true);
-          await loggersIn(scope).update(id, patch);
-          await auditIn(scope).record({ actorUserId: actor.id, action: 'logger.updated', targetType: 'logger', targetId: id, summary: `${actor.displayName} edited the logger "${before.name}"`, details: { ...patch } });
-          return (await loggersIn(scope).find(id))!;
+          await loggersRepo(scope).update(id, patch);
+          await auditRepo(scope).record({ actorUserId: actor.id, action: 'logger.updated', targetType: 'logger', targetId: id, summary: `${actor.displayName} edited the logger "${before.name}"`, details: { ...patch } });
+          return (await loggersRepo(scope).find(id))!;
         });
       } catch (err) {
         return duplicateName(err);
@@ -111,9 +111,9 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
         const scope = inLab(trx, lab.id);
         const logger = await requireLogger(scope, id, true);
         if (logger.retiredAt) return;
-        await loggersIn(scope).retire(id, now());
-        await ingestKeysIn(scope).revokeAllForLogger(id, now());
-        await auditIn(scope).record({ actorUserId: actor.id, action: 'logger.retired', targetType: 'logger', targetId: id, summary: `${actor.displayName} retired the logger "${logger.name}"` });
+        await loggersRepo(scope).retire(id, now());
+        await ingestKeysRepo(scope).revokeAllForLogger(id, now());
+        await auditRepo(scope).record({ actorUserId: actor.id, action: 'logger.retired', targetType: 'logger', targetId: id, summary: `${actor.displayName} retired the logger "${logger.name}"` });
       });
     },
 
@@ -122,9 +122,9 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
         return await deps.db.transaction(async (trx) => {
           const scope = inLab(trx, lab.id);
           const logger = await requireLogger(scope, loggerId, true);
-          const id = await channelsIn(scope).insert(loggerId, input);
-          await auditIn(scope).record({ actorUserId: actor.id, action: 'channel.added', targetType: 'channel', targetId: id, summary: `${actor.displayName} added the channel "${input.key}" to "${logger.name}"` });
-          return (await channelsIn(scope).find(id))!;
+          const id = await channelsRepo(scope).insert(loggerId, input);
+          await auditRepo(scope).record({ actorUserId: actor.id, action: 'channel.added', targetType: 'channel', targetId: id, summary: `${actor.displayName} added the channel "${input.key}" to "${logger.name}"` });
+          return (await channelsRepo(scope).find(id))!;
         });
       } catch (err) {
         return duplicateName(err);
@@ -136,15 +136,15 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
         return await deps.db.transaction(async (trx) => {
           const scope = inLab(trx, lab.id);
           await requireLogger(scope, loggerId, true);
-          const channel = await channelsIn(scope).find(channelId);
+          const channel = await channelsRepo(scope).find(channelId);
           if (!channel || channel.loggerId !== loggerId) throw new NotFoundError('No such channel on this logger.');
           const merged = { validMin: channel.validMin, validMax: channel.validMax, ...patch };
           if (merged.validMin !== null && merged.validMax !== null && merged.validMin !== undefined && merged.validMax !== undefined && merged.validMin >= merged.validMax) {
             throw new ConflictError('invalid_range', 'validMax: must be above validMin');
           }
-          await channelsIn(scope).update(channelId, patch);
-          await auditIn(scope).record({ actorUserId: actor.id, action: 'channel.updated', targetType: 'channel', targetId: channelId, summary: `${actor.displayName} edited the channel "${channel.key}"`, details: { ...patch } });
-          return (await channelsIn(scope).find(channelId))!;
+          await channelsRepo(scope).update(channelId, patch);
+          await auditRepo(scope).record({ actorUserId: actor.id, action: 'channel.updated', targetType: 'channel', targetId: channelId, summary: `${actor.displayName} edited the channel "${channel.key}"`, details: { ...patch } });
+          return (await channelsRepo(scope).find(channelId))!;
         });
       } catch (err) {
         return duplicateName(err);
@@ -155,11 +155,11 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
       await deps.db.transaction(async (trx) => {
         const scope = inLab(trx, lab.id);
         await requireLogger(scope, loggerId, true);
-        const channel = await channelsIn(scope).find(channelId);
+        const channel = await channelsRepo(scope).find(channelId);
         if (!channel || channel.loggerId !== loggerId) throw new NotFoundError('No such channel on this logger.');
         if (channel.retiredAt) return;
-        await channelsIn(scope).retire(channelId, now());
-        await auditIn(scope).record({ actorUserId: actor.id, action: 'channel.retired', targetType: 'channel', targetId: channelId, summary: `${actor.displayName} retired the channel "${channel.key}"` });
+        await channelsRepo(scope).retire(channelId, now());
+        await auditRepo(scope).record({ actorUserId: actor.id, action: 'channel.retired', targetType: 'channel', targetId: channelId, summary: `${actor.displayName} retired the channel "${channel.key}"` });
       });
     },
 
@@ -169,10 +169,10 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
         const scope = inLab(trx, lab.id);
         const logger = await requireLogger(scope, loggerId, true);
         if (logger.retiredAt) throw new ConflictError('logger_retired', 'This logger is retired; it cannot get new keys.');
-        if (opts.rotate) await ingestKeysIn(scope).revokeAllForLogger(loggerId, now());
+        if (opts.rotate) await ingestKeysRepo(scope).revokeAllForLogger(loggerId, now());
         const made = newIngestKey();
-        const keyId = await ingestKeysIn(scope).insert({ loggerId, prefix: made.prefix, keyHash: made.hash, createdBy: actor?.id ?? null });
-        await auditIn(scope).record({
+        const keyId = await ingestKeysRepo(scope).insert({ loggerId, prefix: made.prefix, keyHash: made.hash, createdBy: actor?.id ?? null });
+        await auditRepo(scope).record({
           actorUserId: actor?.id ?? null,
           action: opts.rotate ? 'ingest-key.rotated' : 'ingest-key.issued',
           targetType: 'logger',
@@ -180,7 +180,7 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
           summary: `${actor?.displayName ?? 'An operator'} ${opts.rotate ? 'rotated the keys of' : 'issued a key for'} "${logger.name}" (key ${made.prefix}…)`,
           details: { keyPrefix: made.prefix },
         });
-        return { key: made.key, info: (await ingestKeysIn(scope).find(keyId))! };
+        return { key: made.key, info: (await ingestKeysRepo(scope).find(keyId))! };
       });
     },
 
@@ -188,11 +188,11 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
       await deps.db.transaction(async (trx) => {
         const scope = inLab(trx, lab.id);
         const logger = await requireLogger(scope, loggerId, true);
-        const key = await ingestKeysIn(scope).find(keyId);
+        const key = await ingestKeysRepo(scope).find(keyId);
         if (!key || key.loggerId !== loggerId) throw new NotFoundError('No such key on this logger.');
         if (key.revokedAt) return;
-        await ingestKeysIn(scope).revoke(keyId, now());
-        await auditIn(scope).record({ actorUserId: actor.id, action: 'ingest-key.revoked', targetType: 'logger', targetId: loggerId, summary: `${actor.displayName} revoked key ${key.prefix}… of "${logger.name}"`, details: { keyPrefix: key.prefix } });
+        await ingestKeysRepo(scope).revoke(keyId, now());
+        await auditRepo(scope).record({ actorUserId: actor.id, action: 'ingest-key.revoked', targetType: 'logger', targetId: loggerId, summary: `${actor.displayName} revoked key ${key.prefix}… of "${logger.name}"`, details: { keyPrefix: key.prefix } });
       });
     },
   };

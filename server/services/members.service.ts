@@ -1,8 +1,8 @@
 import type { Db } from '../db/create-db.ts';
 import { inLab } from '../db/tenant-scope.ts';
-import { membershipsIn, type Member } from '../db/memberships.repo.ts';
-import { auditIn } from '../db/audit.repo.ts';
-import { createLabsRepo } from '../db/labs.repo.ts';
+import { membershipsRepo, type Member } from '../db/memberships.repo.ts';
+import { auditRepo } from '../db/audit.repo.ts';
+import { labsRepo } from '../db/labs.repo.ts';
 import type { Role } from '../policies/permissions.ts';
 import { NotFoundError } from '../errors.ts';
 import { LastAdminError } from './service-errors.ts';
@@ -15,26 +15,26 @@ import type { Actor, LabContext } from './lab-context.ts';
  */
 export function createMembersService(deps: { db: Db }) {
   async function guardLastAdmin(lab: LabContext, trx: Db, userId: number, newRole: Role | null) {
-    await createLabsRepo(trx).lock(lab.id);
-    const admins = await membershipsIn(inLab(trx, lab.id)).lockAdmins();
+    await labsRepo(trx).lock(lab.id);
+    const admins = await membershipsRepo(inLab(trx, lab.id)).lockAdmins();
     if (admins.includes(userId) && newRole !== 'admin' && admins.length === 1) throw new LastAdminError();
   }
 
   return {
     list(lab: LabContext): Promise<Member[]> {
-      return membershipsIn(inLab(deps.db, lab.id)).list();
+      return membershipsRepo(inLab(deps.db, lab.id)).list();
     },
 
     async changeRole(lab: LabContext, actor: Actor, userId: number, role: Role): Promise<Member> {
       return deps.db.transaction(async (trx) => {
         const scope = inLab(trx, lab.id);
-        const members = membershipsIn(scope);
+        const members = membershipsRepo(scope);
         const member = await members.find(userId);
         if (!member) throw new NotFoundError('No such member in this lab.');
         if (member.role === role) return member;
         await guardLastAdmin(lab, trx as unknown as Db, userId, role);
         await members.setRole(userId, role);
-        await auditIn(scope).record({
+        await auditRepo(scope).record({
           actorUserId: actor.id,
           action: 'member.role-changed',
           targetType: 'user',
@@ -49,13 +49,13 @@ export function createMembersService(deps: { db: Db }) {
     async remove(lab: LabContext, actor: Actor, userId: number): Promise<void> {
       await deps.db.transaction(async (trx) => {
         const scope = inLab(trx, lab.id);
-        const members = membershipsIn(scope);
+        const members = membershipsRepo(scope);
         const member = await members.find(userId);
         if (!member) throw new NotFoundError('No such member in this lab.');
         await guardLastAdmin(lab, trx as unknown as Db, userId, null);
         await members.remove(userId);
         const self = userId === actor.id;
-        await auditIn(scope).record({
+        await auditRepo(scope).record({
           actorUserId: actor.id,
           action: self ? 'member.left' : 'member.removed',
           targetType: 'user',

@@ -1,7 +1,8 @@
 import type { Db } from '../db/create-db.ts';
 import { inLab } from '../db/tenant-scope.ts';
-import { findPersonalTokenByPrefix, personalTokensIn, type PersonalTokenInfo } from '../db/personal-tokens.repo.ts';
-import { auditIn } from '../db/audit.repo.ts';
+import { personalTokensRepo, type PersonalTokenInfo } from '../db/personal-tokens.repo.ts';
+import { crossLabRepo } from '../db/cross-lab.repo.ts';
+import { auditRepo } from '../db/audit.repo.ts';
 import { AppError, NotFoundError } from '../errors.ts';
 import { newPersonalToken, personalTokenMatches, personalTokenPrefix } from './personal-token-format.ts';
 import type { Actor, LabContext } from './lab-context.ts';
@@ -42,7 +43,7 @@ export function createPersonalTokensService(deps: { db: Db; now?: () => Date }) 
   return {
     /** The acting person's own tokens in this lab, newest first (revoked and expired included). */
     async listOwn(lab: LabContext, actor: Pick<Actor, 'id'>): Promise<PersonalTokenInfo[]> {
-      return personalTokensIn(inLab(deps.db, lab.id)).listForUser(actor.id);
+      return personalTokensRepo(inLab(deps.db, lab.id)).listForUser(actor.id);
     },
 
     /** Makes a token for the acting person in this lab, valid `expiresInDays` days (shown once). */
@@ -52,8 +53,8 @@ export function createPersonalTokensService(deps: { db: Db; now?: () => Date }) 
         const made = newPersonalToken();
         const createdAt = now();
         const expiresAt = new Date(createdAt.getTime() + input.expiresInDays * DAY_MS);
-        const id = await personalTokensIn(scope).insert({ userId: actor.id, name: input.name, prefix: made.prefix, tokenHash: made.hash, createdAt, expiresAt });
-        await auditIn(scope).record({
+        const id = await personalTokensRepo(scope).insert({ userId: actor.id, name: input.name, prefix: made.prefix, tokenHash: made.hash, createdAt, expiresAt });
+        await auditRepo(scope).record({
           actorUserId: actor.id,
           action: 'token.created',
           targetType: 'personal-token',
@@ -61,7 +62,7 @@ export function createPersonalTokensService(deps: { db: Db; now?: () => Date }) 
           summary: `${actor.displayName} created the personal token "${input.name}" (${made.prefix}…), valid ${input.expiresInDays} day(s)`,
           details: { tokenPrefix: made.prefix, expiresAt: expiresAt.toISOString() },
         });
-        return { token: made.token, info: (await personalTokensIn(scope).find(id))! };
+        return { token: made.token, info: (await personalTokensRepo(scope).find(id))! };
       });
     },
 
@@ -69,11 +70,11 @@ export function createPersonalTokensService(deps: { db: Db; now?: () => Date }) 
     async revokeOwn(lab: LabContext, actor: Actor, tokenId: number): Promise<void> {
       await deps.db.transaction(async (trx) => {
         const scope = inLab(trx, lab.id);
-        const token = await personalTokensIn(scope).find(tokenId);
+        const token = await personalTokensRepo(scope).find(tokenId);
         if (!token || token.userId !== actor.id) throw new NotFoundError('No such personal token of yours in this lab.');
         if (token.revokedAt) return;
-        await personalTokensIn(scope).revoke(tokenId, now());
-        await auditIn(scope).record({
+        await personalTokensRepo(scope).revoke(tokenId, now());
+        await auditRepo(scope).record({
           actorUserId: actor.id,
           action: 'token.revoked',
           targetType: 'personal-token',
@@ -91,7 +92,7 @@ export function createPersonalTokensService(deps: { db: Db; now?: () => Date }) 
      */
     async authenticate(presented: string): Promise<PersonalTokenHolder> {
       const prefix = personalTokenPrefix(presented);
-      const match = prefix ? await findPersonalTokenByPrefix(deps.db, prefix) : null;
+      const match = prefix ? await crossLabRepo(deps.db).personalTokenByPrefix(prefix) : null;
       if (!match || !personalTokenMatches(presented, match.tokenHash)) throw new InvalidTokenError('This personal token is not valid.');
       if (match.revokedAt) throw new InvalidTokenError('This personal token has been revoked.');
       if (match.expiresAt.getTime() <= now().getTime()) throw new InvalidTokenError('This personal token has expired.');
@@ -102,7 +103,7 @@ export function createPersonalTokensService(deps: { db: Db; now?: () => Date }) 
     async recordUse(holder: PersonalTokenHolder): Promise<void> {
       const at = now();
       if (holder.lastUsedAt && at.getTime() - holder.lastUsedAt.getTime() < TOUCH_INTERVAL_MS) return;
-      await personalTokensIn(inLab(deps.db, holder.tenantId)).touch(holder.tokenId, at);
+      await personalTokensRepo(inLab(deps.db, holder.tenantId)).touch(holder.tokenId, at);
     },
   };
 }

@@ -1,7 +1,7 @@
 import type { Db } from '../db/create-db.ts';
 import { inLab } from '../db/tenant-scope.ts';
-import { quarantineIn, type QuarantineCursor, type QuarantineFilter, type QuarantinedRow } from '../db/quarantine.repo.ts';
-import { auditIn } from '../db/audit.repo.ts';
+import { quarantineRepo, type QuarantineCursor, type QuarantineFilter, type QuarantinedRow } from '../db/quarantine.repo.ts';
+import { auditRepo } from '../db/audit.repo.ts';
 import { NotFoundError } from '../errors.ts';
 import type { IngestHooks } from './ingest/ingest-hooks.ts';
 import { ingestBatch, type IngestOutcome } from './ingest/ingest-batch.ts';
@@ -38,7 +38,7 @@ export function createQuarantineService(deps: { db: Db; now?: () => number; hook
      * deep it is), with the number of matching rows counted up to QUARANTINE_COUNT_LIMIT.
      */
     async list(lab: LabContext, filter: QuarantineFilter & { after?: QuarantineCursor; pageSize: number }) {
-      const repo = quarantineIn(inLab(deps.db, lab.id));
+      const repo = quarantineRepo(inLab(deps.db, lab.id));
       const page = await repo.page(filter);
       const total = await repo.countUpTo(filter);
       return { ...page, total: total.count, totalAtLeast: total.atLeast };
@@ -46,7 +46,7 @@ export function createQuarantineService(deps: { db: Db; now?: () => number; hook
 
     /** Every matching row, 5,000 at a time along the same keyset (for CSV export). */
     async *all(lab: LabContext, filter: QuarantineFilter): AsyncGenerator<QuarantinedRow[]> {
-      const repo = quarantineIn(inLab(deps.db, lab.id));
+      const repo = quarantineRepo(inLab(deps.db, lab.id));
       let after: QuarantineCursor | undefined;
       for (;;) {
         const page = await repo.page({ ...filter, after, pageSize: 5000 });
@@ -59,17 +59,17 @@ export function createQuarantineService(deps: { db: Db; now?: () => number; hook
     async discard(lab: LabContext, actor: Actor, ids: number[]): Promise<number> {
       return deps.db.transaction(async (trx) => {
         const scope = inLab(trx, lab.id);
-        const found = new Set((await quarantineIn(scope).findMany(ids)).map((r) => r.id));
+        const found = new Set((await quarantineRepo(scope).findMany(ids)).map((r) => r.id));
         const missing = ids.filter((id) => !found.has(id));
         if (missing.length) throw new NotFoundError(`No such quarantined row in this lab: ${missing.join(', ')}.`);
-        const removed = await quarantineIn(scope).remove(ids);
-        await auditIn(scope).record({ actorUserId: actor.id, action: 'quarantine.discarded', summary: `${actor.displayName} discarded ${removed} quarantined row(s)`, details: { count: removed } });
+        const removed = await quarantineRepo(scope).remove(ids);
+        await auditRepo(scope).record({ actorUserId: actor.id, action: 'quarantine.discarded', summary: `${actor.displayName} discarded ${removed} quarantined row(s)`, details: { count: removed } });
         return removed;
       });
     },
 
     async resubmit(lab: LabContext, actor: Actor, rows: ResubmitRow[]): Promise<IngestOutcome & { resubmitted: number }> {
-      const repo = quarantineIn(inLab(deps.db, lab.id));
+      const repo = quarantineRepo(inLab(deps.db, lab.id));
       const originals = new Map((await repo.findMany(rows.map((r) => r.id))).map((o) => [o.id, o]));
       const missing = rows.filter((r) => !originals.has(r.id) || originals.get(r.id)!.loggerId === null);
       if (missing.length) throw new NotFoundError(`No such quarantined row in this lab: ${missing.map((m) => m.id).join(', ')}.`);
@@ -92,8 +92,8 @@ export function createQuarantineService(deps: { db: Db; now?: () => number; hook
       }
       await deps.db.transaction(async (trx) => {
         const scope = inLab(trx, lab.id);
-        await quarantineIn(scope).remove(rows.map((r) => r.id));
-        await auditIn(scope).record({
+        await quarantineRepo(scope).remove(rows.map((r) => r.id));
+        await auditRepo(scope).record({
           actorUserId: actor.id,
           action: 'quarantine.resubmitted',
           summary: `${actor.displayName} re-submitted ${rows.length} quarantined row(s): ${total.accepted} stored, ${total.quarantined.length} quarantined again`,

@@ -1,10 +1,10 @@
 import { performance } from 'node:perf_hooks';
 import type { Db } from '../db/create-db.ts';
 import { inLab } from '../db/tenant-scope.ts';
-import { loggersIn } from '../db/loggers.repo.ts';
-import { channelsIn } from '../db/channels.repo.ts';
-import { readingsIn } from '../db/readings.repo.ts';
-import { auditIn } from '../db/audit.repo.ts';
+import { loggersRepo } from '../db/loggers.repo.ts';
+import { channelsRepo } from '../db/channels.repo.ts';
+import { readingsRepo } from '../db/readings.repo.ts';
+import { auditRepo } from '../db/audit.repo.ts';
 import { NotFoundError } from '../errors.ts';
 import { ConflictError } from './service-errors.ts';
 import type { IngestHooks } from './ingest/ingest-hooks.ts';
@@ -32,7 +32,7 @@ export function createTestReadingService(deps: { db: Db; now?: () => number; hoo
     /** Stores `value` for `channel` of the logger at "now", reads it back and audit-logs the attempt. */
     async send(lab: LabContext, actor: Actor, loggerId: number, input: { channel: string; value: number }): Promise<TestReadingResult> {
       const scope = inLab(deps.db, lab.id);
-      const logger = await loggersIn(scope).find(loggerId);
+      const logger = await loggersRepo(scope).find(loggerId);
       if (!logger) throw new NotFoundError('No such logger in this lab.');
       if (logger.retiredAt) throw new ConflictError('logger_retired', 'This logger is retired: it accepts no new readings.');
 
@@ -44,12 +44,12 @@ export function createTestReadingService(deps: { db: Db; now?: () => number; hoo
         [{ index: 0, channel: input.channel, ts, value: input.value, raw: JSON.stringify({ channel: input.channel, ts, value: input.value }) }],
         { source: 'api', now, hooks: deps.hooks },
       );
-      const channel = (await channelsIn(scope).listForLogger(loggerId, { includeRetired: true })).find((c) => c.key === input.channel);
-      const storedValue = channel ? ((await readingsIn(scope, deps.db).storedAt(channel.id, [ts])).get(ts) ?? null) : null;
+      const channel = (await channelsRepo(scope).listForLogger(loggerId, { includeRetired: true })).find((c) => c.key === input.channel);
+      const storedValue = channel ? ((await readingsRepo(scope).storedAt(channel.id, [ts])).get(ts) ?? null) : null;
       const roundTripMs = Math.round((performance.now() - started) * 10) / 10;
 
       const result = outcome.quarantined[0];
-      await auditIn(scope).record({
+      await auditRepo(scope).record({
         actorUserId: actor.id,
         action: 'logger.test-reading',
         targetType: 'logger',

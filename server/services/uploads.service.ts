@@ -1,7 +1,7 @@
 import type { Readable } from 'node:stream';
 import type { Db } from '../db/create-db.ts';
 import { inLab } from '../db/tenant-scope.ts';
-import { loggersIn } from '../db/loggers.repo.ts';
+import { loggersRepo } from '../db/loggers.repo.ts';
 import { NotFoundError } from '../errors.ts';
 import { ConflictError } from './service-errors.ts';
 import { importUpload, type UploadLayout, type UploadProgress, type UploadSummary } from './ingest/import-upload.ts';
@@ -17,7 +17,7 @@ export function createUploadsService(deps: { db: Db; now?: () => number; hooks?:
   return {
     /** The ingest target for a logger of this lab that can still take history. */
     async targetFor(lab: LabContext, loggerId: number): Promise<IngestTarget> {
-      const logger = await loggersIn(inLab(deps.db, lab.id)).find(loggerId);
+      const logger = await loggersRepo(inLab(deps.db, lab.id)).find(loggerId);
       if (!logger) throw new NotFoundError('No such logger in this lab.');
       if (logger.retiredAt) throw new ConflictError('logger_retired', 'This logger is retired; its history cannot be extended.');
       return { tenantId: lab.id, loggerId };

@@ -1,12 +1,12 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createDb, type Db } from '../../server/db/create-db.ts';
-import { channelReadingsIn } from '../../server/db/channel-readings.repo.ts';
+import { channelReadingsRepo } from '../../server/db/channel-readings.repo.ts';
 import { inLab } from '../../server/db/tenant-scope.ts';
 import { testConfig } from '../support/test-app.ts';
 import { buildLabWithEverything } from '../support/lab-fixture.ts';
 
 /**
- * Grid reads split into slices read concurrently (channelReadingsIn's `sliceSteps`) must give
+ * Grid reads split into slices read concurrently (channelReadingsRepo's `sliceSteps`) must give
  * exactly the cells of one read: same times, same values, nothing doubled at a cut, for the
  * one-rollup-per-cell form, the grouped form and raw readings, with a range that does not
  * start on the grid.
@@ -45,8 +45,8 @@ afterAll(async () => {
 });
 
 describe('sliced grid reads', () => {
-  const whole = () => channelReadingsIn(inLab(db, tenantId), db, { sliceSteps: Number.POSITIVE_INFINITY });
-  const sliced = () => channelReadingsIn(inLab(db, tenantId), db, { sliceSteps: 11, maxSlices: 4 });
+  const whole = () => channelReadingsRepo(inLab(db, tenantId), { sliceSteps: Number.POSITIVE_INFINITY });
+  const sliced = () => channelReadingsRepo(inLab(db, tenantId), { sliceSteps: 11, maxSlices: 4 });
   const cases: Array<[string, number, 'mean' | 'min' | 'max']> = [
     ['one rollup per cell, mean', MIN, 'mean'],
     ['one rollup per cell, max', MIN, 'max'],

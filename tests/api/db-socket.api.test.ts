@@ -2,7 +2,7 @@ import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { createDb, type Db } from '../../server/db/create-db.ts';
 import { inLab } from '../../server/db/tenant-scope.ts';
-import { readingsIn, type ReadingBatchColumns } from '../../server/db/readings.repo.ts';
+import { readingsRepo, type ReadingBatchColumns } from '../../server/db/readings.repo.ts';
 import { testConfig } from '../support/test-app.ts';
 import { buildLabWithEverything } from '../support/lab-fixture.ts';
 
@@ -27,7 +27,7 @@ describe('database over the Unix socket', () => {
 
     const { lab, ids } = await buildLabWithEverything(db);
     const rows: ReadingBatchColumns = { length: 3, channelId: new Float64Array(3).fill(ids.channelId), ts: Float64Array.of(1000, 2000, 3000), value: Float64Array.of(1.5, -2.25, 0.1) };
-    const inserted = await db.transaction((trx) => readingsIn(inLab(trx, lab.id), trx).insertNew(rows));
+    const inserted = await db.transaction((trx) => readingsRepo(inLab(trx, lab.id)).insertNew(rows));
     expect(inserted).toBe(3);
     const stored = await db('readings').where({ tenant_id: lab.id, channel_id: ids.channelId }).orderBy('ts').select('ts', 'value');
     expect(stored.map((r) => [Number(r.ts), r.value])).toEqual([

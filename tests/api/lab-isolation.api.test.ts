@@ -4,6 +4,7 @@ import { buildTestApp, type TestApp } from '../support/test-app.ts';
 import { buildMember, sessionCookieFor, type TestUser } from '../support/factories.ts';
 import { buildLabWithEverything, fillPath, rawRequestFor, validBodyFor, type LabWithEverything } from '../support/lab-fixture.ts';
 import type { LabRouteSummary } from '../../server/http/routes/route.ts';
+import { LAB_OWNED_TABLES } from '../../server/db/tenant-scope.ts';
 
 /**
  * Cross-lab isolation: an admin of lab A (the most powerful role) aims every lab route at
@@ -11,8 +12,6 @@ import type { LabRouteSummary } from '../../server/http/routes/route.ts';
  * readings with B's channel keys. Every answer must be a 404 (or a quarantine in A) that
  * carries none of B's data, and B's rows must be byte-for-byte unchanged afterwards.
  */
-const LAB_OWNED_TABLES = ['memberships', 'invitations', 'audit_events', 'loggers', 'channels', 'ingest_keys', 'readings', 'reading_rollups', 'quarantined_rows', 'personal_tokens'];
-
 let t: TestApp;
 let routes: LabRouteSummary[];
 let A: LabWithEverything;
@@ -29,7 +28,9 @@ beforeAll(async () => {
   t = await buildTestApp();
   routes = t.app.locals.labRoutes as LabRouteSummary[];
   A = await buildLabWithEverything(t.db, { name: 'Lab A' });
-  B = await buildLabWithEverything(t.db, { name: 'Secret Lab B' });
+  B = await buildLabWithEverything(t.db, { name: 'Secret Lab B', rowInEveryTable: true });
+  // every table of the byte-for-byte comparison holds something of B's to compare
+  for (const name of LAB_OWNED_TABLES) if (!(await t.db(name).where({ tenant_id: B.lab.id }).first())) throw new Error(`set-up: lab B has no row in ${name}`);
   adminA = await buildMember(t.db, A.lab, { role: 'admin' });
   await buildMember(t.db, B.lab, { role: 'scientist', email: `b-sci-${B.lab.id}@b.example`, displayName: 'B Scientist Person' });
   await t.db('loggers').where({ tenant_id: B.lab.id }).update({ name: 'B hidden logger' });

@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createDb, type Db } from '../../server/db/create-db.ts';
 import { migrateToLatest, rollbackAll } from '../../server/db/migrate.ts';
 import { testConfig } from '../support/test-app.ts';
+import { LAB_OWNED_TABLES } from '../../server/db/tenant-scope.ts';
 
 /**
  * Indexes allowed not to lead with tenant_id, each with its reason (the product brief's data rules:
@@ -67,5 +68,10 @@ describe('migrations', () => {
       .filter((r) => r.col !== 'tenant_id' && !DOCUMENTED_EXCEPTIONS.has(`${r.table}.${r.index}`))
       .map((r) => `${r.table}.${r.index} leads with ${r.col}`);
     expect(offenders).toEqual([]);
+  });
+
+  it('LAB_OWNED_TABLES (what inLab may query) is exactly the set of tables with a tenant_id column', async () => {
+    const owned: { table: string }[] = await db('information_schema.columns').where({ table_schema: scratchName, column_name: 'tenant_id' }).select('table_name as table');
+    expect([...LAB_OWNED_TABLES].sort()).toEqual(owned.map((o) => o.table).sort());
   });
 });

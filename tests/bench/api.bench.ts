@@ -20,11 +20,11 @@ import { gzipSync } from 'node:zlib';
 import { startBenchStack, type BenchStack } from './support/bench-stack.ts';
 import { onLargestPlan } from '../support/largest-plan.ts';
 import { median } from './bench-helpers.ts';
-import { createLabsRepo } from '../../server/db/labs.repo.ts';
+import { labsRepo } from '../../server/db/labs.repo.ts';
 import { createLoggersService } from '../../server/services/loggers.service.ts';
 import { inLab } from '../../server/db/tenant-scope.ts';
-import { readingsIn } from '../../server/db/readings.repo.ts';
-import { channelStateIn } from '../../server/db/channel-state.repo.ts';
+import { readingsRepo } from '../../server/db/readings.repo.ts';
+import { channelStateRepo } from '../../server/db/channel-state.repo.ts';
 import { buildUser, sessionCookieFor } from '../support/factories.ts';
 
 const MINUTE = 60_000;
@@ -74,8 +74,8 @@ async function seedYear(stack: BenchStack, tenantId: number, channelId: number):
     await stack.db.raw('INSERT INTO readings (tenant_id, channel_id, ts, value) VALUES ?', [rows] as never);
   }
   const scope = inLab(stack.db, tenantId);
-  await readingsIn(scope, stack.db).refreshRollups([channelId], times);
-  await channelStateIn(scope, stack.db).advance([{ channelId, ts: times[times.length - 1] }]);
+  await readingsRepo(scope).refreshRollups([channelId], times);
+  await channelStateRepo(scope).advance([{ channelId, ts: times[times.length - 1] }]);
   console.log(`seeded ${YEAR_MINUTES.toLocaleString('en')} one-minute readings and their rollups in ${((performance.now() - started) / 1000).toFixed(1)} s`);
 }
 
@@ -98,7 +98,7 @@ function entryChunkGzip(): void {
 async function main() {
   const stack = await startBenchStack();
   try {
-    const lab = await createLabsRepo(stack.db).insert({ slug: 'bench-channels', name: 'Bench channels' });
+    const lab = await labsRepo(stack.db).insert({ slug: 'bench-channels', name: 'Bench channels' });
     await onLargestPlan(stack.db, lab.id);
     const { logger } = await createLoggersService({ db: stack.db }).register({ ...lab, role: 'admin' }, null, {
       name: 'Roof station',

@@ -12,7 +12,7 @@
 import { performance } from 'node:perf_hooks';
 import { startBenchStack } from './support/bench-stack.ts';
 import { onLargestPlan } from '../support/largest-plan.ts';
-import { createLabsRepo } from '../../server/db/labs.repo.ts';
+import { labsRepo } from '../../server/db/labs.repo.ts';
 import { createLoggersService } from '../../server/services/loggers.service.ts';
 
 const ROWS = Number(process.env.BENCH_HOSTILE_ROWS ?? 100_000);
@@ -50,7 +50,7 @@ function report(name: string, readings: number, r: Awaited<ReturnType<typeof pos
 async function main() {
   const stack = await startBenchStack();
   try {
-    const lab = await createLabsRepo(stack.db).insert({ slug: 'bench-hostile', name: 'Bench lab' });
+    const lab = await labsRepo(stack.db).insert({ slug: 'bench-hostile', name: 'Bench lab' });
     await onLargestPlan(stack.db, lab.id);
     const service = createLoggersService({ db: stack.db });
     const { issued } = await service.register({ ...lab, role: 'admin' as const }, null, {

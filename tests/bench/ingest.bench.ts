@@ -18,7 +18,7 @@ import mysql from 'mysql2/promise';
 import { startBenchStack } from './support/bench-stack.ts';
 import { processCpuSeconds } from './support/process-cpu.ts';
 import { onLargestPlan } from '../support/largest-plan.ts';
-import { createLabsRepo } from '../../server/db/labs.repo.ts';
+import { labsRepo } from '../../server/db/labs.repo.ts';
 import { createLoggersService } from '../../server/services/loggers.service.ts';
 
 const TOTAL = Number(process.env.BENCH_READINGS ?? 1_000_000);
@@ -52,7 +52,7 @@ function rssMb(pid: number): number {
 async function main() {
   const stack = await startBenchStack();
   try {
-    const lab = await createLabsRepo(stack.db).insert({ slug: 'bench-lab', name: 'Bench lab' });
+    const lab = await labsRepo(stack.db).insert({ slug: 'bench-lab', name: 'Bench lab' });
     await onLargestPlan(stack.db, lab.id);
     const ctx = { ...lab, role: 'admin' as const };
     const service = createLoggersService({ db: stack.db });

@@ -17,11 +17,11 @@ import { performance } from 'node:perf_hooks';
 import { startBenchStack, type BenchStack } from './support/bench-stack.ts';
 import { onLargestPlan } from '../support/largest-plan.ts';
 import { median } from './bench-helpers.ts';
-import { createLabsRepo } from '../../server/db/labs.repo.ts';
+import { labsRepo } from '../../server/db/labs.repo.ts';
 import { createLoggersService } from '../../server/services/loggers.service.ts';
 import { inLab } from '../../server/db/tenant-scope.ts';
-import { readingsIn } from '../../server/db/readings.repo.ts';
-import { channelStateIn } from '../../server/db/channel-state.repo.ts';
+import { readingsRepo } from '../../server/db/readings.repo.ts';
+import { channelStateRepo } from '../../server/db/channel-state.repo.ts';
 import { buildUser, sessionCookieFor } from '../support/factories.ts';
 
 const setting = (name: string, fallback: number) => Number(process.env[name] ?? fallback);
@@ -75,8 +75,8 @@ async function seedReferenceChannel(stack: BenchStack, tenantId: number, channel
   }
   for (let i = 0; i < rows.length; i += 5000) await stack.db.raw('INSERT INTO readings (tenant_id, channel_id, ts, value) VALUES ?', [rows.slice(i, i + 5000)] as never);
   const scope = inLab(stack.db, tenantId);
-  await readingsIn(scope, stack.db).refreshRollups([channelId], rows.map((r) => r[2]));
-  await channelStateIn(scope, stack.db).advance([{ channelId, ts: rows[rows.length - 1][2] }]);
+  await readingsRepo(scope).refreshRollups([channelId], rows.map((r) => r[2]));
+  await channelStateRepo(scope).advance([{ channelId, ts: rows[rows.length - 1][2] }]);
 }
 
 function report(kind: Kind, seconds: number): void {
@@ -90,7 +90,7 @@ async function main() {
   console.log(`load: ${LOGGERS} loggers × ${BATCH} readings per batch (pause ${PAUSE_MS} ms), ${BROWSERS} people browsing (pause ${BROWSE_PAUSE_MS} ms), ${SECONDS} s, loopback only`);
   const stack = await startBenchStack();
   try {
-    const lab = await createLabsRepo(stack.db).insert({ slug: 'bench-load', name: 'Bench load' });
+    const lab = await labsRepo(stack.db).insert({ slug: 'bench-load', name: 'Bench load' });
     await onLargestPlan(stack.db, lab.id);
     const loggersService = createLoggersService({ db: stack.db });
     const labContext = { ...lab, role: 'admin' as const };

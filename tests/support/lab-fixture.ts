@@ -1,5 +1,7 @@
+import { join } from 'node:path';
 import type { Knex } from 'knex';
 import { buildLab, buildMember, type TestLab } from './factories.ts';
+import { loadPlanCatalog } from '../../server/services/billing/plan-catalog.ts';
 import { newIngestKey } from '../../server/services/ingest-key-format.ts';
 import { newPersonalToken } from '../../server/services/personal-token-format.ts';
 
@@ -8,10 +10,14 @@ const rid = () => Math.floor(Math.random() * 2 ** 40) + 1 + seq++;
 
 /**
  * A lab with one of every lab-owned thing a route can address: a guest member, a pending
- * invitation, a logger with a channel and an ingest key, a quarantined row, and a personal
- * token of the founder's. `params` maps each route parameter name to the id of that lab's thing.
+ * invitation, a logger with a channel and an ingest key, a quarantined row, a personal token of
+ * the founder's, an alert rule with a subscription and a resolved alert. `params` maps each
+ * route parameter name to the id of that lab's thing. With `rowInEveryTable`, the lab also gets
+ * a row in every other lab-owned table (readings and their rollups, an audit event, a sent alert
+ * mail, its billing row and a usage snapshot), so the isolation suite has something to compare
+ * in each table of LAB_OWNED_TABLES.
  */
-export async function buildLabWithEverything(db: Knex, overrides: Partial<{ name: string }> = {}) {
+export async function buildLabWithEverything(db: Knex, { rowInEveryTable = false, ...overrides }: Partial<{ name: string; rowInEveryTable: boolean }> = {}) {
   const lab: TestLab = await buildLab(db, overrides);
   const founder = await buildMember(db, lab, { role: 'admin' });
   const guest = await buildMember(db, lab, { role: 'guest' });
@@ -60,6 +66,7 @@ export async function buildLabWithEverything(db: Knex, overrides: Partial<{ name
   await db('alert_subscriptions').insert({ tenant_id: lab.id, rule_id: ruleId, user_id: founder.id });
   const alertId = rid();
   await db('alerts').insert({ tenant_id: lab.id, id: alertId, rule_id: ruleId, rule_name: 'Air too warm', kind: 'bounds', channel_id: channelId, opened_at: Date.now() - 3_600_000, opened_value: 31, opened_detail: '31 is above the high limit 30', resolved_at: Date.now() - 1_800_000, resolved_value: 29, resolved_detail: '29 is back within the limits', last_notified_at: Date.now() - 3_600_000 });
+  if (rowInEveryTable) await addRowToEveryOtherTable(db, lab, { founderId: founder.id, channelId, alertId });
   return {
     lab,
     founder,
@@ -72,6 +79,49 @@ export async function buildLabWithEverything(db: Knex, overrides: Partial<{ name
 }
 
 export type LabWithEverything = Awaited<ReturnType<typeof buildLabWithEverything>>;
+
+const PLANS_FILE = join(import.meta.dirname, '..', '..', 'tenants', 'plans.json');
+
+/**
+ * The lab-owned rows buildLabWithEverything does not make by default: three readings of the
+ * channel within one minute with their minute, hour and day rollups, an audit event, a sent
+ * alert mail, the billing row on the free plan (counting those readings and the quarantined
+ * row) and one usage snapshot.
+ */
+async function addRowToEveryOtherTable(db: Knex, lab: TestLab, at: { founderId: number; channelId: number; alertId: number }) {
+  const t0 = Date.UTC(2026, 0, 1, 6, 0, 0);
+  const values = [4.25, 4.5, 4.75];
+  await db('readings').insert(values.map((value, i) => ({ tenant_id: lab.id, channel_id: at.channelId, ts: t0 + i * 10_000, value })));
+  await db('reading_rollups').insert(
+    [60, 3600, 86400].map((resolution) => ({
+      tenant_id: lab.id,
+      channel_id: at.channelId,
+      resolution_s: resolution,
+      bucket_start: t0 - (t0 % (resolution * 1000)),
+      min_value: 4.25,
+      max_value: 4.75,
+      sum_value: 13.5,
+      count_value: 3,
+    })),
+  );
+  await db('audit_events').insert({ tenant_id: lab.id, id: rid(), actor_user_id: at.founderId, action: 'logger.created', target_type: 'logger', summary: 'Fixture: the logger was registered' });
+  await db('notification_outbox').insert({
+    tenant_id: lab.id,
+    id: rid(),
+    alert_id: at.alertId,
+    user_id: at.founderId,
+    kind: 'opened',
+    sequence: 0,
+    to_address: `founder-${lab.id}@lab.example`,
+    subject: 'Air too warm',
+    body_text: 'Air too warm: 31 is above the high limit 30.',
+    body_html: '',
+    next_attempt_at: t0,
+    sent_at: t0,
+  });
+  await db('lab_billing').insert({ tenant_id: lab.id, plan_key: loadPlanCatalog(PLANS_FILE).free.key, readings_count: values.length, quarantined_count: 1 });
+  await db('usage_snapshots').insert({ tenant_id: lab.id, day: '2026-01-01', readings: values.length, loggers: 1, members: 2 });
+}
 
 /** A route path with its parameters filled from `params`. */
 export function fillPath(path: string, params: Record<string, number>): string {

@@ -1,7 +1,7 @@
 import { join } from 'node:path';
 import type { Db } from '../../server/db/create-db.ts';
 import { loadPlanCatalog } from '../../server/services/billing/plan-catalog.ts';
-import { labBillingIn } from '../../server/db/lab-billing.repo.ts';
+import { labBillingRepo } from '../../server/db/lab-billing.repo.ts';
 import { inLab } from '../../server/db/tenant-scope.ts';
 
 const CATALOG = join(import.meta.dirname, '..', '..', 'tenants', 'plans.json');
@@ -14,5 +14,5 @@ const CATALOG = join(import.meta.dirname, '..', '..', 'tenants', 'plans.json');
 export async function onLargestPlan(db: Db, tenantId: number): Promise<void> {
   const catalog = loadPlanCatalog(CATALOG);
   const largest = [...catalog.plans].sort((a, b) => b.limits.readings - a.limits.readings)[0];
-  await labBillingIn(inLab(db, tenantId), db, catalog.free.key).patch({ planKey: largest.key, status: 'active' });
+  await labBillingRepo(inLab(db, tenantId)).patch({ planKey: largest.key, status: 'active' }, catalog.free.key);
 }

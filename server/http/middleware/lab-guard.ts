@@ -1,6 +1,6 @@
 import type { Request, RequestHandler, Response } from 'express';
 import type { Db } from '../../db/create-db.ts';
-import { createLabsRepo } from '../../db/labs.repo.ts';
+import { crossLabRepo } from '../../db/cross-lab.repo.ts';
 import { can, type Permission } from '../../policies/permissions.ts';
 import { AppError, ForbiddenError, NotFoundError, UnauthenticatedError } from '../../errors.ts';
 import type { PersonalTokenHolder, PersonalTokensService } from '../../services/personal-tokens.service.ts';
@@ -35,7 +35,7 @@ const PERSONAL_TOKEN_HEADER = /^Bearer\s+(lbt_\S*)$/i;
  * CURRENT role is the one checked, so a token never grants more than its owner has now.
  */
 export function createLabGuard(db: Db, deps: { tokens?: PersonalTokensService } = {}) {
-  const labs = createLabsRepo(db);
+  const crossLab = crossLabRepo(db);
 
   /** The person acting: the session's user, or the owner of a personal token (with the token). */
   async function callerOf(req: Request, permission: Permission): Promise<{ userId: number; token: PersonalTokenHolder | null }> {
@@ -53,7 +53,7 @@ export function createLabGuard(db: Db, deps: { tokens?: PersonalTokensService } 
       const slug = String(req.params.lab ?? '');
       // One statement whether the lab is someone else's or does not exist: both come back empty.
       // (A slug no lab can have — wrong characters or length — is not looked up: that tells nothing about any lab.)
-      const found = /^[a-z0-9-]{1,64}$/.test(slug) ? await labs.findForMember(slug, caller.userId) : null;
+      const found = /^[a-z0-9-]{1,64}$/.test(slug) ? await crossLab.labForMember(slug, caller.userId) : null;
       if (!found || (caller.token && caller.token.tenantId !== found.id)) throw new NotFoundError(NO_SUCH_LAB);
       const { role, ...lab } = found;
       if (!can(role, permission)) throw new ForbiddenError();

@@ -1,9 +1,9 @@
 import type { Db } from '../../db/create-db.ts';
 import { inLab } from '../../db/tenant-scope.ts';
-import { alertRulesIn } from '../../db/alert-rules.repo.ts';
-import { alertsIn } from '../../db/alerts.repo.ts';
-import { labForMail } from '../../db/alert-readings.repo.ts';
-import { labsWithAlertWork } from '../../db/notification-outbox.repo.ts';
+import { alertRulesRepo } from '../../db/alert-rules.repo.ts';
+import { alertsRepo } from '../../db/alerts.repo.ts';
+import { labsRepo } from '../../db/labs.repo.ts';
+import { crossLabRepo } from '../../db/cross-lab.repo.ts';
 import type { Mailer } from '../../integrations/mail/create-mailer.ts';
 import type { Logger } from '../../logger.ts';
 import { queueAlertMail } from './alert-notifications.ts';
@@ -50,16 +50,16 @@ export function createAlertEvaluator(deps: AlertEvaluatorDeps) {
   const waitS = deps.lockWaitS ?? 10;
 
   async function context(tenantId: number, now: number): Promise<EvaluationContext | null> {
-    const lab = await labForMail(deps.db, tenantId);
+    const lab = await labsRepo(deps.db).findById(tenantId);
     return lab ? { db: deps.db, tenantId, lab, publicUrl: deps.publicUrl, now, beforeCommit: deps.beforeRuleCommit } : null;
   }
 
   /** Queues reminders for a lab's open, unacknowledged alerts whose delay has passed since their last mail. */
   async function remind(ctx: EvaluationContext): Promise<number> {
     const scope = inLab(deps.db, ctx.tenantId);
-    const rules = new Map((await alertRulesIn(scope).list()).map((r) => [r.id, r]));
+    const rules = new Map((await alertRulesRepo(scope).list()).map((r) => [r.id, r]));
     let count = 0;
-    for (const alert of await alertsIn(scope).openAlerts()) {
+    for (const alert of await alertsRepo(scope).openAlerts()) {
       const rule = rules.get(alert.ruleId);
       const delayMin = rule?.reminderAfterMin ?? deps.reminderAfterMin;
       if (!rule || !rule.enabled || alert.acknowledgedAt || delayMin <= 0 || ctx.now - alert.lastNotifiedAt < delayMin * 60_000) continue;
@@ -67,7 +67,7 @@ export function createAlertEvaluator(deps: AlertEvaluatorDeps) {
       if (!target) continue;
       await deps.db.transaction(async (trx) => {
         const trxScope = inLab(trx, ctx.tenantId);
-        if (!(await alertsIn(trxScope).countReminder(alert.id, alert.remindersSent, ctx.now))) return;
+        if (!(await alertsRepo(trxScope).countReminder(alert.id, alert.remindersSent, ctx.now))) return;
         const value = target.channelId === null ? null : alert.openedValue;
         await queueAlertMail(trxScope, { lab: ctx.lab, publicUrl: ctx.publicUrl, rule, target, alert, kind: 'reminder', sequence: alert.remindersSent + 1, at: ctx.now, now: ctx.now, value, detail: `still open; when it opened: ${alert.openedDetail}` });
         count++;
@@ -82,7 +82,7 @@ export function createAlertEvaluator(deps: AlertEvaluatorDeps) {
     if (!ctx) return EMPTY;
     const totals = { ...EMPTY };
     const scope = inLab(deps.db, tenantId);
-    const rules = channelIds ? await alertRulesIn(scope).enabledForChannels(channelIds) : await alertRulesIn(scope).listEnabled();
+    const rules = channelIds ? await alertRulesRepo(scope).enabledForChannels(channelIds) : await alertRulesRepo(scope).listEnabled();
     for (const rule of rules) {
       if (rule.kind === 'silence' && channelIds) continue;
       const c = rule.kind === 'silence' ? await evaluateSilenceRule(ctx, rule.id) : await evaluateValueRule(ctx, rule.id);
@@ -113,7 +113,7 @@ export function createAlertEvaluator(deps: AlertEvaluatorDeps) {
     async runOnce(now: number): Promise<EvaluationSummary> {
       const r = await withEvaluatorLock(deps.db, waitS, async () => {
         let totals = { ...EMPTY };
-        for (const tenantId of await labsWithAlertWork(deps.db)) totals = add(totals, await evaluateLabSafely(tenantId, now));
+        for (const tenantId of await crossLabRepo(deps.db).labsWithAlertWork()) totals = add(totals, await evaluateLabSafely(tenantId, now));
         return totals;
       });
       return r.ran ? { ran: true, ...r.result } : { ran: false, ...EMPTY };

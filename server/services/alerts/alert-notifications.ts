@@ -1,6 +1,6 @@
 import type { LabScope } from '../../db/tenant-scope.ts';
-import { alertRulesIn } from '../../db/alert-rules.repo.ts';
-import { outboxIn, type NotificationKind } from '../../db/notification-outbox.repo.ts';
+import { alertRulesRepo } from '../../db/alert-rules.repo.ts';
+import { outboxRepo, type NotificationKind } from '../../db/notification-outbox.repo.ts';
 import type { WatchedTarget } from '../../db/alert-readings.repo.ts';
 import { alertMail, channelLinkAt } from '../mail/alert-mail.ts';
 import { formatValue } from './rules/rule-step.ts';
@@ -26,14 +26,14 @@ export interface NotificationSubject {
  * (so the event and its mail commit together or not at all).
  */
 export async function queueAlertMail(scope: LabScope, n: NotificationSubject): Promise<void> {
-  const recipients = await alertRulesIn(scope).recipients(n.rule.id);
+  const recipients = await alertRulesRepo(scope).recipients(n.rule.id);
   const watched = n.target.channelId === null ? n.target.label : `${n.target.loggerName} · ${n.target.label}`;
   const link =
     n.target.channelId === null
       ? `${n.publicUrl}/labs/${encodeURIComponent(n.lab.slug)}/alerts`
       : channelLinkAt(n.publicUrl, n.lab.slug, n.target.channelId, n.alert.openedAt, n.kind === 'resolved' ? n.at : undefined);
   const reading = n.value === null ? null : `${formatValue(n.value)}${n.target.unit ? ` ${n.target.unit}` : ''}`;
-  await outboxIn(scope).enqueue(
+  await outboxRepo(scope).enqueue(
     recipients.map((r) => {
       const mail = alertMail({ to: r.email, labName: n.lab.name, kind: n.kind, sequence: n.sequence, ruleName: n.rule.name, watched, reading, at: n.at, detail: n.detail, openedAt: n.alert.openedAt, link, timeZone: n.target.timezone, readerTimeZone: r.timeZone });
       return { alertId: n.alert.id, userId: r.userId, kind: n.kind, sequence: n.sequence, to: r.email, subject: mail.subject, text: mail.text, html: mail.html ?? '' };

@@ -1,11 +1,11 @@
 import type { Db } from '../../db/create-db.ts';
 import { inLab, type LabScope } from '../../db/tenant-scope.ts';
-import { alertRulesIn, type AlertRule } from '../../db/alert-rules.repo.ts';
-import { alertsIn } from '../../db/alerts.repo.ts';
-import { alertReadingsIn } from '../../db/alert-readings.repo.ts';
-import { channelsIn } from '../../db/channels.repo.ts';
-import { loggersIn } from '../../db/loggers.repo.ts';
-import { auditIn } from '../../db/audit.repo.ts';
+import { alertRulesRepo, type AlertRule } from '../../db/alert-rules.repo.ts';
+import { alertsRepo } from '../../db/alerts.repo.ts';
+import { alertReadingsRepo } from '../../db/alert-readings.repo.ts';
+import { channelsRepo } from '../../db/channels.repo.ts';
+import { loggersRepo } from '../../db/loggers.repo.ts';
+import { auditRepo } from '../../db/audit.repo.ts';
 import { NotFoundError } from '../../errors.ts';
 import { PARAMS_SCHEMAS, type CreateAlertRuleInput, type UpdateAlertRuleInput } from '../../contract/alerts.ts';
 import type { Actor, LabContext } from '../lab-context.ts';
@@ -38,15 +38,15 @@ export function createAlertRulesService(deps: { db: Db; now?: () => number }) {
   const now = deps.now ?? Date.now;
 
   async function find(scope: LabScope, ruleId: number, forUpdate = false): Promise<AlertRule> {
-    const rule = await alertRulesIn(scope).find(ruleId, { forUpdate });
+    const rule = await alertRulesRepo(scope).find(ruleId, { forUpdate });
     if (!rule) throw new NotFoundError(NO_RULE);
     return rule;
   }
 
   async function views(scope: LabScope, rules: AlertRule[], viewerId: number): Promise<AlertRuleView[]> {
-    const subscribed = await alertRulesIn(scope).subscribedRuleIds(viewerId);
-    const open = new Map((await alertsIn(scope).openAlerts()).map((a) => [a.ruleId, a.id]));
-    const reads = alertReadingsIn(scope);
+    const subscribed = await alertRulesRepo(scope).subscribedRuleIds(viewerId);
+    const open = new Map((await alertsRepo(scope).openAlerts()).map((a) => [a.ruleId, a.id]));
+    const reads = alertReadingsRepo(scope);
     const out: AlertRuleView[] = [];
     for (const { cursor: _cursor, ...rule } of rules) {
       const t = rule.channelId !== null ? await reads.channelTarget(rule.channelId) : await reads.loggerTarget(rule.loggerId!);
@@ -64,7 +64,7 @@ export function createAlertRulesService(deps: { db: Db; now?: () => number }) {
     /** Every rule of the lab, with whether the viewer is subscribed. */
     async list(lab: LabContext, viewer: Pick<Actor, 'id'>): Promise<AlertRuleView[]> {
       const scope = inLab(deps.db, lab.id);
-      return views(scope, await alertRulesIn(scope).list(), viewer.id);
+      return views(scope, await alertRulesRepo(scope).list(), viewer.id);
     },
 
     /** Makes a rule on a channel (or, for silence, a logger) of this lab; its maker is subscribed. */
@@ -73,16 +73,16 @@ export function createAlertRulesService(deps: { db: Db; now?: () => number }) {
         const scope = inLab(trx, lab.id);
         let cursorTs: number | null = null;
         if (input.channelId !== undefined) {
-          const channel = await channelsIn(scope).find(input.channelId);
+          const channel = await channelsRepo(scope).find(input.channelId);
           if (!channel || channel.retiredAt) throw new NotFoundError('No such channel in this lab.');
-          const target = (await alertReadingsIn(scope).channelTarget(input.channelId))!;
+          const target = (await alertReadingsRepo(scope).channelTarget(input.channelId))!;
           cursorTs = target.lastReadingTs;
           if (input.kind === 'unusual') checkUnusualFits(input.params.periodH, input.params.historyCycles, target.expectedIntervalS);
         } else {
-          const logger = 'loggerId' in input && input.loggerId !== undefined ? await loggersIn(scope).find(input.loggerId) : null;
+          const logger = 'loggerId' in input && input.loggerId !== undefined ? await loggersRepo(scope).find(input.loggerId) : null;
           if (!logger || logger.retiredAt) throw new NotFoundError('No such logger in this lab.');
         }
-        const ruleId = await alertRulesIn(scope).insert({
+        const ruleId = await alertRulesRepo(scope).insert({
           name: input.name,
           kind: input.kind,
           channelId: input.channelId ?? null,
@@ -94,8 +94,8 @@ export function createAlertRulesService(deps: { db: Db; now?: () => number }) {
           watchingSince: now(),
           cursorTs,
         });
-        await alertRulesIn(scope).subscribe(ruleId, actor.id);
-        await auditIn(scope).record({ actorUserId: actor.id, action: 'alert-rule.created', targetType: 'alert-rule', targetId: ruleId, summary: `${actor.displayName} made the ${input.kind} alert rule "${input.name}"`, details: { kind: input.kind, params: input.params } });
+        await alertRulesRepo(scope).subscribe(ruleId, actor.id);
+        await auditRepo(scope).record({ actorUserId: actor.id, action: 'alert-rule.created', targetType: 'alert-rule', targetId: ruleId, summary: `${actor.displayName} made the ${input.kind} alert rule "${input.name}"`, details: { kind: input.kind, params: input.params } });
         return ruleId;
       });
       const scope = inLab(deps.db, lab.id);
@@ -109,18 +109,18 @@ export function createAlertRulesService(deps: { db: Db; now?: () => number }) {
         const rule = await find(scope, ruleId, true);
         const params = input.params === undefined ? undefined : (parseRuleInput(PARAMS_SCHEMAS[rule.kind], input.params, 'params') as Record<string, unknown>);
         if (params && rule.kind === 'unusual' && rule.channelId !== null) {
-          const t = await alertReadingsIn(scope).channelTarget(rule.channelId);
+          const t = await alertReadingsRepo(scope).channelTarget(rule.channelId);
           if (t) checkUnusualFits(Number(params.periodH), Number(params.historyCycles), t.expectedIntervalS);
         }
-        const repo = alertRulesIn(scope);
+        const repo = alertRulesRepo(scope);
         await repo.update(ruleId, { name: input.name, params, reminderAfterMin: input.reminderAfterMin, enabled: input.enabled }, new Date(now()));
         if (params) await repo.resetMemory(ruleId);
-        if (input.enabled === false && rule.enabled) await alertsIn(scope).closeForDeletedRule(ruleId, now());
+        if (input.enabled === false && rule.enabled) await alertsRepo(scope).closeForDeletedRule(ruleId, now());
         if (input.enabled === true && !rule.enabled) {
-          const t = rule.channelId !== null ? await alertReadingsIn(scope).channelTarget(rule.channelId) : null;
+          const t = rule.channelId !== null ? await alertReadingsRepo(scope).channelTarget(rule.channelId) : null;
           await repo.restart(ruleId, t?.lastReadingTs ?? null, now());
         }
-        await auditIn(scope).record({ actorUserId: actor.id, action: 'alert-rule.updated', targetType: 'alert-rule', targetId: ruleId, summary: `${actor.displayName} changed the alert rule "${input.name ?? rule.name}"`, details: { ...input } });
+        await auditRepo(scope).record({ actorUserId: actor.id, action: 'alert-rule.updated', targetType: 'alert-rule', targetId: ruleId, summary: `${actor.displayName} changed the alert rule "${input.name ?? rule.name}"`, details: { ...input } });
       });
       const scope = inLab(deps.db, lab.id);
       return (await views(scope, [await find(scope, ruleId)], actor.id))[0];
@@ -131,9 +131,9 @@ export function createAlertRulesService(deps: { db: Db; now?: () => number }) {
       await deps.db.transaction(async (trx) => {
         const scope = inLab(trx, lab.id);
         const rule = await find(scope, ruleId, true);
-        await alertsIn(scope).closeForDeletedRule(ruleId, now());
-        await alertRulesIn(scope).remove(ruleId);
-        await auditIn(scope).record({ actorUserId: actor.id, action: 'alert-rule.deleted', targetType: 'alert-rule', targetId: ruleId, summary: `${actor.displayName} deleted the alert rule "${rule.name}"` });
+        await alertsRepo(scope).closeForDeletedRule(ruleId, now());
+        await alertRulesRepo(scope).remove(ruleId);
+        await auditRepo(scope).record({ actorUserId: actor.id, action: 'alert-rule.deleted', targetType: 'alert-rule', targetId: ruleId, summary: `${actor.displayName} deleted the alert rule "${rule.name}"` });
       });
     },
 
@@ -141,31 +141,31 @@ export function createAlertRulesService(deps: { db: Db; now?: () => number }) {
     async setSubscribed(lab: LabContext, actor: Pick<Actor, 'id'>, ruleId: number, on: boolean): Promise<void> {
       const scope = inLab(deps.db, lab.id);
       await find(scope, ruleId);
-      if (on) await alertRulesIn(scope).subscribe(ruleId, actor.id);
-      else await alertRulesIn(scope).unsubscribe(ruleId, actor.id);
+      if (on) await alertRulesRepo(scope).subscribe(ruleId, actor.id);
+      else await alertRulesRepo(scope).unsubscribe(ruleId, actor.id);
     },
 
     /** Open alerts, or all opened in the last `days` days plus any still open (newest first, at most 500). */
     async alerts(lab: LabContext, q: { status: 'open' | 'all'; days: number; channelId?: number }) {
-      return alertsIn(inLab(deps.db, lab.id)).list({ openOnly: q.status === 'open', since: now() - q.days * 86_400_000, channelId: q.channelId, limit: 500 });
+      return alertsRepo(inLab(deps.db, lab.id)).list({ openOnly: q.status === 'open', since: now() - q.days * 86_400_000, channelId: q.channelId, limit: 500 });
     },
 
     /** A channel's alerts overlapping [from, to), for the bands on its chart. */
     async channelAlerts(lab: LabContext, channelId: number, from: number, to: number) {
       const scope = inLab(deps.db, lab.id);
-      if (!(await channelsIn(scope).find(channelId))) throw new NotFoundError('No such channel in this lab.');
-      return alertsIn(scope).overlapping(channelId, from, to);
+      if (!(await channelsRepo(scope).find(channelId))) throw new NotFoundError('No such channel in this lab.');
+      return alertsRepo(scope).overlapping(channelId, from, to);
     },
 
     /** Acknowledges an alert with a note (someone is on it): no more reminders; the resolution is still mailed. */
     async acknowledge(lab: LabContext, actor: Actor, alertId: number, note: string) {
       return deps.db.transaction(async (trx) => {
         const scope = inLab(trx, lab.id);
-        const alert = await alertsIn(scope).find(alertId);
+        const alert = await alertsRepo(scope).find(alertId);
         if (!alert) throw new NotFoundError('No such alert in this lab.');
-        await alertsIn(scope).acknowledge(alertId, actor.id, note, new Date(now()));
-        await auditIn(scope).record({ actorUserId: actor.id, action: 'alert.acknowledged', targetType: 'alert', targetId: alertId, summary: `${actor.displayName} acknowledged the alert of "${alert.ruleName}"${note ? `: ${note}` : ''}` });
-        return (await alertsIn(scope).find(alertId))!;
+        await alertsRepo(scope).acknowledge(alertId, actor.id, note, new Date(now()));
+        await auditRepo(scope).record({ actorUserId: actor.id, action: 'alert.acknowledged', targetType: 'alert', targetId: alertId, summary: `${actor.displayName} acknowledged the alert of "${alert.ruleName}"${note ? `: ${note}` : ''}` });
+        return (await alertsRepo(scope).find(alertId))!;
       });
     },
   };

@@ -1,6 +1,6 @@
 import type { Db } from '../../db/create-db.ts';
 import { inLab } from '../../db/tenant-scope.ts';
-import { outboxIn } from '../../db/notification-outbox.repo.ts';
+import { outboxRepo } from '../../db/notification-outbox.repo.ts';
 import type { Mailer } from '../../integrations/mail/create-mailer.ts';
 import type { Logger } from '../../logger.ts';
 import { retryDelayMs } from './retry-delay.ts';
@@ -23,7 +23,7 @@ export interface SendSummary {
  * way to make the hand-over and the mark one step.
  */
 export async function sendDueMail(deps: { db: Db; mailer: Mailer; logger: Logger }, tenantId: number, now: number, limit = 100): Promise<SendSummary> {
-  const outbox = outboxIn(inLab(deps.db, tenantId));
+  const outbox = outboxRepo(inLab(deps.db, tenantId));
   const summary: SendSummary = { sent: 0, failed: 0 };
   for (const message of await outbox.due(now, limit)) {
     if (!(await outbox.claim(message.id, now, now + CLAIM_MS))) continue;

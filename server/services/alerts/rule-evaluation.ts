@@ -1,9 +1,9 @@
 import type { Db } from '../../db/create-db.ts';
 import { inLab, type LabScope } from '../../db/tenant-scope.ts';
-import { alertRulesIn, type AlertRule } from '../../db/alert-rules.repo.ts';
-import { alertsIn } from '../../db/alerts.repo.ts';
-import { alertReadingsIn, type WatchedTarget } from '../../db/alert-readings.repo.ts';
-import { channelReadingsIn } from '../../db/channel-readings.repo.ts';
+import { alertRulesRepo, type AlertRule } from '../../db/alert-rules.repo.ts';
+import { alertsRepo } from '../../db/alerts.repo.ts';
+import { alertReadingsRepo, type WatchedTarget } from '../../db/alert-readings.repo.ts';
+import { channelReadingsRepo } from '../../db/channel-readings.repo.ts';
 import type { AlertRuleParams } from '../../contract/alerts.ts';
 import { queueAlertMail } from './alert-notifications.ts';
 import { evaluateBounds } from './rules/bounds-rule.ts';
@@ -39,7 +39,7 @@ export interface EvaluationCounts {
  * caller's transaction. Returns the counts.
  */
 async function applyTransitions(ctx: EvaluationContext, scope: LabScope, rule: AlertRule, target: WatchedTarget, transitions: RuleTransition[]): Promise<EvaluationCounts> {
-  const alerts = alertsIn(scope);
+  const alerts = alertsRepo(scope);
   let current = await alerts.openForRule(rule.id);
   const counts = { opened: 0, resolved: 0 };
   for (const t of transitions) {
@@ -75,7 +75,7 @@ async function stepValueRule(ctx: EvaluationContext, rule: AlertRule, target: Wa
   let scores = null;
   if (periodSteps >= 2 && span <= MAX_BASELINE_CELLS) {
     const first = readings[0].ts;
-    const history = await channelReadingsIn(inLab(ctx.db, ctx.tenantId), ctx.db).range(target.channelId!, first - span * stepMs, first);
+    const history = await channelReadingsRepo(inLab(ctx.db, ctx.tenantId)).range(target.channelId!, first - span * stepMs, first);
     scores = unusualScores({ ts: history.ts, values: history.values }, readings, stepMs, periodSteps);
   }
   return evaluateUnusualReading(params, scores, memory, readings);
@@ -93,17 +93,17 @@ export async function evaluateValueRule(ctx: EvaluationContext, ruleId: number):
   for (let chunk = 0; chunk < 100; chunk++) {
     const more = await ctx.db.transaction(async (trx) => {
       const scope = inLab(trx, ctx.tenantId);
-      const rule = await alertRulesIn(scope).find(ruleId, { forUpdate: true });
+      const rule = await alertRulesRepo(scope).find(ruleId, { forUpdate: true });
       if (!rule || !rule.enabled || rule.kind === 'silence' || rule.channelId === null) return false;
-      const target = await alertReadingsIn(scope).channelTarget(rule.channelId);
+      const target = await alertReadingsRepo(scope).channelTarget(rule.channelId);
       if (!target) return false;
       const from = rule.cursor.cursorTs === null ? Number.MIN_SAFE_INTEGER : rule.cursor.cursorTs + 1;
-      const readings = toReadings(await channelReadingsIn(inLab(ctx.db, ctx.tenantId), ctx.db).range(rule.channelId, from, Number.MAX_SAFE_INTEGER, READINGS_PER_CHUNK));
+      const readings = toReadings(await channelReadingsRepo(inLab(ctx.db, ctx.tenantId)).range(rule.channelId, from, Number.MAX_SAFE_INTEGER, READINGS_PER_CHUNK));
       if (readings.length === 0) return false;
-      const open = (await alertsIn(scope).openForRule(rule.id)) !== null;
+      const open = (await alertsRepo(scope).openForRule(rule.id)) !== null;
       const step = await stepValueRule(ctx, rule, target, { pendingSince: rule.cursor.pendingSince, previous: rule.cursor.previous, open }, readings);
       const counts = await applyTransitions(ctx, scope, rule, target, step.transitions);
-      await alertRulesIn(scope).saveCursor(rule.id, { cursorTs: readings[readings.length - 1].ts, pendingSince: step.memory.pendingSince, previous: step.memory.previous });
+      await alertRulesRepo(scope).saveCursor(rule.id, { cursorTs: readings[readings.length - 1].ts, pendingSince: step.memory.pendingSince, previous: step.memory.previous });
       ctx.beforeCommit?.(rule.id);
       total.opened += counts.opened;
       total.resolved += counts.resolved;
@@ -118,12 +118,12 @@ export async function evaluateValueRule(ctx: EvaluationContext, ruleId: number):
 export async function evaluateSilenceRule(ctx: EvaluationContext, ruleId: number): Promise<EvaluationCounts> {
   return ctx.db.transaction(async (trx) => {
     const scope = inLab(trx, ctx.tenantId);
-    const rule = await alertRulesIn(scope).find(ruleId, { forUpdate: true });
+    const rule = await alertRulesRepo(scope).find(ruleId, { forUpdate: true });
     if (!rule || !rule.enabled || rule.kind !== 'silence') return { opened: 0, resolved: 0 };
-    const reads = alertReadingsIn(scope);
+    const reads = alertReadingsRepo(scope);
     const target = rule.channelId !== null ? await reads.channelTarget(rule.channelId) : await reads.loggerTarget(rule.loggerId!);
     if (!target) return { opened: 0, resolved: 0 };
-    const open = (await alertsIn(scope).openForRule(rule.id)) !== null;
+    const open = (await alertsRepo(scope).openForRule(rule.id)) !== null;
     const { factor } = rule.params as AlertRuleParams['silence'];
     const r = evaluateSilence({ lastReadingTs: target.lastReadingTs, watchingSince: rule.watchingSince, expectedIntervalS: target.expectedIntervalS, factor, open, now: ctx.now });
     const counts = r.transition ? await applyTransitions(ctx, scope, rule, target, [r.transition]) : { opened: 0, resolved: 0 };
@@ -134,6 +134,6 @@ export async function evaluateSilenceRule(ctx: EvaluationContext, ruleId: number
 
 /** The watched target of a rule (for reminder mail), outside any transaction. */
 export async function targetOf(scope: LabScope, rule: AlertRule): Promise<WatchedTarget | null> {
-  const reads = alertReadingsIn(scope);
+  const reads = alertReadingsRepo(scope);
   return rule.channelId !== null ? reads.channelTarget(rule.channelId) : reads.loggerTarget(rule.loggerId!);
 }

@@ -1,9 +1,9 @@
 import type Stripe from 'stripe';
 import type { Db } from '../../db/create-db.ts';
 import { inLab } from '../../db/tenant-scope.ts';
-import { labBillingIn, type BillingStatus } from '../../db/lab-billing.repo.ts';
-import { usageIn, type UsageCounts, type UsageSnapshot } from '../../db/usage.repo.ts';
-import { auditIn } from '../../db/audit.repo.ts';
+import { labBillingRepo, type BillingStatus } from '../../db/lab-billing.repo.ts';
+import { usageRepo, type UsageCounts, type UsageSnapshot } from '../../db/usage.repo.ts';
+import { auditRepo } from '../../db/audit.repo.ts';
 import { ValidationError } from '../../errors.ts';
 import { ConflictError } from '../service-errors.ts';
 import type { Actor, LabContext } from '../lab-context.ts';
@@ -71,21 +71,21 @@ async function callStripe<T>(call: () => Promise<T>): Promise<T> {
 export function createBillingService(deps: { db: Db; stripe: Stripe; catalog: PlanCatalog; publicUrl: string; now?: () => Date }) {
   const { db, stripe, catalog } = deps;
   const now = deps.now ?? (() => new Date());
-  const billingOf = (labId: number) => labBillingIn(inLab(db, labId), db, catalog.free.key);
+  const billingOf = (labId: number) => labBillingRepo(inLab(db, labId));
   const pageUrl = (lab: LabContext) => `${deps.publicUrl}/labs/${encodeURIComponent(lab.slug)}/billing`;
 
   /** The lab's Stripe customer, created (with the lab id in its metadata) the first time. */
   async function customerFor(lab: LabContext, actor: Actor): Promise<string> {
-    const row = await billingOf(lab.id).getOrCreate();
+    const row = await billingOf(lab.id).getOrCreate(catalog.free.key);
     if (row.stripeCustomerId) return row.stripeCustomerId;
     const customer = await callStripe(() => stripe.customers.create({ name: lab.name, email: actor.email, metadata: { lab_id: String(lab.id), lab_slug: lab.slug } }));
-    await billingOf(lab.id).patch({ stripeCustomerId: customer.id });
+    await billingOf(lab.id).patch({ stripeCustomerId: customer.id }, catalog.free.key);
     return customer.id;
   }
 
   /** What the lab uses against each limit: the stored-readings counter given, loggers and seats counted. */
   async function usageCounts(labId: number, readings: number, at: Date): Promise<UsageCounts> {
-    const usage = usageIn(inLab(db, labId));
+    const usage = usageRepo(inLab(db, labId));
     return { readings, loggers: await usage.activeLoggers(), members: await usage.seatsTaken(at) };
   }
 
@@ -105,7 +105,7 @@ export function createBillingService(deps: { db: Db; stripe: Stripe; catalog: Pl
       const at = now();
       const row = await billingOf(lab.id).get();
       const plan = effectivePlan(row, catalog, at);
-      const usage = usageIn(inLab(db, lab.id));
+      const usage = usageRepo(inLab(db, lab.id));
       const counts = await usageCounts(lab.id, row?.readingsCount ?? 0, at);
       const since = new Date(at.getTime() - (TREND_DAYS - 1) * 86_400_000).toISOString().slice(0, 10);
       return {
@@ -145,7 +145,7 @@ export function createBillingService(deps: { db: Db; stripe: Stripe; catalog: Pl
       const plan = catalog.byKey(planKey);
       if (!plan) throw new ValidationError(`plan: no plan "${planKey}" in the catalog`);
       if (!plan.priceLookupKey) throw new ValidationError('plan: the free plan needs no checkout; cancel the subscription in the billing portal instead');
-      const row = await billingOf(lab.id).getOrCreate();
+      const row = await billingOf(lab.id).getOrCreate(catalog.free.key);
       if (row.stripeSubscriptionId && (row.status === 'active' || row.status === 'past_due')) {
         throw new ConflictError('subscription_exists', 'The lab already has a subscription: switch to another plan, or cancel it under "Manage payment".');
       }
@@ -165,7 +165,7 @@ export function createBillingService(deps: { db: Db; stripe: Stripe; catalog: Pl
         }),
       );
       if (!session.url) throw new BillingUnavailableError();
-      await auditIn(inLab(db, lab.id)).record({
+      await auditRepo(inLab(db, lab.id)).record({
         actorUserId: actor.id,
         action: 'billing.checkout-started',
         targetType: 'lab',
@@ -213,7 +213,7 @@ export function createBillingService(deps: { db: Db; stripe: Stripe; catalog: Pl
         }),
       );
       const from = catalog.byKey(row.planKey)?.name ?? row.planKey;
-      await auditIn(inLab(db, lab.id)).record({
+      await auditRepo(inLab(db, lab.id)).record({
         actorUserId: actor.id,
         action: 'billing.plan-change-requested',
         targetType: 'lab',

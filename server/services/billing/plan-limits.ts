@@ -1,7 +1,7 @@
 import type { Db } from '../../db/create-db.ts';
 import { inLab, type DbOrTrx } from '../../db/tenant-scope.ts';
-import { labBillingIn } from '../../db/lab-billing.repo.ts';
-import { usageIn } from '../../db/usage.repo.ts';
+import { labBillingRepo } from '../../db/lab-billing.repo.ts';
+import { usageRepo } from '../../db/usage.repo.ts';
 import type { Logger } from '../../logger.ts';
 import type { IngestHooks, StoredBatch } from '../ingest/ingest-hooks.ts';
 import { effectivePlan } from './effective-plan.ts';
@@ -37,7 +37,7 @@ export interface PlanLimitGuard {
 export function createPlanLimits(deps: { db: Db; catalog: PlanCatalog; logger: Logger; now?: () => Date }): PlanLimitGuard {
   const { catalog } = deps;
   const now = deps.now ?? (() => new Date());
-  const billingOf = (trx: DbOrTrx, labId: number) => labBillingIn(inLab(trx, labId), trx, catalog.free.key);
+  const billingOf = (trx: DbOrTrx, labId: number) => labBillingRepo(inLab(trx, labId));
 
   async function planOf(trx: DbOrTrx, labId: number): Promise<Plan> {
     return effectivePlan(await billingOf(trx, labId).get(), catalog, now());
@@ -64,13 +64,14 @@ export function createPlanLimits(deps: { db: Db; catalog: PlanCatalog; logger: L
         const fits = await billingOf(trx, batch.target.tenantId).reserveBatch(
           { readings: batch.accepted, quarantined: batch.quarantined, quarantineFreed: batch.replacesQuarantined ?? 0 },
           plan.limits,
+          catalog.free.key,
         );
         if (!fits) throw await refusal(trx, batch);
       },
     },
     async assertRoomFor(trx, labId, what) {
       const plan = await planOf(trx, labId);
-      const usage = usageIn(inLab(trx, labId));
+      const usage = usageRepo(inLab(trx, labId));
       const used = what === 'loggers' ? await usage.activeLoggers() : await usage.seatsTaken(now());
       if (used + 1 > plan.limits[what]) throw new PlanLimitError(what, { planName: plan.name, allowed: plan.limits[what], used, adding: 1 });
     },

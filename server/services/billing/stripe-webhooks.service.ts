@@ -1,10 +1,11 @@
 import type Stripe from 'stripe';
 import type { Db } from '../../db/create-db.ts';
 import { inLab, type DbOrTrx } from '../../db/tenant-scope.ts';
-import { findLabByStripeCustomer, labBillingIn } from '../../db/lab-billing.repo.ts';
-import { claimStripeEvent } from '../../db/stripe-events.repo.ts';
-import { findLabById } from '../../db/usage.repo.ts';
-import { auditIn } from '../../db/audit.repo.ts';
+import { labBillingRepo } from '../../db/lab-billing.repo.ts';
+import { stripeEventsRepo } from '../../db/stripe-events.repo.ts';
+import { crossLabRepo } from '../../db/cross-lab.repo.ts';
+import { labsRepo } from '../../db/labs.repo.ts';
+import { auditRepo } from '../../db/audit.repo.ts';
 import { AppError } from '../../errors.ts';
 import type { Mailer } from '../../integrations/mail/create-mailer.ts';
 import type { Logger } from '../../logger.ts';
@@ -26,12 +27,12 @@ export class BadWebhookSignatureError extends AppError {
 async function resolveLab(db: DbOrTrx, event: Stripe.Event): Promise<number | null> {
   const { customerId, labIdHint } = eventParties(event);
   if (customerId) {
-    const byCustomer = await findLabByStripeCustomer(db, customerId);
+    const byCustomer = await crossLabRepo(db).labIdForStripeCustomer(customerId);
     if (byCustomer) return byCustomer;
   }
   const hinted = Number(labIdHint);
   if (!Number.isSafeInteger(hinted) || hinted <= 0) return null;
-  return (await findLabById(db, hinted)) ? hinted : null;
+  return (await labsRepo(db).findById(hinted)) ? hinted : null;
 }
 
 /**
@@ -62,16 +63,16 @@ export function createStripeWebhooks(deps: {
       }
       const labId = await resolveLab(db, event);
       const result = await db.transaction(async (trx) => {
-        if (!(await claimStripeEvent(trx, { id: event.id, type: event.type, created: event.created, tenantId: labId }))) return { outcome: 'duplicate' as const };
+        if (!(await stripeEventsRepo(trx).claim({ id: event.id, type: event.type, created: event.created, tenantId: labId }))) return { outcome: 'duplicate' as const };
         if (labId === null) return { outcome: 'unknown-lab' as const };
         const scope = inLab(trx, labId);
-        const billing = labBillingIn(scope, trx, catalog.free.key);
-        const before = await billing.getOrCreate({ lock: true });
+        const billing = labBillingRepo(scope);
+        const before = await billing.getOrCreate(catalog.free.key, { lock: true });
         const patch = billingChange(event, before, { catalog, graceDays: deps.graceDays });
         if (!patch) return { outcome: 'unchanged' as const };
-        await billing.patch(patch);
+        await billing.patch(patch, catalog.free.key);
         const after = { ...before, ...patch };
-        const audit = auditIn(scope);
+        const audit = auditRepo(scope);
         const name = (key: string) => catalog.byKey(key)?.name ?? key;
         if (after.planKey !== before.planKey) {
           await audit.record({
@@ -98,7 +99,7 @@ export function createStripeWebhooks(deps: {
       });
       if (result.outcome === 'applied' && result.enteredPastDue && labId !== null) {
         const { planKey, graceUntil } = result.enteredPastDue;
-        const lab = (await findLabById(db, labId))!;
+        const lab = (await labsRepo(db).findById(labId))!;
         const link = `${deps.publicUrl}/labs/${encodeURIComponent(lab.slug)}/billing`;
         // the event is already applied: a mail failure is logged, not answered as an error
         await mailLabAdmins(db, deps.mailer, labId, (to) => paymentFailedMail({ to, labName: lab.name, planName: catalog.byKey(planKey)?.name ?? planKey, graceUntil, link })).catch(

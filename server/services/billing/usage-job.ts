@@ -1,7 +1,8 @@
 import type { Db } from '../../db/create-db.ts';
 import { inLab } from '../../db/tenant-scope.ts';
-import { labBillingIn } from '../../db/lab-billing.repo.ts';
-import { listLabs, usageIn } from '../../db/usage.repo.ts';
+import { labBillingRepo } from '../../db/lab-billing.repo.ts';
+import { usageRepo } from '../../db/usage.repo.ts';
+import { crossLabRepo } from '../../db/cross-lab.repo.ts';
 import type { Mailer } from '../../integrations/mail/create-mailer.ts';
 import type { Logger } from '../../logger.ts';
 import type { BackgroundJob } from '../../jobs/background-jobs.ts';
@@ -33,26 +34,27 @@ export function createUsageJob(deps: { db: Db; catalog: PlanCatalog; mailer: Mai
   async function reconcileLab(lab: { id: number; slug: string; name: string }): Promise<void> {
     const labId = lab.id;
     const scope = inLab(deps.db, labId);
-    const usage = usageIn(scope);
-    const billing = labBillingIn(scope, deps.db, deps.catalog.free.key);
+    const usage = usageRepo(scope);
+    const billing = labBillingRepo(scope);
+    const freePlanKey = deps.catalog.free.key;
     const at = now();
     // The recount and its write hold the lab's billing row: a batch counts itself in that row
     // inside its own transaction (plan-limits.ts), so it either committed before the recount
     // reads (and is in it) or adds itself on top of the recount afterwards — none is lost.
     const counts = await deps.db.transaction(
       async (trx) => {
-        const locked = labBillingIn(inLab(trx, labId), trx, deps.catalog.free.key);
-        await locked.getOrCreate({ lock: true });
-        const inTrx = usageIn(inLab(trx, labId));
+        const locked = labBillingRepo(inLab(trx, labId));
+        await locked.getOrCreate(freePlanKey, { lock: true });
+        const inTrx = usageRepo(inLab(trx, labId));
         const c = { readings: await inTrx.storedReadings(), loggers: await inTrx.activeLoggers(), members: await inTrx.seatsTaken(at) };
-        await locked.setReadings(c.readings, at);
+        await locked.setReadings(c.readings, at, freePlanKey);
         return c;
       },
       { isolationLevel: 'read committed' },
     );
     await usage.saveSnapshot(at.toISOString().slice(0, 10), counts);
 
-    const row = await billing.getOrCreate();
+    const row = await billing.getOrCreate(freePlanKey);
     const plan = effectivePlan(row, deps.catalog, at);
     const level = warningLevel(counts.readings, plan.limits.readings);
     if (level > row.warnedPercent) {
@@ -61,11 +63,11 @@ export function createUsageJob(deps: { db: Db; catalog: PlanCatalog; mailer: Mai
         usageWarningMail({ to, labName: lab.name, planName: plan.name, percent: level as 80 | 100, used: counts.readings, allowed: plan.limits.readings, link }),
       );
     }
-    if (level !== row.warnedPercent) await billing.setWarnedPercent(level);
+    if (level !== row.warnedPercent) await billing.setWarnedPercent(level, freePlanKey);
   }
 
   async function runOnce(): Promise<void> {
-    for (const lab of await listLabs(deps.db)) {
+    for (const lab of await crossLabRepo(deps.db).allLabs()) {
       try {
         await reconcileLab(lab);
       } catch (err) {

@@ -1,15 +1,15 @@
 import { randomBytes } from 'node:crypto';
 import type { Db } from '../../db/create-db.ts';
 import { inLab } from '../../db/tenant-scope.ts';
-import { channelsIn } from '../../db/channels.repo.ts';
-import { loggersIn } from '../../db/loggers.repo.ts';
-import { readingsIn, sliceColumns } from '../../db/readings.repo.ts';
+import { channelsRepo } from '../../db/channels.repo.ts';
+import { loggersRepo } from '../../db/loggers.repo.ts';
+import { readingsRepo, sliceColumns } from '../../db/readings.repo.ts';
 import { BatchCandidates } from './batch-candidates.ts';
-import { quarantineIn, type QuarantineInput, type ReadingSource } from '../../db/quarantine.repo.ts';
+import { quarantineRepo, type QuarantineInput, type ReadingSource } from '../../db/quarantine.repo.ts';
 import { parseReadingValue } from './parse-reading-value.ts';
 import { parseReadingTime, type TimeFormat } from './parse-reading-time.ts';
 import { isLockConflict } from '../../db/db-errors.ts';
-import { channelStateIn } from '../../db/channel-state.repo.ts';
+import { channelStateRepo } from '../../db/channel-state.repo.ts';
 import type { IngestHooks, StoredBatch } from './ingest-hooks.ts';
 
 /** One row as it arrived, before anything is checked. `index` is its position in the request. */
@@ -68,7 +68,7 @@ const text = (v: unknown): string | null => (v === undefined || v === null ? nul
  * - A row for a time already stored with a different value keeps the stored value; the
  *   newcomer is quarantined (also for two different values at one time in the same batch).
  * - Rollups of the touched buckets are recomputed in the same transaction, and each channel's
- *   latest reading and data version are advanced (see `channelStateIn(...).advance`).
+ *   latest reading and data version are advanced (see `channelStateRepo(...).advance`).
  *
  * The logger's row is locked for the transaction, so batches of one logger are applied one
  * at a time; batches of different loggers run side by side. The caller answers 2xx only after
@@ -94,9 +94,9 @@ async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[]
   const now = opts.now ?? Date.now;
   const batchRef = opts.batchRef ?? randomBytes(8).toString('hex');
   const scope = inLab(trx, target.tenantId);
-  const logger = await loggersIn(scope).find(target.loggerId, { lock: true });
+  const logger = await loggersRepo(scope).find(target.loggerId, { lock: true });
   if (!logger) throw new Error(`ingestBatch: logger ${target.loggerId} not found in lab ${target.tenantId}`);
-  const channels = new Map((await channelsIn(scope).listForLogger(target.loggerId, { includeRetired: true })).map((c) => [c.key, c]));
+  const channels = new Map((await channelsRepo(scope).listForLogger(target.loggerId, { includeRetired: true })).map((c) => [c.key, c]));
 
   const quarantine: QuarantineInput[] = [];
   const out: QuarantinedEntry[] = [];
@@ -160,7 +160,7 @@ async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[]
   }
 
   // 2. Insert what is new, in primary-key order; only if some rows were already stored, find out which and why.
-  const readings = readingsIn(scope, trx);
+  const readings = readingsRepo(scope);
   const { columns, rowAt, runs } = offered.sorted();
   let accepted = 0;
   for (let i = 0; i < columns.length; i += 5000) accepted += await readings.insertNew(sliceColumns(columns, i, Math.min(i + 5000, columns.length)));
@@ -192,16 +192,16 @@ async function applyBatch(trx: Db, target: IngestTarget, rows: IncomingReading[]
     // Each channel's run ends with its latest time. A channel whose rows were all duplicates
     // still gets a version bump when another channel of the batch stored something (a spare
     // cache miss, never a stale answer).
-    await channelStateIn(scope, trx).advance(runs.map((r) => ({ channelId: r.channelId, ts: columns.ts[r.to - 1] })));
+    await channelStateRepo(scope).advance(runs.map((r) => ({ channelId: r.channelId, ts: columns.ts[r.to - 1] })));
   }
   const spans = runs.map((r) => ({ channelId: r.channelId, oldestTs: columns.ts[r.from], newestTs: columns.ts[r.to - 1] }));
   const stored: StoredBatch = { target, source: opts.source, accepted, quarantined: quarantine.length, channels: accepted > 0 ? spans : [] };
-  if (opts.source === 'api') await loggersIn(scope).markSeen(target.loggerId, now());
+  if (opts.source === 'api') await loggersRepo(scope).markSeen(target.loggerId, now());
   // Last before the rows become final: a hook may still refuse the whole batch. Plan limits
   // lock the lab's usage row here until COMMIT, so as little as possible follows (only the
   // quarantine rows, which the hooks must see counted before they are written).
   if (opts.hooks?.beforeCommit) await opts.hooks.beforeCommit(trx, stored);
-  if (quarantine.length) await quarantineIn(scope).add(quarantine);
+  if (quarantine.length) await quarantineRepo(scope).add(quarantine);
 
   out.sort((a, b) => a.index - b.index);
   return { outcome: { accepted, duplicates, quarantined: out }, stored };

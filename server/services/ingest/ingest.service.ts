@@ -1,7 +1,7 @@
 import pLimit from 'p-limit';
 import type { Db } from '../../db/create-db.ts';
-import { findIngestKeyByPrefix } from '../../db/ingest-keys.repo.ts';
-import { ingestKeysIn } from '../../db/ingest-keys.repo.ts';
+import { crossLabRepo } from '../../db/cross-lab.repo.ts';
+import { ingestKeysRepo } from '../../db/ingest-keys.repo.ts';
 import { inLab } from '../../db/tenant-scope.ts';
 import { AppError } from '../../errors.ts';
 import { ingestKeyMatches, ingestKeyPrefix } from '../ingest-key-format.ts';
@@ -32,10 +32,10 @@ export function createIngestService(deps: { db: Db; now?: () => number; hooks?: 
     async authenticate(presented: string | undefined): Promise<AuthenticatedLogger> {
       const prefix = presented ? ingestKeyPrefix(presented) : null;
       if (!presented || !prefix) throw new InvalidIngestKeyError();
-      const match = await findIngestKeyByPrefix(deps.db, prefix);
+      const match = await crossLabRepo(deps.db).ingestKeyByPrefix(prefix);
       if (!match || match.revoked || match.loggerRetired || !ingestKeyMatches(presented, match.keyHash)) throw new InvalidIngestKeyError();
       if (!match.lastUsedAt || now() - match.lastUsedAt.getTime() > TOUCH_EVERY_MS) {
-        await ingestKeysIn(inLab(deps.db, match.tenantId)).touch(match.keyId, new Date(now()));
+        await ingestKeysRepo(inLab(deps.db, match.tenantId)).touch(match.keyId, new Date(now()));
       }
       return { tenantId: match.tenantId, loggerId: match.loggerId, keyId: match.keyId };
     },
