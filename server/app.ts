@@ -49,7 +49,7 @@ import { createDiagnosticsService } from './services/diagnostics.service.ts';
 import { createDiagnosticsConcurrency } from './services/diagnostics-concurrency.ts';
 import { channelRoutes } from './http/channels/channels.router.ts';
 import { createPersonalTokensService } from './services/personal-tokens.service.ts';
-import { tokenRoutes } from './http/tokens/tokens.router.ts';
+import { tokenRoutes } from './http/tokens/tokens.routes.ts';
 import { alertRoutes } from './http/alerts/alerts.router.ts';
 import { createAlertsFeature } from './services/alerts/alerts-feature.ts';
 import { loadPlanCatalog } from './services/billing/plan-catalog.ts';
@@ -57,8 +57,8 @@ import { createPlanLimits } from './services/billing/plan-limits.ts';
 import { createUsageJob } from './services/billing/usage-job.ts';
 import { createBillingService } from './services/billing/billing.service.ts';
 import { createStripeWebhooks } from './services/billing/stripe-webhooks.service.ts';
-import { billingRoutes } from './http/billing/billing.router.ts';
-import { stripeWebhooksRouter } from './http/billing/stripe-webhooks.router.ts';
+import { billingRoutes } from './http/billing/billing.routes.ts';
+import { stripeWebhookRoutes } from './http/billing/stripe-webhooks.routes.ts';
 import { buildOpenApiDocument } from './http/openapi/openapi-document.ts';
 import { openApiRouter } from './http/openapi/openapi.router.ts';
 import type { AnalysisPool } from './workers/analysis-pool.ts';
@@ -153,8 +153,12 @@ export function createApp(deps: AppDeps): Express {
       }),
     ),
     ...fromLabRoutes(alertRoutes({ alerts: alerts.service, now: nowMs })),
-    ...fromLabRoutes(tokenRoutes({ tokens })),
-    ...fromLabRoutes(billingRoutes({ billing: billingService })),
+    ...tokenRoutes({ tokens }),
+    ...billingRoutes({ billing: billingService }),
+    // Stripe signs the raw body: 'webhook-signature' mounts it before sessions and JSON parsing.
+    ...stripeWebhookRoutes({
+      webhooks: createStripeWebhooks({ db, stripe: deps.billing, catalog: plans, mailer: deps.mailer, logger, webhookSecret: config.stripe.webhookSecret, graceDays: config.stripe.graceDays, publicUrl: config.publicUrl }),
+    }),
   ];
   const mountContext = { guard: createLabGuard(db, { tokens }), onUndocumentedStatus: deps.onUndocumentedStatus };
   // The lab routes, for the role × route test (every lab route and its permission).
@@ -169,12 +173,6 @@ export function createApp(deps: AppDeps): Express {
   // Loggers authenticate with their key, not a session: ingestion comes before the session
   // middleware and takes its own (larger) body limits.
   app.use(ingestRouter({ ingest, rate: deps.ingestRate }));
-  // Stripe signs the raw body: its webhook route also comes before sessions and JSON parsing.
-  app.use(
-    stripeWebhooksRouter({
-      webhooks: createStripeWebhooks({ db, stripe: deps.billing, catalog: plans, mailer: deps.mailer, logger, webhookSecret: config.stripe.webhookSecret, graceDays: config.stripe.graceDays, publicUrl: config.publicUrl }),
-    }),
-  );
   app.use(mountRoutes(routes.filter(runsBeforeSession), mountContext));
   app.use(sessionMiddleware({ db, secret: config.sessionSecret, secure: config.secureCookies }));
   app.use(passport.session());

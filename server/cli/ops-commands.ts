@@ -13,7 +13,7 @@ import { membershipsIn } from '../db/memberships.repo.ts';
 import { createUsersRepo } from '../db/users.repo.ts';
 import { can } from '../policies/permissions.ts';
 import { createPersonalTokensService } from '../services/personal-tokens.service.ts';
-import { createPersonalTokenSchema } from '../http/tokens/tokens.schema.ts';
+import { createPersonalTokenSchema } from '../contract/tokens.ts';
 
 /** What each operator command returns (printed as text, or as JSON with --json). */
 export interface CommandResult {

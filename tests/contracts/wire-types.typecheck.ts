@@ -14,12 +14,8 @@ import type { presentAuditEntry, presentInvitation, presentLabForMember } from '
 import type { presentChannel, presentIssuedKey, presentKeyInfo, presentLogger, presentLoggerDetail, presentQuarantinedRow } from '../../server/http/presenters/loggers.presenter.ts';
 import type { presentMe } from '../../server/http/presenters/me.presenter.ts';
 import type { presentCreatedLab } from '../../server/http/labs/labs.router.ts';
-import type { presentIssuedPersonalToken, presentPersonalToken } from '../../server/http/tokens/tokens.presenter.ts';
-import type { presentBillingOverview, presentInvoice } from '../../server/http/billing/billing.presenter.ts';
 import type { AuditEntry } from '../../client/features/audit/api/get-audit-log.ts';
 import type { Me } from '../../client/features/auth/api/get-me.ts';
-import type { BillingOverview } from '../../client/features/billing/api/get-billing.ts';
-import type { Invoice } from '../../client/features/billing/api/get-invoices.ts';
 import type { PendingInvitation } from '../../client/features/invitations/api/get-invitations.ts';
 import type { LabDetail } from '../../client/features/labs/api/get-lab.ts';
 import type { CreatedLab } from '../../client/features/labs/api/create-lab.ts';
@@ -27,8 +23,6 @@ import type { IssuedKey } from '../../client/features/loggers/api/create-logger.
 import type { Channel, IngestKeyInfo, LoggerDetail } from '../../client/features/loggers/api/get-logger.ts';
 import type { LoggerSummary } from '../../client/features/loggers/api/get-loggers.ts';
 import type { QuarantinedRow } from '../../client/features/quarantine/api/get-quarantine.ts';
-import type { IssuedToken } from '../../client/features/tokens/api/create-token.ts';
-import type { PersonalToken } from '../../client/features/tokens/api/get-tokens.ts';
 import type { ChannelOverviewRow } from '../../client/features/channels/api/get-channels.ts';
 import type { ChannelDetail } from '../../client/features/channels/api/get-channel.ts';
 import type { Series } from '../../client/features/channels/api/get-series.ts';
@@ -63,8 +57,6 @@ export type Contracts = [
   Reads<Answer<typeof presentAlertRule>, AlertRule>,
   Reads<Answer<typeof presentAuditEntry>, AuditEntry>,
   Reads<Answer<typeof presentMe>, Me>,
-  Reads<Answer<typeof presentBillingOverview>, BillingOverview>,
-  Reads<Answer<typeof presentInvoice>, Invoice>,
   Reads<Answer<typeof presentInvitation>, PendingInvitation>,
   Reads<Answer<typeof presentLabForMember>, LabDetail>,
   Reads<Answer<typeof presentCreatedLab>, CreatedLab>,
@@ -75,6 +67,4 @@ export type Contracts = [
   Reads<Answer<typeof presentKeyInfo>, IngestKeyInfo>,
   Reads<Answer<typeof presentIssuedKey>['ingestKey'], IssuedKey>,
   Reads<Answer<typeof presentQuarantinedRow>, QuarantinedRow>,
-  Reads<Answer<typeof presentPersonalToken>, PersonalToken>,
-  Reads<Answer<typeof presentIssuedPersonalToken>, IssuedToken>,
 ];

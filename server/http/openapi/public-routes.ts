@@ -77,10 +77,4 @@ export const PUBLIC_ROUTES: PublicRoute[] = [
       '429': '`rate_limited`: this logger posts faster than 20 requests/s (bursts of 40); `too_many_wrong_keys`: more than 20 wrong keys from this address within a minute (counted per app process; a key that worked recently still gets through). Retry-After gives the seconds to wait.',
     },
   },
-  {
-    method: 'post',
-    path: '/api/v1/billing/stripe-webhooks',
-    summary: "Stripe's webhook events (checkout, subscription and invoice changes); the Stripe-Signature header is verified against the raw body, 400 when it does not match.",
-    auth: 'none',
-  },
 ];

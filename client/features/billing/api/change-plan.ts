@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { ChangePlanInput } from '../../../../server/http/billing/billing.schema.ts';
+import type { ChangePlanInput, PlanChangeAnswer } from '@shared/contract/billing.ts';
 import { apiFetch } from '../../../lib/api-client.ts';
 import { billingRootKey } from './get-billing.ts';
 
@@ -8,7 +8,7 @@ import { billingRootKey } from './get-billing.ts';
  * changes when Stripe confirms). 409 `plan_too_small` when the lab already uses more than the
  * plan allows, unless `acknowledgeLimits` is true.
  */
-export function changePlan(slug: string, input: ChangePlanInput): Promise<{ plan: string; message: string }> {
+export function changePlan(slug: string, input: ChangePlanInput): Promise<PlanChangeAnswer> {
   return apiFetch(`/api/v1/labs/${encodeURIComponent(slug)}/billing/plan-change`, { method: 'POST', body: JSON.stringify(input) });
 }
 

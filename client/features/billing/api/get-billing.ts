@@ -1,45 +1,11 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { BillingOverview } from '@shared/contract/billing.ts';
 import { apiFetch } from '../../../lib/api-client.ts';
-
-/** A plan's limits, as in tenants/plans.json. */
-export interface PlanLimits {
-  readings: number;
-  loggers: number;
-  members: number;
-  historyDays: number;
-  /** Rows the lab may keep in quarantine. */
-  quarantinedRows: number;
-}
-
-/** A plan of the catalog. */
-export interface BillingPlan {
-  key: string;
-  name: string;
-  summary: string;
-  /** Per month, in the currency's smallest unit. */
-  monthlyAmount: number;
-  paid: boolean;
-  limits: PlanLimits;
-}
-
-/** `GET /api/v1/labs/:lab/billing`. */
-export interface BillingOverview {
-  plan: BillingPlan;
-  subscribedPlanKey: string;
-  status: 'none' | 'active' | 'past_due' | 'canceled';
-  graceUntil: string | null;
-  usage: { readings: number; loggers: number; members: number; quarantinedRows: number };
-  limits: PlanLimits;
-  ingestionRefused: boolean;
-  historyStartsAt: string;
-  trend: Array<{ day: string; readings: number; loggers: number; members: number }>;
-  currency: string;
-  plans: BillingPlan[];
-}
 
 /** Every billing query of a lab lives under this key. */
 export const billingRootKey = (slug: string) => ['labs', slug, 'billing'] as const;
 
+/** `GET /api/v1/labs/:lab/billing`. */
 export function getBilling(slug: string): Promise<BillingOverview> {
   return apiFetch(`/api/v1/labs/${encodeURIComponent(slug)}/billing`);
 }

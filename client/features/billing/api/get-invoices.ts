@@ -1,21 +1,10 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { InvoicesAnswer } from '@shared/contract/billing.ts';
 import { apiFetch } from '../../../lib/api-client.ts';
 import { billingRootKey } from './get-billing.ts';
 
-/** One invoice (amounts in the currency's smallest unit). */
-export interface Invoice {
-  id: string;
-  number: string | null;
-  status: string | null;
-  currency: string;
-  amountDue: number;
-  amountPaid: number;
-  created: string;
-  hostedUrl: string | null;
-  pdfUrl: string | null;
-}
-
-export function getInvoices(slug: string): Promise<{ invoices: Invoice[] }> {
+/** `GET /api/v1/labs/:lab/billing/invoices`: newest first. */
+export function getInvoices(slug: string): Promise<InvoicesAnswer> {
   return apiFetch(`/api/v1/labs/${encodeURIComponent(slug)}/billing/invoices`);
 }
 

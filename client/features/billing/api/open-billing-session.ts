@@ -1,14 +1,14 @@
 import { useMutation } from '@tanstack/react-query';
-import type { StartCheckoutInput } from '../../../../server/http/billing/billing.schema.ts';
+import type { BillingSessionAnswer, StartCheckoutInput } from '@shared/contract/billing.ts';
 import { apiFetch } from '../../../lib/api-client.ts';
 
 /** `POST …/billing/checkout-session`: the Stripe Checkout URL for a paid plan. */
-export function startCheckout(slug: string, input: StartCheckoutInput): Promise<{ url: string }> {
+export function startCheckout(slug: string, input: StartCheckoutInput): Promise<BillingSessionAnswer> {
   return apiFetch(`/api/v1/labs/${encodeURIComponent(slug)}/billing/checkout-session`, { method: 'POST', body: JSON.stringify(input) });
 }
 
 /** `POST …/billing/portal-session`: the billing-portal URL (card, invoices, cancellation). */
-export function openPortal(slug: string): Promise<{ url: string }> {
+export function openPortal(slug: string): Promise<BillingSessionAnswer> {
   return apiFetch(`/api/v1/labs/${encodeURIComponent(slug)}/billing/portal-session`, { method: 'POST' });
 }
 

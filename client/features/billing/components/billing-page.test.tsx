@@ -1,7 +1,7 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { cleanup, fireEvent, screen, waitFor } from '@testing-library/react';
 import { apiError, fakeApi, renderWithProviders } from '../../../components/test-harness.tsx';
-import type { BillingOverview, BillingPlan } from '../api/get-billing.ts';
+import type { BillingOverview, BillingPlan } from '@shared/contract/billing.ts';
 import { BillingPage } from './billing-page.tsx';
 
 afterEach(() => {
@@ -9,7 +9,7 @@ afterEach(() => {
   vi.unstubAllGlobals();
 });
 
-// Plans and numbers invented for the test; the JSON shape is the API contract (billing.presenter.ts).
+// Plans and numbers invented for the test; the JSON shape is the API contract (server/contract/billing.ts).
 const BASE = '/api/v1/labs/fernhollow/billing';
 const FREE: BillingPlan = { key: 'seedling', name: 'Seedling', summary: '', monthlyAmount: 0, paid: false, limits: { readings: 1000, loggers: 3, members: 5, historyDays: 90, quarantinedRows: 200 } };
 const PAID: BillingPlan = { key: 'transect', name: 'Transect', summary: 'More room.', monthlyAmount: 4900, paid: true, limits: { readings: 50000, loggers: 30, members: 25, historyDays: 1095, quarantinedRows: 2000 } };

@@ -3,7 +3,8 @@ import { Button } from '../../../components/button.tsx';
 import { Notice } from '../../../components/notice.tsx';
 import { ApiError } from '../../../lib/api-client.ts';
 import { useChangePlan } from '../api/change-plan.ts';
-import { useBilling, type BillingOverview, type BillingPlan } from '../api/get-billing.ts';
+import type { BillingOverview, BillingPlan } from '@shared/contract/billing.ts';
+import { useBilling } from '../api/get-billing.ts';
 import { useStartCheckout } from '../api/open-billing-session.ts';
 import { formatCount, formatMoney } from './billing-format.ts';
 

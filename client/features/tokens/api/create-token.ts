@@ -1,14 +1,7 @@
-import type { CreatePersonalTokenInput } from '../../../../server/http/tokens/tokens.schema.ts';
+import type { CreatePersonalTokenInput, IssuedToken } from '@shared/contract/tokens.ts';
 import { useRefreshingMutation } from '../../../components/use-refreshing-mutation.ts';
 import { apiFetch } from '../../../lib/api-client.ts';
-import { tokensRootKey, type PersonalToken } from './get-tokens.ts';
-
-/** A token right after it was made: the whole secret, this once. */
-export interface IssuedToken {
-  token: string;
-  tokenInfo: PersonalToken;
-  shownOnce: true;
-}
+import { tokensRootKey } from './get-tokens.ts';
 
 /** `POST /api/v1/labs/:lab/tokens`: makes a personal token for the read routes. */
 export function createToken(slug: string, input: CreatePersonalTokenInput): Promise<IssuedToken> {

@@ -1,22 +1,12 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { PersonalTokensAnswer } from '@shared/contract/tokens.ts';
 import { apiFetch } from '../../../lib/api-client.ts';
-
-/** A personal API token as listed: metadata only, never the secret. */
-export interface PersonalToken {
-  id: number;
-  name: string;
-  prefix: string;
-  createdAt: string;
-  expiresAt: string;
-  lastUsedAt: string | null;
-  revokedAt: string | null;
-}
 
 /** Every token query of a lab lives under this key, so one invalidation refreshes them all. */
 export const tokensRootKey = (slug: string) => ['labs', slug, 'tokens'] as const;
 
 /** `GET /api/v1/labs/:lab/tokens`: the signed-in member's own tokens in this lab. */
-export function getTokens(slug: string): Promise<{ tokens: PersonalToken[] }> {
+export function getTokens(slug: string): Promise<PersonalTokensAnswer> {
   return apiFetch(`/api/v1/labs/${encodeURIComponent(slug)}/tokens`);
 }
 

@@ -1,6 +1,6 @@
 import { Button } from '../../../components/button.tsx';
 import { CopyButton } from '../../../components/copy-button.tsx';
-import type { IssuedToken } from '../api/create-token.ts';
+import type { IssuedToken } from '@shared/contract/tokens.ts';
 
 /**
  * A just-made personal token, shown this once: the token with a copy button and the warning

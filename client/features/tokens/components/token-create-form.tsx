@@ -1,12 +1,12 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
-import { createPersonalTokenSchema } from '../../../../server/http/tokens/tokens.schema.ts';
+import { createPersonalTokenSchema, type IssuedToken } from '@shared/contract/tokens.ts';
 import { Button } from '../../../components/button.tsx';
 import { TextField } from '../../../components/form-field.tsx';
 import { Notice } from '../../../components/notice.tsx';
 import { applyServerError } from '../../../components/server-field-error.ts';
-import { useCreateToken, type IssuedToken } from '../api/create-token.ts';
+import { useCreateToken } from '../api/create-token.ts';
 
 type TokenForm = z.input<typeof createPersonalTokenSchema>;
 

@@ -1,8 +1,7 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { cleanup, fireEvent, screen, waitFor, within } from '@testing-library/react';
 import { apiError, fakeApi, renderWithProviders } from '../../../components/test-harness.tsx';
-import { createPersonalTokenSchema } from '../../../../server/http/tokens/tokens.schema.ts';
-import type { PersonalToken } from '../api/get-tokens.ts';
+import { createPersonalTokenSchema, type PersonalToken } from '@shared/contract/tokens.ts';
 import { TokensPage } from './tokens-page.tsx';
 
 afterEach(() => {

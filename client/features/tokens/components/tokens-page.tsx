@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { LoadingNote, Notice } from '../../../components/notice.tsx';
-import type { IssuedToken } from '../api/create-token.ts';
+import type { IssuedToken } from '@shared/contract/tokens.ts';
 import { useTokens } from '../api/get-tokens.ts';
 import { IssuedTokenPanel } from './issued-token-panel.tsx';
 import { NotebookGuide } from './notebook-guide.tsx';

@@ -4,7 +4,7 @@ import { ConfirmAction } from '../../../components/confirm-action.tsx';
 import { DataTable } from '../../../components/data-table.tsx';
 import { DateTime } from '../../../components/date-time.tsx';
 import { RelativeTime } from '../../../components/relative-time.tsx';
-import type { PersonalToken } from '../api/get-tokens.ts';
+import type { PersonalToken } from '@shared/contract/tokens.ts';
 import { useRevokeToken } from '../api/revoke-token.ts';
 
 /** A token as people recognise it: the public part of `lbt_<prefix>_<secret>`, secret elided. */
