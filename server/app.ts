@@ -16,8 +16,8 @@ import { errorHandler } from './http/middleware/error-handler.ts';
 import { bodyEncodingGuard, refuseDeepJson } from './http/middleware/body-encoding.ts';
 import { createPassport } from './http/auth/passport-setup.ts';
 import { authRouter } from './http/auth/auth.router.ts';
-import { meRouter } from './http/me.router.ts';
-import { healthRouter } from './http/health.router.ts';
+import { meRoutes } from './http/me.routes.ts';
+import { healthRoutes } from './http/health.routes.ts';
 import { staticClient } from './http/static-client.ts';
 import { NotFoundError } from './errors.ts';
 import { createLabsService } from './services/labs.service.ts';
@@ -28,10 +28,10 @@ import { createLabGuard } from './http/middleware/lab-guard.ts';
 import { fromLabRoutes } from './http/lab-routes.ts';
 import { mountRoutes } from './http/routes/mount-routes.ts';
 import { labRouteSummaries, runsBeforeSession, type LabRouteSummary, type Route } from './http/routes/route.ts';
-import { labRoutes, labsRouter } from './http/labs/labs.router.ts';
+import { labRoutes } from './http/labs/labs.routes.ts';
 import { memberRoutes } from './http/labs/members.routes.ts';
-import { invitationAcceptanceRouter, invitationRoutes } from './http/labs/invitations.router.ts';
-import { auditRoutes } from './http/labs/audit.router.ts';
+import { invitationAcceptanceRoutes, invitationRoutes } from './http/labs/invitations.routes.ts';
+import { auditRoutes } from './http/labs/audit.routes.ts';
 import { createLoggersService } from './services/loggers.service.ts';
 import { createQuarantineService } from './services/quarantine.service.ts';
 import { createIngestService } from './services/ingest/ingest.service.ts';
@@ -60,7 +60,7 @@ import { createStripeWebhooks } from './services/billing/stripe-webhooks.service
 import { billingRoutes } from './http/billing/billing.routes.ts';
 import { stripeWebhookRoutes } from './http/billing/stripe-webhooks.routes.ts';
 import { buildOpenApiDocument } from './http/openapi/openapi-document.ts';
-import { openApiRouter } from './http/openapi/openapi.router.ts';
+import { openApiRoutes } from './http/openapi/openapi.routes.ts';
 import type { AnalysisPool } from './workers/analysis-pool.ts';
 import { resolveRateLimits, type RateLimits } from './http/middleware/rate-limits.ts';
 
@@ -134,11 +134,17 @@ export function createApp(deps: AppDeps): Express {
   const tokens = createPersonalTokensService({ db, now: deps.now });
   const billingService = createBillingService({ db, stripe: deps.billing, catalog: plans, publicUrl: config.publicUrl, now: deps.now });
   /** The route table: every API route with its auth, input schemas and answers (see http/routes/). */
+  let openApiDocument: object | undefined;
   const routes: Route[] = [
-    ...fromLabRoutes(labRoutes()),
+    ...healthRoutes({ db }),
+    // the API document is built from this table, on its first request
+    ...openApiRoutes({ document: () => (openApiDocument ??= buildOpenApiDocument(routes, { serverUrl: config.publicUrl })) }),
+    ...meRoutes({ me }),
+    ...labRoutes({ labs: labsService }),
     ...memberRoutes({ members }),
-    ...fromLabRoutes(invitationRoutes({ invitations, sendLimit: limits.invitations })),
-    ...fromLabRoutes(auditRoutes({ audit })),
+    ...invitationRoutes({ invitations, sendLimit: limits.invitations }),
+    ...invitationAcceptanceRoutes({ invitations }),
+    ...auditRoutes({ audit }),
     ...fromLabRoutes(loggerRoutes({ loggers, testReadings: createTestReadingService({ db, now: nowMs, hooks: ingestHooks }) })),
     ...fromLabRoutes(quarantineRoutes({ quarantine })),
     ...fromLabRoutes(uploadRoutes({ uploads: createUploadsService({ db, now: nowMs, hooks: ingestHooks }), logger })),
@@ -168,8 +174,6 @@ export function createApp(deps: AppDeps): Express {
   app.use(securityHeaders({ secure: config.secureCookies }));
   // Unsupported Content-Encoding or charset: 415 before any body parser runs, on every route.
   app.use(bodyEncodingGuard());
-  app.use(healthRouter({ db }));
-  app.use(openApiRouter({ document: buildOpenApiDocument(routes, { serverUrl: config.publicUrl }) }));
   // Loggers authenticate with their key, not a session: ingestion comes before the session
   // middleware and takes its own (larger) body limits.
   app.use(ingestRouter({ ingest, rate: deps.ingestRate }));
@@ -180,9 +184,6 @@ export function createApp(deps: AppDeps): Express {
   app.use(express.json({ limit: '1mb', verify: refuseDeepJson }));
 
   app.use(authRouter({ passport, logger, signInLimit: limits.signIn }));
-  app.use(meRouter({ me }));
-  app.use(labsRouter({ labs: labsService }));
-  app.use(invitationAcceptanceRouter({ invitations }));
   app.use(mountRoutes(routes.filter((r) => !runsBeforeSession(r)), mountContext));
 
   app.use(['/api', '/auth'], (req, _res, next) => next(new NotFoundError(`No route for ${req.method} ${req.originalUrl.split('?')[0]}.`)));

@@ -1,7 +1,7 @@
 import { useId, useRef, useState, type FocusEvent, type KeyboardEvent } from 'react';
 import { Link } from 'react-router-dom';
 import { paths } from '../app/paths.ts';
-import { ROLE_LABELS, type Role } from '../../server/policies/permissions.ts';
+import { ROLE_LABELS, type Role } from '@shared/policies/permissions.ts';
 
 export interface SwitcherLab {
   slug: string;

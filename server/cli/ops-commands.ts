@@ -4,7 +4,7 @@ import { createLabsService } from '../services/labs.service.ts';
 import { createInvitationsService } from '../services/invitations.service.ts';
 import { createLoggersService } from '../services/loggers.service.ts';
 import { createLoggerSchema } from '../http/loggers/loggers.schema.ts';
-import { createLabSchema } from '../http/labs/labs.schema.ts';
+import { createLabSchema } from '../contract/labs.ts';
 import { parseInput } from '../http/validate.ts';
 import type { LabContext } from '../services/lab-context.ts';
 import { AppError } from '../errors.ts';

@@ -10,15 +10,7 @@ import type { ChannelSeries } from '../../server/services/channels.service.ts';
 import type { DiagnosticsReport as ServerDiagnosticsReport } from '../../server/services/diagnostics-report.ts';
 import type { RangeComparisonReport } from '../../server/services/range-comparison-report.ts';
 import type { presentAlert, presentAlertRule } from '../../server/http/alerts/alerts.presenter.ts';
-import type { presentAuditEntry, presentInvitation, presentLabForMember } from '../../server/http/presenters/labs.presenter.ts';
 import type { presentChannel, presentIssuedKey, presentKeyInfo, presentLogger, presentLoggerDetail, presentQuarantinedRow } from '../../server/http/presenters/loggers.presenter.ts';
-import type { presentMe } from '../../server/http/presenters/me.presenter.ts';
-import type { presentCreatedLab } from '../../server/http/labs/labs.router.ts';
-import type { AuditEntry } from '../../client/features/audit/api/get-audit-log.ts';
-import type { Me } from '../../client/features/auth/api/get-me.ts';
-import type { PendingInvitation } from '../../client/features/invitations/api/get-invitations.ts';
-import type { LabDetail } from '../../client/features/labs/api/get-lab.ts';
-import type { CreatedLab } from '../../client/features/labs/api/create-lab.ts';
 import type { IssuedKey } from '../../client/features/loggers/api/create-logger.ts';
 import type { Channel, IngestKeyInfo, LoggerDetail } from '../../client/features/loggers/api/get-logger.ts';
 import type { LoggerSummary } from '../../client/features/loggers/api/get-loggers.ts';
@@ -55,11 +47,6 @@ export type Contracts = [
   Reads<Json<RangeComparisonReport>, ComparisonAnswer>,
   Reads<Answer<typeof presentAlert>, Alert>,
   Reads<Answer<typeof presentAlertRule>, AlertRule>,
-  Reads<Answer<typeof presentAuditEntry>, AuditEntry>,
-  Reads<Answer<typeof presentMe>, Me>,
-  Reads<Answer<typeof presentInvitation>, PendingInvitation>,
-  Reads<Answer<typeof presentLabForMember>, LabDetail>,
-  Reads<Answer<typeof presentCreatedLab>, CreatedLab>,
   // the logger list presents every logger with its channel count
   Reads<Answer<typeof presentLogger> & { channelCount: number }, LoggerSummary>,
   Reads<Answer<typeof presentLoggerDetail>, LoggerDetail>,

@@ -5,7 +5,7 @@ import { browserSuite } from '../support/browser-suite.ts';
 import { keepScreenshot, signInAtProvider } from '../support/browser.ts';
 import { DEV_ACCOUNTS, type DevAccount } from '../../tenants/demo/people.ts';
 import { waitForMail } from '../../docker-free-scripts/mail-capture/read-captured-mail.ts';
-import { slugFromName } from '../../server/http/labs/labs.schema.ts';
+import { slugFromName } from '../../server/contract/labs.ts';
 
 const admin = DEV_ACCOUNTS.find((a) => a.role === 'admin')!;
 const newcomer = DEV_ACCOUNTS.find((a) => a.role === 'none')!;

@@ -1,5 +1,5 @@
 import { Link, useOutletContext } from 'react-router-dom';
-import type { Me } from '../../features/auth/api/get-me.ts';
+import type { Me } from '@shared/contract/me.ts';
 import { LabCards } from '../../features/labs/components/lab-cards.tsx';
 import { buttonClasses } from '../../components/button.tsx';
 import { paths } from '../paths.ts';

@@ -1,6 +1,6 @@
 import { useNavigate, useOutletContext, useParams } from 'react-router-dom';
 import { useQueryClient } from '@tanstack/react-query';
-import type { Me } from '../../features/auth/api/get-me.ts';
+import type { Me } from '@shared/contract/me.ts';
 import { meQueryOptions } from '../../features/auth/api/get-me.ts';
 import { signOut } from '../../features/auth/api/sign-out.ts';
 import { JoinInvitation } from '../../features/invitations/components/join-invitation.tsx';

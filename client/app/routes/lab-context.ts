@@ -1,9 +1,10 @@
 import { useCallback } from 'react';
 import { useOutletContext } from 'react-router-dom';
 import { useQueryClient } from '@tanstack/react-query';
-import type { Me } from '../../features/auth/api/get-me.ts';
+import type { Me } from '@shared/contract/me.ts';
 import { meQueryOptions } from '../../features/auth/api/get-me.ts';
-import { labQueryOptions, type LabDetail } from '../../features/labs/api/get-lab.ts';
+import type { LabDetail } from '@shared/contract/labs.ts';
+import { labQueryOptions } from '../../features/labs/api/get-lab.ts';
 
 /** What the lab layout hands to the lab's pages. */
 export interface LabOutletContext {

@@ -1,7 +1,8 @@
 import { Outlet, useOutletContext, useParams } from 'react-router-dom';
-import { ROLE_LABELS } from '../../../server/policies/permissions.ts';
-import type { Me } from '../../features/auth/api/get-me.ts';
-import { useLab, type LabDetail } from '../../features/labs/api/get-lab.ts';
+import { ROLE_LABELS } from '@shared/policies/permissions.ts';
+import type { Me } from '@shared/contract/me.ts';
+import type { LabDetail } from '@shared/contract/labs.ts';
+import { useLab } from '../../features/labs/api/get-lab.ts';
 import { visibleSections } from '../../features/labs/components/lab-sections.ts';
 import { LabNotFound } from '../../features/labs/components/lab-not-found.tsx';
 import { LoadingNote, Notice } from '../../components/notice.tsx';

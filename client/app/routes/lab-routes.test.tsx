@@ -1,9 +1,9 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { cleanup, fireEvent, screen, within } from '@testing-library/react';
 import { Outlet, type RouteObject } from 'react-router-dom';
-import { ROLE_PERMISSIONS, type Role } from '../../../server/policies/permissions.ts';
+import { ROLE_PERMISSIONS, type Role } from '@shared/policies/permissions.ts';
 import { apiError, fakeApi, renderWithProviders } from '../../components/test-harness.tsx';
-import type { Me } from '../../features/auth/api/get-me.ts';
+import type { Me } from '@shared/contract/me.ts';
 import LabLayout from './lab-layout.tsx';
 import LabHomeRoute from './lab-home.tsx';
 import LabMembersRoute from './lab-members.tsx';

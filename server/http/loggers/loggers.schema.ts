@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { timeZoneSchema } from '../time-zone.schema.ts';
+import { timeZoneSchema } from '../../contract/me.ts';
 
 /**
  * Input schemas for loggers, channels, ingest keys and quarantine review. Pure zod, shared

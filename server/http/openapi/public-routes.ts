@@ -1,6 +1,4 @@
 import { z } from 'zod';
-import { createLabSchema } from '../labs/labs.schema.ts';
-import { updateMeSchema } from '../me.schema.ts';
 
 /** How a route outside the lab table is reached (lab routes are described by their permission). */
 export type PublicRouteAuth = 'none' | 'session' | 'ingest-key';
@@ -43,24 +41,6 @@ const csvText = z.string().describe('CSV text with the header channel,ts,value')
  * The OpenAPI test walks the app's router and fails when a route is missing here.
  */
 export const PUBLIC_ROUTES: PublicRoute[] = [
-  { method: 'get', path: '/healthz', summary: 'Liveness and database check for load balancers (200 ok, 503 degraded).', auth: 'none' },
-  { method: 'get', path: '/api/v1/openapi.json', summary: 'This API document (OpenAPI 3.1).', auth: 'none' },
-  { method: 'get', path: '/api/v1/me', summary: 'The signed-in person and the labs they belong to.', auth: 'session' },
-  { method: 'patch', path: '/api/v1/me', summary: "The signed-in person's own settings: the time zone alert mails add to each time (null clears it).", auth: 'session', bodies: { 'application/json': updateMeSchema } },
-  {
-    method: 'post',
-    path: '/api/v1/labs',
-    summary: 'Create a lab; the signed-in person becomes its admin.',
-    auth: 'session',
-    bodies: { 'application/json': createLabSchema },
-    responses: {
-      '201':
-        "`{ lab: { slug, name, role }, requestedSlug }`. requestedSlug is the address asked for (or derived from the name); when it was unavailable the lab got the first free variant (`…-2` … `…-9`, else a random suffix) and lab.slug differs. The answer never says whether another lab uses an address.",
-      '403': '`lab_limit_reached`: the person has created as many labs as one account may (LAGBOOK_MAX_LABS_PER_ACCOUNT, default 3; LAGBOOK_MAX_LABS_PER_PAID_ADMIN, default 10, for an admin of a lab on a paid plan). The message names the cap.',
-    },
-  },
-  { method: 'get', path: '/api/v1/invitations/:lab/:token', summary: 'Preview an invitation link before accepting it.', auth: 'session' },
-  { method: 'post', path: '/api/v1/invitations/:lab/:token/accept', summary: 'Accept an invitation and join the lab with its role.', auth: 'session' },
   {
     method: 'post',
     path: '/api/v1/ingest',

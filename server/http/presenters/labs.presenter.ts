@@ -3,10 +3,14 @@ import type { Member } from '../../db/memberships.repo.ts';
 import type { Member as MemberAnswer } from '../../contract/members.ts';
 import type { Invitation } from '../../db/invitations.repo.ts';
 import type { AuditEntry } from '../../db/audit.repo.ts';
+import type { CreatedLab as CreatedLabAnswer, LabDetail } from '../../contract/labs.ts';
+import type { PendingInvitation } from '../../contract/invitations.ts';
+import type { AuditEntry as AuditEntryAnswer } from '../../contract/audit.ts';
+import type { CreatedLab } from '../../services/labs.service.ts';
 import { ROLE_PERMISSIONS, type Role } from '../../policies/permissions.ts';
 
 /** A lab as seen by one of its members, with what their role allows (the client hides the rest). */
-export function presentLabForMember(lab: Lab, role: Role) {
+export function presentLabForMember(lab: Lab, role: Role): LabDetail {
   return {
     lab: { slug: lab.slug, name: lab.name, createdAt: lab.createdAt.toISOString() },
     role,
@@ -14,12 +18,18 @@ export function presentLabForMember(lab: Lab, role: Role) {
   };
 }
 
+/** The answer to `POST /api/v1/labs`: the new lab with the creator's role, and the address asked for. */
+export function presentCreatedLab({ lab, requestedSlug }: CreatedLab): CreatedLabAnswer {
+  return { lab: { slug: lab.slug, name: lab.name, role: 'admin' }, requestedSlug };
+}
+
+/** One member of a lab with their role and when they joined. */
 export function presentMember(m: Member): MemberAnswer {
   return { userId: m.userId, name: m.name, email: m.email, role: m.role, joinedAt: m.joinedAt.toISOString() };
 }
 
 /** Pending invitation for admins; the secret never leaves the server after the e-mail. */
-export function presentInvitation(i: Invitation) {
+export function presentInvitation(i: Invitation): PendingInvitation {
   return {
     id: i.id,
     email: i.email,
@@ -31,6 +41,7 @@ export function presentInvitation(i: Invitation) {
   };
 }
 
-export function presentAuditEntry(e: AuditEntry) {
+/** One entry of the audit log, its time in ISO 8601. */
+export function presentAuditEntry(e: AuditEntry): AuditEntryAnswer {
   return { id: e.id, at: e.at.toISOString(), actor: e.actor, action: e.action, summary: e.summary, details: e.details };
 }

@@ -1,7 +1,8 @@
 import type { MeView } from '../../services/me.service.ts';
+import type { Me } from '../../contract/me.ts';
 
 /** What leaves the server about the signed-in person: no provider ids, no internal flags. */
-export function presentMe(view: MeView) {
+export function presentMe(view: MeView): Me {
   return {
     user: {
       id: view.user.id,

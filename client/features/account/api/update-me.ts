@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { UpdateMeInput } from '../../../../server/http/me.schema.ts';
+import type { Me, UpdateMeInput } from '@shared/contract/me.ts';
 import { apiFetch } from '../../../lib/api-client.ts';
-import { meQueryOptions, type Me } from '../../auth/api/get-me.ts';
+import { meQueryOptions } from '../../auth/api/get-me.ts';
 
 /** `PATCH /api/v1/me`: the person's own settings (the time zone alert mails add; null clears it). */
 export function updateMe(input: UpdateMeInput): Promise<Me> {

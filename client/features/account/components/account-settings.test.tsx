@@ -1,7 +1,7 @@
 import { afterEach, describe, expect, it } from 'vitest';
 import { cleanup, fireEvent, screen, waitFor } from '@testing-library/react';
 import { apiError, fakeApi, renderWithProviders } from '../../../components/test-harness.tsx';
-import type { Me } from '../../auth/api/get-me.ts';
+import type { Me } from '@shared/contract/me.ts';
 import { AccountSettings } from './account-settings.tsx';
 
 afterEach(cleanup);

@@ -3,7 +3,7 @@ import { Button } from '../../../components/button.tsx';
 import { SelectField } from '../../../components/form-field.tsx';
 import { Notice } from '../../../components/notice.tsx';
 import { browserTimeZone, timeZoneChoices } from '../../../components/time-zone-select.tsx';
-import type { Me } from '../../auth/api/get-me.ts';
+import type { Me } from '@shared/contract/me.ts';
 import { useUpdateMe } from '../api/update-me.ts';
 
 const NOT_SET = '';

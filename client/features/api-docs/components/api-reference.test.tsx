@@ -1,7 +1,7 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { cleanup, screen, within } from '@testing-library/react';
 import { apiError, fakeApi, renderWithProviders } from '../../../components/test-harness.tsx';
-import { groupOperations } from './api-outline.ts';
+import { answersOf, groupOperations } from './api-outline.ts';
 import { ApiReference } from './api-reference.tsx';
 import { OPENAPI_FIXTURE } from './openapi-fixture.ts';
 import { schemaFields } from './schema-fields.ts';
@@ -19,6 +19,27 @@ describe('groupOperations', () => {
     expect(groups[0].operations[0]).toMatchObject({ path: '/api/v1/labs/{lab}/channels', auth: ['sessionCookie', 'personalToken'], permission: 'channels.read' });
     // An operation without `security` is listed as public.
     expect(groups[1].operations[0].auth).toEqual([]);
+  });
+});
+
+describe('answersOf', () => {
+  it('lists every status in order, the shared answers resolved from components.responses', () => {
+    const answers = answersOf(OPENAPI_FIXTURE.paths['/api/v1/labs/{lab}/tokens'].post as object, OPENAPI_FIXTURE);
+    expect(answers.map((a) => a.status)).toEqual(['201', '400', '403', '409', '503']);
+    expect(answers[0]).toEqual({ status: '201', description: 'The token, shown once.', mediaTypes: ['application/json'], headers: [] });
+    // `$ref: '#/components/responses/InvalidInput'` and `…/Unavailable` (with its Retry-After header)
+    expect(answers[1].description).toBe('The input failed validation (`invalid_input`).');
+    expect(answers[4]).toEqual({ status: '503', description: 'The database is unreachable (`service_unavailable`).', mediaTypes: ['application/json'], headers: ['Retry-After'] });
+  });
+
+  it('sorts a status range with its class and says where an unresolvable reference points', () => {
+    const op = { responses: { '404': { $ref: '#/components/responses/Missing' }, '2XX': { description: 'Success.' }, '201': { description: 'Made.' } } };
+    expect(answersOf(op, OPENAPI_FIXTURE).map((a) => [a.status, a.description])).toEqual([
+      ['2XX', 'Success.'],
+      ['201', 'Made.'],
+      ['404', '(see #/components/responses/Missing)'],
+    ]);
+    expect(answersOf({}, OPENAPI_FIXTURE)).toEqual([]);
   });
 });
 
@@ -73,6 +94,25 @@ describe('API reference page', () => {
     expect(screen.getByText('Bearer lbt_<prefix>_<secret>')).toBeTruthy();
     // Backticked spans of a description are set as code.
     expect(screen.getByText('/api/v1/labs/{lab}', { selector: 'code' })).toBeTruthy();
+  });
+
+  it('shows the answers of each operation, shared ones resolved, with their media types and headers', async () => {
+    fakeApi({ 'GET /api/v1/openapi.json': () => ({ status: 200, body: OPENAPI_FIXTURE }) });
+    renderWithProviders(<ApiReference origin="http://127.0.0.1:5310" />);
+    const tokens = await screen.findByRole('article', { name: 'post /api/v1/labs/{lab}/tokens' });
+    const answers = within(tokens).getByRole('table', { name: 'Answers' });
+    expect(within(answers).getAllByRole('rowheader').map((h) => h.textContent)).toEqual(['201', '400', '403', '409', '503']);
+    const row = (status: string) => within(answers).getByRole('rowheader', { name: status }).closest('tr')!.textContent;
+    expect(row('201')).toContain('The token, shown once. (application/json)');
+    expect(row('403')).toContain('The role does not allow this (forbidden).');
+    expect(row('409')).toContain('token_limit_reached: this person has as many tokens');
+    expect(row('503')).toContain('header Retry-After');
+    expect(within(answers).getByText('invalid_input', { selector: 'code' })).toBeTruthy();
+
+    const ingest = screen.getByRole('article', { name: 'post /api/v1/ingest' });
+    expect(within(within(ingest).getByRole('table', { name: 'Answers' })).getAllByRole('rowheader').map((h) => h.textContent)).toEqual(['200', '429']);
+    // an operation that documents no answers shows no answers table
+    expect(within(screen.getByRole('article', { name: 'get /api/v1/ingest' })).queryByRole('table', { name: 'Answers' })).toBeNull();
   });
 
   it('says so when the document cannot be loaded', async () => {

@@ -4,23 +4,7 @@ import { OPENAPI_URL, useOpenApi } from '../api/get-openapi.ts';
 import { groupOperations } from './api-outline.ts';
 import { AUTH_LABELS, OperationCard } from './operation-card.tsx';
 import type { OpenApiDocument } from './openapi-types.ts';
-
-/** Text with `backticked` spans set as code, as the document's descriptions write them. */
-export function WithCode({ text }: { text: string }) {
-  return (
-    <>
-      {text.split(/`([^`]+)`/).map((part, i) =>
-        i % 2 === 1 ? (
-          <code key={i} className="font-mono text-ink">
-            {part}
-          </code>
-        ) : (
-          part
-        ),
-      )}
-    </>
-  );
-}
+import { WithCode } from './with-code.tsx';
 
 /** The document's ways of signing in, with what each is for. */
 function AuthSchemes({ doc }: { doc: OpenApiDocument }) {

@@ -45,7 +45,21 @@ export interface OpenApiOperation {
   security?: Array<Record<string, string[]>>;
   parameters?: OpenApiParameter[];
   requestBody?: { required?: boolean; content?: Record<string, { schema?: JsonSchema }> };
+  /** Answers by status (`200`, `404`, …), each written out or a `$ref` to `#/components/responses/…`. */
+  responses?: Record<string, OpenApiResponse | OpenApiRef>;
   'x-lagbook-permission'?: string;
+}
+
+/** A reference to another part of the document (`#/components/responses/NotFound`). */
+export interface OpenApiRef {
+  $ref: string;
+}
+
+/** One answer of an operation: what it means, its body's media types and its headers. */
+export interface OpenApiResponse {
+  description?: string;
+  content?: Record<string, { schema?: JsonSchema }>;
+  headers?: Record<string, { description?: string; schema?: JsonSchema }>;
 }
 
 export interface OpenApiSecurityScheme {
@@ -62,5 +76,5 @@ export interface OpenApiDocument {
   info: { title: string; version: string; summary?: string; description?: string };
   servers?: Array<{ url: string }>;
   paths: Record<string, Record<string, OpenApiOperation | unknown>>;
-  components?: { securitySchemes?: Record<string, OpenApiSecurityScheme>; schemas?: Record<string, JsonSchema> };
+  components?: { securitySchemes?: Record<string, OpenApiSecurityScheme>; schemas?: Record<string, JsonSchema>; responses?: Record<string, OpenApiResponse> };
 }

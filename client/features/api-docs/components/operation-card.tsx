@@ -1,5 +1,6 @@
-import type { OperationView } from './api-outline.ts';
+import type { AnswerView, OperationView } from './api-outline.ts';
 import { FieldsTable } from './fields-table.tsx';
+import { WithCode } from './with-code.tsx';
 
 /** How each way of signing in reads on the page (keys are the document's security scheme names). */
 export const AUTH_LABELS: Record<string, string> = {
@@ -33,7 +34,49 @@ function PathText({ path }: { path: string }) {
   );
 }
 
-/** One operation: method and path, what it does, who may call it and with what, and its inputs. */
+/** Success answers in green, refusals in amber, server-side failures in the alert colour. */
+function statusLook(status: string): string {
+  if (/^[123]/.test(status)) return 'text-lichen-dark';
+  if (status.startsWith('4')) return 'text-ink';
+  return 'text-alert';
+}
+
+/** Every answer the operation documents: status, what it means, body media type and headers. */
+function AnswersTable({ answers }: { answers: AnswerView[] }) {
+  return (
+    <div className="overflow-x-auto">
+      <table className="w-full border-collapse text-left text-sm">
+        <caption className="pb-1 text-left text-xs font-semibold uppercase tracking-wide text-ink-soft">Answers</caption>
+        <thead className="sr-only">
+          <tr>
+            <th scope="col">Status</th>
+            <th scope="col">Meaning</th>
+          </tr>
+        </thead>
+        <tbody>
+          {answers.map((a) => (
+            <tr key={a.status} className="border-t border-rule/70 align-top">
+              <th scope="row" className={`w-14 py-1.5 pr-3 font-mono text-xs font-bold ${statusLook(a.status)}`}>
+                {a.status}
+              </th>
+              <td className="py-1.5 text-xs">
+                <WithCode text={a.description} />
+                {(a.mediaTypes.length > 0 || a.headers.length > 0) && (
+                  <span className="text-ink-soft">
+                    {' '}
+                    ({[...a.mediaTypes, ...a.headers.map((h) => `header ${h}`)].join('; ')})
+                  </span>
+                )}
+              </td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}
+
+/** One operation: method and path, what it does, who may call it and with what, its inputs and its answers. */
 export function OperationCard({ op }: { op: OperationView }) {
   const auth = op.auth.length ? op.auth.map((a) => AUTH_LABELS[a] ?? a).join(' or ') : 'nothing (public)';
   return (
@@ -56,6 +99,7 @@ export function OperationCard({ op }: { op: OperationView }) {
       {op.pathParams.length > 0 && <FieldsTable caption="Path" rows={op.pathParams} />}
       {op.queryParams.length > 0 && <FieldsTable caption="Query" rows={op.queryParams} />}
       {op.body && <FieldsTable caption={`Body (${op.body.mediaType})`} rows={op.body.fields} />}
+      {op.answers.length > 0 && <AnswersTable answers={op.answers} />}
     </article>
   );
 }

@@ -10,15 +10,20 @@ export interface FieldRow {
   description?: string;
 }
 
-/** Follows a local `$ref` (`#/components/schemas/Name`) in `root`; anything else is returned as is. */
-export function resolveRef(schema: JsonSchema, root: unknown): JsonSchema {
-  if (!schema.$ref?.startsWith('#/')) return schema;
-  const target = schema.$ref
+/** What a local JSON pointer (`#/components/responses/NotFound`) points at in `root`, or undefined. */
+export function followPointer(pointer: string, root: unknown): unknown {
+  if (!pointer.startsWith('#/')) return undefined;
+  return pointer
     .slice(2)
     .split('/')
     .map((s) => s.replace(/~1/g, '/').replace(/~0/g, '~'))
     .reduce<unknown>((node, key) => (node && typeof node === 'object' ? (node as Record<string, unknown>)[key] : undefined), root);
-  return (target as JsonSchema | undefined) ?? schema;
+}
+
+/** Follows a local `$ref` (`#/components/schemas/Name`) in `root`; anything else is returned as is. */
+export function resolveRef(schema: JsonSchema, root: unknown): JsonSchema {
+  if (!schema.$ref) return schema;
+  return (followPointer(schema.$ref, root) as JsonSchema | undefined) ?? schema;
 }
 
 const isNull = (s: JsonSchema) => s.type === 'null';

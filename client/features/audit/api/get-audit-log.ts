@@ -1,22 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { apiFetch } from '../../../lib/api-client.ts';
-import { auditQuerySchema, type AuditQuery } from '../../../../server/http/labs/labs.schema.ts';
-
-export interface AuditEntry {
-  id: number;
-  at: string;
-  actor: { name: string; email: string } | null;
-  action: string;
-  summary: string;
-  details: Record<string, unknown> | null;
-}
-
-export interface AuditPage {
-  entries: AuditEntry[];
-  total: number;
-  page: number;
-  pageSize: number;
-}
+import { auditQuerySchema, type AuditPage, type AuditQuery } from '@shared/contract/audit.ts';
 
 /**
  * `GET /api/v1/labs/:lab/audit`: one page of the lab's audit log, newest first. The query is

@@ -1,4 +1,4 @@
-import type { AuditAction } from '../hooks/audit-search-params.ts';
+import type { AuditAction } from '@shared/contract/audit.ts';
 
 /** How each audit action reads in the log and in the filter. */
 export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {

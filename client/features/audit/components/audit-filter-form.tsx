@@ -1,8 +1,8 @@
 import { useState, type FormEvent } from 'react';
-import { AUDIT_ACTIONS } from '../../../../server/http/labs/labs.schema.ts';
+import { AUDIT_ACTIONS, type AuditAction } from '@shared/contract/audit.ts';
 import { Button } from '../../../components/button.tsx';
 import { SelectField, TextField } from '../../../components/form-field.tsx';
-import { NO_AUDIT_FILTERS, type AuditAction, type AuditFilters } from '../hooks/audit-search-params.ts';
+import { NO_AUDIT_FILTERS, type AuditFilters } from '../hooks/audit-search-params.ts';
 import { AUDIT_ACTION_LABELS } from './audit-action-labels.ts';
 
 /**

@@ -1,7 +1,7 @@
 import type { ColumnDef } from '@tanstack/react-table';
 import { DataTable } from '../../../components/data-table.tsx';
 import { DateTime } from '../../../components/date-time.tsx';
-import type { AuditEntry } from '../api/get-audit-log.ts';
+import type { AuditEntry } from '@shared/contract/audit.ts';
 import { auditActionLabel } from './audit-action-labels.ts';
 
 function Details({ details }: { details: AuditEntry['details'] }) {

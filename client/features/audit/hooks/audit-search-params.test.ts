@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { auditQuerySchema } from '../../../../server/http/labs/labs.schema.ts';
+import { auditQuerySchema } from '@shared/contract/audit.ts';
 import { readAuditFilters, toAuditQuery, writeAuditFilters } from './audit-search-params.ts';
 
 const HOUR = 3_600_000;

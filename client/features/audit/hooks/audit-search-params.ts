@@ -1,6 +1,4 @@
-import { AUDIT_ACTIONS, type AuditQuery } from '../../../../server/http/labs/labs.schema.ts';
-
-export type AuditAction = (typeof AUDIT_ACTIONS)[number];
+import { AUDIT_ACTIONS, type AuditAction, type AuditQuery } from '@shared/contract/audit.ts';
 
 /** The audit page's filters as they live in the URL: calendar days, not instants. */
 export interface AuditFilters {

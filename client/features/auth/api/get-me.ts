@@ -1,13 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { Me } from '@shared/contract/me.ts';
 import { apiFetch } from '../../../lib/api-client.ts';
-
-export type Role = 'admin' | 'technician' | 'scientist' | 'guest';
-
-export interface Me {
-  /** `timeZone`: the person's own IANA zone for alert mails, null when not set. */
-  user: { id: number; email: string; name: string; timeZone: string | null };
-  labs: Array<{ slug: string; name: string; role: Role }>;
-}
 
 /** `GET /api/v1/me`. */
 export function getMe(): Promise<Me> {

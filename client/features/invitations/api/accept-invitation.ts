@@ -1,11 +1,6 @@
 import { useMutation } from '@tanstack/react-query';
 import { apiFetch } from '../../../lib/api-client.ts';
-import type { Role } from '../../../../server/policies/permissions.ts';
-
-export interface AcceptedInvitation {
-  lab: { slug: string; name: string };
-  role: Role;
-}
+import type { AcceptedInvitation } from '@shared/contract/invitations.ts';
 
 /**
  * `POST /api/v1/invitations/:lab/:token/accept`: joins the lab. 403

@@ -1,13 +1,13 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiFetch } from '../../../lib/api-client.ts';
-import type { InviteMemberInput } from '../../../../server/http/labs/labs.schema.ts';
-import { invitationsQueryOptions, type PendingInvitation } from './get-invitations.ts';
+import type { InvitationAnswer, InviteMemberInput } from '@shared/contract/invitations.ts';
+import { invitationsQueryOptions } from './get-invitations.ts';
 
 /**
  * `POST /api/v1/labs/:lab/invitations`: invites an address in a role and mails the link.
  * 409 `invitation_pending` or `already_member` when there is nothing new to send.
  */
-export function createInvitation(slug: string, input: InviteMemberInput): Promise<{ invitation: PendingInvitation }> {
+export function createInvitation(slug: string, input: InviteMemberInput): Promise<InvitationAnswer> {
   return apiFetch(`/api/v1/labs/${encodeURIComponent(slug)}/invitations`, { method: 'POST', body: JSON.stringify(input) });
 }
 

@@ -1,19 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { apiFetch } from '../../../lib/api-client.ts';
-import type { Role } from '../../../../server/policies/permissions.ts';
-
-export interface InvitationPreview {
-  invitation: {
-    lab: { slug: string; name: string };
-    role: Role;
-    email: string;
-    /** Null when the inviting account no longer exists. */
-    invitedBy: { name: string } | null;
-    expiresAt: string;
-  };
-  /** Whether the signed-in person's verified e-mail is the invited address. */
-  matchesSignedInUser: boolean;
-}
+import type { InvitationPreview } from '@shared/contract/invitations.ts';
 
 /**
  * `GET /api/v1/invitations/:lab/:token`: what an invitation link offers. 404

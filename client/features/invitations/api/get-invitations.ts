@@ -1,20 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { apiFetch } from '../../../lib/api-client.ts';
-import type { Role } from '../../../../server/policies/permissions.ts';
-
-export interface PendingInvitation {
-  id: number;
-  email: string;
-  role: Role;
-  /** Null when the inviting account no longer exists. */
-  invitedBy: { name: string; email: string } | null;
-  createdAt: string;
-  expiresAt: string;
-  lastSentAt: string;
-}
+import type { PendingInvitationsAnswer } from '@shared/contract/invitations.ts';
 
 /** `GET /api/v1/labs/:lab/invitations`: invitations not yet accepted, revoked or expired. */
-export function getInvitations(slug: string): Promise<{ invitations: PendingInvitation[] }> {
+export function getInvitations(slug: string): Promise<PendingInvitationsAnswer> {
   return apiFetch(`/api/v1/labs/${encodeURIComponent(slug)}/invitations`);
 }
 

@@ -1,9 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiFetch } from '../../../lib/api-client.ts';
-import { invitationsQueryOptions, type PendingInvitation } from './get-invitations.ts';
+import type { InvitationAnswer } from '@shared/contract/invitations.ts';
+import { invitationsQueryOptions } from './get-invitations.ts';
 
 /** `POST /api/v1/labs/:lab/invitations/:id/resend`: a new link and expiry; the old link stops working. */
-export function resendInvitation(slug: string, id: number): Promise<{ invitation: PendingInvitation }> {
+export function resendInvitation(slug: string, id: number): Promise<InvitationAnswer> {
   return apiFetch(`/api/v1/labs/${encodeURIComponent(slug)}/invitations/${id}/resend`, { method: 'POST' });
 }
 

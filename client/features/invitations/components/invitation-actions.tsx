@@ -2,7 +2,7 @@ import { Button } from '../../../components/button.tsx';
 import { ConfirmButton } from '../../../components/confirm-button.tsx';
 import { useResendInvitation } from '../api/resend-invitation.ts';
 import { useRevokeInvitation } from '../api/revoke-invitation.ts';
-import type { PendingInvitation } from '../api/get-invitations.ts';
+import type { PendingInvitation } from '@shared/contract/invitations.ts';
 
 /** Resend and Revoke (asked twice) for one pending invitation, with the outcome beside them. */
 export function InvitationActions({ slug, invitation }: { slug: string; invitation: PendingInvitation }) {

@@ -17,7 +17,7 @@ describe('InviteForm', () => {
     renderWithProviders(<InviteForm slug="fernhollow" />);
     fireEvent.change(email(), { target: { value: 'not-an-address' } });
     fireEvent.click(screen.getByRole('button', { name: 'Send invitation' }));
-    // Message from inviteMemberSchema (server/http/labs/labs.schema.ts).
+    // Message from inviteMemberSchema (server/contract/invitations.ts).
     expect(await screen.findByText('must be a valid e-mail address')).toBeTruthy();
     expect(email().getAttribute('aria-invalid')).toBe('true');
     expect(api.requests).toHaveLength(0);

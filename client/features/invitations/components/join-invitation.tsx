@@ -1,11 +1,12 @@
 import { Link } from 'react-router-dom';
-import { ROLE_LABELS } from '../../../../server/policies/permissions.ts';
+import { ROLE_LABELS } from '@shared/policies/permissions.ts';
 import { paths } from '../../../app/paths.ts';
 import { Button, buttonClasses } from '../../../components/button.tsx';
 import { DateTime } from '../../../components/date-time.tsx';
 import { LoadingNote, Notice } from '../../../components/notice.tsx';
 import { ApiError } from '../../../lib/api-client.ts';
-import { useAcceptInvitation, type AcceptedInvitation } from '../api/accept-invitation.ts';
+import type { AcceptedInvitation } from '@shared/contract/invitations.ts';
+import { useAcceptInvitation } from '../api/accept-invitation.ts';
 import { useInvitationByToken } from '../api/get-invitation-by-token.ts';
 import { invitationProblem } from './invitation-problems.ts';
 

@@ -1,9 +1,9 @@
 import { useMemo } from 'react';
 import type { ColumnDef } from '@tanstack/react-table';
-import { ROLES, ROLE_LABELS } from '../../../../server/policies/permissions.ts';
+import { ROLES, ROLE_LABELS } from '@shared/policies/permissions.ts';
 import { DataTable } from '../../../components/data-table.tsx';
 import { DateTime } from '../../../components/date-time.tsx';
-import type { PendingInvitation } from '../api/get-invitations.ts';
+import type { PendingInvitation } from '@shared/contract/invitations.ts';
 import { InvitationActions } from './invitation-actions.tsx';
 
 function columnsFor(slug: string): ColumnDef<PendingInvitation>[] {

@@ -1,13 +1,6 @@
 import { useMutation } from '@tanstack/react-query';
 import { apiFetch } from '../../../lib/api-client.ts';
-import type { CreateLabInput } from '../../../../server/http/labs/labs.schema.ts';
-import type { Role } from '../../../../server/policies/permissions.ts';
-
-export interface CreatedLab {
-  lab: { slug: string; name: string; role: Role };
-  /** The address asked for; `lab.slug` differs when that one was unavailable and the lab got a variant. */
-  requestedSlug: string;
-}
+import type { CreatedLab, CreateLabInput } from '@shared/contract/labs.ts';
 
 /** `POST /api/v1/labs`: creates a lab with the signed-in person as its first admin. */
 export function createLab(input: CreateLabInput): Promise<CreatedLab> {

@@ -1,12 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { apiFetch, ApiError } from '../../../lib/api-client.ts';
-import type { Permission, Role } from '../../../../server/policies/permissions.ts';
-
-export interface LabDetail {
-  lab: { slug: string; name: string; createdAt: string };
-  role: Role;
-  permissions: Permission[];
-}
+import type { LabDetail } from '@shared/contract/labs.ts';
 
 /** `GET /api/v1/labs/:lab`: the lab, the signed-in member's role and what that role may do. */
 export function getLab(slug: string): Promise<LabDetail> {

@@ -17,7 +17,7 @@ describe('CreateLabForm', () => {
     const onCreated = vi.fn();
     renderWithProviders(<CreateLabForm onCreated={onCreated} />);
     fireEvent.change(nameInput(), { target: { value: 'Fernhollow Field Station' } });
-    // Expected value: the example in slugFromName's own doc comment (server/http/labs/labs.schema.ts).
+    // Expected value: the example in slugFromName's own doc comment (server/policies/lab-slug.ts).
     expect(slugInput().value).toBe('fernhollow-field-station');
     expect(screen.getByText('/labs/fernhollow-field-station')).toBeTruthy();
     fireEvent.click(screen.getByRole('button', { name: 'Create lab' }));
@@ -42,7 +42,7 @@ describe('CreateLabForm', () => {
     fireEvent.change(nameInput(), { target: { value: 'X' } });
     fireEvent.change(slugInput(), { target: { value: 'Bad Slug' } });
     fireEvent.click(screen.getByRole('button', { name: 'Create lab' }));
-    // Messages from createLabSchema / labSlugSchema in server/http/labs/labs.schema.ts.
+    // Messages from createLabSchema / labSlugSchema in server/contract/labs.ts.
     expect(await screen.findByText('must be at least 2 characters')).toBeTruthy();
     expect(screen.getByText('use lowercase letters, digits and single hyphens')).toBeTruthy();
     expect(nameInput().getAttribute('aria-invalid')).toBe('true');

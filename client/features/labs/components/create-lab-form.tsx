@@ -2,12 +2,13 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
-import { createLabSchema, slugFromName } from '../../../../server/http/labs/labs.schema.ts';
+import { createLabSchema, slugFromName } from '@shared/contract/labs.ts';
 import { Button } from '../../../components/button.tsx';
 import { TextField } from '../../../components/form-field.tsx';
 import { Notice } from '../../../components/notice.tsx';
 import { applyServerError } from '../../../components/server-field-error.ts';
-import { useCreateLab, type CreatedLab } from '../api/create-lab.ts';
+import type { CreatedLab } from '@shared/contract/labs.ts';
+import { useCreateLab } from '../api/create-lab.ts';
 
 type CreateLabForm = z.input<typeof createLabSchema>;
 

@@ -1,5 +1,5 @@
 import { Link } from 'react-router-dom';
-import { ROLE_LABELS, type Role } from '../../../../server/policies/permissions.ts';
+import { ROLE_LABELS, type Role } from '@shared/policies/permissions.ts';
 import { paths } from '../../../app/paths.ts';
 
 /** The person's labs as cards that open each lab. */

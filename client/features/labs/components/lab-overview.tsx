@@ -1,7 +1,7 @@
 import { Link } from 'react-router-dom';
-import { ROLE_LABELS } from '../../../../server/policies/permissions.ts';
+import { ROLE_LABELS } from '@shared/policies/permissions.ts';
 import { DateTime } from '../../../components/date-time.tsx';
-import type { LabDetail } from '../api/get-lab.ts';
+import type { LabDetail } from '@shared/contract/labs.ts';
 import { visibleSections } from './lab-sections.ts';
 
 /** The lab's home: its address, when it was created, your role, and the sections you can open. */

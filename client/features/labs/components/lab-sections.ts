@@ -1,4 +1,4 @@
-import type { Permission } from '../../../../server/policies/permissions.ts';
+import type { Permission } from '@shared/policies/permissions.ts';
 import { paths } from '../../../app/paths.ts';
 
 export interface LabSection {

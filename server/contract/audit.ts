@@ -1,33 +1,9 @@
 import { z } from 'zod';
-import { roleSchema } from '../../contract/members.ts';
+import type { IsoTime } from './common.ts';
 
-/**
- * Input schemas of the lab, member, invitation and audit routes. The client's forms import
- * these same schemas, so a form and the server never disagree about what is valid.
- * Pure zod: no server imports.
- */
+/** A lab's audit log: the actions it records, the filters admins read it with, and its entries. */
 
-export const labSlugSchema = z
-  .string()
-  .trim()
-  .min(3, 'must be at least 3 characters')
-  .max(48, 'must be at most 48 characters')
-  .regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'use lowercase letters, digits and single hyphens');
-
-export const createLabSchema = z.object({
-  name: z.string().trim().min(2, 'must be at least 2 characters').max(120, 'must be at most 120 characters'),
-  slug: labSlugSchema.optional(),
-});
-export type CreateLabInput = z.infer<typeof createLabSchema>;
-
-
-export const inviteMemberSchema = z.object({
-  email: z.string().trim().toLowerCase().max(191, 'must be at most 191 characters').pipe(z.email('must be a valid e-mail address')),
-  role: roleSchema,
-});
-export type InviteMemberInput = z.infer<typeof inviteMemberSchema>;
-
-
+/** Every action the audit log records: the services write these, the client's filter offers them. */
 export const AUDIT_ACTIONS = [
   'lab.created',
   'invitation.created',
@@ -60,7 +36,9 @@ export const AUDIT_ACTIONS = [
   'billing.plan-changed',
   'billing.status-changed',
 ] as const;
+export type AuditAction = (typeof AUDIT_ACTIONS)[number];
 
+/** `GET …/audit`: filters (all optional) and the page asked for. */
 export const auditQuerySchema = z.object({
   action: z.string().max(64).optional(),
   actor: z.string().trim().max(191).optional(),
@@ -71,5 +49,21 @@ export const auditQuerySchema = z.object({
 });
 export type AuditQuery = z.infer<typeof auditQuerySchema>;
 
-// The client's create-lab form previews the slug the server will derive.
-export { slugFromName } from '../../policies/lab-slug.ts';
+/** One entry of the audit log; `actor` is null for an operator's action or a deleted account. */
+export interface AuditEntry {
+  id: number;
+  at: IsoTime;
+  actor: { name: string; email: string } | null;
+  /** One of AUDIT_ACTIONS (typed as a string: the log keeps what was recorded). */
+  action: string;
+  summary: string;
+  details: Record<string, unknown> | null;
+}
+
+/** `GET …/audit`: one page of the log, newest first, with the total for the pager. */
+export interface AuditPage {
+  entries: AuditEntry[];
+  total: number;
+  page: number;
+  pageSize: number;
+}
