@@ -39,10 +39,10 @@ import { startBackgroundJobs, type BackgroundJob } from './jobs/background-jobs.
 import { composeIngestHooks } from './services/ingest/ingest-hooks.ts';
 import { quarantineCapHook } from './services/ingest/quarantine-cap.ts';
 import { createTestReadingService } from './services/test-reading.service.ts';
-import { loggerRoutes } from './http/loggers/loggers.router.ts';
-import { quarantineRoutes } from './http/loggers/quarantine.router.ts';
-import { ingestRouter } from './http/ingest/ingest.router.ts';
-import { uploadRoutes } from './http/loggers/uploads.router.ts';
+import { loggerRoutes } from './http/loggers/loggers.routes.ts';
+import { quarantineRoutes } from './http/loggers/quarantine.routes.ts';
+import { ingestRoutes } from './http/ingest/ingest.routes.ts';
+import { uploadRoutes } from './http/loggers/uploads.routes.ts';
 import { createUploadsService } from './services/uploads.service.ts';
 import { createChannelsService } from './services/channels.service.ts';
 import { createDiagnosticsService } from './services/diagnostics.service.ts';
@@ -145,9 +145,12 @@ export function createApp(deps: AppDeps): Express {
     ...invitationRoutes({ invitations, sendLimit: limits.invitations }),
     ...invitationAcceptanceRoutes({ invitations }),
     ...auditRoutes({ audit }),
-    ...fromLabRoutes(loggerRoutes({ loggers, testReadings: createTestReadingService({ db, now: nowMs, hooks: ingestHooks }) })),
-    ...fromLabRoutes(quarantineRoutes({ quarantine })),
-    ...fromLabRoutes(uploadRoutes({ uploads: createUploadsService({ db, now: nowMs, hooks: ingestHooks }), logger })),
+    ...loggerRoutes({ loggers, testReadings: createTestReadingService({ db, now: nowMs, hooks: ingestHooks }) }),
+    ...quarantineRoutes({ quarantine }),
+    ...uploadRoutes({ uploads: createUploadsService({ db, now: nowMs, hooks: ingestHooks }), logger }),
+    // Loggers authenticate with their key, not a session: 'ingest-key' mounts it before the session
+    // middleware and the JSON parser; it takes its own (larger) body limit.
+    ...ingestRoutes({ ingest, rate: deps.ingestRate }),
     ...fromLabRoutes(
       channelRoutes({
         channels,
@@ -174,9 +177,6 @@ export function createApp(deps: AppDeps): Express {
   app.use(securityHeaders({ secure: config.secureCookies }));
   // Unsupported Content-Encoding or charset: 415 before any body parser runs, on every route.
   app.use(bodyEncodingGuard());
-  // Loggers authenticate with their key, not a session: ingestion comes before the session
-  // middleware and takes its own (larger) body limits.
-  app.use(ingestRouter({ ingest, rate: deps.ingestRate }));
   app.use(mountRoutes(routes.filter(runsBeforeSession), mountContext));
   app.use(sessionMiddleware({ db, secret: config.sessionSecret, secure: config.secureCookies }));
   app.use(passport.session());

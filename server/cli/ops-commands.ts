@@ -1,19 +1,29 @@
+import type { z } from 'zod';
 import type { Db } from '../db/create-db.ts';
 import { createLabsRepo } from '../db/labs.repo.ts';
 import { createLabsService } from '../services/labs.service.ts';
 import { createInvitationsService } from '../services/invitations.service.ts';
 import { createLoggersService } from '../services/loggers.service.ts';
-import { createLoggerSchema } from '../http/loggers/loggers.schema.ts';
+import { createLoggerSchema } from '../contract/loggers.ts';
 import { createLabSchema } from '../contract/labs.ts';
-import { parseInput } from '../http/validate.ts';
 import type { LabContext } from '../services/lab-context.ts';
-import { AppError } from '../errors.ts';
+import { AppError, ValidationError } from '../errors.ts';
 import { inLab } from '../db/tenant-scope.ts';
 import { membershipsIn } from '../db/memberships.repo.ts';
 import { createUsersRepo } from '../db/users.repo.ts';
 import { can } from '../policies/permissions.ts';
 import { createPersonalTokensService } from '../services/personal-tokens.service.ts';
 import { createPersonalTokenSchema } from '../contract/tokens.ts';
+
+/**
+ * Checks an operator's options with a contract schema; a failure is the same 400 `invalid_input`
+ * (`field: reason` lines) the API gives, so the CLI prints the message the form would show.
+ */
+function parseInput<S extends z.ZodType>(schema: S, input: unknown): z.infer<S> {
+  const result = schema.safeParse(input);
+  if (!result.success) throw new ValidationError(result.error.issues.map((i) => `${i.path.join('.') || 'body'}: ${i.message}`).join('; '));
+  return result.data;
+}
 
 /** What each operator command returns (printed as text, or as JSON with --json). */
 export interface CommandResult {

@@ -12,8 +12,13 @@ import { AppError, NotFoundError, ServiceUnavailableError } from '../errors.ts';
 import { ConflictError, GoneError } from './service-errors.ts';
 import { invitationMail } from './mail/invitation-mail.ts';
 import type { Actor, LabContext } from './lab-context.ts';
+import type { Role } from '../policies/permissions.ts';
 import type { PlanLimitGuard } from './billing/plan-limits.ts';
-import type { InviteMemberInput } from '../contract/invitations.ts';
+
+export interface InviteMemberInput {
+  email: string;
+  role: Role;
+}
 
 export const INVITATION_LIFETIME_MS = 7 * 24 * 3600 * 1000;
 

@@ -14,7 +14,11 @@ import { ConflictError, isDuplicateKey } from './service-errors.ts';
 import { isLockConflict } from '../db/db-errors.ts';
 import { AppError, ValidationError } from '../errors.ts';
 import type { Actor } from './lab-context.ts';
-import type { CreateLabInput } from '../contract/labs.ts';
+
+export interface CreateLabInput {
+  name: string;
+  slug?: string;
+}
 
 /** A lab a person created, and the address they asked for (the lab's own may differ: see create). */
 export interface CreatedLab {

@@ -194,7 +194,7 @@ async function measureUpload(
         body: Readable.toWeb(file) as ReadableStream,
         duplex: 'half',
       } as RequestInit);
-      let text: string;
+      let text = '';
       try {
         text = await res.text();
       } catch (err) {

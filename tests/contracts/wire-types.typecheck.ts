@@ -10,11 +10,6 @@ import type { ChannelSeries } from '../../server/services/channels.service.ts';
 import type { DiagnosticsReport as ServerDiagnosticsReport } from '../../server/services/diagnostics-report.ts';
 import type { RangeComparisonReport } from '../../server/services/range-comparison-report.ts';
 import type { presentAlert, presentAlertRule } from '../../server/http/alerts/alerts.presenter.ts';
-import type { presentChannel, presentIssuedKey, presentKeyInfo, presentLogger, presentLoggerDetail, presentQuarantinedRow } from '../../server/http/presenters/loggers.presenter.ts';
-import type { IssuedKey } from '../../client/features/loggers/api/create-logger.ts';
-import type { Channel, IngestKeyInfo, LoggerDetail } from '../../client/features/loggers/api/get-logger.ts';
-import type { LoggerSummary } from '../../client/features/loggers/api/get-loggers.ts';
-import type { QuarantinedRow } from '../../client/features/quarantine/api/get-quarantine.ts';
 import type { ChannelOverviewRow } from '../../client/features/channels/api/get-channels.ts';
 import type { ChannelDetail } from '../../client/features/channels/api/get-channel.ts';
 import type { Series } from '../../client/features/channels/api/get-series.ts';
@@ -47,11 +42,4 @@ export type Contracts = [
   Reads<Json<RangeComparisonReport>, ComparisonAnswer>,
   Reads<Answer<typeof presentAlert>, Alert>,
   Reads<Answer<typeof presentAlertRule>, AlertRule>,
-  // the logger list presents every logger with its channel count
-  Reads<Answer<typeof presentLogger> & { channelCount: number }, LoggerSummary>,
-  Reads<Answer<typeof presentLoggerDetail>, LoggerDetail>,
-  Reads<Answer<typeof presentChannel>, Channel>,
-  Reads<Answer<typeof presentKeyInfo>, IngestKeyInfo>,
-  Reads<Answer<typeof presentIssuedKey>['ingestKey'], IssuedKey>,
-  Reads<Answer<typeof presentQuarantinedRow>, QuarantinedRow>,
 ];

@@ -1,5 +1,5 @@
 import { Link, useParams } from 'react-router-dom';
-import type { LoggerDetail } from '../../features/loggers/api/get-logger.ts';
+import type { LoggerDetail } from '@shared/contract/loggers.ts';
 import { LoggerLoader } from '../../features/loggers/components/logger-loader.tsx';
 import { UploadPanel } from '../../features/uploads/components/upload-panel.tsx';
 import { MissingPermission } from '../../features/labs/components/lab-not-found.tsx';

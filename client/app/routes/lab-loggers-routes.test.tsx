@@ -4,8 +4,7 @@ import { Outlet, type RouteObject } from 'react-router-dom';
 import { ROLE_PERMISSIONS, type Role } from '@shared/policies/permissions.ts';
 import { apiError, fakeApi, renderWithProviders } from '../../components/test-harness.tsx';
 import type { Me } from '@shared/contract/me.ts';
-import type { LoggerDetail } from '../../features/loggers/api/get-logger.ts';
-import type { LoggerSummary } from '../../features/loggers/api/get-loggers.ts';
+import type { LoggerDetail, LoggerSummary } from '@shared/contract/loggers.ts';
 import LabLayout from './lab-layout.tsx';
 import LabLoggersRoute from './lab-loggers.tsx';
 import LabLoggerNewRoute from './lab-logger-new.tsx';
@@ -193,7 +192,7 @@ describe('registering a logger', () => {
     fill('Channel 1 valid minimum', '5');
     fill('Channel 1 valid maximum', '1');
     fireEvent.click(screen.getByRole('button', { name: 'Register logger' }));
-    // Messages from createLoggerSchema / channelInputSchema (server/http/loggers/loggers.schema.ts).
+    // Messages from createLoggerSchema / channelInputSchema (server/contract/loggers.ts).
     expect(await screen.findByText('use 1–64 letters, digits, "_", "." or "-", starting with a letter or digit')).toBeTruthy();
     expect(screen.getByText('must be a number')).toBeTruthy();
     expect(screen.getByText('validMin must be below validMax')).toBeTruthy();

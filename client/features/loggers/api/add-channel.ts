@@ -1,10 +1,9 @@
 import { apiFetch } from '../../../lib/api-client.ts';
-import type { ChannelInputBody } from '../../../../server/http/loggers/loggers.schema.ts';
-import type { Channel } from './get-logger.ts';
+import type { ChannelAnswer, ChannelInputBody } from '@shared/contract/loggers.ts';
 import { useLoggersMutation } from './logger-mutation.ts';
 
 /** `POST /api/v1/labs/:lab/loggers/:loggerId/channels`; 409 `channel_key_taken` for a key the logger already has. */
-export function addChannel(slug: string, loggerId: number, input: ChannelInputBody): Promise<{ channel: Channel }> {
+export function addChannel(slug: string, loggerId: number, input: ChannelInputBody): Promise<ChannelAnswer> {
   return apiFetch(`/api/v1/labs/${encodeURIComponent(slug)}/loggers/${loggerId}/channels`, { method: 'POST', body: JSON.stringify(input) });
 }
 

@@ -1,24 +1,11 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { LoggersAnswer } from '@shared/contract/loggers.ts';
 import { apiFetch } from '../../../lib/api-client.ts';
-
-/** A logger as the lab's list shows it. Instants are ISO 8601 strings; `null` means never / not retired. */
-export interface LoggerSummary {
-  id: number;
-  name: string;
-  serial: string | null;
-  site: string | null;
-  timezone: string;
-  expectedIntervalS: number;
-  createdAt: string;
-  retiredAt: string | null;
-  lastSeenAt: string | null;
-  channelCount: number;
-}
 
 const base = (slug: string) => `/api/v1/labs/${encodeURIComponent(slug)}/loggers`;
 
 /** `GET /api/v1/labs/:lab/loggers[?includeRetired=true]`. */
-export function getLoggers(slug: string, includeRetired: boolean): Promise<{ loggers: LoggerSummary[] }> {
+export function getLoggers(slug: string, includeRetired: boolean): Promise<LoggersAnswer> {
   return apiFetch(`${base(slug)}${includeRetired ? '?includeRetired=true' : ''}`);
 }
 

@@ -1,14 +1,6 @@
-import type { TestReadingBody } from '../../../../server/http/loggers/loggers.schema.ts';
+import type { TestReadingBody, TestReadingResult } from '@shared/contract/loggers.ts';
 import { apiFetch } from '../../../lib/api-client.ts';
 import { useLoggersMutation } from './logger-mutation.ts';
-
-/** What the server did with a test reading, and what it read back from the database. */
-export interface TestReadingResult {
-  sent: { channel: string; ts: string; value: number };
-  outcome: { accepted: number; duplicates: number; quarantined: Array<{ index: number; code: string; reason: string }> };
-  storedValue: number | null;
-  roundTripMs: number;
-}
 
 /**
  * `POST /api/v1/labs/:lab/loggers/:loggerId/test-reading`: stores one reading of a channel now,

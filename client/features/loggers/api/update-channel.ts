@@ -1,13 +1,9 @@
-import type { z } from 'zod';
 import { apiFetch } from '../../../lib/api-client.ts';
-import type { channelPatchSchema } from '../../../../server/http/loggers/loggers.schema.ts';
-import type { Channel } from './get-logger.ts';
+import type { ChannelAnswer, ChannelPatch } from '@shared/contract/loggers.ts';
 import { useLoggersMutation } from './logger-mutation.ts';
 
-export type ChannelPatch = z.output<typeof channelPatchSchema>;
-
 /** `PATCH /api/v1/labs/:lab/loggers/:loggerId/channels/:channelId`. */
-export function updateChannel(slug: string, loggerId: number, channelId: number, patch: ChannelPatch): Promise<{ channel: Channel }> {
+export function updateChannel(slug: string, loggerId: number, channelId: number, patch: ChannelPatch): Promise<ChannelAnswer> {
   return apiFetch(`/api/v1/labs/${encodeURIComponent(slug)}/loggers/${loggerId}/channels/${channelId}`, {
     method: 'PATCH',
     body: JSON.stringify(patch),

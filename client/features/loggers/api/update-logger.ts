@@ -1,13 +1,9 @@
-import type { z } from 'zod';
 import { apiFetch } from '../../../lib/api-client.ts';
-import type { loggerPatchSchema } from '../../../../server/http/loggers/loggers.schema.ts';
-import type { LoggerSummary } from './get-loggers.ts';
+import type { LoggerPatch, UpdatedLoggerAnswer } from '@shared/contract/loggers.ts';
 import { useLoggersMutation } from './logger-mutation.ts';
 
-export type LoggerPatch = z.output<typeof loggerPatchSchema>;
-
 /** `PATCH /api/v1/labs/:lab/loggers/:loggerId`: name, serial, site, time zone or expected interval. */
-export function updateLogger(slug: string, loggerId: number, patch: LoggerPatch): Promise<{ logger: LoggerSummary }> {
+export function updateLogger(slug: string, loggerId: number, patch: LoggerPatch): Promise<UpdatedLoggerAnswer> {
   return apiFetch(`/api/v1/labs/${encodeURIComponent(slug)}/loggers/${loggerId}`, { method: 'PATCH', body: JSON.stringify(patch) });
 }
 

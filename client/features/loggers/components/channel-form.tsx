@@ -1,13 +1,12 @@
 import { useForm, type UseFormRegisterReturn } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
-import { channelInputSchema, channelPatchSchema } from '../../../../server/http/loggers/loggers.schema.ts';
+import { channelInputSchema, channelPatchSchema, type Channel } from '@shared/contract/loggers.ts';
 import { Button } from '../../../components/button.tsx';
 import { numberMessages } from '../../../components/form-numbers.ts';
 import { Notice } from '../../../components/notice.tsx';
 import { applyServerError } from '../../../components/server-field-error.ts';
 import { useAddChannel } from '../api/add-channel.ts';
-import type { Channel } from '../api/get-logger.ts';
 import { useUpdateChannel } from '../api/update-channel.ts';
 import { ChannelFields, EMPTY_CHANNEL, type ChannelFieldName, type ChannelFieldOptions } from './channel-fields.tsx';
 

@@ -4,7 +4,7 @@ import { Button } from '../../../components/button.tsx';
 import { ConfirmAction } from '../../../components/confirm-action.tsx';
 import { DataTable } from '../../../components/data-table.tsx';
 import { useRetireChannel } from '../api/retire-channel.ts';
-import type { Channel } from '../api/get-logger.ts';
+import type { Channel } from '@shared/contract/loggers.ts';
 import { AddChannelForm, EditChannelForm } from './channel-form.tsx';
 import { formatInterval } from './format-interval.ts';
 

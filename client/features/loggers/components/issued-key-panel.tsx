@@ -1,6 +1,6 @@
 import { useMemo, type ReactNode } from 'react';
 import { CopyButton } from '../../../components/copy-button.tsx';
-import type { IssuedKey } from '../api/create-logger.ts';
+import type { IssuedKey } from '@shared/contract/loggers.ts';
 import { curlIngestExample, type ExampleChannel } from './ingest-example.ts';
 
 /**

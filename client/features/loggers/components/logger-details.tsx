@@ -1,7 +1,7 @@
 import type { ReactNode } from 'react';
 import { DateTime } from '../../../components/date-time.tsx';
 import { RelativeTime } from '../../../components/relative-time.tsx';
-import type { LoggerDetail } from '../api/get-logger.ts';
+import type { LoggerDetail } from '@shared/contract/loggers.ts';
 import { formatInterval } from './format-interval.ts';
 
 /** A logger's details as a description list: serial, site, zone, interval, registration, last reading, retirement. */

@@ -1,14 +1,13 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
-import { loggerPatchSchema } from '../../../../server/http/loggers/loggers.schema.ts';
+import { loggerPatchSchema, type LoggerDetail } from '@shared/contract/loggers.ts';
 import { Button } from '../../../components/button.tsx';
 import { TextField } from '../../../components/form-field.tsx';
 import { numberMessages, requiredNumber } from '../../../components/form-numbers.ts';
 import { Notice } from '../../../components/notice.tsx';
 import { applyServerError } from '../../../components/server-field-error.ts';
 import { TimeZoneSelect } from '../../../components/time-zone-select.tsx';
-import type { LoggerDetail } from '../api/get-logger.ts';
 import { useUpdateLogger } from '../api/update-logger.ts';
 
 type LoggerEditForm = z.input<typeof loggerPatchSchema>;

@@ -1,7 +1,8 @@
 import type { ReactNode } from 'react';
 import { LoadingNote, Notice } from '../../../components/notice.tsx';
 import { ApiError } from '../../../lib/api-client.ts';
-import { useLogger, type LoggerDetail } from '../api/get-logger.ts';
+import type { LoggerDetail } from '@shared/contract/loggers.ts';
+import { useLogger } from '../api/get-logger.ts';
 
 /**
  * Loads one logger of the lab and renders `children` with it; meanwhile a loading note, and

@@ -3,7 +3,7 @@ import { Link } from 'react-router-dom';
 import { paths } from '../../../app/paths.ts';
 import { Button, buttonClasses } from '../../../components/button.tsx';
 import { Notice } from '../../../components/notice.tsx';
-import type { LoggerDetail } from '../api/get-logger.ts';
+import type { LoggerDetail } from '@shared/contract/loggers.ts';
 import { ChannelsTable } from './channels-table.tsx';
 import { KeysPanel } from './keys-panel.tsx';
 import { LoggerDetails } from './logger-details.tsx';

@@ -1,7 +1,7 @@
 import { useFieldArray, useForm, type FieldPath } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
-import { createLoggerSchema } from '../../../../server/http/loggers/loggers.schema.ts';
+import { createLoggerSchema } from '@shared/contract/loggers.ts';
 import { Button } from '../../../components/button.tsx';
 import { TextField } from '../../../components/form-field.tsx';
 import { numberMessages, requiredNumber } from '../../../components/form-numbers.ts';

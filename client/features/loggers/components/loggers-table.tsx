@@ -4,7 +4,7 @@ import type { ColumnDef } from '@tanstack/react-table';
 import { paths } from '../../../app/paths.ts';
 import { DataTable } from '../../../components/data-table.tsx';
 import { RelativeTime } from '../../../components/relative-time.tsx';
-import type { LoggerSummary } from '../api/get-loggers.ts';
+import type { LoggerSummary } from '@shared/contract/loggers.ts';
 import { formatInterval } from './format-interval.ts';
 
 /**

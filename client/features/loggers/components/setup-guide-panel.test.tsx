@@ -2,8 +2,7 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import { cleanup, fireEvent, screen, waitFor } from '@testing-library/react';
 import { apiError, fakeApi, renderWithProviders } from '../../../components/test-harness.tsx';
 import { readingsFromJson } from '../../../../server/services/ingest/readings-from-body.ts';
-import { testReadingSchema } from '../../../../server/http/loggers/loggers.schema.ts';
-import type { Channel, LoggerDetail } from '../api/get-logger.ts';
+import { testReadingSchema, type Channel, type LoggerDetail } from '@shared/contract/loggers.ts';
 import { LoggerPage } from './logger-page.tsx';
 import { SetupGuidePanel } from './setup-guide-panel.tsx';
 

@@ -1,6 +1,6 @@
 import { useState, type ReactNode } from 'react';
 import { CopyButton } from '../../../components/copy-button.tsx';
-import type { Channel } from '../api/get-logger.ts';
+import type { Channel } from '@shared/contract/loggers.ts';
 import { curlSnippet, ingestEndpoint, isoWithOffset, pythonSnippet, rawHttpSnippet, sketchSnippet } from './setup-snippets.ts';
 import { TestReadingPanel } from './test-reading-panel.tsx';
 

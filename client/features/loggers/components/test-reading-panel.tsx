@@ -2,8 +2,8 @@ import { useState, type FormEvent } from 'react';
 import { Button } from '../../../components/button.tsx';
 import { SelectField, TextField } from '../../../components/form-field.tsx';
 import { Notice } from '../../../components/notice.tsx';
-import type { Channel } from '../api/get-logger.ts';
-import { useSendTestReading, type TestReadingResult } from '../api/send-test-reading.ts';
+import type { Channel, TestReadingResult } from '@shared/contract/loggers.ts';
+import { useSendTestReading } from '../api/send-test-reading.ts';
 import { sampleValue } from './ingest-example.ts';
 
 /** The round trip in words: stored (and read back), a duplicate, or quarantined with the server's reason. */

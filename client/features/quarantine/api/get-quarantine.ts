@@ -1,20 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import type { QuarantinePage } from '@shared/contract/quarantine.ts';
 import { apiFetch } from '../../../lib/api-client.ts';
-
-/** A reading kept in quarantine, with the fields as they arrived (text) and why it was kept. */
-export interface QuarantinedRow {
-  id: number;
-  loggerId: number | null;
-  source: 'api' | 'upload' | 'resubmit';
-  rowIndex: number;
-  reasonCode: string;
-  reason: string;
-  channel: string | null;
-  ts: string | null;
-  value: string | null;
-  raw: string | null;
-  receivedAt: string;
-}
 
 export interface QuarantineQuery {
   loggerId?: number;
@@ -22,17 +8,6 @@ export interface QuarantineQuery {
   /** The `nextCursor` of the page before; absent for the first page. */
   cursor?: string;
   pageSize: number;
-}
-
-/** One keyset page: `nextCursor` asks for the following one (null on the last page). */
-export interface QuarantinePage {
-  rows: QuarantinedRow[];
-  /** Matching rows, counted up to 10,000. */
-  total: number;
-  /** True when `total` stopped at the counting limit (there are at least that many). */
-  totalAtLeast: boolean;
-  pageSize: number;
-  nextCursor: string | null;
 }
 
 /** The query string of a quarantine request (also used by the CSV download), empty filters left out. */

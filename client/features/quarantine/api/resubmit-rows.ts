@@ -1,21 +1,6 @@
+import type { ResubmitOutcome, ResubmitRow } from '@shared/contract/quarantine.ts';
 import { apiFetch } from '../../../lib/api-client.ts';
 import { useQuarantineMutation } from './quarantine-mutation.ts';
-
-/** A quarantined row sent again, as it was or as corrected. */
-export interface ResubmitRow {
-  id: number;
-  channel: string;
-  ts: string | number;
-  value: string | number;
-}
-
-/** What became of re-submitted rows; `quarantined` names the rows (by their old id) that failed again, and why. */
-export interface ResubmitOutcome {
-  resubmitted: number;
-  accepted: number;
-  duplicates: number;
-  quarantined: Array<{ id: number; code: string; reason: string }>;
-}
 
 /**
  * `POST /api/v1/labs/:lab/quarantine/resubmit`: ingests the rows again by the same rules as

@@ -1,7 +1,6 @@
 import { useState, type FormEvent } from 'react';
 import { Button } from '../../../components/button.tsx';
-import type { QuarantinedRow } from '../api/get-quarantine.ts';
-import type { ResubmitRow } from '../api/resubmit-rows.ts';
+import type { QuarantinedRow, ResubmitRow } from '@shared/contract/quarantine.ts';
 
 const LOCAL_TIME = /^\d{4}-\d{2}-\d{2}[T ]\d{2}:\d{2}(:\d{2}([.,]\d+)?)?$/;
 

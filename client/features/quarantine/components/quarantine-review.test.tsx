@@ -1,7 +1,7 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { cleanup, fireEvent, screen, within } from '@testing-library/react';
 import { fakeApi, renderWithProviders } from '../../../components/test-harness.tsx';
-import type { QuarantinedRow } from '../api/get-quarantine.ts';
+import type { QuarantinedRow } from '@shared/contract/quarantine.ts';
 import { QuarantineReview } from './quarantine-review.tsx';
 
 afterEach(() => {

@@ -3,8 +3,7 @@ import type { ColumnDef } from '@tanstack/react-table';
 import { Button } from '../../../components/button.tsx';
 import { DataTable } from '../../../components/data-table.tsx';
 import { DateTime } from '../../../components/date-time.tsx';
-import type { QuarantinedRow } from '../api/get-quarantine.ts';
-import type { ResubmitRow } from '../api/resubmit-rows.ts';
+import type { QuarantinedRow, ResubmitRow } from '@shared/contract/quarantine.ts';
 import { FixRowForm } from './fix-row-form.tsx';
 import { isReasonCode, REASON_LABELS } from './reason-labels.ts';
 

@@ -1,5 +1,5 @@
 import { Notice } from '../../../components/notice.tsx';
-import type { ResubmitOutcome as Outcome } from '../api/resubmit-rows.ts';
+import type { ResubmitOutcome as Outcome } from '@shared/contract/quarantine.ts';
 
 const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
 

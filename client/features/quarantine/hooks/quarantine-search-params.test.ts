@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { quarantineQuerySchema } from '../../../../server/http/loggers/loggers.schema.ts';
+import { quarantineQuerySchema } from '@shared/contract/quarantine.ts';
 import { readQuarantineFilters, writeQuarantineFilters } from './quarantine-search-params.ts';
 
 describe('quarantine filters in the URL', () => {

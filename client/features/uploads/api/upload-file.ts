@@ -1,20 +1,6 @@
-import type { UploadOptions } from '../../../../server/http/loggers/loggers.schema.ts';
+import type { ImportProgress, ImportSummary, UploadLine, UploadOptions } from '@shared/contract/uploads.ts';
 import { ApiError } from '../../../lib/api-client.ts';
 import { createNdjsonReader } from './ndjson-reader.ts';
-
-/** Counts the import reports after each stored batch. */
-export interface ImportProgress {
-  lines: number;
-  readings: number;
-  accepted: number;
-  duplicates: number;
-  quarantined: number;
-}
-
-/** The import's last word: the counts, and the first quarantined readings with their file line. */
-export interface ImportSummary extends ImportProgress {
-  firstQuarantined: Array<{ index: number; code: string; reason: string; line: number }>;
-}
 
 export interface UploadHandlers {
   /** Bytes of the file sent so far (from the browser's upload progress). */
@@ -23,9 +9,7 @@ export interface UploadHandlers {
   onProgress?: (progress: ImportProgress) => void;
 }
 
-type Line = ({ type: 'progress' } & ImportProgress) | ({ type: 'summary' } & ImportSummary) | { type: 'error'; code: string; message: string };
-
-const isLine = (v: unknown): v is Line => typeof v === 'object' && v !== null && typeof (v as { type?: unknown }).type === 'string';
+const isLine = (v: unknown): v is UploadLine => typeof v === 'object' && v !== null && typeof (v as { type?: unknown }).type === 'string';
 
 /**
  * `POST /api/v1/labs/:lab/loggers/:loggerId/uploads?options=…` with the file as the raw body.

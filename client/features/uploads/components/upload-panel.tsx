@@ -1,4 +1,5 @@
 import { useId, useState, type ChangeEvent } from 'react';
+import { MAX_UPLOAD_BYTES } from '@shared/contract/uploads.ts';
 import { Button } from '../../../components/button.tsx';
 import { Notice } from '../../../components/notice.tsx';
 import { PREVIEW_BYTES, previewCsv, type CsvPreview } from '../hooks/csv-preview.ts';
@@ -8,9 +9,6 @@ import { ColumnMapping, type MappingChannel } from './column-mapping.tsx';
 import { CsvPreviewTable } from './csv-preview-table.tsx';
 import { formatBytes, UploadProgress } from './upload-progress.tsx';
 import { UploadSummary } from './upload-summary.tsx';
-
-/** Largest file the server accepts (2 GiB, as `MAX_UPLOAD_BYTES` on the server). */
-export const MAX_UPLOAD_BYTES = 2 * 1024 ** 3;
 
 interface Chosen {
   file: File;

@@ -1,4 +1,4 @@
-import type { ImportProgress } from '../api/upload-file.ts';
+import type { ImportProgress } from '@shared/contract/uploads.ts';
 
 const NUMBER = new Intl.NumberFormat();
 

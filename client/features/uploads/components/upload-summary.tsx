@@ -1,6 +1,6 @@
 import { Link } from 'react-router-dom';
 import { buttonClasses } from '../../../components/button.tsx';
-import type { ImportSummary } from '../api/upload-file.ts';
+import type { ImportSummary } from '@shared/contract/uploads.ts';
 
 const NUMBER = new Intl.NumberFormat();
 

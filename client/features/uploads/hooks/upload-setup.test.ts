@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { uploadOptionsSchema } from '../../../../server/http/loggers/loggers.schema.ts';
+import { uploadOptionsSchema } from '@shared/contract/uploads.ts';
 import { guessUploadSetup, toUploadOptions } from './upload-setup.ts';
 
 // Column names of a fictional field logger's export (demo scenario, invented).

@@ -1,4 +1,4 @@
-import { uploadOptionsSchema, type UploadOptions } from '../../../../server/http/loggers/loggers.schema.ts';
+import { uploadOptionsSchema, type UploadOptions } from '@shared/contract/uploads.ts';
 import type { Delimiter } from './csv-preview.ts';
 
 export type UploadFormat = 'long' | 'wide';

@@ -1,6 +1,6 @@
 import { useCallback, useEffect, useRef, useState } from 'react';
-import type { UploadOptions } from '../../../../server/http/loggers/loggers.schema.ts';
-import { uploadFile, type ImportProgress, type ImportSummary } from '../api/upload-file.ts';
+import type { ImportProgress, ImportSummary, UploadOptions } from '@shared/contract/uploads.ts';
+import { uploadFile } from '../api/upload-file.ts';
 
 export type UploadState =
   | { phase: 'idle' }
