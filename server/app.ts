@@ -47,7 +47,7 @@ import { createUploadsService } from './services/uploads.service.ts';
 import { createChannelsService } from './services/channels.service.ts';
 import { createDiagnosticsService } from './services/diagnostics.service.ts';
 import { createDiagnosticsConcurrency } from './services/diagnostics-concurrency.ts';
-import { channelRoutes } from './http/channels/channels.router.ts';
+import { channelRoutes } from './http/channels/channels.routes.ts';
 import { createPersonalTokensService } from './services/personal-tokens.service.ts';
 import { tokenRoutes } from './http/tokens/tokens.routes.ts';
 import { alertRoutes } from './http/alerts/alerts.router.ts';
@@ -151,16 +151,14 @@ export function createApp(deps: AppDeps): Express {
     // Loggers authenticate with their key, not a session: 'ingest-key' mounts it before the session
     // middleware and the JSON parser; it takes its own (larger) body limit.
     ...ingestRoutes({ ingest, rate: deps.ingestRate }),
-    ...fromLabRoutes(
-      channelRoutes({
-        channels,
-        diagnostics,
-        now: nowMs,
-        historyWindow: billingService,
-        // At most this many diagnostics runs in flight per person (per process): one person cannot hog the workers.
-        diagnosticsRuns: createDiagnosticsConcurrency({ maxPerPerson: config.diagnostics.runsPerPerson }),
-      }),
-    ),
+    ...channelRoutes({
+      channels,
+      diagnostics,
+      now: nowMs,
+      billing: billingService,
+      // At most this many diagnostics runs in flight per person (per process): one person cannot hog the workers.
+      diagnosticsRuns: createDiagnosticsConcurrency({ maxPerPerson: config.diagnostics.runsPerPerson }),
+    }),
     ...fromLabRoutes(alertRoutes({ alerts: alerts.service, now: nowMs })),
     ...tokenRoutes({ tokens }),
     ...billingRoutes({ billing: billingService }),

@@ -5,8 +5,7 @@ import { channelReadingsIn, type BucketRow } from '../db/channel-readings.repo.t
 import { ROLLUP_RESOLUTIONS_S } from '../db/readings.repo.ts';
 import { NotFoundError } from '../errors.ts';
 import type { LabContext } from './lab-context.ts';
-
-export type ChannelStatus = 'live' | 'silent' | 'out-of-range' | 'no-data';
+import type { ChannelStatus, Series, SeriesQuery } from '../contract/channels.ts';
 
 /** A channel is silent after this many expected intervals without a reading. */
 export const SILENT_AFTER_INTERVALS = 3;
@@ -27,23 +26,6 @@ export interface ChannelDetail extends ChannelWithState {
   firstReadingTs: number | null;
   readingCount: number;
 }
-
-/** The series answer: raw readings, or min/max (and mean, count) per bucket. */
-export type ChannelSeries =
-  | { shape: 'readings'; source: 'raw'; resolutionS: null; bucketMs: null; from: number; to: number; t: number[]; value: Array<number | null> }
-  | {
-      shape: 'buckets';
-      source: 'raw' | 'rollup';
-      resolutionS: number | null;
-      bucketMs: number;
-      from: number;
-      to: number;
-      t: number[];
-      min: Array<number | null>;
-      max: Array<number | null>;
-      mean: Array<number | null>;
-      count: number[];
-    };
 
 /**
  * The status shown beside a channel: `no-data` before its first reading; `silent` once more than
@@ -130,7 +112,7 @@ export function createChannelsService(deps: { db: Db; now?: () => number }) {
      * last may reach past from/to (the answer's from/to say what was covered). Empty buckets
      * are null.
      */
-    async series(lab: LabContext, channelId: number, q: { from: number; to: number; points: number }): Promise<ChannelSeries> {
+    async series(lab: LabContext, channelId: number, q: SeriesQuery): Promise<Series> {
       const channel = await requireChannel(lab, channelId);
       const { readings } = scoped(lab);
       const raw = await readings.range(channelId, q.from, q.to, q.points + 1);

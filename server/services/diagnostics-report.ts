@@ -1,22 +1,6 @@
 import { describeDuration, describeModel, NEAR_UNIT_ROOT, thinForDrawing, type ChannelDiagnostics } from '../analysis/index.ts';
 import type { ChannelWithState } from '../db/channel-state.repo.ts';
-
-/** The diagnostics parameters as the request chose them, defaults filled in. */
-export interface DiagnosticsParams {
-  from: number;
-  to: number;
-  /** Seconds; default the channel's expected interval (else its logger's). */
-  step?: number;
-  agg: 'mean' | 'median' | 'last' | 'min' | 'max';
-  difference: number;
-  seasonalDifference: number;
-  maxLag?: number;
-  period: 'auto' | 'none' | number;
-  decomposition: 'stl' | 'stl-robust' | 'classical' | 'none';
-  alpha: number;
-  ccfWith?: number;
-  ccfMaxLag?: number;
-}
+import type { Decomposition, DiagnosticsParams, DiagnosticsReport, GridSource, ProcessModel, ReportChannel, TrendAnswer } from '../contract/diagnostics.ts';
 
 /**
  * 'drawing' thins a long decomposition to what a chart can show (the page and the JSON answer);
@@ -26,9 +10,6 @@ export type DecompositionResolution = 'drawing' | 'full';
 
 /** Above this many cells the JSON answer carries the decomposition thinned for drawing. */
 export const MAX_DRAWN_CELLS = 4000;
-
-/** Where the grid values came from: raw readings, or exact cell summaries of a rollup resolution. */
-export type GridSource = { kind: 'readings' } | { kind: 'rollups'; resolutionS: number };
 
 const REFERENCES = [
   'Box, Jenkins, Reinsel & Ljung (2015), Time Series Analysis: Forecasting and Control, 5th ed. — ACF, PACF, Bartlett bands, identification, CCF',
@@ -58,7 +39,10 @@ function plain<T>(value: T): Plain<T> {
 }
 
 /** The decomposition's parts at the cells worth drawing (every cell for 'full' or a short series). */
-function decompositionParts(dec: Extract<ChannelDiagnostics['decomposition'], { trend: Float64Array }>, resolution: DecompositionResolution) {
+function decompositionParts(
+  dec: Extract<ChannelDiagnostics['decomposition'], { trend: Float64Array }>,
+  resolution: DecompositionResolution,
+): Pick<Extract<Decomposition, { period: number }>, 'cells' | 'thinned' | 'trend' | 'seasonal' | 'remainder' | 'weights'> {
   const n = dec.trend.length;
   const parts = (pick: (a: Float64Array) => number[]) => ({
     trend: pick(dec.trend),
@@ -89,7 +73,7 @@ function emptyCellsOf(values: Float64Array): number[] {
 }
 
 /** What a report says about a channel: ids, names, unit and its logger. */
-export const channelSummary = (c: ChannelWithState) => ({
+export const channelSummary = (c: ChannelWithState): ReportChannel => ({
   id: c.id,
   key: c.key,
   label: c.label,
@@ -110,7 +94,7 @@ function sig(x: number, digits = 3): string {
 type ModelFit = NonNullable<ChannelDiagnostics['identification']['model']>;
 
 /** The process model section: the chosen ARMA model, its candidates, residual test and a plain sentence. */
-function processModelSection(r: ChannelDiagnostics, stepMs: number, label: string) {
+function processModelSection(r: ChannelDiagnostics, stepMs: number, label: string): ProcessModel {
   const m = r.identification.model;
   if (!m) return { available: false as const, reason: r.identification.modelNote ?? 'No model was fitted.' };
   const offset = r.grid.n - r.analysed.n;
@@ -161,7 +145,7 @@ function processModelSection(r: ChannelDiagnostics, stepMs: number, label: strin
 }
 
 /** The trend section: slope per day and per year with the Newey–West and naive intervals, and a sentence. */
-function trendSection(r: ChannelDiagnostics, stepMs: number, label: string, unit: string | null) {
+function trendSection(r: ChannelDiagnostics, stepMs: number, label: string, unit: string | null): TrendAnswer {
   const t = r.trend;
   if (!t.available) return t;
   const scale = (factor: number) => ({
@@ -224,7 +208,7 @@ export function diagnosticsReport(input: {
   result: ChannelDiagnostics;
   /** Default 'drawing'. */
   resolution?: DecompositionResolution;
-}) {
+}): DiagnosticsReport {
   const { result: r, params, stepS } = input;
   const stepMs = stepS * 1000;
   const dec = r.decomposition;
@@ -318,4 +302,3 @@ export function diagnosticsReport(input: {
   };
 }
 
-export type DiagnosticsReport = ReturnType<typeof diagnosticsReport>;

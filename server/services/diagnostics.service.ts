@@ -10,8 +10,9 @@ import { AppError, ValidationError } from '../errors.ts';
 import type { ChannelsService } from './channels.service.ts';
 import type { LabContext } from './lab-context.ts';
 import { createResultCache, type ResultCacheOptions } from './result-cache.ts';
-import { diagnosticsReport, type DecompositionResolution, type DiagnosticsParams, type GridSource } from './diagnostics-report.ts';
-import { rangeComparisonReport, type RangeComparisonParams } from './range-comparison-report.ts';
+import type { ComparisonAnswer, ComparisonParams, DiagnosticsParams, GridSource } from '../contract/diagnostics.ts';
+import { diagnosticsReport, type DecompositionResolution } from './diagnostics-report.ts';
+import { rangeComparisonReport } from './range-comparison-report.ts';
 
 /** The engine refused the data or a parameter for it (too few readings, a period too long …). */
 export class AnalysisRefusedError extends AppError {
@@ -104,7 +105,7 @@ export function createDiagnosticsService(deps: { db: Db; channels: ChannelsServi
      * the mean of range a of this channel, with the interval from each range's effective sample
      * size beside the naive Welch one, on the diagnostics grid (step and aggregate as there).
      */
-    async comparison(lab: LabContext, channelId: number, params: RangeComparisonParams, signal?: AbortSignal) {
+    async comparison(lab: LabContext, channelId: number, params: ComparisonParams, signal?: AbortSignal): Promise<ComparisonAnswer> {
       const channel = await deps.channels.requireChannel(lab, channelId);
       const other = params.otherChannel === undefined ? null : await deps.channels.requireChannel(lab, params.otherChannel);
       const stepS = params.step ?? channel.expectedIntervalS ?? channel.logger.expectedIntervalS;

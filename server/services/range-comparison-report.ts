@@ -1,19 +1,7 @@
 import type { CompareMeansResult } from '../analysis/index.ts';
 import type { ChannelWithState } from '../db/channel-state.repo.ts';
+import type { ComparisonAnswer, ComparisonParams, RangeSummary } from '../contract/diagnostics.ts';
 import { channelSummary } from './diagnostics-report.ts';
-
-/** The comparison parameters as the request chose them, defaults filled in. */
-export interface RangeComparisonParams {
-  aFrom: number;
-  aTo: number;
-  bFrom: number;
-  bTo: number;
-  /** Seconds; default the channel's expected interval (else its logger's). */
-  step?: number;
-  agg: 'mean' | 'median' | 'last' | 'min' | 'max';
-  otherChannel?: number;
-  alpha: number;
-}
 
 const REFERENCES = [
   'Bayley & Hammersley (1946), J. R. Stat. Soc. Suppl. 8:184–197 — the effective number of independent observations',
@@ -37,15 +25,15 @@ function withUnit(x: number, unit: string | null): string {
 export function rangeComparisonReport(input: {
   channel: ChannelWithState;
   other: ChannelWithState | null;
-  params: RangeComparisonParams;
+  params: ComparisonParams;
   stepS: number;
   rangeA: { from: number; to: number };
   rangeB: { from: number; to: number };
   result: CompareMeansResult;
-}) {
+}): ComparisonAnswer {
   const { result: r, channel, other } = input;
   const unit = channel.unit;
-  const summary = (s: CompareMeansResult['a'], range: { from: number; to: number }) => ({
+  const summary = (s: CompareMeansResult['a'], range: { from: number; to: number }): RangeSummary => ({
     from: range.from,
     to: range.to,
     n: s.n,
@@ -85,4 +73,3 @@ export function rangeComparisonReport(input: {
   };
 }
 
-export type RangeComparisonReport = ReturnType<typeof rangeComparisonReport>;

@@ -5,16 +5,7 @@
  * own types so its type-check does not pull in the server's (database, engine) typings; this
  * file, checked with the server's configuration, holds the two together. Nothing imports it.
  */
-import type { presentChannelDetail, presentChannelOverview } from '../../server/http/channels/channels.presenter.ts';
-import type { ChannelSeries } from '../../server/services/channels.service.ts';
-import type { DiagnosticsReport as ServerDiagnosticsReport } from '../../server/services/diagnostics-report.ts';
-import type { RangeComparisonReport } from '../../server/services/range-comparison-report.ts';
 import type { presentAlert, presentAlertRule } from '../../server/http/alerts/alerts.presenter.ts';
-import type { ChannelOverviewRow } from '../../client/features/channels/api/get-channels.ts';
-import type { ChannelDetail } from '../../client/features/channels/api/get-channel.ts';
-import type { Series } from '../../client/features/channels/api/get-series.ts';
-import type { DiagnosticsReport } from '../../client/features/diagnostics/api/get-diagnostics.ts';
-import type { ComparisonAnswer } from '../../client/features/diagnostics/api/get-comparison.ts';
 import type { Alert } from '../../client/features/alerts/api/get-alerts.ts';
 import type { AlertRule } from '../../client/features/alerts/api/get-alert-rules.ts';
 
@@ -34,12 +25,6 @@ type Reads<A extends B, B> = [A, B];
 type Answer<F extends (...args: never[]) => unknown> = Json<ReturnType<F>>;
 
 export type Contracts = [
-  Reads<Answer<typeof presentChannelOverview>, ChannelOverviewRow>,
-  Reads<Answer<typeof presentChannelDetail>, ChannelDetail>,
-  Reads<Json<ChannelSeries>, Series>,
-  // the router adds whether the report came from the cache
-  Reads<Json<ServerDiagnosticsReport> & { cached: boolean }, DiagnosticsReport>,
-  Reads<Json<RangeComparisonReport>, ComparisonAnswer>,
   Reads<Answer<typeof presentAlert>, Alert>,
   Reads<Answer<typeof presentAlertRule>, AlertRule>,
 ];

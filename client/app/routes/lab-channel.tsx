@@ -2,7 +2,7 @@ import { useMemo, useState } from 'react';
 import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { useChannel } from '../../features/channels/api/get-channel.ts';
 import { useChannels } from '../../features/channels/api/get-channels.ts';
-import type { TimeRange } from '../../features/channels/api/get-series.ts';
+import type { TimeRange } from '@shared/contract/channels.ts';
 import { ChannelHeader } from '../../features/channels/components/channel-header.tsx';
 import { presetRange, type RangePreset } from '../../features/channels/components/range-presets.ts';
 import { ReadingsPanel } from '../../features/channels/components/readings-panel.tsx';

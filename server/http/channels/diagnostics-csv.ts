@@ -1,5 +1,5 @@
 import { csvLine } from '../csv-field.ts';
-import type { DiagnosticsReport } from '../../services/diagnostics-report.ts';
+import type { DiagnosticsReport } from '../../contract/diagnostics.ts';
 
 /** Columns of the diagnostics CSV: one table, every row the same fields (RFC 4180 §2.4). */
 export const DIAGNOSTICS_CSV_COLUMNS = [

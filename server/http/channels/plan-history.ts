@@ -1,8 +1,7 @@
-import type { Response } from 'express';
 import type { BillingService } from '../../services/billing/billing.service.ts';
 
 /** The billing service's plan-history rule, which the channel routes pass their ranges through. */
-export type HistoryWindow = Pick<BillingService, 'clampToPlanHistory'>;
+export type PlanHistory = Pick<BillingService, 'clampToPlanHistory'>;
 
 /**
  * Passes a range through the lab's plan history (the rule is the billing service's
@@ -10,9 +9,14 @@ export type HistoryWindow = Pick<BillingService, 'clampToPlanHistory'>;
  * and, whenever the range was cut, says so in the `Lagbook-History-Starts` header (ISO 8601).
  * Without a billing service every range passes unchanged.
  */
-export async function withinPlanHistory<Q extends { from: number; to: number }>(window: HistoryWindow | undefined, lab: { id: number }, q: Q, res: Response): Promise<Q> {
-  if (!window) return q;
-  const { range, cutAtMs } = await window.clampToPlanHistory(lab, q);
-  if (cutAtMs !== null) res.set('Lagbook-History-Starts', new Date(cutAtMs).toISOString());
+export async function withinPlanHistory<Q extends { from: number; to: number }>(
+  billing: PlanHistory | undefined,
+  lab: { id: number },
+  q: Q,
+  setHeader: (name: string, value: string) => void,
+): Promise<Q> {
+  if (!billing) return q;
+  const { range, cutAtMs } = await billing.clampToPlanHistory(lab, q);
+  if (cutAtMs !== null) setHeader('Lagbook-History-Starts', new Date(cutAtMs).toISOString());
   return range;
 }

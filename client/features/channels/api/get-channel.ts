@@ -1,15 +1,10 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { ChannelDetailAnswer } from '@shared/contract/channels.ts';
 import { apiFetch } from '../../../lib/api-client.ts';
-import { channelsBase, channelsRootKey, type ChannelState } from './get-channels.ts';
-
-/** One channel with the extent of its readings (`readingCount` from the daily rollups). */
-export interface ChannelDetail extends ChannelState {
-  firstReading: { ts: number; time: string } | null;
-  readingCount: number;
-}
+import { channelsBase, channelsRootKey } from './get-channels.ts';
 
 /** `GET /api/v1/labs/:lab/channels/:channelId`. */
-export function getChannel(slug: string, channelId: number): Promise<{ channel: ChannelDetail }> {
+export function getChannel(slug: string, channelId: number): Promise<ChannelDetailAnswer> {
   return apiFetch(`${channelsBase(slug)}/${channelId}`);
 }
 

@@ -1,4 +1,4 @@
-import type { ChannelOverviewRow, ChannelStatus } from '../api/get-channels.ts';
+import type { ChannelOverviewRow, ChannelStatus } from '@shared/contract/channels.ts';
 
 /** What the overview is narrowed to; empty strings mean "any". */
 export interface ChannelFilter {

@@ -1,6 +1,6 @@
 import type { ReactNode } from 'react';
 import { formatZoned, zoneOffsetLabel } from '../../../components/zoned-time.ts';
-import type { ChannelDetail } from '../api/get-channel.ts';
+import type { ChannelDetail } from '@shared/contract/channels.ts';
 import { ChannelValue } from './channel-value.tsx';
 import { StatusBadge } from './status-badge.tsx';
 

@@ -1,7 +1,7 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { cleanup, fireEvent, screen, within } from '@testing-library/react';
 import { renderWithProviders } from '../../../components/test-harness.tsx';
-import type { ChannelOverviewRow, ChannelStatus } from '../api/get-channels.ts';
+import type { ChannelOverviewRow, ChannelStatus } from '@shared/contract/channels.ts';
 import { ChannelsOverview } from './channels-overview.tsx';
 
 afterEach(() => cleanup());

@@ -1,7 +1,7 @@
 import { useMemo } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { SelectField, TextField } from '../../../components/form-field.tsx';
-import type { ChannelOverviewRow, ChannelStatus } from '../api/get-channels.ts';
+import type { ChannelOverviewRow, ChannelStatus } from '@shared/contract/channels.ts';
 import { filterChannels, readChannelFilter } from './channel-filter.ts';
 import { ChannelsTable } from './channels-table.tsx';
 import { STATUS_LOOKS, StatusLegend } from './status-badge.tsx';

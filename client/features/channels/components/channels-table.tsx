@@ -12,7 +12,7 @@ import {
 } from '@tanstack/react-table';
 import { paths } from '../../../app/paths.ts';
 import { Pager } from '../../../components/pager.tsx';
-import type { ChannelOverviewRow, ChannelStatus } from '../api/get-channels.ts';
+import type { ChannelOverviewRow, ChannelStatus } from '@shared/contract/channels.ts';
 import { ChannelValue } from './channel-value.tsx';
 import { LastReadingTime } from './last-reading-time.tsx';
 import { Sparkline } from './sparkline.tsx';

@@ -1,7 +1,7 @@
 import { useState, type FormEvent } from 'react';
 import { Button } from '../../../components/button.tsx';
 import { fromZonedInput, toZonedInput } from '../../../components/zoned-time.ts';
-import type { TimeRange } from '../api/get-series.ts';
+import type { TimeRange } from '@shared/contract/channels.ts';
 import { presetRange, RANGE_PRESETS, type RangePreset } from './range-presets.ts';
 
 /**

@@ -1,4 +1,4 @@
-import type { TimeRange } from '../api/get-series.ts';
+import type { TimeRange } from '@shared/contract/channels.ts';
 
 export type RangePreset = '24h' | '7d' | '30d' | '90d' | '1y';
 

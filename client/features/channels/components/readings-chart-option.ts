@@ -1,6 +1,6 @@
 import type { EChartsCoreOption } from 'echarts/core';
 import { formatZoned, zoneOffsetLabel } from '../../../components/zoned-time.ts';
-import type { Series, TimeRange } from '../api/get-series.ts';
+import type { Series, TimeRange } from '@shared/contract/channels.ts';
 
 /** What the readings chart needs to know about its channel. */
 export interface ReadingsChartContext {

@@ -3,8 +3,8 @@ import { useState } from 'react';
 import { cleanup, fireEvent, screen } from '@testing-library/react';
 import { fakeApi, renderWithProviders } from '../../../components/test-harness.tsx';
 import { fakeEchartsModule, stubResizeObserver } from '../../../components/charts/fake-echarts.ts';
-import type { ChannelDetail } from '../api/get-channel.ts';
-import type { TimeRange } from '../api/get-series.ts';
+import type { ChannelDetail } from '@shared/contract/channels.ts';
+import type { TimeRange } from '@shared/contract/channels.ts';
 import type { RangePreset } from './range-presets.ts';
 import { ReadingsPanel } from './readings-panel.tsx';
 

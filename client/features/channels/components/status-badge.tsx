@@ -1,4 +1,4 @@
-import type { ChannelStatus } from '../api/get-channels.ts';
+import type { ChannelStatus } from '@shared/contract/channels.ts';
 
 interface StatusLook {
   label: string;

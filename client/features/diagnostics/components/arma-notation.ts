@@ -1,4 +1,4 @@
-import type { ArmaFitSummary } from '../api/get-diagnostics.ts';
+import type { ArmaFitSummary } from '@shared/contract/diagnostics.ts';
 
 const SUBSCRIPTS = '₀₁₂₃₄₅₆₇₈₉';
 

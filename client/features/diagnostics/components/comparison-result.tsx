@@ -1,5 +1,5 @@
 import { formatZoned } from '../../../components/zoned-time.ts';
-import type { ComparisonAnswer, RangeSummary } from '../api/get-comparison.ts';
+import type { ComparisonAnswer, RangeSummary } from '@shared/contract/diagnostics.ts';
 import { fmtSeconds, fmtStat } from './format-number.ts';
 
 const TH = 'py-1 pr-3';

@@ -1,6 +1,6 @@
 import { useMemo } from 'react';
 import { EChart } from '../../../components/charts/echart.tsx';
-import type { DiagnosticsReport } from '../api/get-diagnostics.ts';
+import type { DiagnosticsReport } from '@shared/contract/diagnostics.ts';
 import { lagsOutsideBand, stemChartOption, stemSummary } from './stem-chart-option.ts';
 
 /**

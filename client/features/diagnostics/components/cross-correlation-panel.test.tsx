@@ -2,7 +2,7 @@ import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { cleanup, fireEvent, screen } from '@testing-library/react';
 import { fakeApi, renderWithProviders } from '../../../components/test-harness.tsx';
 import { stubResizeObserver } from '../../../components/charts/fake-echarts.ts';
-import type { DiagnosticsReport } from '../api/get-diagnostics.ts';
+import type { DiagnosticsAnswer } from '@shared/contract/diagnostics.ts';
 import { CrossCorrelationPanel } from './cross-correlation-panel.tsx';
 import { CCF, FROM, REPORT, TO } from './report-fixture.ts';
 
@@ -35,7 +35,7 @@ function renderPanel() {
 // The CCF answer is invented (report-fixture.ts); the panel only has to show it faithfully.
 describe('CrossCorrelationPanel', () => {
   it('sends the lag window in steps, says the CCF is prewhitened, and draws the per-lag and all-lag bands with lags in time', async () => {
-    const api = fakeApi({ [PATH]: () => ({ status: 200, body: { ...REPORT, crossCorrelation: CCF } satisfies DiagnosticsReport }) });
+    const api = fakeApi({ [PATH]: () => ({ status: 200, body: { ...REPORT, crossCorrelation: CCF } satisfies DiagnosticsAnswer }) });
     renderPanel();
     fireEvent.change(screen.getByLabelText('Lag window ±'), { target: { value: '12' } });
     fireEvent.change(screen.getByLabelText('Lag window unit'), { target: { value: 'h' } });

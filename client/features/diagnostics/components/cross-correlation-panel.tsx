@@ -3,7 +3,7 @@ import { Button } from '../../../components/button.tsx';
 import { EChart } from '../../../components/charts/echart.tsx';
 import { SelectField, TextField } from '../../../components/form-field.tsx';
 import { Notice } from '../../../components/notice.tsx';
-import type { CrossCorrelation } from '../api/get-diagnostics.ts';
+import type { CrossCorrelation } from '@shared/contract/diagnostics.ts';
 import { useDiagnosticsRun } from '../hooks/use-diagnostics-run.ts';
 import { subscript } from './arma-notation.ts';
 import { fmtSeconds } from './format-number.ts';

@@ -1,6 +1,6 @@
 import type { EChartsCoreOption } from 'echarts/core';
 import { formatZoned } from '../../../components/zoned-time.ts';
-import type { Decomposition } from '../api/get-diagnostics.ts';
+import type { Decomposition } from '@shared/contract/diagnostics.ts';
 
 type Parts = Extract<Decomposition, { trend: unknown }>;
 

@@ -1,7 +1,7 @@
 import { useMemo } from 'react';
 import { EChart } from '../../../components/charts/echart.tsx';
 import { formatZoned } from '../../../components/zoned-time.ts';
-import type { DiagnosticsReport } from '../api/get-diagnostics.ts';
+import type { DiagnosticsReport } from '@shared/contract/diagnostics.ts';
 import { decompositionChartOption } from './decomposition-chart-option.ts';
 
 const METHOD_NAMES = { stl: 'STL', 'stl-robust': 'robust STL', classical: 'classical additive decomposition' } as const;

@@ -1,7 +1,7 @@
 import { useState, type FormEvent } from 'react';
 import { SelectField, TextField } from '../../../components/form-field.tsx';
 import { fromZonedInput, toZonedInput } from '../../../components/zoned-time.ts';
-import type { DiagnosticsParams } from '../api/get-diagnostics.ts';
+import type { DiagnosticsParams } from '@shared/contract/diagnostics.ts';
 import { AggregateSelect, FormFooter } from './form-parts.tsx';
 
 /** The form's fields as typed (strings until submitted). */

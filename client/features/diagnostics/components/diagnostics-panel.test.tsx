@@ -2,9 +2,9 @@ import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { cleanup, fireEvent, screen, within } from '@testing-library/react';
 import { fakeApi, renderWithProviders } from '../../../components/test-harness.tsx';
 import { stubResizeObserver } from '../../../components/charts/fake-echarts.ts';
-import type { DiagnosticsReport } from '../api/get-diagnostics.ts';
+import type { DiagnosticsAnswer } from '@shared/contract/diagnostics.ts';
 import { DiagnosticsPanel } from './diagnostics-panel.tsx';
-import { FROM, PROCESS_MODEL, REPORT, TO, TREND } from './report-fixture.ts';
+import { FROM, IDENTIFIED_MODEL, PROCESS_MODEL, REPORT, TO, TREND } from './report-fixture.ts';
 
 vi.mock(import('../../../components/charts/echarts-setup.ts'), async () => {
   const { fakeEchartsModule } = await import('../../../components/charts/fake-echarts.ts');
@@ -54,9 +54,9 @@ describe('DiagnosticsPanel', () => {
   it('shows the fitted process model with coefficients ± SE, marks the chosen candidate, and shows the trend with both intervals', async () => {
     if (!PROCESS_MODEL.available) throw new Error('fixture: the process model must be available');
     const model = PROCESS_MODEL;
-    const withModel: DiagnosticsReport = {
+    const withModel: DiagnosticsAnswer = {
       ...REPORT,
-      identification: { ...REPORT.identification, model: model.chosen, fittedOn: 'remainder' },
+      identification: { ...REPORT.identification, model: IDENTIFIED_MODEL, fittedOn: 'remainder' },
       processModel: model,
       trend: TREND,
     };
@@ -93,7 +93,7 @@ describe('DiagnosticsPanel', () => {
 
   it('draws a decomposition thinned by the server and says so under the chart', async () => {
     const note = 'Thinned for drawing: 3 of 4 cells (invented note for this test).';
-    const thinned: DiagnosticsReport = {
+    const thinned: DiagnosticsAnswer = {
       ...REPORT,
       decomposition: {
         method: 'stl',

@@ -1,4 +1,4 @@
-import type { DiagnosticsReport } from '../api/get-diagnostics.ts';
+import type { DiagnosticsAnswer } from '@shared/contract/diagnostics.ts';
 import { CorrelogramCharts } from './correlogram-charts.tsx';
 import { DecompositionPanel } from './decomposition-panel.tsx';
 import { IdentificationBlock } from './identification-block.tsx';
@@ -10,7 +10,7 @@ import { ProcessModelBlock } from './process-model-block.tsx';
 import { TrendBlock } from './trend-block.tsx';
 
 /** Everything one diagnostics answer holds, laid out for reading top to bottom. */
-export function DiagnosticsResults({ report, timezone, pngPrefix }: { report: DiagnosticsReport; timezone: string; pngPrefix: string }) {
+export function DiagnosticsResults({ report, timezone, pngPrefix }: { report: DiagnosticsAnswer; timezone: string; pngPrefix: string }) {
   const s = report.series;
   return (
     <div className="grid gap-6" data-testid="diagnostics-results">

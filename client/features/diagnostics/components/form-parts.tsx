@@ -1,6 +1,6 @@
 import { Button } from '../../../components/button.tsx';
 import { SelectField } from '../../../components/form-field.tsx';
-import type { DiagnosticsParams } from '../api/get-diagnostics.ts';
+import type { DiagnosticsParams } from '@shared/contract/diagnostics.ts';
 
 const AGGREGATES = ['mean', 'median', 'last', 'min', 'max'] as const;
 

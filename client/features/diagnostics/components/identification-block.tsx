@@ -1,4 +1,4 @@
-import type { DiagnosticsReport } from '../api/get-diagnostics.ts';
+import type { DiagnosticsReport } from '@shared/contract/diagnostics.ts';
 import { armaOneLine } from './arma-notation.ts';
 
 const VERDICTS: Record<DiagnosticsReport['identification']['verdict'], string> = {
@@ -16,7 +16,7 @@ const list = (v: unknown) => (Array.isArray(v) && v.length ? v.join(', ') : 'non
 export function IdentificationBlock({ identification: id, stepS }: { identification: DiagnosticsReport['identification']; stepS: number }) {
   const order = id.verdict === 'ar' ? `AR(${id.p})` : id.verdict === 'ma' ? `MA(${id.q})` : id.verdict === 'arma' ? `ARMA(${id.p}, ${id.q})` : id.verdict === 'seasonal' ? `period ${id.period} steps` : null;
   const e = id.evidence;
-  const unitRoot = e.unitRoot as { statistic: number; criticalValues: Record<string, number>; rejectsUnitRoot: boolean } | null;
+  const unitRoot = e.unitRoot;
   return (
     <section aria-labelledby="identification-heading" className="grid gap-2">
       <h4 id="identification-heading" className="text-sm font-semibold">

@@ -1,4 +1,4 @@
-import type { LjungBoxRow } from '../api/get-diagnostics.ts';
+import type { LjungBoxRow } from '@shared/contract/diagnostics.ts';
 import { fmtP, fmtStat } from './format-number.ts';
 
 /** The Ljung–Box portmanteau tests (Ljung & Box 1978) at each lag the server ran, with the verdict at α. */

@@ -1,4 +1,4 @@
-import type { DiagnosticsReport } from '../api/get-diagnostics.ts';
+import type { DiagnosticsReport } from '@shared/contract/diagnostics.ts';
 import { fmtStat } from './format-number.ts';
 
 /**

@@ -1,4 +1,4 @@
-import type { DiagnosticsReport } from '../api/get-diagnostics.ts';
+import type { DiagnosticsReport } from '@shared/contract/diagnostics.ts';
 
 const show = (v: unknown): string => (v === null || v === undefined ? '—' : typeof v === 'object' ? JSON.stringify(v) : String(v));
 

@@ -1,4 +1,4 @@
-import type { DiagnosticsReport } from '../api/get-diagnostics.ts';
+import type { DiagnosticsReport } from '@shared/contract/diagnostics.ts';
 import { fmtP, fmtSeconds, fmtStat } from './format-number.ts';
 
 /** The seasonal periods the engine considered, the one used and where it came from. */

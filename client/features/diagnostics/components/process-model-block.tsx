@@ -1,5 +1,5 @@
 import { formatZoned } from '../../../components/zoned-time.ts';
-import type { ProcessModel } from '../api/get-diagnostics.ts';
+import type { ProcessModel } from '@shared/contract/diagnostics.ts';
 import { BlockSection } from './block-section.tsx';
 import { armaName, coefficientRows } from './arma-notation.ts';
 import { fmtP, fmtSeconds, fmtStat } from './format-number.ts';

@@ -1,6 +1,6 @@
 import { fromZonedInput, toZonedInput } from '../../../components/zoned-time.ts';
-import type { ComparisonParams } from '../api/get-comparison.ts';
-import type { DiagnosticsParams } from '../api/get-diagnostics.ts';
+import type { ComparisonParams } from '@shared/contract/diagnostics.ts';
+import type { DiagnosticsParams } from '@shared/contract/diagnostics.ts';
 
 /** The comparison form's fields as typed (strings until submitted); times are wall-clock in the logger's zone. */
 export interface ComparisonDraft {

@@ -1,7 +1,7 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { cleanup, fireEvent, screen, within } from '@testing-library/react';
 import { apiError, fakeApi, renderWithProviders } from '../../../components/test-harness.tsx';
-import type { ComparisonAnswer } from '../api/get-comparison.ts';
+import type { ComparisonAnswer } from '@shared/contract/diagnostics.ts';
 import { RangeComparisonPanel } from './range-comparison-panel.tsx';
 import { comparisonParamsFromDraft } from './range-comparison-form.ts';
 import { CCF, FROM, REPORT, TO } from './report-fixture.ts';

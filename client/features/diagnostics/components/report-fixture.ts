@@ -1,4 +1,4 @@
-import type { CrossCorrelation, DiagnosticsReport } from '../api/get-diagnostics.ts';
+import type { ArmaFitSummary, CrossCorrelation, DiagnosticsAnswer, IdentifiedModel } from '@shared/contract/diagnostics.ts';
 
 /**
  * A diagnostics answer in the API's documented shape, for component tests only. The numbers are
@@ -8,12 +8,31 @@ import type { CrossCorrelation, DiagnosticsReport } from '../api/get-diagnostics
 export const FROM = Date.parse('2026-06-01T00:00:00Z');
 export const TO = Date.parse('2026-06-08T00:00:00Z');
 
-export const REPORT: DiagnosticsReport = {
+export const REPORT: DiagnosticsAnswer = {
   cached: true,
   channel: { id: 5, key: 'soil_vwc', label: 'Soil moisture', unit: '%', quantity: null, logger: { id: 2, name: 'Row 7 mast', site: null, timezone: 'UTC' } },
   method: {
-    parameters: {},
-    resolved: { from: FROM, to: TO, stepS: 300, maxLag: 4, alpha: 0.05, period: null, periodSource: 'none', agg: 'mean' },
+    parameters: { from: '2026-06-01T00:00:00.000Z', to: '2026-06-08T00:00:00.000Z', step: 300, agg: 'mean', difference: 0, seasonalDifference: 0, period: 'auto', decomposition: 'none', alpha: 0.05 },
+    resolved: {
+      from: FROM,
+      to: TO,
+      stepS: 300,
+      agg: 'mean',
+      source: { kind: 'readings' },
+      difference: 0,
+      seasonalDifference: 0,
+      period: null,
+      periodSource: 'none',
+      maxLag: 4,
+      alpha: 0.05,
+      decomposition: 'none',
+      stl: null,
+      outlierRule: null,
+      ljungBoxLags: [5],
+      ccfMaxLag: null,
+      modelCells: null,
+      trendLag: null,
+    },
     notes: ['Readings were put on a regular grid of 300 s cells.'],
     references: ['Ljung & Box (1978), Biometrika 65:297–303 — portmanteau test'],
   },
@@ -28,9 +47,25 @@ export const REPORT: DiagnosticsReport = {
     verdict: 'ar',
     p: 1,
     explanation: 'The PACF cuts off after lag 1 while the ACF dies down: an AR(1) process.',
-    evidence: { n: 4, maxLag: 4, significantAcfLags: [1, 2], significantPacfLags: [1], acfCutoff: 2, pacfCutoff: 1, acfPattern: 'tails-off', pacfPattern: 'cuts-off', unitRoot: null, period: null },
+    evidence: {
+      n: 4,
+      maxLag: 4,
+      acf: [0.6, 0.3, 0.1, 0],
+      pacf: [0.6, -0.1, 0, 0.05],
+      significantAcfLags: [1, 2],
+      significantPacfLags: [1],
+      acfCutoff: 2,
+      pacfCutoff: 1,
+      acfPattern: 'tails-off',
+      pacfPattern: 'cuts-off',
+      ljungBox: { lag: 5, statistic: 12.5, df: 5, pValue: 0.0285 },
+      unitRoot: null,
+      period: null,
+      correlogram: { verdict: 'ar', p: 1 },
+    },
     gapsFilled: false,
     model: null,
+    modelNote: null,
     fittedOn: null,
   },
   effectiveSampleSize: { n: 2016, ess: 504, tau: 4, lagsUsed: 10, mean: 10, standardError: 0.5, confidenceInterval: [9.020018, 10.979982], alpha: 0.05 },
@@ -40,10 +75,22 @@ export const REPORT: DiagnosticsReport = {
   trend: { available: false, reason: 'invented reason: the series is constant' },
 };
 
-const FIT = { p: 1, q: 0, ar: [0.8213], ma: [], mean: 21.42, standardErrors: { ar: [0.0312], ma: [], mean: 0.587 }, sigma2: 0.0441, logLik: 512.3, aicc: -1018.58, converged: true };
+const FIT: ArmaFitSummary & { bic: number } = {
+  p: 1,
+  q: 0,
+  ar: [0.8213],
+  ma: [],
+  mean: 21.42,
+  standardErrors: { ar: [0.0312], ma: [], mean: 0.587 },
+  sigma2: 0.0441,
+  logLik: 512.3,
+  aicc: -1018.58,
+  bic: -1005.4,
+  converged: true,
+};
 
 /** A process model fitted to the remainder after a 288-step (1-day at 300 s) cycle; invented numbers. */
-export const PROCESS_MODEL: DiagnosticsReport['processModel'] = {
+export const PROCESS_MODEL: DiagnosticsAnswer['processModel'] = {
   available: true,
   fittedOn: 'remainder',
   period: 288,
@@ -61,12 +108,14 @@ export const PROCESS_MODEL: DiagnosticsReport['processModel'] = {
   chosen: FIT,
   residualTest: { lag: 20, statistic: 18.7, df: 19, pValue: 0.476 },
   readingsPerIndependent: 10.19,
+  lowestAicc: { p: 1, q: 0 },
   sentence: 'Invented sentence: readings carry over from one 5-minute step to the next with φ = 0.82.',
 };
 
 /** A trend whose HAC interval is wider than the OLS one; invented numbers. */
-export const TREND: DiagnosticsReport['trend'] = {
+export const TREND: DiagnosticsAnswer['trend'] = {
   available: true,
+  fittedOn: 'adjusted',
   unit: '%',
   n: 2016,
   lag: 8,
@@ -91,4 +140,18 @@ export const CCF: CrossCorrelation = {
   simultaneousBand: 0.0712,
   simultaneousMethod: 'Šidák over 5 lags',
   raw: { lags: [-2, -1, 0, 1, 2], values: [-0.6, -0.62, -0.64, -0.6, -0.55], band: 0.0437, strongest: { lag: 0, lagMs: 0, value: -0.64, significant: true } },
+};
+
+/** The model behind the identification's verdict when PROCESS_MODEL is fitted (the same invented fit). */
+export const IDENTIFIED_MODEL: IdentifiedModel = {
+  ...FIT,
+  fittedOn: 'remainder',
+  start: 0,
+  cells: 2016,
+  candidates: [],
+  lowestAicc: { p: 1, q: 0 },
+  residualTest: { lag: 20, statistic: 18.7, df: 19, pValue: 0.476 },
+  readingsPerIndependent: 10.19,
+  smallestArRoot: 1.2176,
+  criterionNote: null,
 };

@@ -1,4 +1,4 @@
-import type { TrendAnswer } from '../api/get-diagnostics.ts';
+import type { TrendAnswer } from '@shared/contract/diagnostics.ts';
 import { BlockSection } from './block-section.tsx';
 import { fmtP, fmtStat } from './format-number.ts';
 

@@ -1,4 +1,5 @@
-import { diagnosticsQueryOptions, type DiagnosticsParams } from '../api/get-diagnostics.ts';
+import type { DiagnosticsParams } from '@shared/contract/diagnostics.ts';
+import { diagnosticsQueryOptions } from '../api/get-diagnostics.ts';
 import { useAnalysisRun } from './use-analysis-run.ts';
 
 /** One diagnostics run at a time for a channel, with progress and Cancel (see {@link useAnalysisRun}). */
