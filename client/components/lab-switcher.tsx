@@ -1,13 +1,11 @@
 import { useId, useRef, useState, type FocusEvent, type KeyboardEvent } from 'react';
 import { Link } from 'react-router-dom';
 import { paths } from '../app/paths.ts';
-import { ROLE_LABELS, type Role } from '@shared/policies/permissions.ts';
+import { ROLE_LABELS } from '@shared/policies/permissions.ts';
+import type { Me } from '@shared/contract/me.ts';
 
-export interface SwitcherLab {
-  slug: string;
-  name: string;
-  role: Role;
-}
+/** One of the person's labs, as `GET /api/v1/me` lists it. */
+export type SwitcherLab = Me['labs'][number];
 
 /**
  * The lab switcher in the top band: a disclosure button naming the current lab that opens a
