@@ -10,7 +10,10 @@ describe('andrewsBartlettLag', () => {
     for (const v of x) mean += v / x.length;
     let c = 0;
     let s = 0;
-    for (let i = 1; i < x.length; i++) (c += (x[i] - mean) * (x[i - 1] - mean)), (s += (x[i - 1] - mean) ** 2);
+    for (let i = 1; i < x.length; i++) {
+      c += (x[i] - mean) * (x[i - 1] - mean);
+      s += (x[i - 1] - mean) ** 2;
+    }
     const rho = c / s;
     const alpha = (4 * rho * rho) / ((1 - rho) ** 2 * (1 + rho) ** 2);
     expect(rho).toBeGreaterThan(0.85);

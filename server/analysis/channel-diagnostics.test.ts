@@ -3,15 +3,14 @@
  * tests/reference/correlation.R and decomposition.R; see tests/reference/README.md), fed in as
  * channel readings on a regular grid. Tolerances are those of the engine's own reference tests.
  */
-import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { AnalysisInputError, acf, ccf, effectiveSampleSize, identifyProcess, ljungBox, pacf } from './index.ts';
 import { channelDiagnostics, defaultCcfMaxLag, type ChannelReadings } from './channel-diagnostics.ts';
 import { prewhitenedCcf } from './prewhitened-ccf.ts';
 import { simulateArma } from './seeded-simulation.testkit.ts';
+import { loadReferenceFixture, type ReferenceJson as Json } from '../../tests/reference/reference-fixture.ts';
 
-type Json = Record<string, any>;
-const load = (name: string): Json => JSON.parse(readFileSync(new URL(`../../tests/reference/fixtures/${name}`, import.meta.url), 'utf8'));
+const load = loadReferenceFixture;
 const R = load('correlation-r.json');
 const STL = load('decomposition-stl.json');
 const CLASSICAL = load('decomposition-classical.json');

@@ -11,7 +11,11 @@ import { type Series } from './analysis-input-error.ts';
 export function lagOneCoefficient(x: Series): number {
   let sum = 0;
   let count = 0;
-  for (let i = 0; i < x.length; i++) if (!Number.isNaN(x[i])) (sum += x[i]), count++;
+  for (let i = 0; i < x.length; i++) {
+    if (Number.isNaN(x[i])) continue;
+    sum += x[i];
+    count++;
+  }
   const mean = count > 0 ? sum / count : 0;
   let cross = 0;
   let square = 0;

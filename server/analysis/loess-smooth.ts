@@ -89,7 +89,7 @@ function sweepWithJumps(
 ): number {
   const half = (span + 1) >> 1;
   let left = 0;
-  let right = span - 1;
+  let right: number;
   for (let i = 0; i < n; i += step) {
     if (i + 1 < half) {
       left = 0;

@@ -2,15 +2,7 @@ import type { Db } from '../db/create-db.ts';
 import { inLab } from '../db/tenant-scope.ts';
 import { auditRepo, type AuditEntry } from '../db/audit.repo.ts';
 import type { LabContext } from './lab-context.ts';
-
-export interface AuditQuery {
-  action?: string;
-  actor?: string;
-  from?: string;
-  to?: string;
-  page: number;
-  pageSize: number;
-}
+import type { AuditQuery } from '../contract/audit.ts';
 
 /** Reading a lab's audit log (writing happens inside each use case's own transaction). */
 export function createAuditService(deps: { db: Db }) {

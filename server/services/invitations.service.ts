@@ -12,13 +12,8 @@ import { AppError, NotFoundError, ServiceUnavailableError } from '../errors.ts';
 import { ConflictError, GoneError } from './service-errors.ts';
 import { invitationMail } from './mail/invitation-mail.ts';
 import type { Actor, LabContext } from './lab-context.ts';
-import type { Role } from '../policies/permissions.ts';
 import type { PlanLimitGuard } from './billing/plan-limits.ts';
-
-export interface InviteMemberInput {
-  email: string;
-  role: Role;
-}
+import type { InviteMemberInput } from '../contract/invitations.ts';
 
 export const INVITATION_LIFETIME_MS = 7 * 24 * 3600 * 1000;
 

@@ -14,11 +14,7 @@ import { ConflictError, isDuplicateKey } from './service-errors.ts';
 import { isLockConflict } from '../db/db-errors.ts';
 import { AppError, ValidationError } from '../errors.ts';
 import type { Actor } from './lab-context.ts';
-
-export interface CreateLabInput {
-  name: string;
-  slug?: string;
-}
+import type { CreateLabInput } from '../contract/labs.ts';
 
 /** A lab a person created, and the address they asked for (the lab's own may differ: see create). */
 export interface CreatedLab {

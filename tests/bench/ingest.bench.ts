@@ -194,7 +194,7 @@ async function measureUpload(
         body: Readable.toWeb(file) as ReadableStream,
         duplex: 'half',
       } as RequestInit);
-      let text = '';
+      let text: string;
       try {
         text = await res.text();
       } catch (err) {

@@ -6,15 +6,15 @@
  * against a running R follows when Rscript is on PATH.
  */
 import { execFileSync, spawnSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { fitArma, selectArma } from '../../server/analysis/index.ts';
 import { simulateArma } from '../../server/analysis/seeded-simulation.testkit.ts';
+import { loadReferenceFixture, type ReferenceJson as Json } from './reference-fixture.ts';
 
-type Json = Record<string, any>;
-const R: Json = JSON.parse(readFileSync(new URL('./fixtures/arma-r.json', import.meta.url), 'utf8'));
+const R = loadReferenceFixture('arma-r.json');
 /** R's NA is stored as null; the engine's missing value is NaN. */
 const seriesOf = (name: string): number[] => R.series[name].map((v: number | null) => (v === null ? NaN : v));
 /** arma.R stores scalars as one-element arrays. */

@@ -3,12 +3,11 @@
  * ship with R. The fixtures (series, exact calls, versions) are written by correlation.R and
  * correlation.py in this folder; see README.md to regenerate them.
  */
-import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { acf, acfBands, adf, arYuleWalker, boxPierce, ccf, difference, ljungBox, pacf } from '../../server/analysis/index.ts';
+import { loadReferenceFixture, type ReferenceJson as Json } from './reference-fixture.ts';
 
-type Json = Record<string, any>;
-const load = (name: string): Json => JSON.parse(readFileSync(new URL(`./fixtures/${name}`, import.meta.url), 'utf8'));
+const load = loadReferenceFixture;
 const R = load('correlation-r.json');
 const SM = load('correlation-statsmodels.json');
 

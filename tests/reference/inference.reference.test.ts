@@ -3,14 +3,13 @@
  * with R and one seeded simulation made in R. The fixture (series, exact calls, versions) is
  * written by inference.R in this folder; see README.md to regenerate it.
  */
-import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { compareMeans } from '../../server/analysis/compare-means.ts';
 import { prewhitenedCcf } from '../../server/analysis/prewhitened-ccf.ts';
 import { trendTest } from '../../server/analysis/trend-test.ts';
+import { loadReferenceFixture, type ReferenceJson as Json } from './reference-fixture.ts';
 
-type Json = Record<string, any>;
-const R: Json = JSON.parse(readFileSync(new URL('./fixtures/inference-r.json', import.meta.url), 'utf8'));
+const R = loadReferenceFixture('inference-r.json');
 
 /** R's NA is stored as null; the engine's missing value is NaN. */
 const seriesOf = (name: string): number[] => R.series[name].map((v: number | null) => (v === null ? NaN : v));

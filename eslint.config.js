@@ -1,0 +1,68 @@
+// ESLint for Lagbook (`npm run lint`): the recommended JavaScript and typescript-eslint rules
+// without type information (fast on a small machine), the two classic React hook rules for the
+// client, and the few house rules of CONVENTIONS/DEVELOPERS that a syntax check can see.
+// Import boundaries are not here: dependency-cruiser checks them (`npm run lint:boundaries`).
+// Formatting is Prettier's (`npm run format:check`); eslint-config-prettier turns off the
+// stylistic rules that would fight it.
+import { defineConfig } from 'eslint/config';
+import js from '@eslint/js';
+import tseslint from 'typescript-eslint';
+import reactHooks from 'eslint-plugin-react-hooks';
+import prettier from 'eslint-config-prettier';
+
+/** Node's globals for the few plain JavaScript files (configs and scripts). */
+const nodeGlobals = { process: 'readonly', console: 'readonly', URL: 'readonly', setTimeout: 'readonly', clearTimeout: 'readonly', Buffer: 'readonly' };
+
+export default defineConfig(
+  { ignores: ['node_modules/', 'dist/', '.lagbook/', 'test-results/', 'client/dist/'] },
+  js.configs.recommended,
+  tseslint.configs.recommended,
+  {
+    files: ['**/*.{js,mjs}'],
+    languageOptions: { sourceType: 'module', globals: nodeGlobals },
+  },
+  {
+    files: ['**/*.cjs'],
+    languageOptions: { sourceType: 'commonjs', globals: { ...nodeGlobals, module: 'writable', require: 'readonly', __dirname: 'readonly' } },
+  },
+  {
+    rules: {
+      // `_name` marks an argument or binding kept on purpose (a callback's position, a rest split).
+      '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_', caughtErrorsIgnorePattern: '^_', ignoreRestSiblings: true }],
+    },
+  },
+  {
+    files: ['client/**/*.{ts,tsx}'],
+    plugins: { 'react-hooks': reactHooks },
+    rules: {
+      'react-hooks/rules-of-hooks': 'error',
+      'react-hooks/exhaustive-deps': 'warn',
+    },
+  },
+  {
+    // House rules for the server's own code (tests excluded).
+    files: ['server/**/*.ts'],
+    ignores: ['server/**/*.test.ts'],
+    rules: {
+      // The server writes its log through the log writer (server/logger.ts), which keeps lines
+      // structured and leaves secrets out; a stray console call bypasses both.
+      'no-console': 'error',
+    },
+  },
+  {
+    // Every query on a lab-owned table starts at the tenant scope (server/db/tenant-scope.ts):
+    // outside the data layer no code names the tenant column.
+    files: ['server/**/*.ts'],
+    ignores: ['server/db/**', 'server/**/*.test.ts'],
+    rules: {
+      'no-restricted-syntax': [
+        'error',
+        {
+          selector: 'Literal[value=/\\btenant_id\\b/], TemplateElement[value.raw=/\\btenant_id\\b/]',
+          message: 'tenant_id is the data layer’s: go through the lab scope (inLab) in server/db/ instead of naming the column here.',
+        },
+      ],
+    },
+  },
+  prettier,
+);
