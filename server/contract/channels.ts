@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { parseReadingTime } from '../services/ingest/parse-reading-time.ts';
 import type { IsoTime } from './common.ts';
+import type { Channel } from './loggers.ts';
 
 /**
  * The channel browser: the inputs of the overview, detail, chart series and readings export,
@@ -93,19 +94,8 @@ export interface ChannelLogger {
   expectedIntervalS: number;
 }
 
-/** A channel with its logger, status and latest reading. */
-export interface ChannelState {
-  id: number;
-  loggerId: number;
-  key: string;
-  label: string;
-  unit: string | null;
-  quantity: string | null;
-  validMin: number | null;
-  validMax: number | null;
-  expectedIntervalS: number | null;
-  seasonalPeriodHint: number | null;
-  retiredAt: IsoTime | null;
+/** A channel (as the logger pages show it) with its logger, status and latest reading. */
+export interface ChannelState extends Channel {
   logger: ChannelLogger;
   status: ChannelStatus;
   /** Seconds between readings the status is judged by (the channel's, else its logger's). */
