@@ -38,11 +38,7 @@ export const timeParam = z
 
 /** A whole number from a query string within [min, max], with `field: reason` messages. */
 export const wholeNumber = (min: number, max: number) =>
-  z.coerce
-    .number({ error: 'must be a number' })
-    .int('must be a whole number')
-    .min(min, `must be at least ${min}`)
-    .max(max, `must be at most ${max}`);
+  z.coerce.number({ error: 'must be a number' }).int('must be a whole number').min(min, `must be at least ${min}`).max(max, `must be at most ${max}`);
 
 /** The optional `from` and `to` of a range query. */
 export const rangeFields = { from: timeParam.optional(), to: timeParam.optional() };

@@ -52,7 +52,10 @@ export const diagnosticsQuery = (now: () => number = Date.now) =>
       /** Cross-correlation lag window in steps (only with `ccfWith`); absent: ⌊10·log10(n/2)⌋. */
       ccfMaxLag: wholeNumber(1, 10_000).optional(),
     })
-    .refine((q) => !(q.seasonalDifference > 0 && q.period === 'none'), { path: ['seasonalDifference'], message: 'needs a period (auto or a number of steps), not none' })
+    .refine((q) => !(q.seasonalDifference > 0 && q.period === 'none'), {
+      path: ['seasonalDifference'],
+      message: 'needs a period (auto or a number of steps), not none',
+    })
     .refine((q) => q.ccfMaxLag === undefined || q.ccfWith !== undefined, { path: ['ccfMaxLag'], message: 'needs ccfWith' })
     .transform((q, ctx) => resolveRange(q, ctx, now));
 

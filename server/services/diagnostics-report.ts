@@ -91,8 +91,6 @@ function sig(x: number, digits = 3): string {
   return decimals > 12 ? x.toExponential(digits - 1) : x.toFixed(decimals);
 }
 
-type ModelFit = NonNullable<ChannelDiagnostics['identification']['model']>;
-
 /** The process model section: the chosen ARMA model, its candidates, residual test and a plain sentence. */
 function processModelSection(r: ChannelDiagnostics, stepMs: number, label: string): ProcessModel {
   const m = r.identification.model;
@@ -160,7 +158,10 @@ function trendSection(r: ChannelDiagnostics, stepMs: number, label: string, unit
   const u = unit ? ` ${unit}` : '';
   const level = `${Math.round((1 - r.bands.alpha) * 100)} %`;
   const [lo, hi] = perDay.hacInterval;
-  const verdict = lo > 0 || hi < 0 ? `a drift ${perDay.slope > 0 ? 'upwards' : 'downwards'} that noise alone does not explain` : 'no drift distinguishable from the channel’s own slow wandering';
+  const verdict =
+    lo > 0 || hi < 0
+      ? `a drift ${perDay.slope > 0 ? 'upwards' : 'downwards'} that noise alone does not explain`
+      : 'no drift distinguishable from the channel’s own slow wandering';
   const widening = perDay.olsInterval[1] > perDay.olsInterval[0] ? (hi - lo) / (perDay.olsInterval[1] - perDay.olsInterval[0]) : NaN;
   const naive =
     Number.isFinite(widening) && widening > 1.2
@@ -238,7 +239,9 @@ export function diagnosticsReport(input: {
     );
   }
   if (r.grid.missing > 0) {
-    notes.push(`${r.grid.missing} of ${r.grid.n} cells were empty; STL, period detection and process identification filled them by linear interpolation between the neighbouring cells (the classical decomposition leaves them missing).`);
+    notes.push(
+      `${r.grid.missing} of ${r.grid.n} cells were empty; STL, period detection and process identification filled them by linear interpolation between the neighbouring cells (the classical decomposition leaves them missing).`,
+    );
   }
   return {
     channel: channelSummary(input.channel),
@@ -295,10 +298,6 @@ export function diagnosticsReport(input: {
               values: dec.outliers.indices.map((i) => dec.remainder[i]),
             },
           },
-    crossCorrelation:
-      r.crossCorrelation && input.partner
-        ? { with: channelSummary(input.partner), ...plain(r.crossCorrelation) }
-        : null,
+    crossCorrelation: r.crossCorrelation && input.partner ? { with: channelSummary(input.partner), ...plain(r.crossCorrelation) } : null,
   };
 }
-

@@ -45,9 +45,11 @@ export function rangeComparisonReport(input: {
   const level = `${Math.round((1 - r.alpha) * 100)} %`;
   const [lo, hi] = r.effective.interval;
   const bLabel = other ? `${other.label} in range b` : 'range b';
-  const verdict = lo > 0 || hi < 0 ? 'a difference that the channel’s own wandering does not explain' : 'no difference distinguishable from the channel’s own wandering';
+  const verdict =
+    lo > 0 || hi < 0 ? 'a difference that the channel’s own wandering does not explain' : 'no difference distinguishable from the channel’s own wandering';
   const welchSays = r.welch.interval[0] > 0 || r.welch.interval[1] < 0;
-  const contrast = welchSays && !(lo > 0 || hi < 0) ? ' An ordinary Welch test, which treats every reading as independent, would wrongly call it significant.' : '';
+  const contrast =
+    welchSays && !(lo > 0 || hi < 0) ? ' An ordinary Welch test, which treats every reading as independent, would wrongly call it significant.' : '';
   return {
     channel: channelSummary(channel),
     other: other ? channelSummary(other) : null,
@@ -72,4 +74,3 @@ export function rangeComparisonReport(input: {
     },
   };
 }
-

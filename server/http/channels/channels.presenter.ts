@@ -10,7 +10,10 @@ function presentChannelCore(c: ChannelWithState & { status: ChannelStatus; inter
     status: c.status,
     statusIntervalS: c.intervalS,
     // as the status reads it: no last reading until both its time and value are known
-    lastReading: c.lastReadingTs === null || c.lastReadingValue === null ? null : { ts: c.lastReadingTs, time: new Date(c.lastReadingTs).toISOString(), value: c.lastReadingValue },
+    lastReading:
+      c.lastReadingTs === null || c.lastReadingValue === null
+        ? null
+        : { ts: c.lastReadingTs, time: new Date(c.lastReadingTs).toISOString(), value: c.lastReadingValue },
     dataVersion: c.dataVersion,
   };
 }

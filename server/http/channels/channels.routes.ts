@@ -1,7 +1,15 @@
 import type { RequestHandler, Response } from 'express';
 import { labOf } from '../middleware/lab-guard.ts';
 import { csvLine } from '../csv-field.ts';
-import { channelParams, readingsExportQuery, seriesQuery, type ChannelDetailAnswer, type ChannelParams, type ChannelsAnswer, type SeriesAnswer } from '../../contract/channels.ts';
+import {
+  channelParams,
+  readingsExportQuery,
+  seriesQuery,
+  type ChannelDetailAnswer,
+  type ChannelParams,
+  type ChannelsAnswer,
+  type SeriesAnswer,
+} from '../../contract/channels.ts';
 import { comparisonQuery, diagnosticsQuery, type ComparisonAnswer, type DiagnosticsParams, type DiagnosticsReport } from '../../contract/diagnostics.ts';
 import { presentChannelDetail, presentChannelOverview } from './channels.presenter.ts';
 import { diagnosticsCsvLines } from './diagnostics-csv.ts';
@@ -110,7 +118,10 @@ export function channelRoutes(deps: {
       summary: "A channel's readings, or min/max buckets from rollups, for charting.",
       params: channelParams,
       query: seriesQuery(now),
-      response: { status: 200, description: "The series; when the plan's history cut the start of the range, `historyStartsAt` and the Lagbook-History-Starts header say where." },
+      response: {
+        status: 200,
+        description: "The series; when the plan's history cut the start of the range, `historyStartsAt` and the Lagbook-History-Starts header say where.",
+      },
       errors: OUTSIDE_PLAN_HISTORY,
       handle: async ({ lab, params, query: asked, setHeader }): Promise<SeriesAnswer> => {
         const q = await withinPlanHistory(deps.billing, lab, asked, setHeader);
@@ -127,8 +138,7 @@ export function channelRoutes(deps: {
       method: 'get',
       path: '/channels/:channelId/diagnostics',
       auth: { permission: 'diagnostics.read' },
-      summary:
-        `ACF, PACF, Ljung–Box, process identification with the fitted ARMA model (\`processModel\`: coefficients ± standard errors, candidates with AICc and BIC, residual test), the trend with Newey–West and naive intervals (\`trend\`), STL, effective sample size and the prewhitened cross-correlation with a simultaneous band (\`crossCorrelation\`, the raw CCF under \`raw\`) for a channel. A decomposition longer than ${MAX_DRAWN_CELLS.toLocaleString('en')} cells comes thinned for drawing (\`decomposition.cells\` lists the cells kept, \`decomposition.thinned\` says how); diagnostics.csv holds every cell.`,
+      summary: `ACF, PACF, Ljung–Box, process identification with the fitted ARMA model (\`processModel\`: coefficients ± standard errors, candidates with AICc and BIC, residual test), the trend with Newey–West and naive intervals (\`trend\`), STL, effective sample size and the prewhitened cross-correlation with a simultaneous band (\`crossCorrelation\`, the raw CCF under \`raw\`) for a channel. A decomposition longer than ${MAX_DRAWN_CELLS.toLocaleString('en')} cells comes thinned for drawing (\`decomposition.cells\` lists the cells kept, \`decomposition.thinned\` says how); diagnostics.csv holds every cell.`,
       params: channelParams,
       query: diagnosticsQuery(now),
       response: { status: 200, description: 'The diagnostics report, with `cached` saying whether it came from the result cache.' },
@@ -205,7 +215,11 @@ export function channelRoutes(deps: {
       summary: "A channel's correlogram, cross-correlation, Ljung–Box and full-resolution decomposition tables as CSV.",
       params: channelParams,
       query: diagnosticsQuery(now),
-      response: { status: 200, description: 'The diagnostics tables as one CSV table (a `section` column tells the rows apart), streamed.', mediaType: 'text/csv' },
+      response: {
+        status: 200,
+        description: 'The diagnostics tables as one CSV table (a `section` column tells the rows apart), streamed.',
+        mediaType: 'text/csv',
+      },
       errors: DIAGNOSTICS_ERRORS,
       stream: true,
       handle: async (input, { res }) => {

@@ -51,17 +51,38 @@ function* modelRows(report: DiagnosticsReport): Generator<string> {
   const on = m.fittedOn === 'remainder' ? `the series less its ${m.period}-step cycle` : 'the series';
   const note = `ARMA(${m.chosen.p},${m.chosen.q}) by exact maximum likelihood on ${on}, last ${m.cells} cells; chosen by lowest BIC`;
   const c = m.chosen;
-  for (let i = 0; i < c.ar.length; i++) yield row({ section: 'model-coefficient', term: `ar${i + 1}`, estimate: c.ar[i], standard_error: c.standardErrors.ar[i], note });
-  for (let i = 0; i < c.ma.length; i++) yield row({ section: 'model-coefficient', term: `ma${i + 1}`, estimate: c.ma[i], standard_error: c.standardErrors.ma[i], note });
+  for (let i = 0; i < c.ar.length; i++)
+    yield row({ section: 'model-coefficient', term: `ar${i + 1}`, estimate: c.ar[i], standard_error: c.standardErrors.ar[i], note });
+  for (let i = 0; i < c.ma.length; i++)
+    yield row({ section: 'model-coefficient', term: `ma${i + 1}`, estimate: c.ma[i], standard_error: c.standardErrors.ma[i], note });
   if (c.mean !== null) yield row({ section: 'model-coefficient', term: 'mean', estimate: c.mean, standard_error: c.standardErrors.mean, note });
   yield row({ section: 'model-coefficient', term: 'sigma2', estimate: c.sigma2, aicc: c.aicc, bic: c.bic, log_likelihood: c.logLik, note });
-  yield row({ section: 'model-coefficient', term: 'readings_per_independent', estimate: m.readingsPerIndependent, note: 'long-run over one-reading variance implied by the model' });
+  yield row({
+    section: 'model-coefficient',
+    term: 'readings_per_independent',
+    estimate: m.readingsPerIndependent,
+    note: 'long-run over one-reading variance implied by the model',
+  });
   for (const k of m.candidates) {
     const chosen = k.p === c.p && k.q === c.q;
-    yield row({ section: 'model-candidate', term: `ARMA(${k.p},${k.q})`, aicc: k.aicc, bic: k.bic, log_likelihood: k.logLik, note: chosen ? 'chosen' : k.admissible ? '' : 'not admissible (not converged, or a root within 1.01 of the unit circle)' });
+    yield row({
+      section: 'model-candidate',
+      term: `ARMA(${k.p},${k.q})`,
+      aicc: k.aicc,
+      bic: k.bic,
+      log_likelihood: k.logLik,
+      note: chosen ? 'chosen' : k.admissible ? '' : 'not admissible (not converged, or a root within 1.01 of the unit circle)',
+    });
   }
   const t = m.residualTest;
-  yield row({ section: 'model-residual-test', lag: t.lag, ljung_box_statistic: t.statistic, ljung_box_df: t.df, ljung_box_p_value: t.pValue, note: 'Ljung–Box on the model residuals, fitdf = p + q' });
+  yield row({
+    section: 'model-residual-test',
+    lag: t.lag,
+    ljung_box_statistic: t.statistic,
+    ljung_box_df: t.df,
+    ljung_box_p_value: t.pValue,
+    note: 'Ljung–Box on the model residuals, fitdf = p + q',
+  });
 }
 
 /** The trend rows: slope per day with the Newey–West interval, then the naive OLS one. */
@@ -73,8 +94,24 @@ function* trendRows(report: DiagnosticsReport): Generator<string> {
   }
   const unit = t.unit ? ` (${t.unit} per day)` : ' (per day)';
   const what = t.fittedOn === 'adjusted' ? 'least squares on the series less its seasonal component' : 'least squares on the series';
-  yield row({ section: 'trend', term: `slope${unit}`, estimate: t.perDay.slope, standard_error: t.perDay.hacStandardError, interval_low: t.perDay.hacInterval[0], interval_high: t.perDay.hacInterval[1], note: `${what}; Newey–West standard error, Bartlett lag ${t.lag}; alpha ${t.alpha}` });
-  yield row({ section: 'trend-independent', term: `slope${unit}`, estimate: t.perDay.slope, standard_error: t.perDay.olsStandardError, interval_low: t.perDay.olsInterval[0], interval_high: t.perDay.olsInterval[1], note: 'ordinary least-squares standard error, as if the readings were independent (for contrast)' });
+  yield row({
+    section: 'trend',
+    term: `slope${unit}`,
+    estimate: t.perDay.slope,
+    standard_error: t.perDay.hacStandardError,
+    interval_low: t.perDay.hacInterval[0],
+    interval_high: t.perDay.hacInterval[1],
+    note: `${what}; Newey–West standard error, Bartlett lag ${t.lag}; alpha ${t.alpha}`,
+  });
+  yield row({
+    section: 'trend-independent',
+    term: `slope${unit}`,
+    estimate: t.perDay.slope,
+    standard_error: t.perDay.olsStandardError,
+    interval_low: t.perDay.olsInterval[0],
+    interval_high: t.perDay.olsInterval[1],
+    note: 'ordinary least-squares standard error, as if the readings were independent (for contrast)',
+  });
 }
 
 /**
@@ -93,15 +130,31 @@ export function* diagnosticsCsvLines(report: DiagnosticsReport): Generator<strin
   const { acf, pacf, bands } = report;
   for (let i = 0; i < acf.lags.length; i++) {
     const k = acf.lags[i];
-    yield row({ section: 'correlogram', lag: k, acf: acf.values[i], ...(k > 0 ? { pacf: pacf.values[k - 1], white_noise_band: bands.whiteNoise, bartlett_band: bands.bartlett[k - 1] } : {}) });
+    yield row({
+      section: 'correlogram',
+      lag: k,
+      acf: acf.values[i],
+      ...(k > 0 ? { pacf: pacf.values[k - 1], white_noise_band: bands.whiteNoise, bartlett_band: bands.bartlett[k - 1] } : {}),
+    });
   }
   const ccf = report.crossCorrelation;
   if (ccf) {
-    const note = ccf.prewhitening ? `prewhitened by the AR(${ccf.prewhitening.order}) filter of ${ccf.with.label}; simultaneous band ${ccf.simultaneousMethod}` : 'raw (no prewhitening)';
-    for (let i = 0; i < ccf.lags.length; i++) yield row({ section: 'ccf', lag: ccf.lags[i], ccf: ccf.values[i], ccf_band: ccf.band, ccf_simultaneous_band: ccf.simultaneousBand, note });
-    for (let i = 0; i < ccf.raw.lags.length; i++) yield row({ section: 'ccf-raw', lag: ccf.raw.lags[i], ccf: ccf.raw.values[i], ccf_band: ccf.raw.band, note: 'not prewhitened: not a test of a relation between autocorrelated series' });
+    const note = ccf.prewhitening
+      ? `prewhitened by the AR(${ccf.prewhitening.order}) filter of ${ccf.with.label}; simultaneous band ${ccf.simultaneousMethod}`
+      : 'raw (no prewhitening)';
+    for (let i = 0; i < ccf.lags.length; i++)
+      yield row({ section: 'ccf', lag: ccf.lags[i], ccf: ccf.values[i], ccf_band: ccf.band, ccf_simultaneous_band: ccf.simultaneousBand, note });
+    for (let i = 0; i < ccf.raw.lags.length; i++)
+      yield row({
+        section: 'ccf-raw',
+        lag: ccf.raw.lags[i],
+        ccf: ccf.raw.values[i],
+        ccf_band: ccf.raw.band,
+        note: 'not prewhitened: not a test of a relation between autocorrelated series',
+      });
   }
-  for (const b of report.ljungBox) yield row({ section: 'ljung-box', lag: b.lag, ljung_box_statistic: b.statistic, ljung_box_df: b.df, ljung_box_p_value: b.pValue });
+  for (const b of report.ljungBox)
+    yield row({ section: 'ljung-box', lag: b.lag, ljung_box_statistic: b.statistic, ljung_box_df: b.df, ljung_box_p_value: b.pValue });
   yield* modelRows(report);
   yield* trendRows(report);
   const d = report.decomposition;
