@@ -25,7 +25,6 @@ import { createMembersService } from './services/members.service.ts';
 import { createInvitationsService } from './services/invitations.service.ts';
 import { createAuditService } from './services/audit.service.ts';
 import { createLabGuard } from './http/middleware/lab-guard.ts';
-import { fromLabRoutes } from './http/lab-routes.ts';
 import { mountRoutes } from './http/routes/mount-routes.ts';
 import { labRouteSummaries, runsBeforeSession, type LabRouteSummary, type Route } from './http/routes/route.ts';
 import { labRoutes } from './http/labs/labs.routes.ts';
@@ -50,7 +49,7 @@ import { createDiagnosticsConcurrency } from './services/diagnostics-concurrency
 import { channelRoutes } from './http/channels/channels.routes.ts';
 import { createPersonalTokensService } from './services/personal-tokens.service.ts';
 import { tokenRoutes } from './http/tokens/tokens.routes.ts';
-import { alertRoutes } from './http/alerts/alerts.router.ts';
+import { alertRoutes } from './http/alerts/alerts.routes.ts';
 import { createAlertsFeature } from './services/alerts/alerts-feature.ts';
 import { loadPlanCatalog } from './services/billing/plan-catalog.ts';
 import { createPlanLimits } from './services/billing/plan-limits.ts';
@@ -159,7 +158,7 @@ export function createApp(deps: AppDeps): Express {
       // At most this many diagnostics runs in flight per person (per process): one person cannot hog the workers.
       diagnosticsRuns: createDiagnosticsConcurrency({ maxPerPerson: config.diagnostics.runsPerPerson }),
     }),
-    ...fromLabRoutes(alertRoutes({ alerts: alerts.service, now: nowMs })),
+    ...alertRoutes({ alerts: alerts.service, now: nowMs }),
     ...tokenRoutes({ tokens }),
     ...billingRoutes({ billing: billingService }),
     // Stripe signs the raw body: 'webhook-signature' mounts it before sessions and JSON parsing.

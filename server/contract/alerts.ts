@@ -1,9 +1,11 @@
 import { z } from 'zod';
+import { idParams, type IsoTime } from './common.ts';
+import { rangeFields } from './channels.ts';
 
 /**
- * The alert-rule vocabulary shared by the HTTP layer, the alert services, the repositories and the
- * client's rule form: the kinds of rule, their parameters and the create/update inputs. Pure zod
- * (imports nothing else of the server), so every layer may import it and all give the same
+ * Alert rules and alerts: the vocabulary shared by the HTTP layer, the alert services, the
+ * repositories and the client's rule form (the kinds of rule, their parameters), the inputs of
+ * every alert route and what each answers. Every layer may import it, and all give the same
  * `field: reason` messages.
  */
 
@@ -35,7 +37,11 @@ export const rateParamsSchema = z.object({
   direction: z.enum(['rise', 'fall', 'either'], { error: 'must be rise, fall or either' }).default('either'),
 });
 export const unusualParamsSchema = z.object({
-  periodH: z.number({ error: 'must be a number' }).gt(0, 'must be above 0 hours').max(24 * 31, 'must be at most 744 hours (31 days)').default(24),
+  periodH: z
+    .number({ error: 'must be a number' })
+    .gt(0, 'must be above 0 hours')
+    .max(24 * 31, 'must be at most 744 hours (31 days)')
+    .default(24),
   k: z.number({ error: 'must be a number' }).min(2, 'must be at least 2').max(50, 'must be at most 50').default(5),
   historyCycles: whole(3, 14).default(3),
 });
@@ -68,7 +74,10 @@ export const createAlertRuleSchema = z.discriminatedUnion(
   [
     z
       .object({ ...common, kind: z.literal('silence'), channelId: id.optional(), loggerId: id.optional(), params: silenceParamsSchema })
-      .refine((r) => (r.channelId === undefined) !== (r.loggerId === undefined), { path: ['channelId'], message: 'give either a channel or a logger to watch' }),
+      .refine((r) => (r.channelId === undefined) !== (r.loggerId === undefined), {
+        path: ['channelId'],
+        message: 'give either a channel or a logger to watch',
+      }),
     z.object({ ...common, kind: z.literal('bounds'), ...onChannel, params: boundsParamsSchema }),
     z.object({ ...common, kind: z.literal('rate'), ...onChannel, params: rateParamsSchema }),
     z.object({ ...common, kind: z.literal('unusual'), ...onChannel, params: unusualParamsSchema }),
@@ -88,3 +97,108 @@ export const updateAlertRuleSchema = z
   })
   .strict();
 export type UpdateAlertRuleInput = z.infer<typeof updateAlertRuleSchema>;
+
+/** `/alert-rules/:ruleId`. */
+export const ruleIdParams = idParams('ruleId');
+/** `/alerts/:alertId`. */
+export const alertIdParams = idParams('alertId');
+
+/** `POST …/alerts/:alertId/acknowledge`: an optional note (no body at all means no note). */
+export const acknowledgeAlertSchema = z
+  .object({
+    note: z.string({ error: 'must be text' }).trim().max(500, 'must be at most 500 characters').default(''),
+  })
+  .prefault({});
+export type AcknowledgeAlertInput = z.input<typeof acknowledgeAlertSchema>;
+
+/** `GET …/alerts?status&days&channelId`: open alerts, or all opened in the last `days` days plus any still open. */
+export const listAlertsQuery = z.object({
+  status: z.enum(['open', 'all'], { error: 'must be open or all' }).default('all'),
+  days: z.coerce.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be at least 1').max(366, 'must be at most 366').default(7),
+  channelId: z.coerce.number({ error: 'must be a number' }).int('must be a whole number').positive('must be a positive number').optional(),
+});
+export type ListAlertsQuery = z.infer<typeof listAlertsQuery>;
+
+/** `GET …/channels/:channelId/alerts?from&to`: alerts that overlapped the range (default: the 7 days up to now). */
+export const channelAlertsQuery = z.object(rangeFields);
+
+/** What a rule watches, named as the lab sees it (a silence rule on a whole logger has no channel). */
+export interface AlertRuleWatched {
+  channelId: number | null;
+  loggerId: number;
+  label: string;
+  loggerName: string;
+  unit: string;
+}
+
+/** An alert rule as listed: what it watches and whether the viewer is subscribed (its evaluation memory stays on the server). */
+export interface AlertRule {
+  id: number;
+  name: string;
+  kind: AlertRuleKind;
+  channelId: number | null;
+  loggerId: number | null;
+  params: Record<string, unknown>;
+  reminderAfterMin: number | null;
+  enabled: boolean;
+  createdAt: IsoTime;
+  updatedAt: IsoTime;
+  watched: AlertRuleWatched;
+  subscribed: boolean;
+  openAlertId: number | null;
+}
+
+/** `GET …/alert-rules`. */
+export interface AlertRulesAnswer {
+  rules: AlertRule[];
+}
+
+/** `POST …/alert-rules` and `PATCH …/alert-rules/:ruleId`. */
+export interface AlertRuleAnswer {
+  rule: AlertRule;
+}
+
+/** Who acknowledged an alert, when, and with what note. */
+export interface AlertAcknowledgement {
+  at: IsoTime;
+  by: { name: string; email: string } | null;
+  note: string | null;
+}
+
+/** One alert: when and why it opened, whether and when it resolved, and its acknowledgement. Reading times are epoch ms like the series. */
+export interface Alert {
+  id: number;
+  ruleId: number;
+  ruleName: string;
+  kind: AlertRuleKind;
+  channelId: number | null;
+  loggerId: number | null;
+  open: boolean;
+  openedAt: number;
+  openedValue: number | null;
+  openedDetail: string;
+  resolvedAt: number | null;
+  resolvedValue: number | null;
+  resolvedDetail: string | null;
+  remindersSent: number;
+  acknowledged: AlertAcknowledgement | null;
+}
+
+/** `GET …/alerts`: the alerts and the server's clock (epoch ms), for "open for 3 h". */
+export interface AlertsAnswer {
+  alerts: Alert[];
+  now: number;
+}
+
+/** `POST …/alerts/:alertId/acknowledge`. */
+export interface AlertAnswer {
+  alert: Alert;
+}
+
+/** `GET …/channels/:channelId/alerts`: the range asked for (filled in) and the alerts overlapping it. */
+export interface ChannelAlertsAnswer {
+  channelId: number;
+  from: number;
+  to: number;
+  alerts: Alert[];
+}

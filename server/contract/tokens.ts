@@ -10,11 +10,7 @@ import { idParams, type IsoTime } from './common.ts';
 /** `POST …/tokens`: a name to recognise the token by and how many days it works. */
 export const createPersonalTokenSchema = z.object({
   name: z.string({ error: 'must be text' }).trim().min(1, 'must not be empty').max(80, 'must be at most 80 characters'),
-  expiresInDays: z
-    .number({ error: 'must be a number' })
-    .int('must be a whole number')
-    .min(1, 'must be at least 1')
-    .max(365, 'must be at most 365'),
+  expiresInDays: z.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be at least 1').max(365, 'must be at most 365'),
 });
 export type CreatePersonalTokenInput = z.infer<typeof createPersonalTokenSchema>;
 

@@ -39,9 +39,9 @@ describe('alert rules: validation', () => {
     { name: 'an empty name and a silence factor below 1', body: () => ({ name: ' ', kind: 'silence', loggerId: f.ids.loggerId, params: { factor: 0.5 } }), message: 'name: must not be empty; params.factor: must be at least 1 (one expected interval)' },
   ];
   for (const c of cases) {
-    it(`${c.name} → 422 "${c.message}"`, async () => {
-      const res = await post(c.body()).expect(422);
-      expect(res.body.error).toEqual({ code: 'invalid_rule', message: c.message });
+    it(`${c.name} → 400 "${c.message}"`, async () => {
+      const res = await post(c.body()).expect(400);
+      expect(res.body.error).toEqual({ code: 'invalid_input', message: c.message });
     });
   }
 
@@ -58,12 +58,12 @@ describe('alert rules: validation', () => {
     expect(res2.body.error.message).toBe('No such logger in this lab.');
   });
 
-  it('PATCH checks new parameters against the rule kind (422) and refuses unknown fields', async () => {
+  it('PATCH checks new parameters against the rule kind (400) and refuses unknown fields', async () => {
     const made = await post({ name: 'Fridge warm', kind: 'bounds', channelId: f.ids.channelId, params: { high: 8, holdS: 120 } }).expect(201);
     const id = made.body.rule.id;
-    const bad = await request(t.app).patch(`${base()}/alert-rules/${id}`).set('Cookie', tech).send({ params: { low: 10, high: 8 } }).expect(422);
+    const bad = await request(t.app).patch(`${base()}/alert-rules/${id}`).set('Cookie', tech).send({ params: { low: 10, high: 8 } }).expect(400);
     expect(bad.body.error.message).toBe('params.low: must be below the high limit');
-    const extra = await request(t.app).patch(`${base()}/alert-rules/${id}`).set('Cookie', tech).send({ kind: 'rate' }).expect(422);
+    const extra = await request(t.app).patch(`${base()}/alert-rules/${id}`).set('Cookie', tech).send({ kind: 'rate' }).expect(400);
     expect(extra.body.error.message).toMatch(/^body: Unrecognized key/);
   });
 });

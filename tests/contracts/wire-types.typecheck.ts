@@ -5,9 +5,6 @@
  * own types so its type-check does not pull in the server's (database, engine) typings; this
  * file, checked with the server's configuration, holds the two together. Nothing imports it.
  */
-import type { presentAlert, presentAlertRule } from '../../server/http/alerts/alerts.presenter.ts';
-import type { Alert } from '../../client/features/alerts/api/get-alerts.ts';
-import type { AlertRule } from '../../client/features/alerts/api/get-alert-rules.ts';
 
 /** What `JSON.stringify` makes of T: dates become strings, typed arrays plain arrays. */
 type Json<T> = T extends Date
@@ -25,6 +22,4 @@ type Reads<A extends B, B> = [A, B];
 type Answer<F extends (...args: never[]) => unknown> = Json<ReturnType<F>>;
 
 export type Contracts = [
-  Reads<Answer<typeof presentAlert>, Alert>,
-  Reads<Answer<typeof presentAlertRule>, AlertRule>,
 ];

@@ -1,8 +1,10 @@
 import type { AlertRecord } from '../../db/alerts.repo.ts';
 import type { AlertRuleView } from '../../services/alerts/alert-rules.service.ts';
+import type { Alert, AlertRule } from '../../contract/alerts.ts';
+import { isoTime } from '../presenters/iso-time.ts';
 
 /** A rule as the API shows it (its evaluation memory stays on the server). */
-export function presentAlertRule(r: AlertRuleView) {
+export function presentAlertRule(r: AlertRuleView): AlertRule {
   return {
     id: r.id,
     name: r.name,
@@ -12,8 +14,8 @@ export function presentAlertRule(r: AlertRuleView) {
     params: r.params,
     reminderAfterMin: r.reminderAfterMin,
     enabled: r.enabled,
-    createdAt: r.createdAt.toISOString(),
-    updatedAt: r.updatedAt.toISOString(),
+    createdAt: isoTime(r.createdAt),
+    updatedAt: isoTime(r.updatedAt),
     watched: r.watched,
     subscribed: r.subscribed,
     openAlertId: r.openAlertId,
@@ -21,7 +23,7 @@ export function presentAlertRule(r: AlertRuleView) {
 }
 
 /** An alert as the API shows it; times of readings are epoch ms like the series. */
-export function presentAlert(a: AlertRecord) {
+export function presentAlert(a: AlertRecord): Alert {
   return {
     id: a.id,
     ruleId: a.ruleId,
@@ -37,6 +39,6 @@ export function presentAlert(a: AlertRecord) {
     resolvedValue: a.resolvedValue,
     resolvedDetail: a.resolvedDetail,
     remindersSent: a.remindersSent,
-    acknowledged: a.acknowledgedAt ? { at: a.acknowledgedAt.toISOString(), by: a.acknowledgedBy, note: a.acknowledgementNote } : null,
+    acknowledged: a.acknowledgedAt ? { at: isoTime(a.acknowledgedAt), by: a.acknowledgedBy, note: a.acknowledgementNote } : null,
   };
 }

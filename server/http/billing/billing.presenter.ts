@@ -3,7 +3,14 @@ import type { Plan } from '../../services/billing/plan-catalog.ts';
 import type { BillingOverview, BillingPlan, Invoice } from '../../contract/billing.ts';
 import { isoTime } from '../presenters/iso-time.ts';
 
-const presentPlan = (p: Plan): BillingPlan => ({ key: p.key, name: p.name, summary: p.summary, monthlyAmount: p.monthlyAmount, paid: p.priceLookupKey !== null, limits: p.limits });
+const presentPlan = (p: Plan): BillingPlan => ({
+  key: p.key,
+  name: p.name,
+  summary: p.summary,
+  monthlyAmount: p.monthlyAmount,
+  paid: p.priceLookupKey !== null,
+  limits: p.limits,
+});
 
 /** The billing page's JSON: plan, status, usage against limits, trend and the catalog. */
 export function presentBillingOverview(o: OverviewRecord): BillingOverview {

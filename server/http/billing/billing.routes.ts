@@ -48,7 +48,8 @@ export function billingRoutes(deps: { billing: BillingService }): Route[] {
       method: 'post',
       path: '/billing/plan-change',
       auth: { permission: 'billing.manage' },
-      summary: 'Move a paid subscription to another paid plan (prorated); 202: the plan changes when Stripe confirms. 409 plan_too_small lists what the lab already uses beyond the plan unless acknowledgeLimits is true.',
+      summary:
+        'Move a paid subscription to another paid plan (prorated); 202: the plan changes when Stripe confirms. 409 plan_too_small lists what the lab already uses beyond the plan unless acknowledgeLimits is true.',
       body: changePlanSchema,
       response: { status: 202, description: 'The switch is sent; the plan changes when the payment service confirms it.' },
       errors: {

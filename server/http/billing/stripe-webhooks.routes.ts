@@ -21,10 +21,15 @@ export function stripeWebhookRoutes(deps: { webhooks: StripeWebhooks }): Route[]
       path: STRIPE_WEBHOOK_PATH,
       auth: 'webhook-signature',
       tag: 'billing',
-      summary: "Stripe's webhook events (checkout, subscription and invoice changes); the Stripe-Signature header is verified against the raw body, 400 when it does not match.",
+      summary:
+        "Stripe's webhook events (checkout, subscription and invoice changes); the Stripe-Signature header is verified against the raw body, 400 when it does not match.",
       bodyMediaTypes: { 'application/json': stripeEventBody },
       before: [express.raw({ type: 'application/json', limit: '512kb' })],
-      response: { status: 200, description: '`{ received: true, outcome }`: the event was applied (`applied`), changed nothing (`unchanged`), was delivered before (`duplicate`) or names no lab here (`unknown-lab`).' },
+      response: {
+        status: 200,
+        description:
+          '`{ received: true, outcome }`: the event was applied (`applied`), changed nothing (`unchanged`), was delivered before (`duplicate`) or names no lab here (`unknown-lab`).',
+      },
       errors: {
         400: '`bad_signature`: the Stripe-Signature header does not match this endpoint’s secret over the raw body, or the event is too old; nothing changes (a body that is not application/json has nothing to verify and answers this too).',
         413: '`payload_too_large`: the body is over 512 KB.',

@@ -1,17 +1,25 @@
 import type { z } from 'zod';
-import { AppError } from '../../errors.ts';
+import { AppError, ValidationError } from '../../errors.ts';
 
-/** An alert rule that cannot work (negative durations, low above high …): 422, messages read `field: reason`. */
+/**
+ * A well-formed alert rule that cannot work on what it watches (an unusual-reading cycle shorter
+ * than two of the channel's expected intervals, too much history to keep): 422 `invalid_rule`,
+ * messages read `field: reason`. Input that fails its schema is not this: it answers 400.
+ */
 export class InvalidAlertRuleError extends AppError {
   constructor(message: string, details?: unknown) {
     super(422, 'invalid_rule', message, details);
   }
 }
 
-/** Parses rule input with its zod schema; failures become {@link InvalidAlertRuleError} listing every field. */
+/**
+ * Parses part of a rule's input with its zod schema where only the service knows the schema (a
+ * PATCH's new `params`, checked against the stored rule's kind). Failures are invalid input like
+ * any other: a {@link ValidationError} (400 `invalid_input`) listing every field under `prefix`.
+ */
 export function parseRuleInput<S extends z.ZodType>(schema: S, input: unknown, prefix = ''): z.infer<S> {
   const result = schema.safeParse(input);
   if (result.success) return result.data;
   const issues = result.error.issues.map((i) => ({ path: [prefix, ...i.path.map(String)].filter(Boolean).join('.') || 'body', message: i.message }));
-  throw new InvalidAlertRuleError(issues.map((i) => `${i.path}: ${i.message}`).join('; '), issues);
+  throw new ValidationError(issues.map((i) => `${i.path}: ${i.message}`).join('; '), issues);
 }

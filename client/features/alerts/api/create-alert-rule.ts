@@ -1,10 +1,10 @@
-import type { CreateAlertRuleInput } from '../../../../server/contract/alerts.ts';
+import type { AlertRuleAnswer, CreateAlertRuleInput } from '@shared/contract/alerts.ts';
 import { useRefreshingMutation } from '../../../components/use-refreshing-mutation.ts';
 import { apiFetch } from '../../../lib/api-client.ts';
-import { alertsRootKey, type AlertRule } from './get-alert-rules.ts';
+import { alertsRootKey } from './get-alert-rules.ts';
 
 /** `POST /api/v1/labs/:lab/alert-rules`: makes a rule; its maker is subscribed. */
-export function createAlertRule(slug: string, input: CreateAlertRuleInput): Promise<{ rule: AlertRule }> {
+export function createAlertRule(slug: string, input: CreateAlertRuleInput): Promise<AlertRuleAnswer> {
   return apiFetch(`/api/v1/labs/${encodeURIComponent(slug)}/alert-rules`, { method: 'POST', body: JSON.stringify(input) });
 }
 

@@ -1,29 +1,12 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { AlertRuleKind } from '../../../../server/contract/alerts.ts';
+import type { AlertRulesAnswer } from '@shared/contract/alerts.ts';
 import { apiFetch } from '../../../lib/api-client.ts';
-
-/** An alert rule as listed, with what it watches and whether the viewer is subscribed. */
-export interface AlertRule {
-  id: number;
-  name: string;
-  kind: AlertRuleKind;
-  channelId: number | null;
-  loggerId: number | null;
-  params: Record<string, unknown>;
-  reminderAfterMin: number | null;
-  enabled: boolean;
-  createdAt: string;
-  updatedAt: string;
-  watched: { channelId: number | null; loggerId: number; label: string; loggerName: string; unit: string };
-  subscribed: boolean;
-  openAlertId: number | null;
-}
 
 /** Every alert query of a lab (rules, alerts, channel bands) lives under this key. */
 export const alertsRootKey = (slug: string) => ['labs', slug, 'alerts'] as const;
 
 /** `GET /api/v1/labs/:lab/alert-rules`. */
-export function getAlertRules(slug: string): Promise<{ rules: AlertRule[] }> {
+export function getAlertRules(slug: string): Promise<AlertRulesAnswer> {
   return apiFetch(`/api/v1/labs/${encodeURIComponent(slug)}/alert-rules`);
 }
 

@@ -1,29 +1,10 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { AlertRuleKind } from '../../../../server/contract/alerts.ts';
+import type { AlertsAnswer } from '@shared/contract/alerts.ts';
 import { apiFetch } from '../../../lib/api-client.ts';
 import { alertsRootKey } from './get-alert-rules.ts';
 
-/** One alert: when and why it opened, whether and when it resolved, and its acknowledgement. */
-export interface Alert {
-  id: number;
-  ruleId: number;
-  ruleName: string;
-  kind: AlertRuleKind;
-  channelId: number | null;
-  loggerId: number | null;
-  open: boolean;
-  openedAt: number;
-  openedValue: number | null;
-  openedDetail: string;
-  resolvedAt: number | null;
-  resolvedValue: number | null;
-  resolvedDetail: string | null;
-  remindersSent: number;
-  acknowledged: { at: string; by: { name: string; email: string } | null; note: string | null } | null;
-}
-
 /** `GET /api/v1/labs/:lab/alerts`: open alerts and those opened in the last `days` days. */
-export function getAlerts(slug: string, days = 7): Promise<{ alerts: Alert[]; now: number }> {
+export function getAlerts(slug: string, days = 7): Promise<AlertsAnswer> {
   return apiFetch(`/api/v1/labs/${encodeURIComponent(slug)}/alerts?days=${days}`);
 }
 

@@ -1,10 +1,10 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import type { ChannelAlertsAnswer } from '@shared/contract/alerts.ts';
 import { apiFetch } from '../../../lib/api-client.ts';
 import { alertsRootKey } from './get-alert-rules.ts';
-import type { Alert } from './get-alerts.ts';
 
 /** `GET /api/v1/labs/:lab/channels/:channelId/alerts?from&to`: alerts overlapping the range. */
-export function getChannelAlerts(slug: string, channelId: number, from: number, to: number): Promise<{ alerts: Alert[] }> {
+export function getChannelAlerts(slug: string, channelId: number, from: number, to: number): Promise<ChannelAlertsAnswer> {
   return apiFetch(`/api/v1/labs/${encodeURIComponent(slug)}/channels/${channelId}/alerts?from=${from}&to=${to}`);
 }
 

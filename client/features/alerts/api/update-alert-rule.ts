@@ -1,10 +1,10 @@
-import type { UpdateAlertRuleInput } from '../../../../server/contract/alerts.ts';
+import type { AlertRuleAnswer, UpdateAlertRuleInput } from '@shared/contract/alerts.ts';
 import { useRefreshingMutation } from '../../../components/use-refreshing-mutation.ts';
 import { apiFetch } from '../../../lib/api-client.ts';
-import { alertsRootKey, type AlertRule } from './get-alert-rules.ts';
+import { alertsRootKey } from './get-alert-rules.ts';
 
 /** `PATCH /api/v1/labs/:lab/alert-rules/:ruleId`. */
-export function updateAlertRule(slug: string, ruleId: number, input: UpdateAlertRuleInput): Promise<{ rule: AlertRule }> {
+export function updateAlertRule(slug: string, ruleId: number, input: UpdateAlertRuleInput): Promise<AlertRuleAnswer> {
   return apiFetch(`/api/v1/labs/${encodeURIComponent(slug)}/alert-rules/${ruleId}`, { method: 'PATCH', body: JSON.stringify(input) });
 }
 

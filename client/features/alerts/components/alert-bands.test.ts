@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { alertBands } from './alert-bands.ts';
-import type { Alert } from '../api/get-alerts.ts';
+import type { Alert } from '@shared/contract/alerts.ts';
 
 const alert = (over: Partial<Alert>): Alert => ({
   id: 1, ruleId: 1, ruleName: 'Freezer warm', kind: 'bounds', channelId: 5, loggerId: null, open: false, openedAt: 100, openedValue: 1,

@@ -1,4 +1,4 @@
-import type { Alert } from '../api/get-alerts.ts';
+import type { Alert } from '@shared/contract/alerts.ts';
 
 /** A shaded stretch of the readings chart: when an alert was open. */
 export interface AlertBand {

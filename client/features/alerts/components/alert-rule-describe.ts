@@ -1,4 +1,4 @@
-import type { AlertRule } from '../api/get-alert-rules.ts';
+import type { AlertRule } from '@shared/contract/alerts.ts';
 
 const n = (v: unknown) => String(v);
 

@@ -2,7 +2,7 @@ import type { FormEvent } from 'react';
 import { Button } from '../../../components/button.tsx';
 import { TextField } from '../../../components/form-field.tsx';
 import { Notice } from '../../../components/notice.tsx';
-import type { AlertRule } from '../api/get-alert-rules.ts';
+import type { AlertRule } from '@shared/contract/alerts.ts';
 import { useUpdateAlertRule } from '../api/update-alert-rule.ts';
 import { KIND_LABELS } from './alert-rule-form.tsx';
 import { formFromRule } from './rule-form-input.ts';

@@ -1,12 +1,12 @@
 import { afterEach, describe, expect, it } from 'vitest';
 import { cleanup, fireEvent, screen, waitFor } from '@testing-library/react';
 import { apiError, fakeApi, renderWithProviders } from '../../../components/test-harness.tsx';
-import type { AlertRule } from '../api/get-alert-rules.ts';
+import type { AlertRule } from '@shared/contract/alerts.ts';
 import { AlertRulesList } from './alert-rules-list.tsx';
 
 afterEach(cleanup);
 
-// A rule invented for the test; the JSON shape is the API contract (alerts presenter).
+// A rule invented for the test; the JSON shape is the API contract (server/contract/alerts.ts).
 const RULE: AlertRule = {
   id: 31,
   name: 'Cold room too warm',
@@ -40,7 +40,7 @@ describe('changing an alert rule', () => {
   });
 
   it('refuses a change the server schema would refuse without sending it, and shows the server’s own refusals on their field', async () => {
-    const api = fakeApi({ [`PATCH ${PATH}`]: () => apiError(422, 'invalid_rule', 'params.holdS: must be at most 86400 (seconds)') });
+    const api = fakeApi({ [`PATCH ${PATH}`]: () => apiError(400, 'invalid_input', 'params.holdS: must be at most 86400 (seconds)') });
     renderWithProviders(<AlertRulesList slug="marrowgate" rules={[RULE]} canManage canSubscribe />);
     fireEvent.click(screen.getByRole('button', { name: 'Change' }));
     fireEvent.change(screen.getByLabelText('Low limit (°C)'), { target: { value: '9' } });

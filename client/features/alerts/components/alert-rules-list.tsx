@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { Button } from '../../../components/button.tsx';
 import { ConfirmButton } from '../../../components/confirm-button.tsx';
 import { useDeleteAlertRule } from '../api/delete-alert-rule.ts';
-import type { AlertRule } from '../api/get-alert-rules.ts';
+import type { AlertRule } from '@shared/contract/alerts.ts';
 import { useSetAlertSubscription } from '../api/set-alert-subscription.ts';
 import { useUpdateAlertRule } from '../api/update-alert-rule.ts';
 import { describeAlertRule } from './alert-rule-describe.ts';

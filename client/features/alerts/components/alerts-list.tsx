@@ -4,7 +4,7 @@ import { Button } from '../../../components/button.tsx';
 import { TextField } from '../../../components/form-field.tsx';
 import { Notice } from '../../../components/notice.tsx';
 import { useAcknowledgeAlert } from '../api/acknowledge-alert.ts';
-import type { Alert } from '../api/get-alerts.ts';
+import type { Alert } from '@shared/contract/alerts.ts';
 
 const utc = (ms: number) => `${new Date(ms).toISOString().slice(0, 16).replace('T', ' ')} UTC`;
 

@@ -1,6 +1,7 @@
 import { LoadingNote, Notice } from '../../../components/notice.tsx';
 import { useAlertRules } from '../api/get-alert-rules.ts';
-import { useAlerts, type Alert } from '../api/get-alerts.ts';
+import type { Alert } from '@shared/contract/alerts.ts';
+import { useAlerts } from '../api/get-alerts.ts';
 import { AlertRuleForm, type RuleTarget } from './alert-rule-form.tsx';
 import { AlertRulesList } from './alert-rules-list.tsx';
 import { AlertsList } from './alerts-list.tsx';

@@ -1,4 +1,4 @@
-import type { Alert } from '../api/get-alerts.ts';
+import type { Alert } from '@shared/contract/alerts.ts';
 import { AlertsList } from './alerts-list.tsx';
 
 /** The channel page's list of alerts over the chart's range (the chart shades the same stretches). */

@@ -1,4 +1,4 @@
-import { createAlertRuleSchema, type AlertRuleKind, type CreateAlertRuleInput } from '../../../../server/contract/alerts.ts';
+import { createAlertRuleSchema, type AlertRuleKind, type CreateAlertRuleInput } from '@shared/contract/alerts.ts';
 
 /** The rule form's fields as typed (text), before they become a request body. */
 export interface RuleFormState {

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import type { CreateAlertRuleInput } from '../../../../server/contract/alerts.ts';
+import type { CreateAlertRuleInput } from '@shared/contract/alerts.ts';
 import { checkRuleForm, errorsFromServerMessage, type RuleFormState } from './rule-form-input.ts';
 
 /**
