@@ -94,24 +94,15 @@ function* trendRows(report: DiagnosticsReport): Generator<string> {
   }
   const unit = t.unit ? ` (${t.unit} per day)` : ' (per day)';
   const what = t.fittedOn === 'adjusted' ? 'least squares on the series less its seasonal component' : 'least squares on the series';
-  yield row({
-    section: 'trend',
-    term: `slope${unit}`,
-    estimate: t.perDay.slope,
-    standard_error: t.perDay.hacStandardError,
-    interval_low: t.perDay.hacInterval[0],
-    interval_high: t.perDay.hacInterval[1],
-    note: `${what}; Newey–West standard error, Bartlett lag ${t.lag}; alpha ${t.alpha}`,
-  });
-  yield row({
-    section: 'trend-independent',
-    term: `slope${unit}`,
-    estimate: t.perDay.slope,
-    standard_error: t.perDay.olsStandardError,
-    interval_low: t.perDay.olsInterval[0],
-    interval_high: t.perDay.olsInterval[1],
-    note: 'ordinary least-squares standard error, as if the readings were independent (for contrast)',
-  });
+  const slope = (section: string, standardError: number, [low, high]: [number, number], note: string) =>
+    row({ section, term: `slope${unit}`, estimate: t.perDay.slope, standard_error: standardError, interval_low: low, interval_high: high, note });
+  yield slope('trend', t.perDay.hacStandardError, t.perDay.hacInterval, `${what}; Newey–West standard error, Bartlett lag ${t.lag}; alpha ${t.alpha}`);
+  yield slope(
+    'trend-independent',
+    t.perDay.olsStandardError,
+    t.perDay.olsInterval,
+    'ordinary least-squares standard error, as if the readings were independent (for contrast)',
+  );
 }
 
 /**
