@@ -48,11 +48,7 @@ export function LabSwitcher({ labs, currentSlug }: { labs: SwitcherLab[]; curren
           {open ? '▴' : '▾'}
         </span>
       </button>
-      <div
-        id={listId}
-        hidden={!open}
-        className="absolute left-0 z-20 mt-2 w-72 rounded-xl border border-rule bg-card p-2 text-ink shadow-lg"
-      >
+      <div id={listId} hidden={!open} className="absolute left-0 z-20 mt-2 w-72 rounded-xl border border-rule bg-card p-2 text-ink shadow-lg">
         {labs.length > 0 && (
           <ul aria-label="Your labs">
             {labs.map((lab) => (

@@ -22,9 +22,7 @@ export default function HomeRoute() {
       {me.labs.length === 0 ? (
         <div className="mt-3 max-w-xl rounded-xl border border-dashed border-rule bg-card p-6">
           <p>You do not belong to a lab yet.</p>
-          <p className="mt-1 text-sm text-ink-soft">
-            Start one for your group and invite your colleagues, or open the invitation link an admin sent you.
-          </p>
+          <p className="mt-1 text-sm text-ink-soft">Start one for your group and invite your colleagues, or open the invitation link an admin sent you.</p>
           <Link to={paths.createLab.href()} className={`mt-4 ${buttonClasses('primary')}`}>
             Create a lab
           </Link>

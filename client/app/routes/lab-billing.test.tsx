@@ -14,13 +14,41 @@ afterEach(() => {
 });
 
 // People and lab invented for the test; permissions come from the server's own role table.
-const me = (role: Role): Me => ({ user: { id: 7, email: 'odalys.brennick@fernhollow.example', name: 'Odalys Brennick', timeZone: null }, labs: [{ slug: 'fernhollow', name: 'Fernhollow Field Station', role }] });
+const me = (role: Role): Me => ({
+  user: { id: 7, email: 'odalys.brennick@fernhollow.example', name: 'Odalys Brennick', timeZone: null },
+  labs: [{ slug: 'fernhollow', name: 'Fernhollow Field Station', role }],
+});
 const routes = (role: Role): RouteObject[] => [
-  { element: <Outlet context={me(role)} />, children: [{ path: paths.lab.path, element: <LabLayout />, children: [{ path: paths.labBilling.path, element: <LabBillingRoute /> }] }] },
+  {
+    element: <Outlet context={me(role)} />,
+    children: [{ path: paths.lab.path, element: <LabLayout />, children: [{ path: paths.labBilling.path, element: <LabBillingRoute /> }] }],
+  },
 ];
-const labAs = (role: Role) => () => ({ status: 200, body: { lab: { slug: 'fernhollow', name: 'Fernhollow Field Station', createdAt: '2026-01-02T09:00:00Z' }, role, permissions: [...ROLE_PERMISSIONS[role]] } });
-const free = { key: 'seedling', name: 'Seedling', summary: '', monthlyAmount: 0, paid: false, limits: { readings: 100, loggers: 2, members: 3, historyDays: 30, quarantinedRows: 20 } };
-const overview = { plan: free, subscribedPlanKey: 'seedling', status: 'none', graceUntil: null, usage: { readings: 0, loggers: 0, members: 1, quarantinedRows: 0 }, limits: free.limits, ingestionRefused: false, historyStartsAt: '2026-11-02T00:00:00Z', trend: [], currency: 'eur', plans: [free] };
+const labAs = (role: Role) => () => ({
+  status: 200,
+  body: { lab: { slug: 'fernhollow', name: 'Fernhollow Field Station', createdAt: '2026-01-02T09:00:00Z' }, role, permissions: [...ROLE_PERMISSIONS[role]] },
+});
+const free = {
+  key: 'seedling',
+  name: 'Seedling',
+  summary: '',
+  monthlyAmount: 0,
+  paid: false,
+  limits: { readings: 100, loggers: 2, members: 3, historyDays: 30, quarantinedRows: 20 },
+};
+const overview = {
+  plan: free,
+  subscribedPlanKey: 'seedling',
+  status: 'none',
+  graceUntil: null,
+  usage: { readings: 0, loggers: 0, members: 1, quarantinedRows: 0 },
+  limits: free.limits,
+  ingestionRefused: false,
+  historyStartsAt: '2026-11-02T00:00:00Z',
+  trend: [],
+  currency: 'eur',
+  plans: [free],
+};
 
 describe('/labs/:lab/billing', () => {
   it('shows the billing page to an admin, with Billing last in the lab navigation', async () => {

@@ -75,7 +75,11 @@ describe('lab pages', () => {
     renderWithProviders(routes, '/labs/fernhollow/members');
     expect((await screen.findByTestId('lab-role')).textContent).toBe('Your role: Technician');
     const nav = screen.getByRole('navigation', { name: 'Lab sections' });
-    expect(within(nav).getAllByRole('link').map((a) => a.textContent)).toEqual(['Overview', 'Channels', 'Alerts', 'Loggers', 'Quarantine', 'Members', 'API tokens']);
+    expect(
+      within(nav)
+        .getAllByRole('link')
+        .map((a) => a.textContent),
+    ).toEqual(['Overview', 'Channels', 'Alerts', 'Loggers', 'Quarantine', 'Members', 'API tokens']);
     expect(within(nav).getByRole('link', { name: 'Members' }).getAttribute('aria-current')).toBe('page');
     await screen.findByText('No members.');
     expect(screen.queryByRole('form', { name: 'Invite someone' })).toBeNull();

@@ -61,7 +61,9 @@ export function invitationRoutes(deps: { invitations: InvitationsService; sendLi
       before: [limit],
       response: { status: 200, description: 'The invitation with its new expiry; the old link stops working.' },
       errors: MAIL_ERRORS,
-      handle: async ({ lab, actor, params }): Promise<InvitationAnswer> => ({ invitation: presentInvitation(await deps.invitations.resend(lab, actor, params.id)) }),
+      handle: async ({ lab, actor, params }): Promise<InvitationAnswer> => ({
+        invitation: presentInvitation(await deps.invitations.resend(lab, actor, params.id)),
+      }),
     }),
     defineRoute({
       method: 'delete',

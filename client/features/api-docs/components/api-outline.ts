@@ -37,7 +37,13 @@ export interface OperationGroup {
 
 function parameterRow(p: OpenApiParameter, doc: OpenApiDocument): FieldRow {
   const schema = p.schema ?? {};
-  return { name: p.name, type: typeText(schema, doc), required: p.required ?? false, constraints: constraintsOf(schema, doc), description: p.description ?? schema.description };
+  return {
+    name: p.name,
+    type: typeText(schema, doc),
+    required: p.required ?? false,
+    constraints: constraintsOf(schema, doc),
+    description: p.description ?? schema.description,
+  };
 }
 
 /** An answer written out, or the shared one its `$ref` names (`#/components/responses/NotFound`). */

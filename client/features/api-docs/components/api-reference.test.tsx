@@ -16,7 +16,11 @@ describe('groupOperations', () => {
     const groups = groupOperations(OPENAPI_FIXTURE);
     expect(groups.map((g) => g.name)).toEqual(['channels', 'ingest', 'loggers', 'tokens']);
     expect(groups[1].operations.map((o) => o.method)).toEqual(['get', 'post']);
-    expect(groups[0].operations[0]).toMatchObject({ path: '/api/v1/labs/{lab}/channels', auth: ['sessionCookie', 'personalToken'], permission: 'channels.read' });
+    expect(groups[0].operations[0]).toMatchObject({
+      path: '/api/v1/labs/{lab}/channels',
+      auth: ['sessionCookie', 'personalToken'],
+      permission: 'channels.read',
+    });
     // An operation without `security` is listed as public.
     expect(groups[1].operations[0].auth).toEqual([]);
   });
@@ -29,7 +33,12 @@ describe('answersOf', () => {
     expect(answers[0]).toEqual({ status: '201', description: 'The token, shown once.', mediaTypes: ['application/json'], headers: [] });
     // `$ref: '#/components/responses/InvalidInput'` and `…/Unavailable` (with its Retry-After header)
     expect(answers[1].description).toBe('The input failed validation (`invalid_input`).');
-    expect(answers[4]).toEqual({ status: '503', description: 'The database is unreachable (`service_unavailable`).', mediaTypes: ['application/json'], headers: ['Retry-After'] });
+    expect(answers[4]).toEqual({
+      status: '503',
+      description: 'The database is unreachable (`service_unavailable`).',
+      mediaTypes: ['application/json'],
+      headers: ['Retry-After'],
+    });
   });
 
   it('sorts a status range with its class and says where an unresolvable reference points', () => {
@@ -83,7 +92,9 @@ describe('API reference page', () => {
 
     const channels = screen.getByRole('article', { name: 'get /api/v1/labs/{lab}/channels' });
     expect(channels.textContent).toContain('Accepts: browser session or personal token');
-    const page = within(within(channels).getByRole('table', { name: 'Query' })).getByRole('rowheader', { name: 'page' }).closest('tr')!;
+    const page = within(within(channels).getByRole('table', { name: 'Query' }))
+      .getByRole('rowheader', { name: 'page' })
+      .closest('tr')!;
     // zod's safe-integer bounds are left out; the default stays.
     expect(page.textContent).toContain('default 1');
     expect(page.textContent).not.toContain('9007199254740991');
@@ -101,7 +112,11 @@ describe('API reference page', () => {
     renderWithProviders(<ApiReference origin="http://127.0.0.1:5310" />);
     const tokens = await screen.findByRole('article', { name: 'post /api/v1/labs/{lab}/tokens' });
     const answers = within(tokens).getByRole('table', { name: 'Answers' });
-    expect(within(answers).getAllByRole('rowheader').map((h) => h.textContent)).toEqual(['201', '400', '403', '409', '503']);
+    expect(
+      within(answers)
+        .getAllByRole('rowheader')
+        .map((h) => h.textContent),
+    ).toEqual(['201', '400', '403', '409', '503']);
     const row = (status: string) => within(answers).getByRole('rowheader', { name: status }).closest('tr')!.textContent;
     expect(row('201')).toContain('The token, shown once. (application/json)');
     expect(row('403')).toContain('The role does not allow this (forbidden).');
@@ -110,7 +125,11 @@ describe('API reference page', () => {
     expect(within(answers).getByText('invalid_input', { selector: 'code' })).toBeTruthy();
 
     const ingest = screen.getByRole('article', { name: 'post /api/v1/ingest' });
-    expect(within(within(ingest).getByRole('table', { name: 'Answers' })).getAllByRole('rowheader').map((h) => h.textContent)).toEqual(['200', '429']);
+    expect(
+      within(within(ingest).getByRole('table', { name: 'Answers' }))
+        .getAllByRole('rowheader')
+        .map((h) => h.textContent),
+    ).toEqual(['200', '429']);
     // an operation that documents no answers shows no answers table
     expect(within(screen.getByRole('article', { name: 'get /api/v1/ingest' })).queryByRole('table', { name: 'Answers' })).toBeNull();
   });

@@ -46,8 +46,8 @@ export function ApiReferenceView({ doc, origin }: { doc: OpenApiDocument; origin
           </p>
         )}
         <p className="text-sm">
-          {count} operations. Base address <span className="font-mono">{doc.servers?.[0]?.url ?? origin}</span>. The machine-readable
-          document (OpenAPI {doc.openapi}):{' '}
+          {count} operations. Base address <span className="font-mono">{doc.servers?.[0]?.url ?? origin}</span>. The machine-readable document (OpenAPI{' '}
+          {doc.openapi}):{' '}
           <a href={OPENAPI_URL} className="font-mono text-lichen-dark underline underline-offset-2">
             {OPENAPI_URL}
           </a>

@@ -18,7 +18,9 @@ export const OPENAPI_FIXTURE: OpenApiDocument = {
         tags: ['tokens'],
         'x-lagbook-permission': 'tokens.manage-own',
         security: [{ sessionCookie: [] }],
-        parameters: [{ name: 'lab', in: 'path', required: true, schema: { type: 'string', pattern: '^[a-z0-9-]{1,64}$' }, description: "the lab's address (slug)" }],
+        parameters: [
+          { name: 'lab', in: 'path', required: true, schema: { type: 'string', pattern: '^[a-z0-9-]{1,64}$' }, description: "the lab's address (slug)" },
+        ],
         requestBody: {
           required: true,
           content: {
@@ -35,7 +37,10 @@ export const OPENAPI_FIXTURE: OpenApiDocument = {
           '201': { description: 'The token, shown once.', content: { 'application/json': {} } },
           '400': { $ref: '#/components/responses/InvalidInput' },
           '403': { $ref: '#/components/responses/Forbidden' },
-          '409': { description: '`token_limit_reached`: this person has as many tokens in the lab as one may hold.', content: { 'application/json': { schema: { $ref: '#/components/schemas/Error' } } } },
+          '409': {
+            description: '`token_limit_reached`: this person has as many tokens in the lab as one may hold.',
+            content: { 'application/json': { schema: { $ref: '#/components/schemas/Error' } } },
+          },
           '503': { $ref: '#/components/responses/Unavailable' },
         },
       },
@@ -73,7 +78,11 @@ export const OPENAPI_FIXTURE: OpenApiDocument = {
                     default: [],
                     maxItems: 64,
                     type: 'array',
-                    items: { type: 'object', properties: { key: { type: 'string', pattern: '^[A-Za-z0-9][A-Za-z0-9_.-]{0,63}$' }, validMin: { type: ['number', 'null'] } }, required: ['key'] },
+                    items: {
+                      type: 'object',
+                      properties: { key: { type: 'string', pattern: '^[A-Za-z0-9][A-Za-z0-9_.-]{0,63}$' }, validMin: { type: ['number', 'null'] } },
+                      required: ['key'],
+                    },
                   },
                   owner: { $ref: '#/components/schemas/Person' },
                 },
@@ -111,11 +120,21 @@ export const OPENAPI_FIXTURE: OpenApiDocument = {
     },
     schemas: {
       Person: { type: 'object', description: 'who owns it', properties: { email: { type: 'string', format: 'email' } }, required: ['email'] },
-      Error: { type: 'object', required: ['error'], properties: { error: { type: 'object', properties: { code: { type: 'string' }, message: { type: 'string' } } } } },
+      Error: {
+        type: 'object',
+        required: ['error'],
+        properties: { error: { type: 'object', properties: { code: { type: 'string' }, message: { type: 'string' } } } },
+      },
     },
     responses: {
-      InvalidInput: { description: 'The input failed validation (`invalid_input`).', content: { 'application/json': { schema: { $ref: '#/components/schemas/Error' } } } },
-      Forbidden: { description: 'The role does not allow this (`forbidden`).', content: { 'application/json': { schema: { $ref: '#/components/schemas/Error' } } } },
+      InvalidInput: {
+        description: 'The input failed validation (`invalid_input`).',
+        content: { 'application/json': { schema: { $ref: '#/components/schemas/Error' } } },
+      },
+      Forbidden: {
+        description: 'The role does not allow this (`forbidden`).',
+        content: { 'application/json': { schema: { $ref: '#/components/schemas/Error' } } },
+      },
       NotFound: { description: 'No such thing here (`not_found`).', content: { 'application/json': { schema: { $ref: '#/components/schemas/Error' } } } },
       Unavailable: {
         description: 'The database is unreachable (`service_unavailable`).',

@@ -62,10 +62,7 @@ function AnswersTable({ answers }: { answers: AnswerView[] }) {
               <td className="py-1.5 text-xs">
                 <WithCode text={a.description} />
                 {(a.mediaTypes.length > 0 || a.headers.length > 0) && (
-                  <span className="text-ink-soft">
-                    {' '}
-                    ({[...a.mediaTypes, ...a.headers.map((h) => `header ${h}`)].join('; ')})
-                  </span>
+                  <span className="text-ink-soft"> ({[...a.mediaTypes, ...a.headers.map((h) => `header ${h}`)].join('; ')})</span>
                 )}
               </td>
             </tr>
@@ -82,7 +79,9 @@ export function OperationCard({ op }: { op: OperationView }) {
   return (
     <article aria-labelledby={`op-${op.id}`} className="grid gap-3 rounded-xl border border-rule bg-card p-4" data-testid="api-operation">
       <h3 id={`op-${op.id}`} className="flex flex-wrap items-baseline gap-3">
-        <span className={`w-16 shrink-0 rounded border-l-4 bg-paper px-2 py-0.5 font-mono text-xs font-bold uppercase ${METHOD_LOOK[op.method]}`}>{op.method}</span>{' '}
+        <span className={`w-16 shrink-0 rounded border-l-4 bg-paper px-2 py-0.5 font-mono text-xs font-bold uppercase ${METHOD_LOOK[op.method]}`}>
+          {op.method}
+        </span>{' '}
         <code className="font-mono text-sm break-all">
           <PathText path={op.path} />
         </code>

@@ -33,7 +33,8 @@ function withoutNull(schema: JsonSchema): { schema: JsonSchema; nullable: boolea
   const alternatives = schema.anyOf ?? schema.oneOf;
   if (alternatives && alternatives.some(isNull)) {
     const rest = alternatives.filter((s) => !isNull(s));
-    if (rest.length === 1) return { schema: { ...rest[0], description: schema.description ?? rest[0].description, default: schema.default ?? rest[0].default }, nullable: true };
+    if (rest.length === 1)
+      return { schema: { ...rest[0], description: schema.description ?? rest[0].description, default: schema.default ?? rest[0].default }, nullable: true };
   }
   if (Array.isArray(schema.type) && schema.type.includes('null')) {
     const types = schema.type.filter((t) => t !== 'null');
@@ -89,17 +90,26 @@ export function constraintsOf(schema: JsonSchema, root: unknown): string[] {
 export function schemaFields(schema: JsonSchema, root: unknown, prefix = '', depth = 0): FieldRow[] {
   const s = withoutNull(resolveRef(schema, root)).schema;
   if (!s.properties) {
-    return prefix ? [] : [{ name: '(body)', type: typeText(schema, root), required: true, constraints: constraintsOf(schema, root), description: s.description }];
+    return prefix
+      ? []
+      : [{ name: '(body)', type: typeText(schema, root), required: true, constraints: constraintsOf(schema, root), description: s.description }];
   }
   const required = new Set(s.required ?? []);
   const rows: FieldRow[] = [];
   for (const [key, child] of Object.entries(s.properties)) {
     const name = `${prefix}${key}`;
     const resolved = withoutNull(resolveRef(child, root)).schema;
-    rows.push({ name, type: typeText(child, root), required: required.has(key), constraints: constraintsOf(child, root), description: resolved.description ?? child.description });
+    rows.push({
+      name,
+      type: typeText(child, root),
+      required: required.has(key),
+      constraints: constraintsOf(child, root),
+      description: resolved.description ?? child.description,
+    });
     if (depth >= 4) continue;
     if (resolved.properties) rows.push(...schemaFields(resolved, root, `${name}.`, depth + 1));
-    else if (resolved.items && withoutNull(resolveRef(resolved.items, root)).schema.properties) rows.push(...schemaFields(resolved.items, root, `${name}[].`, depth + 1));
+    else if (resolved.items && withoutNull(resolveRef(resolved.items, root)).schema.properties)
+      rows.push(...schemaFields(resolved.items, root, `${name}[].`, depth + 1));
   }
   return rows;
 }

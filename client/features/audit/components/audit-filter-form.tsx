@@ -29,11 +29,7 @@ export function AuditFilterForm({ filters, onApply }: { filters: AuditFilters; o
       aria-label="Filter the audit log"
       className="grid gap-4 rounded-xl border border-rule bg-card p-4 sm:grid-cols-2 lg:grid-cols-[1.2fr_1.5fr_1fr_1fr_auto]"
     >
-      <SelectField
-        label="Action"
-        value={draft.action}
-        onChange={(e) => setDraft({ ...draft, action: e.target.value as AuditAction | '' })}
-      >
+      <SelectField label="Action" value={draft.action} onChange={(e) => setDraft({ ...draft, action: e.target.value as AuditAction | '' })}>
         <option value="">Any action</option>
         {AUDIT_ACTIONS.map((action) => (
           <option key={action} value={action}>
@@ -41,20 +37,9 @@ export function AuditFilterForm({ filters, onApply }: { filters: AuditFilters; o
           </option>
         ))}
       </SelectField>
-      <TextField
-        label="Done by"
-        placeholder="Name or e-mail"
-        value={draft.actor}
-        onChange={(e) => setDraft({ ...draft, actor: e.target.value })}
-      />
+      <TextField label="Done by" placeholder="Name or e-mail" value={draft.actor} onChange={(e) => setDraft({ ...draft, actor: e.target.value })} />
       <TextField label="From day" type="date" value={draft.from} onChange={(e) => setDraft({ ...draft, from: e.target.value })} />
-      <TextField
-        label="To day"
-        type="date"
-        value={draft.to}
-        error={rangeError}
-        onChange={(e) => setDraft({ ...draft, to: e.target.value })}
-      />
+      <TextField label="To day" type="date" value={draft.to} error={rangeError} onChange={(e) => setDraft({ ...draft, to: e.target.value })} />
       <div className="flex items-end gap-2">
         <Button type="submit" tone="primary">
           Apply

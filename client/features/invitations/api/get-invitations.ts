@@ -7,8 +7,7 @@ export function getInvitations(slug: string): Promise<PendingInvitationsAnswer> 
   return apiFetch(`/api/v1/labs/${encodeURIComponent(slug)}/invitations`);
 }
 
-export const invitationsQueryOptions = (slug: string) =>
-  queryOptions({ queryKey: ['labs', slug, 'invitations'], queryFn: () => getInvitations(slug) });
+export const invitationsQueryOptions = (slug: string) => queryOptions({ queryKey: ['labs', slug, 'invitations'], queryFn: () => getInvitations(slug) });
 
 /** The lab's pending invitations (admins only). */
 export function useInvitations(slug: string) {

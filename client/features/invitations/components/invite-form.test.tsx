@@ -24,7 +24,10 @@ describe('InviteForm', () => {
   });
 
   it('sends the normalised address and the chosen role, confirms, and clears the field', async () => {
-    const api = fakeApi({ [POST]: () => ({ status: 201, body: { invitation: {} } }), 'GET /api/v1/labs/fernhollow/invitations': () => ({ status: 200, body: { invitations: [] } }) });
+    const api = fakeApi({
+      [POST]: () => ({ status: 201, body: { invitation: {} } }),
+      'GET /api/v1/labs/fernhollow/invitations': () => ({ status: 200, body: { invitations: [] } }),
+    });
     renderWithProviders(<InviteForm slug="fernhollow" />);
     fireEvent.change(email(), { target: { value: '  Rowan.Achterberg@Saltmarsh-Survey.example ' } });
     fireEvent.change(screen.getByLabelText('Role'), { target: { value: 'technician' } });

@@ -43,13 +43,7 @@ export function InviteForm({ slug }: { slug: string }) {
 
   return (
     <form noValidate onSubmit={onSubmit} aria-label="Invite someone" className="grid gap-4 sm:grid-cols-[2fr_1fr_auto] sm:items-start">
-      <TextField
-        label="E-mail address"
-        type="email"
-        autoComplete="off"
-        error={errors.email?.message}
-        {...form.register('email')}
-      />
+      <TextField label="E-mail address" type="email" autoComplete="off" error={errors.email?.message} {...form.register('email')} />
       <SelectField label="Role" error={errors.role?.message} {...form.register('role')}>
         {ROLES.map((role) => (
           <option key={role} value={role}>

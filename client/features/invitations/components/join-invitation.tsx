@@ -31,12 +31,20 @@ function Problem({ error, slug }: { error: Error; slug: string }) {
   );
 }
 
-function WrongAccount({ invitedEmail, signedInEmail, onSwitchAccount }: { invitedEmail: string; signedInEmail: string; onSwitchAccount: (invitedEmail: string) => void }) {
+function WrongAccount({
+  invitedEmail,
+  signedInEmail,
+  onSwitchAccount,
+}: {
+  invitedEmail: string;
+  signedInEmail: string;
+  onSwitchAccount: (invitedEmail: string) => void;
+}) {
   return (
     <div className="mt-6">
       <Notice tone="alert">
-        This invitation was sent to <strong>{invitedEmail}</strong>, but you are signed in as <strong>{signedInEmail}</strong>{' '}
-        (or that address is not verified by your identity provider). Only the invited address can accept it.
+        This invitation was sent to <strong>{invitedEmail}</strong>, but you are signed in as <strong>{signedInEmail}</strong> (or that address is not verified
+        by your identity provider). Only the invited address can accept it.
       </Notice>
       <Button tone="primary" className="mt-4" onClick={() => onSwitchAccount(invitedEmail)}>
         Sign out and use {invitedEmail}
@@ -94,15 +102,14 @@ export function JoinInvitation({
         <WrongAccount invitedEmail={invitation.email} signedInEmail={signedInEmail} onSwitchAccount={onSwitchAccount} />
       ) : (
         <>
-          <Button
-            tone="primary"
-            className="mt-6"
-            disabled={accept.isPending}
-            onClick={() => accept.mutate(undefined, { onSuccess: onAccepted })}
-          >
+          <Button tone="primary" className="mt-6" disabled={accept.isPending} onClick={() => accept.mutate(undefined, { onSuccess: onAccepted })}>
             {accept.isPending ? 'Joining…' : `Accept and join ${invitation.lab.name}`}
           </Button>
-          {accept.error && !acceptError && <Notice tone="alert" className="mt-4">{accept.error.message}</Notice>}
+          {accept.error && !acceptError && (
+            <Notice tone="alert" className="mt-4">
+              {accept.error.message}
+            </Notice>
+          )}
         </>
       )}
     </div>

@@ -12,8 +12,13 @@ const nameInput = () => screen.getByLabelText('Lab name') as HTMLInputElement;
 const slugInput = () => screen.getByLabelText('Address') as HTMLInputElement;
 
 describe('CreateLabForm', () => {
-  it('derives the address from the name with the server\'s slugFromName, and posts both', async () => {
-    const api = fakeApi({ 'POST /api/v1/labs': () => ({ status: 201, body: { lab: { slug: 'fernhollow-field-station', name: 'Fernhollow Field Station', role: 'admin' }, requestedSlug: 'fernhollow-field-station' } }) });
+  it("derives the address from the name with the server's slugFromName, and posts both", async () => {
+    const api = fakeApi({
+      'POST /api/v1/labs': () => ({
+        status: 201,
+        body: { lab: { slug: 'fernhollow-field-station', name: 'Fernhollow Field Station', role: 'admin' }, requestedSlug: 'fernhollow-field-station' },
+      }),
+    });
     const onCreated = vi.fn();
     renderWithProviders(<CreateLabForm onCreated={onCreated} />);
     fireEvent.change(nameInput(), { target: { value: 'Fernhollow Field Station' } });
@@ -22,9 +27,7 @@ describe('CreateLabForm', () => {
     expect(screen.getByText('/labs/fernhollow-field-station')).toBeTruthy();
     fireEvent.click(screen.getByRole('button', { name: 'Create lab' }));
     await waitFor(() => expect(onCreated).toHaveBeenCalledWith({ slug: 'fernhollow-field-station', name: 'Fernhollow Field Station', role: 'admin' }));
-    expect(api.requests).toEqual([
-      { method: 'POST', path: '/api/v1/labs', body: { name: 'Fernhollow Field Station', slug: 'fernhollow-field-station' } },
-    ]);
+    expect(api.requests).toEqual([{ method: 'POST', path: '/api/v1/labs', body: { name: 'Fernhollow Field Station', slug: 'fernhollow-field-station' } }]);
   });
 
   it('stops following the name once the address is edited by hand', () => {
@@ -36,7 +39,7 @@ describe('CreateLabForm', () => {
     expect(slugInput().value).toBe('marsh');
   });
 
-  it('refuses invalid input with the schema\'s messages and sends nothing', async () => {
+  it("refuses invalid input with the schema's messages and sends nothing", async () => {
     const api = fakeApi({});
     renderWithProviders(<CreateLabForm onCreated={vi.fn()} />);
     fireEvent.change(nameInput(), { target: { value: 'X' } });
@@ -50,7 +53,12 @@ describe('CreateLabForm', () => {
   });
 
   it('says which address the lab got when the one asked for was not available, then opens it', async () => {
-    fakeApi({ 'POST /api/v1/labs': () => ({ status: 201, body: { lab: { slug: 'tarnbeck-institute-2', name: 'Tarnbeck Institute', role: 'admin' }, requestedSlug: 'tarnbeck-institute' } }) });
+    fakeApi({
+      'POST /api/v1/labs': () => ({
+        status: 201,
+        body: { lab: { slug: 'tarnbeck-institute-2', name: 'Tarnbeck Institute', role: 'admin' }, requestedSlug: 'tarnbeck-institute' },
+      }),
+    });
     const onCreated = vi.fn();
     renderWithProviders(<CreateLabForm onCreated={onCreated} />);
     fireEvent.change(nameInput(), { target: { value: 'Tarnbeck Institute' } });

@@ -75,8 +75,7 @@ export function CreateLabForm({ onCreated }: { onCreated: (lab: CreatedLab['lab'
         error={errors.slug?.message}
         hint={
           <>
-            Your lab will live at <span className="font-mono">/labs/{address || '…'}</span>. Lowercase letters, digits and
-            hyphens.
+            Your lab will live at <span className="font-mono">/labs/{address || '…'}</span>. Lowercase letters, digits and hyphens.
           </>
         }
         {...form.register('slug', {

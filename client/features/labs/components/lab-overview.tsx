@@ -24,10 +24,7 @@ export function LabOverview({ detail }: { detail: LabDetail }) {
         <ul className="grid gap-3">
           {sections.map((section) => (
             <li key={section.label}>
-              <Link
-                to={section.href(lab.slug)}
-                className="block rounded-xl border border-rule bg-card p-4 hover:border-lichen"
-              >
+              <Link to={section.href(lab.slug)} className="block rounded-xl border border-rule bg-card p-4 hover:border-lichen">
                 <span className="font-medium text-lichen-dark">{section.label}</span>
                 <span className="block text-sm text-ink-soft">{section.blurb}</span>
               </Link>

@@ -13,14 +13,39 @@ export interface LabSection {
 /** The sections of a lab, in navigation order. */
 export const LAB_SECTIONS: LabSection[] = [
   { label: 'Overview', href: paths.lab.href, needs: 'lab.read', blurb: 'The lab at a glance.' },
-  { label: 'Channels', href: paths.labChannels.href, needs: 'channels.read', blurb: 'Every channel with its status and last day; readings, diagnostics and cross-correlation.' },
-  { label: 'Alerts', href: paths.labAlerts.href, needs: 'alerts.read', blurb: 'Open and recent alerts, and the rules that mail people when a channel goes quiet or strays.' },
+  {
+    label: 'Channels',
+    href: paths.labChannels.href,
+    needs: 'channels.read',
+    blurb: 'Every channel with its status and last day; readings, diagnostics and cross-correlation.',
+  },
+  {
+    label: 'Alerts',
+    href: paths.labAlerts.href,
+    needs: 'alerts.read',
+    blurb: 'Open and recent alerts, and the rules that mail people when a channel goes quiet or strays.',
+  },
   { label: 'Loggers', href: paths.labLoggers.href, needs: 'loggers.read', blurb: 'The data loggers, their channels and keys; historical uploads.' },
-  { label: 'Quarantine', href: paths.labQuarantine.href, needs: 'quarantine.review', blurb: 'Readings that could not be stored, with the reason, to fix or discard.' },
+  {
+    label: 'Quarantine',
+    href: paths.labQuarantine.href,
+    needs: 'quarantine.review',
+    blurb: 'Readings that could not be stored, with the reason, to fix or discard.',
+  },
   { label: 'Members', href: paths.labMembers.href, needs: 'members.read', blurb: 'Who belongs to the lab, and in which role.' },
   { label: 'Audit log', href: paths.labAudit.href, needs: 'audit.read', blurb: 'Every admin action — members, keys, loggers, quarantine — newest first.' },
-  { label: 'API tokens', href: paths.labTokens.href, needs: 'tokens.manage-own', blurb: 'Your personal tokens for reading the lab’s data from notebooks and scripts.' },
-  { label: 'Billing', href: paths.labBilling.href, needs: 'billing.manage', blurb: 'The plan, storage and other usage against its limits, payment and invoices.' },
+  {
+    label: 'API tokens',
+    href: paths.labTokens.href,
+    needs: 'tokens.manage-own',
+    blurb: 'Your personal tokens for reading the lab’s data from notebooks and scripts.',
+  },
+  {
+    label: 'Billing',
+    href: paths.labBilling.href,
+    needs: 'billing.manage',
+    blurb: 'The plan, storage and other usage against its limits, payment and invoices.',
+  },
 ];
 
 /** The sections a member with `permissions` may open; the server refuses the rest anyway. */
