@@ -1,6 +1,6 @@
 import type { z } from 'zod';
 import type { Db } from '../db/create-db.ts';
-import { createLabsRepo } from '../db/labs.repo.ts';
+import { labsRepo } from '../db/labs.repo.ts';
 import { createLabsService } from '../services/labs.service.ts';
 import { createInvitationsService } from '../services/invitations.service.ts';
 import { createLoggersService } from '../services/loggers.service.ts';
@@ -9,8 +9,8 @@ import { createLabSchema } from '../contract/labs.ts';
 import type { LabContext } from '../services/lab-context.ts';
 import { AppError, ValidationError } from '../errors.ts';
 import { inLab } from '../db/tenant-scope.ts';
-import { membershipsIn } from '../db/memberships.repo.ts';
-import { createUsersRepo } from '../db/users.repo.ts';
+import { membershipsRepo } from '../db/memberships.repo.ts';
+import { usersRepo } from '../db/users.repo.ts';
 import { can } from '../policies/permissions.ts';
 import { createPersonalTokensService } from '../services/personal-tokens.service.ts';
 import { createPersonalTokenSchema } from '../contract/tokens.ts';
@@ -40,7 +40,7 @@ const OPERATOR_MAILER = {
 };
 
 async function labContext(db: Db, slug: string): Promise<LabContext> {
-  const lab = await createLabsRepo(db).findBySlug(slug);
+  const lab = await labsRepo(db).findBySlug(slug);
   if (!lab) throw new AppError(404, 'not_found', `No lab with the address "${slug}".`);
   return { ...lab, role: 'admin' };
 }
@@ -103,10 +103,10 @@ export async function mintTokenCommand(db: Db, opts: { lab: string; email: strin
   const lab = await labContext(db, opts.lab);
   const input = parseInput(createPersonalTokenSchema, { name: opts.name, expiresInDays: opts.days });
   const email = opts.email.trim().toLowerCase();
-  const member = (await membershipsIn(inLab(db, lab.id)).list()).find((m) => m.email.toLowerCase() === email);
+  const member = (await membershipsRepo(inLab(db, lab.id)).list()).find((m) => m.email.toLowerCase() === email);
   if (!member) throw new AppError(404, 'not_found', `${opts.email} is not a member of ${lab.slug}.`);
   if (!can(member.role, 'tokens.manage-own')) throw new AppError(403, 'forbidden', `${opts.email} is a ${member.role} in ${lab.slug}; personal tokens are for scientists and above.`);
-  const user = (await createUsersRepo(db).findById(member.userId))!;
+  const user = (await usersRepo(db).findById(member.userId))!;
   const actor = { id: user.id, email: user.email, emailVerified: user.emailVerified, displayName: user.displayName };
   const issued = await createPersonalTokensService({ db }).create({ ...lab, role: member.role }, actor, input);
   const expiresAt = issued.info.expiresAt.toISOString();

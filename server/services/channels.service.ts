@@ -1,7 +1,7 @@
 import type { Db } from '../db/create-db.ts';
 import { inLab } from '../db/tenant-scope.ts';
-import { channelStateIn, type ChannelWithState } from '../db/channel-state.repo.ts';
-import { channelReadingsIn, type BucketRow } from '../db/channel-readings.repo.ts';
+import { channelStateRepo, type ChannelWithState } from '../db/channel-state.repo.ts';
+import { channelReadingsRepo, type BucketRow } from '../db/channel-readings.repo.ts';
 import { ROLLUP_RESOLUTIONS_S } from '../db/readings.repo.ts';
 import { NotFoundError } from '../errors.ts';
 import type { LabContext } from './lab-context.ts';
@@ -68,7 +68,7 @@ export function createChannelsService(deps: { db: Db; now?: () => number }) {
   const now = deps.now ?? Date.now;
   const scoped = (lab: LabContext) => {
     const scope = inLab(deps.db, lab.id);
-    return { state: channelStateIn(scope, deps.db), readings: channelReadingsIn(scope, deps.db) };
+    return { state: channelStateRepo(scope), readings: channelReadingsRepo(scope) };
   };
 
   async function requireChannel(lab: LabContext, channelId: number): Promise<ChannelWithState> {

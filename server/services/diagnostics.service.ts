@@ -1,6 +1,6 @@
 import type { Db } from '../db/create-db.ts';
 import { inLab } from '../db/tenant-scope.ts';
-import { channelReadingsIn, type ReadingColumns } from '../db/channel-readings.repo.ts';
+import { channelReadingsRepo, type ReadingColumns } from '../db/channel-readings.repo.ts';
 import type { ChannelWithState } from '../db/channel-state.repo.ts';
 import { ROLLUP_RESOLUTIONS_S } from '../db/readings.repo.ts';
 import { AnalysisInputError, channelDiagnostics, rangeComparison, type ChannelDiagnostics, type ChannelDiagnosticsOptions, type ChannelReadings, type CompareMeansResult, type RangeComparisonOptions } from '../analysis/index.ts';
@@ -64,7 +64,7 @@ export function createDiagnosticsService(deps: { db: Db; channels: ChannelsServi
 
   /** One channel's values on the step grid of [from, to): exact rollup cells when possible. */
   async function read(lab: LabContext, channelId: number, range: { from: number; to: number }, stepMs: number, agg: DiagnosticsParams['agg']): Promise<LoadedGrid> {
-    const repo = channelReadingsIn(inLab(deps.db, lab.id), deps.db);
+    const repo = channelReadingsRepo(inLab(deps.db, lab.id));
     const resolutionS = agg === 'mean' || agg === 'min' || agg === 'max' ? [...ROLLUP_RESOLUTIONS_S].reverse().find((r) => stepMs % (r * 1000) === 0) : undefined;
     if (resolutionS && (agg === 'mean' || agg === 'min' || agg === 'max')) {
       return { data: await repo.cellsFromRollups(channelId, resolutionS, range.from, range.to, stepMs, agg), source: { kind: 'rollups', resolutionS } };
