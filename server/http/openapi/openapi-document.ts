@@ -55,7 +55,7 @@ function responsesOf(route: Route): JsonObject {
     const standardRef = STANDARD_REFS[status];
     if (standardRef && description === STANDARD_ANSWERS[status as StandardStatus]) out[String(status)] = ref('responses', standardRef);
     else if (status >= 400) out[String(status)] = { description, ...errorBody, ...(status === 429 || status === 503 ? { headers: retryAfter } : {}) };
-    else if (status === 204) out[String(status)] = { description };
+    else if (status === 204 || status === 304) out[String(status)] = { description };
     else out[String(status)] = { description, content: { [route.response.mediaType ?? 'application/json']: {} } };
   }
   return out;

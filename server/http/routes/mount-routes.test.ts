@@ -129,10 +129,10 @@ describe('mountRoutes', () => {
 describe('answersOf', () => {
   it('adds the standard answers that auth, input and database use imply to the declared ones', () => {
     const [list, rename, , csv] = routes;
-    expect([...answersOf(list).keys()]).toEqual([200, 400, 401, 403, 404, 500, 503]);
+    expect([...answersOf(list).keys()]).toEqual([200, 304, 400, 401, 403, 404, 500, 503]);
     expect([...answersOf(rename).keys()]).toEqual([200, 400, 401, 403, 404, 409, 413, 415, 500, 503]);
     expect(answersOf(rename).get(409)).toBe('`name_taken`: another item has the name.');
-    expect([...answersOf(csv).keys()]).toEqual([200, 500]);
+    expect([...answersOf(csv).keys()]).toEqual([200, 304, 500]);
   });
 });
 

@@ -2,6 +2,7 @@ import { permissionOf, type Route } from './route.ts';
 
 /** The standard answers, by status, with the description the API document gives them. */
 export const STANDARD_ANSWERS = {
+  304: 'Not modified: the answer equals the one whose ETag the request sent in If-None-Match (no body).',
   400: 'The input failed validation (`invalid_input`, message `field: reason`, one line per field).',
   401: 'Not signed in, or the token or key is not valid (`unauthenticated`, `invalid_token`).',
   403: 'The role (or a personal token) does not allow this (`forbidden`, `token_not_allowed`), or a write came from another site (`cross_site_request`).',
@@ -22,6 +23,8 @@ export type StandardStatus = keyof typeof STANDARD_ANSWERS;
 export function answersOf(route: Route): Map<number, string> {
   const out = new Map<number, string>([[route.response.status, route.response.description]]);
   const standard = (status: StandardStatus) => out.set(status, STANDARD_ANSWERS[status]);
+  // Express tags GET answers with an ETag and answers a matching If-None-Match with 304
+  if (route.method === 'get') standard(304);
   if (route.params || route.query || route.body || route.bodyMediaTypes) standard(400);
   if (route.auth !== 'none' && route.auth !== 'webhook-signature') standard(401);
   if (permissionOf(route)) {
