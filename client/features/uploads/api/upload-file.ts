@@ -1,3 +1,4 @@
+import type { ErrorAnswer } from '@shared/contract/common.ts';
 import type { ImportProgress, ImportSummary, UploadLine, UploadOptions } from '@shared/contract/uploads.ts';
 import { ApiError } from '../../../lib/api-client.ts';
 import { createNdjsonReader } from './ndjson-reader.ts';
@@ -47,7 +48,8 @@ export function uploadFile(slug: string, loggerId: number, file: Blob, options: 
     };
     xhr.onload = () => {
       if (xhr.status !== 200) {
-        let body: { error?: { code?: string; message?: string } } | null = null;
+        // a refusal before the import began is the API's error body (or, from a proxy, not JSON at all)
+        let body: Partial<ErrorAnswer> | null;
         try {
           body = JSON.parse(xhr.responseText);
         } catch {
