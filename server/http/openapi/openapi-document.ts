@@ -3,7 +3,6 @@ import { fullPathOf, permissionOf, type Route } from '../routes/route.ts';
 import { answersOf, STANDARD_ANSWERS, type StandardStatus } from '../routes/standard-answers.ts';
 import { TOKEN_READ_PERMISSIONS } from '../middleware/lab-guard.ts';
 import { SESSION_COOKIE } from '../middleware/session.ts';
-import { PUBLIC_ROUTES, type PublicRoute } from './public-routes.ts';
 
 type JsonObject = Record<string, unknown>;
 
@@ -104,31 +103,6 @@ function operationOf(route: Route, template: string): JsonObject {
   return op;
 }
 
-/** TRANSITIONAL: a route outside the table that still has its own router, documented from PUBLIC_ROUTES. */
-function publicOperation(route: PublicRoute, template: string): JsonObject {
-  const security = route.auth === 'none' ? [] : route.auth === 'session' ? [{ sessionCookie: [] }] : [{ ingestKey: [] }];
-  const standard: JsonObject = route.auth === 'none' ? {} : { '400': ref('responses', 'InvalidInput'), '401': ref('responses', 'Unauthenticated'), '403': ref('responses', 'Forbidden'), '404': ref('responses', 'NotFound') };
-  const own = Object.fromEntries(
-    Object.entries(route.responses ?? {}).map(([status, description]) => [
-      status,
-      /^[45]/.test(status) ? { description, ...errorBody, ...(status === '429' || status === '503' ? { headers: retryAfter } : {}) } : { description },
-    ]),
-  );
-  const op: JsonObject = {
-    operationId: operationId(route.method, template),
-    summary: route.summary,
-    tags: [route.auth === 'ingest-key' ? 'ingest' : route.auth === 'none' ? 'service' : 'account'],
-    security,
-    parameters: pathParameters(template),
-    responses: { '2XX': { description: 'Success.' }, ...standard, ...own },
-  };
-  if (route.bodies) {
-    const content = Object.fromEntries(Object.entries(route.bodies).map(([type, schema]) => [type, { schema: inputJsonSchema(schema) }]));
-    op.requestBody = { required: true, content };
-  }
-  return op;
-}
-
 /**
  * Lagbook's OpenAPI 3.1 document, generated from the route table: each route's auth, summary,
  * the zod schemas its input is parsed with, and every status it can answer (standard-answers.ts).
@@ -142,10 +116,6 @@ export function buildOpenApiDocument(routes: readonly Route[], opts: { serverUrl
   for (const r of routes) {
     const template = openApiPath(fullPathOf(r));
     add(r.method, template, operationOf(r, template));
-  }
-  for (const r of PUBLIC_ROUTES) {
-    const template = openApiPath(r.path);
-    add(r.method, template, publicOperation(r, template));
   }
   return {
     openapi: '3.1.0',

@@ -4,7 +4,6 @@ import { zodToValidationError } from '../middleware/error-handler.ts';
 import { requireUser } from '../middleware/require-user.ts';
 import { actorOf, callerIdOf, labOf, type LabGuard } from '../middleware/lab-guard.ts';
 import { answersOf } from './standard-answers.ts';
-import { PARSES_ITSELF } from '../lab-routes.ts';
 import { fullPathOf, permissionOf, type Route, type RouteInput } from './route.ts';
 
 export interface MountContext {
@@ -36,11 +35,10 @@ function signalOnDisconnect(res: Response): AbortSignal {
 
 /** The handler's input: parsed params, query and body, and accessors for who acts where. */
 function inputOf(route: Route, req: Request, res: Response): RouteInput<unknown, unknown, unknown> {
-  const parse = !(PARSES_ITSELF in route);
   return {
-    params: parse ? parsePart(route.params, req.params) : undefined,
-    query: parse ? parsePart(route.query, req.query) : undefined,
-    body: parse ? parsePart(route.body, req.body) : undefined,
+    params: parsePart(route.params, req.params),
+    query: parsePart(route.query, req.query),
+    body: parsePart(route.body, req.body),
     get lab() {
       return labOf(res);
     },
@@ -87,7 +85,7 @@ export function mountRoutes(routes: readonly Route[], ctx: MountContext): Router
   const router = Router();
   for (const route of routes) {
     const chain: RequestHandler[] = [];
-    if (ctx.onUndocumentedStatus && !(PARSES_ITSELF in route)) chain.push(statusWatch(route, ctx.onUndocumentedStatus));
+    if (ctx.onUndocumentedStatus) chain.push(statusWatch(route, ctx.onUndocumentedStatus));
     chain.push(...authStep(route, ctx.guard), ...(route.before ?? []));
     chain.push(async (req, res) => {
       const input = inputOf(route, req, res);
