@@ -133,11 +133,11 @@ export function createApp(deps: AppDeps): Express {
   const tokens = createPersonalTokensService({ db, now: deps.now });
   const billingService = createBillingService({ db, stripe: deps.billing, catalog: plans, publicUrl: config.publicUrl, now: deps.now });
   /** The route table: every API route with its auth, input schemas and answers (see http/routes/). */
-  let openApiDocument: object | undefined;
+  let openApiDocument: object = {};
   const routes: Route[] = [
     ...healthRoutes({ db }),
-    // the API document is built from this table, on its first request
-    ...openApiRoutes({ document: () => (openApiDocument ??= buildOpenApiDocument(routes, { serverUrl: config.publicUrl })) }),
+    // the API document is built from this table (right below)
+    ...openApiRoutes({ document: () => openApiDocument }),
     ...meRoutes({ me }),
     ...labRoutes({ labs: labsService }),
     ...memberRoutes({ members }),
@@ -166,6 +166,8 @@ export function createApp(deps: AppDeps): Express {
       webhooks: createStripeWebhooks({ db, stripe: deps.billing, catalog: plans, mailer: deps.mailer, logger, webhookSecret: config.stripe.webhookSecret, graceDays: config.stripe.graceDays, publicUrl: config.publicUrl }),
     }),
   ];
+  // built at start, so a schema the document cannot describe stops the server instead of a request
+  openApiDocument = buildOpenApiDocument(routes, { serverUrl: config.publicUrl });
   const mountContext = { guard: createLabGuard(db, { tokens }), onUndocumentedStatus: deps.onUndocumentedStatus };
   // The lab routes, for the role × route test (every lab route and its permission).
   app.locals.labRoutes = labRouteSummaries(routes) satisfies LabRouteSummary[];

@@ -2,8 +2,8 @@ import { defineRoute, type Route } from '../routes/route.ts';
 
 /**
  * `GET /api/v1/openapi.json`: the API document, public (no session, no token). The document is
- * built from the route table that contains this route, so it comes in as a getter; its JSON text
- * is made once, on the first request, and the same bytes are sent every time after.
+ * built (at start, in app.ts) from the route table that contains this route, so it comes in as a
+ * getter; its JSON text is made once, on the first request, and the same bytes are sent after.
  */
 export function openApiRoutes(deps: { document: () => object }): Route[] {
   let body: string | null = null;
