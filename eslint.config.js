@@ -59,7 +59,7 @@ export default defineConfig(
         'error',
         {
           selector: 'Literal[value=/\\btenant_id\\b/], TemplateElement[value.raw=/\\btenant_id\\b/]',
-          message: 'tenant_id is the data layer’s: go through the lab scope (inLab) in server/db/ instead of naming the column here.',
+          message: 'tenant_id belongs to the data layer: start from the lab scope in server/db/ (inLab, xRepo(scope), :lab in raw SQL) instead of naming the column here.',
         },
       ],
     },
