@@ -28,7 +28,10 @@ export default defineConfig(
   {
     rules: {
       // `_name` marks an argument or binding kept on purpose (a callback's position, a rest split).
-      '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_', caughtErrorsIgnorePattern: '^_', ignoreRestSiblings: true }],
+      '@typescript-eslint/no-unused-vars': [
+        'error',
+        { argsIgnorePattern: '^_', varsIgnorePattern: '^_', caughtErrorsIgnorePattern: '^_', ignoreRestSiblings: true },
+      ],
     },
   },
   {
@@ -59,7 +62,8 @@ export default defineConfig(
         'error',
         {
           selector: 'Literal[value=/\\btenant_id\\b/], TemplateElement[value.raw=/\\btenant_id\\b/]',
-          message: 'tenant_id belongs to the data layer: start from the lab scope in server/db/ (inLab, xRepo(scope), :lab in raw SQL) instead of naming the column here.',
+          message:
+            'tenant_id belongs to the data layer: start from the lab scope in server/db/ (inLab, xRepo(scope), :lab in raw SQL) instead of naming the column here.',
         },
       ],
     },
