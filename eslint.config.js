@@ -27,10 +27,11 @@ export default defineConfig(
   },
   {
     rules: {
-      // `_name` marks an argument or binding kept on purpose (a callback's position, a rest split).
+      // The house marks a binding kept on purpose with a leading underscore: Express's `_next` (an
+      // error handler needs four parameters), a rest split that drops a field (`{ cursor: _cursor, ...rest }`).
       '@typescript-eslint/no-unused-vars': [
         'error',
-        { argsIgnorePattern: '^_', varsIgnorePattern: '^_', caughtErrorsIgnorePattern: '^_', ignoreRestSiblings: true },
+        { argsIgnorePattern: '^_', varsIgnorePattern: '^_', caughtErrorsIgnorePattern: '^_', destructuredArrayIgnorePattern: '^_' },
       ],
     },
   },
