@@ -1,4 +1,5 @@
 import express, { type RequestHandler } from 'express';
+import type { AddressInfo } from 'node:net';
 import request from 'supertest';
 import { z } from 'zod';
 import { describe, expect, it } from 'vitest';
@@ -69,6 +70,18 @@ const routes: Route[] = [
   }),
   defineRoute({
     method: 'get',
+    path: '/api/v1/slow',
+    auth: 'none',
+    summary: 'Runs until the client leaves, then fails as aborted work does.',
+    usesDatabase: false,
+    response: { status: 200, description: 'Never.' },
+    handle: async ({ signal }) => {
+      await new Promise((resolve) => signal.addEventListener('abort', resolve));
+      throw new Error('aborted');
+    },
+  }),
+  defineRoute({
+    method: 'get',
     path: '/api/v1/undocumented',
     auth: 'none',
     summary: 'Answers a status it does not declare.',
@@ -79,11 +92,12 @@ const routes: Route[] = [
   }),
 ];
 
-function appWith(onUndocumentedStatus?: (where: string, status: number) => void) {
+function appWith(onUndocumentedStatus?: (where: string, status: number) => void, logged: string[] = []) {
   const app = express();
   app.use(express.json());
   app.use(mountRoutes(routes, { guard, onUndocumentedStatus }));
-  app.use(errorHandler(createLogger({ silent: true })));
+  const logger = { ...createLogger({ silent: true }), error: (message: string) => logged.push(message) };
+  app.use(errorHandler(logger));
   return app;
 }
 
@@ -123,6 +137,23 @@ describe('mountRoutes', () => {
     await request(app).patch('/api/v1/labs/seven/items/4').send({ name: 'taken' }).expect(409);
     await request(app).get('/api/v1/labs/seven/items?limit=99').expect(400);
     expect(seen).toEqual(['GET /api/v1/undocumented 409']);
+  });
+});
+
+describe('a client that leaves', () => {
+  it('aborts the handler through its signal, and the aborted failure is neither answered nor logged', async () => {
+    const logged: string[] = [];
+    const server = appWith(undefined, logged).listen(0, '127.0.0.1');
+    await new Promise((resolve) => server.once('listening', resolve));
+    const { port } = server.address() as AddressInfo;
+    const controller = new AbortController();
+    const asked = fetch(`http://127.0.0.1:${port}/api/v1/slow`, { signal: controller.signal }).catch((err: Error) => err.name);
+    await new Promise((resolve) => setTimeout(resolve, 100));
+    controller.abort();
+    expect(await asked).toBe('AbortError');
+    await new Promise((resolve) => setTimeout(resolve, 100));
+    server.close();
+    expect(logged).toEqual([]);
   });
 });
 

@@ -79,7 +79,8 @@ function statusWatch(route: Route, onUndocumented: NonNullable<MountContext['onU
  * Mounts a route table: for each entry, authentication (its `auth`), its `before` middleware,
  * then input parsing (params → query → body; any failure answers 400 `invalid_input`), then the
  * handler. A handler returns its answer, written as JSON with the entry's success status (204:
- * no body); a streaming route writes its own answer.
+ * no body); a streaming route writes its own answer. When the client has gone away, a failure of
+ * the aborted work is dropped silently (there is no one to answer, and nothing went wrong).
  */
 export function mountRoutes(routes: readonly Route[], ctx: MountContext): Router {
   const router = Router();
@@ -89,11 +90,19 @@ export function mountRoutes(routes: readonly Route[], ctx: MountContext): Router
     chain.push(...authStep(route, ctx.guard), ...(route.before ?? []));
     chain.push(async (req, res) => {
       const input = inputOf(route, req, res);
-      if (route.stream) {
-        await route.handle(input, { req, res });
-        return;
+      let answer: unknown;
+      try {
+        if (route.stream) {
+          await route.handle(input, { req, res });
+          return;
+        }
+        answer = await route.handle(input);
+      } catch (err) {
+        // the client left and the handler's work was aborted (e.g. an engine run): nobody to answer
+        if (input.signal.aborted) return;
+        throw err;
       }
-      const answer = await route.handle(input);
+      if (input.signal.aborted) return;
       if (route.response.status === 204) res.status(204).end();
       else if (answer === undefined) throw new Error(`${route.method} ${route.path}: the handler gave no answer`);
       else res.status(route.response.status).json(answer);
