@@ -3,12 +3,8 @@
 // A rule names the direction that is forbidden; every path is relative to the repository root.
 // Type-only imports count too (tsPreCompilationDeps), so `import type` cannot slip through.
 
-/** Server files the client may import besides `server/contract/` and `server/policies/`:
- *  the zod input schemas beside the routers, which the client's forms share (DEVELOPERS.md). */
-const CLIENT_SHARED_SERVER = '^server/http/.*[.]schema[.]ts$';
-
-/** A pure server function (it imports only server/policies/) that a shared schema uses to parse
- *  reading times (channels.schema.ts); a candidate for server/contract/. */
+/** A pure server function (it imports only server/policies/) that the contract's time parameters
+ *  use to parse reading times (contract/channels.ts, contract/ingest.ts). */
 const SCHEMA_HELPERS = '^server/services/ingest/parse-reading-time[.]ts$';
 
 /** Pure server functions that client tests (only tests) run, to check that the payloads and
@@ -36,15 +32,15 @@ module.exports = {
   forbidden: [
     clientImportsOnly(
       'client-imports-only-shared-server-code',
-      'The client is built separately: from the server it may import server/contract/, server/policies/ and the zod schemas server/http/**/*.schema.ts, nothing else.',
+      'The client is built separately: from the server it may import server/contract/ and server/policies/ (through @shared/), nothing else.',
       { path: '^client/', pathNot: '\\.test\\.tsx?$' },
-      [CLIENT_SHARED_SERVER],
+      [],
     ),
     clientImportsOnly(
       'client-tests-import-only-shared-server-code',
       'Client tests may in addition run the two pure ingest parsers as an oracle for the setup guide.',
       { path: '^client/.+\\.test\\.tsx?$' },
-      [CLIENT_SHARED_SERVER, CLIENT_TEST_ORACLES],
+      [CLIENT_TEST_ORACLES],
     ),
     forbid(
       'services-never-import-http',
@@ -53,12 +49,6 @@ module.exports = {
       { path: '^server/http/' },
     ),
     forbid('db-never-imports-services-or-http', 'http → services → db: repositories know nothing of the layers above them.', { path: '^server/db/' }, { path: '^server/(?:services|http)/' }),
-    forbid(
-      'shared-schemas-stay-pure',
-      'The zod schemas beside the routers may be bundled into the client: they import only other schemas, server/contract/, server/policies/ and the reading-time parser.',
-      { path: CLIENT_SHARED_SERVER },
-      { path: '^server/', pathNot: [CLIENT_SHARED_SERVER, '^server/contract/', '^server/policies/', SCHEMA_HELPERS] },
-    ),
     pureFolder('analysis', 'pure numerics'),
     pureFolder('policies', 'shared with the client'),
     forbid(
