@@ -5,8 +5,8 @@ import type { Db } from './db/create-db.ts';
 import type { Logger } from './logger.ts';
 import type { Mailer } from './integrations/mail/create-mailer.ts';
 import type { OidcEndpoints } from './integrations/identity/oidc-discovery.ts';
-import { createUsersRepo } from './db/users.repo.ts';
-import { createLabsRepo } from './db/labs.repo.ts';
+import { usersRepo } from './db/users.repo.ts';
+import { crossLabRepo } from './db/cross-lab.repo.ts';
 import { createSignInService } from './services/sign-in.service.ts';
 import { createMeService } from './services/me.service.ts';
 import { securityHeaders } from './http/middleware/security-headers.ts';
@@ -101,8 +101,8 @@ export function createApp(deps: AppDeps): Express {
   app.disable('x-powered-by');
   if (config.secureCookies) app.set('trust proxy', 1);
 
-  const users = createUsersRepo(db);
-  const labs = createLabsRepo(db);
+  const users = usersRepo(db);
+  const labs = crossLabRepo(db);
   const signIn = createSignInService({ users });
   const me = createMeService({ labs, users });
   const passport = createPassport({ config, endpoints: deps.identity.endpoints, users, signIn });

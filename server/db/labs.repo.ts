@@ -1,5 +1,4 @@
 import type { DbOrTrx } from './tenant-scope.ts';
-import { crossLabRepo } from './cross-lab.repo.ts';
 import type { Role } from '../policies/permissions.ts';
 
 export type { Role };
@@ -88,9 +87,3 @@ export function labsRepo(db: DbOrTrx) {
 }
 
 export type LabsRepo = ReturnType<typeof labsRepo>;
-
-/**
- * @deprecated Transitional, for `server/app.ts` only until it builds `crossLabRepo(db)` itself:
- * what app.ts hands the me service as `labs` (a person's labs, a cross-lab read).
- */
-export const createLabsRepo = (db: DbOrTrx) => crossLabRepo(db);

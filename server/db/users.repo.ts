@@ -96,6 +96,3 @@ export function usersRepo(db: DbOrTrx) {
 }
 
 export type UsersRepo = ReturnType<typeof usersRepo>;
-
-/** @deprecated Transitional name, for `server/app.ts` only: use `usersRepo`. */
-export const createUsersRepo = usersRepo;
