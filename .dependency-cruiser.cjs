@@ -49,6 +49,12 @@ module.exports = {
       { path: '^server/http/' },
     ),
     forbid('db-never-imports-services-or-http', 'http → services → db: repositories know nothing of the layers above them.', { path: '^server/db/' }, { path: '^server/(?:services|http)/' }),
+    forbid(
+      'only-db-speaks-sql',
+      'The database is reached through server/db/ (lab scope and repos): nothing else of the server, the client or the tenants material imports knex or the raw-statement helpers.',
+      { path: '^(?:server|client|tenants)/', pathNot: '^server/db/' },
+      { path: ['^node_modules/knex/', '^server/db/(?:execute-arrays|load-data-rows)[.]ts$'] },
+    ),
     pureFolder('analysis', 'pure numerics'),
     pureFolder('policies', 'shared with the client'),
     forbid(
@@ -73,7 +79,7 @@ module.exports = {
   ],
   options: {
     doNotFollow: { path: 'node_modules' },
-    exclude: { path: '(?:^|/)(?:node_modules|dist)/' },
+    exclude: { path: '(?:^|/)dist/' },
     tsPreCompilationDeps: true,
     // the client's one alias into the server (`@shared/contract/…`, `@shared/policies/…`)
     tsConfig: { fileName: 'tsconfig.json' },

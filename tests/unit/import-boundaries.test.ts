@@ -24,6 +24,8 @@ const TREE: Record<string, string[]> = {
   'server/analysis/acf.ts': ['./fft.ts', 'node:assert'],
   'server/analysis/fft.ts': [],
   'server/errors.ts': [],
+  'server/db/execute-arrays.ts': [],
+  'server/db/readings.repo.ts': ['./execute-arrays.ts'],
   'client/features/alerts/rule-form.ts': ['../../../server/contract/alerts.ts', '../../../server/policies/permissions.ts', '../../lib/api.ts'],
   'client/lib/api.ts': [],
   'client/features/loggers/guide.test.ts': ['../../../server/services/ingest/readings-from-body.ts'],
@@ -42,6 +44,7 @@ const TREE: Record<string, string[]> = {
   'client/features/bad.ts': ['../../server/services/alerts.service.ts'],
   'client/features/bad.test.ts': ['../../server/db/alerts.repo.ts'],
   'client/features/bad-http.ts': ['../../server/http/alerts/alerts.routes.ts'],
+  'server/services/bad-sql.ts': ['../db/execute-arrays.ts'],
 };
 
 /** Each planted violation and the rule that must report it. */
@@ -58,6 +61,7 @@ const PLANTED = [
   'client/features/bad.ts client-imports-only-shared-server-code',
   'client/features/bad.test.ts client-tests-import-only-shared-server-code',
   'client/features/bad-http.ts client-imports-only-shared-server-code',
+  'server/services/bad-sql.ts only-db-speaks-sql',
 ];
 
 let dir = '';
