@@ -48,7 +48,7 @@ export default defineConfig(
     files: ['server/**/*.ts'],
     ignores: ['server/**/*.test.ts'],
     rules: {
-      // The server writes its log through the log writer (server/logger.ts), which keeps lines
+      // The server writes its log through the log writer (server/log-writer.ts), which keeps lines
       // structured and leaves secrets out; a stray console call bypasses both.
       'no-console': 'error',
     },

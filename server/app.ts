@@ -2,7 +2,7 @@ import express, { type Express } from 'express';
 import type Stripe from 'stripe';
 import type { Config } from './config.ts';
 import type { Db } from './db/create-db.ts';
-import type { Logger } from './logger.ts';
+import type { LogWriter } from './log-writer.ts';
 import type { Mailer } from './integrations/mail/create-mailer.ts';
 import type { OidcEndpoints } from './integrations/identity/oidc-discovery.ts';
 import { usersRepo } from './db/users.repo.ts';
@@ -67,7 +67,7 @@ import { resolveRateLimits, type RateLimits } from './http/middleware/rate-limit
 export interface AppDeps {
   config: Config;
   db: Db;
-  logger: Logger;
+  logger: LogWriter;
   identity: { endpoints: OidcEndpoints };
   mailer: Mailer;
   billing: Stripe;

@@ -1,7 +1,7 @@
 import { createServer } from 'node:http';
 import { loadConfig } from './config.ts';
 import { createDb, databaseAnswers } from './db/create-db.ts';
-import { createLogger } from './logger.ts';
+import { createLogWriter } from './log-writer.ts';
 import { discoverOidcEndpoints } from './integrations/identity/oidc-discovery.ts';
 import { createMailer } from './integrations/mail/create-mailer.ts';
 import { createStripeClient } from './integrations/billing/create-stripe-client.ts';
@@ -17,7 +17,7 @@ import { createAnalysisPool } from './workers/analysis-pool.ts';
  */
 async function main(): Promise<void> {
   const config = loadConfig();
-  const logger = createLogger();
+  const logger = createLogWriter();
   const db = createDb(config.db);
   if (!(await databaseAnswers(db))) {
     throw new ConfigError(

@@ -1,4 +1,4 @@
-import type { Logger } from '../logger.ts';
+import type { LogWriter } from '../log-writer.ts';
 
 /** Work the server does on a schedule (reconciling usage, evaluating alerts, sending queued mail). */
 export interface BackgroundJob {
@@ -15,7 +15,7 @@ export interface BackgroundJob {
  * after the server listens; tests leave jobs stopped and drive them directly with a simulated
  * clock, so no timer ever runs in the background of a test.
  */
-export function startBackgroundJobs(jobs: readonly BackgroundJob[], logger: Logger): () => Promise<void> {
+export function startBackgroundJobs(jobs: readonly BackgroundJob[], logger: LogWriter): () => Promise<void> {
   for (const job of jobs) {
     job.start();
     logger.info('background job started', { job: job.name });

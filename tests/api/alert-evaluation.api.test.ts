@@ -4,7 +4,7 @@ import { buildTestApp, type TestApp } from '../support/test-app.ts';
 import { buildMember, sessionCookieFor, type TestUser } from '../support/factories.ts';
 import { buildLabWithEverything, type LabWithEverything } from '../support/lab-fixture.ts';
 import { createDb, type Db } from '../../server/db/create-db.ts';
-import { createLogger } from '../../server/logger.ts';
+import { createLogWriter } from '../../server/log-writer.ts';
 import { createMailer, type Mailer } from '../../server/integrations/mail/create-mailer.ts';
 import { ingestBatch } from '../../server/services/ingest/ingest-batch.ts';
 import { createAlertEvaluator } from '../../server/services/alerts/alert-evaluator.ts';
@@ -20,7 +20,7 @@ let t: TestApp;
 let mailer: Mailer;
 const extraDbs: Db[] = [];
 const captureUrl = process.env.LAGBOOK_MAIL_CAPTURE_URL!;
-const logger = createLogger({ silent: true });
+const logger = createLogWriter({ silent: true });
 
 beforeAll(async () => {
   t = await buildTestApp();

@@ -8,7 +8,7 @@ import { waitForMail } from '../../docker-free-scripts/mail-capture/read-capture
 import { createUsageJob } from '../../server/services/billing/usage-job.ts';
 import { loadPlanCatalog } from '../../server/services/billing/plan-catalog.ts';
 import { createMailer } from '../../server/integrations/mail/create-mailer.ts';
-import { createLogger } from '../../server/logger.ts';
+import { createLogWriter } from '../../server/log-writer.ts';
 
 /**
  * Plans, limits and Stripe end to end: the app listens on its configured port so the Stripe
@@ -390,7 +390,7 @@ describe('usage job (simulated clock)', () => {
     const lab = await newLab();
     const mailer = createMailer(t.config.smtp);
     let clock = new Date('2026-12-01T06:00:00Z');
-    const job = createUsageJob({ db: t.db, catalog, mailer, logger: createLogger({ silent: true }), publicUrl: t.config.publicUrl, now: () => clock });
+    const job = createUsageJob({ db: t.db, catalog, mailer, logger: createLogWriter({ silent: true }), publicUrl: t.config.publicUrl, now: () => clock });
     const labRow = { id: lab.f.lab.id, slug: lab.f.lab.slug, name: lab.f.lab.name };
     try {
       expect((await ingest(lab, 0, 8)).status).toBe(200);

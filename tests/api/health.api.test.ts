@@ -49,12 +49,12 @@ describe('health and unknown routes', () => {
   it('answers 503 with Retry-After when the database is unreachable, and stays up', async () => {
     const { createDb } = await import('../../server/db/create-db.ts');
     const { createApp } = await import('../../server/app.ts');
-    const { createLogger } = await import('../../server/logger.ts');
+    const { createLogWriter } = await import('../../server/log-writer.ts');
     const deadDb = createDb({ ...t.config.db, port: 1 });
     const app = createApp({
       config: t.config,
       db: deadDb,
-      logger: createLogger({ silent: true }),
+      logger: createLogWriter({ silent: true }),
       identity: { endpoints: { issuer: t.config.oidc.issuer, authorization_endpoint: `${t.config.oidc.issuer}/auth`, token_endpoint: `${t.config.oidc.issuer}/token`, userinfo_endpoint: `${t.config.oidc.issuer}/me` } },
       mailer: { send: async () => {}, verify: async () => false, close: () => {} },
       billing: {} as never,

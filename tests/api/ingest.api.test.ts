@@ -4,7 +4,7 @@ import fc from 'fast-check';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
 import { buildLabWithEverything, type LabWithEverything } from '../support/lab-fixture.ts';
 import { createApp } from '../../server/app.ts';
-import { createLogger } from '../../server/logger.ts';
+import { createLogWriter } from '../../server/log-writer.ts';
 import { createDb } from '../../server/db/create-db.ts';
 
 let t: TestApp;
@@ -226,7 +226,7 @@ describe('ingest refusals', () => {
   });
 
   it('429 with Retry-After when one logger posts faster than its allowance; other loggers are unaffected', async () => {
-    const app = createApp({ config: t.config, db: t.db, logger: createLogger({ silent: true }), identity: { endpoints: { issuer: 'http://x', authorization_endpoint: 'http://x/a', token_endpoint: 'http://x/t', userinfo_endpoint: 'http://x/u' } }, mailer: { send: async () => {}, verify: async () => true, close: () => {} }, billing: {} as never, ingestRate: { perSecond: 0.5, burst: 2 } });
+    const app = createApp({ config: t.config, db: t.db, logger: createLogWriter({ silent: true }), identity: { endpoints: { issuer: 'http://x', authorization_endpoint: 'http://x/a', token_endpoint: 'http://x/t', userinfo_endpoint: 'http://x/u' } }, mailer: { send: async () => {}, verify: async () => true, close: () => {} }, billing: {} as never, ingestRate: { perSecond: 0.5, burst: 2 } });
     const f = await freshLogger();
     const g = await freshLogger();
     await post(f, { readings: [] }, app).expect(200);
@@ -239,7 +239,7 @@ describe('ingest refusals', () => {
 
   it('503 with Retry-After when the database is unreachable; the process stays up', async () => {
     const dead = createDb({ ...t.config.db, port: 1 });
-    const app = createApp({ config: t.config, db: dead, logger: createLogger({ silent: true }), identity: { endpoints: { issuer: 'http://x', authorization_endpoint: 'http://x/a', token_endpoint: 'http://x/t', userinfo_endpoint: 'http://x/u' } }, mailer: { send: async () => {}, verify: async () => true, close: () => {} }, billing: {} as never });
+    const app = createApp({ config: t.config, db: dead, logger: createLogWriter({ silent: true }), identity: { endpoints: { issuer: 'http://x', authorization_endpoint: 'http://x/a', token_endpoint: 'http://x/t', userinfo_endpoint: 'http://x/u' } }, mailer: { send: async () => {}, verify: async () => true, close: () => {} }, billing: {} as never });
     const f = await freshLogger();
     const res = await post(f, { readings: [{ channel: 'air_t', ts: T0, value: 1 }] }, app).expect(503);
     expect(res.headers['retry-after']).toBe('5');

@@ -4,7 +4,7 @@ import { buildTestApp, type TestApp } from '../support/test-app.ts';
 import { buildLab, buildMember, buildUser, sessionCookieFor, type TestLab } from '../support/factories.ts';
 import { fetchCapturedMail, waitForMail } from '../../docker-free-scripts/mail-capture/read-captured-mail.ts';
 import { createApp } from '../../server/app.ts';
-import { createLogger } from '../../server/logger.ts';
+import { createLogWriter } from '../../server/log-writer.ts';
 
 const mailUrl = process.env.LAGBOOK_MAIL_CAPTURE_URL!;
 let t: TestApp;
@@ -20,7 +20,7 @@ function appWithClock() {
   return createApp({
     config: t.config,
     db: t.db,
-    logger: createLogger({ silent: true }),
+    logger: createLogWriter({ silent: true }),
     identity: { endpoints: { issuer: t.config.oidc.issuer, authorization_endpoint: `${t.config.oidc.issuer}/auth`, token_endpoint: `${t.config.oidc.issuer}/token`, userinfo_endpoint: `${t.config.oidc.issuer}/me` } },
     mailer: { send: (m) => import('../../server/integrations/mail/create-mailer.ts').then(({ createMailer }) => { const real = createMailer(t.config.smtp); return real.send(m).finally(() => real.close()); }), verify: async () => true, close: () => {} },
     billing: {} as never,
@@ -171,7 +171,7 @@ describe('invitations', () => {
     const app = createApp({
       config: t.config,
       db: t.db,
-      logger: createLogger({ silent: true }),
+      logger: createLogWriter({ silent: true }),
       identity: { endpoints: { issuer: t.config.oidc.issuer, authorization_endpoint: 'http://x/a', token_endpoint: 'http://x/t', userinfo_endpoint: 'http://x/u' } },
       mailer: { send: async () => { throw new Error('ECONNREFUSED'); }, verify: async () => false, close: () => {} },
       billing: {} as never,

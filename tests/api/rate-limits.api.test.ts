@@ -4,7 +4,7 @@ import type { Express } from 'express';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
 import { buildLab, buildMember, sessionCookieFor, type TestLab } from '../support/factories.ts';
 import { createApp } from '../../server/app.ts';
-import { createLogger } from '../../server/logger.ts';
+import { createLogWriter } from '../../server/log-writer.ts';
 import type { RateLimits } from '../../server/http/middleware/rate-limits.ts';
 import { onLargestPlan } from '../support/largest-plan.ts';
 
@@ -26,7 +26,7 @@ function appWith(rateLimits?: Partial<RateLimits>): { app: Express; sent: string
   const app = createApp({
     config: t.config,
     db: t.db,
-    logger: createLogger({ silent: true }),
+    logger: createLogWriter({ silent: true }),
     identity: { endpoints: { issuer, authorization_endpoint: `${issuer}/auth`, token_endpoint: `${issuer}/token`, userinfo_endpoint: `${issuer}/me` } },
     mailer: { send: async (m) => void sent.push(m.to), verify: async () => true, close: () => undefined },
     billing: {} as never,

@@ -7,7 +7,7 @@
 import { createServer } from 'node:http';
 import { createApp } from '../../server/app.ts';
 import { createDb } from '../../server/db/create-db.ts';
-import { createLogger } from '../../server/logger.ts';
+import { createLogWriter } from '../../server/log-writer.ts';
 import { loadConfig } from '../../server/config.ts';
 import { createAnalysisPool } from '../../server/workers/analysis-pool.ts';
 
@@ -27,7 +27,7 @@ const db = createDb({ ...dbConfig, poolMax: 20 });
 const app = createApp({
   config: { ...config, db: { ...dbConfig, poolMax: 20 } },
   db,
-  logger: createLogger({ silent: true }),
+  logger: createLogWriter({ silent: true }),
   identity: { endpoints: { issuer: 'http://127.0.0.1:9', authorization_endpoint: 'http://127.0.0.1:9/a', token_endpoint: 'http://127.0.0.1:9/t', userinfo_endpoint: 'http://127.0.0.1:9/u' } },
   mailer: { send: async () => undefined, verify: async () => true, close: () => undefined },
   billing: {} as never,

@@ -3,7 +3,7 @@ import type { Knex } from 'knex';
 import type { Role } from '../../server/policies/permissions.ts';
 import { SESSION_COOKIE } from '../../server/http/middleware/session.ts';
 import type { AppDeps } from '../../server/app.ts';
-import { createLogger } from '../../server/logger.ts';
+import { createLogWriter } from '../../server/log-writer.ts';
 
 /**
  * Test data factories with overrides (`buildUser`, `buildLab`, `buildMember`) writing
@@ -77,7 +77,7 @@ export function standInAppDeps(base: Pick<AppDeps, 'config' | 'db'>, extra: Part
   return {
     config: { ...base.config, clientDir: null },
     db: base.db,
-    logger: createLogger({ silent: true }),
+    logger: createLogWriter({ silent: true }),
     identity: { endpoints: { issuer: 'http://x', authorization_endpoint: 'http://x/a', token_endpoint: 'http://x/t', userinfo_endpoint: 'http://x/u' } },
     mailer: { send: async () => {}, verify: async () => true, close: () => {} },
     billing: {} as never,

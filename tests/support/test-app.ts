@@ -4,7 +4,7 @@ import { loadConfig, type Config } from '../../server/config.ts';
 import { createDb, type Db } from '../../server/db/create-db.ts';
 import { migrateToLatest } from '../../server/db/migrate.ts';
 import { createApp } from '../../server/app.ts';
-import { createLogger } from '../../server/logger.ts';
+import { createLogWriter } from '../../server/log-writer.ts';
 import { discoverOidcEndpoints } from '../../server/integrations/identity/oidc-discovery.ts';
 import { createMailer } from '../../server/integrations/mail/create-mailer.ts';
 import { createStripeClient } from '../../server/integrations/billing/create-stripe-client.ts';
@@ -23,7 +23,7 @@ export async function buildTestApp(overrides: Partial<Config> = {}) {
   // every answer a route gives must be documented in its route-table entry (and so in the API document)
   const undocumented = new Set<string>();
   const onUndocumentedStatus = (where: string, status: number) => undocumented.add(`${where} answered ${status}`);
-  const app = createApp({ config, db, logger: createLogger({ silent: true }), identity: { endpoints }, mailer, billing, onUndocumentedStatus });
+  const app = createApp({ config, db, logger: createLogWriter({ silent: true }), identity: { endpoints }, mailer, billing, onUndocumentedStatus });
   let server: Server | null = null;
   return {
     app,

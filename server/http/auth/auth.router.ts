@@ -1,7 +1,7 @@
 import { Router, type Request } from 'express';
 import { OIDC_STRATEGY, type PassportInstance } from './passport-setup.ts';
 import { SignInRefusedError } from '../../services/sign-in.service.ts';
-import type { Logger } from '../../logger.ts';
+import type { LogWriter } from '../../log-writer.ts';
 import { DEFAULT_RATE_LIMITS, perClientLimit, type RateLimit } from '../middleware/rate-limits.ts';
 
 const RETURN_TO_KEY = 'lagbookReturnTo';
@@ -31,7 +31,7 @@ function failureCode(err: unknown, info: unknown): string {
  * `POST /auth/sign-out` ends the session. Both redirects are rate-limited per client IP
  * (`signInLimit`, counted separately for each), since each costs a round trip to the provider.
  */
-export function authRouter(deps: { passport: PassportInstance; logger: Logger; signInLimit?: RateLimit }): Router {
+export function authRouter(deps: { passport: PassportInstance; logger: LogWriter; signInLimit?: RateLimit }): Router {
   const router = Router();
   const { passport, logger } = deps;
   const rule = deps.signInLimit ?? DEFAULT_RATE_LIMITS.signIn;

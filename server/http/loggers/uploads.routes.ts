@@ -2,7 +2,7 @@ import { AppError } from '../../errors.ts';
 import { loggerParams } from '../../contract/loggers.ts';
 import { MAX_UPLOAD_BYTES, UPLOAD_MEDIA_TYPES, uploadCsvBody, uploadQuerySchema, type UploadLine } from '../../contract/uploads.ts';
 import type { UploadsService } from '../../services/uploads.service.ts';
-import type { Logger } from '../../logger.ts';
+import type { LogWriter } from '../../log-writer.ts';
 import { defineRoute, type Route } from '../routes/route.ts';
 
 /**
@@ -11,7 +11,7 @@ import { defineRoute, type Route } from '../routes/route.ts';
  * import (no body parser reads it) and answers NDJSON: `progress` lines after each stored batch,
  * then one `summary` (or `error`) line.
  */
-export function uploadRoutes(deps: { uploads: UploadsService; logger: Logger }): Route[] {
+export function uploadRoutes(deps: { uploads: UploadsService; logger: LogWriter }): Route[] {
   return [
     defineRoute({
       method: 'post',

@@ -1,7 +1,7 @@
 import type { ErrorRequestHandler } from 'express';
 import { ZodError } from 'zod';
 import { AppError, ServiceUnavailableError, ValidationError } from '../../errors.ts';
-import type { Logger } from '../../logger.ts';
+import type { LogWriter } from '../../log-writer.ts';
 import { isDatabaseFull, isDatabaseReadOnly, isDatabaseUnavailable, isLockConflict } from '../../db/db-errors.ts';
 
 /** Turns a ZodError into `field: reason` lines (the validation message convention). */
@@ -40,7 +40,7 @@ function bodyParserError(err: unknown): AppError | null {
  * gzip) become 4xx; an unreachable database becomes 503 with Retry-After; anything else is
  * logged and answered 500 without internals.
  */
-export function errorHandler(logger: Logger): ErrorRequestHandler {
+export function errorHandler(logger: LogWriter): ErrorRequestHandler {
   return (err, req, res, _next) => {
     let error: unknown = err;
     if (error instanceof ZodError) error = zodToValidationError(error);

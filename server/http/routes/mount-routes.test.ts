@@ -4,7 +4,7 @@ import request from 'supertest';
 import { z } from 'zod';
 import { describe, expect, it } from 'vitest';
 import { errorHandler } from '../middleware/error-handler.ts';
-import { createLogger } from '../../logger.ts';
+import { createLogWriter } from '../../log-writer.ts';
 import { ConflictError } from '../../services/service-errors.ts';
 import type { LabGuard } from '../middleware/lab-guard.ts';
 import { idParams } from '../../contract/common.ts';
@@ -96,7 +96,7 @@ function appWith(onUndocumentedStatus?: (where: string, status: number) => void,
   const app = express();
   app.use(express.json());
   app.use(mountRoutes(routes, { guard, onUndocumentedStatus }));
-  const logger = { ...createLogger({ silent: true }), error: (message: string) => logged.push(message) };
+  const logger = { ...createLogWriter({ silent: true }), error: (message: string) => logged.push(message) };
   app.use(errorHandler(logger));
   return app;
 }

@@ -5,7 +5,7 @@ import { alertsRepo } from '../../db/alerts.repo.ts';
 import { labsRepo } from '../../db/labs.repo.ts';
 import { crossLabRepo } from '../../db/cross-lab.repo.ts';
 import type { Mailer } from '../../integrations/mail/create-mailer.ts';
-import type { Logger } from '../../logger.ts';
+import type { LogWriter } from '../../log-writer.ts';
 import { queueAlertMail } from './alert-notifications.ts';
 import { withEvaluatorLock } from './evaluator-lock.ts';
 import { sendDueMail } from './outbox-sender.ts';
@@ -27,7 +27,7 @@ export interface EvaluationSummary {
 export interface AlertEvaluatorDeps {
   db: Db;
   mailer: Mailer;
-  logger: Logger;
+  logger: LogWriter;
   publicUrl: string;
   /** Minutes before a reminder when a rule sets none (0: none). */
   reminderAfterMin: number;

@@ -1,6 +1,6 @@
 import type { BackgroundJob } from '../../jobs/background-jobs.ts';
 import type { IngestHooks } from '../ingest/ingest-hooks.ts';
-import type { Logger } from '../../logger.ts';
+import type { LogWriter } from '../../log-writer.ts';
 import type { AlertEvaluator } from './alert-evaluator.ts';
 
 /**
@@ -8,7 +8,7 @@ import type { AlertEvaluator } from './alert-evaluator.ts';
  * later (batches arriving meanwhile are gathered into one run). It never blocks or fails the
  * ingestion: it only schedules, and the run's errors are logged (the scheduled job catches up).
  */
-export function alertIngestNudge(deps: { evaluator: AlertEvaluator; logger: Logger; delayMs?: number; now?: () => number }): IngestHooks {
+export function alertIngestNudge(deps: { evaluator: AlertEvaluator; logger: LogWriter; delayMs?: number; now?: () => number }): IngestHooks {
   const delayMs = deps.delayMs ?? 250;
   const now = deps.now ?? Date.now;
   const waiting = new Map<number, Set<number>>();
@@ -49,7 +49,7 @@ export function alertIngestNudge(deps: { evaluator: AlertEvaluator; logger: Logg
  * The scheduled alert job: every `everyS` seconds one full evaluator run (silence, reminders,
  * queued mail, and any readings the ingestion nudge missed). `stop` waits for a run in progress.
  */
-export function alertEvaluationJob(deps: { evaluator: AlertEvaluator; logger: Logger; everyS: number; now?: () => number }): BackgroundJob {
+export function alertEvaluationJob(deps: { evaluator: AlertEvaluator; logger: LogWriter; everyS: number; now?: () => number }): BackgroundJob {
   const now = deps.now ?? Date.now;
   let timer: ReturnType<typeof setInterval> | null = null;
   let running: Promise<void> | null = null;

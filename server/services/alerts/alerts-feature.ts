@@ -1,7 +1,7 @@
 import type { Config } from '../../config.ts';
 import type { Db } from '../../db/create-db.ts';
 import type { Mailer } from '../../integrations/mail/create-mailer.ts';
-import type { Logger } from '../../logger.ts';
+import type { LogWriter } from '../../log-writer.ts';
 import { createAlertEvaluator } from './alert-evaluator.ts';
 import { createAlertRulesService } from './alert-rules.service.ts';
 import { alertEvaluationJob, alertIngestNudge } from './alert-triggers.ts';
@@ -10,7 +10,7 @@ import { alertEvaluationJob, alertIngestNudge } from './alert-triggers.ts';
  * Alerts wired together for createApp: the rules service for the routes, the evaluator (with
  * `runOnce(now)` for tests), its ingestion hook and its scheduled job.
  */
-export function createAlertsFeature(deps: { db: Db; mailer: Mailer; logger: Logger; config: Pick<Config, 'publicUrl' | 'alerts'>; now?: () => number }) {
+export function createAlertsFeature(deps: { db: Db; mailer: Mailer; logger: LogWriter; config: Pick<Config, 'publicUrl' | 'alerts'>; now?: () => number }) {
   const evaluator = createAlertEvaluator({ db: deps.db, mailer: deps.mailer, logger: deps.logger, publicUrl: deps.config.publicUrl, reminderAfterMin: deps.config.alerts.reminderAfterMin });
   return {
     service: createAlertRulesService({ db: deps.db, now: deps.now }),

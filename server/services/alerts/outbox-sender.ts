@@ -2,7 +2,7 @@ import type { Db } from '../../db/create-db.ts';
 import { inLab } from '../../db/tenant-scope.ts';
 import { outboxRepo } from '../../db/notification-outbox.repo.ts';
 import type { Mailer } from '../../integrations/mail/create-mailer.ts';
-import type { Logger } from '../../logger.ts';
+import type { LogWriter } from '../../log-writer.ts';
 import { retryDelayMs } from './retry-delay.ts';
 
 /** How long a claimed message is reserved for its sender (after that another may try it). */
@@ -22,7 +22,7 @@ export interface SendSummary {
  * claim expires and the message goes out a second time (at most once more): SMTP offers no
  * way to make the hand-over and the mark one step.
  */
-export async function sendDueMail(deps: { db: Db; mailer: Mailer; logger: Logger }, tenantId: number, now: number, limit = 100): Promise<SendSummary> {
+export async function sendDueMail(deps: { db: Db; mailer: Mailer; logger: LogWriter }, tenantId: number, now: number, limit = 100): Promise<SendSummary> {
   const outbox = outboxRepo(inLab(deps.db, tenantId));
   const summary: SendSummary = { sent: 0, failed: 0 };
   for (const message of await outbox.due(now, limit)) {

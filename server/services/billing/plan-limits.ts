@@ -2,7 +2,7 @@ import type { Db } from '../../db/create-db.ts';
 import { inLab, type DbOrTrx } from '../../db/tenant-scope.ts';
 import { labBillingRepo } from '../../db/lab-billing.repo.ts';
 import { usageRepo } from '../../db/usage.repo.ts';
-import type { Logger } from '../../logger.ts';
+import type { LogWriter } from '../../log-writer.ts';
 import type { IngestHooks, StoredBatch } from '../ingest/ingest-hooks.ts';
 import { effectivePlan } from './effective-plan.ts';
 import { PlanLimitError } from './billing-errors.ts';
@@ -34,7 +34,7 @@ export interface PlanLimitGuard {
  * The quarantined rows themselves are counted where they are written (quarantine.repo.ts), in the
  * same transaction. A batch with nothing new to store or quarantine takes no lock.
  */
-export function createPlanLimits(deps: { db: Db; catalog: PlanCatalog; logger: Logger; now?: () => Date }): PlanLimitGuard {
+export function createPlanLimits(deps: { db: Db; catalog: PlanCatalog; logger: LogWriter; now?: () => Date }): PlanLimitGuard {
   const { catalog } = deps;
   const now = deps.now ?? (() => new Date());
   const billingOf = (trx: DbOrTrx, labId: number) => labBillingRepo(inLab(trx, labId));

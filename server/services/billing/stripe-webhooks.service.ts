@@ -8,7 +8,7 @@ import { labsRepo } from '../../db/labs.repo.ts';
 import { auditRepo } from '../../db/audit.repo.ts';
 import { AppError } from '../../errors.ts';
 import type { Mailer } from '../../integrations/mail/create-mailer.ts';
-import type { Logger } from '../../logger.ts';
+import type { LogWriter } from '../../log-writer.ts';
 import { billingChange, eventParties } from './billing-change.ts';
 import { paymentFailedMail } from './billing-mail.ts';
 import { mailLabAdmins } from './notify-admins.ts';
@@ -46,7 +46,7 @@ export function createStripeWebhooks(deps: {
   stripe: Stripe;
   catalog: PlanCatalog;
   mailer: Mailer;
-  logger: Logger;
+  logger: LogWriter;
   webhookSecret: string;
   graceDays: number;
   publicUrl: string;

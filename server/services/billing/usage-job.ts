@@ -4,7 +4,7 @@ import { labBillingRepo } from '../../db/lab-billing.repo.ts';
 import { usageRepo } from '../../db/usage.repo.ts';
 import { crossLabRepo } from '../../db/cross-lab.repo.ts';
 import type { Mailer } from '../../integrations/mail/create-mailer.ts';
-import type { Logger } from '../../logger.ts';
+import type { LogWriter } from '../../log-writer.ts';
 import type { BackgroundJob } from '../../jobs/background-jobs.ts';
 import { effectivePlan } from './effective-plan.ts';
 import { usageWarningMail } from './billing-mail.ts';
@@ -28,7 +28,7 @@ export function warningLevel(used: number, allowed: number): 0 | 80 | 100 {
  * database, so each crossing mails once, even across restarts; falling back below a level
  * re-arms it. `runOnce` takes the time from `now`, so tests drive it with a simulated clock.
  */
-export function createUsageJob(deps: { db: Db; catalog: PlanCatalog; mailer: Mailer; logger: Logger; publicUrl: string; now?: () => Date }) {
+export function createUsageJob(deps: { db: Db; catalog: PlanCatalog; mailer: Mailer; logger: LogWriter; publicUrl: string; now?: () => Date }) {
   const now = deps.now ?? (() => new Date());
 
   async function reconcileLab(lab: { id: number; slug: string; name: string }): Promise<void> {
