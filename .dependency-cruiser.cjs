@@ -18,7 +18,12 @@ function forbid(name, comment, from, to) {
 
 /** A rule: `server/<folder>/` imports nothing of the server outside itself (npm packages are fine). */
 function pureFolder(folder, why) {
-  return forbid(`${folder}-is-pure`, `server/${folder}/ is ${why}: it imports nothing else of the server.`, { path: `^server/${folder}/` }, { path: '^server/', pathNot: `^server/${folder}/` });
+  return forbid(
+    `${folder}-is-pure`,
+    `server/${folder}/ is ${why}: it imports nothing else of the server.`,
+    { path: `^server/${folder}/` },
+    { path: '^server/', pathNot: `^server/${folder}/` },
+  );
 }
 
 /** A rule: files of the client matching `from` import, outside `client/` and npm packages, only `allowed`. */
@@ -48,7 +53,12 @@ module.exports = {
       { path: '^server/services/' },
       { path: '^server/http/' },
     ),
-    forbid('db-never-imports-services-or-http', 'http → services → db: repositories know nothing of the layers above them.', { path: '^server/db/' }, { path: '^server/(?:services|http)/' }),
+    forbid(
+      'db-never-imports-services-or-http',
+      'http → services → db: repositories know nothing of the layers above them.',
+      { path: '^server/db/' },
+      { path: '^server/(?:services|http)/' },
+    ),
     forbid(
       'only-db-speaks-sql',
       'The database is reached through server/db/ (lab scope and repos): nothing else of the server, the client or the tenants material imports knex or the raw-statement helpers.',

@@ -33,12 +33,7 @@ export default defineConfig({
         test: {
           name: 'unit',
           root: '.',
-          include: [
-            'server/**/*.test.ts',
-            'docker-free-scripts/**/*.test.ts',
-            'tests/unit/**/*.test.ts',
-            'tests/reference/**/*.test.ts',
-          ],
+          include: ['server/**/*.test.ts', 'docker-free-scripts/**/*.test.ts', 'tests/unit/**/*.test.ts', 'tests/reference/**/*.test.ts'],
           testTimeout: 30_000,
         },
       },

@@ -56,7 +56,13 @@ async function main(): Promise<void> {
       port: portOf(stripeBase),
       prices: catalog.plans
         .filter((p) => p.priceLookupKey !== null)
-        .map((p) => ({ lookupKey: p.priceLookupKey!, productName: `Lagbook ${p.name}`, unitAmount: p.monthlyAmount, currency: catalog.currency, interval: 'month' as const })),
+        .map((p) => ({
+          lookupKey: p.priceLookupKey!,
+          productName: `Lagbook ${p.name}`,
+          unitAmount: p.monthlyAmount,
+          currency: catalog.currency,
+          interval: 'month' as const,
+        })),
       webhook: { url: `${publicUrl}/api/v1/billing/stripe-webhooks`, secret: setting('STRIPE_WEBHOOK_SECRET', 'whsec_lagbook_local_stand_in') },
     });
     started.push(stripe);

@@ -44,7 +44,9 @@ function supervise(script: string): Running {
   procs.push(proc);
   let stderr = '';
   proc.stderr!.on('data', (b: Buffer) => (stderr += b.toString('utf8')));
-  const exited = new Promise<{ code: number | null; signal: NodeJS.Signals | null }>((resolve) => proc.once('exit', (code, signal) => resolve({ code, signal })));
+  const exited = new Promise<{ code: number | null; signal: NodeJS.Signals | null }>((resolve) =>
+    proc.once('exit', (code, signal) => resolve({ code, signal })),
+  );
   return {
     proc,
     log: () => stderr,
@@ -55,7 +57,7 @@ function supervise(script: string): Running {
 
 /** Polls until `check` holds (fails the test after 10 s with `what`). */
 async function until(what: string, check: () => boolean): Promise<void> {
-  for (const give = Date.now() + 10_000; !check(); ) {
+  for (const give = Date.now() + 10_000; !check();) {
     if (Date.now() > give) throw new Error(`timed out waiting for ${what}`);
     await new Promise((r) => setTimeout(r, 20));
   }
@@ -81,7 +83,9 @@ describe('supervise.sh', () => {
     await until('the second run', () => s.pids().length === 2);
     expect(s.pids()[1]).not.toBe(first);
     expect(alive(s.pids()[1])).toBe(true);
-    expect(restartLines(s.log())).toEqual([expect.stringMatching(/^lagbook: the server was killed by signal KILL after [\d.]+ s; restarting in 0\.1 s \(restart 1;/)]);
+    expect(restartLines(s.log())).toEqual([
+      expect.stringMatching(/^lagbook: the server was killed by signal KILL after [\d.]+ s; restarting in 0\.1 s \(restart 1;/),
+    ]);
     s.proc.kill('SIGTERM');
     await s.exited;
   });

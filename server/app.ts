@@ -121,10 +121,7 @@ export function createApp(deps: AppDeps): Express {
     alerts.ingestHooks,
   ]);
   /** Scheduled work main.ts starts after listening (tests drive each job directly instead). */
-  const backgroundJobs: BackgroundJob[] = [
-    usageJob.job,
-    alerts.job,
-  ];
+  const backgroundJobs: BackgroundJob[] = [usageJob.job, alerts.job];
   const quarantine = createQuarantineService({ db, now: nowMs, hooks: ingestHooks });
   // Half the database pool at most for logger batches; the rest stays free for people browsing.
   const ingest = createIngestService({ db, now: nowMs, hooks: ingestHooks, maxConcurrentBatches: Math.max(1, Math.ceil(config.db.poolMax / 2)) });
@@ -163,7 +160,16 @@ export function createApp(deps: AppDeps): Express {
     ...billingRoutes({ billing: billingService }),
     // Stripe signs the raw body: 'webhook-signature' mounts it before sessions and JSON parsing.
     ...stripeWebhookRoutes({
-      webhooks: createStripeWebhooks({ db, stripe: deps.billing, catalog: plans, mailer: deps.mailer, logger, webhookSecret: config.stripe.webhookSecret, graceDays: config.stripe.graceDays, publicUrl: config.publicUrl }),
+      webhooks: createStripeWebhooks({
+        db,
+        stripe: deps.billing,
+        catalog: plans,
+        mailer: deps.mailer,
+        logger,
+        webhookSecret: config.stripe.webhookSecret,
+        graceDays: config.stripe.graceDays,
+        publicUrl: config.publicUrl,
+      }),
     }),
   ];
   // built at start, so a schema the document cannot describe stops the server instead of a request
@@ -183,7 +189,12 @@ export function createApp(deps: AppDeps): Express {
   app.use(express.json({ limit: '1mb', verify: refuseDeepJson }));
 
   app.use(authRouter({ passport, logger, signInLimit: limits.signIn }));
-  app.use(mountRoutes(routes.filter((r) => !runsBeforeSession(r)), mountContext));
+  app.use(
+    mountRoutes(
+      routes.filter((r) => !runsBeforeSession(r)),
+      mountContext,
+    ),
+  );
 
   app.use(['/api', '/auth'], (req, _res, next) => next(new NotFoundError(`No route for ${req.method} ${req.originalUrl.split('?')[0]}.`)));
   if (config.clientDir) app.use(staticClient(config.clientDir));

@@ -49,12 +49,8 @@ describe('loadConfig', () => {
 
   it('rejects malformed values with field: reason', () => {
     expect(() => loadConfig({ ...valid, LAGBOOK_PORT: 'eighty' })).toThrow(/LAGBOOK_PORT: /);
-    expect(() => loadConfig({ ...valid, LAGBOOK_SESSION_SECRET: 'short' })).toThrow(
-      'LAGBOOK_SESSION_SECRET: must be at least 32 characters',
-    );
-    expect(() => loadConfig({ ...valid, STRIPE_SECRET_KEY: 'pk_live_1' })).toThrow(
-      'STRIPE_SECRET_KEY: must start with sk_test_ or sk_live_',
-    );
+    expect(() => loadConfig({ ...valid, LAGBOOK_SESSION_SECRET: 'short' })).toThrow('LAGBOOK_SESSION_SECRET: must be at least 32 characters');
+    expect(() => loadConfig({ ...valid, STRIPE_SECRET_KEY: 'pk_live_1' })).toThrow('STRIPE_SECRET_KEY: must start with sk_test_ or sk_live_');
   });
 
   it('refuses the Stripe stand-in in production', () => {

@@ -21,7 +21,10 @@ const envSchema = z.object({
   LAGBOOK_DB_PORT: z.coerce.number().int().min(1).max(65535).default(4306),
   LAGBOOK_DB_USER: z.string().min(1).default('lagbook'),
   LAGBOOK_DB_PASSWORD: z.string().default('lagbook'),
-  LAGBOOK_DB_NAME: z.string().regex(/^[A-Za-z0-9_]+$/, 'letters, digits and _ only').default('lagbook'),
+  LAGBOOK_DB_NAME: z
+    .string()
+    .regex(/^[A-Za-z0-9_]+$/, 'letters, digits and _ only')
+    .default('lagbook'),
   LAGBOOK_DB_POOL_MAX: z.coerce.number().int().min(1).max(200).default(10),
   LAGBOOK_DB_SOCKET: z.string().min(1).optional(),
 
@@ -86,7 +89,18 @@ export interface Config {
 /** Only the database settings (for operator commands that need nothing else). */
 export function loadDatabaseConfig(env: NodeJS.ProcessEnv = process.env): Config['db'] & { publicUrl: string } {
   const parsed = envSchema
-    .pick({ LAGBOOK_DB_HOST: true, LAGBOOK_DB_PORT: true, LAGBOOK_DB_USER: true, LAGBOOK_DB_PASSWORD: true, LAGBOOK_DB_NAME: true, LAGBOOK_DB_POOL_MAX: true, LAGBOOK_DB_SOCKET: true, LAGBOOK_PUBLIC_URL: true, LAGBOOK_HOST: true, LAGBOOK_PORT: true })
+    .pick({
+      LAGBOOK_DB_HOST: true,
+      LAGBOOK_DB_PORT: true,
+      LAGBOOK_DB_USER: true,
+      LAGBOOK_DB_PASSWORD: true,
+      LAGBOOK_DB_NAME: true,
+      LAGBOOK_DB_POOL_MAX: true,
+      LAGBOOK_DB_SOCKET: true,
+      LAGBOOK_PUBLIC_URL: true,
+      LAGBOOK_HOST: true,
+      LAGBOOK_PORT: true,
+    })
     .safeParse(env);
   if (!parsed.success) {
     throw new ConfigError(`Invalid configuration:\n${parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`).join('\n')}`);
@@ -108,9 +122,7 @@ export function loadDatabaseConfig(env: NodeJS.ProcessEnv = process.env): Config
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
   const parsed = envSchema.safeParse(env);
   if (!parsed.success) {
-    const lines = parsed.error.issues.map(
-      (i) => `  ${i.path.join('.')}: ${/received undefined/.test(i.message) ? 'required but not set' : i.message}`,
-    );
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${/received undefined/.test(i.message) ? 'required but not set' : i.message}`);
     throw new ConfigError(`Invalid configuration:\n${lines.join('\n')}`);
   }
   const e = parsed.data;

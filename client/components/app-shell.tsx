@@ -9,17 +9,7 @@ import { paths } from '../app/paths.ts';
  * the person's name (a link to their account settings) and a sign-out button, and the page
  * itself on paper below.
  */
-export function AppShell({
-  userName,
-  labs,
-  onSignOut,
-  children,
-}: {
-  userName: string;
-  labs: SwitcherLab[];
-  onSignOut: () => void;
-  children: ReactNode;
-}) {
+export function AppShell({ userName, labs, onSignOut, children }: { userName: string; labs: SwitcherLab[]; onSignOut: () => void; children: ReactNode }) {
   // The lab in the URL (`/labs/:lab/...`), if any: the switcher names it as the current one.
   const { lab: currentSlug } = useParams();
   return (
@@ -36,14 +26,15 @@ export function AppShell({
             <Link to={paths.apiReference.href()} className="rounded underline-offset-2 hover:underline" title="Lagbook's HTTP API">
               API
             </Link>
-            <Link to={paths.account.href()} data-testid="signed-in-name" className="rounded font-medium underline-offset-2 hover:underline" title="Your account">
+            <Link
+              to={paths.account.href()}
+              data-testid="signed-in-name"
+              className="rounded font-medium underline-offset-2 hover:underline"
+              title="Your account"
+            >
               {userName}
             </Link>
-            <button
-              type="button"
-              onClick={onSignOut}
-              className="rounded-md border border-paper/40 px-3 py-1 hover:bg-paper/10"
-            >
+            <button type="button" onClick={onSignOut} className="rounded-md border border-paper/40 px-3 py-1 hover:bg-paper/10">
               Sign out
             </button>
           </div>

@@ -1,13 +1,5 @@
 import { useState, type ReactNode } from 'react';
-import {
-  flexRender,
-  getCoreRowModel,
-  getSortedRowModel,
-  useReactTable,
-  type ColumnDef,
-  type SortDirection,
-  type SortingState,
-} from '@tanstack/react-table';
+import { flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type ColumnDef, type SortDirection, type SortingState } from '@tanstack/react-table';
 
 const ARIA_SORT: Record<SortDirection, 'ascending' | 'descending'> = { asc: 'ascending', desc: 'descending' };
 

@@ -6,8 +6,7 @@ interface FieldFrame {
   error?: string;
 }
 
-const CONTROL =
-  'mt-1 block w-full rounded-lg border bg-card px-3 py-2 text-ink aria-[invalid=true]:border-alert border-rule';
+const CONTROL = 'mt-1 block w-full rounded-lg border bg-card px-3 py-2 text-ink aria-[invalid=true]:border-alert border-rule';
 
 /** Label, control, hint and error of one form field, wired together for assistive technology. */
 function Frame({ id, label, hint, error, children }: FieldFrame & { id: string; children: ReactNode }) {

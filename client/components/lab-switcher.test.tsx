@@ -13,8 +13,24 @@ const LABS: SwitcherLab[] = [
 
 function renderShell(url: string, labs = LABS) {
   return renderWithProviders(
-    [{ path: '/labs/:lab/*', element: <AppShell userName="Odalys Brennick" labs={labs} onSignOut={() => {}}>page</AppShell> },
-     { path: '*', element: <AppShell userName="Odalys Brennick" labs={labs} onSignOut={() => {}}>page</AppShell> }],
+    [
+      {
+        path: '/labs/:lab/*',
+        element: (
+          <AppShell userName="Odalys Brennick" labs={labs} onSignOut={() => {}}>
+            page
+          </AppShell>
+        ),
+      },
+      {
+        path: '*',
+        element: (
+          <AppShell userName="Odalys Brennick" labs={labs} onSignOut={() => {}}>
+            page
+          </AppShell>
+        ),
+      },
+    ],
     url,
   );
 }

@@ -5,8 +5,7 @@ import type { ReactNode } from 'react';
  * screen readers) or `status` (information, announced politely).
  */
 export function Notice({ tone, children, className = '' }: { tone: 'alert' | 'status'; children: ReactNode; className?: string }) {
-  const look =
-    tone === 'alert' ? 'border-alert/30 bg-alert/5 text-alert' : 'border-rule bg-paper text-ink';
+  const look = tone === 'alert' ? 'border-alert/30 bg-alert/5 text-alert' : 'border-rule bg-paper text-ink';
   return (
     <div role={tone} className={`rounded-lg border p-3 text-sm ${look} ${className}`}>
       {children}

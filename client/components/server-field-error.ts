@@ -6,10 +6,7 @@ import { ApiError } from '../lib/api-client.ts';
  * into the form field it names and the reason, when that field is one of `fields`.
  * Anything else returns null, so the caller shows the whole message for the form instead.
  */
-export function fieldFromServerMessage<F extends string>(
-  message: string,
-  fields: readonly F[],
-): { field: F; reason: string } | null {
+export function fieldFromServerMessage<F extends string>(message: string, fields: readonly F[]): { field: F; reason: string } | null {
   const match = /^([A-Za-z][\w.]*):\s*(.+)$/s.exec(message);
   if (!match) return null;
   const field = fields.find((f) => f === match[1]);

@@ -158,9 +158,7 @@ describe('identity provider stand-in', () => {
     expect(metadata.jwks_uri).toBe(idp.issuer + IDENTITY_PROVIDER_PATHS.jwks);
     expect(metadata.end_session_endpoint).toBe(idp.issuer + IDENTITY_PROVIDER_PATHS.endSession);
     expect(metadata.code_challenge_methods_supported).toEqual(['S256']);
-    expect(metadata.token_endpoint_auth_methods_supported).toEqual(
-      expect.arrayContaining(['client_secret_basic', 'client_secret_post']),
-    );
+    expect(metadata.token_endpoint_auth_methods_supported).toEqual(expect.arrayContaining(['client_secret_basic', 'client_secret_post']));
   });
 
   it('runs the authorization-code flow with PKCE to a signed ID token and UserInfo claims', async () => {
@@ -295,12 +293,14 @@ describe('identity provider stand-in', () => {
     expect(await signedOut.response!.text()).toContain('You are signed out of the local identity provider stand-in.');
 
     // The session is gone: a new authorization request asks for the password again.
-    const again = await start.browser.follow(`${idp.issuer}${IDENTITY_PROVIDER_PATHS.authorization}?${new URLSearchParams({
-      client_id: CLIENT.clientId,
-      response_type: 'code',
-      redirect_uri: CLIENT.redirectUris[0],
-      scope: 'openid',
-    })}`);
+    const again = await start.browser.follow(
+      `${idp.issuer}${IDENTITY_PROVIDER_PATHS.authorization}?${new URLSearchParams({
+        client_id: CLIENT.clientId,
+        response_type: 'code',
+        redirect_uri: CLIENT.redirectUris[0],
+        scope: 'openid',
+      })}`,
+    );
     expect(await again.response!.text()).toContain('<label for="password">');
   });
 

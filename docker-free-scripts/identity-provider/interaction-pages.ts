@@ -101,9 +101,7 @@ const SCOPE_MEANINGS: Record<string, string> = {
 /** The Allow / Deny page listing what the relying party will learn about the account. */
 export function renderConsentPage({ uid, clientId, accountEmail, scopes }: ConsentPageInput): string {
   const action = `/interaction/${encodeURIComponent(uid)}`;
-  const items = scopes
-    .map((scope) => `<li>${escapeHtml(SCOPE_MEANINGS[scope] ?? scope)} <small>(${escapeHtml(scope)})</small></li>`)
-    .join('\n');
+  const items = scopes.map((scope) => `<li>${escapeHtml(SCOPE_MEANINGS[scope] ?? scope)} <small>(${escapeHtml(scope)})</small></li>`).join('\n');
   return page(
     'Share your details',
     `<h1>${escapeHtml(clientId)} would like to know who you are</h1>

@@ -94,12 +94,7 @@ declare module 'oidc-provider' {
     };
     callback(): (req: IncomingMessage, res: ServerResponse) => void;
     interactionDetails(req: IncomingMessage, res: ServerResponse): Promise<Interaction>;
-    interactionFinished(
-      req: IncomingMessage,
-      res: ServerResponse,
-      result: InteractionResults,
-      options?: { mergeWithLastSubmission?: boolean },
-    ): Promise<void>;
+    interactionFinished(req: IncomingMessage, res: ServerResponse, result: InteractionResults, options?: { mergeWithLastSubmission?: boolean }): Promise<void>;
   }
 
   export const errors: {

@@ -51,5 +51,9 @@ function route(options: MailCaptureHttpOptions, req: IncomingMessage, res: Serve
  * optional `?to=address`) and `DELETE /messages`, so tests in other processes can read mail.
  */
 export async function startMailCaptureHttp(options: MailCaptureHttpOptions): Promise<ListeningHttpServer> {
-  return listenHttpServer(createServer((req, res) => route(options, req, res)), options.port, options.host);
+  return listenHttpServer(
+    createServer((req, res) => route(options, req, res)),
+    options.port,
+    options.host,
+  );
 }

@@ -117,12 +117,10 @@ export async function startMailCapture(opts: MailCaptureOptions): Promise<Runnin
     captured = [];
   };
   const closeSmtp = () => new Promise<void>((resolve) => smtp.close(() => resolve()));
-  const http = await startMailCaptureHttp({ host, port: opts.httpPort, messages: () => captured, clear }).catch(
-    async (error: unknown) => {
-      await closeSmtp();
-      throw error;
-    },
-  );
+  const http = await startMailCaptureHttp({ host, port: opts.httpPort, messages: () => captured, clear }).catch(async (error: unknown) => {
+    await closeSmtp();
+    throw error;
+  });
 
   return {
     smtpPort,

@@ -13,9 +13,7 @@ export class MailWaitTimeoutError extends Error {
   readonly arrived: CapturedMail[];
 
   constructor(timeoutMs: number, arrived: CapturedMail[]) {
-    const summary = arrived.length
-      ? arrived.map((mail) => `  - to ${mail.to.join(', ')}: "${mail.subject}"`).join('\n')
-      : '  (none)';
+    const summary = arrived.length ? arrived.map((mail) => `  - to ${mail.to.join(', ')}: "${mail.subject}"`).join('\n') : '  (none)';
     super(`No captured mail matched within ${timeoutMs} ms. Messages that did arrive (${arrived.length}):\n${summary}`);
     this.name = 'MailWaitTimeoutError';
     this.arrived = arrived;
@@ -40,11 +38,7 @@ export async function fetchCapturedMail(httpUrl: string, filter: { to?: string }
  * Polls the capture until a message satisfies `predicate` and returns it, so a test can wait
  * for mail that the app sends asynchronously; throws {@link MailWaitTimeoutError} after `timeoutMs`.
  */
-export async function waitForMail(
-  httpUrl: string,
-  predicate: (m: CapturedMail) => boolean,
-  timeoutMs = 5000,
-): Promise<CapturedMail> {
+export async function waitForMail(httpUrl: string, predicate: (m: CapturedMail) => boolean, timeoutMs = 5000): Promise<CapturedMail> {
   const deadline = Date.now() + timeoutMs;
   const pollMs = 50;
   for (;;) {

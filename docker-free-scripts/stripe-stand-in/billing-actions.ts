@@ -112,7 +112,8 @@ export function createBillingActions(state: StandInState, webhooks: WebhookSende
      */
     changePrice(subscriptionId: string, itemId: string, priceId: string, metadata: Record<string, string> | undefined): StripeSubscription {
       const sub = subscription(subscriptionId);
-      if (sub.status === 'canceled') throw new StripeApiError(400, 'invalid_request_error', 'A canceled subscription can only update its cancellation_details and metadata.');
+      if (sub.status === 'canceled')
+        throw new StripeApiError(400, 'invalid_request_error', 'A canceled subscription can only update its cancellation_details and metadata.');
       const item = sub.items.data.find((i) => i.id === itemId);
       if (!item) throw resourceMissing('subscription_item', itemId);
       const price = state.prices.get(priceId);

@@ -7,10 +7,7 @@ const money = (amount: number, currency: string) => `${(amount / 100).toFixed(2)
 
 /** The page frame: plain, clearly marked as a local test stand-in, no scripts. */
 function page(res: Response, title: string, body: string, status = 200): void {
-  res
-    .status(status)
-    .type('html')
-    .send(`<!doctype html><html lang="en"><head><meta charset="utf-8"><title>${esc(title)} · payment stand-in</title>
+  res.status(status).type('html').send(`<!doctype html><html lang="en"><head><meta charset="utf-8"><title>${esc(title)} · payment stand-in</title>
 <style>
 body{font:15px/1.5 system-ui,sans-serif;background:#f3f1ea;color:#1d2a22;margin:0}
 main{max-width:34rem;margin:3rem auto;background:#fff;border:2px dashed #7a8f55;border-radius:6px;padding:1.5rem 2rem}
@@ -42,7 +39,8 @@ export function createHostedPagesRouter(state: StandInState, actions: BillingAct
   const checkoutPage = (res: Response, id: string, error?: string) => {
     const session = state.checkoutSessions.get(id);
     if (!session) return page(res, 'Not found', '<h1>This checkout link is not valid.</h1>', 404);
-    if (session.status !== 'open') return page(res, 'Done', `<h1>This checkout is complete.</h1><p><a href="${esc(session.success_url)}">Back to Lagbook</a></p>`);
+    if (session.status !== 'open')
+      return page(res, 'Done', `<h1>This checkout is complete.</h1><p><a href="${esc(session.success_url)}">Back to Lagbook</a></p>`);
     const price = state.prices.get(session.line_price)!;
     const product = state.products.get(price.product)!;
     const customer = state.customers.get(session.customer);

@@ -14,7 +14,15 @@ export function createPortalRouter(state: StandInState, baseUrl: () => string): 
     if (!customer) throw parameterInvalid('customer', 'Missing required param: customer.');
     if (!state.customers.has(customer)) throw resourceMissing('customer', customer);
     const id = stripeId('bps');
-    const session: StripePortalSession = { id, object: 'billing_portal.session', created: unixNow(), livemode: false, customer, return_url: optionalString(params, 'return_url') ?? null, url: `${baseUrl()}/portal/${id}` };
+    const session: StripePortalSession = {
+      id,
+      object: 'billing_portal.session',
+      created: unixNow(),
+      livemode: false,
+      customer,
+      return_url: optionalString(params, 'return_url') ?? null,
+      url: `${baseUrl()}/portal/${id}`,
+    };
     state.portalSessions.set(id, session);
     res.json(session);
   });

@@ -91,7 +91,12 @@ export interface StripeSubscription {
   metadata: Record<string, string>;
   cancel_at_period_end: boolean;
   canceled_at: number | null;
-  items: { object: 'list'; data: Array<{ id: string; object: 'subscription_item'; price: StripePrice; quantity: number; current_period_start: number; current_period_end: number }>; has_more: false; url: string };
+  items: {
+    object: 'list';
+    data: Array<{ id: string; object: 'subscription_item'; price: StripePrice; quantity: number; current_period_start: number; current_period_end: number }>;
+    has_more: false;
+    url: string;
+  };
 }
 
 /** An invoice of a subscription (the subset of Stripe's Invoice object Lagbook reads). */

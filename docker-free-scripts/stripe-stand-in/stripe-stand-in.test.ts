@@ -112,7 +112,9 @@ describe('Stripe stand-in', () => {
 
   it('answers a live or malformed key with StripeAuthenticationError', async () => {
     for (const key of ['sk_live_realkey', 'not-a-key']) {
-      const failure = await sdk(key).customers.create({}).catch((error: unknown) => error);
+      const failure = await sdk(key)
+        .customers.create({})
+        .catch((error: unknown) => error);
       expect(failure).toBeInstanceOf(Stripe.errors.StripeAuthenticationError);
       expect((failure as Stripe.errors.StripeError).statusCode).toBe(401);
     }
@@ -264,7 +266,9 @@ describe('Stripe stand-in: checkout, portal, subscriptions, invoices and signed 
     expect((await client.invoices.list({ customer: customer.id })).data).toHaveLength(1);
     await expect(client.subscriptions.update(sub.id, { items: [{ id: 'si_missing', price: other.id }] })).rejects.toMatchObject({ code: 'resource_missing' });
     await client.subscriptions.cancel(sub.id);
-    await expect(client.subscriptions.update(sub.id, { items: [{ id: sub.items.data[0].id, price: other.id }] })).rejects.toMatchObject({ type: 'StripeInvalidRequestError' });
+    await expect(client.subscriptions.update(sub.id, { items: [{ id: sub.items.data[0].id, price: other.id }] })).rejects.toMatchObject({
+      type: 'StripeInvalidRequestError',
+    });
   });
 
   it('refuses a checkout for an unknown price or customer the way Stripe does', async () => {

@@ -83,7 +83,13 @@ export async function startStripeStandIn(opts: StripeStandInOptions): Promise<Ru
   app.use('/v1/subscriptions', createSubscriptionsRouter(state, actions));
   app.use('/v1/invoices', createInvoicesRouter(state));
   app.use('/v1', (req, _res, next) => {
-    next(new StripeApiError(404, 'invalid_request_error', `Unrecognized request URL (${req.method}: ${req.originalUrl}). The Stripe stand-in does not implement it yet.`));
+    next(
+      new StripeApiError(
+        404,
+        'invalid_request_error',
+        `Unrecognized request URL (${req.method}: ${req.originalUrl}). The Stripe stand-in does not implement it yet.`,
+      ),
+    );
   });
   app.use(createHostedPagesRouter(state, actions));
   app.use(renderStripeError);

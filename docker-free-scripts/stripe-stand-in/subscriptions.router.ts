@@ -28,10 +28,13 @@ export function createSubscriptionsRouter(state: StandInState, actions: BillingA
     const params: StripeParams = req.body ?? {};
     rejectUnknownParams(params, ['items', 'proration_behavior', 'metadata', 'expand']);
     const behaviour = optionalString(params, 'proration_behavior');
-    if (behaviour !== undefined && behaviour !== 'create_prorations') throw parameterInvalid('proration_behavior', 'The stand-in supports proration_behavior=create_prorations only.');
+    if (behaviour !== undefined && behaviour !== 'create_prorations')
+      throw parameterInvalid('proration_behavior', 'The stand-in supports proration_behavior=create_prorations only.');
     const items = params.items;
-    const first = (Array.isArray(items) ? items[0] : items && typeof items === 'object' ? Object.values(items)[0] : undefined) as Record<string, unknown> | undefined;
-    if (typeof first?.id !== 'string' || typeof first?.price !== 'string') throw parameterInvalid('items', 'The stand-in takes exactly items[0][id] and items[0][price].');
+    const first = (Array.isArray(items) ? items[0] : items && typeof items === 'object' ? Object.values(items)[0] : undefined) as
+      Record<string, unknown> | undefined;
+    if (typeof first?.id !== 'string' || typeof first?.price !== 'string')
+      throw parameterInvalid('items', 'The stand-in takes exactly items[0][id] and items[0][price].');
     res.json(actions.changePrice(req.params.id, first.id, first.price, optionalMetadata(params)));
   });
   router.delete('/:id', (req, res) => {

@@ -54,7 +54,12 @@ export function createWebhookSender(target: WebhookTarget | undefined, opts: { b
       const header = signer.webhooks.generateTestHeaderString({ payload, secret: target.secret });
       let status: WebhookDelivery['status'];
       try {
-        const res = await fetch(target.url, { method: 'POST', headers: { 'Content-Type': 'application/json', 'Stripe-Signature': header }, body: payload, signal: AbortSignal.timeout(10_000) });
+        const res = await fetch(target.url, {
+          method: 'POST',
+          headers: { 'Content-Type': 'application/json', 'Stripe-Signature': header },
+          body: payload,
+          signal: AbortSignal.timeout(10_000),
+        });
         await res.arrayBuffer();
         status = res.status;
       } catch {

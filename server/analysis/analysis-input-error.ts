@@ -22,9 +22,7 @@ export function toFloat64(x: Series, fn: string, minLength = 1): Float64Array {
     throw new AnalysisInputError(`${fn}: the series must be an array of numbers`);
   }
   if (x.length < minLength) {
-    throw new AnalysisInputError(
-      `${fn} requires at least ${minLength} data point${minLength === 1 ? '' : 's'} (got ${x.length})`,
-    );
+    throw new AnalysisInputError(`${fn} requires at least ${minLength} data point${minLength === 1 ? '' : 's'} (got ${x.length})`);
   }
   return Float64Array.from(x as ArrayLike<number>);
 }

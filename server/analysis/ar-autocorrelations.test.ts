@@ -3,7 +3,10 @@ import { arAutocorrelations } from './ar-autocorrelations.ts';
 
 describe('arAutocorrelations', () => {
   it("continues an AR(2) as R's ARMAacf(ar = c(0.5, 0.3), lag.max = 8) (R 4.2.2)", () => {
-    const expected = [1, 0.7142857142857143, 0.65714285714285714, 0.54285714285714282, 0.46857142857142853, 0.39714285714285713, 0.33914285714285708, 0.2887142857142857, 0.24609999999999999];
+    const expected = [
+      1, 0.7142857142857143, 0.65714285714285714, 0.54285714285714282, 0.46857142857142853, 0.39714285714285713, 0.33914285714285708, 0.2887142857142857,
+      0.24609999999999999,
+    ];
     const rho = arAutocorrelations([0.5, 0.3], [expected[1], expected[2]], 8);
     expected.forEach((v, h) => expect(rho[h]).toBeCloseTo(v, 12));
   });

@@ -46,13 +46,7 @@ export function arYuleWalker(x: Series, options: ArYuleWalkerOptions = {}): ArYu
   const fn = 'arYuleWalker';
   const { n, sum } = presentValues(x, fn);
   if (n < 3) throw new AnalysisInputError(`${fn} requires at least 3 data points (got ${n})`);
-  const maxOrder = integerOption(
-    fn,
-    'maxOrder',
-    options.maxOrder ?? Math.min(n - 1, Math.floor(10 * Math.log10(n))),
-    1,
-    Math.min(n - 2, x.length - 1),
-  );
+  const maxOrder = integerOption(fn, 'maxOrder', options.maxOrder ?? Math.min(n - 1, Math.floor(10 * Math.log10(n))), 1, Math.min(n - 2, x.length - 1));
   const gamma = autocorrelation(x, { maxLag: maxOrder, type: 'covariance' });
   if (gamma[0] === 0) throw new AnalysisInputError(`${fn}: the series is constant, so no model can be fitted`);
   const { coefficients, variances } = durbinLevinson(gamma, maxOrder);

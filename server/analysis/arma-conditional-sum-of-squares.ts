@@ -11,11 +11,7 @@
  * as zero in later MA terms. Returns Infinity when no residual is left.
  * Allocation-free per evaluation. Cost: O(n·(p + q)).
  */
-export function armaConditionalSumOfSquares(
-  y: Float64Array,
-  p: number,
-  q: number,
-): (phi: ArrayLike<number>, theta: ArrayLike<number>, mean: number) => number {
+export function armaConditionalSumOfSquares(y: Float64Array, p: number, q: number): (phi: ArrayLike<number>, theta: ArrayLike<number>, mean: number) => number {
   const n = y.length;
   const resid = new Float64Array(n);
   return (phi, theta, mean) => {

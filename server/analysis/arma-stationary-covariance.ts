@@ -15,13 +15,7 @@ import { armaLinearSolve } from './arma-linear-solve.ts';
  * and returns true; returns false when the system is singular (an AR root on the unit circle).
  * `work` must hold r⁴ doubles. Cost: O(r⁶), r ≤ 6 here.
  */
-export function armaStationaryCovariance(
-  phi: ArrayLike<number>,
-  theta: ArrayLike<number>,
-  r: number,
-  out: Float64Array,
-  work: Float64Array,
-): boolean {
+export function armaStationaryCovariance(phi: ArrayLike<number>, theta: ArrayLike<number>, r: number, out: Float64Array, work: Float64Array): boolean {
   const m = r * r;
   const p = phi.length;
   const q = theta.length;

@@ -50,7 +50,8 @@ describe('dickeyFullerCrossProducts', () => {
           };
           for (let i = 0; i < k; i++) {
             expect(columns[i]).toHaveLength(y.length);
-            for (let j = 0; j < k; j++) expect(Math.abs(gram[i * k + j] - direct(columns[i], columns[j]))).toBeLessThanOrEqual(1e-12 * (scale(columns[i], columns[j]) + 1));
+            for (let j = 0; j < k; j++)
+              expect(Math.abs(gram[i * k + j] - direct(columns[i], columns[j]))).toBeLessThanOrEqual(1e-12 * (scale(columns[i], columns[j]) + 1));
             expect(Math.abs(xty[i] - direct(columns[i], y))).toBeLessThanOrEqual(1e-12 * (scale(columns[i], y) + 1));
           }
           expect(Math.abs(yty - direct(y as Float64Array, y))).toBeLessThanOrEqual(1e-12 * (yty + 1));

@@ -21,7 +21,8 @@ import { fftOfSize } from './fft-of-size.ts';
 export function autocorrelationFromPeriodogram(power: Float64Array, size: number, zeroPower: number, n: number, maxLag: number): Float64Array {
   let grid = size;
   while (grid % 2 === 0 && grid / 2 >= n + maxLag && grid / 2 >= 4) grid /= 2;
-  if (grid < n + maxLag || maxLag > grid / 2) throw new RangeError(`autocorrelationFromPeriodogram: a grid of ${size} is too short for ${n} values and ${maxLag} lags`);
+  if (grid < n + maxLag || maxLag > grid / 2)
+    throw new RangeError(`autocorrelationFromPeriodogram: a grid of ${size} is too short for ${n} values and ${maxLag} lags`);
   const stride = size / grid;
   const half = grid >> 1;
   const even = new Float64Array(grid);

@@ -6,9 +6,7 @@ import { partialAutocorrelation } from './partial-autocorrelation.ts';
 import { simulateArma } from './seeded-simulation.testkit.ts';
 
 const finiteSeries = (minLength: number) =>
-  fc
-    .array(fc.double({ min: -1e3, max: 1e3, noNaN: true }), { minLength, maxLength: 300 })
-    .filter((xs) => Math.max(...xs) - Math.min(...xs) > 1e-6);
+  fc.array(fc.double({ min: -1e3, max: 1e3, noNaN: true }), { minLength, maxLength: 300 }).filter((xs) => Math.max(...xs) - Math.min(...xs) > 1e-6);
 
 describe('autocorrelation', () => {
   it('matches a hand computation of eqs. 2.1.12–2.1.13 (Box, Jenkins & Reinsel)', () => {
@@ -45,24 +43,20 @@ describe('autocorrelation', () => {
 
   it('property: the FFT path agrees with the direct sum to 1e-12, with and without gaps', () => {
     fc.assert(
-      fc.property(
-        finiteSeries(2),
-        fc.array(fc.nat(), { maxLength: 20 }),
-        (xs, holes) => {
-          const x = [...xs];
-          for (const h of holes) if (x.length > 2) x[h % x.length] = NaN;
-          if (x.filter((v) => !Number.isNaN(v)).length < 2) return;
-          const present = x.filter((v) => !Number.isNaN(v));
-          if (Math.max(...present) - Math.min(...present) <= 1e-6) return;
-          const maxLag = Math.min(x.length - 1, 90);
-          const direct = autocorrelation(x, { maxLag, method: 'direct' });
-          const viaFft = autocorrelation(x, { maxLag, method: 'fft' });
-          for (let k = 0; k <= maxLag; k++) {
-            if (Number.isNaN(direct[k])) expect(Number.isNaN(viaFft[k])).toBe(true);
-            else expect(Math.abs(direct[k] - viaFft[k])).toBeLessThan(1e-12);
-          }
-        },
-      ),
+      fc.property(finiteSeries(2), fc.array(fc.nat(), { maxLength: 20 }), (xs, holes) => {
+        const x = [...xs];
+        for (const h of holes) if (x.length > 2) x[h % x.length] = NaN;
+        if (x.filter((v) => !Number.isNaN(v)).length < 2) return;
+        const present = x.filter((v) => !Number.isNaN(v));
+        if (Math.max(...present) - Math.min(...present) <= 1e-6) return;
+        const maxLag = Math.min(x.length - 1, 90);
+        const direct = autocorrelation(x, { maxLag, method: 'direct' });
+        const viaFft = autocorrelation(x, { maxLag, method: 'fft' });
+        for (let k = 0; k <= maxLag; k++) {
+          if (Number.isNaN(direct[k])) expect(Number.isNaN(viaFft[k])).toBe(true);
+          else expect(Math.abs(direct[k] - viaFft[k])).toBeLessThan(1e-12);
+        }
+      }),
       { numRuns: 150 },
     );
   });

@@ -81,14 +81,18 @@ describe('channelDiagnostics: cross-correlation in R’s sign convention', () =>
     const ref = find(R.ccf, (c) => c.x === 'LakeHuron.1875to1970');
     const lake = R.series['LakeHuron.1875to1970'] as number[];
     const nile = R.series['Nile.1875to1970'] as number[];
-    const out = channelDiagnostics(asReadings(lake), {
-      step: HOUR,
-      agg: 'mean',
-      period: 'none',
-      decomposition: 'none',
-      ccfMaxLag: 12,
-      labels: { channel: 'Lake level', partner: 'River flow' },
-    }, asReadings(nile));
+    const out = channelDiagnostics(
+      asReadings(lake),
+      {
+        step: HOUR,
+        agg: 'mean',
+        period: 'none',
+        decomposition: 'none',
+        ccfMaxLag: 12,
+        labels: { channel: 'Lake level', partner: 'River flow' },
+      },
+      asReadings(nile),
+    );
     const cross = out.crossCorrelation!;
     expect(Array.from(cross.raw.lags)).toEqual(ref.lags);
     expectAllClose(cross.raw.values, ref.values, 1e-10);
@@ -108,7 +112,11 @@ describe('channelDiagnostics: cross-correlation in R’s sign convention', () =>
   it('a channel that repeats another 3 steps later peaks at lag +3 beyond the simultaneous band (follows from the definition cor(x[t+k], y[t]))', () => {
     const base = R.series['sunspot.year'].slice(0, 200) as number[];
     const late = base.map((_, i) => (i >= 3 ? base[i - 3] : base[0]));
-    const out = channelDiagnostics(asReadings(late, 600_000), { step: 600_000, agg: 'mean', period: 'none', decomposition: 'none', labels: { channel: 'B', partner: 'A' } }, asReadings(base, 600_000));
+    const out = channelDiagnostics(
+      asReadings(late, 600_000),
+      { step: 600_000, agg: 'mean', period: 'none', decomposition: 'none', labels: { channel: 'B', partner: 'A' } },
+      asReadings(base, 600_000),
+    );
     expect(out.crossCorrelation!.strongest).toMatchObject({ lag: 3, lagMs: 1_800_000, significant: true });
     expect(out.crossCorrelation!.explanation).toContain('B follows A by about 30 min, and the two move in the same direction');
   });
@@ -119,7 +127,11 @@ describe('channelDiagnostics: cross-correlation in R’s sign convention', () =>
     for (let seed = 1; seed <= 6; seed++) {
       const a = simulateArma({ ar: [0.9] }, 1000, 100 + seed);
       const b = simulateArma({ ar: [0.9] }, 1000, 200 + seed);
-      const out = channelDiagnostics(asReadings(Array.from(a), 600_000), { step: 600_000, agg: 'mean', period: 'none', decomposition: 'none' }, asReadings(Array.from(b), 600_000));
+      const out = channelDiagnostics(
+        asReadings(Array.from(a), 600_000),
+        { step: 600_000, agg: 'mean', period: 'none', decomposition: 'none' },
+        asReadings(Array.from(b), 600_000),
+      );
       if (out.crossCorrelation!.raw.strongest!.significant) claimedRaw++;
       if (out.crossCorrelation!.strongest!.significant) claimedWhite++;
     }
@@ -136,7 +148,11 @@ describe('channelDiagnostics: cross-correlation in R’s sign convention', () =>
   it('differences both channels alike before the CCF', () => {
     const x = R.series.mdeaths as number[];
     const y = R.series.fdeaths as number[];
-    const out = channelDiagnostics(asReadings(x), { step: HOUR, agg: 'mean', difference: 1, period: 'none', decomposition: 'none', ccfMaxLag: 5 }, asReadings(y));
+    const out = channelDiagnostics(
+      asReadings(x),
+      { step: HOUR, agg: 'mean', difference: 1, period: 'none', decomposition: 'none', ccfMaxLag: 5 },
+      asReadings(y),
+    );
     const dx = x.slice(1).map((v, i) => v - x[i]);
     const dy = y.slice(1).map((v, i) => v - y[i]);
     expect(Array.from(out.crossCorrelation!.raw.values)).toEqual(Array.from(ccf(dx, dy, { maxLag: 5 }).values));
@@ -228,7 +244,15 @@ describe('channelDiagnostics: gaps, differencing and bad input', () => {
 
   it('runs the correlation analysis on the differenced series', () => {
     const sun: number[] = R.series['sunspot.year'];
-    const out = channelDiagnostics(asReadings(sun), { step: HOUR, agg: 'mean', difference: 1, period: 11, seasonalDifference: 1, decomposition: 'none', maxLag: 30 });
+    const out = channelDiagnostics(asReadings(sun), {
+      step: HOUR,
+      agg: 'mean',
+      difference: 1,
+      period: 11,
+      seasonalDifference: 1,
+      decomposition: 'none',
+      maxLag: 30,
+    });
     const d1 = sun.slice(1).map((v, i) => v - sun[i]);
     const d11 = d1.slice(11).map((v, i) => v - d1[i]);
     expect(out.analysed.n).toBe(sun.length - 12);
@@ -255,6 +279,8 @@ describe('channelDiagnostics: gaps, differencing and bad input', () => {
     expect(() => channelDiagnostics(lh, { step: HOUR, agg: 'mean', period: 30 })).toThrow(
       'channelDiagnostics: period must be a whole number of steps from 2 to 24 for 48 cells (got 30)',
     );
-    expect(() => channelDiagnostics({ timestamps: [], values: [] }, { step: HOUR, agg: 'mean' })).toThrow('regularize requires at least 1 reading with a value (got 0)');
+    expect(() => channelDiagnostics({ timestamps: [], values: [] }, { step: HOUR, agg: 'mean' })).toThrow(
+      'regularize requires at least 1 reading with a value (got 0)',
+    );
   });
 });

@@ -250,7 +250,13 @@ export function defaultCcfMaxLag(n: number, stepMs: number): number {
 }
 
 /** Plain sentence of a CCF outcome (R's sign convention: a positive lag means the channel follows its partner). */
-function ccfSentence(strongest: CcfStrongest | null, bandText: string, method: 'prewhitened' | 'raw', labels: { channel: string; partner: string }, arOrder: number | null): string {
+function ccfSentence(
+  strongest: CcfStrongest | null,
+  bandText: string,
+  method: 'prewhitened' | 'raw',
+  labels: { channel: string; partner: string },
+  arOrder: number | null,
+): string {
   const how =
     method === 'prewhitened'
       ? `After both channels were filtered by the AR(${arOrder}) model of ${labels.partner} (prewhitening, so that each channel's own persistence cannot pass for a relation)`
@@ -349,7 +355,16 @@ function decompositionOf(
   if (period === null) return { method: 'none', reason: 'no seasonal period was given or detected, so there is nothing to decompose by' };
   if (method === 'classical') {
     const c = decomposeClassical(grid, { period, type: 'additive' });
-    return { method, period, stl: null, trend: c.trend, seasonal: c.seasonal, remainder: c.remainder, weights: null, outliers: remainderOutliers(c.remainder, threshold) };
+    return {
+      method,
+      period,
+      stl: null,
+      trend: c.trend,
+      seasonal: c.seasonal,
+      remainder: c.remainder,
+      weights: null,
+      outliers: remainderOutliers(c.remainder, threshold),
+    };
   }
   const options = { period, seasonalWindow, robust: method === 'stl-robust' };
   const settings = stlParameters(filled.length, options);
@@ -412,7 +427,9 @@ export function channelDiagnostics(readings: ChannelReadings, options: ChannelDi
   let source: 'manual' | 'detected' | 'none';
   if (typeof requested === 'number') {
     if (!Number.isInteger(requested) || requested < 2 || requested > Math.floor(n / 2)) {
-      throw new AnalysisInputError(`channelDiagnostics: period must be a whole number of steps from 2 to ${Math.floor(n / 2)} for ${n} cells (got ${requested})`);
+      throw new AnalysisInputError(
+        `channelDiagnostics: period must be a whole number of steps from 2 to ${Math.floor(n / 2)} for ${n} cells (got ${requested})`,
+      );
     }
     [period, source] = [requested, 'manual'];
   } else if (requested === 'auto') {
@@ -459,7 +476,14 @@ export function channelDiagnostics(readings: ChannelReadings, options: ChannelDi
   if (partner) {
     const other = regularize(partner.timestamps, partner.values, { step: options.step, agg: options.agg });
     const y = differenced(alignTo(other, reg.start, n), d, D, period);
-    cross = crossCorrelationOf(analysed, y, options.step, alpha, options.ccfMaxLag, options.labels ?? { channel: 'this channel', partner: 'the other channel' });
+    cross = crossCorrelationOf(
+      analysed,
+      y,
+      options.step,
+      alpha,
+      options.ccfMaxLag,
+      options.labels ?? { channel: 'this channel', partner: 'the other channel' },
+    );
   }
 
   let trend: TrendOutcome;

@@ -56,7 +56,9 @@ describe('compareMeans', () => {
   it('cautions when a range is shorter than 10 autocorrelation times (n_eff < 10)', () => {
     const r = compareMeans(simulateArma({ ar: [0.95] }, 60, 3), simulateArma({}, 400, 4));
     expect(r.a.nEff).toBeLessThan(10);
-    expect(r.caution).toMatch(/^range a holds about \d+\.\d independent readings \(n = 60, autocorrelation time \d+\.\d steps\): shorter than 10 autocorrelation times/);
+    expect(r.caution).toMatch(
+      /^range a holds about \d+\.\d independent readings \(n = 60, autocorrelation time \d+\.\d steps\): shorter than 10 autocorrelation times/,
+    );
     expect(r.caution).not.toMatch(/range b/);
   });
 
@@ -76,7 +78,10 @@ describe('compareMeans', () => {
         const a = simulateArma({ ar: [0.7] }, 120, seed);
         const b = simulateArma({ ar: [0.7] }, 90, seed + 1);
         const r = compareMeans(a, b);
-        const s = compareMeans(a, b.map((v) => v + delta));
+        const s = compareMeans(
+          a,
+          b.map((v) => v + delta),
+        );
         const tol = 1e-9 * (1 + Math.abs(delta));
         expect(Math.abs(s.difference - r.difference - delta)).toBeLessThanOrEqual(tol);
         for (const k of ['effective', 'welch'] as const) {

@@ -23,9 +23,7 @@ function oneSide(lead: MaskedSeries, base: MaskedSeries, maxLag: number): Float6
   const n = lead.values.length;
   const sums = laggedProducts(lead.values, base.values, maxLag);
   const pairs =
-    lead.present || base.present
-      ? laggedProducts(lead.present ?? new Float64Array(n).fill(1), base.present ?? new Float64Array(n).fill(1), maxLag)
-      : null;
+    lead.present || base.present ? laggedProducts(lead.present ?? new Float64Array(n).fill(1), base.present ?? new Float64Array(n).fill(1), maxLag) : null;
   const out = new Float64Array(maxLag + 1);
   for (let k = 0; k <= maxLag; k++) {
     const complete = pairs ? Math.round(pairs[k]) : n - k;

@@ -32,8 +32,16 @@ describe('decomposeClassical worked examples', () => {
     const trend = x.map((_, t) => (t >= 2 && t <= 9 ? t : NaN));
     expectClose(r.trend, trend, 1e-12);
     expectClose(r.figure, s, 1e-12);
-    expectClose(r.seasonal, x.map((_, t) => s[t % 4]), 1e-12);
-    expectClose(r.remainder, trend.map((v) => (Number.isNaN(v) ? NaN : 0)), 1e-12);
+    expectClose(
+      r.seasonal,
+      x.map((_, t) => s[t % 4]),
+      1e-12,
+    );
+    expectClose(
+      r.remainder,
+      trend.map((v) => (Number.isNaN(v) ? NaN : 0)),
+      1e-12,
+    );
   });
 
   // Odd period 3: a plain 3-term mean; x_t = 5 + 0.5 t + s_(t mod 3) with s = (1, 0, −1).
@@ -41,7 +49,11 @@ describe('decomposeClassical worked examples', () => {
     const s = [1, 0, -1];
     const x = Array.from({ length: 9 }, (_, t) => 5 + 0.5 * t + s[t % 3]);
     const r = decomposeClassical(x, { period: 3, type: 'additive' });
-    expectClose(r.trend, x.map((_, t) => (t >= 1 && t <= 7 ? 5 + 0.5 * t : NaN)), 1e-12);
+    expectClose(
+      r.trend,
+      x.map((_, t) => (t >= 1 && t <= 7 ? 5 + 0.5 * t : NaN)),
+      1e-12,
+    );
     expectClose(r.figure, s, 1e-12);
   });
 
@@ -51,9 +63,17 @@ describe('decomposeClassical worked examples', () => {
     const m = [1.2, 0.9, 1.1, 0.8];
     const x = Array.from({ length: 16 }, (_, t) => 40 * m[t % 4]);
     const r = decomposeClassical(x, { period: 4, type: 'multiplicative' });
-    expectClose(r.trend, x.map((_, t) => (t >= 2 && t <= 13 ? 40 : NaN)), 1e-12);
+    expectClose(
+      r.trend,
+      x.map((_, t) => (t >= 2 && t <= 13 ? 40 : NaN)),
+      1e-12,
+    );
     expectClose(r.figure, m, 1e-12);
-    expectClose(r.remainder, x.map((_, t) => (t >= 2 && t <= 13 ? 1 : NaN)), 1e-12);
+    expectClose(
+      r.remainder,
+      x.map((_, t) => (t >= 2 && t <= 13 ? 1 : NaN)),
+      1e-12,
+    );
   });
 
   // The figure is counted from the first observation (as R's decompose does), whatever the
@@ -147,7 +167,11 @@ describe('decomposeClassical input errors', () => {
       () => decomposeClassical(new Array(30).fill(1), { period: 24, type: 'additive' }),
       'decomposeClassical requires at least two full periods (got 30 values for period 24)',
     ],
-    ['empty series', () => decomposeClassical([], { period: 12, type: 'additive' }), 'decomposeClassical requires at least two full periods (got 0 values for period 12)'],
+    [
+      'empty series',
+      () => decomposeClassical([], { period: 12, type: 'additive' }),
+      'decomposeClassical requires at least two full periods (got 0 values for period 12)',
+    ],
     [
       'too few present values',
       () => decomposeClassical([1, NaN, 2, 3, NaN, 4, 5], { period: 3, type: 'additive' }),

@@ -45,9 +45,7 @@ export function decomposeClassical(x: Series, options: ClassicalDecompositionOpt
     throw new AnalysisInputError(`decomposeClassical: period must be a whole number (got ${period})`);
   }
   if (type !== 'additive' && type !== 'multiplicative') {
-    throw new AnalysisInputError(
-      `decomposeClassical: type must be 'additive' or 'multiplicative' (got ${String(type)})`,
-    );
+    throw new AnalysisInputError(`decomposeClassical: type must be 'additive' or 'multiplicative' (got ${String(type)})`);
   }
   const n = y.length;
   let present = 0;
@@ -58,17 +56,13 @@ export function decomposeClassical(x: Series, options: ClassicalDecompositionOpt
       throw new AnalysisInputError(`decomposeClassical: values must be finite or NaN (got ${v} at index ${i})`);
     }
     if (type === 'multiplicative' && v <= 0) {
-      throw new AnalysisInputError(
-        `decomposeClassical: the multiplicative model needs positive values (got ${v} at index ${i})`,
-      );
+      throw new AnalysisInputError(`decomposeClassical: the multiplicative model needs positive values (got ${v} at index ${i})`);
     }
     present++;
   }
   if (present < 2 * period) {
     const what = present === n ? 'values' : 'non-missing values';
-    throw new AnalysisInputError(
-      `decomposeClassical requires at least two full periods (got ${present} ${what} for period ${period})`,
-    );
+    throw new AnalysisInputError(`decomposeClassical requires at least two full periods (got ${present} ${what} for period ${period})`);
   }
 
   const multiplicative = type === 'multiplicative';

@@ -39,11 +39,17 @@ describe('detectPeriod on simulated logger series (issue #16 targets)', () => {
   it('persistent series without a cycle get no period in ≥ 98 %: AR(1) with φ up to 0.98 and storm-driven levels', () => {
     // Two weeks of 5-minute steps (n = 4,032), 100 replicates each.
     for (const phi of [0.5, 0.9, 0.95, 0.98]) {
-      expect(hits(100, 5, (seed) => ar1Noise(14 * 288, phi, 1, seededNormal(seed)), null), `AR(1) φ = ${phi}`).toBeGreaterThanOrEqual(98);
+      expect(
+        hits(100, 5, (seed) => ar1Noise(14 * 288, phi, 1, seededNormal(seed)), null),
+        `AR(1) φ = ${phi}`,
+      ).toBeGreaterThanOrEqual(98);
     }
     // Storms at 0.0015 per step decaying over 20 h on a receding base level, plus AR(1) noise; 7, 14 and 30 days.
     for (const days of [7, 14, 30]) {
-      expect(hits(100, 5, (seed) => stormLevel(days * 288, 5, seed), null), `storms over ${days} days`).toBeGreaterThanOrEqual(98);
+      expect(
+        hits(100, 5, (seed) => stormLevel(days * 288, 5, seed), null),
+        `storms over ${days} days`,
+      ).toBeGreaterThanOrEqual(98);
     }
   }, 60_000);
 

@@ -378,7 +378,7 @@ export function detectPeriod(x: Series, options: DetectPeriodOptions = {}): Dete
     const rho = arAutocorrelations(b.coefficients, b.start, period);
     let squares = 0;
     for (let k = 1; k < period; k++) squares += rho[k] * rho[k];
-    return { rho: rho[period], band: (band * Math.sqrt(1 + 2 * squares)) };
+    return { rho: rho[period], band: band * Math.sqrt(1 + 2 * squares) };
   };
   /**
    * The background level at f: the AR spectrum, unless the periodogram around f (±LOCAL_BINS
@@ -430,7 +430,16 @@ export function detectPeriod(x: Series, options: DetectPeriodOptions = {}): Dete
       if (top < 0 || power[i] > power[top]) top = i;
     }
     const exactPeriod = top < 0 ? c.steps : 1 / refinedFrequency(power, size, top);
-    drafts.push({ period: c.steps, exactPeriod, calendar: c.name, peakRatio, pFamily: maxExponentialPValue(peakRatio, calendars.length), background, how: 'calendar', scale });
+    drafts.push({
+      period: c.steps,
+      exactPeriod,
+      calendar: c.name,
+      peakRatio,
+      pFamily: maxExponentialPValue(peakRatio, calendars.length),
+      background,
+      how: 'calendar',
+      scale,
+    });
   }
 
   for (const i of peaks) {

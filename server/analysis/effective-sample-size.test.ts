@@ -41,4 +41,3 @@ describe('effectiveSampleSize', () => {
     expect(own.lagsUsed).toBeGreaterThan(3);
   });
 });
-

@@ -38,14 +38,29 @@ const calls: [string, (x: ArrayLike<number>) => unknown][] = [
   ['ccf', (x) => ccf(x, Array.from(x).reverse(), { maxLag: 70 })],
   ['arYuleWalker', (x) => arYuleWalker(x)],
   ['difference', (x) => difference(x, { lag: 2, order: 2 })],
-  ['regularize', (x) => regularize(Array.from(x, (_, i) => (i * 7919) % 400), x, { step: 3, agg: 'median' })],
+  [
+    'regularize',
+    (x) =>
+      regularize(
+        Array.from(x, (_, i) => (i * 7919) % 400),
+        x,
+        { step: 3, agg: 'median' },
+      ),
+  ],
   ['detectPeriod', (x) => detectPeriod(x)],
   ['periodogram', (x) => periodogram(x)],
   ['effectiveSampleSize', (x) => effectiveSampleSize(x)],
   ['identifyProcess', (x) => identifyProcess(x)],
   ['adf', (x) => adf(Array.from(x).filter((v) => !Number.isNaN(v)))],
   ['decomposeClassical', (x) => decomposeClassical(x, { period: 12, type: 'additive' })],
-  ['stl', (x) => stl(Array.from(x).filter((v) => !Number.isNaN(v)), { period: 12, seasonalWindow: 7, robust: true })],
+  [
+    'stl',
+    (x) =>
+      stl(
+        Array.from(x).filter((v) => !Number.isNaN(v)),
+        { period: 12, seasonalWindow: 7, robust: true },
+      ),
+  ],
 ];
 
 describe('inputs are never mutated', () => {
@@ -86,9 +101,21 @@ describe('empty and short inputs fail with exact messages', () => {
     ['adf', () => adf([1, 2, 3]), 'augmentedDickeyFuller requires at least 10 data points (got 3)'],
     ['stl short', () => stl(new Array(30).fill(1), { period: 24, seasonalWindow: 7 }), 'stl requires at least two full periods (got 30 values for period 24)'],
     ['stl period', () => stl([1, 2, 3, 4], { period: 1, seasonalWindow: 'periodic' }), 'stl: period must be at least 2 (got 1)'],
-    ['stl gap', () => stl([1, 2, NaN, 4, 5, 6], { period: 2, seasonalWindow: 'periodic' }), 'stl: the series must be complete (got NaN at index 2); fill or cut gaps first'],
-    ['decomposeClassical period', () => decomposeClassical([1, 2, 3], { period: 1, type: 'additive' }), 'decomposeClassical: period must be at least 2 (got 1)'],
-    ['decomposeClassical type', () => decomposeClassical([1, 2, 3, 4], { period: 2, type: 'both' as never }), "decomposeClassical: type must be 'additive' or 'multiplicative' (got both)"],
+    [
+      'stl gap',
+      () => stl([1, 2, NaN, 4, 5, 6], { period: 2, seasonalWindow: 'periodic' }),
+      'stl: the series must be complete (got NaN at index 2); fill or cut gaps first',
+    ],
+    [
+      'decomposeClassical period',
+      () => decomposeClassical([1, 2, 3], { period: 1, type: 'additive' }),
+      'decomposeClassical: period must be at least 2 (got 1)',
+    ],
+    [
+      'decomposeClassical type',
+      () => decomposeClassical([1, 2, 3, 4], { period: 2, type: 'both' as never }),
+      "decomposeClassical: type must be 'additive' or 'multiplicative' (got both)",
+    ],
   ];
   for (const [label, call, message] of cases) {
     it(label, () => {

@@ -7,10 +7,13 @@ import { fitArma } from './fit-arma.ts';
 import { simulateArma } from './seeded-simulation.testkit.ts';
 
 // datasets::lh (R 4.2.2), 48 values.
-const LH = [2.4, 2.4, 2.4, 2.2, 2.1, 1.5, 2.3, 2.3, 2.5, 2, 1.9, 1.7, 2.2, 1.8, 3.2, 3.2, 2.7, 2.2, 2.2, 1.9, 1.9, 1.8, 2.7, 3, 2.3, 2, 2, 2.9, 2.9, 2.7, 2.7, 2.3, 2.6, 2.4, 1.8, 1.7, 1.5, 1.4, 2.1, 3.3, 3.5, 3.5, 3.1, 2.6, 2.1, 3.4, 3, 2.9];
+const LH = [
+  2.4, 2.4, 2.4, 2.2, 2.1, 1.5, 2.3, 2.3, 2.5, 2, 1.9, 1.7, 2.2, 1.8, 3.2, 3.2, 2.7, 2.2, 2.2, 1.9, 1.9, 1.8, 2.7, 3, 2.3, 2, 2, 2.9, 2.9, 2.7, 2.7, 2.3, 2.6,
+  2.4, 1.8, 1.7, 1.5, 1.4, 2.1, 3.3, 3.5, 3.5, 3.1, 2.6, 2.1, 3.4, 3, 2.9,
+];
 
 describe('fitArma', () => {
-  it("matches R's arima(lh, order = c(1, 0, 0), method = \"ML\") (R 4.2.2)", () => {
+  it('matches R\'s arima(lh, order = c(1, 0, 0), method = "ML") (R 4.2.2)', () => {
     // R: coef ar1 0.57394, intercept 2.41326; s.e. 0.11614, 0.14662; sigma2 0.1974895; loglik -29.379162.
     const fit = fitArma(LH, { p: 1, q: 0 });
     expect(fit.logLik).toBeCloseTo(-29.379162, 4);
@@ -56,7 +59,7 @@ describe('fitArma', () => {
     expect(Number.isNaN(gappy.residuals[100])).toBe(true);
     expect(Number.isFinite(gappy.residuals[102])).toBe(true);
     expect(Math.abs(gappy.ar[0] - full.ar[0])).toBeLessThan(0.05);
-    expect(gappy.bic - (-2 * gappy.logLik)).toBeCloseTo(3 * Math.log(298), 10);
+    expect(gappy.bic - -2 * gappy.logLik).toBeCloseTo(3 * Math.log(298), 10);
   });
 
   it('fits through every-other-value gaps, where the CSS start is undefined, from the zero start', () => {

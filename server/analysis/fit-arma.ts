@@ -138,7 +138,9 @@ export function fitArma(x: Series, options: FitArmaOptions): FitArmaResult {
     throw new AnalysisInputError(`${fn} needs at least ${needed} points for ARMA(${p},${q}) (got ${used}): choose a longer range or a lower order`);
   }
   if (!varies) {
-    throw new AnalysisInputError(`${fn}: the series is constant (every value is ${first}), so no ARMA model can be fitted: choose a range where the readings vary`);
+    throw new AnalysisInputError(
+      `${fn}: the series is constant (every value is ${first}), so no ARMA model can be fitted: choose a range where the readings vary`,
+    );
   }
 
   const mean0 = includeMean ? sum / used : 0;

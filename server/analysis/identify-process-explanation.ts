@@ -37,12 +37,16 @@ export function describeModel(m: Pick<ProcessModelFit, 'p' | 'q' | 'ar' | 'ma' |
 function modelSentence(m: ProcessModelFit, seasonal: boolean): string {
   const on = seasonal ? 'After the cycle is removed, the rest of the series' : 'The series';
   const ratio = m.readingsPerIndependent;
-  const information = m.smallestArRoot < NEAR_UNIT_ROOT
-    ? 'it sits so close to a wandering level (an AR root within 1 % of the unit circle) that it cannot say how many readings are independent information; the effective sample size is the better guide'
-    : ratio < 1.5
-      ? 'nearly every reading is independent information about the mean'
-      : `about 1 in ${ratio < 10 ? ratio.toFixed(1) : Math.round(ratio).toLocaleString('en')} readings is independent information about the mean`;
-  const fit = m.residualTest.pValue < 0.05 ? ` Its residuals still fail the Ljung–Box test (p = ${m.residualTest.pValue.toPrecision(2)}), so treat the model as a rough description.` : '';
+  const information =
+    m.smallestArRoot < NEAR_UNIT_ROOT
+      ? 'it sits so close to a wandering level (an AR root within 1 % of the unit circle) that it cannot say how many readings are independent information; the effective sample size is the better guide'
+      : ratio < 1.5
+        ? 'nearly every reading is independent information about the mean'
+        : `about 1 in ${ratio < 10 ? ratio.toFixed(1) : Math.round(ratio).toLocaleString('en')} readings is independent information about the mean`;
+  const fit =
+    m.residualTest.pValue < 0.05
+      ? ` Its residuals still fail the Ljung–Box test (p = ${m.residualTest.pValue.toPrecision(2)}), so treat the model as a rough description.`
+      : '';
   return ` ${on} is described best by ${describeModel(m)} (exact maximum likelihood, lowest BIC among ARMA orders up to 3), fitted on the last ${m.cells.toLocaleString('en')} values: ${information}.${fit}`;
 }
 

@@ -136,7 +136,14 @@ function endOfInitialRun(values: ArrayLike<number>, band: (lag: number) => numbe
 const UNIT_ROOT_PHI = 0.95;
 
 /** The correlogram's own reading (Box, Jenkins & Reinsel Table 6.1), used as the first look. */
-function correlogramVerdict(acf: Float64Array, pacf: Float64Array, p: number, q: number, acfCuts: boolean, pacfCuts: boolean): { verdict: ProcessVerdict; p?: number; q?: number } {
+function correlogramVerdict(
+  acf: Float64Array,
+  pacf: Float64Array,
+  p: number,
+  q: number,
+  acfCuts: boolean,
+  pacfCuts: boolean,
+): { verdict: ProcessVerdict; p?: number; q?: number } {
   if (p === 0 && q === 0) return { verdict: 'white-noise' };
   if (pacfCuts && acfCuts) {
     // Both look abrupt: the lower order wins (parsimony); on a tie, the sharper drop (next value
@@ -173,7 +180,15 @@ function fitModel(series: Float64Array, fittedOn: 'series' | 'remainder', option
   // A pure AR model has no MA root for an AR root to cancel, so only stationarity matters there:
   // a very persistent channel (φ above 1/1.01) keeps its AR(1) instead of losing it to the 1.01 rule.
   const usable = (c: SelectArmaResult['candidates'][number]) => c.admissible || (c.converged && c.q === 0 && Number.isFinite(c.aicc));
-  const candidates = selection.candidates.map((c) => ({ p: c.p, q: c.q, aicc: c.aicc, bic: bic(c), logLik: c.logLik, converged: c.converged, admissible: usable(c) }));
+  const candidates = selection.candidates.map((c) => ({
+    p: c.p,
+    q: c.q,
+    aicc: c.aicc,
+    bic: bic(c),
+    logLik: c.logLik,
+    converged: c.converged,
+    admissible: usable(c),
+  }));
   const chosen = selection.candidates.filter(usable).sort((a, b) => bic(a) - bic(b))[0];
   const model = chosen ? chosen.model : selection.model;
   let residualTest = selection.residualTest;
@@ -248,13 +263,7 @@ export function identifyProcess(x: Series, options: IdentifyProcessOptions = {})
   const present = n === x.length && x instanceof Float64Array ? x : new Float64Array(n);
   if (present !== x) for (let i = 0, j = 0; i < x.length; i++) if (!Number.isNaN(x[i])) present[j++] = x[i];
   if (n < 30) throw new AnalysisInputError(`${fn} requires at least 30 data points (got ${n})`);
-  const maxLag = integerOption(
-    fn,
-    'maxLag',
-    options.maxLag ?? Math.min(Math.max(20, defaultMaxLag(n)), Math.floor(n / 4)),
-    2,
-    Math.floor(n / 4),
-  );
+  const maxLag = integerOption(fn, 'maxLag', options.maxLag ?? Math.min(Math.max(20, defaultMaxLag(n)), Math.floor(n / 4)), 2, Math.floor(n / 4));
   const maxOrder = integerOption(fn, 'maxOrder', options.maxOrder ?? 5, 1, maxLag - 1);
   integerOption(fn, 'fitCells', options.fitCells ?? 2000, 30, Number.MAX_SAFE_INTEGER);
   const alpha = options.alpha ?? 0.05;
@@ -284,8 +293,7 @@ export function identifyProcess(x: Series, options: IdentifyProcessOptions = {})
   }
   const q = endOfInitialRun(acfFromLag1, (k) => strict[k - 1], maxLag);
   const p = endOfInitialRun(pacf, () => whiteStrict, maxLag);
-  const cutsOff = (values: ArrayLike<number>, lag: number, band: number) =>
-    lag >= 1 && lag <= maxOrder && Math.abs(values[lag - 1]) >= CLEAR_DROP * band;
+  const cutsOff = (values: ArrayLike<number>, lag: number, band: number) => lag >= 1 && lag <= maxOrder && Math.abs(values[lag - 1]) >= CLEAR_DROP * band;
   const acfCuts = cutsOff(acfFromLag1, q, q ? strict[q - 1] : 0);
   const pacfCuts = cutsOff(pacf, p, whiteStrict);
   const pattern = (lag: number, cuts: boolean): CorrelogramPattern => (lag === 0 ? 'none' : cuts ? 'cuts-off' : 'tails-off');
@@ -307,7 +315,12 @@ export function identifyProcess(x: Series, options: IdentifyProcessOptions = {})
     period,
     correlogram: firstLook,
   };
-  const finish = (verdict: ProcessVerdict, extra: { p?: number; q?: number; period?: number }, model: ProcessModelFit | null, modelNote: string | null): ProcessIdentification => ({
+  const finish = (
+    verdict: ProcessVerdict,
+    extra: { p?: number; q?: number; period?: number },
+    model: ProcessModelFit | null,
+    modelNote: string | null,
+  ): ProcessIdentification => ({
     verdict,
     ...extra,
     explanation: explainVerdict({ verdict, ...extra, ljungBoxP: ljung.pValue, lag1: acf[1], model }),
@@ -340,7 +353,7 @@ export function identifyProcess(x: Series, options: IdentifyProcessOptions = {})
   }
   const orders = { ...(model.p > 0 ? { p: model.p } : {}), ...(model.q > 0 ? { q: model.q } : {}) };
   const doubt = unitRootDoubt
-    ? `The unit-root test could not rule out a wandering level at this length (ADF statistic ${unitRoot!.statistic.toFixed(2)} above the 5 % critical value ${unitRoot!.criticalValues["5%"].toFixed(2)}), but the fitted persistence stays below 0.95, so a stationary model is used.`
+    ? `The unit-root test could not rule out a wandering level at this length (ADF statistic ${unitRoot!.statistic.toFixed(2)} above the 5 % critical value ${unitRoot!.criticalValues['5%'].toFixed(2)}), but the fitted persistence stays below 0.95, so a stationary model is used.`
     : null;
   if (period !== null) return finish('seasonal', { period, ...orders }, model, doubt);
   return finish(verdictOfOrders(model.p, model.q), orders, model, doubt);

@@ -5,55 +5,23 @@
 export { AnalysisInputError, type Series } from './analysis-input-error.ts';
 export { autocorrelation as acf, type AutocorrelationOptions } from './autocorrelation.ts';
 export { partialAutocorrelation as pacf, type PartialAutocorrelationOptions } from './partial-autocorrelation.ts';
-export {
-  autocorrelationBands as acfBands,
-  type AutocorrelationBands,
-  type AutocorrelationBandsOptions,
-} from './autocorrelation-bands.ts';
+export { autocorrelationBands as acfBands, type AutocorrelationBands, type AutocorrelationBandsOptions } from './autocorrelation-bands.ts';
 export { ljungBox } from './ljung-box.ts';
 export { boxPierce } from './box-pierce.ts';
 export type { PortmanteauOptions, PortmanteauResult } from './portmanteau-test.ts';
 export { fitArma, type FitArmaOptions, type FitArmaResult } from './fit-arma.ts';
 export { selectArma, type ArmaCandidate, type SelectArmaOptions, type SelectArmaResult } from './select-arma.ts';
-export {
-  crossCorrelation as ccf,
-  type CrossCorrelationOptions,
-  type CrossCorrelationResult,
-} from './cross-correlation.ts';
+export { crossCorrelation as ccf, type CrossCorrelationOptions, type CrossCorrelationResult } from './cross-correlation.ts';
 export { arYuleWalker, type ArYuleWalkerOptions, type ArYuleWalkerResult } from './ar-yule-walker.ts';
 export { difference, type DifferenceOptions } from './difference.ts';
-export {
-  regularize,
-  type RegularizeAggregate,
-  type RegularizeOptions,
-  type RegularizedSeries,
-} from './regularize.ts';
+export { regularize, type RegularizeAggregate, type RegularizeOptions, type RegularizedSeries } from './regularize.ts';
 export { detectPeriod, type DetectPeriodOptions, type DetectPeriodResult, type PeriodCandidate } from './detect-period.ts';
 export { periodogram, type PeriodogramResult } from './periodogram.ts';
-export {
-  effectiveSampleSize,
-  type EffectiveSampleSizeOptions,
-  type EffectiveSampleSizeResult,
-} from './effective-sample-size.ts';
+export { effectiveSampleSize, type EffectiveSampleSizeOptions, type EffectiveSampleSizeResult } from './effective-sample-size.ts';
 export { trendTest, type TrendTestOptions, type TrendTestResult } from './trend-test.ts';
-export {
-  prewhitenedCcf,
-  type PrewhitenedCcfOptions,
-  type PrewhitenedCcfResult,
-  type PrewhitenedCcfStrongest,
-} from './prewhitened-ccf.ts';
-export {
-  compareMeans,
-  type CompareMeansOptions,
-  type CompareMeansResult,
-  type MeanDifferenceTest,
-  type RangeMeanSummary,
-} from './compare-means.ts';
-export {
-  augmentedDickeyFuller as adf,
-  type AugmentedDickeyFullerOptions,
-  type AugmentedDickeyFullerResult,
-} from './augmented-dickey-fuller.ts';
+export { prewhitenedCcf, type PrewhitenedCcfOptions, type PrewhitenedCcfResult, type PrewhitenedCcfStrongest } from './prewhitened-ccf.ts';
+export { compareMeans, type CompareMeansOptions, type CompareMeansResult, type MeanDifferenceTest, type RangeMeanSummary } from './compare-means.ts';
+export { augmentedDickeyFuller as adf, type AugmentedDickeyFullerOptions, type AugmentedDickeyFullerResult } from './augmented-dickey-fuller.ts';
 export {
   identifyProcess,
   type IdentifyProcessOptions,

@@ -11,12 +11,7 @@ export interface KalmanArmaSums {
 }
 
 /** One likelihood evaluation: writes sums into the shared result, or returns null (AR root on the unit circle). */
-export type KalmanArmaEvaluator = (
-  phi: ArrayLike<number>,
-  theta: ArrayLike<number>,
-  mean: number,
-  residuals?: Float64Array,
-) => KalmanArmaSums | null;
+export type KalmanArmaEvaluator = (phi: ArrayLike<number>, theta: ArrayLike<number>, mean: number, residuals?: Float64Array) => KalmanArmaSums | null;
 
 /**
  * Prepares the exact Gaussian likelihood of ARMA(p, q) models with a fixed mean for one series

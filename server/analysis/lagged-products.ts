@@ -16,12 +16,7 @@ export const FFT_MIN_LAGS = 64;
  *
  * Cost: O(n · min(maxLag, log n)) time.
  */
-export function laggedProducts(
-  a: Float64Array,
-  b: Float64Array,
-  maxLag: number,
-  method: 'auto' | 'direct' | 'fft' = 'auto',
-): Float64Array {
+export function laggedProducts(a: Float64Array, b: Float64Array, maxLag: number, method: 'auto' | 'direct' | 'fft' = 'auto'): Float64Array {
   const useFft = method === 'fft' || (method === 'auto' && maxLag + 1 >= FFT_MIN_LAGS);
   return useFft ? laggedProductsFft(a, b, maxLag) : laggedProductsDirect(a, b, maxLag);
 }

@@ -52,7 +52,10 @@ describe('leastSquaresFromGram', () => {
 
   it('sums the residuals of an exact fit instead of cancelling yᵀy − βᵀXᵀy (hand check)', () => {
     const x = Float64Array.from({ length: 600 }, (_, i) => i / 10);
-    const result = fit([new Float64Array(600).fill(1), x], Float64Array.from(x, (v) => 3 - 2 * v));
+    const result = fit(
+      [new Float64Array(600).fill(1), x],
+      Float64Array.from(x, (v) => 3 - 2 * v),
+    );
     expectClose(result!.coefficients, [3, -2], 1e-12);
     // yᵀy ≈ 2.7·10⁶: the shortcut alone gives 9.3·10⁻¹⁰ here (rounding noise), the residuals 0.
     expect(result!.residualSumOfSquares).toBeLessThan(1e-20);

@@ -38,7 +38,13 @@ function residualSumOfSquares(columns: ArrayLike<number>[], y: ArrayLike<number>
  * `gram` is the k×k matrix XᵀX (row-major), `xty` = Xᵀy and `yty` = yᵀy.
  * Cost: O(k³), plus one pass over the k columns, O(m k), for a close fit.
  */
-export function leastSquaresFromGram(gram: Float64Array, xty: Float64Array, yty: number, columns: ArrayLike<number>[], y: ArrayLike<number>): LeastSquaresResult | null {
+export function leastSquaresFromGram(
+  gram: Float64Array,
+  xty: Float64Array,
+  yty: number,
+  columns: ArrayLike<number>[],
+  y: ArrayLike<number>,
+): LeastSquaresResult | null {
   const k = columns.length;
   const m = y.length;
   const scale = new Float64Array(k);

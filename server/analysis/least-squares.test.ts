@@ -30,7 +30,10 @@ describe('leastSquares', () => {
 
   it('is exact on an exactly linear relation with a zero residual (hand check)', () => {
     const x = Float64Array.from({ length: 600 }, (_, i) => i / 10);
-    const fit = leastSquares([new Float64Array(600).fill(1), x], Float64Array.from(x, (v) => 3 - 2 * v));
+    const fit = leastSquares(
+      [new Float64Array(600).fill(1), x],
+      Float64Array.from(x, (v) => 3 - 2 * v),
+    );
     expectClose(fit.coefficients, [3, -2], 1e-12);
     expect(fit.residualSumOfSquares).toBeLessThan(1e-20);
   });

@@ -54,16 +54,28 @@ export function loessSmooth(
 }
 
 function sweepWholeSeries(
-  y: Float64Array, n: number, span: number, degree: number, step: number,
-  robustWeights: Float64Array | null, out: Float64Array, outOffset: number,
+  y: Float64Array,
+  n: number,
+  span: number,
+  degree: number,
+  step: number,
+  robustWeights: Float64Array | null,
+  out: Float64Array,
+  outOffset: number,
 ): number {
   for (let i = 0; i < n; i += step) fitAt(y, n, span, degree, i, 0, n - 1, robustWeights, out, outOffset);
   return 0;
 }
 
 function sweepEveryPosition(
-  y: Float64Array, n: number, span: number, degree: number, robustWeights: Float64Array | null,
-  kernel: Float64Array | null, out: Float64Array, outOffset: number,
+  y: Float64Array,
+  n: number,
+  span: number,
+  degree: number,
+  robustWeights: Float64Array | null,
+  kernel: Float64Array | null,
+  out: Float64Array,
+  outOffset: number,
 ): number {
   const half = (span + 1) >> 1;
   let left = 0;
@@ -84,8 +96,15 @@ function sweepEveryPosition(
 }
 
 function sweepWithJumps(
-  y: Float64Array, n: number, span: number, degree: number, step: number,
-  robustWeights: Float64Array | null, kernel: Float64Array | null, out: Float64Array, outOffset: number,
+  y: Float64Array,
+  n: number,
+  span: number,
+  degree: number,
+  step: number,
+  robustWeights: Float64Array | null,
+  kernel: Float64Array | null,
+  out: Float64Array,
+  outOffset: number,
 ): number {
   const half = (span + 1) >> 1;
   let left = 0;
@@ -113,8 +132,16 @@ function sweepWithJumps(
 
 /** One loess fit written to `out`; where every weight is zero the input value is kept. */
 function fitAt(
-  y: Float64Array, n: number, span: number, degree: number, i: number, left: number, right: number,
-  robustWeights: Float64Array | null, out: Float64Array, outOffset: number,
+  y: Float64Array,
+  n: number,
+  span: number,
+  degree: number,
+  i: number,
+  left: number,
+  right: number,
+  robustWeights: Float64Array | null,
+  out: Float64Array,
+  outOffset: number,
 ): void {
   const v = loessEstimate(y, n, span, degree, i, left, right, robustWeights);
   out[outOffset + i] = Number.isNaN(v) ? y[i] : v;

@@ -37,4 +37,3 @@ describe('partialAutocorrelation', () => {
     expect(full.coefficients).toHaveLength(200);
   });
 });
-

@@ -29,12 +29,7 @@ export interface PortmanteauResult {
  *
  * Cost: O(n · h) time.
  */
-export function portmanteauTest(
-  fn: string,
-  x: Series,
-  options: PortmanteauOptions,
-  weight: (n: number, k: number) => number,
-): PortmanteauResult {
+export function portmanteauTest(fn: string, x: Series, options: PortmanteauOptions, weight: (n: number, k: number) => number): PortmanteauResult {
   assertSeries(x, fn);
   if (x.length < 3) throw new AnalysisInputError(`${fn} requires at least 3 data points (got ${x.length})`);
   const lag = integerOption(fn, 'lag', options?.lag, 1, x.length - 1);

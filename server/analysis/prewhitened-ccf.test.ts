@@ -104,8 +104,16 @@ describe('prewhitenedCcf', () => {
           const input = simulateArma({ ar: [0.6] }, 150, seed);
           const response = delayedResponse(input, 2, seed + 1);
           const r = prewhitenedCcf(response, input, { maxLag: 6 });
-          const s = prewhitenedCcf(response.map((v) => scale * v + shift), input.map((v) => v / scale - shift), { maxLag: 6 });
-          const flipped = prewhitenedCcf(response.map((v) => -v), input, { maxLag: 6 });
+          const s = prewhitenedCcf(
+            response.map((v) => scale * v + shift),
+            input.map((v) => v / scale - shift),
+            { maxLag: 6 },
+          );
+          const flipped = prewhitenedCcf(
+            response.map((v) => -v),
+            input,
+            { maxLag: 6 },
+          );
           for (let i = 0; i < r.values.length; i++) {
             expect(Math.abs(s.values[i] - r.values[i])).toBeLessThanOrEqual(1e-9);
             expect(Math.abs(flipped.values[i] + r.values[i])).toBeLessThanOrEqual(1e-12);
@@ -143,7 +151,11 @@ describe('prewhitenedCcf', () => {
     fails(() => prewhitenedCcf(null as never, y), 'prewhitenedCcf: the series must be an array of numbers');
     const gaps = y.map((v, i) => (i % 2 ? NaN : v));
     fails(
-      () => prewhitenedCcf(x.map((v, i) => (i % 2 ? v : NaN)), gaps),
+      () =>
+        prewhitenedCcf(
+          x.map((v, i) => (i % 2 ? v : NaN)),
+          gaps,
+        ),
       'prewhitenedCcf: after the AR(0) filter only 0 time steps have both series present (at least 10 needed); fill the gaps or choose a longer range',
     );
   });

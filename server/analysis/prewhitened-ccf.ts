@@ -86,9 +86,7 @@ export function prewhitenedCcf(response: Series, input: Series, options: Prewhit
   assertSeries(response, fn);
   assertSeries(input, fn);
   if (response.length !== input.length) {
-    throw new AnalysisInputError(
-      `${fn}: the two series must have the same length (got ${response.length} and ${input.length})`,
-    );
+    throw new AnalysisInputError(`${fn}: the two series must have the same length (got ${response.length} and ${input.length})`);
   }
   const n = response.length;
   const alpha = options.alpha ?? 0.05;
@@ -149,9 +147,6 @@ export function prewhitenedCcf(response: Series, input: Series, options: Prewhit
     band,
     simultaneousBand,
     simultaneousMethod: 'sidak',
-    strongest:
-      best < 0
-        ? null
-        : { lag: lags[best], value: values[best], significant: Math.abs(values[best]) > simultaneousBand },
+    strongest: best < 0 ? null : { lag: lags[best], value: values[best], significant: Math.abs(values[best]) > simultaneousBand },
   };
 }

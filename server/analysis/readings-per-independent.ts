@@ -20,7 +20,8 @@ export function readingsPerIndependent(ar: readonly number[], ma: readonly numbe
   for (const phi of ar) phiAtOne -= phi;
   let thetaAtOne = 1;
   for (const theta of ma) thetaAtOne += theta;
-  if (!(Math.abs(phiAtOne) > 1e-12)) throw new AnalysisInputError('readingsPerIndependent: the AR part has a unit root, so the mean has no finite long-run variance');
+  if (!(Math.abs(phiAtOne) > 1e-12))
+    throw new AnalysisInputError('readingsPerIndependent: the AR part has a unit root, so the mean has no finite long-run variance');
   const p = ar.length;
   const psi: number[] = [1];
   let sumSquares = 1;

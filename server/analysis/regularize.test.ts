@@ -40,9 +40,7 @@ describe('regularize', () => {
   });
 
   it('rejects mismatched lengths and unknown aggregates', () => {
-    expect(() => regularize([1, 2], [1], { step: 1, agg: 'mean' })).toThrow(
-      'regularize: timestamps and values must have the same length (got 2 and 1)',
-    );
+    expect(() => regularize([1, 2], [1], { step: 1, agg: 'mean' })).toThrow('regularize: timestamps and values must have the same length (got 2 and 1)');
     expect(() => regularize([1], [1], { step: 1, agg: 'mode' as never })).toThrow(
       'regularize: agg must be one of mean, last, min, max, median, sum, count (got mode)',
     );

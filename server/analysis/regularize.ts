@@ -44,9 +44,7 @@ export function regularize(timestamps: Series, values: Series, options: Regulari
     throw new AnalysisInputError(`${fn}: timestamps and values must be arrays of numbers`);
   }
   if (timestamps.length !== values.length) {
-    throw new AnalysisInputError(
-      `${fn}: timestamps and values must have the same length (got ${timestamps.length} and ${values.length})`,
-    );
+    throw new AnalysisInputError(`${fn}: timestamps and values must have the same length (got ${timestamps.length} and ${values.length})`);
   }
   const { step, agg, origin = 0 } = options ?? ({} as RegularizeOptions);
   if (!(Number.isFinite(step) && step > 0)) {
@@ -115,15 +113,7 @@ export function regularize(timestamps: Series, values: Series, options: Regulari
   return { start, step, values: out };
 }
 
-function aggregateCell(
-  agg: RegularizeAggregate,
-  order: Int32Array,
-  from: number,
-  to: number,
-  timestamps: Series,
-  values: Series,
-  scratch: number[],
-): number {
+function aggregateCell(agg: RegularizeAggregate, order: Int32Array, from: number, to: number, timestamps: Series, values: Series, scratch: number[]): number {
   switch (agg) {
     case 'count':
       return to - from;

@@ -39,19 +39,25 @@ describe('robustnessWeights', () => {
   it('uses the exact median: agrees with a sorted median on any data', () => {
     fc.assert(
       // Subnormal residuals are left out: there the scale itself has only a few bits.
-      fc.property(fc.array(fc.double({ min: -1e6, max: 1e6, noNaN: true }).filter((v) => v === 0 || Math.abs(v) > 1e-300), { minLength: 1, maxLength: 300 }), (residuals) => {
-        const sorted = residuals.map(Math.abs).sort((a, b) => a - b);
-        const m = sorted.length;
-        const median = m % 2 ? sorted[m >> 1] : (sorted[m / 2 - 1] + sorted[m / 2]) / 2;
-        const h = 6 * median;
-        const w = weightsOf(residuals);
-        residuals.forEach((r, i) => {
-          const u = Math.abs(r) / h;
-          // Away from the cut-offs the weight is the plain bisquare.
-          if (u > 0.0011 && u < 0.9989) expect(Math.abs(w[i] - bisquare(u))).toBeLessThan(1e-12);
-          if (u > 0.9991) expect(w[i]).toBe(0);
-        });
-      }),
+      fc.property(
+        fc.array(
+          fc.double({ min: -1e6, max: 1e6, noNaN: true }).filter((v) => v === 0 || Math.abs(v) > 1e-300),
+          { minLength: 1, maxLength: 300 },
+        ),
+        (residuals) => {
+          const sorted = residuals.map(Math.abs).sort((a, b) => a - b);
+          const m = sorted.length;
+          const median = m % 2 ? sorted[m >> 1] : (sorted[m / 2 - 1] + sorted[m / 2]) / 2;
+          const h = 6 * median;
+          const w = weightsOf(residuals);
+          residuals.forEach((r, i) => {
+            const u = Math.abs(r) / h;
+            // Away from the cut-offs the weight is the plain bisquare.
+            if (u > 0.0011 && u < 0.9989) expect(Math.abs(w[i] - bisquare(u))).toBeLessThan(1e-12);
+            if (u > 0.9991) expect(w[i]).toBe(0);
+          });
+        },
+      ),
       { numRuns: 200 },
     );
   });

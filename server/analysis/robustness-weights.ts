@@ -16,12 +16,7 @@ import { medianInPlace } from './median-in-place.ts';
  * Writes `out[0 .. n-1]`; `scratch` (n values) is overwritten; `residuals` is only read.
  * Cost: O(n) expected.
  */
-export function robustnessWeights(
-  residuals: Float64Array,
-  n: number,
-  out: Float64Array,
-  scratch: Float64Array,
-): void {
+export function robustnessWeights(residuals: Float64Array, n: number, out: Float64Array, scratch: Float64Array): void {
   for (let i = 0; i < n; i++) scratch[i] = Math.abs(residuals[i]);
   const scale = 6 * medianInPlace(scratch, n);
   const inner = CUTOFF_LOW * scale;

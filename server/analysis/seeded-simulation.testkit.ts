@@ -40,12 +40,7 @@ export function seededNormal(seed: number): () => number {
  * ARMA(p, q) sample path x_t = Σ φ_i x_{t−i} + e_t + Σ θ_j e_{t−j} with N(0, 1) shocks
  * (Box, Jenkins & Reinsel sign convention for θ as in R's arima.sim: plus), after a burn-in.
  */
-export function simulateArma(
-  { ar = [], ma = [] }: { ar?: number[]; ma?: number[] },
-  n: number,
-  seed: number,
-  burnIn = 500,
-): Float64Array {
+export function simulateArma({ ar = [], ma = [] }: { ar?: number[]; ma?: number[] }, n: number, seed: number, burnIn = 500): Float64Array {
   const normal = seededNormal(seed);
   const total = n + burnIn;
   const x = new Float64Array(total);

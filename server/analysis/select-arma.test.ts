@@ -77,7 +77,9 @@ describe('selectArma', () => {
     expect(() => selectArma(x, { maxP: 6 })).toThrow('selectArma: maxP must be a whole number from 0 to 5 (got 6)');
     expect(() => selectArma(x, { maxQ: 0.5 })).toThrow('selectArma: maxQ must be a whole number from 0 to 5 (got 0.5)');
     expect(() => selectArma('abc' as never)).toThrow('selectArma: the series must be an array of numbers');
-    expect(() => selectArma(new Array(50).fill(2))).toThrow('selectArma: the series is constant (every value is 2), so no ARMA model can be fitted: choose a range where the readings vary');
+    expect(() => selectArma(new Array(50).fill(2))).toThrow(
+      'selectArma: the series is constant (every value is 2), so no ARMA model can be fitted: choose a range where the readings vary',
+    );
   });
 
   it('skips candidates above maxTotalOrder (p + q) and fits the same models it keeps', () => {

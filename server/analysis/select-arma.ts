@@ -103,7 +103,9 @@ export function selectArma(x: Series, options: SelectArmaOptions = {}): SelectAr
     }
   }
   if (best === null) {
-    throw new AnalysisInputError(`${fn}: none of the ${candidates.length} candidate models converged with roots clear of the unit circle: choose a longer or steadier range`);
+    throw new AnalysisInputError(
+      `${fn}: none of the ${candidates.length} candidate models converged with roots clear of the unit circle: choose a longer or steadier range`,
+    );
   }
   const fitdf = best.p + best.q;
   const lag = Math.max(Math.min(10, Math.floor(present / 5)), fitdf + 1);
@@ -124,7 +126,12 @@ function fitOrExplain(x: Series, p: number, q: number, warm: FitArmaResult | und
     return fitArma(x, { p, q, starts: warm ? [warm] : undefined });
   } catch (error) {
     if (error instanceof AnalysisInputError && p + q === 0) {
-      throw new AnalysisInputError(error.message.replace(/^fitArma/, 'selectArma').replace(' for ARMA(0,0)', '').replace('or a lower order', 'of readings'));
+      throw new AnalysisInputError(
+        error.message
+          .replace(/^fitArma/, 'selectArma')
+          .replace(' for ARMA(0,0)', '')
+          .replace('or a lower order', 'of readings'),
+      );
     }
     throw error;
   }

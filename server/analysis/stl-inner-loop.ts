@@ -40,22 +40,10 @@ export function stlInnerLoop(
   const { series, cycle, lowPass } = work;
   for (let pass = 0; pass < settings.inner; pass++) {
     subtract(y, trend, series, n);
-    stlSubseriesSmooth(
-      series, n, period,
-      settings.seasonalWindow, settings.seasonalDegree, settings.seasonalJump,
-      robustWeights, cycle, work.subseries,
-    );
-    stlLowPass(
-      cycle, n, period,
-      settings.lowpassWindow, settings.lowpassDegree, settings.lowpassJump,
-      lowPass, work.scratch,
-    );
+    stlSubseriesSmooth(series, n, period, settings.seasonalWindow, settings.seasonalDegree, settings.seasonalJump, robustWeights, cycle, work.subseries);
+    stlLowPass(cycle, n, period, settings.lowpassWindow, settings.lowpassDegree, settings.lowpassJump, lowPass, work.scratch);
     seasonalAndRest(y, cycle, period, lowPass, season, series, n);
-    loessSmooth(
-      series, n,
-      settings.trendWindow, settings.trendDegree, settings.trendJump,
-      robustWeights, trend, 0,
-    );
+    loessSmooth(series, n, settings.trendWindow, settings.trendDegree, settings.trendJump, robustWeights, trend, 0);
   }
 }
 
@@ -69,8 +57,13 @@ function subtract(a: Float64Array, b: Float64Array, out: Float64Array, n: number
 
 /** Step 4 and 5 of the paper: seasonal = C − L (C shifted by one period), rest = y − seasonal. */
 function seasonalAndRest(
-  y: Float64Array, cycle: Float64Array, period: number, lowPass: Float64Array,
-  season: Float64Array, rest: Float64Array, n: number,
+  y: Float64Array,
+  cycle: Float64Array,
+  period: number,
+  lowPass: Float64Array,
+  season: Float64Array,
+  rest: Float64Array,
+  n: number,
 ): void {
   for (let i = 0; i < n; i++) {
     const s = cycle[period + i] - lowPass[i];

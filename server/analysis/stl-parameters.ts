@@ -60,9 +60,7 @@ export function stlParameters(n: number, options: StlOptions): StlSettings {
     throw new AnalysisInputError(`stl: period must be a whole number (got ${period})`);
   }
   if (n < 2 * period) {
-    throw new AnalysisInputError(
-      `stl requires at least two full periods (got ${n} value${n === 1 ? '' : 's'} for period ${period})`,
-    );
+    throw new AnalysisInputError(`stl requires at least two full periods (got ${n} value${n === 1 ? '' : 's'} for period ${period})`);
   }
   const robust = options.robust ?? false;
   if (typeof robust !== 'boolean') throw new AnalysisInputError(`stl: robust must be true or false`);
@@ -73,13 +71,9 @@ export function stlParameters(n: number, options: StlOptions): StlSettings {
   const trendDegree = degree('trendDegree', options.trendDegree, 1);
   const lowpassDegree = degree('lowpassDegree', options.lowpassDegree, trendDegree);
   const trendWindow =
-    options.trendWindow === undefined
-      ? nextOdd(Math.ceil((1.5 * period) / (1 - 1.5 / seasonalWindow)))
-      : whole('trendWindow', options.trendWindow, 3);
-  const lowpassWindow =
-    options.lowpassWindow === undefined ? nextOdd(period) : whole('lowpassWindow', options.lowpassWindow, 3);
-  const jump = (name: string, given: unknown, window: number) =>
-    given === undefined ? Math.ceil(window / 10) : whole(name, given, 1);
+    options.trendWindow === undefined ? nextOdd(Math.ceil((1.5 * period) / (1 - 1.5 / seasonalWindow))) : whole('trendWindow', options.trendWindow, 3);
+  const lowpassWindow = options.lowpassWindow === undefined ? nextOdd(period) : whole('lowpassWindow', options.lowpassWindow, 3);
+  const jump = (name: string, given: unknown, window: number) => (given === undefined ? Math.ceil(window / 10) : whole(name, given, 1));
 
   return {
     period,

@@ -47,8 +47,14 @@ function grown(a: Float64Array, size: number): Float64Array {
 }
 
 function smoothInTimeOrder(
-  y: Float64Array, n: number, period: number, span: number, degree: number,
-  robustWeights: Float64Array | null, out: Float64Array, scratch: SubseriesScratch,
+  y: Float64Array,
+  n: number,
+  period: number,
+  span: number,
+  degree: number,
+  robustWeights: Float64Array | null,
+  out: Float64Array,
+  scratch: SubseriesScratch,
 ): void {
   const radius = (span - 1) / 2;
   const shortest = Math.floor(n / period);
@@ -85,8 +91,16 @@ function smoothInTimeOrder(
 
 /** Every position whose window lies wholly inside its subseries, walking `y` in order. */
 function interior(
-  y: Float64Array, n: number, period: number, radius: number, shortest: number, longer: number,
-  kernel: Float64Array, degree: number, robustWeights: Float64Array | null, out: Float64Array,
+  y: Float64Array,
+  n: number,
+  period: number,
+  radius: number,
+  shortest: number,
+  longer: number,
+  kernel: Float64Array,
+  degree: number,
+  robustWeights: Float64Array | null,
+  out: Float64Array,
 ): void {
   const last = n - 1 - radius * period;
   for (let t = radius * period, phase = 0; t <= last; t++) {
@@ -99,8 +113,13 @@ function interior(
 
 /** Copies `count` values `from, from + step, …` of y (and of the weights, when given). */
 function copyStrided(
-  y: Float64Array, robustWeights: Float64Array | null, from: number, step: number, count: number,
-  values: Float64Array, weights: Float64Array,
+  y: Float64Array,
+  robustWeights: Float64Array | null,
+  from: number,
+  step: number,
+  count: number,
+  values: Float64Array,
+  weights: Float64Array,
 ): void {
   for (let i = 0, t = from; i < count; i++, t += step) values[i] = y[t];
   if (robustWeights === null) return;
@@ -108,8 +127,15 @@ function copyStrided(
 }
 
 function smoothEachSubseries(
-  y: Float64Array, n: number, period: number, span: number, degree: number, jump: number,
-  robustWeights: Float64Array | null, out: Float64Array, scratch: SubseriesScratch,
+  y: Float64Array,
+  n: number,
+  period: number,
+  span: number,
+  degree: number,
+  jump: number,
+  robustWeights: Float64Array | null,
+  out: Float64Array,
+  scratch: SubseriesScratch,
 ): void {
   const longest = Math.ceil(n / period);
   const stride = longest + 2;

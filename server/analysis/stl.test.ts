@@ -11,17 +11,15 @@ import { stl } from './stl.ts';
 import { stlParameters } from './stl-parameters.ts';
 
 /** A period from 2 to 12 and a series of two to six cycles plus a remainder, values in ±1000. */
-const seriesWithPeriod = fc
-  .integer({ min: 2, max: 12 })
-  .chain((period) =>
-    fc.record({
-      period: fc.constant(period),
-      x: fc.array(fc.double({ min: -1000, max: 1000, noNaN: true }), {
-        minLength: 2 * period,
-        maxLength: 6 * period + 5,
-      }),
+const seriesWithPeriod = fc.integer({ min: 2, max: 12 }).chain((period) =>
+  fc.record({
+    period: fc.constant(period),
+    x: fc.array(fc.double({ min: -1000, max: 1000, noNaN: true }), {
+      minLength: 2 * period,
+      maxLength: 6 * period + 5,
     }),
-  );
+  }),
+);
 
 /** A seasonal pattern plus trend plus pseudo-random noise from a seed: generic real values. */
 const noisySeries = fc
@@ -111,8 +109,16 @@ describe('stl properties', () => {
           const rb = stl(b, { period, seasonalWindow });
           const rc = stl(combined, { period, seasonalWindow });
           const tolerance = 1e-9 * (1 + range(a) + Math.abs(c) * range(b));
-          expectClose(rc.seasonal, ra.seasonal.map((v, i) => v + c * rb.seasonal[i]), tolerance);
-          expectClose(rc.trend, ra.trend.map((v, i) => v + c * rb.trend[i]), tolerance);
+          expectClose(
+            rc.seasonal,
+            ra.seasonal.map((v, i) => v + c * rb.seasonal[i]),
+            tolerance,
+          );
+          expectClose(
+            rc.trend,
+            ra.trend.map((v, i) => v + c * rb.trend[i]),
+            tolerance,
+          );
         },
       ),
       { numRuns: 40 },
@@ -134,10 +140,21 @@ describe('stl properties', () => {
           const base = stl(x, { period, seasonalWindow, robust: true });
           const residuals = Array.from(base.remainder, Math.abs).sort((p, q) => p - q);
           fc.pre(residuals[residuals.length >> 1] > 1e-9 * range(x));
-          const moved = stl(x.map((v) => a * v + b), { period, seasonalWindow, robust: true });
+          const moved = stl(
+            x.map((v) => a * v + b),
+            { period, seasonalWindow, robust: true },
+          );
           const tolerance = 1e-8 * (1 + a * range(x) + Math.abs(b));
-          expectClose(moved.seasonal, base.seasonal.map((v) => a * v), tolerance);
-          expectClose(moved.trend, base.trend.map((v) => a * v + b), tolerance);
+          expectClose(
+            moved.seasonal,
+            base.seasonal.map((v) => a * v),
+            tolerance,
+          );
+          expectClose(
+            moved.trend,
+            base.trend.map((v) => a * v + b),
+            tolerance,
+          );
           expectClose(moved.weights, base.weights, 1e-8);
         },
       ),
@@ -193,10 +210,7 @@ describe('stl on series with a known structure', () => {
       state = (state * 48271) % 2147483647;
       return state / 2147483647;
     };
-    const clean = Array.from(
-      { length: 24 * 14 },
-      (_, i) => 22 + 2 * Math.sin((2 * Math.PI * i) / period) + 0.01 * i + 0.4 * (uniform() - 0.5),
-    );
+    const clean = Array.from({ length: 24 * 14 }, (_, i) => 22 + 2 * Math.sin((2 * Math.PI * i) / period) + 0.01 * i + 0.4 * (uniform() - 0.5));
     const spike = 150;
     const x = [...clean];
     x[spike] += 40;
@@ -253,16 +267,8 @@ describe('stl input errors', () => {
       () => stl(new Array(48).fill(1), { period: 12, seasonalWindow: 1 }),
       "stl: seasonalWindow must be 'periodic' or a whole number of at least 3 (got 1)",
     ],
-    [
-      'degree',
-      () => stl(new Array(48).fill(1), { period: 12, seasonalWindow: 7, trendDegree: 2 as 1 }),
-      'stl: trendDegree must be 0 or 1 (got 2)',
-    ],
-    [
-      'jump',
-      () => stl(new Array(48).fill(1), { period: 12, seasonalWindow: 7, trendJump: 0 }),
-      'stl: trendJump must be a whole number of at least 1 (got 0)',
-    ],
+    ['degree', () => stl(new Array(48).fill(1), { period: 12, seasonalWindow: 7, trendDegree: 2 as 1 }), 'stl: trendDegree must be 0 or 1 (got 2)'],
+    ['jump', () => stl(new Array(48).fill(1), { period: 12, seasonalWindow: 7, trendJump: 0 }), 'stl: trendJump must be a whole number of at least 1 (got 0)'],
   ];
   for (const [name, call, message] of cases) {
     it(name, () => {

@@ -45,9 +45,7 @@ export function stl(x: Series, options: StlOptions): StlResult {
   const settings = stlParameters(n, options);
   const gap = firstNonFinite(y);
   if (gap >= 0) {
-    throw new AnalysisInputError(
-      `stl: the series must be complete (got ${y[gap]} at index ${gap}); fill or cut gaps first`,
-    );
+    throw new AnalysisInputError(`stl: the series must be complete (got ${y[gap]} at index ${gap}); fill or cut gaps first`);
   }
   const { period } = settings;
   const extended = n + 2 * period;
@@ -102,8 +100,6 @@ function firstNonFinite(y: Float64Array): number {
 }
 
 /** `out[i] = y[i] − seasonal[i] − trend[i]`. */
-function remainderOf(
-  y: Float64Array, seasonal: Float64Array, trend: Float64Array, out: Float64Array, n: number,
-): void {
+function remainderOf(y: Float64Array, seasonal: Float64Array, trend: Float64Array, out: Float64Array, n: number): void {
   for (let i = 0; i < n; i++) out[i] = y[i] - seasonal[i] - trend[i];
 }

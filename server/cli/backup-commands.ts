@@ -39,7 +39,11 @@ function runTool(tool: string, args: string[], db: DbSettings, pipes: { stdin: b
   });
   const done = new Promise<void>((resolve, reject) => {
     child.once('error', (err: NodeJS.ErrnoException) =>
-      reject(new BackupError(err.code === 'ENOENT' ? `${tool} was not found; install Debian's mariadb-client (it comes with mariadb-server).` : `${tool}: ${err.message}`)),
+      reject(
+        new BackupError(
+          err.code === 'ENOENT' ? `${tool} was not found; install Debian's mariadb-client (it comes with mariadb-server).` : `${tool}: ${err.message}`,
+        ),
+      ),
     );
     child.once('close', (code) => (code === 0 ? resolve() : reject(new BackupError(`${tool} failed (exit ${code}): ${stderr.trim() || 'no message'}`))));
   });
@@ -67,7 +71,11 @@ export async function backupCommand(db: DbSettings, opts: { out: string; force: 
   const args = [...connectionArgs(db), '--single-transaction', '--quick', '--routines', '--triggers', '--hex-blob', '--skip-dump-date', db.database];
   const tool = runTool('mariadb-dump', args, db, { stdin: false, stdout: true });
   try {
-    await settle(tool.done, pipeline(tool.stdout!, createGzip(), createWriteStream(partial, { flags: 'wx' })), (err) => `could not write ${opts.out}: ${err.message}`);
+    await settle(
+      tool.done,
+      pipeline(tool.stdout!, createGzip(), createWriteStream(partial, { flags: 'wx' })),
+      (err) => `could not write ${opts.out}: ${err.message}`,
+    );
     renameSync(partial, opts.out);
   } catch (err) {
     rmSync(partial, { force: true });
@@ -102,7 +110,10 @@ export async function restoreCommand(knex: Db, db: DbSettings, opts: { from: str
 
   await knex.raw(`CREATE DATABASE IF NOT EXISTS \`${target}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
   const existing = await tableCount(knex, target);
-  if (existing > 0 && !opts.force) throw new BackupError(`the database ${target} already holds ${existing} tables; restore into an empty one (--database <name>) or pass --force to replace them.`);
+  if (existing > 0 && !opts.force)
+    throw new BackupError(
+      `the database ${target} already holds ${existing} tables; restore into an empty one (--database <name>) or pass --force to replace them.`,
+    );
 
   const started = Date.now();
   const tool = runTool('mariadb', [...connectionArgs(db), '--batch', `--database=${target}`], db, { stdin: true, stdout: false });

@@ -53,7 +53,10 @@ export async function createLabCommand(db: Db, publicUrl: string, opts: { name: 
   const input = parseInput(createLabSchema, { name: opts.name, slug: opts.slug });
   const { lab, adminUserId } = await createLabsService({ db }).createForOperator({ ...input, adminEmail: opts.adminEmail });
   if (adminUserId !== null) {
-    return { text: `Created lab "${lab.name}" at /labs/${lab.slug}; ${opts.adminEmail} is its admin.`, json: { lab: { slug: lab.slug, name: lab.name }, admin: opts.adminEmail, invitationLink: null } };
+    return {
+      text: `Created lab "${lab.name}" at /labs/${lab.slug}; ${opts.adminEmail} is its admin.`,
+      json: { lab: { slug: lab.slug, name: lab.name }, admin: opts.adminEmail, invitationLink: null },
+    };
   }
   const invitations = createInvitationsService({ db, mailer: OPERATOR_MAILER, publicUrl });
   const { link } = await invitations.inviteAsOperator({ ...lab, role: 'admin' }, { email: opts.adminEmail.toLowerCase(), role: 'admin' });
@@ -105,7 +108,8 @@ export async function mintTokenCommand(db: Db, opts: { lab: string; email: strin
   const email = opts.email.trim().toLowerCase();
   const member = (await membershipsRepo(inLab(db, lab.id)).list()).find((m) => m.email.toLowerCase() === email);
   if (!member) throw new AppError(404, 'not_found', `${opts.email} is not a member of ${lab.slug}.`);
-  if (!can(member.role, 'tokens.manage-own')) throw new AppError(403, 'forbidden', `${opts.email} is a ${member.role} in ${lab.slug}; personal tokens are for scientists and above.`);
+  if (!can(member.role, 'tokens.manage-own'))
+    throw new AppError(403, 'forbidden', `${opts.email} is a ${member.role} in ${lab.slug}; personal tokens are for scientists and above.`);
   const user = (await usersRepo(db).findById(member.userId))!;
   const actor = { id: user.id, email: user.email, emailVerified: user.emailVerified, displayName: user.displayName };
   const issued = await createPersonalTokensService({ db }).create({ ...lab, role: member.role }, actor, input);

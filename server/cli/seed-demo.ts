@@ -48,7 +48,13 @@ export async function seedDemo(db: Db, opts: { issuer: string; people: DemoPerso
   for (const member of DEMO_LAB.members) {
     const person = opts.people.find((p) => p.email === member.email);
     if (!person) throw new Error(`seedDemo: no identity for the demo member ${member.email}`);
-    const user = await users.upsertFromIdentity({ issuer: opts.issuer, subject: person.subject, email: person.email, emailVerified: true, displayName: person.name });
+    const user = await users.upsertFromIdentity({
+      issuer: opts.issuer,
+      subject: person.subject,
+      email: person.email,
+      emailVerified: true,
+      displayName: person.name,
+    });
     await membershipsRepo(inLab(db, lab.id)).add(user.id, member.role as Role);
   }
 
@@ -96,7 +102,11 @@ export async function seedDemo(db: Db, opts: { issuer: string; people: DemoPerso
   // The plan's usage meter counts what was just stored (seeding bypasses the ingestion hooks),
   // so the billing page is right at once rather than after the next usage reconciliation.
   await labBillingRepo(inLab(db, lab.id)).setReadings(readings, new Date(), loadPlanCatalog(process.env.LAGBOOK_PLANS_FILE ?? 'tenants/plans.json').free.key);
-  await auditRepo(inLab(db, lab.id)).record({ actorUserId: null, action: 'demo.seeded', summary: `The demo scenario was loaded (${readings} readings, seed ${DEMO_SEED})` });
+  await auditRepo(inLab(db, lab.id)).record({
+    actorUserId: null,
+    action: 'demo.seeded',
+    summary: `The demo scenario was loaded (${readings} readings, seed ${DEMO_SEED})`,
+  });
   return {
     seeded: true,
     readings,

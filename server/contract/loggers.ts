@@ -58,7 +58,10 @@ const loggerFields = {
 /** `POST …/loggers` (and the operator command `register-logger`). */
 export const createLoggerSchema = z
   .object({ ...loggerFields, channels: z.array(channelInputSchema).max(64, 'at most 64 channels per logger').default([]) })
-  .refine((l) => new Set(l.channels.map((c) => c.key)).size === l.channels.length, { message: 'channel keys must be unique within a logger', path: ['channels'] });
+  .refine((l) => new Set(l.channels.map((c) => c.key)).size === l.channels.length, {
+    message: 'channel keys must be unique within a logger',
+    path: ['channels'],
+  });
 export type CreateLoggerBody = z.infer<typeof createLoggerSchema>;
 
 /** `PATCH …/loggers/:loggerId`. */

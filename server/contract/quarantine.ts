@@ -66,7 +66,14 @@ export const quarantineIdsSchema = z.object({
 /** `POST …/quarantine/resubmit`: each row by its id, as it was or as corrected. */
 export const quarantineResubmitSchema = z.object({
   rows: z
-    .array(z.object({ id: z.number().int().positive(), channel: z.string().max(191), ts: z.union([z.string().max(191), z.number()]), value: z.union([z.number(), z.string().max(191)]) }))
+    .array(
+      z.object({
+        id: z.number().int().positive(),
+        channel: z.string().max(191),
+        ts: z.union([z.string().max(191), z.number()]),
+        value: z.union([z.number(), z.string().max(191)]),
+      }),
+    )
     .min(1, 'send at least one row')
     .max(1000, 'at most 1000 rows at a time'),
 });

@@ -17,7 +17,9 @@ describe('upload query (options as JSON text)', () => {
   it('names a refused option by its own name, not as options.<name>', () => {
     expect(messageOf({ options: JSON.stringify({ format: 'tall', timeColumn: 'ts' }) })).toBe('format: must be long or wide');
     expect(messageOf({ options: JSON.stringify({ format: 'long', timeColumn: 'ts' }) })).toBe('format: long format needs channelColumn and valueColumn');
-    expect(messageOf({ options: JSON.stringify({ format: 'wide', timeColumn: 'ts', columns: { a: null } }) })).toBe('columns: wide format needs at least one column mapped to a channel');
+    expect(messageOf({ options: JSON.stringify({ format: 'wide', timeColumn: 'ts', columns: { a: null } }) })).toBe(
+      'columns: wide format needs at least one column mapped to a channel',
+    );
   });
 
   it('refuses text that is not JSON, and a missing or empty options', () => {

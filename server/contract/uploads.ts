@@ -29,7 +29,10 @@ export const uploadOptionsSchema = z
     timeZone: timeZoneSchema.optional(),
   })
   .refine((o) => o.format !== 'long' || (o.channelColumn && o.valueColumn), { message: 'long format needs channelColumn and valueColumn', path: ['format'] })
-  .refine((o) => o.format !== 'wide' || (o.columns && Object.values(o.columns).some((v) => v)), { message: 'wide format needs at least one column mapped to a channel', path: ['columns'] });
+  .refine((o) => o.format !== 'wide' || (o.columns && Object.values(o.columns).some((v) => v)), {
+    message: 'wide format needs at least one column mapped to a channel',
+    path: ['columns'],
+  });
 export type UploadOptions = z.infer<typeof uploadOptionsSchema>;
 
 /**

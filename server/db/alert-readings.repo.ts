@@ -55,9 +55,17 @@ export function alertReadingsRepo(scope: LabScope) {
       };
     },
     async loggerTarget(loggerId: number): Promise<WatchedTarget | null> {
-      const logger = await scope.table('loggers').where('loggers.id', loggerId).first('loggers.id', 'loggers.name', 'loggers.expected_interval_s as interval', 'loggers.timezone');
+      const logger = await scope
+        .table('loggers')
+        .where('loggers.id', loggerId)
+        .first('loggers.id', 'loggers.name', 'loggers.expected_interval_s as interval', 'loggers.timezone');
       if (!logger) return null;
-      const last = await scope.table('channels').where('channels.logger_id', loggerId).whereNull('channels.retired_at').max('channels.last_reading_ts as ts').first();
+      const last = await scope
+        .table('channels')
+        .where('channels.logger_id', loggerId)
+        .whereNull('channels.retired_at')
+        .max('channels.last_reading_ts as ts')
+        .first();
       return {
         channelId: null,
         loggerId: Number(logger.id),

@@ -109,7 +109,11 @@ export function alertRulesRepo(scope: LabScope) {
       });
       return id;
     },
-    async update(id: number, change: { name?: string; params?: Record<string, unknown>; reminderAfterMin?: number | null; enabled?: boolean }, at: Date): Promise<void> {
+    async update(
+      id: number,
+      change: { name?: string; params?: Record<string, unknown>; reminderAfterMin?: number | null; enabled?: boolean },
+      at: Date,
+    ): Promise<void> {
       const cols: Record<string, unknown> = { updated_at: at };
       if (change.name !== undefined) cols.name = change.name;
       if (change.params !== undefined) cols.params = JSON.stringify(change.params);
@@ -169,7 +173,12 @@ export function alertRulesRepo(scope: LabScope) {
         .where('alert_subscriptions.rule_id', ruleId)
         .orderBy('alert_subscriptions.user_id')
         .select('users.id as userId', 'users.email', 'users.display_name as displayName', 'users.time_zone as timeZone');
-      return rows.map((r: Record<string, unknown>) => ({ userId: Number(r.userId), email: r.email as string, displayName: r.displayName as string, timeZone: (r.timeZone as string | null) ?? null }));
+      return rows.map((r: Record<string, unknown>) => ({
+        userId: Number(r.userId),
+        email: r.email as string,
+        displayName: r.displayName as string,
+        timeZone: (r.timeZone as string | null) ?? null,
+      }));
     },
   };
 }

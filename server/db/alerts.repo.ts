@@ -99,7 +99,17 @@ export function alertsRepo(scope: LabScope) {
       return (await base().whereNotNull('alerts.open_rule_id')).map(toAlert);
     },
     /** Opens an alert; `notifiedAt` (the evaluation's clock) is when its first mail was queued, reminders count from it. */
-    async open(input: { ruleId: number; ruleName: string; kind: AlertRuleKind; channelId: number | null; loggerId: number | null; at: number; value: number | null; detail: string; notifiedAt: number }): Promise<number> {
+    async open(input: {
+      ruleId: number;
+      ruleName: string;
+      kind: AlertRuleKind;
+      channelId: number | null;
+      loggerId: number | null;
+      at: number;
+      value: number | null;
+      detail: string;
+      notifiedAt: number;
+    }): Promise<number> {
       const id = newId();
       await scope.insert('alerts', {
         id,
@@ -134,14 +144,14 @@ export function alertsRepo(scope: LabScope) {
       return n === 1;
     },
     async acknowledge(id: number, by: number, note: string, at: Date): Promise<void> {
-      await scope.table('alerts').where('alerts.id', id).update({ acknowledged_at: at, acknowledged_by: by, acknowledgement_note: note || null });
+      await scope
+        .table('alerts')
+        .where('alerts.id', id)
+        .update({ acknowledged_at: at, acknowledged_by: by, acknowledgement_note: note || null });
     },
     /** Closes a deleted rule's open alert without mail (its history stays). */
     async closeForDeletedRule(ruleId: number, at: number): Promise<void> {
-      await scope
-        .table('alerts')
-        .where('alerts.open_rule_id', ruleId)
-        .update({ open_rule_id: null, resolved_at: at, resolved_detail: 'the rule was deleted' });
+      await scope.table('alerts').where('alerts.open_rule_id', ruleId).update({ open_rule_id: null, resolved_at: at, resolved_detail: 'the rule was deleted' });
     },
   };
 }

@@ -58,10 +58,21 @@ export function auditRepo(scope: LabScope) {
       };
       const [{ n }] = await filtered().count({ n: '*' });
       const rows = await filtered()
-        .orderBy([{ column: 'audit_events.at', order: 'desc' }, { column: 'audit_events.id', order: 'desc' }])
+        .orderBy([
+          { column: 'audit_events.at', order: 'desc' },
+          { column: 'audit_events.id', order: 'desc' },
+        ])
         .limit(filter.pageSize)
         .offset((filter.page - 1) * filter.pageSize)
-        .select('audit_events.id', 'audit_events.at', 'audit_events.action', 'audit_events.summary', 'audit_events.details', 'actor.display_name as actorName', 'actor.email as actorEmail');
+        .select(
+          'audit_events.id',
+          'audit_events.at',
+          'audit_events.action',
+          'audit_events.summary',
+          'audit_events.details',
+          'actor.display_name as actorName',
+          'actor.email as actorEmail',
+        );
       return {
         total: Number(n),
         entries: rows.map((r: Record<string, unknown>) => ({

@@ -147,7 +147,13 @@ export function channelReadingsRepo(scope: LabScope, options: ChannelReadingsOpt
         toColumns(
           stepMs === resolutionS * 1000
             ? await arrays(`SELECT bucket_start, ${single} ${where} ORDER BY bucket_start`, [channelId, resolutionS, a, b])
-            : await arrays(`SELECT bucket_start - MOD(bucket_start, ?) AS b, ${grouped} ${where} GROUP BY b ORDER BY b`, [stepMs, channelId, resolutionS, a, b]),
+            : await arrays(`SELECT bucket_start - MOD(bucket_start, ?) AS b, ${grouped} ${where} GROUP BY b ORDER BY b`, [
+                stepMs,
+                channelId,
+                resolutionS,
+                a,
+                b,
+              ]),
         ),
       );
     },

@@ -95,7 +95,10 @@ export function channelsRepo(scope: LabScope) {
     },
 
     async update(id: number, input: Partial<ChannelInput>): Promise<void> {
-      await scope.table('channels').where('channels.id', id).update({ ...columnsOf(input), updated_at: new Date() });
+      await scope
+        .table('channels')
+        .where('channels.id', id)
+        .update({ ...columnsOf(input), updated_at: new Date() });
     },
 
     async retire(id: number, at: Date): Promise<void> {

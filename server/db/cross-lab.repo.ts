@@ -98,7 +98,15 @@ export function crossLabRepo(db: DbOrTrx) {
     async personalTokenByPrefix(prefix: string): Promise<PersonalTokenMatch | null> {
       const row = await db('personal_tokens')
         .where('personal_tokens.prefix', prefix)
-        .first('tenant_id as tenantId', 'id as tokenId', 'user_id as userId', 'token_hash as tokenHash', 'expires_at as expiresAt', 'revoked_at as revokedAt', 'last_used_at as lastUsedAt');
+        .first(
+          'tenant_id as tenantId',
+          'id as tokenId',
+          'user_id as userId',
+          'token_hash as tokenHash',
+          'expires_at as expiresAt',
+          'revoked_at as revokedAt',
+          'last_used_at as lastUsedAt',
+        );
       if (!row) return null;
       return {
         tenantId: Number(row.tenantId),
@@ -154,7 +162,11 @@ export function crossLabRepo(db: DbOrTrx) {
 
     /** Every lab's id, slug and name, for jobs that visit each lab in turn (the usage job). */
     async allLabs(): Promise<Array<{ id: number; slug: string; name: string }>> {
-      return (await db('labs').orderBy('id').select('id', 'slug', 'name')).map((r: { id: number; slug: string; name: string }) => ({ id: Number(r.id), slug: r.slug, name: r.name }));
+      return (await db('labs').orderBy('id').select('id', 'slug', 'name')).map((r: { id: number; slug: string; name: string }) => ({
+        id: Number(r.id),
+        slug: r.slug,
+        name: r.name,
+      }));
     },
 
     /**
@@ -162,7 +174,9 @@ export function crossLabRepo(db: DbOrTrx) {
      * walk (lab ids only). Small tables: rules are few per lab, sent mail may be pruned.
      */
     async labsWithAlertWork(): Promise<number[]> {
-      const rows = await db.raw('SELECT DISTINCT tenant_id AS id FROM alert_rules WHERE enabled = 1 UNION SELECT DISTINCT tenant_id FROM notification_outbox WHERE sent_at IS NULL');
+      const rows = await db.raw(
+        'SELECT DISTINCT tenant_id AS id FROM alert_rules WHERE enabled = 1 UNION SELECT DISTINCT tenant_id FROM notification_outbox WHERE sent_at IS NULL',
+      );
       return (rows[0] as Array<{ id: unknown }>).map((r) => Number(r.id));
     },
   };

@@ -14,9 +14,10 @@ interface BinaryConnection {
 export async function executeArrays(db: Knex, sql: string, values: unknown[]): Promise<unknown[][]> {
   const conn = (await db.client.acquireConnection()) as BinaryConnection;
   try {
-    return await new Promise<unknown[][]>((resolve, reject) => conn.execute({ sql, rowsAsArray: true }, values, (err, rows) => (err ? reject(err) : resolve(rows as unknown[][]))));
+    return await new Promise<unknown[][]>((resolve, reject) =>
+      conn.execute({ sql, rowsAsArray: true }, values, (err, rows) => (err ? reject(err) : resolve(rows as unknown[][]))),
+    );
   } finally {
     await db.client.releaseConnection(conn);
   }
 }
-

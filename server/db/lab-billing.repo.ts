@@ -110,9 +110,14 @@ export function labBillingRepo(scope: LabScope) {
      * sees this one's readings before it checks. Returns false (and changes nothing) when the
      * batch does not fit.
      */
-    async reserveBatch(add: { readings: number; quarantined: number; quarantineFreed: number }, limits: { readings: number; quarantinedRows: number }, freePlanKey: string): Promise<boolean> {
+    async reserveBatch(
+      add: { readings: number; quarantined: number; quarantineFreed: number },
+      limits: { readings: number; quarantinedRows: number },
+      freePlanKey: string,
+    ): Promise<boolean> {
       const grow = add.quarantined - add.quarantineFreed;
-      const sql = 'UPDATE lab_billing SET readings_count = readings_count + ? WHERE tenant_id = :lab AND (? = 0 OR readings_count + ? <= ?) AND (? <= 0 OR quarantined_count + ? <= ?)';
+      const sql =
+        'UPDATE lab_billing SET readings_count = readings_count + ? WHERE tenant_id = :lab AND (? = 0 OR readings_count + ? <= ?) AND (? <= 0 OR quarantined_count + ? <= ?)';
       const run = async () => {
         const [result] = await scope.raw(sql, [add.readings, add.readings, add.readings, limits.readings, grow, grow, limits.quarantinedRows]);
         return Number((result as { affectedRows: number }).affectedRows) > 0;

@@ -64,7 +64,9 @@ export function labsRepo(db: DbOrTrx) {
 
     /** Which of `slugs` labs already use (one statement, whatever the answer). */
     async takenAmong(slugs: readonly string[]): Promise<Set<string>> {
-      const rows: Array<{ slug: string }> = await db('labs').whereIn('slug', [...slugs]).select('slug');
+      const rows: Array<{ slug: string }> = await db('labs')
+        .whereIn('slug', [...slugs])
+        .select('slug');
       return new Set(rows.map((r) => r.slug));
     },
 

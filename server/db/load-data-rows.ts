@@ -3,7 +3,10 @@ import type { Knex } from 'knex';
 
 /** The part of a mysql2 connection used here (a text query that may stream a local file). */
 interface InfileConnection {
-  query(options: { sql: string; infileStreamFactory: () => Readable }, cb: (err: (Error & { code?: string }) | null, result: { affectedRows: number }) => void): void;
+  query(
+    options: { sql: string; infileStreamFactory: () => Readable },
+    cb: (err: (Error & { code?: string }) | null, result: { affectedRows: number }) => void,
+  ): void;
 }
 
 /** The server or driver refuses LOCAL INFILE (a managed database may switch it off). */

@@ -12,8 +12,5 @@ export async function migrateToLatest(db: Db): Promise<string[]> {
 
 /** Rolls every migration back (tests use it to prove each `down` works). */
 export async function rollbackAll(db: Db): Promise<void> {
-  await db.migrate.rollback(
-    { migrationSource: new LagbookMigrationSource(migrationsDirectory()), tableName: 'knex_migrations' },
-    true,
-  );
+  await db.migrate.rollback({ migrationSource: new LagbookMigrationSource(migrationsDirectory()), tableName: 'knex_migrations' }, true);
 }

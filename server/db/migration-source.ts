@@ -14,9 +14,7 @@ export class LagbookMigrationSource implements Knex.MigrationSource<string> {
 
   async getMigrations(): Promise<string[]> {
     const files = await readdir(this.directory);
-    return files
-      .filter((f) => /^\d{14}_[a-z0-9-]+\.(ts|js)$/.test(f) && !f.endsWith('.d.ts'))
-      .sort();
+    return files.filter((f) => /^\d{14}_[a-z0-9-]+\.(ts|js)$/.test(f) && !f.endsWith('.d.ts')).sort();
   }
 
   getMigrationName(file: string): string {

@@ -65,7 +65,14 @@ export function outboxRepo(scope: LabScope) {
           'notification_outbox.body_html as html',
           'notification_outbox.attempts',
         );
-      return rows.map((r: Record<string, unknown>) => ({ ...(r as unknown as OutboxMessage), id: Number(r.id), alertId: Number(r.alertId), userId: Number(r.userId), sequence: Number(r.sequence), attempts: Number(r.attempts) }));
+      return rows.map((r: Record<string, unknown>) => ({
+        ...(r as unknown as OutboxMessage),
+        id: Number(r.id),
+        alertId: Number(r.alertId),
+        userId: Number(r.userId),
+        sequence: Number(r.sequence),
+        attempts: Number(r.attempts),
+      }));
     },
     /** Claims one message until `until`; false when another sender has it or it was sent. */
     async claim(id: number, now: number, until: number): Promise<boolean> {

@@ -114,7 +114,9 @@ export function quarantineRepo(scope: LabScope) {
      * `quarantine_*recent_index` indexes however deep the page). `nextCursor` is null on the
      * last page.
      */
-    async page(filter: QuarantineFilter & { after?: QuarantineCursor; pageSize: number }): Promise<{ rows: QuarantinedRow[]; nextCursor: QuarantineCursor | null }> {
+    async page(
+      filter: QuarantineFilter & { after?: QuarantineCursor; pageSize: number },
+    ): Promise<{ rows: QuarantinedRow[]; nextCursor: QuarantineCursor | null }> {
       const q = filtered(filter);
       const c = filter.after;
       if (c) {

@@ -78,10 +78,10 @@ export function readingsRepo(scope: LabScope) {
         const chunk = times.slice(i, i + 1000);
         // Binary protocol (on this transaction's connection): exact doubles, so a re-sent value
         // with 17 significant digits is a duplicate, not a conflict.
-        const rows = await scope.arrays(`SELECT ts, value FROM readings WHERE tenant_id = :lab AND channel_id = ? AND ts IN (${chunk.map(() => '?').join(', ')})`, [
-          channelId,
-          ...chunk,
-        ]);
+        const rows = await scope.arrays(
+          `SELECT ts, value FROM readings WHERE tenant_id = :lab AND channel_id = ? AND ts IN (${chunk.map(() => '?').join(', ')})`,
+          [channelId, ...chunk],
+        );
         for (const r of rows) out.set(Number(r[0]), Number(r[1]));
       }
       return out;

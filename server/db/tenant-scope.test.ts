@@ -13,7 +13,11 @@ describe('bindLab', () => {
   });
 
   it('binds every :lab of a statement (a join names the lab on both sides)', () => {
-    const out = bindLab('UPDATE channels c JOIN readings r ON r.channel_id = c.id SET c.x = ? WHERE c.tenant_id = :lab AND r.tenant_id = :lab AND r.ts = ?', ['x', 5], 3);
+    const out = bindLab(
+      'UPDATE channels c JOIN readings r ON r.channel_id = c.id SET c.x = ? WHERE c.tenant_id = :lab AND r.tenant_id = :lab AND r.ts = ?',
+      ['x', 5],
+      3,
+    );
     expect(out.sql).toBe('UPDATE channels c JOIN readings r ON r.channel_id = c.id SET c.x = ? WHERE c.tenant_id = ? AND r.tenant_id = ? AND r.ts = ?');
     expect(out.bindings).toEqual(['x', 3, 3, 5]);
   });
@@ -33,7 +37,9 @@ describe('bindLab', () => {
   });
 
   it('refuses a tenant column compared with a hand-passed value', () => {
-    expect(() => bindLab('SELECT ts FROM readings WHERE tenant_id = ? AND x = :lab', [2], 1)).toThrow('scope.raw: compare tenant_id with :lab, not with a bound value');
+    expect(() => bindLab('SELECT ts FROM readings WHERE tenant_id = ? AND x = :lab', [2], 1)).toThrow(
+      'scope.raw: compare tenant_id with :lab, not with a bound value',
+    );
     expect(() => bindLab('SELECT ts FROM readings r WHERE r.tenant_id IN (?) AND x = :lab', [2], 1)).toThrow('scope.raw: compare tenant_id with :lab');
   });
 
@@ -41,7 +47,9 @@ describe('bindLab', () => {
     expect(() => bindLab('SELECT ts FROM readings WHERE tenant_id = :lab AND channel_id = ? AND ts = ?', [1], 1)).toThrow(
       'scope.raw: the statement has more placeholders than the 1 binding(s) given',
     );
-    expect(() => bindLab('SELECT ts FROM readings WHERE tenant_id = :lab AND channel_id = ?', [1, 2], 1)).toThrow('scope.raw: 2 binding(s) given for 1 placeholder(s)');
+    expect(() => bindLab('SELECT ts FROM readings WHERE tenant_id = :lab AND channel_id = ?', [1, 2], 1)).toThrow(
+      'scope.raw: 2 binding(s) given for 1 placeholder(s)',
+    );
   });
 });
 
@@ -52,7 +60,10 @@ describe('inLab', () => {
 
   it('limits table queries to the lab and stamps inserts with its id, whatever tenant_id the row names', () => {
     const scope = inLab(offline, 9);
-    expect(scope.table('loggers').select('loggers.id').toSQL().toNative()).toEqual({ sql: 'select `loggers`.`id` from `loggers` where `loggers`.`tenant_id` = ?', bindings: [9] });
+    expect(scope.table('loggers').select('loggers.id').toSQL().toNative()).toEqual({
+      sql: 'select `loggers`.`id` from `loggers` where `loggers`.`tenant_id` = ?',
+      bindings: [9],
+    });
     expect(scope.insert('loggers', { id: 1, tenant_id: 4 }).toSQL().toNative().bindings).toEqual([1, 9]);
   });
 

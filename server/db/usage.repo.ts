@@ -27,7 +27,11 @@ export function usageRepo(scope: LabScope) {
      * rows in `readings` — one small row per channel-day instead of a scan of every reading.
      */
     async storedReadings(): Promise<number> {
-      const row = await scope.table('reading_rollups').where('reading_rollups.resolution_s', DAY_RESOLUTION_S).sum({ n: 'reading_rollups.count_value' }).first();
+      const row = await scope
+        .table('reading_rollups')
+        .where('reading_rollups.resolution_s', DAY_RESOLUTION_S)
+        .sum({ n: 'reading_rollups.count_value' })
+        .first();
       return Number(row?.n ?? 0);
     },
 
@@ -66,7 +70,12 @@ export function usageRepo(scope: LabScope) {
         .orderBy('usage_snapshots.day')
         .select('usage_snapshots.day', 'readings', 'loggers', 'members');
       // DATE comes back as UTC midnight (the pool runs with timezone 'Z')
-      return rows.map((r: Record<string, unknown>) => ({ day: dayOf(r.day), readings: Number(r.readings), loggers: Number(r.loggers), members: Number(r.members) }));
+      return rows.map((r: Record<string, unknown>) => ({
+        day: dayOf(r.day),
+        readings: Number(r.readings),
+        loggers: Number(r.loggers),
+        members: Number(r.members),
+      }));
     },
   };
 }

@@ -26,7 +26,7 @@ describe('csvField', () => {
     expect(csvField(-3.2)).toBe('-3.2');
     expect(csvField(0)).toBe('0');
     expect(csvField(1e-7)).toBe('1e-7');
-    expect(csvLine(['x', -3.2, -1])).toBe("x,-3.2,-1\r\n");
+    expect(csvLine(['x', -3.2, -1])).toBe('x,-3.2,-1\r\n');
   });
 
   it('leaves text that is a plain number alone (a logger sent "-3.2")', () => {

@@ -17,7 +17,16 @@ const formatters = new Map<string, Intl.DateTimeFormat>();
 export function wallClockFormatter(timeZone: string): Intl.DateTimeFormat {
   let f = formatters.get(timeZone);
   if (!f) {
-    f = new Intl.DateTimeFormat('en-US', { timeZone, hourCycle: 'h23', year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', second: '2-digit' });
+    f = new Intl.DateTimeFormat('en-US', {
+      timeZone,
+      hourCycle: 'h23',
+      year: 'numeric',
+      month: '2-digit',
+      day: '2-digit',
+      hour: '2-digit',
+      minute: '2-digit',
+      second: '2-digit',
+    });
     formatters.set(timeZone, f);
   }
   return f;
@@ -25,6 +34,10 @@ export function wallClockFormatter(timeZone: string): Intl.DateTimeFormat {
 
 /** An instant as "YYYY-MM-DD HH:MM:SS" on the wall clock of `timeZone`. */
 export function wallClockText(timeZone: string, utcMs: number): string {
-  const parts = Object.fromEntries(wallClockFormatter(timeZone).formatToParts(new Date(utcMs)).map((p) => [p.type, p.value]));
+  const parts = Object.fromEntries(
+    wallClockFormatter(timeZone)
+      .formatToParts(new Date(utcMs))
+      .map((p) => [p.type, p.value]),
+  );
   return `${parts.year}-${parts.month}-${parts.day} ${parts.hour}:${parts.minute}:${parts.second}`;
 }

@@ -86,7 +86,11 @@ export function createChannelsService(deps: { db: Db; now?: () => number }) {
       const channels = await state.listActive();
       const at = now();
       const startHour = Math.floor(at / HOUR_MS) * HOUR_MS - (SPARKLINE_HOURS - 1) * HOUR_MS;
-      const means = await readings.hourlyMeans(channels.map((c) => c.id), startHour, startHour + SPARKLINE_HOURS * HOUR_MS);
+      const means = await readings.hourlyMeans(
+        channels.map((c) => c.id),
+        startHour,
+        startHour + SPARKLINE_HOURS * HOUR_MS,
+      );
       const lines = new Map<number, Array<number | null>>(channels.map((c) => [c.id, new Array(SPARKLINE_HOURS).fill(null)]));
       for (const m of means) {
         const line = lines.get(m.channelId);
@@ -137,8 +141,18 @@ export function createChannelsService(deps: { db: Db; now?: () => number }) {
       const start = Math.floor(q.from / widthMs) * widthMs;
       const count = Math.ceil((q.to - start) / widthMs);
       const end = start + count * widthMs;
-      const rows = resolutionS ? await readings.rollupBuckets(channelId, resolutionS, start, end, widthMs) : await readings.rawBuckets(channelId, start, end, widthMs);
-      return { shape: 'buckets', source: resolutionS ? 'rollup' : 'raw', resolutionS, bucketMs: widthMs, from: start, to: end, ...bucketSeries(rows, start, widthMs, count) };
+      const rows = resolutionS
+        ? await readings.rollupBuckets(channelId, resolutionS, start, end, widthMs)
+        : await readings.rawBuckets(channelId, start, end, widthMs);
+      return {
+        shape: 'buckets',
+        source: resolutionS ? 'rollup' : 'raw',
+        resolutionS,
+        bucketMs: widthMs,
+        from: start,
+        to: end,
+        ...bucketSeries(rows, start, widthMs, count),
+      };
     },
 
     /**

@@ -41,7 +41,9 @@ describe('createDiagnosticsConcurrency', () => {
     expect(err.status).toBe(429);
     expect(err.code).toBe('diagnostics_busy');
     expect(err.retryAfterSeconds).toBe(DIAGNOSTICS_RETRY_AFTER_S);
-    expect(err.message).toBe("2 diagnostics runs of yours are still running (channel 'Air temperature', channel 'Soil moisture'); try again when one finishes.");
+    expect(err.message).toBe(
+      "2 diagnostics runs of yours are still running (channel 'Air temperature', channel 'Soil moisture'); try again when one finishes.",
+    );
     expect(gate.running(7)).toBe(2);
 
     // Someone else is not held back by person 7's runs.

@@ -46,7 +46,11 @@ export function createDiagnosticsConcurrency(options: DiagnosticsConcurrencyOpti
     /** Takes one of `personId`'s slots for a run described by `what` (e.g. "channel 'Air temperature'"). */
     enter(personId: number, what: string): () => void {
       const runs = inFlight.get(personId) ?? new Set();
-      if (runs.size >= options.maxPerPerson) throw new DiagnosticsBusyError([...runs].map((r) => r.what), retryAfterS);
+      if (runs.size >= options.maxPerPerson)
+        throw new DiagnosticsBusyError(
+          [...runs].map((r) => r.what),
+          retryAfterS,
+        );
       const run = { what };
       runs.add(run);
       inFlight.set(personId, runs);

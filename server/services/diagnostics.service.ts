@@ -3,7 +3,16 @@ import { inLab } from '../db/tenant-scope.ts';
 import { channelReadingsRepo, type ReadingColumns } from '../db/channel-readings.repo.ts';
 import type { ChannelWithState } from '../db/channel-state.repo.ts';
 import { ROLLUP_RESOLUTIONS_S } from '../db/readings.repo.ts';
-import { AnalysisInputError, channelDiagnostics, rangeComparison, type ChannelDiagnostics, type ChannelDiagnosticsOptions, type ChannelReadings, type CompareMeansResult, type RangeComparisonOptions } from '../analysis/index.ts';
+import {
+  AnalysisInputError,
+  channelDiagnostics,
+  rangeComparison,
+  type ChannelDiagnostics,
+  type ChannelDiagnosticsOptions,
+  type ChannelReadings,
+  type CompareMeansResult,
+  type RangeComparisonOptions,
+} from '../analysis/index.ts';
 import type { AnalysisPool } from '../workers/analysis-pool.ts';
 import type { AnalysisResult, AnalysisTask } from '../workers/analysis-registry.ts';
 import { AppError, ValidationError } from '../errors.ts';
@@ -44,7 +53,13 @@ interface LoadedGrid {
  * the same data version: another differencing, lag or decomposition on the same range runs the
  * engine again without reading the database again.
  */
-export function createDiagnosticsService(deps: { db: Db; channels: ChannelsService; pool?: AnalysisPool; cache?: Partial<ResultCacheOptions>; gridCache?: Partial<ResultCacheOptions> }) {
+export function createDiagnosticsService(deps: {
+  db: Db;
+  channels: ChannelsService;
+  pool?: AnalysisPool;
+  cache?: Partial<ResultCacheOptions>;
+  gridCache?: Partial<ResultCacheOptions>;
+}) {
   const cache = createResultCache({ ...DEFAULT_CACHE, ...deps.cache });
   const grids = createResultCache<LoadedGrid>({ ...DEFAULT_GRID_CACHE, ...deps.gridCache, sizeOf: (g) => g.data.ts.byteLength + g.data.values.byteLength });
 
@@ -53,7 +68,13 @@ export function createDiagnosticsService(deps: { db: Db; channels: ChannelsServi
    * data version, range, step and aggregate were read lately (the panel's other parameters
    * change nothing here), else from the database.
    */
-  async function load(lab: LabContext, channel: ChannelWithState, range: { from: number; to: number }, stepMs: number, agg: DiagnosticsParams['agg']): Promise<LoadedGrid> {
+  async function load(
+    lab: LabContext,
+    channel: ChannelWithState,
+    range: { from: number; to: number },
+    stepMs: number,
+    agg: DiagnosticsParams['agg'],
+  ): Promise<LoadedGrid> {
     const key = JSON.stringify([lab.id, channel.id, channel.dataVersion, range, stepMs, agg]);
     const kept = grids.get(key);
     if (kept) return kept;
@@ -63,9 +84,16 @@ export function createDiagnosticsService(deps: { db: Db; channels: ChannelsServi
   }
 
   /** One channel's values on the step grid of [from, to): exact rollup cells when possible. */
-  async function read(lab: LabContext, channelId: number, range: { from: number; to: number }, stepMs: number, agg: DiagnosticsParams['agg']): Promise<LoadedGrid> {
+  async function read(
+    lab: LabContext,
+    channelId: number,
+    range: { from: number; to: number },
+    stepMs: number,
+    agg: DiagnosticsParams['agg'],
+  ): Promise<LoadedGrid> {
     const repo = channelReadingsRepo(inLab(deps.db, lab.id));
-    const resolutionS = agg === 'mean' || agg === 'min' || agg === 'max' ? [...ROLLUP_RESOLUTIONS_S].reverse().find((r) => stepMs % (r * 1000) === 0) : undefined;
+    const resolutionS =
+      agg === 'mean' || agg === 'min' || agg === 'max' ? [...ROLLUP_RESOLUTIONS_S].reverse().find((r) => stepMs % (r * 1000) === 0) : undefined;
     if (resolutionS && (agg === 'mean' || agg === 'min' || agg === 'max')) {
       return { data: await repo.cellsFromRollups(channelId, resolutionS, range.from, range.to, stepMs, agg), source: { kind: 'rollups', resolutionS } };
     }
@@ -83,7 +111,12 @@ export function createDiagnosticsService(deps: { db: Db; channels: ChannelsServi
     }
   }
 
-  const compute = (readings: ChannelReadings, options: ChannelDiagnosticsOptions, partner: ChannelReadings | undefined, signal?: AbortSignal): Promise<ChannelDiagnostics> =>
+  const compute = (
+    readings: ChannelReadings,
+    options: ChannelDiagnosticsOptions,
+    partner: ChannelReadings | undefined,
+    signal?: AbortSignal,
+  ): Promise<ChannelDiagnostics> =>
     runEngine({ fn: 'channelDiagnostics', args: [readings, options, partner] }, () => channelDiagnostics(readings, options, partner), signal);
 
   const compare = (a: ChannelReadings, b: ChannelReadings, options: RangeComparisonOptions, signal?: AbortSignal): Promise<CompareMeansResult> =>
@@ -94,7 +127,9 @@ export function createDiagnosticsService(deps: { db: Db; channels: ChannelsServi
     const range = { from: Math.floor(from / stepMs) * stepMs, to: Math.ceil(to / stepMs) * stepMs };
     const cells = (range.to - range.from) / stepMs;
     if (cells > MAX_DIAGNOSTICS_CELLS) {
-      throw new ValidationError(`${field}: the range holds ${cells} steps of ${stepMs / 1000} s; at most ${MAX_DIAGNOSTICS_CELLS} (choose a longer step or a shorter range)`);
+      throw new ValidationError(
+        `${field}: the range holds ${cells} steps of ${stepMs / 1000} s; at most ${MAX_DIAGNOSTICS_CELLS} (choose a longer step or a shorter range)`,
+      );
     }
     return range;
   }
@@ -127,7 +162,13 @@ export function createDiagnosticsService(deps: { db: Db; channels: ChannelsServi
      * thins a long decomposition for charts; 'full' keeps every cell (the CSV export). Each is
      * cached on its own.
      */
-    async report(lab: LabContext, channelId: number, params: DiagnosticsParams, signal?: AbortSignal, resolution: DecompositionResolution = 'drawing'): Promise<{ json: Buffer; cached: boolean }> {
+    async report(
+      lab: LabContext,
+      channelId: number,
+      params: DiagnosticsParams,
+      signal?: AbortSignal,
+      resolution: DecompositionResolution = 'drawing',
+    ): Promise<{ json: Buffer; cached: boolean }> {
       const channel = await deps.channels.requireChannel(lab, channelId);
       const partner: ChannelWithState | null = params.ccfWith === undefined ? null : await deps.channels.requireChannel(lab, params.ccfWith);
       const stepS = params.step ?? channel.expectedIntervalS ?? channel.logger.expectedIntervalS;
@@ -135,7 +176,9 @@ export function createDiagnosticsService(deps: { db: Db; channels: ChannelsServi
       const range = { from: Math.floor(params.from / stepMs) * stepMs, to: Math.ceil(params.to / stepMs) * stepMs };
       const cells = (range.to - range.from) / stepMs;
       if (cells > MAX_DIAGNOSTICS_CELLS) {
-        throw new ValidationError(`step: the range holds ${cells} steps of ${stepS} s; at most ${MAX_DIAGNOSTICS_CELLS} (choose a longer step or a shorter range)`);
+        throw new ValidationError(
+          `step: the range holds ${cells} steps of ${stepS} s; at most ${MAX_DIAGNOSTICS_CELLS} (choose a longer step or a shorter range)`,
+        );
       }
       const key = JSON.stringify([lab.id, channelId, channel.dataVersion, partner?.id ?? null, partner?.dataVersion ?? null, range, stepS, params, resolution]);
       const hit = cache.get(key);

@@ -75,7 +75,13 @@ export function createInvitationsService(deps: { db: Db; mailer: Mailer; publicU
       await deps.planLimits?.assertRoomFor(trx, lab.id, 'members');
       const token = randomBytes(32).toString('base64url');
       const expiresAt = new Date(now().getTime() + INVITATION_LIFETIME_MS);
-      const id = await invitations.insert({ email: input.email, role: input.role, tokenHash: hashInvitationToken(token), invitedBy: actor?.id ?? null, expiresAt });
+      const id = await invitations.insert({
+        email: input.email,
+        role: input.role,
+        tokenHash: hashInvitationToken(token),
+        invitedBy: actor?.id ?? null,
+        expiresAt,
+      });
       const inviter = actor?.displayName ?? 'A Lagbook operator';
       await auditRepo(scope).record({
         actorUserId: actor?.id ?? null,
@@ -128,7 +134,16 @@ export function createInvitationsService(deps: { db: Db; mailer: Mailer; publicU
           summary: `${actor.displayName} sent the invitation to ${invitation.email} again`,
           details: { email: invitation.email },
         });
-        await sendOrFail(invitationMail({ to: invitation.email, labName: lab.name, role: invitation.role, inviterName: actor.displayName, link: linkFor(lab.slug, token), expiresAt }));
+        await sendOrFail(
+          invitationMail({
+            to: invitation.email,
+            labName: lab.name,
+            role: invitation.role,
+            inviterName: actor.displayName,
+            link: linkFor(lab.slug, token),
+            expiresAt,
+          }),
+        );
         return (await invitations.findById(id))!;
       });
     },

@@ -63,7 +63,11 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
      * lab's row is locked first, so concurrent registrations in one lab check the plan's logger
      * limit one after another and never pass it together.
      */
-    async register(lab: LabContext, actor: Actor | null, input: LoggerInput & { channels: ChannelInput[] }): Promise<{ logger: LoggerDetail; issued: IssuedKey }> {
+    async register(
+      lab: LabContext,
+      actor: Actor | null,
+      input: LoggerInput & { channels: ChannelInput[] },
+    ): Promise<{ logger: LoggerDetail; issued: IssuedKey }> {
       try {
         return await deps.db.transaction(async (trx) => {
           const scope = inLab(trx, lab.id);
@@ -97,7 +101,14 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
           const scope = inLab(trx, lab.id);
           const before = await requireLogger(scope, id, true);
           await loggersRepo(scope).update(id, patch);
-          await auditRepo(scope).record({ actorUserId: actor.id, action: 'logger.updated', targetType: 'logger', targetId: id, summary: `${actor.displayName} edited the logger "${before.name}"`, details: { ...patch } });
+          await auditRepo(scope).record({
+            actorUserId: actor.id,
+            action: 'logger.updated',
+            targetType: 'logger',
+            targetId: id,
+            summary: `${actor.displayName} edited the logger "${before.name}"`,
+            details: { ...patch },
+          });
           return (await loggersRepo(scope).find(id))!;
         });
       } catch (err) {
@@ -113,7 +124,13 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
         if (logger.retiredAt) return;
         await loggersRepo(scope).retire(id, now());
         await ingestKeysRepo(scope).revokeAllForLogger(id, now());
-        await auditRepo(scope).record({ actorUserId: actor.id, action: 'logger.retired', targetType: 'logger', targetId: id, summary: `${actor.displayName} retired the logger "${logger.name}"` });
+        await auditRepo(scope).record({
+          actorUserId: actor.id,
+          action: 'logger.retired',
+          targetType: 'logger',
+          targetId: id,
+          summary: `${actor.displayName} retired the logger "${logger.name}"`,
+        });
       });
     },
 
@@ -123,7 +140,13 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
           const scope = inLab(trx, lab.id);
           const logger = await requireLogger(scope, loggerId, true);
           const id = await channelsRepo(scope).insert(loggerId, input);
-          await auditRepo(scope).record({ actorUserId: actor.id, action: 'channel.added', targetType: 'channel', targetId: id, summary: `${actor.displayName} added the channel "${input.key}" to "${logger.name}"` });
+          await auditRepo(scope).record({
+            actorUserId: actor.id,
+            action: 'channel.added',
+            targetType: 'channel',
+            targetId: id,
+            summary: `${actor.displayName} added the channel "${input.key}" to "${logger.name}"`,
+          });
           return (await channelsRepo(scope).find(id))!;
         });
       } catch (err) {
@@ -139,11 +162,24 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
           const channel = await channelsRepo(scope).find(channelId);
           if (!channel || channel.loggerId !== loggerId) throw new NotFoundError('No such channel on this logger.');
           const merged = { validMin: channel.validMin, validMax: channel.validMax, ...patch };
-          if (merged.validMin !== null && merged.validMax !== null && merged.validMin !== undefined && merged.validMax !== undefined && merged.validMin >= merged.validMax) {
+          if (
+            merged.validMin !== null &&
+            merged.validMax !== null &&
+            merged.validMin !== undefined &&
+            merged.validMax !== undefined &&
+            merged.validMin >= merged.validMax
+          ) {
             throw new ConflictError('invalid_range', 'validMax: must be above validMin');
           }
           await channelsRepo(scope).update(channelId, patch);
-          await auditRepo(scope).record({ actorUserId: actor.id, action: 'channel.updated', targetType: 'channel', targetId: channelId, summary: `${actor.displayName} edited the channel "${channel.key}"`, details: { ...patch } });
+          await auditRepo(scope).record({
+            actorUserId: actor.id,
+            action: 'channel.updated',
+            targetType: 'channel',
+            targetId: channelId,
+            summary: `${actor.displayName} edited the channel "${channel.key}"`,
+            details: { ...patch },
+          });
           return (await channelsRepo(scope).find(channelId))!;
         });
       } catch (err) {
@@ -159,7 +195,13 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
         if (!channel || channel.loggerId !== loggerId) throw new NotFoundError('No such channel on this logger.');
         if (channel.retiredAt) return;
         await channelsRepo(scope).retire(channelId, now());
-        await auditRepo(scope).record({ actorUserId: actor.id, action: 'channel.retired', targetType: 'channel', targetId: channelId, summary: `${actor.displayName} retired the channel "${channel.key}"` });
+        await auditRepo(scope).record({
+          actorUserId: actor.id,
+          action: 'channel.retired',
+          targetType: 'channel',
+          targetId: channelId,
+          summary: `${actor.displayName} retired the channel "${channel.key}"`,
+        });
       });
     },
 
@@ -192,7 +234,14 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
         if (!key || key.loggerId !== loggerId) throw new NotFoundError('No such key on this logger.');
         if (key.revokedAt) return;
         await ingestKeysRepo(scope).revoke(keyId, now());
-        await auditRepo(scope).record({ actorUserId: actor.id, action: 'ingest-key.revoked', targetType: 'logger', targetId: loggerId, summary: `${actor.displayName} revoked key ${key.prefix}… of "${logger.name}"`, details: { keyPrefix: key.prefix } });
+        await auditRepo(scope).record({
+          actorUserId: actor.id,
+          action: 'ingest-key.revoked',
+          targetType: 'logger',
+          targetId: loggerId,
+          summary: `${actor.displayName} revoked key ${key.prefix}… of "${logger.name}"`,
+          details: { keyPrefix: key.prefix },
+        });
       });
     },
   };

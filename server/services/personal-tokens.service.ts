@@ -53,7 +53,14 @@ export function createPersonalTokensService(deps: { db: Db; now?: () => Date }) 
         const made = newPersonalToken();
         const createdAt = now();
         const expiresAt = new Date(createdAt.getTime() + input.expiresInDays * DAY_MS);
-        const id = await personalTokensRepo(scope).insert({ userId: actor.id, name: input.name, prefix: made.prefix, tokenHash: made.hash, createdAt, expiresAt });
+        const id = await personalTokensRepo(scope).insert({
+          userId: actor.id,
+          name: input.name,
+          prefix: made.prefix,
+          tokenHash: made.hash,
+          createdAt,
+          expiresAt,
+        });
         await auditRepo(scope).record({
           actorUserId: actor.id,
           action: 'token.created',

@@ -63,7 +63,12 @@ export function createQuarantineService(deps: { db: Db; now?: () => number; hook
         const missing = ids.filter((id) => !found.has(id));
         if (missing.length) throw new NotFoundError(`No such quarantined row in this lab: ${missing.join(', ')}.`);
         const removed = await quarantineRepo(scope).remove(ids);
-        await auditRepo(scope).record({ actorUserId: actor.id, action: 'quarantine.discarded', summary: `${actor.displayName} discarded ${removed} quarantined row(s)`, details: { count: removed } });
+        await auditRepo(scope).record({
+          actorUserId: actor.id,
+          action: 'quarantine.discarded',
+          summary: `${actor.displayName} discarded ${removed} quarantined row(s)`,
+          details: { count: removed },
+        });
         return removed;
       });
     },

@@ -7,7 +7,17 @@ function fakeUsers() {
   const repo = {
     async upsertFromIdentity(claims: IdentityClaims): Promise<User> {
       saved.push(claims);
-      return { id: 1, oidcIssuer: claims.issuer, oidcSubject: claims.subject, email: claims.email, emailVerified: claims.emailVerified, displayName: claims.displayName, createdAt: new Date(0), lastSignInAt: null, timeZone: null };
+      return {
+        id: 1,
+        oidcIssuer: claims.issuer,
+        oidcSubject: claims.subject,
+        email: claims.email,
+        emailVerified: claims.emailVerified,
+        displayName: claims.displayName,
+        createdAt: new Date(0),
+        lastSignInAt: null,
+        timeZone: null,
+      };
     },
   } as unknown as UsersRepo;
   return { repo, saved };
@@ -24,12 +34,16 @@ describe('sign-in service', () => {
       name: '',
     });
     expect(user.email).toBe('maren.olowe@fernhollow.example');
-    expect(saved).toEqual([{ issuer: 'http://idp', subject: 's1', email: 'maren.olowe@fernhollow.example', emailVerified: true, displayName: 'maren.olowe@fernhollow.example' }]);
+    expect(saved).toEqual([
+      { issuer: 'http://idp', subject: 's1', email: 'maren.olowe@fernhollow.example', emailVerified: true, displayName: 'maren.olowe@fernhollow.example' },
+    ]);
   });
 
   it('refuses a profile without an e-mail address and writes nothing', async () => {
     const { repo, saved } = fakeUsers();
-    await expect(createSignInService({ users: repo }).recordSignIn({ issuer: 'http://idp', subject: 's2', email: null })).rejects.toBeInstanceOf(SignInRefusedError);
+    await expect(createSignInService({ users: repo }).recordSignIn({ issuer: 'http://idp', subject: 's2', email: null })).rejects.toBeInstanceOf(
+      SignInRefusedError,
+    );
     expect(saved).toHaveLength(0);
   });
 

@@ -8,10 +8,7 @@ describe('analysis worker pool (real piscina threads)', () => {
 
   it('runs engine functions on worker threads with the same results as in-process', async () => {
     const x = Array.from({ length: 500 }, (_, t) => Math.sin(t / 7) + ((t * 37) % 11) / 10);
-    const [fromPool, bands] = await Promise.all([
-      pool.run({ fn: 'acf', args: [x, { maxLag: 20 }] }),
-      pool.run({ fn: 'ljungBox', args: [x, { lag: 5 }] }),
-    ]);
+    const [fromPool, bands] = await Promise.all([pool.run({ fn: 'acf', args: [x, { maxLag: 20 }] }), pool.run({ fn: 'ljungBox', args: [x, { lag: 5 }] })]);
     expect(Array.from(fromPool)).toEqual(Array.from(acf(x, { maxLag: 20 })));
     expect(bands.df).toBe(5);
   });

@@ -72,13 +72,17 @@ export function generateLogger(logger: DemoLogger, times: number[], rnd: Random)
       make('rh', (i) => Math.min(99, Math.max(25, 78 - 2.2 * (air[i] - 17.5) + rhNoise[i])), 1);
       make('par', (i) => Math.max(0, 1250 * daylight(times[i], start) * Math.max(0.15, 0.8 + clouds[i]) + 15 * rnd.normal() * daylight(times[i], start)), 0);
       const co2Noise = ar1(n, 0.8, 8, rnd);
-      make('co2', (i) => {
-        const t = times[i];
-        const night = daylight(t, start) === 0 ? 55 : 0;
-        const drawdown = -45 * daylight(t, start);
-        const people = isWorkingHours(t) ? 35 : 0;
-        return 425 + night + drawdown + people + co2Noise[i];
-      }, 0);
+      make(
+        'co2',
+        (i) => {
+          const t = times[i];
+          const night = daylight(t, start) === 0 ? 55 : 0;
+          const drawdown = -45 * daylight(t, start);
+          const people = isWorkingHours(t) ? 35 : 0;
+          return 425 + night + drawdown + people + co2Noise[i];
+        },
+        0,
+      );
       break;
     }
     case 'North plot soil station': {

@@ -78,12 +78,22 @@ describe('alert evaluation', () => {
     const rows = await alertsOf(s.f);
     expect(rows).toHaveLength(1);
     // first warm reading of the sustained run at minute 4; hold 300 s → opens at minute 9; resolves at minute 10
-    expect([Number(rows[0].opened_at), Number(rows[0].opened_value), Number(rows[0].resolved_at), Number(rows[0].resolved_value)]).toEqual([t0 + 9 * 60_000, -10, t0 + 10 * 60_000, -20]);
+    expect([Number(rows[0].opened_at), Number(rows[0].opened_value), Number(rows[0].resolved_at), Number(rows[0].resolved_value)]).toEqual([
+      t0 + 9 * 60_000,
+      -10,
+      t0 + 10 * 60_000,
+      -20,
+    ]);
     for (const who of [s.watcher, colleague]) {
-      expect((await mailTo(who)).sort()).toEqual([`Alert: Freezer too warm — Logger ${s.f.ids.loggerId} · Air temperature`, `Resolved: Freezer too warm — Logger ${s.f.ids.loggerId} · Air temperature`]);
+      expect((await mailTo(who)).sort()).toEqual([
+        `Alert: Freezer too warm — Logger ${s.f.ids.loggerId} · Air temperature`,
+        `Resolved: Freezer too warm — Logger ${s.f.ids.loggerId} · Air temperature`,
+      ]);
     }
     const opened = (await fetchCapturedMail(captureUrl, { to: s.watcher.email })).find((m) => m.subject.includes('Alert:'))!;
-    expect(opened.text).toContain(`${t.config.publicUrl}/labs/${s.f.lab.slug}/channels/${s.f.ids.channelId}?from=${t0 + 9 * 60_000 - 6 * 3_600_000}&to=${t0 + 9 * 60_000 + 3_600_000}`);
+    expect(opened.text).toContain(
+      `${t.config.publicUrl}/labs/${s.f.lab.slug}/channels/${s.f.ids.channelId}?from=${t0 + 9 * 60_000 - 6 * 3_600_000}&to=${t0 + 9 * 60_000 + 3_600_000}`,
+    );
     expect(opened.text).toContain('Reading: -10 °C at');
     expect(opened.text).toContain('-10 is above the high limit -15 for 300 s');
     expect(opened.text).not.toContain('your time');
@@ -137,7 +147,11 @@ describe('alert evaluation', () => {
     await ev.runOnce(start + 11 * 60_000);
     await ev.runOnce(start + 12 * 60_000);
     expect((await mailTo(s.watcher)).filter((m) => m.startsWith('Still open (reminder 1)'))).toHaveLength(1);
-    await request(t.app).post(`/api/v1/labs/${s.f.lab.slug}/alerts/${open.id}/acknowledge`).set('Cookie', s.cookie).send({ note: 'Battery swap under way' }).expect(200);
+    await request(t.app)
+      .post(`/api/v1/labs/${s.f.lab.slug}/alerts/${open.id}/acknowledge`)
+      .set('Cookie', s.cookie)
+      .send({ note: 'Battery swap under way' })
+      .expect(200);
     await ev.runOnce(start + 40 * 60_000);
     expect(await mailTo(s.watcher)).toHaveLength(2);
     await store(s.f, start + 41 * 60_000, 60_000, [5.5]);
@@ -156,15 +170,27 @@ describe('alert evaluation', () => {
     const day0 = Math.floor(Date.now() / 86_400_000) * 86_400_000 - 5 * 86_400_000;
     const usual = (h: number) => 21 + 3 * Math.cos((2 * Math.PI * (h - 15)) / 24) + noise();
     await makeRule(s, { name: 'Growth room odd', kind: 'unusual', channelId: s.f.ids.channelId, params: { periodH: 24, k: 5, historyCycles: 3 } });
-    await store(s.f, day0, 3_600_000, Array.from({ length: 72 }, (_, h) => usual(h)));
+    await store(
+      s.f,
+      day0,
+      3_600_000,
+      Array.from({ length: 72 }, (_, h) => usual(h)),
+    );
     await evaluator().runOnce(day0 + 72 * 3_600_000);
-    await store(s.f, day0 + 72 * 3_600_000, 3_600_000, Array.from({ length: 24 }, (_, h) => usual(72 + h))); // day 4, peak ≈ 24 °C at 15:00
+    await store(
+      s.f,
+      day0 + 72 * 3_600_000,
+      3_600_000,
+      Array.from({ length: 24 }, (_, h) => usual(72 + h)),
+    ); // day 4, peak ≈ 24 °C at 15:00
     await evaluator().runOnce(day0 + 96 * 3_600_000);
     expect(await alertsOf(s.f)).toHaveLength(0);
     await store(s.f, day0 + 96 * 3_600_000, 3_600_000, [usual(96), usual(97), usual(98), 24, usual(100)]); // 24 °C at 03:00
     await evaluator().runOnce(day0 + 101 * 3_600_000);
     const rows = await alertsOf(s.f);
-    expect(rows.map((r) => [Number(r.opened_at), Number(r.opened_value), Number(r.resolved_at)])).toEqual([[day0 + 99 * 3_600_000, 24, day0 + 100 * 3_600_000]]);
+    expect(rows.map((r) => [Number(r.opened_at), Number(r.opened_value), Number(r.resolved_at)])).toEqual([
+      [day0 + 99 * 3_600_000, 24, day0 + 100 * 3_600_000],
+    ]);
     expect(rows[0].opened_detail).toMatch(/^24 lies [\d.]+ robust SD above the usual pattern \(limit 5\)$/);
   });
 
@@ -197,7 +223,9 @@ describe('alert evaluation', () => {
     const { withEvaluatorLock } = await import('../../server/services/alerts/evaluator-lock.ts');
     const holding = withEvaluatorLock(t.db, 0, () => held);
     await new Promise((r) => setTimeout(r, 100));
-    const skipped = await createAlertEvaluator({ db: second, mailer, logger, publicUrl: t.config.publicUrl, reminderAfterMin: 0, lockWaitS: 0 }).runOnce(Date.now());
+    const skipped = await createAlertEvaluator({ db: second, mailer, logger, publicUrl: t.config.publicUrl, reminderAfterMin: 0, lockWaitS: 0 }).runOnce(
+      Date.now(),
+    );
     expect(skipped.ran).toBe(false);
     release();
     expect((await holding).ran).toBe(true);
@@ -225,7 +253,10 @@ describe('alert evaluation', () => {
     await evaluator().runOnce(t0 + 3 * 60_000);
     const rows = await alertsOf(s.f);
     expect(rows.map((r) => Number(r.rule_id)).sort()).toEqual([first, secondRule].sort());
-    expect((await mailTo(s.watcher)).sort()).toEqual([`Alert: A warm — Logger ${s.f.ids.loggerId} · Air temperature`, `Alert: B warm — Logger ${s.f.ids.loggerId} · Air temperature`]);
+    expect((await mailTo(s.watcher)).sort()).toEqual([
+      `Alert: A warm — Logger ${s.f.ids.loggerId} · Air temperature`,
+      `Alert: B warm — Logger ${s.f.ids.loggerId} · Air temperature`,
+    ]);
     await evaluator().runOnce(t0 + 4 * 60_000);
     expect(await mailTo(s.watcher)).toHaveLength(2);
   });
@@ -265,7 +296,11 @@ describe('alert evaluation', () => {
     const s = await setup();
     await makeRule(s, { name: 'Seed store humid', kind: 'bounds', channelId: s.f.ids.channelId, params: { high: 40 } });
     const ts = Date.now() - 60_000;
-    await request(t.app).post('/api/v1/ingest').set('Authorization', `Bearer ${s.f.ingestKey}`).send({ readings: [{ channel: 'air_t', ts, value: 55 }] }).expect(200);
+    await request(t.app)
+      .post('/api/v1/ingest')
+      .set('Authorization', `Bearer ${s.f.ingestKey}`)
+      .send({ readings: [{ channel: 'air_t', ts, value: 55 }] })
+      .expect(200);
     const mail = await waitForMail(captureUrl, (m) => m.to.includes(s.watcher.email), 8000);
     expect(mail.subject).toContain('Alert: Seed store humid');
     expect(mail.text).toContain('Reading: 55 °C at');

@@ -29,14 +29,46 @@ const post = (body: object, cookie = tech) => request(t.app).post(`${base()}/ale
 
 describe('alert rules: validation', () => {
   const cases: Array<{ name: string; body: () => object; message: string }> = [
-    { name: 'a negative hold time', body: () => ({ name: 'Warm', kind: 'bounds', channelId: f.ids.channelId, params: { high: 8, holdS: -5 } }), message: 'params.holdS: must not be negative (seconds)' },
-    { name: 'low above high', body: () => ({ name: 'Band', kind: 'bounds', channelId: f.ids.channelId, params: { low: 9, high: 2 } }), message: 'params.low: must be below the high limit' },
-    { name: 'no limit at all', body: () => ({ name: 'Band', kind: 'bounds', channelId: f.ids.channelId, params: {} }), message: 'params.high: set a low limit, a high limit or both' },
-    { name: 'a negative reminder delay', body: () => ({ name: 'Band', kind: 'bounds', channelId: f.ids.channelId, reminderAfterMin: -1, params: { high: 3 } }), message: 'reminderAfterMin: must not be negative (minutes)' },
-    { name: 'an unknown kind', body: () => ({ name: 'X', kind: 'sometimes', channelId: f.ids.channelId, params: {} }), message: 'kind: must be silence, bounds, rate or unusual' },
-    { name: 'a rate limit of zero', body: () => ({ name: 'Jump', kind: 'rate', channelId: f.ids.channelId, params: { maxPerMinute: 0 } }), message: 'params.maxPerMinute: must be above 0' },
-    { name: 'silence with both a channel and a logger', body: () => ({ name: 'Quiet', kind: 'silence', channelId: f.ids.channelId, loggerId: f.ids.loggerId, params: { factor: 3 } }), message: 'channelId: give either a channel or a logger to watch' },
-    { name: 'an empty name and a silence factor below 1', body: () => ({ name: ' ', kind: 'silence', loggerId: f.ids.loggerId, params: { factor: 0.5 } }), message: 'name: must not be empty; params.factor: must be at least 1 (one expected interval)' },
+    {
+      name: 'a negative hold time',
+      body: () => ({ name: 'Warm', kind: 'bounds', channelId: f.ids.channelId, params: { high: 8, holdS: -5 } }),
+      message: 'params.holdS: must not be negative (seconds)',
+    },
+    {
+      name: 'low above high',
+      body: () => ({ name: 'Band', kind: 'bounds', channelId: f.ids.channelId, params: { low: 9, high: 2 } }),
+      message: 'params.low: must be below the high limit',
+    },
+    {
+      name: 'no limit at all',
+      body: () => ({ name: 'Band', kind: 'bounds', channelId: f.ids.channelId, params: {} }),
+      message: 'params.high: set a low limit, a high limit or both',
+    },
+    {
+      name: 'a negative reminder delay',
+      body: () => ({ name: 'Band', kind: 'bounds', channelId: f.ids.channelId, reminderAfterMin: -1, params: { high: 3 } }),
+      message: 'reminderAfterMin: must not be negative (minutes)',
+    },
+    {
+      name: 'an unknown kind',
+      body: () => ({ name: 'X', kind: 'sometimes', channelId: f.ids.channelId, params: {} }),
+      message: 'kind: must be silence, bounds, rate or unusual',
+    },
+    {
+      name: 'a rate limit of zero',
+      body: () => ({ name: 'Jump', kind: 'rate', channelId: f.ids.channelId, params: { maxPerMinute: 0 } }),
+      message: 'params.maxPerMinute: must be above 0',
+    },
+    {
+      name: 'silence with both a channel and a logger',
+      body: () => ({ name: 'Quiet', kind: 'silence', channelId: f.ids.channelId, loggerId: f.ids.loggerId, params: { factor: 3 } }),
+      message: 'channelId: give either a channel or a logger to watch',
+    },
+    {
+      name: 'an empty name and a silence factor below 1',
+      body: () => ({ name: ' ', kind: 'silence', loggerId: f.ids.loggerId, params: { factor: 0.5 } }),
+      message: 'name: must not be empty; params.factor: must be at least 1 (one expected interval)',
+    },
   ];
   for (const c of cases) {
     it(`${c.name} → 400 "${c.message}"`, async () => {
@@ -61,7 +93,11 @@ describe('alert rules: validation', () => {
   it('PATCH checks new parameters against the rule kind (400) and refuses unknown fields', async () => {
     const made = await post({ name: 'Fridge warm', kind: 'bounds', channelId: f.ids.channelId, params: { high: 8, holdS: 120 } }).expect(201);
     const id = made.body.rule.id;
-    const bad = await request(t.app).patch(`${base()}/alert-rules/${id}`).set('Cookie', tech).send({ params: { low: 10, high: 8 } }).expect(400);
+    const bad = await request(t.app)
+      .patch(`${base()}/alert-rules/${id}`)
+      .set('Cookie', tech)
+      .send({ params: { low: 10, high: 8 } })
+      .expect(400);
     expect(bad.body.error.message).toBe('params.low: must be below the high limit');
     const extra = await request(t.app).patch(`${base()}/alert-rules/${id}`).set('Cookie', tech).send({ kind: 'rate' }).expect(400);
     expect(extra.body.error.message).toMatch(/^body: Unrecognized key/);
@@ -70,9 +106,24 @@ describe('alert rules: validation', () => {
 
 describe('alert rules: lifecycle', () => {
   it('makes a rule (maker subscribed, audited), lets a scientist subscribe, changes and deletes it', async () => {
-    const made = await post({ name: 'Cold room above 6 °C', kind: 'bounds', channelId: f.ids.channelId, params: { high: 6, holdS: 300 }, reminderAfterMin: 30 }).expect(201);
+    const made = await post({
+      name: 'Cold room above 6 °C',
+      kind: 'bounds',
+      channelId: f.ids.channelId,
+      params: { high: 6, holdS: 300 },
+      reminderAfterMin: 30,
+    }).expect(201);
     const rule = made.body.rule;
-    expect(rule).toMatchObject({ name: 'Cold room above 6 °C', kind: 'bounds', channelId: f.ids.channelId, params: { low: null, high: 6, holdS: 300 }, reminderAfterMin: 30, enabled: true, subscribed: true, openAlertId: null });
+    expect(rule).toMatchObject({
+      name: 'Cold room above 6 °C',
+      kind: 'bounds',
+      channelId: f.ids.channelId,
+      params: { low: null, high: 6, holdS: 300 },
+      reminderAfterMin: 30,
+      enabled: true,
+      subscribed: true,
+      openAlertId: null,
+    });
     expect(rule.watched).toMatchObject({ channelId: f.ids.channelId, label: 'Air temperature', unit: '°C' });
 
     let list = await request(t.app).get(`${base()}/alert-rules`).set('Cookie', sci).expect(200);
@@ -84,31 +135,49 @@ describe('alert rules: lifecycle', () => {
     await request(t.app).delete(`${base()}/alert-rules/${rule.id}/subscription`).set('Cookie', sci).expect(204);
     await request(t.app).put(`${base()}/alert-rules/${rule.id}/subscription`).set('Cookie', guest).expect(403);
 
-    const changed = await request(t.app).patch(`${base()}/alert-rules/${rule.id}`).set('Cookie', tech).send({ name: 'Cold room above 7 °C', params: { high: 7 } }).expect(200);
+    const changed = await request(t.app)
+      .patch(`${base()}/alert-rules/${rule.id}`)
+      .set('Cookie', tech)
+      .send({ name: 'Cold room above 7 °C', params: { high: 7 } })
+      .expect(200);
     expect(changed.body.rule).toMatchObject({ name: 'Cold room above 7 °C', params: { low: null, high: 7, holdS: 0 } });
 
     await request(t.app).delete(`${base()}/alert-rules/${rule.id}`).set('Cookie', tech).expect(204);
     await request(t.app).delete(`${base()}/alert-rules/${rule.id}`).set('Cookie', tech).expect(404);
-    const actions = await t.db('audit_events').where({ tenant_id: f.lab.id, target_id: String(rule.id) }).orderBy('at').pluck('action');
+    const actions = await t
+      .db('audit_events')
+      .where({ tenant_id: f.lab.id, target_id: String(rule.id) })
+      .orderBy('at')
+      .pluck('action');
     expect(actions).toEqual(['alert-rule.created', 'alert-rule.updated', 'alert-rule.deleted']);
   });
 
-  it('acknowledges an alert with a note; another lab\'s alert is 404', async () => {
-    const res = await request(t.app).post(`${base()}/alerts/${f.ids.alertId}/acknowledge`).set('Cookie', tech).send({ note: 'Door left open; closed.' }).expect(200);
+  it("acknowledges an alert with a note; another lab's alert is 404", async () => {
+    const res = await request(t.app)
+      .post(`${base()}/alerts/${f.ids.alertId}/acknowledge`)
+      .set('Cookie', tech)
+      .send({ note: 'Door left open; closed.' })
+      .expect(200);
     expect(res.body.alert.acknowledged).toMatchObject({ note: 'Door left open; closed.' });
     await request(t.app).post(`${base()}/alerts/${other.ids.alertId}/acknowledge`).set('Cookie', tech).send({ note: 'x' }).expect(404);
   });
 
-  it('lists recent alerts and a channel\'s alerts over a range', async () => {
+  it("lists recent alerts and a channel's alerts over a range", async () => {
     const all = await request(t.app).get(`${base()}/alerts`).set('Cookie', guest).expect(200);
     expect(all.body.alerts.map((a: { id: number }) => a.id)).toContain(f.ids.alertId);
     const open = await request(t.app).get(`${base()}/alerts?status=open`).set('Cookie', guest).expect(200);
     expect(open.body.alerts.map((a: { id: number }) => a.id)).not.toContain(f.ids.alertId);
     const now = Date.now();
-    const band = await request(t.app).get(`${base()}/channels/${f.ids.channelId}/alerts?from=${now - 7_200_000}&to=${now}`).set('Cookie', guest).expect(200);
+    const band = await request(t.app)
+      .get(`${base()}/channels/${f.ids.channelId}/alerts?from=${now - 7_200_000}&to=${now}`)
+      .set('Cookie', guest)
+      .expect(200);
     expect(band.body.alerts).toHaveLength(1);
     expect(band.body.alerts[0]).toMatchObject({ id: f.ids.alertId, open: false, openedValue: 31, resolvedValue: 29 });
-    const before = await request(t.app).get(`${base()}/channels/${f.ids.channelId}/alerts?from=${now - 9_000_000}&to=${now - 7_200_000}`).set('Cookie', guest).expect(200);
+    const before = await request(t.app)
+      .get(`${base()}/channels/${f.ids.channelId}/alerts?from=${now - 9_000_000}&to=${now - 7_200_000}`)
+      .set('Cookie', guest)
+      .expect(200);
     expect(before.body.alerts).toEqual([]);
     await request(t.app).get(`${base()}/channels/${other.ids.channelId}/alerts`).set('Cookie', guest).expect(404);
   });

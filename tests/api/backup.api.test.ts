@@ -40,7 +40,12 @@ beforeAll(async () => {
     const f = await buildLabWithEverything(src);
     labs.push(f);
     // 1,500 readings a minute apart (several rollup buckets) plus two rows that go to quarantine.
-    const rows: IncomingReading[] = Array.from({ length: 1500 }, (_, i) => ({ index: i, channel: 'air_t', ts: T0 + i * 60_000, value: l * 100 + Math.sin(i / 40) }));
+    const rows: IncomingReading[] = Array.from({ length: 1500 }, (_, i) => ({
+      index: i,
+      channel: 'air_t',
+      ts: T0 + i * 60_000,
+      value: l * 100 + Math.sin(i / 40),
+    }));
     rows.push({ index: 1500, channel: 'air_t', ts: T0, value: 'warm', raw: '{"value":"warm"}' });
     rows.push({ index: 1501, channel: 'no_such_channel', ts: T0, value: 1 });
     const outcome = await ingestBatch(src, { tenantId: f.lab.id, loggerId: f.ids.loggerId }, rows, { source: 'api' });
@@ -59,7 +64,10 @@ afterAll(async () => {
 });
 
 async function tableNames(db: Db, schema: string): Promise<string[]> {
-  const rows: Array<{ name: string }> = await db('information_schema.tables').where({ table_schema: schema, table_type: 'BASE TABLE' }).select({ name: 'table_name' }).orderBy('table_name');
+  const rows: Array<{ name: string }> = await db('information_schema.tables')
+    .where({ table_schema: schema, table_type: 'BASE TABLE' })
+    .select({ name: 'table_name' })
+    .orderBy('table_name');
   return rows.map((r) => r.name);
 }
 
@@ -72,7 +80,13 @@ async function checksums(db: Db, schema: string): Promise<Record<string, string>
   return out;
 }
 
-const sorted = (db: Db, table: string, keys: string[]) => db(table).whereIn('tenant_id', labs.map((f) => f.lab.id)).orderBy(keys);
+const sorted = (db: Db, table: string, keys: string[]) =>
+  db(table)
+    .whereIn(
+      'tenant_id',
+      labs.map((f) => f.lab.id),
+    )
+    .orderBy(keys);
 
 describe('ops backup and restore', () => {
   const file = () => join(dir, 'lagbook.sql.gz');
@@ -132,7 +146,10 @@ describe('ops backup and restore', () => {
       [['restore'], 'ops: --from is required (see --help)'],
       [['restore', '--from', join(dir, 'missing.sql.gz')], `ops: ${join(dir, 'missing.sql.gz')} does not exist or is not a file.`],
       [['restore', '--from', notGzip, '--database', `${source}_x`], `ops: ${notGzip} is not a gzip file made by \`ops backup\`.`],
-      [['restore', '--from', file(), '--database', 'bad-name;drop'], 'ops: --database: "bad-name;drop" is not a database name (letters, digits and _ only, at most 64).'],
+      [
+        ['restore', '--from', file(), '--database', 'bad-name;drop'],
+        'ops: --database: "bad-name;drop" is not a database name (letters, digits and _ only, at most 64).',
+      ],
       [['backup', '--out', join(dir, 'no-such-folder', 'x.sql.gz')], `ops: the folder ${join(dir, 'no-such-folder')} does not exist.`],
     ];
     for (const [args, message] of cases) {

@@ -95,7 +95,9 @@ describe('plan limit at ingestion (free plan: 10 stored readings)', () => {
     expect(resent.status).toBe(200);
     expect(resent.body).toMatchObject({ accepted: 0, duplicates: 10 });
     // stored data stays readable
-    const series = await request(t.app).get(lab.path(`/channels/${lab.f.ids.channelId}/series`)).set('Cookie', lab.cookie);
+    const series = await request(t.app)
+      .get(lab.path(`/channels/${lab.f.ids.channelId}/series`))
+      .set('Cookie', lab.cookie);
     expect(series.status).toBe(200);
   });
 
@@ -126,8 +128,18 @@ describe('logger and member limits', () => {
     expect((await t.db('loggers').where('tenant_id', lab.f.lab.id).count({ n: '*' }).first())?.n).toBe(2);
 
     // fixture: founder, guest and one pending invitation = 3 seats of 4
-    expect((await request(t.app).post(lab.path('/invitations')).set('Cookie', lab.cookie).send({ email: `a-${Date.now()}@lab.example`, role: 'guest' })).status).toBe(201);
-    const fifth = await request(t.app).post(lab.path('/invitations')).set('Cookie', lab.cookie).send({ email: `b-${Date.now()}@lab.example`, role: 'guest' });
+    expect(
+      (
+        await request(t.app)
+          .post(lab.path('/invitations'))
+          .set('Cookie', lab.cookie)
+          .send({ email: `a-${Date.now()}@lab.example`, role: 'guest' })
+      ).status,
+    ).toBe(201);
+    const fifth = await request(t.app)
+      .post(lab.path('/invitations'))
+      .set('Cookie', lab.cookie)
+      .send({ email: `b-${Date.now()}@lab.example`, role: 'guest' });
     expect(fifth.status).toBe(402);
     expect(fifth.body.error.message).toContain('allows 4 members');
   });
@@ -187,7 +199,9 @@ describe('upgrade through Stripe Checkout (stand-in) and back', () => {
     expect(cancelled).toMatchObject({ plan: { key: catalog.free.key }, ingestionRefused: true, usage: { readings: 20 } });
     expect(await storedReadings(lab)).toBe(20);
     const range = `?from=${T0}&to=${T0 + 3600_000}`;
-    const csv = await request(t.app).get(lab.path(`/channels/${lab.f.ids.channelId}/readings.csv${range}`)).set('Cookie', lab.cookie);
+    const csv = await request(t.app)
+      .get(lab.path(`/channels/${lab.f.ids.channelId}/readings.csv${range}`))
+      .set('Cookie', lab.cookie);
     expect(csv.status).toBe(200);
     expect(csv.text.trim().split('\n')).toHaveLength(21); // header + the 20 readings
     expect((await ingest(lab, 20, 1)).status).toBe(402);
@@ -240,7 +254,10 @@ describe('upgrade through Stripe Checkout (stand-in) and back', () => {
 describe('switching between paid plans (stand-in)', () => {
   const bigPlan = catalog.plans.filter((p) => p.priceLookupKey !== null)[1];
   const switchTo = (lab: Lab, plan: string, acknowledgeLimits?: boolean) =>
-    request(t.app).post(lab.path('/billing/plan-change')).set('Cookie', lab.cookie).send(acknowledgeLimits === undefined ? { plan } : { plan, acknowledgeLimits });
+    request(t.app)
+      .post(lab.path('/billing/plan-change'))
+      .set('Cookie', lab.cookie)
+      .send(acknowledgeLimits === undefined ? { plan } : { plan, acknowledgeLimits });
 
   it('moves the subscription to a larger plan once Stripe confirms, and back to a smaller one only when told the lab is over its limits', async () => {
     const lab = await newLab();
@@ -298,7 +315,8 @@ describe('switching between paid plans (stand-in)', () => {
 
 describe('webhook endpoint', () => {
   const secret = () => t.config.stripe.webhookSecret;
-  const send = (e: { body: string; signature: string }) => request(t.app).post(WEBHOOK).set('Content-Type', 'application/json').set('Stripe-Signature', e.signature).send(e.body);
+  const send = (e: { body: string; signature: string }) =>
+    request(t.app).post(WEBHOOK).set('Content-Type', 'application/json').set('Stripe-Signature', e.signature).send(e.body);
   let n = 0;
   const subscriptionEvent = (lab: Lab, over: { created: number; status: string; type?: string; id?: string }) =>
     signedEvent(secret(), {
@@ -319,7 +337,12 @@ describe('webhook endpoint', () => {
   it('refuses a bad or missing signature with 400 and changes nothing', async () => {
     const lab = await newLab();
     const good = subscriptionEvent(lab, { created: 1_800_000_000, status: 'active' });
-    const wrongSecret = signedEvent('whsec_not_the_endpoint_secret', { id: 'evt_forged', type: 'customer.subscription.updated', created: 1_800_000_000, object: JSON.parse(good.body).data.object });
+    const wrongSecret = signedEvent('whsec_not_the_endpoint_secret', {
+      id: 'evt_forged',
+      type: 'customer.subscription.updated',
+      created: 1_800_000_000,
+      object: JSON.parse(good.body).data.object,
+    });
     for (const attempt of [wrongSecret, { body: good.body, signature: '' }, { body: good.body.replace('active', 'past_due'), signature: good.signature }]) {
       const res = await send(attempt);
       expect(res.status).toBe(400);
@@ -348,7 +371,9 @@ describe('webhook endpoint', () => {
     expect((await send(subscriptionEvent(lab, { created: 1_800_000_100, status: 'active' }))).body.outcome).toBe('unchanged');
     expect(await row(lab)).toMatchObject({ status: 'past_due', state_at: 1_800_000_200 });
     // a newer deletion applies: back to the free plan
-    expect((await send(subscriptionEvent(lab, { created: 1_800_000_300, status: 'canceled', type: 'customer.subscription.deleted' }))).body.outcome).toBe('applied');
+    expect((await send(subscriptionEvent(lab, { created: 1_800_000_300, status: 'canceled', type: 'customer.subscription.deleted' }))).body.outcome).toBe(
+      'applied',
+    );
     expect(await row(lab)).toMatchObject({ plan_key: catalog.free.key, status: 'canceled', stripe_subscription_id: null, grace_until: null });
   });
 
@@ -359,15 +384,34 @@ describe('webhook endpoint', () => {
       id: `evt_checkout_${Date.now()}`,
       type: 'checkout.session.completed',
       created: 1_800_000_400,
-      object: { id: 'cs_test_1', object: 'checkout.session', mode: 'subscription', payment_status: 'paid', customer: `cus_for_${lab.f.lab.id}`, subscription: `sub_for_${lab.f.lab.id}`, client_reference_id: String(lab.f.lab.id), metadata: { plan_key: paidPlan.key, lab_id: String(lab.f.lab.id) } },
+      object: {
+        id: 'cs_test_1',
+        object: 'checkout.session',
+        mode: 'subscription',
+        payment_status: 'paid',
+        customer: `cus_for_${lab.f.lab.id}`,
+        subscription: `sub_for_${lab.f.lab.id}`,
+        client_reference_id: String(lab.f.lab.id),
+        metadata: { plan_key: paidPlan.key, lab_id: String(lab.f.lab.id) },
+      },
     });
     const res = await send(checkout);
     expect(res.status).toBe(200);
-    expect(await row(lab)).toMatchObject({ plan_key: paidPlan.key, status: 'active', stripe_subscription_id: `sub_for_${lab.f.lab.id}`, state_at: 1_800_000_500 });
+    expect(await row(lab)).toMatchObject({
+      plan_key: paidPlan.key,
+      status: 'active',
+      stripe_subscription_id: `sub_for_${lab.f.lab.id}`,
+      state_at: 1_800_000_500,
+    });
   });
 
   it('acknowledges an event for a customer it does not know (200) without touching any lab', async () => {
-    const event = signedEvent(secret(), { id: `evt_unknown_${Date.now()}`, type: 'invoice.paid', created: 1_800_000_000, object: { id: 'in_1', object: 'invoice', customer: 'cus_nobody' } });
+    const event = signedEvent(secret(), {
+      id: `evt_unknown_${Date.now()}`,
+      type: 'invoice.paid',
+      created: 1_800_000_000,
+      object: { id: 'in_1', object: 'invoice', customer: 'cus_nobody' },
+    });
     const res = await send(event);
     expect(res.status).toBe(200);
     expect(res.body.outcome).toBe('unknown-lab');

@@ -27,7 +27,16 @@ beforeAll(async () => {
   for (let m = 0; m < 240; m++) {
     if (m % 17 === 5 || (m >= 100 && m < 112)) continue; // scattered empty minutes and a 12-minute gap
     const value = 20 + Math.sin(m / 9) + (m % 5) / 10;
-    rows.push({ tenant_id: tenantId, channel_id: channelId, resolution_s: 60, bucket_start: T0 + m * MIN, min_value: value - 0.5, max_value: value + 0.5, sum_value: 3 * value, count_value: 3 });
+    rows.push({
+      tenant_id: tenantId,
+      channel_id: channelId,
+      resolution_s: 60,
+      bucket_start: T0 + m * MIN,
+      min_value: value - 0.5,
+      max_value: value + 0.5,
+      sum_value: 3 * value,
+      count_value: 3,
+    });
   }
   await db('reading_rollups').insert(rows);
   // raw readings every 20 s with the same gaps, for the raw read

@@ -36,7 +36,11 @@ async function setup(opts: { freePlan?: boolean } = {}): Promise<{ f: LabWithEve
 
 async function ingest(f: LabWithEverything, readings: Reading[]) {
   for (let i = 0; i < readings.length; i += 5000) {
-    await request(t.app).post('/api/v1/ingest').set('Authorization', `Bearer ${f.ingestKey}`).send({ readings: readings.slice(i, i + 5000) }).expect(200);
+    await request(t.app)
+      .post('/api/v1/ingest')
+      .set('Authorization', `Bearer ${f.ingestKey}`)
+      .send({ readings: readings.slice(i, i + 5000) })
+      .expect(200);
   }
 }
 
@@ -47,7 +51,14 @@ describe('GET /channels (overview)', () => {
     const { f, cookie, base } = await setup();
     let res = await get(cookie, `${base}/channels`).expect(200);
     expect(res.body.channels).toHaveLength(1);
-    expect(res.body.channels[0]).toMatchObject({ id: f.ids.channelId, key: 'air_t', status: 'no-data', lastReading: null, statusIntervalS: 60, dataVersion: 0 });
+    expect(res.body.channels[0]).toMatchObject({
+      id: f.ids.channelId,
+      key: 'air_t',
+      status: 'no-data',
+      lastReading: null,
+      statusIntervalS: 60,
+      dataVersion: 0,
+    });
     expect(res.body.channels[0].logger).toMatchObject({ id: f.ids.loggerId, timezone: 'UTC' });
     expect(res.body.channels[0].sparkline.means).toEqual(new Array(24).fill(null));
 
@@ -90,16 +101,28 @@ describe('GET /channels (overview)', () => {
     await ingest(f, [{ channel: 'air_t', ts: now - 30 * MIN, value: 7 }]); // a re-sent batch
     await ingest(f, [{ channel: 'air_t', ts: now - 2 * MIN, value: 8 }]); // conflicts: stored value kept
     const res = await get(cookie, `${base}/channels/${f.ids.channelId}`).expect(200);
-    expect(res.body.channel).toMatchObject({ lastReading: { ts: now - 2 * MIN, value: 5 }, dataVersion: 2, readingCount: 2, firstReading: { ts: now - 30 * MIN } });
+    expect(res.body.channel).toMatchObject({
+      lastReading: { ts: now - 2 * MIN, value: 5 },
+      dataVersion: 2,
+      readingCount: 2,
+      firstReading: { ts: now - 30 * MIN },
+    });
   });
 
   it('answers with the same number of database statements for 1 channel and for 7', async () => {
     const one = await setup();
     const many = await setup();
     for (let i = 0; i < 6; i++) {
-      await request(t.app).post(`${many.base}/loggers/${many.f.ids.loggerId}/channels`).set('Cookie', await sessionCookieFor(t.db, t.config.sessionSecret, many.f.founder.id)).send({ key: `ch${i}`, label: `Channel ${i}` }).expect(201);
+      await request(t.app)
+        .post(`${many.base}/loggers/${many.f.ids.loggerId}/channels`)
+        .set('Cookie', await sessionCookieFor(t.db, t.config.sessionSecret, many.f.founder.id))
+        .send({ key: `ch${i}`, label: `Channel ${i}` })
+        .expect(201);
     }
-    await ingest(many.f, Array.from({ length: 6 }, (_, i) => ({ channel: `ch${i}`, ts: Date.now() - MIN, value: i })));
+    await ingest(
+      many.f,
+      Array.from({ length: 6 }, (_, i) => ({ channel: `ch${i}`, ts: Date.now() - MIN, value: i })),
+    );
     const count = async (s: { cookie: string; base: string }) => {
       let statements = 0;
       const onQuery = () => statements++;
@@ -114,7 +137,7 @@ describe('GET /channels (overview)', () => {
       let last = Date.now();
       const onQuery = () => (last = Date.now());
       t.db.on('query', onQuery);
-      for (const give = Date.now() + 10_000; Date.now() - last < 600 && Date.now() < give; ) await new Promise((r) => setTimeout(r, 50));
+      for (const give = Date.now() + 10_000; Date.now() - last < 600 && Date.now() < give;) await new Promise((r) => setTimeout(r, 50));
       t.db.removeListener('query', onQuery);
     };
     await quiet();
@@ -158,7 +181,10 @@ describe('GET /channels/:channelId/series', () => {
     }
     await ingest(f, readings);
     const to = t0 + 72 * HOUR;
-    const res = await get(cookie, `${base}/channels/${f.ids.channelId}/series?from=${new Date(t0).toISOString()}&to=${new Date(to).toISOString()}&points=100`).expect(200);
+    const res = await get(
+      cookie,
+      `${base}/channels/${f.ids.channelId}/series?from=${new Date(t0).toISOString()}&to=${new Date(to).toISOString()}&points=100`,
+    ).expect(200);
     const s = res.body.series;
     // 72 h over 50 buckets is 86.4 min: the hourly rollups are the coarsest fine enough; width rounds up to 2 h.
     expect(s).toMatchObject({ shape: 'buckets', source: 'rollup', resolutionS: 3600, bucketMs: 2 * HOUR, from: t0, to });
@@ -182,7 +208,10 @@ describe('GET /channels/:channelId/series', () => {
   it('summarises raw readings when buckets are shorter than a minute', async () => {
     const { f, cookie, base } = await setup();
     const t0 = Date.UTC(2026, 1, 2);
-    await ingest(f, Array.from({ length: 300 }, (_, i) => ({ channel: 'air_t', ts: t0 + i * 1000, value: i })));
+    await ingest(
+      f,
+      Array.from({ length: 300 }, (_, i) => ({ channel: 'air_t', ts: t0 + i * 1000, value: i })),
+    );
     const res = await get(cookie, `${base}/channels/${f.ids.channelId}/series?from=${t0}&to=${t0 + 300_000}&points=20`).expect(200);
     expect(res.body.series).toMatchObject({ shape: 'buckets', source: 'raw', resolutionS: null, bucketMs: 30_000 });
     expect(res.body.series.min.slice(0, 3)).toEqual([0, 30, 60]);
@@ -215,7 +244,10 @@ describe('GET /channels/:channelId/readings.csv', () => {
   it('streams the range as RFC 4180 CSV with ISO UTC and epoch-ms times', async () => {
     const { f, cookie, base } = await setup();
     const t0 = Date.UTC(2026, 2, 1);
-    await ingest(f, Array.from({ length: 25_000 }, (_, i) => ({ channel: 'air_t', ts: t0 + i * 1000, value: i / 4 })));
+    await ingest(
+      f,
+      Array.from({ length: 25_000 }, (_, i) => ({ channel: 'air_t', ts: t0 + i * 1000, value: i / 4 })),
+    );
     const res = await get(cookie, `${base}/channels/${f.ids.channelId}/readings.csv?from=${t0 + 1000}&to=${t0 + 24_001_000}`).expect(200);
     expect(res.headers['content-type']).toBe('text/csv; charset=utf-8');
     expect(res.headers['content-disposition']).toBe(`attachment; filename="${f.lab.slug}-air_t-readings.csv"`);

@@ -32,11 +32,20 @@ describe('CSV exports neutralise formulas', () => {
     const res = await request(t.app)
       .post('/api/v1/ingest')
       .set('Authorization', `Bearer ${f.ingestKey}`)
-      .send({ readings: [{ channel: '=HYPERLINK("http://x","y")', ts, value: '@SUM(1)' }, { channel: '-3+cmd', ts, value: '-3.2' }, { channel: 'air_t', ts, value: -3.2 }] });
+      .send({
+        readings: [
+          { channel: '=HYPERLINK("http://x","y")', ts, value: '@SUM(1)' },
+          { channel: '-3+cmd', ts, value: '-3.2' },
+          { channel: 'air_t', ts, value: -3.2 },
+        ],
+      });
     expect(res.status).toBe(200);
     expect(res.body.accepted).toBe(1);
 
-    const csv = await request(t.app).get(`/api/v1/labs/${f.lab.slug}/quarantine/export.csv?loggerId=${f.ids.loggerId}&reason=unknown_channel`).set('Cookie', cookie).expect(200);
+    const csv = await request(t.app)
+      .get(`/api/v1/labs/${f.lab.slug}/quarantine/export.csv?loggerId=${f.ids.loggerId}&reason=unknown_channel`)
+      .set('Cookie', cookie)
+      .expect(200);
     const [header, ...lines] = csv.text.trim().split('\r\n');
     const columns = fieldsOf(header);
     const rows = lines.map(fieldsOf).map((cells) => Object.fromEntries(columns.map((c, i) => [c, cells[i]])));

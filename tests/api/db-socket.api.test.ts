@@ -26,7 +26,12 @@ describe('database over the Unix socket', () => {
     expect(who.account).toBe('lagbook@localhost');
 
     const { lab, ids } = await buildLabWithEverything(db);
-    const rows: ReadingBatchColumns = { length: 3, channelId: new Float64Array(3).fill(ids.channelId), ts: Float64Array.of(1000, 2000, 3000), value: Float64Array.of(1.5, -2.25, 0.1) };
+    const rows: ReadingBatchColumns = {
+      length: 3,
+      channelId: new Float64Array(3).fill(ids.channelId),
+      ts: Float64Array.of(1000, 2000, 3000),
+      value: Float64Array.of(1.5, -2.25, 0.1),
+    };
     const inserted = await db.transaction((trx) => readingsRepo(inLab(trx, lab.id)).insertNew(rows));
     expect(inserted).toBe(3);
     const stored = await db('readings').where({ tenant_id: lab.id, channel_id: ids.channelId }).orderBy('ts').select('ts', 'value');

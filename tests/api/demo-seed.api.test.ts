@@ -63,7 +63,10 @@ describe('demo lab seed', () => {
   }, 120_000);
 
   it('has members in each role, as the local identity provider knows them', async () => {
-    const rows = await db('memberships').join('users', 'users.id', 'memberships.user_id').where('memberships.tenant_id', labId).select('users.email', 'memberships.role', 'users.oidc_issuer', 'users.email_verified');
+    const rows = await db('memberships')
+      .join('users', 'users.id', 'memberships.user_id')
+      .where('memberships.tenant_id', labId)
+      .select('users.email', 'memberships.role', 'users.oidc_issuer', 'users.email_verified');
     expect(rows.map((r: { role: string }) => r.role).sort()).toEqual(['admin', 'guest', 'scientist', 'technician']);
     for (const r of rows) expect([r.oidc_issuer, Boolean(r.email_verified)]).toEqual([config.oidc.issuer, true]);
   });
@@ -99,7 +102,11 @@ describe('demo lab seed', () => {
 
   it('the diagnostics conclusions a scientist reads on the demo are right (30 days, 5-minute steps)', async () => {
     // soil moisture follows watering by hours, in the same direction (the scenario's delay kernel peaks at 3.5 h and the level then drains over a day)
-    const soil = channelDiagnostics(await lastDays('North plot soil station', 'soil_moisture', 30), { step: 300_000, agg: 'mean', labels: { channel: 'Soil moisture', partner: 'Irrigation flow' } }, await lastDays('North plot soil station', 'irrigation', 30));
+    const soil = channelDiagnostics(
+      await lastDays('North plot soil station', 'soil_moisture', 30),
+      { step: 300_000, agg: 'mean', labels: { channel: 'Soil moisture', partner: 'Irrigation flow' } },
+      await lastDays('North plot soil station', 'irrigation', 30),
+    );
     const cross = soil.crossCorrelation!;
     expect(cross.method).toBe('prewhitened');
     expect(cross.strongest!.significant).toBe(true);

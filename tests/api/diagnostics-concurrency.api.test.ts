@@ -51,7 +51,7 @@ const heldPool: AnalysisPool = {
 };
 
 async function until(what: string, check: () => boolean): Promise<void> {
-  for (const give = Date.now() + 10_000; !check(); ) {
+  for (const give = Date.now() + 10_000; !check();) {
     if (Date.now() > give) throw new Error(`timed out waiting for ${what}`);
     await new Promise((r) => setTimeout(r, 10));
   }
@@ -134,7 +134,12 @@ describe('diagnostics runs in flight per person', () => {
     try {
       const { port } = server.address() as AddressInfo;
       const before = held.length;
-      const leaving = httpGet({ host: '127.0.0.1', port, path: `/api/v1/labs/${f.lab.slug}/channels/${f.ids.channelId}/diagnostics?from=${from}&to=${from + N * STEP}&step=600&maxLag=18`, headers: { cookie: guest } });
+      const leaving = httpGet({
+        host: '127.0.0.1',
+        port,
+        path: `/api/v1/labs/${f.lab.slug}/channels/${f.ids.channelId}/diagnostics?from=${from}&to=${from + N * STEP}&step=600&maxLag=18`,
+        headers: { cookie: guest },
+      });
       leaving.on('error', () => {});
       await until('the leaving run', () => held.length === before + 1);
       const staying = diagnostics(guest, soilId, 19).then((r) => r);
@@ -146,7 +151,7 @@ describe('diagnostics runs in flight per person', () => {
       await until('the abort', () => aborted === abortedBefore + 1);
       // The freed slot takes the next run (a 429 here only means the release has not run yet).
       let next: Promise<request.Response> | undefined;
-      for (const give = Date.now() + 5_000; held.length === before + 2; ) {
+      for (const give = Date.now() + 5_000; held.length === before + 2;) {
         if (Date.now() > give) throw new Error('the slot was not given back');
         const attempt = diagnostics(guest, f.ids.channelId, 21).then((r) => r);
         let outcome: number | 'started' | undefined;
@@ -172,7 +177,11 @@ describe('diagnostics runs in flight per person', () => {
     const guest = await sessionCookieFor(t.db, t.config.sessionSecret, f.guest.id);
     // An empty range: the service refuses it (422) before the engine; twice, more than the cap allows at once.
     const empty = (maxLag: number) =>
-      request(app).get(`/api/v1/labs/${f.lab.slug}/channels/${f.ids.channelId}/diagnostics?from=${from - 10 * N * STEP}&to=${from - 9 * N * STEP}&step=600&maxLag=${maxLag}`).set('Cookie', guest);
+      request(app)
+        .get(
+          `/api/v1/labs/${f.lab.slug}/channels/${f.ids.channelId}/diagnostics?from=${from - 10 * N * STEP}&to=${from - 9 * N * STEP}&step=600&maxLag=${maxLag}`,
+        )
+        .set('Cookie', guest);
     for (const lag of [12, 13, 14]) await empty(lag).expect(422);
     for (let i = 0; i < 3; i++) await diagnostics(guest, soilId + 1_000_000, 12).expect(404);
     const before = held.length;

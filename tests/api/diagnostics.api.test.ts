@@ -98,7 +98,6 @@ const engineOptions = (over: Partial<ChannelDiagnosticsOptions> = {}): ChannelDi
 /** What JSON makes of an engine array: NaN becomes null. */
 const json = (a: ArrayLike<number>) => Array.from(a, (v) => (Number.isNaN(v) ? null : v));
 
-
 describe('GET /channels/:channelId/diagnostics', () => {
   it('returns the engine’s numbers for the same readings, with the method and parameters used', async () => {
     const res = await request(t.app).get(`${base}/diagnostics?${range}&step=600`).set('Cookie', cookie).expect(200);
@@ -124,14 +123,37 @@ describe('GET /channels/:channelId/diagnostics', () => {
     expect(r.decomposition.seasonal).toEqual(json(engine.decomposition.seasonal));
     expect(r.decomposition.remainder).toEqual(json(engine.decomposition.remainder));
     expect(r.decomposition.outliers.indices).toEqual(engine.decomposition.outliers.indices);
-    expect(r.method.resolved).toMatchObject({ stepS: 600, agg: 'mean', source: { kind: 'rollups', resolutionS: 60 }, period: 144, periodSource: 'detected', decomposition: 'stl', maxLag: engine.maxLag });
+    expect(r.method.resolved).toMatchObject({
+      stepS: 600,
+      agg: 'mean',
+      source: { kind: 'rollups', resolutionS: 60 },
+      period: 144,
+      periodSource: 'detected',
+      decomposition: 'stl',
+      maxLag: engine.maxLag,
+    });
     expect(r.method.parameters).toMatchObject({ agg: 'mean', period: 'auto', decomposition: 'stl', difference: 0, from: new Date(T0).toISOString() });
-    expect(r.method.notes.join(' ')).toContain('5 of 864 cells were empty; STL, period detection and process identification filled them by linear interpolation');
+    expect(r.method.notes.join(' ')).toContain(
+      '5 of 864 cells were empty; STL, period detection and process identification filled them by linear interpolation',
+    );
     expect(r.channel).toMatchObject({ id: f.ids.channelId, key: 'air_t', logger: { id: f.ids.loggerId, timezone: 'UTC' } });
     // the process model is the engine's, fitted on the series less its daily cycle
     const model = engine.identification.model!;
-    expect(r.processModel).toMatchObject({ available: true, fittedOn: 'remainder', period: DAY_STEPS, cells: model.cells, readingsPerIndependent: model.readingsPerIndependent });
-    expect(r.processModel.chosen).toMatchObject({ p: model.p, q: model.q, ar: model.ar, ma: model.ma, standardErrors: model.standardErrors, logLik: model.logLik });
+    expect(r.processModel).toMatchObject({
+      available: true,
+      fittedOn: 'remainder',
+      period: DAY_STEPS,
+      cells: model.cells,
+      readingsPerIndependent: model.readingsPerIndependent,
+    });
+    expect(r.processModel.chosen).toMatchObject({
+      p: model.p,
+      q: model.q,
+      ar: model.ar,
+      ma: model.ma,
+      standardErrors: model.standardErrors,
+      logLik: model.logLik,
+    });
     expect(r.processModel.fittedTo).toBe(T0 + N * STEP);
     expect(r.processModel.candidates).toHaveLength(10); // every p, q ≤ 3 with p + q ≤ 3
     expect(r.processModel.sentence).toMatch(/^Once its 1 d cycle is removed, Air temperature /);
@@ -147,7 +169,10 @@ describe('GET /channels/:channelId/diagnostics', () => {
   });
 
   it('reads raw readings for a median and still matches the engine; differencing applies before the ACF', async () => {
-    const res = await request(t.app).get(`${base}/diagnostics?${range}&step=1200&agg=median&difference=1&decomposition=classical&maxLag=30`).set('Cookie', cookie).expect(200);
+    const res = await request(t.app)
+      .get(`${base}/diagnostics?${range}&step=1200&agg=median&difference=1&decomposition=classical&maxLag=30`)
+      .set('Cookie', cookie)
+      .expect(200);
     const engine = channelDiagnostics(air, engineOptions({ step: 1_200_000, agg: 'median', difference: 1, decomposition: 'classical', maxLag: 30 }));
     expect(res.body.method.resolved.source).toEqual({ kind: 'readings' });
     expect(res.body.acf.values).toEqual(json(engine.acf));
@@ -210,7 +235,10 @@ describe('GET /channels/:channelId/diagnostics', () => {
     const stored = await t.db('reading_rollups').where(cell).first('sum_value', 'count_value');
     const first = await meanOf('&alpha=0.049');
     try {
-      await t.db('reading_rollups').where(cell).update({ sum_value: 1000 * stored.count_value });
+      await t
+        .db('reading_rollups')
+        .where(cell)
+        .update({ sum_value: 1000 * stored.count_value });
       // other parameters (the mean is of the undifferenced grid either way): the grid read before
       expect(await meanOf('&alpha=0.048&difference=1')).toBe(first);
       // a reading after the range moves the channel's data version on: the range is read again
@@ -225,7 +253,10 @@ describe('GET /channels/:channelId/diagnostics', () => {
   });
 
   it('cross-correlates with another channel of the lab and says which one trails, in R’s sign convention', async () => {
-    const res = await request(t.app).get(`${base}/diagnostics?${range}&step=600&decomposition=none&ccfWith=${soilId}&ccfMaxLag=30`).set('Cookie', cookie).expect(200);
+    const res = await request(t.app)
+      .get(`${base}/diagnostics?${range}&step=600&decomposition=none&ccfWith=${soilId}&ccfMaxLag=30`)
+      .set('Cookie', cookie)
+      .expect(200);
     const engine = channelDiagnostics(air, engineOptions({ decomposition: 'none', ccfMaxLag: 30 }), soil);
     const ccf = res.body.crossCorrelation;
     expect(ccf.with).toMatchObject({ id: soilId, key: 'soil_m' });
@@ -311,9 +342,15 @@ describe('GET /channels/:channelId/diagnostics', () => {
   });
 
   it('answers 422 with the engine’s message when the data cannot support the analysis', async () => {
-    const empty = await request(t.app).get(`${base}/diagnostics?from=${T0 - 86_400_000}&to=${T0}`).set('Cookie', cookie).expect(422);
+    const empty = await request(t.app)
+      .get(`${base}/diagnostics?from=${T0 - 86_400_000}&to=${T0}`)
+      .set('Cookie', cookie)
+      .expect(422);
     expect(empty.body.error).toEqual({ code: 'analysis_input', message: 'This channel has no readings in the chosen range.' });
-    const few = await request(t.app).get(`${base}/diagnostics?from=${T0}&to=${T0 + 20 * STEP}&step=600`).set('Cookie', cookie).expect(422);
+    const few = await request(t.app)
+      .get(`${base}/diagnostics?from=${T0}&to=${T0 + 20 * STEP}&step=600`)
+      .set('Cookie', cookie)
+      .expect(422);
     expect(few.body.error).toEqual({ code: 'analysis_input', message: 'channelDiagnostics requires at least 30 values after differencing (got 20)' });
     const long = await request(t.app).get(`${base}/diagnostics?${range}&step=600&period=500&decomposition=stl`).set('Cookie', cookie).expect(422);
     expect(long.body.error.message).toBe('channelDiagnostics: period must be a whole number of steps from 2 to 432 for 864 cells (got 500)');
@@ -321,7 +358,10 @@ describe('GET /channels/:channelId/diagnostics', () => {
 
   it("answers 404 for another lab's channel, as the channel and as ccfWith", async () => {
     const other = await buildLabWithEverything(t.db);
-    const asChannel = await request(t.app).get(`/api/v1/labs/${f.lab.slug}/channels/${other.ids.channelId}/diagnostics?${range}`).set('Cookie', cookie).expect(404);
+    const asChannel = await request(t.app)
+      .get(`/api/v1/labs/${f.lab.slug}/channels/${other.ids.channelId}/diagnostics?${range}`)
+      .set('Cookie', cookie)
+      .expect(404);
     expect(asChannel.body.error).toEqual({ code: 'not_found', message: 'No such channel in this lab.' });
     const asPartner = await request(t.app).get(`${base}/diagnostics?${range}&step=600&ccfWith=${other.ids.channelId}`).set('Cookie', cookie).expect(404);
     expect(asPartner.body.error).toEqual({ code: 'not_found', message: 'No such channel in this lab.' });
@@ -339,7 +379,11 @@ describe('GET /channels/:channelId/comparison', () => {
       const idx = air.timestamps.map((ts, i) => (keep(ts) ? i : -1)).filter((i) => i >= 0);
       return { timestamps: idx.map((i) => air.timestamps[i]), values: idx.map((i) => air.values[i]) };
     };
-    const engine = rangeComparison(pick(inA), pick((ts) => !inA(ts)), { step: STEP, agg: 'mean', alpha: 0.05 });
+    const engine = rangeComparison(
+      pick(inA),
+      pick((ts) => !inA(ts)),
+      { step: STEP, agg: 'mean', alpha: 0.05 },
+    );
     const r = res.body;
     expect(r.channel).toMatchObject({ id: f.ids.channelId, key: 'air_t' });
     expect(r.other).toBeNull();
@@ -372,9 +416,15 @@ describe('GET /channels/:channelId/comparison', () => {
     await bad(`aTo=${T0}&bFrom=${T0}&bTo=${T0 + STEP}`, 'aFrom: is required: epoch milliseconds or an ISO 8601 time with a zone');
     await bad(`aFrom=${T0 + STEP}&aTo=${T0}&bFrom=${T0}&bTo=${T0 + STEP}`, 'aTo: must be after the start of its range');
     await bad(`${ranges}&agg=mode`, 'agg: must be mean, median, last, min or max');
-    const empty = await request(t.app).get(`${base}/comparison?aFrom=${T0 - 10 * STEP}&aTo=${T0 - STEP}&bFrom=${T0}&bTo=${half}`).set('Cookie', cookie).expect(422);
+    const empty = await request(t.app)
+      .get(`${base}/comparison?aFrom=${T0 - 10 * STEP}&aTo=${T0 - STEP}&bFrom=${T0}&bTo=${half}`)
+      .set('Cookie', cookie)
+      .expect(422);
     expect(empty.body.error.message).toBe('aFrom: Air temperature has no readings in range a.');
-    const few = await request(t.app).get(`${base}/comparison?aFrom=${T0}&aTo=${T0 + 4 * STEP}&bFrom=${T0}&bTo=${half}`).set('Cookie', cookie).expect(422);
+    const few = await request(t.app)
+      .get(`${base}/comparison?aFrom=${T0}&aTo=${T0 + 4 * STEP}&bFrom=${T0}&bTo=${half}`)
+      .set('Cookie', cookie)
+      .expect(422);
     expect(few.body.error.code).toBe('analysis_input');
     const other = await buildLabWithEverything(t.db);
     await request(t.app).get(`${base}/comparison?${ranges}&otherChannel=${other.ids.channelId}`).set('Cookie', cookie).expect(404);
@@ -395,11 +445,19 @@ describe('GET /channels/:channelId/diagnostics.csv', () => {
     expect(lines[1]).toBe(`correlogram,0,1${','.repeat(25)}`);
     const rows = parseCsv(res.text, { columns: true }) as Array<Record<string, string>>;
     const lag2 = rows[2];
-    expect([lag2.lag, lag2.acf, lag2.pacf, lag2.white_noise_band, lag2.bartlett_band].map(Number)).toEqual([2, report.acf.values[2], report.pacf.values[1], report.bands.whiteNoise, report.bands.bartlett[1]]);
+    expect([lag2.lag, lag2.acf, lag2.pacf, lag2.white_noise_band, lag2.bartlett_band].map(Number)).toEqual([
+      2,
+      report.acf.values[2],
+      report.pacf.values[1],
+      report.bands.whiteNoise,
+      report.bands.bartlett[1],
+    ]);
     expect(rows.filter((r) => r.section === 'correlogram')).toHaveLength(21);
     const ccf = rows.filter((r) => r.section === 'ccf');
     expect(ccf.map((r) => Number(r.ccf))).toEqual(report.crossCorrelation.values);
-    expect(ccf.every((r) => Number(r.ccf_simultaneous_band) === report.crossCorrelation.simultaneousBand && r.note.startsWith('prewhitened by the AR('))).toBe(true);
+    expect(ccf.every((r) => Number(r.ccf_simultaneous_band) === report.crossCorrelation.simultaneousBand && r.note.startsWith('prewhitened by the AR('))).toBe(
+      true,
+    );
     expect(rows.filter((r) => r.section === 'ccf-raw').map((r) => Number(r.ccf))).toEqual(report.crossCorrelation.raw.values);
     const box = rows.filter((r) => r.section === 'ljung-box');
     expect(box.map((b) => Number(b.lag))).toEqual(report.ljungBox.map((b: { lag: number }) => b.lag));
@@ -416,7 +474,10 @@ describe('GET /channels/:channelId/diagnostics.csv', () => {
     expect(Number(rows.find((r) => r.section === 'model-residual-test')?.ljung_box_p_value)).toBe(model.residualTest.pValue);
     // the trend with both intervals, and what each assumes
     const trend = rows.find((r) => r.section === 'trend')!;
-    expect([Number(trend.estimate), Number(trend.interval_low), Number(trend.interval_high)]).toEqual([report.trend.perDay.slope, ...report.trend.perDay.hacInterval]);
+    expect([Number(trend.estimate), Number(trend.interval_low), Number(trend.interval_high)]).toEqual([
+      report.trend.perDay.slope,
+      ...report.trend.perDay.hacInterval,
+    ]);
     expect(trend.note).toContain(`Newey–West standard error, Bartlett lag ${report.trend.lag}`);
     expect(Number(rows.find((r) => r.section === 'trend-independent')!.interval_low)).toBe(report.trend.perDay.olsInterval[0]);
     expect(lines.some((l) => l.startsWith('decomposition,'))).toBe(false);
@@ -438,7 +499,12 @@ describe('GET /channels/:channelId/diagnostics.csv', () => {
       const row = rows[i];
       expect(Number(row[11])).toBe(i);
       expect(row[12]).toBe(new Date(engine.grid.start + i * 60_000).toISOString());
-      expect(row.slice(13, 17).map(Number)).toEqual([engine.decomposition.trend[i], engine.decomposition.seasonal[i], engine.decomposition.remainder[i], engine.decomposition.weights![i]]);
+      expect(row.slice(13, 17).map(Number)).toEqual([
+        engine.decomposition.trend[i],
+        engine.decomposition.seasonal[i],
+        engine.decomposition.remainder[i],
+        engine.decomposition.weights![i],
+      ]);
       expect(row[17]).toBe(outliers.has(i) ? '1' : '0');
     }
   });

@@ -69,9 +69,15 @@ describe('on a private MariaDB', () => {
     expect(app!.child.exitCode, 'the app process is still running during the outage').toBeNull();
     await server.start();
     const outcomes = await Promise.allSettled(loggers);
-    expect(outcomes.flatMap((o) => (o.status === 'rejected' ? [(o.reason as Error).message] : [])), 'loggers that got an answer other than 200 or 503').toEqual([]);
+    expect(
+      outcomes.flatMap((o) => (o.status === 'rejected' ? [(o.reason as Error).message] : [])),
+      'loggers that got an answer other than 200 or 503',
+    ).toEqual([]);
 
-    const all = records.reduce((acc, r) => ({ s503: acc.s503 + (r.statuses[503] ?? 0), noRetry: acc.noRetry + r.unavailableWithoutRetryAfter, net: acc.net + r.networkErrors }), { s503: 0, noRetry: 0, net: 0 });
+    const all = records.reduce(
+      (acc, r) => ({ s503: acc.s503 + (r.statuses[503] ?? 0), noRetry: acc.noRetry + r.unavailableWithoutRetryAfter, net: acc.net + r.networkErrors }),
+      { s503: 0, noRetry: 0, net: 0 },
+    );
     expect(healthDuringOutage).toBe(503);
     expect(all.s503, 'loggers were told to come back later during the outage').toBeGreaterThan(0);
     expect(all.noRetry, '503 answers without Retry-After').toBe(0);

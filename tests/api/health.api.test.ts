@@ -55,7 +55,14 @@ describe('health and unknown routes', () => {
       config: t.config,
       db: deadDb,
       logger: createLogWriter({ silent: true }),
-      identity: { endpoints: { issuer: t.config.oidc.issuer, authorization_endpoint: `${t.config.oidc.issuer}/auth`, token_endpoint: `${t.config.oidc.issuer}/token`, userinfo_endpoint: `${t.config.oidc.issuer}/me` } },
+      identity: {
+        endpoints: {
+          issuer: t.config.oidc.issuer,
+          authorization_endpoint: `${t.config.oidc.issuer}/auth`,
+          token_endpoint: `${t.config.oidc.issuer}/token`,
+          userinfo_endpoint: `${t.config.oidc.issuer}/me`,
+        },
+      },
       mailer: { send: async () => {}, verify: async () => false, close: () => {} },
       billing: {} as never,
     });
@@ -64,7 +71,10 @@ describe('health and unknown routes', () => {
     // A validly signed session cookie makes the session store ask the (dead) database.
     const sid = 'test-session-id';
     const mac = createHmac('sha256', t.config.sessionSecret).update(sid).digest('base64').replace(/=+$/, '');
-    const me = await request(app).get('/api/v1/me').set('Cookie', `lagbook.sid=${encodeURIComponent(`s:${sid}.${mac}`)}`).expect(503);
+    const me = await request(app)
+      .get('/api/v1/me')
+      .set('Cookie', `lagbook.sid=${encodeURIComponent(`s:${sid}.${mac}`)}`)
+      .expect(503);
     expect(me.headers['retry-after']).toBe('5');
     expect(me.body.error.code).toBe('service_unavailable');
     await deadDb.destroy();

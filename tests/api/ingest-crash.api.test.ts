@@ -42,7 +42,11 @@ describe('SIGKILL during ingestion', () => {
       for (let b = 0; !killed || b < 2; b++) {
         attempted[l] = b + 1;
         try {
-          const res = await fetch(`${app.url}/api/v1/ingest`, { method: 'POST', headers: { authorization: `Bearer ${f.ingestKey}`, 'content-type': 'application/json' }, body: batchBody(b) });
+          const res = await fetch(`${app.url}/api/v1/ingest`, {
+            method: 'POST',
+            headers: { authorization: `Bearer ${f.ingestKey}`, 'content-type': 'application/json' },
+            body: batchBody(b),
+          });
           if (res.status === 200) acknowledged[l].add(b);
         } catch {
           return; // the server is gone
@@ -71,7 +75,11 @@ describe('SIGKILL during ingestion', () => {
     try {
       for (let l = 0; l < LOGGERS; l++) {
         for (let b = 0; b < attempted[l]; b++) {
-          const res = await fetch(`${again.url}/api/v1/ingest`, { method: 'POST', headers: { authorization: `Bearer ${fixtures[l].ingestKey}`, 'content-type': 'application/json' }, body: batchBody(b) });
+          const res = await fetch(`${again.url}/api/v1/ingest`, {
+            method: 'POST',
+            headers: { authorization: `Bearer ${fixtures[l].ingestKey}`, 'content-type': 'application/json' },
+            body: batchBody(b),
+          });
           expect(res.status).toBe(200);
         }
         const [{ n }] = await t.db('readings').where({ tenant_id: fixtures[l].lab.id, channel_id: fixtures[l].ids.channelId }).count({ n: '*' });

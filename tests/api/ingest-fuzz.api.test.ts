@@ -16,7 +16,11 @@ beforeAll(async () => {
 });
 afterAll(async () => t.close());
 
-const csvCell = fc.oneof(fc.constantFrom('air_t', 'channel', 'ts', 'value', '', '"', '""', '1e309', '-0', '2026-01-01T00:00:00Z'), fc.string({ maxLength: 12 }), fc.double().map(String));
+const csvCell = fc.oneof(
+  fc.constantFrom('air_t', 'channel', 'ts', 'value', '', '"', '""', '1e309', '-0', '2026-01-01T00:00:00Z'),
+  fc.string({ maxLength: 12 }),
+  fc.double().map(String),
+);
 const csvText = fc
   .tuple(fc.constantFrom(',', ';', '\t'), fc.constantFrom('\n', '\r\n', '\r'), fc.array(fc.array(csvCell, { maxLength: 5 }), { maxLength: 30 }))
   .map(([sep, nl, lines]) => lines.map((cells) => cells.join(sep)).join(nl));
@@ -25,7 +29,11 @@ describe('fuzzed ingestion never answers 5xx', () => {
   it('arbitrary JSON bodies', async () => {
     await fc.assert(
       fc.asyncProperty(fc.oneof(fc.jsonValue(), fc.record({ readings: fc.array(fc.jsonValue(), { maxLength: 20 }) })), async (body) => {
-        const res = await request(t.app).post('/api/v1/ingest').set('Authorization', `Bearer ${f.ingestKey}`).set('Content-Type', 'application/json').send(JSON.stringify(body));
+        const res = await request(t.app)
+          .post('/api/v1/ingest')
+          .set('Authorization', `Bearer ${f.ingestKey}`)
+          .set('Content-Type', 'application/json')
+          .send(JSON.stringify(body));
         expect(res.status).toBeLessThan(500);
         if (res.status === 200) {
           const sent = (body as { readings: unknown[] }).readings.length;
@@ -38,10 +46,17 @@ describe('fuzzed ingestion never answers 5xx', () => {
 
   it('arbitrary CSV bodies', async () => {
     await fc.assert(
-      fc.asyncProperty(fc.oneof(csvText, csvText.map((s) => `channel,ts,value\n${s}`), fc.string({ maxLength: 200 })), async (csv) => {
-        const res = await request(t.app).post('/api/v1/ingest').set('Authorization', `Bearer ${f.ingestKey}`).set('Content-Type', 'text/csv').send(csv);
-        expect(res.status).toBeLessThan(500);
-      }),
+      fc.asyncProperty(
+        fc.oneof(
+          csvText,
+          csvText.map((s) => `channel,ts,value\n${s}`),
+          fc.string({ maxLength: 200 }),
+        ),
+        async (csv) => {
+          const res = await request(t.app).post('/api/v1/ingest').set('Authorization', `Bearer ${f.ingestKey}`).set('Content-Type', 'text/csv').send(csv);
+          expect(res.status).toBeLessThan(500);
+        },
+      ),
       { numRuns: 60 },
     );
   });
@@ -49,7 +64,11 @@ describe('fuzzed ingestion never answers 5xx', () => {
   it('arbitrary bytes and malformed JSON', async () => {
     await fc.assert(
       fc.asyncProperty(fc.uint8Array({ maxLength: 300 }), fc.constantFrom('application/json', 'text/csv'), async (bytes, type) => {
-        const res = await request(t.app).post('/api/v1/ingest').set('Authorization', `Bearer ${f.ingestKey}`).set('Content-Type', type).send(Buffer.from(bytes));
+        const res = await request(t.app)
+          .post('/api/v1/ingest')
+          .set('Authorization', `Bearer ${f.ingestKey}`)
+          .set('Content-Type', type)
+          .send(Buffer.from(bytes));
         expect(res.status).toBeLessThan(500);
       }),
       { numRuns: 60 },
@@ -58,21 +77,32 @@ describe('fuzzed ingestion never answers 5xx', () => {
 
   it('arbitrary upload options and files', async () => {
     await fc.assert(
-      fc.asyncProperty(fc.oneof(fc.string({ maxLength: 60 }), fc.jsonValue().map((v) => JSON.stringify(v))), csvText, async (options, file) => {
-        const res = await request(t.app)
-          .post(`/api/v1/labs/${f.lab.slug}/loggers/${f.ids.loggerId}/uploads?options=${encodeURIComponent(options)}`)
-          .set('Cookie', cookie)
-          .set('Content-Type', 'text/csv')
-          .send(file);
-        expect(res.status).toBeLessThan(500);
-      }),
+      fc.asyncProperty(
+        fc.oneof(
+          fc.string({ maxLength: 60 }),
+          fc.jsonValue().map((v) => JSON.stringify(v)),
+        ),
+        csvText,
+        async (options, file) => {
+          const res = await request(t.app)
+            .post(`/api/v1/labs/${f.lab.slug}/loggers/${f.ids.loggerId}/uploads?options=${encodeURIComponent(options)}`)
+            .set('Cookie', cookie)
+            .set('Content-Type', 'text/csv')
+            .send(file);
+          expect(res.status).toBeLessThan(500);
+        },
+      ),
       { numRuns: 40 },
     );
     // and well-formed options with hostile files: the stream ends with a summary or an error line
     await fc.assert(
       fc.asyncProperty(csvText, async (file) => {
         const options = encodeURIComponent(JSON.stringify({ format: 'wide', timeColumn: 'ts', columns: { value: 'air_t' } }));
-        const res = await request(t.app).post(`/api/v1/labs/${f.lab.slug}/loggers/${f.ids.loggerId}/uploads?options=${options}`).set('Cookie', cookie).set('Content-Type', 'text/csv').send(file);
+        const res = await request(t.app)
+          .post(`/api/v1/labs/${f.lab.slug}/loggers/${f.ids.loggerId}/uploads?options=${options}`)
+          .set('Cookie', cookie)
+          .set('Content-Type', 'text/csv')
+          .send(file);
         expect(res.status).toBe(200);
         const last = JSON.parse(res.text.trim().split('\n').at(-1)!);
         expect(['summary', 'error']).toContain(last.type);
@@ -101,13 +131,20 @@ describe('hostile ingest bodies', () => {
       // Send the first half of the bad body, ask for /healthz, and only once it has answered send the rest.
       const http = await import('node:http');
       const bad = new Promise<{ status: number; text: string }>((resolve, reject) => {
-        const req = http.request(`${base}/api/v1/ingest`, { method: 'POST', headers: { authorization: `Bearer ${f.ingestKey}`, 'content-type': 'text/csv', 'content-length': body.length } }, (res) => {
-          let text = '';
-          res.setEncoding('utf8').on('data', (c: string) => (text += c)).on('end', () => {
-            order.push('bad body answered');
-            resolve({ status: res.statusCode!, text });
-          });
-        });
+        const req = http.request(
+          `${base}/api/v1/ingest`,
+          { method: 'POST', headers: { authorization: `Bearer ${f.ingestKey}`, 'content-type': 'text/csv', 'content-length': body.length } },
+          (res) => {
+            let text = '';
+            res
+              .setEncoding('utf8')
+              .on('data', (c: string) => (text += c))
+              .on('end', () => {
+                order.push('bad body answered');
+                resolve({ status: res.statusCode!, text });
+              });
+          },
+        );
         req.on('error', reject);
         req.write(body.subarray(0, body.length / 2), async () => {
           const health = await fetch(`${base}/healthz`);
@@ -164,8 +201,16 @@ describe('hostile ingest bodies', () => {
     const lines = Array.from({ length: 4000 }, (_, i) => `air_t,${T + 10_000_000 + i * 1000},${i % 7}`);
     lines.splice(2000, 0, 'air_t,1796303000000000000,1');
     const file = `channel,ts,value\n${lines.join('\n')}\n`;
-    const options = encodeURIComponent(JSON.stringify({ format: 'long', timeColumn: 'ts', channelColumn: 'channel', valueColumn: 'value', timeFormat: 'auto' }));
-    const send = () => request(t.app).post(`/api/v1/labs/${f.lab.slug}/loggers/${f.ids.loggerId}/uploads?options=${options}`).set('Cookie', cookie).set('Content-Type', 'text/csv').send(file).expect(200);
+    const options = encodeURIComponent(
+      JSON.stringify({ format: 'long', timeColumn: 'ts', channelColumn: 'channel', valueColumn: 'value', timeFormat: 'auto' }),
+    );
+    const send = () =>
+      request(t.app)
+        .post(`/api/v1/labs/${f.lab.slug}/loggers/${f.ids.loggerId}/uploads?options=${options}`)
+        .set('Cookie', cookie)
+        .set('Content-Type', 'text/csv')
+        .send(file)
+        .expect(200);
     const summaryOf = (text: string) => JSON.parse(text.trim().split('\n').at(-1)!);
     const first = summaryOf((await send()).text);
     expect(first).toMatchObject({ type: 'summary', accepted: 4000, quarantined: 1 });
@@ -175,7 +220,9 @@ describe('hostile ingest bodies', () => {
 
   it('an upload of a million one-field lines stops at the first batch with too many unreadable rows; nothing is quarantined', async () => {
     const before = await quarantined();
-    const options = encodeURIComponent(JSON.stringify({ format: 'long', timeColumn: 'ts', channelColumn: 'channel', valueColumn: 'value', timeFormat: 'auto' }));
+    const options = encodeURIComponent(
+      JSON.stringify({ format: 'long', timeColumn: 'ts', channelColumn: 'channel', valueColumn: 'value', timeFormat: 'auto' }),
+    );
     const res = await request(t.app)
       .post(`/api/v1/labs/${f.lab.slug}/loggers/${f.ids.loggerId}/uploads?options=${options}`)
       .set('Cookie', cookie)
@@ -205,7 +252,11 @@ describe('hostile ingest bodies', () => {
     // fetch, not supertest: superagent re-encodes a Buffer sent as application/json
     const send = async (method: string, path: string, headers: Record<string, string>, body: Buffer | string) => {
       const auth: Record<string, string> = path === '/api/v1/ingest' ? { authorization: `Bearer ${f.ingestKey}` } : { cookie };
-      const res = await fetch(`http://127.0.0.1:${(server.address() as import('node:net').AddressInfo).port}${path}`, { method, headers: { ...auth, ...headers }, body });
+      const res = await fetch(`http://127.0.0.1:${(server.address() as import('node:net').AddressInfo).port}${path}`, {
+        method,
+        headers: { ...auth, ...headers },
+        body,
+      });
       return { status: res.status, body: (await res.json()) as { error?: { code: string; message: string }; accepted?: number; duplicates?: number } };
     };
     try {
@@ -220,7 +271,12 @@ describe('hostile ingest bodies', () => {
           body: { error: { code: 'unsupported_charset', message: 'charset "latin1" is not supported; send the body as UTF-8.' } },
         });
         for (const coding of ['br', 'compress', 'gzip, gzip']) {
-          const res = await send(method, path, { 'content-type': 'application/json', 'content-encoding': coding }, coding === 'br' ? brotliCompressSync(body) : body);
+          const res = await send(
+            method,
+            path,
+            { 'content-type': 'application/json', 'content-encoding': coding },
+            coding === 'br' ? brotliCompressSync(body) : body,
+          );
           expect([res.status, res.body.error?.code], coding).toEqual([415, 'unsupported_encoding']);
         }
         const corrupt = Buffer.concat([gzipSync(body).subarray(0, 12), Buffer.from('not gzip at all')]);
@@ -261,7 +317,10 @@ describe('hostile ingest bodies', () => {
     ];
     const res = await ingest().send({ readings }).expect(200);
     expect(res.body.accepted).toBe(1); // an exact zero written with an exponent is still zero
-    expect(res.body.quarantined.map((q: { index: number; code: string }) => [q.index, q.code])).toEqual([[0, 'bad_value'], [1, 'bad_value']]);
+    expect(res.body.quarantined.map((q: { index: number; code: string }) => [q.index, q.code])).toEqual([
+      [0, 'bad_value'],
+      [1, 'bad_value'],
+    ]);
     expect(res.body.quarantined[0].reason).toBe('value: "1e-400" is too small for a double (below 2.2e-308 it would lose digits or become 0)');
     expect(res.body.quarantined[1].reason).toBe('value: "1e400" is too large for a double (beyond ±1.8e308)');
   });
@@ -273,7 +332,8 @@ describe('hostile ingest bodies', () => {
     const m = lastMonth.getUTCMonth();
     const last = new Date(Date.UTC(y, m + 1, 0)).getUTCDate();
     const day = (d: number) => `${y}-${String(m + 1).padStart(2, '0')}-${String(d).padStart(2, '0')}T00:00:00Z`;
-    const series = (from: string) => request(t.app).get(`/api/v1/labs/${f.lab.slug}/channels/${f.ids.channelId}/series?from=${from}&to=${new Date().toISOString()}`).set('Cookie', cookie);
+    const series = (from: string) =>
+      request(t.app).get(`/api/v1/labs/${f.lab.slug}/channels/${f.ids.channelId}/series?from=${from}&to=${new Date().toISOString()}`).set('Cookie', cookie);
     const res = await series(day(last + 1)).expect(400);
     expect(res.body.error.message).toBe(`from: "${day(last + 1)}" is not a valid date and time`);
     await series(day(last)).expect(200);

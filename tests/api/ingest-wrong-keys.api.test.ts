@@ -14,7 +14,10 @@ beforeAll(async () => {
 afterAll(async () => t.close());
 
 const post = (key: string) =>
-  request(t.app).post('/api/v1/ingest').set('Authorization', `Bearer ${key}`).send({ readings: [{ channel: 'air_t', ts: Date.UTC(2026, 10, 1), value: 1 }] });
+  request(t.app)
+    .post('/api/v1/ingest')
+    .set('Authorization', `Bearer ${key}`)
+    .send({ readings: [{ channel: 'air_t', ts: Date.UTC(2026, 10, 1), value: 1 }] });
 
 describe('wrong ingest keys from one address', () => {
   it('are answered 401 twenty times a minute, then 429 with Retry-After; a working key from the same address still stores', async () => {
@@ -40,7 +43,9 @@ describe('wrong ingest keys from one address', () => {
     const keys = [];
     for (let i = 0; i < 25; i++) {
       const k = newIngestKey();
-      await t.db('ingest_keys').insert({ tenant_id: g.lab.id, id: Math.floor(Math.random() * 2 ** 40) + 1, logger_id: g.ids.loggerId, prefix: k.prefix, key_hash: k.hash });
+      await t
+        .db('ingest_keys')
+        .insert({ tenant_id: g.lab.id, id: Math.floor(Math.random() * 2 ** 40) + 1, logger_id: g.ids.loggerId, prefix: k.prefix, key_hash: k.hash });
       keys.push(k.key);
     }
     const other = await buildTestApp(); // fresh counters

@@ -20,7 +20,10 @@ async function freshLogger(): Promise<LabWithEverything> {
 }
 
 function post(f: LabWithEverything, body: unknown, app = t.app) {
-  return request(app).post('/api/v1/ingest').set('Authorization', `Bearer ${f.ingestKey}`).send(body as object);
+  return request(app)
+    .post('/api/v1/ingest')
+    .set('Authorization', `Bearer ${f.ingestKey}`)
+    .send(body as object);
 }
 
 async function stored(f: LabWithEverything) {
@@ -49,7 +52,8 @@ describe('POST /api/v1/ingest (JSON)', () => {
     await post(f, { readings: readings.slice(250) }).expect(200);
     for (const res of [60, 3600, 86400]) {
       const ms = res * 1000;
-      const expected = await t.db('readings')
+      const expected = await t
+        .db('readings')
         .where({ tenant_id: f.lab.id, channel_id: f.ids.channelId })
         .select(t.db.raw('ts - MOD(ts, ?) as b', [ms]))
         .min({ mn: 'value' })
@@ -59,9 +63,10 @@ describe('POST /api/v1/ingest (JSON)', () => {
         .groupBy('b')
         .orderBy('b');
       const rollups = await t.db('reading_rollups').where({ tenant_id: f.lab.id, channel_id: f.ids.channelId, resolution_s: res }).orderBy('bucket_start');
-      expect(rollups.map((r) => [Number(r.bucket_start), r.min_value, r.max_value, Number(r.count_value)]), `resolution ${res}`).toEqual(
-        expected.map((e: Record<string, unknown>) => [Number(e.b), e.mn, e.mx, Number(e.n)]),
-      );
+      expect(
+        rollups.map((r) => [Number(r.bucket_start), r.min_value, r.max_value, Number(r.count_value)]),
+        `resolution ${res}`,
+      ).toEqual(expected.map((e: Record<string, unknown>) => [Number(e.b), e.mn, e.mx, Number(e.n)]));
       rollups.forEach((r, i) => expect(r.sum_value).toBeCloseTo(Number((expected[i] as Record<string, unknown>).s), 9));
     }
   });
@@ -77,7 +82,10 @@ describe('POST /api/v1/ingest (JSON)', () => {
 
   it('a re-sent value with 17 significant digits is a duplicate, not a conflict (exact doubles)', async () => {
     const f = await freshLogger();
-    const readings = [{ channel: 'air_t', ts: T0, value: 9.464301757086481 }, { channel: 'air_t', ts: T0 + 1000, value: 0.1 + 0.2 }];
+    const readings = [
+      { channel: 'air_t', ts: T0, value: 9.464301757086481 },
+      { channel: 'air_t', ts: T0 + 1000, value: 0.1 + 0.2 },
+    ];
     await post(f, { readings }).expect(200);
     const again = await post(f, { readings }).expect(200);
     expect(again.body).toEqual({ accepted: 0, duplicates: 2, quarantined: [] });
@@ -86,13 +94,23 @@ describe('POST /api/v1/ingest (JSON)', () => {
   it('a different value for a stored time keeps the stored value and quarantines the newcomer', async () => {
     const f = await freshLogger();
     await post(f, { readings: [{ channel: 'air_t', ts: T0, value: 4.25 }] }).expect(200);
-    const res = await post(f, { readings: [{ channel: 'air_t', ts: T0, value: 9.5 }, { channel: 'air_t', ts: T0 + 60_000, value: 5 }] }).expect(200);
+    const res = await post(f, {
+      readings: [
+        { channel: 'air_t', ts: T0, value: 9.5 },
+        { channel: 'air_t', ts: T0 + 60_000, value: 5 },
+      ],
+    }).expect(200);
     expect(res.body).toEqual({
       accepted: 1,
       duplicates: 0,
-      quarantined: [{ index: 0, code: 'conflicts_with_stored', reason: 'value: 9.5 differs from the value already stored for this time (4.25); the stored value was kept' }],
+      quarantined: [
+        { index: 0, code: 'conflicts_with_stored', reason: 'value: 9.5 differs from the value already stored for this time (4.25); the stored value was kept' },
+      ],
     });
-    expect(await stored(f)).toEqual([{ ts: T0, value: 4.25 }, { ts: T0 + 60_000, value: 5 }]);
+    expect(await stored(f)).toEqual([
+      { ts: T0, value: 4.25 },
+      { ts: T0 + 60_000, value: 5 },
+    ]);
   });
 
   it('within one batch, in or out of time order: a repeated time with the same value is a duplicate, with another value a conflict', async () => {
@@ -151,14 +169,21 @@ describe('POST /api/v1/ingest (JSON)', () => {
     expect(q.map((r) => r.row_index)).toEqual([1, 2, 3, 4, 5, 6, 7, 8]);
     expect(q[0].channel_key).toBe('soil_t');
     expect(q[5].raw).toBe('"not an object"');
-    expect(await stored(f)).toEqual([{ ts: T0 - 2 * 3600_000, value: 1 }, { ts: T0 + 4000, value: 6.5 }]);
+    expect(await stored(f)).toEqual([
+      { ts: T0 - 2 * 3600_000, value: 1 },
+      { ts: T0 + 4000, value: 6.5 },
+    ]);
   });
 
   it('accounts for every row of any batch: accepted + duplicates + quarantined = sent (property)', async () => {
     const f = await freshLogger();
     const row = fc.oneof(
       fc.record({ channel: fc.constant('air_t'), ts: fc.integer({ min: 0, max: 40 }).map((i) => T0 + i * 1000), value: fc.integer({ min: -5, max: 5 }) }),
-      fc.record({ channel: fc.constantFrom('air_t', 'nope', ''), ts: fc.oneof(fc.string(), fc.integer()), value: fc.oneof(fc.double(), fc.string(), fc.constant(null)) }),
+      fc.record({
+        channel: fc.constantFrom('air_t', 'nope', ''),
+        ts: fc.oneof(fc.string(), fc.integer()),
+        value: fc.oneof(fc.double(), fc.string(), fc.constant(null)),
+      }),
       fc.anything(),
     );
     await fc.assert(
@@ -177,7 +202,8 @@ describe('POST /api/v1/ingest (JSON)', () => {
 describe('POST /api/v1/ingest (CSV)', () => {
   it('reads text/csv with a channel,ts,value header in any order', async () => {
     const f = await freshLogger();
-    const csv = 'ts,Value,channel\r\n2026-06-01T00:00:00Z,1.5,air_t\r\n2026-06-01T00:01:00Z,2.5,air_t\r\n2026-06-01T00:02:00Z,x,air_t\r\n2026-06-01T00:03:00Z,3\r\n';
+    const csv =
+      'ts,Value,channel\r\n2026-06-01T00:00:00Z,1.5,air_t\r\n2026-06-01T00:01:00Z,2.5,air_t\r\n2026-06-01T00:02:00Z,x,air_t\r\n2026-06-01T00:03:00Z,3\r\n';
     const res = await request(t.app).post('/api/v1/ingest').set('Authorization', `Bearer ${f.ingestKey}`).set('Content-Type', 'text/csv').send(csv).expect(200);
     expect(res.body.accepted).toBe(2);
     expect(res.body.quarantined.map((q: { index: number; code: string }) => [q.index, q.code])).toEqual([
@@ -188,7 +214,12 @@ describe('POST /api/v1/ingest (CSV)', () => {
 
   it('refuses a CSV without the required header with 400 and the exact message', async () => {
     const f = await freshLogger();
-    const res = await request(t.app).post('/api/v1/ingest').set('Authorization', `Bearer ${f.ingestKey}`).set('Content-Type', 'text/csv').send('time,reading\n1,2\n').expect(400);
+    const res = await request(t.app)
+      .post('/api/v1/ingest')
+      .set('Authorization', `Bearer ${f.ingestKey}`)
+      .set('Content-Type', 'text/csv')
+      .send('time,reading\n1,2\n')
+      .expect(400);
     expect(res.body.error).toEqual({ code: 'invalid_input', message: 'header: expected columns channel, ts, value (got time, reading)' });
   });
 });
@@ -211,7 +242,12 @@ describe('ingest refusals', () => {
     const f = await freshLogger();
     const shape = await post(f, { data: [] }).expect(400);
     expect(shape.body.error.message).toBe('body: expected {"readings": [{"channel": …, "ts": …, "value": …}, …]}');
-    const malformed = await request(t.app).post('/api/v1/ingest').set('Authorization', `Bearer ${f.ingestKey}`).set('Content-Type', 'application/json').send('{"readings": [').expect(400);
+    const malformed = await request(t.app)
+      .post('/api/v1/ingest')
+      .set('Authorization', `Bearer ${f.ingestKey}`)
+      .set('Content-Type', 'application/json')
+      .send('{"readings": [')
+      .expect(400);
     expect(malformed.body.error.message).toBe('body: not valid JSON');
   });
 
@@ -221,12 +257,25 @@ describe('ingest refusals', () => {
     const big = await request(t.app).post('/api/v1/ingest').set('Authorization', `Bearer ${f.ingestKey}`).set('Content-Type', 'text/csv').send(huge);
     expect(big.status).toBe(413);
     expect(big.body.error.code).toBe('payload_too_large');
-    const xml = await request(t.app).post('/api/v1/ingest').set('Authorization', `Bearer ${f.ingestKey}`).set('Content-Type', 'application/xml').send('<r/>').expect(415);
+    const xml = await request(t.app)
+      .post('/api/v1/ingest')
+      .set('Authorization', `Bearer ${f.ingestKey}`)
+      .set('Content-Type', 'application/xml')
+      .send('<r/>')
+      .expect(415);
     expect(xml.body.error.code).toBe('unsupported_media_type');
   });
 
   it('429 with Retry-After when one logger posts faster than its allowance; other loggers are unaffected', async () => {
-    const app = createApp({ config: t.config, db: t.db, logger: createLogWriter({ silent: true }), identity: { endpoints: { issuer: 'http://x', authorization_endpoint: 'http://x/a', token_endpoint: 'http://x/t', userinfo_endpoint: 'http://x/u' } }, mailer: { send: async () => {}, verify: async () => true, close: () => {} }, billing: {} as never, ingestRate: { perSecond: 0.5, burst: 2 } });
+    const app = createApp({
+      config: t.config,
+      db: t.db,
+      logger: createLogWriter({ silent: true }),
+      identity: { endpoints: { issuer: 'http://x', authorization_endpoint: 'http://x/a', token_endpoint: 'http://x/t', userinfo_endpoint: 'http://x/u' } },
+      mailer: { send: async () => {}, verify: async () => true, close: () => {} },
+      billing: {} as never,
+      ingestRate: { perSecond: 0.5, burst: 2 },
+    });
     const f = await freshLogger();
     const g = await freshLogger();
     await post(f, { readings: [] }, app).expect(200);
@@ -239,7 +288,14 @@ describe('ingest refusals', () => {
 
   it('503 with Retry-After when the database is unreachable; the process stays up', async () => {
     const dead = createDb({ ...t.config.db, port: 1 });
-    const app = createApp({ config: t.config, db: dead, logger: createLogWriter({ silent: true }), identity: { endpoints: { issuer: 'http://x', authorization_endpoint: 'http://x/a', token_endpoint: 'http://x/t', userinfo_endpoint: 'http://x/u' } }, mailer: { send: async () => {}, verify: async () => true, close: () => {} }, billing: {} as never });
+    const app = createApp({
+      config: t.config,
+      db: dead,
+      logger: createLogWriter({ silent: true }),
+      identity: { endpoints: { issuer: 'http://x', authorization_endpoint: 'http://x/a', token_endpoint: 'http://x/t', userinfo_endpoint: 'http://x/u' } },
+      mailer: { send: async () => {}, verify: async () => true, close: () => {} },
+      billing: {} as never,
+    });
     const f = await freshLogger();
     const res = await post(f, { readings: [{ channel: 'air_t', ts: T0, value: 1 }] }, app).expect(503);
     expect(res.headers['retry-after']).toBe('5');

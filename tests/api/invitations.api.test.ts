@@ -21,8 +21,23 @@ function appWithClock() {
     config: t.config,
     db: t.db,
     logger: createLogWriter({ silent: true }),
-    identity: { endpoints: { issuer: t.config.oidc.issuer, authorization_endpoint: `${t.config.oidc.issuer}/auth`, token_endpoint: `${t.config.oidc.issuer}/token`, userinfo_endpoint: `${t.config.oidc.issuer}/me` } },
-    mailer: { send: (m) => import('../../server/integrations/mail/create-mailer.ts').then(({ createMailer }) => { const real = createMailer(t.config.smtp); return real.send(m).finally(() => real.close()); }), verify: async () => true, close: () => {} },
+    identity: {
+      endpoints: {
+        issuer: t.config.oidc.issuer,
+        authorization_endpoint: `${t.config.oidc.issuer}/auth`,
+        token_endpoint: `${t.config.oidc.issuer}/token`,
+        userinfo_endpoint: `${t.config.oidc.issuer}/me`,
+      },
+    },
+    mailer: {
+      send: (m) =>
+        import('../../server/integrations/mail/create-mailer.ts').then(({ createMailer }) => {
+          const real = createMailer(t.config.smtp);
+          return real.send(m).finally(() => real.close());
+        }),
+      verify: async () => true,
+      close: () => {},
+    },
     billing: {} as never,
     now: () => new Date(clock),
   });
@@ -68,7 +83,10 @@ describe('invitations', () => {
     const invitee = await buildUser(t.db, { email });
     const cookie = await sessionCookieFor(t.db, t.config.sessionSecret, invitee.id);
     const preview = await request(t.app).get(`/api/v1/invitations/${slug}/${token}`).set('Cookie', cookie).expect(200);
-    expect(preview.body).toEqual({ invitation: { lab: { slug, name: lab.name }, role: 'technician', email, invitedBy: { name: 'Ada Inviter' }, expiresAt: expect.any(String) }, matchesSignedInUser: true });
+    expect(preview.body).toEqual({
+      invitation: { lab: { slug, name: lab.name }, role: 'technician', email, invitedBy: { name: 'Ada Inviter' }, expiresAt: expect.any(String) },
+      matchesSignedInUser: true,
+    });
     const accepted = await request(t.app).post(`/api/v1/invitations/${slug}/${token}/accept`).set('Cookie', cookie).expect(200);
     expect(accepted.body).toEqual({ lab: { slug, name: lab.name }, role: 'technician' });
     const me = await request(t.app).get('/api/v1/me').set('Cookie', cookie).expect(200);
@@ -162,9 +180,14 @@ describe('invitations', () => {
   it('a made-up link answers 404 invitation_not_found', async () => {
     const u = await buildUser(t.db);
     const cookie = await sessionCookieFor(t.db, t.config.sessionSecret, u.id);
-    const res = await request(t.app).get(`/api/v1/invitations/${lab.slug}/${'x'.repeat(43)}`).set('Cookie', cookie).expect(404);
+    const res = await request(t.app)
+      .get(`/api/v1/invitations/${lab.slug}/${'x'.repeat(43)}`)
+      .set('Cookie', cookie)
+      .expect(404);
     expect(res.body.error.code).toBe('invitation_not_found');
-    await request(t.app).get(`/api/v1/invitations/${lab.slug}/${'x'.repeat(43)}`).expect(401);
+    await request(t.app)
+      .get(`/api/v1/invitations/${lab.slug}/${'x'.repeat(43)}`)
+      .expect(401);
   });
 
   it('when the mail server is down the invitation is not saved and the admin is told', async () => {
@@ -172,11 +195,23 @@ describe('invitations', () => {
       config: t.config,
       db: t.db,
       logger: createLogWriter({ silent: true }),
-      identity: { endpoints: { issuer: t.config.oidc.issuer, authorization_endpoint: 'http://x/a', token_endpoint: 'http://x/t', userinfo_endpoint: 'http://x/u' } },
-      mailer: { send: async () => { throw new Error('ECONNREFUSED'); }, verify: async () => false, close: () => {} },
+      identity: {
+        endpoints: { issuer: t.config.oidc.issuer, authorization_endpoint: 'http://x/a', token_endpoint: 'http://x/t', userinfo_endpoint: 'http://x/u' },
+      },
+      mailer: {
+        send: async () => {
+          throw new Error('ECONNREFUSED');
+        },
+        verify: async () => false,
+        close: () => {},
+      },
       billing: {} as never,
     });
-    const res = await request(app).post(`/api/v1/labs/${lab.slug}/invitations`).set('Cookie', adminCookie).send({ email: 'nobody@field.example', role: 'guest' }).expect(503);
+    const res = await request(app)
+      .post(`/api/v1/labs/${lab.slug}/invitations`)
+      .set('Cookie', adminCookie)
+      .send({ email: 'nobody@field.example', role: 'guest' })
+      .expect(503);
     expect(res.body.error.code).toBe('service_unavailable');
     expect(res.headers['retry-after']).toBe('30');
     expect(await t.db('invitations').where({ tenant_id: lab.id })).toEqual([]);

@@ -91,7 +91,11 @@ describe('cross-lab isolation', () => {
       .set('Authorization', `Bearer ${A.ingestKey}`)
       .send({ readings: [{ channel: 'b_only_key', ts: '2026-01-01T00:00:00Z', value: 1 }] })
       .expect(200);
-    expect(res.body).toEqual({ accepted: 0, duplicates: 0, quarantined: [{ index: 0, code: 'unknown_channel', reason: 'channel: no channel "b_only_key" on this logger' }] });
+    expect(res.body).toEqual({
+      accepted: 0,
+      duplicates: 0,
+      quarantined: [{ index: 0, code: 'unknown_channel', reason: 'channel: no channel "b_only_key" on this logger' }],
+    });
     expect(await snapshotOf(B)).toBe(before);
     expect(await t.db('quarantined_rows').where({ tenant_id: A.lab.id, channel_key: 'b_only_key' })).toHaveLength(1);
   });

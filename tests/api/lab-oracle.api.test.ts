@@ -50,7 +50,10 @@ describe('POST /api/v1/labs at an address another lab uses', () => {
     expect(fresh.result.body).toEqual({ lab: { slug: `${word}-fresh`, name: 'Heathland Soil Group', role: 'admin' }, requestedSlug: `${word}-fresh` });
     expect(taken.result.body).toEqual({ lab: { slug: `${word}-taken-2`, name: 'Heathland Soil Group', role: 'admin' }, requestedSlug: `${word}-taken` });
     // Beyond the address itself, nothing differs: header names, body shape, the statements sent.
-    const headerNames = (h: Record<string, string>) => Object.keys(h).filter((k) => k !== 'date').sort();
+    const headerNames = (h: Record<string, string>) =>
+      Object.keys(h)
+        .filter((k) => k !== 'date')
+        .sort();
     expect(headerNames(taken.result.headers)).toEqual(headerNames(fresh.result.headers));
     // 'taken' and 'fresh' have the same length: the bodies differ by the variant's "-2" alone.
     expect(Number(taken.result.headers['content-length'])).toBe(Number(fresh.result.headers['content-length']) + '-2'.length);
@@ -70,14 +73,22 @@ describe('POST /api/v1/labs at an address another lab uses', () => {
     const word = `ridge-${unique()}`;
     await buildLab(t.db, { slug: word });
     await buildLab(t.db, { slug: `${word}-2` });
-    const res = await request(t.app).post('/api/v1/labs').set('Cookie', await newPerson()).send({ name: word.replace('-', ' ') }).expect(201);
+    const res = await request(t.app)
+      .post('/api/v1/labs')
+      .set('Cookie', await newPerson())
+      .send({ name: word.replace('-', ' ') })
+      .expect(201);
     expect(res.body).toEqual({ lab: { slug: `${word}-3`, name: word.replace('-', ' '), role: 'admin' }, requestedSlug: word });
   });
 
   it('cuts a 48-character address to fit its suffix', async () => {
     const word = `a${unique()}`.padEnd(48, 'x');
     await buildLab(t.db, { slug: word });
-    const res = await request(t.app).post('/api/v1/labs').set('Cookie', await newPerson()).send({ name: 'Long address lab', slug: word }).expect(201);
+    const res = await request(t.app)
+      .post('/api/v1/labs')
+      .set('Cookie', await newPerson())
+      .send({ name: 'Long address lab', slug: word })
+      .expect(201);
     expect(res.body.lab.slug).toBe(`${word.slice(0, 46)}-2`);
     expect(res.body.lab.slug).toHaveLength(48);
   });

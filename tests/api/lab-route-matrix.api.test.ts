@@ -115,8 +115,7 @@ describe('route × role matrix', () => {
         const body = validBodyFor(route.method, route.path, f);
         const res = await (raw ? req.set('Content-Type', raw.contentType).send(raw.body) : body ? req.send(body) : req);
         const allowed = ALLOWED[key(route)];
-        const expected =
-          caller === 'signed-out' ? 401 : caller === 'non-member' ? 404 : allowed.roles.includes(caller) ? allowed.ok : 403;
+        const expected = caller === 'signed-out' ? 401 : caller === 'non-member' ? 404 : allowed.roles.includes(caller) ? allowed.ok : 403;
         if (res.status !== expected) mismatches.push(`${key(route)} → ${res.status} (expected ${expected}) ${JSON.stringify(res.body)}`);
       }
       expect(mismatches).toEqual([]);

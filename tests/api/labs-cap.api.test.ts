@@ -61,7 +61,10 @@ describe('labs per account', () => {
     await onLargestPlan(t.db, Number(paid.id));
     for (let i = 4; i <= 10; i++) await create(cookie, `Upland Stream Survey ${i}`).expect(201);
     const refused = await create(cookie, 'Upland Stream Survey 11').expect(403);
-    expect(refused.body.error).toEqual({ code: 'lab_limit_reached', message: 'You have created 10 labs; an admin of a lab on a paid plan may create at most 10.' });
+    expect(refused.body.error).toEqual({
+      code: 'lab_limit_reached',
+      message: 'You have created 10 labs; an admin of a lab on a paid plan may create at most 10.',
+    });
     expect(await createdBy(user.id)).toBe(10);
   });
 
@@ -105,7 +108,15 @@ describe('the creator backfill migration', () => {
     const byOperator = await buildLab(t.db);
     await t.db('audit_events').insert([
       { tenant_id: older.id, id: older.id * 10 + 1, actor_user_id: user.id, action: 'lab.created', target_type: 'lab', target_id: older.slug, summary: 'made' },
-      { tenant_id: byOperator.id, id: byOperator.id * 10 + 1, actor_user_id: null, action: 'lab.created', target_type: 'lab', target_id: byOperator.slug, summary: 'made' },
+      {
+        tenant_id: byOperator.id,
+        id: byOperator.id * 10 + 1,
+        actor_user_id: null,
+        action: 'lab.created',
+        target_type: 'lab',
+        target_id: byOperator.slug,
+        summary: 'made',
+      },
     ]);
     await backfillLabCreators(t.db);
     expect((await t.db('labs').where({ id: older.id }).first('created_by_user_id')).created_by_user_id).toBe(user.id);

@@ -80,8 +80,14 @@ describe('members', () => {
     const { lab, people, cookies } = await labWith('admin', 'scientist');
     const list = await request(t.app).get(`/api/v1/labs/${lab.slug}/members`).set('Cookie', cookies[1]).expect(200);
     expect(list.body.members).toHaveLength(2);
-    expect(list.body.members[0]).toEqual(expect.objectContaining({ userId: expect.any(Number), email: expect.any(String), role: expect.any(String), joinedAt: expect.any(String) }));
-    const changed = await request(t.app).patch(`/api/v1/labs/${lab.slug}/members/${people[1].id}`).set('Cookie', cookies[0]).send({ role: 'technician' }).expect(200);
+    expect(list.body.members[0]).toEqual(
+      expect.objectContaining({ userId: expect.any(Number), email: expect.any(String), role: expect.any(String), joinedAt: expect.any(String) }),
+    );
+    const changed = await request(t.app)
+      .patch(`/api/v1/labs/${lab.slug}/members/${people[1].id}`)
+      .set('Cookie', cookies[0])
+      .send({ role: 'technician' })
+      .expect(200);
     expect(changed.body.member.role).toBe('technician');
     const audit = await request(t.app).get(`/api/v1/labs/${lab.slug}/audit?action=member.role-changed`).set('Cookie', cookies[0]).expect(200);
     expect(audit.body.entries[0].details).toEqual({ email: people[1].email, from: 'scientist', to: 'technician' });
@@ -140,7 +146,14 @@ describe('audit log', () => {
     const cookie = await sessionCookieFor(t.db, t.config.sessionSecret, admin.id);
     const base = Date.parse('2026-03-01T00:00:00Z');
     for (let i = 0; i < 7; i++) {
-      await t.db('audit_events').insert({ tenant_id: lab.id, id: 5_000_000 + lab.id * 10 + i, at: new Date(base + i * 3600_000), actor_user_id: i % 2 ? admin.id : null, action: i < 4 ? 'member.removed' : 'invitation.created', summary: `event ${i}` });
+      await t.db('audit_events').insert({
+        tenant_id: lab.id,
+        id: 5_000_000 + lab.id * 10 + i,
+        at: new Date(base + i * 3600_000),
+        actor_user_id: i % 2 ? admin.id : null,
+        action: i < 4 ? 'member.removed' : 'invitation.created',
+        summary: `event ${i}`,
+      });
     }
     const page1 = await request(t.app).get(`/api/v1/labs/${lab.slug}/audit?pageSize=3`).set('Cookie', cookie).expect(200);
     expect(page1.body.total).toBe(7);

@@ -45,7 +45,11 @@ describe('loggers and ingest keys', () => {
     expect(detail.body.logger.keys).toEqual([expect.objectContaining({ prefix: ingestKey.prefix, revokedAt: null })]);
     const guestView = await request(t.app).get(`${base()}/${logger.id}`).set('Cookie', guest).expect(200);
     expect(guestView.body.logger.keys).toBeUndefined();
-    await request(t.app).post('/api/v1/ingest').set('Authorization', `Bearer ${ingestKey.key}`).send({ readings: [{ channel: 'rh', ts: Date.now(), value: 55 }] }).expect(200);
+    await request(t.app)
+      .post('/api/v1/ingest')
+      .set('Authorization', `Bearer ${ingestKey.key}`)
+      .send({ readings: [{ channel: 'rh', ts: Date.now(), value: 55 }] })
+      .expect(200);
   });
 
   it('rotating keys stops the old key at once; revoking a key stops it; both are audit-logged', async () => {
@@ -56,13 +60,22 @@ describe('loggers and ingest keys', () => {
     await request(t.app).post('/api/v1/ingest').set('Authorization', `Bearer ${rotated.body.ingestKey.key}`).send({ readings: [] }).expect(200);
     await request(t.app).delete(`${base()}/${body.logger.id}/keys/${rotated.body.ingestKey.id}`).set('Cookie', tech).expect(204);
     await request(t.app).post('/api/v1/ingest').set('Authorization', `Bearer ${rotated.body.ingestKey.key}`).send({ readings: [] }).expect(401);
-    const actions = (await t.db('audit_events').where({ tenant_id: lab.id, target_id: String(body.logger.id) }).pluck('action')).sort();
+    const actions = (
+      await t
+        .db('audit_events')
+        .where({ tenant_id: lab.id, target_id: String(body.logger.id) })
+        .pluck('action')
+    ).sort();
     expect(actions).toEqual(['ingest-key.revoked', 'ingest-key.rotated', 'logger.registered']);
   });
 
   it('retiring a logger keeps its readings and stops its keys', async () => {
     const { body } = await request(t.app).post(base()).set('Cookie', tech).send(loggerBody()).expect(201);
-    await request(t.app).post('/api/v1/ingest').set('Authorization', `Bearer ${body.ingestKey.key}`).send({ readings: [{ channel: 'air_t', ts: Date.now() - 1000, value: 21 }] }).expect(200);
+    await request(t.app)
+      .post('/api/v1/ingest')
+      .set('Authorization', `Bearer ${body.ingestKey.key}`)
+      .send({ readings: [{ channel: 'air_t', ts: Date.now() - 1000, value: 21 }] })
+      .expect(200);
     await request(t.app).post(`${base()}/${body.logger.id}/retire`).set('Cookie', tech).expect(204);
     await request(t.app).post('/api/v1/ingest').set('Authorization', `Bearer ${body.ingestKey.key}`).send({ readings: [] }).expect(401);
     const channelIds = body.logger.channels.map((c: { id: number }) => c.id);
@@ -81,9 +94,17 @@ describe('loggers and ingest keys', () => {
     const ch = await request(t.app).patch(`${base()}/${body.logger.id}/channels/${rh.id}`).set('Cookie', tech).send({ validMax: 101 }).expect(200);
     expect(ch.body.channel.validMax).toBe(101);
     await request(t.app).post(`${base()}/${body.logger.id}/channels/${rh.id}/retire`).set('Cookie', tech).expect(204);
-    const res = await request(t.app).post('/api/v1/ingest').set('Authorization', `Bearer ${body.ingestKey.key}`).send({ readings: [{ channel: 'rh', ts: Date.now(), value: 50 }] }).expect(200);
+    const res = await request(t.app)
+      .post('/api/v1/ingest')
+      .set('Authorization', `Bearer ${body.ingestKey.key}`)
+      .send({ readings: [{ channel: 'rh', ts: Date.now(), value: 50 }] })
+      .expect(200);
     expect(res.body.quarantined[0].code).toBe('retired_channel');
-    const added = await request(t.app).post(`${base()}/${body.logger.id}/channels`).set('Cookie', tech).send({ key: 'co2', label: 'CO2', unit: 'ppm' }).expect(201);
+    const added = await request(t.app)
+      .post(`${base()}/${body.logger.id}/channels`)
+      .set('Cookie', tech)
+      .send({ key: 'co2', label: 'CO2', unit: 'ppm' })
+      .expect(201);
     expect(added.body.channel.key).toBe('co2');
   });
 
@@ -93,7 +114,15 @@ describe('loggers and ingest keys', () => {
     [{ expectedIntervalS: 0 }, 'expectedIntervalS: must be at least 1 second'],
     [{ channels: [{ key: 'bad key', label: 'x' }] }, 'channels.0.key: use 1–64 letters, digits, "_", "." or "-", starting with a letter or digit'],
     [{ channels: [{ key: 'a', label: 'A', validMin: 5, validMax: 1 }] }, 'channels.0.validMax: validMin must be below validMax'],
-    [{ channels: [{ key: 'a', label: 'A' }, { key: 'a', label: 'B' }] }, 'channels: channel keys must be unique within a logger'],
+    [
+      {
+        channels: [
+          { key: 'a', label: 'A' },
+          { key: 'a', label: 'B' },
+        ],
+      },
+      'channels: channel keys must be unique within a logger',
+    ],
   ])('refuses %j with 400 and the exact message', async (over, message) => {
     const res = await request(t.app).post(base()).set('Cookie', tech).send(loggerBody(over)).expect(400);
     expect(res.body.error).toEqual({ code: 'invalid_input', message });
@@ -114,14 +143,23 @@ describe('quarantine review', () => {
     const { body } = await request(t.app).post(base()).set('Cookie', tech).send(loggerBody()).expect(201);
     const key = body.ingestKey.key;
     const ts = Date.UTC(2026, 4, 1);
-    await request(t.app).post('/api/v1/ingest').set('Authorization', `Bearer ${key}`).send({ readings: [
-      { channel: 'air_t', ts, value: 'twenty, "one"' },
-      { channel: 'air_tt', ts, value: 21 },
-      { channel: 'air_t', ts: 'later', value: 22 },
-    ] }).expect(200);
+    await request(t.app)
+      .post('/api/v1/ingest')
+      .set('Authorization', `Bearer ${key}`)
+      .send({
+        readings: [
+          { channel: 'air_t', ts, value: 'twenty, "one"' },
+          { channel: 'air_tt', ts, value: 21 },
+          { channel: 'air_t', ts: 'later', value: 22 },
+        ],
+      })
+      .expect(200);
     const list = await request(t.app).get(`/api/v1/labs/${lab.slug}/quarantine?loggerId=${body.logger.id}`).set('Cookie', tech).expect(200);
     expect(list.body.total).toBe(3);
-    const byReason = await request(t.app).get(`/api/v1/labs/${lab.slug}/quarantine?loggerId=${body.logger.id}&reason=unknown_channel`).set('Cookie', tech).expect(200);
+    const byReason = await request(t.app)
+      .get(`/api/v1/labs/${lab.slug}/quarantine?loggerId=${body.logger.id}&reason=unknown_channel`)
+      .set('Cookie', tech)
+      .expect(200);
     expect(byReason.body.rows.map((r: { channel: string }) => r.channel)).toEqual(['air_tt']);
 
     const csv = await request(t.app).get(`/api/v1/labs/${lab.slug}/quarantine/export.csv?loggerId=${body.logger.id}`).set('Cookie', tech).expect(200);
@@ -135,12 +173,27 @@ describe('quarantine review', () => {
     const badValue = list.body.rows.find((r: { reasonCode: string }) => r.reasonCode === 'bad_value');
     const unknown = list.body.rows.find((r: { reasonCode: string }) => r.reasonCode === 'unknown_channel');
     const badTime = list.body.rows.find((r: { reasonCode: string }) => r.reasonCode === 'bad_time');
-    const fixed = await request(t.app).post(`/api/v1/labs/${lab.slug}/quarantine/resubmit`).set('Cookie', tech).send({ rows: [
-      { id: badValue.id, channel: 'air_t', ts, value: 21.5 },
-      { id: unknown.id, channel: 'air_t', ts: ts + 60_000, value: 'still bad' },
-    ] }).expect(200);
-    expect(fixed.body).toEqual({ resubmitted: 2, accepted: 1, duplicates: 0, quarantined: [{ id: unknown.id, code: 'bad_value', reason: 'value: must be a finite number' }] });
-    const discarded = await request(t.app).post(`/api/v1/labs/${lab.slug}/quarantine/discard`).set('Cookie', tech).send({ ids: [badTime.id] }).expect(200);
+    const fixed = await request(t.app)
+      .post(`/api/v1/labs/${lab.slug}/quarantine/resubmit`)
+      .set('Cookie', tech)
+      .send({
+        rows: [
+          { id: badValue.id, channel: 'air_t', ts, value: 21.5 },
+          { id: unknown.id, channel: 'air_t', ts: ts + 60_000, value: 'still bad' },
+        ],
+      })
+      .expect(200);
+    expect(fixed.body).toEqual({
+      resubmitted: 2,
+      accepted: 1,
+      duplicates: 0,
+      quarantined: [{ id: unknown.id, code: 'bad_value', reason: 'value: must be a finite number' }],
+    });
+    const discarded = await request(t.app)
+      .post(`/api/v1/labs/${lab.slug}/quarantine/discard`)
+      .set('Cookie', tech)
+      .send({ ids: [badTime.id] })
+      .expect(200);
     expect(discarded.body).toEqual({ discarded: 1 });
     const after = await request(t.app).get(`/api/v1/labs/${lab.slug}/quarantine?loggerId=${body.logger.id}`).set('Cookie', tech).expect(200);
     expect(after.body.rows.map((r: { reasonCode: string; source: string }) => [r.reasonCode, r.source])).toEqual([['bad_value', 'resubmit']]);
@@ -149,7 +202,11 @@ describe('quarantine review', () => {
   });
 
   it('refuses unknown ids with 404 and an empty selection with 400', async () => {
-    await request(t.app).post(`/api/v1/labs/${lab.slug}/quarantine/discard`).set('Cookie', tech).send({ ids: [123456789] }).expect(404);
+    await request(t.app)
+      .post(`/api/v1/labs/${lab.slug}/quarantine/discard`)
+      .set('Cookie', tech)
+      .send({ ids: [123456789] })
+      .expect(404);
     const res = await request(t.app).post(`/api/v1/labs/${lab.slug}/quarantine/discard`).set('Cookie', tech).send({ ids: [] }).expect(400);
     expect(res.body.error.message).toBe('ids: choose at least one row');
   });

@@ -62,7 +62,10 @@ describe('migrations', () => {
     for (const o of owned) expect(o.nullable, `${o.table}.tenant_id`).toBe('NO');
     const firstColumns: { table: string; index: string; col: string }[] = await db('information_schema.statistics')
       .where({ table_schema: scratchName, seq_in_index: 1 })
-      .whereIn('table_name', owned.map((o) => o.table))
+      .whereIn(
+        'table_name',
+        owned.map((o) => o.table),
+      )
       .select('table_name as table', 'index_name as index', 'column_name as col');
     const offenders = firstColumns
       .filter((r) => r.col !== 'tenant_id' && !DOCUMENTED_EXCEPTIONS.has(`${r.table}.${r.index}`))
@@ -71,7 +74,9 @@ describe('migrations', () => {
   });
 
   it('LAB_OWNED_TABLES (what inLab may query) is exactly the set of tables with a tenant_id column', async () => {
-    const owned: { table: string }[] = await db('information_schema.columns').where({ table_schema: scratchName, column_name: 'tenant_id' }).select('table_name as table');
+    const owned: { table: string }[] = await db('information_schema.columns')
+      .where({ table_schema: scratchName, column_name: 'tenant_id' })
+      .select('table_name as table');
     expect([...LAB_OWNED_TABLES].sort()).toEqual(owned.map((o) => o.table).sort());
   });
 });

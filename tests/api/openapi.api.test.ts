@@ -19,13 +19,22 @@ let t: TestApp;
 let doc: Json;
 beforeAll(async () => {
   t = await buildTestApp();
-  doc = (await request(t.app).get('/api/v1/openapi.json').expect(200).expect('Content-Type', /application\/json/)).body;
+  doc = (
+    await request(t.app)
+      .get('/api/v1/openapi.json')
+      .expect(200)
+      .expect('Content-Type', /application\/json/)
+  ).body;
 });
 afterAll(async () => t.close());
 
 const paths = () => doc.paths as Record<string, Record<string, Json>>;
 const operations = () =>
-  Object.entries(paths()).flatMap(([path, item]) => Object.entries(item).filter(([m]) => METHODS.includes(m)).map(([method, op]) => ({ method, path, op })));
+  Object.entries(paths()).flatMap(([path, item]) =>
+    Object.entries(item)
+      .filter(([m]) => METHODS.includes(m))
+      .map(([method, op]) => ({ method, path, op })),
+  );
 const toTemplate = (expressPath: string) => expressPath.replace(/:([A-Za-z]+)/g, '{$1}');
 
 /** Every `METHOD path` the Express app registers under /api and /healthz, read from its router. */
@@ -36,7 +45,8 @@ function registeredRoutes(): string[] {
     for (const layer of stack) {
       if (layer.route) {
         const routePaths = Array.isArray(layer.route.path) ? layer.route.path : [layer.route.path];
-        for (const m of Object.keys(layer.route.methods)) if (m !== '_all') for (const p of routePaths) out.push(`${m} ${typeof p === 'string' ? toTemplate(p) : String(p)}`);
+        for (const m of Object.keys(layer.route.methods))
+          if (m !== '_all') for (const p of routePaths) out.push(`${m} ${typeof p === 'string' ? toTemplate(p) : String(p)}`);
       } else if (layer.handle?.stack) walk(layer.handle.stack);
     }
   };
@@ -78,7 +88,10 @@ describe('API document', () => {
       expect(ids.has(op.operationId as string), `duplicate operationId ${String(op.operationId)}`).toBe(false);
       ids.add(op.operationId as string);
       const params = (op.parameters ?? []) as Json[];
-      const pathParams = params.filter((p) => p.in === 'path').map((p) => p.name).sort();
+      const pathParams = params
+        .filter((p) => p.in === 'path')
+        .map((p) => p.name)
+        .sort();
       const templated = [...path.matchAll(/\{([^}]+)\}/g)].map((m) => m[1]).sort();
       expect(pathParams, where).toEqual(templated);
       for (const p of params) {
@@ -105,8 +118,10 @@ describe('API document', () => {
     for (const r of refs) expect(resolve(r), r).toEqual(expect.any(Object));
   });
 
-  it("lists exactly the routes the app registers — every lab route from the table and every route outside it", () => {
-    const documented = operations().map((o) => `${o.method} ${o.path}`).sort();
+  it('lists exactly the routes the app registers — every lab route from the table and every route outside it', () => {
+    const documented = operations()
+      .map((o) => `${o.method} ${o.path}`)
+      .sort();
     expect(documented).toEqual(registeredRoutes());
     const table = t.app.locals.labRoutes as LabRouteSummary[];
     for (const r of table) expect(documented).toContain(`${r.method} ${toTemplate(`/api/v1/labs/:lab${r.path}`)}`);

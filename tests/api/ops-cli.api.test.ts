@@ -93,13 +93,32 @@ describe('operator CLI', () => {
     const user = await buildUser(t.db);
     const { stdout } = await ops('create-lab', '--name', `Ops Loggers ${Date.now()}`, '--admin', user.email, '--json');
     const { lab } = JSON.parse(stdout);
-    const res = await ops('register-logger', '--lab', lab.slug, '--name', 'Incubator 2', '--interval', '60', '--timezone', 'Europe/Oslo', '--channel', 't:Chamber temperature:°C:30:40', '--channel', 'co2:CO2:%', '--json');
+    const res = await ops(
+      'register-logger',
+      '--lab',
+      lab.slug,
+      '--name',
+      'Incubator 2',
+      '--interval',
+      '60',
+      '--timezone',
+      'Europe/Oslo',
+      '--channel',
+      't:Chamber temperature:°C:30:40',
+      '--channel',
+      'co2:CO2:%',
+      '--json',
+    );
     expect(res.code).toBe(0);
     const out = JSON.parse(res.stdout);
     expect(out.channels.map((c: { key: string }) => c.key)).toEqual(['co2', 't']);
     const channel = await t.db('channels').where({ id: out.channels[1].id }).first();
     expect([channel.label, channel.unit, channel.valid_min, channel.valid_max]).toEqual(['Chamber temperature', '°C', 30, 40]);
-    const ingest = await request(t.app).post('/api/v1/ingest').set('Authorization', `Bearer ${out.ingestKey}`).send({ readings: [{ channel: 't', ts: Date.now() - 5000, value: 37.1 }] }).expect(200);
+    const ingest = await request(t.app)
+      .post('/api/v1/ingest')
+      .set('Authorization', `Bearer ${out.ingestKey}`)
+      .send({ readings: [{ channel: 't', ts: Date.now() - 5000, value: 37.1 }] })
+      .expect(200);
     expect(ingest.body.accepted).toBe(1);
   });
 

@@ -52,7 +52,9 @@ describe('managing personal tokens', () => {
 
     const list = await request(t.app).get(labPath(A, '/tokens')).set('Cookie', cookie).expect(200);
     expect(JSON.stringify(list.body)).not.toContain(made.token.slice(17));
-    expect(list.body.tokens).toContainEqual(expect.objectContaining({ id: made.tokenInfo.id, name: 'Soil notebook', prefix: made.tokenInfo.prefix, lastUsedAt: null, revokedAt: null }));
+    expect(list.body.tokens).toContainEqual(
+      expect.objectContaining({ id: made.tokenInfo.id, name: 'Soil notebook', prefix: made.tokenInfo.prefix, lastUsedAt: null, revokedAt: null }),
+    );
 
     const audit = await t.db('audit_events').where({ tenant_id: A.lab.id, action: 'token.created', target_id: String(made.tokenInfo.id) });
     expect(audit).toHaveLength(1);
@@ -81,12 +83,18 @@ describe('managing personal tokens', () => {
 
   it("revokes one's own token (audit-logged); someone else's token answers 404 and keeps working", async () => {
     const made = await makeToken();
-    await request(t.app).delete(labPath(A, `/tokens/${made.tokenInfo.id}`)).set('Cookie', cookie).expect(204);
+    await request(t.app)
+      .delete(labPath(A, `/tokens/${made.tokenInfo.id}`))
+      .set('Cookie', cookie)
+      .expect(204);
     const row = await t.db('personal_tokens').where({ tenant_id: A.lab.id, id: made.tokenInfo.id }).first();
     expect(row.revoked_at).not.toBeNull();
     expect(await t.db('audit_events').where({ tenant_id: A.lab.id, action: 'token.revoked', target_id: String(made.tokenInfo.id) })).toHaveLength(1);
 
-    const res = await request(t.app).delete(labPath(A, `/tokens/${A.ids.tokenId}`)).set('Cookie', cookie).expect(404);
+    const res = await request(t.app)
+      .delete(labPath(A, `/tokens/${A.ids.tokenId}`))
+      .set('Cookie', cookie)
+      .expect(404);
     expect(res.body.error.code).toBe('not_found');
     await request(t.app).get(labPath(A, '/channels')).set('Authorization', bearer(A.personalToken)).expect(200);
   });
@@ -105,8 +113,14 @@ describe('reading with a personal token', () => {
     expect(channels.body.channels.map((c: { id: number }) => c.id)).toContain(A.ids.channelId);
     const loggers = await request(t.app).get(labPath(A, '/loggers')).set('Authorization', bearer(token)).expect(200);
     expect(loggers.body.loggers.map((l: { id: number }) => l.id)).toContain(A.ids.loggerId);
-    await request(t.app).get(labPath(A, `/channels/${A.ids.channelId}/series`)).set('Authorization', bearer(token)).expect(200);
-    const csv = await request(t.app).get(labPath(A, `/channels/${A.ids.channelId}/readings.csv`)).set('Authorization', bearer(token)).expect(200);
+    await request(t.app)
+      .get(labPath(A, `/channels/${A.ids.channelId}/series`))
+      .set('Authorization', bearer(token))
+      .expect(200);
+    const csv = await request(t.app)
+      .get(labPath(A, `/channels/${A.ids.channelId}/readings.csv`))
+      .set('Authorization', bearer(token))
+      .expect(200);
     expect(csv.text.startsWith('time_utc,epoch_ms,value')).toBe(true);
     const lab = await request(t.app).get(labPath(A)).set('Authorization', bearer(token)).expect(200);
     expect(lab.body.role).toBe('scientist');
@@ -123,7 +137,10 @@ describe('reading with a personal token', () => {
     await request(t.app).get(labPath(A, '/loggers')).set('Authorization', bearer(token)).expect(200);
     const still = await t.db('personal_tokens').where({ tenant_id: A.lab.id, id: tokenInfo.id }).first();
     expect(still.last_used_at.getTime()).toBe(marked.getTime());
-    await t.db('personal_tokens').where({ tenant_id: A.lab.id, id: tokenInfo.id }).update({ last_used_at: new Date(Date.now() - 61_000) });
+    await t
+      .db('personal_tokens')
+      .where({ tenant_id: A.lab.id, id: tokenInfo.id })
+      .update({ last_used_at: new Date(Date.now() - 61_000) });
     await request(t.app).get(labPath(A, '/loggers')).set('Authorization', bearer(token)).expect(200);
     const moved = await t.db('personal_tokens').where({ tenant_id: A.lab.id, id: tokenInfo.id }).first();
     expect(Date.now() - moved.last_used_at.getTime()).toBeLessThan(10_000);
@@ -133,7 +150,9 @@ describe('reading with a personal token', () => {
     const { token } = await makeToken();
     const attempts = [
       request(t.app).post(labPath(A, '/loggers')).send({ name: 'Sneaky', timezone: 'UTC', expectedIntervalS: 60, channels: [] }),
-      request(t.app).patch(labPath(A, `/loggers/${A.ids.loggerId}`)).send({ site: 'Elsewhere' }),
+      request(t.app)
+        .patch(labPath(A, `/loggers/${A.ids.loggerId}`))
+        .send({ site: 'Elsewhere' }),
       request(t.app).post(labPath(A, '/tokens')).send({ name: 'minted by a token', expiresInDays: 5 }),
       request(t.app).delete(labPath(A, '/membership')),
       request(t.app).get(labPath(A, '/tokens')),
@@ -170,13 +189,19 @@ describe('reading with a personal token', () => {
 
   it('stops working when expired or revoked (401 invalid_token), and a forged secret never works', async () => {
     const expired = await makeToken();
-    await t.db('personal_tokens').where({ tenant_id: A.lab.id, id: expired.tokenInfo.id }).update({ expires_at: new Date(Date.now() - 1000) });
+    await t
+      .db('personal_tokens')
+      .where({ tenant_id: A.lab.id, id: expired.tokenInfo.id })
+      .update({ expires_at: new Date(Date.now() - 1000) });
     const e = await request(t.app).get(labPath(A, '/channels')).set('Authorization', bearer(expired.token)).expect(401);
     expect(e.body.error).toEqual({ code: 'invalid_token', message: 'This personal token has expired.' });
 
     const revoked = await makeToken();
     await request(t.app).get(labPath(A, '/channels')).set('Authorization', bearer(revoked.token)).expect(200);
-    await request(t.app).delete(labPath(A, `/tokens/${revoked.tokenInfo.id}`)).set('Cookie', cookie).expect(204);
+    await request(t.app)
+      .delete(labPath(A, `/tokens/${revoked.tokenInfo.id}`))
+      .set('Cookie', cookie)
+      .expect(204);
     const r = await request(t.app).get(labPath(A, '/channels')).set('Authorization', bearer(revoked.token)).expect(401);
     expect(r.body.error).toEqual({ code: 'invalid_token', message: 'This personal token has been revoked.' });
 
@@ -193,14 +218,20 @@ describe('reading with a personal token', () => {
     const owner = await buildMember(t.db, A.lab, { role: 'scientist' });
     const ownerCookie = await sessionCookieFor(t.db, t.config.sessionSecret, owner.id);
     const { token } = await makeToken(ownerCookie);
-    await request(t.app).get(labPath(A, `/channels/${A.ids.channelId}/readings.csv`)).set('Authorization', bearer(token)).expect(200);
+    await request(t.app)
+      .get(labPath(A, `/channels/${A.ids.channelId}/readings.csv`))
+      .set('Authorization', bearer(token))
+      .expect(200);
 
     await t.db('memberships').where({ tenant_id: A.lab.id, user_id: owner.id }).update({ role: 'guest' });
     await request(t.app).get(labPath(A, '/channels')).set('Authorization', bearer(token)).expect(200);
     const lab = await request(t.app).get(labPath(A)).set('Authorization', bearer(token)).expect(200);
     expect(lab.body.role).toBe('guest');
     // Exports are for scientists and above: the demoted owner's token loses them at once.
-    const exp = await request(t.app).get(labPath(A, `/channels/${A.ids.channelId}/readings.csv`)).set('Authorization', bearer(token)).expect(403);
+    const exp = await request(t.app)
+      .get(labPath(A, `/channels/${A.ids.channelId}/readings.csv`))
+      .set('Authorization', bearer(token))
+      .expect(403);
     expect(exp.body.error.code).toBe('forbidden');
 
     await t.db('memberships').where({ tenant_id: A.lab.id, user_id: owner.id }).delete();

@@ -91,7 +91,11 @@ describe(`per-lab quarantine cap (free plan here: ${CAP} rows)`, () => {
     expect(await quarantined(lab)).toBe(CAP);
     expect((await ingest(lab, 0, 1, 1)).status).toBe(402);
 
-    await request(t.app).post(lab.path('/quarantine/discard')).set('Cookie', lab.tech).send({ ids: [rows[CAP - 1].id] }).expect(200);
+    await request(t.app)
+      .post(lab.path('/quarantine/discard'))
+      .set('Cookie', lab.tech)
+      .send({ ids: [rows[CAP - 1].id] })
+      .expect(200);
     expect((await billingUsage(lab)).usage.quarantinedRows).toBe(CAP - 1);
     expect((await ingest(lab, 0, 1, 1)).status).toBe(200);
     expect([await stored(lab), await quarantined(lab), (await billingUsage(lab)).usage.quarantinedRows]).toEqual([1, CAP, CAP]);
@@ -142,7 +146,10 @@ describe('quarantine list: keyset pages', () => {
 
     const filtered = await request(t.app).get(lab.path('/quarantine?reason=unknown_channel&pageSize=1')).set('Cookie', lab.tech).expect(200);
     expect([filtered.body.total, filtered.body.rows[0].rowIndex, typeof filtered.body.nextCursor]).toEqual([2, 0, 'string']);
-    const last = await request(t.app).get(lab.path(`/quarantine?reason=unknown_channel&pageSize=1&cursor=${filtered.body.nextCursor}`)).set('Cookie', lab.tech).expect(200);
+    const last = await request(t.app)
+      .get(lab.path(`/quarantine?reason=unknown_channel&pageSize=1&cursor=${filtered.body.nextCursor}`))
+      .set('Cookie', lab.tech)
+      .expect(200);
     expect([last.body.rows[0].rowIndex, last.body.nextCursor]).toEqual([1, null]);
   });
 
@@ -169,7 +176,10 @@ describe('quarantine list: keyset pages', () => {
     const paged = await request(t.app).get(lab.path('/quarantine?page=50000')).set('Cookie', lab.tech).expect(400);
     expect(paged.body.error).toEqual({ code: 'invalid_input', message: 'page: page numbers are not supported; follow nextCursor from the previous page' });
     for (const bad of ['abc', '1.2', '1.2.3.4', '99999999999999999.1.1']) {
-      const res = await request(t.app).get(lab.path(`/quarantine?cursor=${bad}`)).set('Cookie', lab.tech).expect(400);
+      const res = await request(t.app)
+        .get(lab.path(`/quarantine?cursor=${bad}`))
+        .set('Cookie', lab.tech)
+        .expect(400);
       expect(res.body.error.message).toBe('cursor: not a cursor of this list (send nextCursor exactly as the previous page gave it)');
     }
   });

@@ -89,7 +89,10 @@ describe('invitations, per signed-in admin', () => {
     guestCookie = await sessionCookieFor(t.db, t.config.sessionSecret, (await buildMember(t.db, lab, { role: 'guest' })).id);
   });
   const invite = (app: Express, cookie: string, slug: string) =>
-    request(app).post(`/api/v1/labs/${slug}/invitations`).set('Cookie', cookie).send({ email: `limit-${Math.random().toString(36).slice(2)}@lab.example`, role: 'guest' });
+    request(app)
+      .post(`/api/v1/labs/${slug}/invitations`)
+      .set('Cookie', cookie)
+      .send({ email: `limit-${Math.random().toString(36).slice(2)}@lab.example`, role: 'guest' });
 
   it('counts creating and resending together; over the limit nothing is mailed and other admins are unaffected', async () => {
     const { app, sent } = appWith({ invitations: { limit: 3, windowMs: 60_000 } });

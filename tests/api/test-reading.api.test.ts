@@ -54,7 +54,9 @@ describe('POST /loggers/:loggerId/test-reading', () => {
     expect(res.body.outcome.accepted).toBe(0);
     expect(res.body.outcome.quarantined).toEqual([{ index: 0, code: 'unknown_channel', reason: 'channel: no channel "soil_q" on this logger' }]);
     expect(res.body.storedValue).toBeNull();
-    const kept = await t.db('quarantined_rows').where({ tenant_id: A.lab.id, logger_id: A.ids.loggerId, reason_code: 'unknown_channel', channel_key: 'soil_q' });
+    const kept = await t
+      .db('quarantined_rows')
+      .where({ tenant_id: A.lab.id, logger_id: A.ids.loggerId, reason_code: 'unknown_channel', channel_key: 'soil_q' });
     expect(kept).toHaveLength(1);
     expect(kept[0].source).toBe('api');
   });

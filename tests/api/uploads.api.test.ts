@@ -25,17 +25,28 @@ function upload(options: object, body: string, contentType = 'text/csv') {
     .send(body);
 }
 
-const ndjson = (text: string) => text.trim().split('\n').map((l) => JSON.parse(l));
+const ndjson = (text: string) =>
+  text
+    .trim()
+    .split('\n')
+    .map((l) => JSON.parse(l));
 
 describe('historical uploads', () => {
-  it('imports a wide file (time column + one column per channel) in the logger\'s zone, with progress and a summary', async () => {
+  it("imports a wide file (time column + one column per channel) in the logger's zone, with progress and a summary", async () => {
     const lines = ['Timestamp;Temp (C);RH (%);Battery'];
     for (let i = 0; i < 12_000; i++) {
       const d = new Date(Date.UTC(2026, 0, 1, 0, 0) + i * 60_000);
       const local = d.toISOString().slice(0, 19); // written as local wall time, zone given below
       lines.push(`${local};${(i % 50) / 10};${i === 7 ? 'n/a' : 40 + (i % 20)};3.3`);
     }
-    const options = { format: 'wide', delimiter: ';', timeColumn: 'Timestamp', columns: { 'Temp (C)': 'air_t', 'RH (%)': 'rh', Battery: null }, timeFormat: 'iso', timeZone: 'Etc/GMT-1' };
+    const options = {
+      format: 'wide',
+      delimiter: ';',
+      timeColumn: 'Timestamp',
+      columns: { 'Temp (C)': 'air_t', 'RH (%)': 'rh', Battery: null },
+      timeFormat: 'iso',
+      timeZone: 'Etc/GMT-1',
+    };
     const res = await upload(options, lines.join('\n')).expect(200);
     expect(res.headers['content-type']).toMatch(/application\/x-ndjson/);
     const events = ndjson(res.text);
@@ -84,7 +95,10 @@ describe('historical uploads', () => {
     [{ format: 'long', timeColumn: 'ts' }, 'format: long format needs channelColumn and valueColumn'],
     [{ format: 'wide', timeColumn: 'ts', columns: { a: null } }, 'columns: wide format needs at least one column mapped to a channel'],
     [{ format: 'tall', timeColumn: 'ts' }, 'format: must be long or wide'],
-    [{ format: 'long', timeColumn: 'ts', channelColumn: 'c', valueColumn: 'v', timeZone: 'Nowhere/Else' }, 'timeZone: must be an IANA time zone such as Europe/Berlin or UTC'],
+    [
+      { format: 'long', timeColumn: 'ts', channelColumn: 'c', valueColumn: 'v', timeZone: 'Nowhere/Else' },
+      'timeZone: must be an IANA time zone such as Europe/Berlin or UTC',
+    ],
   ])('refuses options %j with 400 and the exact message', async (options, message) => {
     const res = await upload(options, 'x\n').expect(400);
     expect(res.body.error).toEqual({ code: 'invalid_input', message });

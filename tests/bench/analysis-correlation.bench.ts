@@ -64,11 +64,7 @@ try {
   const oursAcf = timeMedian(() => acf(series, { maxLag: ACF_LAGS }));
   printRatioLine(`acf n=${ACF_N} lags=${ACF_LAGS}`, oursAcf, [
     reference('R acf', 'R', rScript(`acf(x, lag.max = ${ACF_LAGS}, plot = FALSE)`, 5)),
-    reference(
-      'statsmodels acf(fft=True)',
-      'statsmodels',
-      pyScript('from statsmodels.tsa.stattools import acf', `acf(x, nlags=${ACF_LAGS}, fft=True)`, 5),
-    ),
+    reference('statsmodels acf(fft=True)', 'statsmodels', pyScript('from statsmodels.tsa.stattools import acf', `acf(x, nlags=${ACF_LAGS}, fft=True)`, 5)),
   ]);
 
   const oursPacf = timeMedian(() => pacf(shortSeries, { maxLag: PACF_LAGS }), { runs: 9, warmup: 3 });

@@ -17,13 +17,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { stl } from '../../server/analysis/stl.ts';
 import { stlParameters, type StlOptions } from '../../server/analysis/stl-parameters.ts';
-import {
-  printRatioLine,
-  referenceAvailable,
-  timeMedian,
-  timeReference,
-  type ReferenceTiming,
-} from './bench-helpers.ts';
+import { printRatioLine, referenceAvailable, timeMedian, timeReference, type ReferenceTiming } from './bench-helpers.ts';
 
 const PERIOD = 24;
 const SEASONAL_WINDOW = 7;

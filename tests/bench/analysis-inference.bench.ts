@@ -32,7 +32,7 @@ const DELAY = 6;
 
 const pct = (k: number, of: number) => `${((100 * k) / of).toFixed(1)} %`;
 /** Half-width of a binomial 95 % interval for a rate near p from `of` trials (normal approximation). */
-const margin = (k: number, of: number) => `±${(196 * Math.sqrt((k / of) * (1 - k / of) / of)).toFixed(1)}`;
+const margin = (k: number, of: number) => `±${(196 * Math.sqrt(((k / of) * (1 - k / of)) / of)).toFixed(1)}`;
 
 function printTable(title: string, header: string[], rows: string[][]): void {
   const widths = header.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
@@ -128,7 +128,15 @@ function coverageOfMeans(): void {
         if (r.caution) cautioned++;
         widthRatio += (r.effective.interval[1] - r.effective.interval[0]) / (r.welch.interval[1] - r.welch.interval[0]);
       }
-      rows.push([`AR(1) φ = ${phi}`, String(n), pct(naive, PAIRS), pct(effective, PAIRS), margin(effective, PAIRS), (widthRatio / PAIRS).toFixed(2), pct(cautioned, PAIRS)]);
+      rows.push([
+        `AR(1) φ = ${phi}`,
+        String(n),
+        pct(naive, PAIRS),
+        pct(effective, PAIRS),
+        margin(effective, PAIRS),
+        (widthRatio / PAIRS).toFixed(2),
+        pct(cautioned, PAIRS),
+      ]);
     }
   }
   printTable(

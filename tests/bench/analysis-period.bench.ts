@@ -87,7 +87,11 @@ for (const s of scenarios) {
     if (detectPeriod(x).best === s.truth) rightRaw++;
   }
   const pct = (k: number) => `${((100 * k) / s.replicates).toFixed(1)} %`;
-  const top = [...wrong.entries()].sort((a, b) => b[1] - a[1]).slice(0, 4).map(([k, v]) => `${k}×${v}`).join(' ');
+  const top = [...wrong.entries()]
+    .sort((a, b) => b[1] - a[1])
+    .slice(0, 4)
+    .map(([k, v]) => `${k}×${v}`)
+    .join(' ');
   console.log(`${s.name.padEnd(62)} ${String(s.replicates).padStart(5)}  ${pct(right).padStart(12)}  ${pct(rightRaw).padStart(9)}  ${top}`);
 }
 

@@ -50,7 +50,9 @@ async function timeRequests(label: string, urls: string[], cookie: string, warmu
     bytes = Buffer.byteLength(body);
     last = JSON.parse(body);
   }
-  console.log(`${label}: p50 ${median(times).toFixed(1)} ms, p95 ${percentile(times, 95).toFixed(1)} ms (${times.length} requests, ${(bytes / 1024).toFixed(0)} kB each)`);
+  console.log(
+    `${label}: p50 ${median(times).toFixed(1)} ms, p95 ${percentile(times, 95).toFixed(1)} ms (${times.length} requests, ${(bytes / 1024).toFixed(0)} kB each)`,
+  );
   return last;
 }
 
@@ -119,7 +121,9 @@ async function main() {
       series: { source: string; resolutionS: number; bucketMs: number; t: number[]; max: Array<number | null> };
     };
     const s = series.series;
-    console.log(`  drawn from ${s.source} ${s.resolutionS} s as ${s.t.length} buckets of ${s.bucketMs / 3_600_000} h (${2 * s.t.length} points); highest max ${Math.max(...s.max.filter((v): v is number => v !== null))} (the injected spike is 80)`);
+    console.log(
+      `  drawn from ${s.source} ${s.resolutionS} s as ${s.t.length} buckets of ${s.bucketMs / 3_600_000} h (${2 * s.t.length} points); highest max ${Math.max(...s.max.filter((v): v is number => v !== null))} (the injected spike is 80)`,
+    );
 
     const diagFrom = T0 + 30 * 1440 * MINUTE;
     // Each uncached request asks for another 100,000-minute range (shifted by whole hours), so
@@ -128,7 +132,12 @@ async function main() {
       `${base}/diagnostics?from=${diagFrom + shiftMinutes * MINUTE}&to=${diagFrom + (shiftMinutes + 100_000) * MINUTE}&step=60&alpha=${alpha}`;
     // The first requests after the server starts run while the JIT is still compiling the engine:
     // they are timed and printed on their own; the steady state follows.
-    await timeRequests('diagnostics, 100,000 points, uncached, the first 3 requests after start', [0.04, 0.0401, 0.0402].map((a, i) => diagUrl(a, 60 * (i + 1))), cookie, 0);
+    await timeRequests(
+      'diagnostics, 100,000 points, uncached, the first 3 requests after start',
+      [0.04, 0.0401, 0.0402].map((a, i) => diagUrl(a, 60 * (i + 1))),
+      cookie,
+      0,
+    );
     const runs = Math.max(5, Math.ceil(RUNS / 2)) + 2;
     const uncached = Array.from({ length: runs }, (_, i) => diagUrl(0.05, 60 * (i + 4)));
     const report = (await timeRequests('diagnostics, 100,000 points, uncached', uncached, cookie, 0)) as {

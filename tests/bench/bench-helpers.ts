@@ -49,8 +49,7 @@ export type ReferenceTool = 'R' | 'statsmodels';
 /** Whether a reference tool is installed, with the Debian package that provides it. */
 export function referenceAvailable(tool: ReferenceTool): { ok: boolean; hint: string } {
   if (tool === 'R') return { ok: hasCommand('Rscript'), hint: 'apt-get install r-base-core' };
-  const ok =
-    spawnSync(DEBIAN_PYTHON, ['-c', 'import statsmodels'], { stdio: 'ignore' }).status === 0;
+  const ok = spawnSync(DEBIAN_PYTHON, ['-c', 'import statsmodels'], { stdio: 'ignore' }).status === 0;
   return { ok, hint: 'apt-get install python3-statsmodels' };
 }
 
@@ -91,9 +90,7 @@ export interface ReferenceTiming {
 export function printRatioLine(label: string, oursSeconds: number, refs: ReferenceTiming[]): void {
   const fmt = (s: number) => `${(s * 1000).toFixed(1)} ms`;
   const available = refs.filter((r) => r.seconds !== null) as { name: string; seconds: number }[];
-  const parts = refs.map((r) =>
-    r.seconds === null ? `${r.name}: not run (${r.missing ?? 'missing'})` : `${r.name} ${fmt(r.seconds)}`,
-  );
+  const parts = refs.map((r) => (r.seconds === null ? `${r.name}: not run (${r.missing ?? 'missing'})` : `${r.name} ${fmt(r.seconds)}`));
   let ratio = 'ratio: n/a';
   if (available.length) {
     const fastest = available.reduce((a, b) => (a.seconds <= b.seconds ? a : b));

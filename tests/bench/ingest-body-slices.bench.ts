@@ -14,7 +14,9 @@ import { readingsFromCsvBody, readingsFromJsonBody } from '../../server/services
 const ROWS = Number(process.env.BENCH_HOSTILE_ROWS ?? 100_000);
 const T0 = Date.UTC(2026, 0, 1);
 const csv = `channel,ts,value\n${Array.from({ length: ROWS }, (_, i) => `air_t,${T0 + i * 1000},${(i % 997) / 10}`).join('\n')}\n`;
-const json = Buffer.from(JSON.stringify({ readings: Array.from({ length: ROWS }, (_, i) => ({ channel: 'air_t', ts: T0 + i * 1000, value: (i % 997) / 10 })) }));
+const json = Buffer.from(
+  JSON.stringify({ readings: Array.from({ length: ROWS }, (_, i) => ({ channel: 'air_t', ts: T0 + i * 1000, value: (i % 997) / 10 })) }),
+);
 const bad = `channel,ts,value\n${'a\n'.repeat(1_000_000)}`;
 
 /** Runs `read` with a pause that measures each synchronous stretch; returns total and longest stretch (ms). */
@@ -58,9 +60,23 @@ function whole(read: () => unknown) {
 }
 
 const line = (name: string, s: { total: number; longest: number; pauses: number }, before: number) =>
-  console.log(`${name}: ${s.total.toFixed(1)} ms of work in ${s.pauses + 1} slices, longest ${s.longest.toFixed(1)} ms — before: ${before.toFixed(1)} ms in one go`);
+  console.log(
+    `${name}: ${s.total.toFixed(1)} ms of work in ${s.pauses + 1} slices, longest ${s.longest.toFixed(1)} ms — before: ${before.toFixed(1)} ms in one go`,
+  );
 
-line(`good CSV ${ROWS.toLocaleString('en')} rows`, await sliced((pause) => readingsFromCsvBody(csv, { pause })), whole(() => parse(csv, { relax_column_count: true, skip_empty_lines: true, bom: true, trim: true })));
-line(`good JSON ${ROWS.toLocaleString('en')} rows`, await sliced((pause) => readingsFromJsonBody(json, { pause })), whole(() => JSON.parse(json.toString('utf8'))));
+line(
+  `good CSV ${ROWS.toLocaleString('en')} rows`,
+  await sliced((pause) => readingsFromCsvBody(csv, { pause })),
+  whole(() => parse(csv, { relax_column_count: true, skip_empty_lines: true, bom: true, trim: true })),
+);
+line(
+  `good JSON ${ROWS.toLocaleString('en')} rows`,
+  await sliced((pause) => readingsFromJsonBody(json, { pause })),
+  whole(() => JSON.parse(json.toString('utf8'))),
+);
 const badSmall = `channel,ts,value\n${'a\n'.repeat(20_000)}`;
-line('hostile CSV 1,000,000 one-field lines (old: 20,000 lines only)', await sliced((pause) => readingsFromCsvBody(bad, { pause })), whole(() => parse(badSmall, { relax_column_count: true, skip_empty_lines: true, bom: true, trim: true })));
+line(
+  'hostile CSV 1,000,000 one-field lines (old: 20,000 lines only)',
+  await sliced((pause) => readingsFromCsvBody(bad, { pause })),
+  whole(() => parse(badSmall, { relax_column_count: true, skip_empty_lines: true, bom: true, trim: true })),
+);

@@ -36,7 +36,15 @@ async function postWhileProbing(appUrl: string, key: string, type: string, body:
   probing = false;
   await prober;
   waits.sort((a, b) => a - b);
-  return { seconds, status: res.status, answerBytes: text.length, text, probes: waits.length, p50: waits[Math.floor(waits.length / 2)] ?? NaN, max: waits.at(-1) ?? NaN };
+  return {
+    seconds,
+    status: res.status,
+    answerBytes: text.length,
+    text,
+    probes: waits.length,
+    p50: waits[Math.floor(waits.length / 2)] ?? NaN,
+    max: waits.at(-1) ?? NaN,
+  };
 }
 
 function report(name: string, readings: number, r: Awaited<ReturnType<typeof postWhileProbing>>) {
@@ -60,14 +68,28 @@ async function main() {
       channels: [{ key: 'air_t', label: 'Air' }],
     });
     const csv = `channel,ts,value\n${Array.from({ length: ROWS }, (_, i) => `air_t,${T0 + i * 1000},${(i % 997) / 10}`).join('\n')}\n`;
-    const json = JSON.stringify({ readings: Array.from({ length: ROWS }, (_, i) => ({ channel: 'air_t', ts: T0 + ROWS * 1000 + i * 1000, value: (i % 997) / 10 })) });
+    const json = JSON.stringify({
+      readings: Array.from({ length: ROWS }, (_, i) => ({ channel: 'air_t', ts: T0 + ROWS * 1000 + i * 1000, value: (i % 997) / 10 })),
+    });
     const bad = `channel,ts,value\n${'a\n'.repeat(1_000_000)}`;
     // warm-up, untimed: a small batch
-    await fetch(`${stack.appUrl}/api/v1/ingest`, { method: 'POST', headers: { authorization: `Bearer ${issued.key}`, 'content-type': 'text/csv' }, body: 'channel,ts,value\nair_t,1000,1\n' });
+    await fetch(`${stack.appUrl}/api/v1/ingest`, {
+      method: 'POST',
+      headers: { authorization: `Bearer ${issued.key}`, 'content-type': 'text/csv' },
+      body: 'channel,ts,value\nair_t,1000,1\n',
+    });
     const idle = await postWhileProbing(stack.appUrl, issued.key, 'text/csv', 'channel,ts,value\n');
     console.log(`idle: /healthz median ${idle.p50.toFixed(1)} ms`);
-    report(`good CSV, ${ROWS.toLocaleString('en')} readings (${(csv.length / 1e6).toFixed(1)} MB)`, ROWS, await postWhileProbing(stack.appUrl, issued.key, 'text/csv', csv));
-    report(`good JSON, ${ROWS.toLocaleString('en')} readings (${(json.length / 1e6).toFixed(1)} MB)`, ROWS, await postWhileProbing(stack.appUrl, issued.key, 'application/json', json));
+    report(
+      `good CSV, ${ROWS.toLocaleString('en')} readings (${(csv.length / 1e6).toFixed(1)} MB)`,
+      ROWS,
+      await postWhileProbing(stack.appUrl, issued.key, 'text/csv', csv),
+    );
+    report(
+      `good JSON, ${ROWS.toLocaleString('en')} readings (${(json.length / 1e6).toFixed(1)} MB)`,
+      ROWS,
+      await postWhileProbing(stack.appUrl, issued.key, 'application/json', json),
+    );
     const hostile = await postWhileProbing(stack.appUrl, issued.key, 'text/csv', bad);
     report('hostile CSV, 1,000,000 one-field lines (2 MB)', 1_000_000, hostile);
     console.log(`  answer: ${hostile.text.slice(0, 160)}…`);

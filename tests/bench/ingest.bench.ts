@@ -74,7 +74,11 @@ async function main() {
   }
 }
 
-async function measureApiAndLoadData(stack: Awaited<ReturnType<typeof startBenchStack>>, lab: { id: number }, loggers: Array<{ key: string; channelIds: number[] }>) {
+async function measureApiAndLoadData(
+  stack: Awaited<ReturnType<typeof startBenchStack>>,
+  lab: { id: number },
+  loggers: Array<{ key: string; channelIds: number[] }>,
+) {
   {
     // Pre-build every batch body so that only sending and storing are timed.
     const perLogger = Math.floor(TOTAL / LOGGERS / BATCH);
@@ -106,15 +110,29 @@ async function measureApiAndLoadData(stack: Awaited<ReturnType<typeof startBench
     const apiSeconds = (performance.now() - started) / 1000;
     const apiRate = sent / apiSeconds;
     const benchCpu = process.cpuUsage(cpuBefore.bench);
-    console.log(`POST /api/v1/ingest: ${sent.toLocaleString('en')} readings (${LOGGERS} loggers × ${CHANNELS} channels, batches of ${BATCH}) in ${apiSeconds.toFixed(2)} s → ${Math.round(apiRate).toLocaleString('en')} readings/s (accepted ${accepted.toLocaleString('en')}, failed batches ${failures})`);
+    console.log(
+      `POST /api/v1/ingest: ${sent.toLocaleString('en')} readings (${LOGGERS} loggers × ${CHANNELS} channels, batches of ${BATCH}) in ${apiSeconds.toFixed(2)} s → ${Math.round(apiRate).toLocaleString('en')} readings/s (accepted ${accepted.toLocaleString('en')}, failed batches ${failures})`,
+    );
     // CPU each process spent on it: on a 2-core machine the sum over wall time shows how close to saturation the run was.
-    const cpu = { app: processCpuSeconds(stack.app.pid!) - cpuBefore.app, db: processCpuSeconds(stack.dbPid) - cpuBefore.db, bench: (benchCpu.user + benchCpu.system) / 1e6 };
-    console.log(`  CPU seconds: app ${cpu.app.toFixed(2)}, MariaDB ${cpu.db.toFixed(2)}, benchmark client ${cpu.bench.toFixed(2)} (${((cpu.app + cpu.db + cpu.bench) / apiSeconds).toFixed(2)} cores busy on average)`);
+    const cpu = {
+      app: processCpuSeconds(stack.app.pid!) - cpuBefore.app,
+      db: processCpuSeconds(stack.dbPid) - cpuBefore.db,
+      bench: (benchCpu.user + benchCpu.system) / 1e6,
+    };
+    console.log(
+      `  CPU seconds: app ${cpu.app.toFixed(2)}, MariaDB ${cpu.db.toFixed(2)}, benchmark client ${cpu.bench.toFixed(2)} (${((cpu.app + cpu.db + cpu.bench) / apiSeconds).toFixed(2)} cores busy on average)`,
+    );
 
     // The same rows through LOAD DATA LOCAL INFILE into an identical table.
     await stack.db.raw('CREATE TABLE readings_load_copy LIKE readings');
     // over the same Unix socket as the app, so both rates pay the same transport
-    const conn = await mysql.createConnection({ socketPath: stack.dbConfig.socketPath, user: 'lagbook', password: 'lagbook', database: stack.dbConfig.database, flags: ['+LOCAL_FILES'] });
+    const conn = await mysql.createConnection({
+      socketPath: stack.dbConfig.socketPath,
+      user: 'lagbook',
+      password: 'lagbook',
+      database: stack.dbConfig.database,
+      flags: ['+LOCAL_FILES'],
+    });
     const chunks: Buffer[] = [];
     for (let l = 0; l < LOGGERS; l++) {
       for (let b = 0; b < perLogger; b++) {
@@ -145,12 +163,16 @@ async function measureApiAndLoadData(stack: Awaited<ReturnType<typeof startBench
  */
 function postJson(agent: http.Agent, url: string, key: string, body: string): Promise<{ status: number; text: string }> {
   return new Promise((resolve, reject) => {
-    const req = http.request(url, { method: 'POST', agent, headers: { authorization: `Bearer ${key}`, 'content-type': 'application/json', 'content-length': Buffer.byteLength(body) } }, (res) => {
-      const parts: Buffer[] = [];
-      res.on('data', (b: Buffer) => parts.push(b));
-      res.on('end', () => resolve({ status: res.statusCode ?? 0, text: Buffer.concat(parts).toString() }));
-      res.on('error', reject);
-    });
+    const req = http.request(
+      url,
+      { method: 'POST', agent, headers: { authorization: `Bearer ${key}`, 'content-type': 'application/json', 'content-length': Buffer.byteLength(body) } },
+      (res) => {
+        const parts: Buffer[] = [];
+        res.on('data', (b: Buffer) => parts.push(b));
+        res.on('end', () => resolve({ status: res.statusCode ?? 0, text: Buffer.concat(parts).toString() }));
+        res.on('error', reject);
+      },
+    );
     req.on('error', reject);
     req.end(body);
   });
@@ -164,51 +186,56 @@ async function measureUpload(
 ) {
   // Memory while a large file streams in.
   {
-      const { logger, issued: _ } = await service.register(ctx, null, { name: 'Upload target', timezone: 'UTC', expectedIntervalS: 60, channels: [{ key: 'u', label: 'Uploaded' }] });
-      const targetBytes = UPLOAD_MB * 1024 * 1024;
-      let produced = 0;
-      let line = 0;
-      const file = Readable.from(
-        (function* () {
-          yield Buffer.from('channel,ts,value\n');
-          while (produced < targetBytes) {
-            let block = '';
-            for (let i = 0; i < 2000; i++, line++) block += `u,${T0 + line * 1000},${(line % 1000) / 10}\n`;
-            produced += block.length;
-            yield Buffer.from(block);
-          }
-        })(),
-      );
-      const pid = stack.app.pid!;
-      const before = rssMb(pid);
-      let peak = before;
-      const sampler = setInterval(() => (peak = Math.max(peak, rssMb(pid))), 200);
-      const options = encodeURIComponent(JSON.stringify({ format: 'long', timeColumn: 'ts', channelColumn: 'channel', valueColumn: 'value' }));
-      // a session-less request cannot pass the lab guard; the bench measures the import itself, so it calls
-      // the upload route through a signed-in session made like the API tests do
-      const cookie = await sessionCookie(stack, lab.id);
-      const upStart = performance.now();
-      const res = await fetch(`${stack.appUrl}/api/v1/labs/${lab.slug}/loggers/${logger.id}/uploads?options=${options}`, {
-        method: 'POST',
-        headers: { 'content-type': 'text/csv', cookie, origin: stack.appUrl },
-        body: Readable.toWeb(file) as ReadableStream,
-        duplex: 'half',
-      } as RequestInit);
-      let text: string;
-      try {
-        text = await res.text();
-      } catch (err) {
-        clearInterval(sampler);
-        console.log(`upload of ${UPLOAD_MB} MB failed: ${(err as Error).message}; server RSS before ${before.toFixed(0)} MB, peak ${peak.toFixed(0)} MB`);
-        return;
-      }
+    const { logger, issued: _ } = await service.register(ctx, null, {
+      name: 'Upload target',
+      timezone: 'UTC',
+      expectedIntervalS: 60,
+      channels: [{ key: 'u', label: 'Uploaded' }],
+    });
+    const targetBytes = UPLOAD_MB * 1024 * 1024;
+    let produced = 0;
+    let line = 0;
+    const file = Readable.from(
+      (function* () {
+        yield Buffer.from('channel,ts,value\n');
+        while (produced < targetBytes) {
+          let block = '';
+          for (let i = 0; i < 2000; i++, line++) block += `u,${T0 + line * 1000},${(line % 1000) / 10}\n`;
+          produced += block.length;
+          yield Buffer.from(block);
+        }
+      })(),
+    );
+    const pid = stack.app.pid!;
+    const before = rssMb(pid);
+    let peak = before;
+    const sampler = setInterval(() => (peak = Math.max(peak, rssMb(pid))), 200);
+    const options = encodeURIComponent(JSON.stringify({ format: 'long', timeColumn: 'ts', channelColumn: 'channel', valueColumn: 'value' }));
+    // a session-less request cannot pass the lab guard; the bench measures the import itself, so it calls
+    // the upload route through a signed-in session made like the API tests do
+    const cookie = await sessionCookie(stack, lab.id);
+    const upStart = performance.now();
+    const res = await fetch(`${stack.appUrl}/api/v1/labs/${lab.slug}/loggers/${logger.id}/uploads?options=${options}`, {
+      method: 'POST',
+      headers: { 'content-type': 'text/csv', cookie, origin: stack.appUrl },
+      body: Readable.toWeb(file) as ReadableStream,
+      duplex: 'half',
+    } as RequestInit);
+    let text: string;
+    try {
+      text = await res.text();
+    } catch (err) {
       clearInterval(sampler);
-      const summary = JSON.parse(text.trim().split('\n').at(-1)!);
-      const upSeconds = (performance.now() - upStart) / 1000;
-      console.log(
-        `upload of ${UPLOAD_MB} MB (${summary.readings?.toLocaleString('en')} readings, ${summary.accepted?.toLocaleString('en')} stored) in ${upSeconds.toFixed(1)} s; ` +
-          `server RSS before ${before.toFixed(0)} MB, peak ${peak.toFixed(0)} MB, after ${rssMb(pid).toFixed(0)} MB`,
-      );
+      console.log(`upload of ${UPLOAD_MB} MB failed: ${(err as Error).message}; server RSS before ${before.toFixed(0)} MB, peak ${peak.toFixed(0)} MB`);
+      return;
+    }
+    clearInterval(sampler);
+    const summary = JSON.parse(text.trim().split('\n').at(-1)!);
+    const upSeconds = (performance.now() - upStart) / 1000;
+    console.log(
+      `upload of ${UPLOAD_MB} MB (${summary.readings?.toLocaleString('en')} readings, ${summary.accepted?.toLocaleString('en')} stored) in ${upSeconds.toFixed(1)} s; ` +
+        `server RSS before ${before.toFixed(0)} MB, peak ${peak.toFixed(0)} MB, after ${rssMb(pid).toFixed(0)} MB`,
+    );
   }
 }
 

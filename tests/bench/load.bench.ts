@@ -42,7 +42,8 @@ const firstErrors: string[] = [];
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 /** p-th percentile by the nearest-rank method. */
-const percentile = (values: number[], p: number) => (values.length ? [...values].sort((a, b) => a - b)[Math.max(0, Math.ceil((p / 100) * values.length) - 1)] : NaN);
+const percentile = (values: number[], p: number) =>
+  values.length ? [...values].sort((a, b) => a - b)[Math.max(0, Math.ceil((p / 100) * values.length) - 1)] : NaN;
 
 /** One timed request; a non-2xx answer or no answer counts as an error of its kind. */
 async function timed(kind: Kind, url: string, init: RequestInit): Promise<boolean> {
@@ -73,9 +74,13 @@ async function seedReferenceChannel(stack: BenchStack, tenantId: number, channel
     e = 0.8 * e + noise();
     rows.push([tenantId, channelId, t0 + m * MINUTE, Math.round((6 + 3 * Math.sin((2 * Math.PI * m) / 1440) + e) * 1000) / 1000]);
   }
-  for (let i = 0; i < rows.length; i += 5000) await stack.db.raw('INSERT INTO readings (tenant_id, channel_id, ts, value) VALUES ?', [rows.slice(i, i + 5000)] as never);
+  for (let i = 0; i < rows.length; i += 5000)
+    await stack.db.raw('INSERT INTO readings (tenant_id, channel_id, ts, value) VALUES ?', [rows.slice(i, i + 5000)] as never);
   const scope = inLab(stack.db, tenantId);
-  await readingsRepo(scope).refreshRollups([channelId], rows.map((r) => r[2]));
+  await readingsRepo(scope).refreshRollups(
+    [channelId],
+    rows.map((r) => r[2]),
+  );
   await channelStateRepo(scope).advance([{ channelId, ts: rows[rows.length - 1][2] }]);
 }
 
@@ -87,7 +92,9 @@ function report(kind: Kind, seconds: number): void {
 }
 
 async function main() {
-  console.log(`load: ${LOGGERS} loggers × ${BATCH} readings per batch (pause ${PAUSE_MS} ms), ${BROWSERS} people browsing (pause ${BROWSE_PAUSE_MS} ms), ${SECONDS} s, loopback only`);
+  console.log(
+    `load: ${LOGGERS} loggers × ${BATCH} readings per batch (pause ${PAUSE_MS} ms), ${BROWSERS} people browsing (pause ${BROWSE_PAUSE_MS} ms), ${SECONDS} s, loopback only`,
+  );
   const stack = await startBenchStack();
   try {
     const lab = await labsRepo(stack.db).insert({ slug: 'bench-load', name: 'Bench load' });
@@ -96,10 +103,20 @@ async function main() {
     const labContext = { ...lab, role: 'admin' as const };
     const loggers: Array<{ key: string; channelId: number }> = [];
     for (let i = 0; i < LOGGERS; i++) {
-      const { logger, issued } = await loggersService.register(labContext, null, { name: `Mast ${i + 1}`, timezone: 'UTC', expectedIntervalS: 1, channels: [{ key: 'air_t', label: 'Air temperature', unit: '°C' }] });
+      const { logger, issued } = await loggersService.register(labContext, null, {
+        name: `Mast ${i + 1}`,
+        timezone: 'UTC',
+        expectedIntervalS: 1,
+        channels: [{ key: 'air_t', label: 'Air temperature', unit: '°C' }],
+      });
       loggers.push({ key: issued.key, channelId: logger.channels[0].id });
     }
-    const { logger: reference } = await loggersService.register(labContext, null, { name: 'Reference mast', timezone: 'UTC', expectedIntervalS: 60, channels: [{ key: 'soil_t', label: 'Soil temperature', unit: '°C' }] });
+    const { logger: reference } = await loggersService.register(labContext, null, {
+      name: 'Reference mast',
+      timezone: 'UTC',
+      expectedIntervalS: 60,
+      channels: [{ key: 'soil_t', label: 'Soil temperature', unit: '°C' }],
+    });
     const referenceId = reference.channels[0].id;
     const now = Date.now();
     const seedFrom = now - 30 * 86_400_000;
@@ -123,8 +140,18 @@ async function main() {
     const loggerLoops = loggers.map(async (l, i) => {
       await sleep((i * PAUSE_MS) / LOGGERS); // spread the first posts
       for (let b = 0; performance.now() < end; b++) {
-        const body = JSON.stringify({ readings: Array.from({ length: BATCH }, (_, k) => ({ channel: 'air_t', ts: writeFrom + (b * BATCH + k) * 1000, value: 10 + Math.sin((b * BATCH + k) / 600) })) });
-        const ok = await timed('ingest', `${stack.appUrl}/api/v1/ingest`, { method: 'POST', headers: { authorization: `Bearer ${l.key}`, 'content-type': 'application/json' }, body });
+        const body = JSON.stringify({
+          readings: Array.from({ length: BATCH }, (_, k) => ({
+            channel: 'air_t',
+            ts: writeFrom + (b * BATCH + k) * 1000,
+            value: 10 + Math.sin((b * BATCH + k) / 600),
+          })),
+        });
+        const ok = await timed('ingest', `${stack.appUrl}/api/v1/ingest`, {
+          method: 'POST',
+          headers: { authorization: `Bearer ${l.key}`, 'content-type': 'application/json' },
+          body,
+        });
         if (ok) acknowledged[i] += BATCH;
         else b--; // a real logger re-sends the batch it could not deliver
         await sleep(PAUSE_MS);
@@ -146,13 +173,21 @@ async function main() {
     await Promise.all([...loggerLoops, ...browseLoops]);
     const seconds = (performance.now() - started) / 1000;
 
-    const [{ n }] = await stack.db('readings').whereIn('channel_id', loggers.map((l) => l.channelId)).count({ n: '*' });
+    const [{ n }] = await stack
+      .db('readings')
+      .whereIn(
+        'channel_id',
+        loggers.map((l) => l.channelId),
+      )
+      .count({ n: '*' });
     const ackTotal = acknowledged.reduce((a, b) => a + b, 0);
     console.log(`ran ${seconds.toFixed(1)} s`);
     for (const kind of Object.keys(latencies) as Kind[]) report(kind, seconds);
     const browsing = [...latencies.overview, ...latencies.series, ...latencies.diagnostics];
     const errorCount = Object.values(errors).reduce((a, b) => a + b, 0);
-    console.log(`ingestion: ${Math.round(ackTotal / seconds).toLocaleString('en')} readings/s acknowledged; stored ${Number(n).toLocaleString('en')} of ${ackTotal.toLocaleString('en')} acknowledged`);
+    console.log(
+      `ingestion: ${Math.round(ackTotal / seconds).toLocaleString('en')} readings/s acknowledged; stored ${Number(n).toLocaleString('en')} of ${ackTotal.toLocaleString('en')} acknowledged`,
+    );
     console.log(`browsing (all kinds): p50 ${median(browsing).toFixed(1)} ms, p99 ${percentile(browsing, 99).toFixed(1)} ms (target ≤ 500 ms)`);
     console.log(`errors: ${errorCount} (target 0)`);
     for (const line of firstErrors) console.log(`  ${line}`);

@@ -59,7 +59,12 @@ describe('alerts in the browser', () => {
     const res = await fetch(`${s.appUrl}/api/v1/ingest`, {
       method: 'POST',
       headers: { Authorization: `Bearer ${ingestKey}`, 'Content-Type': 'application/json' },
-      body: JSON.stringify({ readings: [{ channel: 'room_t', ts: now - 120_000, value: 4.8 }, { channel: 'room_t', ts: now - 60_000, value: 7.5 }] }),
+      body: JSON.stringify({
+        readings: [
+          { channel: 'room_t', ts: now - 120_000, value: 4.8 },
+          { channel: 'room_t', ts: now - 60_000, value: 7.5 },
+        ],
+      }),
     });
     expect(res.status).toBe(200);
 
@@ -79,7 +84,9 @@ describe('alerts in the browser', () => {
     await page.goto(link.replace(s.t.config.publicUrl, s.appUrl));
     const panel = page.getByRole('region', { name: /Alerts in this range/ });
     await panel.getByText(`Open: ${ruleName}`).waitFor();
-    await expect.poll(async () => page.getByRole('region', { name: 'Readings' }).locator('figure[data-chart-ready="true"]').count(), { timeout: 30_000 }).toBe(1);
+    await expect
+      .poll(async () => page.getByRole('region', { name: 'Readings' }).locator('figure[data-chart-ready="true"]').count(), { timeout: 30_000 })
+      .toBe(1);
     await keepScreenshot(page, 'alerts-channel-band');
 
     // acknowledge with a note from the alert centre

@@ -79,9 +79,7 @@ beforeAll(async () => {
 });
 
 const chartsReady = (scope: ReturnType<Page['locator']>, count: number) =>
-  expect
-    .poll(async () => scope.locator('figure[data-chart-ready="true"]').count(), { timeout: 30_000, interval: 250 })
-    .toBeGreaterThanOrEqual(count);
+  expect.poll(async () => scope.locator('figure[data-chart-ready="true"]').count(), { timeout: 30_000, interval: 250 }).toBeGreaterThanOrEqual(count);
 
 describe('browsing channels and reading their diagnostics', () => {
   it('lists the channels with status and sparkline, and opens one from the keyboard with visible focus', async () => {
@@ -130,7 +128,12 @@ describe('browsing channels and reading their diagnostics', () => {
     await chartsReady(panel, 3); // ACF, PACF, decomposition
     expect(await panel.getByRole('img', { name: 'Autocorrelation function (ACF)' }).count()).toBe(1);
     expect(await panel.getByRole('img', { name: /^Seasonal decomposition \(STL, period \d+ steps\)/ }).count()).toBe(1);
-    expect(await panel.getByRole('table', { name: /Ljung–Box tests/ }).getByRole('row').count()).toBeGreaterThan(1);
+    expect(
+      await panel
+        .getByRole('table', { name: /Ljung–Box tests/ })
+        .getByRole('row')
+        .count(),
+    ).toBeGreaterThan(1);
     expect(await panel.getByTestId('verdict').textContent()).not.toBe('');
     expect(await panel.getByText('Method and parameters').count()).toBe(1);
     await keepScreenshot(page, 'channel-diagnostics');
@@ -155,7 +158,9 @@ describe('browsing channels and reading their diagnostics', () => {
     await panel.getByRole('button', { name: 'Cross-correlate' }).click();
     const sentence = panel.getByTestId('ccf-sentence');
     await sentence.waitFor({ timeout: 60_000 });
-    expect(await sentence.textContent()).toMatch(/^After both channels were filtered by the AR\(\d+\) model of Drip irrigation flow .* at lag 24 \(2 h\), lies beyond the ±[0-9.]+ band that holds for all \d+ lags together \(Šidák over \d+ lags\): Soil moisture follows Drip irrigation flow by about 2 h, and the two move in the same direction\./);
+    expect(await sentence.textContent()).toMatch(
+      /^After both channels were filtered by the AR\(\d+\) model of Drip irrigation flow .* at lag 24 \(2 h\), lies beyond the ±[0-9.]+ band that holds for all \d+ lags together \(Šidák over \d+ lags\): Soil moisture follows Drip irrigation flow by about 2 h, and the two move in the same direction\./,
+    );
     await chartsReady(panel, 1);
     await keepScreenshot(page, 'channel-cross-correlation');
     await panel.getByLabel('Show the raw cross-correlation beside it').check();

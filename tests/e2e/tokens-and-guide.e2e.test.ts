@@ -121,18 +121,30 @@ describe('the logger set-up panel', () => {
   });
 
   it('the curl example on the page, run as printed with a real key in $LAGBOOK_INGEST_KEY, stores a reading per channel', async () => {
-    const issued = await request(suite.t.app).post(`/api/v1/labs/${lab.slug}/loggers/${loggerId}/keys`).set('Cookie', techCookie).send({ rotate: false }).expect(201);
+    const issued = await request(suite.t.app)
+      .post(`/api/v1/labs/${lab.slug}/loggers/${loggerId}/keys`)
+      .set('Cookie', techCookie)
+      .send({ rotate: false })
+      .expect(201);
     const key: string = issued.body.ingestKey.key;
     const command = (await page.getByTestId('setup-curl').textContent())!;
     expect(command).toContain('$LAGBOOK_INGEST_KEY');
     expect(command).not.toContain(key);
     // Asynchronously: the app answers from this very process, so a blocking call would wait on itself.
-    const { stdout } = await promisify(execFile)('bash', ['-c', command], { encoding: 'utf8', timeout: 20_000, env: { PATH: process.env.PATH ?? '', LAGBOOK_INGEST_KEY: key } });
+    const { stdout } = await promisify(execFile)('bash', ['-c', command], {
+      encoding: 'utf8',
+      timeout: 20_000,
+      env: { PATH: process.env.PATH ?? '', LAGBOOK_INGEST_KEY: key },
+    });
     expect(JSON.parse(stdout)).toEqual({ accepted: 2, duplicates: 0, quarantined: [] });
     const ts = Date.parse(JSON.parse(/-d '([^']*)'/.exec(command)![1]).readings[0].ts);
-    const rows = await suite.t.db('readings').join('channels', function () {
-      this.on('channels.tenant_id', 'readings.tenant_id').andOn('channels.id', 'readings.channel_id');
-    }).where({ 'readings.tenant_id': lab.id, 'readings.ts': ts, 'channels.logger_id': loggerId }).select('channels.channel_key as key', 'readings.value as value');
+    const rows = await suite.t
+      .db('readings')
+      .join('channels', function () {
+        this.on('channels.tenant_id', 'readings.tenant_id').andOn('channels.id', 'readings.channel_id');
+      })
+      .where({ 'readings.tenant_id': lab.id, 'readings.ts': ts, 'channels.logger_id': loggerId })
+      .select('channels.channel_key as key', 'readings.value as value');
     expect(rows.map((r: { key: string; value: number }) => [r.key, r.value]).sort()).toEqual([
       ['do.sat', 75],
       ['tank_t', 20],

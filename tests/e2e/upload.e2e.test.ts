@@ -101,7 +101,9 @@ describe('registering a logger and uploading its history through the browser', (
     expect(loggerId).toBeGreaterThan(0);
     await page.getByRole('link', { name: 'Upload historical data' }).click();
     await page.waitForURL(`${suite.appUrl}/labs/${lab.slug}/loggers/${loggerId}/upload`);
-    await page.getByLabel('Export file (CSV, up to 2 GB)').setInputFiles({ name: 'reedbank-mast-2026-09.csv', mimeType: 'text/csv', buffer: Buffer.from(exportFile()) });
+    await page
+      .getByLabel('Export file (CSV, up to 2 GB)')
+      .setInputFiles({ name: 'reedbank-mast-2026-09.csv', mimeType: 'text/csv', buffer: Buffer.from(exportFile()) });
     await page.getByRole('table', { name: /First 10 rows of reedbank-mast-2026-09\.csv/ }).waitFor();
     expect(await page.getByLabel('Delimiter').inputValue()).toBe(',');
     expect(await page.getByLabel('Time column', { exact: true }).inputValue()).toBe('Timestamp');
@@ -150,7 +152,10 @@ describe('registering a logger and uploading its history through the browser', (
 
     // The fixed reading is in the readings table at the instant of its line.
     const channel = await suite.t.db('channels').where({ tenant_id: lab.id, logger_id: loggerId, channel_key: 'air_t' }).first();
-    const stored = await suite.t.db('readings').where({ tenant_id: lab.id, channel_id: channel.id, ts: Date.parse(badTime) }).first();
+    const stored = await suite.t
+      .db('readings')
+      .where({ tenant_id: lab.id, channel_id: channel.id, ts: Date.parse(badTime) })
+      .first();
     expect(stored?.value).toBe(16.8);
     const [{ n }] = await suite.t.db('readings').where({ tenant_id: lab.id }).count({ n: '*' });
     // 2 × 3000 cells − 1 bad + 1 fixed, plus the reading the example command sent.

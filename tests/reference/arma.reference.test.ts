@@ -39,7 +39,7 @@ describe('fixture provenance', () => {
   });
 });
 
-describe("fitArma against R's arima(x, order = c(p, 0, q), method = \"ML\")", () => {
+describe('fitArma against R\'s arima(x, order = c(p, 0, q), method = "ML")', () => {
   for (const fit of R.fits as Json[]) {
     const p = one(fit.p);
     const q = one(fit.q);
@@ -116,7 +116,7 @@ describe('selectArma against an AICc table over p, q ≤ 3 from R 4.2.2 arima(me
 const hasRscript = spawnSync('sh', ['-c', 'command -v Rscript'], { stdio: 'ignore' }).status === 0;
 
 describe.skipIf(!hasRscript)('live: R on a series simulated here', () => {
-  it("fitArma's ARMA(1,1) log-likelihood equals R's arima(method = \"ML\") to 1e-4", () => {
+  it('fitArma\'s ARMA(1,1) log-likelihood equals R\'s arima(method = "ML") to 1e-4', () => {
     const x = Array.from(simulateArma({ ar: [0.7], ma: [-0.4] }, 400, 20261203), (v) => v + 12);
     const dir = mkdtempSync(join(tmpdir(), 'lagbook-arma-live-'));
     try {

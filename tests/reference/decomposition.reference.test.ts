@@ -57,9 +57,7 @@ const load = <T>(file: string): T => JSON.parse(readFileSync(join(fixtures, file
 
 const rClassical = load<{ r: string; cases: ClassicalCase[] }>('decomposition-classical.json');
 const rStl = load<{ r: string; cases: RStlCase[] }>('decomposition-stl.json');
-const statsmodels = load<{ statsmodels: string; classical: ClassicalCase[]; stl: StlCase[] }>(
-  'decomposition-statsmodels.json',
-);
+const statsmodels = load<{ statsmodels: string; classical: ClassicalCase[]; stl: StlCase[] }>('decomposition-statsmodels.json');
 
 const CLASSICAL_TOLERANCE = 1e-10;
 const STL_RELATIVE_TOLERANCE = 1e-8;

@@ -52,5 +52,11 @@ export function scoreIdentification(cases: IdentificationCase[]): ScoreRow[] {
 /** Totals over rows. */
 export function totals(rows: ScoreRow[]) {
   const sum = (k: keyof ScoreRow) => rows.reduce((s, r) => s + (r[k] as number), 0);
-  return { series: sum('series'), classRight: sum('classRight'), ordersRight: sum('ordersRight'), autoArimaClassRight: sum('autoArimaClassRight'), autoArimaOrdersRight: sum('autoArimaOrdersRight') };
+  return {
+    series: sum('series'),
+    classRight: sum('classRight'),
+    ordersRight: sum('ordersRight'),
+    autoArimaClassRight: sum('autoArimaClassRight'),
+    autoArimaOrdersRight: sum('autoArimaOrdersRight'),
+  };
 }

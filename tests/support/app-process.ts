@@ -5,7 +5,11 @@ import type { Config } from '../../server/config.ts';
 const ENTRY = join(import.meta.dirname, 'app-server-entry.ts');
 
 /** Lagbook's server in a child process (so a test can kill it), answering on 127.0.0.1:port. */
-export async function startAppProcess(db: Config['db'], port: number, sessionSecret: string): Promise<{ url: string; child: ChildProcess; stopped: Promise<void> }> {
+export async function startAppProcess(
+  db: Config['db'],
+  port: number,
+  sessionSecret: string,
+): Promise<{ url: string; child: ChildProcess; stopped: Promise<void> }> {
   const child = spawn('node', ['--import', 'tsx', ENTRY], {
     env: { ...process.env, APP_PORT: String(port), APP_DB: JSON.stringify(db), APP_SESSION_SECRET: sessionSecret },
     stdio: ['ignore', 'ignore', 'inherit'],

@@ -28,7 +28,14 @@ const app = createApp({
   config: { ...config, db: { ...dbConfig, poolMax: 20 } },
   db,
   logger: createLogWriter({ silent: true }),
-  identity: { endpoints: { issuer: 'http://127.0.0.1:9', authorization_endpoint: 'http://127.0.0.1:9/a', token_endpoint: 'http://127.0.0.1:9/t', userinfo_endpoint: 'http://127.0.0.1:9/u' } },
+  identity: {
+    endpoints: {
+      issuer: 'http://127.0.0.1:9',
+      authorization_endpoint: 'http://127.0.0.1:9/a',
+      token_endpoint: 'http://127.0.0.1:9/t',
+      userinfo_endpoint: 'http://127.0.0.1:9/u',
+    },
+  },
   mailer: { send: async () => undefined, verify: async () => true, close: () => undefined },
   billing: {} as never,
   ingestRate: { perSecond: 10_000, burst: 10_000 },

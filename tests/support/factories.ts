@@ -49,7 +49,11 @@ export async function buildLab(db: Knex, overrides: Partial<{ slug: string; name
 }
 
 /** A new user who is a member of `lab` with `role`. */
-export async function buildMember(db: Knex, lab: TestLab, { role, ...user }: { role: Role } & Partial<{ email: string; displayName: string; emailVerified: boolean }>): Promise<TestUser> {
+export async function buildMember(
+  db: Knex,
+  lab: TestLab,
+  { role, ...user }: { role: Role } & Partial<{ email: string; displayName: string; emailVerified: boolean }>,
+): Promise<TestUser> {
   const person = await buildUser(db, user);
   await db('memberships').insert({ tenant_id: lab.id, user_id: person.id, role });
   return person;

@@ -62,10 +62,34 @@ export async function buildLabWithEverything(db: Knex, { rowInEveryTable = false
     expires_at: new Date(Date.now() + 30 * 86400_000),
   });
   const ruleId = rid();
-  await db('alert_rules').insert({ tenant_id: lab.id, id: ruleId, name: 'Air too warm', kind: 'bounds', channel_id: channelId, params: JSON.stringify({ low: null, high: 30, holdS: 0 }), enabled: false, created_by: founder.id, watching_since: Date.now() });
+  await db('alert_rules').insert({
+    tenant_id: lab.id,
+    id: ruleId,
+    name: 'Air too warm',
+    kind: 'bounds',
+    channel_id: channelId,
+    params: JSON.stringify({ low: null, high: 30, holdS: 0 }),
+    enabled: false,
+    created_by: founder.id,
+    watching_since: Date.now(),
+  });
   await db('alert_subscriptions').insert({ tenant_id: lab.id, rule_id: ruleId, user_id: founder.id });
   const alertId = rid();
-  await db('alerts').insert({ tenant_id: lab.id, id: alertId, rule_id: ruleId, rule_name: 'Air too warm', kind: 'bounds', channel_id: channelId, opened_at: Date.now() - 3_600_000, opened_value: 31, opened_detail: '31 is above the high limit 30', resolved_at: Date.now() - 1_800_000, resolved_value: 29, resolved_detail: '29 is back within the limits', last_notified_at: Date.now() - 3_600_000 });
+  await db('alerts').insert({
+    tenant_id: lab.id,
+    id: alertId,
+    rule_id: ruleId,
+    rule_name: 'Air too warm',
+    kind: 'bounds',
+    channel_id: channelId,
+    opened_at: Date.now() - 3_600_000,
+    opened_value: 31,
+    opened_detail: '31 is above the high limit 30',
+    resolved_at: Date.now() - 1_800_000,
+    resolved_value: 29,
+    resolved_detail: '29 is back within the limits',
+    last_notified_at: Date.now() - 3_600_000,
+  });
   if (rowInEveryTable) await addRowToEveryOtherTable(db, lab, { founderId: founder.id, channelId, alertId });
   return {
     lab,
@@ -104,7 +128,14 @@ async function addRowToEveryOtherTable(db: Knex, lab: TestLab, at: { founderId: 
       count_value: 3,
     })),
   );
-  await db('audit_events').insert({ tenant_id: lab.id, id: rid(), actor_user_id: at.founderId, action: 'logger.created', target_type: 'logger', summary: 'Fixture: the logger was registered' });
+  await db('audit_events').insert({
+    tenant_id: lab.id,
+    id: rid(),
+    actor_user_id: at.founderId,
+    action: 'logger.created',
+    target_type: 'logger',
+    summary: 'Fixture: the logger was registered',
+  });
   await db('notification_outbox').insert({
     tenant_id: lab.id,
     id: rid(),
@@ -135,7 +166,11 @@ export function fillPath(path: string, params: Record<string, number>): string {
 export function rawRequestFor(method: string, path: string): { query: string; body: string; contentType: string } | undefined {
   if (`${method.toUpperCase()} ${path}` !== 'POST /loggers/:loggerId/uploads') return undefined;
   const options = { format: 'long', timeColumn: 'ts', channelColumn: 'channel', valueColumn: 'value' };
-  return { query: `?options=${encodeURIComponent(JSON.stringify(options))}`, body: 'channel,ts,value\nair_t,2026-01-02T00:00:00Z,3.5\n', contentType: 'text/csv' };
+  return {
+    query: `?options=${encodeURIComponent(JSON.stringify(options))}`,
+    body: 'channel,ts,value\nair_t,2026-01-02T00:00:00Z,3.5\n',
+    contentType: 'text/csv',
+  };
 }
 
 /** A request body that is valid for the route (so the matrix tests permissions, not validation). */

@@ -17,7 +17,10 @@ const run = promisify(execFile);
 
 /** `n` free TCP ports on 127.0.0.1. */
 export function freePorts(n: number): number[] {
-  return execFileSync('node', [join(ROOT, 'docker-free-scripts/free-ports.mjs'), String(n)], { encoding: 'utf8' }).trim().split('\n').map(Number);
+  return execFileSync('node', [join(ROOT, 'docker-free-scripts/free-ports.mjs'), String(n)], { encoding: 'utf8' })
+    .trim()
+    .split('\n')
+    .map(Number);
 }
 
 export interface PrivateMariaDb {
@@ -42,7 +45,13 @@ export interface PrivateMariaDb {
 export async function startPrivateMariaDb(database: string, opts: { serverArgs?: string[] } = {}): Promise<PrivateMariaDb> {
   const [port] = freePorts(1);
   const dir = mkdtempSync(join(tmpdir(), 'lagbook-private-db-'));
-  const env = { ...process.env, LAGBOOK_DB_DIR: dir, LAGBOOK_DB_PORT: String(port), LAGBOOK_DB_NAME: database, LAGBOOK_DB_EXTRA_ARGS: (opts.serverArgs ?? []).join(' ') };
+  const env = {
+    ...process.env,
+    LAGBOOK_DB_DIR: dir,
+    LAGBOOK_DB_PORT: String(port),
+    LAGBOOK_DB_NAME: database,
+    LAGBOOK_DB_EXTRA_ARGS: (opts.serverArgs ?? []).join(' '),
+  };
   const script = async (action: 'start' | 'stop') => void (await run('bash', [SCRIPT, action], { env }));
   let destroyed = false;
   const server: PrivateMariaDb = {

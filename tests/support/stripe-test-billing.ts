@@ -33,7 +33,17 @@ const signer = new Stripe('sk_test_signer_for_tests');
 
 /** A Stripe event envelope around `object`, signed like the stand-in signs it. */
 export function signedEvent(secret: string, event: { id: string; type: string; created: number; object: unknown }): { body: string; signature: string } {
-  const body = JSON.stringify({ id: event.id, object: 'event', api_version: Stripe.API_VERSION, created: event.created, livemode: false, pending_webhooks: 1, request: { id: null, idempotency_key: null }, type: event.type, data: { object: event.object } });
+  const body = JSON.stringify({
+    id: event.id,
+    object: 'event',
+    api_version: Stripe.API_VERSION,
+    created: event.created,
+    livemode: false,
+    pending_webhooks: 1,
+    request: { id: null, idempotency_key: null },
+    type: event.type,
+    data: { object: event.object },
+  });
   return { body, signature: signer.webhooks.generateTestHeaderString({ payload: body, secret }) };
 }
 

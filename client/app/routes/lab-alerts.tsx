@@ -21,7 +21,9 @@ export default function LabAlertsRoute() {
     <AlertsPage
       slug={slug}
       targets={targets}
-      channelHref={(a) => (a.channelId === null ? null : `${paths.labChannel.href(slug, a.channelId)}?from=${a.openedAt - 6 * HOUR}&to=${(a.resolvedAt ?? a.openedAt) + HOUR}`)}
+      channelHref={(a) =>
+        a.channelId === null ? null : `${paths.labChannel.href(slug, a.channelId)}?from=${a.openedAt - 6 * HOUR}&to=${(a.resolvedAt ?? a.openedAt) + HOUR}`
+      }
       can={{ manage: detail.permissions.includes('alerts.manage'), subscribe: detail.permissions.includes('alerts.subscribe') }}
     />
   );

@@ -35,7 +35,8 @@ export default function LabChannelRoute() {
   const [view, setView] = useState<{ range: TimeRange; preset: RangePreset | null }>(() => {
     const from = Number(search.get('from'));
     const to = Number(search.get('to'));
-    if (search.has('from') && search.has('to') && Number.isSafeInteger(from) && Number.isSafeInteger(to) && from < to) return { range: { from, to }, preset: null };
+    if (search.has('from') && search.has('to') && Number.isSafeInteger(from) && Number.isSafeInteger(to) && from < to)
+      return { range: { from, to }, preset: null };
     return { range: presetRange('7d', Date.now()), preset: '7d' };
   });
   const channelAlerts = useChannelAlerts(slug, channelId, view.range, can('alerts.read'));
@@ -68,12 +69,34 @@ export default function LabChannelRoute() {
       </Link>
       <ChannelHeader channel={c} now={Date.now()} />
       <SafetyCautionNote channel={c} />
-      <ReadingsPanel slug={slug} channel={c} range={view.range} preset={view.preset} onRange={(range, preset) => setView({ range, preset })} canExport={can('exports.create')} bands={bands} />
+      <ReadingsPanel
+        slug={slug}
+        channel={c}
+        range={view.range}
+        preset={view.preset}
+        onRange={(range, preset) => setView({ range, preset })}
+        canExport={can('exports.create')}
+        bands={bands}
+      />
       {can('alerts.read') && channelAlerts.data && <ChannelAlertsPanel slug={slug} alerts={channelAlerts.data.alerts} canAcknowledge={can('alerts.manage')} />}
       {can('diagnostics.read') && (
         <>
-          <DiagnosticsPanel slug={slug} channelId={c.id} channelKey={c.key} timezone={c.logger.timezone} chartRange={view.range} canExport={can('exports.create')} />
-          <CrossCorrelationPanel slug={slug} channelId={c.id} channelLabel={c.label} chartRange={view.range} partners={partners} stepS={c.expectedIntervalS ?? c.logger.expectedIntervalS} />
+          <DiagnosticsPanel
+            slug={slug}
+            channelId={c.id}
+            channelKey={c.key}
+            timezone={c.logger.timezone}
+            chartRange={view.range}
+            canExport={can('exports.create')}
+          />
+          <CrossCorrelationPanel
+            slug={slug}
+            channelId={c.id}
+            channelLabel={c.label}
+            chartRange={view.range}
+            partners={partners}
+            stepS={c.expectedIntervalS ?? c.logger.expectedIntervalS}
+          />
           <RangeComparisonPanel slug={slug} channelId={c.id} channelLabel={c.label} timezone={c.logger.timezone} chartRange={view.range} partners={partners} />
         </>
       )}

@@ -17,9 +17,7 @@ function UploadInto({ slug, logger }: { slug: string; logger: LoggerDetail }) {
         <h2 id="upload-heading" className="text-xl font-semibold">
           Upload historical data to {logger.name}
         </h2>
-        <p className="text-sm text-ink-soft">
-          Sending the same file twice is safe: readings already stored are counted as duplicates, not stored again.
-        </p>
+        <p className="text-sm text-ink-soft">Sending the same file twice is safe: readings already stored are counted as duplicates, not stored again.</p>
       </div>
       {logger.retiredAt ? (
         <Notice tone="status">This logger is retired; its history cannot be extended.</Notice>
@@ -42,5 +40,9 @@ export default function LabLoggerUploadRoute() {
   const slug = detail.lab.slug;
   const loggerId = Number(useParams().loggerId);
   if (!detail.permissions.includes('uploads.create')) return <MissingPermission what="uploading files" />;
-  return <LoggerLoader slug={slug} loggerId={loggerId}>{(logger) => <UploadInto slug={slug} logger={logger} />}</LoggerLoader>;
+  return (
+    <LoggerLoader slug={slug} loggerId={loggerId}>
+      {(logger) => <UploadInto slug={slug} logger={logger} />}
+    </LoggerLoader>
+  );
 }

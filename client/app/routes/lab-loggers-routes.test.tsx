@@ -59,15 +59,47 @@ const HEDGE: LoggerSummary = {
 const HEDGE_DETAIL: LoggerDetail = {
   ...HEDGE,
   channels: [
-    { id: 11, loggerId: 5, key: 'air_t', label: 'Air temperature', unit: '°C', quantity: 'air temperature', validMin: -40, validMax: 60, expectedIntervalS: null, seasonalPeriodHint: 144, retiredAt: null },
-    { id: 12, loggerId: 5, key: 'rh', label: 'Relative humidity', unit: '%', quantity: null, validMin: 0, validMax: 100, expectedIntervalS: null, seasonalPeriodHint: null, retiredAt: null },
+    {
+      id: 11,
+      loggerId: 5,
+      key: 'air_t',
+      label: 'Air temperature',
+      unit: '°C',
+      quantity: 'air temperature',
+      validMin: -40,
+      validMax: 60,
+      expectedIntervalS: null,
+      seasonalPeriodHint: 144,
+      retiredAt: null,
+    },
+    {
+      id: 12,
+      loggerId: 5,
+      key: 'rh',
+      label: 'Relative humidity',
+      unit: '%',
+      quantity: null,
+      validMin: 0,
+      validMax: 100,
+      expectedIntervalS: null,
+      seasonalPeriodHint: null,
+      retiredAt: null,
+    },
   ],
   keys: [
     { id: 31, prefix: 'a1b2c3d4e5f6', createdAt: '2026-02-01T08:00:00Z', lastUsedAt: '2026-09-01T06:00:00Z', revokedAt: null },
     { id: 30, prefix: '0f0f0f0f0f0f', createdAt: '2026-01-20T08:00:00Z', lastUsedAt: null, revokedAt: '2026-02-01T08:00:00Z' },
   ],
 };
-const ISSUED = { id: 32, prefix: '9e8d7c6b5a49', createdAt: '2026-09-02T10:00:00Z', lastUsedAt: null, revokedAt: null, key: 'lbk_9e8d7c6b5a49_Zx8wQ2mN4pL6kJ0hG7fD3sA1qW9eR5tY2uI8oP4aS6d', shownOnce: true };
+const ISSUED = {
+  id: 32,
+  prefix: '9e8d7c6b5a49',
+  createdAt: '2026-09-02T10:00:00Z',
+  lastUsedAt: null,
+  revokedAt: null,
+  key: 'lbk_9e8d7c6b5a49_Zx8wQ2mN4pL6kJ0hG7fD3sA1qW9eR5tY2uI8oP4aS6d',
+  shownOnce: true,
+};
 
 const navLinks = () => within(screen.getByRole('navigation', { name: 'Lab sections' })).getAllByRole('link');
 
@@ -84,7 +116,10 @@ describe('lab sections for loggers', () => {
   });
 
   it('keeps Loggers current on a logger’s page', async () => {
-    fakeApi({ 'GET /api/v1/labs/fernhollow': labAs('guest'), 'GET /api/v1/labs/fernhollow/loggers/5': () => ({ status: 200, body: { logger: { ...HEDGE_DETAIL, keys: undefined } } }) });
+    fakeApi({
+      'GET /api/v1/labs/fernhollow': labAs('guest'),
+      'GET /api/v1/labs/fernhollow/loggers/5': () => ({ status: 200, body: { logger: { ...HEDGE_DETAIL, keys: undefined } } }),
+    });
     renderWithProviders(routes, '/labs/fernhollow/loggers/5');
     await screen.findByRole('heading', { name: 'Hedgerow mast' });
     expect(navLinks().find((a) => a.getAttribute('aria-current') === 'page')?.textContent).toBe('Loggers');
@@ -96,7 +131,10 @@ describe('loggers list', () => {
     const retired: LoggerSummary = { ...HEDGE, id: 6, name: 'Old pond buoy', retiredAt: '2026-05-01T00:00:00Z', lastSeenAt: null, channelCount: 1 };
     const api = fakeApi({
       'GET /api/v1/labs/fernhollow': labAs('technician'),
-      'GET /api/v1/labs/fernhollow/loggers': (req) => ({ status: 200, body: { loggers: req.path.includes('includeRetired=true') ? [HEDGE, retired] : [HEDGE] } }),
+      'GET /api/v1/labs/fernhollow/loggers': (req) => ({
+        status: 200,
+        body: { loggers: req.path.includes('includeRetired=true') ? [HEDGE, retired] : [HEDGE] },
+      }),
     });
     const { router } = renderWithProviders(routes, '/labs/fernhollow/loggers');
     const link = await screen.findByRole('link', { name: 'Hedgerow mast' });
@@ -166,7 +204,16 @@ describe('registering a logger', () => {
           expectedIntervalS: 600,
           channels: [
             { key: 'air_t', label: 'Air temperature', unit: '°C', quantity: '', validMin: -40, validMax: 60, expectedIntervalS: null, seasonalPeriodHint: 144 },
-            { key: 'rh', label: 'Relative humidity', unit: '', quantity: '', validMin: null, validMax: null, expectedIntervalS: null, seasonalPeriodHint: null },
+            {
+              key: 'rh',
+              label: 'Relative humidity',
+              unit: '',
+              quantity: '',
+              validMin: null,
+              validMax: null,
+              expectedIntervalS: null,
+              seasonalPeriodHint: null,
+            },
           ],
         },
       },
@@ -211,7 +258,10 @@ describe('registering a logger', () => {
 
 describe('a logger’s page', () => {
   it('is read-only for a scientist: no editing, no keys, no retiring', async () => {
-    const api = fakeApi({ 'GET /api/v1/labs/fernhollow': labAs('scientist'), 'GET /api/v1/labs/fernhollow/loggers/5': () => ({ status: 200, body: { logger: { ...HEDGE_DETAIL, keys: undefined } } }) });
+    const api = fakeApi({
+      'GET /api/v1/labs/fernhollow': labAs('scientist'),
+      'GET /api/v1/labs/fernhollow/loggers/5': () => ({ status: 200, body: { logger: { ...HEDGE_DETAIL, keys: undefined } } }),
+    });
     renderWithProviders(routes, '/labs/fernhollow/loggers/5');
     await screen.findByRole('heading', { name: 'Hedgerow mast' });
     expect(screen.getByText('Europe/Berlin')).toBeTruthy();
@@ -242,7 +292,9 @@ describe('a logger’s page', () => {
     expect(api.requests.filter((r) => r.method !== 'GET')).toHaveLength(0);
     fireEvent.click(screen.getByRole('button', { name: 'Rotate now' }));
     expect((await screen.findByTestId('issued-key')).textContent).toBe(ISSUED.key);
-    expect(api.requests.filter((r) => r.method !== 'GET')).toEqual([{ method: 'POST', path: '/api/v1/labs/fernhollow/loggers/5/keys', body: { rotate: true } }]);
+    expect(api.requests.filter((r) => r.method !== 'GET')).toEqual([
+      { method: 'POST', path: '/api/v1/labs/fernhollow/loggers/5/keys', body: { rotate: true } },
+    ]);
     fireEvent.click(screen.getByRole('button', { name: /hide the key/ }));
     expect(screen.queryByTestId('issued-key')).toBeNull();
 

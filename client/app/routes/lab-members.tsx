@@ -14,15 +14,7 @@ function MemberList({ slug, currentUserId, canManage, onChanged }: { slug: strin
   const members = useMembers(slug);
   if (members.isPending) return <LoadingNote what="Loading members…" />;
   if (members.isError) return <Notice tone="alert">{members.error.message}</Notice>;
-  return (
-    <MembersTable
-      slug={slug}
-      members={members.data.members}
-      currentUserId={currentUserId}
-      canManage={canManage}
-      onChanged={onChanged}
-    />
-  );
+  return <MembersTable slug={slug} members={members.data.members} currentUserId={currentUserId} canManage={canManage} onChanged={onChanged} />;
 }
 
 function PendingInvitations({ slug }: { slug: string }) {
@@ -61,9 +53,7 @@ export default function LabMembersRoute() {
           <h2 id="invite-heading" className="text-xl font-semibold">
             Invite someone
           </h2>
-          <p className="-mt-2 text-sm text-ink-soft">
-            They receive an e-mail with a link that works once, for 7 days, for that address only.
-          </p>
+          <p className="-mt-2 text-sm text-ink-soft">They receive an e-mail with a link that works once, for 7 days, for that address only.</p>
           <InviteForm slug={slug} />
           <h3 className="mt-4 text-lg font-semibold">Pending invitations</h3>
           <PendingInvitations slug={slug} />

@@ -4,7 +4,5 @@ import { SignInPanel } from '../../features/auth/components/sign-in-panel.tsx';
 /** `/sign-in`: reads the failure code and the page to return to from the URL. */
 export default function SignInRoute() {
   const [params] = useSearchParams();
-  return (
-    <SignInPanel errorCode={params.get('error')} returnTo={params.get('returnTo')} signedOut={params.get('signedOut') === '1'} />
-  );
+  return <SignInPanel errorCode={params.get('error')} returnTo={params.get('returnTo')} signedOut={params.get('signedOut') === '1'} />;
 }

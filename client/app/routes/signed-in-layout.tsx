@@ -11,7 +11,11 @@ export default function SignedInLayout() {
   const signOut = useSignOut();
   const location = useLocation();
   if (me.isPending) {
-    return <p className="p-8 text-ink-soft" role="status">Loading…</p>;
+    return (
+      <p className="p-8 text-ink-soft" role="status">
+        Loading…
+      </p>
+    );
   }
   if (me.isError) {
     if (isUnauthenticated(me.error)) {

@@ -101,9 +101,7 @@ export function EChart({
       <div role="img" aria-label={label} style={{ height }} className="w-full">
         <div ref={box} aria-hidden="true" className="h-full w-full" />
       </div>
-      <figcaption className="text-sm text-ink-soft">
-        {failed ? <span className="text-alert">The chart could not be drawn: {failed}</span> : summary}
-      </figcaption>
+      <figcaption className="text-sm text-ink-soft">{failed ? <span className="text-alert">The chart could not be drawn: {failed}</span> : summary}</figcaption>
       {pngName && (
         <div>
           <Button size="sm" tone="quiet" disabled={!ready} onClick={savePng}>

@@ -17,12 +17,7 @@ export type PassportInstance = InstanceType<typeof Passport>;
  * test process) with the OIDC strategy and session (de)serialisation. The session holds only
  * the user id; the user is re-read on every request, so a deleted user is signed out at once.
  */
-export function createPassport(deps: {
-  config: Config;
-  endpoints: OidcEndpoints;
-  users: UsersRepo;
-  signIn: SignInService;
-}): PassportInstance {
+export function createPassport(deps: { config: Config; endpoints: OidcEndpoints; users: UsersRepo; signIn: SignInService }): PassportInstance {
   const passport = new Passport();
   const { oidc } = deps.config;
   passport.use(
@@ -54,7 +49,7 @@ export function createPassport(deps: {
         _params: unknown,
         done: (err: Error | null, user?: User | false, info?: { message: string }) => void,
       ) => {
-        const claims = ((uiProfile as Profile & { _json?: Record<string, unknown> } | undefined)?._json ?? {}) as Record<string, unknown>;
+        const claims = ((uiProfile as (Profile & { _json?: Record<string, unknown> }) | undefined)?._json ?? {}) as Record<string, unknown>;
         // OpenID Connect Core §5.3.2: the UserInfo `sub` must equal the ID token's, or the answer is not about this person.
         if (uiProfile && uiProfile.id !== idProfile.id) return done(null, false, { message: 'userinfo subject mismatch' });
         deps.signIn
@@ -65,7 +60,10 @@ export function createPassport(deps: {
             emailVerified: claims.email_verified === true || claims.email_verified === 'true',
             name: (claims.name as string | undefined) ?? uiProfile?.displayName ?? idProfile.displayName,
           })
-          .then((user) => done(null, user), (err: Error) => done(err));
+          .then(
+            (user) => done(null, user),
+            (err: Error) => done(err),
+          );
       },
     ),
   );

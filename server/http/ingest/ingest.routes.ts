@@ -58,7 +58,8 @@ export function ingestRoutes(deps: { ingest: IngestService; rate?: { perSecond: 
       path: '/api/v1/ingest',
       auth: 'ingest-key',
       tag: 'ingest',
-      summary: "A logger posts readings with its ingest key, as JSON or as CSV (header channel,ts,value); 200 means committed, bad rows are quarantined with reasons.",
+      summary:
+        'A logger posts readings with its ingest key, as JSON or as CSV (header channel,ts,value); 200 means committed, bad rows are quarantined with reasons.',
       bodyMediaTypes: { 'application/json': ingestJsonBody, 'text/csv': ingestCsvBody },
       response: { status: 200, description: 'Committed: `{ accepted, duplicates, quarantined: [{ index, code, reason }] }`, accounting for every row sent.' },
       errors: INGEST_ERRORS,

@@ -145,7 +145,8 @@ export function loggerRoutes(deps: { loggers: LoggersService; testReadings: Test
       body: issueKeySchema,
       response: { status: 201, description: 'The new key (shown once) with its metadata.' },
       errors: { 409: '`logger_retired`: a retired logger gets no new keys.' },
-      handle: async ({ lab, actor, params, body }): Promise<IssuedKeyAnswer> => presentIssuedKey(await loggers.issueKey(lab, actor, params.loggerId, { rotate: body.rotate })),
+      handle: async ({ lab, actor, params, body }): Promise<IssuedKeyAnswer> =>
+        presentIssuedKey(await loggers.issueKey(lab, actor, params.loggerId, { rotate: body.rotate })),
     }),
     defineRoute({
       method: 'delete',

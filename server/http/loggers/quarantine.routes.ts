@@ -26,7 +26,10 @@ export function quarantineRoutes(deps: { quarantine: QuarantineService }): Route
       query: quarantineQuerySchema,
       response: { status: 200, description: 'One page of quarantined rows with the cursor of the next one.' },
       handle: async ({ lab, query }): Promise<QuarantinePage> =>
-        presentQuarantinePage(await quarantine.list(lab, { loggerId: query.loggerId, reasonCode: query.reason, after: query.cursor, pageSize: query.pageSize }), query.pageSize),
+        presentQuarantinePage(
+          await quarantine.list(lab, { loggerId: query.loggerId, reasonCode: query.reason, after: query.cursor, pageSize: query.pageSize }),
+          query.pageSize,
+        ),
     }),
     defineRoute({
       method: 'get',
@@ -42,7 +45,9 @@ export function quarantineRoutes(deps: { quarantine: QuarantineService }): Route
         res.write(csvLine(CSV_COLUMNS));
         for await (const rows of quarantine.all(lab, { loggerId: query.loggerId, reasonCode: query.reason })) {
           for (const r of rows) {
-            res.write(csvLine([r.id, r.loggerId, r.source, r.rowIndex, r.reasonCode, r.reason, r.channelKey, r.tsRaw, r.valueRaw, r.raw, r.receivedAt.toISOString()]));
+            res.write(
+              csvLine([r.id, r.loggerId, r.source, r.rowIndex, r.reasonCode, r.reason, r.channelKey, r.tsRaw, r.valueRaw, r.raw, r.receivedAt.toISOString()]),
+            );
           }
         }
         res.end();

@@ -23,11 +23,12 @@ export function uploadRoutes(deps: { uploads: UploadsService; logger: LogWriter 
       bodyMediaTypes: { 'text/csv': uploadCsvBody },
       response: {
         status: 200,
-        description: 'NDJSON, one line per event: `progress` after each stored batch, then `summary`, or `error` if the import stopped (what was stored is kept).',
+        description:
+          'NDJSON, one line per event: `progress` after each stored batch, then `summary`, or `error` if the import stopped (what was stored is kept).',
         mediaType: 'application/x-ndjson',
       },
       errors: {
-        409: '`logger_retired`: a retired logger\'s history cannot be extended.',
+        409: "`logger_retired`: a retired logger's history cannot be extended.",
         413: '`payload_too_large`: the file is larger than 2 GB (Content-Length); split it and upload the parts.',
         415: '`unsupported_media_type`: upload the export file as text/csv.',
       },
@@ -50,7 +51,10 @@ export function uploadRoutes(deps: { uploads: UploadsService; logger: LogWriter 
           line({
             type: 'error',
             code: e.code ?? 'upload_failed',
-            message: err instanceof AppError ? e.message : 'The upload stopped: what was stored before this point is kept; send the file again to finish (stored rows count as duplicates).',
+            message:
+              err instanceof AppError
+                ? e.message
+                : 'The upload stopped: what was stored before this point is kept; send the file again to finish (stored rows count as duplicates).',
           });
           req.unpipe();
           req.resume();

@@ -27,9 +27,18 @@ export function bodyEncodingGuard(): RequestHandler {
     if (!hasBody(req)) return next();
     const encoding = req.get('content-encoding');
     if (encoding !== undefined) {
-      const codings = encoding.toLowerCase().split(',').map((c) => c.trim()).filter((c) => c !== '' && c !== 'identity');
+      const codings = encoding
+        .toLowerCase()
+        .split(',')
+        .map((c) => c.trim())
+        .filter((c) => c !== '' && c !== 'identity');
       if (codings.length > 1 || (codings.length === 1 && !(SUPPORTED_CONTENT_ENCODINGS as readonly string[]).includes(codings[0]))) {
-        return next(new UnsupportedBodyError('unsupported_encoding', `Content-Encoding "${encoding.slice(0, 40)}" is not supported; send the body uncompressed, or compressed once with gzip or deflate.`));
+        return next(
+          new UnsupportedBodyError(
+            'unsupported_encoding',
+            `Content-Encoding "${encoding.slice(0, 40)}" is not supported; send the body uncompressed, or compressed once with gzip or deflate.`,
+          ),
+        );
       }
     }
     const type = req.get('content-type') ?? '';

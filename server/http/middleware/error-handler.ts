@@ -7,7 +7,10 @@ import { isDatabaseFull, isDatabaseReadOnly, isDatabaseUnavailable, isLockConfli
 /** Turns a ZodError into `field: reason` lines (the validation message convention). */
 export function zodToValidationError(err: ZodError): ValidationError {
   const message = err.issues.map((i) => `${i.path.join('.') || 'body'}: ${i.message}`).join('; ');
-  return new ValidationError(message, err.issues.map((i) => ({ path: i.path.join('.'), message: i.message })));
+  return new ValidationError(
+    message,
+    err.issues.map((i) => ({ path: i.path.join('.'), message: i.message })),
+  );
 }
 
 /**
@@ -45,9 +48,15 @@ export function errorHandler(logger: LogWriter): ErrorRequestHandler {
     let error: unknown = err;
     if (error instanceof ZodError) error = zodToValidationError(error);
     if (!(error instanceof AppError) && isDatabaseReadOnly(error)) {
-      error = new ServiceUnavailableError('The database accepts no changes right now (read-only, e.g. during maintenance); nothing was saved. Try again later.', 30);
+      error = new ServiceUnavailableError(
+        'The database accepts no changes right now (read-only, e.g. during maintenance); nothing was saved. Try again later.',
+        30,
+      );
     } else if (!(error instanceof AppError) && isDatabaseFull(error)) {
-      error = new ServiceUnavailableError('The database has no room left (its disk or tablespace is full); nothing was saved. Operators must free space or grow the disk; try again later.', 300);
+      error = new ServiceUnavailableError(
+        'The database has no room left (its disk or tablespace is full); nothing was saved. Operators must free space or grow the disk; try again later.',
+        300,
+      );
     } else if (!(error instanceof AppError) && isDatabaseUnavailable(error)) {
       error = new ServiceUnavailableError('The database is unreachable; try again shortly.');
     } else if (!(error instanceof AppError) && isLockConflict(error)) {
@@ -56,7 +65,8 @@ export function errorHandler(logger: LogWriter): ErrorRequestHandler {
     if (!(error instanceof AppError)) error = bodyParserError(err) ?? error;
     if (error instanceof AppError) {
       if (error.retryAfterSeconds !== undefined && !res.headersSent) res.set('Retry-After', String(error.retryAfterSeconds));
-      if (error.status >= 500) logger.warn('request failed', { path: req.path, code: error.code, cause: (err as { code?: string; name?: string })?.code ?? (err as Error)?.name });
+      if (error.status >= 500)
+        logger.warn('request failed', { path: req.path, code: error.code, cause: (err as { code?: string; name?: string })?.code ?? (err as Error)?.name });
       if (res.headersSent) return;
       // a batch refused whole shows the first rows it could not read (see TooManyQuarantinedError)
       const sample = (error as { sample?: unknown }).sample;

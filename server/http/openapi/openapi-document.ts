@@ -45,7 +45,14 @@ const errorBody = { content: { 'application/json': { schema: ref('schemas', 'Err
 const retryAfter = { 'Retry-After': { description: 'Seconds to wait before trying again.', schema: { type: 'integer' } } };
 
 /** The shared description of a standard answer (a `$ref`), when the route keeps the standard wording. */
-const STANDARD_REFS: Record<number, string> = { 400: 'InvalidInput', 401: 'Unauthenticated', 403: 'Forbidden', 404: 'NotFound', 500: 'Internal', 503: 'Unavailable' };
+const STANDARD_REFS: Record<number, string> = {
+  400: 'InvalidInput',
+  401: 'Unauthenticated',
+  403: 'Forbidden',
+  404: 'NotFound',
+  500: 'Internal',
+  503: 'Unavailable',
+};
 
 /** Every answer of a route: success with its media type, errors with the error body, 429/503 with Retry-After. */
 function responsesOf(route: Route): JsonObject {
@@ -98,7 +105,10 @@ function operationOf(route: Route, template: string): JsonObject {
   };
   const bodies = route.bodyMediaTypes ?? (route.body ? { 'application/json': route.body } : null);
   if (bodies) {
-    op.requestBody = { required: true, content: Object.fromEntries(Object.entries(bodies).map(([type, schema]) => [type, { schema: inputJsonSchema(schema) }])) };
+    op.requestBody = {
+      required: true,
+      content: Object.fromEntries(Object.entries(bodies).map(([type, schema]) => [type, { schema: inputJsonSchema(schema) }])),
+    };
   }
   return op;
 }
@@ -131,8 +141,18 @@ export function buildOpenApiDocument(routes: readonly Route[], opts: { serverUrl
     components: {
       securitySchemes: {
         sessionCookie: { type: 'apiKey', in: 'cookie', name: SESSION_COOKIE, description: 'The session a browser gets by signing in (OpenID Connect).' },
-        ingestKey: { type: 'http', scheme: 'bearer', bearerFormat: 'lbk_<prefix>_<secret>', description: "A logger's ingest key; accepted only by POST /api/v1/ingest." },
-        personalToken: { type: 'http', scheme: 'bearer', bearerFormat: 'lbt_<prefix>_<secret>', description: "A member's personal API token; read routes of its own lab only, with its owner's current role." },
+        ingestKey: {
+          type: 'http',
+          scheme: 'bearer',
+          bearerFormat: 'lbk_<prefix>_<secret>',
+          description: "A logger's ingest key; accepted only by POST /api/v1/ingest.",
+        },
+        personalToken: {
+          type: 'http',
+          scheme: 'bearer',
+          bearerFormat: 'lbt_<prefix>_<secret>',
+          description: "A member's personal API token; read routes of its own lab only, with its owner's current role.",
+        },
       },
       schemas: {
         Error: {

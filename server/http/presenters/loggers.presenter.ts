@@ -3,8 +3,21 @@ import type { Channel } from '../../db/channels.repo.ts';
 import type { IngestKeyInfo } from '../../db/ingest-keys.repo.ts';
 import type { QuarantinedRow } from '../../db/quarantine.repo.ts';
 import type { LoggerDetail, IssuedKey } from '../../services/loggers.service.ts';
-import type { Channel as ChannelAnswer, IngestKeyInfo as KeyInfoAnswer, IssuedKeyAnswer, LoggerDetail as LoggerDetailAnswer, LoggerInfo, LoggerSummary } from '../../contract/loggers.ts';
-import { encodeQuarantineCursor, type QuarantinedRow as QuarantinedRowAnswer, type QuarantinePage, type ResubmitOutcome, type ResubmitRow } from '../../contract/quarantine.ts';
+import type {
+  Channel as ChannelAnswer,
+  IngestKeyInfo as KeyInfoAnswer,
+  IssuedKeyAnswer,
+  LoggerDetail as LoggerDetailAnswer,
+  LoggerInfo,
+  LoggerSummary,
+} from '../../contract/loggers.ts';
+import {
+  encodeQuarantineCursor,
+  type QuarantinedRow as QuarantinedRowAnswer,
+  type QuarantinePage,
+  type ResubmitOutcome,
+  type ResubmitRow,
+} from '../../contract/quarantine.ts';
 import type { IngestAnswer } from '../../contract/ingest.ts';
 import type { QuarantineService } from '../../services/quarantine.service.ts';
 import { isoTime } from './iso-time.ts';

@@ -13,11 +13,12 @@ import { answersOf } from './standard-answers.ts';
 import { defineRoute, labRouteSummaries, type Route } from './route.ts';
 
 /** A stand-in for the lab guard: every request acts in lab 7 as user 3 (the real guard has its API tests). */
-const guard: LabGuard = () => ((_req, res, next) => {
-  res.locals.lab = { id: 7, slug: 'seven', name: 'Seven', createdAt: new Date(0), role: 'admin' };
-  res.locals.callerUserId = 3;
-  next();
-}) as RequestHandler;
+const guard: LabGuard = () =>
+  ((_req, res, next) => {
+    res.locals.lab = { id: 7, slug: 'seven', name: 'Seven', createdAt: new Date(0), role: 'admin' };
+    res.locals.callerUserId = 3;
+    next();
+  }) as RequestHandler;
 
 const itemParams = idParams('itemId');
 const renameBody = z.object({ name: z.string({ error: 'must be text' }).min(2, 'must be at least 2 characters') });
@@ -126,7 +127,10 @@ describe('mountRoutes', () => {
   });
 
   it('lets a streaming route write its own answer', async () => {
-    const res = await request(appWith()).get('/api/v1/items.csv').expect(200).expect('Content-Type', /text\/csv/);
+    const res = await request(appWith())
+      .get('/api/v1/items.csv')
+      .expect(200)
+      .expect('Content-Type', /text\/csv/);
     expect(res.text).toBe('a,b\n1,2\n');
   });
 

@@ -69,8 +69,11 @@ interface RouteCommon<P extends z.ZodType, Q extends z.ZodType, B extends z.ZodT
 type Inferred<S> = S extends z.ZodType ? z.infer<S> : undefined;
 
 /** A route whose handler returns its answer; the mount function writes it with `response.status`. */
-export interface AnsweringRoute<P extends z.ZodType = z.ZodType, Q extends z.ZodType = z.ZodType, B extends z.ZodType = z.ZodType>
-  extends RouteCommon<P, Q, B> {
+export interface AnsweringRoute<P extends z.ZodType = z.ZodType, Q extends z.ZodType = z.ZodType, B extends z.ZodType = z.ZodType> extends RouteCommon<
+  P,
+  Q,
+  B
+> {
   stream?: false;
   handle(input: RouteInput<Inferred<P>, Inferred<Q>, Inferred<B>>): Promise<unknown>;
 }
@@ -79,8 +82,11 @@ export interface AnsweringRoute<P extends z.ZodType = z.ZodType, Q extends z.Zod
  * A streaming route: it opts in to write its answer itself (exports, the cached diagnostics bytes)
  * or to read its body as a stream (logger batches). It still gets its input parsed.
  */
-export interface StreamingRoute<P extends z.ZodType = z.ZodType, Q extends z.ZodType = z.ZodType, B extends z.ZodType = z.ZodType>
-  extends RouteCommon<P, Q, B> {
+export interface StreamingRoute<P extends z.ZodType = z.ZodType, Q extends z.ZodType = z.ZodType, B extends z.ZodType = z.ZodType> extends RouteCommon<
+  P,
+  Q,
+  B
+> {
   stream: true;
   handle(input: RouteInput<Inferred<P>, Inferred<Q>, Inferred<B>>, raw: { req: Request; res: Response }): Promise<void>;
 }

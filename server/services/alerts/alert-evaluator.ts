@@ -69,7 +69,19 @@ export function createAlertEvaluator(deps: AlertEvaluatorDeps) {
         const trxScope = inLab(trx, ctx.tenantId);
         if (!(await alertsRepo(trxScope).countReminder(alert.id, alert.remindersSent, ctx.now))) return;
         const value = target.channelId === null ? null : alert.openedValue;
-        await queueAlertMail(trxScope, { lab: ctx.lab, publicUrl: ctx.publicUrl, rule, target, alert, kind: 'reminder', sequence: alert.remindersSent + 1, at: ctx.now, now: ctx.now, value, detail: `still open; when it opened: ${alert.openedDetail}` });
+        await queueAlertMail(trxScope, {
+          lab: ctx.lab,
+          publicUrl: ctx.publicUrl,
+          rule,
+          target,
+          alert,
+          kind: 'reminder',
+          sequence: alert.remindersSent + 1,
+          at: ctx.now,
+          now: ctx.now,
+          value,
+          detail: `still open; when it opened: ${alert.openedDetail}`,
+        });
         count++;
       });
     }
@@ -96,7 +108,14 @@ export function createAlertEvaluator(deps: AlertEvaluatorDeps) {
     return totals;
   }
 
-  const add = (a: typeof EMPTY, b: typeof EMPTY) => ({ opened: a.opened + b.opened, resolved: a.resolved + b.resolved, reminders: a.reminders + b.reminders, sent: a.sent + b.sent, failed: a.failed + b.failed, errors: a.errors + b.errors });
+  const add = (a: typeof EMPTY, b: typeof EMPTY) => ({
+    opened: a.opened + b.opened,
+    resolved: a.resolved + b.resolved,
+    reminders: a.reminders + b.reminders,
+    sent: a.sent + b.sent,
+    failed: a.failed + b.failed,
+    errors: a.errors + b.errors,
+  });
 
   /** One lab's evaluation; an error stops only that lab (logged), so one broken lab never silences the others. */
   async function evaluateLabSafely(tenantId: number, now: number, channelIds?: number[]) {

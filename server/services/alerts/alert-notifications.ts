@@ -35,8 +35,31 @@ export async function queueAlertMail(scope: LabScope, n: NotificationSubject): P
   const reading = n.value === null ? null : `${formatValue(n.value)}${n.target.unit ? ` ${n.target.unit}` : ''}`;
   await outboxRepo(scope).enqueue(
     recipients.map((r) => {
-      const mail = alertMail({ to: r.email, labName: n.lab.name, kind: n.kind, sequence: n.sequence, ruleName: n.rule.name, watched, reading, at: n.at, detail: n.detail, openedAt: n.alert.openedAt, link, timeZone: n.target.timezone, readerTimeZone: r.timeZone });
-      return { alertId: n.alert.id, userId: r.userId, kind: n.kind, sequence: n.sequence, to: r.email, subject: mail.subject, text: mail.text, html: mail.html ?? '' };
+      const mail = alertMail({
+        to: r.email,
+        labName: n.lab.name,
+        kind: n.kind,
+        sequence: n.sequence,
+        ruleName: n.rule.name,
+        watched,
+        reading,
+        at: n.at,
+        detail: n.detail,
+        openedAt: n.alert.openedAt,
+        link,
+        timeZone: n.target.timezone,
+        readerTimeZone: r.timeZone,
+      });
+      return {
+        alertId: n.alert.id,
+        userId: r.userId,
+        kind: n.kind,
+        sequence: n.sequence,
+        to: r.email,
+        subject: mail.subject,
+        text: mail.text,
+        html: mail.html ?? '',
+      };
     }),
     n.now,
   );

@@ -25,7 +25,9 @@ function checkUnusualFits(periodH: number, historyCycles: number, intervalS: num
   const steps = Math.round((periodH * 3600) / intervalS);
   if (steps < 2) throw new InvalidAlertRuleError(`params.periodH: must span at least two expected intervals of the channel (${intervalS} s each)`);
   if (steps * historyCycles > 60_000) {
-    throw new InvalidAlertRuleError(`params.historyCycles: ${historyCycles} cycles of ${periodH} h hold ${steps * historyCycles} readings at the channel's interval of ${intervalS} s; at most 60000 (use fewer cycles)`);
+    throw new InvalidAlertRuleError(
+      `params.historyCycles: ${historyCycles} cycles of ${periodH} h hold ${steps * historyCycles} readings at the channel's interval of ${intervalS} s; at most 60000 (use fewer cycles)`,
+    );
   }
 }
 
@@ -52,7 +54,9 @@ export function createAlertRulesService(deps: { db: Db; now?: () => number }) {
       const t = rule.channelId !== null ? await reads.channelTarget(rule.channelId) : await reads.loggerTarget(rule.loggerId!);
       out.push({
         ...rule,
-        watched: t ? { channelId: t.channelId, loggerId: t.loggerId, label: t.label, loggerName: t.loggerName, unit: t.unit } : { channelId: rule.channelId, loggerId: rule.loggerId ?? 0, label: '(gone)', loggerName: '', unit: '' },
+        watched: t
+          ? { channelId: t.channelId, loggerId: t.loggerId, label: t.label, loggerName: t.loggerName, unit: t.unit }
+          : { channelId: rule.channelId, loggerId: rule.loggerId ?? 0, label: '(gone)', loggerName: '', unit: '' },
         subscribed: subscribed.has(rule.id),
         openAlertId: open.get(rule.id) ?? null,
       });
@@ -95,7 +99,14 @@ export function createAlertRulesService(deps: { db: Db; now?: () => number }) {
           cursorTs,
         });
         await alertRulesRepo(scope).subscribe(ruleId, actor.id);
-        await auditRepo(scope).record({ actorUserId: actor.id, action: 'alert-rule.created', targetType: 'alert-rule', targetId: ruleId, summary: `${actor.displayName} made the ${input.kind} alert rule "${input.name}"`, details: { kind: input.kind, params: input.params } });
+        await auditRepo(scope).record({
+          actorUserId: actor.id,
+          action: 'alert-rule.created',
+          targetType: 'alert-rule',
+          targetId: ruleId,
+          summary: `${actor.displayName} made the ${input.kind} alert rule "${input.name}"`,
+          details: { kind: input.kind, params: input.params },
+        });
         return ruleId;
       });
       const scope = inLab(deps.db, lab.id);
@@ -120,7 +131,14 @@ export function createAlertRulesService(deps: { db: Db; now?: () => number }) {
           const t = rule.channelId !== null ? await alertReadingsRepo(scope).channelTarget(rule.channelId) : null;
           await repo.restart(ruleId, t?.lastReadingTs ?? null, now());
         }
-        await auditRepo(scope).record({ actorUserId: actor.id, action: 'alert-rule.updated', targetType: 'alert-rule', targetId: ruleId, summary: `${actor.displayName} changed the alert rule "${input.name ?? rule.name}"`, details: { ...input } });
+        await auditRepo(scope).record({
+          actorUserId: actor.id,
+          action: 'alert-rule.updated',
+          targetType: 'alert-rule',
+          targetId: ruleId,
+          summary: `${actor.displayName} changed the alert rule "${input.name ?? rule.name}"`,
+          details: { ...input },
+        });
       });
       const scope = inLab(deps.db, lab.id);
       return (await views(scope, [await find(scope, ruleId)], actor.id))[0];
@@ -133,7 +151,13 @@ export function createAlertRulesService(deps: { db: Db; now?: () => number }) {
         const rule = await find(scope, ruleId, true);
         await alertsRepo(scope).closeForDeletedRule(ruleId, now());
         await alertRulesRepo(scope).remove(ruleId);
-        await auditRepo(scope).record({ actorUserId: actor.id, action: 'alert-rule.deleted', targetType: 'alert-rule', targetId: ruleId, summary: `${actor.displayName} deleted the alert rule "${rule.name}"` });
+        await auditRepo(scope).record({
+          actorUserId: actor.id,
+          action: 'alert-rule.deleted',
+          targetType: 'alert-rule',
+          targetId: ruleId,
+          summary: `${actor.displayName} deleted the alert rule "${rule.name}"`,
+        });
       });
     },
 
@@ -164,7 +188,13 @@ export function createAlertRulesService(deps: { db: Db; now?: () => number }) {
         const alert = await alertsRepo(scope).find(alertId);
         if (!alert) throw new NotFoundError('No such alert in this lab.');
         await alertsRepo(scope).acknowledge(alertId, actor.id, note, new Date(now()));
-        await auditRepo(scope).record({ actorUserId: actor.id, action: 'alert.acknowledged', targetType: 'alert', targetId: alertId, summary: `${actor.displayName} acknowledged the alert of "${alert.ruleName}"${note ? `: ${note}` : ''}` });
+        await auditRepo(scope).record({
+          actorUserId: actor.id,
+          action: 'alert.acknowledged',
+          targetType: 'alert',
+          targetId: alertId,
+          summary: `${actor.displayName} acknowledged the alert of "${alert.ruleName}"${note ? `: ${note}` : ''}`,
+        });
         return (await alertsRepo(scope).find(alertId))!;
       });
     },

@@ -11,7 +11,13 @@ import { alertEvaluationJob, alertIngestNudge } from './alert-triggers.ts';
  * `runOnce(now)` for tests), its ingestion hook and its scheduled job.
  */
 export function createAlertsFeature(deps: { db: Db; mailer: Mailer; logger: LogWriter; config: Pick<Config, 'publicUrl' | 'alerts'>; now?: () => number }) {
-  const evaluator = createAlertEvaluator({ db: deps.db, mailer: deps.mailer, logger: deps.logger, publicUrl: deps.config.publicUrl, reminderAfterMin: deps.config.alerts.reminderAfterMin });
+  const evaluator = createAlertEvaluator({
+    db: deps.db,
+    mailer: deps.mailer,
+    logger: deps.logger,
+    publicUrl: deps.config.publicUrl,
+    reminderAfterMin: deps.config.alerts.reminderAfterMin,
+  });
   return {
     service: createAlertRulesService({ db: deps.db, now: deps.now }),
     evaluator,

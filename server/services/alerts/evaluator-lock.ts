@@ -12,7 +12,9 @@ interface RawConnection {
 }
 
 const ask = (conn: RawConnection, sql: string, values: unknown[]) =>
-  new Promise<Array<Record<string, unknown>>>((resolve, reject) => conn.query(sql, values, (err, rows) => (err ? reject(err) : resolve(rows as Array<Record<string, unknown>>))));
+  new Promise<Array<Record<string, unknown>>>((resolve, reject) =>
+    conn.query(sql, values, (err, rows) => (err ? reject(err) : resolve(rows as Array<Record<string, unknown>>))),
+  );
 
 /**
  * Runs `work` while holding MariaDB's named lock {@link EVALUATOR_LOCK}+database (GET_LOCK /

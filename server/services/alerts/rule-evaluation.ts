@@ -38,14 +38,30 @@ export interface EvaluationCounts {
  * Writes a rule's transitions: opens and resolves alerts and queues their mail, all in the
  * caller's transaction. Returns the counts.
  */
-async function applyTransitions(ctx: EvaluationContext, scope: LabScope, rule: AlertRule, target: WatchedTarget, transitions: RuleTransition[]): Promise<EvaluationCounts> {
+async function applyTransitions(
+  ctx: EvaluationContext,
+  scope: LabScope,
+  rule: AlertRule,
+  target: WatchedTarget,
+  transitions: RuleTransition[],
+): Promise<EvaluationCounts> {
   const alerts = alertsRepo(scope);
   let current = await alerts.openForRule(rule.id);
   const counts = { opened: 0, resolved: 0 };
   for (const t of transitions) {
     const common = { lab: ctx.lab, publicUrl: ctx.publicUrl, rule, target, sequence: 0, at: t.ts, now: ctx.now, value: t.value, detail: t.detail };
     if (t.kind === 'open' && !current) {
-      const id = await alerts.open({ ruleId: rule.id, ruleName: rule.name, kind: rule.kind, channelId: target.channelId, loggerId: target.loggerId, at: t.ts, value: t.value, detail: t.detail, notifiedAt: ctx.now });
+      const id = await alerts.open({
+        ruleId: rule.id,
+        ruleName: rule.name,
+        kind: rule.kind,
+        channelId: target.channelId,
+        loggerId: target.loggerId,
+        at: t.ts,
+        value: t.value,
+        detail: t.detail,
+        notifiedAt: ctx.now,
+      });
       current = (await alerts.find(id))!;
       await queueAlertMail(scope, { ...common, alert: current, kind: 'opened' });
       counts.opened++;
@@ -98,12 +114,18 @@ export async function evaluateValueRule(ctx: EvaluationContext, ruleId: number):
       const target = await alertReadingsRepo(scope).channelTarget(rule.channelId);
       if (!target) return false;
       const from = rule.cursor.cursorTs === null ? Number.MIN_SAFE_INTEGER : rule.cursor.cursorTs + 1;
-      const readings = toReadings(await channelReadingsRepo(inLab(ctx.db, ctx.tenantId)).range(rule.channelId, from, Number.MAX_SAFE_INTEGER, READINGS_PER_CHUNK));
+      const readings = toReadings(
+        await channelReadingsRepo(inLab(ctx.db, ctx.tenantId)).range(rule.channelId, from, Number.MAX_SAFE_INTEGER, READINGS_PER_CHUNK),
+      );
       if (readings.length === 0) return false;
       const open = (await alertsRepo(scope).openForRule(rule.id)) !== null;
       const step = await stepValueRule(ctx, rule, target, { pendingSince: rule.cursor.pendingSince, previous: rule.cursor.previous, open }, readings);
       const counts = await applyTransitions(ctx, scope, rule, target, step.transitions);
-      await alertRulesRepo(scope).saveCursor(rule.id, { cursorTs: readings[readings.length - 1].ts, pendingSince: step.memory.pendingSince, previous: step.memory.previous });
+      await alertRulesRepo(scope).saveCursor(rule.id, {
+        cursorTs: readings[readings.length - 1].ts,
+        pendingSince: step.memory.pendingSince,
+        previous: step.memory.previous,
+      });
       ctx.beforeCommit?.(rule.id);
       total.opened += counts.opened;
       total.resolved += counts.resolved;
@@ -125,7 +147,14 @@ export async function evaluateSilenceRule(ctx: EvaluationContext, ruleId: number
     if (!target) return { opened: 0, resolved: 0 };
     const open = (await alertsRepo(scope).openForRule(rule.id)) !== null;
     const { factor } = rule.params as AlertRuleParams['silence'];
-    const r = evaluateSilence({ lastReadingTs: target.lastReadingTs, watchingSince: rule.watchingSince, expectedIntervalS: target.expectedIntervalS, factor, open, now: ctx.now });
+    const r = evaluateSilence({
+      lastReadingTs: target.lastReadingTs,
+      watchingSince: rule.watchingSince,
+      expectedIntervalS: target.expectedIntervalS,
+      factor,
+      open,
+      now: ctx.now,
+    });
     const counts = r.transition ? await applyTransitions(ctx, scope, rule, target, [r.transition]) : { opened: 0, resolved: 0 };
     ctx.beforeCommit?.(rule.id);
     return counts;

@@ -35,7 +35,11 @@ const idOf = (v: string | { id: string } | null | undefined): string | null => (
 
 /** The customer and lab an event is about, for finding the lab. */
 export function eventParties(event: Stripe.Event): { customerId: string | null; labIdHint: string | null } {
-  const object = event.data.object as unknown as { customer?: string | { id: string } | null; metadata?: Record<string, string> | null; client_reference_id?: string | null };
+  const object = event.data.object as unknown as {
+    customer?: string | { id: string } | null;
+    metadata?: Record<string, string> | null;
+    client_reference_id?: string | null;
+  };
   return { customerId: idOf(object.customer), labIdHint: object.client_reference_id ?? object.metadata?.lab_id ?? null };
 }
 
@@ -60,10 +64,12 @@ export function billingChange(event: Stripe.Event, row: LabBilling, ctx: { catal
   const link: BillingStatePatch = {};
   let state: BillingStatePatch | null = null;
   const enterStatus = (status: BillingStatus): BillingStatePatch => {
-    if (status === 'past_due') return { status, graceUntil: row.status === 'past_due' && row.graceUntil ? row.graceUntil : new Date(event.created * 1000 + ctx.graceDays * DAY_MS) };
+    if (status === 'past_due')
+      return { status, graceUntil: row.status === 'past_due' && row.graceUntil ? row.graceUntil : new Date(event.created * 1000 + ctx.graceDays * DAY_MS) };
     return { status, graceUntil: null };
   };
-  const subscriptionIsCurrent = (id: string) => !row.stripeSubscriptionId || row.stripeSubscriptionId === id || row.status === 'canceled' || row.status === 'none';
+  const subscriptionIsCurrent = (id: string) =>
+    !row.stripeSubscriptionId || row.stripeSubscriptionId === id || row.status === 'canceled' || row.status === 'none';
 
   switch (event.type) {
     case 'checkout.session.completed': {

@@ -4,7 +4,12 @@ import type { LimitName } from './plan-catalog.ts';
 /** How long a refused logger should wait before trying again (seconds): usage changes slowly. */
 export const PLAN_LIMIT_RETRY_AFTER_S = 3600;
 
-const WHAT: Record<LimitName, string> = { readings: 'stored readings', loggers: 'loggers', members: 'members (with pending invitations)', quarantinedRows: 'quarantined rows' };
+const WHAT: Record<LimitName, string> = {
+  readings: 'stored readings',
+  loggers: 'loggers',
+  members: 'members (with pending invitations)',
+  quarantinedRows: 'quarantined rows',
+};
 
 /**
  * The lab's plan does not allow this (a batch past the stored-readings limit, one logger or

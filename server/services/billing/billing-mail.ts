@@ -4,7 +4,15 @@ const day = (d: Date) => d.toISOString().slice(0, 10);
 const grouped = (n: number) => n.toLocaleString('en-GB');
 
 /** The storage warning sent to each admin when a lab's stored readings cross 80% or reach 100% of its plan. */
-export function usageWarningMail(input: { to: string; labName: string; planName: string; percent: 80 | 100; used: number; allowed: number; link: string }): OutgoingMail {
+export function usageWarningMail(input: {
+  to: string;
+  labName: string;
+  planName: string;
+  percent: 80 | 100;
+  used: number;
+  allowed: number;
+  link: string;
+}): OutgoingMail {
   const full = input.percent === 100;
   const subject = full ? `${input.labName}: storage full — loggers are being refused` : `${input.labName}: 80% of the plan's storage used`;
   const text = [

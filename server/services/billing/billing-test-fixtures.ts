@@ -5,8 +5,20 @@ import { parsePlanCatalog } from './plan-catalog.ts';
 export const testCatalog = parsePlanCatalog({
   currency: 'eur',
   plans: [
-    { key: 'seedling', name: 'Seedling', monthlyAmount: 0, priceLookupKey: null, limits: { readings: 10, loggers: 1, members: 2, historyDays: 30, quarantinedRows: 5 } },
-    { key: 'transect', name: 'Transect', monthlyAmount: 4900, priceLookupKey: 'lagbook-transect-monthly', limits: { readings: 100, loggers: 5, members: 9, historyDays: 365, quarantinedRows: 50 } },
+    {
+      key: 'seedling',
+      name: 'Seedling',
+      monthlyAmount: 0,
+      priceLookupKey: null,
+      limits: { readings: 10, loggers: 1, members: 2, historyDays: 30, quarantinedRows: 5 },
+    },
+    {
+      key: 'transect',
+      name: 'Transect',
+      monthlyAmount: 4900,
+      priceLookupKey: 'lagbook-transect-monthly',
+      limits: { readings: 100, loggers: 5, members: 9, historyDays: 365, quarantinedRows: 50 },
+    },
   ],
 });
 

@@ -78,7 +78,9 @@ export function createBillingService(deps: { db: Db; stripe: Stripe; catalog: Pl
   async function customerFor(lab: LabContext, actor: Actor): Promise<string> {
     const row = await billingOf(lab.id).getOrCreate(catalog.free.key);
     if (row.stripeCustomerId) return row.stripeCustomerId;
-    const customer = await callStripe(() => stripe.customers.create({ name: lab.name, email: actor.email, metadata: { lab_id: String(lab.id), lab_slug: lab.slug } }));
+    const customer = await callStripe(() =>
+      stripe.customers.create({ name: lab.name, email: actor.email, metadata: { lab_id: String(lab.id), lab_slug: lab.slug } }),
+    );
     await billingOf(lab.id).patch({ stripeCustomerId: customer.id }, catalog.free.key);
     return customer.id;
   }
@@ -95,7 +97,10 @@ export function createBillingService(deps: { db: Db; stripe: Stripe; catalog: Pl
     if (!lookupKey) throw new Error(`priceOf: the ${plan.name} plan is free and has no price`); // callers refuse free plans first
     const prices = await callStripe(() => stripe.prices.list({ lookup_keys: [lookupKey], active: true, limit: 1 }));
     const price = prices.data[0];
-    if (!price) throw new BillingUnavailableError(`The payment service has no price "${lookupKey}" for the ${plan.name} plan; your plan is unchanged. Tell the Lagbook operator.`);
+    if (!price)
+      throw new BillingUnavailableError(
+        `The payment service has no price "${lookupKey}" for the ${plan.name} plan; your plan is unchanged. Tell the Lagbook operator.`,
+      );
     return price;
   }
 
@@ -192,7 +197,8 @@ export function createBillingService(deps: { db: Db; stripe: Stripe; catalog: Pl
       if (!row?.stripeSubscriptionId || row.status === 'canceled' || row.status === 'none') {
         throw new ConflictError('no_subscription', 'The lab has no subscription to change: choose a plan to subscribe to it.');
       }
-      if (row.status !== 'active') throw new ConflictError('payment_overdue', 'The last payment failed: settle it under "Manage payment" before changing the plan.');
+      if (row.status !== 'active')
+        throw new ConflictError('payment_overdue', 'The last payment failed: settle it under "Manage payment" before changing the plan.');
       if (row.planKey === plan.key) throw new ConflictError('same_plan', `The lab is already on the ${plan.name} plan.`);
       const over = overLimits(await usageCounts(lab.id, row.readingsCount, now()), plan.limits);
       if (over.length > 0 && !acknowledgeLimits) {
@@ -221,7 +227,10 @@ export function createBillingService(deps: { db: Db; stripe: Stripe; catalog: Pl
         summary: `${actor.displayName} asked to move the subscription from the ${from} plan to the ${plan.name} plan`,
         details: { from: row.planKey, to: plan.key, overLimits: over },
       });
-      return { plan: plan.key, message: `The switch to the ${plan.name} plan is sent; the plan changes as soon as the payment service confirms it. The price difference is prorated on the next invoice.` };
+      return {
+        plan: plan.key,
+        message: `The switch to the ${plan.name} plan is sent; the plan changes as soon as the payment service confirms it. The price difference is prorated on the next invoice.`,
+      };
     },
 
     /** A billing-portal session (card, invoices, cancellation) that returns to the billing page. */

@@ -5,8 +5,20 @@ import { describe, expect, it } from 'vitest';
 import { loadPlanCatalog, parsePlanCatalog } from './plan-catalog.ts';
 import { ConfigError } from '../../errors.ts';
 
-const free = { key: 'seedling', name: 'Seedling', monthlyAmount: 0, priceLookupKey: null, limits: { readings: 10, loggers: 1, members: 2, historyDays: 30, quarantinedRows: 5 } };
-const paid = { key: 'transect', name: 'Transect', monthlyAmount: 4900, priceLookupKey: 'lagbook-transect-monthly', limits: { readings: 100, loggers: 5, members: 9, historyDays: 365, quarantinedRows: 50 } };
+const free = {
+  key: 'seedling',
+  name: 'Seedling',
+  monthlyAmount: 0,
+  priceLookupKey: null,
+  limits: { readings: 10, loggers: 1, members: 2, historyDays: 30, quarantinedRows: 5 },
+};
+const paid = {
+  key: 'transect',
+  name: 'Transect',
+  monthlyAmount: 4900,
+  priceLookupKey: 'lagbook-transect-monthly',
+  limits: { readings: 100, loggers: 5, members: 9, historyDays: 365, quarantinedRows: 50 },
+};
 
 describe('plan catalog', () => {
   it('loads the shipped tenants/plans.json with one free plan and paid plans that have lookup keys', () => {
@@ -37,13 +49,17 @@ describe('plan catalog', () => {
   it('refuses duplicate keys, a priced free plan and a negative limit', () => {
     expect(() => parsePlanCatalog({ currency: 'eur', plans: [free, paid, { ...paid }] })).toThrow(/plans\.2\.key: "transect" is used twice/);
     expect(() => parsePlanCatalog({ currency: 'eur', plans: [{ ...free, monthlyAmount: 5 }, paid] })).toThrow(/plans\.0\.monthlyAmount: the free plan costs 0/);
-    expect(() => parsePlanCatalog({ currency: 'eur', plans: [free, { ...paid, limits: { ...paid.limits, readings: -1 } }] })).toThrow(/plans\.1\.limits\.readings/);
+    expect(() => parsePlanCatalog({ currency: 'eur', plans: [free, { ...paid, limits: { ...paid.limits, readings: -1 } }] })).toThrow(
+      /plans\.1\.limits\.readings/,
+    );
   });
 
   it('requires a positive quarantine cap on every plan', () => {
     const { quarantinedRows: _dropped, ...withoutCap } = paid.limits;
     expect(() => parsePlanCatalog({ currency: 'eur', plans: [free, { ...paid, limits: withoutCap }] })).toThrow(/plans\.1\.limits\.quarantinedRows/);
-    expect(() => parsePlanCatalog({ currency: 'eur', plans: [{ ...free, limits: { ...free.limits, quarantinedRows: 0 } }, paid] })).toThrow(/plans\.0\.limits\.quarantinedRows/);
+    expect(() => parsePlanCatalog({ currency: 'eur', plans: [{ ...free, limits: { ...free.limits, quarantinedRows: 0 } }, paid] })).toThrow(
+      /plans\.0\.limits\.quarantinedRows/,
+    );
     expect(loadPlanCatalog('tenants/plans.json').free.limits.quarantinedRows).toBeGreaterThan(0);
   });
 

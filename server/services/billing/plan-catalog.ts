@@ -25,7 +25,10 @@ const planSchema = z.object({
   /** Price per month in the currency's smallest unit (cents); 0 for the free plan. */
   monthlyAmount: z.number().int().min(0),
   /** The Stripe price's lookup key; null for the free plan. */
-  priceLookupKey: z.string().regex(/^[A-Za-z0-9_-]{3,200}$/).nullable(),
+  priceLookupKey: z
+    .string()
+    .regex(/^[A-Za-z0-9_-]{3,200}$/)
+    .nullable(),
   limits: limitsSchema,
 });
 
@@ -36,11 +39,15 @@ export const planCatalogSchema = z
   })
   .superRefine((catalog, ctx) => {
     const free = catalog.plans.filter((p) => p.priceLookupKey === null);
-    if (free.length !== 1) ctx.addIssue({ code: 'custom', path: ['plans'], message: `needs exactly one free plan (priceLookupKey null), found ${free.length}` });
+    if (free.length !== 1)
+      ctx.addIssue({ code: 'custom', path: ['plans'], message: `needs exactly one free plan (priceLookupKey null), found ${free.length}` });
     catalog.plans.forEach((p, i) => {
-      if (p.priceLookupKey === null && p.monthlyAmount !== 0) ctx.addIssue({ code: 'custom', path: ['plans', i, 'monthlyAmount'], message: 'the free plan costs 0' });
-      if (p.priceLookupKey !== null && p.monthlyAmount === 0) ctx.addIssue({ code: 'custom', path: ['plans', i, 'monthlyAmount'], message: 'a paid plan needs a price above 0' });
-      if (catalog.plans.findIndex((q) => q.key === p.key) !== i) ctx.addIssue({ code: 'custom', path: ['plans', i, 'key'], message: `"${p.key}" is used twice` });
+      if (p.priceLookupKey === null && p.monthlyAmount !== 0)
+        ctx.addIssue({ code: 'custom', path: ['plans', i, 'monthlyAmount'], message: 'the free plan costs 0' });
+      if (p.priceLookupKey !== null && p.monthlyAmount === 0)
+        ctx.addIssue({ code: 'custom', path: ['plans', i, 'monthlyAmount'], message: 'a paid plan needs a price above 0' });
+      if (catalog.plans.findIndex((q) => q.key === p.key) !== i)
+        ctx.addIssue({ code: 'custom', path: ['plans', i, 'key'], message: `"${p.key}" is used twice` });
       if (p.priceLookupKey !== null && catalog.plans.findIndex((q) => q.priceLookupKey === p.priceLookupKey) !== i) {
         ctx.addIssue({ code: 'custom', path: ['plans', i, 'priceLookupKey'], message: `"${p.priceLookupKey}" is used twice` });
       }

@@ -52,7 +52,12 @@ export function createPlanLimits(deps: { db: Db; catalog: PlanCatalog; logger: L
       return new PlanLimitError('readings', { planName: plan.name, allowed: plan.limits.readings, used: readings, adding: batch.accepted });
     }
     const growth = batch.quarantined - (batch.replacesQuarantined ?? 0);
-    return new PlanLimitError('quarantinedRows', { planName: plan.name, allowed: plan.limits.quarantinedRows, used: billing?.quarantinedCount ?? 0, adding: growth });
+    return new PlanLimitError('quarantinedRows', {
+      planName: plan.name,
+      allowed: plan.limits.quarantinedRows,
+      used: billing?.quarantinedCount ?? 0,
+      adding: growth,
+    });
   }
 
   return {

@@ -63,7 +63,8 @@ export function createStripeWebhooks(deps: {
       }
       const labId = await resolveLab(db, event);
       const result = await db.transaction(async (trx) => {
-        if (!(await stripeEventsRepo(trx).claim({ id: event.id, type: event.type, created: event.created, tenantId: labId }))) return { outcome: 'duplicate' as const };
+        if (!(await stripeEventsRepo(trx).claim({ id: event.id, type: event.type, created: event.created, tenantId: labId })))
+          return { outcome: 'duplicate' as const };
         if (labId === null) return { outcome: 'unknown-lab' as const };
         const scope = inLab(trx, labId);
         const billing = labBillingRepo(scope);
@@ -94,7 +95,8 @@ export function createStripeWebhooks(deps: {
             details: { from: before.status, to: after.status, event: event.id, graceUntil: after.graceUntil?.toISOString() ?? null },
           });
         }
-        const enteredPastDue = after.status === 'past_due' && before.status !== 'past_due' && after.graceUntil ? { planKey: after.planKey, graceUntil: after.graceUntil } : null;
+        const enteredPastDue =
+          after.status === 'past_due' && before.status !== 'past_due' && after.graceUntil ? { planKey: after.planKey, graceUntil: after.graceUntil } : null;
         return { outcome: 'applied' as const, enteredPastDue };
       });
       if (result.outcome === 'applied' && result.enteredPastDue && labId !== null) {
@@ -102,9 +104,9 @@ export function createStripeWebhooks(deps: {
         const lab = (await labsRepo(db).findById(labId))!;
         const link = `${deps.publicUrl}/labs/${encodeURIComponent(lab.slug)}/billing`;
         // the event is already applied: a mail failure is logged, not answered as an error
-        await mailLabAdmins(db, deps.mailer, labId, (to) => paymentFailedMail({ to, labName: lab.name, planName: catalog.byKey(planKey)?.name ?? planKey, graceUntil, link })).catch(
-          (err: unknown) => deps.logger.warn('payment-failed mail not sent', { labId, err: String(err) }),
-        );
+        await mailLabAdmins(db, deps.mailer, labId, (to) =>
+          paymentFailedMail({ to, labName: lab.name, planName: catalog.byKey(planKey)?.name ?? planKey, graceUntil, link }),
+        ).catch((err: unknown) => deps.logger.warn('payment-failed mail not sent', { labId, err: String(err) }));
       }
       return result.outcome;
     },

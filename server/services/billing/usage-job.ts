@@ -60,7 +60,15 @@ export function createUsageJob(deps: { db: Db; catalog: PlanCatalog; mailer: Mai
     if (level > row.warnedPercent) {
       const link = `${deps.publicUrl}/labs/${lab.slug}/billing`;
       await mailLabAdmins(deps.db, deps.mailer, labId, (to) =>
-        usageWarningMail({ to, labName: lab.name, planName: plan.name, percent: level as 80 | 100, used: counts.readings, allowed: plan.limits.readings, link }),
+        usageWarningMail({
+          to,
+          labName: lab.name,
+          planName: plan.name,
+          percent: level as 80 | 100,
+          used: counts.readings,
+          allowed: plan.limits.readings,
+          link,
+        }),
       );
     }
     if (level !== row.warnedPercent) await billing.setWarnedPercent(level, freePlanKey);

@@ -105,7 +105,12 @@ export class BatchCandidates {
       runs.push({ channelId: slots[r].id, from, to });
     }
 
-    const columns: ReadingBatchColumns = { length: this.length, channelId: new Float64Array(this.length), ts: new Float64Array(this.length), value: new Float64Array(this.length) };
+    const columns: ReadingBatchColumns = {
+      length: this.length,
+      channelId: new Float64Array(this.length),
+      ts: new Float64Array(this.length),
+      value: new Float64Array(this.length),
+    };
     const rowAt = new Int32Array(this.length);
     for (const run of runs) {
       for (let k = run.from; k < run.to; k++) {

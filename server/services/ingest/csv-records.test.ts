@@ -20,7 +20,11 @@ async function fromChunks(chunks: Array<Buffer | string>, delimiter = ','): Prom
 const cell = fc.oneof(fc.constantFrom('air_t', '21,5', '', ' x ', 'a "q"', 'line\nbreak', 'é°C'), fc.string({ maxLength: 8 }));
 const quote = (s: string, d: string) => (s.includes(d) || /["\r\n]/.test(s) || s !== s.trim() ? `"${s.replace(/"/g, '""')}"` : s);
 const csvText = fc
-  .tuple(fc.constantFrom(',', ';', '\t'), fc.constantFrom('\n', '\r\n', '\r'), fc.array(fc.array(cell, { minLength: 1, maxLength: 4 }), { minLength: 1, maxLength: 15 }))
+  .tuple(
+    fc.constantFrom(',', ';', '\t'),
+    fc.constantFrom('\n', '\r\n', '\r'),
+    fc.array(fc.array(cell, { minLength: 1, maxLength: 4 }), { minLength: 1, maxLength: 15 }),
+  )
   .map(([d, nl, rows]) => ({ d, text: rows.map((r) => r.map((c) => quote(c, d)).join(d)).join(nl) + nl }));
 
 describe('readRecords', () => {

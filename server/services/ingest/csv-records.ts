@@ -126,7 +126,8 @@ export async function* csvRecordChunks(input: AsyncIterable<Buffer | string>, de
     }
     const end = completeRecordsEnd(text);
     carry = text.slice(end);
-    if (carry.length > maxRecordChars) throw new ValidationError(`file: a line longer than ${maxRecordChars.toLocaleString('en')} characters (is the delimiter right?)`);
+    if (carry.length > maxRecordChars)
+      throw new ValidationError(`file: a line longer than ${maxRecordChars.toLocaleString('en')} characters (is the delimiter right?)`);
     if (end > 0) yield read(text.slice(0, end));
   }
   const rest = carry + decoder.end();

@@ -71,7 +71,14 @@ export async function importUpload(
 
   const flush = async () => {
     if (batch.length === 0) return;
-    const outcome = await ingestBatch(db, target, batch, { source: 'upload', batchRef, timeFormat: layout.timeFormat, timeZone: layout.timeZone, now: opts.now, hooks: opts.hooks });
+    const outcome = await ingestBatch(db, target, batch, {
+      source: 'upload',
+      batchRef,
+      timeFormat: layout.timeFormat,
+      timeZone: layout.timeZone,
+      now: opts.now,
+      hooks: opts.hooks,
+    });
     summary.accepted += outcome.accepted;
     summary.duplicates += outcome.duplicates;
     summary.quarantined += outcome.quarantined.length;
@@ -82,7 +89,13 @@ export async function importUpload(
     lineOf.clear();
     unreadable = [];
     unreadableCount = 0;
-    onProgress({ lines: summary.lines, readings: summary.readings, accepted: summary.accepted, duplicates: summary.duplicates, quarantined: summary.quarantined });
+    onProgress({
+      lines: summary.lines,
+      readings: summary.readings,
+      accepted: summary.accepted,
+      duplicates: summary.duplicates,
+      quarantined: summary.quarantined,
+    });
   };
 
   // an early stop (a bad header, a refused batch) leaves the request readable, so the answer can still be written
@@ -113,7 +126,14 @@ export async function importUpload(
         const index = summary.readings++;
         lineOf.set(index, line);
         batch.push({ ...r, index, raw });
-        const missing = r.channel === undefined || r.channel === '' ? 'channel: missing' : r.ts === undefined || r.ts === '' ? 'ts: missing' : r.value === undefined || r.value === '' ? 'value: missing' : null;
+        const missing =
+          r.channel === undefined || r.channel === ''
+            ? 'channel: missing'
+            : r.ts === undefined || r.ts === ''
+              ? 'ts: missing'
+              : r.value === undefined || r.value === ''
+                ? 'value: missing'
+                : null;
         if (missing) refuseIfUnreadable(index, line, missing);
       };
       if (layout.format === 'long') {

@@ -29,7 +29,11 @@ const bad = (reason: string): TimeParse => ({ ok: false, reason, code: 'bad_time
 /** A time in epoch ms if the engine can hold it, else a `time_out_of_range` refusal naming the text sent. */
 function inRange(ts: number, sent: string): TimeParse {
   if (Math.abs(ts) > MAX_TIME_MS) {
-    return { ok: false, code: 'time_out_of_range', reason: `ts: "${sent.slice(0, 40)}" is beyond the times that can be stored (±8.64e15 ms from 1970, about ±273,000 years)` };
+    return {
+      ok: false,
+      code: 'time_out_of_range',
+      reason: `ts: "${sent.slice(0, 40)}" is beyond the times that can be stored (±8.64e15 ms from 1970, about ±273,000 years)`,
+    };
   }
   return { ok: true, ts };
 }

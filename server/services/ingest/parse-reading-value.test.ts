@@ -40,10 +40,13 @@ describe('parseReadingValue', () => {
 
   it('reads back every normal double written in shortest form (property)', () => {
     fc.assert(
-      fc.property(fc.double({ noNaN: true, noDefaultInfinity: true }).filter((x) => x === 0 || Math.abs(x) >= 2.2250738585072014e-308), (x) => {
-        const r = parseReadingValue(String(x));
-        expect(r).toEqual({ ok: true, value: x === 0 ? 0 : x }); // String(-0) is "0"
-      }),
+      fc.property(
+        fc.double({ noNaN: true, noDefaultInfinity: true }).filter((x) => x === 0 || Math.abs(x) >= 2.2250738585072014e-308),
+        (x) => {
+          const r = parseReadingValue(String(x));
+          expect(r).toEqual({ ok: true, value: x === 0 ? 0 : x }); // String(-0) is "0"
+        },
+      ),
     );
   });
 });

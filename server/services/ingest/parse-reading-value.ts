@@ -21,7 +21,8 @@ export function parseReadingValue(raw: unknown): ValueParse {
   if (!Number.isFinite(n)) return { ok: false, reason: `value: "${s.slice(0, 40)}" is too large for a double (beyond ±1.8e308)` };
   if (Math.abs(n) < MIN_NORMAL) {
     const mantissa = s.replace(/[eE].*$/, '');
-    if (NONZERO_DIGIT.test(mantissa)) return { ok: false, reason: `value: "${s.slice(0, 40)}" is too small for a double (below 2.2e-308 it would lose digits or become 0)` };
+    if (NONZERO_DIGIT.test(mantissa))
+      return { ok: false, reason: `value: "${s.slice(0, 40)}" is too small for a double (below 2.2e-308 it would lose digits or become 0)` };
   }
   return { ok: true, value: n };
 }

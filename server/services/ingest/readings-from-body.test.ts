@@ -13,7 +13,8 @@ import {
 } from './readings-from-body.ts';
 
 const csvOf = (n: number) => `channel,ts,value\n${Array.from({ length: n }, (_, i) => `air_t,${1796303000000 + i * 1000},${i % 50}`).join('\n')}\n`;
-const jsonOf = (n: number) => JSON.stringify({ readings: Array.from({ length: n }, (_, i) => ({ channel: 'air_t', ts: 1796303000000 + i * 1000, value: i % 50 })) });
+const jsonOf = (n: number) =>
+  JSON.stringify({ readings: Array.from({ length: n }, (_, i) => ({ channel: 'air_t', ts: 1796303000000 + i * 1000, value: i % 50 })) });
 const fields = (rows: Array<{ channel: unknown; ts: unknown; value: unknown }>) => rows.map((r) => [r.channel, r.ts, r.value]);
 const countPauses = () => {
   const counter = { n: 0, pause: async () => void counter.n++ };
@@ -49,12 +50,16 @@ describe('readingsFromCsvBody', () => {
     const cell = fc.oneof(fc.constantFrom('air_t', '21.5', '', ' x ', '1e3'), fc.string({ maxLength: 8 }));
     const quote = (s: string) => (/[",\r\n]/.test(s) || s !== s.trim() ? `"${s.replace(/"/g, '""')}"` : s);
     await fc.assert(
-      fc.asyncProperty(fc.array(fc.array(cell, { minLength: 3, maxLength: 3 }), { minLength: 1, maxLength: 20 }), fc.constantFrom('\n', '\r\n'), async (lines, nl) => {
-        const body = `channel,ts,value${nl}${lines.map((l) => l.map(quote).join(',')).join(nl)}${nl}`;
-        const reference = (parse(body, { relax_column_count: true, skip_empty_lines: true, bom: true, trim: true }) as string[][]).slice(1);
-        const ours = await readingsFromCsvBody(body, { maxQuarantined: Infinity });
-        expect(fields(ours)).toEqual(reference.map((r) => (r.length === 3 ? r : [undefined, undefined, undefined])));
-      }),
+      fc.asyncProperty(
+        fc.array(fc.array(cell, { minLength: 3, maxLength: 3 }), { minLength: 1, maxLength: 20 }),
+        fc.constantFrom('\n', '\r\n'),
+        async (lines, nl) => {
+          const body = `channel,ts,value${nl}${lines.map((l) => l.map(quote).join(',')).join(nl)}${nl}`;
+          const reference = (parse(body, { relax_column_count: true, skip_empty_lines: true, bom: true, trim: true }) as string[][]).slice(1);
+          const ours = await readingsFromCsvBody(body, { maxQuarantined: Infinity });
+          expect(fields(ours)).toEqual(reference.map((r) => (r.length === 3 ? r : [undefined, undefined, undefined])));
+        },
+      ),
       { numRuns: 200 },
     );
   });
@@ -63,7 +68,11 @@ describe('readingsFromCsvBody', () => {
     await expect(readingsFromCsvBody(csvOf(MAX_READINGS_PER_REQUEST))).resolves.toHaveLength(MAX_READINGS_PER_REQUEST);
     const err = await readingsFromCsvBody(csvOf(MAX_READINGS_PER_REQUEST + 1)).catch((e: unknown) => e);
     expect(err).toBeInstanceOf(TooManyReadingsError);
-    expect(err).toMatchObject({ status: 413, code: 'too_many_readings', message: 'body: at most 100,000 readings per request; send the rest in further requests.' });
+    expect(err).toMatchObject({
+      status: 413,
+      code: 'too_many_readings',
+      message: 'body: at most 100,000 readings per request; send the rest in further requests.',
+    });
   });
 
   it('refuses a batch with more unreadable rows than the quarantine cap (422, sample of reasons) within the first slice', async () => {
@@ -93,17 +102,25 @@ describe('readingsFromCsvBody', () => {
 describe('readingsFromJsonBody', () => {
   it('reads the same rows as JSON.parse + readingsFromJson (property)', async () => {
     const item = fc.oneof(
-      fc.record({ channel: fc.oneof(fc.constant('air_t'), fc.string({ maxLength: 6 })), ts: fc.oneof(fc.integer(), fc.string({ maxLength: 6 })), value: fc.oneof(fc.double(), fc.string({ maxLength: 4 })) }),
+      fc.record({
+        channel: fc.oneof(fc.constant('air_t'), fc.string({ maxLength: 6 })),
+        ts: fc.oneof(fc.integer(), fc.string({ maxLength: 6 })),
+        value: fc.oneof(fc.double(), fc.string({ maxLength: 4 })),
+      }),
       fc.jsonValue({ maxDepth: 4 }),
     );
     await fc.assert(
-      fc.asyncProperty(fc.array(item, { maxLength: 30 }), fc.dictionary(fc.string({ maxLength: 5 }), fc.jsonValue({ maxDepth: 3 }), { maxKeys: 3 }), async (readings, extra) => {
-        const body = JSON.stringify({ ...extra, readings });
-        const expected = readingsFromJson(JSON.parse(body), { maxQuarantined: Infinity });
-        expect(await readingsFromJsonBody(Buffer.from(body), { maxQuarantined: Infinity })).toEqual(expected);
-        // and through the sliced path large bodies take
-        expect(await readingsFromJsonBody(Buffer.from(body), { maxQuarantined: Infinity, wholeJsonBytes: 0 })).toEqual(expected);
-      }),
+      fc.asyncProperty(
+        fc.array(item, { maxLength: 30 }),
+        fc.dictionary(fc.string({ maxLength: 5 }), fc.jsonValue({ maxDepth: 3 }), { maxKeys: 3 }),
+        async (readings, extra) => {
+          const body = JSON.stringify({ ...extra, readings });
+          const expected = readingsFromJson(JSON.parse(body), { maxQuarantined: Infinity });
+          expect(await readingsFromJsonBody(Buffer.from(body), { maxQuarantined: Infinity })).toEqual(expected);
+          // and through the sliced path large bodies take
+          expect(await readingsFromJsonBody(Buffer.from(body), { maxQuarantined: Infinity, wholeJsonBytes: 0 })).toEqual(expected);
+        },
+      ),
       { numRuns: 200 },
     );
   });
@@ -114,8 +131,17 @@ describe('readingsFromJsonBody', () => {
   });
 
   it('refuses what JSON.parse refuses, and the wrong shape', async () => {
-    for (const body of ['{"readings":[1,]}', '{"readings":[,1]}', '{"readings":[1,,2]}', '{"readings":[1]', '{"readings":[1]} x', '{"readings":[{"a":1}]', '']) {
-      for (const wholeJsonBytes of [0, undefined]) await expect(readingsFromJsonBody(Buffer.from(body), { wholeJsonBytes }), body).rejects.toThrow('body: not valid JSON');
+    for (const body of [
+      '{"readings":[1,]}',
+      '{"readings":[,1]}',
+      '{"readings":[1,,2]}',
+      '{"readings":[1]',
+      '{"readings":[1]} x',
+      '{"readings":[{"a":1}]',
+      '',
+    ]) {
+      for (const wholeJsonBytes of [0, undefined])
+        await expect(readingsFromJsonBody(Buffer.from(body), { wholeJsonBytes }), body).rejects.toThrow('body: not valid JSON');
     }
     for (const wholeJsonBytes of [0, undefined]) {
       await expect(readingsFromJsonBody(Buffer.from('[{"readings":[]}]'), { wholeJsonBytes })).rejects.toThrow('body: expected {"readings"');
@@ -127,7 +153,10 @@ describe('readingsFromJsonBody', () => {
   it('refuses nesting deeper than the limit with 400 before parsing (5,000 levels overflowed the stack when stringified)', async () => {
     const deep = (d: number) => Buffer.from(`{"readings":[{"channel":"air_t","ts":1,"value":${'['.repeat(d)}${']'.repeat(d)}}]}`);
     for (const wholeJsonBytes of [0, undefined]) {
-      await expect(readingsFromJsonBody(deep(5000), { wholeJsonBytes })).rejects.toMatchObject({ status: 400, message: `body: nested deeper than ${MAX_JSON_DEPTH} levels` });
+      await expect(readingsFromJsonBody(deep(5000), { wholeJsonBytes })).rejects.toMatchObject({
+        status: 400,
+        message: `body: nested deeper than ${MAX_JSON_DEPTH} levels`,
+      });
       await expect(readingsFromJsonBody(deep(MAX_JSON_DEPTH - 2), { wholeJsonBytes })).rejects.toMatchObject({ status: 400 });
       await expect(readingsFromJsonBody(deep(MAX_JSON_DEPTH - 3), { wholeJsonBytes })).resolves.toHaveLength(1);
     }
@@ -138,7 +167,9 @@ describe('readingsFromJsonBody', () => {
   it('refuses more than the readings cap with 413 before parsing any item', async () => {
     await expect(readingsFromJsonBody(Buffer.from(jsonOf(MAX_READINGS_PER_REQUEST)))).resolves.toHaveLength(MAX_READINGS_PER_REQUEST);
     const pauses = countPauses();
-    await expect(readingsFromJsonBody(Buffer.from(`{"readings":[${'0,'.repeat(MAX_READINGS_PER_REQUEST)}0]}`), { pause: pauses.pause, wholeJsonBytes: 0 })).rejects.toBeInstanceOf(TooManyReadingsError);
+    await expect(
+      readingsFromJsonBody(Buffer.from(`{"readings":[${'0,'.repeat(MAX_READINGS_PER_REQUEST)}0]}`), { pause: pauses.pause, wholeJsonBytes: 0 }),
+    ).rejects.toBeInstanceOf(TooManyReadingsError);
     expect(pauses.n).toBe(0);
   });
 

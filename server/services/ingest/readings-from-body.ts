@@ -47,9 +47,19 @@ export class TooManyQuarantinedError extends AppError {
     /** How many rows would have gone to quarantine, when known. */
     count?: number,
   ) {
-    const examples = sample.length ? ` (e.g. ${sample.slice(0, 3).map((s) => `row ${s.index}: ${s.reason}`).join('; ')})` : '';
+    const examples = sample.length
+      ? ` (e.g. ${sample
+          .slice(0, 3)
+          .map((s) => `row ${s.index}: ${s.reason}`)
+          .join('; ')})`
+      : '';
     const counted = count === undefined ? '' : ` (${count.toLocaleString('en')} would go to quarantine)`;
-    super(422, 'too_many_quarantined', `body: more than ${limit.toLocaleString('en')} rows of this batch cannot be read${counted}, so none was stored${examples}. Check what the logger sends.`, { sample });
+    super(
+      422,
+      'too_many_quarantined',
+      `body: more than ${limit.toLocaleString('en')} rows of this batch cannot be read${counted}, so none was stored${examples}. Check what the logger sends.`,
+      { sample },
+    );
   }
 }
 
@@ -58,7 +68,10 @@ class BodyCaps {
   rows = 0;
   private bad = 0;
   private readonly sample: RefusedRow[] = [];
-  constructor(private readonly maxRows: number, private readonly maxBad: number) {}
+  constructor(
+    private readonly maxRows: number,
+    private readonly maxBad: number,
+  ) {}
   row(): void {
     if (++this.rows > this.maxRows) throw new TooManyReadingsError(this.maxRows);
   }
@@ -270,7 +283,8 @@ export async function readingsFromJsonBody(buf: Buffer, limits: BodyLimits = {})
     return readingsFromJson(parseJsonText(buf.toString('utf8')), limits);
   }
   // Everything outside the array must be valid JSON of the right shape (and small).
-  if (buf.length - (span.close - span.open) > OUTSIDE_BYTES) throw new ValidationError(`body: only "readings" may be large (the rest of the body is over ${OUTSIDE_BYTES / 1024} KB)`);
+  if (buf.length - (span.close - span.open) > OUTSIDE_BYTES)
+    throw new ValidationError(`body: only "readings" may be large (the rest of the body is over ${OUTSIDE_BYTES / 1024} KB)`);
   const outside = parseJsonText(`${buf.toString('utf8', 0, span.open)}[]${buf.toString('utf8', span.close + 1)}`);
   if (!outside || typeof outside !== 'object' || Array.isArray(outside)) throw new ValidationError(SHAPE);
   const bounds = [span.open, ...span.commas, span.close];

@@ -46,13 +46,22 @@ describe('alertMail', () => {
     // UTC−4 after; Europe/Berlin as above; Asia/Tokyo is UTC+9 all year.
     const berlin = alertMail({ ...base, kind: 'opened', sequence: 0, timeZone: 'Europe/Berlin', readerTimeZone: 'America/New_York' });
     expect(berlin.text).toContain('at 2026-03-04 15:30:00 Europe/Berlin (your time 2026-03-04 09:30 America/New_York; 14:30 UTC).');
-    const later = alertMail({ ...base, kind: 'reminder', sequence: 1, at: Date.UTC(2026, 2, 10, 14, 30), timeZone: 'Europe/Berlin', readerTimeZone: 'America/New_York' });
+    const later = alertMail({
+      ...base,
+      kind: 'reminder',
+      sequence: 1,
+      at: Date.UTC(2026, 2, 10, 14, 30),
+      timeZone: 'Europe/Berlin',
+      readerTimeZone: 'America/New_York',
+    });
     expect(later.text).toContain('at 2026-03-10 15:30:00 Europe/Berlin (your time 2026-03-10 10:30 America/New_York; 14:30 UTC).');
     // a logger on UTC, a reader in Tokyo: the next calendar day on the reader's clock
     const utc = alertMail({ ...base, kind: 'opened', sequence: 0, at: Date.UTC(2026, 2, 4, 20, 0), readerTimeZone: 'Asia/Tokyo' });
     expect(utc.text).toContain('at 2026-03-04 20:00:00 UTC (your time 2026-03-05 05:00 Asia/Tokyo).');
     // the same zone as the logger's, or none: nothing added
-    expect(alertMail({ ...base, kind: 'opened', sequence: 0, timeZone: 'Europe/Berlin', readerTimeZone: 'Europe/Berlin' }).text).toContain('Europe/Berlin (14:30 UTC).');
+    expect(alertMail({ ...base, kind: 'opened', sequence: 0, timeZone: 'Europe/Berlin', readerTimeZone: 'Europe/Berlin' }).text).toContain(
+      'Europe/Berlin (14:30 UTC).',
+    );
     expect(alertMail({ ...base, kind: 'opened', sequence: 0, readerTimeZone: null }).text).not.toContain('your time');
   });
 

@@ -41,7 +41,10 @@ const isUtc = (zone: string) => zone === 'UTC' || zone === 'Etc/UTC';
  */
 function timeText(ms: number, timeZone: string, readerTimeZone?: string | null): string {
   const utc = `${new Date(ms).toISOString().slice(0, 19).replace('T', ' ')} UTC`;
-  const reader = readerTimeZone && readerTimeZone !== timeZone && !(isUtc(readerTimeZone) && isUtc(timeZone)) ? `your time ${wallClockText(readerTimeZone, ms).slice(0, 16)} ${readerTimeZone}` : null;
+  const reader =
+    readerTimeZone && readerTimeZone !== timeZone && !(isUtc(readerTimeZone) && isUtc(timeZone))
+      ? `your time ${wallClockText(readerTimeZone, ms).slice(0, 16)} ${readerTimeZone}`
+      : null;
   if (isUtc(timeZone)) return reader ? `${utc} (${reader})` : utc;
   const beside = reader ? `${reader}; ${utc.slice(11, 16)} UTC` : `${utc.slice(11, 16)} UTC`;
   return `${wallClockText(timeZone, ms)} ${timeZone} (${beside})`;

@@ -7,14 +7,7 @@ function esc(s: string): string {
 }
 
 /** The invitation e-mail: who invites, to which lab, as what, the link and its expiry. */
-export function invitationMail(input: {
-  to: string;
-  labName: string;
-  role: Role;
-  inviterName: string;
-  link: string;
-  expiresAt: Date;
-}): OutgoingMail {
+export function invitationMail(input: { to: string; labName: string; role: Role; inviterName: string; link: string; expiresAt: Date }): OutgoingMail {
   const role = ROLE_LABELS[input.role];
   const until = input.expiresAt.toISOString().slice(0, 16).replace('T', ' ') + ' UTC';
   const text = [

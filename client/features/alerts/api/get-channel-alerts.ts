@@ -9,7 +9,11 @@ export function getChannelAlerts(slug: string, channelId: number, from: number, 
 }
 
 export const channelAlertsQueryOptions = (slug: string, channelId: number, from: number, to: number) =>
-  queryOptions({ queryKey: [...alertsRootKey(slug), 'channel', channelId, from, to], queryFn: () => getChannelAlerts(slug, channelId, from, to), placeholderData: keepPreviousData });
+  queryOptions({
+    queryKey: [...alertsRootKey(slug), 'channel', channelId, from, to],
+    queryFn: () => getChannelAlerts(slug, channelId, from, to),
+    placeholderData: keepPreviousData,
+  });
 
 /** A channel's alerts over the chart's range (for bands on the readings chart). */
 export function useChannelAlerts(slug: string, channelId: number, range: { from: number; to: number }, enabled = true) {

@@ -10,7 +10,12 @@ export function describeAlertRule(rule: Pick<AlertRule, 'kind' | 'params' | 'wat
     case 'silence':
       return `No reading for more than ${n(p.factor)} × the expected interval`;
     case 'bounds': {
-      const limits = [p.low !== null && p.low !== undefined ? `below ${n(p.low)}${unit}` : null, p.high !== null && p.high !== undefined ? `above ${n(p.high)}${unit}` : null].filter(Boolean).join(' or ');
+      const limits = [
+        p.low !== null && p.low !== undefined ? `below ${n(p.low)}${unit}` : null,
+        p.high !== null && p.high !== undefined ? `above ${n(p.high)}${unit}` : null,
+      ]
+        .filter(Boolean)
+        .join(' or ');
       return `Readings ${limits}${Number(p.holdS) > 0 ? ` for at least ${n(p.holdS)} s` : ''}`;
     }
     case 'rate':

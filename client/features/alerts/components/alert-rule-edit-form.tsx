@@ -28,7 +28,12 @@ export function AlertRuleEditForm({ slug, rule, onDone }: { slug: string; rule: 
   }
 
   return (
-    <form noValidate aria-label={`Change the rule ${rule.name}`} onSubmit={onSubmit} className="grid gap-4 rounded-lg border border-rule bg-card p-3 sm:col-span-2 sm:grid-cols-2">
+    <form
+      noValidate
+      aria-label={`Change the rule ${rule.name}`}
+      onSubmit={onSubmit}
+      className="grid gap-4 rounded-lg border border-rule bg-card p-3 sm:col-span-2 sm:grid-cols-2"
+    >
       <p className="text-sm text-ink-soft sm:col-span-2">
         {KIND_LABELS[rule.kind]} · watches {where}. To watch something else or for another kind, make a new rule.
       </p>
@@ -42,7 +47,11 @@ export function AlertRuleEditForm({ slug, rule, onDone }: { slug: string; rule: 
           Cancel
         </Button>
       </div>
-      {errors.body && <Notice tone="alert" className="sm:col-span-2">{errors.body}</Notice>}
+      {errors.body && (
+        <Notice tone="alert" className="sm:col-span-2">
+          {errors.body}
+        </Notice>
+      )}
     </form>
   );
 }

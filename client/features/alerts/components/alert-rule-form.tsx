@@ -81,8 +81,16 @@ export function AlertRuleForm({ slug, targets, initialChannelId }: { slug: strin
             {create.isPending ? 'Saving…' : 'Make rule'}
           </Button>
         </div>
-        {errors.body && <Notice tone="alert" className="sm:col-span-2">{errors.body}</Notice>}
-        {made && <Notice tone="status" className="sm:col-span-2">{made}</Notice>}
+        {errors.body && (
+          <Notice tone="alert" className="sm:col-span-2">
+            {errors.body}
+          </Notice>
+        )}
+        {made && (
+          <Notice tone="status" className="sm:col-span-2">
+            {made}
+          </Notice>
+        )}
       </form>
     </section>
   );

@@ -36,7 +36,11 @@ describe('changing an alert rule', () => {
     fireEvent.change(screen.getByLabelText(/^Hold time/), { target: { value: '120' } });
     fireEvent.click(screen.getByRole('button', { name: 'Save changes' }));
     await waitFor(() => expect(screen.queryByRole('form', { name: 'Change the rule Cold room too warm' })).toBeNull());
-    expect(api.requests.find((r) => r.method === 'PATCH')?.body).toEqual({ name: 'Cold room too warm', reminderAfterMin: null, params: { low: null, high: 5, holdS: 120 } });
+    expect(api.requests.find((r) => r.method === 'PATCH')?.body).toEqual({
+      name: 'Cold room too warm',
+      reminderAfterMin: null,
+      params: { low: null, high: 5, holdS: 120 },
+    });
   });
 
   it('refuses a change the server schema would refuse without sending it, and shows the server’s own refusals on their field', async () => {

@@ -41,7 +41,13 @@ function RuleItem({ slug, rule, canManage, canSubscribe }: { slug: string; rule:
             <Button size="sm" disabled={update.isPending} onClick={() => update.mutate({ enabled: !rule.enabled })}>
               {rule.enabled ? 'Turn off' : 'Turn on'}
             </Button>
-            <ConfirmButton label="Delete" question={`Delete the rule “${rule.name}”? Its past alerts stay.`} confirmLabel="Delete rule" pending={remove.isPending} onConfirm={() => remove.mutate(undefined)} />
+            <ConfirmButton
+              label="Delete"
+              question={`Delete the rule “${rule.name}”? Its past alerts stay.`}
+              confirmLabel="Delete rule"
+              pending={remove.isPending}
+              onConfirm={() => remove.mutate(undefined)}
+            />
           </>
         )}
       </div>

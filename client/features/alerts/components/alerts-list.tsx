@@ -28,7 +28,19 @@ function AcknowledgeForm({ slug, alert }: { slug: string; alert: Alert }) {
 }
 
 /** Alerts, newest first: what opened each, when, whether it resolved, and who acknowledged it. */
-export function AlertsList({ slug, alerts, channelHref, canAcknowledge, label }: { slug: string; alerts: Alert[]; channelHref: (a: Alert) => string | null; canAcknowledge: boolean; label: string }) {
+export function AlertsList({
+  slug,
+  alerts,
+  channelHref,
+  canAcknowledge,
+  label,
+}: {
+  slug: string;
+  alerts: Alert[];
+  channelHref: (a: Alert) => string | null;
+  canAcknowledge: boolean;
+  label: string;
+}) {
   if (alerts.length === 0) return <p className="text-sm text-ink-soft">None.</p>;
   return (
     <ul aria-label={label} className="grid gap-3">
@@ -45,8 +57,7 @@ export function AlertsList({ slug, alerts, channelHref, canAcknowledge, label }:
               )}
             </p>
             <p className="text-sm">
-              Opened {utc(a.openedAt)}: {a.openedDetail}.
-              {a.resolvedAt !== null && ` Resolved ${utc(a.resolvedAt)}: ${a.resolvedDetail ?? ''}.`}
+              Opened {utc(a.openedAt)}: {a.openedDetail}.{a.resolvedAt !== null && ` Resolved ${utc(a.resolvedAt)}: ${a.resolvedDetail ?? ''}.`}
               {a.remindersSent > 0 && ` Reminders sent: ${a.remindersSent}.`}
             </p>
             {a.acknowledged ? (

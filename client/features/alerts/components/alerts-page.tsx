@@ -31,8 +31,8 @@ export function AlertsPage({
       <div>
         <h2 className="text-2xl font-semibold">Alerts</h2>
         <p className="mt-1 max-w-3xl text-sm text-ink-soft">
-          Rules watch the lab’s channels and loggers; when one fires, everyone subscribed to it is mailed when it opens, while it
-          stays open, and when it resolves.
+          Rules watch the lab’s channels and loggers; when one fires, everyone subscribed to it is mailed when it opens, while it stays open, and when it
+          resolves.
         </p>
       </div>
       {alerts.isPending && <LoadingNote what="Loading alerts…" />}

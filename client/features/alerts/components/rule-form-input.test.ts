@@ -4,7 +4,9 @@ import { checkRuleForm, EMPTY_RULE_FORM, errorsFromServerMessage, formFromRule }
 describe('the rule form', () => {
   it('makes a bounds rule body from the typed fields', () => {
     const r = checkRuleForm({ ...EMPTY_RULE_FORM, name: 'Freezer warm', target: 'channel:12', high: '-15', holdS: '300' });
-    expect(r).toEqual({ input: { name: 'Freezer warm', kind: 'bounds', channelId: 12, params: { low: null, high: -15, holdS: 300 }, reminderAfterMin: null, enabled: true } });
+    expect(r).toEqual({
+      input: { name: 'Freezer warm', kind: 'bounds', channelId: 12, params: { low: null, high: -15, holdS: 300 }, reminderAfterMin: null, enabled: true },
+    });
   });
 
   it('gives the server schema messages per field', () => {
@@ -23,7 +25,10 @@ describe('the rule form', () => {
   });
 
   it('splits server messages into fields', () => {
-    expect(errorsFromServerMessage('params.low: must be below the high limit; name: must not be empty')).toEqual({ 'params.low': 'must be below the high limit', name: 'must not be empty' });
+    expect(errorsFromServerMessage('params.low: must be below the high limit; name: must not be empty')).toEqual({
+      'params.low': 'must be below the high limit',
+      name: 'must not be empty',
+    });
     expect(errorsFromServerMessage('No such channel in this lab.')).toEqual({ body: 'No such channel in this lab.' });
   });
 

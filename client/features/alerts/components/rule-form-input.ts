@@ -38,7 +38,14 @@ export const EMPTY_RULE_FORM: RuleFormState = {
 const text = (v: unknown): string => (typeof v === 'number' && Number.isFinite(v) ? String(v) : '');
 
 /** The form's fields for a rule as stored (the change form starts from these). */
-export function formFromRule(rule: { name: string; kind: RuleFormState['kind']; channelId: number | null; loggerId: number | null; params: Record<string, unknown>; reminderAfterMin: number | null }): RuleFormState {
+export function formFromRule(rule: {
+  name: string;
+  kind: RuleFormState['kind'];
+  channelId: number | null;
+  loggerId: number | null;
+  params: Record<string, unknown>;
+  reminderAfterMin: number | null;
+}): RuleFormState {
   const p = rule.params;
   const direction = p.direction === 'rise' || p.direction === 'fall' ? p.direction : 'either';
   return {

@@ -10,7 +10,10 @@ import { checkRuleForm, errorsFromServerMessage, type RuleFormState } from './ru
 export function useRuleForm(initial: () => RuleFormState) {
   const [f, setF] = useState<RuleFormState>(initial);
   const [errors, setErrors] = useState<Record<string, string>>({});
-  const set = <K extends keyof RuleFormState>(key: K) => (e: { target: { value: string } }) => setF((old) => ({ ...old, [key]: e.target.value as RuleFormState[K] }));
+  const set =
+    <K extends keyof RuleFormState>(key: K) =>
+    (e: { target: { value: string } }) =>
+      setF((old) => ({ ...old, [key]: e.target.value as RuleFormState[K] }));
   const err = (key: string): string | undefined => errors[key];
 
   async function submit(send: (input: CreateAlertRuleInput) => Promise<void>): Promise<void> {

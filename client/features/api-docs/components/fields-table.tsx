@@ -21,7 +21,9 @@ export function FieldsTable({ caption, rows }: { caption: string; rows: FieldRow
                 {row.name}
               </th>
               <td className="py-1.5 pr-3 text-xs text-lichen-dark whitespace-nowrap">{row.type}</td>
-              <td className="py-1.5 pr-3 text-xs whitespace-nowrap">{row.required ? <strong>required</strong> : <span className="text-ink-soft">optional</span>}</td>
+              <td className="py-1.5 pr-3 text-xs whitespace-nowrap">
+                {row.required ? <strong>required</strong> : <span className="text-ink-soft">optional</span>}
+              </td>
               <td className="py-1.5 text-xs">
                 {row.description && <span>{row.description}. </span>}
                 {row.constraints.length > 0 && <span className="text-ink-soft">{row.constraints.join('; ')}</span>}

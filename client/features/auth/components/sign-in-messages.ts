@@ -4,8 +4,7 @@
  */
 export const signInFailureMessages: Record<string, string> = {
   cancelled: 'Sign-in was cancelled at your identity provider. Nothing was changed; you can start again.',
-  state_mismatch:
-    'This sign-in could not be matched to one started in this browser (it may have expired or come from another tab). Please start again.',
+  state_mismatch: 'This sign-in could not be matched to one started in this browser (it may have expired or come from another tab). Please start again.',
   no_email: 'Your identity provider did not share an e-mail address, which Lagbook needs to match you to your lab.',
   provider_error: 'Your identity provider did not complete the sign-in. Try again; if it keeps failing, ask your lab admin.',
 };

@@ -14,8 +14,7 @@ export function SignInPanel({ errorCode, returnTo, signedOut }: { errorCode: str
         <Logo className="mb-6 text-ink" />
         <h1 className="text-2xl font-semibold">Sign in to your lab</h1>
         <p className="mt-2 text-ink-soft">
-          Readings from every logger, and the time structure of every channel: cycles, trends, persistence and
-          shocks that fade.
+          Readings from every logger, and the time structure of every channel: cycles, trends, persistence and shocks that fade.
         </p>
         {failure && (
           <p role="alert" className="mt-5 rounded-lg border border-alert/30 bg-alert/5 p-3 text-sm text-alert">
@@ -27,15 +26,10 @@ export function SignInPanel({ errorCode, returnTo, signedOut }: { errorCode: str
             You are signed out.
           </p>
         )}
-        <a
-          href={serverSignInUrl(returnTo)}
-          className="mt-6 block rounded-lg bg-lichen px-4 py-2.5 text-center font-medium text-paper hover:bg-lichen-dark"
-        >
+        <a href={serverSignInUrl(returnTo)} className="mt-6 block rounded-lg bg-lichen px-4 py-2.5 text-center font-medium text-paper hover:bg-lichen-dark">
           Continue with your institution's account
         </a>
-        <p className="mt-4 text-xs text-ink-soft">
-          Lagbook signs you in through your institution's identity provider; it never sees your password.
-        </p>
+        <p className="mt-4 text-xs text-ink-soft">Lagbook signs you in through your institution's identity provider; it never sees your password.</p>
       </div>
     </div>
   );

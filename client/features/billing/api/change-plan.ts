@@ -14,5 +14,8 @@ export function changePlan(slug: string, input: ChangePlanInput): Promise<PlanCh
 
 export function useChangePlan(slug: string) {
   const client = useQueryClient();
-  return useMutation({ mutationFn: (input: ChangePlanInput) => changePlan(slug, input), onSuccess: () => client.invalidateQueries({ queryKey: billingRootKey(slug) }) });
+  return useMutation({
+    mutationFn: (input: ChangePlanInput) => changePlan(slug, input),
+    onSuccess: () => client.invalidateQueries({ queryKey: billingRootKey(slug) }),
+  });
 }

@@ -11,8 +11,22 @@ afterEach(() => {
 
 // Plans and numbers invented for the test; the JSON shape is the API contract (server/contract/billing.ts).
 const BASE = '/api/v1/labs/fernhollow/billing';
-const FREE: BillingPlan = { key: 'seedling', name: 'Seedling', summary: '', monthlyAmount: 0, paid: false, limits: { readings: 1000, loggers: 3, members: 5, historyDays: 90, quarantinedRows: 200 } };
-const PAID: BillingPlan = { key: 'transect', name: 'Transect', summary: 'More room.', monthlyAmount: 4900, paid: true, limits: { readings: 50000, loggers: 30, members: 25, historyDays: 1095, quarantinedRows: 2000 } };
+const FREE: BillingPlan = {
+  key: 'seedling',
+  name: 'Seedling',
+  summary: '',
+  monthlyAmount: 0,
+  paid: false,
+  limits: { readings: 1000, loggers: 3, members: 5, historyDays: 90, quarantinedRows: 200 },
+};
+const PAID: BillingPlan = {
+  key: 'transect',
+  name: 'Transect',
+  summary: 'More room.',
+  monthlyAmount: 4900,
+  paid: true,
+  limits: { readings: 50000, loggers: 30, members: 25, historyDays: 1095, quarantinedRows: 2000 },
+};
 const overview = (over: Partial<BillingOverview> = {}): BillingOverview => ({
   plan: FREE,
   subscribedPlanKey: 'seedling',
@@ -65,7 +79,10 @@ describe('billing page', () => {
   it('after checkout, says it waits for confirmation and polls until the webhook changed the plan', async () => {
     let calls = 0;
     fakeApi({
-      [`GET ${BASE}`]: () => ({ status: 200, body: ++calls < 2 ? overview() : overview({ plan: PAID, subscribedPlanKey: 'transect', status: 'active', limits: PAID.limits }) }),
+      [`GET ${BASE}`]: () => ({
+        status: 200,
+        body: ++calls < 2 ? overview() : overview({ plan: PAID, subscribedPlanKey: 'transect', status: 'active', limits: PAID.limits }),
+      }),
       [`GET ${BASE}/invoices`]: () => ({ status: 200, body: { invoices: [] } }),
     });
     renderWithProviders(<BillingPage slug="fernhollow" returned="complete" />);
@@ -75,8 +92,22 @@ describe('billing page', () => {
   });
 
   it('switches an active subscription to another paid plan, asks first when the lab is over the new limits, and polls until confirmed', async () => {
-    const BIG: BillingPlan = { key: 'watershed', name: 'Watershed', summary: '', monthlyAmount: 18900, paid: true, limits: { readings: 900000, loggers: 300, members: 150, historyDays: 7300, quarantinedRows: 20000 } };
-    const onBig = overview({ plan: BIG, subscribedPlanKey: 'watershed', status: 'active', limits: BIG.limits, usage: { readings: 60000, loggers: 4, members: 3, quarantinedRows: 0 }, plans: [FREE, PAID, BIG] });
+    const BIG: BillingPlan = {
+      key: 'watershed',
+      name: 'Watershed',
+      summary: '',
+      monthlyAmount: 18900,
+      paid: true,
+      limits: { readings: 900000, loggers: 300, members: 150, historyDays: 7300, quarantinedRows: 20000 },
+    };
+    const onBig = overview({
+      plan: BIG,
+      subscribedPlanKey: 'watershed',
+      status: 'active',
+      limits: BIG.limits,
+      usage: { readings: 60000, loggers: 4, members: 3, quarantinedRows: 0 },
+      plans: [FREE, PAID, BIG],
+    });
     let switched = false;
     const api = fakeApi({
       [`GET ${BASE}`]: () => ({ status: 200, body: switched ? { ...onBig, plan: PAID, subscribedPlanKey: 'transect', limits: PAID.limits } : onBig }),
@@ -86,7 +117,10 @@ describe('billing page', () => {
           return apiError(409, 'plan_too_small', 'The Transect plan allows 50,000 stored readings and the lab has 60,000. Confirm to switch anyway.');
         }
         switched = true;
-        return { status: 202, body: { plan: 'transect', message: 'The switch to the Transect plan is sent; the plan changes as soon as the payment service confirms it.' } };
+        return {
+          status: 202,
+          body: { plan: 'transect', message: 'The switch to the Transect plan is sent; the plan changes as soon as the payment service confirms it.' },
+        };
       },
     });
     renderWithProviders(<BillingPage slug="fernhollow" returned={null} />);
@@ -107,7 +141,17 @@ describe('billing page', () => {
   it('offers no switch while a payment is overdue', async () => {
     const BIG: BillingPlan = { key: 'watershed', name: 'Watershed', summary: '', monthlyAmount: 18900, paid: true, limits: PAID.limits };
     fakeApi({
-      [`GET ${BASE}`]: () => ({ status: 200, body: overview({ plan: PAID, subscribedPlanKey: 'transect', status: 'past_due', graceUntil: '2026-12-20T00:00:00.000Z', limits: PAID.limits, plans: [FREE, PAID, BIG] }) }),
+      [`GET ${BASE}`]: () => ({
+        status: 200,
+        body: overview({
+          plan: PAID,
+          subscribedPlanKey: 'transect',
+          status: 'past_due',
+          graceUntil: '2026-12-20T00:00:00.000Z',
+          limits: PAID.limits,
+          plans: [FREE, PAID, BIG],
+        }),
+      }),
       [`GET ${BASE}/invoices`]: () => ({ status: 200, body: { invoices: [] } }),
     });
     renderWithProviders(<BillingPage slug="fernhollow" returned={null} />);

@@ -17,12 +17,13 @@ function StatusNotice({ overview }: { overview: BillingOverview }) {
   if (overview.status === 'past_due' && overview.graceUntil) {
     return (
       <Notice tone="alert">
-        A payment failed. The {overview.plan.name} plan keeps working until <DateTime iso={overview.graceUntil} dateOnly />; after that the
-        lab falls back to the free plan’s limits (no data is deleted). Pay the open invoice under “Manage payment”.
+        A payment failed. The {overview.plan.name} plan keeps working until <DateTime iso={overview.graceUntil} dateOnly />; after that the lab falls back to
+        the free plan’s limits (no data is deleted). Pay the open invoice under “Manage payment”.
       </Notice>
     );
   }
-  if (overview.status === 'past_due') return <Notice tone="alert">A payment failed and the grace period is over: the free plan’s limits apply until the invoice is paid.</Notice>;
+  if (overview.status === 'past_due')
+    return <Notice tone="alert">A payment failed and the grace period is over: the free plan’s limits apply until the invoice is paid.</Notice>;
   if (overview.status === 'canceled') return <Notice tone="status">The subscription was cancelled: the lab is on the free plan. Nothing was deleted.</Notice>;
   return null;
 }
@@ -62,7 +63,13 @@ export function BillingPage({ slug, returned }: { slug: string; returned: Checko
               <p>
                 Plan: <strong data-testid="current-plan">{data.plan.name}</strong>
                 <span className="ml-2 text-sm text-ink-soft">
-                  {data.status === 'active' ? 'paid, active' : data.status === 'past_due' ? 'payment overdue' : data.status === 'canceled' ? 'subscription cancelled' : 'free'}
+                  {data.status === 'active'
+                    ? 'paid, active'
+                    : data.status === 'past_due'
+                      ? 'payment overdue'
+                      : data.status === 'canceled'
+                        ? 'subscription cancelled'
+                        : 'free'}
                 </span>
               </p>
               <Button disabled={portal.isPending} onClick={() => portal.mutate()}>
@@ -73,8 +80,8 @@ export function BillingPage({ slug, returned }: { slug: string; returned: Checko
             <StatusNotice overview={data} />
             {data.ingestionRefused && (
               <Notice tone="alert">
-                Storage is full: new batches from the loggers are refused (they are told to retry later and keep their readings). Stored data stays
-                readable. Choose a larger plan to accept them again.
+                Storage is full: new batches from the loggers are refused (they are told to retry later and keep their readings). Stored data stays readable.
+                Choose a larger plan to accept them again.
               </Notice>
             )}
           </>
@@ -87,7 +94,12 @@ export function BillingPage({ slug, returned }: { slug: string; returned: Checko
               Usage
             </h3>
             <div className="grid max-w-xl gap-4">
-              <UsageBar label="Stored readings" used={data.usage.readings} allowed={data.limits.readings} note="Counted as batches arrive; recounted exactly every 15 minutes." />
+              <UsageBar
+                label="Stored readings"
+                used={data.usage.readings}
+                allowed={data.limits.readings}
+                note="Counted as batches arrive; recounted exactly every 15 minutes."
+              />
               <UsageBar label="Loggers" used={data.usage.loggers} allowed={data.limits.loggers} />
               <UsageBar label="Members and pending invitations" used={data.usage.members} allowed={data.limits.members} />
               <UsageBar
@@ -98,8 +110,8 @@ export function BillingPage({ slug, returned }: { slug: string; returned: Checko
               />
             </div>
             <p className="text-sm text-ink-soft">
-              Browsing and analysis reach back to <DateTime iso={data.historyStartsAt} dateOnly /> ({data.limits.historyDays} days). Older readings stay
-              stored and come back with a longer plan.
+              Browsing and analysis reach back to <DateTime iso={data.historyStartsAt} dateOnly /> ({data.limits.historyDays} days). Older readings stay stored
+              and come back with a longer plan.
             </p>
             <UsageSparkline points={data.trend} limit={data.limits.readings} />
           </section>

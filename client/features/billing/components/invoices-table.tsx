@@ -22,8 +22,18 @@ export function InvoicesTable({ slug }: { slug: string }) {
       <tbody>
         {invoices.data.invoices.map((i) => (
           <tr key={i.id} className="border-b border-rule/60">
-            <td className="py-1.5 pr-3">{i.hostedUrl ? <a className="text-lichen-dark underline" href={i.hostedUrl}>{i.number ?? i.id}</a> : (i.number ?? i.id)}</td>
-            <td className="py-1.5 pr-3"><DateTime iso={i.created} dateOnly /></td>
+            <td className="py-1.5 pr-3">
+              {i.hostedUrl ? (
+                <a className="text-lichen-dark underline" href={i.hostedUrl}>
+                  {i.number ?? i.id}
+                </a>
+              ) : (
+                (i.number ?? i.id)
+              )}
+            </td>
+            <td className="py-1.5 pr-3">
+              <DateTime iso={i.created} dateOnly />
+            </td>
             <td className="py-1.5 pr-3 text-right tabular-nums">{formatMoney(i.amountDue, i.currency)}</td>
             <td className="py-1.5 pr-3">{i.status === 'paid' ? 'paid' : i.status === 'open' ? 'awaiting payment' : (i.status ?? '—')}</td>
           </tr>

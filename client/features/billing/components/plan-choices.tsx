@@ -55,7 +55,11 @@ export function PlanChoices({ slug, overview }: { slug: string; overview: Billin
         {overview.plans.map((plan) => {
           const current = plan.key === overview.plan.key;
           return (
-            <li key={plan.key} className={`grid gap-2 rounded-lg border p-4 ${current ? 'border-lichen bg-card' : 'border-rule bg-card'}`} aria-label={`${plan.name} plan`}>
+            <li
+              key={plan.key}
+              className={`grid gap-2 rounded-lg border p-4 ${current ? 'border-lichen bg-card' : 'border-rule bg-card'}`}
+              aria-label={`${plan.name} plan`}
+            >
               <div className="flex items-baseline justify-between">
                 <span className="text-lg font-semibold">{plan.name}</span>
                 <span className="tabular-nums">{plan.paid ? `${formatMoney(plan.monthlyAmount, overview.currency)} / month` : 'free'}</span>

@@ -12,7 +12,14 @@ export function UsageBar({ label, used, allowed, note }: { label: string; used: 
           {formatCount(used)} of {formatCount(allowed)} ({share}%)
         </span>
       </div>
-      <div role="meter" aria-label={label} aria-valuemin={0} aria-valuemax={allowed} aria-valuenow={used} className="h-2.5 overflow-hidden rounded-full bg-rule/60">
+      <div
+        role="meter"
+        aria-label={label}
+        aria-valuemin={0}
+        aria-valuemax={allowed}
+        aria-valuenow={used}
+        className="h-2.5 overflow-hidden rounded-full bg-rule/60"
+      >
         <div className={`h-full ${colour}`} style={{ width: `${share}%` }} />
       </div>
       {note && <p className="text-xs text-ink-soft">{note}</p>}

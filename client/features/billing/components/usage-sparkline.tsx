@@ -15,7 +15,14 @@ export function UsageSparkline({ points, limit }: { points: Array<{ day: string;
   const last = points[points.length - 1];
   return (
     <figure className="grid gap-1">
-      <svg viewBox={`0 0 ${width} ${height}`} width={width} height={height} role="img" aria-label={`Stored readings over ${points.length} day(s), latest ${formatCount(last.readings)}`} className="overflow-visible">
+      <svg
+        viewBox={`0 0 ${width} ${height}`}
+        width={width}
+        height={height}
+        role="img"
+        aria-label={`Stored readings over ${points.length} day(s), latest ${formatCount(last.readings)}`}
+        className="overflow-visible"
+      >
         <line x1={0} x2={width} y1={y(limit)} y2={y(limit)} className="stroke-alert" strokeDasharray="4 4" strokeWidth={1} />
         <path d={line} fill="none" className="stroke-lichen" strokeWidth={2} />
         {points.length === 1 && <circle cx={x(0)} cy={y(last.readings)} r={3} className="fill-lichen" />}

@@ -31,7 +31,12 @@ function row(id: number, label: string, status: ChannelStatus, logger: { id: num
 }
 const MAST = { id: 1, name: 'Copse mast' };
 const POND = { id: 2, name: 'Pond buoy' };
-const ROWS = [row(10, 'Air temperature', 'live', MAST, 21.5), row(11, 'Leaf wetness', 'silent', MAST), row(12, 'Water temperature', 'out-of-range', POND, 41), row(13, 'Pond level', 'no-data', POND, null)];
+const ROWS = [
+  row(10, 'Air temperature', 'live', MAST, 21.5),
+  row(11, 'Leaf wetness', 'silent', MAST),
+  row(12, 'Water temperature', 'out-of-range', POND, 41),
+  row(13, 'Pond level', 'no-data', POND, null),
+];
 
 const bodyLabels = () =>
   within(screen.getByRole('table', { name: 'Channels of the lab' }))

@@ -61,8 +61,19 @@ export function ChannelsTable({ slug, rows, now }: { slug: string; rows: Channel
         accessorFn: (c) => c.lastReading?.ts ?? -1,
         cell: ({ row }) => <LastReadingTime reading={row.original.lastReading} timezone={row.original.logger.timezone} now={now} />,
       },
-      { id: 'status', header: 'Status', accessorFn: (c) => STATUS_ORDER[c.status], sortDescFirst: false, cell: ({ row }) => <StatusBadge status={row.original.status} /> },
-      { id: 'spark', header: 'Last 24 h', enableSorting: false, cell: ({ row }) => <Sparkline means={row.original.sparkline.means} unit={row.original.unit} /> },
+      {
+        id: 'status',
+        header: 'Status',
+        accessorFn: (c) => STATUS_ORDER[c.status],
+        sortDescFirst: false,
+        cell: ({ row }) => <StatusBadge status={row.original.status} />,
+      },
+      {
+        id: 'spark',
+        header: 'Last 24 h',
+        enableSorting: false,
+        cell: ({ row }) => <Sparkline means={row.original.sparkline.means} unit={row.original.unit} />,
+      },
     ],
     [slug, now],
   );
@@ -91,9 +102,18 @@ export function ChannelsTable({ slug, rows, now }: { slug: string; rows: Channel
                 const text = flexRender(header.column.columnDef.header, header.getContext());
                 const canSort = header.column.getCanSort();
                 return (
-                  <th key={header.id} scope="col" className="px-3 py-2.5 font-semibold" aria-sort={canSort ? (sorted ? (sorted === 'asc' ? 'ascending' : 'descending') : 'none') : undefined}>
+                  <th
+                    key={header.id}
+                    scope="col"
+                    className="px-3 py-2.5 font-semibold"
+                    aria-sort={canSort ? (sorted ? (sorted === 'asc' ? 'ascending' : 'descending') : 'none') : undefined}
+                  >
                     {canSort ? (
-                      <button type="button" onClick={header.column.getToggleSortingHandler()} className="inline-flex items-center gap-1 rounded uppercase tracking-wide hover:text-ink">
+                      <button
+                        type="button"
+                        onClick={header.column.getToggleSortingHandler()}
+                        className="inline-flex items-center gap-1 rounded uppercase tracking-wide hover:text-ink"
+                      >
                         {text}
                         <span aria-hidden="true" className="font-mono text-amber">
                           {sorted === 'asc' ? '↑' : sorted === 'desc' ? '↓' : '·'}

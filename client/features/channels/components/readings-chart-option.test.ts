@@ -4,7 +4,16 @@ import { outOfRangePoints, readingsSummary } from './readings-chart-option.ts';
 
 // Small invented series (demo values) in the API's documented shapes; expectations worked by hand.
 const T0 = Date.parse('2026-01-10T00:00:00Z');
-const raw: ReadingsSeries = { shape: 'readings', source: 'raw', resolutionS: null, bucketMs: null, from: T0, to: T0 + 4 * 60_000, t: [T0, T0 + 60_000, T0 + 120_000, T0 + 180_000], value: [1, 72, null, -50] };
+const raw: ReadingsSeries = {
+  shape: 'readings',
+  source: 'raw',
+  resolutionS: null,
+  bucketMs: null,
+  from: T0,
+  to: T0 + 4 * 60_000,
+  t: [T0, T0 + 60_000, T0 + 120_000, T0 + 180_000],
+  value: [1, 72, null, -50],
+};
 const buckets: BucketSeries = {
   shape: 'buckets',
   source: 'rollup',

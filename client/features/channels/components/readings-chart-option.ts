@@ -57,13 +57,46 @@ export function readingsChartOption(series: Series, ctx: ReadingsChartContext): 
   const midOffset = zoneOffsetLabel((ctx.range.from + ctx.range.to) / 2, tz);
   const lines: EChartsCoreOption[] = [];
   if (series.shape === 'readings') {
-    lines.push({ name: 'Reading', type: 'line', data: series.t.map((t, i): Point => [t, series.value[i]]), showSymbol: series.t.length < 200, symbolSize: 4, connectNulls: false, lineStyle: { color: LICHEN, width: 1.5 }, itemStyle: { color: LICHEN } });
+    lines.push({
+      name: 'Reading',
+      type: 'line',
+      data: series.t.map((t, i): Point => [t, series.value[i]]),
+      showSymbol: series.t.length < 200,
+      symbolSize: 4,
+      connectNulls: false,
+      lineStyle: { color: LICHEN, width: 1.5 },
+      itemStyle: { color: LICHEN },
+    });
   } else {
     const at = (arr: Array<number | null>) => series.t.map((t, i): Point => [t + series.bucketMs / 2, arr[i]]);
     lines.push(
-      { name: 'Bucket maximum', type: 'line', data: at(series.max), showSymbol: false, connectNulls: false, lineStyle: { color: ENVELOPE, width: 1 }, itemStyle: { color: ENVELOPE } },
-      { name: 'Bucket minimum', type: 'line', data: at(series.min), showSymbol: false, connectNulls: false, lineStyle: { color: ENVELOPE, width: 1 }, itemStyle: { color: ENVELOPE } },
-      { name: 'Bucket mean', type: 'line', data: at(series.mean), showSymbol: false, connectNulls: false, lineStyle: { color: LICHEN, width: 1.5 }, itemStyle: { color: LICHEN } },
+      {
+        name: 'Bucket maximum',
+        type: 'line',
+        data: at(series.max),
+        showSymbol: false,
+        connectNulls: false,
+        lineStyle: { color: ENVELOPE, width: 1 },
+        itemStyle: { color: ENVELOPE },
+      },
+      {
+        name: 'Bucket minimum',
+        type: 'line',
+        data: at(series.min),
+        showSymbol: false,
+        connectNulls: false,
+        lineStyle: { color: ENVELOPE, width: 1 },
+        itemStyle: { color: ENVELOPE },
+      },
+      {
+        name: 'Bucket mean',
+        type: 'line',
+        data: at(series.mean),
+        showSymbol: false,
+        connectNulls: false,
+        lineStyle: { color: LICHEN, width: 1.5 },
+        itemStyle: { color: LICHEN },
+      },
     );
   }
   const limits = [
@@ -73,7 +106,13 @@ export function readingsChartOption(series: Series, ctx: ReadingsChartContext): 
   if (limits.length > 0) {
     lines[lines.length - 1] = {
       ...lines[lines.length - 1],
-      markLine: { silent: true, symbol: 'none', lineStyle: { color: AMBER, type: 'dashed' }, label: { formatter: '{b}: {c}', position: 'insideEndTop' }, data: limits },
+      markLine: {
+        silent: true,
+        symbol: 'none',
+        lineStyle: { color: AMBER, type: 'dashed' },
+        label: { formatter: '{b}: {c}', position: 'insideEndTop' },
+        data: limits,
+      },
     };
   }
   const outside = outOfRangePoints(series, ctx.validMin, ctx.validMax);
@@ -88,7 +127,9 @@ export function readingsChartOption(series: Series, ctx: ReadingsChartContext): 
     tooltip: {
       trigger: 'axis',
       valueFormatter: (v: unknown) => (typeof v === 'number' ? `${Number(v.toPrecision(6))}${unit}` : '—'),
-      axisPointer: { label: { formatter: (p: { value: unknown }) => `${formatZoned(Number(p.value), tz, { seconds: true })} ${zoneOffsetLabel(Number(p.value), tz)}` } },
+      axisPointer: {
+        label: { formatter: (p: { value: unknown }) => `${formatZoned(Number(p.value), tz, { seconds: true })} ${zoneOffsetLabel(Number(p.value), tz)}` },
+      },
     },
     xAxis: {
       type: 'time',

@@ -36,7 +36,9 @@ const CHANNEL = {
 
 function Harness() {
   const [view, setView] = useState<{ range: TimeRange; preset: RangePreset | null }>({ range: { from: T0, to: T0 + DAY }, preset: '24h' });
-  return <ReadingsPanel slug="canopy" channel={CHANNEL} range={view.range} preset={view.preset} onRange={(range, preset) => setView({ range, preset })} canExport />;
+  return (
+    <ReadingsPanel slug="canopy" channel={CHANNEL} range={view.range} preset={view.preset} onRange={(range, preset) => setView({ range, preset })} canExport />
+  );
 }
 
 describe('ReadingsPanel', () => {
@@ -45,26 +47,41 @@ describe('ReadingsPanel', () => {
       'GET /api/v1/labs/canopy/channels/7/series': (req) => {
         const q = new URL(req.path, 'http://x').searchParams;
         const from = Number(q.get('from'));
-        return { status: 200, body: { series: { shape: 'readings', source: 'raw', from, to: Number(q.get('to')), t: [from, from + 60_000], value: [20, 50] } } };
+        return {
+          status: 200,
+          body: { series: { shape: 'readings', source: 'raw', from, to: Number(q.get('to')), t: [from, from + 60_000], value: [20, 50] } },
+        };
       },
     });
     renderWithProviders(<Harness />);
     const caption = await screen.findByText(/^2 readings from/);
     // Asia/Kolkata is UTC+05:30 all year (IANA tzdata): 00:00 UTC reads 05:30.
-    expect(caption.textContent).toBe('2 readings from 2026-06-01 05:30 to 2026-06-02 05:30 (Asia/Kolkata, UTC+05:30); lowest 20 °C, highest 50 °C; 1 outside the valid range.');
+    expect(caption.textContent).toBe(
+      '2 readings from 2026-06-01 05:30 to 2026-06-02 05:30 (Asia/Kolkata, UTC+05:30); lowest 20 °C, highest 50 °C; 1 outside the valid range.',
+    );
     expect(api.requests[0].path).toBe(`/api/v1/labs/canopy/channels/7/series?from=${T0}&to=${T0 + DAY}&points=2000`);
-    expect(screen.getByRole('link', { name: 'Download readings of this range (CSV)' }).getAttribute('href')).toBe(`/api/v1/labs/canopy/channels/7/readings.csv?from=${T0}&to=${T0 + DAY}`);
+    expect(screen.getByRole('link', { name: 'Download readings of this range (CSV)' }).getAttribute('href')).toBe(
+      `/api/v1/labs/canopy/channels/7/readings.csv?from=${T0}&to=${T0 + DAY}`,
+    );
     await vi.waitFor(() => expect(document.querySelector('figure')?.dataset.chartReady).toBe('true'));
 
     // The slider reports percentages; the middle half of the day is asked for at full detail.
     fake.module!.emitters[0]('datazoom', { start: 25, end: 75 });
-    await vi.waitFor(() => expect(api.requests.at(-1)!.path).toBe(`/api/v1/labs/canopy/channels/7/series?from=${T0 + DAY / 4}&to=${T0 + (3 * DAY) / 4}&points=2000`), { timeout: 5000 });
+    await vi.waitFor(
+      () => expect(api.requests.at(-1)!.path).toBe(`/api/v1/labs/canopy/channels/7/series?from=${T0 + DAY / 4}&to=${T0 + (3 * DAY) / 4}&points=2000`),
+      { timeout: 5000 },
+    );
     expect(screen.getByRole('button', { name: '24 h' }).getAttribute('aria-pressed')).toBe('false');
     expect((screen.getByLabelText('From (Asia/Kolkata)') as HTMLInputElement).value).toBe('2026-06-01T11:30');
   });
 
   it('applies a custom range typed on the logger’s clock and refuses a reversed one', async () => {
-    const api = fakeApi({ 'GET /api/v1/labs/canopy/channels/7/series': () => ({ status: 200, body: { series: { shape: 'readings', source: 'raw', from: 0, to: 1, t: [], value: [] } } }) });
+    const api = fakeApi({
+      'GET /api/v1/labs/canopy/channels/7/series': () => ({
+        status: 200,
+        body: { series: { shape: 'readings', source: 'raw', from: 0, to: 1, t: [], value: [] } },
+      }),
+    });
     renderWithProviders(<Harness />);
     await screen.findByText(/^No readings from/);
     fireEvent.change(screen.getByLabelText('From (Asia/Kolkata)'), { target: { value: '2026-06-03T05:30' } });
@@ -78,7 +95,12 @@ describe('ReadingsPanel', () => {
 
   it('says where the plan’s history window cut the range, and that older readings are kept', async () => {
     const cut = T0 + DAY / 2;
-    fakeApi({ 'GET /api/v1/labs/canopy/channels/7/series': () => ({ status: 200, body: { historyStartsAt: cut, series: { shape: 'readings', source: 'raw', from: cut, to: T0 + DAY, t: [], value: [] } } }) });
+    fakeApi({
+      'GET /api/v1/labs/canopy/channels/7/series': () => ({
+        status: 200,
+        body: { historyStartsAt: cut, series: { shape: 'readings', source: 'raw', from: cut, to: T0 + DAY, t: [], value: [] } },
+      }),
+    });
     renderWithProviders(<Harness />);
     const note = await screen.findByText(/plan shows readings from/);
     expect(note.textContent).toContain('from 2026-06-01 on; older readings are kept');

@@ -31,7 +31,10 @@ export function withBands(option: EChartsCoreOption, bands: readonly ChartBand[]
     name: `Alert: ${b.label}`,
     type: 'line',
     yAxisIndex: yAxes.length,
-    data: [[b.from, 1], [b.to, 1]],
+    data: [
+      [b.from, 1],
+      [b.to, 1],
+    ],
     showSymbol: false,
     lineStyle: { width: 0 },
     itemStyle: { color: 'rgba(178, 58, 42, 0.5)' },
@@ -100,8 +103,8 @@ export function ReadingsPanel({
       <RangePicker range={range} preset={preset} timezone={channel.logger.timezone} onChange={onRange} />
       {series.data?.historyStartsAt != null && (
         <Notice tone="status">
-          The lab’s plan shows readings from {new Date(series.data.historyStartsAt).toISOString().slice(0, 10)} on; older readings are kept and come
-          back with a plan that keeps more history.
+          The lab’s plan shows readings from {new Date(series.data.historyStartsAt).toISOString().slice(0, 10)} on; older readings are kept and come back with a
+          plan that keeps more history.
         </Notice>
       )}
       {series.isError ? (
@@ -110,7 +113,14 @@ export function ReadingsPanel({
         <LoadingNote what="Loading readings…" />
       ) : (
         <div aria-busy={series.isFetching} className={series.isPlaceholderData ? 'opacity-60' : ''}>
-          <EChart option={option} label={`Readings of ${channel.label}`} summary={readingsSummary(data, ctx)} height={360} pngName={`${slug}-${channel.key}-readings`} onZoom={onZoom} />
+          <EChart
+            option={option}
+            label={`Readings of ${channel.label}`}
+            summary={readingsSummary(data, ctx)}
+            height={360}
+            pngName={`${slug}-${channel.key}-readings`}
+            onZoom={onZoom}
+          />
           <p className="mt-1 text-xs text-ink-soft">Scroll or drag the slider to zoom; the zoomed range is fetched again at full detail.</p>
         </div>
       )}

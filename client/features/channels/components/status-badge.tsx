@@ -11,7 +11,12 @@ interface StatusLook {
 
 /** Lagbook's own status marks: a filled disc, an open ring, a warning triangle, a dash. */
 export const STATUS_LOOKS: Record<ChannelStatus, StatusLook> = {
-  live: { label: 'Live', meaning: 'readings arrive as expected and the last value lies in the valid range', tone: 'text-lichen-dark border-lichen/40 bg-lichen/10', shape: 'disc' },
+  live: {
+    label: 'Live',
+    meaning: 'readings arrive as expected and the last value lies in the valid range',
+    tone: 'text-lichen-dark border-lichen/40 bg-lichen/10',
+    shape: 'disc',
+  },
   silent: {
     label: 'Silent',
     meaning: 'no reading for more than 3 × the expected interval',
@@ -42,7 +47,11 @@ function StatusShape({ shape }: { shape: StatusLook['shape'] }) {
 export function StatusBadge({ status }: { status: ChannelStatus }) {
   const look = STATUS_LOOKS[status];
   return (
-    <span title={look.meaning} data-status={status} className={`inline-flex items-center gap-1.5 whitespace-nowrap rounded-md border px-2 py-0.5 text-xs font-medium ${look.tone}`}>
+    <span
+      title={look.meaning}
+      data-status={status}
+      className={`inline-flex items-center gap-1.5 whitespace-nowrap rounded-md border px-2 py-0.5 text-xs font-medium ${look.tone}`}
+    >
       <StatusShape shape={look.shape} />
       {look.label}
     </span>

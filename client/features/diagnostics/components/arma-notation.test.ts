@@ -13,7 +13,18 @@ describe('ARMA notation', () => {
   });
 
   it('lists φ, θ and μ with their standard errors in order', () => {
-    const m = { p: 1, q: 1, ar: [0.82], ma: [-0.3], mean: 21.5, standardErrors: { ar: [0.031], ma: [0.05], mean: 0.4 }, sigma2: 0.1, logLik: -10, aicc: 28, converged: true };
+    const m = {
+      p: 1,
+      q: 1,
+      ar: [0.82],
+      ma: [-0.3],
+      mean: 21.5,
+      standardErrors: { ar: [0.031], ma: [0.05], mean: 0.4 },
+      sigma2: 0.1,
+      logLik: -10,
+      aicc: 28,
+      converged: true,
+    };
     expect(coefficientRows(m).map((r) => [r.symbol, r.estimate, r.standardError])).toEqual([
       ['φ₁', 0.82, 0.031],
       ['θ₁', -0.3, 0.05],

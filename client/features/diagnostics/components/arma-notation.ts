@@ -32,8 +32,12 @@ export interface CoefficientRow {
  */
 export function coefficientRows(m: ArmaFitSummary): CoefficientRow[] {
   const rows: CoefficientRow[] = [];
-  m.ar.forEach((v, i) => rows.push({ symbol: `φ${subscript(i + 1)}`, name: `autoregressive, lag ${i + 1}`, estimate: v, standardError: m.standardErrors.ar[i] ?? null }));
-  m.ma.forEach((v, i) => rows.push({ symbol: `θ${subscript(i + 1)}`, name: `moving average, lag ${i + 1}`, estimate: v, standardError: m.standardErrors.ma[i] ?? null }));
+  m.ar.forEach((v, i) =>
+    rows.push({ symbol: `φ${subscript(i + 1)}`, name: `autoregressive, lag ${i + 1}`, estimate: v, standardError: m.standardErrors.ar[i] ?? null }),
+  );
+  m.ma.forEach((v, i) =>
+    rows.push({ symbol: `θ${subscript(i + 1)}`, name: `moving average, lag ${i + 1}`, estimate: v, standardError: m.standardErrors.ma[i] ?? null }),
+  );
   if (m.mean !== null) rows.push({ symbol: 'μ', name: 'mean', estimate: m.mean, standardError: m.standardErrors.mean });
   return rows;
 }

@@ -61,10 +61,18 @@ export function ComparisonResult({ answer, timezone }: { answer: ComparisonAnswe
         <caption className="mb-1 text-left text-sm font-semibold">{level} intervals for the difference of means</caption>
         <thead className="border-b border-rule text-xs uppercase tracking-wide text-ink-soft">
           <tr>
-            <th scope="col" className={TH}>Standard error</th>
-            <th scope="col" className={TH}>SE{u && ` (${unit})`}</th>
-            <th scope="col" className={TH}>df</th>
-            <th scope="col" className="py-1">Interval</th>
+            <th scope="col" className={TH}>
+              Standard error
+            </th>
+            <th scope="col" className={TH}>
+              SE{u && ` (${unit})`}
+            </th>
+            <th scope="col" className={TH}>
+              df
+            </th>
+            <th scope="col" className="py-1">
+              Interval
+            </th>
           </tr>
         </thead>
         <tbody>
@@ -76,12 +84,24 @@ export function ComparisonResult({ answer, timezone }: { answer: ComparisonAnswe
         <caption className="mb-1 text-left text-sm font-semibold">The two ranges (times on the logger’s clock, {timezone})</caption>
         <thead className="border-b border-rule text-xs uppercase tracking-wide text-ink-soft">
           <tr>
-            <th scope="col" className={TH}>Range</th>
-            <th scope="col" className={TH}>Values (n)</th>
-            <th scope="col" className={TH}>Effective n</th>
-            <th scope="col" className={TH}>Autocorrelation time τ (steps)</th>
-            <th scope="col" className={TH}>Mean{u && ` (${unit})`}</th>
-            <th scope="col" className="py-1">SD</th>
+            <th scope="col" className={TH}>
+              Range
+            </th>
+            <th scope="col" className={TH}>
+              Values (n)
+            </th>
+            <th scope="col" className={TH}>
+              Effective n
+            </th>
+            <th scope="col" className={TH}>
+              Autocorrelation time τ (steps)
+            </th>
+            <th scope="col" className={TH}>
+              Mean{u && ` (${unit})`}
+            </th>
+            <th scope="col" className="py-1">
+              SD
+            </th>
           </tr>
         </thead>
         <tbody>

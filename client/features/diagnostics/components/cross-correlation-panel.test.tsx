@@ -28,7 +28,14 @@ const PATH = 'GET /api/v1/labs/fernhollow/channels/5/diagnostics';
 
 function renderPanel() {
   return renderWithProviders(
-    <CrossCorrelationPanel slug="fernhollow" channelId={5} channelLabel="Soil moisture" chartRange={{ from: FROM, to: TO }} partners={[{ id: 9, label: 'Irrigation flow', loggerName: 'Pump house' }]} stepS={300} />,
+    <CrossCorrelationPanel
+      slug="fernhollow"
+      channelId={5}
+      channelLabel="Soil moisture"
+      chartRange={{ from: FROM, to: TO }}
+      partners={[{ id: 9, label: 'Irrigation flow', loggerName: 'Pump house' }]}
+      stepS={300}
+    />,
   );
 }
 
@@ -94,7 +101,9 @@ describe('CrossCorrelationPanel', () => {
     fakeApi({ [PATH]: () => ({ status: 200, body: { ...REPORT, crossCorrelation: raw } }) });
     renderPanel();
     fireEvent.click(screen.getByRole('button', { name: 'Cross-correlate' }));
-    expect((await screen.findByTestId('ccf-method')).textContent).toBe('Raw cross-correlation (not prewhitened): it is not a test of a relation between autocorrelated series.');
+    expect((await screen.findByTestId('ccf-method')).textContent).toBe(
+      'Raw cross-correlation (not prewhitened): it is not a test of a relation between autocorrelated series.',
+    );
     expect(screen.getByRole('img', { name: 'Raw cross-correlation of Soil moisture with Irrigation flow' })).toBeTruthy();
     expect(screen.queryByLabelText('Show the raw cross-correlation beside it')).toBeNull();
   });

@@ -207,8 +207,8 @@ export function CrossCorrelationPanel({
             <div className="rounded-lg border border-rule bg-paper p-3" data-testid="ccf-raw">
               <p className="text-sm font-medium">Raw cross-correlation — not a test of a relation between autocorrelated series</p>
               <p className="text-xs text-ink-soft">
-                Both series as logged, without the filter. When either series carries over from one step to the next, its band ±{ccf.raw.band.toFixed(3)} is far too
-                narrow and peaks appear where there is no relation. Shown for comparison only.
+                Both series as logged, without the filter. When either series carries over from one step to the next, its band ±{ccf.raw.band.toFixed(3)} is far
+                too narrow and peaks appear where there is no relation. Shown for comparison only.
               </p>
               <EChart
                 option={rawOption}

@@ -34,7 +34,9 @@ describe('observedFromParts', () => {
     };
     // cell 5 held no reading; the value at index 1 is cell 5, the one at index 2 is cell 9
     expect(observedFromParts(d, [5])).toEqual([11, null, 11.5]);
-    const option = decompositionChartOption(d, { start: 1_000, stepMs: 60_000, emptyCells: [] }, 'UTC') as { series: Array<{ data: Array<[number, number | null]> }> };
+    const option = decompositionChartOption(d, { start: 1_000, stepMs: 60_000, emptyCells: [] }, 'UTC') as {
+      series: Array<{ data: Array<[number, number | null]> }>;
+    };
     expect(option.series[1].data).toEqual([
       [1_000, 10],
       [1_000 + 5 * 60_000, 11],

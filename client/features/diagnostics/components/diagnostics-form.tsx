@@ -111,7 +111,14 @@ export function DiagnosticsForm({
         )}
       </fieldset>
       <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
-        <TextField label="Resampling step (s)" inputMode="numeric" placeholder="channel interval" hint="Empty: the channel’s expected interval." value={d.step} onChange={(e) => set('step', e.target.value)} />
+        <TextField
+          label="Resampling step (s)"
+          inputMode="numeric"
+          placeholder="channel interval"
+          hint="Empty: the channel’s expected interval."
+          value={d.step}
+          onChange={(e) => set('step', e.target.value)}
+        />
         <AggregateSelect value={d.agg} onChange={(agg) => set('agg', agg)} />
         <SelectField label="Differencing" value={d.difference} onChange={(e) => set('difference', e.target.value)}>
           <option value="0">none</option>
@@ -122,15 +129,20 @@ export function DiagnosticsForm({
           <option value="0">none</option>
           <option value="1">once (lag = period)</option>
         </SelectField>
-        <TextField label="Max lag" inputMode="numeric" placeholder="auto" hint="Empty: 10·log10(n), raised to two periods." value={d.maxLag} onChange={(e) => set('maxLag', e.target.value)} />
+        <TextField
+          label="Max lag"
+          inputMode="numeric"
+          placeholder="auto"
+          hint="Empty: 10·log10(n), raised to two periods."
+          value={d.maxLag}
+          onChange={(e) => set('maxLag', e.target.value)}
+        />
         <SelectField label="Seasonal period" value={d.periodMode} onChange={(e) => set('periodMode', e.target.value as Draft['periodMode'])}>
           <option value="auto">detect automatically</option>
           <option value="manual">set by hand</option>
           <option value="none">no season</option>
         </SelectField>
-        {d.periodMode === 'manual' && (
-          <TextField label="Period (steps)" inputMode="numeric" value={d.period} onChange={(e) => set('period', e.target.value)} />
-        )}
+        {d.periodMode === 'manual' && <TextField label="Period (steps)" inputMode="numeric" value={d.period} onChange={(e) => set('period', e.target.value)} />}
         <SelectField label="Decomposition" value={d.decomposition} onChange={(e) => set('decomposition', e.target.value as Draft['decomposition'])}>
           <option value="stl">STL</option>
           <option value="stl-robust">STL, robust</option>

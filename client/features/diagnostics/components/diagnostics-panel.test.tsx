@@ -18,7 +18,9 @@ afterEach(() => {
 });
 
 function renderPanel() {
-  return renderWithProviders(<DiagnosticsPanel slug="fernhollow" channelId={5} channelKey="soil_vwc" timezone="UTC" chartRange={{ from: FROM, to: TO }} canExport />);
+  return renderWithProviders(
+    <DiagnosticsPanel slug="fernhollow" channelId={5} channelKey="soil_vwc" timezone="UTC" chartRange={{ from: FROM, to: TO }} canExport />,
+  );
 }
 
 describe('DiagnosticsPanel', () => {
@@ -44,7 +46,9 @@ describe('DiagnosticsPanel', () => {
     expect(screen.getByTestId('ess').textContent).toContain('504');
     expect(screen.getByTestId('no-decomposition').textContent).toBe('No decomposition: no seasonal period');
     expect(screen.getByTestId('cached').textContent).toMatch(/result cache/);
-    expect(screen.getByRole('link', { name: 'Download diagnostics (CSV)' }).getAttribute('href')).toBe(api.requests[0].path.replace('/diagnostics?', '/diagnostics.csv?'));
+    expect(screen.getByRole('link', { name: 'Download diagnostics (CSV)' }).getAttribute('href')).toBe(
+      api.requests[0].path.replace('/diagnostics?', '/diagnostics.csv?'),
+    );
     // Both correlograms are drawn, each with its text alternative.
     await vi.waitFor(() => expect(document.querySelectorAll('figure[data-chart-ready="true"]').length).toBe(2));
     expect(screen.getByRole('img', { name: 'Autocorrelation function (ACF)' })).toBeTruthy();
@@ -67,7 +71,9 @@ describe('DiagnosticsPanel', () => {
     expect((await screen.findByTestId('process-model-chosen')).textContent).toBe('AR(1)(1, 0)');
     expect(screen.getByTestId('verdict-model').textContent).toBe('remainder: AR(1): φ₁ = 0.821 ± 0.031');
     const coefs = screen.getByRole('table', { name: /Estimated coefficients/ });
-    const coefRows = within(coefs).getAllByRole('row').map((r) => r.textContent);
+    const coefRows = within(coefs)
+      .getAllByRole('row')
+      .map((r) => r.textContent);
     expect(coefRows[1]).toBe('φ₁ autoregressive, lag 10.8213± 0.0312');
     expect(coefRows[2]).toBe('μ mean21.42 %± 0.587');
     expect(coefRows[3]).toBe('σ² innovation variance0.0441');

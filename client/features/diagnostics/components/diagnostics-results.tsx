@@ -15,11 +15,17 @@ export function DiagnosticsResults({ report, timezone, pngPrefix }: { report: Di
   return (
     <div className="grid gap-6" data-testid="diagnostics-results">
       <p className="text-sm text-ink-soft">
-        {s.n.toLocaleString('en')} steps of {report.method.resolved.stepS} s from {s.readings.toLocaleString('en')} readings; {s.missing.toLocaleString('en')} empty steps.
-        Analysed after differencing: {report.analysed.n.toLocaleString('en')} values.
+        {s.n.toLocaleString('en')} steps of {report.method.resolved.stepS} s from {s.readings.toLocaleString('en')} readings; {s.missing.toLocaleString('en')}{' '}
+        empty steps. Analysed after differencing: {report.analysed.n.toLocaleString('en')} values.
       </p>
       <IdentificationBlock identification={report.identification} stepS={report.method.resolved.stepS} />
-      <ProcessModelBlock model={report.processModel} stepS={report.method.resolved.stepS} alpha={report.bands.alpha} unit={report.channel.unit} timezone={timezone} />
+      <ProcessModelBlock
+        model={report.processModel}
+        stepS={report.method.resolved.stepS}
+        alpha={report.bands.alpha}
+        unit={report.channel.unit}
+        timezone={timezone}
+      />
       <CorrelogramCharts report={report} pngPrefix={pngPrefix} />
       <div className="grid gap-6 lg:grid-cols-2">
         <LjungBoxTable rows={report.ljungBox} alpha={report.bands.alpha} />

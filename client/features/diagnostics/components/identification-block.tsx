@@ -14,7 +14,16 @@ const list = (v: unknown) => (Array.isArray(v) && v.length ? v.join(', ') : 'non
 
 /** The engine's process identification: the verdict with its order, the plain-language explanation and the evidence behind it. */
 export function IdentificationBlock({ identification: id, stepS }: { identification: DiagnosticsReport['identification']; stepS: number }) {
-  const order = id.verdict === 'ar' ? `AR(${id.p})` : id.verdict === 'ma' ? `MA(${id.q})` : id.verdict === 'arma' ? `ARMA(${id.p}, ${id.q})` : id.verdict === 'seasonal' ? `period ${id.period} steps` : null;
+  const order =
+    id.verdict === 'ar'
+      ? `AR(${id.p})`
+      : id.verdict === 'ma'
+        ? `MA(${id.q})`
+        : id.verdict === 'arma'
+          ? `ARMA(${id.p}, ${id.q})`
+          : id.verdict === 'seasonal'
+            ? `period ${id.period} steps`
+            : null;
   const e = id.evidence;
   const unitRoot = e.unitRoot;
   return (
@@ -50,7 +59,9 @@ export function IdentificationBlock({ identification: id, stepS }: { identificat
           </dd>
           <dt className="text-ink-soft">Augmented Dickey–Fuller</dt>
           <dd className="font-mono">
-            {unitRoot ? `t = ${unitRoot.statistic.toFixed(3)} (5% critical ${unitRoot.criticalValues['5%'].toFixed(3)}); ${unitRoot.rejectsUnitRoot ? 'unit root rejected' : 'unit root not rejected'}` : 'series too short'}
+            {unitRoot
+              ? `t = ${unitRoot.statistic.toFixed(3)} (5% critical ${unitRoot.criticalValues['5%'].toFixed(3)}); ${unitRoot.rejectsUnitRoot ? 'unit root rejected' : 'unit root not rejected'}`
+              : 'series too short'}
           </dd>
           <dt className="text-ink-soft">Period</dt>
           <dd className="font-mono">{e.period === null ? 'none' : `${String(e.period)} steps (${Number(e.period) * stepS} s)`}</dd>

@@ -8,11 +8,21 @@ export function LjungBoxTable({ rows, alpha }: { rows: LjungBoxRow[]; alpha: num
       <caption className="mb-1 text-left text-sm font-semibold">Ljung–Box tests (H₀: no autocorrelation up to the lag)</caption>
       <thead className="border-b border-rule text-xs uppercase tracking-wide text-ink-soft">
         <tr>
-          <th scope="col" className="py-1 pr-3">Lag</th>
-          <th scope="col" className="py-1 pr-3">Q</th>
-          <th scope="col" className="py-1 pr-3">df</th>
-          <th scope="col" className="py-1 pr-3">p-value</th>
-          <th scope="col" className="py-1">At <span className="normal-case">α</span> = {alpha}</th>
+          <th scope="col" className="py-1 pr-3">
+            Lag
+          </th>
+          <th scope="col" className="py-1 pr-3">
+            Q
+          </th>
+          <th scope="col" className="py-1 pr-3">
+            df
+          </th>
+          <th scope="col" className="py-1 pr-3">
+            p-value
+          </th>
+          <th scope="col" className="py-1">
+            At <span className="normal-case">α</span> = {alpha}
+          </th>
         </tr>
       </thead>
       <tbody className="font-mono">

@@ -22,7 +22,10 @@ export function MeanBlock({ ess, z, unit }: { ess: DiagnosticsReport['effectiveS
         <dd className="font-mono">{ess.n.toLocaleString('en')}</dd>
         <dt className="text-ink-soft">Effective sample size (n/τ)</dt>
         <dd className="font-mono" data-testid="ess">
-          {fmtStat(ess.ess)} <span className="font-sans text-ink-soft">(τ = {fmtStat(ess.tau)}, lags 1–{ess.lagsUsed})</span>
+          {fmtStat(ess.ess)}{' '}
+          <span className="font-sans text-ink-soft">
+            (τ = {fmtStat(ess.tau)}, lags 1–{ess.lagsUsed})
+          </span>
         </dd>
         <dt className="text-ink-soft">Mean</dt>
         <dd className="font-mono">

@@ -11,8 +11,8 @@ export function PeriodCandidates({ period }: { period: DiagnosticsReport['period
       </h4>
       <p>Used: {used}</p>
       <p className="text-xs text-ink-soft">
-        Each candidate is judged against the channel’s own persistence (the spectrum of a fitted AR model), and a cycle within one frequency
-        step of an hour, a day or a week is reported as exactly that many steps.
+        Each candidate is judged against the channel’s own persistence (the spectrum of a fitted AR model), and a cycle within one frequency step of an hour, a
+        day or a week is reported as exactly that many steps.
       </p>
       {period.candidates.length === 0 ? (
         <p className="text-ink-soft">No period candidates.</p>
@@ -21,13 +21,27 @@ export function PeriodCandidates({ period }: { period: DiagnosticsReport['period
           <caption className="sr-only">Period candidates</caption>
           <thead className="border-b border-rule text-xs uppercase tracking-wide text-ink-soft">
             <tr>
-              <th scope="col" className="py-1 pr-3">Period</th>
-              <th scope="col" className="py-1 pr-3">Length</th>
-              <th scope="col" className="py-1 pr-3">ACF there</th>
-              <th scope="col" className="py-1 pr-3">Peak ratio</th>
-              <th scope="col" className="py-1 pr-3">p-value</th>
-              <th scope="col" className="py-1 pr-3">Seen in</th>
-              <th scope="col" className="py-1">How the length was read</th>
+              <th scope="col" className="py-1 pr-3">
+                Period
+              </th>
+              <th scope="col" className="py-1 pr-3">
+                Length
+              </th>
+              <th scope="col" className="py-1 pr-3">
+                ACF there
+              </th>
+              <th scope="col" className="py-1 pr-3">
+                Peak ratio
+              </th>
+              <th scope="col" className="py-1 pr-3">
+                p-value
+              </th>
+              <th scope="col" className="py-1 pr-3">
+                Seen in
+              </th>
+              <th scope="col" className="py-1">
+                How the length was read
+              </th>
             </tr>
           </thead>
           <tbody>
@@ -42,7 +56,9 @@ export function PeriodCandidates({ period }: { period: DiagnosticsReport['period
                   {c.sources.join(' and ')}
                   {c.significant ? ' · significant' : ''}
                 </td>
-                <td className="py-1" data-testid="period-note">{c.note ?? ''}</td>
+                <td className="py-1" data-testid="period-note">
+                  {c.note ?? ''}
+                </td>
               </tr>
             ))}
           </tbody>

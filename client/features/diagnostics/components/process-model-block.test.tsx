@@ -22,9 +22,25 @@ describe('process model and trend blocks', () => {
 
   it('says when the residuals are still autocorrelated and when the fit was on the whole series', () => {
     if (!PROCESS_MODEL.available) throw new Error('fixture');
-    render(<ProcessModelBlock model={{ ...PROCESS_MODEL, fittedOn: 'series', period: null, residualTest: { lag: 10, statistic: 31.2, df: 9, pValue: 0.00028 }, readingsPerIndependent: 1 }} stepS={60} alpha={0.05} unit={null} timezone="UTC" />);
+    render(
+      <ProcessModelBlock
+        model={{
+          ...PROCESS_MODEL,
+          fittedOn: 'series',
+          period: null,
+          residualTest: { lag: 10, statistic: 31.2, df: 9, pValue: 0.00028 },
+          readingsPerIndependent: 1,
+        }}
+        stepS={60}
+        alpha={0.05}
+        unit={null}
+        timezone="UTC"
+      />,
+    );
     expect(screen.getByTestId('process-model-residuals').textContent).toMatch(/p = 0\.0003 — autocorrelation remains at α = 0\.05/);
-    expect(screen.getByTestId('process-model-fitted-on').textContent).toMatch(/^Fitted on the series: 2,016 cells of 1 min,.*Each reading counts as independent information\.$/);
+    expect(screen.getByTestId('process-model-fitted-on').textContent).toMatch(
+      /^Fitted on the series: 2,016 cells of 1 min,.*Each reading counts as independent information\.$/,
+    );
   });
 
   it('names the lowest-AICc candidate when the server chose another model', () => {
@@ -34,7 +50,10 @@ describe('process model and trend blocks', () => {
     render(<ProcessModelBlock model={{ ...PROCESS_MODEL, chosen: arma11, criterionNote }} stepS={300} alpha={0.05} unit="%" timezone="UTC" />);
     expect(screen.getByTestId('process-model-criterion').textContent).toBe(criterionNote);
     expect(screen.queryByTestId('process-model-note')).toBeNull();
-    const notes = screen.getAllByRole('row').filter((r) => r.closest('[data-testid="process-model-candidates"]')).map((r) => r.lastElementChild?.textContent);
+    const notes = screen
+      .getAllByRole('row')
+      .filter((r) => r.closest('[data-testid="process-model-candidates"]'))
+      .map((r) => r.lastElementChild?.textContent);
     expect(notes).toEqual(['Note', '', 'lowest AICc', 'chosen', 'did not converge']);
     expect(screen.getByTestId('process-model-chosen').textContent).toBe('ARMA(1, 1)(1, 1)');
   });

@@ -25,9 +25,27 @@ export function cycleLength(seconds: number): string {
  * their AICc (Hurvich & Tsai 1989; the lowest is named when the server chose another), Ljung–Box on the residuals (Ljung & Box 1978, df = lag − p − q) and
  * the server's sentence. When no model could be fitted, the server's reason.
  */
-export function ProcessModelBlock({ model, stepS, alpha, unit, timezone }: { model: ProcessModel; stepS: number; alpha: number; unit: string | null; timezone: string }) {
+export function ProcessModelBlock({
+  model,
+  stepS,
+  alpha,
+  unit,
+  timezone,
+}: {
+  model: ProcessModel;
+  stepS: number;
+  alpha: number;
+  unit: string | null;
+  timezone: string;
+}) {
   if (!model.available) {
-    return <BlockSection id="process-model-heading" title="Process model" missing={{ text: `No model fitted: ${model.reason}`, testId: 'process-model-unavailable' }} />;
+    return (
+      <BlockSection
+        id="process-model-heading"
+        title="Process model"
+        missing={{ text: `No model fitted: ${model.reason}`, testId: 'process-model-unavailable' }}
+      />
+    );
   }
   const m = model.chosen;
   const u = unit ? ` ${unit}` : '';
@@ -48,8 +66,8 @@ export function ProcessModelBlock({ model, stepS, alpha, unit, timezone }: { mod
       </p>
       <p data-testid="process-model-sentence">{model.sentence}</p>
       <p className="text-sm text-ink-soft" data-testid="process-model-fitted-on">
-        Fitted on {fittedOn}: {model.cells.toLocaleString('en')} cells of {fmtSeconds(stepS)}, {formatZoned(model.fittedFrom, timezone)} to {formatZoned(model.fittedTo, timezone)} ({timezone}).
-        {' '}
+        Fitted on {fittedOn}: {model.cells.toLocaleString('en')} cells of {fmtSeconds(stepS)}, {formatZoned(model.fittedFrom, timezone)} to{' '}
+        {formatZoned(model.fittedTo, timezone)} ({timezone}).{' '}
         {model.readingsPerIndependent === null
           ? 'The model sits at the edge of a wandering level, so it gives no figure for the independent information; see the effective sample size.'
           : model.readingsPerIndependent < 1.05
@@ -61,9 +79,15 @@ export function ProcessModelBlock({ model, stepS, alpha, unit, timezone }: { mod
           <caption className="mb-1 text-left text-sm font-semibold">Estimated coefficients (± standard error)</caption>
           <thead className="border-b border-rule text-xs uppercase tracking-wide text-ink-soft">
             <tr>
-              <th scope="col" className={TH}>Parameter</th>
-              <th scope="col" className={TH}>Estimate</th>
-              <th scope="col" className="py-1">± SE</th>
+              <th scope="col" className={TH}>
+                Parameter
+              </th>
+              <th scope="col" className={TH}>
+                Estimate
+              </th>
+              <th scope="col" className="py-1">
+                ± SE
+              </th>
             </tr>
           </thead>
           <tbody>
@@ -92,36 +116,70 @@ export function ProcessModelBlock({ model, stepS, alpha, unit, timezone }: { mod
           <caption className="mb-1 text-left text-sm font-semibold">Candidate models, their AICc and BIC (chosen: lowest BIC among admissible fits)</caption>
           <thead className="border-b border-rule text-xs uppercase tracking-wide text-ink-soft">
             <tr>
-              <th scope="col" className={TH}>Model</th>
-              <th scope="col" className={TH}>AICc</th>
-              <th scope="col" className={TH}>ΔAICc</th>
-              <th scope="col" className={TH}>BIC</th>
-              <th scope="col" className={TH}>Log-likelihood</th>
-              <th scope="col" className="py-1">Note</th>
+              <th scope="col" className={TH}>
+                Model
+              </th>
+              <th scope="col" className={TH}>
+                AICc
+              </th>
+              <th scope="col" className={TH}>
+                ΔAICc
+              </th>
+              <th scope="col" className={TH}>
+                BIC
+              </th>
+              <th scope="col" className={TH}>
+                Log-likelihood
+              </th>
+              <th scope="col" className="py-1">
+                Note
+              </th>
             </tr>
           </thead>
           <tbody className="font-mono">
             {model.candidates.map((c) => {
               const chosen = c.p === m.p && c.q === m.q;
               return (
-                <tr key={`${c.p}-${c.q}`} aria-current={chosen ? 'true' : undefined} className={`border-b border-rule/60 last:border-b-0 ${chosen ? 'bg-lichen/10 font-semibold' : ''}`}>
+                <tr
+                  key={`${c.p}-${c.q}`}
+                  aria-current={chosen ? 'true' : undefined}
+                  className={`border-b border-rule/60 last:border-b-0 ${chosen ? 'bg-lichen/10 font-semibold' : ''}`}
+                >
                   <td className={`${TH} font-sans`}>{armaName(c.p, c.q)}</td>
                   <td className={TH}>{fmtStat(c.aicc, 6)}</td>
                   <td className={TH}>{c.aicc === null || best === null ? '—' : fmtStat(c.aicc - best, 3)}</td>
                   <td className={TH}>{fmtStat(c.bic, 6)}</td>
                   <td className={TH}>{fmtStat(c.logLik, 6)}</td>
-                  <td className="py-1 font-sans">{[chosen ? 'chosen' : null, !chosen && c.aicc !== null && c.aicc === best ? 'lowest AICc' : null, c.converged ? (c.admissible ? null : 'root too close to the unit circle') : 'did not converge'].filter(Boolean).join(' · ')}</td>
+                  <td className="py-1 font-sans">
+                    {[
+                      chosen ? 'chosen' : null,
+                      !chosen && c.aicc !== null && c.aicc === best ? 'lowest AICc' : null,
+                      c.converged ? (c.admissible ? null : 'root too close to the unit circle') : 'did not converge',
+                    ]
+                      .filter(Boolean)
+                      .join(' · ')}
+                  </td>
                 </tr>
               );
             })}
           </tbody>
         </table>
       </div>
-      {model.criterionNote && <p className="text-sm" data-testid="process-model-criterion">{model.criterionNote}</p>}
-      {model.note && <p className="text-sm" data-testid="process-model-note">{model.note}</p>}
+      {model.criterionNote && (
+        <p className="text-sm" data-testid="process-model-criterion">
+          {model.criterionNote}
+        </p>
+      )}
+      {model.note && (
+        <p className="text-sm" data-testid="process-model-note">
+          {model.note}
+        </p>
+      )}
       <p className="text-sm" data-testid="process-model-residuals">
         Ljung–Box on the residuals up to lag {rt.lag}: Q = {fmtStat(rt.statistic, 5)}, df = {rt.df}, p = {fmtP(rt.pValue)} —{' '}
-        {rt.pValue < alpha ? `autocorrelation remains at α = ${alpha}; the model misses some structure.` : `no evidence of remaining autocorrelation at α = ${alpha}.`}
+        {rt.pValue < alpha
+          ? `autocorrelation remains at α = ${alpha}; the model misses some structure.`
+          : `no evidence of remaining autocorrelation at α = ${alpha}.`}
       </p>
       <p className="text-xs text-ink-soft">
         Exact Gaussian maximum likelihood; standard errors from the observed information. Log-likelihood {fmtStat(m.logLik, 6)}, AICc {fmtStat(m.aicc, 6)}

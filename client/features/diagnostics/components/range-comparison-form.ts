@@ -18,7 +18,12 @@ export interface ComparisonDraft {
 /** The default ranges: the first and second half of `range`, as the form shows them in `timezone`. */
 export function halvesDraft(range: { from: number; to: number }, timezone: string): Pick<ComparisonDraft, 'aFrom' | 'aTo' | 'bFrom' | 'bTo'> {
   const mid = range.from + Math.floor((range.to - range.from) / 2);
-  return { aFrom: toZonedInput(range.from, timezone), aTo: toZonedInput(mid, timezone), bFrom: toZonedInput(mid, timezone), bTo: toZonedInput(range.to, timezone) };
+  return {
+    aFrom: toZonedInput(range.from, timezone),
+    aTo: toZonedInput(mid, timezone),
+    bFrom: toZonedInput(mid, timezone),
+    bTo: toZonedInput(range.to, timezone),
+  };
 }
 
 function readRange(name: string, from: string, to: string, timezone: string): { from: number; to: number } | string {

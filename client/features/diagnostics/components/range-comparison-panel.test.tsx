@@ -27,12 +27,24 @@ const ANSWER: ComparisonAnswer = {
   welch: { standardError: 0.03587, df: 2012.4, interval: [0.5797, 0.7203] },
   caution: 'Invented caution: range A spans only 48 autocorrelation times.',
   sentence: 'Invented sentence: range B is 0.65 % higher than range A.',
-  method: { stepS: 300, agg: 'mean', statement: 'Invented statement: standard errors from effective sample sizes.', references: ['Invented reference A', 'Invented reference B'] },
+  method: {
+    stepS: 300,
+    agg: 'mean',
+    statement: 'Invented statement: standard errors from effective sample sizes.',
+    references: ['Invented reference A', 'Invented reference B'],
+  },
 };
 
 function renderPanel() {
   return renderWithProviders(
-    <RangeComparisonPanel slug="fernhollow" channelId={5} channelLabel="Soil moisture" timezone="UTC" chartRange={{ from: FROM, to: TO }} partners={[{ id: 9, label: 'Irrigation flow', loggerName: 'Pump house' }]} />,
+    <RangeComparisonPanel
+      slug="fernhollow"
+      channelId={5}
+      channelLabel="Soil moisture"
+      timezone="UTC"
+      chartRange={{ from: FROM, to: TO }}
+      partners={[{ id: 9, label: 'Irrigation flow', loggerName: 'Pump house' }]}
+    />,
   );
 }
 
@@ -48,15 +60,20 @@ describe('RangeComparisonPanel', () => {
     fireEvent.click(screen.getByRole('button', { name: 'Compare' }));
 
     expect((await screen.findByTestId('comparison-sentence')).textContent).toBe(ANSWER.sentence);
-    expect(api.requests.map((r) => r.path)).toEqual([`/api/v1/labs/fernhollow/channels/5/comparison?aFrom=${FROM}&aTo=${MID}&bFrom=${MID}&bTo=${TO}&step=600&agg=mean&alpha=0.05`]);
+    expect(api.requests.map((r) => r.path)).toEqual([
+      `/api/v1/labs/fernhollow/channels/5/comparison?aFrom=${FROM}&aTo=${MID}&bFrom=${MID}&bTo=${TO}&step=600&agg=mean&alpha=0.05`,
+    ]);
     expect(screen.getByTestId('comparison-difference').textContent).toBe('mean(B) − mean(A) = 0.65 %');
-    const cells = (testId: string) => [within(screen.getByTestId(testId)).getByRole('rowheader'), ...within(screen.getByTestId(testId)).getAllByRole('cell')].map((c) => c.textContent);
+    const cells = (testId: string) =>
+      [within(screen.getByTestId(testId)).getByRole('rowheader'), ...within(screen.getByTestId(testId)).getAllByRole('cell')].map((c) => c.textContent);
     expect(cells('comparison-dependent')).toEqual(['allowing for autocorrelation (effective sample sizes)', '± 0.161', '97.6', '0.33 … 0.97 %']);
     expect(cells('comparison-welch')).toEqual(['assuming independent readings (Welch)', '± 0.0359', '2012', '0.5797 … 0.7203 %']);
     const rows = within(screen.getByTestId('comparison-ranges')).getAllByRole('row');
     expect(rows[1].textContent).toBe('A Soil moisture2026-06-01 00:00 to 2026-06-04 12:001,00848.220.9 (1 h 44 min)21.30.82');
     expect(rows[2].textContent).toBe('B Soil moisture2026-06-04 12:00 to 2026-06-08 00:001,00851.719.5 (1 h 37 min)21.950.79');
-    expect(screen.getByRole('complementary', { name: 'Comparison caution' }).textContent).toBe('Read with care. Invented caution: range A spans only 48 autocorrelation times.');
+    expect(screen.getByRole('complementary', { name: 'Comparison caution' }).textContent).toBe(
+      'Read with care. Invented caution: range A spans only 48 autocorrelation times.',
+    );
     expect(screen.getByTestId('comparison-method').textContent).toBe(ANSWER.method.statement);
     expect(screen.getByText('Invented reference B')).toBeTruthy();
   });
@@ -70,7 +87,9 @@ describe('RangeComparisonPanel', () => {
     fireEvent.change(screen.getByLabelText('α (1 − confidence)'), { target: { value: '0.1' } });
     fireEvent.click(screen.getByRole('button', { name: 'Compare' }));
     await screen.findByTestId('comparison-result');
-    expect(api.requests[0].path).toBe(`/api/v1/labs/fernhollow/channels/5/comparison?aFrom=${FROM}&aTo=${MID}&bFrom=${FROM}&bTo=${MID}&agg=mean&otherChannel=9&alpha=0.1`);
+    expect(api.requests[0].path).toBe(
+      `/api/v1/labs/fernhollow/channels/5/comparison?aFrom=${FROM}&aTo=${MID}&bFrom=${FROM}&bTo=${MID}&agg=mean&otherChannel=9&alpha=0.1`,
+    );
     expect(within(screen.getByTestId('comparison-ranges')).getAllByRole('row')[2].textContent).toMatch(/^B Irrigation flow/);
     expect(screen.queryByTestId('comparison-caution')).toBeNull();
     expect(screen.getByText('Range B — Irrigation flow')).toBeTruthy();
@@ -97,7 +116,16 @@ describe('RangeComparisonPanel', () => {
 });
 
 describe('comparisonParamsFromDraft', () => {
-  const ok = { aFrom: '2026-01-10T00:00', aTo: '2026-01-11T00:00', bFrom: '2026-01-12T00:00', bTo: '2026-01-13T00:00', other: '', step: '', agg: 'median' as const, alpha: '0.05' };
+  const ok = {
+    aFrom: '2026-01-10T00:00',
+    aTo: '2026-01-11T00:00',
+    bFrom: '2026-01-12T00:00',
+    bTo: '2026-01-13T00:00',
+    other: '',
+    step: '',
+    agg: 'median' as const,
+    alpha: '0.05',
+  };
 
   it('reads wall-clock times in the logger’s zone', () => {
     // Europe/Berlin is UTC+01:00 in January (IANA time zone database).

@@ -14,7 +14,15 @@ import { RunProgress } from './run-progress.tsx';
 type Times = Pick<ComparisonDraft, 'aFrom' | 'aTo' | 'bFrom' | 'bTo'>;
 
 /** One range's two wall-clock times in the logger's zone. */
-function RangeFieldset(props: { name: 'A' | 'B'; channelLabel: string; timezone: string; from: string; to: string; onFrom: (v: string) => void; onTo: (v: string) => void }) {
+function RangeFieldset(props: {
+  name: 'A' | 'B';
+  channelLabel: string;
+  timezone: string;
+  from: string;
+  to: string;
+  onFrom: (v: string) => void;
+  onTo: (v: string) => void;
+}) {
   const { name, timezone } = props;
   return (
     <fieldset className="grid gap-2">
@@ -78,8 +86,24 @@ export function RangeComparisonPanel({
       </p>
       <form aria-label="Comparison parameters" onSubmit={submit} className="grid gap-4">
         <div className="grid gap-4 lg:grid-cols-2">
-          <RangeFieldset name="A" channelLabel={channelLabel} timezone={timezone} from={shown.aFrom} to={shown.aTo} onFrom={(v) => setTime('aFrom', v)} onTo={(v) => setTime('aTo', v)} />
-          <RangeFieldset name="B" channelLabel={otherLabel} timezone={timezone} from={shown.bFrom} to={shown.bTo} onFrom={(v) => setTime('bFrom', v)} onTo={(v) => setTime('bTo', v)} />
+          <RangeFieldset
+            name="A"
+            channelLabel={channelLabel}
+            timezone={timezone}
+            from={shown.aFrom}
+            to={shown.aTo}
+            onFrom={(v) => setTime('aFrom', v)}
+            onTo={(v) => setTime('aTo', v)}
+          />
+          <RangeFieldset
+            name="B"
+            channelLabel={otherLabel}
+            timezone={timezone}
+            from={shown.bFrom}
+            to={shown.bTo}
+            onFrom={(v) => setTime('bFrom', v)}
+            onTo={(v) => setTime('bTo', v)}
+          />
         </div>
         <div className="flex flex-wrap gap-3 text-sm">
           <Button size="sm" tone="quiet" onClick={() => setTimes(null)}>
@@ -98,7 +122,14 @@ export function RangeComparisonPanel({
               </option>
             ))}
           </SelectField>
-          <TextField label="Resampling step (s)" inputMode="numeric" placeholder="channel interval" hint="Empty: the channel’s expected interval." value={rest.step} onChange={(e) => set('step', e.target.value)} />
+          <TextField
+            label="Resampling step (s)"
+            inputMode="numeric"
+            placeholder="channel interval"
+            hint="Empty: the channel’s expected interval."
+            value={rest.step}
+            onChange={(e) => set('step', e.target.value)}
+          />
           <AggregateSelect value={rest.agg} onChange={(agg) => set('agg', agg)} />
           <TextField label="α (1 − confidence)" inputMode="decimal" value={rest.alpha} onChange={(e) => set('alpha', e.target.value)} />
         </div>

@@ -12,7 +12,17 @@ export const REPORT: DiagnosticsAnswer = {
   cached: true,
   channel: { id: 5, key: 'soil_vwc', label: 'Soil moisture', unit: '%', quantity: null, logger: { id: 2, name: 'Row 7 mast', site: null, timezone: 'UTC' } },
   method: {
-    parameters: { from: '2026-06-01T00:00:00.000Z', to: '2026-06-08T00:00:00.000Z', step: 300, agg: 'mean', difference: 0, seasonalDifference: 0, period: 'auto', decomposition: 'none', alpha: 0.05 },
+    parameters: {
+      from: '2026-06-01T00:00:00.000Z',
+      to: '2026-06-08T00:00:00.000Z',
+      step: 300,
+      agg: 'mean',
+      difference: 0,
+      seasonalDifference: 0,
+      period: 'auto',
+      decomposition: 'none',
+      alpha: 0.05,
+    },
     resolved: {
       from: FROM,
       to: TO,
@@ -128,7 +138,14 @@ export const TREND: DiagnosticsAnswer['trend'] = {
 
 /** A prewhitened cross-correlation with its raw CCF beside it, 5-minute steps; invented numbers. */
 export const CCF: CrossCorrelation = {
-  with: { id: 9, key: 'irrigation_flow', label: 'Irrigation flow', unit: 'L/min', quantity: null, logger: { id: 3, name: 'Pump house', site: null, timezone: 'UTC' } },
+  with: {
+    id: 9,
+    key: 'irrigation_flow',
+    label: 'Irrigation flow',
+    unit: 'L/min',
+    quantity: null,
+    logger: { id: 3, name: 'Pump house', site: null, timezone: 'UTC' },
+  },
   pairs: 2016,
   lags: [-2, -1, 0, 1, 2],
   values: [0.01, -0.02, 0.03, 0.05, 0.31],

@@ -22,7 +22,10 @@ describe('stem chart helpers', () => {
   });
 
   it('draws both bands as legend entries when Bartlett is given, only white noise otherwise', () => {
-    const withBoth = stemChartOption({ name: 'ACF', lags, values, whiteNoise: 0.2, bartlett: [0.2, 0.3, 0.3, 0.3], xName: 'Lag' }) as { legend: { data: string[] }; series: unknown[] };
+    const withBoth = stemChartOption({ name: 'ACF', lags, values, whiteNoise: 0.2, bartlett: [0.2, 0.3, 0.3, 0.3], xName: 'Lag' }) as {
+      legend: { data: string[] };
+      series: unknown[];
+    };
     expect(withBoth.legend.data).toEqual(['ACF', 'White-noise band ±z/√n', 'Bartlett band (MA null up to the previous lag)']);
     expect(withBoth.series).toHaveLength(6);
     const pacf = stemChartOption({ name: 'PACF', lags, values, whiteNoise: 0.2, xName: 'Lag' }) as { legend: { data: string[] }; series: unknown[] };
@@ -31,7 +34,15 @@ describe('stem chart helpers', () => {
   });
 
   it('draws the band over all lags as its own solid legend entry and writes lags with the given labels', () => {
-    const o = stemChartOption({ name: 'CCF', lags: [-1, 0, 1], values: [0.1, 0.2, 0.3], whiteNoise: 0.05, simultaneous: { halfWidth: 0.08, label: 'All lags' }, lagLabel: (k) => `${k * 5} min`, xName: 'Lag' }) as {
+    const o = stemChartOption({
+      name: 'CCF',
+      lags: [-1, 0, 1],
+      values: [0.1, 0.2, 0.3],
+      whiteNoise: 0.05,
+      simultaneous: { halfWidth: 0.08, label: 'All lags' },
+      lagLabel: (k) => `${k * 5} min`,
+      xName: 'Lag',
+    }) as {
       legend: { data: string[] };
       series: Array<{ name: string; data: unknown[]; lineStyle?: { type: string } }>;
       xAxis: { data: string[] };

@@ -62,7 +62,15 @@ export function stemChartOption(input: StemInput): EChartsCoreOption {
   ];
   if (input.bartlett) {
     const name = 'Bartlett band (MA null up to the previous lag)';
-    series.push(bandLine(name, input.bartlett, BARTLETT, 'dotted'), bandLine(name, input.bartlett.map((b) => (b === null ? null : -b)), BARTLETT, 'dotted'));
+    series.push(
+      bandLine(name, input.bartlett, BARTLETT, 'dotted'),
+      bandLine(
+        name,
+        input.bartlett.map((b) => (b === null ? null : -b)),
+        BARTLETT,
+        'dotted',
+      ),
+    );
   }
   if (input.simultaneous) {
     const { halfWidth, label } = input.simultaneous;
@@ -74,12 +82,29 @@ export function stemChartOption(input: StemInput): EChartsCoreOption {
     legend: {
       top: 0,
       left: 0,
-      data: [input.name, wnName, ...(input.bartlett ? ['Bartlett band (MA null up to the previous lag)'] : []), ...(input.simultaneous ? [input.simultaneous.label] : [])],
+      data: [
+        input.name,
+        wnName,
+        ...(input.bartlett ? ['Bartlett band (MA null up to the previous lag)'] : []),
+        ...(input.simultaneous ? [input.simultaneous.label] : []),
+      ],
     },
     grid: { left: 48, right: 16, top: 40, bottom: 44 },
     tooltip: { trigger: 'axis', axisPointer: { type: 'shadow' }, valueFormatter: (v: unknown) => (typeof v === 'number' ? v.toFixed(3) : '—') },
-    xAxis: { type: 'category', data: cats, name: input.xName, nameLocation: 'middle', nameGap: 28, axisTick: { alignWithLabel: true }, axisLabel: { hideOverlap: true } },
-    yAxis: { type: 'value', min: (e: { min: number }) => Math.min(-0.2, Math.floor(e.min * 10) / 10), max: (e: { max: number }) => Math.max(0.2, Math.ceil(e.max * 10) / 10) },
+    xAxis: {
+      type: 'category',
+      data: cats,
+      name: input.xName,
+      nameLocation: 'middle',
+      nameGap: 28,
+      axisTick: { alignWithLabel: true },
+      axisLabel: { hideOverlap: true },
+    },
+    yAxis: {
+      type: 'value',
+      min: (e: { min: number }) => Math.min(-0.2, Math.floor(e.min * 10) / 10),
+      max: (e: { max: number }) => Math.max(0.2, Math.ceil(e.max * 10) / 10),
+    },
     series,
   };
 }

@@ -34,17 +34,25 @@ export function TrendBlock({ trend }: { trend: TrendAnswer }) {
         {trend.sentence}
       </p>
       <p className="text-sm">
-        Slope <span className="font-mono">{fmtStat(trend.perDay.slope, 4)}</span> {u}/day = <span className="font-mono">{fmtStat(trend.perYear.slope, 4)}</span> {u}/year,
-        from {trend.n.toLocaleString('en')} values; p = {fmtP(trend.pValueHac)} allowing for autocorrelation.
+        Slope <span className="font-mono">{fmtStat(trend.perDay.slope, 4)}</span> {u}/day = <span className="font-mono">{fmtStat(trend.perYear.slope, 4)}</span>{' '}
+        {u}/year, from {trend.n.toLocaleString('en')} values; p = {fmtP(trend.pValueHac)} allowing for autocorrelation.
       </p>
       <table className="w-full border-collapse text-left text-sm">
         <caption className="mb-1 text-left text-sm font-semibold">{level} intervals for the slope</caption>
         <thead className="border-b border-rule text-xs uppercase tracking-wide text-ink-soft">
           <tr>
-            <th scope="col" className="py-1 pr-3">Standard error</th>
-            <th scope="col" className="py-1 pr-3">SE ({u}/day)</th>
-            <th scope="col" className="py-1 pr-3">Per day ({u}/day)</th>
-            <th scope="col" className="py-1">Per year ({u}/year)</th>
+            <th scope="col" className="py-1 pr-3">
+              Standard error
+            </th>
+            <th scope="col" className="py-1 pr-3">
+              SE ({u}/day)
+            </th>
+            <th scope="col" className="py-1 pr-3">
+              Per day ({u}/day)
+            </th>
+            <th scope="col" className="py-1">
+              Per year ({u}/year)
+            </th>
           </tr>
         </thead>
         <tbody>

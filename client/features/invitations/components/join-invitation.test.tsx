@@ -62,7 +62,8 @@ describe('JoinInvitation', () => {
     renderJoin({
       [GET]: () => preview(true),
       // Message as written by server/services/invitations.service.ts.
-      [ACCEPT]: () => apiError(403, 'invitation_wrong_account', 'This invitation is for rowan.achterberg@saltmarsh-survey.example. Sign in with that address to accept it.'),
+      [ACCEPT]: () =>
+        apiError(403, 'invitation_wrong_account', 'This invitation is for rowan.achterberg@saltmarsh-survey.example. Sign in with that address to accept it.'),
     });
     fireEvent.click(await screen.findByRole('button', { name: /Accept/ }));
     expect(await screen.findByRole('button', { name: 'Sign out and use rowan.achterberg@saltmarsh-survey.example' })).toBeTruthy();

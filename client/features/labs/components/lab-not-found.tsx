@@ -11,8 +11,7 @@ export function LabNotFound({ slug }: { slug: string }) {
     <section className="max-w-xl rounded-2xl border border-rule bg-card p-8">
       <h1 className="text-2xl font-semibold">Lab not found or no access</h1>
       <p className="mt-2 text-ink-soft">
-        There is no lab at <span className="font-mono">/labs/{slug}</span> that you belong to. If you expected one, ask one of
-        its admins for an invitation.
+        There is no lab at <span className="font-mono">/labs/{slug}</span> that you belong to. If you expected one, ask one of its admins for an invitation.
       </p>
       <Link to={paths.home.href()} className={`mt-5 ${buttonClasses('secondary')}`}>
         Back to your labs

@@ -51,25 +51,13 @@ export function ChannelFields({
   const label = (text: string) => (labelPrefix ? `${labelPrefix}${text}` : `${text[0].toUpperCase()}${text.slice(1)}`);
   return (
     <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
-      <TextField
-        label={label('key')}
-        className="font-mono"
-        autoComplete="off"
-        spellCheck={false}
-        hint={keyHint}
-        {...field('key')}
-      />
+      <TextField label={label('key')} className="font-mono" autoComplete="off" spellCheck={false} hint={keyHint} {...field('key')} />
       <TextField label={label('label')} autoComplete="off" {...field('label')} />
       <TextField label={label('unit')} autoComplete="off" hint="e.g. °C, %, ppm" {...field('unit')} />
       <TextField label={label('quantity')} autoComplete="off" hint="e.g. air temperature" {...field('quantity')} />
       <TextField label={label('valid minimum')} inputMode="decimal" {...field('validMin')} />
       <TextField label={label('valid maximum')} inputMode="decimal" {...field('validMax')} />
-      <TextField
-        label={label('expected interval (s)')}
-        inputMode="numeric"
-        hint="Empty: the logger's interval."
-        {...field('expectedIntervalS')}
-      />
+      <TextField label={label('expected interval (s)')} inputMode="numeric" hint="Empty: the logger's interval." {...field('expectedIntervalS')} />
       <TextField
         label={label('seasonal period hint')}
         inputMode="numeric"

@@ -22,8 +22,7 @@ function RetireChannelButton({ slug, channel }: { slug: string; channel: Channel
   );
 }
 
-const range = (c: Channel) =>
-  c.validMin === null && c.validMax === null ? '—' : `${c.validMin ?? '−∞'} … ${c.validMax ?? '+∞'}${c.unit ? ` ${c.unit}` : ''}`;
+const range = (c: Channel) => (c.validMin === null && c.validMax === null ? '—' : `${c.validMin ?? '−∞'} … ${c.validMax ?? '+∞'}${c.unit ? ` ${c.unit}` : ''}`);
 
 /**
  * A logger's channels: key, label, unit, quantity, valid range, expected interval, seasonal
@@ -70,7 +69,14 @@ export function ChannelsTable({ slug, loggerId, channels, canManage }: { slug: s
 
   return (
     <div className="grid gap-4">
-      <DataTable caption="Channels of the logger" columns={columns} data={channels} getRowId={(c) => String(c.id)} initialSorting={[{ id: 'key', desc: false }]} empty="No channels." />
+      <DataTable
+        caption="Channels of the logger"
+        columns={columns}
+        data={channels}
+        getRowId={(c) => String(c.id)}
+        initialSorting={[{ id: 'key', desc: false }]}
+        empty="No channels."
+      />
       {canManage && editing === null && (
         <div>
           <Button size="sm" onClick={() => setEditing('new')}>

@@ -20,18 +20,14 @@ export function IssuedKeyPanel({
   children?: ReactNode;
 }) {
   // Fixed when the panel appears, so the command does not change under the reader's eyes.
-  const example = useMemo(
-    () => (channel ? curlIngestExample(window.location.origin, issued.key, channel, new Date()) : null),
-    [channel, issued.key],
-  );
+  const example = useMemo(() => (channel ? curlIngestExample(window.location.origin, issued.key, channel, new Date()) : null), [channel, issued.key]);
   return (
     <section aria-labelledby={`issued-key-${issued.id}`} className="grid gap-4 rounded-xl border-2 border-amber bg-card p-5">
       <h3 id={`issued-key-${issued.id}`} className="text-lg font-semibold">
         {heading}
       </h3>
       <p className="text-sm">
-        <strong>Store it on the logger now; Lagbook keeps only a hash and cannot show it again.</strong> Anyone with this key
-        can send readings as this logger.
+        <strong>Store it on the logger now; Lagbook keeps only a hash and cannot show it again.</strong> Anyone with this key can send readings as this logger.
       </p>
       <div className="flex flex-wrap items-center gap-3">
         <code data-testid="issued-key" className="break-all rounded-lg border border-rule bg-paper px-3 py-2 font-mono text-sm select-all">
@@ -42,8 +38,8 @@ export function IssuedKeyPanel({
       {example && (
         <div className="grid gap-2">
           <p className="text-sm text-ink-soft">
-            Try it: this command sends one reading of <span className="font-mono">{channel!.key}</span> at the time shown. It is
-            stored like any other reading, so send a real value if you keep it.
+            Try it: this command sends one reading of <span className="font-mono">{channel!.key}</span> at the time shown. It is stored like any other reading,
+            so send a real value if you keep it.
           </p>
           <pre data-testid="ingest-example" className="overflow-x-auto rounded-lg bg-spruce p-3 font-mono text-xs text-paper">
             {example}

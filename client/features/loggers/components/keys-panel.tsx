@@ -34,14 +34,35 @@ function RevokeKeyButton({ slug, loggerId, keyInfo }: { slug: string; loggerId: 
  * "Rotate keys" (a new key, and every other key stops at once — asked first) and "Revoke" per
  * active key. A new key is shown once, with the example command, above the table.
  */
-export function KeysPanel({ slug, loggerId, keys, exampleChannel }: { slug: string; loggerId: number; keys: IngestKeyInfo[]; exampleChannel?: ExampleChannel }) {
+export function KeysPanel({
+  slug,
+  loggerId,
+  keys,
+  exampleChannel,
+}: {
+  slug: string;
+  loggerId: number;
+  keys: IngestKeyInfo[];
+  exampleChannel?: ExampleChannel;
+}) {
   const issue = useIssueKey(slug, loggerId);
   const [issued, setIssued] = useState<IssuedKey | null>(null);
   const columns = useMemo<ColumnDef<IngestKeyInfo>[]>(
     () => [
-      { id: 'prefix', header: 'Key', accessorFn: (k) => k.prefix, sortingFn: 'text', cell: ({ row }) => <span className="font-mono">{shownKey(row.original.prefix)}</span> },
+      {
+        id: 'prefix',
+        header: 'Key',
+        accessorFn: (k) => k.prefix,
+        sortingFn: 'text',
+        cell: ({ row }) => <span className="font-mono">{shownKey(row.original.prefix)}</span>,
+      },
       { id: 'created', header: 'Issued', accessorFn: (k) => Date.parse(k.createdAt), cell: ({ row }) => <DateTime iso={row.original.createdAt} /> },
-      { id: 'lastUsed', header: 'Last used', accessorFn: (k) => (k.lastUsedAt ? Date.parse(k.lastUsedAt) : -1), cell: ({ row }) => <RelativeTime iso={row.original.lastUsedAt} /> },
+      {
+        id: 'lastUsed',
+        header: 'Last used',
+        accessorFn: (k) => (k.lastUsedAt ? Date.parse(k.lastUsedAt) : -1),
+        cell: ({ row }) => <RelativeTime iso={row.original.lastUsedAt} />,
+      },
       {
         id: 'revoked',
         header: 'Revoked',
@@ -83,8 +104,19 @@ export function KeysPanel({ slug, loggerId, keys, exampleChannel }: { slug: stri
           onConfirm={() => run(true)}
         />
       </div>
-      {issue.isError && <p role="alert" className="text-sm text-alert">{issue.error.message}</p>}
-      <DataTable caption="Ingest keys of the logger" columns={columns} data={keys} getRowId={(k) => String(k.id)} initialSorting={[{ id: 'created', desc: true }]} empty="No keys: issue one so the logger can send readings." />
+      {issue.isError && (
+        <p role="alert" className="text-sm text-alert">
+          {issue.error.message}
+        </p>
+      )}
+      <DataTable
+        caption="Ingest keys of the logger"
+        columns={columns}
+        data={keys}
+        getRowId={(k) => String(k.id)}
+        initialSorting={[{ id: 'created', desc: true }]}
+        empty="No keys: issue one so the logger can send readings."
+      />
     </div>
   );
 }

@@ -38,7 +38,12 @@ export function LoggersTable({ slug, loggers }: { slug: string; loggers: LoggerS
         accessorFn: (l) => l.expectedIntervalS,
         cell: ({ row }) => formatInterval(row.original.expectedIntervalS),
       },
-      { id: 'channels', header: 'Channels', accessorFn: (l) => l.channelCount, cell: ({ row }) => <span className="font-mono">{row.original.channelCount}</span> },
+      {
+        id: 'channels',
+        header: 'Channels',
+        accessorFn: (l) => l.channelCount,
+        cell: ({ row }) => <span className="font-mono">{row.original.channelCount}</span>,
+      },
       {
         id: 'lastSeen',
         header: 'Last seen',

@@ -13,7 +13,17 @@ afterEach(() => {
 
 // Logger, channels and values invented for the test.
 const channel = (id: number, key: string, label: string, validMin: number | null, validMax: number | null, retiredAt: string | null = null): Channel => ({
-  id, loggerId: 9, key, label, unit: null, quantity: null, validMin, validMax, expectedIntervalS: null, seasonalPeriodHint: null, retiredAt,
+  id,
+  loggerId: 9,
+  key,
+  label,
+  unit: null,
+  quantity: null,
+  validMin,
+  validMax,
+  expectedIntervalS: null,
+  seasonalPeriodHint: null,
+  retiredAt,
 });
 const CHANNELS = [channel(21, 'bath_t', 'Water bath', 10, 40), channel(22, 'lid.open', 'Lid switch', 0, 1)];
 const TEST_URL = '/api/v1/labs/fernhollow/loggers/9/test-reading';
@@ -49,7 +59,15 @@ describe('logger set-up guide', () => {
     const api = fakeApi({
       [`POST ${TEST_URL}`]: (req) => {
         const body = req.body as { channel: string; value: number };
-        return { status: 200, body: { sent: { ...body, ts: '2026-09-01T06:30:00.000Z' }, outcome: { accepted: 1, duplicates: 0, quarantined: [] }, storedValue: body.value, roundTripMs: 7.4 } };
+        return {
+          status: 200,
+          body: {
+            sent: { ...body, ts: '2026-09-01T06:30:00.000Z' },
+            outcome: { accepted: 1, duplicates: 0, quarantined: [] },
+            storedValue: body.value,
+            roundTripMs: 7.4,
+          },
+        };
       },
     });
     renderPanel();
@@ -69,7 +87,12 @@ describe('logger set-up guide', () => {
     fakeApi({
       [`POST ${TEST_URL}`]: () => ({
         status: 200,
-        body: { sent: { channel: 'lid.open', ts: '2026-09-01T06:30:00.000Z', value: 0.5 }, outcome: { accepted: 0, duplicates: 0, quarantined: [{ index: 0, code: 'retired_channel', reason: 'channel: "lid.open" is retired' }] }, storedValue: null, roundTripMs: 5 },
+        body: {
+          sent: { channel: 'lid.open', ts: '2026-09-01T06:30:00.000Z', value: 0.5 },
+          outcome: { accepted: 0, duplicates: 0, quarantined: [{ index: 0, code: 'retired_channel', reason: 'channel: "lid.open" is retired' }] },
+          storedValue: null,
+          roundTripMs: 5,
+        },
       }),
     });
     renderPanel();
@@ -98,7 +121,15 @@ describe('logger set-up guide', () => {
   it('on the logger page: shown with active channels only; the test reading only for those who manage loggers', () => {
     fakeApi({});
     const logger: LoggerDetail = {
-      id: 9, name: 'Bath logger', serial: null, site: null, timezone: 'UTC', expectedIntervalS: 60, createdAt: '2026-01-01T00:00:00Z', retiredAt: null, lastSeenAt: null,
+      id: 9,
+      name: 'Bath logger',
+      serial: null,
+      site: null,
+      timezone: 'UTC',
+      expectedIntervalS: 60,
+      createdAt: '2026-01-01T00:00:00Z',
+      retiredAt: null,
+      lastSeenAt: null,
       channels: [...CHANNELS, channel(23, 'old_probe', 'Old probe', null, null, '2026-05-01T00:00:00Z')],
     };
     renderWithProviders(<LoggerPage slug="fernhollow" logger={logger} rights={{ manage: false, keys: false, upload: false, quarantine: false }} />);

@@ -58,8 +58,8 @@ export function SetupGuidePanel({
         </dd>
         <dt className="text-ink-soft">Authentication</dt>
         <dd>
-          <span className="font-mono">Authorization: Bearer lbk_…</span> with this logger’s ingest key. It is shown once when issued;
-          the examples read it from <span className="font-mono">$LAGBOOK_INGEST_KEY</span>.
+          <span className="font-mono">Authorization: Bearer lbk_…</span> with this logger’s ingest key. It is shown once when issued; the examples read it from{' '}
+          <span className="font-mono">$LAGBOOK_INGEST_KEY</span>.
         </dd>
         <dt className="text-ink-soft">Channel keys</dt>
         <dd>
@@ -78,23 +78,21 @@ export function SetupGuidePanel({
         </dd>
         <dt className="text-ink-soft">Times</dt>
         <dd>
-          ISO 8601 with an offset, e.g. <span className="font-mono">{isoWithOffset(at, timezone)}</span> (this logger’s zone,{' '}
-          {timezone}) or <span className="font-mono">{new Date(at).toISOString().replace('.000Z', 'Z')}</span>, or UTC epoch milliseconds,
-          e.g. <span className="font-mono">{at}</span> — the easier choice on a board that keeps time with NTP. A time without an
-          offset is not accepted, nor an offset outside −12:00…+14:00, nor fractions of a millisecond.
+          ISO 8601 with an offset, e.g. <span className="font-mono">{isoWithOffset(at, timezone)}</span> (this logger’s zone, {timezone}) or{' '}
+          <span className="font-mono">{new Date(at).toISOString().replace('.000Z', 'Z')}</span>, or UTC epoch milliseconds, e.g.{' '}
+          <span className="font-mono">{at}</span> — the easier choice on a board that keeps time with NTP. A time without an offset is not accepted, nor an
+          offset outside −12:00…+14:00, nor fractions of a millisecond.
         </dd>
         <dt className="text-ink-soft">Limits</dt>
         <dd>
-          At most 100,000 readings and 8 MB per request, UTF-8, optionally gzip or deflate (413 or 415 otherwise). If more than
-          1,000 rows of one request cannot be read, the whole request is refused with 422 and nothing is stored: fix what the logger
-          sends rather than re-sending it. After 20 wrong keys in a minute from one address the answer is 429 for the rest of that
-          minute.
+          At most 100,000 readings and 8 MB per request, UTF-8, optionally gzip or deflate (413 or 415 otherwise). If more than 1,000 rows of one request cannot
+          be read, the whole request is refused with 422 and nothing is stored: fix what the logger sends rather than re-sending it. After 20 wrong keys in a
+          minute from one address the answer is 429 for the rest of that minute.
         </dd>
         <dt className="text-ink-soft">Answers</dt>
         <dd>
-          A 2xx answer means the readings are committed, with counts of accepted, duplicate and quarantined rows (and why). On a
-          429 or 5xx answer keep the readings and send them again later (after the Retry-After seconds when given): re-sending
-          never stores a reading twice.
+          A 2xx answer means the readings are committed, with counts of accepted, duplicate and quarantined rows (and why). On a 429 or 5xx answer keep the
+          readings and send them again later (after the Retry-After seconds when given): re-sending never stores a reading twice.
         </dd>
       </dl>
 

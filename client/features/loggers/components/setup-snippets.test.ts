@@ -130,7 +130,9 @@ describe('set-up examples', () => {
     const before = seen.length;
     const started = Date.now();
     // asynchronously: the capture server answers on this same event loop
-    const { stdout: out } = await promisify(execFile)('/usr/bin/python3', ['-c', pythonSnippet(origin, CHANNELS)], { env: { LAGBOOK_INGEST_KEY: KEY, PATH: process.env.PATH ?? '' } });
+    const { stdout: out } = await promisify(execFile)('/usr/bin/python3', ['-c', pythonSnippet(origin, CHANNELS)], {
+      env: { LAGBOOK_INGEST_KEY: KEY, PATH: process.env.PATH ?? '' },
+    });
     expect(out).toContain("'accepted': 2");
     expect(seen.length).toBe(before + 1);
     const got = seen[seen.length - 1];

@@ -108,7 +108,8 @@ export function sketchSnippet(origin: string, channels: ExampleChannel[]): strin
   const bodySize = 32 + channels.reduce((n, c) => n + c.key.length + 64, 0);
   return [
     '/* Posts readings to Lagbook with plain HTTP/1.1 over a TCP client.',
-    ' * net_connect / net_write / net_read_line / net_close stand for your board\'s TCP client.' + (tls ? '\n * The server speaks HTTPS: open a TLS connection instead of a plain one.' : ''),
+    " * net_connect / net_write / net_read_line / net_close stand for your board's TCP client." +
+      (tls ? '\n * The server speaks HTTPS: open a TLS connection instead of a plain one.' : ''),
     ' */',
     '#include <stdio.h>',
     '',

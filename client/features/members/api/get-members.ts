@@ -7,8 +7,7 @@ export function getMembers(slug: string): Promise<MembersAnswer> {
   return apiFetch(`/api/v1/labs/${encodeURIComponent(slug)}/members`);
 }
 
-export const membersQueryOptions = (slug: string) =>
-  queryOptions({ queryKey: ['labs', slug, 'members'], queryFn: () => getMembers(slug) });
+export const membersQueryOptions = (slug: string) => queryOptions({ queryKey: ['labs', slug, 'members'], queryFn: () => getMembers(slug) });
 
 /** The lab's members. */
 export function useMembers(slug: string) {

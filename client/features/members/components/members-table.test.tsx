@@ -16,7 +16,11 @@ const MEMBERS: Member[] = [
   { userId: 3, name: 'Maren Olowe', email: 'maren.olowe@fernhollow.example', role: 'scientist', joinedAt: '2026-01-03T09:00:00Z' },
 ];
 
-const names = () => screen.getAllByRole('row').slice(1).map((row) => within(row).getAllByRole('cell')[0].textContent);
+const names = () =>
+  screen
+    .getAllByRole('row')
+    .slice(1)
+    .map((row) => within(row).getAllByRole('cell')[0].textContent);
 
 describe('MembersTable', () => {
   it('sorts by name first and re-sorts by a clicked column, announcing the order', () => {

@@ -45,12 +45,7 @@ export function MembersTable({
         header: 'Role',
         accessorFn: (m) => ROLES.indexOf(m.role),
         sortDescFirst: false,
-        cell: ({ row }) =>
-          canManage ? (
-            <MemberRoleControl slug={slug} member={row.original} onChanged={onChanged} />
-          ) : (
-            ROLE_LABELS[row.original.role]
-          ),
+        cell: ({ row }) => (canManage ? <MemberRoleControl slug={slug} member={row.original} onChanged={onChanged} /> : ROLE_LABELS[row.original.role]),
       },
       {
         id: 'joined',
@@ -66,10 +61,7 @@ export function MembersTable({
         id: 'actions',
         header: 'Actions',
         enableSorting: false,
-        cell: ({ row }) =>
-          row.original.userId === currentUserId ? null : (
-            <RemoveMemberButton slug={slug} member={row.original} onRemoved={onChanged} />
-          ),
+        cell: ({ row }) => (row.original.userId === currentUserId ? null : <RemoveMemberButton slug={slug} member={row.original} onRemoved={onChanged} />),
       },
     ];
   }, [slug, currentUserId, canManage, onChanged]);

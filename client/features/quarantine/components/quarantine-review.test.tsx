@@ -23,10 +23,22 @@ const BAD_VALUE: QuarantinedRow = {
   raw: '2026-09-01T00:10:00+03:00;n/a;81;3.61',
   receivedAt: '2026-09-02T10:00:00Z',
 };
-const UNKNOWN: QuarantinedRow = { ...BAD_VALUE, id: 802, reasonCode: 'unknown_channel', reason: 'channel: no channel "soil_t" on this logger', channel: 'soil_t', value: '9.5', source: 'api', raw: null };
+const UNKNOWN: QuarantinedRow = {
+  ...BAD_VALUE,
+  id: 802,
+  reasonCode: 'unknown_channel',
+  reason: 'channel: no channel "soil_t" on this logger',
+  channel: 'soil_t',
+  value: '9.5',
+  source: 'api',
+  raw: null,
+};
 const LOGGERS = [{ id: 5, name: 'Hedgerow mast' }];
 
-const pageOf = (rows: QuarantinedRow[], total = rows.length, nextCursor: string | null = null) => ({ status: 200, body: { rows, total, totalAtLeast: false, pageSize: 50, nextCursor } });
+const pageOf = (rows: QuarantinedRow[], total = rows.length, nextCursor: string | null = null) => ({
+  status: 200,
+  body: { rows, total, totalAtLeast: false, pageSize: 50, nextCursor },
+});
 
 describe('QuarantineReview', () => {
   it('reads logger, reason and cursor from the URL, sends them to the API, and keeps filter changes in the URL', async () => {
@@ -36,7 +48,9 @@ describe('QuarantineReview', () => {
     expect(api.requests[0].path).toBe('/api/v1/labs/fernhollow/quarantine?loggerId=5&reason=bad_value&cursor=1790000000000.1.9&pageSize=50');
     expect((screen.getByLabelText('Logger') as HTMLSelectElement).value).toBe('5');
     expect(screen.getByText('1 row shown · 120 matching')).toBeTruthy();
-    expect(screen.getByRole('link', { name: 'Download CSV' }).getAttribute('href')).toBe('/api/v1/labs/fernhollow/quarantine/export.csv?loggerId=5&reason=bad_value');
+    expect(screen.getByRole('link', { name: 'Download CSV' }).getAttribute('href')).toBe(
+      '/api/v1/labs/fernhollow/quarantine/export.csv?loggerId=5&reason=bad_value',
+    );
 
     fireEvent.change(screen.getByLabelText('Reason'), { target: { value: 'unknown_channel' } });
     await vi.waitFor(() => expect(router.state.location.search).toBe('?loggerId=5&reason=unknown_channel'));
@@ -79,7 +93,9 @@ describe('QuarantineReview', () => {
     fireEvent.click(within(form).getByRole('button', { name: 'Re-submit' }));
 
     expect((await screen.findByText(/Re-submitted 1 row:/)).textContent).toBe('Re-submitted 1 row: 1 stored, 0 already stored, 0 quarantined again.');
-    expect(api.requests.find((r) => r.method === 'POST')!.body).toEqual({ rows: [{ id: 801, channel: 'air_t', ts: '2026-09-01T00:10:00+03:00', value: '12.3' }] });
+    expect(api.requests.find((r) => r.method === 'POST')!.body).toEqual({
+      rows: [{ id: 801, channel: 'air_t', ts: '2026-09-01T00:10:00+03:00', value: '12.3' }],
+    });
     await vi.waitFor(() => expect(screen.queryByText('n/a')).toBeNull());
   });
 
@@ -89,7 +105,12 @@ describe('QuarantineReview', () => {
       'GET /api/v1/labs/fernhollow/quarantine': () => pageOf([local]),
       'POST /api/v1/labs/fernhollow/quarantine/resubmit': () => ({
         status: 200,
-        body: { resubmitted: 1, accepted: 0, duplicates: 0, quarantined: [{ id: 801, code: 'bad_time', reason: 'ts: "2026-09-01 00:10:00" has no UTC offset (add Z or ±hh:mm, or send epoch milliseconds)' }] },
+        body: {
+          resubmitted: 1,
+          accepted: 0,
+          duplicates: 0,
+          quarantined: [{ id: 801, code: 'bad_time', reason: 'ts: "2026-09-01 00:10:00" has no UTC offset (add Z or ±hh:mm, or send epoch milliseconds)' }],
+        },
       }),
     });
     renderWithProviders(<QuarantineReview slug="fernhollow" loggers={LOGGERS} />, '/q');
@@ -115,7 +136,9 @@ describe('QuarantineReview', () => {
     fireEvent.click(screen.getByLabelText('Select row 802'));
     fireEvent.click(screen.getByRole('button', { name: 'Re-submit selected' }));
     await screen.findByText(/0 stored, 1 already stored/);
-    expect(api.requests.find((r) => r.path.endsWith('/resubmit'))!.body).toEqual({ rows: [{ id: 802, channel: 'soil_t', ts: '2026-09-01T00:10:00+03:00', value: '9.5' }] });
+    expect(api.requests.find((r) => r.path.endsWith('/resubmit'))!.body).toEqual({
+      rows: [{ id: 802, channel: 'soil_t', ts: '2026-09-01T00:10:00+03:00', value: '9.5' }],
+    });
 
     fireEvent.click(screen.getByLabelText('Select every row on this page'));
     expect(screen.getByText('2 selected')).toBeTruthy();

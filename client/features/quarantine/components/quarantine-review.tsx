@@ -103,7 +103,11 @@ export function QuarantineReview({ slug, loggers }: { slug: string; loggers: Arr
         </a>
       </div>
       {outcome && <ResubmitOutcome outcome={outcome} />}
-      {discarded !== null && <Notice tone="status">Discarded {discarded} row{discarded === 1 ? '' : 's'}.</Notice>}
+      {discarded !== null && (
+        <Notice tone="status">
+          Discarded {discarded} row{discarded === 1 ? '' : 's'}.
+        </Notice>
+      )}
       {resubmit.isError && <Notice tone="alert">{resubmit.error.message}</Notice>}
       {discard.isError && <Notice tone="alert">{discard.error.message}</Notice>}
       {list.isPending ? (

@@ -82,7 +82,11 @@ export function QuarantineTable({
           </span>
         ),
       },
-      { id: 'logger', header: 'Logger', cell: ({ row }) => (row.original.loggerId === null ? '—' : (loggerNames.get(row.original.loggerId) ?? `#${row.original.loggerId}`)) },
+      {
+        id: 'logger',
+        header: 'Logger',
+        cell: ({ row }) => (row.original.loggerId === null ? '—' : (loggerNames.get(row.original.loggerId) ?? `#${row.original.loggerId}`)),
+      },
       { id: 'channel', header: 'Channel', cell: ({ row }) => mono(row.original.channel) },
       { id: 'ts', header: 'Time', cell: ({ row }) => mono(row.original.ts) },
       { id: 'value', header: 'Value', cell: ({ row }) => mono(row.original.value) },
@@ -92,5 +96,14 @@ export function QuarantineTable({
     ];
   }, [rows, loggerNames, selected, onSelect, pending, onResubmit]);
 
-  return <DataTable caption="Quarantined rows, newest first" columns={columns} data={rows} getRowId={(r) => String(r.id)} sortable={false} empty="Nothing in quarantine here." />;
+  return (
+    <DataTable
+      caption="Quarantined rows, newest first"
+      columns={columns}
+      data={rows}
+      getRowId={(r) => String(r.id)}
+      sortable={false}
+      empty="Nothing in quarantine here."
+    />
+  );
 }

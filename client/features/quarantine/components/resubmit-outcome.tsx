@@ -9,8 +9,8 @@ export function ResubmitOutcome({ outcome }: { outcome: Outcome }) {
   return (
     <Notice tone={again.length ? 'alert' : 'status'}>
       <p>
-        Re-submitted {plural(outcome.resubmitted, 'row', 'rows')}: {outcome.accepted} stored, {outcome.duplicates} already stored,{' '}
-        {again.length} quarantined again.
+        Re-submitted {plural(outcome.resubmitted, 'row', 'rows')}: {outcome.accepted} stored, {outcome.duplicates} already stored, {again.length} quarantined
+        again.
       </p>
       {again.length > 0 && (
         <ul className="mt-1 list-disc pl-5">

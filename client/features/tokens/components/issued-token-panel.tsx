@@ -14,8 +14,8 @@ export function IssuedTokenPanel({ issued, onDismiss }: { issued: IssuedToken; o
         New token “{issued.tokenInfo.name}”
       </h3>
       <p className="text-sm">
-        <strong>Copy it now: Lagbook keeps only a hash and cannot show it again.</strong> Anyone holding it can read this lab’s
-        channels as you until it expires or you revoke it. Keep it in an environment variable, not in a shared notebook.
+        <strong>Copy it now: Lagbook keeps only a hash and cannot show it again.</strong> Anyone holding it can read this lab’s channels as you until it expires
+        or you revoke it. Keep it in an environment variable, not in a shared notebook.
       </p>
       <div className="flex flex-wrap items-center gap-3">
         <code data-testid="issued-token" className="break-all rounded-lg border border-rule bg-paper px-3 py-2 font-mono text-sm select-all">

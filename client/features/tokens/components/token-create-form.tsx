@@ -49,7 +49,11 @@ export function TokenCreateForm({ slug, onCreated }: { slug: string; onCreated: 
           {isSubmitting ? 'Making…' : 'Make token'}
         </Button>
       </div>
-      {errors.root?.server && <Notice tone="alert" className="sm:col-span-3">{errors.root.server.message}</Notice>}
+      {errors.root?.server && (
+        <Notice tone="alert" className="sm:col-span-3">
+          {errors.root.server.message}
+        </Notice>
+      )}
     </form>
   );
 }

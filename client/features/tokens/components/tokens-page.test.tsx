@@ -12,8 +12,24 @@ afterEach(() => {
 // Tokens, names and dates invented for the test; the token shape lbt_<12 hex>_<43 chars> is the API contract.
 const BASE = '/api/v1/labs/fernhollow/tokens';
 const future = (days: number) => new Date(Date.now() + days * 86_400_000).toISOString();
-const ACTIVE: PersonalToken = { id: 41, name: 'Soil notebook', prefix: 'c0ffee123456', createdAt: '2026-08-01T09:00:00Z', expiresAt: future(30), lastUsedAt: null, revokedAt: null };
-const REVOKED: PersonalToken = { id: 40, name: 'Old script', prefix: 'abcdefabcdef', createdAt: '2026-07-01T09:00:00Z', expiresAt: future(10), lastUsedAt: '2026-07-02T09:00:00Z', revokedAt: '2026-07-03T09:00:00Z' };
+const ACTIVE: PersonalToken = {
+  id: 41,
+  name: 'Soil notebook',
+  prefix: 'c0ffee123456',
+  createdAt: '2026-08-01T09:00:00Z',
+  expiresAt: future(30),
+  lastUsedAt: null,
+  revokedAt: null,
+};
+const REVOKED: PersonalToken = {
+  id: 40,
+  name: 'Old script',
+  prefix: 'abcdefabcdef',
+  createdAt: '2026-07-01T09:00:00Z',
+  expiresAt: future(10),
+  lastUsedAt: '2026-07-02T09:00:00Z',
+  revokedAt: '2026-07-03T09:00:00Z',
+};
 const NEW_TOKEN = 'lbt_9e8d7c6b5a49_Zx8wQ2mN4pL6kJ0hG7fD3sA1qW9eR5tY2uI8oP4aS6d';
 
 function tokensApi(list: PersonalToken[]) {
@@ -22,7 +38,15 @@ function tokensApi(list: PersonalToken[]) {
     [`GET ${BASE}`]: () => ({ status: 200, body: { tokens } }),
     [`POST ${BASE}`]: (req) => {
       const body = req.body as { name: string; expiresInDays: number };
-      const info: PersonalToken = { id: 42, name: body.name, prefix: '9e8d7c6b5a49', createdAt: new Date().toISOString(), expiresAt: future(body.expiresInDays), lastUsedAt: null, revokedAt: null };
+      const info: PersonalToken = {
+        id: 42,
+        name: body.name,
+        prefix: '9e8d7c6b5a49',
+        createdAt: new Date().toISOString(),
+        expiresAt: future(body.expiresInDays),
+        lastUsedAt: null,
+        revokedAt: null,
+      };
       tokens = [info, ...tokens];
       return { status: 201, body: { token: NEW_TOKEN, tokenInfo: info, shownOnce: true } };
     },

@@ -23,8 +23,8 @@ export function TokensPage({ slug, origin }: { slug: string; origin: string }) {
             API tokens
           </h2>
           <p className="mt-1 max-w-3xl text-sm text-ink-soft">
-            A personal token lets a notebook or a script read this lab’s data as you, without signing in. It can only read, it
-            works only in this lab, it follows your current role, and it stops at its expiry or when you revoke it.
+            A personal token lets a notebook or a script read this lab’s data as you, without signing in. It can only read, it works only in this lab, it
+            follows your current role, and it stops at its expiry or when you revoke it.
           </p>
         </div>
         {issued && <IssuedTokenPanel issued={issued} onDismiss={() => setIssued(null)} />}

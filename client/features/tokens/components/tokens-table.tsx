@@ -35,17 +35,33 @@ export function TokensTable({ slug, tokens }: { slug: string; tokens: PersonalTo
   const columns = useMemo<ColumnDef<PersonalToken>[]>(
     () => [
       { id: 'name', header: 'Name', accessorFn: (t) => t.name, sortingFn: 'text' },
-      { id: 'prefix', header: 'Token', accessorFn: (t) => t.prefix, enableSorting: false, cell: ({ row }) => <span className="font-mono">{shownToken(row.original.prefix)}</span> },
+      {
+        id: 'prefix',
+        header: 'Token',
+        accessorFn: (t) => t.prefix,
+        enableSorting: false,
+        cell: ({ row }) => <span className="font-mono">{shownToken(row.original.prefix)}</span>,
+      },
       { id: 'created', header: 'Made', accessorFn: (t) => Date.parse(t.createdAt), cell: ({ row }) => <DateTime iso={row.original.createdAt} /> },
       { id: 'expires', header: 'Expires', accessorFn: (t) => Date.parse(t.expiresAt), cell: ({ row }) => <DateTime iso={row.original.expiresAt} dateOnly /> },
-      { id: 'lastUsed', header: 'Last used', accessorFn: (t) => (t.lastUsedAt ? Date.parse(t.lastUsedAt) : -1), cell: ({ row }) => <RelativeTime iso={row.original.lastUsedAt} /> },
+      {
+        id: 'lastUsed',
+        header: 'Last used',
+        accessorFn: (t) => (t.lastUsedAt ? Date.parse(t.lastUsedAt) : -1),
+        cell: ({ row }) => <RelativeTime iso={row.original.lastUsedAt} />,
+      },
       {
         id: 'state',
         header: 'State',
         accessorFn: (t) => tokenState(t),
         cell: ({ row }) => {
           const state = tokenState(row.original);
-          if (state === 'revoked') return <span>revoked <DateTime iso={row.original.revokedAt!} dateOnly /></span>;
+          if (state === 'revoked')
+            return (
+              <span>
+                revoked <DateTime iso={row.original.revokedAt!} dateOnly />
+              </span>
+            );
           return <span className={state === 'active' ? 'text-lichen-dark' : 'text-ink-soft'}>{state}</span>;
         },
       },

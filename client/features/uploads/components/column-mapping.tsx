@@ -66,7 +66,14 @@ export function ColumnMapping({
               ] as Array<[UploadFormat, string]>
             ).map(([format, label]) => (
               <label key={format} className="inline-flex items-center gap-2">
-                <input type="radio" name="upload-format" value={format} checked={setup.format === format} onChange={() => set('format', format)} className="accent-lichen" />
+                <input
+                  type="radio"
+                  name="upload-format"
+                  value={format}
+                  checked={setup.format === format}
+                  onChange={() => set('format', format)}
+                  className="accent-lichen"
+                />
                 {label}
               </label>
             ))}

@@ -75,7 +75,11 @@ describe('UploadPanel', () => {
     renderPanel();
     await chooseFile(CSV);
     const preview = screen.getByRole('table', { name: /First 3 rows/ });
-    expect(within(preview).getAllByRole('columnheader').map((h) => h.textContent)).toEqual(['time', 'air_t', 'rh', 'battery_v']);
+    expect(
+      within(preview)
+        .getAllByRole('columnheader')
+        .map((h) => h.textContent),
+    ).toEqual(['time', 'air_t', 'rh', 'battery_v']);
     expect(within(preview).getByText('n/a')).toBeTruthy();
     expect((screen.getByLabelText('Delimiter') as HTMLSelectElement).value).toBe(';');
     expect((screen.getByLabelText('Wide: a time column and one column per channel') as HTMLInputElement).checked).toBe(true);
@@ -132,7 +136,11 @@ describe('UploadPanel', () => {
     const count = (id: string) => within(summary).getByTestId(`summary-${id}`).textContent;
     expect([count('lines'), count('readings'), count('stored'), count('duplicates'), count('quarantined')]).toEqual(['3', '6', '5', '0', '1']);
     const row = within(summary).getAllByRole('row')[1];
-    expect(within(row).getAllByRole('cell').map((c) => c.textContent)).toEqual(['3', 'value: must be a finite number']);
+    expect(
+      within(row)
+        .getAllByRole('cell')
+        .map((c) => c.textContent),
+    ).toEqual(['3', 'value: must be a finite number']);
     expect(within(summary).getByRole('link', { name: 'Review the quarantined rows' }).getAttribute('href')).toBe('/labs/fernhollow/quarantine?loggerId=5');
   });
 
@@ -151,7 +159,9 @@ describe('UploadPanel', () => {
     fireEvent.click(screen.getByRole('button', { name: 'Start the upload' }));
     act(() => {
       const xhr = FakeXhr.last!;
-      xhr.stream('{"type":"progress","lines":1,"readings":2,"accepted":2,"duplicates":0,"quarantined":0}\n{"type":"error","code":"upload_failed","message":"The upload stopped."}\n');
+      xhr.stream(
+        '{"type":"progress","lines":1,"readings":2,"accepted":2,"duplicates":0,"quarantined":0}\n{"type":"error","code":"upload_failed","message":"The upload stopped."}\n',
+      );
       xhr.onload!();
     });
     expect((await screen.findByRole('alert')).textContent).toBe('The upload stopped. Stored before it stopped: 2 readings.');
@@ -162,6 +172,10 @@ describe('UploadPanel', () => {
     await chooseFile('time,air_t\n2026-09-01T00:00:00Z,12.5\n');
     fireEvent.change(screen.getByLabelText('Delimiter'), { target: { value: ';' } });
     const preview = screen.getByRole('table', { name: /First 1 rows/ });
-    expect(within(preview).getAllByRole('columnheader').map((h) => h.textContent)).toEqual(['time,air_t']);
+    expect(
+      within(preview)
+        .getAllByRole('columnheader')
+        .map((h) => h.textContent),
+    ).toEqual(['time,air_t']);
   });
 });

@@ -53,13 +53,21 @@ export function UploadPanel({
     setFileError(null);
     upload.reset();
     if (!file) return;
-    if (file.size > MAX_UPLOAD_BYTES) return setFileError(`${file.name} is ${formatBytes(file.size)}; files up to 2 GB are accepted. Split it and upload the parts.`);
+    if (file.size > MAX_UPLOAD_BYTES)
+      return setFileError(`${file.name} is ${formatBytes(file.size)}; files up to 2 GB are accepted. Split it and upload the parts.`);
     if (file.size === 0) return setFileError(`${file.name} is empty.`);
     const head = await file.slice(0, PREVIEW_BYTES).text();
     const preview = previewCsv(head, file.size > PREVIEW_BYTES);
     if (preview.header.length < 2) return setFileError('This does not look like a CSV file with a header line and at least two columns.');
     setChosen({ file, head, preview });
-    setSetup(guessUploadSetup(preview.header, preview.delimiter, channels.map((c) => c.key), loggerTimeZone));
+    setSetup(
+      guessUploadSetup(
+        preview.header,
+        preview.delimiter,
+        channels.map((c) => c.key),
+        loggerTimeZone,
+      ),
+    );
   }
 
   function changeSetup(next: UploadSetup) {
@@ -68,7 +76,15 @@ export function UploadPanel({
       // Another delimiter means other columns: read the preview again and guess afresh.
       const preview = previewCsv(chosen.head, chosen.file.size > PREVIEW_BYTES, next.delimiter);
       setChosen({ ...chosen, preview });
-      setSetup({ ...guessUploadSetup(preview.header, next.delimiter, channels.map((c) => c.key), next.timeZone), timeFormat: next.timeFormat });
+      setSetup({
+        ...guessUploadSetup(
+          preview.header,
+          next.delimiter,
+          channels.map((c) => c.key),
+          next.timeZone,
+        ),
+        timeFormat: next.timeFormat,
+      });
       return;
     }
     setSetup(next);

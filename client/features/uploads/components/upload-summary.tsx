@@ -35,14 +35,20 @@ export function UploadSummary({ summary, quarantineHref, onAgain }: { summary: I
       {summary.firstQuarantined.length > 0 && (
         <div className="grid gap-2">
           <h4 className="font-medium">
-            {summary.quarantined > summary.firstQuarantined.length ? `The first ${summary.firstQuarantined.length} quarantined readings` : 'Quarantined readings'}
+            {summary.quarantined > summary.firstQuarantined.length
+              ? `The first ${summary.firstQuarantined.length} quarantined readings`
+              : 'Quarantined readings'}
           </h4>
           <table className="w-full border-collapse text-left text-sm">
             <caption className="sr-only">Quarantined readings with their line in the file</caption>
             <thead className="text-xs uppercase tracking-wide text-ink-soft">
               <tr>
-                <th scope="col" className="py-1 pr-4">Line</th>
-                <th scope="col" className="py-1 pr-4">Reason</th>
+                <th scope="col" className="py-1 pr-4">
+                  Line
+                </th>
+                <th scope="col" className="py-1 pr-4">
+                  Reason
+                </th>
               </tr>
             </thead>
             <tbody>

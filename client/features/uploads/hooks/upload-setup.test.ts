@@ -14,7 +14,13 @@ describe('guessUploadSetup', () => {
   });
 
   it('chooses long when the file has channel and value columns', () => {
-    expect(guessUploadSetup(LONG, ';', ['air_t'], 'UTC')).toMatchObject({ format: 'long', channelColumn: 'channel', valueColumn: 'value', timeColumn: 'time', delimiter: ';' });
+    expect(guessUploadSetup(LONG, ';', ['air_t'], 'UTC')).toMatchObject({
+      format: 'long',
+      channelColumn: 'channel',
+      valueColumn: 'value',
+      timeColumn: 'time',
+      delimiter: ';',
+    });
   });
 });
 
@@ -44,6 +50,9 @@ describe('toUploadOptions', () => {
   it('refuses a long mapping without a value column or with one column used twice', () => {
     const setup = guessUploadSetup(LONG, ',', [], 'UTC');
     expect(toUploadOptions({ ...setup, valueColumn: '' }, LONG)).toEqual({ ok: false, problems: ['format: long format needs channelColumn and valueColumn'] });
-    expect(toUploadOptions({ ...setup, valueColumn: 'time' }, LONG)).toEqual({ ok: false, problems: ['columns: time, channel and value must be three different columns'] });
+    expect(toUploadOptions({ ...setup, valueColumn: 'time' }, LONG)).toEqual({
+      ok: false,
+      problems: ['columns: time, channel and value must be three different columns'],
+    });
   });
 });

@@ -52,7 +52,13 @@ export function guessUploadSetup(header: string[], delimiter: Delimiter, channel
  * null), so nothing is left out by accident. Problems come back as "field: reason".
  */
 export function toUploadOptions(setup: UploadSetup, header: string[]): { ok: true; options: UploadOptions } | { ok: false; problems: string[] } {
-  const common = { format: setup.format, delimiter: setup.delimiter, timeColumn: setup.timeColumn, timeFormat: setup.timeFormat, timeZone: setup.timeZone || undefined };
+  const common = {
+    format: setup.format,
+    delimiter: setup.delimiter,
+    timeColumn: setup.timeColumn,
+    timeFormat: setup.timeFormat,
+    timeZone: setup.timeZone || undefined,
+  };
   const candidate =
     setup.format === 'long'
       ? { ...common, channelColumn: setup.channelColumn || undefined, valueColumn: setup.valueColumn || undefined }

@@ -30,12 +30,14 @@ export function useUpload(slug: string, loggerId: number) {
         },
       });
       abortRef.current = upload.abort;
-      upload.done.then(
-        (summary) => setState({ phase: 'done', summary }),
-        (error: Error) => setState({ phase: 'failed', message: error.message, progress }),
-      ).finally(() => {
-        abortRef.current = null;
-      });
+      upload.done
+        .then(
+          (summary) => setState({ phase: 'done', summary }),
+          (error: Error) => setState({ phase: 'failed', message: error.message, progress }),
+        )
+        .finally(() => {
+          abortRef.current = null;
+        });
     },
     [slug, loggerId],
   );

@@ -13,11 +13,35 @@ describe('evaluateBounds', () => {
     { name: 'stays inside: nothing', params: freezer, values: [-20, -19, -18, -20], want: [] },
     { name: 'one noisy reading above is held back', params: freezer, values: [-20, -5, -20, -20, -20, -20, -20, -20], want: [] },
     { name: 'four minutes above (< hold of 5 min): nothing', params: freezer, values: [-20, -10, -10, -10, -10, -10, -20], want: [] },
-    { name: 'opens at the reading 5 min after the first one above, resolves at the first inside', params: freezer, values: [-20, -10, -10, -10, -10, -10, -10, -20, -19], want: [['open', 6], ['resolve', 7]] },
+    {
+      name: 'opens at the reading 5 min after the first one above, resolves at the first inside',
+      params: freezer,
+      values: [-20, -10, -10, -10, -10, -10, -10, -20, -19],
+      want: [
+        ['open', 6],
+        ['resolve', 7],
+      ],
+    },
     { name: 'a reading inside restarts the hold', params: freezer, values: [-10, -10, -10, -10, -20, -10, -10, -10, -10, -10, -10], want: [['open', 10]] },
-    { name: 'no hold: opens at the first reading below the low limit', params: { low: 2, high: 8, holdS: 0 }, values: [5, 1.9, 1.5, 4], want: [['open', 1], ['resolve', 3]] },
+    {
+      name: 'no hold: opens at the first reading below the low limit',
+      params: { low: 2, high: 8, holdS: 0 },
+      values: [5, 1.9, 1.5, 4],
+      want: [
+        ['open', 1],
+        ['resolve', 3],
+      ],
+    },
     { name: 'a reading exactly at the limit is inside', params: { low: 2, high: 8, holdS: 0 }, values: [8, 2, 8.0001], want: [['open', 2]] },
-    { name: 'jumping from below to above keeps one alert open', params: { low: 2, high: 8, holdS: 0 }, values: [1, 9, 5], want: [['open', 0], ['resolve', 2]] },
+    {
+      name: 'jumping from below to above keeps one alert open',
+      params: { low: 2, high: 8, holdS: 0 },
+      values: [1, 9, 5],
+      want: [
+        ['open', 0],
+        ['resolve', 2],
+      ],
+    },
   ];
   for (const c of cases) {
     it(c.name, () => {

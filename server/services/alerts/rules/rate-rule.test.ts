@@ -9,15 +9,75 @@ const readings = (pairs: Array<[minute: number, value: number]>): RuleReading[] 
 describe('evaluateRate', () => {
   const either: RateParams = { maxPerMinute: 0.5, direction: 'either' };
   const cases: Array<{ name: string; params: RateParams; input: Array<[number, number]>; want: Array<[string, number]> }> = [
-    { name: 'slow drift: nothing', params: either, input: [[0, 4], [1, 4.4], [2, 4.8], [3, 5.2]], want: [] },
+    {
+      name: 'slow drift: nothing',
+      params: either,
+      input: [
+        [0, 4],
+        [1, 4.4],
+        [2, 4.8],
+        [3, 5.2],
+      ],
+      want: [],
+    },
     // 4 → 6 in 2 min = +1/min > 0.5: opens at minute 2; 6 → 6.2 in 1 min = +0.2: resolves at minute 3
-    { name: 'a jump opens, the next calm step resolves', params: either, input: [[0, 4], [2, 6], [3, 6.2]], want: [['open', 2], ['resolve', 3]] },
+    {
+      name: 'a jump opens, the next calm step resolves',
+      params: either,
+      input: [
+        [0, 4],
+        [2, 6],
+        [3, 6.2],
+      ],
+      want: [
+        ['open', 2],
+        ['resolve', 3],
+      ],
+    },
     // 10 → 9 in 1 min = −1/min: a fall, ignored by a rise-only rule
-    { name: 'rise-only ignores falls', params: { maxPerMinute: 0.5, direction: 'rise' }, input: [[0, 10], [1, 9], [2, 9]], want: [] },
-    { name: 'fall-only catches falls', params: { maxPerMinute: 0.5, direction: 'fall' }, input: [[0, 10], [1, 9], [2, 9]], want: [['open', 1], ['resolve', 2]] },
+    {
+      name: 'rise-only ignores falls',
+      params: { maxPerMinute: 0.5, direction: 'rise' },
+      input: [
+        [0, 10],
+        [1, 9],
+        [2, 9],
+      ],
+      want: [],
+    },
+    {
+      name: 'fall-only catches falls',
+      params: { maxPerMinute: 0.5, direction: 'fall' },
+      input: [
+        [0, 10],
+        [1, 9],
+        [2, 9],
+      ],
+      want: [
+        ['open', 1],
+        ['resolve', 2],
+      ],
+    },
     // exactly 0.5/min is allowed
-    { name: 'a rate equal to the limit is allowed', params: either, input: [[0, 0], [2, 1]], want: [] },
-    { name: 'readings at the same time are not compared', params: either, input: [[0, 0], [0, 100], [1, 0.1]], want: [] },
+    {
+      name: 'a rate equal to the limit is allowed',
+      params: either,
+      input: [
+        [0, 0],
+        [2, 1],
+      ],
+      want: [],
+    },
+    {
+      name: 'readings at the same time are not compared',
+      params: either,
+      input: [
+        [0, 0],
+        [0, 100],
+        [1, 0.1],
+      ],
+      want: [],
+    },
   ];
   for (const c of cases) {
     it(c.name, () => {

@@ -14,7 +14,7 @@ const params: UnusualParams = { periodH: 24, k: 5, historyCycles: 3 };
 /** A seeded linear congruential generator (Numerical Recipes constants). */
 function lcg(seed: number) {
   let s = seed >>> 0;
-  return () => ((s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 2 ** 32);
+  return () => (s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 2 ** 32;
 }
 
 /** Three days of history and a function giving the usual reading of any later quarter-hour. */
@@ -64,7 +64,10 @@ describe('evaluateUnusualReading', () => {
     const spikeAt = D3 + 12; // 03:00 on day 4
     const readings = Array.from({ length: 40 }, (_, j) => (D3 + j === spikeAt ? s.reading(D3 + j, 24) : s.reading(D3 + j)));
     const transitions = feed(s, readings);
-    expect(transitions.map((t) => [t.kind, (t.ts - t0) / STEP])).toEqual([['open', spikeAt], ['resolve', spikeAt + 1]]);
+    expect(transitions.map((t) => [t.kind, (t.ts - t0) / STEP])).toEqual([
+      ['open', spikeAt],
+      ['resolve', spikeAt + 1],
+    ]);
     expect(transitions[0].detail).toMatch(/^24 lies \d+(\.\d+)? robust SD above the usual pattern \(limit 5\)$/);
   });
 
@@ -72,7 +75,10 @@ describe('evaluateUnusualReading', () => {
     const s = scenario(8);
     const peak = D3 + 60;
     const readings = Array.from({ length: 62 }, (_, j) => (D3 + j === peak ? s.reading(D3 + j, 27) : s.reading(D3 + j)));
-    expect(feed(s, readings).map((t) => [t.kind, (t.ts - t0) / STEP])).toEqual([['open', peak], ['resolve', peak + 1]]);
+    expect(feed(s, readings).map((t) => [t.kind, (t.ts - t0) / STEP])).toEqual([
+      ['open', peak],
+      ['resolve', peak + 1],
+    ]);
   });
 
   it('judges nothing without three full cycles of history', () => {

@@ -89,7 +89,12 @@ export function unusualScores(
  *
  * Cost: O(n) in the number of readings once they are scored.
  */
-export function evaluateUnusualReading(params: UnusualParams, scores: ArrayLike<number> | null, memory: RuleMemory, readings: readonly RuleReading[]): RuleStep {
+export function evaluateUnusualReading(
+  params: UnusualParams,
+  scores: ArrayLike<number> | null,
+  memory: RuleMemory,
+  readings: readonly RuleReading[],
+): RuleStep {
   let { open } = memory;
   const transitions: RuleTransition[] = [];
   const previous = readings.at(-1) ?? memory.previous;
@@ -101,7 +106,12 @@ export function evaluateUnusualReading(params: UnusualParams, scores: ArrayLike<
     const sd = Number.isFinite(score) ? `${formatValue(Math.abs(score))} robust SD` : 'infinitely many robust SD';
     if (unusual && !open) {
       open = true;
-      transitions.push({ kind: 'open', ts: r.ts, value: r.value, detail: `${formatValue(r.value)} lies ${sd} ${score > 0 ? 'above' : 'below'} the usual pattern (limit ${formatValue(params.k)})` });
+      transitions.push({
+        kind: 'open',
+        ts: r.ts,
+        value: r.value,
+        detail: `${formatValue(r.value)} lies ${sd} ${score > 0 ? 'above' : 'below'} the usual pattern (limit ${formatValue(params.k)})`,
+      });
     } else if (!unusual && open) {
       open = false;
       transitions.push({ kind: 'resolve', ts: r.ts, value: r.value, detail: `${formatValue(r.value)} fits the usual pattern again` });
