@@ -18,6 +18,10 @@ npx tsc -p tsconfig.json
 npx tsc -p client/tsconfig.json
 say "checking import boundaries…"
 npm run --silent lint:boundaries
+say "linting (ESLint)…"
+npm run --silent lint
+say "checking the format (Prettier)…"
+npm run --silent format:check
 say "building the client (the browser tests use the production build)…"
 npx vite build --logLevel error
 
