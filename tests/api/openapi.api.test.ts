@@ -133,7 +133,7 @@ describe('API document', () => {
   it('documents bodies and queries from the zod schemas the routes validate with', () => {
     const tokens = paths()['/api/v1/labs/{lab}/tokens'].post;
     const body = ((tokens.requestBody as Json).content as Json)['application/json'] as { schema: { properties: Record<string, Json>; required: string[] } };
-    // The bounds of tokens.schema.ts (name 1–80 characters, expiresInDays 1–365 whole days).
+    // The bounds of the token schema in server/contract/tokens.ts (name 1–80 characters, expiresInDays 1–365 whole days).
     expect(body.schema.properties.name).toEqual(expect.objectContaining({ type: 'string', minLength: 1, maxLength: 80 }));
     expect(body.schema.properties.expiresInDays).toEqual(expect.objectContaining({ type: 'integer', minimum: 1, maximum: 365 }));
     expect(body.schema.required.sort()).toEqual(['expiresInDays', 'name']);
@@ -147,6 +147,28 @@ describe('API document', () => {
     expect(Object.keys((ingest.requestBody as Json).content as Json).sort()).toEqual(['application/json', 'text/csv']);
     const upload = paths()['/api/v1/labs/{lab}/loggers/{loggerId}/uploads'].post;
     expect(Object.keys((upload.requestBody as Json).content as Json)).toEqual(['text/csv']);
+  });
+
+  it('lists every status each route can answer, not a catch-all: the refusals beyond 400–404 included', () => {
+    const statuses = (path: string, method: string) => Object.keys(paths()[path][method].responses as Json);
+    for (const { method, path, op } of operations()) {
+      const codes = Object.keys(op.responses as Json);
+      expect(
+        codes.filter((c) => /XX|default/.test(c)),
+        `${method} ${path}`,
+      ).toEqual([]);
+      expect(codes, `${method} ${path}`).toContain('500');
+      if (path !== '/api/v1/openapi.json') expect(codes, `${method} ${path}`).toContain('503');
+    }
+    // each of these statuses is one the route's service or middleware really throws (see the route files' `errors`)
+    expect(statuses('/api/v1/ingest', 'post')).toEqual(expect.arrayContaining(['200', '400', '401', '402', '413', '415', '422', '429', '503']));
+    expect(statuses('/api/v1/invitations/{lab}/{token}/accept', 'post')).toEqual(expect.arrayContaining(['404', '410']));
+    expect(statuses('/api/v1/labs/{lab}/channels/{channelId}/comparison', 'get')).toEqual(expect.arrayContaining(['402', '422', '429']));
+    expect(statuses('/api/v1/labs/{lab}/members/{userId}', 'patch')).toEqual(expect.arrayContaining(['200', '400', '401', '403', '404', '409']));
+    expect(statuses('/api/v1/labs/{lab}/members/{userId}', 'delete')).toContain('204');
+    expect(statuses('/api/v1/labs', 'post')).toEqual(expect.arrayContaining(['201', '403']));
+    const busy = paths()['/api/v1/labs/{lab}/channels/{channelId}/diagnostics'].get.responses as Record<string, Json>;
+    expect(busy['429'].headers).toEqual(expect.objectContaining({ 'Retry-After': expect.any(Object) }));
   });
 
   it('says which credential each route takes: personal tokens on the read routes only, the ingest key on ingestion only', () => {
