@@ -15,14 +15,20 @@ require_node() {
 }
 
 # npm ci when node_modules is missing or package-lock.json changed since the last install.
+# Scripts started at the same time (several test runs in one checkout) install one after the
+# other under a lock, and each re-checks the stamp once it holds the lock, so only the first installs.
 install_node_modules() {
   local stamp="$ROOT/node_modules/.lagbook-lock-hash"
   local hash
   hash="$(sha256sum package-lock.json | cut -d' ' -f1)"
   if [ -f "$stamp" ] && [ "$(cat "$stamp")" = "$hash" ]; then return; fi
-  say "installing npm packages (npm ci)…"
-  npm ci --no-audit --no-fund --loglevel=error || die "npm ci failed"
-  echo "$hash" > "$stamp"
+  (
+    flock 9 || die "could not lock the npm install"
+    if [ -f "$stamp" ] && [ "$(cat "$stamp")" = "$hash" ]; then exit 0; fi
+    say "installing npm packages (npm ci)…"
+    npm ci --no-audit --no-fund --loglevel=error || die "npm ci failed"
+    echo "$hash" > "$stamp"
+  ) 9>"$ROOT/.npm-install.lock" || exit 1
 }
 
 # Installs the named Debian packages (root, or sudo), running `apt-get update` once per script.
