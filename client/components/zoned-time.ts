@@ -1,28 +1,10 @@
 /**
  * Instants shown in a logger's own time zone (IANA name), with the UTC offset spelled out, and
  * wall-clock times typed in that zone turned back into instants. Uses only the platform's
- * `Intl.DateTimeFormat`, which carries the IANA time zone database.
+ * `Intl.DateTimeFormat`, which carries the IANA time zone database (one formatter per zone, shared
+ * with the server's mail times through `@shared/policies/time-zones.ts`).
  */
-
-const formatters = new Map<string, Intl.DateTimeFormat>();
-
-function partsFormatter(timeZone: string): Intl.DateTimeFormat {
-  let f = formatters.get(timeZone);
-  if (!f) {
-    f = new Intl.DateTimeFormat('en-US', {
-      timeZone,
-      hourCycle: 'h23',
-      year: 'numeric',
-      month: '2-digit',
-      day: '2-digit',
-      hour: '2-digit',
-      minute: '2-digit',
-      second: '2-digit',
-    });
-    formatters.set(timeZone, f);
-  }
-  return f;
-}
+import { wallClockFormatter } from '@shared/policies/time-zones.ts';
 
 interface WallClock {
   year: number;
@@ -35,7 +17,7 @@ interface WallClock {
 
 function wallClock(ms: number, timeZone: string): WallClock {
   const p: Record<string, number> = {};
-  for (const part of partsFormatter(timeZone).formatToParts(ms)) if (part.type !== 'literal') p[part.type] = Number(part.value);
+  for (const part of wallClockFormatter(timeZone).formatToParts(ms)) if (part.type !== 'literal') p[part.type] = Number(part.value);
   return { year: p.year, month: p.month, day: p.day, hour: p.hour, minute: p.minute, second: p.second };
 }
 
