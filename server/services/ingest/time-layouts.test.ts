@@ -46,13 +46,17 @@ describe('parseWithLayout: each built-in layout', () => {
 });
 
 describe('parseWithLayout: spreadsheet serial days (1900 system)', () => {
-  // ECMA-376 Part 1 §18.17.4 "Dates and Times" (from memory): serial 1 = 1900-01-01, 60 is the
-  // non-existent 1900-02-29 kept for compatibility, 61 = 1900-03-01. 36526 = 2000-01-01 is the
-  // widely quoted value (from memory), also python date(1899,12,30)+timedelta(36526).
+  // ECMA-376 1st edition Part 4 §3.17.4.1 "Date Representation" (Part 1 §18.17.4.1 in later
+  // editions): serial 1 = 1900-01-01, 59 = 1900-02-28, 60 the non-existent 1900-02-29, 61 =
+  // 1900-03-01, upper limit 2958465 = 9999-12-31, and its worked examples 03-Feb-1910 = 3687 and
+  // 01-Feb-2006 = 38749. 36526 = 2000-01-01 is the widely quoted value (from memory); all also
+  // checked with python date(1899,12,30)+timedelta(serial) for serials above 60.
   it.each([
     ['1', Date.UTC(1900, 0, 1)],
     ['59', Date.UTC(1900, 1, 28)],
     ['61', Date.UTC(1900, 2, 1)],
+    ['3687', Date.UTC(1910, 1, 3)],
+    ['38749', Date.UTC(2006, 1, 1)],
     ['36526', Date.UTC(2000, 0, 1)],
     ['45658.5', Date.UTC(2025, 0, 1, 12)],
     ['2958465', Date.UTC(9999, 11, 31)],

@@ -1,4 +1,6 @@
 import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
+import { wallClockText } from '../../policies/time-zones.ts';
 import { instantOfWallClock, naiveUtcMs } from './wall-clock-instant.ts';
 
 // Daylight-saving rules, IANA tz database: the EU changes on the last Sunday of March and of
@@ -39,5 +41,26 @@ describe('instantOfWallClock', () => {
   it('keeps years below 100 as given', () => {
     expect(new Date(naiveUtcMs(50, 1, 2)).getUTCFullYear()).toBe(50);
     expect(at('UTC', 50, 1, 2, 3, 4)).toBe(naiveUtcMs(50, 1, 2, 3, 4));
+  });
+
+  it('round-trips the wall clock of any instant to that instant or an earlier one with the same wall clock', () => {
+    // property: wall(t) read back gives t, or — inside a repeated hour — the earlier instant one hour before
+    fc.assert(
+      fc.property(
+        fc.constantFrom('Europe/Berlin', 'America/New_York', 'Australia/Lord_Howe', 'Asia/Kolkata'),
+        fc.integer({ min: Date.UTC(2000, 0, 1) / 60_000, max: Date.UTC(2040, 0, 1) / 60_000 }),
+        (zone, minute) => {
+          const t = minute * 60_000;
+          const [date, time] = wallClockText(zone, t).split(' ');
+          const [y, mo, d] = date.split('-').map(Number);
+          const [h, mi] = time.split(':').map(Number);
+          const back = instantOfWallClock(naiveUtcMs(y, mo, d, h, mi), zone);
+          expect(back).not.toBeNull();
+          expect(wallClockText(zone, back!)).toBe(wallClockText(zone, t));
+          expect(back! <= t && t - back! <= 3_600_000).toBe(true);
+        },
+      ),
+      { numRuns: 300, seed: 20261203 },
+    );
   });
 });

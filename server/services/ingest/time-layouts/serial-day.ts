@@ -1,8 +1,10 @@
 /**
- * Spreadsheet serial day numbers in the 1900 date system (ECMA-376 Part 1, §18.17.4 "Dates and
- * Times" — cited from memory): serial 1 is 1900-01-01 and the system keeps the historical
- * mistake of treating 1900 as a leap year, so serial 60 is the non-existent 1900-02-29 and
- * serial 61 is 1900-03-01. The fraction is the time of day. The largest date the system holds
+ * Spreadsheet serial day numbers in the 1900 date system. Source: ECMA-376 1st edition (2006),
+ * Part 4 §3.17.4.1 "Date Representation" (checked in a stored copy of that page); in later
+ * editions / ISO/IEC 29500 it is Part 1 §18.17.4.1, the "1900 backward compatibility date-base
+ * system" (that numbering from memory and a WG4 mailing-list quote). Serial 1 is 1900-01-01
+ * and the system keeps the historical mistake of treating 1900 as a leap year, so serial 60 is
+ * the non-existent 1900-02-29 and serial 61 is 1900-03-01. The fraction is the time of day. The largest date the system holds
  * is 9999-12-31 (serial 2958465). Serials carry no time zone: they are a wall clock.
  */
 
