@@ -99,6 +99,11 @@ describe('parseReadingTime', () => {
     // Europe/Berlin is UTC+1 in winter and UTC+2 in summer (IANA tz database).
     expect(parseReadingTime('2026-01-15T12:00:00', { timeZone: 'Europe/Berlin' })).toEqual({ ok: true, ts: Date.UTC(2026, 0, 15, 11) });
     expect(parseReadingTime('2026-07-15T12:00:00', { timeZone: 'Europe/Berlin' })).toEqual({ ok: true, ts: Date.UTC(2026, 6, 15, 10) });
+    // 2026-10-25 02:30 happens twice in Berlin (clocks go back from 03:00 CEST to 02:00 CET at 01:00 UTC):
+    // the first occurrence, 00:30 UTC (checked: `TZ=Europe/Berlin date -d '2026-10-25 02:30 CEST' -u` → 00:30 UTC).
+    expect(parseReadingTime('2026-10-25T02:30:00', { timeZone: 'Europe/Berlin' })).toEqual({ ok: true, ts: Date.UTC(2026, 9, 25, 0, 30) });
+    // the same rule west of UTC: 2026-11-01 01:30 in New York is first 05:30 UTC (EDT), then 06:30 (EST)
+    expect(parseReadingTime('2026-11-01T01:30:00', { timeZone: 'America/New_York' })).toEqual({ ok: true, ts: Date.UTC(2026, 10, 1, 5, 30) });
     // 2026-03-29 02:30 does not exist in Berlin (clocks jump from 02:00 to 03:00).
     expect(parseReadingTime('2026-03-29T02:30:00', { timeZone: 'Europe/Berlin' }).ok).toBe(false);
   });

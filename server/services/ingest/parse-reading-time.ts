@@ -1,4 +1,5 @@
 import { wallClockFormatter } from '../../policies/time-zones.ts';
+import { instantOfWallClock } from './wall-clock-instant.ts';
 
 /**
  * Why a time could not be read: `bad_time` (not a time at all, or not a valid one) or
@@ -109,16 +110,12 @@ function computeZoneOffsetMs(timeZone: string, utcMs: number): number {
 }
 
 /**
- * UTC epoch ms of a wall-clock time in an IANA zone. Two passes settle the offset; a time that
- * falls in a daylight-saving gap does not exist there and is refused (a repeated hour takes
- * the first occurrence), because guessing would put a reading an hour off.
+ * UTC epoch ms of a wall-clock time in an IANA zone: a time that falls in a daylight-saving gap
+ * does not exist there and is refused, a repeated hour takes the first occurrence (the rule of
+ * `instantOfWallClock`, with this file's cached offsets), because guessing would put a reading an hour off.
  */
 function inZone(w: WallTime, timeZone: string): number | null {
-  const naive = utcMs(w.y, w.mo, w.d, w.h, w.mi, w.s, w.ms);
-  let guess = naive - zoneOffsetMs(timeZone, naive);
-  guess = naive - zoneOffsetMs(timeZone, guess);
-  const check = guess + zoneOffsetMs(timeZone, guess);
-  return check === naive ? guess : null;
+  return instantOfWallClock(utcMs(w.y, w.mo, w.d, w.h, w.mi, w.s, w.ms), timeZone, zoneOffsetMs);
 }
 
 export type TimeFormat = 'auto' | 'iso' | 'epoch-ms' | 'epoch-s';

@@ -24,13 +24,14 @@ function zoneOffsetMs(timeZone: string, utcMs: number): number {
  * (guessing would put a reading an hour off); a wall time in a repeated hour takes its FIRST
  * occurrence (the earlier instant, still on daylight time). Each offset the zone uses within a
  * day either side is tried, so the answer does not depend on which side of UTC the zone lies.
+ * `offsetAt` gives a zone's offset at an instant (ingestion passes its cached one).
  */
-export function instantOfWallClock(naiveMs: number, timeZone: string): number | null {
-  const offsets = new Set([naiveMs - DAY_MS, naiveMs, naiveMs + DAY_MS].map((t) => zoneOffsetMs(timeZone, t)));
+export function instantOfWallClock(naiveMs: number, timeZone: string, offsetAt: (timeZone: string, utcMs: number) => number = zoneOffsetMs): number | null {
+  const offsets = new Set([naiveMs - DAY_MS, naiveMs, naiveMs + DAY_MS].map((t) => offsetAt(timeZone, t)));
   let best: number | null = null;
   for (const offset of offsets) {
     const candidate = naiveMs - offset;
-    if (candidate + zoneOffsetMs(timeZone, candidate) !== naiveMs) continue;
+    if (candidate + offsetAt(timeZone, candidate) !== naiveMs) continue;
     if (best === null || candidate < best) best = candidate;
   }
   return best;
