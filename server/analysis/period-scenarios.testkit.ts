@@ -2,7 +2,7 @@
  * Test-only generators of logger-like series with a known truth, for the period-search
  * simulation test and benchmark (nothing in the engine imports this file). All are seeded.
  *
- * Conventions (stated here once, used in the figures of tests/bench/RESULTS.md):
+ * Conventions (stated here once, used in the figures of tests/bench/README.md):
  * - "noise SD" is the marginal (stationary) standard deviation of the AR(1) noise, so an AR(1)
  *   with φ has innovations of SD √(1 − φ²);
  * - a cycle of amplitude A is A·sin(2πt/P + phase) with a random phase;

@@ -169,7 +169,7 @@ function trendSection(r: ChannelDiagnostics, stepMs: number, label: string, unit
       : '';
   const adjusted = t.fittedOn === 'adjusted' ? ' (after removing the seasonal cycle)' : '';
   // Simulated coverage of this interval falls short of nominal on strongly persistent series
-  // (≈ 87 % at AR(1) φ = 0.9, n = 1,000; tests/bench/RESULTS.md), so say so when the range holds few independent readings.
+  // (≈ 87 % at AR(1) φ = 0.9, n = 1,000; tests/bench/README.md), so say so when the range holds few independent readings.
   const persistent =
     r.effectiveSampleSize.ess < 100
       ? ` The range holds only about ${Math.max(1, Math.round(r.effectiveSampleSize.ess))} independent readings' worth of information, so even this interval is likely somewhat too narrow; a longer range gives a firmer answer.`
