@@ -14,6 +14,54 @@ export const MAX_UPLOAD_BYTES = 2 * 1024 ** 3;
 /** Media types an upload's body may be declared with (a file picker may say either of the last two). */
 export const UPLOAD_MEDIA_TYPES = ['text/csv', 'text/plain', 'application/octet-stream'];
 
+/**
+ * The built-in layouts an upload's time column may be written in (read by
+ * `server/services/ingest/time-layouts.ts`), each with the words the upload form shows.
+ */
+export const TIME_LAYOUTS = [
+  'iso',
+  'day-first-dot',
+  'day-first-slash',
+  'month-first-slash',
+  'day-first-slash-12h',
+  'month-first-slash-12h',
+  'epoch-s',
+  'epoch-ms',
+  'serial-1900',
+] as const;
+export type TimeLayoutId = (typeof TIME_LAYOUTS)[number];
+
+export const TIME_LAYOUT_LABELS: Record<TimeLayoutId, string> = {
+  iso: 'ISO 8601 (2026-11-24T00:00:00, with or without an offset)',
+  'day-first-dot': 'day first, dd.mm.yyyy HH:mm[:ss]',
+  'day-first-slash': 'day first, dd/mm/yyyy HH:mm[:ss]',
+  'month-first-slash': 'month first, mm/dd/yyyy HH:mm[:ss]',
+  'day-first-slash-12h': 'day first, dd/mm/yyyy hh:mm[:ss] AM/PM',
+  'month-first-slash-12h': 'month first, mm/dd/yyyy hh:mm[:ss] AM/PM',
+  'epoch-s': 'epoch seconds',
+  'epoch-ms': 'epoch milliseconds',
+  'serial-1900': 'spreadsheet serial day number (1900 system)',
+};
+
+/**
+ * What an upload's `timeFormat` may say: `auto` (ISO 8601 or epoch milliseconds, as live
+ * ingestion reads them), one of the built-in layouts, or `pattern` (then `timePattern` holds a
+ * pattern in the Unicode LDML date-symbol subset, e.g. `dd.MM.yyyy HH:mm`).
+ */
+export const UPLOAD_TIME_FORMATS = ['auto', ...TIME_LAYOUTS, 'pattern'] as const;
+export type UploadTimeFormat = (typeof UPLOAD_TIME_FORMATS)[number];
+
+/** Layouts whose times carry no offset: the upload must name the zone they are in. */
+const WALL_CLOCK_FORMATS: readonly UploadTimeFormat[] = [
+  'day-first-dot',
+  'day-first-slash',
+  'month-first-slash',
+  'day-first-slash-12h',
+  'month-first-slash-12h',
+  'serial-1900',
+  'pattern',
+];
+
 /** How to read an uploaded export file: long (`channel,ts,value`) or wide (a time column and one column per channel). */
 export const uploadOptionsSchema = z
   .object({
@@ -24,7 +72,9 @@ export const uploadOptionsSchema = z
     valueColumn: z.string().min(1).max(191).optional(),
     /** Wide format: file column → channel key (null skips the column). */
     columns: z.record(z.string().max(191), channelKeySchema.nullable()).optional(),
-    timeFormat: z.enum(['auto', 'iso', 'epoch-ms', 'epoch-s'], { error: 'must be auto, iso, epoch-ms or epoch-s' }).default('auto'),
+    timeFormat: z.enum(UPLOAD_TIME_FORMATS, { error: `must be one of ${UPLOAD_TIME_FORMATS.join(', ')}` }).default('auto'),
+    /** With `timeFormat: 'pattern'`: the custom pattern (checked by the server before the upload starts). */
+    timePattern: z.string().trim().min(1, 'must not be empty').max(64, 'must be at most 64 characters').optional(),
     /** Zone for local times without an offset (e.g. the logger's own zone). */
     timeZone: timeZoneSchema.optional(),
   })
@@ -32,6 +82,11 @@ export const uploadOptionsSchema = z
   .refine((o) => o.format !== 'wide' || (o.columns && Object.values(o.columns).some((v) => v)), {
     message: 'wide format needs at least one column mapped to a channel',
     path: ['columns'],
+  })
+  .refine((o) => o.timeFormat !== 'pattern' || o.timePattern, { message: 'give the pattern of the time column, e.g. dd.MM.yyyy HH:mm', path: ['timePattern'] })
+  .refine((o) => !WALL_CLOCK_FORMATS.includes(o.timeFormat) || o.timeZone, {
+    message: "this time layout carries no UTC offset: name the zone its times are in (the logger's own zone, usually)",
+    path: ['timeZone'],
   });
 export type UploadOptions = z.infer<typeof uploadOptionsSchema>;
 

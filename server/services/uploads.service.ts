@@ -4,7 +4,8 @@ import { inLab } from '../db/tenant-scope.ts';
 import { loggersRepo } from '../db/loggers.repo.ts';
 import { NotFoundError } from '../errors.ts';
 import { ConflictError } from './service-errors.ts';
-import { importUpload, type UploadLayout, type UploadProgress, type UploadSummary } from './ingest/import-upload.ts';
+import { importUpload, resolveUploadLayout, type UploadLayout, type UploadProgress, type UploadSummary } from './ingest/import-upload.ts';
+import type { UploadOptions } from '../contract/uploads.ts';
 import type { IngestHooks } from './ingest/ingest-hooks.ts';
 import type { IngestTarget } from './ingest/ingest-batch.ts';
 import type { LabContext } from './lab-context.ts';
@@ -21,6 +22,11 @@ export function createUploadsService(deps: { db: Db; now?: () => number; hooks?:
       if (!logger) throw new NotFoundError('No such logger in this lab.');
       if (logger.retiredAt) throw new ConflictError('logger_retired', 'This logger is retired; its history cannot be extended.');
       return { tenantId: lab.id, loggerId };
+    },
+
+    /** How the file will be read; a custom time pattern that cannot be read answers 400 `timePattern: …` here, before the upload starts. */
+    layoutOf(options: UploadOptions): UploadLayout {
+      return resolveUploadLayout(options);
     },
 
     run(target: IngestTarget, file: Readable, layout: UploadLayout, onProgress: (p: UploadProgress) => void): Promise<UploadSummary> {

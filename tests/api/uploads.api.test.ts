@@ -104,6 +104,78 @@ describe('historical uploads', () => {
     expect(res.body.error).toEqual({ code: 'invalid_input', message });
   });
 
+  it("reads a day-first export (dd.mm.yyyy, semicolons) in the logger's zone when that layout is chosen: nothing quarantined", async () => {
+    const lines = ['Datum;Temp;RH'];
+    for (let i = 0; i < 96; i++) {
+      const minutes = i * 15;
+      const hh = String(Math.floor(minutes / 60)).padStart(2, '0');
+      const mm = String(minutes % 60).padStart(2, '0');
+      lines.push(`25.11.2026 ${hh}:${mm};${(i % 40) / 10};${50 + (i % 7)}`);
+    }
+    const options = {
+      format: 'wide',
+      delimiter: ';',
+      timeColumn: 'Datum',
+      columns: { Temp: 'air_t', RH: 'rh' },
+      timeFormat: 'day-first-dot',
+      timeZone: 'Europe/Berlin',
+    };
+    const summary = ndjson((await upload(options, lines.join('\n')).expect(200)).text).at(-1);
+    expect(summary).toMatchObject({ type: 'summary', lines: 96, readings: 192, accepted: 192, quarantined: 0 });
+    // Europe/Berlin keeps UTC+1 in November (IANA tz database: CET after the last Sunday of October).
+    const stored = await t
+      .db('readings')
+      .where({ tenant_id: f.lab.id, channel_id: rhId })
+      .where('ts', '>=', Date.UTC(2026, 10, 24, 23, 0))
+      .orderBy('ts');
+    expect(stored).toHaveLength(96);
+    expect(Number(stored[0].ts)).toBe(Date.UTC(2026, 10, 24, 23, 0));
+    expect(Number(stored[95].ts)).toBe(Date.UTC(2026, 10, 25, 22, 45));
+  });
+
+  it('reads times with a custom pattern, and refuses a pattern it cannot read before anything is stored', async () => {
+    const options = {
+      format: 'long',
+      timeColumn: 'ts',
+      channelColumn: 'channel',
+      valueColumn: 'value',
+      timeFormat: 'pattern',
+      timePattern: 'yyyy/MM/dd HH.mm',
+      timeZone: 'UTC',
+    };
+    const summary = ndjson((await upload(options, 'channel,ts,value\nair_t,2026/12/01 06.30,4.5\n').expect(200)).text).at(-1);
+    expect(summary).toMatchObject({ accepted: 1, quarantined: 0 });
+    expect(
+      await t
+        .db('readings')
+        .where({ tenant_id: f.lab.id, channel_id: f.ids.channelId, ts: Date.UTC(2026, 11, 1, 6, 30) })
+        .first(),
+    ).toMatchObject({ value: 4.5 });
+    const bad = await upload({ ...options, timePattern: 'yyyy-MM-dd QQQ' }, 'channel,ts,value\nair_t,2026-12-02 Q4,1\n').expect(400);
+    expect(bad.body.error.code).toBe('invalid_input');
+    expect(bad.body.error.message).toMatch(/^timePattern: /);
+    expect(
+      await t
+        .db('readings')
+        .where({ tenant_id: f.lab.id, channel_id: f.ids.channelId, ts: Date.UTC(2026, 11, 2) })
+        .first(),
+    ).toBeUndefined();
+  });
+
+  it.each([
+    [
+      { format: 'long', timeColumn: 'ts', channelColumn: 'c', valueColumn: 'v', timeFormat: 'pattern', timeZone: 'UTC' },
+      'timePattern: give the pattern of the time column, e.g. dd.MM.yyyy HH:mm',
+    ],
+    [
+      { format: 'long', timeColumn: 'ts', channelColumn: 'c', valueColumn: 'v', timeFormat: 'month-first-slash' },
+      "timeZone: this time layout carries no UTC offset: name the zone its times are in (the logger's own zone, usually)",
+    ],
+  ])('refuses layout options %j with 400 and the exact message', async (options, message) => {
+    const res = await upload(options, 'x\n').expect(400);
+    expect(res.body.error).toEqual({ code: 'invalid_input', message });
+  });
+
   it('415 for a body that is not a CSV file', async () => {
     const options = { format: 'long', timeColumn: 'ts', channelColumn: 'channel', valueColumn: 'value' };
     await upload(options, '{}', 'application/json').expect(415);

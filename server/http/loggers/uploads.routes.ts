@@ -35,6 +35,7 @@ export function uploadRoutes(deps: { uploads: UploadsService; logger: LogWriter 
       stream: true,
       handle: async ({ lab, params, query }, { req, res }) => {
         const target = await deps.uploads.targetFor(lab, params.loggerId);
+        const layout = deps.uploads.layoutOf(query.options);
         if (!req.is(UPLOAD_MEDIA_TYPES)) throw new AppError(415, 'unsupported_media_type', 'Upload the export file as text/csv.');
         const declared = Number(req.get('content-length') ?? 0);
         if (declared > MAX_UPLOAD_BYTES) throw new AppError(413, 'payload_too_large', 'The file is larger than 2 GB; split it and upload the parts.');
@@ -43,7 +44,7 @@ export function uploadRoutes(deps: { uploads: UploadsService; logger: LogWriter 
         res.flushHeaders();
         const line = (l: UploadLine) => res.write(`${JSON.stringify(l)}\n`);
         try {
-          const summary = await deps.uploads.run(target, req, query.options, (p) => line({ type: 'progress', ...p }));
+          const summary = await deps.uploads.run(target, req, layout, (p) => line({ type: 'progress', ...p }));
           line({ type: 'summary', ...summary });
         } catch (err) {
           const e = err as AppError;

@@ -1,6 +1,7 @@
 import { BatchCandidates } from './batch-candidates.ts';
 import { parseReadingValue } from './parse-reading-value.ts';
 import { parseReadingTime, type TimeFormat } from './parse-reading-time.ts';
+import { parseWithLayout, type TimeLayout } from './time-layouts.ts';
 
 /** One row as it arrived, before anything is checked. `index` is its position in the request. */
 export interface IncomingReading {
@@ -33,6 +34,8 @@ export interface RowCheckOptions {
   /** The clock reading (epoch ms) that "the future" is measured from. */
   now: number;
   timeFormat?: TimeFormat;
+  /** A layout chosen for the batch's times (an upload's); read in `timeZone`, and `timeFormat` is then unused. */
+  timeLayout?: TimeLayout;
   timeZone?: string;
 }
 
@@ -91,7 +94,9 @@ export async function checkRows(
       reject(row, 'retired_channel', `channel: "${key}" is retired`);
       continue;
     }
-    const time = parseReadingTime(row.ts, timeOptions);
+    const time = options.timeLayout
+      ? parseWithLayout(String(row.ts ?? ''), options.timeLayout, options.timeZone ?? 'UTC')
+      : parseReadingTime(row.ts, timeOptions);
     if (!time.ok) {
       reject(row, time.code, time.reason);
       continue;

@@ -5,6 +5,9 @@ import { csvRecordChunks } from './csv-records.ts';
 import { MAX_QUARANTINED_PER_BATCH, TooManyQuarantinedError, type RefusedRow } from './readings-from-body.ts';
 import type { IngestHooks } from './ingest-hooks.ts';
 import { ingestBatch, type IncomingReading, type IngestTarget, type QuarantinedEntry } from './ingest-batch.ts';
+import type { TimeFormat } from './parse-reading-time.ts';
+import { compilePattern, type TimeLayout } from './time-layouts.ts';
+import type { UploadOptions } from '../../contract/uploads.ts';
 
 export interface UploadLayout {
   format: 'long' | 'wide';
@@ -13,7 +16,9 @@ export interface UploadLayout {
   channelColumn?: string;
   valueColumn?: string;
   columns?: Record<string, string | null>;
-  timeFormat: 'auto' | 'iso' | 'epoch-ms' | 'epoch-s';
+  timeFormat: TimeFormat;
+  /** A layout chosen for the time column (`resolveUploadLayout`); `timeFormat` is then unused. */
+  timeLayout?: TimeLayout;
   timeZone?: string;
 }
 
@@ -28,6 +33,20 @@ export interface UploadProgress {
 export interface UploadSummary extends UploadProgress {
   /** The first quarantined readings with their reasons (all are in the quarantine table). */
   firstQuarantined: Array<QuarantinedEntry & { line: number }>;
+}
+
+/**
+ * How an upload's options say its times are read: `auto`, `iso` and the epoch formats as live
+ * ingestion reads them; the other layouts, and a custom pattern (compiled here once, so a bad
+ * one is refused as `timePattern: …` before anything is read), through `time-layouts.ts`.
+ */
+export function resolveUploadLayout(options: UploadOptions): UploadLayout {
+  const { timeFormat, timePattern, ...rest } = options;
+  if (timeFormat === 'auto' || timeFormat === 'iso' || timeFormat === 'epoch-ms' || timeFormat === 'epoch-s') return { ...rest, timeFormat };
+  if (timeFormat !== 'pattern') return { ...rest, timeFormat: 'auto', timeLayout: timeFormat };
+  const compiled = compilePattern(timePattern ?? '');
+  if ('error' in compiled) throw new ValidationError(`timePattern: ${compiled.error.replace(/^pattern: /, '')}`);
+  return { ...rest, timeFormat: 'auto', timeLayout: { custom: compiled } };
 }
 
 /** Readings are stored in batches of this many: each batch is one transaction. */
@@ -75,6 +94,7 @@ export async function importUpload(
       source: 'upload',
       batchRef,
       timeFormat: layout.timeFormat,
+      timeLayout: layout.timeLayout,
       timeZone: layout.timeZone,
       now: opts.now,
       hooks: opts.hooks,

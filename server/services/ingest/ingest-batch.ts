@@ -5,6 +5,7 @@ import { channelsRepo } from '../../db/channels.repo.ts';
 import { loggersRepo } from '../../db/loggers.repo.ts';
 import type { ReadingSource } from '../../db/quarantine.repo.ts';
 import type { TimeFormat } from './parse-reading-time.ts';
+import type { TimeLayout } from './time-layouts.ts';
 import { isLockConflict } from '../../db/db-errors.ts';
 import type { IngestHooks, StoredBatch } from './ingest-hooks.ts';
 import { checkRows, type IncomingReading } from './check-rows.ts';
@@ -34,6 +35,8 @@ export interface IngestOptions {
   source: ReadingSource;
   batchRef?: string;
   timeFormat?: TimeFormat;
+  /** A layout chosen for the batch's times (uploads); see RowCheckOptions. */
+  timeLayout?: TimeLayout;
   timeZone?: string;
   now?: () => number;
   /** Plan limits, alerts and the like (see ingest-hooks.ts). */
@@ -91,7 +94,7 @@ async function applyBatch(
   const channels = new Map((await channelsRepo(scope).listForLogger(target.loggerId, { includeRetired: true })).map((c) => [c.key, c]));
 
   // 1. Read and check each row; keep the first value per (channel, ts) in this batch.
-  const checked = await checkRows(rows, channels, { now: now(), timeFormat: opts.timeFormat, timeZone: opts.timeZone });
+  const checked = await checkRows(rows, channels, { now: now(), timeFormat: opts.timeFormat, timeLayout: opts.timeLayout, timeZone: opts.timeZone });
   // 2. Insert what is new, in primary-key order; only if some rows were already stored, find out which and why.
   const sorted = checked.candidates.sorted();
   const { accepted, duplicates, conflicts } = await storeNew(scope, sorted, rows);

@@ -1,3 +1,4 @@
+import { TIME_LAYOUT_LABELS, TIME_LAYOUTS, type TimeLayoutId } from '../../contract/uploads.ts';
 import { parseReadingTime, type TimeParse } from './parse-reading-time.ts';
 import { compilePattern, readWithPattern, type CompiledPattern, type WallFields } from './time-layouts/pattern.ts';
 import { serialToNaiveMs } from './time-layouts/serial-day.ts';
@@ -5,20 +6,10 @@ import { instantOfWallClock, naiveUtcMs } from './wall-clock-instant.ts';
 
 export { compilePattern, type CompiledPattern } from './time-layouts/pattern.ts';
 
-/** The built-in time layouts an upload may name. */
-export const BUILT_IN_LAYOUTS = [
-  'iso',
-  'day-first-dot',
-  'day-first-slash',
-  'month-first-slash',
-  'day-first-slash-12h',
-  'month-first-slash-12h',
-  'epoch-s',
-  'epoch-ms',
-  'serial-1900',
-] as const;
+/** The built-in time layouts an upload may name (the list is vocabulary of the uploads contract). */
+export const BUILT_IN_LAYOUTS = TIME_LAYOUTS;
 
-export type BuiltInLayout = (typeof BUILT_IN_LAYOUTS)[number];
+export type BuiltInLayout = TimeLayoutId;
 
 /** A layout: a built-in one, or a custom pattern compiled once with `compilePattern`. */
 export type TimeLayout = BuiltInLayout | { custom: CompiledPattern };
@@ -33,17 +24,7 @@ const LAYOUT_PATTERNS: Partial<Record<BuiltInLayout, string[]>> = {
 };
 
 /** Short human descriptions, for messages and the upload form. */
-export const LAYOUT_LABELS: Record<BuiltInLayout, string> = {
-  iso: 'ISO 8601 (2026-11-24T00:00:00, with or without an offset)',
-  'day-first-dot': 'day first, dd.mm.yyyy HH:mm[:ss]',
-  'day-first-slash': 'day first, dd/mm/yyyy HH:mm[:ss]',
-  'month-first-slash': 'month first, mm/dd/yyyy HH:mm[:ss]',
-  'day-first-slash-12h': 'day first, dd/mm/yyyy hh:mm[:ss] AM/PM',
-  'month-first-slash-12h': 'month first, mm/dd/yyyy hh:mm[:ss] AM/PM',
-  'epoch-s': 'epoch seconds',
-  'epoch-ms': 'epoch milliseconds',
-  'serial-1900': 'spreadsheet serial day number (1900 system)',
-};
+export const LAYOUT_LABELS = TIME_LAYOUT_LABELS;
 
 const compiled = new Map<string, CompiledPattern>();
 function builtInPattern(pattern: string): CompiledPattern {

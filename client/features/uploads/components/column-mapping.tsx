@@ -1,4 +1,5 @@
-import { SelectField } from '../../../components/form-field.tsx';
+import { TIME_LAYOUT_LABELS } from '@shared/contract/uploads.ts';
+import { SelectField, TextField } from '../../../components/form-field.tsx';
 import { TimeZoneSelect } from '../../../components/time-zone-select.tsx';
 import type { Delimiter } from '../hooks/csv-preview.ts';
 import type { TimeFormat, UploadFormat, UploadSetup } from '../hooks/upload-setup.ts';
@@ -9,11 +10,11 @@ export interface MappingChannel {
 }
 
 const DELIMITER_LABELS: Record<Delimiter, string> = { ',': 'Comma (,)', ';': 'Semicolon (;)', '\t': 'Tab' };
+/** The layouts the server reads (from the uploads contract), in the order the form lists them. */
 const TIME_FORMAT_LABELS: Record<TimeFormat, string> = {
-  auto: 'Recognise automatically',
-  iso: 'ISO 8601 date and time',
-  'epoch-ms': 'Epoch milliseconds',
-  'epoch-s': 'Epoch seconds',
+  auto: 'Recognise automatically (ISO 8601 or epoch milliseconds)',
+  ...TIME_LAYOUT_LABELS,
+  pattern: 'A pattern of my own…',
 };
 
 function ColumnSelect({ label, header, value, onChange }: { label: string; header: string[]; value: string; onChange: (v: string) => void }) {
@@ -120,6 +121,15 @@ export function ColumnMapping({
             </option>
           ))}
         </SelectField>
+        {setup.timeFormat === 'pattern' && (
+          <TextField
+            label="Pattern of the time column"
+            hint="Letters: yyyy or yy year, MM or M month, dd or d day, HH or H hour (24 h), hh or h with a for AM/PM, mm minutes, ss seconds, SSS milliseconds; text in 'quotes' is matched as written."
+            placeholder="dd.MM.yyyy HH:mm"
+            value={setup.timePattern ?? ''}
+            onChange={(e) => set('timePattern', e.target.value)}
+          />
+        )}
         <TimeZoneSelect
           label="Time zone of times without offset"
           hint="Used only for times like 2026-05-01 14:30 that carry no Z or ±hh:mm."

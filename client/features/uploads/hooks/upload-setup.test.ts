@@ -56,3 +56,26 @@ describe('toUploadOptions', () => {
     });
   });
 });
+
+describe('toUploadOptions with a time layout', () => {
+  it('sends a chosen layout, and the pattern only with the custom layout', () => {
+    const setup = { ...guessUploadSetup(WIDE, ';', ['air_t', 'rh'], 'Europe/Berlin'), timeFormat: 'day-first-dot' as const, timePattern: 'ignored' };
+    const dayFirst = toUploadOptions(setup, WIDE);
+    expect(dayFirst.ok && dayFirst.options).toMatchObject({ timeFormat: 'day-first-dot', timeZone: 'Europe/Berlin' });
+    expect(dayFirst.ok && dayFirst.options.timePattern).toBeUndefined();
+    const custom = toUploadOptions({ ...setup, timeFormat: 'pattern', timePattern: 'dd.MM.yy HH:mm' }, WIDE);
+    expect(custom.ok && custom.options).toMatchObject({ timeFormat: 'pattern', timePattern: 'dd.MM.yy HH:mm' });
+  });
+
+  it('refuses the custom layout without a pattern, and a wall-clock layout without a zone, with the server schema’s messages', () => {
+    const setup = guessUploadSetup(WIDE, ',', ['air_t', 'rh'], '');
+    expect(toUploadOptions({ ...setup, timeFormat: 'pattern', timeZone: 'UTC' }, WIDE)).toEqual({
+      ok: false,
+      problems: ['timePattern: give the pattern of the time column, e.g. dd.MM.yyyy HH:mm'],
+    });
+    expect(toUploadOptions({ ...setup, timeFormat: 'month-first-slash' }, WIDE)).toEqual({
+      ok: false,
+      problems: ["timeZone: this time layout carries no UTC offset: name the zone its times are in (the logger's own zone, usually)"],
+    });
+  });
+});

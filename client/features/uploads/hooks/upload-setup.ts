@@ -1,8 +1,8 @@
-import { uploadOptionsSchema, type UploadOptions } from '@shared/contract/uploads.ts';
+import { uploadOptionsSchema, type UploadOptions, type UploadTimeFormat } from '@shared/contract/uploads.ts';
 import type { Delimiter } from './csv-preview.ts';
 
 export type UploadFormat = 'long' | 'wide';
-export type TimeFormat = 'auto' | 'iso' | 'epoch-ms' | 'epoch-s';
+export type TimeFormat = UploadTimeFormat;
 
 /** What the person chose on the upload page, before it becomes the API's upload options. */
 export interface UploadSetup {
@@ -15,6 +15,8 @@ export interface UploadSetup {
   /** Wide format: file column → channel key, or null to skip the column. */
   columns: Record<string, string | null>;
   timeFormat: TimeFormat;
+  /** With the custom layout (`timeFormat: 'pattern'`): its pattern, e.g. dd.MM.yyyy HH:mm. */
+  timePattern?: string;
   /** Zone for times without a UTC offset. */
   timeZone: string;
 }
@@ -57,6 +59,7 @@ export function toUploadOptions(setup: UploadSetup, header: string[]): { ok: tru
     delimiter: setup.delimiter,
     timeColumn: setup.timeColumn,
     timeFormat: setup.timeFormat,
+    timePattern: setup.timeFormat === 'pattern' ? setup.timePattern || undefined : undefined,
     timeZone: setup.timeZone || undefined,
   };
   const candidate =
