@@ -2,6 +2,7 @@ import { z } from 'zod';
 import type { QuarantinedReading } from './ingest.ts';
 import { channelKeySchema } from './loggers.ts';
 import { timeZoneSchema } from './me.ts';
+import type { IsoTime } from './common.ts';
 
 /**
  * `POST …/loggers/:loggerId/uploads?options=<json>`: a logger's historical export file as the raw
@@ -132,3 +133,45 @@ export interface ImportSummary extends ImportProgress {
  * or an `error` when the import stopped (what was stored before it is kept).
  */
 export type UploadLine = ({ type: 'progress' } & ImportProgress) | ({ type: 'summary' } & ImportSummary) | { type: 'error'; code: string; message: string };
+
+/**
+ * `POST …/loggers/:loggerId/uploads/time-preview`: how the first rows' time texts will be read,
+ * before an upload starts — with the layout asked for, or with `auto` the layout guessed from them.
+ */
+export const timePreviewSchema = z
+  .object({
+    samples: z
+      .array(z.string({ error: 'must be texts' }).max(100, 'must be at most 100 characters'), { error: 'must be a list of time texts' })
+      .min(1, 'give at least one time text')
+      .max(50, 'must be at most 50 texts'),
+    timeFormat: z.enum(UPLOAD_TIME_FORMATS, { error: `must be one of ${UPLOAD_TIME_FORMATS.join(', ')}` }).default('auto'),
+    timePattern: z.string().trim().min(1, 'must not be empty').max(64, 'must be at most 64 characters').optional(),
+    timeZone: timeZoneSchema,
+  })
+  .refine((o) => o.timeFormat !== 'pattern' || o.timePattern, { message: 'give the pattern of the time column, e.g. dd.MM.yyyy HH:mm', path: ['timePattern'] });
+export type TimePreviewInput = z.infer<typeof timePreviewSchema>;
+
+/** One sample row as it will be stored: the text as received, the instant in UTC and on the zone's wall clock, or why it cannot be read. */
+export interface TimePreviewRow {
+  /** 1-based position among the samples. */
+  row: number;
+  text: string;
+  utc: IsoTime | null;
+  /** `YYYY-MM-DD HH:MM:SS` on the wall clock of the preview's zone. */
+  local: string | null;
+  problem: string | null;
+  /** The built-in layouts that read this row disagree (e.g. 03/04/2026: 3 April or 4 March). */
+  ambiguous: boolean;
+}
+
+/** The answer of the time preview. */
+export interface TimePreviewAnswer {
+  timeZone: string;
+  /** The layout the rows were read with: the one asked for, or with `auto` the one that reads them (null: none does). */
+  layout: UploadTimeFormat | null;
+  /** What the first rows suggest, whatever was asked for. */
+  guess: { chosen: TimeLayoutId | null; candidates: TimeLayoutId[]; ambiguousRows: number[]; reason: string | null };
+  rows: TimePreviewRow[];
+  /** Every non-blank sample reads with `layout`: an upload with it will not quarantine these rows for their time. */
+  readable: boolean;
+}

@@ -5,7 +5,8 @@ import { loggersRepo } from '../db/loggers.repo.ts';
 import { NotFoundError } from '../errors.ts';
 import { ConflictError } from './service-errors.ts';
 import { importUpload, resolveUploadLayout, type UploadLayout, type UploadProgress, type UploadSummary } from './ingest/import-upload.ts';
-import type { UploadOptions } from '../contract/uploads.ts';
+import type { TimePreviewAnswer, TimePreviewInput, UploadOptions } from '../contract/uploads.ts';
+import { previewUploadTimes } from './ingest/time-preview.ts';
 import type { IngestHooks } from './ingest/ingest-hooks.ts';
 import type { IngestTarget } from './ingest/ingest-batch.ts';
 import type { LabContext } from './lab-context.ts';
@@ -22,6 +23,11 @@ export function createUploadsService(deps: { db: Db; now?: () => number; hooks?:
       if (!logger) throw new NotFoundError('No such logger in this lab.');
       if (logger.retiredAt) throw new ConflictError('logger_retired', 'This logger is retired; its history cannot be extended.');
       return { tenantId: lab.id, loggerId };
+    },
+
+    /** How an upload's first time texts will be read and stored (for the form's preview). */
+    previewTimes(input: TimePreviewInput): TimePreviewAnswer {
+      return previewUploadTimes(input);
     },
 
     /** How the file will be read; a custom time pattern that cannot be read answers 400 `timePattern: …` here, before the upload starts. */

@@ -50,6 +50,7 @@ const ALLOWED: Record<string, { roles: Role[]; ok: number }> = {
   'POST /quarantine/discard': { roles: ['admin', 'technician'], ok: 200 },
   'POST /quarantine/resubmit': { roles: ['admin', 'technician'], ok: 200 },
   'POST /loggers/:loggerId/uploads': { roles: ['admin', 'technician'], ok: 200 },
+  'POST /loggers/:loggerId/uploads/time-preview': { roles: ['admin', 'technician'], ok: 200 },
   'GET /channels': { roles: ALL, ok: 200 },
   'GET /channels/:channelId': { roles: ALL, ok: 200 },
   'GET /channels/:channelId/series': { roles: ALL, ok: 200 },

@@ -176,6 +176,30 @@ describe('historical uploads', () => {
     expect(res.body.error).toEqual({ code: 'invalid_input', message });
   });
 
+  it('previews how the first time texts will be stored, naming the layout that reads them, before an upload starts', async () => {
+    const res = await request(t.app)
+      .post(`/api/v1/labs/${f.lab.slug}/loggers/${f.ids.loggerId}/uploads/time-preview`)
+      .set('Cookie', cookie)
+      .send({ samples: ['24.11.2026 00:00', '24.11.2026 00:15'], timeZone: 'Europe/Berlin' })
+      .expect(200);
+    expect(res.body).toMatchObject({ timeZone: 'Europe/Berlin', layout: 'day-first-dot', readable: true });
+    // Europe/Berlin is UTC+1 in November (IANA tz database)
+    expect(res.body.rows[1]).toEqual({
+      row: 2,
+      text: '24.11.2026 00:15',
+      utc: '2026-11-23T23:15:00.000Z',
+      local: '2026-11-24 00:15:00',
+      problem: null,
+      ambiguous: false,
+    });
+    const bad = await request(t.app)
+      .post(`/api/v1/labs/${f.lab.slug}/loggers/${f.ids.loggerId}/uploads/time-preview`)
+      .set('Cookie', cookie)
+      .send({ samples: [], timeZone: 'Europe/Berlin' })
+      .expect(400);
+    expect(bad.body.error.message).toBe('samples: give at least one time text');
+  });
+
   it('415 for a body that is not a CSV file', async () => {
     const options = { format: 'long', timeColumn: 'ts', channelColumn: 'channel', valueColumn: 'value' };
     await upload(options, '{}', 'application/json').expect(415);

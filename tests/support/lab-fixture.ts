@@ -186,6 +186,7 @@ export function validBodyFor(method: string, path: string, f: LabWithEverything)
     'PATCH /loggers/:loggerId/channels/:channelId': { label: 'Air temperature (shaded)' },
     'POST /loggers/:loggerId/keys': { rotate: false },
     'POST /loggers/:loggerId/test-reading': { channel: 'air_t', value: 4.2 },
+    'POST /loggers/:loggerId/uploads/time-preview': { samples: ['24.11.2026 00:00'], timeZone: 'UTC' },
     'POST /quarantine/discard': { ids: [f.ids.quarantinedId] },
     'POST /tokens': { name: `Notebook ${unique}`, expiresInDays: 30 },
     'POST /alert-rules': { name: `Rule ${unique}`, kind: 'bounds', channelId: f.ids.channelId, params: { high: 35, holdS: 60 } },

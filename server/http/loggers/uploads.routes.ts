@@ -1,6 +1,14 @@
 import { AppError } from '../../errors.ts';
 import { loggerParams } from '../../contract/loggers.ts';
-import { MAX_UPLOAD_BYTES, UPLOAD_MEDIA_TYPES, uploadCsvBody, uploadQuerySchema, type UploadLine } from '../../contract/uploads.ts';
+import {
+  MAX_UPLOAD_BYTES,
+  timePreviewSchema,
+  UPLOAD_MEDIA_TYPES,
+  uploadCsvBody,
+  uploadQuerySchema,
+  type TimePreviewAnswer,
+  type UploadLine,
+} from '../../contract/uploads.ts';
 import type { UploadsService } from '../../services/uploads.service.ts';
 import type { LogWriter } from '../../log-writer.ts';
 import { defineRoute, type Route } from '../routes/route.ts';
@@ -13,6 +21,21 @@ import { defineRoute, type Route } from '../routes/route.ts';
  */
 export function uploadRoutes(deps: { uploads: UploadsService; logger: LogWriter }): Route[] {
   return [
+    defineRoute({
+      method: 'post',
+      path: '/loggers/:loggerId/uploads/time-preview',
+      auth: { permission: 'uploads.create' },
+      summary:
+        "How an upload's first time texts will be read: each as received, the instant stored (UTC and the zone's wall clock) or why it cannot be read, rows the layouts read differently, and the layout the rows suggest.",
+      params: loggerParams,
+      body: timePreviewSchema,
+      response: { status: 200, description: 'The rows as they will be stored, the layout used and the guess.' },
+      errors: { 409: "`logger_retired`: a retired logger's history cannot be extended." },
+      handle: async ({ lab, params, body }): Promise<TimePreviewAnswer> => {
+        await deps.uploads.targetFor(lab, params.loggerId);
+        return deps.uploads.previewTimes(body);
+      },
+    }),
     defineRoute({
       method: 'post',
       path: '/loggers/:loggerId/uploads',

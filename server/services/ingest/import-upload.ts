@@ -44,9 +44,14 @@ export function resolveUploadLayout(options: UploadOptions): UploadLayout {
   const { timeFormat, timePattern, ...rest } = options;
   if (timeFormat === 'auto' || timeFormat === 'iso' || timeFormat === 'epoch-ms' || timeFormat === 'epoch-s') return { ...rest, timeFormat };
   if (timeFormat !== 'pattern') return { ...rest, timeFormat: 'auto', timeLayout: timeFormat };
-  const compiled = compilePattern(timePattern ?? '');
+  return { ...rest, timeFormat: 'auto', timeLayout: patternLayout(timePattern) };
+}
+
+/** A custom time pattern as a layout; one it cannot read is refused as `timePattern: reason` (400). */
+export function patternLayout(pattern: string | undefined): TimeLayout {
+  const compiled = compilePattern(pattern ?? '');
   if ('error' in compiled) throw new ValidationError(`timePattern: ${compiled.error.replace(/^pattern: /, '')}`);
-  return { ...rest, timeFormat: 'auto', timeLayout: { custom: compiled } };
+  return { custom: compiled };
 }
 
 /** Readings are stored in batches of this many: each batch is one transaction. */
