@@ -7,6 +7,9 @@ import { guessUploadSetup, toUploadOptions, type UploadSetup } from '../hooks/up
 import { useUpload } from '../hooks/use-upload.ts';
 import { ColumnMapping, type MappingChannel } from './column-mapping.tsx';
 import { CsvPreviewTable } from './csv-preview-table.tsx';
+import { TimePreviewTable } from './time-preview-table.tsx';
+import { useUploadTimesPreview } from '../api/preview-upload-times.ts';
+import { TIME_LAYOUT_LABELS, type TimePreviewInput } from '@shared/contract/uploads.ts';
 import { formatBytes, UploadProgress } from './upload-progress.tsx';
 import { UploadSummary } from './upload-summary.tsx';
 
@@ -44,6 +47,7 @@ export function UploadPanel({
   // A new key empties the file box, so the same file can be chosen again after an upload.
   const [inputKey, setInputKey] = useState(0);
   const upload = useUpload(slug, loggerId);
+  const timesPreview = useUploadTimesPreview(slug, loggerId, chosen && setup ? timePreviewInput(chosen.preview, setup) : null);
 
   async function choose(e: ChangeEvent<HTMLInputElement>) {
     const file = e.target.files?.[0];
@@ -94,6 +98,16 @@ export function UploadPanel({
     if (!chosen || !setup) return;
     const result = toUploadOptions(setup, chosen.preview.header);
     if (!result.ok) return setProblems(result.problems);
+    // An upload whose first rows' times cannot be read is not started (they would all go to quarantine).
+    const times = timesPreview.data;
+    if (times && setup.timeFormat === 'auto' && times.layout !== 'auto') {
+      return setProblems([
+        times.layout
+          ? `timeFormat: these times are not ISO 8601 or epoch milliseconds; choose “${TIME_LAYOUT_LABELS[times.layout as keyof typeof TIME_LAYOUT_LABELS]}” (the table shows how it reads them)`
+          : `timeFormat: ${times.guess.reason ?? 'no layout reads these times'}; choose a layout or give a pattern`,
+      ]);
+    }
+    if (times && !times.readable) return setProblems(['timeFormat: some of the first times cannot be read this way (see the table); choose another layout']);
     upload.start(chosen.file, result.options);
   }
 
@@ -131,6 +145,10 @@ export function UploadPanel({
             <legend className="sr-only">How to read the file</legend>
             <ColumnMapping header={chosen.preview.header} channels={channels} setup={setup} onChange={changeSetup} />
           </fieldset>
+          {timesPreview.data && (
+            <TimePreviewTable answer={timesPreview.data} asked={setup.timeFormat} onUseLayout={(timeFormat) => changeSetup({ ...setup, timeFormat })} />
+          )}
+          {timesPreview.error && <p className="text-sm text-ink-soft">The preview of the times could not be made: {timesPreview.error.message}</p>}
           {problems.length > 0 && (
             <Notice tone="alert">
               <p className="font-medium">The file cannot be read this way yet:</p>
@@ -172,4 +190,17 @@ export function UploadPanel({
       )}
     </div>
   );
+}
+
+/** The preview request for the chosen time column, or null while there is nothing to ask (no column, an empty pattern). */
+function timePreviewInput(preview: CsvPreview, setup: UploadSetup): TimePreviewInput | null {
+  const at = preview.header.indexOf(setup.timeColumn);
+  if (at < 0 || preview.rows.length === 0) return null;
+  if (setup.timeFormat === 'pattern' && !setup.timePattern?.trim()) return null;
+  return {
+    samples: preview.rows.map((row) => (row[at] ?? '').slice(0, 100)),
+    timeFormat: setup.timeFormat,
+    timePattern: setup.timeFormat === 'pattern' ? setup.timePattern : undefined,
+    timeZone: setup.timeZone || 'UTC',
+  };
 }
