@@ -161,4 +161,46 @@ describe('registering a logger and uploading its history through the browser', (
     // 2 × 3000 cells − 1 bad + 1 fixed, plus the reading the example command sent.
     expect(Number(n)).toBe(2 * ROWS + 1);
   });
+
+  it('uploads a day-first export after taking the layout the time preview recognises: nothing quarantined', async () => {
+    // The same fictional mast's export as another program writes it: semicolons, day-first local times.
+    const lines = ['Datum;AirTemp_C;RH_pct'];
+    for (let i = 0; i < 96; i++) {
+      const minutes = i * 15;
+      lines.push(
+        `24.11.2026 ${String(Math.floor(minutes / 60)).padStart(2, '0')}:${String(minutes % 60).padStart(2, '0')};${(9 + (i % 12) / 4).toFixed(2)};${80 - (i % 9)}`,
+      );
+    }
+    await page.goto(`${suite.appUrl}/labs/${lab.slug}/loggers/${loggerId}/upload`);
+    await page
+      .getByLabel('Export file (CSV, up to 2 GB)')
+      .setInputFiles({ name: 'reedbank-mast-2026-11.csv', mimeType: 'text/csv', buffer: Buffer.from(`${lines.join('\n')}\n`) });
+    const times = page.getByRole('region', { name: 'How the times will be stored' });
+    await times.getByText(/recognised from the first rows/).waitFor();
+    await times.getByRole('button', { name: 'Read the times as day first, dd.mm.yyyy HH:mm[:ss]' }).click();
+    expect(await page.getByLabel('Time format').inputValue()).toBe('day-first-dot');
+    // Africa/Nairobi is UTC+3 all year (IANA tz database): 00:00 local is 21:00 UTC the day before.
+    const firstRow = times.getByRole('row').nth(1);
+    await firstRow.getByText('2026-11-23 21:00:00 UTC').waitFor();
+    expect(await firstRow.getByRole('cell').allTextContents()).toEqual(['1', '24.11.2026 00:00', '2026-11-24 00:00:00', '2026-11-23 21:00:00 UTC', '']);
+    await page.getByLabel('Column “AirTemp_C”').selectOption('air_t');
+    await page.getByLabel('Column “RH_pct”').selectOption('rh');
+    await keepScreenshot(page, 'upload-day-first-layout');
+    await page.getByRole('button', { name: 'Start the upload' }).click();
+
+    await page.getByRole('region', { name: 'Import finished' }).waitFor({ timeout: 60_000 });
+    expect({ lines: await digits('lines'), stored: await digits('stored'), quarantined: await digits('quarantined') }).toEqual({
+      lines: 96,
+      stored: 192,
+      quarantined: 0,
+    });
+    const channel = await suite.t.db('channels').where({ tenant_id: lab.id, logger_id: loggerId, channel_key: 'rh' }).first();
+    const first = await suite.t
+      .db('readings')
+      .where({ tenant_id: lab.id, channel_id: channel.id })
+      .where('ts', '>=', Date.UTC(2026, 10, 23, 21))
+      .orderBy('ts')
+      .first();
+    expect(Number(first.ts)).toBe(Date.UTC(2026, 10, 23, 21, 0));
+  });
 });
