@@ -1,5 +1,4 @@
-import { wallClockFormatter } from '../../policies/time-zones.ts';
-import { instantOfWallClock } from './wall-clock-instant.ts';
+import { instantOfWallClock, naiveUtcMs as utcMs } from './wall-clock-instant.ts';
 
 /**
  * Why a time could not be read: `bad_time` (not a time at all, or not a valid one) or
@@ -37,13 +36,6 @@ function inRange(ts: number, sent: string): TimeParse {
     };
   }
   return { ok: true, ts };
-}
-
-/** Epoch ms of a UTC wall-clock time; unlike `Date.UTC`, years 0–99 are not moved to 1900–1999. */
-function utcMs(y: number, mo: number, d: number, h = 0, mi = 0, s = 0, ms = 0): number {
-  const date = new Date(Date.UTC(2000, mo - 1, d, h, mi, s, ms));
-  date.setUTCFullYear(y, mo - 1, d);
-  return date.getTime();
 }
 
 /** Days in a month of the proleptic Gregorian calendar. */
@@ -86,36 +78,13 @@ function offsetMinutes(offset: string): number | string {
   return total;
 }
 
-const offsetCache = new Map<string, number>();
-
-/**
- * The offset (ms) of an IANA time zone at a UTC instant, from the platform's time zone data.
- * Zone offsets change on whole quarter hours at most, so offsets are cached per 15 minutes.
- */
-function zoneOffsetMs(timeZone: string, utcMs: number): number {
-  const slot = `${timeZone}|${Math.floor(utcMs / 900_000)}`;
-  const cached = offsetCache.get(slot);
-  if (cached !== undefined) return cached;
-  const offset = computeZoneOffsetMs(timeZone, utcMs);
-  if (offsetCache.size > 200_000) offsetCache.clear();
-  offsetCache.set(slot, offset);
-  return offset;
-}
-
-function computeZoneOffsetMs(timeZone: string, utcMs: number): number {
-  const parts = wallClockFormatter(timeZone).formatToParts(new Date(utcMs));
-  const get = (t: string) => Number(parts.find((p) => p.type === t)?.value);
-  const asUtc = Date.UTC(get('year'), get('month') - 1, get('day'), get('hour'), get('minute'), get('second'));
-  return asUtc - Math.floor(utcMs / 1000) * 1000;
-}
-
 /**
  * UTC epoch ms of a wall-clock time in an IANA zone: a time that falls in a daylight-saving gap
  * does not exist there and is refused, a repeated hour takes the first occurrence (the rule of
- * `instantOfWallClock`, with this file's cached offsets), because guessing would put a reading an hour off.
+ * `instantOfWallClock`), because guessing would put a reading an hour off.
  */
 function inZone(w: WallTime, timeZone: string): number | null {
-  return instantOfWallClock(utcMs(w.y, w.mo, w.d, w.h, w.mi, w.s, w.ms), timeZone, zoneOffsetMs);
+  return instantOfWallClock(utcMs(w.y, w.mo, w.d, w.h, w.mi, w.s, w.ms), timeZone);
 }
 
 export type TimeFormat = 'auto' | 'iso' | 'epoch-ms' | 'epoch-s';
