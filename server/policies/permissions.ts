@@ -10,6 +10,7 @@ export type Role = (typeof ROLES)[number];
 
 export const PERMISSIONS = [
   'lab.read',
+  'lab.manage',
   'members.read',
   'members.manage',
   'invitations.manage',
