@@ -22,6 +22,7 @@ const router = createBrowserRouter([
           { path: paths.labLogger.path, lazy: async () => ({ Component: (await import('./routes/lab-logger.tsx')).default }) },
           { path: paths.labLoggerUpload.path, lazy: async () => ({ Component: (await import('./routes/lab-logger-upload.tsx')).default }) },
           { path: paths.labChannels.path, lazy: async () => ({ Component: (await import('./routes/lab-channels.tsx')).default }) },
+          { path: paths.labChannelsTogether.path, lazy: async () => ({ Component: (await import('./routes/lab-channels-together.tsx')).default }) },
           { path: paths.labChannel.path, lazy: async () => ({ Component: (await import('./routes/lab-channel.tsx')).default }) },
           { path: paths.labAlerts.path, lazy: async () => ({ Component: (await import('./routes/lab-alerts.tsx')).default }) },
           { path: paths.labQuarantine.path, lazy: async () => ({ Component: (await import('./routes/lab-quarantine.tsx')).default }) },

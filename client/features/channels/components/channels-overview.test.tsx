@@ -2,7 +2,7 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import { cleanup, fireEvent, screen, within } from '@testing-library/react';
 import { renderWithProviders } from '../../../components/test-harness.tsx';
 import type { ChannelOverviewRow, ChannelStatus } from '@shared/contract/channels.ts';
-import { ChannelsOverview } from './channels-overview.tsx';
+import { ChannelsOverview, MAX_CHOSEN } from './channels-overview.tsx';
 
 afterEach(() => cleanup());
 
@@ -78,5 +78,51 @@ describe('ChannelsOverview', () => {
     expect(screen.getByText(/Channels 1–25 of 30 · page 1 of 2/)).toBeTruthy();
     fireEvent.click(screen.getByRole('button', { name: 'Next →' }));
     await vi.waitFor(() => expect(bodyLabels()).toHaveLength(5));
+  });
+});
+
+const tick = (name: string) => fireEvent.click(screen.getByRole('checkbox', { name: `Choose ${name}` }));
+// Seven channels of two loggers, all live, for choosing (invented, like the rows above).
+const UPPER = { id: 3, name: 'Upper terrace' };
+const LOWER = { id: 4, name: 'Lower terrace' };
+const CHOICES = [
+  row(21, 'Leaf temperature', 'live', UPPER),
+  row(22, 'Soil temperature', 'live', UPPER),
+  row(23, 'Air temperature', 'live', UPPER),
+  row(24, 'Leaf temperature', 'live', LOWER),
+  row(25, 'Soil temperature', 'live', LOWER),
+  row(26, 'Air temperature', 'live', LOWER),
+  row(27, 'Berry temperature', 'live', LOWER),
+];
+
+describe('choosing channels to open together', () => {
+  it('counts the chosen channels across loggers and filters, and links to them in the order chosen', () => {
+    renderWithProviders(<ChannelsOverview slug="vines" rows={CHOICES} now={NOW} />, '/c');
+    expect(screen.getByTestId('chosen-count').textContent).toBe(`0 of ${MAX_CHOSEN} chosen`);
+    expect(screen.queryByRole('link', { name: 'Open together' })).toBeNull();
+    tick('Lower terrace · Soil temperature');
+    fireEvent.change(screen.getByLabelText('Logger'), { target: { value: '3' } });
+    tick('Upper terrace · Air temperature');
+    tick('Upper terrace · Leaf temperature');
+    expect(screen.getByTestId('chosen-count').textContent).toBe('3 of 6 chosen');
+    expect(screen.getByRole('link', { name: 'Open together' }).getAttribute('href')).toBe('/labs/vines/channels/together?channels=25,23,21');
+    tick('Upper terrace · Air temperature'); // untick
+    expect(screen.getByRole('link', { name: 'Open together' }).getAttribute('href')).toBe('/labs/vines/channels/together?channels=25,21');
+    expect(screen.getByText('Chosen: Lower terrace · Soil temperature; Upper terrace · Leaf temperature')).toBeTruthy();
+  });
+
+  it('refuses a seventh channel with a plain message and keeps the six', () => {
+    renderWithProviders(<ChannelsOverview slug="vines" rows={CHOICES} now={NOW} />, '/c');
+    for (const r of CHOICES.slice(0, 6)) tick(`${r.logger.name} · ${r.label}`);
+    expect(screen.getByTestId('chosen-count').textContent).toBe('6 of 6 chosen');
+    tick('Lower terrace · Berry temperature');
+    expect(screen.getByRole('alert').textContent).toBe(
+      'One chart takes at most 6 channels: Lower terrace · Berry temperature was not added. Untick one of the six to choose it instead.',
+    );
+    expect((screen.getByRole('checkbox', { name: 'Choose Lower terrace · Berry temperature' }) as HTMLInputElement).checked).toBe(false);
+    expect(screen.getByRole('link', { name: 'Open together' }).getAttribute('href')).toBe('/labs/vines/channels/together?channels=21,22,23,24,25,26');
+    fireEvent.click(screen.getByRole('button', { name: 'Clear the choice' }));
+    expect(screen.getByTestId('chosen-count').textContent).toBe('0 of 6 chosen');
+    expect(screen.queryByRole('alert')).toBeNull();
   });
 });

@@ -1,19 +1,46 @@
-import { useMemo } from 'react';
-import { useSearchParams } from 'react-router-dom';
+import { useMemo, useState } from 'react';
+import { Link, useSearchParams } from 'react-router-dom';
+import { paths } from '../../../app/paths.ts';
+import { Button, buttonClasses } from '../../../components/button.tsx';
 import { SelectField, TextField } from '../../../components/form-field.tsx';
 import type { ChannelOverviewRow, ChannelStatus } from '@shared/contract/channels.ts';
 import { filterChannels, readChannelFilter } from './channel-filter.ts';
-import { ChannelsTable } from './channels-table.tsx';
+import { ChannelsTable, type ChannelChoice } from './channels-table.tsx';
 import { STATUS_LOOKS, StatusLegend } from './status-badge.tsx';
+
+/** Most channels opened together on one chart (the channels-together page takes no more). */
+export const MAX_CHOSEN = 6;
 
 /**
  * The channels overview: filters (text, status, logger) kept in the page's query string so a
- * filtered view can be shared, the table, and the legend of the status marks.
+ * filtered view can be shared, the table with a checkbox per channel to open up to six of any
+ * loggers together on one chart (the choice survives filtering and paging; a seventh is refused
+ * with a message), and the legend of the status marks.
  */
 export function ChannelsOverview({ slug, rows, now }: { slug: string; rows: ChannelOverviewRow[]; now: number }) {
   const [params, setParams] = useSearchParams();
   const filter = readChannelFilter(params);
   const shown = useMemo(() => filterChannels(rows, filter), [rows, filter.text, filter.status, filter.loggerId]); // eslint-disable-line react-hooks/exhaustive-deps
+  const [chosen, setChosen] = useState<number[]>([]);
+  const [refused, setRefused] = useState<string | null>(null);
+  const byId = useMemo(() => new Map(rows.map((r) => [r.id, r])), [rows]);
+  const choice = useMemo<ChannelChoice>(
+    () => ({
+      chosen,
+      onChoose: (row, choose) => {
+        const name = `${row.logger.name} · ${row.label}`;
+        if (!choose) {
+          setRefused(null);
+          return setChosen((c) => c.filter((id) => id !== row.id));
+        }
+        if (chosen.length >= MAX_CHOSEN)
+          return setRefused(`One chart takes at most ${MAX_CHOSEN} channels: ${name} was not added. Untick one of the six to choose it instead.`);
+        setRefused(null);
+        setChosen((c) => (c.includes(row.id) ? c : [...c, row.id]));
+      },
+    }),
+    [chosen],
+  );
   const loggers = useMemo(() => [...new Map(rows.map((r) => [r.logger.id, r.logger.name])).entries()].sort((a, b) => a[1].localeCompare(b[1])), [rows]);
 
   function set(name: string, value: string) {
@@ -47,7 +74,43 @@ export function ChannelsOverview({ slug, rows, now }: { slug: string; rows: Chan
       <p className="text-sm text-ink-soft" aria-live="polite">
         {shown.length === rows.length ? `${rows.length} channels` : `${shown.length} of ${rows.length} channels match`}
       </p>
-      <ChannelsTable slug={slug} rows={shown} now={now} />
+      <section aria-label="Open channels together" className="grid gap-2 rounded-xl border border-rule bg-card p-3 text-sm">
+        <div className="flex flex-wrap items-center gap-3">
+          <p aria-live="polite" data-testid="chosen-count" className="font-medium">
+            {chosen.length} of {MAX_CHOSEN} chosen
+          </p>
+          {chosen.length > 0 ? (
+            <Link to={paths.labChannelsTogether.href(slug, `?channels=${chosen.join(',')}`)} className={buttonClasses('primary', 'sm')}>
+              Open together
+            </Link>
+          ) : (
+            <span className="text-ink-soft">Tick channels of any loggers to lay them over one time axis.</span>
+          )}
+          {chosen.length > 0 && (
+            <Button
+              size="sm"
+              tone="quiet"
+              onClick={() => {
+                setChosen([]);
+                setRefused(null);
+              }}
+            >
+              Clear the choice
+            </Button>
+          )}
+        </div>
+        {chosen.length > 0 && (
+          <p className="break-words text-ink-soft">
+            Chosen: {chosen.map((id) => (byId.get(id) ? `${byId.get(id)!.logger.name} · ${byId.get(id)!.label}` : `channel ${id}`)).join('; ')}
+          </p>
+        )}
+        {refused && (
+          <p role="alert" className="text-alert">
+            {refused}
+          </p>
+        )}
+      </section>
+      <ChannelsTable slug={slug} rows={shown} now={now} choice={choice} />
       <section aria-labelledby="status-legend-heading" className="rounded-xl border border-rule bg-card p-4">
         <h3 id="status-legend-heading" className="mb-2 text-sm font-semibold">
           What the status marks mean

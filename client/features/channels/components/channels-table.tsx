@@ -22,12 +22,19 @@ import { StatusBadge } from './status-badge.tsx';
 const STATUS_ORDER: Record<ChannelStatus, number> = { 'out-of-range': 0, silent: 1, 'no-data': 2, live: 3 };
 export const CHANNELS_PAGE_SIZE = 25;
 
+/** Ticking channels to open them together: which are ticked, and what a tick or untick asks for. */
+export interface ChannelChoice {
+  chosen: readonly number[];
+  onChoose: (row: ChannelOverviewRow, choose: boolean) => void;
+}
+
 /**
  * Every channel of the lab as a sortable, paged table (sorting runs over all rows, then the
  * page is cut): label and key (a link to the channel's page), logger, site, unit, last value,
- * last reading time, status and the last 24 hours as a sparkline.
+ * last reading time, status and the last 24 hours as a sparkline. With `choice`, a checkbox
+ * before each label picks channels to open together.
  */
-export function ChannelsTable({ slug, rows, now }: { slug: string; rows: ChannelOverviewRow[]; now: number }) {
+export function ChannelsTable({ slug, rows, now, choice }: { slug: string; rows: ChannelOverviewRow[]; now: number; choice?: ChannelChoice }) {
   const [sorting, setSorting] = useState<SortingState>([{ id: 'logger', desc: false }]);
   const [pagination, setPagination] = useState<PaginationState>({ pageIndex: 0, pageSize: CHANNELS_PAGE_SIZE });
   const columns = useMemo<ColumnDef<ChannelOverviewRow>[]>(
@@ -38,11 +45,22 @@ export function ChannelsTable({ slug, rows, now }: { slug: string; rows: Channel
         accessorFn: (c) => c.label,
         sortingFn: 'text',
         cell: ({ row }) => (
-          <span className="inline-flex flex-col">
-            <Link to={paths.labChannel.href(slug, row.original.id)} className="font-medium text-lichen-dark underline-offset-2 hover:underline">
-              {row.original.label}
-            </Link>
-            <span className="font-mono text-xs text-ink-soft">{row.original.key}</span>
+          <span className="inline-flex items-start gap-2">
+            {choice && (
+              <input
+                type="checkbox"
+                className="mt-1 size-4 shrink-0 accent-lichen"
+                checked={choice.chosen.includes(row.original.id)}
+                onChange={(e) => choice.onChoose(row.original, e.target.checked)}
+                aria-label={`Choose ${row.original.logger.name} · ${row.original.label}`}
+              />
+            )}
+            <span className="inline-flex flex-col">
+              <Link to={paths.labChannel.href(slug, row.original.id)} className="font-medium text-lichen-dark underline-offset-2 hover:underline">
+                {row.original.label}
+              </Link>
+              <span className="font-mono text-xs text-ink-soft">{row.original.key}</span>
+            </span>
           </span>
         ),
       },
@@ -75,7 +93,7 @@ export function ChannelsTable({ slug, rows, now }: { slug: string; rows: Channel
         cell: ({ row }) => <Sparkline means={row.original.sparkline.means} unit={row.original.unit} />,
       },
     ],
-    [slug, now],
+    [slug, now, choice],
   );
   const table = useReactTable({
     data: rows,
