@@ -31,6 +31,8 @@ import { labRoutes } from './http/labs/labs.routes.ts';
 import { memberRoutes } from './http/labs/members.routes.ts';
 import { invitationAcceptanceRoutes, invitationRoutes } from './http/labs/invitations.routes.ts';
 import { auditRoutes } from './http/labs/audit.routes.ts';
+import { overviewRoutes } from './http/labs/overview.routes.ts';
+import { createLabOverviewService } from './services/lab-overview.service.ts';
 import { createLoggersService } from './services/loggers.service.ts';
 import { createQuarantineService } from './services/quarantine.service.ts';
 import { createIngestService } from './services/ingest/ingest.service.ts';
@@ -158,6 +160,7 @@ export function createApp(deps: AppDeps): Express {
     ...alertRoutes({ alerts: alerts.service, now: nowMs }),
     ...tokenRoutes({ tokens }),
     ...billingRoutes({ billing: billingService }),
+    ...overviewRoutes({ overview: createLabOverviewService({ db, billing: billingService, now: nowMs }) }),
     // Stripe signs the raw body: 'webhook-signature' mounts it before sessions and JSON parsing.
     ...stripeWebhookRoutes({
       webhooks: createStripeWebhooks({

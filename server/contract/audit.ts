@@ -23,6 +23,7 @@ export const AUDIT_ACTIONS = [
   'ingest-key.rotated',
   'ingest-key.revoked',
   'logger.test-reading',
+  'logger.uploaded',
   'quarantine.discarded',
   'quarantine.resubmitted',
   'alert-rule.created',

@@ -9,7 +9,8 @@ import type { TimePreviewAnswer, TimePreviewInput, UploadOptions } from '../cont
 import { previewUploadTimes } from './ingest/time-preview.ts';
 import type { IngestHooks } from './ingest/ingest-hooks.ts';
 import type { IngestTarget } from './ingest/ingest-batch.ts';
-import type { LabContext } from './lab-context.ts';
+import type { Actor, LabContext } from './lab-context.ts';
+import { auditRepo } from '../db/audit.repo.ts';
 
 /**
  * Historical uploads: which logger a file goes to (checked before the answer starts
@@ -35,8 +36,36 @@ export function createUploadsService(deps: { db: Db; now?: () => number; hooks?:
       return resolveUploadLayout(options);
     },
 
-    run(target: IngestTarget, file: Readable, layout: UploadLayout, onProgress: (p: UploadProgress) => void): Promise<UploadSummary> {
-      return importUpload(deps.db, target, file, layout, onProgress, { now: deps.now, hooks: deps.hooks });
+    /**
+     * Imports the file and records the upload in the lab's audit log (`logger.uploaded`, with its
+     * counts) — also when it stops partway, with what was stored — so the lab's overview can say
+     * when history last came in and who sent it.
+     */
+    async run(
+      target: IngestTarget,
+      file: Readable,
+      layout: UploadLayout,
+      onProgress: (p: UploadProgress) => void,
+      by: Actor | null = null,
+    ): Promise<UploadSummary> {
+      let progress: UploadProgress = { lines: 0, readings: 0, accepted: 0, duplicates: 0, quarantined: 0 };
+      const record = (p: UploadProgress, stopped: boolean) =>
+        auditRepo(inLab(deps.db, target.tenantId)).record({
+          actorUserId: by?.id ?? null,
+          action: 'logger.uploaded',
+          targetType: 'logger',
+          targetId: target.loggerId,
+          summary: `${by?.displayName ?? 'Someone'} uploaded a history file: ${p.accepted} readings stored, ${p.quarantined} quarantined${stopped ? ' (stopped early)' : ''}`,
+          details: { lines: p.lines, readings: p.readings, accepted: p.accepted, duplicates: p.duplicates, quarantined: p.quarantined, stopped },
+        });
+      try {
+        const summary = await importUpload(deps.db, target, file, layout, (p) => onProgress((progress = p)), { now: deps.now, hooks: deps.hooks });
+        await record(summary, false);
+        return summary;
+      } catch (err) {
+        if (progress.lines > 0) await record(progress, true).catch(() => undefined);
+        throw err;
+      }
     },
   };
 }

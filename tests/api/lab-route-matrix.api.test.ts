@@ -25,6 +25,7 @@ const ALLOWED: Record<string, { roles: Role[]; ok: number }> = {
   'POST /invitations/:id/resend': { roles: ['admin'], ok: 200 },
   'DELETE /invitations/:id': { roles: ['admin'], ok: 204 },
   'GET /audit': { roles: ['admin'], ok: 200 },
+  'GET /overview': { roles: ALL, ok: 200 },
   'GET /alert-rules': { roles: ALL, ok: 200 },
   'POST /alert-rules': { roles: ['admin', 'technician'], ok: 201 },
   'PATCH /alert-rules/:ruleId': { roles: ['admin', 'technician'], ok: 200 },

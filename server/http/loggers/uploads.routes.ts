@@ -56,7 +56,7 @@ export function uploadRoutes(deps: { uploads: UploadsService; logger: LogWriter 
         415: '`unsupported_media_type`: upload the export file as text/csv.',
       },
       stream: true,
-      handle: async ({ lab, params, query }, { req, res }) => {
+      handle: async ({ lab, params, query, actor }, { req, res }) => {
         const target = await deps.uploads.targetFor(lab, params.loggerId);
         const layout = deps.uploads.layoutOf(query.options);
         if (!req.is(UPLOAD_MEDIA_TYPES)) throw new AppError(415, 'unsupported_media_type', 'Upload the export file as text/csv.');
@@ -67,7 +67,7 @@ export function uploadRoutes(deps: { uploads: UploadsService; logger: LogWriter 
         res.flushHeaders();
         const line = (l: UploadLine) => res.write(`${JSON.stringify(l)}\n`);
         try {
-          const summary = await deps.uploads.run(target, req, layout, (p) => line({ type: 'progress', ...p }));
+          const summary = await deps.uploads.run(target, req, layout, (p) => line({ type: 'progress', ...p }), actor);
           line({ type: 'summary', ...summary });
         } catch (err) {
           const e = err as AppError;
