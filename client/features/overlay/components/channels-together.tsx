@@ -176,7 +176,17 @@ function TogetherChart({
     () => (allData ? lines.map((l, i) => ({ ...l, series: datas[i]!.series })) : null),
     [allData, lines, ...datas], // eslint-disable-line react-hooks/exhaustive-deps
   );
-  const ctx = useMemo(() => ({ range, zone }), [range, zone]);
+  // the chart's width, so long legend names are cut to fit (a phone is narrower than the longest name)
+  const box = useRef<HTMLDivElement>(null);
+  const [width, setWidth] = useState<number | undefined>(undefined);
+  useEffect(() => {
+    const el = box.current;
+    if (!el) return;
+    const seen = new ResizeObserver(() => setWidth((w) => (Math.abs((w ?? 0) - el.clientWidth) > 24 ? el.clientWidth : w)));
+    seen.observe(el);
+    return () => seen.disconnect();
+  }, []);
+  const ctx = useMemo(() => ({ range, zone, width }), [range, zone, width]);
   const option = useMemo(() => (drawn ? togetherChartOption(drawn, axes, ctx) : null), [drawn, axes, ctx]);
   const failed = series.map((s, i) => (s.isError ? `${lines[i].name}: ${s.error.message}` : null)).filter((m): m is string => m !== null);
   const historyStart = Math.max(...datas.map((d) => d?.historyStartsAt ?? -Infinity));
@@ -185,7 +195,7 @@ function TogetherChart({
   const whose = zone === 'UTC' && owners.length === 0 ? 'Coordinated Universal Time' : `the clock of ${[...new Set(owners)].join(', ')}`;
 
   return (
-    <div className="grid min-w-0 gap-4">
+    <div ref={box} className="grid min-w-0 gap-4">
       {cautions.length > 0 && (
         <aside aria-label="Safety note" className="rounded-lg border border-amber bg-amber/10 p-3 text-sm">
           <strong>Not an alarm system.</strong> Lagbook’s readings of {cautions.map((l) => l.name).join(', ')} are not a certified alarm: they can arrive late

@@ -82,8 +82,11 @@ describe('togetherChartOption', () => {
     );
   });
 
-  it('leaves room for one legend row per line', () => {
-    const { option } = setUp();
+  it('leaves room for one legend row per line, and cuts legend names to the chart’s width', () => {
+    const { option, drawn, axes } = setUp();
+    const legendWidth = (width?: number) =>
+      (togetherChartOption(drawn, axes, { range: RANGE, zone: 'UTC', width }).legend as { textStyle: { width: number } }).textStyle.width;
+    expect([legendWidth(390), legendWidth(undefined), legendWidth(100)]).toEqual([300, 910, 120]);
     expect(togetherChartHeight(3) - togetherChartHeight(2)).toBe(20);
     expect((option.grid as { bottom: number }).bottom).toBe(3 * 20 + 96);
   });

@@ -8,10 +8,12 @@ export interface DrawnLine extends PlannedLine {
   series: Series;
 }
 
-/** The time and zone the chart is drawn for. */
+/** The time and zone the chart is drawn for, and how wide it is drawn. */
 export interface TogetherContext {
   range: TimeRange;
   zone: string;
+  /** The chart's width in px when known: legend names longer than the width are cut with an ellipsis. */
+  width?: number;
 }
 
 type Point = [number, number | null];
@@ -72,7 +74,7 @@ export function togetherChartOption(lines: readonly DrawnLine[], axes: readonly 
       itemGap: LEGEND_ROW - 14,
       itemHeight: 14,
       itemWidth: 36,
-      textStyle: { color: INK, overflow: 'truncate', width: 300 },
+      textStyle: { color: INK, overflow: 'truncate', width: Math.max(120, (ctx.width ?? 1000) - 90) },
       data: lines.map((l) => l.name),
     },
     tooltip: {
@@ -98,7 +100,7 @@ export function togetherChartOption(lines: readonly DrawnLine[], axes: readonly 
       name: `${tz} (${zoneOffsetLabel((ctx.range.from + ctx.range.to) / 2, tz)})`,
       nameLocation: 'middle',
       nameGap: 32,
-      axisLabel: { hideOverlap: true, formatter: (v: number) => formatZoned(v, tz).replace(' ', '\n') },
+      axisLabel: { hideOverlap: true, lineHeight: 14, formatter: (v: number) => formatZoned(v, tz).replace(' ', '\n') },
     },
     yAxis: axes.map((a) => ({
       type: 'value',
