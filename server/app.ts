@@ -31,6 +31,9 @@ import { labRoutes } from './http/labs/labs.routes.ts';
 import { memberRoutes } from './http/labs/members.routes.ts';
 import { invitationAcceptanceRoutes, invitationRoutes } from './http/labs/invitations.routes.ts';
 import { auditRoutes } from './http/labs/audit.routes.ts';
+import { createLabExportService } from './services/lab-export/lab-export.service.ts';
+import { createLabDeletionService } from './services/lab-deletion/lab-deletion.service.ts';
+import { createLabDeletionJob } from './services/lab-deletion/lab-deletion-job.ts';
 import { overviewRoutes } from './http/labs/overview.routes.ts';
 import { createLabOverviewService } from './services/lab-overview.service.ts';
 import { createLoggersService } from './services/loggers.service.ts';
@@ -123,7 +126,9 @@ export function createApp(deps: AppDeps): Express {
     alerts.ingestHooks,
   ]);
   /** Scheduled work main.ts starts after listening (tests drive each job directly instead). */
-  const backgroundJobs: BackgroundJob[] = [usageJob.job, alerts.job];
+  // Removes deleted labs' rows in batches; a deletion request starts a run at once.
+  const labDeletionJob = createLabDeletionJob({ db, logger, now: deps.now });
+  const backgroundJobs: BackgroundJob[] = [usageJob.job, alerts.job, labDeletionJob.job];
   const quarantine = createQuarantineService({ db, now: nowMs, hooks: ingestHooks });
   // Half the database pool at most for logger batches; the rest stays free for people browsing.
   const ingest = createIngestService({ db, now: nowMs, hooks: ingestHooks, maxConcurrentBatches: Math.max(1, Math.ceil(config.db.poolMax / 2)) });
@@ -138,7 +143,11 @@ export function createApp(deps: AppDeps): Express {
     // the API document is built from this table (right below)
     ...openApiRoutes({ document: () => openApiDocument }),
     ...meRoutes({ me }),
-    ...labRoutes({ labs: labsService }),
+    ...labRoutes({
+      labs: labsService,
+      exports: createLabExportService({ db, channels, now: deps.now }),
+      deletions: createLabDeletionService({ db, stripe: deps.billing, now: deps.now, onRequested: labDeletionJob.kick }),
+    }),
     ...memberRoutes({ members }),
     ...invitationRoutes({ invitations, sendLimit: limits.invitations }),
     ...invitationAcceptanceRoutes({ invitations }),

@@ -6,6 +6,8 @@ import type { IsoTime } from './common.ts';
 /** Every action the audit log records: the services write these, the client's filter offers them. */
 export const AUDIT_ACTIONS = [
   'lab.created',
+  'lab.updated',
+  'lab.exported',
   'invitation.created',
   'invitation.resent',
   'invitation.revoked',

@@ -1,6 +1,6 @@
 import type { DbOrTrx } from './tenant-scope.ts';
 import { inLab } from './tenant-scope.ts';
-import { labsRepo, toLab, type Lab, type LabMembershipSummary, type LabRow } from './labs.repo.ts';
+import { LAB_COLUMNS, labsRepo, toLab, type Lab, type LabMembershipSummary, type LabRow } from './labs.repo.ts';
 import { invitationsRepo, type Invitation } from './invitations.repo.ts';
 import type { Role } from '../policies/permissions.ts';
 
@@ -55,7 +55,9 @@ export function crossLabRepo(db: DbOrTrx) {
           this.on('memberships.tenant_id', '=', 'labs.id').andOn('memberships.user_id', '=', db.raw('?', [userId]));
         })
         .where('labs.slug', slug)
-        .first('labs.id', 'labs.slug', 'labs.name', 'labs.created_at', 'memberships.role');
+        // a lab being deleted is closed to everyone from the moment an admin deleted it
+        .whereNull('labs.deleted_at')
+        .first(...LAB_COLUMNS, 'memberships.role');
       return row ? { ...toLab(row), role: (row as LabRow & { role: Role }).role } : null;
     },
 
@@ -68,7 +70,10 @@ export function crossLabRepo(db: DbOrTrx) {
         .join('loggers', function joinLogger() {
           this.on('loggers.tenant_id', '=', 'ingest_keys.tenant_id').andOn('loggers.id', '=', 'ingest_keys.logger_id');
         })
+        .join('labs', 'labs.id', 'ingest_keys.tenant_id')
         .where('ingest_keys.prefix', prefix)
+        // a deleted lab's keys are dead at once: nothing new is stored while its rows are removed
+        .whereNull('labs.deleted_at')
         .first(
           'ingest_keys.tenant_id as tenantId',
           'ingest_keys.id as keyId',
@@ -134,7 +139,11 @@ export function crossLabRepo(db: DbOrTrx) {
 
     /** A Stripe webhook names only the customer: the lab id the customer was created for, or null. */
     async labIdForStripeCustomer(customerId: string): Promise<number | null> {
-      const row = await db('lab_billing').where('lab_billing.stripe_customer_id', customerId).first('tenant_id as tenantId');
+      const row = await db('lab_billing')
+        .join('labs', 'labs.id', 'lab_billing.tenant_id')
+        .where('lab_billing.stripe_customer_id', customerId)
+        .whereNull('labs.deleted_at')
+        .first('lab_billing.tenant_id as tenantId');
       return row ? Number(row.tenantId) : null;
     },
 
@@ -143,6 +152,7 @@ export function crossLabRepo(db: DbOrTrx) {
       const rows = await db('memberships')
         .join('labs', 'labs.id', 'memberships.tenant_id')
         .where('memberships.user_id', userId)
+        .whereNull('labs.deleted_at')
         .orderBy('labs.name')
         .select('labs.id as labId', 'labs.slug', 'labs.name', 'memberships.role');
       return rows.map((r: LabMembershipSummary) => ({ ...r, labId: Number(r.labId) }));
@@ -160,9 +170,9 @@ export function crossLabRepo(db: DbOrTrx) {
         .select('lab_billing.plan_key as planKey', 'lab_billing.status', 'lab_billing.grace_until as graceUntil');
     },
 
-    /** Every lab's id, slug and name, for jobs that visit each lab in turn (the usage job). */
+    /** Every lab's id, slug and name, for jobs that visit each lab in turn (the usage job); labs being deleted are skipped. */
     async allLabs(): Promise<Array<{ id: number; slug: string; name: string }>> {
-      return (await db('labs').orderBy('id').select('id', 'slug', 'name')).map((r: { id: number; slug: string; name: string }) => ({
+      return (await db('labs').whereNull('deleted_at').orderBy('id').select('id', 'slug', 'name')).map((r: { id: number; slug: string; name: string }) => ({
         id: Number(r.id),
         slug: r.slug,
         name: r.name,
@@ -175,7 +185,7 @@ export function crossLabRepo(db: DbOrTrx) {
      */
     async labsWithAlertWork(): Promise<number[]> {
       const rows = await db.raw(
-        'SELECT DISTINCT tenant_id AS id FROM alert_rules WHERE enabled = 1 UNION SELECT DISTINCT tenant_id FROM notification_outbox WHERE sent_at IS NULL',
+        'SELECT id FROM labs WHERE deleted_at IS NULL AND id IN (SELECT tenant_id FROM alert_rules WHERE enabled = 1 UNION SELECT tenant_id FROM notification_outbox WHERE sent_at IS NULL)',
       );
       return (rows[0] as Array<{ id: unknown }>).map((r) => Number(r.id));
     },

@@ -14,7 +14,9 @@ import { ConflictError, isDuplicateKey } from './service-errors.ts';
 import { isLockConflict } from '../db/db-errors.ts';
 import { AppError, ValidationError } from '../errors.ts';
 import type { Actor } from './lab-context.ts';
-import type { CreateLabInput } from '../contract/labs.ts';
+import type { CreateLabInput, UpdateLabInput } from '../contract/labs.ts';
+import { NotFoundError } from '../errors.ts';
+import type { LabContext } from './lab-context.ts';
 
 /** A lab a person created, and the address they asked for (the lab's own may differ: see create). */
 export interface CreatedLab {
@@ -106,7 +108,55 @@ export function createLabsService(deps: { db: Db; caps?: LabCreationCaps; catalo
     return slug;
   }
 
+  /** The lab as stored now (name and description may have changed since the guard read it). */
+  async function current(db: DbOrTrx, lab: LabContext): Promise<Lab> {
+    const found = await labsRepo(db).findById(lab.id);
+    if (!found) throw new NotFoundError('No lab at this address, or you are not a member of it.');
+    return found;
+  }
+
   return {
+    /** The lab the guard resolved, with its description. */
+    detail(lab: LabContext): Promise<Lab> {
+      return current(deps.db, lab);
+    },
+
+    /**
+     * An admin renames the lab and/or changes its description. The address (slug) stays, so links
+     * keep working. One transaction with the audit event (old and new values); an unchanged value
+     * is not logged as a change.
+     */
+    async update(lab: LabContext, actor: Actor, input: UpdateLabInput): Promise<Lab> {
+      return deps.db.transaction(async (trx) => {
+        const repo = labsRepo(trx);
+        await repo.lock(lab.id);
+        const before = await current(trx, lab);
+        const changes: { name?: string; description?: string } = {};
+        if (input.name !== undefined && input.name !== before.name) changes.name = input.name;
+        if (input.description !== undefined && input.description !== before.description) changes.description = input.description;
+        if (Object.keys(changes).length === 0) return before;
+        const after = (await repo.update(lab.id, changes))!;
+        const what = [
+          changes.name !== undefined ? `renamed the lab from "${before.name}" to "${after.name}"` : null,
+          changes.description !== undefined ? 'changed its description' : null,
+        ]
+          .filter(Boolean)
+          .join(' and ');
+        await auditRepo(inLab(trx, lab.id)).record({
+          actorUserId: actor.id,
+          action: 'lab.updated',
+          targetType: 'lab',
+          targetId: lab.slug,
+          summary: `${actor.displayName} ${what}`,
+          details: {
+            ...(changes.name !== undefined ? { name: { from: before.name, to: after.name } } : {}),
+            ...(changes.description !== undefined ? { description: { from: before.description, to: after.description } } : {}),
+          },
+        });
+        return after;
+      });
+    },
+
     /**
      * A signed-in person creates a lab and becomes its admin. The lab gets the requested
      * address, or the first free of its variants (slugCandidates; a random suffix if all are in

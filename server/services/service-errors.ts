@@ -1,9 +1,9 @@
 import { AppError } from '../errors.ts';
 
-/** A change that would leave a lab without any admin. */
+/** A change that would leave a lab without any admin; the last admin may delete the lab instead (Lab settings). */
 export class LastAdminError extends AppError {
   constructor() {
-    super(409, 'last_admin', 'A lab needs at least one admin: make someone else admin first.');
+    super(409, 'last_admin', 'A lab needs at least one admin: make someone else admin first, or delete the lab under Lab settings if it is no longer needed.');
   }
 }
 

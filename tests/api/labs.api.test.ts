@@ -104,7 +104,10 @@ describe('members', () => {
   it('the last admin can be neither demoted, removed, nor leave', async () => {
     const { lab, people, cookies } = await labWith('admin', 'scientist');
     const demote = await request(t.app).patch(`/api/v1/labs/${lab.slug}/members/${people[0].id}`).set('Cookie', cookies[0]).send({ role: 'guest' }).expect(409);
-    expect(demote.body.error).toEqual({ code: 'last_admin', message: 'A lab needs at least one admin: make someone else admin first.' });
+    expect(demote.body.error).toEqual({
+      code: 'last_admin',
+      message: 'A lab needs at least one admin: make someone else admin first, or delete the lab under Lab settings if it is no longer needed.',
+    });
     await request(t.app).delete(`/api/v1/labs/${lab.slug}/members/${people[0].id}`).set('Cookie', cookies[0]).expect(409);
     await request(t.app).delete(`/api/v1/labs/${lab.slug}/membership`).set('Cookie', cookies[0]).expect(409);
     const roles = await t.db('memberships').where({ tenant_id: lab.id }).orderBy('user_id').pluck('role');

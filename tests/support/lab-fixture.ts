@@ -178,6 +178,9 @@ export function validBodyFor(method: string, path: string, f: LabWithEverything)
   const key = `${method.toUpperCase()} ${path}`;
   const unique = `${Date.now().toString(36)}${Math.random().toString(36).slice(2, 8)}`;
   const bodies: Record<string, object> = {
+    'PATCH ': { description: 'Soil and air plots by the lower meadow.' },
+    // the fixture's own name: a permitted caller deletes the (fresh) lab
+    'POST /deletion': { confirmName: f.lab.name },
     'PATCH /members/:userId': { role: 'scientist' },
     'POST /invitations': { email: `new-${unique}@lab.example`, role: 'guest' },
     'POST /loggers': { name: `Logger ${unique}`, timezone: 'UTC', expectedIntervalS: 60, channels: [{ key: 'rh', label: 'Humidity', unit: '%' }] },

@@ -43,7 +43,7 @@ export function memberRoutes(deps: { members: MembersService }): Route[] {
       auth: { permission: 'lab.read' },
       summary: 'Leave the lab yourself.',
       response: { status: 204, description: 'You left the lab.' },
-      errors: { 409: '`last_admin`: the last admin cannot leave; make someone else admin first.' },
+      errors: { 409: '`last_admin`: the last admin cannot leave; make someone else admin first, or delete the lab (`POST …/deletion`).' },
       handle: async ({ lab, actor }) => deps.members.remove(lab, actor, actor.id),
     }),
   ];

@@ -12,7 +12,7 @@ import { ROLE_PERMISSIONS, type Role } from '../../policies/permissions.ts';
 /** A lab as seen by one of its members, with what their role allows (the client hides the rest). */
 export function presentLabForMember(lab: Lab, role: Role): LabDetail {
   return {
-    lab: { slug: lab.slug, name: lab.name, createdAt: lab.createdAt.toISOString() },
+    lab: { slug: lab.slug, name: lab.name, description: lab.description, createdAt: lab.createdAt.toISOString() },
     role,
     permissions: [...ROLE_PERMISSIONS[role]],
   };

@@ -3,6 +3,8 @@ import type { AuditAction } from '@shared/contract/audit.ts';
 /** How each audit action reads in the log and in the filter. */
 export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   'lab.created': 'Lab created',
+  'lab.updated': 'Lab renamed or described',
+  'lab.exported': 'Full lab export downloaded',
   'invitation.created': 'Invitation sent',
   'invitation.resent': 'Invitation sent again',
   'invitation.revoked': 'Invitation revoked',
