@@ -129,7 +129,7 @@ export function createApp(deps: AppDeps): Express {
   // Removes deleted labs' rows in batches; a deletion request starts a run at once.
   const labDeletionJob = createLabDeletionJob({ db, logger, now: deps.now });
   const backgroundJobs: BackgroundJob[] = [usageJob.job, alerts.job, labDeletionJob.job];
-  const quarantine = createQuarantineService({ db, now: nowMs, hooks: ingestHooks });
+  const quarantine = createQuarantineService({ db, now: nowMs, hooks: ingestHooks, logger });
   // Half the database pool at most for logger batches; the rest stays free for people browsing.
   const ingest = createIngestService({ db, now: nowMs, hooks: ingestHooks, maxConcurrentBatches: Math.max(1, Math.ceil(config.db.poolMax / 2)) });
   const channels = createChannelsService({ db, now: nowMs });

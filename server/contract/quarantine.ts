@@ -1,5 +1,7 @@
 import { z } from 'zod';
 import type { IsoTime } from './common.ts';
+import { timeZoneSchema } from './me.ts';
+import { UPLOAD_TIME_FORMATS } from './uploads.ts';
 
 /**
  * Quarantined rows: the list query with its keyset cursor, discard and re-submit inputs, and
@@ -33,14 +35,42 @@ export function decodeQuarantineCursor(text: string): QuarantineCursorKey | null
   return { receivedAt: new Date(receivedAtMs), rowIndex, id };
 }
 
+const isoTime = z.iso.datetime({ offset: true, error: 'must be an ISO 8601 date-time with an offset, e.g. 2026-11-24T00:00:00Z' });
+
+/**
+ * What the quarantine list can be narrowed to (all optional): logger, reason code, the channel
+ * name as received, where the rows came from, and when they were received (from inclusive, to
+ * exclusive). The list, its CSV export and the bulk repairs share it.
+ */
+export const quarantineFilterFields = {
+  loggerId: z.coerce.number().int().positive('must be a positive number').optional(),
+  reason: z.string().max(48, 'must be at most 48 characters').optional(),
+  channel: z.string().trim().min(1, 'must not be empty').max(191, 'must be at most 191 characters').optional(),
+  source: z
+    .string()
+    .regex(/^[a-z-]{1,16}$/, 'must be a source such as api, upload or resubmit')
+    .optional(),
+  receivedFrom: isoTime.optional(),
+  receivedTo: isoTime.optional(),
+};
+
+/** The filter fields as one object (the bulk selection's `filter`). */
+export const quarantineFilterSchema = z
+  .object(quarantineFilterFields)
+  .strict()
+  .refine((f) => !f.receivedFrom || !f.receivedTo || Date.parse(f.receivedFrom) < Date.parse(f.receivedTo), {
+    message: 'must be after receivedFrom',
+    path: ['receivedTo'],
+  });
+export type QuarantineFilterInput = z.infer<typeof quarantineFilterSchema>;
+
 /**
  * `GET …/quarantine` and its CSV export. Keyset pages: the first page without `cursor`, each
  * next one with the previous page's `nextCursor`. Page numbers are refused with a 400 (a deep
  * OFFSET page made the database skip millions of rows).
  */
 export const quarantineQuerySchema = z.object({
-  loggerId: z.coerce.number().int().positive('must be a positive number').optional(),
-  reason: z.string().max(48, 'must be at most 48 characters').optional(),
+  ...quarantineFilterFields,
   cursor: z
     .string()
     .max(64, BAD_CURSOR)
@@ -117,4 +147,134 @@ export interface ResubmitOutcome {
   accepted: number;
   duplicates: number;
   quarantined: Array<{ id: number; code: string; reason: string }>;
+}
+
+/** A bulk repair reaches at most this many rows at once (the list counts up to the same number). */
+export const BULK_MAX_ROWS = 10_000;
+
+/**
+ * Which rows a bulk repair reaches: every row matching a filter of the list (`filter`, `{}` is
+ * the whole quarantine) or rows named by id (`ids`) — one or the other.
+ */
+export const bulkSelectionSchema = z
+  .object({
+    filter: quarantineFilterSchema.optional(),
+    ids: z.array(z.number().int().positive()).min(1, 'choose at least one row').max(BULK_MAX_ROWS, `at most ${BULK_MAX_ROWS} rows at a time`).optional(),
+  })
+  .strict()
+  .refine((s) => (s.filter === undefined) !== (s.ids === undefined), { message: 'give either filter or ids', path: ['filter'] });
+export type BulkSelection = z.infer<typeof bulkSelectionSchema>;
+
+/** The bulk repairs, by `kind`. */
+export const BULK_ACTION_KINDS = ['reread', 'shift', 'map-channel', 'discard'] as const;
+export type BulkActionKind = (typeof BULK_ACTION_KINDS)[number];
+
+/** A signed shift of at most ten years, in minutes (a clock that ran late is shifted back: negative). */
+const MAX_SHIFT_MINUTES = 10 * 366 * 24 * 60;
+
+/**
+ * What to do with the selected rows:
+ * - `reread`: read each row's time text again with `timeFormat` (`pattern`: `timePattern`, LDML
+ *   date symbols) in `timeZone` (default: the row's logger's zone), then store it;
+ * - `shift`: read each time as ingestion does and move it by `offsetMinutes` (signed), then store it;
+ * - `map-channel`: store the rows under `channelId`, a channel of the rows' own logger;
+ * - `discard`: delete the rows for good, saying why (`reason`, kept in the audit log).
+ */
+export const bulkActionSchema = z.discriminatedUnion(
+  'kind',
+  [
+    z
+      .object({
+        kind: z.literal('reread'),
+        timeFormat: z.enum(UPLOAD_TIME_FORMATS, { error: `must be one of ${UPLOAD_TIME_FORMATS.join(', ')}` }),
+        timePattern: z.string().trim().min(1, 'must not be empty').max(64, 'must be at most 64 characters').optional(),
+        timeZone: timeZoneSchema.optional(),
+      })
+      .strict()
+      .refine((a) => a.timeFormat !== 'pattern' || a.timePattern, { message: 'give the pattern of the times, e.g. dd.MM.yyyy HH:mm', path: ['timePattern'] }),
+    z
+      .object({
+        kind: z.literal('shift'),
+        offsetMinutes: z
+          .number({ error: 'must be a whole number of minutes' })
+          .int('must be a whole number of minutes')
+          .min(-MAX_SHIFT_MINUTES, 'must be at most ten years back')
+          .max(MAX_SHIFT_MINUTES, 'must be at most ten years ahead')
+          .refine((m) => m !== 0, 'must not be 0 (a shift of nothing changes nothing)'),
+      })
+      .strict(),
+    z.object({ kind: z.literal('map-channel'), channelId: z.number({ error: 'must be a channel id' }).int().positive('must be a channel id') }).strict(),
+    z.object({ kind: z.literal('discard'), reason: z.string().trim().min(3, 'say why, in a few words').max(255, 'must be at most 255 characters') }).strict(),
+  ],
+  { error: `kind: must be one of ${BULK_ACTION_KINDS.join(', ')}` },
+);
+export type BulkAction = z.infer<typeof bulkActionSchema>;
+
+/** `POST …/quarantine/bulk/preview` and `POST …/quarantine/bulk/runs`. */
+export const bulkRequestSchema = z.object({ selection: bulkSelectionSchema, action: bulkActionSchema }).strict();
+export type BulkRequest = z.infer<typeof bulkRequestSchema>;
+
+/** `GET …/quarantine/bulk/runs/:runId`. */
+export const bulkRunParamsSchema = z.object({ runId: z.coerce.number().int().positive('must be a run id') });
+
+/** Rows that stay in quarantine after a repair, grouped by their new reason code (one reason text as example). */
+export interface BulkReasonGroup {
+  code: string;
+  count: number;
+  example: string;
+}
+
+/**
+ * What a repair does (or did) with its rows. Accounting: `selected = stored + alreadyStored +
+ * stillQuarantined + discarded`; every row ends in exactly one of them.
+ */
+export interface BulkCounts {
+  selected: number;
+  /** New readings stored. */
+  stored: number;
+  /** Rows whose reading was already stored with the same value: they leave quarantine, nothing changes. */
+  alreadyStored: number;
+  /** Rows that stay in quarantine with a new reason (their text as received is kept). */
+  stillQuarantined: number;
+  discarded: number;
+  /** `stillQuarantined`, by new reason. */
+  reasons: BulkReasonGroup[];
+}
+
+/** One row before → after, for the preview's sample. */
+export interface BulkSampleRow {
+  id: number;
+  before: { channel: string | null; ts: string | null; value: string | null; reasonCode: string };
+  after: { outcome: 'stored'; channel: string; ts: IsoTime } | { outcome: 'quarantined'; reasonCode: string; reason: string } | { outcome: 'discarded' };
+}
+
+/** `POST …/quarantine/bulk/preview`: what the repair would do; nothing is changed. */
+export interface BulkPreview extends BulkCounts {
+  /** The first rows of the selection (at most 20), before → after. */
+  sample: BulkSampleRow[];
+}
+
+export type BulkRunState = 'running' | 'done' | 'failed';
+
+/** `POST …/quarantine/bulk/runs` (202) and `GET …/quarantine/bulk/runs/:runId`: a repair working in the background, or its outcome. */
+export interface BulkRun {
+  id: number;
+  state: BulkRunState;
+  action: BulkAction;
+  selection: BulkSelection;
+  /** Rows worked through so far, of `total`. */
+  done: number;
+  total: number;
+  /** Set once the run is done (everything was applied in one transaction). */
+  counts: BulkCounts | null;
+  /** Why the run failed (nothing was applied). */
+  error: string | null;
+  startedBy: string | null;
+  startedAt: IsoTime;
+  finishedAt: IsoTime | null;
+}
+
+/** `GET …/quarantine/bulk/runs`: the lab's recent runs, newest first (the running one, if any, first). */
+export interface BulkRunList {
+  runs: BulkRun[];
 }

@@ -66,7 +66,21 @@ export interface QuarantineCursor {
 export interface QuarantineFilter {
   loggerId?: number;
   reasonCode?: string;
+  /** The channel name as received. */
+  channelKey?: string;
+  source?: string;
+  /** Received at or after. */
+  receivedFrom?: Date;
+  /** Received before. */
+  receivedTo?: Date;
 }
+
+/** The list's order: newest first, a batch's rows in their order (matches the `quarantine_*recent_index` indexes). */
+const LIST_ORDER: Array<{ column: string; order: 'asc' | 'desc' }> = [
+  { column: 'quarantined_rows.received_at', order: 'desc' },
+  { column: 'quarantined_rows.row_index', order: 'asc' },
+  { column: 'quarantined_rows.id', order: 'asc' },
+];
 
 /** A count of matching rows stops here, so a list request never walks a large quarantine (the page says "10,000 or more"). */
 export const QUARANTINE_COUNT_LIMIT = 10_000;
@@ -81,6 +95,10 @@ export function quarantineRepo(scope: LabScope) {
     const q = scope.table('quarantined_rows');
     if (filter.loggerId) q.where('quarantined_rows.logger_id', filter.loggerId);
     if (filter.reasonCode) q.where('quarantined_rows.reason_code', filter.reasonCode);
+    if (filter.channelKey) q.where('quarantined_rows.channel_key', filter.channelKey);
+    if (filter.source) q.where('quarantined_rows.source', filter.source);
+    if (filter.receivedFrom) q.where('quarantined_rows.received_at', '>=', filter.receivedFrom);
+    if (filter.receivedTo) q.where('quarantined_rows.received_at', '<', filter.receivedTo);
     return q;
   };
 
@@ -132,11 +150,7 @@ export function quarantineRepo(scope: LabScope) {
       }
       const rows = (
         await q
-          .orderBy([
-            { column: 'quarantined_rows.received_at', order: 'desc' },
-            { column: 'quarantined_rows.row_index', order: 'asc' },
-            { column: 'quarantined_rows.id', order: 'asc' },
-          ])
+          .orderBy(LIST_ORDER)
           .limit(filter.pageSize + 1)
           .select(COLUMNS)
       ).map(toRow);
@@ -157,9 +171,31 @@ export function quarantineRepo(scope: LabScope) {
       return { count, atLeast: count >= QUARANTINE_COUNT_LIMIT };
     },
 
-    async findMany(ids: number[]): Promise<QuarantinedRow[]> {
-      if (ids.length === 0) return [];
-      return (await scope.table('quarantined_rows').whereIn('quarantined_rows.id', ids).select(COLUMNS)).map(toRow);
+    async findMany(ids: number[], opts: { lock?: boolean } = {}): Promise<QuarantinedRow[]> {
+      const found: QuarantinedRow[] = [];
+      for (let i = 0; i < ids.length; i += 1000) {
+        const q = scope
+          .table('quarantined_rows')
+          .whereIn('quarantined_rows.id', ids.slice(i, i + 1000))
+          .select(COLUMNS);
+        if (opts.lock) q.forUpdate();
+        found.push(...(await q).map(toRow));
+      }
+      return found;
+    },
+
+    /**
+     * The ids of the rows matching `filter`, in the list's order, at most `limit` of them (ask
+     * for one more than you accept to tell "too many").
+     */
+    async idsMatching(filter: QuarantineFilter, limit: number): Promise<number[]> {
+      const rows = await filtered(filter).orderBy(LIST_ORDER).limit(limit).select('quarantined_rows.id');
+      return rows.map((r: { id: unknown }) => Number(r.id));
+    },
+
+    /** Locks the lab's billing row, which keeps the count of quarantined rows, until the transaction ends. */
+    async lockCount(): Promise<void> {
+      await scope.table('lab_billing').forUpdate().first('lab_billing.tenant_id');
     },
 
     /**
@@ -168,8 +204,16 @@ export function quarantineRepo(scope: LabScope) {
      */
     async remove(ids: number[]): Promise<number> {
       if (ids.length === 0) return 0;
-      await scope.table('lab_billing').forUpdate().first('lab_billing.tenant_id');
-      const removed = Number(await scope.table('quarantined_rows').whereIn('quarantined_rows.id', ids).delete());
+      await this.lockCount();
+      let removed = 0;
+      for (let i = 0; i < ids.length; i += 1000) {
+        removed += Number(
+          await scope
+            .table('quarantined_rows')
+            .whereIn('quarantined_rows.id', ids.slice(i, i + 1000))
+            .delete(),
+        );
+      }
       if (removed > 0) {
         const taken = await scope.table('lab_billing').where('lab_billing.quarantined_count', '>=', removed).decrement('quarantined_count', removed);
         if (!taken) await scope.table('lab_billing').update({ quarantined_count: 0 });

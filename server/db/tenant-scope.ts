@@ -17,6 +17,7 @@ export const LAB_OWNED_TABLES = [
   'readings',
   'reading_rollups',
   'quarantined_rows',
+  'quarantine_bulk_runs',
   'alert_rules',
   'alert_subscriptions',
   'alerts',

@@ -3,9 +3,13 @@ import { inLab } from '../db/tenant-scope.ts';
 import { quarantineRepo, type QuarantineCursor, type QuarantineFilter, type QuarantinedRow } from '../db/quarantine.repo.ts';
 import { auditRepo } from '../db/audit.repo.ts';
 import { NotFoundError } from '../errors.ts';
-import type { IngestHooks } from './ingest/ingest-hooks.ts';
-import { ingestBatch, type IngestOutcome } from './ingest/ingest-batch.ts';
+import type { IngestHooks, StoredBatch } from './ingest/ingest-hooks.ts';
+import { ingestBatchInTransaction, type IngestOutcome } from './ingest/ingest-batch.ts';
+import { retryOnLockConflict } from './quarantine/retry-on-lock-conflict.ts';
+import type { LogWriter } from '../log-writer.ts';
 import type { Actor, LabContext } from './lab-context.ts';
+import { replacing } from './quarantine/bulk-apply.ts';
+import { createQuarantineBulk } from './quarantine/bulk-runs.ts';
 
 export interface ResubmitRow {
   id: number;
@@ -15,24 +19,15 @@ export interface ResubmitRow {
 }
 
 /**
- * The hooks for a re-submit of `originals` quarantined rows: the batch's rows that fail again
- * replace those originals (removed right after), so the quarantine cap sees only the net growth
- * and a lab at its cap can still fix its rows.
- */
-function replacing(hooks: IngestHooks, originals: number): IngestHooks {
-  return {
-    beforeCommit: hooks.beforeCommit && ((trx, batch) => hooks.beforeCommit!(trx, { ...batch, replacesQuarantined: originals })),
-    afterCommit: hooks.afterCommit && ((batch) => hooks.afterCommit!(batch)),
-  };
-}
-
-/**
  * Reviewing quarantined rows: list and filter, export, discard (audit-logged), or fix and
- * re-submit. A re-submitted row goes through exactly the same checks as a logger's; if it
- * fails again it returns to quarantine with its new reason, so nothing is ever lost.
+ * re-submit; and the bulk repairs of `quarantine/` (`bulk`). A re-submitted row goes through
+ * exactly the same checks as a logger's; if it fails again it returns to quarantine with its
+ * new reason, so nothing is ever lost.
  */
-export function createQuarantineService(deps: { db: Db; now?: () => number; hooks?: IngestHooks }) {
+export function createQuarantineService(deps: { db: Db; now?: () => number; hooks?: IngestHooks; logger?: LogWriter }) {
   return {
+    bulk: createQuarantineBulk(deps),
+
     /**
      * One page of matching rows after `after` (keyset pagination: each page costs the same however
      * deep it is), with the number of matching rows counted up to QUARANTINE_COUNT_LIMIT.
@@ -83,28 +78,40 @@ export function createQuarantineService(deps: { db: Db; now?: () => number; hook
         const loggerId = originals.get(row.id)!.loggerId!;
         (byLogger.get(loggerId) ?? byLogger.set(loggerId, []).get(loggerId)!).push({ row, index });
       });
-      const total: IngestOutcome = { accepted: 0, duplicates: 0, quarantined: [] };
-      for (const [loggerId, list] of byLogger) {
-        const outcome = await ingestBatch(
-          deps.db,
-          { tenantId: lab.id, loggerId },
-          list.map(({ row, index }) => ({ index, channel: row.channel, ts: row.ts, value: row.value, raw: JSON.stringify(row) })),
-          { source: 'resubmit', now: deps.now, hooks: deps.hooks && replacing(deps.hooks, list.length) },
-        );
-        total.accepted += outcome.accepted;
-        total.duplicates += outcome.duplicates;
-        total.quarantined.push(...outcome.quarantined);
-      }
-      await deps.db.transaction(async (trx) => {
-        const scope = inLab(trx, lab.id);
-        await quarantineRepo(scope).remove(rows.map((r) => r.id));
-        await auditRepo(scope).record({
-          actorUserId: actor.id,
-          action: 'quarantine.resubmitted',
-          summary: `${actor.displayName} re-submitted ${rows.length} quarantined row(s): ${total.accepted} stored, ${total.quarantined.length} quarantined again`,
-          details: { accepted: total.accepted, duplicates: total.duplicates, quarantinedAgain: total.quarantined.length },
-        });
-      });
+      // One transaction for the new readings, the rows that fail again and the removal of the
+      // originals: a failure anywhere leaves every original where it was.
+      const { total, stored } = await retryOnLockConflict(() =>
+        deps.db.transaction(
+          async (trx) => {
+            const scope = inLab(trx as unknown as Db, lab.id);
+            const total: IngestOutcome = { accepted: 0, duplicates: 0, quarantined: [] };
+            const stored: StoredBatch[] = [];
+            for (const loggerId of [...byLogger.keys()].sort((a, b) => a - b)) {
+              const list = byLogger.get(loggerId)!;
+              const result = await ingestBatchInTransaction(
+                trx as unknown as Db,
+                { tenantId: lab.id, loggerId },
+                list.map(({ row, index }) => ({ index, channel: row.channel, ts: row.ts, value: row.value, raw: JSON.stringify(row) })),
+                { source: 'resubmit', now: deps.now, hooks: deps.hooks && replacing(deps.hooks, list.length) },
+              );
+              total.accepted += result.outcome.accepted;
+              total.duplicates += result.outcome.duplicates;
+              total.quarantined.push(...result.outcome.quarantined);
+              if (result.stored.accepted > 0) stored.push(result.stored);
+            }
+            await quarantineRepo(scope).remove(rows.map((r) => r.id));
+            await auditRepo(scope).record({
+              actorUserId: actor.id,
+              action: 'quarantine.resubmitted',
+              summary: `${actor.displayName} re-submitted ${rows.length} quarantined row(s): ${total.accepted} stored, ${total.quarantined.length} quarantined again`,
+              details: { accepted: total.accepted, duplicates: total.duplicates, quarantinedAgain: total.quarantined.length },
+            });
+            return { total, stored };
+          },
+          { isolationLevel: 'read committed' },
+        ),
+      );
+      for (const batch of stored) deps.hooks?.afterCommit?.(batch);
       total.quarantined.sort((a, b) => a.index - b.index);
       return { ...total, resubmitted: rows.length };
     },

@@ -50,6 +50,21 @@ export async function buildLabWithEverything(db: Knex, { rowInEveryTable = false
     ts_raw: '2026-01-01T00:00:00Z',
     value_raw: '"warm"',
   });
+  // a finished bulk quarantine repair (discard of one row)
+  const bulkRunId = rid();
+  await db('quarantine_bulk_runs').insert({
+    tenant_id: lab.id,
+    id: bulkRunId,
+    state: 'done',
+    action: 'discard',
+    request: JSON.stringify({ selection: { ids: [1] }, action: { kind: 'discard', reason: 'sensor unplugged' } }),
+    started_by: founder.id,
+    started_by_name: 'Founder',
+    total: 1,
+    done: 1,
+    outcome: JSON.stringify({ selected: 1, stored: 0, alreadyStored: 0, stillQuarantined: 0, discarded: 1, reasons: [] }),
+    finished_at: new Date(),
+  });
   const personal = newPersonalToken();
   const tokenId = rid();
   await db('personal_tokens').insert({
@@ -97,8 +112,8 @@ export async function buildLabWithEverything(db: Knex, { rowInEveryTable = false
     guest,
     ingestKey: key.key,
     personalToken: personal.token,
-    ids: { loggerId, channelId, keyId, quarantinedId, invitationId, tokenId, ruleId, alertId },
-    params: { userId: guest.id, id: invitationId, loggerId, channelId, keyId, tokenId, ruleId, alertId } as Record<string, number>,
+    ids: { loggerId, channelId, keyId, quarantinedId, bulkRunId, invitationId, tokenId, ruleId, alertId },
+    params: { userId: guest.id, id: invitationId, loggerId, channelId, keyId, runId: bulkRunId, tokenId, ruleId, alertId } as Record<string, number>,
   };
 }
 
@@ -196,6 +211,8 @@ export function validBodyFor(method: string, path: string, f: LabWithEverything)
     'PATCH /alert-rules/:ruleId': { name: 'Air far too warm' },
     'POST /alerts/:alertId/acknowledge': { note: 'Door was open; closed it.' },
     'POST /quarantine/resubmit': { rows: [{ id: f.ids.quarantinedId, channel: 'air_t', ts: '2026-01-01T00:00:00Z', value: 4.5 }] },
+    'POST /quarantine/bulk/preview': { selection: { ids: [f.ids.quarantinedId] }, action: { kind: 'discard', reason: 'matrix check' } },
+    'POST /quarantine/bulk/runs': { selection: { ids: [f.ids.quarantinedId] }, action: { kind: 'discard', reason: 'matrix check' } },
     // a paid plan of tenants/plans.json
     'POST /billing/checkout-session': { plan: 'transect' },
     'POST /billing/plan-change': { plan: 'watershed' },

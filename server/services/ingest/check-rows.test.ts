@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { checkRows, MAX_FUTURE_MS, type CheckedChannel, type CheckedRows, type IncomingReading } from './check-rows.ts';
+import { checkRows, MAX_FUTURE_MS, readRowTime, type CheckedChannel, type CheckedRows, type IncomingReading } from './check-rows.ts';
 
 // Times are ISO 8601 (Z = UTC); their epoch milliseconds come from Date.UTC, independent of the parser.
 const NOW = Date.UTC(2026, 2, 1, 12, 0, 0);
@@ -99,5 +99,28 @@ describe('checkRows', () => {
     expect(checked.c.duplicatesInBatch).toBe(4000);
     expect(columns.length + checked.c.duplicatesInBatch + checked.c.rejected.length).toBe(n);
     expect(checked.otherWorkRan).toBe(true);
+  });
+});
+
+describe('readRowTime and timeShiftMs', () => {
+  it('shifts a time once read; an unreadable time stays unreadable', () => {
+    expect(readRowTime(T1, { timeShiftMs: -3_600_000 })).toEqual({ ok: true, ts: T1_MS - 3_600_000 });
+    expect(readRowTime('yesterday', { timeShiftMs: 60_000 }).ok).toBe(false);
+  });
+
+  it("reads a layout's wall clock in the zone: 24.11.2026 00:00 in Europe/Berlin is 23:00 UTC the day before (CET, UTC+1; IANA tz database)", () => {
+    expect(readRowTime('24.11.2026 00:00', { timeLayout: 'day-first-dot', timeZone: 'Europe/Berlin' })).toEqual({
+      ok: true,
+      ts: Date.UTC(2026, 10, 23, 23, 0, 0),
+    });
+  });
+
+  it('checks the range on the shifted time: a shift past 24 h ahead quarantines the row as time_out_of_range', async () => {
+    const shifted = await checkRows(rowsOf({ channel: 'air_t', ts: T1, value: 1 }), channels, { now: NOW, timeShiftMs: MAX_FUTURE_MS + 3 * 3_600_000 });
+    expect(verdicts(shifted)).toEqual([
+      [0, 'time_out_of_range', 'ts: more than 24 hours in the future (check the logger clock)', T1_MS + MAX_FUTURE_MS + 3 * 3_600_000],
+    ]);
+    const back = await checkRows(rowsOf({ channel: 'air_t', ts: T1, value: 1 }), channels, { now: NOW, timeShiftMs: -60_000 });
+    expect(candidates(back)).toEqual([[31, T1_MS - 60_000, 1, 0]]);
   });
 });

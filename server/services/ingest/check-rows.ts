@@ -1,6 +1,6 @@
 import { BatchCandidates } from './batch-candidates.ts';
 import { parseReadingValue } from './parse-reading-value.ts';
-import { parseReadingTime, type TimeFormat } from './parse-reading-time.ts';
+import { parseReadingTime, type TimeFormat, type TimeParse } from './parse-reading-time.ts';
 import { parseWithLayout, type TimeLayout } from './time-layouts.ts';
 
 /** One row as it arrived, before anything is checked. `index` is its position in the request. */
@@ -37,6 +37,11 @@ export interface RowCheckOptions {
   /** A layout chosen for the batch's times (an upload's); read in `timeZone`, and `timeFormat` is then unused. */
   timeLayout?: TimeLayout;
   timeZone?: string;
+  /**
+   * Added to every time once read (epoch ms, signed): a quarantine repair for a logger clock
+   * that ran off by a fixed amount. The range checks see the shifted time.
+   */
+  timeShiftMs?: number;
 }
 
 /** The verdict on a batch's rows, before anything is stored. */
@@ -53,6 +58,18 @@ export interface CheckedRows {
 export const MAX_FUTURE_MS = 24 * 3600 * 1000;
 /** Rows checked between two yields to the event loop, so a large batch does not hold other requests up. */
 const ROWS_PER_TURN = 10_000;
+
+/**
+ * Reads one row's time the way a batch with these options reads it: with the chosen layout in
+ * `timeZone` (UTC if none), else by ingestion's own rules (`parseReadingTime`), then shifted by
+ * `timeShiftMs`. Exported so a quarantine repair can show the time a row will be stored at.
+ */
+export function readRowTime(ts: unknown, options: Omit<RowCheckOptions, 'now'>): TimeParse {
+  const time = options.timeLayout
+    ? parseWithLayout(String(ts ?? ''), options.timeLayout, options.timeZone ?? 'UTC')
+    : parseReadingTime(ts, { format: options.timeFormat, timeZone: options.timeZone });
+  return time.ok && options.timeShiftMs ? { ok: true, ts: time.ts + options.timeShiftMs } : time;
+}
 
 /**
  * Decides, without the database, what becomes of each row of a batch: a candidate for storage,
@@ -73,7 +90,6 @@ export async function checkRows(
   const rejected: RejectedRow[] = [];
   let duplicatesInBatch = 0;
   const latestAllowed = options.now + MAX_FUTURE_MS;
-  const timeOptions = { format: options.timeFormat, timeZone: options.timeZone };
   const reject = (row: IncomingReading, code: string, reason: string, ts?: number) => {
     rejected.push({ row, code, reason, ts });
   };
@@ -94,9 +110,7 @@ export async function checkRows(
       reject(row, 'retired_channel', `channel: "${key}" is retired`);
       continue;
     }
-    const time = options.timeLayout
-      ? parseWithLayout(String(row.ts ?? ''), options.timeLayout, options.timeZone ?? 'UTC')
-      : parseReadingTime(row.ts, timeOptions);
+    const time = readRowTime(row.ts, options);
     if (!time.ok) {
       reject(row, time.code, time.reason);
       continue;

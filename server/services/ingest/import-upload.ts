@@ -7,7 +7,7 @@ import type { IngestHooks } from './ingest-hooks.ts';
 import { ingestBatch, type IncomingReading, type IngestTarget, type QuarantinedEntry } from './ingest-batch.ts';
 import type { TimeFormat } from './parse-reading-time.ts';
 import { compilePattern, type TimeLayout } from './time-layouts.ts';
-import type { UploadOptions } from '../../contract/uploads.ts';
+import type { UploadOptions, UploadTimeFormat } from '../../contract/uploads.ts';
 
 export interface UploadLayout {
   format: 'long' | 'wide';
@@ -42,9 +42,18 @@ export interface UploadSummary extends UploadProgress {
  */
 export function resolveUploadLayout(options: UploadOptions): UploadLayout {
   const { timeFormat, timePattern, ...rest } = options;
-  if (timeFormat === 'auto' || timeFormat === 'iso' || timeFormat === 'epoch-ms' || timeFormat === 'epoch-s') return { ...rest, timeFormat };
-  if (timeFormat !== 'pattern') return { ...rest, timeFormat: 'auto', timeLayout: timeFormat };
-  return { ...rest, timeFormat: 'auto', timeLayout: patternLayout(timePattern) };
+  return { ...rest, ...timeReadingOf(timeFormat, timePattern) };
+}
+
+/**
+ * An upload time format (and custom pattern) as the batch options that read it: `auto`, `iso`
+ * and the epoch formats by ingestion's own rules, any other layout through `time-layouts.ts`.
+ * Shared by uploads and quarantine re-reads; a bad pattern answers 400 `timePattern: …`.
+ */
+export function timeReadingOf(timeFormat: UploadTimeFormat, timePattern: string | undefined): { timeFormat: TimeFormat; timeLayout?: TimeLayout } {
+  if (timeFormat === 'auto' || timeFormat === 'iso' || timeFormat === 'epoch-ms' || timeFormat === 'epoch-s') return { timeFormat };
+  if (timeFormat !== 'pattern') return { timeFormat: 'auto', timeLayout: timeFormat };
+  return { timeFormat: 'auto', timeLayout: patternLayout(timePattern) };
 }
 
 /** A custom time pattern as a layout; one it cannot read is refused as `timePattern: reason` (400). */

@@ -38,6 +38,8 @@ export interface IngestOptions {
   /** A layout chosen for the batch's times (uploads); see RowCheckOptions. */
   timeLayout?: TimeLayout;
   timeZone?: string;
+  /** Added to every time once read (signed ms; quarantine repairs of a clock that ran off). */
+  timeShiftMs?: number;
   now?: () => number;
   /** Plan limits, alerts and the like (see ingest-hooks.ts). */
   hooks?: IngestHooks;
@@ -64,7 +66,9 @@ export async function ingestBatch(db: Db, target: IngestTarget, rows: IncomingRe
       // READ COMMITTED: the rollup INSERT … SELECT reads without gap locks (binary log is off),
       // so batches of different loggers never block each other; the logger-row lock already
       // serialises writers of the same channels.
-      const { outcome, stored } = await db.transaction((trx) => applyBatch(trx as unknown as Db, target, rows, opts), { isolationLevel: 'read committed' });
+      const { outcome, stored } = await db.transaction((trx) => ingestBatchInTransaction(trx as unknown as Db, target, rows, opts), {
+        isolationLevel: 'read committed',
+      });
       if (stored.accepted > 0) opts.hooks?.afterCommit?.(stored);
       return outcome;
     } catch (err) {
@@ -75,12 +79,15 @@ export async function ingestBatch(db: Db, target: IngestTarget, rows: IncomingRe
 }
 
 /**
- * One batch inside its transaction: lock the logger, check the rows (`checkRows`, no database),
- * write the new readings (`storeNew`), bring rollups, channel state and last-seen up to date
- * (`updateDerived`), let the hooks refuse the batch, then write its quarantine rows last (plan
- * limits hold the lab's usage row from their hook until COMMIT, so as little as possible follows).
+ * One batch inside the caller's transaction (`ingestBatch` opens one per batch; a quarantine
+ * repair runs many batches in one, so they commit or roll back together): lock the logger,
+ * check the rows (`checkRows`, no database), write the new readings (`storeNew`), bring
+ * rollups, channel state and last-seen up to date (`updateDerived`), let the `beforeCommit`
+ * hooks refuse the batch, then write its quarantine rows last (plan limits hold the lab's usage
+ * row from their hook until COMMIT, so as little as possible follows). The `afterCommit` hooks
+ * are the caller's to run with `stored` once its transaction has committed.
  */
-async function applyBatch(
+export async function ingestBatchInTransaction(
   trx: Db,
   target: IngestTarget,
   rows: IncomingReading[],
@@ -94,7 +101,13 @@ async function applyBatch(
   const channels = new Map((await channelsRepo(scope).listForLogger(target.loggerId, { includeRetired: true })).map((c) => [c.key, c]));
 
   // 1. Read and check each row; keep the first value per (channel, ts) in this batch.
-  const checked = await checkRows(rows, channels, { now: now(), timeFormat: opts.timeFormat, timeLayout: opts.timeLayout, timeZone: opts.timeZone });
+  const checked = await checkRows(rows, channels, {
+    now: now(),
+    timeFormat: opts.timeFormat,
+    timeLayout: opts.timeLayout,
+    timeZone: opts.timeZone,
+    timeShiftMs: opts.timeShiftMs,
+  });
   // 2. Insert what is new, in primary-key order; only if some rows were already stored, find out which and why.
   const sorted = checked.candidates.sorted();
   const { accepted, duplicates, conflicts } = await storeNew(scope, sorted, rows);
