@@ -126,6 +126,8 @@ export function ChannelsTogether({ slug, canExport }: { slug: string; canExport:
         </Notice>
       ) : (
         <TogetherChart
+          // a new set of lines is a new chart: the memo below keys on one data item per line
+          key={plan.lines.map((l) => l.channel.id).join(',')}
           slug={slug}
           lines={plan.lines}
           axes={plan.axes}
