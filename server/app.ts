@@ -52,6 +52,8 @@ import { createChannelsService } from './services/channels.service.ts';
 import { createDiagnosticsService } from './services/diagnostics.service.ts';
 import { createDiagnosticsConcurrency } from './services/diagnostics-concurrency.ts';
 import { channelRoutes } from './http/channels/channels.routes.ts';
+import { noteRoutes } from './http/channels/notes.routes.ts';
+import { createNotesService } from './services/notes/notes.service.ts';
 import { createPersonalTokensService } from './services/personal-tokens.service.ts';
 import { tokenRoutes } from './http/tokens/tokens.routes.ts';
 import { alertRoutes } from './http/alerts/alerts.routes.ts';
@@ -167,6 +169,7 @@ export function createApp(deps: AppDeps): Express {
       diagnosticsRuns: createDiagnosticsConcurrency({ maxPerPerson: config.diagnostics.runsPerPerson }),
     }),
     ...alertRoutes({ alerts: alerts.service, now: nowMs }),
+    ...noteRoutes({ notes: createNotesService({ db, now: nowMs }) }),
     ...tokenRoutes({ tokens }),
     ...billingRoutes({ billing: billingService }),
     ...overviewRoutes({ overview: createLabOverviewService({ db, billing: billingService, now: nowMs }) }),

@@ -42,6 +42,11 @@ export const AUDIT_ACTIONS = [
   'billing.plan-change-requested',
   'billing.plan-changed',
   'billing.status-changed',
+  'note.created',
+  'note.updated',
+  'note.deleted',
+  'note-kind.created',
+  'note-kind.updated',
 ] as const;
 export type AuditAction = (typeof AUDIT_ACTIONS)[number];
 

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import type { IsoTime } from './common.ts';
+import type { AppliedNote } from './notes.ts';
 import { MAX_RANGE_MS, rangeFields, resolveRange, timeParam, wholeNumber, type TimeRange } from './channels.ts';
 
 /**
@@ -387,6 +388,8 @@ export interface DiagnosticsReport {
     parameters: Omit<DiagnosticsParams, 'from' | 'to'> & { from: IsoTime; to: IsoTime };
     resolved: ResolvedParameters;
     notes: string[];
+    /** Notes marked "leave out of analysis" whose cells were made missing before the analysis. */
+    excludedNotes: AppliedNote[];
     references: string[];
   };
   series: { start: number; stepMs: number; n: number; missing: number; readings: number; emptyCells: number[] };
@@ -441,5 +444,12 @@ export interface ComparisonAnswer {
   /** Set when a range is short for its autocorrelation, else null. */
   caution: string | null;
   sentence: string;
-  method: { stepS: number; agg: Aggregate; statement: string; references: string[] };
+  method: {
+    stepS: number;
+    agg: Aggregate;
+    statement: string;
+    /** Notes marked "leave out of analysis" whose cells were made missing, per range. */
+    excludedNotes: { a: AppliedNote[]; b: AppliedNote[] };
+    references: string[];
+  };
 }

@@ -25,6 +25,8 @@ export const LAB_OWNED_TABLES = [
   'personal_tokens',
   'lab_billing',
   'usage_snapshots',
+  'note_kinds',
+  'notes',
 ] as const;
 
 export type LabOwnedTable = (typeof LAB_OWNED_TABLES)[number];

@@ -1,6 +1,7 @@
 import { describeDuration, describeModel, NEAR_UNIT_ROOT, thinForDrawing, type ChannelDiagnostics } from '../analysis/index.ts';
 import type { ChannelWithState } from '../db/channel-state.repo.ts';
 import type { Decomposition, DiagnosticsParams, DiagnosticsReport, GridSource, ProcessModel, ReportChannel, TrendAnswer } from '../contract/diagnostics.ts';
+import type { AppliedNote } from '../contract/notes.ts';
 
 /**
  * 'drawing' thins a long decomposition to what a chart can show (the page and the JSON answer);
@@ -191,6 +192,22 @@ function trendSection(r: ChannelDiagnostics, stepMs: number, label: string, unit
 }
 
 /**
+ * One sentence for a method section naming the notes whose spans were left out of an analysis
+ * (kind, span, cells removed, text), so a reader can tell which readings the figures ignore.
+ */
+export function excludedNotesSentence(notes: AppliedNote[]): string {
+  const total = notes.reduce((sum, n) => sum + n.cellsRemoved, 0);
+  const listed = notes.map(
+    (n) =>
+      `${n.kind} [${new Date(n.from).toISOString()}, ${new Date(n.to).toISOString()})${n.channelId === null ? ' on the whole logger' : ''}: ${n.cellsRemoved} cell${n.cellsRemoved === 1 ? '' : 's'} — “${n.text}”`,
+  );
+  return (
+    `Left out of the analysis by ${notes.length} note${notes.length === 1 ? '' : 's'} marked "leave out of analysis" (${total} cell${total === 1 ? '' : 's'} with readings made missing; ` +
+    `a cell partly under a note goes whole): ${listed.join('; ')}.`
+  );
+}
+
+/**
  * The JSON report of one diagnostics run: what was computed, from what, and how — every number
  * the engine produced, the parameters as requested and as resolved, the steps taken with the
  * data (gap filling, differencing) and the published methods, so a figure can be reproduced
@@ -209,6 +226,8 @@ export function diagnosticsReport(input: {
   result: ChannelDiagnostics;
   /** Default 'drawing'. */
   resolution?: DecompositionResolution;
+  /** Notes whose cells were made missing before the run (none when left out). */
+  excludedNotes?: AppliedNote[];
 }): DiagnosticsReport {
   const { result: r, params, stepS } = input;
   const stepMs = stepS * 1000;
@@ -238,6 +257,8 @@ export function diagnosticsReport(input: {
       `Trend: least squares against the step number on ${r.trend.fittedOn === 'adjusted' ? 'the series less its seasonal component' : 'the series'}, with a Newey–West standard error (Bartlett kernel, lag ${r.trend.lag} from Andrews' AR(1) plug-in rule, never below R's ⌊4(n/100)^(2/9)⌋); the ordinary least-squares interval is given beside it for contrast.`,
     );
   }
+  const excluded = input.excludedNotes ?? [];
+  if (excluded.length > 0) notes.push(excludedNotesSentence(excluded));
   if (r.grid.missing > 0) {
     notes.push(
       `${r.grid.missing} of ${r.grid.n} cells were empty; STL, period detection and process identification filled them by linear interpolation between the neighbouring cells (the classical decomposition leaves them missing).`,
@@ -268,6 +289,7 @@ export function diagnosticsReport(input: {
         trendLag: r.trend.available ? r.trend.lag : null,
       },
       notes,
+      excludedNotes: excluded,
       references: REFERENCES,
     },
     series: { start: r.grid.start, stepMs, n: r.grid.n, missing: r.grid.missing, readings: r.grid.readings, emptyCells: emptyCellsOf(r.grid.values) },

@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import type { Db } from '../db/create-db.ts';
 import { inLab } from '../db/tenant-scope.ts';
 import { channelReadingsRepo, type ReadingColumns } from '../db/channel-readings.repo.ts';
@@ -22,6 +23,9 @@ import { createResultCache, type ResultCacheOptions } from './result-cache.ts';
 import type { ComparisonAnswer, ComparisonParams, DiagnosticsParams, GridSource } from '../contract/diagnostics.ts';
 import { diagnosticsReport, type DecompositionResolution } from './diagnostics-report.ts';
 import { rangeComparisonReport } from './range-comparison-report.ts';
+import { excludedNotes, type ExcludedNote } from './notes/notes.service.ts';
+import { leaveOutNotedCells } from './notes/leave-out-noted-cells.ts';
+import type { AppliedNote } from '../contract/notes.ts';
 
 /** The engine refused the data or a parameter for it (too few readings, a period too long …). */
 export class AnalysisRefusedError extends AppError {
@@ -41,6 +45,32 @@ const DEFAULT_GRID_CACHE: ResultCacheOptions = { maxEntries: 16, maxBytes: 64 * 
 interface LoadedGrid {
   data: ReadingColumns;
   source: GridSource;
+}
+
+/** A fingerprint of the notes a run leaves out, for cache keys: any change to one of them changes it. */
+function notesFingerprint(...lists: ExcludedNote[][]): string {
+  if (lists.every((l) => l.length === 0)) return '';
+  return createHash('sha256').update(JSON.stringify(lists)).digest('base64url');
+}
+
+/**
+ * A loaded grid with the cells of `notes` (marked "leave out of analysis") made missing, and
+ * what each note took away. The grid cache keeps the readings as read; this runs per request.
+ */
+function withoutNotedCells(grid: LoadedGrid, notes: ExcludedNote[], stepMs: number, channelId: number): { grid: LoadedGrid; applied: AppliedNote[] } {
+  if (notes.length === 0) return { grid, applied: [] };
+  const { data, cellsRemoved } = leaveOutNotedCells(grid.data, notes, stepMs);
+  const applied = notes.map((n, i) => ({
+    id: n.id,
+    kind: n.kind,
+    text: n.text,
+    channelId: n.channelId,
+    removedFrom: channelId,
+    from: n.start,
+    to: n.end,
+    cellsRemoved: cellsRemoved[i],
+  }));
+  return { grid: { ...grid, data }, applied };
 }
 
 /**
@@ -134,11 +164,16 @@ export function createDiagnosticsService(deps: {
     return range;
   }
 
+  /** The notes marked "leave out of analysis" on a channel or its logger overlapping a range. */
+  const notesOf = (lab: LabContext, channel: ChannelWithState, range: { from: number; to: number }): Promise<ExcludedNote[]> =>
+    excludedNotes(inLab(deps.db, lab.id), { id: channel.id, loggerId: channel.loggerId }, range.from, range.to);
+
   return {
     /**
      * Before/after comparison: the mean of range b (of `otherChannel`, or this channel) against
      * the mean of range a of this channel, with the interval from each range's effective sample
      * size beside the naive Welch one, on the diagnostics grid (step and aggregate as there).
+     * Cells under notes marked "leave out of analysis" are missing in both ranges.
      */
     async comparison(lab: LabContext, channelId: number, params: ComparisonParams, signal?: AbortSignal): Promise<ComparisonAnswer> {
       const channel = await deps.channels.requireChannel(lab, channelId);
@@ -147,12 +182,21 @@ export function createDiagnosticsService(deps: {
       const stepMs = stepS * 1000;
       const rangeA = alignedRange(params.aFrom, params.aTo, stepMs, 'aTo');
       const rangeB = alignedRange(params.bFrom, params.bTo, stepMs, 'bTo');
-      const [a, b] = await Promise.all([load(lab, channel, rangeA, stepMs, params.agg), load(lab, other ?? channel, rangeB, stepMs, params.agg)]);
-      if (a.data.ts.length === 0) throw new AnalysisRefusedError(`aFrom: ${channel.label} has no readings in range a.`);
-      if (b.data.ts.length === 0) throw new AnalysisRefusedError(`bFrom: ${(other ?? channel).label} has no readings in range b.`);
+      const [loadedA, loadedB, notesA, notesB] = await Promise.all([
+        load(lab, channel, rangeA, stepMs, params.agg),
+        load(lab, other ?? channel, rangeB, stepMs, params.agg),
+        notesOf(lab, channel, rangeA),
+        notesOf(lab, other ?? channel, rangeB),
+      ]);
+      const leftA = withoutNotedCells(loadedA, notesA, stepMs, channel.id);
+      const leftB = withoutNotedCells(loadedB, notesB, stepMs, (other ?? channel).id);
+      const [a, b] = [leftA.grid, leftB.grid];
+      const besideNotes = (applied: AppliedNote[]) => (applied.length ? ' outside the notes marked "leave out of analysis"' : '');
+      if (a.data.ts.length === 0) throw new AnalysisRefusedError(`aFrom: ${channel.label} has no readings in range a${besideNotes(leftA.applied)}.`);
+      if (b.data.ts.length === 0) throw new AnalysisRefusedError(`bFrom: ${(other ?? channel).label} has no readings in range b${besideNotes(leftB.applied)}.`);
       const asReadings = (d: ReadingColumns): ChannelReadings => ({ timestamps: d.ts, values: d.values });
       const result = await compare(asReadings(a.data), asReadings(b.data), { step: stepMs, agg: params.agg, alpha: params.alpha }, signal);
-      return rangeComparisonReport({ channel, other, params, stepS, rangeA, rangeB, result });
+      return rangeComparisonReport({ channel, other, params, stepS, rangeA, rangeB, result, excludedNotes: { a: leftA.applied, b: leftB.applied } });
     },
 
     /**
@@ -160,7 +204,9 @@ export function createDiagnosticsService(deps: {
      * (kept encoded, so a cache hit costs no serialising or re-encoding).
      * `signal` cancels the engine run (the client went away). `resolution` 'drawing' (default)
      * thins a long decomposition for charts; 'full' keeps every cell (the CSV export). Each is
-     * cached on its own.
+     * cached on its own. Cells under notes marked "leave out of analysis" (on either channel or
+     * its logger) are missing values; the notes' fingerprint is part of the cache key, so a
+     * note made, changed or deleted is never answered from a result computed without it.
      */
     async report(
       lab: LabContext,
@@ -180,12 +226,38 @@ export function createDiagnosticsService(deps: {
           `step: the range holds ${cells} steps of ${stepS} s; at most ${MAX_DIAGNOSTICS_CELLS} (choose a longer step or a shorter range)`,
         );
       }
-      const key = JSON.stringify([lab.id, channelId, channel.dataVersion, partner?.id ?? null, partner?.dataVersion ?? null, range, stepS, params, resolution]);
+      const [mainNotes, partnerNotes] = await Promise.all([notesOf(lab, channel, range), partner ? notesOf(lab, partner, range) : []]);
+      const key = JSON.stringify([
+        lab.id,
+        channelId,
+        channel.dataVersion,
+        partner?.id ?? null,
+        partner?.dataVersion ?? null,
+        range,
+        stepS,
+        params,
+        resolution,
+        notesFingerprint(mainNotes, partnerNotes),
+      ]);
       const hit = cache.get(key);
       if (hit !== undefined) return { json: hit, cached: true };
 
-      const [main, other] = await Promise.all([load(lab, channel, range, stepMs, params.agg), partner ? load(lab, partner, range, stepMs, params.agg) : null]);
-      if (main.data.ts.length === 0) throw new AnalysisRefusedError('This channel has no readings in the chosen range.');
+      const [loadedMain, loadedOther] = await Promise.all([
+        load(lab, channel, range, stepMs, params.agg),
+        partner ? load(lab, partner, range, stepMs, params.agg) : null,
+      ]);
+      const leftMain = withoutNotedCells(loadedMain, mainNotes, stepMs, channel.id);
+      const leftOther = loadedOther && partner ? withoutNotedCells(loadedOther, partnerNotes, stepMs, partner.id) : null;
+      const main = leftMain.grid;
+      const other = leftOther?.grid ?? null;
+      const applied = [...leftMain.applied, ...(leftOther?.applied ?? [])];
+      if (main.data.ts.length === 0) {
+        throw new AnalysisRefusedError(
+          leftMain.applied.length
+            ? 'This channel has no readings in the chosen range outside the notes marked "leave out of analysis".'
+            : 'This channel has no readings in the chosen range.',
+        );
+      }
       if (other && other.data.ts.length === 0) throw new AnalysisRefusedError('ccfWith: the other channel has no readings in the chosen range.');
       const options: ChannelDiagnosticsOptions = {
         step: stepMs,
@@ -201,7 +273,9 @@ export function createDiagnosticsService(deps: {
       };
       const asReadings = (d: ReadingColumns): ChannelReadings => ({ timestamps: d.ts, values: d.values });
       const result = await compute(asReadings(main.data), options, other ? asReadings(other.data) : undefined, signal);
-      const json = Buffer.from(JSON.stringify(diagnosticsReport({ channel, partner, params, range, stepS, source: main.source, result, resolution })));
+      const json = Buffer.from(
+        JSON.stringify(diagnosticsReport({ channel, partner, params, range, stepS, source: main.source, result, resolution, excludedNotes: applied })),
+      );
       cache.set(key, json);
       return { json, cached: false };
     },

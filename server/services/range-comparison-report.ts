@@ -1,7 +1,8 @@
 import type { CompareMeansResult } from '../analysis/index.ts';
 import type { ChannelWithState } from '../db/channel-state.repo.ts';
 import type { ComparisonAnswer, ComparisonParams, RangeSummary } from '../contract/diagnostics.ts';
-import { channelSummary } from './diagnostics-report.ts';
+import type { AppliedNote } from '../contract/notes.ts';
+import { channelSummary, excludedNotesSentence } from './diagnostics-report.ts';
 
 const REFERENCES = [
   'Bayley & Hammersley (1946), J. R. Stat. Soc. Suppl. 8:184–197 — the effective number of independent observations',
@@ -30,7 +31,14 @@ export function rangeComparisonReport(input: {
   rangeA: { from: number; to: number };
   rangeB: { from: number; to: number };
   result: CompareMeansResult;
+  /** Notes whose cells were made missing in range a and range b (none when left out). */
+  excludedNotes?: { a: AppliedNote[]; b: AppliedNote[] };
 }): ComparisonAnswer {
+  const excluded = input.excludedNotes ?? { a: [], b: [] };
+  const notesSaid = [
+    excluded.a.length ? ` Range a: ${excludedNotesSentence(excluded.a)}` : '',
+    excluded.b.length ? ` Range b: ${excludedNotesSentence(excluded.b)}` : '',
+  ].join('');
   const { result: r, channel, other } = input;
   const unit = channel.unit;
   const summary = (s: CompareMeansResult['a'], range: { from: number; to: number }): RangeSummary => ({
@@ -69,7 +77,9 @@ export function rangeComparisonReport(input: {
       statement:
         `Each range was put on a grid of ${input.stepS} s cells (the ${input.params.agg} of each cell's readings). The difference is mean(b) − mean(a). ` +
         'Each mean’s standard error uses the range’s effective sample size n/τ, τ = 1 + 2 Σ ρ_k summed by Geyer’s initial monotone sequence, and the degrees of freedom follow Welch–Satterthwaite with the effective sizes (our combination). ' +
-        'The Welch interval beside it is R’s t.test(b, a), which assumes independent readings. A range holding fewer than 10 effective readings gets a caution: its autocorrelation time, and so the interval, is poorly determined.',
+        'The Welch interval beside it is R’s t.test(b, a), which assumes independent readings. A range holding fewer than 10 effective readings gets a caution: its autocorrelation time, and so the interval, is poorly determined.' +
+        notesSaid,
+      excludedNotes: excluded,
       references: REFERENCES,
     },
   };

@@ -105,6 +105,23 @@ export async function buildLabWithEverything(db: Knex, { rowInEveryTable = false
     resolved_detail: '29 is back within the limits',
     last_notified_at: Date.now() - 3_600_000,
   });
+  // a note kind and a note on the channel (a probe cleaning left out of analysis)
+  const noteKindId = rid();
+  await db('note_kinds').insert({ tenant_id: lab.id, id: noteKindId, name: 'maintenance', position: 0 });
+  const noteId = rid();
+  await db('notes').insert({
+    tenant_id: lab.id,
+    id: noteId,
+    logger_id: loggerId,
+    channel_id: channelId,
+    kind_id: noteKindId,
+    body: 'Probe cleaned',
+    start_ts: Date.UTC(2026, 0, 1, 6, 0, 0),
+    end_ts: Date.UTC(2026, 0, 1, 6, 30, 0),
+    exclude_from_analysis: true,
+    created_by: founder.id,
+    updated_by: founder.id,
+  });
   if (rowInEveryTable) await addRowToEveryOtherTable(db, lab, { founderId: founder.id, channelId, alertId });
   return {
     lab,
@@ -112,8 +129,8 @@ export async function buildLabWithEverything(db: Knex, { rowInEveryTable = false
     guest,
     ingestKey: key.key,
     personalToken: personal.token,
-    ids: { loggerId, channelId, keyId, quarantinedId, bulkRunId, invitationId, tokenId, ruleId, alertId },
-    params: { userId: guest.id, id: invitationId, loggerId, channelId, keyId, runId: bulkRunId, tokenId, ruleId, alertId } as Record<string, number>,
+    ids: { loggerId, channelId, keyId, quarantinedId, bulkRunId, invitationId, tokenId, ruleId, alertId, noteId, kindId: noteKindId },
+    params: { userId: guest.id, id: invitationId, loggerId, channelId, keyId, runId: bulkRunId, tokenId, ruleId, alertId, noteId, kindId: noteKindId } as Record<string, number>,
   };
 }
 
@@ -210,6 +227,10 @@ export function validBodyFor(method: string, path: string, f: LabWithEverything)
     'POST /alert-rules': { name: `Rule ${unique}`, kind: 'bounds', channelId: f.ids.channelId, params: { high: 35, holdS: 60 } },
     'PATCH /alert-rules/:ruleId': { name: 'Air far too warm' },
     'POST /alerts/:alertId/acknowledge': { note: 'Door was open; closed it.' },
+    'POST /notes': { channelId: f.ids.channelId, kindId: f.ids.kindId, text: 'Probe wiped', start: '2026-01-02T08:00:00Z', end: '2026-01-02T08:20:00Z' },
+    'PATCH /notes/:noteId': { text: 'Probe cleaned and dried' },
+    'POST /note-kinds': { name: `kind ${unique}`.slice(0, 40) },
+    'PATCH /note-kinds/:kindId': { name: `upkeep ${unique}`.slice(0, 40) },
     'POST /quarantine/resubmit': { rows: [{ id: f.ids.quarantinedId, channel: 'air_t', ts: '2026-01-01T00:00:00Z', value: 4.5 }] },
     'POST /quarantine/bulk/preview': { selection: { ids: [f.ids.quarantinedId] }, action: { kind: 'discard', reason: 'matrix check' } },
     'POST /quarantine/bulk/runs': { selection: { ids: [f.ids.quarantinedId] }, action: { kind: 'discard', reason: 'matrix check' } },

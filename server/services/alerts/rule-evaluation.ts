@@ -5,6 +5,8 @@ import { alertsRepo } from '../../db/alerts.repo.ts';
 import { alertReadingsRepo, type WatchedTarget } from '../../db/alert-readings.repo.ts';
 import { channelReadingsRepo } from '../../db/channel-readings.repo.ts';
 import type { AlertRuleParams } from '../../contract/alerts.ts';
+import { excludedNotes } from '../notes/notes.service.ts';
+import { leaveOutNotedCells } from '../notes/leave-out-noted-cells.ts';
 import { queueAlertMail } from './alert-notifications.ts';
 import { evaluateBounds } from './rules/bounds-rule.ts';
 import { evaluateRate } from './rules/rate-rule.ts';
@@ -91,7 +93,12 @@ async function stepValueRule(ctx: EvaluationContext, rule: AlertRule, target: Wa
   let scores = null;
   if (periodSteps >= 2 && span <= MAX_BASELINE_CELLS) {
     const first = readings[0].ts;
-    const history = await channelReadingsRepo(inLab(ctx.db, ctx.tenantId)).range(target.channelId!, first - span * stepMs, first);
+    const scope = inLab(ctx.db, ctx.tenantId);
+    const from = first - span * stepMs;
+    const read = await channelReadingsRepo(scope).range(target.channelId!, from, first);
+    // readings under notes marked "leave out of analysis" (a cleaning, a calibration) are no baseline: 1 ms cells drop exactly [start, end)
+    const noted = await excludedNotes(scope, { id: target.channelId!, loggerId: target.loggerId }, from, first);
+    const history = leaveOutNotedCells(read, noted, 1).data;
     scores = unusualScores({ ts: history.ts, values: history.values }, readings, stepMs, periodSteps);
   }
   return evaluateUnusualReading(params, scores, memory, readings);

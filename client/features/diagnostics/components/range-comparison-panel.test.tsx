@@ -31,6 +31,7 @@ const ANSWER: ComparisonAnswer = {
     stepS: 300,
     agg: 'mean',
     statement: 'Invented statement: standard errors from effective sample sizes.',
+    excludedNotes: { a: [], b: [] },
     references: ['Invented reference A', 'Invented reference B'],
   },
 };

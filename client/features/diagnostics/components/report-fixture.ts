@@ -44,6 +44,7 @@ export const REPORT: DiagnosticsAnswer = {
       trendLag: null,
     },
     notes: ['Readings were put on a regular grid of 300 s cells.'],
+    excludedNotes: [],
     references: ['Ljung & Box (1978), Biometrika 65:297–303 — portmanteau test'],
   },
   series: { start: FROM, stepMs: 300_000, n: 4, missing: 0, readings: 4, emptyCells: [] },
