@@ -102,10 +102,12 @@ function unzip(bytes: Buffer): Record<string, string> {
   return JSON.parse(execFileSync('/usr/bin/python3', ['-c', script, file], { encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 })) as Record<string, string>;
 }
 
-const binary = (res: NodeJS.ReadableStream, cb: (err: Error | null, body: Buffer) => void) => {
+/** A supertest parser that keeps the body as bytes (superagent hands the raw response stream in). */
+const binary = (res: request.Response, cb: (err: Error | null, body: Buffer) => void) => {
+  const stream = res as unknown as NodeJS.ReadableStream;
   const chunks: Buffer[] = [];
-  res.on('data', (c: Buffer) => chunks.push(c));
-  res.on('end', () => cb(null, Buffer.concat(chunks)));
+  stream.on('data', (c: Buffer) => chunks.push(c));
+  stream.on('end', () => cb(null, Buffer.concat(chunks)));
 };
 
 describe('full export', () => {
