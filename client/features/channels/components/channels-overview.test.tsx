@@ -97,7 +97,7 @@ const CHOICES = [
 
 describe('choosing channels to open together', () => {
   it('counts the chosen channels across loggers and filters, and links to them in the order chosen', () => {
-    renderWithProviders(<ChannelsOverview slug="vines" rows={CHOICES} now={NOW} />, '/c');
+    const { router } = renderWithProviders(<ChannelsOverview slug="vines" rows={CHOICES} now={NOW} />, '/c');
     expect(screen.getByTestId('chosen-count').textContent).toBe(`0 of ${MAX_CHOSEN} chosen`);
     expect(screen.queryByRole('link', { name: 'Open together' })).toBeNull();
     tick('Lower terrace · Soil temperature');
@@ -109,6 +109,13 @@ describe('choosing channels to open together', () => {
     tick('Upper terrace · Air temperature'); // untick
     expect(screen.getByRole('link', { name: 'Open together' }).getAttribute('href')).toBe('/labs/vines/channels/together?channels=25,21');
     expect(screen.getByText('Chosen: Lower terrace · Soil temperature; Upper terrace · Leaf temperature')).toBeTruthy();
+    expect(router.state.location.search).toBe('?pick=25%2C21&logger=3');
+  });
+
+  it('keeps the choice in the page’s address, so coming back from the chart finds it again', () => {
+    renderWithProviders(<ChannelsOverview slug="vines" rows={CHOICES} now={NOW} />, '/c?pick=22,999,22,26');
+    expect(screen.getByTestId('chosen-count').textContent).toBe('2 of 6 chosen');
+    expect((screen.getByRole('checkbox', { name: 'Choose Lower terrace · Air temperature' }) as HTMLInputElement).checked).toBe(true);
   });
 
   it('refuses a seventh channel with a plain message and keeps the six', () => {

@@ -14,14 +14,18 @@ export const MAX_CHOSEN = 6;
 /**
  * The channels overview: filters (text, status, logger) kept in the page's query string so a
  * filtered view can be shared, the table with a checkbox per channel to open up to six of any
- * loggers together on one chart (the choice survives filtering and paging; a seventh is refused
+ * loggers together on one chart (the choice, kept in the query string as `pick`, survives
+ * filtering, paging and a trip to the chart and back; a seventh is refused
  * with a message), and the legend of the status marks.
  */
 export function ChannelsOverview({ slug, rows, now }: { slug: string; rows: ChannelOverviewRow[]; now: number }) {
   const [params, setParams] = useSearchParams();
   const filter = readChannelFilter(params);
   const shown = useMemo(() => filterChannels(rows, filter), [rows, filter.text, filter.status, filter.loggerId]); // eslint-disable-line react-hooks/exhaustive-deps
-  const [chosen, setChosen] = useState<number[]>([]);
+  // the choice lives in the query string too (`pick`), so coming back from the chart keeps it
+  const pick = params.get('pick') ?? '';
+  const chosen = useMemo(() => [...new Set(pick.split(',').map(Number))].filter((id) => rows.some((r) => r.id === id)).slice(0, MAX_CHOSEN), [pick, rows]);
+  const setChosen = (ids: number[]) => set('pick', ids.join(','));
   const [refused, setRefused] = useState<string | null>(null);
   const byId = useMemo(() => new Map(rows.map((r) => [r.id, r])), [rows]);
   const choice = useMemo<ChannelChoice>(
@@ -31,23 +35,28 @@ export function ChannelsOverview({ slug, rows, now }: { slug: string; rows: Chan
         const name = `${row.logger.name} · ${row.label}`;
         if (!choose) {
           setRefused(null);
-          return setChosen((c) => c.filter((id) => id !== row.id));
+          return setChosen(chosen.filter((id) => id !== row.id));
         }
         if (chosen.length >= MAX_CHOSEN)
           return setRefused(`One chart takes at most ${MAX_CHOSEN} channels: ${name} was not added. Untick one of the six to choose it instead.`);
         setRefused(null);
-        setChosen((c) => (c.includes(row.id) ? c : [...c, row.id]));
+        if (!chosen.includes(row.id)) setChosen([...chosen, row.id]);
       },
     }),
-    [chosen],
+    [chosen, params], // eslint-disable-line react-hooks/exhaustive-deps -- `set` is remade with `params` (a stale one would drop filters set since)
   );
   const loggers = useMemo(() => [...new Map(rows.map((r) => [r.logger.id, r.logger.name])).entries()].sort((a, b) => a[1].localeCompare(b[1])), [rows]);
 
   function set(name: string, value: string) {
-    const next = new URLSearchParams(params);
-    if (value) next.set(name, value);
-    else next.delete(name);
-    setParams(next, { replace: true });
+    setParams(
+      (current) => {
+        const next = new URLSearchParams(current);
+        if (value) next.set(name, value);
+        else next.delete(name);
+        return next;
+      },
+      { replace: true },
+    );
   }
 
   return (
