@@ -3,7 +3,7 @@ import { QuarantineReview } from '../../features/quarantine/components/quarantin
 import { MissingPermission } from '../../features/labs/components/lab-not-found.tsx';
 import { useLabContext } from './lab-context.ts';
 
-/** `/labs/:lab/quarantine`: review of quarantined rows (technicians and admins), filters and page in the URL. */
+/** `/labs/:lab/quarantine`: review and repair of quarantined rows, one by one or in bulk (technicians and admins), filters and page in the URL. */
 export default function LabQuarantineRoute() {
   const { detail } = useLabContext();
   const slug = detail.lab.slug;
@@ -17,7 +17,8 @@ export default function LabQuarantineRoute() {
           Quarantine
         </h2>
         <p className="text-sm text-ink-soft">
-          Readings Lagbook could not store, each with its reason. Fix and re-submit them, or discard what is beyond repair.
+          Readings Lagbook could not store, each with its reason. Fix and re-submit them one by one, repair many at once (read their times again, move them,
+          store them under the right channel), or discard what is beyond repair.
         </p>
       </div>
       <QuarantineReview slug={slug} loggers={loggers.data?.loggers.map((l) => ({ id: l.id, name: l.name })) ?? []} />

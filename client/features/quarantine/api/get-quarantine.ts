@@ -5,6 +5,8 @@ import { apiFetch } from '../../../lib/api-client.ts';
 export interface QuarantineQuery {
   loggerId?: number;
   reason?: string;
+  /** The channel name as received. */
+  channel?: string;
   /** The `nextCursor` of the page before; absent for the first page. */
   cursor?: string;
   pageSize: number;
@@ -15,6 +17,7 @@ export function quarantineSearch(query: Partial<QuarantineQuery>): string {
   const params = new URLSearchParams();
   if (query.loggerId) params.set('loggerId', String(query.loggerId));
   if (query.reason) params.set('reason', query.reason);
+  if (query.channel) params.set('channel', query.channel);
   if (query.cursor) params.set('cursor', query.cursor);
   if (query.pageSize) params.set('pageSize', String(query.pageSize));
   const text = params.toString();
@@ -23,14 +26,14 @@ export function quarantineSearch(query: Partial<QuarantineQuery>): string {
 
 const base = (slug: string) => `/api/v1/labs/${encodeURIComponent(slug)}/quarantine`;
 
-/** `GET /api/v1/labs/:lab/quarantine?loggerId=&reason=&cursor=&pageSize=` (newest first). */
+/** `GET /api/v1/labs/:lab/quarantine?loggerId=&reason=&channel=&cursor=&pageSize=` (newest first). */
 export function getQuarantine(slug: string, query: QuarantineQuery): Promise<QuarantinePage> {
   return apiFetch(`${base(slug)}${quarantineSearch(query)}`);
 }
 
 /** `GET /api/v1/labs/:lab/quarantine/export.csv` with the same filters: every matching row, as a download. */
-export function quarantineExportUrl(slug: string, filters: { loggerId?: number; reason?: string }): string {
-  return `${base(slug)}/export.csv${quarantineSearch({ loggerId: filters.loggerId, reason: filters.reason })}`;
+export function quarantineExportUrl(slug: string, filters: { loggerId?: number; reason?: string; channel?: string }): string {
+  return `${base(slug)}/export.csv${quarantineSearch({ loggerId: filters.loggerId, reason: filters.reason, channel: filters.channel })}`;
 }
 
 /** The prefix of every quarantine query of a lab, for refreshing them after a change. */

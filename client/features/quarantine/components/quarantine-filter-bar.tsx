@@ -1,8 +1,12 @@
-import { SelectField } from '../../../components/form-field.tsx';
+import { SelectField, TextField } from '../../../components/form-field.tsx';
 import type { QuarantineFilters } from '../hooks/quarantine-search-params.ts';
 import { REASON_CODES, REASON_LABELS, type ReasonCode } from './reason-labels.ts';
 
-/** Filters of the quarantine page: which logger and which reason. A change applies at once and starts at the newest rows. */
+/**
+ * Filters of the quarantine page: which logger, which reason, which channel name as received. A
+ * change applies at once (the channel name when the field is left or Enter is pressed) and
+ * starts at the newest rows.
+ */
 export function QuarantineFilterBar({
   filters,
   loggers,
@@ -13,7 +17,7 @@ export function QuarantineFilterBar({
   onChange: (next: QuarantineFilters) => void;
 }) {
   return (
-    <div role="group" aria-label="Filter the quarantine" className="grid gap-4 rounded-xl border border-rule bg-card p-4 sm:grid-cols-2">
+    <div role="group" aria-label="Filter the quarantine" className="grid gap-4 rounded-xl border border-rule bg-card p-4 sm:grid-cols-3">
       <SelectField
         label="Logger"
         value={filters.loggerId ?? ''}
@@ -35,6 +39,17 @@ export function QuarantineFilterBar({
           </option>
         ))}
       </SelectField>
+      <TextField
+        key={filters.channel}
+        label="Channel name as received"
+        placeholder="any"
+        defaultValue={filters.channel}
+        maxLength={191}
+        onBlur={(e) => e.target.value.trim() !== filters.channel && onChange({ ...filters, channel: e.target.value.trim(), cursor: null })}
+        onKeyDown={(e) => {
+          if (e.key === 'Enter') e.currentTarget.blur();
+        }}
+      />
     </div>
   );
 }

@@ -148,4 +148,69 @@ describe('QuarantineReview', () => {
     expect(await screen.findByText('Discarded 2 rows.')).toBeTruthy();
     expect(api.requests.find((r) => r.path.endsWith('/discard'))!.body).toEqual({ ids: [801, 802] });
   });
+
+  it('repairs every matching row in bulk: preview first, then a run followed until it says what became of the rows', async () => {
+    const preview = {
+      selected: 120,
+      stored: 119,
+      alreadyStored: 0,
+      stillQuarantined: 1,
+      discarded: 0,
+      reasons: [{ code: 'bad_time', count: 1, example: 'ts: "31.02.2026 00:00" is not a valid date' }],
+      sample: [
+        {
+          id: 801,
+          before: { channel: 'air_t', ts: '01.09.2026 00:10', value: '4.5', reasonCode: 'bad_time' },
+          after: { outcome: 'stored', channel: 'air_t', ts: '2026-08-31T21:10:00.000Z' },
+        },
+      ],
+    };
+    const run = (state: 'running' | 'done', done: number) => ({
+      status: state === 'running' && done === 0 ? 202 : 200,
+      body: {
+        id: 77,
+        state,
+        action: { kind: 'reread', timeFormat: 'day-first-dot' },
+        selection: { filter: { reason: 'bad_time' } },
+        done,
+        total: 120,
+        counts: state === 'done' ? { ...preview, sample: undefined } : null,
+        error: null,
+        startedBy: 'Tech',
+        startedAt: '2026-09-02T10:00:00Z',
+        finishedAt: null,
+      },
+    });
+    let polls = 0;
+    const api = fakeApi({
+      'GET /api/v1/labs/fernhollow/quarantine': () => pageOf([BAD_VALUE], 120, '1790000000000.4321.801'),
+      'POST /api/v1/labs/fernhollow/quarantine/bulk/preview': () => ({ status: 200, body: preview }),
+      'POST /api/v1/labs/fernhollow/quarantine/bulk/runs': () => run('running', 0),
+      'GET /api/v1/labs/fernhollow/quarantine/bulk/runs/77': () => (++polls === 1 ? run('running', 60) : run('done', 120)),
+    });
+    renderWithProviders(<QuarantineReview slug="fernhollow" loggers={LOGGERS} />, '/q?reason=bad_time');
+    await screen.findByText('n/a');
+    fireEvent.click(screen.getByRole('button', { name: 'Select all 120 matching' }));
+    expect(screen.getByText('All 120 matching rows selected')).toBeTruthy();
+    fireEvent.click(screen.getByRole('button', { name: 'Repair in bulk…' }));
+    const panel = screen.getByRole('region', { name: 'Repair in bulk' });
+    // the form checks before asking: a pattern needs its text
+    fireEvent.change(within(panel).getByLabelText('Time layout'), { target: { value: 'pattern' } });
+    fireEvent.click(within(panel).getByRole('button', { name: 'Preview' }));
+    expect(within(panel).getByText('timePattern: must not be empty')).toBeTruthy();
+    fireEvent.change(within(panel).getByLabelText('Time layout'), { target: { value: 'day-first-dot' } });
+    fireEvent.click(within(panel).getByRole('button', { name: 'Preview' }));
+    await within(panel).findByText(/Nothing has changed yet/);
+    expect(api.requests.find((r) => r.path.endsWith('/bulk/preview'))!.body).toEqual({
+      selection: { filter: { reason: 'bad_time' } },
+      action: { kind: 'reread', timeFormat: 'day-first-dot' },
+    });
+    expect(within(panel).getByText('01.09.2026 00:10')).toBeTruthy();
+    expect(within(panel).getByText('2026-08-31T21:10:00Z')).toBeTruthy();
+    expect(within(panel).getByText(/1 row would stay for “Unreadable time”/)).toBeTruthy();
+    fireEvent.click(within(panel).getByRole('button', { name: 'Apply to 120 rows' }));
+    expect(await within(panel).findByText(/Repair done: 120 rows/, {}, { timeout: 5000 })).toBeTruthy();
+    expect(polls).toBe(2);
+    expect(within(panel).getByText('Still in quarantine').nextSibling!.textContent).toBe('1');
+  });
 });

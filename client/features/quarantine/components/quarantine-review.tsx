@@ -12,6 +12,10 @@ import { QuarantineFilterBar } from './quarantine-filter-bar.tsx';
 import { QuarantinePager } from './quarantine-pager.tsx';
 import { QuarantineTable } from './quarantine-table.tsx';
 import { ResubmitOutcome } from './resubmit-outcome.tsx';
+import { BulkRepairPanel } from './bulk-repair-panel.tsx';
+import { loggerQueryOptions } from '../../loggers/api/get-logger.ts';
+import { useQuery } from '@tanstack/react-query';
+import type { BulkSelection } from '@shared/contract/quarantine.ts';
 
 export const QUARANTINE_PAGE_SIZE = 50;
 
@@ -28,6 +32,7 @@ export function QuarantineReview({ slug, loggers }: { slug: string; loggers: Arr
   const query = {
     ...(filters.loggerId ? { loggerId: filters.loggerId } : {}),
     ...(filters.reason ? { reason: filters.reason } : {}),
+    ...(filters.channel ? { channel: filters.channel } : {}),
     ...(filters.cursor ? { cursor: filters.cursor } : {}),
     pageSize: QUARANTINE_PAGE_SIZE,
   };
@@ -35,6 +40,11 @@ export function QuarantineReview({ slug, loggers }: { slug: string; loggers: Arr
   const discard = useDiscardRows(slug);
   const resubmit = useResubmitRows(slug);
   const [selected, setSelected] = useState<Set<number>>(new Set());
+  // every row matching the filter, not only the ticked ones (for a bulk repair)
+  const [allMatching, setAllMatching] = useState(false);
+  // the rows a bulk repair works on, fixed when its panel opens (the list changes under it)
+  const [bulk, setBulk] = useState<{ selection: BulkSelection; describes: string } | null>(null);
+  const logger = useQuery({ ...loggerQueryOptions(slug, filters.loggerId ?? 0), enabled: !!filters.loggerId });
   const [outcome, setOutcome] = useState<Outcome | null>(null);
   const [discarded, setDiscarded] = useState<number | null>(null);
   // the cursors of the pages before the shown one, newest first page = null
@@ -55,6 +65,23 @@ export function QuarantineReview({ slug, loggers }: { slug: string; loggers: Arr
   );
   const rows = list.data?.rows ?? [];
   const chosen = rows.filter((r) => selected.has(r.id));
+  const total = list.data?.total ?? 0;
+  const tooMany = list.data?.totalAtLeast ?? false;
+  const clearSelection = () => {
+    setSelected(new Set());
+    setAllMatching(false);
+    setBulk(null);
+  };
+  const bulkSelection: BulkSelection = allMatching
+    ? {
+        filter: {
+          ...(filters.loggerId ? { loggerId: filters.loggerId } : {}),
+          ...(filters.reason ? { reason: filters.reason } : {}),
+          ...(filters.channel ? { channel: filters.channel } : {}),
+        },
+      }
+    : { ids: chosen.map((r) => r.id) };
+  const channels = filters.loggerId && logger.data ? logger.data.logger.channels.filter((c) => !c.retiredAt) : null;
 
   return (
     <div className="grid gap-4">
@@ -62,19 +89,54 @@ export function QuarantineReview({ slug, loggers }: { slug: string; loggers: Arr
         filters={filters}
         loggers={loggers}
         onChange={(next) => {
-          setSelected(new Set());
+          clearSelection();
           setTrail([]);
           setFilters(next);
         }}
       />
-      <div className="flex flex-wrap items-center gap-3">
+      <div className="flex flex-wrap items-center gap-3" role="group" aria-label="Selection">
         <span className="text-sm text-ink-soft" aria-live="polite">
-          {chosen.length} selected
+          {allMatching ? `All ${total.toLocaleString('en')} matching rows selected` : `${chosen.length} selected`}
         </span>
-        <Button size="sm" tone="primary" disabled={chosen.length === 0 || resubmit.isPending} onClick={() => send(chosen.map(asResubmitRow))}>
+        {allMatching ? (
+          <Button size="sm" tone="quiet" onClick={clearSelection}>
+            Clear selection
+          </Button>
+        ) : (
+          total > 0 &&
+          (tooMany ? (
+            <span className="text-xs text-ink-soft">10,000 or more match: narrow the filter to repair them in bulk.</span>
+          ) : (
+            <Button
+              size="sm"
+              tone="quiet"
+              onClick={() => {
+                setAllMatching(true);
+                setSelected(new Set(rows.map((r) => r.id)));
+              }}
+            >
+              Select all {total.toLocaleString('en')} matching
+            </Button>
+          ))
+        )}
+        <Button
+          size="sm"
+          disabled={!allMatching && chosen.length === 0}
+          onClick={() =>
+            setBulk({
+              selection: bulkSelection,
+              describes: allMatching
+                ? `All ${total.toLocaleString('en')} rows matching the filter`
+                : `The ${chosen.length} ticked row${chosen.length === 1 ? '' : 's'}`,
+            })
+          }
+        >
+          Repair in bulk…
+        </Button>
+        <Button size="sm" tone="primary" disabled={allMatching || chosen.length === 0 || resubmit.isPending} onClick={() => send(chosen.map(asResubmitRow))}>
           Re-submit selected
         </Button>
-        {chosen.length > 0 && (
+        {chosen.length > 0 && !allMatching && (
           <ConfirmButton
             label="Discard selected"
             question={`Discard ${chosen.length} row${chosen.length === 1 ? '' : 's'} for good?`}
@@ -95,13 +157,27 @@ export function QuarantineReview({ slug, loggers }: { slug: string; loggers: Arr
           />
         )}
         <a
-          href={quarantineExportUrl(slug, { loggerId: filters.loggerId ?? undefined, reason: filters.reason || undefined })}
+          href={quarantineExportUrl(slug, {
+            loggerId: filters.loggerId ?? undefined,
+            reason: filters.reason || undefined,
+            channel: filters.channel || undefined,
+          })}
           download
           className="ml-auto text-sm font-medium text-lichen-dark underline-offset-2 hover:underline"
         >
           Download CSV
         </a>
       </div>
+      {bulk && (
+        <BulkRepairPanel
+          key={JSON.stringify(bulk.selection)}
+          slug={slug}
+          selection={bulk.selection}
+          describes={bulk.describes}
+          channels={channels}
+          onClose={clearSelection}
+        />
+      )}
       {outcome && <ResubmitOutcome outcome={outcome} />}
       {discarded !== null && (
         <Notice tone="status">

@@ -4,6 +4,8 @@ import { isReasonCode, type ReasonCode } from '../components/reason-labels.ts';
 export interface QuarantineFilters {
   loggerId: number | null;
   reason: ReasonCode | '';
+  /** The channel name as received ('' = any). */
+  channel: string;
   /** Where the shown page starts: the `nextCursor` the page before it gave (null: the newest rows). */
   cursor: string | null;
 }
@@ -20,7 +22,13 @@ const positiveInt = (text: string | null) => {
 export function readQuarantineFilters(params: URLSearchParams): QuarantineFilters {
   const reason = params.get('reason') ?? '';
   const cursor = params.get('cursor');
-  return { loggerId: positiveInt(params.get('loggerId')), reason: isReasonCode(reason) ? reason : '', cursor: cursor && CURSOR.test(cursor) ? cursor : null };
+  const channel = (params.get('channel') ?? '').trim();
+  return {
+    loggerId: positiveInt(params.get('loggerId')),
+    reason: isReasonCode(reason) ? reason : '',
+    channel: channel.length <= 191 ? channel : '',
+    cursor: cursor && CURSOR.test(cursor) ? cursor : null,
+  };
 }
 
 /** Writes filters as search params, leaving out empty ones and the first page's (absent) cursor. */
@@ -28,6 +36,7 @@ export function writeQuarantineFilters(filters: QuarantineFilters): URLSearchPar
   const params = new URLSearchParams();
   if (filters.loggerId) params.set('loggerId', String(filters.loggerId));
   if (filters.reason) params.set('reason', filters.reason);
+  if (filters.channel) params.set('channel', filters.channel);
   if (filters.cursor) params.set('cursor', filters.cursor);
   return params;
 }
