@@ -154,7 +154,7 @@ export function createApp(deps: AppDeps): Express {
     ...invitationRoutes({ invitations, sendLimit: limits.invitations }),
     ...invitationAcceptanceRoutes({ invitations }),
     ...auditRoutes({ audit }),
-    ...loggerRoutes({ loggers, testReadings: createTestReadingService({ db, now: nowMs, hooks: ingestHooks }) }),
+    ...loggerRoutes({ loggers, testReadings: createTestReadingService({ db, now: nowMs }) }),
     ...quarantineRoutes({ quarantine }),
     ...uploadRoutes({ uploads: createUploadsService({ db, now: nowMs, hooks: ingestHooks }), logger }),
     // Loggers authenticate with their key, not a session: 'ingest-key' mounts it before the session

@@ -25,6 +25,7 @@ export const AUDIT_ACTIONS = [
   'ingest-key.rotated',
   'ingest-key.revoked',
   'logger.test-reading',
+  'logger.test-reading-removed',
   'logger.uploaded',
   'quarantine.discarded',
   'quarantine.resubmitted',

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { idParams, pathId, type IsoTime } from './common.ts';
-import type { IngestAnswer } from './ingest.ts';
+import { rangeFields, resolveRange } from './channels.ts';
 import { timeZoneSchema } from './me.ts';
 
 /**
@@ -68,12 +68,32 @@ export type CreateLoggerBody = z.infer<typeof createLoggerSchema>;
 export const loggerPatchSchema = z.object(loggerFields).partial();
 export type LoggerPatch = z.output<typeof loggerPatchSchema>;
 
-/** One reading sent by hand from a logger's page, stored "now" through the ingestion path. */
+/** Largest magnitude a test reading may have: beyond it the value is a typing slip, not a measurement. */
+export const TEST_READING_MAX_ABS = 1e12;
+/** How long the sender may remove a test reading after sending it (10 minutes, on the service clock). */
+export const TEST_READING_REMOVABLE_MS = 10 * 60_000;
+
+/**
+ * One reading sent by hand from a logger's page: checked as a logger's reading would be, then kept
+ * as a test reading (never in the channel's readings). A value outside the channel's valid range
+ * is stored only with `confirmOutsideRange: true`.
+ */
 export const testReadingSchema = z.object({
   channel: channelKeySchema.describe("the channel's key on this logger"),
-  value: z.number({ error: 'must be a number' }).finite('must be a finite number'),
+  value: z
+    .number({ error: 'must be a number' })
+    .finite('must be a finite number')
+    .min(-TEST_READING_MAX_ABS, 'must be at least -1e12 (a test reading is a plausible measurement)')
+    .max(TEST_READING_MAX_ABS, 'must be at most 1e12 (a test reading is a plausible measurement)'),
+  confirmOutsideRange: z.boolean({ error: 'must be true or false' }).default(false).describe("true stores a value outside the channel's valid range"),
 });
-export type TestReadingBody = z.infer<typeof testReadingSchema>;
+export type TestReadingBody = z.input<typeof testReadingSchema>;
+
+/** `/loggers/:loggerId/test-readings/:testReadingId`. */
+export const testReadingParams = z.object({ loggerId: pathId(), testReadingId: pathId() });
+
+/** `GET …/channels/:channelId/test-readings?from&to`: the range (default: the 7 days up to now), as the series route reads it. */
+export const testReadingsRangeQuery = (now: () => number = Date.now) => z.object(rangeFields).transform((q, ctx) => resolveRange(q, ctx, now));
 
 /** `/loggers/:loggerId…`. */
 export const loggerParams = idParams('loggerId');
@@ -172,12 +192,53 @@ export interface IssuedKeyAnswer {
   ingestKey: IssuedKey;
 }
 
-/** `POST …/loggers/:loggerId/test-reading`: what was sent, what ingestion did, what the database now holds. */
+/** A test reading as the API shows it: never one of the channel's readings (`source` is always `test`). */
+export interface TestReading {
+  id: number;
+  source: 'test';
+  loggerId: number;
+  channelId: number;
+  /** The channel's key on the logger. */
+  channel: string;
+  /** The reading's time (epoch ms) and the same instant in ISO 8601 UTC. */
+  ts: number;
+  time: IsoTime;
+  value: number;
+  /** True when the value lay outside the channel's valid range and the sender confirmed it. */
+  outsideRange: boolean;
+  /** Who sent it (null once the account is gone). */
+  sentBy: { id: number; name: string } | null;
+  sentAt: IsoTime;
+  /** Until when its sender may remove it. */
+  removableUntil: IsoTime;
+  /** Milliseconds the asking member has left to remove it: 0 when it is not theirs or the time is up. */
+  removableByYouForMs: number;
+}
+
+/** What a logger's reading with the same channel, time and value would get from ingestion. */
+export type TestReadingVerdict = { outcome: 'stored' } | { outcome: 'quarantined'; code: string; reason: string };
+
+/** `POST …/loggers/:loggerId/test-reading`: what was sent, what a logger's reading would get, and the test reading kept (if any). */
 export interface TestReadingResult {
   sent: { channel: string; ts: IsoTime; value: number };
-  outcome: IngestAnswer;
-  /** The value read back for that channel and time; null when nothing was stored. */
-  storedValue: number | null;
-  /** Wall time from handing the row to ingestion until it was read back, in milliseconds. */
-  roundTripMs: number;
+  /** Ingestion's own checks on the row; a quarantined verdict means nothing was kept. */
+  wouldGet: TestReadingVerdict;
+  /** The test reading as kept, or null when a logger's reading would have been quarantined. */
+  testReading: TestReading | null;
+  /** The logger's time zone, to show the time on the logger's clock. */
+  timezone: string;
+}
+
+/** `GET …/loggers/:loggerId/test-readings`: the logger's latest test readings, newest first. */
+export interface LoggerTestReadingsAnswer {
+  testReadings: TestReading[];
+  timezone: string;
+}
+
+/** `GET …/channels/:channelId/test-readings?from&to`: the channel's test readings in the range, oldest first. */
+export interface ChannelTestReadingsAnswer {
+  channelId: number;
+  from: number;
+  to: number;
+  testReadings: TestReading[];
 }

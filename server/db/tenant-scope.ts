@@ -25,6 +25,7 @@ export const LAB_OWNED_TABLES = [
   'personal_tokens',
   'lab_billing',
   'usage_snapshots',
+  'test_readings',
   'note_kinds',
   'notes',
 ] as const;

@@ -61,6 +61,11 @@ const ALLOWED: Record<string, { roles: Role[]; ok: number }> = {
   'POST /loggers/:loggerId/keys': { roles: ['admin', 'technician'], ok: 201 },
   'DELETE /loggers/:loggerId/keys/:keyId': { roles: ['admin', 'technician'], ok: 204 },
   'POST /loggers/:loggerId/test-reading': { roles: ['admin', 'technician'], ok: 200 },
+  'GET /loggers/:loggerId/test-readings': { roles: ALL, ok: 200 },
+  // The fixture's test reading was sent long ago: a permitted caller passes the guard and is told
+  // its 10-minute removal window is closed (409); a scientist or guest is refused (403).
+  'DELETE /loggers/:loggerId/test-readings/:testReadingId': { roles: ['admin', 'technician'], ok: 409 },
+  'GET /channels/:channelId/test-readings': { roles: ALL, ok: 200 },
   'GET /quarantine': { roles: ['admin', 'technician'], ok: 200 },
   'GET /quarantine/export.csv': { roles: ['admin', 'technician'], ok: 200 },
   'POST /quarantine/discard': { roles: ['admin', 'technician'], ok: 200 },

@@ -104,7 +104,7 @@ describe('personal tokens in the browser', () => {
 });
 
 describe('the logger set-up panel', () => {
-  it('a technician sends a test reading and sees the value stored and read back', async () => {
+  it('a technician sends a test reading and sees it kept as a test, apart from the channel’s readings', async () => {
     await signInAs(techCookie);
     await page.goto(`${suite.appUrl}/labs/${lab.slug}/loggers/${loggerId}`);
     await page.getByRole('heading', { name: 'Set up this logger' }).waitFor();
@@ -112,12 +112,15 @@ describe('the logger set-up panel', () => {
     await page.getByLabel('Channel', { exact: true }).selectOption('do.sat');
     await page.getByLabel('Value', { exact: true }).fill('87.25');
     await page.getByRole('button', { name: 'Send a test reading' }).click();
-    expect(await page.getByTestId('stored-value').textContent()).toBe('87.25');
-    expect(await page.getByTestId('test-reading-result').textContent()).toMatch(/Round trip\s*[\d.]+ ms/);
+    expect(await page.getByTestId('would-get').textContent()).toBe('would be stored');
+    expect(await page.getByTestId('kept-at').textContent()).toMatch(/on the logger’s clock$/);
+    await page.getByRole('button', { name: 'Remove test reading do.sat = 87.25' }).first().waitFor();
+    await page.getByRole('table', { name: 'Recent test readings' }).waitFor();
     await keepScreenshot(page, 'logger-test-reading');
     const channel = await suite.t.db('channels').where({ tenant_id: lab.id, logger_id: loggerId, channel_key: 'do.sat' }).first();
-    const stored = await suite.t.db('readings').where({ tenant_id: lab.id, channel_id: channel.id });
-    expect(stored.map((r: { value: number }) => r.value)).toEqual([87.25]);
+    expect(await suite.t.db('readings').where({ tenant_id: lab.id, channel_id: channel.id })).toEqual([]);
+    const kept = await suite.t.db('test_readings').where({ tenant_id: lab.id, channel_id: channel.id });
+    expect(kept.map((r: { value: number }) => r.value)).toEqual([87.25]);
   });
 
   it('the curl example on the page, run as printed with a real key in $LAGBOOK_INGEST_KEY, stores a reading per channel', async () => {

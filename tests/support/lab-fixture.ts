@@ -122,6 +122,19 @@ export async function buildLabWithEverything(db: Knex, { rowInEveryTable = false
     created_by: founder.id,
     updated_by: founder.id,
   });
+  // a test reading sent by the founder long ago: its 10-minute removal window is closed
+  const testReadingId = rid();
+  const testSentAt = Date.UTC(2026, 0, 1, 5, 0, 0);
+  await db('test_readings').insert({
+    tenant_id: lab.id,
+    id: testReadingId,
+    logger_id: loggerId,
+    channel_id: channelId,
+    ts: testSentAt,
+    value: 4.2,
+    sent_by: founder.id,
+    sent_at: testSentAt,
+  });
   if (rowInEveryTable) await addRowToEveryOtherTable(db, lab, { founderId: founder.id, channelId, alertId });
   return {
     lab,
@@ -129,8 +142,21 @@ export async function buildLabWithEverything(db: Knex, { rowInEveryTable = false
     guest,
     ingestKey: key.key,
     personalToken: personal.token,
-    ids: { loggerId, channelId, keyId, quarantinedId, bulkRunId, invitationId, tokenId, ruleId, alertId, noteId, kindId: noteKindId },
-    params: { userId: guest.id, id: invitationId, loggerId, channelId, keyId, runId: bulkRunId, tokenId, ruleId, alertId, noteId, kindId: noteKindId } as Record<string, number>,
+    ids: { loggerId, channelId, keyId, quarantinedId, bulkRunId, invitationId, tokenId, ruleId, alertId, noteId, kindId: noteKindId, testReadingId },
+    params: {
+      userId: guest.id,
+      id: invitationId,
+      loggerId,
+      channelId,
+      keyId,
+      runId: bulkRunId,
+      tokenId,
+      ruleId,
+      alertId,
+      noteId,
+      kindId: noteKindId,
+      testReadingId,
+    } as Record<string, number>,
   };
 }
 

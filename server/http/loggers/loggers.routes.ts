@@ -9,11 +9,15 @@ import {
   loggerParams,
   loggerPatchSchema,
   loggersQuerySchema,
+  testReadingParams,
   testReadingSchema,
+  testReadingsRangeQuery,
   type ChannelAnswer,
+  type ChannelTestReadingsAnswer,
   type IssuedKeyAnswer,
   type LoggerAnswer,
   type LoggersAnswer,
+  type LoggerTestReadingsAnswer,
   type RegisteredLoggerAnswer,
   type TestReadingResult,
   type UpdatedLoggerAnswer,
@@ -21,13 +25,15 @@ import {
 import { presentChannel, presentIssuedKey, presentLogger, presentLoggerDetail, presentLoggerSummary } from '../presenters/loggers.presenter.ts';
 import type { LoggersService } from '../../services/loggers.service.ts';
 import type { TestReadingService } from '../../services/test-reading.service.ts';
+import { channelParams as channelIdParams } from '../../contract/channels.ts';
+import { presentTestReading } from './test-readings.presenter.ts';
 import { defineRoute, type Route } from '../routes/route.ts';
 
 const NAME_TAKEN = '`logger_name_taken`: the lab already has a logger with this name (message `name: …`).';
 const KEY_TAKEN = '`channel_key_taken`: the logger already has a channel with this key (message `key: …`).';
 const PLAN_LIMIT = "`plan_limit_reached`: the lab's plan allows no more loggers; nothing was saved (Retry-After 3600 s; a lab admin can raise the plan).";
-const READINGS_LIMIT =
-  "`plan_limit_reached`: the reading would take the lab past its plan's stored readings or quarantined rows; nothing was saved (Retry-After 3600 s).";
+const OUTSIDE_RANGE =
+  "`outside_valid_range`: the value lies outside the channel's valid range; nothing was kept — send again with `confirmOutsideRange: true` to keep it as a test reading.";
 
 /** Loggers, channels and ingest keys of a lab (read: every member; change: technicians and admins). */
 export function loggerRoutes(deps: { loggers: LoggersService; testReadings: TestReadingService }): Route[] {
@@ -94,12 +100,67 @@ export function loggerRoutes(deps: { loggers: LoggersService; testReadings: Test
       method: 'post',
       path: '/loggers/:loggerId/test-reading',
       auth: { permission: 'loggers.manage' },
-      summary: 'Store one reading of a channel now, through the ingestion path, and read it back.',
+      summary: "Check one reading of a channel now as a logger's reading would be checked, and keep it as a test reading (never among the channel's readings).",
       params: loggerParams,
       body: testReadingSchema,
-      response: { status: 200, description: 'What was sent, what ingestion did with it, and the value read back.' },
-      errors: { 402: READINGS_LIMIT, 409: '`logger_retired`: the logger is retired and accepts no new readings.' },
-      handle: async ({ lab, actor, params, body }): Promise<TestReadingResult> => testReadings.send(lab, actor, params.loggerId, body),
+      response: {
+        status: 200,
+        description:
+          "What was sent, what a logger's reading would get (stored, or its quarantine reason), and the test reading kept (null when it would be quarantined).",
+      },
+      errors: { 409: `\`logger_retired\`: the logger is retired and accepts no new readings. ${OUTSIDE_RANGE}` },
+      handle: async ({ lab, actor, params, body }): Promise<TestReadingResult> => {
+        const result = await testReadings.send(lab, actor, params.loggerId, body);
+        return {
+          sent: { ...result.sent, ts: new Date(result.sent.ts).toISOString() },
+          wouldGet: result.wouldGet,
+          testReading: result.testReading && presentTestReading(result.testReading, actor.id, testReadings.now()),
+          timezone: result.timezone,
+        };
+      },
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/loggers/:loggerId/test-readings',
+      auth: { permission: 'loggers.read' },
+      summary: "The logger's 10 latest test readings, newest first.",
+      params: loggerParams,
+      response: {
+        status: 200,
+        description: 'The test readings (`source: test`) with how long the asking member may still remove each, and the logger’s time zone.',
+      },
+      handle: async ({ lab, callerId, params }): Promise<LoggerTestReadingsAnswer> => {
+        const { testReadings: rows, timezone } = await testReadings.recentForLogger(lab, params.loggerId);
+        const at = testReadings.now();
+        return { testReadings: rows.map((r) => presentTestReading(r, callerId, at)), timezone };
+      },
+    }),
+    defineRoute({
+      method: 'delete',
+      path: '/loggers/:loggerId/test-readings/:testReadingId',
+      auth: { permission: 'loggers.manage' },
+      summary: 'Remove a test reading: only its sender, only within 10 minutes of sending.',
+      params: testReadingParams,
+      response: { status: 204, description: 'Removed (audit-logged).' },
+      errors: {
+        403: 'The role does not allow this (`forbidden`), or someone other than the sender asked (`forbidden`, the message names the sender).',
+        409: '`removal_window_closed`: more than 10 minutes have passed since it was sent; it stays, marked as a test.',
+      },
+      handle: async ({ lab, actor, params }) => testReadings.remove(lab, actor, params.loggerId, params.testReadingId),
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/channels/:channelId/test-readings',
+      auth: { permission: 'channels.read' },
+      summary: "A channel's test readings in a time range (default: the 7 days up to now), to draw apart from its readings.",
+      params: channelIdParams,
+      query: testReadingsRangeQuery(testReadings.now),
+      response: { status: 200, description: 'The test readings with from <= ts < to, oldest first (at most 1,000).' },
+      handle: async ({ lab, callerId, params, query }): Promise<ChannelTestReadingsAnswer> => {
+        const rows = await testReadings.inRange(lab, params.channelId, query);
+        const at = testReadings.now();
+        return { channelId: params.channelId, from: query.from, to: query.to, testReadings: rows.map((r) => presentTestReading(r, callerId, at)) };
+      },
     }),
     defineRoute({
       method: 'post',

@@ -22,6 +22,7 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   'ingest-key.rotated': 'Ingest key replaced',
   'ingest-key.revoked': 'Ingest key revoked',
   'logger.test-reading': 'Test reading sent',
+  'logger.test-reading-removed': 'Test reading removed',
   'logger.uploaded': 'History file uploaded',
   'quarantine.discarded': 'Quarantined rows discarded',
   'quarantine.resubmitted': 'Quarantined rows resubmitted',

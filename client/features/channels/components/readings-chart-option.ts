@@ -43,6 +43,58 @@ export function outOfRangePoints(series: Series, validMin: number | null, validM
   return out;
 }
 
+/** A test reading as the chart draws it: sent by hand, kept apart from the channel's readings. */
+export interface TestReadingPoint {
+  ts: number;
+  value: number;
+}
+
+const TEST_INK = '#6b3fa0';
+
+/**
+ * The chart option with the channel's test readings added as their own series: hollow diamonds
+ * with a purple outline, never joined to the readings' line, named "Test reading" in the legend
+ * and tooltip. A test value far outside what the chart shows (beyond the readings' extent and
+ * valid limits widened by half their span on each side) would squash the readings into a flat
+ * line, so it is drawn at the edge as "Test reading (off the scale)" with its value written beside it.
+ */
+export function withTestReadings(option: EChartsCoreOption, points: readonly TestReadingPoint[], series: Series, ctx: ReadingsChartContext): EChartsCoreOption {
+  const shown = points.filter((p) => p.ts >= ctx.range.from && p.ts < ctx.range.to);
+  if (shown.length === 0) return option;
+  const regular = (series.shape === 'readings' ? series.value : [...series.min, ...series.max]).filter((v): v is number => v !== null);
+  const bounds = [...regular, ...(ctx.validMin !== null ? [ctx.validMin] : []), ...(ctx.validMax !== null ? [ctx.validMax] : [])];
+  const lo = Math.min(...bounds);
+  const hi = Math.max(...bounds);
+  const pad = bounds.length > 0 ? Math.max((hi - lo) / 2, Math.abs(hi) * 0.1, 1) : Infinity;
+  const onScale = shown.filter((p) => p.value >= lo - pad && p.value <= hi + pad);
+  const offScale = shown.filter((p) => p.value < lo - pad || p.value > hi + pad);
+  const marker = { symbol: 'diamond', symbolSize: 11, itemStyle: { color: '#ffffff', borderColor: TEST_INK, borderWidth: 2 }, z: 6 };
+  const added: EChartsCoreOption[] = [];
+  if (onScale.length) added.push({ name: 'Test reading', type: 'scatter', data: onScale.map((p) => [p.ts, p.value]), ...marker });
+  if (offScale.length) {
+    added.push({
+      name: 'Test reading (off the scale)',
+      type: 'scatter',
+      data: offScale.map((p) => ({
+        value: [p.ts, p.value < lo ? lo - pad : hi + pad],
+        label: { show: true, formatter: `test ${p.value}`, position: p.value < lo ? 'top' : 'bottom', color: TEST_INK },
+      })),
+      ...marker,
+      itemStyle: { ...marker.itemStyle, borderType: 'dashed' },
+    });
+  }
+  return { ...option, series: [...(option.series as EChartsCoreOption[]), ...added] };
+}
+
+/** The test readings of the chart in words, appended to its summary ('' when there are none). */
+export function testReadingsSummary(points: readonly TestReadingPoint[], ctx: ReadingsChartContext): string {
+  const shown = points.filter((p) => p.ts >= ctx.range.from && p.ts < ctx.range.to);
+  if (shown.length === 0) return '';
+  const unit = ctx.unit ? ` ${ctx.unit}` : '';
+  const values = shown.map((p) => `${Number(p.value.toPrecision(6))}${unit}`).join(', ');
+  return ` ${shown.length} test ${shown.length === 1 ? 'reading' : 'readings'} (${values}) drawn apart as hollow diamonds: not among the readings, left out of diagnostics and alerts.`;
+}
+
 /**
  * The ECharts option of a channel's readings over its range: a line broken at gaps (raw
  * readings, or the bucket means with the min and max of each bucket drawn as an envelope when

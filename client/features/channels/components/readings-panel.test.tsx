@@ -8,6 +8,9 @@ import type { TimeRange } from '@shared/contract/channels.ts';
 import type { RangePreset } from './range-presets.ts';
 import { ReadingsPanel } from './readings-panel.tsx';
 
+/** The series requests only (the panel also asks for the channel's test readings). */
+const seriesAsked = (api: ReturnType<typeof fakeApi>) => api.requests.filter((r) => r.path.includes('/series?'));
+
 const fake = vi.hoisted(() => ({ module: null as ReturnType<typeof fakeEchartsModule> | null }));
 vi.mock(import('../../../components/charts/echarts-setup.ts'), async () => {
   const { fakeEchartsModule: make } = await import('../../../components/charts/fake-echarts.ts');
@@ -59,7 +62,7 @@ describe('ReadingsPanel', () => {
     expect(caption.textContent).toBe(
       '2 readings from 2026-06-01 05:30 to 2026-06-02 05:30 (Asia/Kolkata, UTC+05:30); lowest 20 °C, highest 50 °C; 1 outside the valid range.',
     );
-    expect(api.requests[0].path).toBe(`/api/v1/labs/canopy/channels/7/series?from=${T0}&to=${T0 + DAY}&points=2000`);
+    expect(seriesAsked(api)[0].path).toBe(`/api/v1/labs/canopy/channels/7/series?from=${T0}&to=${T0 + DAY}&points=2000`);
     expect(screen.getByRole('link', { name: 'Download readings of this range (CSV)' }).getAttribute('href')).toBe(
       `/api/v1/labs/canopy/channels/7/readings.csv?from=${T0}&to=${T0 + DAY}`,
     );
@@ -68,7 +71,7 @@ describe('ReadingsPanel', () => {
     // The slider reports percentages; the middle half of the day is asked for at full detail.
     fake.module!.emitters[0]('datazoom', { start: 25, end: 75 });
     await vi.waitFor(
-      () => expect(api.requests.at(-1)!.path).toBe(`/api/v1/labs/canopy/channels/7/series?from=${T0 + DAY / 4}&to=${T0 + (3 * DAY) / 4}&points=2000`),
+      () => expect(seriesAsked(api).at(-1)!.path).toBe(`/api/v1/labs/canopy/channels/7/series?from=${T0 + DAY / 4}&to=${T0 + (3 * DAY) / 4}&points=2000`),
       { timeout: 5000 },
     );
     expect(screen.getByRole('button', { name: '24 h' }).getAttribute('aria-pressed')).toBe('false');
@@ -90,7 +93,9 @@ describe('ReadingsPanel', () => {
     expect(screen.getByRole('alert').textContent).toBe('“To” must be after “From”.');
     fireEvent.change(screen.getByLabelText('To (Asia/Kolkata)'), { target: { value: '2026-06-04T05:30' } });
     fireEvent.click(screen.getByRole('button', { name: 'Show range' }));
-    await vi.waitFor(() => expect(api.requests.at(-1)!.path).toBe(`/api/v1/labs/canopy/channels/7/series?from=${T0 + 2 * DAY}&to=${T0 + 3 * DAY}&points=2000`));
+    await vi.waitFor(() =>
+      expect(seriesAsked(api).at(-1)!.path).toBe(`/api/v1/labs/canopy/channels/7/series?from=${T0 + 2 * DAY}&to=${T0 + 3 * DAY}&points=2000`),
+    );
   });
 
   it('says where the plan’s history window cut the range, and that older readings are kept', async () => {

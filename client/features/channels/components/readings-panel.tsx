@@ -5,13 +5,16 @@ import { LoadingNote, Notice } from '../../../components/notice.tsx';
 import type { ChannelDetail } from '@shared/contract/channels.ts';
 import type { TimeRange } from '@shared/contract/channels.ts';
 import { readingsCsvUrl, useSeries } from '../api/get-series.ts';
+import { useChannelTestReadings } from '../../loggers/api/test-readings.ts';
 import { RangePicker } from './range-picker.tsx';
 import { zoomedRange, type RangePreset } from './range-presets.ts';
 import { readingsChartOption, readingsSummary } from './readings-chart-option.ts';
+import { testReadingsSummary, withTestReadings, type TestReadingPoint } from './readings-chart-option.ts';
 
 const ZOOM_SETTLE_MS = 450;
 
 const NO_BANDS: readonly ChartBand[] = [];
+const NO_TESTS: readonly TestReadingPoint[] = [];
 
 /** A stretch of time to shade on the chart (e.g. while an alert was open). */
 export interface ChartBand {
@@ -73,12 +76,14 @@ export function ReadingsPanel({
   bands?: readonly ChartBand[];
 }) {
   const series = useSeries(slug, channel.id, range);
+  // test readings are drawn apart from the readings (their own series and marker)
+  const tests = useChannelTestReadings(slug, channel.id, range).data?.testReadings ?? NO_TESTS;
   const ctx = useMemo(
     () => ({ label: channel.label, unit: channel.unit, timezone: channel.logger.timezone, validMin: channel.validMin, validMax: channel.validMax, range }),
     [channel, range],
   );
   const data = series.data?.series;
-  const option = useMemo(() => (data ? withBands(readingsChartOption(data, ctx), bands) : null), [data, ctx, bands]);
+  const option = useMemo(() => (data ? withBands(withTestReadings(readingsChartOption(data, ctx), tests, data, ctx), bands) : null), [data, ctx, bands, tests]);
 
   const timer = useRef<ReturnType<typeof setTimeout> | undefined>(undefined);
   useEffect(() => () => clearTimeout(timer.current), []);
@@ -116,7 +121,7 @@ export function ReadingsPanel({
           <EChart
             option={option}
             label={`Readings of ${channel.label}`}
-            summary={readingsSummary(data, ctx)}
+            summary={readingsSummary(data, ctx) + testReadingsSummary(tests, ctx)}
             height={360}
             pngName={`${slug}-${channel.key}-readings`}
             onZoom={onZoom}

@@ -3,14 +3,16 @@ import { apiFetch } from '../../../lib/api-client.ts';
 import { useLoggersMutation } from './logger-mutation.ts';
 
 /**
- * `POST /api/v1/labs/:lab/loggers/:loggerId/test-reading`: stores one reading of a channel now,
- * through the same path a logger's readings take, and reads it back.
+ * `POST /api/v1/labs/:lab/loggers/:loggerId/test-reading`: checks one reading of a channel now as
+ * a logger's reading would be checked and keeps it as a test reading (never among the channel's
+ * readings). A value outside the valid range answers 409 `outside_valid_range` unless
+ * `confirmOutsideRange` is set.
  */
 export function sendTestReading(slug: string, loggerId: number, input: TestReadingBody): Promise<TestReadingResult> {
   return apiFetch(`/api/v1/labs/${encodeURIComponent(slug)}/loggers/${loggerId}/test-reading`, { method: 'POST', body: JSON.stringify(input) });
 }
 
-/** Sends a test reading, then refreshes the lab's logger queries (the logger was just seen). */
+/** Sends a test reading, then refreshes the lab's logger queries (its recent test readings among them). */
 export function useSendTestReading(slug: string, loggerId: number) {
   return useLoggersMutation(slug, (input: TestReadingBody) => sendTestReading(slug, loggerId, input));
 }

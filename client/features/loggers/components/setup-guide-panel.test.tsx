@@ -27,6 +27,7 @@ const channel = (id: number, key: string, label: string, validMin: number | null
 });
 const CHANNELS = [channel(21, 'bath_t', 'Water bath', 10, 40), channel(22, 'lid.open', 'Lid switch', 0, 1)];
 const TEST_URL = '/api/v1/labs/fernhollow/loggers/9/test-reading';
+const TEST_LIST_URL = '/api/v1/labs/fernhollow/loggers/9/test-readings';
 
 function renderPanel(canSendTest = true) {
   return renderWithProviders(
@@ -55,17 +56,32 @@ describe('logger set-up guide', () => {
     ]);
   });
 
-  it('sends a test reading with the server’s body schema and shows the round trip', async () => {
+  it('sends a test reading with the server’s body schema and shows what a logger’s reading would get and when it was kept', async () => {
     const api = fakeApi({
+      [`GET ${TEST_LIST_URL}`]: () => ({ status: 200, body: { testReadings: [], timezone: 'Europe/Berlin' } }),
       [`POST ${TEST_URL}`]: (req) => {
         const body = req.body as { channel: string; value: number };
         return {
           status: 200,
           body: {
             sent: { ...body, ts: '2026-09-01T06:30:00.000Z' },
-            outcome: { accepted: 1, duplicates: 0, quarantined: [] },
-            storedValue: body.value,
-            roundTripMs: 7.4,
+            wouldGet: { outcome: 'stored' },
+            testReading: {
+              id: 5,
+              source: 'test',
+              loggerId: 9,
+              channelId: 21,
+              channel: body.channel,
+              ts: Date.UTC(2026, 8, 1, 6, 30),
+              time: '2026-09-01T06:30:00.000Z',
+              value: body.value,
+              outsideRange: false,
+              sentBy: { id: 1, name: 'Tove' },
+              sentAt: '2026-09-01T06:30:00.000Z',
+              removableUntil: '2026-09-01T06:40:00.000Z',
+              removableByYouForMs: 600_000,
+            },
+            timezone: 'Europe/Berlin',
           },
         };
       },
@@ -73,25 +89,27 @@ describe('logger set-up guide', () => {
     renderPanel();
     fireEvent.change(screen.getByLabelText('Value'), { target: { value: '31.5' } });
     fireEvent.click(screen.getByRole('button', { name: 'Send a test reading' }));
-    expect((await screen.findByTestId('stored-value')).textContent).toBe('31.5');
+    expect((await screen.findByTestId('would-get')).textContent).toBe('would be stored');
     const result = screen.getByTestId('test-reading-result').textContent!;
     expect(result).toContain('bath_t = 31.5');
-    expect(result).toContain('2026-09-01T06:30:00.000Z');
-    expect(result).toContain('7.4 ms');
+    // 06:30 UTC is 08:30 in Berlin in September (CEST, UTC+2; IANA tz database)
+    expect(screen.getByTestId('kept-at').textContent).toBe('at 2026-09-01 08:30:00 (Europe/Berlin, UTC+02:00) on the logger’s clock');
+    expect(screen.getByRole('button', { name: 'Remove test reading bath_t = 31.5' }).textContent).toBe('Remove (10:00 left)');
     const sent = api.requests.find((r) => r.path === TEST_URL)!.body;
     expect(sent).toEqual({ channel: 'bath_t', value: 31.5 });
     expect(testReadingSchema.safeParse(sent).success).toBe(true);
   });
 
-  it('shows the quarantine reason when the reading was not stored, and a server refusal as an alert', async () => {
+  it('shows the quarantine reason a logger’s reading would get, and a server refusal as an alert', async () => {
     fakeApi({
+      [`GET ${TEST_LIST_URL}`]: () => ({ status: 200, body: { testReadings: [], timezone: 'Europe/Berlin' } }),
       [`POST ${TEST_URL}`]: () => ({
         status: 200,
         body: {
           sent: { channel: 'lid.open', ts: '2026-09-01T06:30:00.000Z', value: 0.5 },
-          outcome: { accepted: 0, duplicates: 0, quarantined: [{ index: 0, code: 'retired_channel', reason: 'channel: "lid.open" is retired' }] },
-          storedValue: null,
-          roundTripMs: 5,
+          wouldGet: { outcome: 'quarantined', code: 'retired_channel', reason: 'channel: "lid.open" is retired' },
+          testReading: null,
+          timezone: 'Europe/Berlin',
         },
       }),
     });
@@ -101,9 +119,13 @@ describe('logger set-up guide', () => {
     fireEvent.click(screen.getByRole('button', { name: 'Send a test reading' }));
     await waitFor(() => expect(screen.getByRole('alert').textContent).toContain('channel: "lid.open" is retired'));
     expect(screen.getByRole('alert').textContent).toContain('quarantine');
+    expect(screen.getByRole('alert').textContent).toContain('Nothing was kept');
 
     cleanup();
-    fakeApi({ [`POST ${TEST_URL}`]: () => apiError(409, 'logger_retired', 'This logger is retired: it accepts no new readings.') });
+    fakeApi({
+      [`GET ${TEST_LIST_URL}`]: () => ({ status: 200, body: { testReadings: [], timezone: 'Europe/Berlin' } }),
+      [`POST ${TEST_URL}`]: () => apiError(409, 'logger_retired', 'This logger is retired: it accepts no new readings.'),
+    });
     renderPanel();
     fireEvent.click(screen.getByRole('button', { name: 'Send a test reading' }));
     expect((await screen.findByRole('alert')).textContent).toBe('This logger is retired: it accepts no new readings.');
@@ -115,7 +137,8 @@ describe('logger set-up guide', () => {
     fireEvent.change(screen.getByLabelText('Value'), { target: { value: 'warm' } });
     fireEvent.click(screen.getByRole('button', { name: 'Send a test reading' }));
     expect(await screen.findByText('value: must be a finite number')).toBeTruthy();
-    expect(api.requests).toHaveLength(0);
+    // only the list of recent test readings was asked for: nothing was sent
+    expect(api.requests.filter((r) => r.method !== 'GET')).toHaveLength(0);
   });
 
   it('on the logger page: shown with active channels only; the test reading only for those who manage loggers', () => {
