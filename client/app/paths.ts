@@ -34,6 +34,7 @@ export const paths = {
     href: (slug: string, channelId: number) => `/labs/${encodeURIComponent(slug)}/channels/${channelId}`,
   },
   labAlerts: { path: '/labs/:lab/alerts', href: (slug: string) => `/labs/${encodeURIComponent(slug)}/alerts` },
+  labNotes: { path: '/labs/:lab/notes', href: (slug: string) => `/labs/${encodeURIComponent(slug)}/notes` },
   labQuarantine: {
     path: '/labs/:lab/quarantine',
     href: (slug: string, search = '') => `/labs/${encodeURIComponent(slug)}/quarantine${search && !search.startsWith('?') ? `?${search}` : search}`,

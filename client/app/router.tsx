@@ -25,6 +25,7 @@ const router = createBrowserRouter([
           { path: paths.labChannelsTogether.path, lazy: async () => ({ Component: (await import('./routes/lab-channels-together.tsx')).default }) },
           { path: paths.labChannel.path, lazy: async () => ({ Component: (await import('./routes/lab-channel.tsx')).default }) },
           { path: paths.labAlerts.path, lazy: async () => ({ Component: (await import('./routes/lab-alerts.tsx')).default }) },
+          { path: paths.labNotes.path, lazy: async () => ({ Component: (await import('./routes/lab-notes.tsx')).default }) },
           { path: paths.labQuarantine.path, lazy: async () => ({ Component: (await import('./routes/lab-quarantine.tsx')).default }) },
           { path: paths.labTokens.path, lazy: async () => ({ Component: (await import('./routes/lab-tokens.tsx')).default }) },
           { path: paths.labBilling.path, lazy: async () => ({ Component: (await import('./routes/lab-billing.tsx')).default }) },

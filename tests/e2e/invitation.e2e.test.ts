@@ -118,7 +118,7 @@ describe('inviting someone into a new lab through the browser', () => {
     expect(await page.getByTestId('lab-role').textContent()).toBe('Your role: Technician');
     // A technician sees no audit log section.
     const sections = page.getByRole('navigation', { name: 'Lab sections' }).getByRole('link');
-    expect(await sections.allTextContents()).toEqual(['Overview', 'Channels', 'Alerts', 'Loggers', 'Quarantine', 'Members', 'API tokens']);
+    expect(await sections.allTextContents()).toEqual(['Overview', 'Channels', 'Alerts', 'Notes', 'Loggers', 'Quarantine', 'Members', 'API tokens']);
     await keepScreenshot(page, 'invitation-joined-as-technician');
 
     // The link is single use.

@@ -14,6 +14,9 @@ import { MissingPermission } from '../../features/labs/components/lab-not-found.
 import { useChannelAlerts } from '../../features/alerts/api/get-channel-alerts.ts';
 import { alertBands } from '../../features/alerts/components/alert-bands.ts';
 import { ChannelAlertsPanel } from '../../features/alerts/components/channel-alerts-panel.tsx';
+import { useChannelNotes } from '../../features/notes/api/get-channel-notes.ts';
+import { noteSpans } from '../../features/notes/components/note-spans.ts';
+import { ChannelNotesPanel } from '../../features/notes/components/channel-notes-panel.tsx';
 import { LoadingNote, Notice } from '../../components/notice.tsx';
 import { ApiError } from '../../lib/api-client.ts';
 import { paths } from '../paths.ts';
@@ -41,6 +44,8 @@ export default function LabChannelRoute() {
   });
   const channelAlerts = useChannelAlerts(slug, channelId, view.range, can('alerts.read'));
   const bands = useMemo(() => alertBands(channelAlerts.data?.alerts ?? [], view.range, Date.now()), [channelAlerts.data, view.range]);
+  const notes = useChannelNotes(slug, channelId, view.range);
+  const spans = useMemo(() => noteSpans(notes.data?.notes ?? []), [notes.data]);
   const partners = useMemo(
     () => (all.data?.channels ?? []).filter((c) => c.id !== channelId).map((c) => ({ id: c.id, label: c.label, loggerName: c.logger.name })),
     [all.data, channelId],
@@ -77,6 +82,19 @@ export default function LabChannelRoute() {
         onRange={(range, preset) => setView({ range, preset })}
         canExport={can('exports.create')}
         bands={bands}
+        notes={spans}
+        beside={
+          <ChannelNotesPanel
+            slug={slug}
+            channel={c}
+            range={view.range}
+            notes={notes.data?.notes ?? []}
+            loading={notes.isPending}
+            error={notes.error}
+            canEdit={can('loggers.manage') && c.retiredAt === null}
+            canExport={can('exports.create')}
+          />
+        }
       />
       {can('alerts.read') && channelAlerts.data && <ChannelAlertsPanel slug={slug} alerts={channelAlerts.data.alerts} canAcknowledge={can('alerts.manage')} />}
       {can('diagnostics.read') && (

@@ -2,6 +2,7 @@ import { useParams } from 'react-router-dom';
 import { LoggerLoader } from '../../features/loggers/components/logger-loader.tsx';
 import { LoggerPage } from '../../features/loggers/components/logger-page.tsx';
 import { MissingPermission } from '../../features/labs/components/lab-not-found.tsx';
+import { LoggerNotesPanel } from '../../features/notes/components/logger-notes-panel.tsx';
 import { useLabContext } from './lab-context.ts';
 
 /** `/labs/:lab/loggers/:loggerId`: one logger's page, with what the member's role may change. */
@@ -18,6 +19,11 @@ export default function LabLoggerRoute() {
           slug={slug}
           logger={logger}
           rights={{ manage: can('loggers.manage'), keys: can('ingest-keys.manage'), upload: can('uploads.create'), quarantine: can('quarantine.review') }}
+          notes={
+            can('channels.read') && (
+              <LoggerNotesPanel slug={slug} loggerId={logger.id} timezone={logger.timezone} canEdit={can('loggers.manage') && logger.retiredAt === null} />
+            )
+          }
         />
       )}
     </LoggerLoader>

@@ -105,9 +105,9 @@ const navLinks = () => within(screen.getByRole('navigation', { name: 'Lab sectio
 
 describe('lab sections for loggers', () => {
   it.each([
-    ['technician', ['Overview', 'Channels', 'Alerts', 'Loggers', 'Quarantine', 'Members', 'API tokens']],
-    ['scientist', ['Overview', 'Channels', 'Alerts', 'Loggers', 'Members', 'API tokens']],
-    ['guest', ['Overview', 'Channels', 'Alerts', 'Loggers']],
+    ['technician', ['Overview', 'Channels', 'Alerts', 'Notes', 'Loggers', 'Quarantine', 'Members', 'API tokens']],
+    ['scientist', ['Overview', 'Channels', 'Alerts', 'Notes', 'Loggers', 'Members', 'API tokens']],
+    ['guest', ['Overview', 'Channels', 'Alerts', 'Notes', 'Loggers']],
   ] as Array<[Role, string[]]>)('shows a %s the sections of the role', async (role, expected) => {
     fakeApi({ 'GET /api/v1/labs/fernhollow': labAs(role), 'GET /api/v1/labs/fernhollow/loggers': () => ({ status: 200, body: { loggers: [] } }) });
     renderWithProviders(routes, '/labs/fernhollow/loggers');

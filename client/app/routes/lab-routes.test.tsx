@@ -79,7 +79,7 @@ describe('lab pages', () => {
       within(nav)
         .getAllByRole('link')
         .map((a) => a.textContent),
-    ).toEqual(['Overview', 'Channels', 'Alerts', 'Loggers', 'Quarantine', 'Members', 'API tokens']);
+    ).toEqual(['Overview', 'Channels', 'Alerts', 'Notes', 'Loggers', 'Quarantine', 'Members', 'API tokens']);
     expect(within(nav).getByRole('link', { name: 'Members' }).getAttribute('aria-current')).toBe('page');
     await screen.findByText('No members.');
     expect(screen.queryByRole('form', { name: 'Invite someone' })).toBeNull();

@@ -40,6 +40,11 @@ export const AUDIT_ACTION_LABELS: Record<AuditAction, string> = {
   'billing.plan-change-requested': 'Plan switch requested',
   'billing.plan-changed': 'Plan changed',
   'billing.status-changed': 'Payment status changed',
+  'note.created': 'Note added',
+  'note.updated': 'Note changed',
+  'note.deleted': 'Note deleted',
+  'note-kind.created': 'Note kind added',
+  'note-kind.updated': 'Note kind changed',
 };
 
 /** The label of an action, or the raw action name for one this client does not know yet. */

@@ -216,3 +216,49 @@ export function readingsSummary(series: Series, ctx: ReadingsChartContext): stri
   const fmt = (v: number) => Number(v.toPrecision(6));
   return `${what} ${span}; lowest ${fmt(Math.min(...values))}${unit}, highest ${fmt(Math.max(...values))}${unit}${outside ? `; ${outside} outside the valid range` : ''}.`;
 }
+
+/** A noted stretch of time to shade on the readings chart, with the note's words. */
+export interface NoteSpan {
+  from: number;
+  to: number;
+  /** Kind and text, shown at the span's top left. */
+  label: string;
+  /** Marked "leave out of analysis": drawn a shade darker. */
+  excluded: boolean;
+}
+
+const NOTE_INK = '#3f5478';
+
+/**
+ * The chart option with each note shaded over the full height and its words written at its
+ * top left: a filled line on a hidden 0–1 axis per note (the line chart is the only one
+ * registered, so no extra ECharts component is needed), clipped to the chart's range.
+ */
+export function withNoteSpans(option: EChartsCoreOption, spans: readonly NoteSpan[], range: TimeRange): EChartsCoreOption {
+  const shown = spans.filter((s) => s.to > range.from && s.from < range.to);
+  if (shown.length === 0) return option;
+  const yAxes = (Array.isArray(option.yAxis) ? option.yAxis : [option.yAxis]) as EChartsCoreOption[];
+  const series = option.series as EChartsCoreOption[];
+  const shaded = shown.map((s) => {
+    const from = Math.max(s.from, range.from);
+    const to = Math.max(Math.min(s.to, range.to), from + (range.to - range.from) / 400);
+    return {
+      name: `Note: ${s.label}`,
+      type: 'line',
+      yAxisIndex: yAxes.length,
+      data: [{ value: [from, 1], label: { show: true, formatter: s.label.length > 48 ? `${s.label.slice(0, 47)}…` : s.label, position: 'right' } }, [to, 1]],
+      showSymbol: false,
+      label: { color: NOTE_INK, fontSize: 11, offset: [2, 10] },
+      lineStyle: { width: 0 },
+      itemStyle: { color: NOTE_INK },
+      areaStyle: { color: s.excluded ? 'rgba(63, 84, 120, 0.22)' : 'rgba(63, 84, 120, 0.1)' },
+      tooltip: { show: false },
+      silent: true,
+      z: 0,
+    };
+  });
+  // the legend keeps naming only the chart's own lines (alert bands may have set that list already)
+  const own = option.legend as (EChartsCoreOption & { data?: unknown[] }) | undefined;
+  const legend = own ? { ...own, data: own.data ?? series.map((s) => s.name).filter(Boolean) } : undefined;
+  return { ...option, ...(legend ? { legend } : {}), yAxis: [...yAxes, { type: 'value', min: 0, max: 1, show: false }], series: [...series, ...shaded] };
+}

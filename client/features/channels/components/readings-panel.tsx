@@ -1,4 +1,4 @@
-import { useEffect, useMemo, useRef } from 'react';
+import { useEffect, useMemo, useRef, type ReactNode } from 'react';
 import type { EChartsCoreOption } from 'echarts/core';
 import { EChart, type ZoomWindow } from '../../../components/charts/echart.tsx';
 import { LoadingNote, Notice } from '../../../components/notice.tsx';
@@ -8,12 +8,13 @@ import { readingsCsvUrl, useSeries } from '../api/get-series.ts';
 import { useChannelTestReadings } from '../../loggers/api/test-readings.ts';
 import { RangePicker } from './range-picker.tsx';
 import { zoomedRange, type RangePreset } from './range-presets.ts';
-import { readingsChartOption, readingsSummary } from './readings-chart-option.ts';
+import { readingsChartOption, readingsSummary, withNoteSpans, type NoteSpan } from './readings-chart-option.ts';
 import { testReadingsSummary, withTestReadings, type TestReadingPoint } from './readings-chart-option.ts';
 
 const ZOOM_SETTLE_MS = 450;
 
 const NO_BANDS: readonly ChartBand[] = [];
+const NO_NOTES: readonly NoteSpan[] = [];
 const NO_TESTS: readonly TestReadingPoint[] = [];
 
 /** A stretch of time to shade on the chart (e.g. while an alert was open). */
@@ -65,6 +66,8 @@ export function ReadingsPanel({
   onRange,
   canExport,
   bands = NO_BANDS,
+  notes = NO_NOTES,
+  beside,
 }: {
   slug: string;
   channel: ChannelDetail;
@@ -74,6 +77,10 @@ export function ReadingsPanel({
   canExport: boolean;
   /** Stretches to shade (when alerts were open), from the channel page. */
   bands?: readonly ChartBand[];
+  /** Notes to shade with their words (from the channel page). */
+  notes?: readonly NoteSpan[];
+  /** Shown under the chart (the channel page puts the notes list there). */
+  beside?: ReactNode;
 }) {
   const series = useSeries(slug, channel.id, range);
   // test readings are drawn apart from the readings (their own series and marker)
@@ -83,7 +90,10 @@ export function ReadingsPanel({
     [channel, range],
   );
   const data = series.data?.series;
-  const option = useMemo(() => (data ? withBands(withTestReadings(readingsChartOption(data, ctx), tests, data, ctx), bands) : null), [data, ctx, bands, tests]);
+  const option = useMemo(
+    () => (data ? withNoteSpans(withBands(withTestReadings(readingsChartOption(data, ctx), tests, data, ctx), bands), notes, range) : null),
+    [data, ctx, bands, notes, range, tests],
+  );
 
   const timer = useRef<ReturnType<typeof setTimeout> | undefined>(undefined);
   useEffect(() => () => clearTimeout(timer.current), []);
@@ -129,6 +139,7 @@ export function ReadingsPanel({
           <p className="mt-1 text-xs text-ink-soft">Scroll or drag the slider to zoom; the zoomed range is fetched again at full detail.</p>
         </div>
       )}
+      {beside}
     </section>
   );
 }

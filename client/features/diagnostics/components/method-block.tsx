@@ -26,6 +26,36 @@ export function MethodBlock({ method, cached }: { method: DiagnosticsReport['met
           <li key={n}>{n}</li>
         ))}
       </ul>
+      {method.excludedNotes.length > 0 && (
+        <div className="grid gap-1">
+          <p className="font-medium">Left out of the analysis (notes marked “leave out of analysis”)</p>
+          <table className="text-xs">
+            <thead className="text-left text-ink-soft">
+              <tr>
+                <th className="pr-3 font-normal">Kind</th>
+                <th className="pr-3 font-normal">Span (UTC)</th>
+                <th className="pr-3 font-normal">Cells removed</th>
+                <th className="font-normal">Note</th>
+              </tr>
+            </thead>
+            <tbody>
+              {method.excludedNotes.map((n) => (
+                <tr key={`${n.id}-${n.removedFrom}`} data-testid="excluded-note">
+                  <td className="pr-3">
+                    {n.kind}
+                    {n.channelId === null ? ' (whole logger)' : ''}
+                  </td>
+                  <td className="pr-3 font-mono">
+                    {new Date(n.from).toISOString().slice(0, 16).replace('T', ' ')} – {new Date(n.to).toISOString().slice(0, 16).replace('T', ' ')}
+                  </td>
+                  <td className="pr-3 font-mono">{n.cellsRemoved}</td>
+                  <td>{n.text}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
       <p className="font-medium">References</p>
       <ul className="list-disc pl-5 text-ink-soft">
         {method.references.map((n) => (

@@ -25,6 +25,12 @@ export const LAB_SECTIONS: LabSection[] = [
     needs: 'alerts.read',
     blurb: 'Open and recent alerts, and the rules that mail people when a channel goes quiet or strays.',
   },
+  {
+    label: 'Notes',
+    href: paths.labNotes.href,
+    needs: 'channels.read',
+    blurb: 'Why data look as they do: cleanings, calibrations, sensor changes; the kinds of note the lab uses.',
+  },
   { label: 'Loggers', href: paths.labLoggers.href, needs: 'loggers.read', blurb: 'The data loggers, their channels and keys; historical uploads.' },
   {
     label: 'Quarantine',

@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useState, type ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import { paths } from '../../../app/paths.ts';
 import { Button, buttonClasses } from '../../../components/button.tsx';
@@ -25,7 +25,7 @@ export interface LoggerPageRights {
  * that changes something appears only for a role that may do it; others see it read-only.
  * A retired logger is read-only for everyone.
  */
-export function LoggerPage({ slug, logger, rights }: { slug: string; logger: LoggerDetail; rights: LoggerPageRights }) {
+export function LoggerPage({ slug, logger, rights, notes }: { slug: string; logger: LoggerDetail; rights: LoggerPageRights; notes?: ReactNode }) {
   const [editing, setEditing] = useState(false);
   const retired = logger.retiredAt !== null;
   const manage = rights.manage && !retired;
@@ -76,6 +76,9 @@ export function LoggerPage({ slug, logger, rights }: { slug: string; logger: Log
         </h3>
         <ChannelsTable slug={slug} loggerId={logger.id} channels={logger.channels} canManage={manage} />
       </section>
+
+      {/* the logger's notes (composed by the route: another feature) */}
+      {notes}
 
       {rights.keys && logger.keys && (
         <section aria-labelledby="logger-keys-heading" className="grid gap-3">
