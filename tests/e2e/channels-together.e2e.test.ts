@@ -108,10 +108,14 @@ describe('several channels on one chart', () => {
     expect(await page.getByRole('alert').count()).toBe(0);
     shownUrl = page.url();
     await keepScreenshot(page, 'channels-together');
+    // back in the channels table the choice is still there
+    await page.goBack();
+    await page.getByRole('table', { name: 'Channels of the lab' }).waitFor();
+    expect(await page.getByTestId('chosen-count').textContent()).toBe('3 of 6 chosen');
   });
 
-  it('shows the same chart after a reload of the link, and another clock from the URL', async () => {
-    await page.reload();
+  it('shows the same chart when the link is opened again (a fresh page load), and another clock from the URL', async () => {
+    await page.goto(shownUrl);
     await chartReady();
     expect(page.url()).toBe(shownUrl);
     expect(await page.locator('figcaption').textContent()).toBe(caption);

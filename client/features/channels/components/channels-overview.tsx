@@ -23,9 +23,13 @@ export function ChannelsOverview({ slug, rows, now }: { slug: string; rows: Chan
   const filter = readChannelFilter(params);
   const shown = useMemo(() => filterChannels(rows, filter), [rows, filter.text, filter.status, filter.loggerId]); // eslint-disable-line react-hooks/exhaustive-deps
   // the choice lives in the query string too (`pick`), so coming back from the chart keeps it
-  const pick = params.get('pick') ?? '';
-  const chosen = useMemo(() => [...new Set(pick.split(',').map(Number))].filter((id) => rows.some((r) => r.id === id)).slice(0, MAX_CHOSEN), [pick, rows]);
-  const setChosen = (ids: number[]) => set('pick', ids.join(','));
+  // (held here as well, so a checkbox answers at once rather than after the navigation)
+  const [picked, setPicked] = useState(() => [...new Set((params.get('pick') ?? '').split(',').map(Number))]);
+  const chosen = useMemo(() => picked.filter((id) => rows.some((r) => r.id === id)).slice(0, MAX_CHOSEN), [picked, rows]);
+  const setChosen = (ids: number[]) => {
+    setPicked(ids);
+    set('pick', ids.join(','));
+  };
   const [refused, setRefused] = useState<string | null>(null);
   const byId = useMemo(() => new Map(rows.map((r) => [r.id, r])), [rows]);
   const choice = useMemo<ChannelChoice>(
