@@ -41,6 +41,7 @@ export const paths = {
   },
   labTokens: { path: '/labs/:lab/tokens', href: (slug: string) => `/labs/${encodeURIComponent(slug)}/tokens` },
   labBilling: { path: '/labs/:lab/billing', href: (slug: string) => `/labs/${encodeURIComponent(slug)}/billing` },
+  labSettings: { path: '/labs/:lab/settings', href: (slug: string) => `/labs/${encodeURIComponent(slug)}/settings` },
   // Not `/api`: the server answers everything below /api itself, so a reload there would miss the client.
   apiReference: { path: '/api-reference', href: () => '/api-reference' },
   joinLab: {

@@ -29,6 +29,7 @@ const router = createBrowserRouter([
           { path: paths.labQuarantine.path, lazy: async () => ({ Component: (await import('./routes/lab-quarantine.tsx')).default }) },
           { path: paths.labTokens.path, lazy: async () => ({ Component: (await import('./routes/lab-tokens.tsx')).default }) },
           { path: paths.labBilling.path, lazy: async () => ({ Component: (await import('./routes/lab-billing.tsx')).default }) },
+          { path: paths.labSettings.path, lazy: async () => ({ Component: (await import('./routes/lab-settings.tsx')).default }) },
         ],
       },
       { path: paths.apiReference.path, lazy: async () => ({ Component: (await import('./routes/api-reference.tsx')).default }) },

@@ -1,6 +1,7 @@
 import { Link, useOutletContext } from 'react-router-dom';
 import type { Me } from '@shared/contract/me.ts';
 import { LabCards } from '../../features/labs/components/lab-cards.tsx';
+import { LabDeletedNotice } from '../../features/labs/components/lab-deleted-notice.tsx';
 import { buttonClasses } from '../../components/button.tsx';
 import { paths } from '../paths.ts';
 
@@ -9,6 +10,7 @@ export default function HomeRoute() {
   const me = useOutletContext<Me>();
   return (
     <section>
+      <LabDeletedNotice />
       <h1 className="text-2xl font-semibold">Welcome, {me.user.name}</h1>
       <p className="mt-1 text-ink-soft">Signed in as {me.user.email}</p>
       <div className="mt-8 flex flex-wrap items-baseline justify-between gap-3">

@@ -52,6 +52,12 @@ export const LAB_SECTIONS: LabSection[] = [
     needs: 'billing.manage',
     blurb: 'The plan, storage and other usage against its limits, payment and invoices.',
   },
+  {
+    label: 'Lab settings',
+    href: paths.labSettings.href,
+    needs: 'lab.manage',
+    blurb: 'The lab’s name and description, a full export of its data, and deleting the lab.',
+  },
 ];
 
 /** The sections a member with `permissions` may open; the server refuses the rest anyway. */
