@@ -54,7 +54,7 @@ export interface OverviewAlerts {
   recent: OverviewAlert[];
 }
 
-/** The quarantine part (`quarantine.review`): the kept count and the reasons with their rows (each counted up to `QUARANTINE_COUNT_LIMIT`). */
+/** The quarantine part (`quarantine.review`): the kept count, and the reasons with their rows, each counted up to 1,000 (`atLeast` beyond), latest first. */
 export interface OverviewQuarantine {
   waiting: number;
   byReason: Array<{ reason: string; count: number; atLeast: boolean; latestAt: IsoTime }>;

@@ -50,35 +50,31 @@ export function labOverviewRepo(scope: LabScope) {
 
     /**
      * Open alerts counted, and the newest `limit` of them with their channel and logger names. An
-     * open alert holds its rule in `open_rule_id` (one per rule, unique index), so both read that
-     * index's entries for the lab: at most one per rule.
+     * open alert holds its rule in `open_rule_id` (one per rule, unique index
+     * `alerts_one_open_per_rule`), so both read that index's entries for the lab: at most one per
+     * rule, however many resolved alerts the lab keeps. The index is named because with few open
+     * alerts the planner otherwise walks `alerts_opened_index` backwards through resolved ones.
      */
     async openAlerts(limit: number): Promise<{ count: number; recent: OpenAlertRow[] }> {
-      const counted = await scope.table('alerts').whereNotNull('alerts.open_rule_id').count({ n: '*' }).first();
-      const rows = await scope
-        .table('alerts')
-        .leftJoin('channels', (j) => j.on('channels.tenant_id', '=', 'alerts.tenant_id').andOn('channels.id', '=', 'alerts.channel_id'))
-        .leftJoin('loggers', (j) => j.on('loggers.tenant_id', '=', 'alerts.tenant_id').andOn('loggers.id', '=', 'alerts.logger_id'))
-        .whereNotNull('alerts.open_rule_id')
-        .orderBy([
-          { column: 'alerts.opened_at', order: 'desc' },
-          { column: 'alerts.id', order: 'desc' },
-        ])
-        .limit(limit)
-        .select(
-          'alerts.id',
-          'alerts.rule_name as ruleName',
-          'alerts.opened_at as openedAt',
-          'alerts.opened_detail as detail',
-          'alerts.acknowledged_at as acknowledgedAt',
-          'alerts.channel_id as channelId',
-          'channels.label as channelLabel',
-          'alerts.logger_id as loggerId',
-          'loggers.name as loggerName',
-        );
+      const [counted] = (
+        await scope.raw(
+          'SELECT COUNT(*) AS n FROM alerts FORCE INDEX (alerts_one_open_per_rule) WHERE alerts.tenant_id = :lab AND alerts.open_rule_id IS NOT NULL',
+        )
+      )[0] as Array<{ n: number }>;
+      const [rows] = (await scope.raw(
+        `SELECT alerts.id, alerts.rule_name AS ruleName, alerts.opened_at AS openedAt, alerts.opened_detail AS detail, alerts.acknowledged_at AS acknowledgedAt,
+                alerts.channel_id AS channelId, channels.label AS channelLabel, alerts.logger_id AS loggerId, loggers.name AS loggerName
+         FROM alerts FORCE INDEX (alerts_one_open_per_rule)
+         LEFT JOIN channels ON channels.tenant_id = alerts.tenant_id AND channels.id = alerts.channel_id
+         LEFT JOIN loggers ON loggers.tenant_id = alerts.tenant_id AND loggers.id = alerts.logger_id
+         WHERE alerts.tenant_id = :lab AND alerts.open_rule_id IS NOT NULL
+         ORDER BY alerts.opened_at DESC, alerts.id DESC
+         LIMIT ?`,
+        [limit],
+      )) as [Array<Record<string, unknown>>];
       return {
         count: Number(counted?.n ?? 0),
-        recent: rows.map((r: Record<string, unknown>) => ({
+        recent: rows.map((r) => ({
           id: Number(r.id),
           ruleName: r.ruleName as string,
           openedAt: Number(r.openedAt),
@@ -91,52 +87,77 @@ export function labOverviewRepo(scope: LabScope) {
     },
 
     /**
-     * The reasons quarantined rows wait for, each with its latest arrival, latest first, at most
-     * `limit`: one entry per reason from `quarantine_reason_index` (tenant_id, reason_code,
-     * received_at), read as MariaDB's loose index scan for GROUP BY … MAX() (one index dive per reason).
+     * The reasons quarantined rows wait for (at most `maxReasons` of them), each with its latest
+     * arrival, latest first. The reasons are found by skipping through
+     * `quarantine_reason_recent_index` (tenant_id, reason_code, received_at DESC, …): each step asks
+     * for the first reason after the previous one, a range dive with a bound value (a correlated
+     * or GROUP BY form made MariaDB walk every row of the lab's quarantine); the latest arrival is
+     * the first index entry of its reason. So 2 dives per reason, however many rows wait.
      */
-    async quarantineReasons(limit: number): Promise<QuarantineReasonRow[]> {
-      const rows = await scope
-        .table('quarantined_rows')
-        .groupBy('quarantined_rows.reason_code')
-        .select('quarantined_rows.reason_code as reason')
-        .max({ latestAt: 'quarantined_rows.received_at' });
-      const reasons: QuarantineReasonRow[] = rows.map((r: Record<string, unknown>) => ({ reason: r.reason as string, latestAt: r.latestAt as Date }));
-      return reasons.sort((a, b) => b.latestAt.getTime() - a.latestAt.getTime()).slice(0, limit);
+    async quarantineReasons(maxReasons: number): Promise<QuarantineReasonRow[]> {
+      const reasons: QuarantineReasonRow[] = [];
+      let after = '';
+      while (reasons.length < maxReasons) {
+        const [rows] = (await scope.raw(
+          `SELECT q.reason_code AS reason, q.received_at AS latestAt FROM quarantined_rows q FORCE INDEX (quarantine_reason_recent_index)
+           WHERE q.tenant_id = :lab AND q.reason_code > ? ORDER BY q.reason_code, q.received_at DESC LIMIT 1`,
+          [after],
+        )) as [Array<{ reason: string; latestAt: Date }>];
+        if (rows.length === 0) break;
+        reasons.push({ reason: rows[0].reason, latestAt: rows[0].latestAt });
+        after = rows[0].reason;
+      }
+      return reasons.sort((a, b) => b.latestAt.getTime() - a.latestAt.getTime());
     },
 
     /**
-     * Loggers in use whose newest working key was never used by a logger, oldest key first, at
-     * most `limit`, with their count. Bounded by the lab's loggers (a plan limit) and their keys.
+     * A reason's waiting rows, counted along `quarantine_reason_recent_index` up to `cap` (`atLeast`
+     * when the count stopped there), so a large backlog costs at most `cap` index entries.
      */
-    async loggersWithUnusedKey(limit: number): Promise<{ count: number; rows: LoggerSinceRow[] }> {
-      const rows = await scope
-        .table('loggers')
-        .join('ingest_keys', (j) => j.on('ingest_keys.tenant_id', '=', 'loggers.tenant_id').andOn('ingest_keys.logger_id', '=', 'loggers.id'))
-        .whereNull('loggers.retired_at')
-        .whereNull('ingest_keys.revoked_at')
-        .groupBy('loggers.id', 'loggers.name')
-        .havingRaw('MAX(ingest_keys.last_used_at) IS NULL')
-        .select('loggers.id as loggerId', 'loggers.name as loggerName')
-        .min({ since: 'ingest_keys.created_at' })
-        .orderBy('since');
-      return { count: rows.length, rows: rows.slice(0, limit).map(toLoggerSince) };
+    async quarantinedWithReason(reason: string, cap: number): Promise<{ count: number; atLeast: boolean }> {
+      const [rows] = (await scope.raw(
+        'SELECT COUNT(*) AS n FROM (SELECT 1 FROM quarantined_rows FORCE INDEX (quarantine_reason_recent_index) WHERE quarantined_rows.tenant_id = :lab AND quarantined_rows.reason_code = ? LIMIT ?) AS matching',
+        [reason, cap],
+      )) as [Array<{ n: number }>];
+      const count = Number(rows[0]?.n ?? 0);
+      return { count, atLeast: count >= cap };
     },
 
-    /** Loggers in use without a working (unrevoked) key, oldest first, at most `limit`, with their count. */
-    async loggersWithoutKey(limit: number): Promise<{ count: number; rows: LoggerSinceRow[] }> {
+    /**
+     * Loggers in use whose working (unrevoked) keys were never used by a logger, and those without
+     * a working key, each oldest first and cut at `limit`, with their counts. One statement over
+     * the lab's loggers (a plan limit) joined to their keys along `ingest_keys_logger_index`.
+     */
+    async loggerKeys(limit: number): Promise<{ neverUsed: LoggerSinceRow[]; neverUsedCount: number; withoutKey: LoggerSinceRow[]; withoutKeyCount: number }> {
       const rows = await scope
         .table('loggers')
+        .leftJoin('ingest_keys', (j) =>
+          j.on('ingest_keys.tenant_id', '=', 'loggers.tenant_id').andOn('ingest_keys.logger_id', '=', 'loggers.id').andOnNull('ingest_keys.revoked_at'),
+        )
         .whereNull('loggers.retired_at')
-        .whereNotExists(function () {
-          this.select(this.client.raw('1'))
-            .from('ingest_keys')
-            .whereRaw('ingest_keys.tenant_id = loggers.tenant_id AND ingest_keys.logger_id = loggers.id')
-            .whereNull('ingest_keys.revoked_at');
-        })
-        .orderBy('loggers.created_at')
-        .select('loggers.id as loggerId', 'loggers.name as loggerName', 'loggers.created_at as since');
-      return { count: rows.length, rows: rows.slice(0, limit).map(toLoggerSince) };
+        .groupBy('loggers.id', 'loggers.name', 'loggers.created_at')
+        .havingRaw('MAX(ingest_keys.last_used_at) IS NULL')
+        .select('loggers.id as loggerId', 'loggers.name as loggerName', 'loggers.created_at as loggerCreatedAt')
+        .count({ keys: 'ingest_keys.id' })
+        .min({ keySince: 'ingest_keys.created_at' })
+        .orderBy('loggers.created_at');
+      const neverUsed: LoggerSinceRow[] = [];
+      const withoutKey: LoggerSinceRow[] = [];
+      for (const r of rows as Array<Record<string, unknown>>) {
+        const keyed = Number(r.keys) > 0;
+        (keyed ? neverUsed : withoutKey).push({
+          loggerId: Number(r.loggerId),
+          loggerName: r.loggerName as string,
+          since: (keyed ? r.keySince : r.loggerCreatedAt) as Date,
+        });
+      }
+      neverUsed.sort((a, b) => a.since.getTime() - b.since.getTime());
+      return {
+        neverUsed: neverUsed.slice(0, limit),
+        neverUsedCount: neverUsed.length,
+        withoutKey: withoutKey.slice(0, limit),
+        withoutKeyCount: withoutKey.length,
+      };
     },
 
     /** The newest audit event of `action` with its actor's name (audit_events_action_index, one row). */
@@ -165,10 +186,6 @@ export function labOverviewRepo(scope: LabScope) {
       return row ? (row.name as string) : null;
     },
   };
-}
-
-function toLoggerSince(r: Record<string, unknown>): LoggerSinceRow {
-  return { loggerId: Number(r.loggerId), loggerName: r.loggerName as string, since: r.since as Date };
 }
 
 export type LabOverviewRepo = ReturnType<typeof labOverviewRepo>;

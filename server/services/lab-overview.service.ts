@@ -2,7 +2,6 @@ import type { Db } from '../db/create-db.ts';
 import { inLab } from '../db/tenant-scope.ts';
 import { labOverviewRepo, type LoggerSinceRow } from '../db/lab-overview.repo.ts';
 import { channelStateRepo, type ChannelWithState } from '../db/channel-state.repo.ts';
-import { quarantineRepo } from '../db/quarantine.repo.ts';
 import { labBillingRepo } from '../db/lab-billing.repo.ts';
 import { can, type Permission } from '../policies/permissions.ts';
 import type { ChannelStatus } from '../contract/channels.ts';
@@ -30,8 +29,10 @@ export const UPLOAD_AUDIT_ACTION: AuditAction = 'logger.uploaded';
 
 /** Open alerts listed on the overview (the count covers all of them). */
 const RECENT_ALERTS = 5;
-/** Quarantine reasons listed, each counted up to the quarantine list's own cap. */
-const QUARANTINE_REASONS = 5;
+/** Quarantine reasons looked up (more than ingestion writes today). */
+const QUARANTINE_REASONS = 12;
+/** Each reason's rows are counted up to this many ("1,000 or more"): the kept counter gives the exact total. */
+const REASON_COUNT_CAP = 1000;
 
 const iso = (ms: number) => new Date(ms).toISOString();
 const num = (v: unknown) => (typeof v === 'number' && Number.isFinite(v) ? v : 0);
@@ -98,21 +99,19 @@ export function createLabOverviewService(deps: { db: Db; billing: Pick<BillingSe
     const scope = inLab(deps.db, labId);
     const waiting = (await labBillingRepo(scope).get())?.quarantinedCount ?? 0;
     if (waiting === 0) return { waiting, byReason: [] };
-    const reasons = await labOverviewRepo(scope).quarantineReasons(QUARANTINE_REASONS);
-    const quarantine = quarantineRepo(scope);
+    const repo = labOverviewRepo(scope);
+    const reasons = await repo.quarantineReasons(QUARANTINE_REASONS);
     const byReason = [];
     for (const r of reasons) {
-      const { count, atLeast } = await quarantine.countUpTo({ reasonCode: r.reason });
+      const { count, atLeast } = await repo.quarantinedWithReason(r.reason, REASON_COUNT_CAP);
       byReason.push({ reason: r.reason, count, atLeast, latestAt: r.latestAt.toISOString() });
     }
     return { waiting, byReason };
   }
 
   async function keysPart(labId: number): Promise<OverviewKeys> {
-    const repo = labOverviewRepo(inLab(deps.db, labId));
-    const unused = await repo.loggersWithUnusedKey(OVERVIEW_LIST_LIMIT);
-    const without = await repo.loggersWithoutKey(OVERVIEW_LIST_LIMIT);
-    return { neverUsed: unused.rows.map(loggerKey), neverUsedCount: unused.count, withoutKey: without.rows.map(loggerKey), withoutKeyCount: without.count };
+    const keys = await labOverviewRepo(inLab(deps.db, labId)).loggerKeys(OVERVIEW_LIST_LIMIT);
+    return { ...keys, neverUsed: keys.neverUsed.map(loggerKey), withoutKey: keys.withoutKey.map(loggerKey) };
   }
 
   async function planPart(lab: LabContext): Promise<OverviewPlan> {

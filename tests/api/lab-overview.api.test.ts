@@ -193,6 +193,32 @@ describe('GET /overview: each attention item when its condition holds', () => {
   });
 });
 
+describe('GET /overview: a large quarantine', () => {
+  it('lists every reason latest first and counts each up to 1,000 ("or more" beyond); the waiting total is the kept counter', async () => {
+    const f = await buildLabWithEverything(t.db); // one bad_value row, received now
+    const old = Date.now() - 86_400_000;
+    await t.db('quarantined_rows').insert(
+      Array.from({ length: 1001 }, (_, i) => ({
+        tenant_id: f.lab.id,
+        id: 8e12 + f.lab.id * 2000 + i,
+        source: 'upload',
+        row_index: i,
+        reason_code: 'bad_time',
+        reason: 'time: cannot be read',
+        received_at: new Date(old - i * 1000),
+      })),
+    );
+    await t.db('lab_billing').insert({ tenant_id: f.lab.id, plan_key: 'seedling', quarantined_count: 1002 });
+    const o = await overviewOf(f.lab.slug, await sessionCookieFor(t.db, t.config.sessionSecret, f.founder.id), t.app);
+    expect(o.quarantine!.waiting).toBe(1002);
+    expect(o.quarantine!.byReason.map(({ reason, count, atLeast }) => ({ reason, count, atLeast }))).toEqual([
+      { reason: 'bad_value', count: 1, atLeast: false },
+      { reason: 'bad_time', count: 1000, atLeast: true },
+    ]);
+    expect(o.quarantine!.byReason[1].latestAt).toBe(new Date(old).toISOString());
+  });
+});
+
 describe('GET /overview: what each role gets', () => {
   it('a guest and a scientist get channels and alerts only; a technician also quarantine, keys and the last upload; billing only for admins', async () => {
     const f = await buildLabWithEverything(t.db);

@@ -101,7 +101,7 @@ describe('the lab overview in the browser', () => {
     // the same page on a phone
     await page.setViewportSize({ width: 390, height: 844 });
     await attention().waitFor();
-    const overflow = await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
+    const overflow = Number(await page.evaluate('document.documentElement.scrollWidth - document.documentElement.clientWidth'));
     expect(overflow).toBeLessThanOrEqual(0);
     await keepScreenshot(page, 'lab-overview-attention-390');
     await page.setViewportSize({ width: 1280, height: 900 });
