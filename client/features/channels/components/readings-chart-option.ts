@@ -77,7 +77,7 @@ export function withTestReadings(option: EChartsCoreOption, points: readonly Tes
       type: 'scatter',
       data: offScale.map((p) => ({
         value: [p.ts, p.value < lo ? lo - pad : hi + pad],
-        label: { show: true, formatter: `test ${p.value}`, position: p.value < lo ? 'top' : 'bottom', color: TEST_INK },
+        label: { show: true, formatter: `test ${p.value}`, position: 'left', color: TEST_INK },
       })),
       ...marker,
       itemStyle: { ...marker.itemStyle, borderType: 'dashed' },
