@@ -135,6 +135,7 @@ export function createApp(deps: AppDeps): Express {
   // Half the database pool at most for logger batches; the rest stays free for people browsing.
   const ingest = createIngestService({ db, now: nowMs, hooks: ingestHooks, maxConcurrentBatches: Math.max(1, Math.ceil(config.db.poolMax / 2)) });
   const channels = createChannelsService({ db, now: nowMs });
+  const notes = createNotesService({ db, now: nowMs });
   const diagnostics = createDiagnosticsService({ db, channels, pool: deps.analysisPool });
   const tokens = createPersonalTokensService({ db, now: deps.now });
   const billingService = createBillingService({ db, stripe: deps.billing, catalog: plans, publicUrl: config.publicUrl, now: deps.now });
@@ -147,7 +148,7 @@ export function createApp(deps: AppDeps): Express {
     ...meRoutes({ me }),
     ...labRoutes({
       labs: labsService,
-      exports: createLabExportService({ db, channels, now: deps.now }),
+      exports: createLabExportService({ db, channels, notes, now: deps.now }),
       deletions: createLabDeletionService({ db, stripe: deps.billing, now: deps.now, onRequested: labDeletionJob.kick }),
     }),
     ...memberRoutes({ members }),
@@ -169,7 +170,7 @@ export function createApp(deps: AppDeps): Express {
       diagnosticsRuns: createDiagnosticsConcurrency({ maxPerPerson: config.diagnostics.runsPerPerson }),
     }),
     ...alertRoutes({ alerts: alerts.service, now: nowMs }),
-    ...noteRoutes({ notes: createNotesService({ db, now: nowMs }) }),
+    ...noteRoutes({ notes }),
     ...tokenRoutes({ tokens }),
     ...billingRoutes({ billing: billingService }),
     ...overviewRoutes({ overview: createLabOverviewService({ db, billing: billingService, now: nowMs }) }),

@@ -152,6 +152,16 @@ describe('full export', () => {
     expect(settings.alertRules).toEqual([
       expect.objectContaining({ id: f.ids.ruleId, name: 'Air too warm', kind: 'bounds', params: { low: null, high: 30, holdS: 0 } }),
     ]);
+    // the fixture's note (a probe cleaning on the channel, left out of analysis)
+    expect(settings.notes).toEqual([
+      expect.objectContaining({
+        id: f.ids.noteId,
+        channelId: f.ids.channelId,
+        text: 'Probe cleaned',
+        excludeFromAnalysis: true,
+        kind: expect.objectContaining({ name: 'maintenance' }),
+      }),
+    ]);
     expect(Object.keys(files).sort()).toEqual([
       'ABOUT.txt',
       'lab.json',
@@ -175,7 +185,7 @@ describe('full export', () => {
     }
     expect(files[settings.channels[1].readingsFile].split('\r\n')).toHaveLength(25_003 + 2);
     const [event] = await auditOf('lab.exported');
-    expect(event.details).toMatchObject({ channels: 2, loggers: 1 });
+    expect(event.details).toMatchObject({ channels: 2, loggers: 1, notes: 1 });
   });
 
   it('answers 404 for a lab the admin does not belong to, 401 signed out', async () => {
