@@ -11,8 +11,9 @@ import { TEST_READING_REMOVABLE_MS, type TestReadingVerdict } from '../contract/
 import type { TimeRange } from '../contract/channels.ts';
 import type { Actor, LabContext } from './lab-context.ts';
 
-/** How many test readings the logger page lists, and the most one channel range answers. */
+/** How many test readings the logger page lists. */
 export const RECENT_TEST_READINGS = 10;
+/** The most test readings one channel range answers (a chart needs no more). */
 export const MAX_TEST_READINGS_IN_RANGE = 1000;
 
 /** What sending a test reading did: what was sent, what a logger's reading would get, and what was kept. */
