@@ -273,7 +273,7 @@ describe('discard with a reason', () => {
 });
 
 describe('refusals', () => {
-  it('answers 400 field: reason for an empty selection, an unreadable pattern, rows no longer there, and bad input', async () => {
+  it('answers 400 field: reason for an empty selection, an unreadable pattern and bad input, and applies nothing', async () => {
     const lab = await newLab();
     await ingest(lab, dayFirstRows(2));
     const cases: Array<[unknown, string]> = [
