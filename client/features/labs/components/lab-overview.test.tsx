@@ -8,8 +8,8 @@ import { LabOverview, type OverviewHelpers } from './lab-overview.tsx';
 
 afterEach(cleanup);
 
-const detail = (role: Role, extra: Record<string, unknown> = {}): LabDetail => ({
-  lab: { slug: 'fernhollow', name: 'Fernhollow Field Station', createdAt: '2026-01-02T09:00:00Z', ...extra } as LabDetail['lab'],
+const detail = (role: Role, extra: Partial<LabDetail['lab']> = {}): LabDetail => ({
+  lab: { slug: 'fernhollow', name: 'Fernhollow Field Station', description: '', createdAt: '2026-01-02T09:00:00Z', ...extra },
   role,
   permissions: [...ROLE_PERMISSIONS[role]],
 });

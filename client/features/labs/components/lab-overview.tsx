@@ -70,8 +70,7 @@ function AttentionList({ entries, helpers }: { entries: AttentionEntry[]; helper
 
 function LabFacts({ detail }: { detail: LabDetail }) {
   const { lab, role } = detail;
-  // `description` arrives with the lab settings (issue #18); older answers have none
-  const description = (lab as { description?: string | null }).description;
+  const description = lab.description.trim();
   return (
     <dl className="grid grid-cols-[auto_1fr] gap-x-6 gap-y-2 rounded-xl border border-rule bg-card p-5 text-sm">
       <dt className="text-ink-soft">Your role</dt>
