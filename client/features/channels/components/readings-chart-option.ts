@@ -241,13 +241,17 @@ export function withNoteSpans(option: EChartsCoreOption, spans: readonly NoteSpa
   const series = option.series as EChartsCoreOption[];
   const shaded = shown.map((s) => {
     const from = Math.max(s.from, range.from);
-    const to = Math.max(Math.min(s.to, range.to), from + (range.to - range.from) / 400);
+    // at least 1/150 of the range wide, so a half-hour cleaning stays visible on a week
+    const to = Math.max(Math.min(s.to, range.to), from + (range.to - range.from) / 150);
     return {
       name: `Note: ${s.label}`,
       type: 'line',
       yAxisIndex: yAxes.length,
       data: [{ value: [from, 1], label: { show: true, formatter: s.label.length > 48 ? `${s.label.slice(0, 47)}…` : s.label, position: 'right' } }, [to, 1]],
-      showSymbol: false,
+      // a line series draws data labels on its symbols: a small mark at the span's top left carries the words
+      showSymbol: true,
+      symbol: 'circle',
+      symbolSize: 3,
       label: { color: NOTE_INK, fontSize: 11, offset: [2, 10] },
       lineStyle: { width: 0 },
       itemStyle: { color: NOTE_INK },
@@ -261,4 +265,11 @@ export function withNoteSpans(option: EChartsCoreOption, spans: readonly NoteSpa
   const own = option.legend as (EChartsCoreOption & { data?: unknown[] }) | undefined;
   const legend = own ? { ...own, data: own.data ?? series.map((s) => s.name).filter(Boolean) } : undefined;
   return { ...option, ...(legend ? { legend } : {}), yAxis: [...yAxes, { type: 'value', min: 0, max: 1, show: false }], series: [...series, ...shaded] };
+}
+
+/** The notes shaded on the chart, in words for the figure's caption (empty when none falls in the range). */
+export function noteSpansSummary(spans: readonly NoteSpan[], range: TimeRange): string {
+  const shown = spans.filter((s) => s.to > range.from && s.from < range.to);
+  if (shown.length === 0) return '';
+  return ` Shaded: ${shown.length} note${shown.length === 1 ? '' : 's'} (${shown.map((s) => s.label).join('; ')}).`;
 }

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { EChartsCoreOption } from 'echarts/core';
-import { withNoteSpans } from './readings-chart-option.ts';
+import { noteSpansSummary, withNoteSpans } from './readings-chart-option.ts';
 
 /** The fields of a shaded note series these tests read. */
 interface SpanSeries {
@@ -34,5 +34,14 @@ describe('withNoteSpans', () => {
     expect(withNoteSpans(option, [{ from: 200_000, to: 300_000, label: 'later', excluded: false }], range)).toBe(option);
     const out = withNoteSpans(option, [{ from: 5000, to: 6000, label: 'x', excluded: false }], range);
     expect((out.series as SpanSeries[])[1].areaStyle.color).toBe('rgba(63, 84, 120, 0.1)');
+  });
+
+  it('names the shaded notes in the caption, and only those in the range', () => {
+    const spans = [
+      { from: 5000, to: 6000, label: 'maintenance: Probe cleaned', excluded: true },
+      { from: 500_000, to: 600_000, label: 'later', excluded: false },
+    ];
+    expect(noteSpansSummary(spans, range)).toBe(' Shaded: 1 note (maintenance: Probe cleaned).');
+    expect(noteSpansSummary([], range)).toBe('');
   });
 });

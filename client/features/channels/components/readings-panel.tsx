@@ -8,7 +8,7 @@ import { readingsCsvUrl, useSeries } from '../api/get-series.ts';
 import { useChannelTestReadings } from '../../loggers/api/test-readings.ts';
 import { RangePicker } from './range-picker.tsx';
 import { zoomedRange, type RangePreset } from './range-presets.ts';
-import { readingsChartOption, readingsSummary, withNoteSpans, type NoteSpan } from './readings-chart-option.ts';
+import { noteSpansSummary, readingsChartOption, readingsSummary, withNoteSpans, type NoteSpan } from './readings-chart-option.ts';
 import { testReadingsSummary, withTestReadings, type TestReadingPoint } from './readings-chart-option.ts';
 
 const ZOOM_SETTLE_MS = 450;
@@ -131,7 +131,7 @@ export function ReadingsPanel({
           <EChart
             option={option}
             label={`Readings of ${channel.label}`}
-            summary={readingsSummary(data, ctx) + testReadingsSummary(tests, ctx)}
+            summary={readingsSummary(data, ctx) + testReadingsSummary(tests, ctx) + noteSpansSummary(notes, range)}
             height={360}
             pngName={`${slug}-${channel.key}-readings`}
             onZoom={onZoom}
