@@ -183,7 +183,7 @@ describe('QuarantineReview', () => {
     });
     let polls = 0;
     const api = fakeApi({
-      'GET /api/v1/labs/fernhollow/quarantine': () => pageOf([BAD_VALUE], 120, '1790000000000.4321.801'),
+      'GET /api/v1/labs/fernhollow/quarantine': () => (polls < 2 ? pageOf([BAD_VALUE], 120, '1790000000000.4321.801') : pageOf([], 0)),
       'POST /api/v1/labs/fernhollow/quarantine/bulk/preview': () => ({ status: 200, body: preview }),
       'POST /api/v1/labs/fernhollow/quarantine/bulk/runs': () => run('running', 0),
       'GET /api/v1/labs/fernhollow/quarantine/bulk/runs/77': () => (++polls === 1 ? run('running', 60) : run('done', 120)),
@@ -212,5 +212,8 @@ describe('QuarantineReview', () => {
     expect(await within(panel).findByText(/Repair done: 120 rows/, {}, { timeout: 5000 })).toBeTruthy();
     expect(polls).toBe(2);
     expect(within(panel).getByText('Still in quarantine').nextSibling!.textContent).toBe('1');
+    // the list is asked again once the run has ended: the repaired rows are gone
+    expect(await screen.findByText('No rows match the filter now')).toBeTruthy();
+    expect((screen.getByRole('button', { name: 'Repair in bulk…' }) as HTMLButtonElement).disabled).toBe(true);
   });
 });

@@ -96,7 +96,11 @@ export function QuarantineReview({ slug, loggers }: { slug: string; loggers: Arr
       />
       <div className="flex flex-wrap items-center gap-3" role="group" aria-label="Selection">
         <span className="text-sm text-ink-soft" aria-live="polite">
-          {allMatching ? `All ${total.toLocaleString('en')} matching rows selected` : `${chosen.length} selected`}
+          {allMatching
+            ? total > 0
+              ? `All ${total.toLocaleString('en')} matching rows selected`
+              : 'No rows match the filter now'
+            : `${chosen.length} selected`}
         </span>
         {allMatching ? (
           <Button size="sm" tone="quiet" onClick={clearSelection}>
@@ -121,7 +125,7 @@ export function QuarantineReview({ slug, loggers }: { slug: string; loggers: Arr
         )}
         <Button
           size="sm"
-          disabled={!allMatching && chosen.length === 0}
+          disabled={allMatching ? total === 0 : chosen.length === 0}
           onClick={() =>
             setBulk({
               selection: bulkSelection,
