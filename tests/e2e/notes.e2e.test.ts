@@ -6,7 +6,6 @@ import { browserSuite } from '../support/browser-suite.ts';
 import { signInAsMemberOfNewLab } from '../support/browser-lab-member.ts';
 import { createLoggersService } from '../../server/services/loggers.service.ts';
 import { ingestBatch, type IncomingReading } from '../../server/services/ingest/ingest-batch.ts';
-import { toZonedInput } from '../../client/components/zoned-time.ts';
 import { DEV_ACCOUNTS } from '../../tenants/demo/people.ts';
 
 const technician = DEV_ACCOUNTS.find((a) => a.role === 'technician')!;
@@ -18,6 +17,24 @@ const run = Date.now().toString(36);
 const STEP_MS = 600_000;
 const N = 3 * 144;
 const ZONE = 'Europe/Berlin';
+
+/** What a `datetime-local` input holds for instant `ms` on the wall clock of `zone` (`2026-12-02T06:50`), from the platform's IANA data. */
+function toZonedInput(ms: number, zone: string): string {
+  const parts = Object.fromEntries(
+    new Intl.DateTimeFormat('en-GB', {
+      timeZone: zone,
+      year: 'numeric',
+      month: '2-digit',
+      day: '2-digit',
+      hour: '2-digit',
+      minute: '2-digit',
+      hourCycle: 'h23',
+    })
+      .formatToParts(ms)
+      .map((p) => [p.type, p.value]),
+  );
+  return `${parts.year}-${parts.month}-${parts.day}T${parts.hour}:${parts.minute}`;
+}
 
 const suite = browserSuite();
 let page: Page;
