@@ -16,7 +16,8 @@ export interface NoteFormValues {
   excludeFromAnalysis: boolean;
 }
 
-const FIELDS = ['kindId', 'text', 'start', 'end', 'channelId', 'loggerId'] as const;
+// fields with a control of their own; a refusal naming another (channelId, loggerId) shows whole above the buttons
+const FIELDS = ['kindId', 'text', 'start', 'end'] as const;
 
 /**
  * Add or change a note: kind (the lab's kinds in use; a retired kind only when the note
