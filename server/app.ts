@@ -129,7 +129,8 @@ export function createApp(deps: AppDeps): Express {
   ]);
   /** Scheduled work main.ts starts after listening (tests drive each job directly instead). */
   // Removes deleted labs' rows in batches; a deletion request starts a run at once.
-  const labDeletionJob = createLabDeletionJob({ db, logger, now: deps.now });
+  const labDeletions = createLabDeletionService({ db, stripe: deps.billing, now: deps.now, onRequested: () => labDeletionJob.kick() });
+  const labDeletionJob = createLabDeletionJob({ db, logger, now: deps.now, beforeRun: labDeletions.settleStalled });
   const backgroundJobs: BackgroundJob[] = [usageJob.job, alerts.job, labDeletionJob.job];
   const quarantine = createQuarantineService({ db, now: nowMs, hooks: ingestHooks, logger });
   // Half the database pool at most for logger batches; the rest stays free for people browsing.
@@ -149,7 +150,7 @@ export function createApp(deps: AppDeps): Express {
     ...labRoutes({
       labs: labsService,
       exports: createLabExportService({ db, channels, notes, now: deps.now }),
-      deletions: createLabDeletionService({ db, stripe: deps.billing, now: deps.now, onRequested: labDeletionJob.kick }),
+      deletions: labDeletions,
     }),
     ...memberRoutes({ members }),
     ...invitationRoutes({ invitations, sendLimit: limits.invitations }),

@@ -66,6 +66,11 @@ export function labDeletionsRepo(db: DbOrTrx) {
       await db('lab_deletions').where({ id }).whereNull('ready_at').delete();
     },
 
+    /** Deletions whose request stopped before handing them to the job (requested before `before`, still not ready). */
+    async stalled(before: Date): Promise<LabDeletionRecord[]> {
+      return (await db('lab_deletions').whereNull('ready_at').where('requested_at', '<', before).orderBy('id')).map(toRecord);
+    },
+
     /** Deletions ready for the job whose rows are not all removed yet, oldest first: the deletion job's work list. */
     async unfinished(): Promise<LabDeletionRecord[]> {
       return (await db('lab_deletions').whereNotNull('ready_at').whereNull('finished_at').orderBy('id')).map(toRecord);

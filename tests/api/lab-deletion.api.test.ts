@@ -8,6 +8,7 @@ import { waitForMail } from '../../docker-free-scripts/mail-capture/read-capture
 import { LAB_OWNED_TABLES } from '../../server/db/tenant-scope.ts';
 import { DELETION_ORDER } from '../../server/services/lab-deletion/deletion-order.ts';
 import { createLabDeletionJob, type DeletionBatch } from '../../server/services/lab-deletion/lab-deletion-job.ts';
+import { createLabDeletionService } from '../../server/services/lab-deletion/lab-deletion.service.ts';
 import { createStripeClient } from '../../server/integrations/billing/create-stripe-client.ts';
 import { createLogWriter } from '../../server/log-writer.ts';
 import { loadPlanCatalog } from '../../server/services/billing/plan-catalog.ts';
@@ -60,11 +61,15 @@ const billingOf = async (labId: number) => t.db('lab_billing').where({ tenant_id
 const requestDeletion = (confirmName: unknown, cookie = cookieA) => request(t.app).post(pathA('/deletion')).set('Cookie', cookie).send({ confirmName });
 
 /** Buys the paid plan through the stand-in's checkout page, as a browser would. */
-async function subscribe(): Promise<void> {
-  const started = await request(t.app).post(pathA('/billing/checkout-session')).set('Cookie', cookieA).send({ plan: paidPlan.key }).expect(201);
+async function subscribe(lab = A, cookie = cookieA): Promise<void> {
+  const started = await request(t.app)
+    .post(`/api/v1/labs/${lab.lab.slug}/billing/checkout-session`)
+    .set('Cookie', cookie)
+    .send({ plan: paidPlan.key })
+    .expect(201);
   const paid = await fetch(new URL(`${new URL(started.body.url).pathname}/pay`, started.body.url), { method: 'POST', redirect: 'manual' });
   expect(paid.status).toBe(303);
-  await eventually(async () => (await billingOf(A.lab.id))?.status === 'active');
+  await eventually(async () => (await billingOf(lab.lab.id))?.status === 'active');
 }
 
 /** Presses a button of the stand-in's billing portal for A's subscription. */
@@ -250,6 +255,46 @@ describe('deleting a lab', () => {
     expect(JSON.parse(record.rows_removed)).toEqual(Object.fromEntries(Object.entries(before.aCounts).filter(([, n]) => n > 0)));
     // a third run has nothing to do
     expect(await resumed.runOnce()).toEqual({ finished: [], failed: [] });
+  });
+
+  it('a deletion whose request died while Stripe was asked is finished by the job after 15 minutes: subscription cancelled, rows removed', async () => {
+    const D = await buildLabWithEverything(t.db, { name: 'Crashed request lab' });
+    await subscribe(D, await sessionCookieFor(t.db, t.config.sessionSecret, D.founder.id));
+    const subscription = (await billingOf(D.lab.id)).subscription as string;
+    const fresh = await buildLabWithEverything(t.db, { name: 'Request still running' });
+    // the state a request leaves when the process dies right after closing the lab: lab marked, record not ready
+    const now = Date.now();
+    for (const [lab, ageMs] of [
+      [D, 20 * 60_000],
+      [fresh, 60_000],
+    ] as const) {
+      await t
+        .db('labs')
+        .where({ id: lab.lab.id })
+        .update({ deleted_at: new Date(now - ageMs) });
+      await t.db('lab_deletions').insert({
+        lab_id: lab.lab.id,
+        lab_slug: lab.lab.slug,
+        lab_name: lab.lab.name,
+        requested_by_user_id: lab.founder.id,
+        requested_by_name: 'Crash test',
+        requested_by_email: lab.founder.email,
+        requested_at: new Date(now - ageMs),
+        rows_removed: '{}',
+      });
+    }
+    const service = createLabDeletionService({ db: t.db, stripe: createStripeClient(t.config.stripe) });
+    const job = createLabDeletionJob({ db: t.db, logger, beforeRun: service.settleStalled });
+    const run = await job.runOnce();
+    expect(run.finished).toContain(D.lab.id);
+    expect(run.finished).not.toContain(fresh.lab.id);
+    expect((await createStripeClient(t.config.stripe).subscriptions.retrieve(subscription)).status).toBe('canceled');
+    expect(await t.db('labs').where({ id: D.lab.id })).toEqual([]);
+    expect(await t.db('lab_deletions').where({ lab_id: D.lab.id }).first('stripe_subscription_id')).toEqual({ stripe_subscription_id: subscription });
+    // the request that may still be talking to Stripe is left alone
+    expect(await t.db('lab_deletions').where({ lab_id: fresh.lab.id }).first('ready_at')).toEqual({ ready_at: null });
+    expect(await t.db('labs').where({ id: fresh.lab.id })).toHaveLength(1);
+    await t.db('lab_deletions').where({ lab_id: fresh.lab.id }).delete();
   });
 
   it('removes children before the rows they reference: DELETION_ORDER against every foreign key between lab-owned tables', async () => {

@@ -41,6 +41,8 @@ export function createLabDeletionJob(deps: {
   batchRows?: number;
   /** Called after each committed batch (tests throw here to simulate a crash). */
   afterBatch?: (batch: DeletionBatch) => void | Promise<void>;
+  /** Called at the start of each run: hands over deletions whose request died midway (LabDeletionService.settleStalled). */
+  beforeRun?: () => Promise<unknown>;
 }) {
   const now = deps.now ?? (() => new Date());
   const batchRows = deps.batchRows ?? DELETION_BATCH_ROWS;
@@ -83,6 +85,7 @@ export function createLabDeletionJob(deps: {
   /** Works through every unfinished deletion once; a failing one is noted on its record and retried next run. */
   async function runOnce(): Promise<DeletionRunSummary> {
     const summary: DeletionRunSummary = { finished: [], failed: [] };
+    await deps.beforeRun?.().catch((err: unknown) => deps.logger.warn('stalled lab deletions not settled; the next run retries', { err: String(err) }));
     for (const record of await labDeletionsRepo(deps.db).unfinished()) {
       try {
         await finish(record);

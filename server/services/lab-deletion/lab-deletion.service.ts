@@ -34,6 +34,9 @@ function isMissingOnStripe(err: unknown): boolean {
  * hands the record to the deletion job, which removes the rows in batches (`onRequested`
  * starts it). Stripe failing reopens the lab as it was and answers 503: nothing half-applied.
  */
+/** A request still unfinished after this long died on its way (the Stripe SDK gives up after about 20 s). */
+export const STALLED_AFTER_MS = 15 * 60_000;
+
 export function createLabDeletionService(deps: { db: Db; stripe: Stripe; now?: () => Date; onRequested?: () => void }) {
   const now = deps.now ?? (() => new Date());
 
@@ -53,6 +56,28 @@ export function createLabDeletionService(deps: { db: Db; stripe: Stripe; now?: (
   }
 
   return {
+    /**
+     * Finishes deletions whose request died between closing the lab and handing it to the job
+     * (a crash while Stripe was asked): cancels the subscription if it is still running, then
+     * hands the record to the job. Stripe still failing leaves it for the next run. The deletion
+     * job calls this before each run.
+     */
+    async settleStalled(): Promise<number> {
+      let settled = 0;
+      for (const record of await labDeletionsRepo(deps.db).stalled(new Date(now().getTime() - STALLED_AFTER_MS))) {
+        const billing = await labBillingRepo(inLab(deps.db, record.labId)).get();
+        let cancelled: string | null;
+        try {
+          cancelled = billing?.stripeSubscriptionId && billing.status !== 'canceled' ? await cancelSubscription(billing.stripeSubscriptionId) : null;
+        } catch {
+          continue;
+        }
+        await labDeletionsRepo(deps.db).markReady(record.id, now(), cancelled);
+        settled++;
+      }
+      return settled;
+    },
+
     /** Deletes the lab for `actor` after checking `input.confirmName` against its name (see the factory's comment). */
     async request(lab: LabContext, actor: Actor, input: DeleteLabInput): Promise<LabDeletionStarted> {
       const current = await labsRepo(deps.db).findById(lab.id);
