@@ -94,11 +94,16 @@ describe('a note on a time range, through the browser', () => {
 
     // diagnostics leave the noted span out and say so in their method section
     const diagnostics = page.getByRole('region', { name: 'Diagnostics' });
+    // the daily cycle as the season (144 steps of 10 minutes), so there is a decomposition to shade
+    await diagnostics.getByLabel('Seasonal period').selectOption('manual');
+    await diagnostics.getByLabel('Period (steps)').fill('144');
     await diagnostics.getByRole('button', { name: 'Analyse' }).click();
     await diagnostics.getByTestId('diagnostics-results').waitFor({ timeout: 60_000 });
     const applied = diagnostics.getByTestId('excluded-note');
     expect(await applied.count()).toBe(1);
     expect(await applied.textContent()).toContain('Probe lifted out and cleaned');
+    // the decomposition shades the span too, and says so under the chart
+    await diagnostics.getByText('Shaded: 1 span left out of the analysis (maintenance).', { exact: false }).waitFor();
     await applied.scrollIntoViewIfNeeded();
     await keepScreenshot(page, 'notes-in-diagnostics-method');
 
