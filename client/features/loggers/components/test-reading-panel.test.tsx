@@ -58,7 +58,11 @@ describe('test reading panel', () => {
                 timezone: 'UTC',
               },
             }
-          : apiError(409, 'outside_valid_range', 'value: -99999 °C is outside the valid range -40…60 °C; send again with confirmation to store it as a test reading'),
+          : apiError(
+              409,
+              'outside_valid_range',
+              'value: -99999 °C is outside the valid range -40…60 °C; send again with confirmation to store it as a test reading',
+            ),
     });
     render();
     fireEvent.change(screen.getByLabelText('Value'), { target: { value: '-99999' } });

@@ -41,7 +41,12 @@ function RemoveButton({ slug, reading, receivedAt }: { slug: string; reading: Te
   if (reading.removableByYouForMs <= 0 || now >= deadline) return null;
   return (
     <span className="inline-flex flex-wrap items-center gap-2">
-      <Button size="sm" onClick={() => remove.mutate(reading.id)} disabled={remove.isPending} aria-label={`Remove test reading ${reading.channel} = ${reading.value}`}>
+      <Button
+        size="sm"
+        onClick={() => remove.mutate(reading.id)}
+        disabled={remove.isPending}
+        aria-label={`Remove test reading ${reading.channel} = ${reading.value}`}
+      >
         {remove.isPending ? 'Removing…' : `Remove (${countdownText(deadline - now)} left)`}
       </Button>
       {remove.isError && <span className="text-xs text-alert">{remove.error.message}</span>}
@@ -194,7 +199,11 @@ export function TestReadingPanel({ slug, loggerId, channels }: { slug: string; l
       </p>
       {channel && <SafetyCautionNote channel={channel} />}
       {question && asked ? (
-        <div role="alertdialog" aria-label="Confirm a value outside the valid range" className="grid gap-2 rounded-lg border border-alert/30 bg-alert/5 p-3 text-sm">
+        <div
+          role="alertdialog"
+          aria-label="Confirm a value outside the valid range"
+          className="grid gap-2 rounded-lg border border-alert/30 bg-alert/5 p-3 text-sm"
+        >
           <p>{question}.</p>
           <div className="flex flex-wrap gap-2">
             <Button tone="primary" size="sm" onClick={() => post({ ...asked, confirmOutsideRange: true })}>
