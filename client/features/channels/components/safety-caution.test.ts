@@ -17,6 +17,8 @@ describe('needsSafetyCaution', () => {
     expect(needsSafetyCaution(ch('Air temperature', 'air_t', '°C', 'temperature'))).toBe(false);
     expect(needsSafetyCaution(ch('Soil moisture', 'soil_vwc', '%'))).toBe(false);
     expect(needsSafetyCaution(ch('Pond dissolved oxygen', 'pond_do', 'mg/L', 'dissolved oxygen'))).toBe(false);
+    // a capitalised label (the demo's brook gauge) is the same thing
+    expect(needsSafetyCaution(ch('Dissolved oxygen saturation', 'do_sat', '%', null))).toBe(false);
     expect(needsSafetyCaution(ch('Incubator door', 'inc_door', 'open/closed'))).toBe(false);
   });
 });
