@@ -48,6 +48,12 @@ module.exports = {
       [CLIENT_TEST_ORACLES],
     ),
     forbid(
+      'features-share-only-their-api',
+      'A client feature imports another feature only through its api/ (query options and server-state hooks, so one resource has one cache entry); shared components live in client/components/.',
+      { path: '^client/features/([^/]+)/' },
+      { path: '^client/features/', pathNot: ['^client/features/$1/', '^client/features/[^/]+/api/'] },
+    ),
+    forbid(
       'services-never-import-http',
       'http → services → db: a service never reaches back into the HTTP layer (schemas, routers, presenters).',
       { path: '^server/services/' },

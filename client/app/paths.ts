@@ -24,7 +24,7 @@ export const paths = {
     href: (slug: string, loggerId: number) => `/labs/${encodeURIComponent(slug)}/loggers/${loggerId}/upload`,
   },
   labChannels: { path: '/labs/:lab/channels', href: (slug: string) => `/labs/${encodeURIComponent(slug)}/channels` },
-  // `search` from writeTogetherParams (client/features/overlay/components/together-url.ts): channels, from, to, zone
+  // `search` from writeTogetherParams (client/features/channels/components/together-url.ts): channels, from, to, zone
   labChannelsTogether: {
     path: '/labs/:lab/channels/together',
     href: (slug: string, search = '') => `/labs/${encodeURIComponent(slug)}/channels/together${search && !search.startsWith('?') ? `?${search}` : search}`,

@@ -6,7 +6,7 @@ import type { TimeRange } from '@shared/contract/channels.ts';
 import { ChannelHeader } from '../../features/channels/components/channel-header.tsx';
 import { presetRange, type RangePreset } from '../../features/channels/components/range-presets.ts';
 import { ReadingsPanel } from '../../features/channels/components/readings-panel.tsx';
-import { SafetyCautionNote } from '../../features/channels/components/safety-caution-note.tsx';
+import { SafetyCautionNote } from '../../components/safety-caution-note.tsx';
 import { CrossCorrelationPanel } from '../../features/diagnostics/components/cross-correlation-panel.tsx';
 import { DiagnosticsPanel } from '../../features/diagnostics/components/diagnostics-panel.tsx';
 import { RangeComparisonPanel } from '../../features/diagnostics/components/range-comparison-panel.tsx';

@@ -1,4 +1,4 @@
-import { ChannelsTogether } from '../../features/overlay/components/channels-together.tsx';
+import { ChannelsTogether } from '../../features/channels/components/channels-together.tsx';
 import { MissingPermission } from '../../features/labs/components/lab-not-found.tsx';
 import { useLabContext } from './lab-context.ts';
 

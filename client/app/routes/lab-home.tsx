@@ -1,7 +1,7 @@
 import { LabOverview, type OverviewHelpers } from '../../features/labs/components/lab-overview.tsx';
 import { useOverview } from '../../features/labs/api/get-overview.ts';
-import { needsSafetyCaution } from '../../features/channels/components/safety-caution.ts';
-import { SafetyCautionNote } from '../../features/channels/components/safety-caution-note.tsx';
+import { needsSafetyCaution } from '../../components/safety-caution.ts';
+import { SafetyCautionNote } from '../../components/safety-caution-note.tsx';
 import { isReasonCode, REASON_LABELS } from '../../features/quarantine/components/reason-labels.ts';
 import { useLabContext } from './lab-context.ts';
 

@@ -5,7 +5,7 @@ import { Notice } from '../../../components/notice.tsx';
 import { formatZoned, zoneOffsetLabel } from '../../../components/zoned-time.ts';
 import { ApiError } from '../../../lib/api-client.ts';
 import type { Channel, TestReading, TestReadingBody, TestReadingResult } from '@shared/contract/loggers.ts';
-import { SafetyCautionNote } from '../../channels/components/safety-caution-note.tsx';
+import { SafetyCautionNote } from '../../../components/safety-caution-note.tsx';
 import { useSendTestReading } from '../api/send-test-reading.ts';
 import { useLoggerTestReadings, useRemoveTestReading } from '../api/test-readings.ts';
 import { sampleValue } from './ingest-example.ts';

@@ -1,8 +1,8 @@
 import { useMemo } from 'react';
 import { useQueries } from '@tanstack/react-query';
 import type { ChannelState } from '@shared/contract/channels.ts';
-import { useChannels } from '../../channels/api/get-channels.ts';
-import { channelQueryOptions } from '../../channels/api/get-channel.ts';
+import { useChannels } from '../api/get-channels.ts';
+import { channelQueryOptions } from '../api/get-channel.ts';
 import { ApiError } from '../../../lib/api-client.ts';
 
 /** The channels a URL names, found in the lab, with what could not be used. */
