@@ -1,10 +1,9 @@
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
-import { buildLab, buildMember, buildUser, sessionCookieFor, type TestLab } from '../support/factories.ts';
+import { buildLab, buildMember, buildUser, sessionCookieFor, standInAppDeps, type TestLab } from '../support/factories.ts';
 import { fetchCapturedMail, waitForMail } from '../../docker-free-scripts/mail-capture/read-captured-mail.ts';
 import { createApp } from '../../server/app.ts';
-import { createLogWriter } from '../../server/log-writer.ts';
 
 const mailUrl = process.env.LAGBOOK_MAIL_CAPTURE_URL!;
 let t: TestApp;
@@ -17,30 +16,20 @@ afterAll(async () => t.close());
 
 /** The same app with a movable clock, to check expiry. */
 function appWithClock() {
-  return createApp({
-    config: t.config,
-    db: t.db,
-    logger: createLogWriter({ silent: true }),
-    identity: {
-      endpoints: {
-        issuer: t.config.oidc.issuer,
-        authorization_endpoint: `${t.config.oidc.issuer}/auth`,
-        token_endpoint: `${t.config.oidc.issuer}/token`,
-        userinfo_endpoint: `${t.config.oidc.issuer}/me`,
+  return createApp(
+    standInAppDeps(t, {
+      mailer: {
+        send: (m) =>
+          import('../../server/integrations/mail/create-mailer.ts').then(({ createMailer }) => {
+            const real = createMailer(t.config.smtp);
+            return real.send(m).finally(() => real.close());
+          }),
+        verify: async () => true,
+        close: () => {},
       },
-    },
-    mailer: {
-      send: (m) =>
-        import('../../server/integrations/mail/create-mailer.ts').then(({ createMailer }) => {
-          const real = createMailer(t.config.smtp);
-          return real.send(m).finally(() => real.close());
-        }),
-      verify: async () => true,
-      close: () => {},
-    },
-    billing: {} as never,
-    now: () => new Date(clock),
-  });
+      now: () => new Date(clock),
+    }),
+  );
 }
 
 let lab: TestLab;
@@ -191,22 +180,17 @@ describe('invitations', () => {
   });
 
   it('when the mail server is down the invitation is not saved and the admin is told', async () => {
-    const app = createApp({
-      config: t.config,
-      db: t.db,
-      logger: createLogWriter({ silent: true }),
-      identity: {
-        endpoints: { issuer: t.config.oidc.issuer, authorization_endpoint: 'http://x/a', token_endpoint: 'http://x/t', userinfo_endpoint: 'http://x/u' },
-      },
-      mailer: {
-        send: async () => {
-          throw new Error('ECONNREFUSED');
+    const app = createApp(
+      standInAppDeps(t, {
+        mailer: {
+          send: async () => {
+            throw new Error('ECONNREFUSED');
+          },
+          verify: async () => false,
+          close: () => {},
         },
-        verify: async () => false,
-        close: () => {},
-      },
-      billing: {} as never,
-    });
+      }),
+    );
     const res = await request(app)
       .post(`/api/v1/labs/${lab.slug}/invitations`)
       .set('Cookie', adminCookie)

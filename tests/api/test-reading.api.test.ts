@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import type { Express } from 'express';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
-import { buildMember, sessionCookieFor } from '../support/factories.ts';
+import { buildMember, sessionCookieFor, standInAppDeps } from '../support/factories.ts';
 import { buildLabWithEverything, type LabWithEverything } from '../support/lab-fixture.ts';
 import { createApp } from '../../server/app.ts';
 import { createLogWriter } from '../../server/log-writer.ts';
@@ -31,23 +31,7 @@ let scientist: string;
 beforeAll(async () => {
   t = await buildTestApp();
   // the real app on a movable service clock, still failing on statuses its route table does not document
-  app = createApp({
-    config: t.config,
-    db: t.db,
-    logger: createLogWriter({ silent: true }),
-    identity: {
-      endpoints: {
-        issuer: t.config.oidc.issuer,
-        authorization_endpoint: `${t.config.oidc.issuer}/auth`,
-        token_endpoint: `${t.config.oidc.issuer}/token`,
-        userinfo_endpoint: `${t.config.oidc.issuer}/me`,
-      },
-    },
-    mailer: { send: async () => {}, verify: async () => true, close: () => {} },
-    billing: {} as never,
-    now: () => new Date(clock),
-    onUndocumentedStatus: (where, status) => undocumented.push(`${where} answered ${status}`),
-  });
+  app = createApp(standInAppDeps(t, { now: () => new Date(clock), onUndocumentedStatus: (where, status) => undocumented.push(`${where} answered ${status}`) }));
   A = await buildLabWithEverything(t.db, { name: 'Test Reading Lab A' });
   B = await buildLabWithEverything(t.db, { name: 'Test Reading Lab B' });
   const techUser = await buildMember(t.db, A.lab, { role: 'technician', displayName: 'Tove Technician' });
