@@ -8,6 +8,8 @@ export interface LabContext {
   id: number;
   slug: string;
   name: string;
+  /** Plain text the admins wrote about the lab ('' when none). */
+  description: string;
   createdAt: Date;
   /** The signed-in person's role in this lab. */
   role: Role;

@@ -116,9 +116,9 @@ export function createLabsService(deps: { db: Db; caps?: LabCreationCaps; catalo
   }
 
   return {
-    /** The lab the guard resolved, with its description. */
-    detail(lab: LabContext): Promise<Lab> {
-      return current(deps.db, lab);
+    /** The lab the guard resolved, with its description (read in the guard's one statement, not again). */
+    detail(lab: LabContext): Lab {
+      return { id: lab.id, slug: lab.slug, name: lab.name, description: lab.description, createdAt: lab.createdAt };
     },
 
     /**

@@ -52,7 +52,7 @@ async function newLab(): Promise<Lab> {
     f,
     tech: await sessionCookieFor(t.db, t.config.sessionSecret, technician.id),
     scientist: await sessionCookieFor(t.db, t.config.sessionSecret, scientist.id),
-    ctx: { id: f.lab.id, slug: f.lab.slug, name: f.lab.name, createdAt: new Date(), role: 'technician' },
+    ctx: { id: f.lab.id, slug: f.lab.slug, name: f.lab.name, description: '', createdAt: new Date(), role: 'technician' },
     actor: { id: technician.id, email: technician.email, emailVerified: true, displayName: technician.displayName },
     path: (p = '') => `/api/v1/labs/${f.lab.slug}${p}`,
   };

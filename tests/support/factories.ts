@@ -38,6 +38,7 @@ export interface TestLab {
   id: number;
   slug: string;
   name: string;
+  description: string;
 }
 
 export async function buildLab(db: Knex, overrides: Partial<{ slug: string; name: string }> = {}): Promise<TestLab> {
@@ -45,7 +46,7 @@ export async function buildLab(db: Knex, overrides: Partial<{ slug: string; name
   const slug = overrides.slug ?? `lab-${u}`;
   const name = overrides.name ?? `Test lab ${u}`;
   const [id] = await db('labs').insert({ slug, name });
-  return { id: Number(id), slug, name };
+  return { id: Number(id), slug, name, description: '' };
 }
 
 /** A new user who is a member of `lab` with `role`. */

@@ -19,7 +19,7 @@ export function labRoutes(deps: { labs: LabsService; exports: LabExportService; 
       auth: { permission: 'lab.read' },
       summary: 'The lab, your role in it and what that role may do.',
       response: { status: 200, description: 'The lab (`slug`, `name`, `description`, `createdAt`), your `role` and its `permissions`.' },
-      handle: async ({ lab }): Promise<LabDetail> => presentLabForMember(await deps.labs.detail(lab), lab.role),
+      handle: async ({ lab }): Promise<LabDetail> => presentLabForMember(deps.labs.detail(lab), lab.role),
     }),
     defineRoute({
       method: 'patch',
