@@ -246,8 +246,8 @@ function TogetherChart({
               onZoom={onZoom}
             />
             <p className="mt-1 text-xs text-ink-soft">
-              Scroll or drag the slider to zoom; the zoomed range is fetched again at full detail. Downsampled lines show bucket means; open a channel alone to
-              see each bucket’s lowest and highest reading.
+              Scroll or drag the slider to zoom; the zoomed range is fetched again at full detail. Over long ranges each line shows the mean of each time cell
+              (its size is in the legend); open a channel alone to see each cell’s lowest and highest reading.
             </p>
             {canExport && (
               <Button

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { BucketSeries, ReadingsSeries } from '@shared/contract/channels.ts';
-import { outOfRangePoints, readingsSummary } from './readings-chart-option.ts';
+import { cellSizeWords, outOfRangePoints, readingsChartOption, readingsSummary } from './readings-chart-option.ts';
 
 // Small invented series (demo values) in the API's documented shapes; expectations worked by hand.
 const T0 = Date.parse('2026-01-10T00:00:00Z');
@@ -49,6 +49,30 @@ describe('readings chart helpers', () => {
     expect(readingsSummary(raw, ctx)).toBe(
       '3 readings from 2026-01-10 01:00 to 2026-01-10 05:00 (Europe/Berlin, UTC+01:00); lowest -50 °C, highest 72 °C; 2 outside the valid range.',
     );
-    expect(readingsSummary(buckets, ctx)).toContain('2 buckets of 120 min (mean with minimum–maximum envelope, from rollups)');
+    const words = readingsSummary(buckets, ctx);
+    expect(words).toContain(
+      '2 points (each the mean of a 2-hour cell, with the cell’s lowest and highest reading as thin lines above and below; read from stored summaries)',
+    );
+    expect(words).not.toMatch(/bucket|rollup/i);
+    expect(readingsSummary({ ...buckets, source: 'raw' }, ctx)).toContain('worked out from the readings');
+  });
+
+  it('names a cell by its size in plain units', () => {
+    expect(cellSizeWords(60_000)).toBe('1-minute');
+    expect(cellSizeWords(600_000)).toBe('10-minute');
+    expect(cellSizeWords(3_600_000)).toBe('hourly');
+    expect(cellSizeWords(7_200_000)).toBe('2-hour');
+    expect(cellSizeWords(86_400_000)).toBe('daily');
+    expect(cellSizeWords(7 * 86_400_000)).toBe('7-day');
+    expect(cellSizeWords(30_000)).toBe('30-second');
+    expect(cellSizeWords(90_000)).toBe('90-second');
+    expect(cellSizeWords(250)).toBe('250-millisecond');
+  });
+
+  it('names the envelope and mean lines after the cell size, never "bucket"', () => {
+    const names = (s: typeof buckets) => (readingsChartOption(s, ctx).series as Array<{ name: string }>).map((l) => l.name);
+    expect(names(buckets)).toEqual(['2-hour maximum', '2-hour minimum', '2-hour mean', 'Outside the valid range']);
+    expect(names({ ...buckets, bucketMs: 600_000 }).slice(0, 3)).toEqual(['10-minute maximum', '10-minute minimum', '10-minute mean']);
+    expect(names({ ...buckets, bucketMs: 3_600_000 }).slice(0, 3)).toEqual(['Hourly maximum', 'Hourly minimum', 'Hourly mean']);
   });
 });

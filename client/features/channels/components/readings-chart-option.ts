@@ -20,9 +20,31 @@ const AMBER = '#c98d1c';
 
 type Point = [number, number | null];
 
+const UNIT_WORDS: Array<[number, string, string | null]> = [
+  [86_400_000, 'day', 'daily'],
+  [3_600_000, 'hour', 'hourly'],
+  [60_000, 'minute', null],
+  [1_000, 'second', null],
+];
+
+/**
+ * The size of a chart cell in plain words for legends and captions: "10-minute", "hourly",
+ * "daily", "2-hour", "30-second"; a size that is no whole number of seconds falls back to
+ * whole milliseconds ("250-millisecond").
+ */
+export function cellSizeWords(ms: number): string {
+  for (const [size, unit, single] of UNIT_WORDS) {
+    if (ms >= size && ms % size === 0) {
+      const n = ms / size;
+      return n === 1 && single ? single : `${n}-${unit}`;
+    }
+  }
+  return `${Math.round(ms)}-millisecond`;
+}
+
 const isOutside = (v: number, min: number | null, max: number | null) => (min !== null && v < min) || (max !== null && v > max);
 
-/** Points (time, value) of the series that lie outside the valid range; for buckets, their extremes. */
+/** Points (time, value) of the series that lie outside the valid range; for summarised cells, their extremes. */
 export function outOfRangePoints(series: Series, validMin: number | null, validMax: number | null): Array<[number, number]> {
   const out: Array<[number, number]> = [];
   if (validMin === null && validMax === null) return out;
@@ -97,8 +119,8 @@ export function testReadingsSummary(points: readonly TestReadingPoint[], ctx: Re
 
 /**
  * The ECharts option of a channel's readings over its range: a line broken at gaps (raw
- * readings, or the bucket means with the min and max of each bucket drawn as an envelope when
- * the series is downsampled), the valid minimum and maximum as dashed lines, readings outside
+ * readings, or each cell's mean with the cell's minimum and maximum drawn as an envelope when
+ * the series is summarised; the legend names the cell size, e.g. "10-minute mean"), the valid minimum and maximum as dashed lines, readings outside
  * them as triangles, the time axis and tooltip on the logger's clock with its UTC offset, and
  * zoom (mouse wheel, drag, and a slider) whose window the page turns into a new request.
  * Animation is off, so the `finished` event follows the first frame.
@@ -120,10 +142,12 @@ export function readingsChartOption(series: Series, ctx: ReadingsChartContext): 
       itemStyle: { color: LICHEN },
     });
   } else {
+    const words = cellSizeWords(series.bucketMs);
+    const size = words.charAt(0).toUpperCase() + words.slice(1);
     const at = (arr: Array<number | null>) => series.t.map((t, i): Point => [t + series.bucketMs / 2, arr[i]]);
     lines.push(
       {
-        name: 'Bucket maximum',
+        name: `${size} maximum`,
         type: 'line',
         data: at(series.max),
         showSymbol: false,
@@ -132,7 +156,7 @@ export function readingsChartOption(series: Series, ctx: ReadingsChartContext): 
         itemStyle: { color: ENVELOPE },
       },
       {
-        name: 'Bucket minimum',
+        name: `${size} minimum`,
         type: 'line',
         data: at(series.min),
         showSymbol: false,
@@ -141,7 +165,7 @@ export function readingsChartOption(series: Series, ctx: ReadingsChartContext): 
         itemStyle: { color: ENVELOPE },
       },
       {
-        name: 'Bucket mean',
+        name: `${size} mean`,
         type: 'line',
         data: at(series.mean),
         showSymbol: false,
@@ -211,7 +235,7 @@ export function readingsSummary(series: Series, ctx: ReadingsChartContext): stri
   const what =
     series.shape === 'readings'
       ? `${series.value.filter((v) => v !== null).length} readings`
-      : `${series.t.length} buckets of ${Math.round(series.bucketMs / 60_000)} min (mean with minimum–maximum envelope, from ${series.source === 'rollup' ? 'rollups' : 'raw readings'})`;
+      : `${series.t.length} points (each the mean of a ${cellSizeWords(series.bucketMs)} cell, with the cell’s lowest and highest reading as thin lines above and below; ${series.source === 'rollup' ? 'read from stored summaries' : 'worked out from the readings'})`;
   const outside = outOfRangePoints(series, ctx.validMin, ctx.validMax).length;
   const fmt = (v: number) => Number(v.toPrecision(6));
   return `${what} ${span}; lowest ${fmt(Math.min(...values))}${unit}, highest ${fmt(Math.max(...values))}${unit}${outside ? `; ${outside} outside the valid range` : ''}.`;
