@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { BucketSeries, ReadingsSeries } from '@shared/contract/channels.ts';
-import { cellSizeWords, outOfRangePoints, readingsChartOption, readingsSummary } from './readings-chart-option.ts';
+import { cellSizeWords, LIMIT_LABEL_ROOM, outOfRangePoints, readingsChartOption, readingsSummary } from './readings-chart-option.ts';
 
 // Small invented series (demo values) in the API's documented shapes; expectations worked by hand.
 const T0 = Date.parse('2026-01-10T00:00:00Z');
@@ -74,5 +74,27 @@ describe('readings chart helpers', () => {
     expect(names(buckets)).toEqual(['2-hour maximum', '2-hour minimum', '2-hour mean', 'Outside the valid range']);
     expect(names({ ...buckets, bucketMs: 600_000 }).slice(0, 3)).toEqual(['10-minute maximum', '10-minute minimum', '10-minute mean']);
     expect(names({ ...buckets, bucketMs: 3_600_000 }).slice(0, 3)).toEqual(['Hourly maximum', 'Hourly minimum', 'Hourly mean']);
+  });
+
+  it('writes the valid limits in the margin right of the plot, on a background, with their unit', () => {
+    const option = readingsChartOption(raw, ctx) as {
+      grid: { right: number };
+      series: Array<{
+        markLine?: { label: { position: string; backgroundColor: string; formatter: (p: { name: string; value: unknown }) => string }; data: unknown[] };
+      }>;
+    };
+    const mark = option.series.find((s) => s.markLine)?.markLine;
+    expect(mark?.data).toEqual([
+      { yAxis: -40, name: 'valid minimum' },
+      { yAxis: 60, name: 'valid maximum' },
+    ]);
+    // 'end' puts the label past the line's right end, outside the plot where markers are clipped
+    expect(mark?.label.position).toBe('end');
+    expect(mark?.label.backgroundColor).toMatch(/^#/);
+    expect(mark?.label.formatter({ name: 'valid maximum', value: 60 })).toBe('valid maximum\n60 °C');
+    expect(option.grid.right).toBe(LIMIT_LABEL_ROOM);
+    const noLimits = readingsChartOption(raw, { ...ctx, validMin: null, validMax: null }) as { grid: { right: number }; series: Array<{ markLine?: unknown }> };
+    expect(noLimits.grid.right).toBeLessThan(LIMIT_LABEL_ROOM);
+    expect(noLimits.series.some((s) => s.markLine)).toBe(false);
   });
 });

@@ -65,6 +65,30 @@ export function outOfRangePoints(series: Series, validMin: number | null, validM
   return out;
 }
 
+/** Pixels kept right of the plot for the valid-limit labels ("valid maximum" over "60 °C"). */
+export const LIMIT_LABEL_ROOM = 104;
+
+/**
+ * The label of a valid-limit line: written past the line's right end, in the margin right of the
+ * plot (markers and lines are clipped to the plot, so none can hide it), on the card's colour
+ * with a thin amber rule, the limit's name over its value and unit.
+ */
+export function limitLabel(unit: string) {
+  return {
+    position: 'end',
+    distance: 6,
+    formatter: (p: { name: string; value: unknown }) => `${p.name}\n${typeof p.value === 'number' ? Number(p.value.toPrecision(6)) : String(p.value)}${unit}`,
+    color: INK,
+    fontSize: 11,
+    lineHeight: 14,
+    backgroundColor: '#fffdf8',
+    borderColor: AMBER,
+    borderWidth: 1,
+    borderRadius: 3,
+    padding: [2, 4],
+  };
+}
+
 /** A test reading as the chart draws it: sent by hand, kept apart from the channel's readings. */
 export interface TestReadingPoint {
   ts: number;
@@ -186,7 +210,7 @@ export function readingsChartOption(series: Series, ctx: ReadingsChartContext): 
         silent: true,
         symbol: 'none',
         lineStyle: { color: AMBER, type: 'dashed' },
-        label: { formatter: '{b}: {c}', position: 'insideEndTop' },
+        label: limitLabel(unit),
         data: limits,
       },
     };
@@ -199,7 +223,8 @@ export function readingsChartOption(series: Series, ctx: ReadingsChartContext): 
     animation: false,
     textStyle: { fontFamily: 'Figtree Variable, system-ui, sans-serif', color: INK },
     legend: { top: 0, right: 0 },
-    grid: { left: 56, right: 24, top: 36, bottom: 84 },
+    // with limits drawn, the right margin holds their labels outside the plot, clear of the markers
+    grid: { left: 56, right: limits.length > 0 ? LIMIT_LABEL_ROOM : 24, top: 36, bottom: 84 },
     tooltip: {
       trigger: 'axis',
       valueFormatter: (v: unknown) => (typeof v === 'number' ? `${Number(v.toPrecision(6))}${unit}` : '—'),

@@ -14,6 +14,9 @@ import { testReadingsSummary, withTestReadings, type TestReadingPoint } from './
 const ZOOM_SETTLE_MS = 450;
 
 const NO_BANDS: readonly ChartBand[] = [];
+/** Alert bands: a solid outline in the alert colour over a fill light enough to read the line through. */
+export const ALERT_EDGE = '#b23a2a';
+export const ALERT_FILL = 'rgba(178, 58, 42, 0.24)';
 const NO_NOTES: readonly NoteSpan[] = [];
 const NO_TESTS: readonly TestReadingPoint[] = [];
 
@@ -26,27 +29,41 @@ export interface ChartBand {
 
 /**
  * The chart option with `bands` shaded over the full height: each band is a filled line on a
- * hidden 0–1 axis (only the line chart is registered, so no extra ECharts component is needed).
+ * hidden 0–1 axis (only the line chart is registered, so no extra ECharts component is needed)
+ * drawn as a closed box, so its left, top and right edges carry a solid outline. However short
+ * the alert, its band is at least 1/100 of the chart's time range wide (widened around its
+ * middle, kept inside the range), so a ten-minute alert stays visible on a month's chart.
  */
 export function withBands(option: EChartsCoreOption, bands: readonly ChartBand[]): EChartsCoreOption {
   if (bands.length === 0) return option;
   const yAxes = (Array.isArray(option.yAxis) ? option.yAxis : [option.yAxis]) as EChartsCoreOption[];
-  const shaded = bands.map((b) => ({
-    name: `Alert: ${b.label}`,
-    type: 'line',
-    yAxisIndex: yAxes.length,
-    data: [
-      [b.from, 1],
-      [b.to, 1],
-    ],
-    showSymbol: false,
-    lineStyle: { width: 0 },
-    itemStyle: { color: 'rgba(178, 58, 42, 0.5)' },
-    areaStyle: { color: 'rgba(178, 58, 42, 0.16)' },
-    tooltip: { show: false },
-    silent: true,
-    z: 0,
-  }));
+  const axis = option.xAxis as { min?: unknown; max?: unknown } | undefined;
+  const lo = typeof axis?.min === 'number' ? axis.min : -Infinity;
+  const hi = typeof axis?.max === 'number' ? axis.max : Infinity;
+  const least = Number.isFinite(hi - lo) ? (hi - lo) / 100 : 0;
+  const shaded = bands.map((b) => {
+    const grow = Math.max(0, least - (b.to - b.from)) / 2;
+    const from = Math.max(lo, Math.min(b.from - grow, hi - least));
+    const to = Math.min(hi, Math.max(b.to + grow, from + least));
+    return {
+      name: `Alert: ${b.label}`,
+      type: 'line',
+      yAxisIndex: yAxes.length,
+      data: [
+        [from, 0],
+        [from, 1],
+        [to, 1],
+        [to, 0],
+      ],
+      showSymbol: false,
+      lineStyle: { width: 1.5, color: ALERT_EDGE },
+      itemStyle: { color: ALERT_EDGE },
+      areaStyle: { color: ALERT_FILL, opacity: 1 },
+      tooltip: { show: false },
+      silent: true,
+      z: 1,
+    };
+  });
   const series = option.series as EChartsCoreOption[];
   // the legend keeps naming only the chart's own lines
   const legend = option.legend ? { ...(option.legend as EChartsCoreOption), data: series.map((s) => s.name).filter(Boolean) } : undefined;
