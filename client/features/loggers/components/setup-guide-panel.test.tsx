@@ -41,13 +41,16 @@ describe('logger set-up guide', () => {
     renderPanel();
     expect(screen.getByTestId('ingest-endpoint').textContent).toBe('POST http://127.0.0.1:5310/api/v1/ingest');
     expect(screen.getByTestId('setup-channel-keys').textContent).toContain('bath_t');
-    for (const id of ['setup-curl', 'setup-python', 'setup-http', 'setup-sketch']) {
+    for (const id of ['setup-curl', 'setup-python', 'setup-http', 'setup-microcontroller']) {
       const text = screen.getByTestId(id).textContent!;
       expect(text, id).toContain('bath_t');
       expect(text, id).toContain('lid.open');
       expect(text, id).not.toMatch(/lbk_[0-9a-f]{12}_/);
     }
     expect(screen.getByTestId('setup-curl').textContent).toContain('Bearer $LAGBOOK_INGEST_KEY');
+    // the C example is named for what it is, in the guide's own words
+    expect(screen.getByText('C program for a microcontroller logger (any TCP client)')).toBeTruthy();
+    expect(document.body.textContent).not.toMatch(/sketch/i);
     // The curl body is one the server's ingest parser reads, with the sample values inside the valid ranges.
     const body = /-d '([^']*)'/.exec(screen.getByTestId('setup-curl').textContent!)![1];
     expect(readingsFromJson(JSON.parse(body)).map((r) => [r.channel, r.value])).toEqual([

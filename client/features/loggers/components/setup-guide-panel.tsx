@@ -1,7 +1,7 @@
 import { useState, type ReactNode } from 'react';
 import { CopyButton } from '../../../components/copy-button.tsx';
 import type { Channel } from '@shared/contract/loggers.ts';
-import { curlSnippet, ingestEndpoint, isoWithOffset, pythonSnippet, rawHttpSnippet, sketchSnippet } from './setup-snippets.ts';
+import { curlSnippet, ingestEndpoint, isoWithOffset, pythonSnippet, rawHttpSnippet, microcontrollerSnippet } from './setup-snippets.ts';
 import { TestReadingPanel } from './test-reading-panel.tsx';
 
 /** One example, folded away until opened (the first starts open), with a copy button. */
@@ -24,7 +24,7 @@ function Example({ title, code, testId, open = false, children }: { title: strin
 
 /**
  * "Set up this logger": where to send readings, this logger's channel keys, how times are
- * written, and copy-ready examples (curl, Python, a raw HTTP/1.1 request, a C sketch) built
+ * written, and copy-ready examples (curl, Python, a raw HTTP/1.1 request, a C program for a microcontroller logger) built
  * from those keys; for roles that manage loggers, a test reading that shows the round trip.
  * The ingest key itself is never shown here: the examples read it from `$LAGBOOK_INGEST_KEY`.
  */
@@ -106,7 +106,7 @@ export function SetupGuidePanel({
         <Example title="HTTP request (microcontroller)" code={rawHttpSnippet(origin, channels, at, timezone)} testId="setup-http">
           The exact request to write to a TCP socket; lines end with CR LF and Content-Length counts the body’s bytes.
         </Example>
-        <Example title="C sketch (generic TCP client)" code={sketchSnippet(origin, channels)} testId="setup-sketch">
+        <Example title="C program for a microcontroller logger (any TCP client)" code={microcontrollerSnippet(origin, channels)} testId="setup-microcontroller">
           Times as epoch milliseconds from the board’s clock; adapt the four net_ calls to your board’s network library.
         </Example>
       </div>

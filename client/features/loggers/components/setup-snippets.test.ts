@@ -8,11 +8,11 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { readingsFromJson } from '../../../../server/services/ingest/readings-from-body.ts';
 import { parseReadingTime } from '../../../../server/services/ingest/parse-reading-time.ts';
-import { curlSnippet, isoWithOffset, pythonSnippet, rawHttpSnippet, sketchSnippet } from './setup-snippets.ts';
+import { curlSnippet, isoWithOffset, pythonSnippet, rawHttpSnippet, microcontrollerSnippet } from './setup-snippets.ts';
 
 /**
  * The logger set-up examples are checked by outside parsers, not by string matching alone:
- * Node's HTTP parser receives the raw request and the compiled C sketch's output, Debian's
+ * Node's HTTP parser receives the raw request and the compiled C program's output, Debian's
  * Python 3 runs the Python example, and the server's own ingest parser reads every body.
  */
 const CHANNELS = [
@@ -102,10 +102,10 @@ describe('set-up examples', () => {
     ]);
   });
 
-  it('C sketch: compiles with gcc, and the request it writes is valid HTTP/1.1 with epoch-ms readings', async () => {
-    const dir = mkdtempSync(join(tmpdir(), 'lagbook-sketch-'));
+  it('C program for a microcontroller logger: compiles with gcc, and the request it writes is valid HTTP/1.1 with epoch-ms readings', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'lagbook-mcu-'));
     const harness = [
-      sketchSnippet(origin, CHANNELS).replace('$LAGBOOK_INGEST_KEY', KEY),
+      microcontrollerSnippet(origin, CHANNELS).replace('$LAGBOOK_INGEST_KEY', KEY),
       '#include <string.h>',
       'int net_connect(const char *host, int port) { return 1; }',
       'void net_write(const char *data, int len) { fwrite(data, 1, len, stdout); }',
@@ -113,9 +113,9 @@ describe('set-up examples', () => {
       'void net_close(void) {}',
       'int main(void) { const float v[N_CHANNELS] = { 12.5f, 31.25f }; int s = send_readings(1784021405000ULL, v); fprintf(stderr, "%d", s); return s == 200 ? 0 : 1; }',
     ].join('\n');
-    writeFileSync(join(dir, 'sketch.c'), harness);
-    execFileSync('gcc', ['-std=c99', '-Wall', '-Werror', '-Wno-unused-parameter', '-o', join(dir, 'sketch'), join(dir, 'sketch.c')]);
-    const written = execFileSync(join(dir, 'sketch'), { stdio: ['ignore', 'pipe', 'pipe'] }).toString('latin1');
+    writeFileSync(join(dir, 'logger.c'), harness);
+    execFileSync('gcc', ['-std=c99', '-Wall', '-Werror', '-Wno-unused-parameter', '-o', join(dir, 'logger'), join(dir, 'logger.c')]);
+    const written = execFileSync(join(dir, 'logger'), { stdio: ['ignore', 'pipe', 'pipe'] }).toString('latin1');
     const got = await sendRaw(written);
     expect(got.headers.authorization).toBe(`Bearer ${KEY}`);
     expect(got.headers.host).toBe(new URL(origin).host);

@@ -98,11 +98,11 @@ export function rawHttpSnippet(origin: string, channels: ExampleChannel[], at: n
 }
 
 /**
- * A minimal C sketch for a microcontroller: builds the JSON body with epoch-millisecond times
+ * A minimal C program for a microcontroller logger: builds the JSON body with epoch-millisecond times
  * (from the board's NTP-set clock), writes the request above over a plain TCP client and
  * returns the HTTP status. `net_*` stand for whatever TCP client the board's toolkit offers.
  */
-export function sketchSnippet(origin: string, channels: ExampleChannel[]): string {
+export function microcontrollerSnippet(origin: string, channels: ExampleChannel[]): string {
   const { host, port, tls } = hostAndPort(origin);
   const keys = channels.map((c) => JSON.stringify(c.key)).join(', ');
   const bodySize = 32 + channels.reduce((n, c) => n + c.key.length + 64, 0);
