@@ -198,6 +198,13 @@ export type Decomposition =
       cells: number[] | null;
       /** What thinning kept, in the server's words; null when nothing was thinned. */
       thinned: { cells: number; of: number; bucketCells: number; note: string } | null;
+      /**
+       * The grid values at the same cells, whole: null only for a cell without a reading. Draw the
+       * observed panel from this; trend + seasonal + remainder is undefined wherever the trend is
+       * (the classical trend's half cycle at each end, as R's decompose() returns NA there).
+       * The server always sends it; optional only so that clients and fixtures written before it still type-check.
+       */
+      observed?: Array<number | null>;
       trend: Array<number | null>;
       seasonal: Array<number | null>;
       remainder: Array<number | null>;
@@ -392,7 +399,17 @@ export interface DiagnosticsReport {
     excludedNotes: AppliedNote[];
     references: string[];
   };
-  series: { start: number; stepMs: number; n: number; missing: number; readings: number; emptyCells: number[] };
+  series: {
+    start: number;
+    stepMs: number;
+    /** Grid cells (steps) from the first to the last cell holding a reading. */
+    n: number;
+    /** Cells holding no reading. */
+    missing: number;
+    /** Readings behind the cells (several per cell when the step is longer than the logging interval). */
+    readings: number;
+    emptyCells: number[];
+  };
   analysed: { n: number; missing: number };
   period: { used: number | null; source: 'manual' | 'detected' | 'none'; candidates: PeriodCandidate[] };
   acf: { lags: number[]; values: Array<number | null> };

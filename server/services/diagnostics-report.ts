@@ -42,17 +42,22 @@ function plain<T>(value: T): Plain<T> {
 /** The decomposition's parts at the cells worth drawing (every cell for 'full' or a short series). */
 function decompositionParts(
   dec: Extract<ChannelDiagnostics['decomposition'], { trend: Float64Array }>,
+  observed: Float64Array,
   resolution: DecompositionResolution,
-): Pick<Extract<Decomposition, { period: number }>, 'cells' | 'thinned' | 'trend' | 'seasonal' | 'remainder' | 'weights'> {
+): Pick<Extract<Decomposition, { period: number }>, 'cells' | 'thinned' | 'trend' | 'seasonal' | 'remainder' | 'weights'> & { observed: number[] } {
   const n = dec.trend.length;
   const parts = (pick: (a: Float64Array) => number[]) => ({
+    observed: pick(observed),
     trend: pick(dec.trend),
     seasonal: pick(dec.seasonal),
     remainder: pick(dec.remainder),
     weights: dec.weights ? pick(dec.weights) : null,
   });
   if (resolution === 'full' || n <= MAX_DRAWN_CELLS) return { cells: null, thinned: null, ...parts(plain) };
-  const { cells, bucketCells } = thinForDrawing([dec.trend, dec.seasonal, dec.remainder], n, { maxPoints: MAX_DRAWN_CELLS, always: dec.outliers.indices });
+  const { cells, bucketCells } = thinForDrawing([observed, dec.trend, dec.seasonal, dec.remainder], n, {
+    maxPoints: MAX_DRAWN_CELLS,
+    always: dec.outliers.indices,
+  });
   const kept = cells.length;
   return {
     cells: Array.from(cells),
@@ -60,7 +65,7 @@ function decompositionParts(
       cells: kept,
       of: n,
       bucketCells,
-      note: `Thinned for drawing: ${kept.toLocaleString('en')} of ${n.toLocaleString('en')} cells (in each run of ${bucketCells} cells the first, the last and those holding the lowest and highest trend, seasonal and remainder value, plus every remainder outlier: min/max per bucket, Jugel et al. 2014). The CSV export holds every cell.`,
+      note: `Thinned for drawing: ${kept.toLocaleString('en')} of ${n.toLocaleString('en')} cells (in each run of ${bucketCells} cells the first, the last and those holding the lowest and highest observed, trend, seasonal and remainder value, plus every remainder outlier: min/max per bucket, Jugel et al. 2014). The CSV export holds every cell.`,
     },
     ...parts((a) => Array.from(cells, (i) => a[i])),
   };
@@ -223,6 +228,8 @@ export function diagnosticsReport(input: {
   range: { from: number; to: number };
   stepS: number;
   source: GridSource;
+  /** Readings behind the grid (rollup counts summed when the cells come from rollups); default: the values the engine was given. */
+  readings?: number;
   result: ChannelDiagnostics;
   /** Default 'drawing'. */
   resolution?: DecompositionResolution;
@@ -292,7 +299,14 @@ export function diagnosticsReport(input: {
       excludedNotes: excluded,
       references: REFERENCES,
     },
-    series: { start: r.grid.start, stepMs, n: r.grid.n, missing: r.grid.missing, readings: r.grid.readings, emptyCells: emptyCellsOf(r.grid.values) },
+    series: {
+      start: r.grid.start,
+      stepMs,
+      n: r.grid.n,
+      missing: r.grid.missing,
+      readings: input.readings ?? r.grid.readings,
+      emptyCells: emptyCellsOf(r.grid.values),
+    },
     analysed: { n: r.analysed.n, missing: r.analysed.missing },
     period: {
       used: r.period.used,
@@ -313,7 +327,7 @@ export function diagnosticsReport(input: {
         : {
             method: dec.method,
             period: dec.period,
-            ...decompositionParts(dec, input.resolution ?? 'drawing'),
+            ...decompositionParts(dec, r.grid.values, input.resolution ?? 'drawing'),
             outliers: {
               ...dec.outliers,
               times: dec.outliers.indices.map((i) => r.grid.start + i * stepMs),

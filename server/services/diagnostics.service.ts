@@ -45,6 +45,23 @@ const DEFAULT_GRID_CACHE: ResultCacheOptions = { maxEntries: 16, maxBytes: 64 * 
 interface LoadedGrid {
   data: ReadingColumns;
   source: GridSource;
+  /** Readings summarised in each cell of `data` (same order) when the cells come from rollups; null when `data` holds the readings themselves. */
+  counts: Float64Array | null;
+}
+
+/**
+ * How many readings a loaded grid stands for: its rows when they are raw readings, else the
+ * rollups' reading counts of the cells it still holds (a cell left out under a note drops its
+ * readings too), so a report never calls an hourly cell one reading.
+ */
+function readingsIn(loaded: LoadedGrid, kept: ReadingColumns): number {
+  if (loaded.counts === null) return kept.ts.length;
+  let total = 0;
+  for (let i = 0, j = 0; i < kept.ts.length; i++) {
+    while (j < loaded.data.ts.length && loaded.data.ts[j] < kept.ts[i]) j++;
+    if (j < loaded.data.ts.length && loaded.data.ts[j] === kept.ts[i]) total += loaded.counts[j];
+  }
+  return total;
 }
 
 /** A fingerprint of the notes a run leaves out, for cache keys: any change to one of them changes it. */
@@ -91,7 +108,11 @@ export function createDiagnosticsService(deps: {
   gridCache?: Partial<ResultCacheOptions>;
 }) {
   const cache = createResultCache({ ...DEFAULT_CACHE, ...deps.cache });
-  const grids = createResultCache<LoadedGrid>({ ...DEFAULT_GRID_CACHE, ...deps.gridCache, sizeOf: (g) => g.data.ts.byteLength + g.data.values.byteLength });
+  const grids = createResultCache<LoadedGrid>({
+    ...DEFAULT_GRID_CACHE,
+    ...deps.gridCache,
+    sizeOf: (g) => g.data.ts.byteLength + g.data.values.byteLength + (g.counts?.byteLength ?? 0),
+  });
 
   /**
    * One channel's values on the step grid of [from, to), from memory when the same channel,
@@ -125,9 +146,15 @@ export function createDiagnosticsService(deps: {
     const resolutionS =
       agg === 'mean' || agg === 'min' || agg === 'max' ? [...ROLLUP_RESOLUTIONS_S].reverse().find((r) => stepMs % (r * 1000) === 0) : undefined;
     if (resolutionS && (agg === 'mean' || agg === 'min' || agg === 'max')) {
-      return { data: await repo.cellsFromRollups(channelId, resolutionS, range.from, range.to, stepMs, agg), source: { kind: 'rollups', resolutionS } };
+      const [data, buckets] = await Promise.all([
+        repo.cellsFromRollups(channelId, resolutionS, range.from, range.to, stepMs, agg),
+        repo.rollupBuckets(channelId, resolutionS, range.from, range.to, stepMs),
+      ]);
+      const countAt = new Map(buckets.map((b) => [b.start, b.count]));
+      const counts = Float64Array.from(data.ts, (ts) => countAt.get(ts) ?? 0);
+      return { data, source: { kind: 'rollups', resolutionS }, counts };
     }
-    return { data: await repo.rangeForGrid(channelId, range.from, range.to, stepMs), source: { kind: 'readings' } };
+    return { data: await repo.rangeForGrid(channelId, range.from, range.to, stepMs), source: { kind: 'readings' }, counts: null };
   }
 
   /** Runs one engine task on the pool (in process without one); the engine's refusals become 422. */
@@ -274,7 +301,20 @@ export function createDiagnosticsService(deps: {
       const asReadings = (d: ReadingColumns): ChannelReadings => ({ timestamps: d.ts, values: d.values });
       const result = await compute(asReadings(main.data), options, other ? asReadings(other.data) : undefined, signal);
       const json = Buffer.from(
-        JSON.stringify(diagnosticsReport({ channel, partner, params, range, stepS, source: main.source, result, resolution, excludedNotes: applied })),
+        JSON.stringify(
+          diagnosticsReport({
+            channel,
+            partner,
+            params,
+            range,
+            stepS,
+            source: main.source,
+            readings: readingsIn(loadedMain, main.data),
+            result,
+            resolution,
+            excludedNotes: applied,
+          }),
+        ),
       );
       cache.set(key, json);
       return { json, cached: false };

@@ -168,6 +168,17 @@ describe('GET /channels/:channelId/diagnostics', () => {
     expect(r.trend.sentence).toMatch(/^Allowing for autocorrelation, Air temperature \(after removing the seasonal cycle\) changes by /);
   });
 
+  it('counts readings as readings and cells as cells when several readings fall in one step', async () => {
+    // hourly steps over six days of ten-minute readings: 144 cells from 864 − 5 readings (the gap)
+    const hourly = await request(t.app).get(`${base}/diagnostics?${range}&step=3600`).set('Cookie', cookie).expect(200);
+    expect(hourly.body.method.resolved.source).toEqual({ kind: 'rollups', resolutionS: 3600 });
+    expect(hourly.body.series).toMatchObject({ n: 144, missing: 0, readings: N - 5 });
+    // the same step read from raw readings (median) counts the same readings
+    const raw = await request(t.app).get(`${base}/diagnostics?${range}&step=3600&agg=median`).set('Cookie', cookie).expect(200);
+    expect(raw.body.method.resolved.source).toEqual({ kind: 'readings' });
+    expect(raw.body.series).toMatchObject({ n: 144, readings: N - 5 });
+  });
+
   it('reads raw readings for a median and still matches the engine; differencing applies before the ACF', async () => {
     const res = await request(t.app)
       .get(`${base}/diagnostics?${range}&step=1200&agg=median&difference=1&decomposition=classical&maxLag=30`)
@@ -180,6 +191,24 @@ describe('GET /channels/:channelId/diagnostics', () => {
     expect(res.body.analysed).toEqual({ n: engine.analysed.n, missing: engine.analysed.missing });
     expect(res.body.decomposition.method).toBe('classical');
     expect(res.body.decomposition.trend).toEqual(json(engine.decomposition.method === 'none' ? [] : engine.decomposition.trend));
+  });
+
+  it('classical decomposition: the observed series is whole while the trend is undefined for half a cycle at each end', async () => {
+    const res = await request(t.app).get(`${base}/diagnostics?${range}&step=600&decomposition=classical`).set('Cookie', cookie).expect(200);
+    const d = res.body.decomposition;
+    const engine = channelDiagnostics(air, engineOptions({ decomposition: 'classical' }));
+    expect(d).toMatchObject({ method: 'classical', period: DAY_STEPS, cells: null });
+    // observed: every cell's grid value, null only in the 50-minute gap (cells 400–404)
+    expect(d.observed).toEqual(json(engine.grid.values));
+    expect(d.observed).toHaveLength(N);
+    expect(d.observed[0]).toBeCloseTo(air.values[0], 12);
+    expect(d.observed[N - 1]).toBeCloseTo(air.values[air.values.length - 1], 12);
+    // the centred moving average over an even cycle of 144 leaves 72 cells undefined at each end
+    // (R 4.2.2 stats::decompose returns NA there: filter(x, c(0.5, rep(1, 143), 0.5) / 144, sides = 2))
+    const defined = (a: Array<number | null>) => a.map((v) => v !== null);
+    expect(defined(d.trend).slice(0, 73)).toEqual([...Array(72).fill(false), true]);
+    expect(defined(d.trend).slice(N - 73)).toEqual([true, ...Array(72).fill(false)]);
+    expect(defined(d.remainder).slice(0, 72).some(Boolean)).toBe(false);
   });
 
   it('thins a long decomposition for drawing: the kept cells carry the engine’s values, extremes and outliers included', async () => {
