@@ -18,6 +18,14 @@ export function armaName(p: number, q: number): string {
   return `ARMA(${p}, ${q})`;
 }
 
+/**
+ * The sign convention of the coefficient table, stated in words beside it: the model is
+ * written with every term added (as in Box, Jenkins & Reinsel's textbook form for the AR part,
+ * and with plus signs for the moving-average part), so the sign of a coefficient reads directly.
+ */
+export const ARMA_SIGNS =
+  'Model: xₜ − μ = φ₁(xₜ₋₁ − μ) + … + eₜ + θ₁eₜ₋₁ + …, every term added: a positive φ or θ pushes the value the same way as the past value or shock it multiplies.';
+
 /** One estimated parameter: its symbol, estimate and standard error (null where none was given). */
 export interface CoefficientRow {
   symbol: string;
@@ -28,7 +36,8 @@ export interface CoefficientRow {
 
 /**
  * The fitted parameters as table rows: φ₁…φp (autoregressive), θ₁…θq (moving average) and the
- * mean μ when it was estimated. Sign convention of R's `arima`: x[t] − μ = Σ φᵢ(x[t−i] − μ) + e[t] + Σ θⱼ e[t−j].
+ * mean μ when it was estimated. Signs: every term enters with a plus, so a positive φᵢ or θⱼ pushes
+ * the value the same way as the past value or shock it multiplies: x[t] − μ = Σ φᵢ(x[t−i] − μ) + e[t] + Σ θⱼ e[t−j].
  */
 export function coefficientRows(m: ArmaFitSummary): CoefficientRow[] {
   const rows: CoefficientRow[] = [];

@@ -1,4 +1,5 @@
-import type { DiagnosticsReport } from '@shared/contract/diagnostics.ts';
+import type { DiagnosticsReport, StlSettings } from '@shared/contract/diagnostics.ts';
+import { stlSettingRows } from './stl-settings.ts';
 
 const show = (v: unknown): string => (v === null || v === undefined ? '—' : typeof v === 'object' ? JSON.stringify(v) : String(v));
 
@@ -14,13 +15,16 @@ export function MethodBlock({ method, cached }: { method: DiagnosticsReport['met
         Method and parameters
       </h4>
       <dl className="grid gap-x-4 gap-y-0.5 font-mono text-xs sm:grid-cols-[auto_1fr]">
-        {Object.entries(r).map(([k, v]) => (
-          <div key={k} className="contents">
-            <dt className="text-ink-soft">{k}</dt>
-            <dd className="break-all">{k === 'from' || k === 'to' ? `${new Date(Number(v)).toISOString()} (${show(v)})` : show(v)}</dd>
-          </div>
-        ))}
+        {Object.entries(r)
+          .filter(([k]) => k !== 'stl')
+          .map(([k, v]) => (
+            <div key={k} className="contents">
+              <dt className="text-ink-soft">{k}</dt>
+              <dd className="break-all">{k === 'from' || k === 'to' ? `${new Date(Number(v)).toISOString()} (${show(v)})` : show(v)}</dd>
+            </div>
+          ))}
       </dl>
+      {r.stl && <StlSettingsList settings={r.stl} />}
       <ul className="list-disc pl-5">
         {method.notes.map((n) => (
           <li key={n}>{n}</li>
@@ -66,5 +70,23 @@ export function MethodBlock({ method, cached }: { method: DiagnosticsReport['met
         {cached ? 'Served from the result cache (same data version and parameters).' : 'Computed for this request.'}
       </p>
     </section>
+  );
+}
+
+/** The STL settings as run, in plain words with the symbols of Cleveland et al. (1990). */
+function StlSettingsList({ settings }: { settings: StlSettings }) {
+  return (
+    <div className="grid gap-1" data-testid="stl-settings">
+      <p className="font-medium">STL settings (symbols of Cleveland, Cleveland, McRae &amp; Terpenning 1990)</p>
+      <dl className="grid gap-x-3 gap-y-0.5 text-xs sm:grid-cols-[auto_auto_1fr]">
+        {stlSettingRows(settings).map((row) => (
+          <div key={row.symbol} className="contents">
+            <dt className="font-mono text-ink-soft">{row.symbol}</dt>
+            <dt className="font-medium">{row.name}</dt>
+            <dd>{row.value}</dd>
+          </div>
+        ))}
+      </dl>
+    </div>
   );
 }

@@ -56,6 +56,10 @@ describe('process model and trend blocks', () => {
       .map((r) => r.lastElementChild?.textContent);
     expect(notes).toEqual(['Note', '', 'lowest AICc', 'chosen', 'did not converge']);
     expect(screen.getByTestId('process-model-chosen').textContent).toBe('ARMA(1, 1)(1, 1)');
+    // the sign convention is stated in the page's own words, naming no statistics language
+    const signs = screen.getByTestId('process-model-signs').textContent!;
+    expect(signs).toContain('xₜ − μ = φ₁(xₜ₋₁ − μ) + … + eₜ + θ₁eₜ₋₁');
+    expect(signs).not.toMatch(/\bR\b|arima/);
   });
 
   it('names cycles in whole units where it can', () => {

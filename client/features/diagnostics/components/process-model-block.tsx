@@ -1,7 +1,7 @@
 import { formatZoned } from '../../../components/zoned-time.ts';
 import type { ProcessModel } from '@shared/contract/diagnostics.ts';
 import { BlockSection } from './block-section.tsx';
-import { armaName, coefficientRows } from './arma-notation.ts';
+import { ARMA_SIGNS, armaName, coefficientRows } from './arma-notation.ts';
 import { fmtP, fmtSeconds, fmtStat } from './format-number.ts';
 
 const TH = 'py-1 pr-3';
@@ -76,7 +76,14 @@ export function ProcessModelBlock({
       </p>
       <div className="grid items-start gap-6 lg:grid-cols-2">
         <table className="w-full border-collapse text-left text-sm">
-          <caption className="mb-1 text-left text-sm font-semibold">Estimated coefficients (± standard error)</caption>
+          <caption className="mb-1 text-left text-sm font-semibold">
+            Estimated coefficients (± standard error)
+            {m.p + m.q > 0 && (
+              <span className="block text-xs font-normal text-ink-soft" data-testid="process-model-signs">
+                {ARMA_SIGNS}
+              </span>
+            )}
+          </caption>
           <thead className="border-b border-rule text-xs uppercase tracking-wide text-ink-soft">
             <tr>
               <th scope="col" className={TH}>
