@@ -1,6 +1,7 @@
 import type { EChartsCoreOption } from 'echarts/core';
 import { formatZoned, zoneOffsetLabel } from '../../../components/zoned-time.ts';
 import type { Series, TimeRange } from '@shared/contract/channels.ts';
+import { zoomSlider } from '../../../components/charts/zoom-slider.ts';
 
 /** What the readings chart needs to know about its channel. */
 export interface ReadingsChartContext {
@@ -242,10 +243,7 @@ export function readingsChartOption(series: Series, ctx: ReadingsChartContext): 
       axisLabel: { hideOverlap: true, formatter: (v: number) => formatZoned(v, tz).replace(' ', '\n') },
     },
     yAxis: { type: 'value', scale: true, name: ctx.unit ?? '', nameTextStyle: { align: 'left' } },
-    dataZoom: [
-      { type: 'inside', xAxisIndex: 0, filterMode: 'none' },
-      { type: 'slider', xAxisIndex: 0, filterMode: 'none', bottom: 8, height: 18, labelFormatter: (v: number) => formatZoned(v, tz) },
-    ],
+    dataZoom: [{ type: 'inside', xAxisIndex: 0, filterMode: 'none' }, zoomSlider(8, (v: number) => formatZoned(v, tz))],
     series: [...lines, ...scatter],
   };
 }

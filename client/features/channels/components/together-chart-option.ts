@@ -2,6 +2,7 @@ import type { EChartsCoreOption } from 'echarts/core';
 import { formatZoned, zoneOffsetLabel } from '../../../components/zoned-time.ts';
 import type { Series, TimeRange } from '@shared/contract/channels.ts';
 import type { AxisPlan, PlannedLine } from './together-lines.ts';
+import { zoomSlider } from '../../../components/charts/zoom-slider.ts';
 
 /** A planned line with the series fetched for it. */
 export interface DrawnLine extends PlannedLine {
@@ -114,10 +115,7 @@ export function togetherChartOption(lines: readonly DrawnLine[], axes: readonly 
       axisLabel: { color: INK_SOFT, hideOverlap: true },
       splitLine: { show: a === axes[0], lineStyle: { color: RULE } },
     })),
-    dataZoom: [
-      { type: 'inside', xAxisIndex: 0, filterMode: 'none' },
-      { type: 'slider', xAxisIndex: 0, filterMode: 'none', bottom: legendHeight + 14, height: 18, labelFormatter: (v: number) => formatZoned(v, tz) },
-    ],
+    dataZoom: [{ type: 'inside', xAxisIndex: 0, filterMode: 'none' }, zoomSlider(legendHeight + 14, (v: number) => formatZoned(v, tz))],
     series: lines.map((l) => {
       const data = plottedPoints(l.series);
       return {
