@@ -11,10 +11,10 @@ import { durbinLevinson } from './durbin-levinson.ts';
 import { effectiveSampleSize, type EffectiveSampleSizeResult } from './effective-sample-size.ts';
 import { identifyProcess, type ProcessIdentification } from './identify-process.ts';
 import { ljungBox } from './ljung-box.ts';
-import { medianInPlace } from './median-in-place.ts';
 import { normalQuantile } from './normal-quantile.ts';
 import { prewhitenedCcf } from './prewhitened-ccf.ts';
 import { regularize, type RegularizeAggregate } from './regularize.ts';
+import { remainderOutliers, type RemainderOutlierList } from './remainder-outliers.ts';
 import { trendTest, type TrendTestResult } from './trend-test.ts';
 import { andrewsBartlettLag } from './andrews-bartlett-lag.ts';
 import { stl } from './stl.ts';
@@ -46,7 +46,7 @@ export interface ChannelDiagnosticsOptions {
   stlSeasonalWindow?: number | 'periodic';
   /** 1 − confidence level of every band and interval (default 0.05). */
   alpha?: number;
-  /** Remainder outliers lie beyond this many robust SDs from the remainder's median (default 3). */
+  /** Remainder outliers lie beyond this many robust SDs of the remainder at their position in the cycle (default 3). */
   outlierThreshold?: number;
   /** Highest CCF lag in each direction; default R's ⌊10·log10(n/2)⌋. */
   ccfMaxLag?: number;
@@ -63,14 +63,8 @@ export interface LjungBoxRow {
   pValue: number;
 }
 
-export interface OutlierList {
-  /** Rule applied: |remainder − median| > threshold · 1.4826 · MAD. */
-  threshold: number;
-  median: number;
-  robustSd: number;
-  /** Cell indices (0 = first cell of the series). */
-  indices: number[];
-}
+/** Remainder outliers, each cell judged against the remainder's robust spread at its position in the cycle (`remainderOutliers`). */
+export type OutlierList = RemainderOutlierList;
 
 export type DecompositionOutcome =
   | { method: 'none'; reason: string }
@@ -157,9 +151,6 @@ export interface ChannelDiagnostics {
 /** Cells the process model is fitted to by default: enough for the orders and coefficients, cheap enough for a request. */
 export const DEFAULT_MODEL_CELLS = 1000;
 
-/** Hampel's consistency factor: 1.4826 · MAD estimates σ for normal data (Rousseeuw & Croux 1993, JASA 88:1273). */
-const MAD_TO_SD = 1.4826;
-
 /** Counts NaN entries. */
 function countMissing(x: ArrayLike<number>): number {
   let m = 0;
@@ -185,27 +176,6 @@ function fillGapsLinear(x: Float64Array): Float64Array {
     previous = i;
   }
   return out;
-}
-
-/** Median of the non-NaN values (exact, by selection on a copy). */
-function medianOf(x: ArrayLike<number>): number {
-  const values = new Float64Array(x.length);
-  let count = 0;
-  for (let i = 0; i < x.length; i++) if (!Number.isNaN(x[i])) values[count++] = x[i];
-  return medianInPlace(values, count);
-}
-
-/** Remainder cells beyond `threshold` robust SDs (1.4826 · MAD) from the remainder's median. */
-function remainderOutliers(remainder: Float64Array, threshold: number): OutlierList {
-  const median = medianOf(remainder);
-  const deviations = new Float64Array(remainder.length);
-  for (let i = 0; i < remainder.length; i++) deviations[i] = Math.abs(remainder[i] - median);
-  const robustSd = MAD_TO_SD * medianOf(deviations);
-  const indices: number[] = [];
-  if (robustSd > 0) {
-    for (let i = 0; i < remainder.length; i++) if (Math.abs(remainder[i] - median) > threshold * robustSd) indices.push(i);
-  }
-  return { threshold, median, robustSd, indices };
 }
 
 /** Puts a regularised series on another grid of the same step (NaN outside its own span). */
@@ -363,7 +333,7 @@ function decompositionOf(
       seasonal: c.seasonal,
       remainder: c.remainder,
       weights: null,
-      outliers: remainderOutliers(c.remainder, threshold),
+      outliers: remainderOutliers(c.remainder, { period, threshold }),
     };
   }
   const options = { period, seasonalWindow, robust: method === 'stl-robust' };
@@ -377,7 +347,7 @@ function decompositionOf(
     seasonal: s.seasonal,
     remainder: s.remainder,
     weights: method === 'stl-robust' ? s.weights : null,
-    outliers: remainderOutliers(s.remainder, threshold),
+    outliers: remainderOutliers(s.remainder, { period, threshold }),
   };
 }
 
@@ -398,7 +368,8 @@ function decompositionOf(
  *    grid (`effectiveSampleSize`);
  * 7. decomposition of the undifferenced grid: STL (`stl`, gaps filled linearly) or classical
  *    (`decomposeClassical`, additive, gaps left missing), with remainder outliers beyond
- *    `outlierThreshold` robust SDs (1.4826 · MAD; Hampel 1974; Rousseeuw & Croux 1993);
+ *    `outlierThreshold` robust SDs (1.4826 · MAD; Hampel 1974; Rousseeuw & Croux 1993) of the
+ *    remainder at the same position in the cycle (`remainderOutliers`);
  * 8. cross-correlation (`ccf`) with the partner channel put on the same grid and differenced
  *    alike, with its white-noise band and the lag of the strongest correlation.
  *

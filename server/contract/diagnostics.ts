@@ -177,11 +177,18 @@ export interface LjungBoxRow {
   pValue: number;
 }
 
-/** Remainder outliers: |remainder − median| > threshold · 1.4826 · MAD. */
+/**
+ * Remainder outliers: |remainder − median| > threshold · 1.4826 · MAD, median and MAD taken over
+ * the remainder at the same position in the cycle (± `pooledPhases` positions).
+ */
 export interface Outliers {
   threshold: number;
+  /** Median of the whole remainder (for display; each cell is judged at its position in the cycle). */
   median: number;
+  /** 1.4826 · MAD of the whole remainder (for display). */
   robustSd: number;
+  /** Positions in the cycle pooled on each side of a cell's own when its median and spread are taken. */
+  pooledPhases?: number;
   /** Grid cells (0 = first cell of the series), their times and remainder values. */
   indices: number[];
   times: number[];

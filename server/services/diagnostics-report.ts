@@ -19,7 +19,7 @@ const REFERENCES = [
   'Cleveland, Cleveland, McRae & Terpenning (1990), Journal of Official Statistics 6:3–73 — STL',
   'Geyer (1992), Statistical Science 7:473–483 — initial monotone sequence for the effective sample size',
   'Said & Dickey (1984), Biometrika 71:599–607 — augmented Dickey–Fuller test in the identification',
-  'Rousseeuw & Croux (1993), JASA 88:1273–1283 — 1.4826 · MAD as a robust SD for the outlier rule',
+  'Rousseeuw & Croux (1993), JASA 88:1273–1283 — 1.4826 · MAD as a robust SD for the outlier rule; Hampel (1974), JASA 69:383–393, and Pearson (2002), IEEE Trans. Control Systems Technology 10:55–63 — the Hampel identifier over a window, here the position in the cycle',
   'Jugel, Jerzak, Hackenbroich & Markl (2014), Proc. VLDB Endowment 7:797–808 — min/max per bucket when a long decomposition is thinned for drawing',
   'Gardner, Harvey & Phillips (1980), Applied Statistics 29:311–322 — exact ARMA likelihood by the Kalman filter',
   'Hurvich & Tsai (1989), Biometrika 76:297–307 — AICc; Burnham & Anderson (2002), Model Selection and Multimodel Inference, 2nd ed., §2.6 — models within 2 AICc',
@@ -289,7 +289,10 @@ export function diagnosticsReport(input: {
         alpha: r.bands.alpha,
         decomposition: dec.method,
         stl: dec.method === 'none' ? null : dec.stl,
-        outlierRule: dec.method === 'none' ? null : `|remainder − median| > ${dec.outliers.threshold} × 1.4826 × MAD of the remainder`,
+        outlierRule:
+          dec.method === 'none'
+            ? null
+            : `|remainder − median| > ${dec.outliers.threshold} × 1.4826 × MAD, both taken over the remainder at the same position in the ${dec.period}-step cycle (±${dec.outliers.pooledPhases} position${dec.outliers.pooledPhases === 1 ? '' : 's'} pooled)`,
         ljungBoxLags: r.ljungBox.map((b) => b.lag),
         ccfMaxLag: r.crossCorrelation ? r.crossCorrelation.lags.length >> 1 : null,
         modelCells: r.identification.model?.cells ?? null,
@@ -329,7 +332,11 @@ export function diagnosticsReport(input: {
             period: dec.period,
             ...decompositionParts(dec, r.grid.values, input.resolution ?? 'drawing'),
             outliers: {
-              ...dec.outliers,
+              threshold: dec.outliers.threshold,
+              median: dec.outliers.median,
+              robustSd: dec.outliers.robustSd,
+              pooledPhases: dec.outliers.pooledPhases,
+              indices: dec.outliers.indices,
               times: dec.outliers.indices.map((i) => r.grid.start + i * stepMs),
               values: dec.outliers.indices.map((i) => dec.remainder[i]),
             },
