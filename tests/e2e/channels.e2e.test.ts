@@ -136,6 +136,9 @@ describe('browsing channels and reading their diagnostics', () => {
     ).toBeGreaterThan(1);
     expect(await panel.getByTestId('verdict').textContent()).not.toBe('');
     expect(await panel.getByText('Method and parameters').count()).toBe(1);
+    // the STL settings in plain words with the paper's symbols (Cleveland et al. 1990)
+    const stl = panel.getByTestId('stl-settings');
+    expect(await stl.textContent()).toMatch(/n\(p\)Cycle length\d+ steps.*n\(s\)Seasonal smoothing window/);
     await keepScreenshot(page, 'channel-diagnostics');
     // the process model fitted to what is left after the daily cycle, and the trend with both intervals
     const model = panel.getByTestId('process-model');

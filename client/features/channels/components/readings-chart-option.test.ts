@@ -93,6 +93,8 @@ describe('readings chart helpers', () => {
     expect(mark?.label.backgroundColor).toMatch(/^#/);
     expect(mark?.label.formatter({ name: 'valid maximum', value: 60 })).toBe('valid maximum\n60 °C');
     expect(option.grid.right).toBe(LIMIT_LABEL_ROOM);
+    // limits far from every reading (data −50…72, so −200 and 400 lie beyond a quarter of the span) need no room
+    expect((readingsChartOption(raw, { ...ctx, validMin: -200, validMax: 400 }) as { grid: { right: number } }).grid.right).toBeLessThan(LIMIT_LABEL_ROOM);
     const noLimits = readingsChartOption(raw, { ...ctx, validMin: null, validMax: null }) as { grid: { right: number }; series: Array<{ markLine?: unknown }> };
     expect(noLimits.grid.right).toBeLessThan(LIMIT_LABEL_ROOM);
     expect(noLimits.series.some((s) => s.markLine)).toBe(false);

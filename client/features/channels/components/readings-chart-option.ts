@@ -66,6 +66,24 @@ export function outOfRangePoints(series: Series, validMin: number | null, validM
   return out;
 }
 
+/** Every value the chart draws: the readings, or each cell's minimum and maximum (gaps left out). */
+const plottedValues = (series: Series): number[] =>
+  (series.shape === 'readings' ? series.value : [...series.min, ...series.max]).filter((v): v is number => v !== null);
+
+/**
+ * Whether a limit lies within the plotted values' extent widened by a quarter on each side: the
+ * value axis fits the data (not the limits), so a limit far from every reading is not drawn and
+ * needs no room for its label.
+ */
+function nearData(series: Series, limit: number): boolean {
+  const values = plottedValues(series);
+  if (values.length === 0) return false;
+  const lo = Math.min(...values);
+  const hi = Math.max(...values);
+  const pad = Math.max((hi - lo) / 4, Math.abs(hi) * 0.01);
+  return limit >= lo - pad && limit <= hi + pad;
+}
+
 /** Pixels kept right of the plot for the valid-limit labels ("valid maximum" over "60 °C"). */
 export const LIMIT_LABEL_ROOM = 104;
 
@@ -108,7 +126,7 @@ const TEST_INK = '#6b3fa0';
 export function withTestReadings(option: EChartsCoreOption, points: readonly TestReadingPoint[], series: Series, ctx: ReadingsChartContext): EChartsCoreOption {
   const shown = points.filter((p) => p.ts >= ctx.range.from && p.ts < ctx.range.to);
   if (shown.length === 0) return option;
-  const regular = (series.shape === 'readings' ? series.value : [...series.min, ...series.max]).filter((v): v is number => v !== null);
+  const regular = plottedValues(series);
   const bounds = [...regular, ...(ctx.validMin !== null ? [ctx.validMin] : []), ...(ctx.validMax !== null ? [ctx.validMax] : [])];
   const lo = Math.min(...bounds);
   const hi = Math.max(...bounds);
@@ -224,8 +242,8 @@ export function readingsChartOption(series: Series, ctx: ReadingsChartContext): 
     animation: false,
     textStyle: { fontFamily: 'Figtree Variable, system-ui, sans-serif', color: INK },
     legend: { top: 0, right: 0 },
-    // with limits drawn, the right margin holds their labels outside the plot, clear of the markers
-    grid: { left: 56, right: limits.length > 0 ? LIMIT_LABEL_ROOM : 24, top: 36, bottom: 84 },
+    // with a limit near the data, the right margin holds its label outside the plot, clear of the markers
+    grid: { left: 56, right: limits.some((l) => nearData(series, l.yAxis)) ? LIMIT_LABEL_ROOM : 24, top: 36, bottom: 84 },
     tooltip: {
       trigger: 'axis',
       valueFormatter: (v: unknown) => (typeof v === 'number' ? `${Number(v.toPrecision(6))}${unit}` : '—'),
@@ -251,7 +269,7 @@ export function readingsChartOption(series: Series, ctx: ReadingsChartContext): 
 /** The chart's content in words: how many points, the extremes and how many lie outside the valid range. */
 export function readingsSummary(series: Series, ctx: ReadingsChartContext): string {
   const tz = ctx.timezone;
-  const values = (series.shape === 'readings' ? series.value : [...series.min, ...series.max]).filter((v): v is number => v !== null);
+  const values = plottedValues(series);
   const span = `from ${formatZoned(ctx.range.from, tz)} to ${formatZoned(ctx.range.to, tz)} (${tz}, ${zoneOffsetLabel(ctx.range.to, tz)})`;
   if (values.length === 0) return `No readings ${span}.`;
   const unit = ctx.unit ? ` ${ctx.unit}` : '';
