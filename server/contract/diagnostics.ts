@@ -418,7 +418,16 @@ export interface DiagnosticsReport {
     emptyCells: number[];
   };
   analysed: { n: number; missing: number };
-  period: { used: number | null; source: 'manual' | 'detected' | 'none'; candidates: PeriodCandidate[] };
+  period: {
+    /** The one period (in steps) every section of the report used; null when none. */
+    used: number | null;
+    source: 'manual' | 'detected' | 'none';
+    /** The spectral peak's unrounded estimate behind a detected period (not a second period); null otherwise. Always sent; optional for older fixtures. */
+    rawEstimate?: number | null;
+    /** One sentence stating the period used and, when detected, the raw estimate as such. Always sent; optional for older fixtures. */
+    statement?: string;
+    candidates: PeriodCandidate[];
+  };
   acf: { lags: number[]; values: Array<number | null> };
   pacf: { lags: number[]; values: Array<number | null> };
   bands: { alpha: number; z: number; whiteNoise: number; bartlett: Array<number | null> };

@@ -97,6 +97,28 @@ function sig(x: number, digits = 3): string {
   return decimals > 12 ? x.toExponential(digits - 1) : x.toFixed(decimals);
 }
 
+/** A calendar period in words, for the period statement. */
+const CALENDAR_WORDS = { hour: 'an hour', day: 'a day', week: 'a week', days: 'a whole number of days' } as const;
+
+/**
+ * The one period the report uses, stated once: the period every section ran with, and — when it
+ * was detected — the spectral peak's raw estimate named as such, so a figure such as 287.1 next
+ * to a period of 288 steps reads as the estimate behind it, not as a second period.
+ */
+function periodStatement(r: ChannelDiagnostics, stepMs: number): { rawEstimate: number | null; statement: string } {
+  const used = r.period.used;
+  if (used === null) return { rawEstimate: null, statement: 'No seasonal period was used.' };
+  const length = `${used} steps (${describeDuration(used * stepMs)})`;
+  if (r.period.source === 'manual') return { rawEstimate: null, statement: `Period used everywhere in this report: ${length}, set by hand.` };
+  const found = r.period.candidates.find((c) => c.period === used) ?? null;
+  if (found === null) return { rawEstimate: null, statement: `Period used everywhere in this report: ${length}, detected.` };
+  const raw = Number(found.exactPeriod.toFixed(1));
+  const how = found.calendar
+    ? `the spectral peak's raw estimate, ${raw} steps, lies within one frequency step of ${CALENDAR_WORDS[found.calendar]} and is reported as exactly that`
+    : `the spectral peak's raw estimate, ${raw} steps, rounded to whole steps`;
+  return { rawEstimate: found.exactPeriod, statement: `Period used everywhere in this report: ${length}, detected (${how}).` };
+}
+
 /** The process model section: the chosen ARMA model, its candidates, residual test and a plain sentence. */
 function processModelSection(r: ChannelDiagnostics, stepMs: number, label: string): ProcessModel {
   const m = r.identification.model;
@@ -314,6 +336,7 @@ export function diagnosticsReport(input: {
     period: {
       used: r.period.used,
       source: r.period.source,
+      ...periodStatement(r, stepMs),
       candidates: r.period.candidates.map((c) => ({ ...c, periodS: c.period * stepS })),
     },
     acf: { lags: Array.from({ length: r.acf.length }, (_, k) => k), values: plain(r.acf) },

@@ -168,6 +168,45 @@ describe('GET /channels/:channelId/diagnostics', () => {
     expect(r.trend.sentence).toMatch(/^Allowing for autocorrelation, Air temperature \(after removing the seasonal cycle\) changes by /);
   });
 
+  it('states one period: a daily cycle at 5-minute steps is 288 steps in every section, with the raw estimate named as such', async () => {
+    // a seeded week of 5-minute readings on a channel of its own: a daily cycle plus noise
+    const founder = await sessionCookieFor(t.db, t.config.sessionSecret, f.founder.id);
+    const made = await request(t.app)
+      .post(`/api/v1/labs/${f.lab.slug}/loggers/${f.ids.loggerId}/channels`)
+      .set('Cookie', founder)
+      .send({ key: 'light_5m', label: 'Bench light', unit: 'lx' })
+      .expect(201);
+    const FIVE = 300_000;
+    const rnd = lcg(11);
+    const rows = Array.from({ length: 7 * 288 }, (_, i) => ({
+      channel: 'light_5m',
+      ts: T0 + i * FIVE,
+      value: 50 + 20 * Math.sin((2 * Math.PI * i) / 288) + 3 * rnd(),
+    }));
+    await ingest(rows);
+    const week = `from=${new Date(T0).toISOString()}&to=${new Date(T0 + 7 * 288 * FIVE).toISOString()}`;
+    for (const decomposition of ['stl', 'classical']) {
+      const res = await request(t.app)
+        .get(`/api/v1/labs/${f.lab.slug}/channels/${made.body.channel.id}/diagnostics?${week}&step=300&decomposition=${decomposition}`)
+        .set('Cookie', cookie)
+        .expect(200);
+      const r = res.body;
+      expect(r.period).toMatchObject({ used: 288, source: 'detected' });
+      expect(r.identification.period).toBe(288);
+      expect(r.identification.evidence.period).toBe(288);
+      expect(r.decomposition.period).toBe(288);
+      expect(r.method.resolved.period).toBe(288);
+      expect(r.processModel.period).toBe(288);
+      // the raw estimate is the used candidate's, named as an estimate and not as a second period
+      const used = r.period.candidates.find((c: { period: number }) => c.period === 288);
+      expect(r.period.rawEstimate).toBe(used.exactPeriod);
+      expect(Math.abs(r.period.rawEstimate - 288)).toBeGreaterThan(0);
+      expect(r.period.statement).toBe(
+        `Period used everywhere in this report: 288 steps (1 d), detected (the spectral peak's raw estimate, ${Number(used.exactPeriod.toFixed(1))} steps, lies within one frequency step of a day and is reported as exactly that).`,
+      );
+    }
+  });
+
   it('counts readings as readings and cells as cells when several readings fall in one step', async () => {
     // hourly steps over six days of ten-minute readings: 144 cells from 864 − 5 readings (the gap)
     const hourly = await request(t.app).get(`${base}/diagnostics?${range}&step=3600`).set('Cookie', cookie).expect(200);
