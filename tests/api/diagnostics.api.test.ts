@@ -45,6 +45,13 @@ async function ingest(readings: Array<{ channel: string; ts: number; value: numb
   await request(t.app).post('/api/v1/ingest').set('Authorization', `Bearer ${f.ingestKey}`).send({ readings }).expect(200);
 }
 
+/** A new channel on the fixture's logger, made by the lab's founder; its id. */
+async function addChannel(channel: { key: string; label: string; unit: string }): Promise<number> {
+  const founder = await sessionCookieFor(t.db, t.config.sessionSecret, f.founder.id);
+  const made = await request(t.app).post(`/api/v1/labs/${f.lab.slug}/loggers/${f.ids.loggerId}/channels`).set('Cookie', founder).send(channel).expect(201);
+  return made.body.channel.id;
+}
+
 beforeAll(async () => {
   t = await buildTestApp();
   f = await buildLabWithEverything(t.db);
@@ -52,13 +59,7 @@ beforeAll(async () => {
   const scientist = await buildMember(t.db, f.lab, { role: 'scientist' });
   cookie = await sessionCookieFor(t.db, t.config.sessionSecret, scientist.id);
   base = `/api/v1/labs/${f.lab.slug}/channels/${f.ids.channelId}`;
-  const founder = await sessionCookieFor(t.db, t.config.sessionSecret, f.founder.id);
-  const made = await request(t.app)
-    .post(`/api/v1/labs/${f.lab.slug}/loggers/${f.ids.loggerId}/channels`)
-    .set('Cookie', founder)
-    .send({ key: 'soil_m', label: 'Soil moisture', unit: '%' })
-    .expect(201);
-  soilId = made.body.channel.id;
+  soilId = await addChannel({ key: 'soil_m', label: 'Soil moisture', unit: '%' });
   const rnd = lcg(7);
   let e = 0;
   const level: number[] = [];
@@ -170,12 +171,7 @@ describe('GET /channels/:channelId/diagnostics', () => {
 
   it('states one period: a daily cycle at 5-minute steps is 288 steps in every section, with the raw estimate named as such', async () => {
     // a seeded week of 5-minute readings on a channel of its own: a daily cycle plus noise
-    const founder = await sessionCookieFor(t.db, t.config.sessionSecret, f.founder.id);
-    const made = await request(t.app)
-      .post(`/api/v1/labs/${f.lab.slug}/loggers/${f.ids.loggerId}/channels`)
-      .set('Cookie', founder)
-      .send({ key: 'light_5m', label: 'Bench light', unit: 'lx' })
-      .expect(201);
+    const lightId = await addChannel({ key: 'light_5m', label: 'Bench light', unit: 'lx' });
     const FIVE = 300_000;
     const rnd = lcg(11);
     const rows = Array.from({ length: 7 * 288 }, (_, i) => ({
@@ -187,7 +183,7 @@ describe('GET /channels/:channelId/diagnostics', () => {
     const week = `from=${new Date(T0).toISOString()}&to=${new Date(T0 + 7 * 288 * FIVE).toISOString()}`;
     for (const decomposition of ['stl', 'classical']) {
       const res = await request(t.app)
-        .get(`/api/v1/labs/${f.lab.slug}/channels/${made.body.channel.id}/diagnostics?${week}&step=300&decomposition=${decomposition}`)
+        .get(`/api/v1/labs/${f.lab.slug}/channels/${lightId}/diagnostics?${week}&step=300&decomposition=${decomposition}`)
         .set('Cookie', cookie)
         .expect(200);
       const r = res.body;
