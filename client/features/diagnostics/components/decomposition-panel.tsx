@@ -4,6 +4,7 @@ import { formatZoned } from '../../../components/zoned-time.ts';
 import type { DiagnosticsReport } from '@shared/contract/diagnostics.ts';
 import { decompositionChartOption } from './decomposition-chart-option.ts';
 import { withLeftOutSpans } from './left-out-spans.ts';
+import { outlierRule } from './outlier-rule.ts';
 
 const METHOD_NAMES = { stl: 'STL', 'stl-robust': 'robust STL', classical: 'classical additive decomposition' } as const;
 
@@ -25,7 +26,7 @@ export function DecompositionPanel({ report, timezone, pngPrefix }: { report: Di
   const outliers =
     o.indices.length === 0
       ? 'no remainder outliers'
-      : `${o.indices.length} remainder outlier${o.indices.length === 1 ? '' : 's'} (|remainder − ${o.median.toPrecision(3)}| > ${o.threshold} × ${o.robustSd.toPrecision(3)}), first at ${formatZoned(o.times[0], timezone)}`;
+      : `${o.indices.length} remainder outlier${o.indices.length === 1 ? '' : 's'} (${outlierRule(o)}), first at ${formatZoned(o.times[0], timezone)}`;
   const own = report.method.excludedNotes.filter((n) => n.removedFrom === report.channel.id);
   const leftOut = own.length
     ? ` Shaded: ${own.length} span${own.length === 1 ? '' : 's'} left out of the analysis (${own.map((n) => n.kind).join(', ')}).`
