@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { decompositionChartOption, observedFromParts } from './decomposition-chart-option.ts';
+import { decompositionChartOption, observedFromParts, observedOf } from './decomposition-chart-option.ts';
 
 // The additive identity observed = trend + seasonal + remainder (Cleveland et al. 1990, eq. 1 —
 // equation number from memory); parts invented for the test.
@@ -42,5 +42,26 @@ describe('observedFromParts', () => {
       [1_000 + 5 * 60_000, 11],
       [1_000 + 9 * 60_000, 12],
     ]);
+  });
+});
+
+describe('observedOf', () => {
+  it('draws the observed values the server sent, whole, where the classical trend is undefined at the ends', () => {
+    // hand-made parts: a trend missing in the first and last cell, as decompose() leaves it (R docs, ?decompose)
+    const d = {
+      method: 'classical' as const,
+      period: 2,
+      cells: null,
+      thinned: null,
+      observed: [10, 11, 12, 13],
+      trend: [null, 11, 12, null],
+      seasonal: [0.5, -0.5, 0.5, -0.5],
+      remainder: [null, 0.5, -0.5, null],
+      weights: null,
+      outliers: { cells: [], values: [] },
+    } as unknown as Parameters<typeof observedOf>[0];
+    expect(observedOf(d, [])).toEqual([10, 11, 12, 13]);
+    // without the server's values, the sum of the parts leaves the ends missing
+    expect(observedOf({ ...d, observed: undefined }, [])).toEqual([null, 11, 12, null]);
   });
 });

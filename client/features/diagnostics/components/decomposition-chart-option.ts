@@ -28,13 +28,22 @@ export function observedFromParts(d: Parts, emptyCells: readonly number[]): Arra
 }
 
 /**
+ * The observed panel's values: the grid values as the server sent them (whole, also where the
+ * classical trend is undefined at the ends), or, from a server that sent no `observed`, the sum
+ * of the parts.
+ */
+export function observedOf(d: Parts, emptyCells: readonly number[]): Array<number | null> {
+  return d.observed ?? observedFromParts(d, emptyCells);
+}
+
+/**
  * Four stacked panels sharing one time axis on the logger's clock: observed, trend, seasonal
  * and remainder, with the remainder's outliers as red diamonds. A decomposition thinned for
  * drawing is drawn at its kept cells (their times come from `d.cells`). Animation is off.
  */
 export function decompositionChartOption(d: Parts, grid: { start: number; stepMs: number; emptyCells: number[] }, timezone: string): EChartsCoreOption {
   const times = cellsOfParts(d).map((i) => grid.start + i * grid.stepMs);
-  const columns = [observedFromParts(d, grid.emptyCells), d.trend, d.seasonal, d.remainder];
+  const columns = [observedOf(d, grid.emptyCells), d.trend, d.seasonal, d.remainder];
   const panelHeight = 18; // percent of the chart per panel
   const grids = PANELS.map((_, i) => ({ left: 64, right: 16, top: `${4 + i * (panelHeight + 5.5)}%`, height: `${panelHeight}%` }));
   return {
