@@ -264,26 +264,26 @@ export function diagnosticsReport(input: {
   const notes = [
     `Readings of [${new Date(input.range.from).toISOString()}, ${new Date(input.range.to).toISOString()}) were put on a regular grid of ${stepS} s cells aligned to whole steps of UTC, each cell the ${params.agg} of its readings` +
       (input.source.kind === 'rollups' ? ` (computed exactly from the ${input.source.resolutionS} s rollups).` : '.'),
-    'ACF, PACF, Ljung–Box, the effective sample size and the CCF skip empty cells as R does with na.action = na.pass.',
+    'ACF, PACF, Ljung–Box, the effective sample size and the CCF skip empty cells: each lag uses only the pairs of cells that both hold a value, and nothing is filled in.',
     `Ordinary differences: ${params.difference}; seasonal differences: ${params.seasonalDifference}${r.period.used !== null && params.seasonalDifference ? ` (lag ${r.period.used})` : ''}. The decomposition and the effective sample size use the undifferenced grid; the CCF differences both channels alike.`,
   ];
   const model = r.identification.model;
   if (model) {
     notes.push(
-      `Process model: every ARMA(p, q) with p, q ≤ 3 and a mean fitted by exact Gaussian maximum likelihood (Kalman filter, as R's arima(method = "ML")) to the last ${model.cells} cells of ${model.fittedOn === 'remainder' ? 'the series less its seasonal component' : 'the analysed series'}; ` +
+      `Process model: every ARMA(p, q) with p, q ≤ 3 and a mean fitted by exact Gaussian maximum likelihood (Kalman filter; Gardner, Harvey & Phillips 1980) to the last ${model.cells} cells of ${model.fittedOn === 'remainder' ? 'the series less its seasonal component' : 'the analysed series'}; ` +
         'the verdict follows the lowest BIC among admissible fits (converged, every root at least 1.01 from the unit circle; a pure AR model only needs to be stationary), and AICc is listed beside it.',
     );
   }
   if (r.crossCorrelation) {
     const c = r.crossCorrelation;
     notes.push(
-      `Cross-correlation: both channels filtered by the AR(${c.prewhitening?.order ?? 0}) model of the partner (Yule–Walker, order by AIC, as R's ar()), then the CCF of the filtered pair over ±${c.lags.length >> 1} lags; ` +
+      `Cross-correlation: both channels filtered by the AR(${c.prewhitening?.order ?? 0}) model of the partner (Yule–Walker, order chosen by AIC), then the CCF of the filtered pair over ±${c.lags.length >> 1} lags; ` +
         `a lag counts as a relation only beyond the band that holds for all lags together (${c.simultaneousMethod}). The raw CCF is kept under crossCorrelation.raw for contrast and is no test.`,
     );
   }
   if (r.trend.available) {
     notes.push(
-      `Trend: least squares against the step number on ${r.trend.fittedOn === 'adjusted' ? 'the series less its seasonal component' : 'the series'}, with a Newey–West standard error (Bartlett kernel, lag ${r.trend.lag} from Andrews' AR(1) plug-in rule, never below R's ⌊4(n/100)^(2/9)⌋); the ordinary least-squares interval is given beside it for contrast.`,
+      `Trend: least squares against the step number on ${r.trend.fittedOn === 'adjusted' ? 'the series less its seasonal component' : 'the series'}, with a Newey–West standard error (Bartlett kernel, lag ${r.trend.lag} from Andrews' AR(1) plug-in rule, never below Newey & West's (1994) ⌊4(n/100)^(2/9)⌋); the ordinary least-squares interval is given beside it for contrast.`,
     );
   }
   const excluded = input.excludedNotes ?? [];
