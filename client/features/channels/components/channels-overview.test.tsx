@@ -2,7 +2,8 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import { cleanup, fireEvent, screen, within } from '@testing-library/react';
 import { renderWithProviders } from '../../../components/test-harness.tsx';
 import type { ChannelOverviewRow, ChannelStatus } from '@shared/contract/channels.ts';
-import { ChannelsOverview, MAX_CHOSEN } from './channels-overview.tsx';
+import { ChannelsOverview } from './channels-overview.tsx';
+import { MAX_TOGETHER } from './together-url.ts';
 
 afterEach(() => cleanup());
 
@@ -98,7 +99,7 @@ const CHOICES = [
 describe('choosing channels to open together', () => {
   it('counts the chosen channels across loggers and filters, and links to them in the order chosen', () => {
     const { router } = renderWithProviders(<ChannelsOverview slug="vines" rows={CHOICES} now={NOW} />, '/c');
-    expect(screen.getByTestId('chosen-count').textContent).toBe(`0 of ${MAX_CHOSEN} chosen`);
+    expect(screen.getByTestId('chosen-count').textContent).toBe(`0 of ${MAX_TOGETHER} chosen`);
     expect(screen.queryByRole('link', { name: 'Open together' })).toBeNull();
     tick('Lower terrace · Soil temperature');
     fireEvent.change(screen.getByLabelText('Logger'), { target: { value: '3' } });

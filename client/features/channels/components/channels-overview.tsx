@@ -7,9 +7,7 @@ import type { ChannelOverviewRow, ChannelStatus } from '@shared/contract/channel
 import { filterChannels, readChannelFilter } from './channel-filter.ts';
 import { ChannelsTable, type ChannelChoice } from './channels-table.tsx';
 import { STATUS_LOOKS, StatusLegend } from './status-badge.tsx';
-
-/** Most channels opened together on one chart (the channels-together page takes no more). */
-export const MAX_CHOSEN = 6;
+import { MAX_TOGETHER } from './together-url.ts';
 
 /**
  * The channels overview: filters (text, status, logger) kept in the page's query string so a
@@ -25,7 +23,7 @@ export function ChannelsOverview({ slug, rows, now }: { slug: string; rows: Chan
   // the choice lives in the query string too (`pick`), so coming back from the chart keeps it
   // (held here as well, so a checkbox answers at once rather than after the navigation)
   const [picked, setPicked] = useState(() => [...new Set((params.get('pick') ?? '').split(',').map(Number))]);
-  const chosen = useMemo(() => picked.filter((id) => rows.some((r) => r.id === id)).slice(0, MAX_CHOSEN), [picked, rows]);
+  const chosen = useMemo(() => picked.filter((id) => rows.some((r) => r.id === id)).slice(0, MAX_TOGETHER), [picked, rows]);
   const setChosen = (ids: number[]) => {
     setPicked(ids);
     set('pick', ids.join(','));
@@ -41,8 +39,8 @@ export function ChannelsOverview({ slug, rows, now }: { slug: string; rows: Chan
           setRefused(null);
           return setChosen(chosen.filter((id) => id !== row.id));
         }
-        if (chosen.length >= MAX_CHOSEN)
-          return setRefused(`One chart takes at most ${MAX_CHOSEN} channels: ${name} was not added. Untick one of the six to choose it instead.`);
+        if (chosen.length >= MAX_TOGETHER)
+          return setRefused(`One chart takes at most ${MAX_TOGETHER} channels: ${name} was not added. Untick one of the six to choose it instead.`);
         setRefused(null);
         if (!chosen.includes(row.id)) setChosen([...chosen, row.id]);
       },
@@ -90,7 +88,7 @@ export function ChannelsOverview({ slug, rows, now }: { slug: string; rows: Chan
       <section aria-label="Open channels together" className="grid gap-2 rounded-xl border border-rule bg-card p-3 text-sm">
         <div className="flex flex-wrap items-center gap-3">
           <p aria-live="polite" data-testid="chosen-count" className="font-medium">
-            {chosen.length} of {MAX_CHOSEN} chosen
+            {chosen.length} of {MAX_TOGETHER} chosen
           </p>
           {chosen.length > 0 ? (
             <Link to={paths.labChannelsTogether.href(slug, `?channels=${chosen.join(',')}`)} className={buttonClasses('primary', 'sm')}>
