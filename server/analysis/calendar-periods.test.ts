@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { calendarPeriodNear } from './calendar-period-near.ts';
-import { calendarPeriods, dayMultiples } from './calendar-periods.ts';
+import { calendarPeriods, dayMultiples, dayParts } from './calendar-periods.ts';
 
 const MINUTE = 60_000;
 
@@ -50,5 +50,18 @@ describe('calendarPeriodNear', () => {
     expect(dayMultiples(300_000, 10_000)).toEqual([2, 3, 4, 5, 6].map((k) => ({ name: 'days', steps: 288 * k })));
     expect(dayMultiples(300_000, 1000).map((c) => c.steps)).toEqual([576, 864]);
     expect(dayMultiples(7 * 60_000, 10_000)).toEqual([]); // a day is not a whole number of 7-minute steps
+  });
+});
+
+describe('dayParts', () => {
+  it('lists the whole-hour parts of a day (12, 8, 6, 4, 3, 2 h) that are whole numbers of steps, within 2..maxPeriod', () => {
+    expect(dayParts(5 * MINUTE, 10_000)).toEqual([144, 96, 72, 48, 36, 24].map((steps) => ({ name: 'hours', steps })));
+    // An hourly grid: 12, 8, 6, 4, 3 and 2 steps.
+    expect(dayParts(60 * MINUTE, 10_000).map((c) => c.steps)).toEqual([12, 8, 6, 4, 3, 2]);
+    // 45-minute steps: a day is 32 steps, so 8 h (10.67), 4 h, 2 h are not whole; 12 h = 16, 6 h = 8, 3 h = 4.
+    expect(dayParts(45 * MINUTE, 10_000).map((c) => c.steps)).toEqual([16, 8, 4]);
+    expect(dayParts(5 * MINUTE, 100).map((c) => c.steps)).toEqual([96, 72, 48, 36, 24]);
+    // 7 minutes: a day is not a whole number of steps, so none of its parts is listed.
+    expect(dayParts(7 * MINUTE, 10_000)).toEqual([]);
   });
 });

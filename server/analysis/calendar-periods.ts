@@ -1,7 +1,7 @@
 import { AnalysisInputError } from './analysis-input-error.ts';
 
 /** The calendar cycles a logger's grid can carry. */
-export type CalendarName = 'hour' | 'day' | 'week' | 'days';
+export type CalendarName = 'hour' | 'day' | 'week' | 'days' | 'hours';
 
 export interface CalendarPeriod {
   name: CalendarName;
@@ -55,5 +55,26 @@ export function dayMultiples(stepMs: number, maxPeriod: number): CalendarPeriod[
   if (!day) return [];
   const out: CalendarPeriod[] = [];
   for (let k = 2; k <= 6; k++) if (k * day.steps <= maxPeriod) out.push({ name: 'days', steps: k * day.steps });
+  return out;
+}
+
+/**
+ * The whole-hour parts of a day — 12, 8, 6, 4, 3 and 2 hours (a day divided by 2, 3, 4, 6, 8,
+ * 12) — that are a whole number of grid steps between 2 and `maxPeriod` (name 'hours'): cycles
+ * such as a freezer's defrost every 6 hours or a half-day pattern. Like the day multiples they are
+ * not tested at their own frequency; a cycle the open search finds within one Fourier bin of one
+ * of them is reported as exactly that many steps (a raw 143.2 steps on a 5-minute grid is 12
+ * hours within the resolution of the record, not a cycle of 143 steps).
+ *
+ * Cost: O(1).
+ */
+export function dayParts(stepMs: number, maxPeriod: number): CalendarPeriod[] {
+  const day = calendarPeriods(stepMs, Number.MAX_SAFE_INTEGER).find((c) => c.name === 'day');
+  if (!day) return [];
+  const out: CalendarPeriod[] = [];
+  for (const parts of [2, 3, 4, 6, 8, 12]) {
+    const steps = day.steps / parts;
+    if (Number.isInteger(steps) && steps >= 2 && steps <= maxPeriod) out.push({ name: 'hours', steps });
+  }
   return out;
 }

@@ -82,4 +82,59 @@ describe('detectPeriod on simulated logger series (issue #16 targets)', () => {
       expect(agree, name).toBeGreaterThanOrEqual(19);
     }
   }, 60_000);
+
+  it('a daylight-shaped day on 4–5 days of record is the day or nothing, never a part of the day', () => {
+    // An arch that is zero at night (rich in harmonics), amplitude 2–4 noise SD, φ₅ 0.90–0.99,
+    // drawn per seed; 100 seeds each. Before the harmonic rule half of these records ended as
+    // "no period" and a few as a half day (e.g. 146 steps); see tests/bench/README.md.
+    const arch = (days: number, stepMinutes: number, salt: number) => (seed: number) => {
+      const draw = seededUniform(salt + seed);
+      return cycleSeries({ stepMinutes, days, amplitude: 2 + 2 * draw(), phi5: 0.9 + 0.09 * draw(), shape: 'daylight' }, seed);
+    };
+    for (const [days, step, salt, atLeast] of [
+      [4, 5, 7000, 50],
+      [5, 5, 7000, 75],
+      [4, 10, 8000, 45],
+      [5, 10, 8000, 70],
+    ] as const) {
+      const perDay = 1440 / step;
+      const verdicts = Array.from({ length: 100 }, (_, i) => detectPeriod(arch(days, step, salt)(i + 1), { stepMs: step * MINUTE_MS }).best);
+      expect(verdicts.filter((v) => v === perDay).length, `${days} days at ${step}-min steps: the day`).toBeGreaterThanOrEqual(atLeast);
+      expect(
+        verdicts.filter((v) => v !== perDay && v !== null).length,
+        `${days} days at ${step}-min steps: anything but the day or nothing`,
+      ).toBeLessThanOrEqual(1);
+    }
+  }, 60_000);
+
+  it('a half-day cycle is reported as 144 steps = 12 hours, not as a period one or two steps off, nor as the day', () => {
+    // Sine of period 144 five-minute steps, amplitude 1–3 noise SD, φ₅ 0.50–0.95; 100 seeds.
+    for (const [days, atLeast] of [
+      [4, 97],
+      [7, 99],
+    ] as const) {
+      const make = (seed: number) => {
+        const draw = seededUniform(9500 + seed);
+        return cycleSeries({ stepMinutes: 5, days, amplitude: 1 + 2 * draw(), phi5: 0.5 + 0.45 * draw(), period: 144 }, seed);
+      };
+      expect(hits(100, 5, make, 144), `${days} days`).toBeGreaterThanOrEqual(atLeast);
+    }
+    const one = detectPeriod(cycleSeries({ stepMinutes: 5, days: 7, amplitude: 2, phi5: 0.8, period: 144 }, 3), { stepMs: 5 * MINUTE_MS });
+    expect(one.candidates[0]).toMatchObject({ period: 144, calendar: 'hours', significant: true });
+    expect(one.candidates[0].note).toContain('144 steps = 12 hours');
+  }, 60_000);
+
+  it('short records without a cycle still get no period: AR(1) φ 0.9 and 0.98, storms, 3–5 days', () => {
+    for (const days of [3, 4, 5]) {
+      for (const phi of [0.9, 0.98])
+        expect(
+          hits(100, 5, (seed) => ar1Noise(days * 288, phi, 1, seededNormal(seed)), null),
+          `AR(1) φ ${phi}, ${days} days`,
+        ).toBeGreaterThanOrEqual(98);
+      expect(
+        hits(100, 5, (seed) => stormLevel(days * 288, 5, seed), null),
+        `storms, ${days} days`,
+      ).toBeGreaterThanOrEqual(98);
+    }
+  }, 60_000);
 });

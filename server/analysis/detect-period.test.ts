@@ -3,6 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { arYuleWalker } from './ar-yule-walker.ts';
 import { detectPeriod } from './detect-period.ts';
 import { removeLinearTrend } from './remove-linear-trend.ts';
+import { cycleSeries } from './period-scenarios.testkit.ts';
 import { simulateArma } from './seeded-simulation.testkit.ts';
 
 const MINUTE = 60_000;
@@ -124,5 +125,32 @@ describe('detectPeriod', () => {
     expect(c.note).toMatch(/^576 steps = 2 days \(raw estimate [\d.]+, within the spectral resolution/);
     // without the grid step nothing is snapped
     expect(detectPeriod(x).candidates[0].calendar).toBeNull();
+  });
+
+  it('reports a daylight-shaped day seen 5 times as the day, and its strong half-day harmonic as part of it, not as a period', () => {
+    // Simulation (not a reference value): an arch zero at night, amplitude 4 noise SD, under
+    // AR(1) φ₅ 0.99, five days of 5-minute steps. Before the harmonic rule the search answered
+    // 143 steps (the half-day harmonic, ACF −0.42 there) and left the day unsupported (5 cycles,
+    // ACF 0.64 inside Bartlett's band under so persistent a background).
+    const x = cycleSeries({ stepMinutes: 5, days: 5, amplitude: 4, phi5: 0.99, shape: 'daylight' }, 1);
+    const found = detectPeriod(x, { stepMs: 5 * MINUTE });
+    expect(found.best).toBe(288);
+    const day = found.candidates.find((c) => c.period === 288)!;
+    expect(day).toMatchObject({ significant: true, harmonicOf: null });
+    expect(day.sources).toEqual(['periodogram', 'harmonics']);
+    expect(day.note).toContain('its harmonics stand out too');
+    const half = found.candidates.find((c) => c.period === 144)!;
+    expect(half).toMatchObject({ significant: false, harmonicOf: 288, calendar: 'hours' });
+    expect(half.pValue).toBeLessThan(0.01);
+    expect(half.acf).toBeLessThan(0);
+    expect(half.note).toContain('a harmonic of the 288-step cycle');
+  });
+
+  it('does not call a true half-day cycle a harmonic of the day when the day is not there', () => {
+    // Simulation: a 144-step sine (12 h of 5-minute steps), amplitude 2 noise SD, AR(1) φ 0.8, 7 days.
+    const x = cycleSeries({ stepMinutes: 5, days: 7, amplitude: 2, phi5: 0.8, period: 144 }, 5);
+    const found = detectPeriod(x, { stepMs: 5 * MINUTE });
+    expect(found.best).toBe(144);
+    expect(found.candidates[0]).toMatchObject({ period: 144, harmonicOf: null, calendar: 'hours' });
   });
 });

@@ -4,7 +4,7 @@ import { arSpectrum } from './ar-spectrum.ts';
 import { autocorrelation } from './autocorrelation.ts';
 import { autocorrelationFromPeriodogram } from './autocorrelation-from-periodogram.ts';
 import { calendarPeriodNear } from './calendar-period-near.ts';
-import { type CalendarName, type CalendarPeriod, calendarPeriods, dayMultiples } from './calendar-periods.ts';
+import { type CalendarName, type CalendarPeriod, calendarPeriods, dayMultiples, dayParts } from './calendar-periods.ts';
 import { durbinLevinson } from './durbin-levinson.ts';
 import { integerOption } from './integer-option.ts';
 import { normalQuantile } from './normal-quantile.ts';
@@ -47,10 +47,24 @@ export interface PeriodCandidate {
    * and doubled when both families are tested (Bonferroni over the two).
    */
   pValue: number;
-  /** Which views support it: the periodogram always, the ACF when it exceeds the background's ACF by `acfBand`. */
-  sources: ('periodogram' | 'acf')[];
-  /** pValue < alpha, and — for a candidate repeating fewer than 6 times in the record — ACF support. */
+  /**
+   * Which views support it: the periodogram always, the ACF when it exceeds the background's ACF
+   * by `acfBand`, `harmonics` when the cycle's own harmonics 2f…4f stand out over the background
+   * (a cycle that is not a pure sine puts power there).
+   */
+  sources: ('periodogram' | 'acf' | 'harmonics')[];
+  /**
+   * pValue < alpha, and — for a candidate repeating fewer than 6 times in the record — ACF
+   * support, or harmonic support with at least 3 repetitions and an ACF above the background's;
+   * never for a harmonic of another candidate (`harmonicOf`).
+   */
   significant: boolean;
+  /**
+   * The longer candidate this one is a harmonic of (its frequency within one Fourier bin of k
+   * times that candidate's, k = 2…4, with the longer one spectrally significant and repeating
+   * better in the ACF), or null. A harmonic is part of that cycle's shape, not a cycle of its own.
+   */
+  harmonicOf: number | null;
   /** One sentence on how the period was obtained, e.g. "288 steps = 1 day (raw estimate 289.4, …)". */
   note: string;
 }
@@ -110,6 +124,12 @@ const ACF_FREE_CYCLES = 6;
  * a harmonic left in the data it cannot take a one-bin cycle into the background.
  */
 const AR_ORDER_CAP = 5;
+/**
+ * Repetitions a candidate needs in the record before its significant harmonics may stand in for
+ * the ACF's support (below this the fundamental sits in the lowest two or three Fourier bins,
+ * where a slow wander lives).
+ */
+const HARMONIC_SUPPORT_CYCLES = 3;
 
 /** ACF local maxima at lags 2..maxPeriod whose rise above the preceding trough exceeds `margin`. */
 function prominentAcfPeaks(r: Float64Array, maxPeriod: number, band: number, margin: number): number[] {
@@ -256,7 +276,14 @@ function maxExponentialPValue(ratio: number, count: number): number {
   return Math.min(1, -Math.expm1(count * Math.log1p(-Math.exp(-ratio))));
 }
 
-const CALENDAR_WORDS: Record<Exclude<CalendarName, 'days'>, string> = { hour: '1 hour', day: '1 day', week: '1 week' };
+const CALENDAR_WORDS: Record<Exclude<CalendarName, 'days' | 'hours'>, string> = { hour: '1 hour', day: '1 day', week: '1 week' };
+
+/** A calendar-snapped period in words: "1 day", "3 days", "12 hours". */
+function calendarLength(name: CalendarName, steps: number, stepMs: number): string {
+  if (name === 'days') return `${Math.round((steps * stepMs) / 86_400_000)} days`;
+  if (name === 'hours') return `${Math.round((steps * stepMs) / 3_600_000)} hours`;
+  return CALENDAR_WORDS[name];
+}
 
 /** Rounded for a note: one decimal. */
 const fmt = (v: number) => (Math.round(v * 10) / 10).toString();
@@ -301,12 +328,27 @@ const fmt = (v: number) => (Math.round(v * 10) / 10).toString();
  *    Bonferroni (each at α/2; reported p-values are doubled). A search peak whose raw frequency
  *    lies within one Fourier bin (|f_raw − 1/P| ≤ 1/n, the resolution of the periodogram;
  *    Priestley 1981 §6.2.3, §7.5) of a calendar period P is reported as exactly P steps, with
- *    the raw estimate kept in `exactPeriod` and a `note` saying so.
+ *    the raw estimate kept in `exactPeriod` and a `note` saying so. A search peak within one
+ *    bin of 2–6 whole days or of a whole-hour part of a day (12, 8, 6, 4, 3, 2 hours) is
+ *    reported as exactly that many steps too (a raw 143.2 five-minute steps is 12 hours within
+ *    the record's resolution, not a cycle one step shorter).
  * 5. A candidate that repeats fewer than 6 times in the record must also show in the ACF:
  *    r(P) above the background model's ACF by Bartlett's band under that model. Otherwise the
  *    ACF does not veto a peak: under strong persistence its sampling error is far wider than
  *    the white-noise band (the issue's cold room: ACF 0.8 at one day, but mostly drift).
- * 6. The best guess is the significant candidate whose ACF most exceeds the ACF its own AR
+ *    Harmonics stand in for the ACF from 3 repetitions on: a cycle that is not a pure sine (a
+ *    daylight arch, zero at night) puts power at 2f, 3f, 4f as well (its Fourier series;
+ *    Bloomfield, *Fourier Analysis of Time Series*, 2nd ed., 2000, §2.2), so when the
+ *    candidate is spectrally significant, its ACF lies above the background's and one of its
+ *    harmonics, tested at the exact frequency over the candidate's background and corrected over
+ *    the harmonics tested, is significant too, it counts as a cycle. A slow wander rarely puts
+ *    significant power at both f and an exact multiple of it.
+ * 6. A candidate whose frequency lies within one bin of k·g (k = 2…4) for a longer candidate of
+ *    frequency g that is spectrally significant and repeats better in the ACF (ACF above its
+ *    background by more) is a harmonic of it: `harmonicOf` names the longer one and it is never
+ *    significant itself. The series repeats after the longer period, not after its part; the
+ *    ACF at half a daylight-shaped day is negative.
+ * 7. The best guess is the significant candidate whose ACF most exceeds the ACF its own AR
  *    background implies at that lag: at the true period a seasonal series repeats (Box,
  *    Jenkins & Reinsel, *Time Series Analysis*, 4th ed., §9.1), which prefers the fundamental
  *    over its harmonics, while the subtraction keeps persistence alone from favouring short
@@ -328,6 +370,7 @@ export function detectPeriod(x: Series, options: DetectPeriodOptions = {}): Dete
   }
   const calendars = options.stepMs === undefined ? [] : calendarPeriods(options.stepMs, maxPeriod);
   const multiples = options.stepMs === undefined ? [] : dayMultiples(options.stepMs, maxPeriod);
+  const parts = options.stepMs === undefined ? [] : dayParts(options.stepMs, maxPeriod);
 
   const detrended = removeLinearTrend(x);
   const { power, size } = periodogram(detrended, PAD_FACTOR * n);
@@ -461,22 +504,59 @@ export function detectPeriod(x: Series, options: DetectPeriodOptions = {}): Dete
       merged.how = 'both';
       continue;
     }
-    // A cycle of whole days (e.g. watering every other day) is reported as exactly that many steps.
-    const days = calendarPeriodNear(f, n, multiples);
-    const period = days ? days.steps : Math.min(maxPeriod, Math.max(2, Math.round(exactPeriod)));
+    // A cycle of whole days (e.g. watering every other day) or of whole-hour parts of a day (a
+    // defrost every 6 hours) is reported as exactly that many steps.
+    const whole = calendarPeriodNear(f, n, [...multiples, ...parts]);
+    const period = whole ? whole.steps : Math.min(maxPeriod, Math.max(2, Math.round(exactPeriod)));
     if (drafts.some((d) => d.period === period)) continue;
-    drafts.push({ period, exactPeriod, calendar: days ? 'days' : null, peakRatio, pFamily, background, how: 'search', scale });
+    drafts.push({ period, exactPeriod, calendar: whole ? whole.name : null, peakRatio, pFamily, background, how: 'search', scale });
   }
 
-  const candidates: PeriodCandidate[] = drafts.map((d) => {
+  /** The frequency a draft stands for: exact for a calendar period, else the refined peak. */
+  const frequencyOf = (d: Draft) => (d.calendar ? 1 / d.period : 1 / d.exactPeriod);
+  /**
+   * Chance, in a series without cycles, that one of the harmonics k·f (k = 2…4, below the
+   * Nyquist frequency) of a draft stands this far over its background: each ordinate, taken at
+   * the exact harmonic frequency, over the draft's own background (which has those harmonics
+   * taken out), corrected over the harmonics tested as the calendar periods are.
+   */
+  const harmonicPValue = (d: Draft): number => {
+    const f = frequencyOf(d);
+    const ratios: number[] = [];
+    for (let k = 2; k <= HARMONICS && k * f < 0.5 - 1 / n; k++) ratios.push(ordinateAt(detrended, k * f) / levelAt(d.background, k * f).level);
+    return ratios.length ? maxExponentialPValue(Math.max(...ratios), ratios.length) : 1;
+  };
+
+  const judged = drafts.map((d) => {
     const pValue = Math.min(1, families * d.pFamily);
     const acf = r[d.period];
     const { rho: backgroundAcf, band: acfBand } = acfOf(d.background, d.period);
-    const acfSupports = acf - backgroundAcf > acfBand;
+    const cycles = n / d.period;
+    const harmonicsSupport =
+      pValue < alpha && cycles >= HARMONIC_SUPPORT_CYCLES && acf > backgroundAcf && cycles < ACF_FREE_CYCLES && harmonicPValue(d) < alpha;
+    return { d, pValue, acf, backgroundAcf, acfBand, acfSupports: acf - backgroundAcf > acfBand, harmonicsSupport };
+  });
+  // A harmonic of a longer, spectrally significant candidate that repeats better in the ACF is
+  // part of that cycle's shape: a cycle of period P that is not a pure sine has its power at
+  // the frequencies k/P (its Fourier series; Bloomfield, *Fourier Analysis of Time Series*, 2nd
+  // ed., 2000, §2.2), and the series repeats after P steps, not after P/k. Without this, a
+  // daylight-shaped day on a few days of record came out as "146 steps" (about half a day).
+  const harmonicOf = judged.map(({ d, acf, backgroundAcf }) => {
+    const f = frequencyOf(d);
+    for (const other of judged) {
+      if (other.d === d || other.d.period <= d.period || !(other.pValue < alpha)) continue;
+      if (!(other.acf - other.backgroundAcf > acf - backgroundAcf)) continue;
+      const g = frequencyOf(other.d);
+      for (let k = 2; k <= HARMONICS; k++) if (Math.abs(f - k * g) <= 1 / n + 1e-15) return other.d.period;
+    }
+    return null;
+  });
+
+  const candidates: PeriodCandidate[] = judged.map(({ d, pValue, acf, backgroundAcf, acfBand, acfSupports, harmonicsSupport }, index) => {
     const model = `AR(${d.background.order})`;
     let note: string;
     if (d.calendar) {
-      const what = `${d.period} steps = ${d.calendar === 'days' ? `${Math.round((2 * d.period) / multiples[0].steps)} days` : CALENDAR_WORDS[d.calendar]}`;
+      const what = `${d.period} steps = ${calendarLength(d.calendar, d.period, options.stepMs!)}`;
       note =
         d.how === 'calendar'
           ? `${what} (tested at the calendar frequency: periodogram ${fmt(d.peakRatio)} times the ${model} background)`
@@ -485,6 +565,12 @@ export function detectPeriod(x: Series, options: DetectPeriodOptions = {}): Dete
       note = `${d.period} steps (raw estimate ${fmt(d.exactPeriod)}; ${calendars.length ? 'no calendar period within the spectral resolution' : 'no grid step given, so no calendar period was checked'})`;
     }
     if (d.scale < 1) note += `; the ${model} background was ${fmt(1 / d.scale)} times the periodogram around the peak and was scaled down to it`;
+    const fundamental = harmonicOf[index];
+    if (fundamental !== null) note += `; a harmonic of the ${fundamental}-step cycle (part of its shape, not a cycle of its own)`;
+    else if (harmonicsSupport && !acfSupports) note += '; its harmonics stand out too, which backs a cycle seen only a few times';
+    const sources: PeriodCandidate['sources'] = ['periodogram'];
+    if (acfSupports) sources.push('acf');
+    if (harmonicsSupport) sources.push('harmonics');
     return {
       period: d.period,
       exactPeriod: d.exactPeriod,
@@ -495,8 +581,9 @@ export function detectPeriod(x: Series, options: DetectPeriodOptions = {}): Dete
       peakRatio: d.peakRatio,
       backgroundOrder: d.background.order,
       pValue,
-      sources: acfSupports ? ['periodogram', 'acf'] : ['periodogram'],
-      significant: pValue < alpha && (acfSupports || n / d.period >= ACF_FREE_CYCLES),
+      sources,
+      significant: fundamental === null && pValue < alpha && (acfSupports || harmonicsSupport || n / d.period >= ACF_FREE_CYCLES),
+      harmonicOf: fundamental,
       note,
     };
   });

@@ -39,6 +39,19 @@ export interface CycleScenario {
   period?: number;
   /** Add a linear drift of this many noise SDs over the whole range. */
   drift?: number;
+  /**
+   * Shape of the cycle: `sine` (default), or `daylight` — an arch A·max(0, sin θ)^1.3 that is
+   * zero for half of each cycle, as light or sun-driven temperature is at night. The arch is
+   * rich in harmonics (its second harmonic holds about a fifth of its variance), the case where
+   * a search can mistake half the cycle for the period.
+   */
+  shape?: 'sine' | 'daylight';
+}
+
+/** The daylight arch of {@link CycleScenario.shape} at phase θ, 0…1. */
+function daylightArch(theta: number): number {
+  const s = Math.sin(theta);
+  return s > 0 ? Math.pow(s, 1.3) : 0;
 }
 
 /** φ per grid step of `stepMinutes` for a persistence of `phi5` per 5 minutes. */
@@ -54,7 +67,8 @@ export function cycleSeries(s: CycleScenario, seed: number): Float64Array {
   const phase = 2 * Math.PI * seededUniform(seed ^ 0x5bd1e995)();
   const noise = ar1Noise(n, phiForStep(s.phi5, s.stepMinutes), 1, normal);
   const drift = s.drift ?? 0;
-  return noise.map((v, t) => v + s.amplitude * Math.sin((2 * Math.PI * t) / period + phase) + (drift * t) / n);
+  const wave = s.shape === 'daylight' ? daylightArch : Math.sin;
+  return noise.map((v, t) => v + s.amplitude * wave((2 * Math.PI * t) / period + phase) + (drift * t) / n);
 }
 
 /**

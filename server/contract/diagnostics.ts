@@ -155,16 +155,19 @@ export interface PeriodCandidate {
   periodS: number;
   /** The raw estimate before rounding or calendar snapping. */
   exactPeriod: number;
-  /** The calendar period the raw estimate was snapped to ('days': a whole number of days from 2 to 6), or null. */
-  calendar: 'hour' | 'day' | 'week' | 'days' | null;
+  /** The calendar period the raw estimate was snapped to ('days': a whole number of days from 2 to 6; 'hours': 12, 8, 6, 4, 3 or 2 hours), or null. */
+  calendar: 'hour' | 'day' | 'week' | 'days' | 'hours' | null;
   acf: number;
   backgroundAcf: number;
   acfBand: number;
   peakRatio: number;
   backgroundOrder: number;
   pValue: number;
-  sources: Array<'periodogram' | 'acf'>;
+  /** 'harmonics': the cycle's own harmonics stand out too (support for a cycle seen only a few times). */
+  sources: Array<'periodogram' | 'acf' | 'harmonics'>;
   significant: boolean;
+  /** The longer candidate this one is a harmonic of (part of that cycle's shape, never significant itself), or null. */
+  harmonicOf: number | null;
   /** How the length was read, e.g. "288 steps = 1 day (raw estimate 289.4, …)". */
   note: string;
 }

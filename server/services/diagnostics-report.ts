@@ -98,7 +98,7 @@ function sig(x: number, digits = 3): string {
 }
 
 /** A calendar period in words, for the period statement. */
-const CALENDAR_WORDS = { hour: 'an hour', day: 'a day', week: 'a week', days: 'a whole number of days' } as const;
+const CALENDAR_WORDS = { hour: 'an hour', day: 'a day', week: 'a week', days: 'a whole number of days', hours: 'a whole-hour part of a day' } as const;
 
 /**
  * The one period the report uses, stated once: the period every section ran with, and — when it

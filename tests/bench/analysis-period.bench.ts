@@ -71,6 +71,38 @@ const scenarios: Scenario[] = [
     make: (seed) => cycleSeries({ stepMinutes: 5, days: 30, amplitude: 0.3, phi5: 0.97 }, seed),
     truth: 288,
   },
+  // Short records and cycles that are not a pure sine (the harmonic rule and whole-hour parts of a day).
+  ...[3, 4, 5, 7].flatMap((days) =>
+    [5, 10].map((step) => ({
+      name: `daylight arch, ${step}-min steps, ${days} days, A 2–4 SD, φ₅ 0.90–0.99`,
+      stepMinutes: step,
+      replicates: reps(500),
+      make: (seed: number) => {
+        const draw = seededUniform(7000 + 1000 * step + seed);
+        return cycleSeries({ stepMinutes: step, days, amplitude: 2 + 2 * draw(), phi5: 0.9 + 0.09 * draw(), shape: 'daylight' }, seed);
+      },
+      truth: 1440 / step,
+    })),
+  ),
+  ...[3, 4, 7].map((days) => ({
+    name: `half-day sine (144 steps), 5-min steps, ${days} days, A 1–3 SD, φ₅ 0.5–0.95`,
+    stepMinutes: 5,
+    replicates: reps(500),
+    make: (seed: number) => {
+      const draw = seededUniform(9500 + seed);
+      return cycleSeries({ stepMinutes: 5, days, amplitude: 1 + 2 * draw(), phi5: 0.5 + 0.45 * draw(), period: 144 }, seed);
+    },
+    truth: 144,
+  })),
+  ...[3, 5].flatMap((days) =>
+    [0.9, 0.98].map((phi) => ({
+      name: `AR(1) φ ${phi}, ${days} days of 5-min steps, no cycle`,
+      stepMinutes: 5,
+      replicates: reps(500),
+      make: (seed: number) => ar1Noise(days * 288, phi, 1, seededNormal(seed)),
+      truth: null,
+    })),
+  ),
 ];
 
 console.log(`detectPeriod detection rates (seeds 1..N; "exact" = best equals the truth; with stepMs, and without it for comparison)`);

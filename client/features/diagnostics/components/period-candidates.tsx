@@ -12,7 +12,8 @@ export function PeriodCandidates({ period }: { period: DiagnosticsReport['period
       <p>Used: {used}</p>
       <p className="text-xs text-ink-soft">
         Each candidate is judged against the channel’s own persistence (the spectrum of a fitted AR model), and a cycle within one frequency step of an hour, a
-        day or a week is reported as exactly that many steps.
+        day, a week, a whole number of days or a whole-hour part of a day is reported as exactly that many steps. A harmonic of a longer cycle (half or a third
+        of it, for a cycle that is not a pure wave) is shown as part of that cycle, not as a period of its own.
       </p>
       {period.candidates.length === 0 ? (
         <p className="text-ink-soft">No period candidates.</p>
@@ -55,6 +56,7 @@ export function PeriodCandidates({ period }: { period: DiagnosticsReport['period
                 <td className="py-1">
                   {c.sources.join(' and ')}
                   {c.significant ? ' · significant' : ''}
+                  {c.harmonicOf ? ` · part of the ${c.harmonicOf}-step cycle` : ''}
                 </td>
                 <td className="py-1" data-testid="period-note">
                   {c.note ?? ''}
