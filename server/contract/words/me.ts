@@ -1,0 +1,6 @@
+/** Words of the person's own settings (`PATCH /api/v1/me`). */
+
+/** Fields of the person's own settings. */
+export const ME_LABELS = {
+  timeZone: 'Your time zone',
+} as const;
