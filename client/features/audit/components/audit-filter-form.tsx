@@ -2,6 +2,8 @@ import { useState, type FormEvent } from 'react';
 import { AUDIT_ACTIONS, type AuditAction } from '@shared/contract/audit.ts';
 import { Button } from '../../../components/button.tsx';
 import { SelectField, TextField } from '../../../components/form-field.tsx';
+import { DateInput } from '../../../components/date-time-input.tsx';
+import { DATE_TIME_MESSAGES, readDay } from '../../../components/date-time-input-read.ts';
 import { NO_AUDIT_FILTERS, type AuditFilters } from '../hooks/audit-search-params.ts';
 import { AUDIT_ACTION_LABELS } from './audit-action-labels.ts';
 
@@ -12,15 +14,18 @@ import { AUDIT_ACTION_LABELS } from './audit-action-labels.ts';
 export function AuditFilterForm({ filters, onApply }: { filters: AuditFilters; onApply: (next: AuditFilters) => void }) {
   const [draft, setDraft] = useState(filters);
   const [rangeError, setRangeError] = useState<string | undefined>();
+  const [fromError, setFromError] = useState<string | undefined>();
 
   function submit(e: FormEvent) {
     e.preventDefault();
-    if (draft.from && draft.to && draft.from > draft.to) {
-      setRangeError('The last day must be on or after the first day.');
-      return;
-    }
+    const from = readDay(draft.from);
+    const to = readDay(draft.to);
+    setFromError(from.ok ? undefined : from.problem);
+    if (!to.ok) return setRangeError(to.problem);
+    if (from.ok && from.day && to.day && from.day > to.day) return setRangeError(DATE_TIME_MESSAGES.rangeOrder);
     setRangeError(undefined);
-    onApply({ ...draft, actor: draft.actor.trim(), page: 1 });
+    if (!from.ok) return;
+    onApply({ ...draft, from: from.day ?? '', to: to.day ?? '', actor: draft.actor.trim(), page: 1 });
   }
 
   return (
@@ -38,8 +43,8 @@ export function AuditFilterForm({ filters, onApply }: { filters: AuditFilters; o
         ))}
       </SelectField>
       <TextField label="Done by" placeholder="Name or e-mail" value={draft.actor} onChange={(e) => setDraft({ ...draft, actor: e.target.value })} />
-      <TextField label="From day" type="date" value={draft.from} onChange={(e) => setDraft({ ...draft, from: e.target.value })} />
-      <TextField label="To day" type="date" value={draft.to} error={rangeError} onChange={(e) => setDraft({ ...draft, to: e.target.value })} />
+      <DateInput label="From day" value={draft.from} error={fromError} onChange={(from) => setDraft({ ...draft, from })} />
+      <DateInput label="To day" value={draft.to} error={rangeError} onChange={(to) => setDraft({ ...draft, to })} />
       <div className="flex items-end gap-2">
         <Button type="submit" tone="primary">
           Apply
@@ -48,6 +53,7 @@ export function AuditFilterForm({ filters, onApply }: { filters: AuditFilters; o
           onClick={() => {
             setDraft(NO_AUDIT_FILTERS);
             setRangeError(undefined);
+            setFromError(undefined);
             onApply(NO_AUDIT_FILTERS);
           }}
         >

@@ -1,6 +1,8 @@
 import { useState, type FormEvent } from 'react';
 import { Button } from '../../../components/button.tsx';
-import { fromZonedInput, toZonedInput } from '../../../components/zoned-time.ts';
+import { toZonedInput } from '../../../components/zoned-time.ts';
+import { DateTimeInput } from '../../../components/date-time-input.tsx';
+import { readDateTime } from '../../../components/date-time-input-read.ts';
 import type { TimeRange } from '@shared/contract/channels.ts';
 import { presetRange, RANGE_PRESETS, type RangePreset } from './range-presets.ts';
 
@@ -32,12 +34,13 @@ export function RangePicker({
 
   function applyCustom(e: FormEvent) {
     e.preventDefault();
-    const f = fromZonedInput(from, timezone);
-    const t = fromZonedInput(to, timezone);
-    if (f === null || t === null) return setError('Both times are needed.');
-    if (f >= t) return setError('“To” must be after “From”.');
+    const f = readDateTime(from, timezone);
+    const t = readDateTime(to, timezone);
+    if (!f.ok) return setError(`From: ${f.problem}`);
+    if (!t.ok) return setError(`To: ${t.problem}`);
+    if (f.ms >= t.ms) return setError('“To” must be after “From”.');
     setError(null);
-    onChange({ from: f, to: t }, null);
+    onChange({ from: f.ms, to: t.ms }, null);
   }
 
   return (
@@ -56,24 +59,8 @@ export function RangePicker({
         ))}
       </div>
       <form aria-label="Custom range" onSubmit={applyCustom} className="flex flex-wrap items-end gap-2 text-sm">
-        <label className="grid">
-          <span>From ({timezone})</span>
-          <input
-            type="datetime-local"
-            value={from}
-            onChange={(e) => setFrom(e.target.value)}
-            className="rounded-lg border border-rule bg-card px-2 py-1 font-mono"
-          />
-        </label>
-        <label className="grid">
-          <span>To ({timezone})</span>
-          <input
-            type="datetime-local"
-            value={to}
-            onChange={(e) => setTo(e.target.value)}
-            className="rounded-lg border border-rule bg-card px-2 py-1 font-mono"
-          />
-        </label>
+        <DateTimeInput label="From" value={from} onChange={setFrom} timeZone={timezone} />
+        <DateTimeInput label="To" value={to} onChange={setTo} timeZone={timezone} />
         <Button size="sm" type="submit">
           Show range
         </Button>

@@ -75,7 +75,8 @@ describe('ReadingsPanel', () => {
       { timeout: 5000 },
     );
     expect(screen.getByRole('button', { name: '24 h' }).getAttribute('aria-pressed')).toBe('false');
-    expect((screen.getByLabelText('From (Asia/Kolkata)') as HTMLInputElement).value).toBe('2026-06-01T11:30');
+    expect((screen.getByLabelText('From date') as HTMLInputElement).value).toBe('2026-06-01');
+    expect((screen.getByLabelText('From time') as HTMLInputElement).value).toBe('11:30');
   });
 
   it('applies a custom range typed on the logger’s clock and refuses a reversed one', async () => {
@@ -87,11 +88,17 @@ describe('ReadingsPanel', () => {
     });
     renderWithProviders(<Harness />);
     await screen.findByText(/^No readings from/);
-    fireEvent.change(screen.getByLabelText('From (Asia/Kolkata)'), { target: { value: '2026-06-03T05:30' } });
-    fireEvent.change(screen.getByLabelText('To (Asia/Kolkata)'), { target: { value: '2026-06-03T00:00' } });
+    fireEvent.change(screen.getByLabelText('From date'), { target: { value: '2026-06-03' } });
+    fireEvent.change(screen.getByLabelText('From time'), { target: { value: '05:30' } });
+    fireEvent.change(screen.getByLabelText('To date'), { target: { value: '2026-06-03' } });
+    fireEvent.change(screen.getByLabelText('To time'), { target: { value: '00:00' } });
     fireEvent.click(screen.getByRole('button', { name: 'Show range' }));
     expect(screen.getByRole('alert').textContent).toBe('“To” must be after “From”.');
-    fireEvent.change(screen.getByLabelText('To (Asia/Kolkata)'), { target: { value: '2026-06-04T05:30' } });
+    fireEvent.change(screen.getByLabelText('To date'), { target: { value: '2026-06-31' } });
+    fireEvent.click(screen.getByRole('button', { name: 'Show range' }));
+    expect(screen.getByRole('alert').textContent).toBe('To: 2026-06-31 is not a date.');
+    fireEvent.change(screen.getByLabelText('To date'), { target: { value: '2026-06-04' } });
+    fireEvent.change(screen.getByLabelText('To time'), { target: { value: '05:30' } });
     fireEvent.click(screen.getByRole('button', { name: 'Show range' }));
     await vi.waitFor(() =>
       expect(seriesAsked(api).at(-1)!.path).toBe(`/api/v1/labs/canopy/channels/7/series?from=${T0 + 2 * DAY}&to=${T0 + 3 * DAY}&points=2000`),

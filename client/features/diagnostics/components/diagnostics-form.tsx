@@ -1,6 +1,8 @@
 import { useState, type FormEvent } from 'react';
 import { SelectField, TextField } from '../../../components/form-field.tsx';
-import { fromZonedInput, toZonedInput } from '../../../components/zoned-time.ts';
+import { toZonedInput } from '../../../components/zoned-time.ts';
+import { DateTimeInput } from '../../../components/date-time-input.tsx';
+import { readDateTime } from '../../../components/date-time-input-read.ts';
 import type { DiagnosticsParams } from '@shared/contract/diagnostics.ts';
 import { AggregateSelect, FormFooter } from './form-parts.tsx';
 
@@ -27,8 +29,14 @@ const whole = (s: string) => (/^\d+$/.test(s.trim()) ? Number(s.trim()) : NaN);
  * server's schema so a mistake is caught before a request; the server checks again.
  */
 export function paramsFromDraft(d: Draft, chartRange: { from: number; to: number }, timezone: string): DiagnosticsParams | string {
-  const range = d.useChartRange ? chartRange : { from: fromZonedInput(d.from, timezone), to: fromZonedInput(d.to, timezone) };
-  if (range.from === null || range.to === null) return 'Range: both times are needed';
+  let range = chartRange;
+  if (!d.useChartRange) {
+    const from = readDateTime(d.from, timezone);
+    if (!from.ok) return `From: ${from.problem}`;
+    const to = readDateTime(d.to, timezone);
+    if (!to.ok) return `To: ${to.problem}`;
+    range = { from: from.ms, to: to.ms };
+  }
   if (range.from >= range.to) return 'Range: “to” must be after “from”';
   const step = d.step.trim() === '' ? undefined : whole(d.step);
   if (step !== undefined && !(step >= 1 && step <= 2_678_400)) return 'Resampling step: a whole number of seconds from 1 to 2678400';
@@ -105,8 +113,8 @@ export function DiagnosticsForm({
         </label>
         {!d.useChartRange && (
           <div className="grid gap-3 sm:grid-cols-2">
-            <TextField label={`From (${timezone})`} type="datetime-local" value={d.from} onChange={(e) => set('from', e.target.value)} />
-            <TextField label={`To (${timezone})`} type="datetime-local" value={d.to} onChange={(e) => set('to', e.target.value)} />
+            <DateTimeInput label="From" value={d.from} onChange={(v) => set('from', v)} timeZone={timezone} />
+            <DateTimeInput label="To" value={d.to} onChange={(v) => set('to', v)} timeZone={timezone} />
           </div>
         )}
       </fieldset>

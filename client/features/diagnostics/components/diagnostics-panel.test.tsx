@@ -1,6 +1,7 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { cleanup, fireEvent, screen, within } from '@testing-library/react';
 import { fakeApi, renderWithProviders } from '../../../components/test-harness.tsx';
+import { typeDateTime } from '../../../components/date-time-input-typing.ts';
 import { stubResizeObserver } from '../../../components/charts/fake-echarts.ts';
 import type { DiagnosticsAnswer } from '@shared/contract/diagnostics.ts';
 import { DiagnosticsPanel } from './diagnostics-panel.tsx';
@@ -128,6 +129,21 @@ describe('DiagnosticsPanel', () => {
     fireEvent.click(screen.getByRole('button', { name: 'Analyse' }));
     expect(screen.getByRole('alert').textContent).toBe('α: a number above 0 and at most 0.5');
     expect(api.requests).toHaveLength(0);
+  });
+
+  it('takes its own range typed on the logger’s clock, and names an impossible date before asking the server', async () => {
+    const api = fakeApi({ 'GET /api/v1/labs/fernhollow/channels/5/diagnostics': () => ({ status: 200, body: REPORT }) });
+    renderPanel();
+    fireEvent.click(screen.getByLabelText('Same range as the chart'));
+    typeDateTime('From', '2026-02-30T00:00');
+    fireEvent.click(screen.getByRole('button', { name: 'Analyse' }));
+    expect(screen.getByRole('alert').textContent).toBe('From: 2026-02-30 is not a date.');
+    expect(api.requests).toHaveLength(0);
+    typeDateTime('From', '2026-06-01T00:00');
+    typeDateTime('To', '2026-06-02T12:00');
+    fireEvent.click(screen.getByRole('button', { name: 'Analyse' }));
+    await screen.findByTestId('verdict');
+    expect(api.requests[0].path).toContain(`?from=${Date.parse('2026-06-01T00:00:00Z')}&to=${Date.parse('2026-06-02T12:00:00Z')}&`);
   });
 
   it('shows progress with the elapsed time while running, and Cancel aborts the request', async () => {

@@ -1,4 +1,5 @@
-import { fromZonedInput, toZonedInput } from '../../../components/zoned-time.ts';
+import { toZonedInput } from '../../../components/zoned-time.ts';
+import { readDateTime } from '../../../components/date-time-input-read.ts';
 import type { ComparisonParams } from '@shared/contract/diagnostics.ts';
 import type { DiagnosticsParams } from '@shared/contract/diagnostics.ts';
 
@@ -27,11 +28,12 @@ export function halvesDraft(range: { from: number; to: number }, timezone: strin
 }
 
 function readRange(name: string, from: string, to: string, timezone: string): { from: number; to: number } | string {
-  const f = fromZonedInput(from, timezone);
-  const t = fromZonedInput(to, timezone);
-  if (f === null || t === null) return `${name}: both times are needed`;
-  if (f >= t) return `${name}: “to” must be after “from”`;
-  return { from: f, to: t };
+  const f = readDateTime(from, timezone);
+  if (!f.ok) return `${name} from: ${f.problem}`;
+  const t = readDateTime(to, timezone);
+  if (!t.ok) return `${name} to: ${t.problem}`;
+  if (f.ms >= t.ms) return `${name}: “to” must be after “from”`;
+  return { from: f.ms, to: t.ms };
 }
 
 /**

@@ -1,6 +1,7 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { cleanup, fireEvent, screen, within } from '@testing-library/react';
 import { apiError, fakeApi, renderWithProviders } from '../../../components/test-harness.tsx';
+import { dateTimeShown, typeDateTime } from '../../../components/date-time-input-typing.ts';
 import type { ComparisonAnswer } from '@shared/contract/diagnostics.ts';
 import { RangeComparisonPanel } from './range-comparison-panel.tsx';
 import { comparisonParamsFromDraft } from './range-comparison-form.ts';
@@ -53,10 +54,10 @@ describe('RangeComparisonPanel', () => {
   it('defaults to the two halves of the chart’s range, sends the exact query, and shows both intervals, both ranges and the caution', async () => {
     const api = fakeApi({ [PATH]: () => ({ status: 200, body: ANSWER }) });
     renderPanel();
-    expect((screen.getByLabelText('A from (UTC)') as HTMLInputElement).value).toBe('2026-06-01T00:00');
-    expect((screen.getByLabelText('A to (UTC)') as HTMLInputElement).value).toBe('2026-06-04T12:00');
-    expect((screen.getByLabelText('B from (UTC)') as HTMLInputElement).value).toBe('2026-06-04T12:00');
-    expect((screen.getByLabelText('B to (UTC)') as HTMLInputElement).value).toBe('2026-06-08T00:00');
+    expect(dateTimeShown('A from')).toBe('2026-06-01T00:00');
+    expect(dateTimeShown('A to')).toBe('2026-06-04T12:00');
+    expect(dateTimeShown('B from')).toBe('2026-06-04T12:00');
+    expect(dateTimeShown('B to')).toBe('2026-06-08T00:00');
     fireEvent.change(screen.getByLabelText('Resampling step (s)'), { target: { value: '600' } });
     fireEvent.click(screen.getByRole('button', { name: 'Compare' }));
 
@@ -107,12 +108,12 @@ describe('RangeComparisonPanel', () => {
   it('refuses a reversed range before asking the server, and the halves button puts the defaults back', () => {
     const api = fakeApi({});
     renderPanel();
-    fireEvent.change(screen.getByLabelText('B to (UTC)'), { target: { value: '2026-06-02T00:00' } });
+    typeDateTime('B to', '2026-06-02T00:00');
     fireEvent.click(screen.getByRole('button', { name: 'Compare' }));
     expect(screen.getByRole('alert').textContent).toBe('Range B: “to” must be after “from”');
     expect(api.requests).toHaveLength(0);
     fireEvent.click(screen.getByRole('button', { name: 'Use the two halves of the chart’s range' }));
-    expect((screen.getByLabelText('B to (UTC)') as HTMLInputElement).value).toBe('2026-06-08T00:00');
+    expect(dateTimeShown('B to')).toBe('2026-06-08T00:00');
   });
 });
 
@@ -141,7 +142,8 @@ describe('comparisonParamsFromDraft', () => {
   });
 
   it('names the field that is wrong', () => {
-    expect(comparisonParamsFromDraft({ ...ok, aFrom: '' }, 'UTC')).toBe('Range A: both times are needed');
+    expect(comparisonParamsFromDraft({ ...ok, aFrom: '' }, 'UTC')).toBe('Range A from: Give a date.');
+    expect(comparisonParamsFromDraft({ ...ok, bTo: '2026-02-29T00:00' }, 'UTC')).toBe('Range B to: 2026-02-29 is not a date.');
     expect(comparisonParamsFromDraft({ ...ok, step: '1.5' }, 'UTC')).toBe('Resampling step: a whole number of seconds from 1 to 2678400');
     expect(comparisonParamsFromDraft({ ...ok, alpha: '' }, 'UTC')).toBe('α: a number above 0 and at most 0.5');
   });

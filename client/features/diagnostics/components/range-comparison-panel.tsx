@@ -2,6 +2,7 @@ import { useState, type FormEvent } from 'react';
 import { Button } from '../../../components/button.tsx';
 import { SelectField, TextField } from '../../../components/form-field.tsx';
 import { Notice } from '../../../components/notice.tsx';
+import { DateTimeInput } from '../../../components/date-time-input.tsx';
 import type { ComparisonParams } from '@shared/contract/diagnostics.ts';
 import { comparisonQueryOptions } from '../api/get-comparison.ts';
 import { useAnalysisRun } from '../hooks/use-analysis-run.ts';
@@ -30,8 +31,8 @@ function RangeFieldset(props: {
         Range {name} — {props.channelLabel}
       </legend>
       <div className="grid gap-3 sm:grid-cols-2">
-        <TextField label={`${name} from (${timezone})`} type="datetime-local" value={props.from} onChange={(e) => props.onFrom(e.target.value)} />
-        <TextField label={`${name} to (${timezone})`} type="datetime-local" value={props.to} onChange={(e) => props.onTo(e.target.value)} />
+        <DateTimeInput label={`${name} from`} value={props.from} onChange={props.onFrom} timeZone={timezone} />
+        <DateTimeInput label={`${name} to`} value={props.to} onChange={props.onTo} timeZone={timezone} />
       </div>
     </fieldset>
   );

@@ -1,5 +1,6 @@
 import { afterEach, describe, expect, it } from 'vitest';
 import { cleanup, fireEvent, screen, waitFor } from '@testing-library/react';
+import { typeDateTime } from '../../../components/date-time-input-typing.ts';
 import { apiError, fakeApi, renderWithProviders } from '../../../components/test-harness.tsx';
 import type { NoteKind } from '@shared/contract/notes.ts';
 import { ChannelNotesPanel } from './channel-notes-panel.tsx';
@@ -36,8 +37,8 @@ describe('adding a note from the channel page', () => {
     fireEvent.change(screen.getByLabelText('Kind'), { target: { value: '9' } });
     fireEvent.change(screen.getByLabelText('What happened'), { target: { value: 'Probe checked against the reference thermometer' } });
     // 09:00–09:30 in Berlin in December (UTC+01:00) is 08:00–08:30 UTC
-    fireEvent.change(screen.getByLabelText('Starts (Europe/Berlin)'), { target: { value: '2026-12-01T09:00' } });
-    fireEvent.change(screen.getByLabelText('Ends (Europe/Berlin)'), { target: { value: '2026-12-01T09:30' } });
+    typeDateTime('Starts', '2026-12-01T09:00');
+    typeDateTime('Ends', '2026-12-01T09:30');
     fireEvent.click(screen.getByLabelText(/Leave out of analysis/));
     fireEvent.click(screen.getByRole('button', { name: 'Add the note' }));
     await waitFor(() => expect(screen.queryByRole('form', { name: 'Add a note' })).toBeNull());
@@ -60,13 +61,13 @@ describe('adding a note from the channel page', () => {
     fireEvent.click(screen.getByRole('button', { name: 'Add a note' }));
     await screen.findByRole('form', { name: 'Add a note' });
     fireEvent.change(screen.getByLabelText('What happened'), { target: { value: 'Buoy towed ashore' } });
-    fireEvent.change(screen.getByLabelText('Starts (Europe/Berlin)'), { target: { value: '2026-12-01T10:00' } });
-    fireEvent.change(screen.getByLabelText('Ends (Europe/Berlin)'), { target: { value: '2026-12-01T09:00' } });
+    typeDateTime('Starts', '2026-12-01T10:00');
+    typeDateTime('Ends', '2026-12-01T09:00');
     fireEvent.click(screen.getByLabelText('every channel of Pond buoy'));
     fireEvent.click(screen.getByRole('button', { name: 'Add the note' }));
     expect(await screen.findByText('must be after the start')).toBeTruthy();
     expect(api.requests.some((r) => r.method === 'POST')).toBe(false);
-    fireEvent.change(screen.getByLabelText('Ends (Europe/Berlin)'), { target: { value: '2026-12-01T11:00' } });
+    typeDateTime('Ends', '2026-12-01T11:00');
     fireEvent.click(screen.getByRole('button', { name: 'Add the note' }));
     expect(await screen.findByText('loggerId: the logger "Pond buoy" is retired (notes go on loggers in use)')).toBeTruthy();
     expect(api.requests.find((r) => r.method === 'POST')?.body).toMatchObject({ loggerId: 4, kindId: 7 });

@@ -4,7 +4,9 @@ import { Button } from '../../../components/button.tsx';
 import { SelectField, TextField } from '../../../components/form-field.tsx';
 import { Notice } from '../../../components/notice.tsx';
 import { fieldFromServerMessage } from '../../../components/server-field-error.ts';
-import { fromZonedInput, toZonedInput } from '../../../components/zoned-time.ts';
+import { toZonedInput } from '../../../components/zoned-time.ts';
+import { DateTimeInput } from '../../../components/date-time-input.tsx';
+import { readDateTime } from '../../../components/date-time-input-read.ts';
 
 /** What the note form hands back: a note's fields with the span as instants. */
 export interface NoteFormValues {
@@ -67,10 +69,11 @@ export function NoteForm({
 
   function submit(e: FormEvent) {
     e.preventDefault();
-    const s = fromZonedInput(start, timezone);
-    const t = fromZonedInput(end, timezone);
-    if (s === null) return setLocal({ field: 'start', reason: 'give the time the note starts' });
-    if (t === null) return setLocal({ field: 'end', reason: 'give the time the note ends' });
+    const startAt = readDateTime(start, timezone);
+    const endAt = readDateTime(end, timezone);
+    if (!startAt.ok) return setLocal({ field: 'start', reason: startAt.problem });
+    if (!endAt.ok) return setLocal({ field: 'end', reason: endAt.problem });
+    const [s, t] = [startAt.ms, endAt.ms];
     if (t <= s) return setLocal({ field: 'end', reason: 'must be after the start' });
     if (!text.trim()) return setLocal({ field: 'text', reason: 'say what happened' });
     setLocal(null);
@@ -113,8 +116,8 @@ export function NoteForm({
         placeholder="Probe cleaned and dried"
       />
       <div className="grid gap-3 sm:grid-cols-2">
-        <TextField label={`Starts (${timezone})`} type="datetime-local" value={start} onChange={(e) => setStart(e.target.value)} error={on('start')} />
-        <TextField label={`Ends (${timezone})`} type="datetime-local" value={end} onChange={(e) => setEnd(e.target.value)} error={on('end')} />
+        <DateTimeInput label="Starts" value={start} onChange={setStart} timeZone={timezone} error={on('start')} />
+        <DateTimeInput label="Ends" value={end} onChange={setEnd} timeZone={timezone} error={on('end')} />
       </div>
       <label className="flex items-start gap-2">
         <input type="checkbox" checked={exclude} onChange={(e) => setExclude(e.target.checked)} className="mt-1" />
