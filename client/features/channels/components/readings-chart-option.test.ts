@@ -27,6 +27,21 @@ const buckets: BucketSeries = {
   mean: [3, null],
   count: [120, 0],
 };
+// Berlin midnights around the two daylight-saving Sundays of 2026 (29 March, 25 October), from the IANA
+// time zone database as Python 3.11's zoneinfo reads it (`/usr/bin/python3`:
+// `datetime(2026, 3, 30, tzinfo=ZoneInfo('Europe/Berlin')).astimezone(timezone.utc)` → 2026-03-29T22:00Z).
+const BERLIN_MARCH = { from: Date.parse('2026-03-26T12:00:00Z'), to: Date.parse('2026-03-31T12:00:00Z') };
+const BERLIN_MARCH_MIDNIGHTS = [
+  '2026-03-26T23:00:00.000Z',
+  '2026-03-27T23:00:00.000Z',
+  '2026-03-28T23:00:00.000Z',
+  '2026-03-29T22:00:00.000Z',
+  '2026-03-30T22:00:00.000Z',
+];
+const BERLIN_OCTOBER = { from: Date.parse('2026-10-23T12:00:00Z'), to: Date.parse('2026-10-27T12:00:00Z') };
+const BERLIN_OCTOBER_MIDNIGHTS = ['2026-10-23T22:00:00.000Z', '2026-10-24T22:00:00.000Z', '2026-10-25T23:00:00.000Z', '2026-10-26T23:00:00.000Z'];
+type TimeAxis = { axisTick: { customValues: number[] }; axisLabel: { customValues: number[]; formatter: (v: number) => string } };
+const isoTicks = (x: TimeAxis) => x.axisTick.customValues.map((t) => new Date(t).toISOString());
 const ctx = { label: 'Air', unit: '°C', timezone: 'Europe/Berlin', validMin: -40, validMax: 60, range: { from: T0, to: T0 + 14_400_000 } };
 
 describe('readings chart helpers', () => {
@@ -55,6 +70,15 @@ describe('readings chart helpers', () => {
     );
     expect(words).not.toMatch(/bucket|rollup/i);
     expect(readingsSummary({ ...buckets, source: 'raw' }, ctx)).toContain('worked out from the readings');
+  });
+
+  it('puts the time axis ticks at the logger’s local midnights, on 23- and 25-hour days too', () => {
+    const march = readingsChartOption(raw, { ...ctx, range: BERLIN_MARCH }).xAxis as TimeAxis;
+    expect(isoTicks(march)).toEqual(BERLIN_MARCH_MIDNIGHTS);
+    expect(march.axisLabel.customValues).toEqual(march.axisTick.customValues);
+    expect(march.axisLabel.customValues.map(march.axisLabel.formatter)).toEqual(['2026-03-27', '03-28', '03-29', '03-30', '03-31']);
+    const october = readingsChartOption(raw, { ...ctx, range: BERLIN_OCTOBER }).xAxis as TimeAxis;
+    expect(isoTicks(october)).toEqual(BERLIN_OCTOBER_MIDNIGHTS);
   });
 
   it('names a cell by its size in plain units', () => {

@@ -2,6 +2,7 @@ import type { EChartsCoreOption } from 'echarts/core';
 import { formatZoned, zoneOffsetLabel } from '../../../components/zoned-time.ts';
 import type { Series, TimeRange } from '@shared/contract/channels.ts';
 import { zoomSlider } from '../../../components/charts/zoom-slider.ts';
+import { timeLabel, zonedTimeAxis } from '../../../components/charts/time-axis.ts';
 
 /** What the readings chart needs to know about its channel. */
 export interface ReadingsChartContext {
@@ -258,10 +259,10 @@ export function readingsChartOption(series: Series, ctx: ReadingsChartContext): 
       name: `${tz} (${midOffset})`,
       nameLocation: 'middle',
       nameGap: 30,
-      axisLabel: { hideOverlap: true, formatter: (v: number) => formatZoned(v, tz).replace(' ', '\n') },
+      ...zonedTimeAxis(ctx.range.from, ctx.range.to, tz),
     },
     yAxis: { type: 'value', scale: true, name: ctx.unit ?? '', nameTextStyle: { align: 'left' } },
-    dataZoom: [{ type: 'inside', xAxisIndex: 0, filterMode: 'none' }, zoomSlider(8, (v: number) => formatZoned(v, tz))],
+    dataZoom: [{ type: 'inside', xAxisIndex: 0, filterMode: 'none' }, zoomSlider(8, (v: number) => timeLabel(v, tz))],
     series: [...lines, ...scatter],
   };
 }

@@ -7,6 +7,22 @@ const T0 = Date.parse('2026-03-29T00:00:00Z');
 const MIN = 60_000;
 const RANGE = { from: T0, to: T0 + 120 * MIN };
 
+// Berlin midnights around the two daylight-saving Sundays of 2026 (29 March, 25 October), from the IANA
+// time zone database as Python 3.11's zoneinfo reads it (`/usr/bin/python3`:
+// `datetime(2026, 3, 30, tzinfo=ZoneInfo('Europe/Berlin')).astimezone(timezone.utc)` → 2026-03-29T22:00Z).
+const BERLIN_MARCH = { from: Date.parse('2026-03-26T12:00:00Z'), to: Date.parse('2026-03-31T12:00:00Z') };
+const BERLIN_MARCH_MIDNIGHTS = [
+  '2026-03-26T23:00:00.000Z',
+  '2026-03-27T23:00:00.000Z',
+  '2026-03-28T23:00:00.000Z',
+  '2026-03-29T22:00:00.000Z',
+  '2026-03-30T22:00:00.000Z',
+];
+const BERLIN_OCTOBER = { from: Date.parse('2026-10-23T12:00:00Z'), to: Date.parse('2026-10-27T12:00:00Z') };
+const BERLIN_OCTOBER_MIDNIGHTS = ['2026-10-23T22:00:00.000Z', '2026-10-24T22:00:00.000Z', '2026-10-25T23:00:00.000Z', '2026-10-26T23:00:00.000Z'];
+type TimeAxis = { axisTick: { customValues: number[] }; axisLabel: { customValues: number[]; formatter: (v: number) => string } };
+const isoTicks = (x: TimeAxis) => x.axisTick.customValues.map((t) => new Date(t).toISOString());
+
 type Axis = { name: string; position: string; offset: number };
 type Line = { name: string; yAxisIndex: number; data: Array<[number, number | null]>; lineStyle: { color: string; type: unknown }; symbol: string };
 
@@ -67,7 +83,17 @@ describe('togetherChartOption', () => {
     // Europe/Berlin is UTC+02:00 from 2026-03-29 01:00 UTC (IANA tzdata), so at the middle of the range.
     expect(x.name).toBe('Europe/Berlin (UTC+02:00)');
     expect([x.min, x.max]).toEqual([RANGE.from, RANGE.to]);
-    expect(x.axisLabel.formatter(T0)).toBe('2026-03-29\n01:00');
+    // T0 is 01:00 in Berlin, the first whole-hour tick of the two-hour range, labelled with its day
+    expect(x.axisLabel.formatter(T0)).toBe('03-29 01:00');
+  });
+
+  it('puts the time axis ticks at the shown zone’s local midnights, on 23- and 25-hour days too', () => {
+    const { drawn, axes } = setUp();
+    const march = togetherChartOption(drawn, axes, { range: BERLIN_MARCH, zone: 'Europe/Berlin' }).xAxis as TimeAxis;
+    expect(isoTicks(march)).toEqual(BERLIN_MARCH_MIDNIGHTS);
+    const october = togetherChartOption(drawn, axes, { range: BERLIN_OCTOBER, zone: 'Europe/Berlin' }).xAxis as TimeAxis;
+    expect(isoTicks(october)).toEqual(BERLIN_OCTOBER_MIDNIGHTS);
+    expect(october.axisLabel.customValues.map(october.axisLabel.formatter)).toEqual(['2026-10-24', '10-25', '10-26', '10-27']);
   });
 
   it('writes the tooltip on the shown clock, each value with its line’s unit, names escaped', () => {

@@ -3,6 +3,7 @@ import { formatZoned, zoneOffsetLabel } from '../../../components/zoned-time.ts'
 import type { Series, TimeRange } from '@shared/contract/channels.ts';
 import type { AxisPlan, PlannedLine } from './together-lines.ts';
 import { zoomSlider } from '../../../components/charts/zoom-slider.ts';
+import { timeLabel, zonedTimeAxis } from '../../../components/charts/time-axis.ts';
 
 /** A planned line with the series fetched for it. */
 export interface DrawnLine extends PlannedLine {
@@ -101,7 +102,7 @@ export function togetherChartOption(lines: readonly DrawnLine[], axes: readonly 
       name: `${tz} (${zoneOffsetLabel((ctx.range.from + ctx.range.to) / 2, tz)})`,
       nameLocation: 'middle',
       nameGap: 32,
-      axisLabel: { hideOverlap: true, lineHeight: 14, formatter: (v: number) => formatZoned(v, tz).replace(' ', '\n') },
+      ...zonedTimeAxis(ctx.range.from, ctx.range.to, tz, { lineHeight: 14 }),
     },
     yAxis: axes.map((a) => ({
       type: 'value',
@@ -115,7 +116,7 @@ export function togetherChartOption(lines: readonly DrawnLine[], axes: readonly 
       axisLabel: { color: INK_SOFT, hideOverlap: true },
       splitLine: { show: a === axes[0], lineStyle: { color: RULE } },
     })),
-    dataZoom: [{ type: 'inside', xAxisIndex: 0, filterMode: 'none' }, zoomSlider(legendHeight + 14, (v: number) => formatZoned(v, tz))],
+    dataZoom: [{ type: 'inside', xAxisIndex: 0, filterMode: 'none' }, zoomSlider(legendHeight + 14, (v: number) => timeLabel(v, tz))],
     series: lines.map((l) => {
       const data = plottedPoints(l.series);
       return {

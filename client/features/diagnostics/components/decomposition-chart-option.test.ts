@@ -45,6 +45,51 @@ describe('observedFromParts', () => {
   });
 });
 
+// Berlin midnights around the two daylight-saving Sundays of 2026 (29 March, 25 October), from the IANA
+// time zone database as Python 3.11's zoneinfo reads it (`/usr/bin/python3`:
+// `datetime(2026, 3, 30, tzinfo=ZoneInfo('Europe/Berlin')).astimezone(timezone.utc)` → 2026-03-29T22:00Z).
+const BERLIN_MARCH = { from: Date.parse('2026-03-26T12:00:00Z'), to: Date.parse('2026-03-31T12:00:00Z') };
+const BERLIN_MARCH_MIDNIGHTS = [
+  '2026-03-26T23:00:00.000Z',
+  '2026-03-27T23:00:00.000Z',
+  '2026-03-28T23:00:00.000Z',
+  '2026-03-29T22:00:00.000Z',
+  '2026-03-30T22:00:00.000Z',
+];
+const BERLIN_OCTOBER = { from: Date.parse('2026-10-23T12:00:00Z'), to: Date.parse('2026-10-27T12:00:00Z') };
+const BERLIN_OCTOBER_MIDNIGHTS = ['2026-10-23T22:00:00.000Z', '2026-10-24T22:00:00.000Z', '2026-10-25T23:00:00.000Z', '2026-10-26T23:00:00.000Z'];
+type TimeAxis = { axisTick: { customValues: number[] }; axisLabel: { customValues: number[]; formatter: (v: number) => string } };
+const isoTicks = (x: TimeAxis) => x.axisTick.customValues.map((t) => new Date(t).toISOString());
+
+describe('decomposition time axes', () => {
+  it('tick at the logger’s local midnights on every panel, labels on the bottom one only', () => {
+    const parts = (n: number) => ({
+      method: 'stl' as const,
+      period: 24,
+      cells: null,
+      thinned: null,
+      trend: new Array<number>(n).fill(1),
+      seasonal: new Array<number>(n).fill(0),
+      remainder: new Array<number>(n).fill(0),
+      weights: null,
+      outliers: { threshold: 3, median: 0, robustSd: 1, indices: [], times: [], values: [] },
+    });
+    for (const [range, midnights] of [
+      [BERLIN_MARCH, BERLIN_MARCH_MIDNIGHTS],
+      [BERLIN_OCTOBER, BERLIN_OCTOBER_MIDNIGHTS],
+    ] as const) {
+      // hourly cells from the range's start to its end
+      const n = (range.to - range.from) / 3_600_000 + 1;
+      const option = decompositionChartOption(parts(n), { start: range.from, stepMs: 3_600_000, emptyCells: [] }, 'Europe/Berlin') as {
+        xAxis: Array<TimeAxis & { axisLabel: { show: boolean } }>;
+      };
+      expect(option.xAxis).toHaveLength(4);
+      for (const x of option.xAxis) expect(isoTicks(x)).toEqual(midnights);
+      expect(option.xAxis.map((x) => x.axisLabel.show)).toEqual([false, false, false, true]);
+    }
+  });
+});
+
 describe('observedOf', () => {
   it('draws the observed values the server sent, whole, where the classical trend is undefined at the ends', () => {
     // hand-made parts: a trend missing in the first and last cell, as decompose() leaves it (R docs, ?decompose)

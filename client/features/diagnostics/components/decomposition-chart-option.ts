@@ -1,5 +1,6 @@
 import type { EChartsCoreOption } from 'echarts/core';
 import { formatZoned } from '../../../components/zoned-time.ts';
+import { zonedTimeAxis } from '../../../components/charts/time-axis.ts';
 import type { Decomposition } from '@shared/contract/diagnostics.ts';
 
 type Parts = Extract<Decomposition, { trend: unknown }>;
@@ -61,7 +62,7 @@ export function decompositionChartOption(d: Parts, grid: { start: number; stepMs
       gridIndex: i,
       min: times[0],
       max: times[times.length - 1],
-      axisLabel: { show: i === PANELS.length - 1, hideOverlap: true, formatter: (v: number) => formatZoned(v, timezone).replace(' ', '\n') },
+      ...zonedTimeAxis(times[0], times[times.length - 1], timezone, { show: i === PANELS.length - 1 }),
     })),
     yAxis: PANELS.map((name, i) => ({ type: 'value', gridIndex: i, scale: true, name, nameLocation: 'middle', nameGap: 48, splitNumber: 2 })),
     series: [
