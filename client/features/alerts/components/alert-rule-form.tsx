@@ -7,6 +7,7 @@ import { AlertCaution } from './alert-caution.tsx';
 import { EMPTY_RULE_FORM, type RuleFormState } from './rule-form-input.ts';
 import { RuleParamFields } from './rule-param-fields.tsx';
 import { useRuleForm } from './use-rule-form.ts';
+import { ruleMade } from '../messages.ts';
 
 /** A channel that a rule can watch (with its logger, for silence rules on a whole logger). */
 export interface RuleTarget {
@@ -41,7 +42,7 @@ export function AlertRuleForm({ slug, targets, initialChannelId }: { slug: strin
     setMade(null);
     await submit(async (input) => {
       const { rule } = await create.mutateAsync(input);
-      setMade(`The rule “${rule.name}” watches ${rule.watched.label} now; you will be mailed when it fires.`);
+      setMade(ruleMade(rule.name, rule.watched.label));
       setF((old) => ({ ...EMPTY_RULE_FORM, target: old.target }));
     });
   }

@@ -7,6 +7,7 @@ import { useSetAlertSubscription } from '../api/set-alert-subscription.ts';
 import { useUpdateAlertRule } from '../api/update-alert-rule.ts';
 import { describeAlertRule } from './alert-rule-describe.ts';
 import { AlertRuleEditForm } from './alert-rule-edit-form.tsx';
+import { deleteRuleQuestion } from '../messages.ts';
 
 /** One rule: what it watches and for what, whether it is firing; subscribe, change, turn off/on, delete. */
 function RuleItem({ slug, rule, canManage, canSubscribe }: { slug: string; rule: AlertRule; canManage: boolean; canSubscribe: boolean }) {
@@ -43,7 +44,7 @@ function RuleItem({ slug, rule, canManage, canSubscribe }: { slug: string; rule:
             </Button>
             <ConfirmButton
               label="Delete"
-              question={`Delete the rule “${rule.name}”? Its past alerts stay.`}
+              question={deleteRuleQuestion(rule.name)}
               confirmLabel="Delete rule"
               pending={remove.isPending}
               onConfirm={() => remove.mutate(undefined)}

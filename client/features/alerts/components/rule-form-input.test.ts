@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { checkRuleForm, EMPTY_RULE_FORM, errorsFromServerMessage, formFromRule } from './rule-form-input.ts';
+import { checkRuleForm, EMPTY_RULE_FORM, errorsFromServerMessage, formFromRule, placeRuleErrors } from './rule-form-input.ts';
 
 describe('the rule form', () => {
   it('makes a bounds rule body from the typed fields', () => {
@@ -14,9 +14,18 @@ describe('the rule form', () => {
     expect(r).toEqual({ errors: { 'params.holdS': 'must not be negative (seconds)', 'params.low': 'must be below the high limit' } });
   });
 
-  it('needs a channel', () => {
-    const r = checkRuleForm({ ...EMPTY_RULE_FORM, name: 'x', high: '1' });
-    expect('errors' in r && r.errors.channelId).toBe('must be a number');
+  it('asks for the channel to watch first, in words, and still checks the other fields', () => {
+    const r = checkRuleForm({ ...EMPTY_RULE_FORM, name: '', high: '1' });
+    expect(r).toEqual({ errors: { channelId: 'Choose the channel to watch', name: expect.any(String) } });
+    // a form otherwise valid still refuses to go without a channel
+    expect(checkRuleForm({ ...EMPTY_RULE_FORM, name: 'x', high: '1' })).toEqual({ errors: { channelId: 'Choose the channel to watch' } });
+  });
+
+  it('says a refusal of a field the form does not show with its label, never its key', () => {
+    expect(placeRuleErrors([{ path: ['enabled'], reason: 'must be yes or no (true or false)' }])).toEqual({
+      body: 'Rule on: must be yes or no (true or false).',
+    });
+    expect(placeRuleErrors([{ path: ['params', 'low'], reason: 'must be below the high limit' }])).toEqual({ 'params.low': 'must be below the high limit' });
   });
 
   it('a silence rule may watch a logger', () => {

@@ -1,4 +1,6 @@
 import { createAlertRuleSchema, type AlertRuleKind, type CreateAlertRuleInput } from '@shared/contract/alerts.ts';
+import { fieldLabel, problemsMessage } from '@shared/contract/words/fields.ts';
+import { CHOOSE_CHANNEL_TO_WATCH } from '../messages.ts';
 
 /** The rule form's fields as typed (text), before they become a request body. */
 export interface RuleFormState {
@@ -79,19 +81,55 @@ export function ruleInputFromForm(f: RuleFormState): Record<string, unknown> {
   return { name: f.name, kind: f.kind, ...target, params, reminderAfterMin: num(f.reminderAfterMin) ?? null };
 }
 
+/** The keys the rule forms show a field for; a refusal of any other key is said on the form, with its label. */
+export const RULE_FORM_FIELDS = [
+  'name',
+  'kind',
+  'channelId',
+  'loggerId',
+  'reminderAfterMin',
+  'params.low',
+  'params.high',
+  'params.holdS',
+  'params.factor',
+  'params.maxPerMinute',
+  'params.direction',
+  'params.periodH',
+  'params.k',
+  'params.historyCycles',
+] as const;
+
 /**
- * Checks the form with the server's own schema: the valid body, or the messages per field
- * (`params.high`, `channelId` …) exactly as the server would word them.
+ * Puts refusals (key path → plain reason) on the form's fields; one about a key the form has no
+ * field for goes to `body` as "Label: reason." (labels from the shared alerts catalogue), so no
+ * key ever reaches the screen.
+ */
+export function placeRuleErrors(problems: ReadonlyArray<{ path: readonly PropertyKey[]; reason: string }>): Record<string, string> {
+  const errors: Record<string, string> = {};
+  const rest: Array<{ label: string; reason: string }> = [];
+  for (const { path, reason } of problems) {
+    const key = path.map(String).join('.');
+    if ((RULE_FORM_FIELDS as readonly string[]).includes(key)) errors[key] ??= reason;
+    else rest.push({ label: fieldLabel(path, '/alert-rules'), reason });
+  }
+  if (rest.length > 0) errors.body = problemsMessage(rest);
+  return errors;
+}
+
+/**
+ * Checks the form: first that something to watch is chosen ("Choose the channel to watch", not a
+ * type refusal of an empty id), then with the server's own schema: the valid body, or the plain
+ * reasons per field (`params.high`, `channelId` …) as the server would word them.
  */
 export function checkRuleForm(f: RuleFormState): { input: CreateAlertRuleInput } | { errors: Record<string, string> } {
   const result = createAlertRuleSchema.safeParse(ruleInputFromForm(f));
-  if (result.success) return { input: result.data };
-  const errors: Record<string, string> = {};
-  for (const issue of result.error.issues) {
-    const key = issue.path.join('.') || 'body';
-    errors[key] ??= issue.message;
-  }
-  return { errors };
+  const chosen = f.target !== '';
+  if (result.success && chosen) return { input: result.data };
+  const problems = (result.success ? [] : result.error.issues)
+    .filter((issue) => chosen || (issue.path[0] !== 'channelId' && issue.path[0] !== 'loggerId'))
+    .map((issue) => ({ path: issue.path, reason: issue.message }));
+  if (!chosen) problems.unshift({ path: ['channelId'], reason: CHOOSE_CHANNEL_TO_WATCH });
+  return { errors: placeRuleErrors(problems) };
 }
 
 /** Splits a server message of `field: reason; field: reason` into its fields (others under `body`). */
