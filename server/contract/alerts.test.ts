@@ -18,7 +18,7 @@ describe('alert route inputs', () => {
   it('path ids are positive whole numbers with `field: reason` messages', () => {
     expect(ruleIdParams.parse({ ruleId: '12' })).toEqual({ ruleId: 12 });
     expect(firstIssue(ruleIdParams.safeParse({ ruleId: 'abc' }))).toBe('ruleId: must be a number');
-    expect(firstIssue(alertIdParams.safeParse({ alertId: '0' }))).toBe('alertId: must be a positive number');
+    expect(firstIssue(alertIdParams.safeParse({ alertId: '0' }))).toBe('alertId: must be above 0');
     expect(firstIssue(alertIdParams.safeParse({ alertId: '1.5' }))).toBe('alertId: must be a whole number');
   });
 
@@ -33,6 +33,8 @@ describe('alert route inputs', () => {
     // 2026-03-01T00:00:00Z is 1772323200000 ms after the epoch (date -ud 2026-03-01 +%s, ×1000)
     expect(channelAlertsQuery.parse({ from: '2026-03-01T00:00:00Z', to: '1772409600000' })).toEqual({ from: 1772323200000, to: 1772409600000 });
     expect(channelAlertsQuery.parse({})).toEqual({});
-    expect(firstIssue(channelAlertsQuery.safeParse({ from: 'yesterday' }))).toMatch(/^from: must be epoch milliseconds or an ISO 8601 time with a zone/);
+    expect(firstIssue(channelAlertsQuery.safeParse({ from: 'yesterday' }))).toMatch(
+      /^from: must be a date and time with its zone, e.g. 2026-03-01T00:00:00Z, or milliseconds since 1970/,
+    );
   });
 });

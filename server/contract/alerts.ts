@@ -1,6 +1,8 @@
 import { z } from 'zod';
 import { idParams, type IsoTime } from './common.ts';
 import { rangeFields } from './channels.ts';
+import { ALERT_REASONS } from './words/alerts.ts';
+import { REASONS } from './words/reasons.ts';
 
 /**
  * Alert rules and alerts: the vocabulary shared by the HTTP layer, the alert services, the
@@ -12,17 +14,17 @@ import { rangeFields } from './channels.ts';
 export const ALERT_RULE_KINDS = ['silence', 'bounds', 'rate', 'unusual'] as const;
 export type AlertRuleKind = (typeof ALERT_RULE_KINDS)[number];
 
-const num = (what = 'a number') => z.number({ error: `must be ${what}` }).refine(Number.isFinite, 'must be a finite number');
+const num = (what = 'a number') => z.number({ error: `must be ${what}` }).refine(Number.isFinite, REASONS.finite);
 const whole = (min: number, max: number, negative = 'must not be negative') =>
   z
     .number({ error: 'must be a number' })
     .int('must be a whole number')
     .min(min, min === 0 ? negative : `must be at least ${min}`)
     .max(max, `must be at most ${max}`);
-const id = z.number({ error: 'must be a number' }).int('must be a whole number').positive('must be a positive number');
+const id = z.number({ error: 'must be a number' }).int('must be a whole number').positive(REASONS.positive);
 
 export const silenceParamsSchema = z.object({
-  factor: z.number({ error: 'must be a number' }).min(1, 'must be at least 1 (one expected interval)').max(1000, 'must be at most 1000'),
+  factor: z.number({ error: 'must be a number' }).min(1, ALERT_REASONS.factorMin).max(1000, 'must be at most 1000'),
 });
 export const boundsParamsSchema = z
   .object({
@@ -30,11 +32,11 @@ export const boundsParamsSchema = z
     high: num().nullable().default(null),
     holdS: whole(0, 7 * 86_400, 'must not be negative (seconds)').default(0),
   })
-  .refine((p) => p.low !== null || p.high !== null, { path: ['high'], message: 'set a low limit, a high limit or both' })
-  .refine((p) => p.low === null || p.high === null || p.low < p.high, { path: ['low'], message: 'must be below the high limit' });
+  .refine((p) => p.low !== null || p.high !== null, { path: ['high'], message: ALERT_REASONS.oneLimitAtLeast })
+  .refine((p) => p.low === null || p.high === null || p.low < p.high, { path: ['low'], message: ALERT_REASONS.lowBelowHigh });
 export const rateParamsSchema = z.object({
-  maxPerMinute: z.number({ error: 'must be a number' }).gt(0, 'must be above 0').max(1e9, 'must be at most 1e9'),
-  direction: z.enum(['rise', 'fall', 'either'], { error: 'must be rise, fall or either' }).default('either'),
+  maxPerMinute: z.number({ error: 'must be a number' }).gt(0, 'must be above 0').max(1e9, 'must be at most 1,000,000,000 a minute'),
+  direction: z.enum(['rise', 'fall', 'either'], { error: ALERT_REASONS.direction }).default('either'),
 });
 export const unusualParamsSchema = z.object({
   periodH: z
@@ -76,13 +78,13 @@ export const createAlertRuleSchema = z.discriminatedUnion(
       .object({ ...common, kind: z.literal('silence'), channelId: id.optional(), loggerId: id.optional(), params: silenceParamsSchema })
       .refine((r) => (r.channelId === undefined) !== (r.loggerId === undefined), {
         path: ['channelId'],
-        message: 'give either a channel or a logger to watch',
+        message: ALERT_REASONS.channelOrLogger,
       }),
     z.object({ ...common, kind: z.literal('bounds'), ...onChannel, params: boundsParamsSchema }),
     z.object({ ...common, kind: z.literal('rate'), ...onChannel, params: rateParamsSchema }),
     z.object({ ...common, kind: z.literal('unusual'), ...onChannel, params: unusualParamsSchema }),
   ],
-  { error: 'must be silence, bounds, rate or unusual' },
+  { error: ALERT_REASONS.kind },
 );
 export type CreateAlertRuleInput = z.infer<typeof createAlertRuleSchema>;
 
@@ -113,9 +115,9 @@ export type AcknowledgeAlertInput = z.input<typeof acknowledgeAlertSchema>;
 
 /** `GET …/alerts?status&days&channelId`: open alerts, or all opened in the last `days` days plus any still open. */
 export const listAlertsQuery = z.object({
-  status: z.enum(['open', 'all'], { error: 'must be open or all' }).default('all'),
+  status: z.enum(['open', 'all'], { error: ALERT_REASONS.status }).default('all'),
   days: z.coerce.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be at least 1').max(366, 'must be at most 366').default(7),
-  channelId: z.coerce.number({ error: 'must be a number' }).int('must be a whole number').positive('must be a positive number').optional(),
+  channelId: z.coerce.number({ error: 'must be a number' }).int('must be a whole number').positive(REASONS.positive).optional(),
 });
 export type ListAlertsQuery = z.infer<typeof listAlertsQuery>;
 

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import type { IsoTime } from './common.ts';
+import { REASONS } from './words/reasons.ts';
 
 /** A lab's audit log: the actions it records, the filters admins read it with, and its entries. */
 
@@ -55,8 +56,8 @@ export type AuditAction = (typeof AUDIT_ACTIONS)[number];
 export const auditQuerySchema = z.object({
   action: z.string().max(64).optional(),
   actor: z.string().trim().max(191).optional(),
-  from: z.iso.datetime({ offset: true, error: 'must be an ISO 8601 date-time' }).optional(),
-  to: z.iso.datetime({ offset: true, error: 'must be an ISO 8601 date-time' }).optional(),
+  from: z.iso.datetime({ offset: true, error: REASONS.isoTime }).optional(),
+  to: z.iso.datetime({ offset: true, error: REASONS.isoTime }).optional(),
   page: z.coerce.number().int().min(1, 'must be 1 or more').default(1),
   pageSize: z.coerce.number().int().min(1, 'must be 1 or more').max(200, 'must be at most 200').default(50),
 });

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import type { IsoTime } from './common.ts';
+import { BILLING_REASONS } from './words/billing.ts';
 
 /**
  * A lab's plan, usage and payment: the inputs of the billing routes, what they answer, and what
@@ -7,7 +8,7 @@ import type { IsoTime } from './common.ts';
  * Amounts are in the currency's smallest unit (cents).
  */
 
-const planKey = z.string().trim().min(1, 'required').max(40, 'at most 40 characters');
+const planKey = z.string({ error: BILLING_REASONS.planRequired }).trim().min(1, BILLING_REASONS.planRequired).max(40, BILLING_REASONS.unknownPlan);
 
 /** `POST …/billing/checkout-session`: the paid plan to subscribe to (a key from tenants/plans.json). */
 export const startCheckoutSchema = z.object({ plan: planKey });

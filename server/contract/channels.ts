@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { parseReadingTime } from '../services/ingest/parse-reading-time.ts';
 import type { IsoTime } from './common.ts';
 import type { Channel } from './loggers.ts';
+import { RANGE_REASONS } from './words/channels.ts';
 
 /**
  * The channel browser: the inputs of the overview, detail, chart series and readings export,
@@ -16,7 +17,7 @@ export const MAX_RANGE_MS = 20 * 365.25 * 86_400_000;
 export const DEFAULT_RANGE_MS = 7 * 86_400_000;
 
 const ZONED_ISO = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2}(\.\d{1,9})?)?(Z|[+-]\d{2}:\d{2})$/;
-const TIME_MESSAGE = 'must be epoch milliseconds or an ISO 8601 time with a zone, e.g. 2026-03-01T00:00:00Z';
+const TIME_MESSAGE = RANGE_REASONS.time;
 
 /** A time in a query: epoch milliseconds or ISO 8601 with a zone, parsed to epoch milliseconds. */
 export const timeParam = z
@@ -50,8 +51,8 @@ export const rangeFields = { from: timeParam.optional(), to: timeParam.optional(
 export function resolveRange<T extends { from?: number; to?: number }>(q: T, ctx: z.RefinementCtx, now: () => number): Omit<T, 'from' | 'to'> & TimeRange {
   const to = q.to ?? Math.ceil(now() / 60_000) * 60_000;
   const from = q.from ?? to - DEFAULT_RANGE_MS;
-  if (!(from < to)) ctx.addIssue({ code: 'custom', path: ['to'], message: 'must be after from' });
-  else if (to - from > MAX_RANGE_MS) ctx.addIssue({ code: 'custom', path: ['to'], message: 'the range must be at most 20 years' });
+  if (!(from < to)) ctx.addIssue({ code: 'custom', path: ['to'], message: RANGE_REASONS.toAfterFrom });
+  else if (to - from > MAX_RANGE_MS) ctx.addIssue({ code: 'custom', path: ['to'], message: RANGE_REASONS.rangeMax });
   return { ...q, from, to };
 }
 

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import type { Permission, Role } from '../policies/permissions.ts';
 import type { IsoTime } from './common.ts';
+import { LAB_REASONS } from './words/labs.ts';
 
 /**
  * Labs: creating one and reading it as a member. Shared by the routes, the ops CLI and the
@@ -13,7 +14,7 @@ export const labSlugSchema = z
   .trim()
   .min(3, 'must be at least 3 characters')
   .max(48, 'must be at most 48 characters')
-  .regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'use lowercase letters, digits and single hyphens');
+  .regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, LAB_REASONS.slugForm);
 
 /** A lab's name as people read it: 2–120 characters after trimming. */
 export const labNameSchema = z.string().trim().min(2, 'must be at least 2 characters').max(120, 'must be at most 120 characters');
@@ -62,15 +63,15 @@ export const updateLabSchema = z
       .string()
       .trim()
       .max(LAB_DESCRIPTION_MAX, `must be at most ${LAB_DESCRIPTION_MAX} characters`)
-      .refine((d) => !CONTROL_CHARACTERS.test(d), 'must be plain text (no control characters)')
+      .refine((d) => !CONTROL_CHARACTERS.test(d), LAB_REASONS.plainText)
       .optional(),
   })
-  .refine((b) => b.name !== undefined || b.description !== undefined, { message: 'give a new name or description', path: ['name'] });
+  .refine((b) => b.name !== undefined || b.description !== undefined, { message: LAB_REASONS.nameOrDescription, path: ['name'] });
 export type UpdateLabInput = z.infer<typeof updateLabSchema>;
 
 /** `POST /api/v1/labs/:lab/deletion` (admins): the lab's name typed again, to confirm. */
 export const deleteLabSchema = z.object({
-  confirmName: z.string({ error: "type the lab's name to confirm" }).max(200, 'must be at most 200 characters'),
+  confirmName: z.string({ error: LAB_REASONS.confirmName }).max(200, 'must be at most 200 characters'),
 });
 export type DeleteLabInput = z.infer<typeof deleteLabSchema>;
 

@@ -2,6 +2,8 @@ import { z } from 'zod';
 import { idParams, pathId, type IsoTime } from './common.ts';
 import { rangeFields, resolveRange } from './channels.ts';
 import { timeZoneSchema } from './me.ts';
+import { LOGGER_REASONS } from './words/loggers.ts';
+import { REASONS } from './words/reasons.ts';
 
 /**
  * Loggers, their channels and ingest keys, and the test reading: the input schemas (shared with
@@ -20,9 +22,9 @@ const optionalText = (max: number) =>
 export const channelKeySchema = z
   .string()
   .trim()
-  .regex(/^[A-Za-z0-9][A-Za-z0-9_.-]{0,63}$/, 'use 1–64 letters, digits, "_", "." or "-", starting with a letter or digit');
+  .regex(/^[A-Za-z0-9][A-Za-z0-9_.-]{0,63}$/, LOGGER_REASONS.channelKey);
 
-const intervalSchema = z.number().int('must be a whole number of seconds').min(1, 'must be at least 1 second').max(604800, 'must be at most 7 days');
+const intervalSchema = z.number().int(LOGGER_REASONS.intervalWhole).min(1, LOGGER_REASONS.intervalMin).max(604800, LOGGER_REASONS.intervalMax);
 
 const channelFields = {
   key: channelKeySchema,
@@ -37,7 +39,7 @@ const channelFields = {
 
 const rangeIsOrdered = (c: { validMin?: number | null; validMax?: number | null }) =>
   c.validMin === undefined || c.validMin === null || c.validMax === undefined || c.validMax === null || c.validMin < c.validMax;
-const rangeMessage = { message: 'validMin must be below validMax', path: ['validMax'] };
+const rangeMessage = { message: LOGGER_REASONS.validRangeOrder, path: ['validMax'] };
 
 /** `POST …/loggers/:loggerId/channels`, and each channel of a new logger. */
 export const channelInputSchema = z.object(channelFields).refine(rangeIsOrdered, rangeMessage);
@@ -57,9 +59,9 @@ const loggerFields = {
 
 /** `POST …/loggers` (and the operator command `register-logger`). */
 export const createLoggerSchema = z
-  .object({ ...loggerFields, channels: z.array(channelInputSchema).max(64, 'at most 64 channels per logger').default([]) })
+  .object({ ...loggerFields, channels: z.array(channelInputSchema).max(64, LOGGER_REASONS.channelsMax).default([]) })
   .refine((l) => new Set(l.channels.map((c) => c.key)).size === l.channels.length, {
-    message: 'channel keys must be unique within a logger',
+    message: LOGGER_REASONS.channelKeysUnique,
     path: ['channels'],
   });
 export type CreateLoggerBody = z.infer<typeof createLoggerSchema>;
@@ -82,9 +84,9 @@ export const testReadingSchema = z.object({
   channel: channelKeySchema.describe("the channel's key on this logger"),
   value: z
     .number({ error: 'must be a number' })
-    .finite('must be a finite number')
-    .min(-TEST_READING_MAX_ABS, 'must be at least -1e12 (a test reading is a plausible measurement)')
-    .max(TEST_READING_MAX_ABS, 'must be at most 1e12 (a test reading is a plausible measurement)'),
+    .finite(REASONS.finite)
+    .min(-TEST_READING_MAX_ABS, LOGGER_REASONS.testValueRange)
+    .max(TEST_READING_MAX_ABS, LOGGER_REASONS.testValueRange),
   confirmOutsideRange: z.boolean({ error: 'must be true or false' }).default(false).describe("true stores a value outside the channel's valid range"),
 });
 export type TestReadingBody = z.input<typeof testReadingSchema>;

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { idParams, type IsoTime } from './common.ts';
 import { rangeFields, timeParam, wholeNumber, type TimeRange } from './channels.ts';
+import { NOTE_REASONS } from './words/notes.ts';
 
 /**
  * Notes on time ranges: why a channel's data (or every channel of a logger's) looks as it does
@@ -21,13 +22,9 @@ export const MAX_NOTES_LISTED = 2000;
 /** A time in a body: epoch milliseconds (number or text) or ISO 8601 with a zone. */
 const bodyTime = z.preprocess((v) => (typeof v === 'number' ? String(v) : v), timeParam);
 const id = wholeNumber(1, Number.MAX_SAFE_INTEGER);
-const noteText = z
-  .string({ error: 'must be text' })
-  .trim()
-  .min(1, 'must not be empty (say what happened)')
-  .max(MAX_NOTE_TEXT, `must be at most ${MAX_NOTE_TEXT} characters`);
+const noteText = z.string({ error: 'must be text' }).trim().min(1, NOTE_REASONS.textEmpty).max(MAX_NOTE_TEXT, `must be at most ${MAX_NOTE_TEXT} characters`);
 const exclude = z.boolean({ error: 'must be true or false' });
-const endAfterStart = { path: ['end'], message: 'must be after start (a note covers at least one millisecond)' };
+const endAfterStart = { path: ['end'], message: NOTE_REASONS.endAfterStart };
 
 /** `POST …/notes`: a note on one channel (`channelId`) or on every channel of a logger (`loggerId`). */
 export const createNoteSchema = z
@@ -43,7 +40,7 @@ export const createNoteSchema = z
   .strict()
   .refine((n) => (n.channelId === undefined) !== (n.loggerId === undefined), {
     path: ['channelId'],
-    message: 'give either channelId (a note on one channel) or loggerId (a note on the whole logger), not both',
+    message: NOTE_REASONS.channelOrLogger,
   })
   .refine((n) => n.end > n.start, endAfterStart);
 export type CreateNoteInput = z.infer<typeof createNoteSchema>;
@@ -58,7 +55,7 @@ export type UpdateNoteInput = z.infer<typeof updateNoteSchema>;
 /** `?from&to` of a notes list or export: both optional (no bound on that side when left out). */
 export const notesQuery = z
   .object(rangeFields)
-  .refine((q) => q.from === undefined || q.to === undefined || q.to > q.from, { path: ['to'], message: 'must be after from' });
+  .refine((q) => q.from === undefined || q.to === undefined || q.to > q.from, { path: ['to'], message: NOTE_REASONS.toAfterFrom });
 export type NotesQuery = z.infer<typeof notesQuery>;
 
 /** `/notes/:noteId`. */

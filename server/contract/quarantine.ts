@@ -2,6 +2,9 @@ import { z } from 'zod';
 import type { IsoTime } from './common.ts';
 import { timeZoneSchema } from './me.ts';
 import { UPLOAD_TIME_FORMATS } from './uploads.ts';
+import { atMostRows, QUARANTINE_REASONS } from './words/quarantine.ts';
+import { UPLOAD_REASONS } from './words/uploads.ts';
+import { REASONS } from './words/reasons.ts';
 
 /**
  * Quarantined rows: the list query with its keyset cursor, discard and re-submit inputs, and
@@ -24,7 +27,7 @@ export function encodeQuarantineCursor(c: QuarantineCursorKey): string {
 }
 
 const CURSOR_TEXT = /^(\d{1,15})\.(\d{1,10})\.(\d{1,16})$/;
-const BAD_CURSOR = 'not a cursor of this list (send nextCursor exactly as the previous page gave it)';
+const BAD_CURSOR = QUARANTINE_REASONS.badCursor;
 
 /** The cursor's sort key, or null when the text is not one `encodeQuarantineCursor` made. */
 export function decodeQuarantineCursor(text: string): QuarantineCursorKey | null {
@@ -43,12 +46,12 @@ const isoTime = z.iso.datetime({ offset: true, error: 'must be an ISO 8601 date-
  * exclusive). The list, its CSV export and the bulk repairs share it.
  */
 export const quarantineFilterFields = {
-  loggerId: z.coerce.number().int().positive('must be a positive number').optional(),
+  loggerId: z.coerce.number().int().positive(REASONS.positive).optional(),
   reason: z.string().max(48, 'must be at most 48 characters').optional(),
   channel: z.string().trim().min(1, 'must not be empty').max(191, 'must be at most 191 characters').optional(),
   source: z
     .string()
-    .regex(/^[a-z-]{1,16}$/, 'must be a source such as api, upload or resubmit')
+    .regex(/^[a-z-]{1,16}$/, QUARANTINE_REASONS.source)
     .optional(),
   receivedFrom: isoTime.optional(),
   receivedTo: isoTime.optional(),
@@ -59,7 +62,7 @@ export const quarantineFilterSchema = z
   .object(quarantineFilterFields)
   .strict()
   .refine((f) => !f.receivedFrom || !f.receivedTo || Date.parse(f.receivedFrom) < Date.parse(f.receivedTo), {
-    message: 'must be after receivedFrom',
+    message: QUARANTINE_REASONS.receivedToAfterFrom,
     path: ['receivedTo'],
   });
 export type QuarantineFilterInput = z.infer<typeof quarantineFilterSchema>;
@@ -81,16 +84,13 @@ export const quarantineQuerySchema = z.object({
     })
     .optional()
     .describe("The previous page's `nextCursor`; leave out for the newest rows."),
-  page: z
-    .undefined({ error: 'page numbers are not supported; follow nextCursor from the previous page' })
-    .optional()
-    .describe('Not supported (400): page with `cursor` instead.'),
+  page: z.undefined({ error: QUARANTINE_REASONS.noPageNumbers }).optional().describe('Not supported (400): page with `cursor` instead.'),
   pageSize: z.coerce.number().int().min(1, 'must be 1 or more').max(500, 'must be at most 500').default(100),
 });
 
 /** `POST …/quarantine/discard`. */
 export const quarantineIdsSchema = z.object({
-  ids: z.array(z.number().int().positive()).min(1, 'choose at least one row').max(1000, 'at most 1000 rows at a time'),
+  ids: z.array(z.number().int().positive()).min(1, QUARANTINE_REASONS.chooseRows).max(1000, atMostRows(1000)),
 });
 
 /** `POST …/quarantine/resubmit`: each row by its id, as it was or as corrected. */
@@ -104,8 +104,8 @@ export const quarantineResubmitSchema = z.object({
         value: z.union([z.number(), z.string().max(191)]),
       }),
     )
-    .min(1, 'send at least one row')
-    .max(1000, 'at most 1000 rows at a time'),
+    .min(1, QUARANTINE_REASONS.chooseRows)
+    .max(1000, atMostRows(1000)),
 });
 /** A quarantined row sent again, as it was or as corrected. */
 export type ResubmitRow = z.infer<typeof quarantineResubmitSchema>['rows'][number];
@@ -159,10 +159,10 @@ export const BULK_MAX_ROWS = 10_000;
 export const bulkSelectionSchema = z
   .object({
     filter: quarantineFilterSchema.optional(),
-    ids: z.array(z.number().int().positive()).min(1, 'choose at least one row').max(BULK_MAX_ROWS, `at most ${BULK_MAX_ROWS} rows at a time`).optional(),
+    ids: z.array(z.number().int().positive()).min(1, QUARANTINE_REASONS.chooseRows).max(BULK_MAX_ROWS, atMostRows(BULK_MAX_ROWS)).optional(),
   })
   .strict()
-  .refine((s) => (s.filter === undefined) !== (s.ids === undefined), { message: 'give either filter or ids', path: ['filter'] });
+  .refine((s) => (s.filter === undefined) !== (s.ids === undefined), { message: QUARANTINE_REASONS.filterOrIds, path: ['filter'] });
 export type BulkSelection = z.infer<typeof bulkSelectionSchema>;
 
 /** The bulk repairs, by `kind`. */
@@ -186,27 +186,34 @@ export const bulkActionSchema = z.discriminatedUnion(
     z
       .object({
         kind: z.literal('reread'),
-        timeFormat: z.enum(UPLOAD_TIME_FORMATS, { error: `must be one of ${UPLOAD_TIME_FORMATS.join(', ')}` }),
+        timeFormat: z.enum(UPLOAD_TIME_FORMATS, { error: UPLOAD_REASONS.timeFormat }),
         timePattern: z.string().trim().min(1, 'must not be empty').max(64, 'must be at most 64 characters').optional(),
         timeZone: timeZoneSchema.optional(),
       })
       .strict()
-      .refine((a) => a.timeFormat !== 'pattern' || a.timePattern, { message: 'give the pattern of the times, e.g. dd.MM.yyyy HH:mm', path: ['timePattern'] }),
+      .refine((a) => a.timeFormat !== 'pattern' || a.timePattern, { message: QUARANTINE_REASONS.patternNeeded, path: ['timePattern'] }),
     z
       .object({
         kind: z.literal('shift'),
         offsetMinutes: z
-          .number({ error: 'must be a whole number of minutes' })
-          .int('must be a whole number of minutes')
-          .min(-MAX_SHIFT_MINUTES, 'must be at most ten years back')
-          .max(MAX_SHIFT_MINUTES, 'must be at most ten years ahead')
-          .refine((m) => m !== 0, 'must not be 0 (a shift of nothing changes nothing)'),
+          .number({ error: QUARANTINE_REASONS.shiftWhole })
+          .int(QUARANTINE_REASONS.shiftWhole)
+          .min(-MAX_SHIFT_MINUTES, QUARANTINE_REASONS.shiftBack)
+          .max(MAX_SHIFT_MINUTES, QUARANTINE_REASONS.shiftAhead)
+          .refine((m) => m !== 0, QUARANTINE_REASONS.shiftNotZero),
       })
       .strict(),
-    z.object({ kind: z.literal('map-channel'), channelId: z.number({ error: 'must be a channel id' }).int().positive('must be a channel id') }).strict(),
-    z.object({ kind: z.literal('discard'), reason: z.string().trim().min(3, 'say why, in a few words').max(255, 'must be at most 255 characters') }).strict(),
+    z
+      .object({
+        kind: z.literal('map-channel'),
+        channelId: z.number({ error: QUARANTINE_REASONS.channelId }).int(QUARANTINE_REASONS.channelId).positive(QUARANTINE_REASONS.channelId),
+      })
+      .strict(),
+    z
+      .object({ kind: z.literal('discard'), reason: z.string().trim().min(3, QUARANTINE_REASONS.discardWhy).max(255, 'must be at most 255 characters') })
+      .strict(),
   ],
-  { error: `kind: must be one of ${BULK_ACTION_KINDS.join(', ')}` },
+  { error: QUARANTINE_REASONS.kind },
 );
 export type BulkAction = z.infer<typeof bulkActionSchema>;
 
@@ -215,7 +222,7 @@ export const bulkRequestSchema = z.object({ selection: bulkSelectionSchema, acti
 export type BulkRequest = z.infer<typeof bulkRequestSchema>;
 
 /** `GET …/quarantine/bulk/runs/:runId`. */
-export const bulkRunParamsSchema = z.object({ runId: z.coerce.number().int().positive('must be a run id') });
+export const bulkRunParamsSchema = z.object({ runId: z.coerce.number().int(REASONS.whole).positive(REASONS.positive) });
 
 /** Rows that stay in quarantine after a repair, grouped by their new reason code (one reason text as example). */
 export interface BulkReasonGroup {

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { idParams, type IsoTime } from './common.ts';
+import { TOKEN_REASONS } from './words/tokens.ts';
 
 /**
  * A member's personal API tokens in a lab (read-only access for notebooks and scripts): the inputs
@@ -10,7 +11,7 @@ import { idParams, type IsoTime } from './common.ts';
 /** `POST …/tokens`: a name to recognise the token by and how many days it works. */
 export const createPersonalTokenSchema = z.object({
   name: z.string({ error: 'must be text' }).trim().min(1, 'must not be empty').max(80, 'must be at most 80 characters'),
-  expiresInDays: z.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be at least 1').max(365, 'must be at most 365'),
+  expiresInDays: z.number({ error: 'must be a number' }).int('must be a whole number').min(1, TOKEN_REASONS.expiresMin).max(365, TOKEN_REASONS.expiresMax),
 });
 export type CreatePersonalTokenInput = z.infer<typeof createPersonalTokenSchema>;
 

@@ -15,16 +15,20 @@ describe('upload query (options as JSON text)', () => {
   });
 
   it('names a refused option by its own name, not as options.<name>', () => {
-    expect(messageOf({ options: JSON.stringify({ format: 'tall', timeColumn: 'ts' }) })).toBe('format: must be long or wide');
-    expect(messageOf({ options: JSON.stringify({ format: 'long', timeColumn: 'ts' }) })).toBe('format: long format needs channelColumn and valueColumn');
+    expect(messageOf({ options: JSON.stringify({ format: 'tall', timeColumn: 'ts' }) })).toBe(
+      'format: must be long (one reading a line) or wide (one column a channel)',
+    );
+    expect(messageOf({ options: JSON.stringify({ format: 'long', timeColumn: 'ts' }) })).toBe(
+      'format: a long file needs its channel column and its value column named',
+    );
     expect(messageOf({ options: JSON.stringify({ format: 'wide', timeColumn: 'ts', columns: { a: null } }) })).toBe(
-      'columns: wide format needs at least one column mapped to a channel',
+      'columns: a wide file needs at least one column stored under a channel',
     );
   });
 
   it('refuses text that is not JSON, and a missing or empty options', () => {
-    expect(messageOf({ options: '{format' })).toBe('options: not valid JSON');
-    expect(messageOf({ options: '' })).toBe('options: must be the upload options as JSON');
+    expect(messageOf({ options: '{format' })).toBe('options: could not be read (the form sends them; a script must send them as JSON)');
+    expect(messageOf({ options: '' })).toBe('options: could not be read (the form sends them; a script must send them as JSON)');
     expect(messageOf({})).toMatch(/^options: /);
   });
 });

@@ -3,6 +3,7 @@ import type { QuarantinedReading } from './ingest.ts';
 import { channelKeySchema } from './loggers.ts';
 import { timeZoneSchema } from './me.ts';
 import type { IsoTime } from './common.ts';
+import { UPLOAD_REASONS } from './words/uploads.ts';
 
 /**
  * `POST …/loggers/:loggerId/uploads?options=<json>`: a logger's historical export file as the raw
@@ -66,27 +67,27 @@ const WALL_CLOCK_FORMATS: readonly UploadTimeFormat[] = [
 /** How to read an uploaded export file: long (`channel,ts,value`) or wide (a time column and one column per channel). */
 export const uploadOptionsSchema = z
   .object({
-    format: z.enum(['long', 'wide'], { error: 'must be long or wide' }),
-    delimiter: z.enum([',', ';', '\t'], { error: 'must be a comma, a semicolon or a tab' }).default(','),
-    timeColumn: z.string().min(1, 'must name a column').max(191),
+    format: z.enum(['long', 'wide'], { error: UPLOAD_REASONS.format }),
+    delimiter: z.enum([',', ';', '\t'], { error: UPLOAD_REASONS.delimiter }).default(','),
+    timeColumn: z.string().min(1, UPLOAD_REASONS.timeColumn).max(191),
     channelColumn: z.string().min(1).max(191).optional(),
     valueColumn: z.string().min(1).max(191).optional(),
     /** Wide format: file column → channel key (null skips the column). */
     columns: z.record(z.string().max(191), channelKeySchema.nullable()).optional(),
-    timeFormat: z.enum(UPLOAD_TIME_FORMATS, { error: `must be one of ${UPLOAD_TIME_FORMATS.join(', ')}` }).default('auto'),
+    timeFormat: z.enum(UPLOAD_TIME_FORMATS, { error: UPLOAD_REASONS.timeFormat }).default('auto'),
     /** With `timeFormat: 'pattern'`: the custom pattern (checked by the server before the upload starts). */
     timePattern: z.string().trim().min(1, 'must not be empty').max(64, 'must be at most 64 characters').optional(),
     /** Zone for local times without an offset (e.g. the logger's own zone). */
     timeZone: timeZoneSchema.optional(),
   })
-  .refine((o) => o.format !== 'long' || (o.channelColumn && o.valueColumn), { message: 'long format needs channelColumn and valueColumn', path: ['format'] })
+  .refine((o) => o.format !== 'long' || (o.channelColumn && o.valueColumn), { message: UPLOAD_REASONS.longNeedsColumns, path: ['format'] })
   .refine((o) => o.format !== 'wide' || (o.columns && Object.values(o.columns).some((v) => v)), {
-    message: 'wide format needs at least one column mapped to a channel',
+    message: UPLOAD_REASONS.wideNeedsChannel,
     path: ['columns'],
   })
-  .refine((o) => o.timeFormat !== 'pattern' || o.timePattern, { message: 'give the pattern of the time column, e.g. dd.MM.yyyy HH:mm', path: ['timePattern'] })
+  .refine((o) => o.timeFormat !== 'pattern' || o.timePattern, { message: UPLOAD_REASONS.patternNeeded, path: ['timePattern'] })
   .refine((o) => !WALL_CLOCK_FORMATS.includes(o.timeFormat) || o.timeZone, {
-    message: "this time layout carries no UTC offset: name the zone its times are in (the logger's own zone, usually)",
+    message: UPLOAD_REASONS.zoneNeeded,
     path: ['timeZone'],
   });
 export type UploadOptions = z.infer<typeof uploadOptionsSchema>;
@@ -96,13 +97,13 @@ export type UploadOptions = z.infer<typeof uploadOptionsSchema>;
  * invalid option answers 400 with the option's own name (`format: must be long or wide`).
  */
 export const uploadQuerySchema = z
-  .object({ options: z.string().min(2, 'must be the upload options as JSON').describe('The reading options (uploadOptions) as JSON.') })
+  .object({ options: z.string().min(2, UPLOAD_REASONS.optionsJson).describe('The reading options (uploadOptions) as JSON.') })
   .transform((query, ctx) => {
     let json: unknown;
     try {
       json = JSON.parse(query.options);
     } catch {
-      ctx.addIssue({ code: 'custom', message: 'not valid JSON', path: ['options'] });
+      ctx.addIssue({ code: 'custom', message: UPLOAD_REASONS.optionsJson, path: ['options'] });
       return z.NEVER;
     }
     const parsed = uploadOptionsSchema.safeParse(json);
@@ -141,14 +142,14 @@ export type UploadLine = ({ type: 'progress' } & ImportProgress) | ({ type: 'sum
 export const timePreviewSchema = z
   .object({
     samples: z
-      .array(z.string({ error: 'must be texts' }).max(100, 'must be at most 100 characters'), { error: 'must be a list of time texts' })
-      .min(1, 'give at least one time text')
+      .array(z.string({ error: UPLOAD_REASONS.samplesText }).max(100, 'must be at most 100 characters'), { error: UPLOAD_REASONS.samplesText })
+      .min(1, UPLOAD_REASONS.samplesMin)
       .max(50, 'must be at most 50 texts'),
-    timeFormat: z.enum(UPLOAD_TIME_FORMATS, { error: `must be one of ${UPLOAD_TIME_FORMATS.join(', ')}` }).default('auto'),
+    timeFormat: z.enum(UPLOAD_TIME_FORMATS, { error: UPLOAD_REASONS.timeFormat }).default('auto'),
     timePattern: z.string().trim().min(1, 'must not be empty').max(64, 'must be at most 64 characters').optional(),
     timeZone: timeZoneSchema,
   })
-  .refine((o) => o.timeFormat !== 'pattern' || o.timePattern, { message: 'give the pattern of the time column, e.g. dd.MM.yyyy HH:mm', path: ['timePattern'] });
+  .refine((o) => o.timeFormat !== 'pattern' || o.timePattern, { message: UPLOAD_REASONS.patternNeeded, path: ['timePattern'] });
 export type TimePreviewInput = z.infer<typeof timePreviewSchema>;
 
 /** One sample row as it will be stored: the text as received, the instant in UTC and on the zone's wall clock, or why it cannot be read. */

@@ -5,6 +5,7 @@ import { AUDIT_LABELS } from './audit.ts';
 import { BILLING_LABELS } from './billing.ts';
 import { RANGE_LABELS } from './channels.ts';
 import { LAB_LABELS } from './labs.ts';
+import { DIAGNOSTICS_FIELD_LABELS } from './diagnostics.ts';
 import { CHANNEL_LABELS, LOGGER_LABELS, TEST_READING_LABELS } from './loggers.ts';
 import { ME_LABELS } from './me.ts';
 import { MEMBER_LABELS } from './members.ts';
@@ -45,6 +46,7 @@ const BY_ROUTE: Array<[RegExp, Labels]> = [
   [/^\/(loggers|channels)\/:\w+\/notes/, { ...RANGE_LABELS, ...NOTE_LABELS }],
   [/^\/loggers\/:loggerId\/channels/, { ...CHANNEL_LABELS, loggerId: LOGGER_LABELS.loggerId }],
   [/^\/loggers/, LOGGER_FIELDS],
+  [/^\/channels\/:channelId\/(diagnostics|comparison)/, DIAGNOSTICS_FIELD_LABELS],
   [/^\/channels\/:channelId\/alerts/, { ...RANGE_LABELS, ...ALERT_LABELS }],
   [/^\/channels/, RANGE_LABELS],
   [/^\/alert-rules/, ALERT_RULE_LABELS],

@@ -2,15 +2,34 @@ import type { ErrorRequestHandler } from 'express';
 import { ZodError } from 'zod';
 import { AppError, ServiceUnavailableError, ValidationError } from '../../errors.ts';
 import type { LogWriter } from '../../log-writer.ts';
+import { problemsMessage, problemsOfIssues, type FieldProblem } from '../../contract/words/fields.ts';
 import { isDatabaseFull, isDatabaseReadOnly, isDatabaseUnavailable, isLockConflict } from '../../db/db-errors.ts';
 
-/** Turns a ZodError into `field: reason` lines (the validation message convention). */
-export function zodToValidationError(err: ZodError): ValidationError {
-  const message = err.issues.map((i) => `${i.path.join('.') || 'body'}: ${i.message}`).join('; ');
-  return new ValidationError(
-    message,
-    err.issues.map((i) => ({ path: i.path.join('.'), message: i.message })),
-  );
+/**
+ * Turns a ZodError into the one invalid-input answer: `fields` keeps each refused field's key
+ * path for programs and form placement, and `message` is for people, one `Label: reason.` per
+ * field with the labels of the route's message catalogue (server/contract/words/), so no key
+ * name reaches a person ("Highest valid value: must be above the lowest valid value.").
+ */
+export function zodToValidationError(err: ZodError, routePath?: string): ValidationError {
+  const fields = problemsOfIssues(err.issues, routePath);
+  return new ValidationError(problemsMessage(fields), fields);
+}
+
+/**
+ * A refusal of one field by a service (a check the schema cannot make, e.g. a channel key
+ * already taken), written like a schema's: `Label: reason.` with the field in `fields`.
+ */
+export function fieldRefusal(field: string, label: string, reason: string): ValidationError {
+  return new ValidationError(problemsMessage([{ label, reason }]), [{ field, label, reason }]);
+}
+
+/** The `fields` of an answer: an error's details when they are field problems (see FieldProblem). */
+function fieldsOf(error: AppError): FieldProblem[] | undefined {
+  const d = error.details;
+  if (!Array.isArray(d) || d.length === 0) return undefined;
+  const ok = d.every((p) => p && typeof p === 'object' && typeof p.field === 'string' && typeof p.reason === 'string' && typeof p.label === 'string');
+  return ok ? (d as FieldProblem[]) : undefined;
 }
 
 /**
@@ -24,22 +43,22 @@ function bodyParserError(err: unknown): AppError | null {
     case 'entity.too.large':
       return new AppError(413, 'payload_too_large', 'The request body is too large.');
     case 'entity.parse.failed':
-      return new ValidationError('body: not valid JSON');
+      return new ValidationError('The request could not be read: it is not valid JSON.');
     case 'charset.unsupported':
-      return new AppError(415, 'unsupported_charset', 'body: only UTF-8 is accepted.');
+      return new AppError(415, 'unsupported_charset', 'The request could not be read: only UTF-8 text is accepted.');
     case 'encoding.unsupported':
-      return new AppError(415, 'unsupported_encoding', 'body: only uncompressed, gzip or deflate bodies are accepted.');
+      return new AppError(415, 'unsupported_encoding', 'The request could not be read: only uncompressed, gzip or deflate bodies are accepted.');
   }
   if (typeof bp.code === 'string' && bp.code.startsWith('Z_')) {
-    return new AppError(400, 'corrupt_body', 'body: the compressed body is corrupt or truncated (Content-Encoding says gzip or deflate).');
+    return new AppError(400, 'corrupt_body', 'The request could not be read: its compressed body is corrupt or cut short (it says gzip or deflate).');
   }
-  if (bp.expose) return new AppError(bp.status, 'bad_request', `body: ${String(bp.message ?? 'could not be read').slice(0, 120)}`);
+  if (bp.expose) return new AppError(bp.status, 'bad_request', 'The request could not be read.');
   return null;
 }
 
 /**
- * The one error middleware: typed errors become `{ error: { code, message } }` with their
- * status; body-parser failures (too large, bad JSON, unsupported charset or coding, corrupt
+ * The one error middleware: typed errors become `{ error: { code, message, fields? } }` with
+ * their status (`fields` lists refused fields by key); body-parser failures (too large, bad JSON, unsupported charset or coding, corrupt
  * gzip) become 4xx; an unreachable database becomes 503 with Retry-After; anything else is
  * logged and answered 500 without internals.
  */
@@ -70,7 +89,10 @@ export function errorHandler(logger: LogWriter): ErrorRequestHandler {
       if (res.headersSent) return;
       // a batch refused whole shows the first rows it could not read (see TooManyQuarantinedError)
       const sample = (error as { sample?: unknown }).sample;
-      res.status(error.status).json({ error: { code: error.code, message: error.message, ...(Array.isArray(sample) ? { sample } : {}) } });
+      const fields = fieldsOf(error);
+      res
+        .status(error.status)
+        .json({ error: { code: error.code, message: error.message, ...(fields ? { fields } : {}), ...(Array.isArray(sample) ? { sample } : {}) } });
       return;
     }
     logger.error('unexpected error', { path: req.path, err: (err as Error)?.stack ?? String(err) });

@@ -134,7 +134,7 @@ export function buildOpenApiDocument(routes: readonly Route[], opts: { serverUrl
       version: '1',
       summary: "Research labs' data loggers: ingestion, channels, diagnostics and exports.",
       description:
-        'Every lab route lives below /api/v1/labs/{lab} and needs a session or, for the read routes marked with personalToken, `Authorization: Bearer lbt_…`. A lab one is not a member of answers 404. Errors are `{ "error": { "code", "message" } }`; validation messages read `field: reason`.',
+        'Every lab route lives below /api/v1/labs/{lab} and needs a session or, for the read routes marked with personalToken, `Authorization: Bearer lbt_…`. A lab one is not a member of answers 404. Errors are `{ "error": { "code", "message" } }`; invalid input adds `fields` (each refused field by key, with its label and the reason) and its message reads `Label: reason.` for people.',
     },
     ...(opts.serverUrl ? { servers: [{ url: opts.serverUrl }] } : {}),
     paths,
@@ -158,7 +158,33 @@ export function buildOpenApiDocument(routes: readonly Route[], opts: { serverUrl
         Error: {
           type: 'object',
           required: ['error'],
-          properties: { error: { type: 'object', required: ['code', 'message'], properties: { code: { type: 'string' }, message: { type: 'string' } } } },
+          properties: {
+            error: {
+              type: 'object',
+              required: ['code', 'message'],
+              properties: {
+                code: { type: 'string', description: 'Stable; programs branch on it.' },
+                message: { type: 'string', description: 'For people, in plain words (it may change); one `Label: reason.` per refused field.' },
+                fields: {
+                  type: 'array',
+                  description: 'Invalid input (400): each refused field by its key path, for programs and forms.',
+                  items: {
+                    type: 'object',
+                    required: ['field', 'label', 'reason'],
+                    properties: {
+                      field: {
+                        type: 'string',
+                        description: "The field's key path as sent, dotted (`validMax`, `channels.2.key`); empty for the request as a whole.",
+                      },
+                      label: { type: 'string', description: 'The field as the forms name it.' },
+                      reason: { type: 'string', description: 'Why it was refused, in plain words.' },
+                    },
+                  },
+                },
+                sample: { type: 'array', description: 'A batch refused whole: the first rows that could not be read.', items: {} },
+              },
+            },
+          },
         },
       },
       responses: {

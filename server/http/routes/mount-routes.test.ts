@@ -108,14 +108,19 @@ describe('mountRoutes', () => {
     expect(res.body).toEqual({ limit: 10, lab: 'seven', callerId: 3 });
   });
 
-  it('answers 400 invalid_input with `field: reason` for bad params, query or body alike', async () => {
+  it('answers 400 invalid_input with `Label: reason.` and the refused fields by key, for bad params, query or body alike', async () => {
     const app = appWith();
     const badParam = await request(app).patch('/api/v1/labs/seven/items/x').send({ name: 'ok' }).expect(400);
-    expect(badParam.body.error).toEqual({ code: 'invalid_input', message: 'itemId: must be a number' });
+    // no catalogue names `itemId`, so the key is put in words
+    expect(badParam.body.error).toEqual({
+      code: 'invalid_input',
+      message: 'Item id: must be a number.',
+      fields: [{ field: 'itemId', label: 'Item id', reason: 'must be a number' }],
+    });
     const badQuery = await request(app).get('/api/v1/labs/seven/items?limit=51').expect(400);
-    expect(badQuery.body.error.message).toBe('limit: must be at most 50');
+    expect(badQuery.body.error.message).toBe('Limit: must be at most 50.');
     const badBody = await request(app).patch('/api/v1/labs/seven/items/4').send({ name: 'a' }).expect(400);
-    expect(badBody.body.error.message).toBe('name: must be at least 2 characters');
+    expect(badBody.body.error.fields).toEqual([{ field: 'name', label: 'Name', reason: 'must be at least 2 characters' }]);
   });
 
   it("writes the handler's answer with the declared status; 204 writes no body; typed errors keep theirs", async () => {

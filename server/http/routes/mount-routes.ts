@@ -16,11 +16,14 @@ export interface MountContext {
   onUndocumentedStatus?: (where: string, status: number) => void;
 }
 
-/** Parses one part of the request with its schema; a failure is the one invalid-input answer (400). */
-function parsePart<S extends z.ZodType>(schema: S | undefined, input: unknown): unknown {
+/**
+ * Parses one part of the request with its schema; a failure is the one invalid-input answer
+ * (400), its fields named with the labels of the route's catalogue (`routePath`).
+ */
+function parsePart<S extends z.ZodType>(schema: S | undefined, input: unknown, routePath: string): unknown {
   if (!schema) return undefined;
   const result = schema.safeParse(input);
-  if (!result.success) throw zodToValidationError(result.error);
+  if (!result.success) throw zodToValidationError(result.error, routePath);
   return result.data;
 }
 
@@ -36,9 +39,9 @@ function signalOnDisconnect(res: Response): AbortSignal {
 /** The handler's input: parsed params, query and body, and accessors for who acts where. */
 function inputOf(route: Route, req: Request, res: Response): RouteInput<unknown, unknown, unknown> {
   return {
-    params: parsePart(route.params, req.params),
-    query: parsePart(route.query, req.query),
-    body: parsePart(route.body, req.body),
+    params: parsePart(route.params, req.params, route.path),
+    query: parsePart(route.query, req.query, route.path),
+    body: parsePart(route.body, req.body, route.path),
     get lab() {
       return labOf(res);
     },

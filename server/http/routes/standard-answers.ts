@@ -3,7 +3,7 @@ import { permissionOf, type Route } from './route.ts';
 /** The standard answers, by status, with the description the API document gives them. */
 export const STANDARD_ANSWERS = {
   304: 'Not modified: the answer equals the one whose ETag the request sent in If-None-Match (no body).',
-  400: 'The input failed validation (`invalid_input`, message `field: reason`, one line per field).',
+  400: 'The input failed validation (`invalid_input`; `fields` lists each refused field by key with its label and reason, and the message reads `Label: reason.` for people).',
   401: 'Not signed in, or the token or key is not valid (`unauthenticated`, `invalid_token`).',
   403: 'The role (or a personal token) does not allow this (`forbidden`, `token_not_allowed`), or a write came from another site (`cross_site_request`).',
   404: 'No such thing here — also the answer for another lab and its resources (`not_found`).',

@@ -3,7 +3,7 @@ import type { Note, NoteKind } from '@shared/contract/notes.ts';
 import { Button } from '../../../components/button.tsx';
 import { SelectField, TextField } from '../../../components/form-field.tsx';
 import { Notice } from '../../../components/notice.tsx';
-import { fieldFromServerMessage } from '../../../components/server-field-error.ts';
+import { fieldFromServerError } from '../../../components/server-field-error.ts';
 import { toZonedInput } from '../../../components/zoned-time.ts';
 import { DateTimeInput } from '../../../components/date-time-input.tsx';
 import { readDateTime } from '../../../components/date-time-input-read.ts';
@@ -63,7 +63,7 @@ export function NoteForm({
   const [exclude, setExclude] = useState(initial?.excludeFromAnalysis ?? false);
   const [local, setLocal] = useState<{ field: string; reason: string } | null>(null);
 
-  const server = error ? fieldFromServerMessage(error.message, FIELDS) : null;
+  const server = error ? fieldFromServerError(error, FIELDS) : null;
   const problem = local ?? server;
   const on = (field: string) => (problem?.field === field ? problem.reason : undefined);
 
