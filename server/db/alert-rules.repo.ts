@@ -1,3 +1,4 @@
+import type { ClockChoice } from '../contract/me.ts';
 import type { LabScope } from './tenant-scope.ts';
 import { newId } from './new-id.ts';
 import type { AlertRuleKind } from '../contract/alerts.ts';
@@ -163,7 +164,7 @@ export function alertRulesRepo(scope: LabScope) {
      * Subscribers of a rule who are still members of the lab, with their address and own time
      * zone: mail goes only to people who may still see the lab.
      */
-    async recipients(ruleId: number): Promise<Array<{ userId: number; email: string; displayName: string; timeZone: string | null }>> {
+    async recipients(ruleId: number): Promise<Array<{ userId: number; email: string; displayName: string; timeZone: string | null; clock: ClockChoice }>> {
       const rows = await scope
         .table('alert_subscriptions')
         .join('memberships', function joinMembership() {
@@ -172,12 +173,13 @@ export function alertRulesRepo(scope: LabScope) {
         .join('users', 'users.id', 'alert_subscriptions.user_id')
         .where('alert_subscriptions.rule_id', ruleId)
         .orderBy('alert_subscriptions.user_id')
-        .select('users.id as userId', 'users.email', 'users.display_name as displayName', 'users.time_zone as timeZone');
+        .select('users.id as userId', 'users.email', 'users.display_name as displayName', 'users.time_zone as timeZone', 'users.clock as clock');
       return rows.map((r: Record<string, unknown>) => ({
         userId: Number(r.userId),
         email: r.email as string,
         displayName: r.displayName as string,
         timeZone: (r.timeZone as string | null) ?? null,
+        clock: (r.clock as ClockChoice | null) ?? 'logger',
       }));
     },
   };

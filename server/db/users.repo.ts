@@ -1,3 +1,4 @@
+import type { ClockChoice } from '../contract/me.ts';
 import type { DbOrTrx } from './tenant-scope.ts';
 
 export interface User {
@@ -11,6 +12,8 @@ export interface User {
   lastSignInAt: Date | null;
   /** The person's own IANA time zone, if they chose one (alert mails add their clock). */
   timeZone: string | null;
+  /** Which clock the person reads times on, in the app and in alert mails (default `logger`). */
+  clock: ClockChoice;
 }
 
 interface UserRow {
@@ -23,6 +26,7 @@ interface UserRow {
   created_at: Date;
   last_sign_in_at: Date | null;
   time_zone: string | null;
+  clock?: ClockChoice | null;
 }
 
 function toUser(r: UserRow): User {
@@ -36,6 +40,7 @@ function toUser(r: UserRow): User {
     createdAt: r.created_at,
     lastSignInAt: r.last_sign_in_at,
     timeZone: r.time_zone ?? null,
+    clock: r.clock ?? 'logger',
   };
 }
 
@@ -91,6 +96,11 @@ export function usersRepo(db: DbOrTrx) {
     /** Sets (or, with null, clears) the person's own time zone; the caller has checked the name. */
     async setTimeZone(id: number, timeZone: string | null): Promise<void> {
       await db('users').where({ id }).update({ time_zone: timeZone });
+    },
+
+    /** Saves the person's clock choice (the caller has checked it is one of the choices). */
+    async setClock(id: number, clock: ClockChoice): Promise<void> {
+      await db('users').where({ id }).update({ clock });
     },
   };
 }

@@ -1,3 +1,4 @@
+import type { ClockChoice } from '../contract/me.ts';
 import type { LabMembershipSummary } from '../db/labs.repo.ts';
 import type { CrossLabRepo } from '../db/cross-lab.repo.ts';
 import type { User, UsersRepo } from '../db/users.repo.ts';
@@ -24,11 +25,15 @@ export function createMeService(deps: { labs: Pick<CrossLabRepo, 'labsOf'>; user
       return { user, labs: await deps.labs.labsOf(user.id) };
     },
 
-    /** The person's own time zone for alert mails (an IANA name the schema has checked), or null to clear it. */
-    async setTimeZone(actor: Pick<Actor, 'id'>, timeZone: string | null): Promise<MeView> {
+    /**
+     * The person's own settings, each only when given: their time zone (an IANA name the schema
+     * has checked, or null to clear it) and which clock times are shown on (app and alert mails).
+     */
+    async updateSettings(actor: Pick<Actor, 'id'>, changes: { timeZone?: string | null; clock?: ClockChoice }): Promise<MeView> {
       const user = await userOf(actor);
-      await deps.users.setTimeZone(user.id, timeZone);
-      return { user: { ...user, timeZone }, labs: await deps.labs.labsOf(user.id) };
+      if (changes.timeZone !== undefined) await deps.users.setTimeZone(user.id, changes.timeZone);
+      if (changes.clock !== undefined) await deps.users.setClock(user.id, changes.clock);
+      return { user: { ...user, ...changes }, labs: await deps.labs.labsOf(user.id) };
     },
   };
 }

@@ -17,6 +17,7 @@ function fakeUsers() {
         createdAt: new Date(0),
         lastSignInAt: null,
         timeZone: null,
+        clock: 'logger',
       };
     },
   } as unknown as UsersRepo;

@@ -3,4 +3,5 @@
 /** Fields of the person's own settings. */
 export const ME_LABELS = {
   timeZone: 'Your time zone',
+  clock: 'Show times on',
 } as const;

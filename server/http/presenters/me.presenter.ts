@@ -9,6 +9,7 @@ export function presentMe(view: MeView): Me {
       email: view.user.email,
       name: view.user.displayName,
       timeZone: view.user.timeZone,
+      clock: view.user.clock,
     },
     labs: view.labs.map((l) => ({ slug: l.slug, name: l.name, role: l.role })),
   };

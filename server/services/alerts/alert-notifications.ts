@@ -1,3 +1,4 @@
+import type { ClockChoice } from '../../contract/me.ts';
 import type { LabScope } from '../../db/tenant-scope.ts';
 import { alertRulesRepo } from '../../db/alert-rules.repo.ts';
 import { outboxRepo, type NotificationKind } from '../../db/notification-outbox.repo.ts';
@@ -19,6 +20,18 @@ export interface NotificationSubject {
   now: number;
   value: number | null;
   detail: string;
+}
+
+/**
+ * The zone an alert mail gives its times on, following the reader's clock choice as the app does:
+ * `logger` → the logger's zone (alerts are readings-related); `mine` → the reader's saved zone
+ * (the server never sees their browser, so without a saved zone: UTC); `utc` → UTC. The mail
+ * names the zone beside each time.
+ */
+export function mailTimeZone(clock: ClockChoice, loggerZone: string, readerZone: string | null): string {
+  if (clock === 'logger') return loggerZone;
+  if (clock === 'mine') return readerZone ?? 'UTC';
+  return 'UTC';
 }
 
 /**
@@ -47,8 +60,7 @@ export async function queueAlertMail(scope: LabScope, n: NotificationSubject): P
         detail: n.detail,
         openedAt: n.alert.openedAt,
         link,
-        timeZone: n.target.timezone,
-        readerTimeZone: r.timeZone,
+        timeZone: mailTimeZone(r.clock, n.target.timezone, r.timeZone),
       });
       return {
         alertId: n.alert.id,
