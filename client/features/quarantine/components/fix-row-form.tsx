@@ -1,6 +1,7 @@
 import { useState, type FormEvent } from 'react';
 import { Button } from '../../../components/button.tsx';
 import type { QuarantinedRow, ResubmitRow } from '@shared/contract/quarantine.ts';
+import { readingName } from '../messages.ts';
 
 const LOCAL_TIME = /^\d{4}-\d{2}-\d{2}[T ]\d{2}:\d{2}(:\d{2}([.,]\d+)?)?$/;
 
@@ -33,7 +34,7 @@ export function FixRowForm({
   }
   const box = 'mt-0.5 block w-full rounded-md border border-rule bg-card px-2 py-1 font-mono text-xs';
   return (
-    <form onSubmit={submit} aria-label={`Fix row ${row.id}`} className="grid min-w-56 gap-2">
+    <form onSubmit={submit} aria-label={`Fix ${readingName(row)}`} className="grid min-w-56 gap-2">
       <label className="text-xs font-medium">
         Channel
         <input className={box} value={draft.channel} onChange={(e) => setDraft({ ...draft, channel: e.target.value })} />

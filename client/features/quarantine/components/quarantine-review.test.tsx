@@ -87,7 +87,7 @@ describe('QuarantineReview', () => {
     });
     renderWithProviders(<QuarantineReview slug="fernhollow" loggers={LOGGERS} />, '/q?loggerId=5');
     fireEvent.click(await screen.findByRole('button', { name: 'Fix row 801' }));
-    const form = screen.getByRole('form', { name: 'Fix row 801' });
+    const form = screen.getByRole('form', { name: 'Fix the reading of “air_t” at “2026-09-01T00:10:00+03:00”' });
     expect((within(form).getByLabelText('Time') as HTMLInputElement).value).toBe('2026-09-01T00:10:00+03:00');
     fireEvent.change(within(form).getByLabelText('Value'), { target: { value: ' 12.3 ' } });
     fireEvent.click(within(form).getByRole('button', { name: 'Re-submit' }));
@@ -118,8 +118,12 @@ describe('QuarantineReview', () => {
     expect(screen.getByText(/No UTC offset/)).toBeTruthy();
     fireEvent.change(screen.getByLabelText('Value'), { target: { value: '12.3' } });
     fireEvent.click(screen.getByRole('button', { name: 'Re-submit' }));
-    const outcome = await screen.findByText(/Row 801 is back in quarantine/);
-    expect(outcome.textContent).toContain('has no UTC offset');
+    // the reading is named by what arrived (logger, channel and time as received, value), not by its row id
+    const outcome = await screen.findByText(/^Back in quarantine:/);
+    expect(outcome.textContent).toBe(
+      'Back in quarantine: Hedgerow mast, channel “air_t” as received, time “2026-09-01 00:10:00”, value “12.3”. Why: Time: "2026-09-01 00:10:00" has no UTC offset (add Z or ±hh:mm, or send epoch milliseconds).',
+    );
+    expect(outcome.textContent).not.toMatch(/801/);
     expect(outcome.closest('[role="alert"]')).not.toBeNull();
   });
 

@@ -11,7 +11,8 @@ import { asResubmitRow } from './fix-row-form.tsx';
 import { QuarantineFilterBar } from './quarantine-filter-bar.tsx';
 import { QuarantinePager } from './quarantine-pager.tsx';
 import { QuarantineTable } from './quarantine-table.tsx';
-import { ResubmitOutcome } from './resubmit-outcome.tsx';
+import { ResubmitOutcome, type SentReading } from './resubmit-outcome.tsx';
+import { discardedNotice, discardQuestion } from '../messages.ts';
 import { BulkRepairPanel } from './bulk-repair-panel.tsx';
 import { loggerQueryOptions } from '../../loggers/api/get-logger.ts';
 import { useQuery } from '@tanstack/react-query';
@@ -46,14 +47,26 @@ export function QuarantineReview({ slug, loggers }: { slug: string; loggers: Arr
   const [bulk, setBulk] = useState<{ selection: BulkSelection; describes: string } | null>(null);
   const logger = useQuery({ ...loggerQueryOptions(slug, filters.loggerId ?? 0), enabled: !!filters.loggerId });
   const [outcome, setOutcome] = useState<Outcome | null>(null);
+  // the readings of the last re-submission by row id, so its outcome names them (not their ids)
+  const [sent, setSent] = useState<ReadonlyMap<number, SentReading>>(new Map());
   const [discarded, setDiscarded] = useState<number | null>(null);
   // the cursors of the pages before the shown one, newest first page = null
   const [trail, setTrail] = useState<Array<string | null>>([]);
   const loggerNames = useMemo(() => new Map(loggers.map((l) => [l.id, l.name])), [loggers]);
 
+  const pageRows = list.data?.rows;
   const send = useCallback(
     (rows: ResubmitRow[]) => {
       setDiscarded(null);
+      const loggerOf = new Map((pageRows ?? []).map((r) => [r.id, r.loggerId]));
+      setSent(
+        new Map(
+          rows.map((r) => {
+            const loggerId = loggerOf.get(r.id);
+            return [r.id, { logger: loggerId == null ? null : (loggerNames.get(loggerId) ?? null), channel: r.channel, ts: r.ts, value: r.value }];
+          }),
+        ),
+      );
       resubmit.mutate(rows, {
         onSuccess: (result) => {
           setOutcome(result);
@@ -61,7 +74,7 @@ export function QuarantineReview({ slug, loggers }: { slug: string; loggers: Arr
         },
       });
     },
-    [resubmit],
+    [resubmit, pageRows, loggerNames],
   );
   const rows = list.data?.rows ?? [];
   const chosen = rows.filter((r) => selected.has(r.id));
@@ -143,7 +156,7 @@ export function QuarantineReview({ slug, loggers }: { slug: string; loggers: Arr
         {chosen.length > 0 && !allMatching && (
           <ConfirmButton
             label="Discard selected"
-            question={`Discard ${chosen.length} row${chosen.length === 1 ? '' : 's'} for good?`}
+            question={discardQuestion(chosen.length)}
             confirmLabel="Discard"
             pending={discard.isPending}
             onConfirm={() =>
@@ -182,12 +195,8 @@ export function QuarantineReview({ slug, loggers }: { slug: string; loggers: Arr
           onClose={clearSelection}
         />
       )}
-      {outcome && <ResubmitOutcome outcome={outcome} />}
-      {discarded !== null && (
-        <Notice tone="status">
-          Discarded {discarded} row{discarded === 1 ? '' : 's'}.
-        </Notice>
-      )}
+      {outcome && <ResubmitOutcome outcome={outcome} sent={sent} />}
+      {discarded !== null && <Notice tone="status">{discardedNotice(discarded)}</Notice>}
       {resubmit.isError && <Notice tone="alert">{resubmit.error.message}</Notice>}
       {discard.isError && <Notice tone="alert">{discard.error.message}</Notice>}
       {list.isPending ? (
