@@ -54,7 +54,7 @@ describe('LabSwitcher in the app shell', () => {
 
   it('closes on Escape and gives focus back to its button', () => {
     renderShell('/');
-    const toggle = screen.getByRole('button', { name: /Choose a lab/ });
+    const toggle = screen.getByRole('button', { name: /Go to a lab/ });
     fireEvent.click(toggle);
     fireEvent.keyDown(screen.getByRole('link', { name: /Fernhollow/ }), { key: 'Escape' });
     expect(toggle.getAttribute('aria-expanded')).toBe('false');
@@ -64,10 +64,33 @@ describe('LabSwitcher in the app shell', () => {
 
   it('navigates to the chosen lab', async () => {
     const { router } = renderShell('/');
-    fireEvent.click(screen.getByRole('button', { name: /Choose a lab/ }));
+    fireEvent.click(screen.getByRole('button', { name: /Go to a lab/ }));
     fireEvent.click(screen.getByRole('link', { name: /Saltmarsh Survey/ }));
     expect(router.state.location.pathname).toBe('/labs/saltmarsh');
     expect(await screen.findByRole('button', { name: /Saltmarsh Survey/ })).toBeTruthy();
+  });
+
+  it('on a page of no lab names that page and offers the labs to go to, never "Choose a lab"', () => {
+    for (const [url, place] of [
+      ['/account', 'Your account'],
+      ['/api-reference', 'API reference'],
+      ['/', 'Start page'],
+      ['/labs/new', 'New lab'],
+    ]) {
+      renderShell(url);
+      const toggle = screen.getByRole('button', { name: /Go to a lab/ });
+      expect(toggle.textContent).toBe(`${place}Go to a lab▾`);
+      fireEvent.click(toggle);
+      const links = within(screen.getByRole('list', { name: 'Your labs' })).getAllByRole('link');
+      expect(links.map((a) => a.getAttribute('aria-current'))).toEqual([null, null]);
+      expect(document.body.textContent).not.toContain('Choose a lab');
+      cleanup();
+    }
+  });
+
+  it('says so when the lab in the address is not one of the person’s labs', () => {
+    renderShell('/labs/elsewhere/loggers');
+    expect(screen.getByRole('button', { name: /Go to a lab/ }).textContent).toBe('Not one of your labsGo to a lab▾');
   });
 
   it('still offers Create a lab to someone with no lab', () => {
