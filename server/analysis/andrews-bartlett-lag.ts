@@ -16,7 +16,8 @@ import { lagOneCoefficient } from './lag-one-coefficient.ts';
 export function andrewsBartlettLag(u: Series, minimum = 1): number {
   let count = 0;
   for (let i = 0; i < u.length; i++) if (!Number.isNaN(u[i])) count++;
-  if (count < 8) throw new AnalysisInputError(`andrewsBartlettLag requires at least 8 values (got ${count})`);
+  if (count < 8)
+    throw new AnalysisInputError(`andrewsBartlettLag requires at least 8 values (got ${count})`, { reason: 'too-few-values', need: 8, got: count });
   const rho = Math.max(-0.99, Math.min(0.99, lagOneCoefficient(u)));
   const alpha1 = (4 * rho * rho) / ((1 - rho) ** 2 * (1 + rho) ** 2);
   const bandwidth = 1.1447 * Math.cbrt(alpha1 * count);

@@ -45,10 +45,10 @@ export interface ArYuleWalkerResult {
 export function arYuleWalker(x: Series, options: ArYuleWalkerOptions = {}): ArYuleWalkerResult {
   const fn = 'arYuleWalker';
   const { n, sum } = presentValues(x, fn);
-  if (n < 3) throw new AnalysisInputError(`${fn} requires at least 3 data points (got ${n})`);
+  if (n < 3) throw new AnalysisInputError(`${fn} requires at least 3 data points (got ${n})`, { reason: 'too-few-values', need: 3, got: n });
   const maxOrder = integerOption(fn, 'maxOrder', options.maxOrder ?? Math.min(n - 1, Math.floor(10 * Math.log10(n))), 1, Math.min(n - 2, x.length - 1));
   const gamma = autocorrelation(x, { maxLag: maxOrder, type: 'covariance' });
-  if (gamma[0] === 0) throw new AnalysisInputError(`${fn}: the series is constant, so no model can be fitted`);
+  if (gamma[0] === 0) throw new AnalysisInputError(`${fn}: the series is constant, so no model can be fitted`, { reason: 'constant' });
   const { coefficients, variances } = durbinLevinson(gamma, maxOrder);
 
   const aic = new Float64Array(maxOrder + 1);

@@ -47,7 +47,7 @@ export function augmentedDickeyFuller(x: Series, options: AugmentedDickeyFullerO
   const fn = 'augmentedDickeyFuller';
   assertSeries(x, fn);
   const n = x.length;
-  if (n < 10) throw new AnalysisInputError(`${fn} requires at least 10 data points (got ${n})`);
+  if (n < 10) throw new AnalysisInputError(`${fn} requires at least 10 data points (got ${n})`, { reason: 'too-few-values', need: 10, got: n });
   for (let i = 0; i < n; i++) {
     if (!Number.isFinite(x[i])) throw new AnalysisInputError(`${fn}: value ${i} is missing or not finite`);
   }

@@ -37,7 +37,7 @@ export function autocorrelationFromPeriodogram(power: Float64Array, size: number
   const out = new Float64Array(maxLag + 1);
   const c0 = spectrum[0];
   // The same refusal as `autocorrelation` for a series without variation.
-  if (!(c0 > 0)) throw new AnalysisInputError('acf: the series is constant, so its autocorrelation is undefined');
+  if (!(c0 > 0)) throw new AnalysisInputError('acf: the series is constant, so its autocorrelation is undefined', { reason: 'constant' });
   for (let k = 0; k <= maxLag; k++) {
     const r = spectrum[2 * k] / c0;
     out[k] = r > 1 ? 1 : r < -1 ? -1 : r;

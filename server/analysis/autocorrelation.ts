@@ -35,7 +35,7 @@ export function autocorrelation(x: Series, options: AutocorrelationOptions = {})
   const fn = 'acf';
   assertSeries(x, fn);
   const n = x.length;
-  if (n < 2) throw new AnalysisInputError(`${fn} requires at least 2 data points (got ${n})`);
+  if (n < 2) throw new AnalysisInputError(`${fn} requires at least 2 data points (got ${n})`, { reason: 'too-few-values', need: 2, got: n });
   const maxLag = integerOption(fn, 'maxLag', options.maxLag ?? defaultMaxLag(n), 0, n - 1);
   const { type = 'correlation', demean = true, method = 'auto' } = options;
   if (type !== 'correlation' && type !== 'covariance') {
@@ -44,7 +44,11 @@ export function autocorrelation(x: Series, options: AutocorrelationOptions = {})
 
   const masked = maskMissing(x, demean);
   if (masked.count < 2) {
-    throw new AnalysisInputError(`${fn} requires at least 2 non-missing values (got ${masked.count})`);
+    throw new AnalysisInputError(`${fn} requires at least 2 non-missing values (got ${masked.count})`, {
+      reason: 'too-few-values',
+      need: 2,
+      got: masked.count,
+    });
   }
   const sums = laggedProducts(masked.values, masked.values, maxLag, method);
   const present = masked.present;
@@ -57,7 +61,7 @@ export function autocorrelation(x: Series, options: AutocorrelationOptions = {})
   if (type === 'covariance') return out;
 
   const c0 = out[0];
-  if (!(c0 > 0)) throw new AnalysisInputError(`${fn}: the series is constant, so its autocorrelation is undefined`);
+  if (!(c0 > 0)) throw new AnalysisInputError(`${fn}: the series is constant, so its autocorrelation is undefined`, { reason: 'constant' });
   for (let k = 0; k <= maxLag; k++) {
     const r = out[k] / c0;
     out[k] = r > 1 ? 1 : r < -1 ? -1 : r;

@@ -195,7 +195,7 @@ function differenced(x: Float64Array, d: number, seasonal: number, period: numbe
   if (d > 0) y = difference(y, { lag: 1, order: d });
   if (seasonal > 0) {
     if (period === null) {
-      throw new AnalysisInputError('seasonalDifference needs a seasonal period, and none was given or detected');
+      throw new AnalysisInputError('seasonalDifference needs a seasonal period, and none was given or detected', { reason: 'no-period' });
     }
     y = difference(y, { lag: period, order: seasonal });
   }
@@ -258,7 +258,12 @@ function crossCorrelationOf(
 ): CrossCorrelationOutcome {
   let pairs = 0;
   for (let i = 0; i < x.length; i++) if (!Number.isNaN(x[i]) && !Number.isNaN(y[i])) pairs++;
-  if (pairs < 4) throw new AnalysisInputError(`ccf requires at least 4 times where both channels have a value (got ${pairs})`);
+  if (pairs < 4)
+    throw new AnalysisInputError(`ccf requires at least 4 times where both channels have a value (got ${pairs})`, {
+      reason: 'too-few-pairs',
+      need: 4,
+      got: pairs,
+    });
   const window = Math.min(maxLag ?? defaultCcfMaxLag(x.length, stepMs), x.length - 1);
   const raw = crossCorrelation(x, y, { maxLag: window });
   const rawBand = normalQuantile(1 - alpha / 2) / Math.sqrt(pairs);
@@ -389,7 +394,12 @@ export function channelDiagnostics(readings: ChannelReadings, options: ChannelDi
   const grid = reg.values;
   const n = grid.length;
   const missing = countMissing(grid);
-  if (n - missing < 8) throw new AnalysisInputError(`channelDiagnostics requires readings in at least 8 cells of the grid (got ${n - missing})`);
+  if (n - missing < 8)
+    throw new AnalysisInputError(`channelDiagnostics requires readings in at least 8 cells of the grid (got ${n - missing})`, {
+      reason: 'too-few-cells',
+      need: 8,
+      got: n - missing,
+    });
   const filled = fillGapsLinear(grid);
 
   const detection = detectPeriod(filled, { stepMs: options.step });
@@ -400,6 +410,7 @@ export function channelDiagnostics(readings: ChannelReadings, options: ChannelDi
     if (!Number.isInteger(requested) || requested < 2 || requested > Math.floor(n / 2)) {
       throw new AnalysisInputError(
         `channelDiagnostics: period must be a whole number of steps from 2 to ${Math.floor(n / 2)} for ${n} cells (got ${requested})`,
+        { reason: 'period-too-long', need: Math.floor(n / 2), got: requested },
       );
     }
     [period, source] = [requested, 'manual'];
@@ -412,7 +423,13 @@ export function channelDiagnostics(readings: ChannelReadings, options: ChannelDi
   const analysed = differenced(grid, d, D, period);
   const nA = analysed.length;
   const presentA = nA - countMissing(analysed);
-  if (presentA < 30) throw new AnalysisInputError(`channelDiagnostics requires at least 30 values after differencing (got ${presentA})`);
+  if (presentA < 30)
+    throw new AnalysisInputError(`channelDiagnostics requires at least 30 values after differencing (got ${presentA})`, {
+      reason: d + D > 0 ? 'too-few-after-differencing' : 'too-few-values',
+      need: 30,
+      got: presentA,
+      ...(D > 0 && period !== null ? { period } : {}),
+    });
   const seasonalLags = period !== null ? Math.min(2 * period, Math.floor(nA / 4)) : 0;
   const maxLag = options.maxLag ?? Math.max(defaultMaxLag(nA), seasonalLags);
   const acfValues = autocorrelation(analysed, { maxLag });

@@ -107,7 +107,9 @@ describe('compareMeans', () => {
 
   it('refuses bad input with a clear message', () => {
     const x = Array.from(simulateArma({}, 40, 8));
-    expect(() => compareMeans([1, 2, 3, 4], x)).toThrow(new AnalysisInputError('compareMeans requires at least 10 data points in range a (got 4)'));
+    expect(() => compareMeans([1, 2, 3, 4], x)).toThrow(
+      new AnalysisInputError('compareMeans requires at least 10 data points in range a (got 4)', { reason: 'too-few-in-range', need: 10, got: 4, range: 'a' }),
+    );
     expect(() => compareMeans(x, [1, NaN, 2])).toThrow('compareMeans requires at least 10 data points in range b (got 2)');
     expect(() => compareMeans(new Array(12).fill(1), new Array(15).fill(2))).toThrow(
       'compareMeans: both ranges are constant, so the difference of their means has no sampling error to estimate',

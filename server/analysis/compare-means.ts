@@ -67,7 +67,13 @@ function summarise(x: Series, label: 'a' | 'b'): { summary: RangeMeanSummary; va
     n++;
     sum += x[i];
   }
-  if (n < MIN_POINTS) throw new AnalysisInputError(`${fn} requires at least ${MIN_POINTS} data points in range ${label} (got ${n})`);
+  if (n < MIN_POINTS)
+    throw new AnalysisInputError(`${fn} requires at least ${MIN_POINTS} data points in range ${label} (got ${n})`, {
+      reason: 'too-few-in-range',
+      need: MIN_POINTS,
+      got: n,
+      range: label,
+    });
   const mean = sum / n;
   let squares = 0;
   for (let i = 0; i < x.length; i++) if (!Number.isNaN(x[i])) squares += (x[i] - mean) ** 2;
@@ -77,6 +83,7 @@ function summarise(x: Series, label: 'a' | 'b'): { summary: RangeMeanSummary; va
   if (ess < MIN_EFFECTIVE) {
     throw new AnalysisInputError(
       `${fn}: range ${label} carries only ${ess.toPrecision(2)} independent readings (n = ${n}, autocorrelation time ${tau.toPrecision(3)} steps), too few for an interval; choose a longer range`,
+      { reason: 'too-few-independent', need: MIN_EFFECTIVE, got: ess, range: label },
     );
   }
   return { summary: { n, mean, sd: Math.sqrt(variance), tau, nEff: ess }, variance };
@@ -139,7 +146,7 @@ export function compareMeans(a: Series, b: Series, options: CompareMeansOptions 
   const first = summarise(a, 'a');
   const second = summarise(b, 'b');
   if (first.variance === 0 && second.variance === 0) {
-    throw new AnalysisInputError(`${fn}: both ranges are constant, so the difference of their means has no sampling error to estimate`);
+    throw new AnalysisInputError(`${fn}: both ranges are constant, so the difference of their means has no sampling error to estimate`, { reason: 'constant' });
   }
   const sa = first.summary;
   const sb = second.summary;

@@ -55,13 +55,13 @@ export function crossCorrelation(x: Series, y: Series, options: CrossCorrelation
     throw new AnalysisInputError(`${fn}: the two series must have the same length (got ${x.length} and ${y.length})`);
   }
   const n = x.length;
-  if (n < 2) throw new AnalysisInputError(`${fn} requires at least 2 data points (got ${n})`);
+  if (n < 2) throw new AnalysisInputError(`${fn} requires at least 2 data points (got ${n})`, { reason: 'too-few-values', need: 2, got: n });
   const maxLag = integerOption(fn, 'maxLag', options.maxLag ?? defaultMaxLag(n, 2), 0, n - 1);
   const type = options.type ?? 'correlation';
   const mx = maskMissing(x, true);
   const my = maskMissing(y, true);
   if (mx.count < 2 || my.count < 2) {
-    throw new AnalysisInputError(`${fn} requires at least 2 non-missing values in each series`);
+    throw new AnalysisInputError(`${fn} requires at least 2 non-missing values in each series`, { reason: 'too-few-pairs', need: 2 });
   }
   const positive = oneSide(mx, my, maxLag);
   const negative = oneSide(my, mx, maxLag);
@@ -70,7 +70,7 @@ export function crossCorrelation(x: Series, y: Series, options: CrossCorrelation
     const cxx = oneSide(mx, mx, 0)[0];
     const cyy = oneSide(my, my, 0)[0];
     if (!(cxx > 0 && cyy > 0)) {
-      throw new AnalysisInputError(`${fn}: a constant series has no cross-correlation`);
+      throw new AnalysisInputError(`${fn}: a constant series has no cross-correlation`, { reason: 'constant' });
     }
     scale = 1 / Math.sqrt(cxx * cyy);
   }

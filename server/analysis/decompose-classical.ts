@@ -62,7 +62,12 @@ export function decomposeClassical(x: Series, options: ClassicalDecompositionOpt
   }
   if (present < 2 * period) {
     const what = present === n ? 'values' : 'non-missing values';
-    throw new AnalysisInputError(`decomposeClassical requires at least two full periods (got ${present} ${what} for period ${period})`);
+    throw new AnalysisInputError(`decomposeClassical requires at least two full periods (got ${present} ${what} for period ${period})`, {
+      reason: 'too-few-periods',
+      need: 2 * period,
+      got: present,
+      period,
+    });
   }
 
   const multiplicative = type === 'multiplicative';

@@ -361,7 +361,7 @@ export function detectPeriod(x: Series, options: DetectPeriodOptions = {}): Dete
   const fn = 'detectPeriod';
   assertSeries(x, fn);
   const n = x.length;
-  if (n < 8) throw new AnalysisInputError(`${fn} requires at least 8 data points (got ${n})`);
+  if (n < 8) throw new AnalysisInputError(`${fn} requires at least 8 data points (got ${n})`, { reason: 'too-few-values', need: 8, got: n });
   const maxPeriod = integerOption(fn, 'maxPeriod', options.maxPeriod ?? Math.floor(n / 2), 2, Math.floor(n / 2));
   const alpha = options.alpha ?? 0.01;
   if (!(alpha > 0 && alpha < 1)) throw new AnalysisInputError(`${fn}: alpha must be between 0 and 1 (got ${alpha})`);

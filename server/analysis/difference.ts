@@ -24,7 +24,11 @@ export function difference(x: Series, options: DifferenceOptions = {}): Float64A
   const lag = integerOption(fn, 'lag', options.lag ?? 1, 1);
   const order = integerOption(fn, 'order', options.order ?? 1, 1);
   if (lag * order >= x.length) {
-    throw new AnalysisInputError(`${fn} requires more than lag × order = ${lag * order} data points (got ${x.length})`);
+    throw new AnalysisInputError(`${fn} requires more than lag × order = ${lag * order} data points (got ${x.length})`, {
+      reason: 'too-few-values',
+      need: lag * order + 1,
+      got: x.length,
+    });
   }
   let current = Float64Array.from(x);
   for (let d = 0; d < order; d++) {

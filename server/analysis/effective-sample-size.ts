@@ -48,14 +48,14 @@ export interface EffectiveSampleSizeResult {
 export function effectiveSampleSize(x: Series, options: EffectiveSampleSizeOptions = {}): EffectiveSampleSizeResult {
   const fn = 'effectiveSampleSize';
   const { n, sum } = presentValues(x, fn);
-  if (n < 4) throw new AnalysisInputError(`${fn} requires at least 4 data points (got ${n})`);
+  if (n < 4) throw new AnalysisInputError(`${fn} requires at least 4 data points (got ${n})`, { reason: 'too-few-values', need: 4, got: n });
   const alpha = options.alpha ?? 0.05;
   if (!(alpha > 0 && alpha < 1)) throw new AnalysisInputError(`${fn}: alpha must be between 0 and 1 (got ${alpha})`);
   const mean = sum / n;
   let squares = 0;
   for (let i = 0; i < x.length; i++) if (!Number.isNaN(x[i])) squares += (x[i] - mean) ** 2;
   const variance = squares / (n - 1);
-  if (!(variance > 0)) throw new AnalysisInputError(`${fn}: the series is constant, so its sample size cannot be corrected`);
+  if (!(variance > 0)) throw new AnalysisInputError(`${fn}: the series is constant, so its sample size cannot be corrected`, { reason: 'constant' });
 
   const given = options.acf;
   let maxLag = given ? Math.min(x.length - 1, given.length - 1) : Math.min(x.length - 1, 128);

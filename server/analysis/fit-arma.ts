@@ -135,11 +135,16 @@ export function fitArma(x: Series, options: FitArmaOptions): FitArmaResult {
   }
   const needed = minimumLength(p, q);
   if (used < needed) {
-    throw new AnalysisInputError(`${fn} needs at least ${needed} points for ARMA(${p},${q}) (got ${used}): choose a longer range or a lower order`);
+    throw new AnalysisInputError(`${fn} needs at least ${needed} points for ARMA(${p},${q}) (got ${used}): choose a longer range or a lower order`, {
+      reason: 'too-few-values',
+      need: needed,
+      got: used,
+    });
   }
   if (!varies) {
     throw new AnalysisInputError(
       `${fn}: the series is constant (every value is ${first}), so no ARMA model can be fitted: choose a range where the readings vary`,
+      { reason: 'constant' },
     );
   }
 

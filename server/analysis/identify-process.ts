@@ -262,7 +262,7 @@ export function identifyProcess(x: Series, options: IdentifyProcessOptions = {})
   for (let i = 0; i < x.length; i++) if (!Number.isNaN(x[i])) n++;
   const present = n === x.length && x instanceof Float64Array ? x : new Float64Array(n);
   if (present !== x) for (let i = 0, j = 0; i < x.length; i++) if (!Number.isNaN(x[i])) present[j++] = x[i];
-  if (n < 30) throw new AnalysisInputError(`${fn} requires at least 30 data points (got ${n})`);
+  if (n < 30) throw new AnalysisInputError(`${fn} requires at least 30 data points (got ${n})`, { reason: 'too-few-values', need: 30, got: n });
   const maxLag = integerOption(fn, 'maxLag', options.maxLag ?? Math.min(Math.max(20, defaultMaxLag(n)), Math.floor(n / 4)), 2, Math.floor(n / 4));
   const maxOrder = integerOption(fn, 'maxOrder', options.maxOrder ?? 5, 1, maxLag - 1);
   integerOption(fn, 'fitCells', options.fitCells ?? 2000, 30, Number.MAX_SAFE_INTEGER);

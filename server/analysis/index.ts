@@ -2,7 +2,7 @@
  * Lagbook's numeric engine: pure functions on numeric arrays (NaN marks a missing value), with
  * the short names the rest of the server uses. Nothing here imports from the rest of the server.
  */
-export { AnalysisInputError, type Series } from './analysis-input-error.ts';
+export { AnalysisInputError, type AnalysisInputDetail, type AnalysisInputReason, type Series } from './analysis-input-error.ts';
 export { autocorrelation as acf, type AutocorrelationOptions } from './autocorrelation.ts';
 export { partialAutocorrelation as pacf, type PartialAutocorrelationOptions } from './partial-autocorrelation.ts';
 export { autocorrelationBands as acfBands, type AutocorrelationBands, type AutocorrelationBandsOptions } from './autocorrelation-bands.ts';

@@ -24,7 +24,8 @@ export interface PartialAutocorrelationOptions {
 export function partialAutocorrelation(x: Series, options: PartialAutocorrelationOptions = {}): Float64Array {
   const fn = 'pacf';
   assertSeries(x, fn);
-  if (x.length < 2) throw new AnalysisInputError(`${fn} requires at least 2 data points (got ${x.length})`);
+  if (x.length < 2)
+    throw new AnalysisInputError(`${fn} requires at least 2 data points (got ${x.length})`, { reason: 'too-few-values', need: 2, got: x.length });
   const maxLag = integerOption(fn, 'maxLag', options.maxLag ?? Math.max(1, defaultMaxLag(x.length)), 1, x.length - 1);
   const r = autocorrelation(x, { maxLag });
   return durbinLevinson(r, maxLag, { keepCoefficients: false }).partial;

@@ -24,7 +24,8 @@ export interface PeriodogramResult {
 export function periodogram(x: Series, padTo?: number): PeriodogramResult {
   const fn = 'periodogram';
   assertSeries(x, fn);
-  if (x.length < 4) throw new AnalysisInputError(`${fn} requires at least 4 data points (got ${x.length})`);
+  if (x.length < 4)
+    throw new AnalysisInputError(`${fn} requires at least 4 data points (got ${x.length})`, { reason: 'too-few-values', need: 4, got: x.length });
   const n = x.length;
   const size = powerOfTwoAtLeast(Math.max(n, padTo ?? 0));
   const padded = new Float64Array(size);

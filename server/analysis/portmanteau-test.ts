@@ -31,7 +31,8 @@ export interface PortmanteauResult {
  */
 export function portmanteauTest(fn: string, x: Series, options: PortmanteauOptions, weight: (n: number, k: number) => number): PortmanteauResult {
   assertSeries(x, fn);
-  if (x.length < 3) throw new AnalysisInputError(`${fn} requires at least 3 data points (got ${x.length})`);
+  if (x.length < 3)
+    throw new AnalysisInputError(`${fn} requires at least 3 data points (got ${x.length})`, { reason: 'too-few-values', need: 3, got: x.length });
   const lag = integerOption(fn, 'lag', options?.lag, 1, x.length - 1);
   const fitdf = integerOption(fn, 'fitdf', options.fitdf ?? 0, 0, lag - 1);
   let n = 0;

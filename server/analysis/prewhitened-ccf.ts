@@ -95,7 +95,11 @@ export function prewhitenedCcf(response: Series, input: Series, options: Prewhit
   const inInput = presentValues(input, fn);
   const fewest = Math.min(inResponse.n, inInput.n);
   if (fewest < MIN_POINTS) {
-    throw new AnalysisInputError(`${fn} requires at least ${MIN_POINTS} data points in each series (got ${fewest})`);
+    throw new AnalysisInputError(`${fn} requires at least ${MIN_POINTS} data points in each series (got ${fewest})`, {
+      reason: 'too-few-values',
+      need: MIN_POINTS,
+      got: fewest,
+    });
   }
   for (const [name, s, mean] of [
     ['response (first argument)', response, inResponse.sum / inResponse.n],
@@ -103,7 +107,7 @@ export function prewhitenedCcf(response: Series, input: Series, options: Prewhit
   ] as const) {
     let varies = false;
     for (let i = 0; i < s.length && !varies; i++) varies = !Number.isNaN(s[i]) && s[i] !== mean;
-    if (!varies) throw new AnalysisInputError(`${fn}: the ${name} is constant, so it has no cross-correlation`);
+    if (!varies) throw new AnalysisInputError(`${fn}: the ${name} is constant, so it has no cross-correlation`, { reason: 'constant' });
   }
 
   const model = arYuleWalker(input);
@@ -115,6 +119,7 @@ export function prewhitenedCcf(response: Series, input: Series, options: Prewhit
   if (pairs < MIN_POINTS || finiteCount(inputFiltered) < 2 || finiteCount(responseFiltered) < 2) {
     throw new AnalysisInputError(
       `${fn}: after the AR(${p}) filter only ${pairs} time steps have both series present (at least ${MIN_POINTS} needed); fill the gaps or choose a longer range`,
+      { reason: 'too-few-pairs', need: MIN_POINTS, got: pairs },
     );
   }
   const maxLag = integerOption(fn, 'maxLag', options.maxLag ?? Math.min(defaultMaxLag(n, 2), n - 1 - p), 0, n - 1 - p);

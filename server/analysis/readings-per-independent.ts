@@ -21,7 +21,9 @@ export function readingsPerIndependent(ar: readonly number[], ma: readonly numbe
   let thetaAtOne = 1;
   for (const theta of ma) thetaAtOne += theta;
   if (!(Math.abs(phiAtOne) > 1e-12))
-    throw new AnalysisInputError('readingsPerIndependent: the AR part has a unit root, so the mean has no finite long-run variance');
+    throw new AnalysisInputError('readingsPerIndependent: the AR part has a unit root, so the mean has no finite long-run variance', {
+      reason: 'unstable-model',
+    });
   const p = ar.length;
   const psi: number[] = [1];
   let sumSquares = 1;
@@ -37,7 +39,7 @@ export function readingsPerIndependent(ar: readonly number[], ma: readonly numbe
     if (!Number.isFinite(sumSquares)) break;
   }
   if (!Number.isFinite(sumSquares) || quiet < QUIET_TERMS) {
-    throw new AnalysisInputError('readingsPerIndependent: the AR part is not stationary (its ψ weights do not die out)');
+    throw new AnalysisInputError('readingsPerIndependent: the AR part is not stationary (its ψ weights do not die out)', { reason: 'unstable-model' });
   }
   return (thetaAtOne / phiAtOne) ** 2 / sumSquares;
 }

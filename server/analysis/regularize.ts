@@ -66,12 +66,16 @@ export function regularize(timestamps: Series, values: Series, options: Regulari
     if (t < first) first = t;
     if (t > last) last = t;
   }
-  if (readings === 0) throw new AnalysisInputError(`${fn} requires at least 1 reading with a value (got 0)`);
+  if (readings === 0) throw new AnalysisInputError(`${fn} requires at least 1 reading with a value (got 0)`, { reason: 'too-few-values', need: 1, got: 0 });
 
   const start = origin + Math.floor((first - origin) / step) * step;
   const cells = Math.floor((last - start) / step) + 1;
   if (cells > MAX_CELLS) {
-    throw new AnalysisInputError(`${fn}: step ${step} ms gives ${cells} cells, more than ${MAX_CELLS}; use a larger step`);
+    throw new AnalysisInputError(`${fn}: step ${step} ms gives ${cells} cells, more than ${MAX_CELLS}; use a larger step`, {
+      reason: 'too-many-cells',
+      need: MAX_CELLS,
+      got: cells,
+    });
   }
 
   // Counting sort of the readings by cell.

@@ -105,6 +105,7 @@ export function selectArma(x: Series, options: SelectArmaOptions = {}): SelectAr
   if (best === null) {
     throw new AnalysisInputError(
       `${fn}: none of the ${candidates.length} candidate models converged with roots clear of the unit circle: choose a longer or steadier range`,
+      { reason: 'unstable-model' },
     );
   }
   const fitdf = best.p + best.q;
@@ -131,6 +132,7 @@ function fitOrExplain(x: Series, p: number, q: number, warm: FitArmaResult | und
           .replace(/^fitArma/, 'selectArma')
           .replace(' for ARMA(0,0)', '')
           .replace('or a lower order', 'of readings'),
+        error.detail,
       );
     }
     throw error;

@@ -60,7 +60,12 @@ export function stlParameters(n: number, options: StlOptions): StlSettings {
     throw new AnalysisInputError(`stl: period must be a whole number (got ${period})`);
   }
   if (n < 2 * period) {
-    throw new AnalysisInputError(`stl requires at least two full periods (got ${n} value${n === 1 ? '' : 's'} for period ${period})`);
+    throw new AnalysisInputError(`stl requires at least two full periods (got ${n} value${n === 1 ? '' : 's'} for period ${period})`, {
+      reason: 'too-few-periods',
+      need: 2 * period,
+      got: n,
+      period,
+    });
   }
   const robust = options.robust ?? false;
   if (typeof robust !== 'boolean') throw new AnalysisInputError(`stl: robust must be true or false`);

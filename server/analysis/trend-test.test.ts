@@ -99,7 +99,9 @@ describe('trendTest', () => {
 
   it('refuses bad input with a clear message', () => {
     const x = Array.from(simulateArma({}, 30, 9));
-    expect(() => trendTest([1, 2, 3, 5])).toThrow(new AnalysisInputError('trendTest requires at least 10 data points (got 4)'));
+    expect(() => trendTest([1, 2, 3, 5])).toThrow(
+      new AnalysisInputError('trendTest requires at least 10 data points (got 4)', { reason: 'too-few-values', need: 10, got: 4 }),
+    );
     expect(() => trendTest([1, 2, NaN, 4, 5, 6, 7, 8, 9, 11])).toThrow('trendTest requires at least 10 data points (got 9)');
     expect(() => trendTest(new Array(20).fill(2.5))).toThrow('trendTest: the series is constant, so it has no trend to test');
     expect(() => trendTest(Array.from({ length: 20 }, (_, i) => 3 + 0.5 * i))).toThrow(

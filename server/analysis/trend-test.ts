@@ -74,7 +74,8 @@ export function trendTest(x: Series, options: TrendTestOptions = {}): TrendTestR
   if (!(alpha > 0 && alpha < 1)) throw new AnalysisInputError(`${fn}: alpha must be between 0 and 1 (got ${alpha})`);
   let n = 0;
   for (let i = 0; i < x.length; i++) if (!Number.isNaN(x[i])) n++;
-  if (n < MIN_POINTS) throw new AnalysisInputError(`${fn} requires at least ${MIN_POINTS} data points (got ${n})`);
+  if (n < MIN_POINTS)
+    throw new AnalysisInputError(`${fn} requires at least ${MIN_POINTS} data points (got ${n})`, { reason: 'too-few-values', need: MIN_POINTS, got: n });
   const lag = integerOption(fn, 'lag', options.lag ?? Math.floor(4 * (n / 100) ** (2 / 9)), 0, n - 1);
   const times = new Float64Array(n);
   const values = new Float64Array(n);
@@ -86,7 +87,7 @@ export function trendTest(x: Series, options: TrendTestOptions = {}): TrendTestR
     if (values[j] !== values[0]) constant = false;
     j++;
   }
-  if (constant) throw new AnalysisInputError(`${fn}: the series is constant, so it has no trend to test`);
+  if (constant) throw new AnalysisInputError(`${fn}: the series is constant, so it has no trend to test`, { reason: 'constant' });
 
   let tMean = 0;
   let xMean = 0;
@@ -114,7 +115,9 @@ export function trendTest(x: Series, options: TrendTestOptions = {}): TrendTestR
     rss += residuals[i] * residuals[i];
   }
   if (rss === 0) {
-    throw new AnalysisInputError(`${fn}: the readings lie exactly on a straight line, so the slope has no sampling error to estimate`);
+    throw new AnalysisInputError(`${fn}: the readings lie exactly on a straight line, so the slope has no sampling error to estimate`, {
+      reason: 'straight-line',
+    });
   }
   const standardErrorOls = Math.sqrt(rss / (n - 2) / stt);
 

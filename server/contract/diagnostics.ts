@@ -2,6 +2,7 @@ import { z } from 'zod';
 import type { IsoTime } from './common.ts';
 import type { AppliedNote } from './notes.ts';
 import { MAX_RANGE_MS, rangeFields, resolveRange, timeParam, wholeNumber, type TimeRange } from './channels.ts';
+import { DIAGNOSTICS_REASONS } from './words/diagnostics.ts';
 
 /**
  * Diagnostics and the before/after comparison of a channel: the query schemas (whose inferred
@@ -18,7 +19,7 @@ export type Aggregate = (typeof AGGREGATES)[number];
 export const DECOMPOSITIONS = ['stl', 'stl-robust', 'classical', 'none'] as const;
 export type DecompositionChoice = (typeof DECOMPOSITIONS)[number];
 
-const aggregate = z.enum(AGGREGATES, { error: 'must be mean, median, last, min or max' }).default('mean');
+const aggregate = z.enum(AGGREGATES, { error: DIAGNOSTICS_REASONS.aggregate }).default('mean');
 const alpha = z.coerce.number({ error: 'must be a number' }).gt(0, 'must be above 0').max(0.5, 'must be at most 0.5').default(0.05);
 /** Resampling step in seconds: 1 s to 31 days. */
 const step = wholeNumber(1, 31 * 86_400);
@@ -30,7 +31,7 @@ const periodParam = z
     if (s === 'auto' || s === 'none') return s;
     const n = /^\d+$/.test(s) ? Number(s) : NaN;
     if (!Number.isInteger(n) || n < 2 || n > 100_000) {
-      ctx.addIssue({ code: 'custom', message: 'must be auto, none or a whole number of steps from 2 to 100000' });
+      ctx.addIssue({ code: 'custom', message: DIAGNOSTICS_REASONS.period });
       return z.NEVER;
     }
     return n;
@@ -47,7 +48,7 @@ export const diagnosticsQuery = (now: () => number = Date.now) =>
       seasonalDifference: wholeNumber(0, 1).default(0),
       maxLag: wholeNumber(1, 10_000).optional(),
       period: periodParam.default('auto'),
-      decomposition: z.enum(DECOMPOSITIONS, { error: 'must be stl, stl-robust, classical or none' }).default('stl'),
+      decomposition: z.enum(DECOMPOSITIONS, { error: DIAGNOSTICS_REASONS.decomposition }).default('stl'),
       alpha,
       ccfWith: wholeNumber(1, Number.MAX_SAFE_INTEGER).optional(),
       /** Cross-correlation lag window in steps (only with `ccfWith`); absent: ⌊10·log10(n/2)⌋. */
@@ -55,9 +56,9 @@ export const diagnosticsQuery = (now: () => number = Date.now) =>
     })
     .refine((q) => !(q.seasonalDifference > 0 && q.period === 'none'), {
       path: ['seasonalDifference'],
-      message: 'needs a period (auto or a number of steps), not none',
+      message: DIAGNOSTICS_REASONS.seasonalNeedsPeriod,
     })
-    .refine((q) => q.ccfMaxLag === undefined || q.ccfWith !== undefined, { path: ['ccfMaxLag'], message: 'needs ccfWith' })
+    .refine((q) => q.ccfMaxLag === undefined || q.ccfWith !== undefined, { path: ['ccfMaxLag'], message: DIAGNOSTICS_REASONS.ccfLagNeedsPartner })
     .transform((q, ctx) => resolveRange(q, ctx, now));
 
 /**
@@ -68,12 +69,12 @@ export const diagnosticsQuery = (now: () => number = Date.now) =>
 export type DiagnosticsParams = z.infer<ReturnType<typeof diagnosticsQuery>>;
 
 /** A time that must be given. */
-const requiredTime = z.string({ error: 'is required: epoch milliseconds or an ISO 8601 time with a zone' }).pipe(timeParam);
+const requiredTime = z.string({ error: DIAGNOSTICS_REASONS.timeRequired }).pipe(timeParam);
 
 /** Checks one comparison range: start before end, at most 20 years. */
 function checkRange(from: number, to: number, path: string, ctx: z.RefinementCtx): void {
-  if (!(from < to)) ctx.addIssue({ code: 'custom', path: [path], message: 'must be after the start of its range' });
-  else if (to - from > MAX_RANGE_MS) ctx.addIssue({ code: 'custom', path: [path], message: 'the range must be at most 20 years' });
+  if (!(from < to)) ctx.addIssue({ code: 'custom', path: [path], message: DIAGNOSTICS_REASONS.rangeOrder });
+  else if (to - from > MAX_RANGE_MS) ctx.addIssue({ code: 'custom', path: [path], message: DIAGNOSTICS_REASONS.rangeLength });
 }
 
 /**

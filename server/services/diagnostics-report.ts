@@ -2,6 +2,7 @@ import { describeDuration, describeModel, NEAR_UNIT_ROOT, thinForDrawing, type C
 import type { ChannelWithState } from '../db/channel-state.repo.ts';
 import type { Decomposition, DiagnosticsParams, DiagnosticsReport, GridSource, ProcessModel, ReportChannel, TrendAnswer } from '../contract/diagnostics.ts';
 import type { AppliedNote } from '../contract/notes.ts';
+import { durationWords } from '../contract/words/diagnostics.ts';
 
 /**
  * 'drawing' thins a long decomposition to what a chart can show (the page and the JSON answer);
@@ -108,7 +109,7 @@ const CALENDAR_WORDS = { hour: 'an hour', day: 'a day', week: 'a week', days: 'a
 function periodStatement(r: ChannelDiagnostics, stepMs: number): { rawEstimate: number | null; statement: string } {
   const used = r.period.used;
   if (used === null) return { rawEstimate: null, statement: 'No seasonal period was used.' };
-  const length = `${used} steps (${describeDuration(used * stepMs)})`;
+  const length = `${used} steps (${durationWords((used * stepMs) / 1000)})`;
   if (r.period.source === 'manual') return { rawEstimate: null, statement: `Period used everywhere in this report: ${length}, set by hand.` };
   const found = r.period.candidates.find((c) => c.period === used) ?? null;
   if (found === null) return { rawEstimate: null, statement: `Period used everywhere in this report: ${length}, detected.` };

@@ -21,6 +21,8 @@ import type { ChannelsService } from './channels.service.ts';
 import type { LabContext } from './lab-context.ts';
 import { createResultCache, type ResultCacheOptions } from './result-cache.ts';
 import type { ComparisonAnswer, ComparisonParams, DiagnosticsParams, GridSource } from '../contract/diagnostics.ts';
+import { analysisRefusal, DIAGNOSTICS_FIELD_LABELS, DIAGNOSTICS_MESSAGES, type RefusalContext } from '../contract/words/diagnostics.ts';
+import { problemsMessage } from '../contract/words/fields.ts';
 import { diagnosticsReport, type DecompositionResolution } from './diagnostics-report.ts';
 import { rangeComparisonReport } from './range-comparison-report.ts';
 import { excludedNotes, type ExcludedNote } from './notes/notes.service.ts';
@@ -157,13 +159,22 @@ export function createDiagnosticsService(deps: {
     return { data: await repo.rangeForGrid(channelId, range.from, range.to, stepMs), source: { kind: 'readings' }, counts: null };
   }
 
-  /** Runs one engine task on the pool (in process without one); the engine's refusals become 422. */
-  async function runEngine<T extends AnalysisTask>(task: T, inProcess: () => AnalysisResult<T>, signal?: AbortSignal): Promise<AnalysisResult<T>> {
+  /**
+   * Runs one engine task on the pool (in process without one); the engine's refusals become 422
+   * with the catalogue's plain sentence for their typed reason (the engine's own message is for
+   * developers and never reaches the answer).
+   */
+  async function runEngine<T extends AnalysisTask>(
+    task: T,
+    inProcess: () => AnalysisResult<T>,
+    words: RefusalContext,
+    signal?: AbortSignal,
+  ): Promise<AnalysisResult<T>> {
     try {
       if (deps.pool) return await deps.pool.run(task, { signal });
       return inProcess();
     } catch (err) {
-      if (err instanceof AnalysisInputError) throw new AnalysisRefusedError(err.message);
+      if (err instanceof AnalysisInputError) throw new AnalysisRefusedError(analysisRefusal(err.detail, words));
       throw err;
     }
   }
@@ -174,19 +185,28 @@ export function createDiagnosticsService(deps: {
     partner: ChannelReadings | undefined,
     signal?: AbortSignal,
   ): Promise<ChannelDiagnostics> =>
-    runEngine({ fn: 'channelDiagnostics', args: [readings, options, partner] }, () => channelDiagnostics(readings, options, partner), signal);
+    runEngine(
+      { fn: 'channelDiagnostics', args: [readings, options, partner] },
+      () => channelDiagnostics(readings, options, partner),
+      { stepS: options.step / 1000, difference: options.difference ?? 0, seasonalDifference: options.seasonalDifference ?? 0 },
+      signal,
+    );
 
   const compare = (a: ChannelReadings, b: ChannelReadings, options: RangeComparisonOptions, signal?: AbortSignal): Promise<CompareMeansResult> =>
-    runEngine({ fn: 'rangeComparison', args: [a, b, options] }, () => rangeComparison(a, b, options), signal);
+    runEngine(
+      { fn: 'rangeComparison', args: [a, b, options] },
+      () => rangeComparison(a, b, options),
+      { stepS: options.step / 1000, difference: 0, seasonalDifference: 0 },
+      signal,
+    );
 
   /** A range aligned outward to whole steps, refused when it holds more cells than one run may. */
-  function alignedRange(from: number, to: number, stepMs: number, field: string): { from: number; to: number } {
+  function alignedRange(from: number, to: number, stepMs: number, field: 'aTo' | 'bTo' | 'step'): { from: number; to: number } {
     const range = { from: Math.floor(from / stepMs) * stepMs, to: Math.ceil(to / stepMs) * stepMs };
     const cells = (range.to - range.from) / stepMs;
     if (cells > MAX_DIAGNOSTICS_CELLS) {
-      throw new ValidationError(
-        `${field}: the range holds ${cells} steps of ${stepMs / 1000} s; at most ${MAX_DIAGNOSTICS_CELLS} (choose a longer step or a shorter range)`,
-      );
+      const problem = { field, label: DIAGNOSTICS_FIELD_LABELS[field], reason: DIAGNOSTICS_MESSAGES.tooManySteps(cells, stepMs / 1000, MAX_DIAGNOSTICS_CELLS) };
+      throw new ValidationError(problemsMessage([problem]), [problem]);
     }
     return range;
   }
@@ -218,9 +238,10 @@ export function createDiagnosticsService(deps: {
       const leftA = withoutNotedCells(loadedA, notesA, stepMs, channel.id);
       const leftB = withoutNotedCells(loadedB, notesB, stepMs, (other ?? channel).id);
       const [a, b] = [leftA.grid, leftB.grid];
-      const besideNotes = (applied: AppliedNote[]) => (applied.length ? ' outside the notes marked "leave out of analysis"' : '');
-      if (a.data.ts.length === 0) throw new AnalysisRefusedError(`aFrom: ${channel.label} has no readings in range a${besideNotes(leftA.applied)}.`);
-      if (b.data.ts.length === 0) throw new AnalysisRefusedError(`bFrom: ${(other ?? channel).label} has no readings in range b${besideNotes(leftB.applied)}.`);
+      if (a.data.ts.length === 0) throw new AnalysisRefusedError(DIAGNOSTICS_MESSAGES.rangeNoReadings('a', channel.label, leftA.applied.length > 0));
+      if (b.data.ts.length === 0) {
+        throw new AnalysisRefusedError(DIAGNOSTICS_MESSAGES.rangeNoReadings('b', (other ?? channel).label, leftB.applied.length > 0));
+      }
       const asReadings = (d: ReadingColumns): ChannelReadings => ({ timestamps: d.ts, values: d.values });
       const result = await compare(asReadings(a.data), asReadings(b.data), { step: stepMs, agg: params.agg, alpha: params.alpha }, signal);
       return rangeComparisonReport({ channel, other, params, stepS, rangeA, rangeB, result, excludedNotes: { a: leftA.applied, b: leftB.applied } });
@@ -246,13 +267,7 @@ export function createDiagnosticsService(deps: {
       const partner: ChannelWithState | null = params.ccfWith === undefined ? null : await deps.channels.requireChannel(lab, params.ccfWith);
       const stepS = params.step ?? channel.expectedIntervalS ?? channel.logger.expectedIntervalS;
       const stepMs = stepS * 1000;
-      const range = { from: Math.floor(params.from / stepMs) * stepMs, to: Math.ceil(params.to / stepMs) * stepMs };
-      const cells = (range.to - range.from) / stepMs;
-      if (cells > MAX_DIAGNOSTICS_CELLS) {
-        throw new ValidationError(
-          `step: the range holds ${cells} steps of ${stepS} s; at most ${MAX_DIAGNOSTICS_CELLS} (choose a longer step or a shorter range)`,
-        );
-      }
+      const range = alignedRange(params.from, params.to, stepMs, 'step');
       const [mainNotes, partnerNotes] = await Promise.all([notesOf(lab, channel, range), partner ? notesOf(lab, partner, range) : []]);
       const key = JSON.stringify([
         lab.id,
@@ -279,13 +294,9 @@ export function createDiagnosticsService(deps: {
       const other = leftOther?.grid ?? null;
       const applied = [...leftMain.applied, ...(leftOther?.applied ?? [])];
       if (main.data.ts.length === 0) {
-        throw new AnalysisRefusedError(
-          leftMain.applied.length
-            ? 'This channel has no readings in the chosen range outside the notes marked "leave out of analysis".'
-            : 'This channel has no readings in the chosen range.',
-        );
+        throw new AnalysisRefusedError(leftMain.applied.length ? DIAGNOSTICS_MESSAGES.noReadingsOutsideNotes : DIAGNOSTICS_MESSAGES.noReadings);
       }
-      if (other && other.data.ts.length === 0) throw new AnalysisRefusedError('ccfWith: the other channel has no readings in the chosen range.');
+      if (other && other.data.ts.length === 0) throw new AnalysisRefusedError(DIAGNOSTICS_MESSAGES.partnerNoReadings);
       const options: ChannelDiagnosticsOptions = {
         step: stepMs,
         agg: params.agg,

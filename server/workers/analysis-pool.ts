@@ -1,7 +1,7 @@
 import { extname } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { Piscina } from 'piscina';
-import { AnalysisInputError } from '../analysis/index.ts';
+import { AnalysisInputError, type AnalysisInputDetail } from '../analysis/index.ts';
 import type { AnalysisResult, AnalysisTask } from './analysis-registry.ts';
 
 export interface AnalysisPoolOptions {
@@ -51,8 +51,12 @@ export function createAnalysisPool(options: AnalysisPoolOptions = {}): AnalysisP
   });
   return {
     async run<T extends AnalysisTask>(task: T, runOptions: { signal?: AbortSignal } = {}): Promise<AnalysisResult<T>> {
-      const outcome = (await pool.run(task, runOptions.signal ? { signal: runOptions.signal } : {})) as { value?: unknown; inputError?: string };
-      if (outcome.inputError !== undefined) throw new AnalysisInputError(outcome.inputError);
+      const outcome = (await pool.run(task, runOptions.signal ? { signal: runOptions.signal } : {})) as {
+        value?: unknown;
+        inputError?: string;
+        detail?: AnalysisInputDetail;
+      };
+      if (outcome.inputError !== undefined) throw new AnalysisInputError(outcome.inputError, outcome.detail);
       return outcome.value as AnalysisResult<T>;
     },
     close: () => pool.close(),

@@ -1,4 +1,4 @@
-import { AnalysisInputError } from '../analysis/index.ts';
+import { AnalysisInputError, type AnalysisInputDetail } from '../analysis/index.ts';
 import { analysisFunctions, type AnalysisTask } from './analysis-registry.ts';
 import { warmUpEngine } from './engine-warm-up.ts';
 
@@ -8,6 +8,8 @@ warmUpEngine();
 /** What crosses back to the pool when the engine rejects its input. */
 export interface WorkerInputFailure {
   inputError: string;
+  /** The error's typed reason and counts (plain data, so it survives structured cloning). */
+  detail?: AnalysisInputDetail;
 }
 
 /**
@@ -21,7 +23,7 @@ export default function runAnalysisTask(task: AnalysisTask): unknown {
   try {
     return { value: fn(...(task.args as unknown[])) };
   } catch (error) {
-    if (error instanceof AnalysisInputError) return { inputError: error.message } satisfies WorkerInputFailure;
+    if (error instanceof AnalysisInputError) return { inputError: error.message, detail: error.detail } satisfies WorkerInputFailure;
     throw error;
   }
 }

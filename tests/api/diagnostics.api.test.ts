@@ -198,7 +198,7 @@ describe('GET /channels/:channelId/diagnostics', () => {
       expect(r.period.rawEstimate).toBe(used.exactPeriod);
       expect(Math.abs(r.period.rawEstimate - 288)).toBeGreaterThan(0);
       expect(r.period.statement).toBe(
-        `Period used everywhere in this report: 288 steps (1 d), detected (the spectral peak's raw estimate, ${Number(used.exactPeriod.toFixed(1))} steps, lies within one frequency step of a day and is reported as exactly that).`,
+        `Period used everywhere in this report: 288 steps (1 day), detected (the spectral peak's raw estimate, ${Number(used.exactPeriod.toFixed(1))} steps, lies within one frequency step of a day and is reported as exactly that).`,
       );
     }
   });
@@ -383,29 +383,42 @@ describe('GET /channels/:channelId/diagnostics', () => {
     }
   });
 
-  it('answers 400 with `field: reason` for bad parameters', async () => {
-    const cases: Array<[string, string]> = [
-      ['agg=mode', 'agg: must be mean, median, last, min or max'],
-      ['difference=3', 'difference: must be at most 2'],
-      ['seasonalDifference=2', 'seasonalDifference: must be at most 1'],
-      ['period=1', 'period: must be auto, none or a whole number of steps from 2 to 100000'],
-      ['period=none&seasonalDifference=1', 'seasonalDifference: needs a period (auto or a number of steps), not none'],
-      ['decomposition=x11', 'decomposition: must be stl, stl-robust, classical or none'],
-      ['alpha=0', 'alpha: must be above 0'],
-      ['alpha=0.9', 'alpha: must be at most 0.5'],
-      ['maxLag=0', 'maxLag: must be at least 1'],
-      ['ccfMaxLag=5', 'ccfMaxLag: needs ccfWith'],
-      ['step=0', 'step: must be at least 1'],
-      ['step=1', 'step: the range holds 518400 steps of 1 s; at most 300000 (choose a longer step or a shorter range)'],
+  it('answers 400 naming each refused field by its label, with the field keys in `fields`', async () => {
+    const cases: Array<[string, string, string]> = [
+      ['agg=mode', 'agg', 'Summary of each step: must be mean, median, last, lowest or highest.'],
+      ['difference=3', 'difference', 'Differencing: must be at most 2.'],
+      ['seasonalDifference=2', 'seasonalDifference', 'Seasonal difference: must be at most 1.'],
+      ['period=1', 'period', 'Cycle length: must be “auto”, “none” or a whole number of steps from 2 to 100,000.'],
+      [
+        'period=none&seasonalDifference=1',
+        'seasonalDifference',
+        'Seasonal difference: needs a cycle length (found automatically or a number of steps), not “none”.',
+      ],
+      ['decomposition=x11', 'decomposition', 'Decomposition: must be STL, robust STL, classical or none.'],
+      ['alpha=0', 'alpha', 'Significance level: must be above 0.'],
+      ['alpha=0.9', 'alpha', 'Significance level: must be at most 0.5.'],
+      ['maxLag=0', 'maxLag', 'Longest lag: must be at least 1.'],
+      ['ccfMaxLag=5', 'ccfMaxLag', 'Longest lag between the channels: only applies when a second channel is chosen.'],
+      ['step=0', 'step', 'Step: must be at least 1.'],
+      [
+        'step=1',
+        'step',
+        'Step: the chosen range holds 518,400 steps of 1 second, more than the 300,000 one run may take: choose a longer step or a shorter range.',
+      ],
     ];
-    for (const [query, message] of cases) {
+    for (const [query, field, message] of cases) {
       const res = await request(t.app).get(`${base}/diagnostics?${range}&${query}`).set('Cookie', cookie);
       expect(res.status, query).toBe(400);
-      expect(res.body.error, query).toEqual({ code: 'invalid_input', message });
+      expect(res.body.error.code, query).toBe('invalid_input');
+      expect(res.body.error.message, query).toBe(message);
+      expect(
+        res.body.error.fields.map((p: { field: string }) => p.field),
+        query,
+      ).toEqual([field]);
     }
   });
 
-  it('answers 422 with the engine’s message when the data cannot support the analysis', async () => {
+  it('answers 422 in plain words when the data cannot support the analysis: what the range gave, what is needed, what to do', async () => {
     const empty = await request(t.app)
       .get(`${base}/diagnostics?from=${T0 - 86_400_000}&to=${T0}`)
       .set('Cookie', cookie)
@@ -415,9 +428,29 @@ describe('GET /channels/:channelId/diagnostics', () => {
       .get(`${base}/diagnostics?from=${T0}&to=${T0 + 20 * STEP}&step=600`)
       .set('Cookie', cookie)
       .expect(422);
-    expect(few.body.error).toEqual({ code: 'analysis_input', message: 'channelDiagnostics requires at least 30 values after differencing (got 20)' });
+    expect(few.body.error).toEqual({
+      code: 'analysis_input',
+      message:
+        'The chosen range gave 20 values in 10-minute steps, and this analysis needs at least 30 to give dependable figures. Choose a longer range or a shorter step.',
+    });
     const long = await request(t.app).get(`${base}/diagnostics?${range}&step=600&period=500&decomposition=stl`).set('Cookie', cookie).expect(422);
-    expect(long.body.error.message).toBe('channelDiagnostics: period must be a whole number of steps from 2 to 432 for 864 cells (got 500)');
+    expect(long.body.error.message).toBe(
+      'A cycle length of 500 steps cannot be seen twice in the chosen range; it allows at most 432 steps. Choose a shorter cycle length or a longer range.',
+    );
+  });
+
+  it('answers 422 naming what the seasonal difference left when the range is too short for it', async () => {
+    // 53 hourly steps with readings; removing the 24-step (daily) cycle leaves 29, one short of the 30 the correlations need
+    const res = await request(t.app)
+      .get(`${base}/diagnostics?from=${T0}&to=${T0 + 53 * 3_600_000}&step=3600&period=24&seasonalDifference=1&decomposition=none`)
+      .set('Cookie', cookie)
+      .expect(422);
+    expect(res.body.error).toEqual({
+      code: 'analysis_input',
+      message:
+        'After removing the daily cycle, 29 values are left and at least 30 are needed for the correlations and tests to mean anything. Choose a longer range or a shorter step.',
+    });
+    expect(res.body.error.message).not.toMatch(/\b[a-z]+[A-Z][A-Za-z0-9]*\b/);
   });
 
   it("answers 404 for another lab's channel, as the channel and as ccfWith", async () => {
@@ -477,19 +510,22 @@ describe('GET /channels/:channelId/comparison', () => {
       const res = await request(t.app).get(`${base}/comparison?${query}`).set('Cookie', cookie).expect(400);
       expect(res.body.error.message).toBe(message);
     };
-    await bad(`aTo=${T0}&bFrom=${T0}&bTo=${T0 + STEP}`, 'aFrom: is required: epoch milliseconds or an ISO 8601 time with a zone');
-    await bad(`aFrom=${T0 + STEP}&aTo=${T0}&bFrom=${T0}&bTo=${T0 + STEP}`, 'aTo: must be after the start of its range');
-    await bad(`${ranges}&agg=mode`, 'agg: must be mean, median, last, min or max');
+    await bad(`aTo=${T0}&bFrom=${T0}&bTo=${T0 + STEP}`, 'Start of range A: is required: a date and time with its zone, such as 2026-11-20T00:00+01:00.');
+    await bad(`aFrom=${T0 + STEP}&aTo=${T0}&bFrom=${T0}&bTo=${T0 + STEP}`, 'End of range A: must be after the start of its range.');
+    await bad(`${ranges}&agg=mode`, 'Summary of each step: must be mean, median, last, lowest or highest.');
     const empty = await request(t.app)
       .get(`${base}/comparison?aFrom=${T0 - 10 * STEP}&aTo=${T0 - STEP}&bFrom=${T0}&bTo=${half}`)
       .set('Cookie', cookie)
       .expect(422);
-    expect(empty.body.error.message).toBe('aFrom: Air temperature has no readings in range a.');
+    expect(empty.body.error.message).toBe('Air temperature has no readings in range A.');
     const few = await request(t.app)
       .get(`${base}/comparison?aFrom=${T0}&aTo=${T0 + 4 * STEP}&bFrom=${T0}&bTo=${half}`)
       .set('Cookie', cookie)
       .expect(422);
-    expect(few.body.error.code).toBe('analysis_input');
+    expect(few.body.error).toEqual({
+      code: 'analysis_input',
+      message: 'Range A gave 4 values in 1-minute steps; comparing means needs at least 10 in each range. Choose a longer range or a shorter step.',
+    });
     const other = await buildLabWithEverything(t.db);
     await request(t.app).get(`${base}/comparison?${ranges}&otherChannel=${other.ids.channelId}`).set('Cookie', cookie).expect(404);
   });

@@ -88,7 +88,7 @@ export const DIAGNOSTICS_REASONS = {
   period: 'must be “auto”, “none” or a whole number of steps from 2 to 100,000',
   seasonalNeedsPeriod: 'needs a cycle length (found automatically or a number of steps), not “none”',
   ccfLagNeedsPartner: 'only applies when a second channel is chosen',
-  timeRequired: 'is required: a date and time with its zone',
+  timeRequired: 'is required: a date and time with its zone, such as 2026-11-20T00:00+01:00',
   rangeOrder: 'must be after the start of its range',
   rangeLength: 'the range must be at most 20 years',
 } as const;
@@ -175,7 +175,7 @@ export function analysisRefusal(detail: RefusalDetail, ctx: RefusalContext): str
     case 'too-few-after-differencing':
       return `After ${removedWords(detail, ctx)}, ${counted(got, 'value is', 'values are')} left and at least ${countWords(need)} are needed for the correlations and tests to mean anything. ${LONGER}`;
     case 'too-few-values':
-      return `The chosen range gave ${counted(got, 'value', 'values')} in ${steps}, and this analysis needs at least ${countWords(need)}. ${LONGER}`;
+      return `The chosen range gave ${counted(got, 'value', 'values')} in ${steps}, and this analysis needs at least ${countWords(need)} to give dependable figures. ${LONGER}`;
     case 'too-few-pairs':
       return `The two channels both have a value at only ${counted(got, 'step', 'steps')} of the chosen range; comparing them needs at least ${countWords(need)}. Choose a range in which both were recording, or a longer step.`;
     case 'too-few-periods': {
@@ -213,5 +213,5 @@ export const DIAGNOSTICS_MESSAGES = {
     `${channel} has no readings in range ${range.toUpperCase()}${besideNotes ? ' outside the notes marked “leave out of analysis”' : ''}.`,
   /** The range splits into more steps than one run may hold. */
   tooManySteps: (steps: number, stepS: number, most: number): string =>
-    `the chosen range holds ${countWords(steps)} steps of ${durationWords(stepS)}, and one run takes at most ${countWords(most)}. Choose a longer step or a shorter range.`,
+    `the chosen range holds ${countWords(steps)} steps of ${durationWords(stepS)}, more than the ${countWords(most)} one run may take: choose a longer step or a shorter range`,
 } as const;
