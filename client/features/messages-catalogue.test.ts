@@ -21,6 +21,10 @@ const SAMPLES: Record<string, unknown[][]> = {
   'quarantine.resubmitSummary': [[{ resubmitted: 3, accepted: 1, duplicates: 1, again: 1 }]],
   'quarantine.discardQuestion': [[1], [40]],
   'quarantine.discardedNotice': [[2]],
+  'billing.planConfirmed': [
+    ['Transect', 'payment'],
+    ['Transect', 'switch'],
+  ],
 };
 
 /** What must never appear in a text people read, each with why. */

@@ -86,7 +86,10 @@ describe('billing page', () => {
       [`GET ${BASE}/invoices`]: () => ({ status: 200, body: { invoices: [] } }),
     });
     renderWithProviders(<BillingPage slug="fernhollow" returned="complete" />);
-    expect(await screen.findByText(/waiting for confirmation/)).toBeTruthy();
+    // the payment service is named by its job, not by its product
+    expect((await screen.findByText(/waiting for confirmation/)).textContent).toBe(
+      'Payment received — waiting for confirmation from the payment service. This page updates by itself.',
+    );
     expect(await screen.findByText('Payment confirmed: the lab is now on the Transect plan.', undefined, { timeout: 8000 })).toBeTruthy();
     expect(screen.getByTestId('current-plan').textContent).toBe('Transect');
   });

@@ -1,6 +1,6 @@
 import { useRef } from 'react';
 import { Button } from '../../../components/button.tsx';
-import { DateTime } from '../../../components/date-time.tsx';
+import { Instant } from '../../../components/clock/instant.tsx';
 import { LoadingNote, Notice } from '../../../components/notice.tsx';
 import type { BillingOverview } from '@shared/contract/billing.ts';
 import { isConfirmed, useBilling } from '../api/get-billing.ts';
@@ -9,6 +9,7 @@ import { InvoicesTable } from './invoices-table.tsx';
 import { PlanChoices } from './plan-choices.tsx';
 import { UsageBar } from './usage-bar.tsx';
 import { UsageSparkline } from './usage-sparkline.tsx';
+import { BILLING_NOTICES, PLAN_STATE_WORDS, planConfirmed } from '../messages.ts';
 
 /** How the page was reached: straight, or back from Stripe Checkout (`?checkout=complete|cancelled`). */
 export type CheckoutReturn = 'complete' | 'cancelled' | null;
@@ -17,14 +18,13 @@ function StatusNotice({ overview }: { overview: BillingOverview }) {
   if (overview.status === 'past_due' && overview.graceUntil) {
     return (
       <Notice tone="alert">
-        A payment failed. The {overview.plan.name} plan keeps working until <DateTime iso={overview.graceUntil} dateOnly />; after that the lab falls back to
-        the free plan’s limits (no data is deleted). Pay the open invoice under “Manage payment”.
+        A payment failed. The {overview.plan.name} plan keeps working until <Instant at={overview.graceUntil} kind="account" part="date" />; after that the lab
+        falls back to the free plan’s limits (no data is deleted). Pay the open invoice under “Manage payment”.
       </Notice>
     );
   }
-  if (overview.status === 'past_due')
-    return <Notice tone="alert">A payment failed and the grace period is over: the free plan’s limits apply until the invoice is paid.</Notice>;
-  if (overview.status === 'canceled') return <Notice tone="status">The subscription was cancelled: the lab is on the free plan. Nothing was deleted.</Notice>;
+  if (overview.status === 'past_due') return <Notice tone="alert">{BILLING_NOTICES.graceOver}</Notice>;
+  if (overview.status === 'canceled') return <Notice tone="status">{BILLING_NOTICES.cancelled}</Notice>;
   return null;
 }
 
@@ -32,10 +32,10 @@ function CheckoutNotice({ returned, overview }: { returned: CheckoutReturn; over
   // The plan the checkout confirmed, kept: a later switch on this page must not rename it.
   const confirmedPlan = useRef<string | null>(null);
   if (confirmedPlan.current === null && isConfirmed(overview)) confirmedPlan.current = overview.plan.name;
-  if (returned === 'cancelled') return <Notice tone="status">Checkout was cancelled; nothing was charged and the plan is unchanged.</Notice>;
+  if (returned === 'cancelled') return <Notice tone="status">{BILLING_NOTICES.checkoutCancelled}</Notice>;
   if (returned !== 'complete') return null;
-  if (confirmedPlan.current !== null) return <Notice tone="status">Payment confirmed: the lab is now on the {confirmedPlan.current} plan.</Notice>;
-  return <Notice tone="status">Payment received — waiting for confirmation from Stripe. This page updates by itself.</Notice>;
+  if (confirmedPlan.current !== null) return <Notice tone="status">{planConfirmed(confirmedPlan.current, 'payment')}</Notice>;
+  return <Notice tone="status">{BILLING_NOTICES.paymentWaiting}</Notice>;
 }
 
 /**
@@ -62,15 +62,7 @@ export function BillingPage({ slug, returned }: { slug: string; returned: Checko
             <div className="flex flex-wrap items-center justify-between gap-3 rounded-lg border border-rule bg-card p-4">
               <p>
                 Plan: <strong data-testid="current-plan">{data.plan.name}</strong>
-                <span className="ml-2 text-sm text-ink-soft">
-                  {data.status === 'active'
-                    ? 'paid, active'
-                    : data.status === 'past_due'
-                      ? 'payment overdue'
-                      : data.status === 'canceled'
-                        ? 'subscription cancelled'
-                        : 'free'}
-                </span>
+                <span className="ml-2 text-sm text-ink-soft">{PLAN_STATE_WORDS[data.status]}</span>
               </p>
               <Button disabled={portal.isPending} onClick={() => portal.mutate()}>
                 Manage payment
@@ -78,12 +70,7 @@ export function BillingPage({ slug, returned }: { slug: string; returned: Checko
             </div>
             {portal.isError && <Notice tone="alert">{portal.error.message}</Notice>}
             <StatusNotice overview={data} />
-            {data.ingestionRefused && (
-              <Notice tone="alert">
-                Storage is full: new batches from the loggers are refused (they are told to retry later and keep their readings). Stored data stays readable.
-                Choose a larger plan to accept them again.
-              </Notice>
-            )}
+            {data.ingestionRefused && <Notice tone="alert">{BILLING_NOTICES.storageFull}</Notice>}
           </>
         )}
       </section>
@@ -110,8 +97,8 @@ export function BillingPage({ slug, returned }: { slug: string; returned: Checko
               />
             </div>
             <p className="text-sm text-ink-soft">
-              Browsing and analysis reach back to <DateTime iso={data.historyStartsAt} dateOnly /> ({data.limits.historyDays} days). Older readings stay stored
-              and come back with a longer plan.
+              Browsing and analysis reach back to <Instant at={data.historyStartsAt} kind="account" part="date" /> ({data.limits.historyDays} days). Older
+              readings stay stored and come back with a longer plan.
             </p>
             <UsageSparkline points={data.trend} limit={data.limits.readings} />
           </section>

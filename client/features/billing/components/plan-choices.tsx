@@ -7,6 +7,7 @@ import type { BillingOverview, BillingPlan } from '@shared/contract/billing.ts';
 import { useBilling } from '../api/get-billing.ts';
 import { useStartCheckout } from '../api/open-billing-session.ts';
 import { formatCount, formatMoney } from './billing-format.ts';
+import { BILLING_NOTICES, planConfirmed } from '../messages.ts';
 
 /**
  * The catalog side by side. Without a subscription a paid plan starts through Checkout; with an
@@ -42,7 +43,7 @@ export function PlanChoices({ slug, overview }: { slug: string; overview: Billin
         </Button>
       );
     }
-    const hint = plan.paid ? 'Settle the overdue payment under “Manage payment” to switch' : 'Cancel the subscription to return here';
+    const hint = plan.paid ? BILLING_NOTICES.settleFirst : BILLING_NOTICES.cancelFirst;
     return <span className="text-sm text-ink-soft">{hint}</span>;
   }
 
@@ -94,9 +95,11 @@ export function PlanChoices({ slug, overview }: { slug: string; overview: Billin
       {change.isSuccess &&
         target &&
         (overview.subscribedPlanKey === target.key ? (
-          <Notice tone="status">Switch confirmed: the lab is now on the {target.name} plan.</Notice>
+          <Notice tone="status">{planConfirmed(target.name, 'switch')}</Notice>
         ) : (
-          <Notice tone="status">{change.data.message} This page updates by itself.</Notice>
+          <Notice tone="status">
+            {change.data.message} {BILLING_NOTICES.updatesItself}
+          </Notice>
         ))}
     </section>
   );
