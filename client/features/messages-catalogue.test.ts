@@ -21,6 +21,8 @@ const SAMPLES: Record<string, unknown[][]> = {
   'quarantine.resubmitSummary': [[{ resubmitted: 3, accepted: 1, duplicates: 1, again: 1 }]],
   'quarantine.discardQuestion': [[1], [40]],
   'quarantine.discardedNotice': [[2]],
+  'loggers.wouldGoToQuarantine': [['air temperature', 'the channel is retired.']],
+  'loggers.retireLoggerQuestion': [['Hedgerow mast']],
   'billing.planConfirmed': [
     ['Transect', 'payment'],
     ['Transect', 'switch'],

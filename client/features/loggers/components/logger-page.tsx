@@ -10,6 +10,7 @@ import { LoggerDetails } from './logger-details.tsx';
 import { LoggerEditForm } from './logger-edit-form.tsx';
 import { RetireLoggerButton } from './retire-logger-button.tsx';
 import { SetupGuidePanel } from './setup-guide-panel.tsx';
+import { LOGGER_NOTICES } from '../messages.ts';
 
 /** What the signed-in member may do on a logger's page (from the lab's permission list). */
 export interface LoggerPageRights {
@@ -54,7 +55,7 @@ export function LoggerPage({ slug, logger, rights, notes }: { slug: string; logg
           )}
         </div>
       </header>
-      {retired && <Notice tone="status">This logger is retired: its readings are kept, and it accepts no new data.</Notice>}
+      {retired && <Notice tone="status">{LOGGER_NOTICES.retired}</Notice>}
 
       <section aria-labelledby="logger-details-heading" className="grid gap-3">
         <div className="flex items-center justify-between gap-3">

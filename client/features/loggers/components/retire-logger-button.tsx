@@ -1,5 +1,6 @@
 import { ConfirmAction } from '../../../components/confirm-action.tsx';
 import { useRetireLogger } from '../api/retire-logger.ts';
+import { retireLoggerQuestion } from '../messages.ts';
 
 /** "Retire logger", asked first: its readings are kept, its keys stop working and it leaves the list. */
 export function RetireLoggerButton({ slug, loggerId, name }: { slug: string; loggerId: number; name: string }) {
@@ -8,7 +9,7 @@ export function RetireLoggerButton({ slug, loggerId, name }: { slug: string; log
     <ConfirmAction
       label="Retire logger"
       size="md"
-      question={`Retire ${name}? Its readings are kept, but its keys stop working and it accepts no new data.`}
+      question={retireLoggerQuestion(name)}
       confirmLabel={`Retire ${name}`}
       pending={retire.isPending}
       onConfirm={() => retire.mutate()}

@@ -9,6 +9,7 @@ import { SafetyCautionNote } from '../../../components/safety-caution-note.tsx';
 import { useSendTestReading } from '../api/send-test-reading.ts';
 import { useLoggerTestReadings, useRemoveTestReading } from '../api/test-readings.ts';
 import { sampleValue } from './ingest-example.ts';
+import { TEST_VALUE_NOT_A_NUMBER, wouldGoToQuarantine } from '../messages.ts';
 
 /** "m:ss" left of a countdown, never below 0:00. */
 export function countdownText(ms: number): string {
@@ -58,12 +59,7 @@ function RemoveButton({ slug, reading, receivedAt }: { slug: string; reading: Te
 function Verdict({ slug, result, receivedAt }: { slug: string; result: TestReadingResult; receivedAt: number }) {
   const { sent, wouldGet, testReading, timezone } = result;
   if (wouldGet.outcome === 'quarantined') {
-    return (
-      <Notice tone="alert">
-        A logger’s reading of <span className="font-mono">{sent.channel}</span> would go to quarantine — {wouldGet.reason} (
-        <span className="font-mono">{wouldGet.code}</span>). Nothing was kept.
-      </Notice>
-    );
+    return <Notice tone="alert">{wouldGoToQuarantine(sent.channel, wouldGet.reason)}</Notice>;
   }
   return (
     <Notice tone="status">
@@ -158,7 +154,7 @@ export function TestReadingPanel({ slug, loggerId, channels }: { slug: string; l
     e.preventDefault();
     const number = Number(value);
     if (value.trim() === '' || !Number.isFinite(number)) {
-      setValueError('value: must be a finite number');
+      setValueError(TEST_VALUE_NOT_A_NUMBER);
       return;
     }
     setValueError(undefined);
