@@ -1,4 +1,5 @@
 import type { DiagnosticsReport } from '@shared/contract/diagnostics.ts';
+import { durationWords } from '@shared/contract/words/diagnostics.ts';
 import { armaOneLine } from './arma-notation.ts';
 
 const VERDICTS: Record<DiagnosticsReport['identification']['verdict'], string> = {
@@ -12,8 +13,25 @@ const VERDICTS: Record<DiagnosticsReport['identification']['verdict'], string> =
 
 const list = (v: unknown) => (Array.isArray(v) && v.length ? v.join(', ') : 'none');
 
-/** The engine's process identification: the verdict with its order, the plain-language explanation and the evidence behind it. */
-export function IdentificationBlock({ identification: id, stepS }: { identification: DiagnosticsReport['identification']; stepS: number }) {
+/** "288 steps (1 day)". */
+const stepsWords = (steps: number, stepS: number) => `${steps} steps (${durationWords(steps * stepS)})`;
+
+/**
+ * The engine's process identification: the verdict with its order, the plain-language
+ * explanation and the evidence behind it. A seasonal verdict names `usedPeriod`, the one period
+ * every section of the report used (the report's `period.used`), so the heading never shows a
+ * second figure beside it.
+ */
+export function IdentificationBlock({
+  identification: id,
+  stepS,
+  usedPeriod,
+}: {
+  identification: DiagnosticsReport['identification'];
+  stepS: number;
+  usedPeriod: number | null;
+}) {
+  const cycle = usedPeriod ?? id.period ?? null;
   const order =
     id.verdict === 'ar'
       ? `AR(${id.p})`
@@ -22,7 +40,7 @@ export function IdentificationBlock({ identification: id, stepS }: { identificat
         : id.verdict === 'arma'
           ? `ARMA(${id.p}, ${id.q})`
           : id.verdict === 'seasonal'
-            ? `period ${id.period} steps`
+            ? `cycle of ${cycle === null ? 'unknown length' : stepsWords(cycle, stepS)}`
             : null;
   const e = id.evidence;
   const unitRoot = e.unitRoot;
@@ -63,8 +81,8 @@ export function IdentificationBlock({ identification: id, stepS }: { identificat
               ? `t = ${unitRoot.statistic.toFixed(3)} (5% critical ${unitRoot.criticalValues['5%'].toFixed(3)}); ${unitRoot.rejectsUnitRoot ? 'unit root rejected' : 'unit root not rejected'}`
               : 'series too short'}
           </dd>
-          <dt className="text-ink-soft">Period</dt>
-          <dd className="font-mono">{e.period === null ? 'none' : `${String(e.period)} steps (${Number(e.period) * stepS} s)`}</dd>
+          <dt className="text-ink-soft">Cycle length checked</dt>
+          <dd className="font-mono">{e.period === null ? 'none' : stepsWords(Number(e.period), stepS)}</dd>
         </dl>
         {id.gapsFilled && <p className="mt-1 text-ink-soft">Gaps in the grid were filled by linear interpolation before identification.</p>}
       </details>

@@ -1,28 +1,27 @@
 import type { DiagnosticsReport, StlSettings } from '@shared/contract/diagnostics.ts';
+import { formatInstant } from '../../../components/clock/format.ts';
+import { methodRows } from './method-rows.ts';
 import { stlSettingRows } from './stl-settings.ts';
 
-const show = (v: unknown): string => (v === null || v === undefined ? '—' : typeof v === 'object' ? JSON.stringify(v) : String(v));
-
 /**
- * Exactly what was computed, as the server reports it: the resolved parameters, the steps taken
- * with the data and the published methods, so a figure can be reproduced and cited.
+ * Exactly what was computed, as the server reports it: the resolved parameters in plain words
+ * with their units (times on the clock of `timezone`), the steps taken with the data and the
+ * published methods, so a figure can be reproduced and cited.
  */
-export function MethodBlock({ method, cached }: { method: DiagnosticsReport['method']; cached: boolean }) {
+export function MethodBlock({ method, cached, timezone }: { method: DiagnosticsReport['method']; cached: boolean; timezone: string }) {
   const r = method.resolved;
   return (
     <section aria-labelledby="method-heading" className="grid gap-2 text-sm">
       <h4 id="method-heading" className="font-semibold">
         Method and parameters
       </h4>
-      <dl className="grid gap-x-4 gap-y-0.5 font-mono text-xs sm:grid-cols-[auto_1fr]">
-        {Object.entries(r)
-          .filter(([k]) => k !== 'stl')
-          .map(([k, v]) => (
-            <div key={k} className="contents">
-              <dt className="text-ink-soft">{k}</dt>
-              <dd className="break-all">{k === 'from' || k === 'to' ? `${new Date(Number(v)).toISOString()} (${show(v)})` : show(v)}</dd>
-            </div>
-          ))}
+      <dl className="grid gap-x-4 gap-y-0.5 text-xs sm:grid-cols-[auto_1fr]" data-testid="method-parameters">
+        {methodRows(r, timezone).map((row) => (
+          <div key={row.label} className="contents">
+            <dt className="text-ink-soft">{row.label}</dt>
+            <dd className="break-words">{row.value}</dd>
+          </div>
+        ))}
       </dl>
       {r.stl && <StlSettingsList settings={r.stl} />}
       <ul className="list-disc pl-5">
@@ -37,7 +36,7 @@ export function MethodBlock({ method, cached }: { method: DiagnosticsReport['met
             <thead className="text-left text-ink-soft">
               <tr>
                 <th className="pr-3 font-normal">Kind</th>
-                <th className="pr-3 font-normal">Span (UTC)</th>
+                <th className="pr-3 font-normal">Span</th>
                 <th className="pr-3 font-normal">Cells removed</th>
                 <th className="font-normal">Note</th>
               </tr>
@@ -50,7 +49,7 @@ export function MethodBlock({ method, cached }: { method: DiagnosticsReport['met
                     {n.channelId === null ? ' (whole logger)' : ''}
                   </td>
                   <td className="pr-3 font-mono">
-                    {new Date(n.from).toISOString().slice(0, 16).replace('T', ' ')} – {new Date(n.to).toISOString().slice(0, 16).replace('T', ' ')}
+                    {formatInstant(n.from, timezone)} – {formatInstant(n.to, timezone)}
                   </td>
                   <td className="pr-3 font-mono">{n.cellsRemoved}</td>
                   <td>{n.text}</td>

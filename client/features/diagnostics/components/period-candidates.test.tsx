@@ -38,11 +38,25 @@ const HALF: PeriodCandidate = {
 
 describe('PeriodCandidates', () => {
   it('marks a harmonic as part of the longer cycle and names the harmonics as support for the day', () => {
-    render(<PeriodCandidates period={{ used: 288, source: 'detected', candidates: [DAY, HALF] }} />);
+    render(<PeriodCandidates period={{ used: 288, source: 'detected', candidates: [DAY, HALF] }} stepS={300} />);
     const rows = screen.getAllByRole('row').slice(1);
     expect(rows[0].textContent).toContain('periodogram and harmonics · significant');
     expect(rows[1].textContent).toContain('part of the 288-step cycle');
     expect(rows[1].textContent).not.toContain('significant');
     expect(screen.getByText(/A harmonic of a longer cycle/)).toBeTruthy();
+  });
+
+  it('states the period used with its length in words and labels the detector’s unrounded figure as the raw estimate', () => {
+    render(<PeriodCandidates period={{ used: 288, source: 'detected', rawEstimate: 287.2, candidates: [DAY, HALF] }} stepS={300} />);
+    expect(screen.getByTestId('period-used').textContent).toBe('Used in every section: 288 steps (1 day), found in the readings');
+    const raw = screen.getByTestId('period-raw-estimate').textContent!;
+    expect(raw).toMatch(/^Raw estimate from the spectrum: 287\.2 steps/);
+    expect(raw).toContain('not a second period');
+  });
+
+  it('shows no raw estimate for a period set by hand', () => {
+    render(<PeriodCandidates period={{ used: 24, source: 'manual', rawEstimate: null, candidates: [] }} stepS={3_600} />);
+    expect(screen.getByTestId('period-used').textContent).toBe('Used in every section: 24 steps (1 day), set by hand');
+    expect(screen.queryByTestId('period-raw-estimate')).toBeNull();
   });
 });

@@ -1,6 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import { channelDiagnostics, AnalysisInputError, rangeComparison, type AnalysisInputReason } from '../../analysis/index.ts';
-import { analysisRefusal, countWords, DIAGNOSTICS_FIELD_LABELS, durationWords, RESOLVED_PARAMETER_LABELS, stepAdjective } from './diagnostics.ts';
+import { channelDiagnostics, AnalysisInputError, rangeComparison, type AnalysisInputReason } from '../analysis/index.ts';
+import {
+  analysisRefusal,
+  countWords,
+  DIAGNOSTICS_FIELD_LABELS,
+  durationWords,
+  RESOLVED_PARAMETER_LABELS,
+  stepAdjective,
+} from '../contract/words/diagnostics.ts';
 
 /** What a person-facing sentence must never hold: a camelCase identifier or a snake_case key. */
 const IDENTIFIER = /\b[a-z]+[A-Z][A-Za-z0-9]*\b|\b[a-z]+_[a-z_]+\b/;
