@@ -1,10 +1,8 @@
 import type { Ref, SelectHTMLAttributes } from 'react';
 import { SelectField } from './form-field.tsx';
 
-/** The reader's own IANA time zone as the browser reports it (falls back to UTC). */
-export function browserTimeZone(): string {
-  return Intl.DateTimeFormat().resolvedOptions().timeZone || 'UTC';
-}
+/** The reader's own IANA time zone as the browser reports it (falls back to UTC); kept with the clock policy. */
+export { browserTimeZone } from './clock/policy.ts';
 
 /**
  * The IANA zones this browser knows, sorted, always including `UTC` (some engines list only

@@ -15,7 +15,7 @@ afterEach(() => {
 
 // People and lab invented for the test; permissions come from the server's own role table.
 const me = (role: Role): Me => ({
-  user: { id: 7, email: 'odalys.brennick@fernhollow.example', name: 'Odalys Brennick', timeZone: null },
+  user: { id: 7, email: 'odalys.brennick@fernhollow.example', name: 'Odalys Brennick', timeZone: null, clock: 'logger' },
   labs: [{ slug: 'fernhollow', name: 'Fernhollow Field Station', role }],
 });
 const routes = (role: Role): RouteObject[] => [

@@ -18,7 +18,7 @@ afterEach(() => {
 
 // People from tenants/demo/people.ts; loggers, ids and dates invented for the test.
 const ME: Me = {
-  user: { id: 7, email: 'tobiah.quarrie@fernhollow.example', name: 'Tobiah Quarrie', timeZone: null },
+  user: { id: 7, email: 'tobiah.quarrie@fernhollow.example', name: 'Tobiah Quarrie', timeZone: null, clock: 'logger' },
   labs: [{ slug: 'fernhollow', name: 'Fernhollow Field Station', role: 'technician' }],
 };
 

@@ -16,7 +16,7 @@ afterEach(() => {
 });
 
 const ME: Me = {
-  user: { id: 7, email: 'tobiah.quarrie@fernhollow.example', name: 'Tobiah Quarrie', timeZone: null },
+  user: { id: 7, email: 'tobiah.quarrie@fernhollow.example', name: 'Tobiah Quarrie', timeZone: null, clock: 'logger' },
   labs: [{ slug: 'fernhollow', name: 'Fernhollow Field Station', role: 'technician' }],
 };
 

@@ -3,7 +3,7 @@ import type { Me, UpdateMeInput } from '@shared/contract/me.ts';
 import { apiFetch } from '../../../lib/api-client.ts';
 import { meQueryOptions } from '../../auth/api/get-me.ts';
 
-/** `PATCH /api/v1/me`: the person's own settings (the time zone alert mails add; null clears it). */
+/** `PATCH /api/v1/me`: the person's own settings (their time zone, null clears it; which clock times are shown on). */
 export function updateMe(input: UpdateMeInput): Promise<Me> {
   return apiFetch<Me>('/api/v1/me', { method: 'PATCH', body: JSON.stringify(input) });
 }

@@ -1,6 +1,6 @@
 import type { ColumnDef } from '@tanstack/react-table';
 import { DataTable } from '../../../components/data-table.tsx';
-import { DateTime } from '../../../components/date-time.tsx';
+import { Instant } from '../../../components/clock/instant.tsx';
 import type { AuditEntry } from '@shared/contract/audit.ts';
 import { auditActionLabel } from './audit-action-labels.ts';
 
@@ -23,7 +23,7 @@ function Details({ details }: { details: AuditEntry['details'] }) {
 }
 
 const COLUMNS: ColumnDef<AuditEntry>[] = [
-  { id: 'at', header: 'When', cell: ({ row }) => <DateTime iso={row.original.at} /> },
+  { id: 'at', header: 'When', cell: ({ row }) => <Instant at={row.original.at} kind="account" /> },
   {
     id: 'actor',
     header: 'Done by',

@@ -1,4 +1,4 @@
-import { DateTime } from '../../../components/date-time.tsx';
+import { Instant } from '../../../components/clock/instant.tsx';
 import { LoadingNote, Notice } from '../../../components/notice.tsx';
 import { useInvoices } from '../api/get-invoices.ts';
 import { formatMoney } from './billing-format.ts';
@@ -32,7 +32,7 @@ export function InvoicesTable({ slug }: { slug: string }) {
               )}
             </td>
             <td className="py-1.5 pr-3">
-              <DateTime iso={i.created} dateOnly />
+              <Instant at={i.created} kind="account" part="date" />
             </td>
             <td className="py-1.5 pr-3 text-right tabular-nums">{formatMoney(i.amountDue, i.currency)}</td>
             <td className="py-1.5 pr-3">{i.status === 'paid' ? 'paid' : i.status === 'open' ? 'awaiting payment' : (i.status ?? '—')}</td>

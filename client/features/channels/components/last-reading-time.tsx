@@ -1,15 +1,6 @@
-import { relativeTimeText } from '../../../components/relative-time.tsx';
-import { formatZoned, zoneOffsetLabel } from '../../../components/zoned-time.ts';
+import { Instant } from '../../../components/clock/instant.tsx';
 
-/** When the last reading arrived: relative to the server's `now`, and exact on the logger's clock with its offset. */
+/** When the last reading arrived: relative to the server's `now`, and exact on the clock the person chose (the logger's by default). */
 export function LastReadingTime({ reading, timezone, now }: { reading: { ts: number; time: string } | null; timezone: string; now: number }) {
-  if (!reading) return <span className="text-ink-soft">never</span>;
-  return (
-    <time dateTime={reading.time} className="inline-flex flex-col">
-      <span>{relativeTimeText(reading.time, now)}</span>
-      <span className="whitespace-nowrap font-mono text-xs text-ink-soft">
-        {formatZoned(reading.ts, timezone)} {zoneOffsetLabel(reading.ts, timezone)}
-      </span>
-    </time>
-  );
+  return <Instant at={reading?.ts} kind="readings" loggerZone={timezone} relative now={now} />;
 }

@@ -2,7 +2,7 @@ import { Link } from 'react-router-dom';
 import { ROLE_LABELS } from '@shared/policies/permissions.ts';
 import { paths } from '../../../app/paths.ts';
 import { Button, buttonClasses } from '../../../components/button.tsx';
-import { DateTime } from '../../../components/date-time.tsx';
+import { Instant } from '../../../components/clock/instant.tsx';
 import { LoadingNote, Notice } from '../../../components/notice.tsx';
 import { ApiError } from '../../../lib/api-client.ts';
 import type { AcceptedInvitation } from '@shared/contract/invitations.ts';
@@ -95,7 +95,7 @@ export function JoinInvitation({
         <dd>{invitation.email}</dd>
         <dt className="text-ink-soft">Valid until</dt>
         <dd>
-          <DateTime iso={invitation.expiresAt} />
+          <Instant at={invitation.expiresAt} kind="account" />
         </dd>
       </dl>
       {wrongAccount ? (

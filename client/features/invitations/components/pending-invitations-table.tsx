@@ -2,7 +2,7 @@ import { useMemo } from 'react';
 import type { ColumnDef } from '@tanstack/react-table';
 import { ROLES, ROLE_LABELS } from '@shared/policies/permissions.ts';
 import { DataTable } from '../../../components/data-table.tsx';
-import { DateTime } from '../../../components/date-time.tsx';
+import { Instant } from '../../../components/clock/instant.tsx';
 import type { PendingInvitation } from '@shared/contract/invitations.ts';
 import { InvitationActions } from './invitation-actions.tsx';
 
@@ -21,13 +21,13 @@ function columnsFor(slug: string): ColumnDef<PendingInvitation>[] {
       id: 'lastSentAt',
       header: 'Last sent',
       accessorFn: (i) => Date.parse(i.lastSentAt),
-      cell: ({ row }) => <DateTime iso={row.original.lastSentAt} />,
+      cell: ({ row }) => <Instant at={row.original.lastSentAt} kind="account" />,
     },
     {
       id: 'expiresAt',
       header: 'Expires',
       accessorFn: (i) => Date.parse(i.expiresAt),
-      cell: ({ row }) => <DateTime iso={row.original.expiresAt} />,
+      cell: ({ row }) => <Instant at={row.original.expiresAt} kind="account" />,
     },
     {
       id: 'actions',

@@ -3,7 +3,7 @@ import { Link } from 'react-router-dom';
 import { ROLE_LABELS } from '@shared/policies/permissions.ts';
 import type { LabDetail } from '@shared/contract/labs.ts';
 import type { LabOverviewAnswer, OverviewChannel } from '@shared/contract/overview.ts';
-import { DateTime } from '../../../components/date-time.tsx';
+import { Instant } from '../../../components/clock/instant.tsx';
 import { LoadingNote, Notice } from '../../../components/notice.tsx';
 import { visibleSections } from './lab-sections.ts';
 import { attentionEntries, type AttentionEntry, type AttentionKind, type ReasonLabel } from './attention-items.ts';
@@ -79,7 +79,7 @@ function LabFacts({ detail }: { detail: LabDetail }) {
       <dd className="break-all font-mono">/labs/{lab.slug}</dd>
       <dt className="text-ink-soft">Created</dt>
       <dd>
-        <DateTime iso={lab.createdAt} dateOnly />
+        <Instant at={lab.createdAt} kind="account" part="date" />
       </dd>
       {description && (
         <>
@@ -144,7 +144,7 @@ export function LabOverview({
       {overview && !overview.empty && <OverviewPanels o={overview} slug={slug} reasonLabel={helpers.reasonLabel} />}
       {overview && (
         <p className="text-xs text-ink-soft">
-          As of <DateTime iso={overview.now} />; refreshed every minute while this page is open.
+          As of <Instant at={overview.now} kind="account" />; refreshed every minute while this page is open.
         </p>
       )}
       <SectionLinks detail={detail} />

@@ -2,7 +2,7 @@ import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import type { LabOverviewAnswer, OverviewPlan, PlanMeasure } from '@shared/contract/overview.ts';
 import { paths } from '../../../app/paths.ts';
-import { RelativeTime } from '../../../components/relative-time.tsx';
+import { Instant } from '../../../components/clock/instant.tsx';
 import type { ReasonLabel } from './attention-items.ts';
 
 function Panel({ title, link, children }: { title: string; link?: { to: string; label: string }; children: ReactNode }) {
@@ -89,7 +89,7 @@ export function OverviewPanels({ o, slug, reasonLabel }: { o: LabOverviewAnswer;
                   )}
                   {a.acknowledged && <span className="text-ink-soft"> (acknowledged)</span>}
                   <span className="block text-ink-soft">{a.detail}</span>
-                  <RelativeTime iso={a.openedAt} now={now} />
+                  <Instant at={a.openedAt} kind="readings" relative now={now} />
                 </li>
               ))}
               {o.alerts.openCount > o.alerts.recent.length && <li className="text-ink-soft">and {o.alerts.openCount - o.alerts.recent.length} more</li>}
@@ -163,7 +163,7 @@ export function OverviewPanels({ o, slug, reasonLabel }: { o: LabOverviewAnswer;
             <p className="text-ink-soft">No history file uploaded yet.</p>
           ) : (
             <div className="grid gap-1">
-              <RelativeTime iso={o.lastUpload.at} now={now} />
+              <Instant at={o.lastUpload.at} kind="readings" relative now={now} />
               <p>
                 {o.lastUpload.logger ? (
                   <Link to={paths.labLoggerUpload.href(slug, o.lastUpload.logger.id)} className="text-lichen-dark underline">

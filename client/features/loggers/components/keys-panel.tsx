@@ -4,8 +4,7 @@ import { Button } from '../../../components/button.tsx';
 import { ConfirmAction } from '../../../components/confirm-action.tsx';
 import { ConfirmButton } from '../../../components/confirm-button.tsx';
 import { DataTable } from '../../../components/data-table.tsx';
-import { DateTime } from '../../../components/date-time.tsx';
-import { RelativeTime } from '../../../components/relative-time.tsx';
+import { Instant } from '../../../components/clock/instant.tsx';
 import type { IngestKeyInfo, IssuedKey } from '@shared/contract/loggers.ts';
 import { useIssueKey } from '../api/issue-key.ts';
 import { useRevokeKey } from '../api/revoke-key.ts';
@@ -56,18 +55,23 @@ export function KeysPanel({
         sortingFn: 'text',
         cell: ({ row }) => <span className="font-mono">{shownKey(row.original.prefix)}</span>,
       },
-      { id: 'created', header: 'Issued', accessorFn: (k) => Date.parse(k.createdAt), cell: ({ row }) => <DateTime iso={row.original.createdAt} /> },
+      {
+        id: 'created',
+        header: 'Issued',
+        accessorFn: (k) => Date.parse(k.createdAt),
+        cell: ({ row }) => <Instant at={row.original.createdAt} kind="account" />,
+      },
       {
         id: 'lastUsed',
         header: 'Last used',
         accessorFn: (k) => (k.lastUsedAt ? Date.parse(k.lastUsedAt) : -1),
-        cell: ({ row }) => <RelativeTime iso={row.original.lastUsedAt} />,
+        cell: ({ row }) => <Instant at={row.original.lastUsedAt} kind="account" relative />,
       },
       {
         id: 'revoked',
         header: 'Revoked',
         accessorFn: (k) => (k.revokedAt ? Date.parse(k.revokedAt) : 0),
-        cell: ({ row }) => (row.original.revokedAt ? <DateTime iso={row.original.revokedAt} /> : <span className="text-lichen-dark">active</span>),
+        cell: ({ row }) => (row.original.revokedAt ? <Instant at={row.original.revokedAt} kind="account" /> : <span className="text-lichen-dark">active</span>),
       },
       {
         id: 'actions',

@@ -1,6 +1,5 @@
 import type { ReactNode } from 'react';
-import { DateTime } from '../../../components/date-time.tsx';
-import { RelativeTime } from '../../../components/relative-time.tsx';
+import { Instant } from '../../../components/clock/instant.tsx';
 import type { LoggerDetail } from '@shared/contract/loggers.ts';
 import { formatInterval } from './format-interval.ts';
 
@@ -11,10 +10,10 @@ export function LoggerDetails({ logger }: { logger: LoggerDetail }) {
     ['Site', logger.site ?? '—'],
     ['Time zone', logger.timezone],
     ['Expected interval', `${formatInterval(logger.expectedIntervalS)} (${logger.expectedIntervalS} s)`],
-    ['Registered', <DateTime key="c" iso={logger.createdAt} />],
-    ['Last seen', <RelativeTime key="s" iso={logger.lastSeenAt} />],
+    ['Registered', <Instant key="c" at={logger.createdAt} kind="account" />],
+    ['Last seen', <Instant key="s" at={logger.lastSeenAt} kind="readings" loggerZone={logger.timezone} relative />],
   ];
-  if (logger.retiredAt) rows.push(['Retired', <DateTime key="r" iso={logger.retiredAt} />]);
+  if (logger.retiredAt) rows.push(['Retired', <Instant key="r" at={logger.retiredAt} kind="account" />]);
   return (
     <dl className="grid grid-cols-[auto_1fr] gap-x-6 gap-y-2 rounded-xl border border-rule bg-card p-5 text-sm">
       {rows.map(([term, value]) => (

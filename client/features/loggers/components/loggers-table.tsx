@@ -3,7 +3,7 @@ import { Link } from 'react-router-dom';
 import type { ColumnDef } from '@tanstack/react-table';
 import { paths } from '../../../app/paths.ts';
 import { DataTable } from '../../../components/data-table.tsx';
-import { RelativeTime } from '../../../components/relative-time.tsx';
+import { Instant } from '../../../components/clock/instant.tsx';
 import type { LoggerSummary } from '@shared/contract/loggers.ts';
 import { formatInterval } from './format-interval.ts';
 
@@ -48,7 +48,7 @@ export function LoggersTable({ slug, loggers }: { slug: string; loggers: LoggerS
         id: 'lastSeen',
         header: 'Last seen',
         accessorFn: (l) => (l.lastSeenAt ? Date.parse(l.lastSeenAt) : -1),
-        cell: ({ row }) => <RelativeTime iso={row.original.lastSeenAt} />,
+        cell: ({ row }) => <Instant at={row.original.lastSeenAt} kind="readings" loggerZone={row.original.timezone} relative />,
       },
     ],
     [slug],

@@ -2,7 +2,7 @@ import { useMemo } from 'react';
 import type { ColumnDef } from '@tanstack/react-table';
 import { ROLES, ROLE_LABELS } from '../../../../server/policies/permissions.ts';
 import { DataTable } from '../../../components/data-table.tsx';
-import { DateTime } from '../../../components/date-time.tsx';
+import { Instant } from '../../../components/clock/instant.tsx';
 import type { Member } from '@shared/contract/members.ts';
 import { MemberRoleControl } from './member-role-control.tsx';
 import { RemoveMemberButton } from './remove-member-button.tsx';
@@ -51,7 +51,7 @@ export function MembersTable({
         id: 'joined',
         header: 'Joined',
         accessorFn: (m) => Date.parse(m.joinedAt),
-        cell: ({ row }) => <DateTime iso={row.original.joinedAt} dateOnly />,
+        cell: ({ row }) => <Instant at={row.original.joinedAt} kind="account" part="date" />,
       },
     ];
     if (!canManage) return base;

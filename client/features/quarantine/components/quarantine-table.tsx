@@ -2,7 +2,7 @@ import { useMemo, useState } from 'react';
 import type { ColumnDef } from '@tanstack/react-table';
 import { Button } from '../../../components/button.tsx';
 import { DataTable } from '../../../components/data-table.tsx';
-import { DateTime } from '../../../components/date-time.tsx';
+import { Instant } from '../../../components/clock/instant.tsx';
 import type { QuarantinedRow, ResubmitRow } from '@shared/contract/quarantine.ts';
 import { FixRowForm } from './fix-row-form.tsx';
 import { isReasonCode, REASON_LABELS } from './reason-labels.ts';
@@ -91,7 +91,7 @@ export function QuarantineTable({
       { id: 'ts', header: 'Time', cell: ({ row }) => mono(row.original.ts) },
       { id: 'value', header: 'Value', cell: ({ row }) => mono(row.original.value) },
       { id: 'raw', header: 'As received', cell: ({ row }) => mono(row.original.raw) },
-      { id: 'received', header: 'Received', cell: ({ row }) => <DateTime iso={row.original.receivedAt} /> },
+      { id: 'received', header: 'Received', cell: ({ row }) => <Instant at={row.original.receivedAt} kind="readings" /> },
       { id: 'fix', header: 'Fix', cell: ({ row }) => <FixCell row={row.original} pending={pending} onResubmit={onResubmit} /> },
     ];
   }, [rows, loggerNames, selected, onSelect, pending, onResubmit]);

@@ -2,8 +2,7 @@ import { useMemo } from 'react';
 import type { ColumnDef } from '@tanstack/react-table';
 import { ConfirmAction } from '../../../components/confirm-action.tsx';
 import { DataTable } from '../../../components/data-table.tsx';
-import { DateTime } from '../../../components/date-time.tsx';
-import { RelativeTime } from '../../../components/relative-time.tsx';
+import { Instant } from '../../../components/clock/instant.tsx';
 import type { PersonalToken } from '@shared/contract/tokens.ts';
 import { useRevokeToken } from '../api/revoke-token.ts';
 
@@ -42,13 +41,18 @@ export function TokensTable({ slug, tokens }: { slug: string; tokens: PersonalTo
         enableSorting: false,
         cell: ({ row }) => <span className="font-mono">{shownToken(row.original.prefix)}</span>,
       },
-      { id: 'created', header: 'Made', accessorFn: (t) => Date.parse(t.createdAt), cell: ({ row }) => <DateTime iso={row.original.createdAt} /> },
-      { id: 'expires', header: 'Expires', accessorFn: (t) => Date.parse(t.expiresAt), cell: ({ row }) => <DateTime iso={row.original.expiresAt} dateOnly /> },
+      { id: 'created', header: 'Made', accessorFn: (t) => Date.parse(t.createdAt), cell: ({ row }) => <Instant at={row.original.createdAt} kind="account" /> },
+      {
+        id: 'expires',
+        header: 'Expires',
+        accessorFn: (t) => Date.parse(t.expiresAt),
+        cell: ({ row }) => <Instant at={row.original.expiresAt} kind="account" part="date" />,
+      },
       {
         id: 'lastUsed',
         header: 'Last used',
         accessorFn: (t) => (t.lastUsedAt ? Date.parse(t.lastUsedAt) : -1),
-        cell: ({ row }) => <RelativeTime iso={row.original.lastUsedAt} />,
+        cell: ({ row }) => <Instant at={row.original.lastUsedAt} kind="account" relative />,
       },
       {
         id: 'state',
@@ -59,7 +63,7 @@ export function TokensTable({ slug, tokens }: { slug: string; tokens: PersonalTo
           if (state === 'revoked')
             return (
               <span>
-                revoked <DateTime iso={row.original.revokedAt!} dateOnly />
+                revoked <Instant at={row.original.revokedAt!} kind="account" part="date" />
               </span>
             );
           return <span className={state === 'active' ? 'text-lichen-dark' : 'text-ink-soft'}>{state}</span>;
