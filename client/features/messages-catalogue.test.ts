@@ -23,6 +23,7 @@ const SAMPLES: Record<string, unknown[][]> = {
   'quarantine.discardedNotice': [[2]],
   'loggers.wouldGoToQuarantine': [['air temperature', 'the channel is retired.']],
   'loggers.retireLoggerQuestion': [['Hedgerow mast']],
+  'uploads.uploadRefused': [[502]],
   'billing.planConfirmed': [
     ['Transect', 'payment'],
     ['Transect', 'switch'],

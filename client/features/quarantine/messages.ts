@@ -54,6 +54,13 @@ export function resubmitSummary(o: { resubmitted: number; accepted: number; dupl
   return `Re-submitted ${rows(o.resubmitted)}: ${o.accepted} stored, ${o.duplicates} already stored, ${o.again} quarantined again.`;
 }
 
+/** The bulk repair form's own checks, before the server's schema. */
+export const BULK_DRAFT_MESSAGES = {
+  hoursWhole: 'Hours: must be a whole number.',
+  minutesWhole: 'Minutes: must be a whole number from 0 to 59.',
+  chooseChannel: 'Choose the channel these rows belong to.',
+} as const;
+
 /** Question before chosen rows are deleted. */
 export const discardQuestion = (n: number): string => `Discard ${rows(n)} for good?`;
 

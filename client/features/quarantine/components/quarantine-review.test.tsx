@@ -201,7 +201,7 @@ describe('QuarantineReview', () => {
     // the form checks before asking: a pattern needs its text
     fireEvent.change(within(panel).getByLabelText('Time layout'), { target: { value: 'pattern' } });
     fireEvent.click(within(panel).getByRole('button', { name: 'Preview' }));
-    expect(within(panel).getByText('timePattern: must not be empty')).toBeTruthy();
+    expect(within(panel).getByText('Pattern of the times: must not be empty.')).toBeTruthy();
     fireEvent.change(within(panel).getByLabelText('Time layout'), { target: { value: 'day-first-dot' } });
     fireEvent.click(within(panel).getByRole('button', { name: 'Preview' }));
     await within(panel).findByText(/Nothing has changed yet/);

@@ -1,5 +1,7 @@
 import { bulkActionSchema, type BulkAction, type BulkActionKind } from '@shared/contract/quarantine.ts';
 import type { UploadTimeFormat } from '@shared/contract/uploads.ts';
+import { fieldLabel, problemsMessage } from '@shared/contract/words/fields.ts';
+import { BULK_DRAFT_MESSAGES } from '../messages.ts';
 
 /** The bulk repair form as the person fills it in (text fields as typed). */
 export interface BulkActionDraft {
@@ -33,7 +35,7 @@ const whole = (text: string) => (/^\s*\d{1,6}\s*$/.test(text) ? Number(text) : N
 
 /**
  * The draft as the API's action, checked with the server's own schema, or the first problem
- * as `field: reason` (the words the server would use), so the form says it before asking.
+ * as "Label: reason." (the words the server would use), so the form says it before asking.
  */
 export function bulkActionFromDraft(d: BulkActionDraft): { action: BulkAction } | { error: string } {
   let candidate: unknown;
@@ -49,13 +51,13 @@ export function bulkActionFromDraft(d: BulkActionDraft): { action: BulkAction } 
     case 'shift': {
       const hours = whole(d.hours || '0');
       const minutes = whole(d.minutes || '0');
-      if (Number.isNaN(hours)) return { error: 'hours: must be a whole number' };
-      if (Number.isNaN(minutes) || minutes > 59) return { error: 'minutes: must be a whole number from 0 to 59' };
+      if (Number.isNaN(hours)) return { error: BULK_DRAFT_MESSAGES.hoursWhole };
+      if (Number.isNaN(minutes) || minutes > 59) return { error: BULK_DRAFT_MESSAGES.minutesWhole };
       candidate = { kind: 'shift', offsetMinutes: (d.sign === '-' ? -1 : 1) * (hours * 60 + minutes) };
       break;
     }
     case 'map-channel':
-      if (!d.channelId) return { error: 'channelId: choose the channel these rows belong to' };
+      if (!d.channelId) return { error: BULK_DRAFT_MESSAGES.chooseChannel };
       candidate = { kind: 'map-channel', channelId: Number(d.channelId) };
       break;
     case 'discard':
@@ -65,7 +67,8 @@ export function bulkActionFromDraft(d: BulkActionDraft): { action: BulkAction } 
   const parsed = bulkActionSchema.safeParse(candidate);
   if (parsed.success) return { action: parsed.data };
   const issue = parsed.error.issues[0];
-  return { error: `${issue.path.join('.') || 'action'}: ${issue.message}` };
+  // the field's label as the server names it within a repair (`action.reason` is "Why they are discarded")
+  return { error: problemsMessage([{ label: fieldLabel(['action', ...issue.path], '/quarantine'), reason: issue.message }]) };
 }
 
 /** A signed offset in minutes as people say it: "+1 h 30 min", "−45 min". */

@@ -2,6 +2,7 @@ import type { ErrorAnswer } from '@shared/contract/common.ts';
 import type { ImportProgress, ImportSummary, UploadLine, UploadOptions } from '@shared/contract/uploads.ts';
 import { ApiError } from '../../../lib/api-client.ts';
 import { createNdjsonReader } from './ndjson-reader.ts';
+import { UPLOAD_MESSAGES, uploadRefused } from '../messages.ts';
 
 export interface UploadHandlers {
   /** Bytes of the file sent so far (from the browser's upload progress). */
@@ -55,7 +56,7 @@ export function uploadFile(slug: string, loggerId: number, file: Blob, options: 
         } catch {
           body = null;
         }
-        reject(new ApiError(xhr.status, body?.error?.code ?? 'unknown', body?.error?.message ?? `The upload was refused (${xhr.status}).`));
+        reject(new ApiError(xhr.status, body?.error?.code ?? 'unknown', body?.error?.message ?? uploadRefused(xhr.status)));
         return;
       }
       readNew();
@@ -64,9 +65,8 @@ export function uploadFile(slug: string, loggerId: number, file: Blob, options: 
       else if (summary) resolve(summary);
       else reject(new ApiError(0, 'no_summary', 'The import stopped without a summary. What was stored is kept; send the file again to finish.'));
     };
-    xhr.onerror = () =>
-      reject(new ApiError(0, 'network', 'The connection was lost. What was stored is kept; send the file again to finish (stored rows count as duplicates).'));
-    xhr.onabort = () => reject(new ApiError(0, 'aborted', 'The upload was cancelled. What was stored before that is kept.'));
+    xhr.onerror = () => reject(new ApiError(0, 'network', UPLOAD_MESSAGES.connectionLost));
+    xhr.onabort = () => reject(new ApiError(0, 'aborted', UPLOAD_MESSAGES.cancelled));
   });
 
   xhr.open('POST', `/api/v1/labs/${encodeURIComponent(slug)}/loggers/${loggerId}/uploads?options=${encodeURIComponent(JSON.stringify(options))}`);

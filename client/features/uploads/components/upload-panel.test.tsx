@@ -95,7 +95,7 @@ describe('UploadPanel', () => {
     fireEvent.change(screen.getByLabelText('Column “air_t”'), { target: { value: '' } });
     fireEvent.change(screen.getByLabelText('Column “rh”'), { target: { value: '' } });
     fireEvent.click(screen.getByRole('button', { name: 'Start the upload' }));
-    expect(screen.getByText('columns: wide format needs at least one column mapped to a channel')).toBeTruthy();
+    expect(screen.getByText('Columns and their channels: a wide file needs at least one column stored under a channel.')).toBeTruthy();
     expect(FakeXhr.last).toBeNull();
   });
 

@@ -12,6 +12,7 @@ import { useUploadTimesPreview } from '../api/preview-upload-times.ts';
 import { TIME_LAYOUT_LABELS, type TimePreviewInput } from '@shared/contract/uploads.ts';
 import { formatBytes, UploadProgress } from './upload-progress.tsx';
 import { UploadSummary } from './upload-summary.tsx';
+import { UPLOAD_MESSAGES } from '../messages.ts';
 
 interface Chosen {
   file: File;
@@ -62,7 +63,7 @@ export function UploadPanel({
     if (file.size === 0) return setFileError(`${file.name} is empty.`);
     const head = await file.slice(0, PREVIEW_BYTES).text();
     const preview = previewCsv(head, file.size > PREVIEW_BYTES);
-    if (preview.header.length < 2) return setFileError('This does not look like a CSV file with a header line and at least two columns.');
+    if (preview.header.length < 2) return setFileError(UPLOAD_MESSAGES.notACsv);
     setChosen({ file, head, preview });
     setSetup(
       guessUploadSetup(

@@ -44,15 +44,18 @@ describe('toUploadOptions', () => {
   it('refuses a wide mapping that skips every column, with the server schema’s own message', () => {
     const setup = { ...guessUploadSetup(WIDE, ',', [], 'UTC') };
     const result = toUploadOptions(setup, WIDE);
-    expect(result).toEqual({ ok: false, problems: ['columns: wide format needs at least one column mapped to a channel'] });
+    expect(result).toEqual({ ok: false, problems: ['Columns and their channels: a wide file needs at least one column stored under a channel.'] });
   });
 
   it('refuses a long mapping without a value column or with one column used twice', () => {
     const setup = guessUploadSetup(LONG, ',', [], 'UTC');
-    expect(toUploadOptions({ ...setup, valueColumn: '' }, LONG)).toEqual({ ok: false, problems: ['format: long format needs channelColumn and valueColumn'] });
+    expect(toUploadOptions({ ...setup, valueColumn: '' }, LONG)).toEqual({
+      ok: false,
+      problems: ['File layout: a long file needs its channel column and its value column named.'],
+    });
     expect(toUploadOptions({ ...setup, valueColumn: 'time' }, LONG)).toEqual({
       ok: false,
-      problems: ['columns: time, channel and value must be three different columns'],
+      problems: ['Columns: time, channel and value must be three different columns.'],
     });
   });
 });
@@ -71,11 +74,11 @@ describe('toUploadOptions with a time layout', () => {
     const setup = guessUploadSetup(WIDE, ',', ['air_t', 'rh'], '');
     expect(toUploadOptions({ ...setup, timeFormat: 'pattern', timeZone: 'UTC' }, WIDE)).toEqual({
       ok: false,
-      problems: ['timePattern: give the pattern of the time column, e.g. dd.MM.yyyy HH:mm'],
+      problems: ['Pattern of the times: give the pattern of the time column, e.g. dd.MM.yyyy HH:mm.'],
     });
     expect(toUploadOptions({ ...setup, timeFormat: 'month-first-slash' }, WIDE)).toEqual({
       ok: false,
-      problems: ["timeZone: this time layout carries no UTC offset: name the zone its times are in (the logger's own zone, usually)"],
+      problems: ["Time zone of the times: these times carry no offset from UTC: name the zone they are in (usually the logger's own)."],
     });
   });
 });

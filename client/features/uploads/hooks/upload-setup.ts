@@ -1,5 +1,10 @@
 import { uploadOptionsSchema, type UploadOptions, type UploadTimeFormat } from '@shared/contract/uploads.ts';
 import type { Delimiter } from './csv-preview.ts';
+import { fieldLabel, problemsMessage } from '@shared/contract/words/fields.ts';
+import { UPLOAD_MESSAGES } from '../messages.ts';
+
+/** The route whose field labels name the reading options (server/contract/words/fields.ts). */
+const UPLOADS_ROUTE = '/loggers/:loggerId/uploads';
 
 export type UploadFormat = 'long' | 'wide';
 export type TimeFormat = UploadTimeFormat;
@@ -68,9 +73,13 @@ export function toUploadOptions(setup: UploadSetup, header: string[]): { ok: tru
       : { ...common, columns: Object.fromEntries(header.filter((h) => h !== setup.timeColumn).map((h) => [h, setup.columns[h] ?? null])) };
   const problems: string[] = [];
   if (setup.format === 'long' && new Set([setup.timeColumn, setup.channelColumn, setup.valueColumn]).size < 3) {
-    problems.push('columns: time, channel and value must be three different columns');
+    problems.push(UPLOAD_MESSAGES.threeDifferentColumns);
   }
   const parsed = uploadOptionsSchema.safeParse(candidate);
-  if (!parsed.success) problems.push(...parsed.error.issues.map((i) => `${i.path.join('.') || 'options'}: ${i.message}`));
+  // each refusal with its field's label (the server's words), never the option's key
+  if (!parsed.success)
+    problems.push(
+      ...parsed.error.issues.map((i) => problemsMessage([{ label: fieldLabel(i.path.length ? i.path : ['options'], UPLOADS_ROUTE), reason: i.message }])),
+    );
   return problems.length ? { ok: false, problems } : { ok: true, options: parsed.data! };
 }
