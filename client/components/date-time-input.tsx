@@ -114,16 +114,11 @@ export function DateTimeInput({
 
   return (
     <fieldset className="min-w-0" aria-describedby={describedBy}>
-      <legend id={`${id}-legend`} className="text-sm font-medium">
-        {label}
-      </legend>
+      <legend className="text-sm font-medium">{label}</legend>
       <div className="mt-1 flex flex-wrap items-center gap-x-2 gap-y-1">
         <span className="inline-flex items-center gap-1">
-          <span id={`${id}-d`} className="sr-only">
-            date
-          </span>
           <input
-            aria-labelledby={`${id}-legend ${id}-d`}
+            aria-label={`${label} date`}
             aria-invalid={error !== undefined || badPart === 'date' || undefined}
             inputMode="numeric"
             autoComplete="off"
@@ -135,11 +130,8 @@ export function DateTimeInput({
             onBlur={() => setTouched(true)}
             className={`${PART} w-[8.75rem]`}
           />
-          <span id={`${id}-t`} className="sr-only">
-            time
-          </span>
           <input
-            aria-labelledby={`${id}-legend ${id}-t`}
+            aria-label={`${label} time`}
             aria-invalid={error !== undefined || badPart === 'time' || undefined}
             inputMode="numeric"
             autoComplete="off"

@@ -18,7 +18,7 @@ const STEP_MS = 600_000;
 const N = 3 * 144;
 const ZONE = 'Europe/Berlin';
 
-/** What a `datetime-local` input holds for instant `ms` on the wall clock of `zone` (`2026-12-02T06:50`), from the platform's IANA data. */
+/** The `YYYY-MM-DDTHH:mm` wall-clock text for instant `ms` on the wall clock of `zone` (`2026-12-02T06:50`), from the platform's IANA data. */
 function toZonedInput(ms: number, zone: string): string {
   const parts = Object.fromEntries(
     new Intl.DateTimeFormat('en-GB', {
@@ -77,8 +77,13 @@ describe('a note on a time range, through the browser', () => {
     const form = page.getByRole('form', { name: 'Add a note' });
     await form.getByLabel('Kind').selectOption({ label: 'maintenance' });
     await form.getByLabel('What happened').fill('Probe lifted out and cleaned');
-    await form.getByLabel(`Starts (${ZONE})`).fill(toZonedInput(cleaningFrom, ZONE));
-    await form.getByLabel(`Ends (${ZONE})`).fill(toZonedInput(cleaningFrom + 3 * STEP_MS, ZONE));
+    // Lagbook's own date-time input: a date field and a 24-hour time field per end of the span
+    const [startDay, startTime] = toZonedInput(cleaningFrom, ZONE).split('T');
+    const [endDay, endTime] = toZonedInput(cleaningFrom + 3 * STEP_MS, ZONE).split('T');
+    await form.getByLabel('Starts date').fill(startDay);
+    await form.getByLabel('Starts time').fill(startTime);
+    await form.getByLabel('Ends date').fill(endDay);
+    await form.getByLabel('Ends time').fill(endTime);
     await form.getByLabel(/Leave out of analysis/).check();
     await keepScreenshot(page, 'notes-add-form');
     await form.getByRole('button', { name: 'Add the note' }).click();
