@@ -24,6 +24,9 @@ const SAMPLES: Record<string, unknown[][]> = {
   'loggers.wouldGoToQuarantine': [['air temperature', 'the channel is retired.']],
   'loggers.retireLoggerQuestion': [['Hedgerow mast']],
   'uploads.uploadRefused': [[502]],
+  'invitations.invitationProblem': [['invitation_expired'], ['some_code_this_client_does_not_know']],
+  'invitations.invitationSent': [['bob@example.org']],
+  'invitations.revokeInvitationQuestion': [['bob@example.org']],
   'billing.planConfirmed': [
     ['Transect', 'payment'],
     ['Transect', 'switch'],
@@ -64,8 +67,10 @@ describe('the message catalogues of the client features', () => {
     for (const [name, value] of Object.entries(mod)) {
       for (const text of textsOf(`${feature}.${name}`, value)) {
         count += 1;
+        // an e-mail address is the person's data, not a key
+        const words = text.replace(/[^\s@]+@[^\s@]+\.\w+/g, 'an address');
         for (const [re, what] of FORBIDDEN) {
-          const hit = re.exec(text);
+          const hit = re.exec(words);
           if (hit) problems.push(`${feature}.${name}: ${what} (“${hit[0]}”) in “${text}”`);
         }
       }

@@ -3,6 +3,7 @@ import { ConfirmButton } from '../../../components/confirm-button.tsx';
 import { useResendInvitation } from '../api/resend-invitation.ts';
 import { useRevokeInvitation } from '../api/revoke-invitation.ts';
 import type { PendingInvitation } from '@shared/contract/invitations.ts';
+import { revokeInvitationQuestion } from '../messages.ts';
 
 /** Resend and Revoke (asked twice) for one pending invitation, with the outcome beside them. */
 export function InvitationActions({ slug, invitation }: { slug: string; invitation: PendingInvitation }) {
@@ -25,7 +26,7 @@ export function InvitationActions({ slug, invitation }: { slug: string; invitati
         </Button>
         <ConfirmButton
           label="Revoke"
-          question={`Revoke the invitation to ${invitation.email}?`}
+          question={revokeInvitationQuestion(invitation.email)}
           confirmLabel="Revoke invitation"
           pending={revoke.isPending}
           onConfirm={() => {

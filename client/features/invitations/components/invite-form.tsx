@@ -9,6 +9,7 @@ import { SelectField, TextField } from '../../../components/form-field.tsx';
 import { Notice } from '../../../components/notice.tsx';
 import { applyServerError } from '../../../components/server-field-error.ts';
 import { useCreateInvitation } from '../api/create-invitation.ts';
+import { invitationSent } from '../messages.ts';
 
 type InviteForm = z.input<typeof inviteMemberSchema>;
 
@@ -61,7 +62,7 @@ export function InviteForm({ slug }: { slug: string }) {
       )}
       {sentTo && (
         <Notice tone="status" className="sm:col-span-3">
-          Invitation sent to {sentTo}. The link works for 7 days.
+          {invitationSent(sentTo)}
         </Notice>
       )}
     </form>

@@ -8,7 +8,7 @@ import { ApiError } from '../../../lib/api-client.ts';
 import type { AcceptedInvitation } from '@shared/contract/invitations.ts';
 import { useAcceptInvitation } from '../api/accept-invitation.ts';
 import { useInvitationByToken } from '../api/get-invitation-by-token.ts';
-import { invitationProblem } from './invitation-problems.ts';
+import { invitationProblem } from '../messages.ts';
 
 function Problem({ error, slug }: { error: Error; slug: string }) {
   const code = error instanceof ApiError ? error.code : 'unknown';

@@ -1,3 +1,10 @@
+/**
+ * Words the invitation screens write themselves: what the acceptance page says about each way a
+ * link can fail, confirmations and notices. This file is the one place to review how the
+ * invitations feature speaks to people; field labels the server shares live in
+ * `@shared/contract/words/members.ts`.
+ */
+
 /** What the acceptance page says about each way an invitation link can fail. */
 export interface InvitationProblem {
   title: string;
@@ -36,3 +43,9 @@ export function invitationProblem(code: string): InvitationProblem {
     }
   );
 }
+
+/** Notice after an invitation was sent. */
+export const invitationSent = (email: string): string => `Invitation sent to ${email}. The link works for 7 days.`;
+
+/** Question before an invitation is withdrawn. */
+export const revokeInvitationQuestion = (email: string): string => `Revoke the invitation to ${email}?`;
