@@ -6,7 +6,8 @@ interface FieldFrame {
   error?: string;
 }
 
-const CONTROL = 'mt-1 block w-full rounded-lg border bg-card px-3 py-2 text-ink aria-[invalid=true]:border-alert border-rule';
+// min-h-11: 44 px, a touch target a finger can hit (WCAG 2.2 SC 2.5.5's size)
+const CONTROL = 'mt-1 block min-h-11 w-full min-w-0 rounded-lg border bg-card px-3 py-2 text-ink aria-[invalid=true]:border-alert border-rule';
 
 /** Label, control, hint and error of one form field, wired together for assistive technology. */
 function Frame({ id, label, hint, error, children }: FieldFrame & { id: string; children: ReactNode }) {

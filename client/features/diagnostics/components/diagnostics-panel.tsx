@@ -38,14 +38,14 @@ export function DiagnosticsPanel({
       {report && !run.running && (
         <>
           {canExport && urls && (
-            <p className="flex flex-wrap gap-4 text-sm">
+            <div className="flex flex-wrap gap-4 text-sm">
               <a href={urls.json} download={`${slug}-${channelKey}-diagnostics.json`} className="font-medium text-lichen-dark underline underline-offset-2">
                 Download diagnostics (JSON)
               </a>
               <a href={urls.csv} download className="font-medium text-lichen-dark underline underline-offset-2">
                 Download diagnostics (CSV)
               </a>
-            </p>
+            </div>
           )}
           <DiagnosticsResults report={report} timezone={timezone} pngPrefix={`${slug}-${channelKey}`} />
         </>

@@ -41,7 +41,7 @@ export function IssuedKeyPanel({
             Try it: this command sends one reading of <span className="font-mono">{channel!.key}</span> at the time shown. It is stored like any other reading,
             so send a real value if you keep it.
           </p>
-          <pre data-testid="ingest-example" className="overflow-x-auto rounded-lg bg-spruce p-3 font-mono text-xs text-paper">
+          <pre data-testid="ingest-example" tabIndex={0} className="overflow-x-auto rounded-lg bg-spruce p-3 font-mono text-xs text-paper">
             {example}
           </pre>
           <div>

@@ -11,7 +11,7 @@ function Example({ title, code, testId, open = false, children }: { title: strin
       <summary className="cursor-pointer px-3 py-2 text-sm font-medium">{title}</summary>
       <div className="grid gap-2 px-3 pb-3">
         {children && <p className="text-xs text-ink-soft">{children}</p>}
-        <pre data-testid={testId} className="overflow-x-auto rounded-lg bg-spruce p-3 font-mono text-xs text-paper">
+        <pre data-testid={testId} tabIndex={0} className="overflow-x-auto rounded-lg bg-spruce p-3 font-mono text-xs text-paper">
           {code}
         </pre>
         <div>

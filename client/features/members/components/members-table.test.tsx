@@ -45,7 +45,11 @@ describe('MembersTable', () => {
   it('gives non-admins no role picker and no Remove', () => {
     fakeApi({});
     renderWithProviders(<MembersTable slug="fernhollow" members={MEMBERS} currentUserId={3} canManage={false} />);
-    expect(screen.queryByRole('combobox')).toBeNull();
+    // the only combobox is the table's phone sort menu, no role picker
+    expect(screen.queryByRole('combobox', { name: /^Role of/ })).toBeNull();
+    expect(screen.getAllByRole('combobox').map((c) => c.getAttribute('id') && document.querySelector(`label[for="${c.id}"]`)?.textContent)).toEqual([
+      'Sort by',
+    ]);
     expect(screen.queryByRole('button', { name: 'Remove' })).toBeNull();
     expect(screen.getByText('Technician')).toBeTruthy();
   });

@@ -42,7 +42,7 @@ export function BulkPreviewTable({ preview }: { preview: BulkPreview }) {
     <div className="grid gap-3">
       <p className="text-sm">Of {plural(preview.selected, 'selected row')}, this is what the repair would do. Nothing has changed yet.</p>
       <BulkCountsList counts={preview} tense="would" />
-      <div className="overflow-x-auto rounded-lg border border-rule">
+      <div className="overflow-x-auto rounded-lg border border-rule" tabIndex={0}>
         <table className="w-full text-left text-sm">
           <caption className="sr-only">The first selected rows, now and after the repair</caption>
           <thead className="bg-paper text-xs text-ink-soft">

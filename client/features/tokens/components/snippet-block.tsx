@@ -8,7 +8,7 @@ export function SnippetBlock({ title, code, testId }: { title: string; code: str
         {title}
         <CopyButton text={code} what={title} />
       </figcaption>
-      <pre data-testid={testId} className="overflow-x-auto rounded-lg bg-spruce p-3 font-mono text-xs text-paper">
+      <pre data-testid={testId} tabIndex={0} className="overflow-x-auto rounded-lg bg-spruce p-3 font-mono text-xs text-paper">
         {code}
       </pre>
     </figure>

@@ -3,7 +3,7 @@ import type { CsvPreview } from '../hooks/csv-preview.ts';
 /** The first rows of the chosen file as the import will read them, so the mapping can be checked by eye. */
 export function CsvPreviewTable({ preview, fileName }: { preview: CsvPreview; fileName: string }) {
   return (
-    <div className="overflow-x-auto rounded-xl border border-rule bg-card">
+    <div className="overflow-x-auto rounded-xl border border-rule bg-card" tabIndex={0}>
       <table className="w-full border-collapse text-left font-mono text-xs">
         <caption className="px-4 py-2 text-left font-sans text-sm text-ink-soft">
           First {preview.rows.length} rows of {fileName}

@@ -34,7 +34,7 @@ export function TimePreviewTable({
           ? `Read as ${layoutName(answer.layout)} (recognised from the first rows); choose it above to upload with it.`
           : `Read as ${layoutName(answer.layout)}, in ${answer.timeZone}.`}
       </p>
-      <div className="overflow-x-auto">
+      <div className="overflow-x-auto" tabIndex={0}>
         <table className="min-w-full text-sm">
           <thead>
             <tr className="text-left text-ink-soft">
