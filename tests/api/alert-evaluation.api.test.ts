@@ -194,6 +194,33 @@ describe('alert evaluation', () => {
     expect(rows[0].opened_detail).toMatch(/^24 lies [\d.]+ robust SD above the usual pattern \(limit 5\)$/);
   });
 
+  it('unusual reading: a spike right after a logger outage opens an alert (the empty hours before it do not stop the judgement)', async () => {
+    const s = await setup();
+    await t.db('channels').where({ tenant_id: s.f.lab.id, id: s.f.ids.channelId }).update({ expected_interval_s: 3600 });
+    // Simulated hourly readings (behaviour test): 21 °C ± 3 °C daily cycle peaking at 15:00, seeded noise ±0.2 °C.
+    let seed = 23;
+    const noise = () => ((seed = (Math.imul(seed, 1664525) + 1013904223) >>> 0) / 2 ** 32 - 0.5) * 0.4;
+    const day0 = Math.floor(Date.now() / 86_400_000) * 86_400_000 - 5 * 86_400_000;
+    const usual = (h: number) => 21 + 3 * Math.cos((2 * Math.PI * (h - 15)) / 24) + noise();
+    await makeRule(s, { name: 'Growth room odd', kind: 'unusual', channelId: s.f.ids.channelId, params: { periodH: 24, k: 5, historyCycles: 3 } });
+    // The first hour of the history is missing too (the logger was installed an hour late).
+    await store(
+      s.f,
+      day0 + 3_600_000,
+      3_600_000,
+      Array.from({ length: 95 }, (_, h) => usual(h + 1)),
+    );
+    await evaluator().runOnce(day0 + 96 * 3_600_000);
+    expect(await alertsOf(s.f)).toHaveLength(0);
+    // Outage from 00:00 to 03:00 of day 5 (hours 96–98 never arrive); the first reading after it is 24 °C at 03:00.
+    await store(s.f, day0 + 99 * 3_600_000, 3_600_000, [24, usual(100)]);
+    await evaluator().runOnce(day0 + 101 * 3_600_000);
+    const rows = await alertsOf(s.f);
+    expect(rows.map((r) => [Number(r.opened_at), Number(r.opened_value), Number(r.resolved_at)])).toEqual([
+      [day0 + 99 * 3_600_000, 24, day0 + 100 * 3_600_000],
+    ]);
+  });
+
   it('two evaluators on two connection pools racing the same due work mail each notification once', async () => {
     const s = await setup();
     await makeRule(s, { name: 'Cold room warm', kind: 'bounds', channelId: s.f.ids.channelId, params: { high: 8 } });

@@ -90,7 +90,7 @@ async function stepValueRule(ctx: EvaluationContext, rule: AlertRule, target: Wa
   const stepMs = target.expectedIntervalS * 1000;
   const periodSteps = Math.round((params.periodH * 3_600_000) / stepMs);
   const span = periodSteps * params.historyCycles;
-  let scores = null;
+  let scores: Float64Array | null = null;
   if (periodSteps >= 2 && span <= MAX_BASELINE_CELLS) {
     const first = readings[0].ts;
     const scope = inLab(ctx.db, ctx.tenantId);
@@ -99,7 +99,8 @@ async function stepValueRule(ctx: EvaluationContext, rule: AlertRule, target: Wa
     // readings under notes marked "leave out of analysis" (a cleaning, a calibration) are no baseline: 1 ms cells drop exactly [start, end)
     const noted = await excludedNotes(scope, { id: target.channelId!, loggerId: target.loggerId }, from, first);
     const history = leaveOutNotedCells(read, noted, 1).data;
-    scores = unusualScores({ ts: history.ts, values: history.values }, readings, stepMs, periodSteps);
+    // the grid spans the whole window read, so a logger silent at either end of it leaves empty cells there (filled for the fit), not a shorter history
+    scores = unusualScores({ ts: history.ts, values: history.values }, readings, stepMs, periodSteps, { from, to: first }).scores;
   }
   return evaluateUnusualReading(params, scores, memory, readings);
 }

@@ -12,23 +12,41 @@ export interface UnusualParams {
   historyCycles: number;
 }
 
-/** At most this share of the grid cells may be empty (gaps are filled linearly). */
+/** At most this share of the history's grid cells may be empty (they are filled for the fit). */
 const MAX_GAP_SHARE = 0.2;
 
-/** Fills interior NaN cells by straight lines between their neighbours; null if too many are empty or an end is. */
-function fillGaps(values: Float64Array): Float64Array | null {
-  const out = Float64Array.from(values);
+/**
+ * Fills the empty (NaN) cells of a history grid for the decomposition, in place, and returns
+ * which cells were filled. Interior runs: straight lines between their neighbours. A run at
+ * either end (the logger was silent when the history began, or right before the readings being
+ * judged): the value one cycle later or earlier (the seasonal naïve value; Hyndman &
+ * Athanasopoulos, *Forecasting: Principles and Practice*, 3rd ed., 2021, §5.2), so a gap right
+ * before a reading no longer stops it being judged. Filled cells feed the fit only: they are
+ * left out when the spread is measured. Null when more than {@link MAX_GAP_SHARE} of the cells
+ * are empty or an end run is a whole cycle or longer.
+ */
+function fillForFit(out: Float64Array, periodSteps: number): Uint8Array | null {
+  const n = out.length;
+  const filled = new Uint8Array(n);
   let missing = 0;
-  for (let i = 0; i < out.length; i++) if (Number.isNaN(out[i])) missing++;
-  if (missing > MAX_GAP_SHARE * out.length || Number.isNaN(out[0]) || Number.isNaN(out[out.length - 1])) return null;
-  for (let i = 1; i < out.length; i++) {
-    if (!Number.isNaN(out[i])) continue;
+  for (let i = 0; i < n; i++) if (Number.isNaN(out[i])) filled[i] = 1;
+  for (let i = 0; i < n; i++) missing += filled[i];
+  if (missing > MAX_GAP_SHARE * n) return null;
+  let first = 0;
+  while (first < n && filled[first]) first++;
+  let last = n - 1;
+  while (last >= 0 && filled[last]) last--;
+  if (first >= periodSteps || n - 1 - last >= periodSteps) return null;
+  for (let i = first + 1; i < last; i++) {
+    if (!filled[i]) continue;
     let j = i;
-    while (Number.isNaN(out[j])) j++;
+    while (filled[j]) j++;
     for (let m = i; m < j; m++) out[m] = out[i - 1] + ((out[j] - out[i - 1]) * (m - i + 1)) / (j - i + 1);
     i = j;
   }
-  return out;
+  for (let i = last + 1; i < n; i++) out[i] = out[i - periodSteps];
+  for (let i = first - 1; i >= 0; i--) out[i] = out[i + periodSteps];
+  return filled;
 }
 
 /**
@@ -45,17 +63,34 @@ function usualAfter(series: Float64Array, upto: number, periodSteps: number): (c
   return (cell) => fit.seasonal[lastCycle + ((((cell - lastCycle) % periodSteps) + periodSteps) % periodSteps)] + level;
 }
 
+/** Why the readings of a step could not be judged (recorded on the rule instead of a verdict). */
+export interface NotJudged {
+  reason: 'no-history' | 'too-little-history' | 'too-many-gaps';
+  /** One sentence for people. */
+  detail: string;
+}
+
+/** The scores of the new readings, or why there are none. */
+export type UnusualScoring = { scores: Float64Array; notJudged: null } | { scores: null; notJudged: NotJudged };
+
+/** Fewest cells of the last history cycle that must hold readings for the spread to be measured. */
+const MIN_SPREAD_CELLS = 8;
+
 /**
- * How unusual each new reading is, in robust standard deviations. The readings before the
- * first new one are put on a grid of `stepMs` (cell means, {@link regularize}) with short gaps
- * filled by straight lines. A reading's remainder is its value minus the usual value of its
- * cell from the STL fit of that history ({@link usualAfter}). The spread is measured the same
- * way, out of sample: the history without its last cycle is fitted, that cycle's remainders
+ * How unusual each new reading is, in robust standard deviations. The history is put on a grid
+ * of `stepMs` (cell means, {@link regularize}) covering `window` (the time span the history was
+ * read for, so cells the logger left empty at either end count as empty) or, without one, the
+ * span of the history's own readings; empty cells are filled for the fit ({@link fillForFit}).
+ * A reading's remainder is its value minus the usual value of its cell from the STL fit of that
+ * history ({@link usualAfter}). The spread is measured the same way, out of sample: the
+ * history without its last cycle is fitted, that cycle's remainders at cells that held readings
  * are taken, and their median and 1.4826 · MAD ({@link robustScale}; Hampel 1974) are the
  * centre and the robust SD — fitted remainders would understate it, as the fit has adapted to
  * them. The score is (remainder − centre) / robust SD; ±Infinity when the SD is zero and the
- * reading differs. Null when the history holds fewer than three cycles of cells or more than
- * a fifth of them are empty. Readings must come after the history; nothing is modified.
+ * reading differs. No scores, with the reason, when the history spans fewer than three cycles,
+ * more than a fifth of its cells are empty, an end of it is empty for a whole cycle, or its last
+ * cycle holds fewer than {@link MIN_SPREAD_CELLS} cells with readings. Readings must come after
+ * the history; nothing is modified.
  *
  * Cost: two STL fits of the history, O(n) for n grid cells (see {@link stl}).
  */
@@ -64,21 +99,41 @@ export function unusualScores(
   readings: readonly RuleReading[],
   stepMs: number,
   periodSteps: number,
-): Float64Array | null {
-  if (periodSteps < 2 || history.ts.length < 3 * periodSteps || readings.length === 0) return null;
+  window?: { from: number; to: number },
+): UnusualScoring {
+  const none = (reason: NotJudged['reason'], detail: string): UnusualScoring => ({ scores: null, notJudged: { reason, detail } });
+  if (history.ts.length === 0) return none('no-history', 'No readings before these to learn the usual pattern from.');
   const grid = regularize(history.ts, history.values, { step: stepMs, agg: 'mean' });
-  const filled = fillGaps(grid.values);
-  const n = filled?.length ?? 0;
-  if (!filled || n < 3 * periodSteps) return null;
-  const heldOut = usualAfter(filled, n - periodSteps, periodSteps);
-  const errors = Float64Array.from({ length: periodSteps }, (_, j) => filled[n - periodSteps + j] - heldOut(n - periodSteps + j));
+  const start = window ? Math.floor(window.from / stepMs) * stepMs : grid.start;
+  const cells = window ? Math.ceil(window.to / stepMs) - start / stepMs : grid.values.length;
+  const values = new Float64Array(Math.max(cells, 0)).fill(NaN);
+  const offset = Math.round((grid.start - start) / stepMs);
+  for (let i = 0; i < grid.values.length; i++) if (i + offset >= 0 && i + offset < values.length) values[i + offset] = grid.values[i];
+  const n = values.length;
+  if (periodSteps < 2 || n < 3 * periodSteps) {
+    return none('too-little-history', `The history spans ${n} steps; three full cycles (${3 * periodSteps} steps) are needed to learn the usual pattern.`);
+  }
+  const filled = fillForFit(values, periodSteps);
+  if (!filled) {
+    return none('too-many-gaps', 'Too much of the history is missing (more than a fifth of it, or a whole cycle at one end) to learn the usual pattern.');
+  }
+  const heldOut = usualAfter(values, n - periodSteps, periodSteps);
+  const errors: number[] = [];
+  for (let i = n - periodSteps; i < n; i++) if (!filled[i]) errors.push(values[i] - heldOut(i));
+  if (errors.length < MIN_SPREAD_CELLS) {
+    return none(
+      'too-many-gaps',
+      `The last cycle of the history holds only ${errors.length} steps with readings; at least ${MIN_SPREAD_CELLS} are needed to measure the usual spread.`,
+    );
+  }
   const { center, scale } = robustScale(errors);
-  const usual = usualAfter(filled, n, periodSteps);
-  return Float64Array.from(readings, (r) => {
-    const deviation = r.value - usual(Math.floor((r.ts - grid.start) / stepMs)) - center;
+  const usual = usualAfter(values, n, periodSteps);
+  const scores = Float64Array.from(readings, (r) => {
+    const deviation = r.value - usual(Math.floor((r.ts - start) / stepMs)) - center;
     if (scale === 0) return deviation === 0 ? 0 : Math.sign(deviation) * Infinity;
     return deviation / scale;
   });
+  return { scores, notJudged: null };
 }
 
 /**
