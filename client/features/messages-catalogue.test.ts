@@ -27,6 +27,9 @@ const SAMPLES: Record<string, unknown[][]> = {
   'invitations.invitationProblem': [['invitation_expired'], ['some_code_this_client_does_not_know']],
   'invitations.invitationSent': [['bob@example.org']],
   'invitations.revokeInvitationQuestion': [['bob@example.org']],
+  'members.removeMemberQuestion': [['Odalys Brennick']],
+  'members.leaveLabQuestion': [['Fernhollow Field Station']],
+  'notes.lastChangedBy': [['Odalys Brennick']],
   'billing.planConfirmed': [
     ['Transect', 'payment'],
     ['Transect', 'switch'],

@@ -1,5 +1,6 @@
 import { ConfirmButton } from '../../../components/confirm-button.tsx';
 import { useLeaveLab } from '../api/leave-lab.ts';
+import { leaveLabQuestion } from '../messages.ts';
 
 /** "Leave this lab" for any member, asked twice; the last admin is told why they cannot. */
 export function LeaveLabButton({ slug, labName, onLeft }: { slug: string; labName: string; onLeft: () => void }) {
@@ -8,7 +9,7 @@ export function LeaveLabButton({ slug, labName, onLeft }: { slug: string; labNam
     <div>
       <ConfirmButton
         label="Leave this lab"
-        question={`Leave ${labName}? You will lose access until someone invites you again.`}
+        question={leaveLabQuestion(labName)}
         confirmLabel="Leave the lab"
         size="md"
         pending={leave.isPending}

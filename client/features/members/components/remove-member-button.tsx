@@ -1,6 +1,7 @@
 import { ConfirmButton } from '../../../components/confirm-button.tsx';
 import { useRemoveMember } from '../api/remove-member.ts';
 import type { Member } from '@shared/contract/members.ts';
+import { removeMemberQuestion } from '../messages.ts';
 
 /** An admin's "Remove" for one member, asked twice; the server's refusal is shown beside it. */
 export function RemoveMemberButton({ slug, member, onRemoved }: { slug: string; member: Member; onRemoved?: () => void }) {
@@ -9,7 +10,7 @@ export function RemoveMemberButton({ slug, member, onRemoved }: { slug: string; 
     <div>
       <ConfirmButton
         label="Remove"
-        question={`Remove ${member.name} from this lab?`}
+        question={removeMemberQuestion(member.name)}
         confirmLabel={`Remove ${member.name}`}
         pending={remove.isPending}
         onConfirm={() => remove.mutate(undefined, { onSuccess: () => onRemoved?.() })}

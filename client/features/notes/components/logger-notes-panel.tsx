@@ -2,6 +2,7 @@ import { LoadingNote, Notice } from '../../../components/notice.tsx';
 import { useLoggerNotes } from '../api/get-logger-notes.ts';
 import { useNoteKinds } from '../api/get-note-kinds.ts';
 import { NotesList } from './notes-list.tsx';
+import { NOTES_MESSAGES } from '../messages.ts';
 
 /** A logger's notes (on the whole logger and on each channel), for the logger page. */
 export function LoggerNotesPanel({ slug, loggerId, timezone, canEdit }: { slug: string; loggerId: number; timezone: string; canEdit: boolean }) {
@@ -27,7 +28,7 @@ export function LoggerNotesPanel({ slug, loggerId, timezone, canEdit }: { slug: 
             canEdit={canEdit}
             empty="No notes on this logger yet."
           />
-          {notes.data.truncated && <p className="text-xs text-ink-soft">Only the newest 2,000 notes are listed.</p>}
+          {notes.data.truncated && <p className="text-xs text-ink-soft">{NOTES_MESSAGES.newestOnly}</p>}
         </>
       )}
     </section>
