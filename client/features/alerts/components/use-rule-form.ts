@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import type { CreateAlertRuleInput } from '@shared/contract/alerts.ts';
-import { checkRuleForm, errorsFromServerMessage, type RuleFormState } from './rule-form-input.ts';
+import { ApiError } from '../../../lib/api-client.ts';
+import { checkRuleForm, errorsFromServerMessage, placeRuleErrors, type RuleFormState } from './rule-form-input.ts';
 
 /**
  * The state both rule forms (new and change) keep: the typed fields, the refusal per field, and
@@ -23,7 +24,12 @@ export function useRuleForm(initial: () => RuleFormState) {
     try {
       await send(checked.input);
     } catch (error) {
-      setErrors(errorsFromServerMessage((error as Error).message));
+      // the answer's refused fields by key when it names them; the old `key: reason` text otherwise
+      setErrors(
+        error instanceof ApiError && error.fields.length > 0
+          ? placeRuleErrors(error.fields.map((p) => ({ path: p.field === '' ? [] : p.field.split('.'), reason: p.reason })))
+          : errorsFromServerMessage((error as Error).message),
+      );
     }
   }
 
