@@ -1,0 +1,72 @@
+# Reference values for Lagbook's ARMA forecasts (forecastArma), computed with R's own
+# `stats::predict(arima(x, order, method = "ML"), n.ahead = h)` on datasets that ship with R and
+# a seeded `arima.sim` series. Writes tests/reference/fixtures/forecast-r.json with the input
+# series, the exact call behind every value, the fitted coefficients and sigma2 (so the
+# recursion can be checked on R's own parameters) and the R version, so the TypeScript tests run
+# without R.
+#
+# Run from the repository root:  Rscript --vanilla tests/reference/forecast.R
+
+out_file <- "tests/reference/fixtures/forecast-r.json"
+
+# --- JSON output, base R only: numbers with 17 significant digits, NA/NaN as null ------------
+to_json <- function(v) {
+  if (is.null(v)) return("null")
+  if (is.list(v)) {
+    inner <- vapply(v, to_json, character(1))
+    if (is.null(names(v))) return(paste0("[", paste(inner, collapse = ","), "]"))
+    return(paste0("{", paste0("\"", names(v), "\":", inner, collapse = ","), "}"))
+  }
+  if (is.character(v)) {
+    quoted <- paste0("\"", gsub("\"", "\\\\\"", gsub("\\\\", "\\\\\\\\", v)), "\"")
+    return(if (length(v) == 1L) quoted else paste0("[", paste(quoted, collapse = ","), "]"))
+  }
+  if (is.logical(v) && length(v) == 1L) return(if (is.na(v)) "null" else if (v) "true" else "false")
+  num <- ifelse(is.na(v) | is.nan(v), "null", sprintf("%.17g", as.numeric(v)))
+  paste0("[", paste(num, collapse = ","), "]")
+}
+
+series <- list(
+  lh = as.numeric(lh),
+  LakeHuron = as.numeric(LakeHuron),
+  Nile = as.numeric(Nile),
+  log10.lynx = as.numeric(log10(lynx)),
+  presidents = as.numeric(presidents)
+)
+set.seed(207)
+series$sim.arma21.500 <- as.numeric(arima.sim(model = list(ar = c(1.2, -0.4), ma = 0.5), n = 500)) + 10
+sim_call <- "set.seed(207); arima.sim(model = list(ar = c(1.2, -0.4), ma = 0.5), n = 500) + 10"
+
+H <- 24
+forecast_case <- function(name, p, q) {
+  x <- series[[name]]
+  fit <- suppressWarnings(arima(x, order = c(p, 0, q), method = "ML"))
+  pr <- predict(fit, n.ahead = H)
+  co <- coef(fit)
+  pick <- function(prefix, k) if (k == 0) numeric(0) else unname(co[paste0(prefix, seq_len(k))])
+  list(
+    series = name, p = p, q = q,
+    call = sprintf("predict(arima(x, order = c(%d, 0, %d), method = \"ML\"), n.ahead = %d)", p, q, H),
+    ar = pick("ar", p), ma = pick("ma", q), mean = unname(co["intercept"]), sigma2 = fit$sigma2,
+    loglik = fit$loglik, optimCode = fit$code,
+    pred = as.numeric(pr$pred), se = as.numeric(pr$se)
+  )
+}
+cases <- list(
+  forecast_case("lh", 1, 0), forecast_case("lh", 3, 0), forecast_case("lh", 1, 1),
+  forecast_case("LakeHuron", 2, 0), forecast_case("LakeHuron", 1, 1),
+  forecast_case("Nile", 1, 1),
+  forecast_case("log10.lynx", 2, 0),
+  forecast_case("presidents", 1, 0), forecast_case("presidents", 1, 1),
+  forecast_case("sim.arma21.500", 2, 1)
+)
+
+doc <- list(
+  generator = list(tool = R.version.string, script = "tests/reference/forecast.R", packages = "stats (arima, predict.Arima, arima.sim)"),
+  simulation = sim_call,
+  horizon = H,
+  series = series,
+  cases = cases
+)
+writeLines(to_json(doc), out_file)
+cat("wrote", out_file, "\n")
