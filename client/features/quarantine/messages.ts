@@ -54,6 +54,9 @@ export function resubmitSummary(o: { resubmitted: number; accepted: number; dupl
   return `Re-submitted ${rows(o.resubmitted)}: ${o.accepted} stored, ${o.duplicates} already stored, ${o.again} quarantined again.`;
 }
 
+/** A logger the rows name that is not in the lab's list any more (retired and hidden, or deleted): never its id. */
+export const UNLISTED_LOGGER = 'A logger no longer listed';
+
 /** The bulk repair form's own checks, before the server's schema. */
 export const BULK_DRAFT_MESSAGES = {
   hoursWhole: 'Hours: must be a whole number.',

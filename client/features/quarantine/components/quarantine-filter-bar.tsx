@@ -1,6 +1,7 @@
 import { SelectField, TextField } from '../../../components/form-field.tsx';
 import type { QuarantineFilters } from '../hooks/quarantine-search-params.ts';
 import { REASON_CODES, REASON_LABELS, type ReasonCode } from './reason-labels.ts';
+import { UNLISTED_LOGGER } from '../messages.ts';
 
 /**
  * Filters of the quarantine page: which logger, which reason, which channel name as received. A
@@ -24,7 +25,7 @@ export function QuarantineFilterBar({
         onChange={(e) => onChange({ ...filters, loggerId: e.target.value ? Number(e.target.value) : null, cursor: null })}
       >
         <option value="">Every logger</option>
-        {filters.loggerId && !loggers.some((l) => l.id === filters.loggerId) && <option value={filters.loggerId}>Logger #{filters.loggerId}</option>}
+        {filters.loggerId && !loggers.some((l) => l.id === filters.loggerId) && <option value={filters.loggerId}>{UNLISTED_LOGGER}</option>}
         {loggers.map((l) => (
           <option key={l.id} value={l.id}>
             {l.name}
