@@ -4,26 +4,34 @@ import { Instant } from '../../../components/clock/instant.tsx';
 import type { AuditEntry } from '@shared/contract/audit.ts';
 import { auditActionLabel } from './audit-action-labels.ts';
 
-function Details({ details }: { details: AuditEntry['details'] }) {
-  const pairs = Object.entries(details ?? {});
-  if (pairs.length === 0) return null;
+/**
+ * The entry as it was recorded, on demand: the raw action name, the summary written at the time
+ * (older entries may name the payment service's events) and the recorded details as JSON.
+ */
+function RecordedEvent({ entry }: { entry: AuditEntry }) {
   return (
     <details className="mt-1 text-xs text-ink-soft">
-      <summary className="cursor-pointer">Details</summary>
-      <dl className="mt-1 grid grid-cols-[auto_1fr] gap-x-3 font-mono">
-        {pairs.map(([key, value]) => (
-          <div key={key} className="contents">
-            <dt>{key}</dt>
-            <dd className="break-all">{typeof value === 'string' ? value : JSON.stringify(value)}</dd>
-          </div>
-        ))}
+      <summary className="cursor-pointer py-1">Show the recorded event</summary>
+      <dl className="mt-1 grid grid-cols-[auto_1fr] gap-x-3">
+        <dt>Action</dt>
+        <dd className="break-all font-mono">{entry.action}</dd>
+        <dt>Recorded as</dt>
+        <dd className="break-words">{entry.summary}</dd>
+        {entry.details && Object.keys(entry.details).length > 0 ? (
+          <>
+            <dt>Details</dt>
+            <dd>
+              <pre className="whitespace-pre-wrap break-all font-mono">{JSON.stringify(entry.details, null, 2)}</pre>
+            </dd>
+          </>
+        ) : null}
       </dl>
     </details>
   );
 }
 
 const COLUMNS: ColumnDef<AuditEntry>[] = [
-  { id: 'at', header: 'When', cell: ({ row }) => <Instant at={row.original.at} kind="account" /> },
+  { id: 'at', meta: { phone: 'value' }, header: 'When', cell: ({ row }) => <Instant at={row.original.at} kind="account" /> },
   {
     id: 'actor',
     header: 'Done by',
@@ -48,11 +56,12 @@ const COLUMNS: ColumnDef<AuditEntry>[] = [
   },
   {
     id: 'summary',
+    meta: { phone: 'title' },
     header: 'What happened',
     cell: ({ row }) => (
       <>
-        {row.original.summary}
-        <Details details={row.original.details} />
+        {row.original.sentence}
+        <RecordedEvent entry={row.original} />
       </>
     ),
   },

@@ -1,7 +1,6 @@
 import { useMemo, useState } from 'react';
 import { Link } from 'react-router-dom';
 import {
-  flexRender,
   getCoreRowModel,
   getPaginationRowModel,
   getSortedRowModel,
@@ -12,6 +11,7 @@ import {
 } from '@tanstack/react-table';
 import { paths } from '../../../app/paths.ts';
 import { Pager } from '../../../components/pager.tsx';
+import { TableView } from '../../../components/data-table.tsx';
 import type { ChannelOverviewRow, ChannelStatus } from '@shared/contract/channels.ts';
 import { ChannelValue } from './channel-value.tsx';
 import { LastReadingTime } from './last-reading-time.tsx';
@@ -44,16 +44,20 @@ export function ChannelsTable({ slug, rows, now, choice }: { slug: string; rows:
         header: 'Channel',
         accessorFn: (c) => c.label,
         sortingFn: 'text',
+        meta: { phone: 'title' },
         cell: ({ row }) => (
           <span className="inline-flex items-start gap-2">
             {choice && (
-              <input
-                type="checkbox"
-                className="mt-1 size-4 shrink-0 accent-lichen"
-                checked={choice.chosen.includes(row.original.id)}
-                onChange={(e) => choice.onChoose(row.original, e.target.checked)}
-                aria-label={`Choose ${row.original.logger.name} · ${row.original.label}`}
-              />
+              // the label is the checkbox's 44 px touch target on a phone (client/styles.css)
+              <label className="shrink-0 justify-center max-sm:-my-3">
+                <input
+                  type="checkbox"
+                  className="mt-1 size-4 shrink-0 accent-lichen max-sm:mt-0"
+                  checked={choice.chosen.includes(row.original.id)}
+                  onChange={(e) => choice.onChoose(row.original, e.target.checked)}
+                  aria-label={`Choose ${row.original.logger.name} · ${row.original.label}`}
+                />
+              </label>
             )}
             <span className="inline-flex flex-col">
               <Link to={paths.labChannel.href(slug, row.original.id)} className="font-medium text-lichen-dark underline-offset-2 hover:underline">
@@ -71,12 +75,14 @@ export function ChannelsTable({ slug, rows, now, choice }: { slug: string; rows:
         id: 'value',
         header: 'Last value',
         accessorFn: (c) => c.lastReading?.value ?? -Infinity,
+        meta: { phone: 'value' },
         cell: ({ row }) => <ChannelValue value={row.original.lastReading?.value} unit={row.original.unit} />,
       },
       {
         id: 'lastReading',
         header: 'Last reading',
         accessorFn: (c) => c.lastReading?.ts ?? -1,
+        meta: { phone: 'value' },
         cell: ({ row }) => <LastReadingTime reading={row.original.lastReading} timezone={row.original.logger.timezone} now={now} />,
       },
       {
@@ -84,12 +90,14 @@ export function ChannelsTable({ slug, rows, now, choice }: { slug: string; rows:
         header: 'Status',
         accessorFn: (c) => STATUS_ORDER[c.status],
         sortDescFirst: false,
+        meta: { phone: 'status' },
         cell: ({ row }) => <StatusBadge status={row.original.status} />,
       },
       {
         id: 'spark',
         header: 'Last 24 h',
         enableSorting: false,
+        meta: { phone: 'hidden' },
         cell: ({ row }) => <Sparkline means={row.original.sparkline.means} unit={row.original.unit} />,
       },
     ],
@@ -110,61 +118,7 @@ export function ChannelsTable({ slug, rows, now, choice }: { slug: string; rows:
 
   return (
     <div className="grid gap-3">
-      <div className="overflow-x-auto rounded-xl border border-rule bg-card">
-        <table className="w-full border-collapse text-left text-sm">
-          <caption className="sr-only">Channels of the lab</caption>
-          <thead className="border-b border-rule bg-paper/60 text-xs uppercase tracking-wide text-ink-soft">
-            <tr>
-              {table.getFlatHeaders().map((header) => {
-                const sorted = header.column.getIsSorted();
-                const text = flexRender(header.column.columnDef.header, header.getContext());
-                const canSort = header.column.getCanSort();
-                return (
-                  <th
-                    key={header.id}
-                    scope="col"
-                    className="px-3 py-2.5 font-semibold"
-                    aria-sort={canSort ? (sorted ? (sorted === 'asc' ? 'ascending' : 'descending') : 'none') : undefined}
-                  >
-                    {canSort ? (
-                      <button
-                        type="button"
-                        onClick={header.column.getToggleSortingHandler()}
-                        className="inline-flex items-center gap-1 rounded uppercase tracking-wide hover:text-ink"
-                      >
-                        {text}
-                        <span aria-hidden="true" className="font-mono text-amber">
-                          {sorted === 'asc' ? '↑' : sorted === 'desc' ? '↓' : '·'}
-                        </span>
-                      </button>
-                    ) : (
-                      text
-                    )}
-                  </th>
-                );
-              })}
-            </tr>
-          </thead>
-          <tbody>
-            {table.getRowModel().rows.map((row) => (
-              <tr key={row.id} className="border-b border-rule/70 align-top last:border-b-0" data-status={row.original.status}>
-                {row.getVisibleCells().map((cell) => (
-                  <td key={cell.id} className="px-3 py-2.5">
-                    {flexRender(cell.column.columnDef.cell, cell.getContext())}
-                  </td>
-                ))}
-              </tr>
-            ))}
-            {rows.length === 0 && (
-              <tr>
-                <td colSpan={columns.length} className="px-4 py-6 text-center text-ink-soft">
-                  No channel matches.
-                </td>
-              </tr>
-            )}
-          </tbody>
-        </table>
-      </div>
+      <TableView table={table} caption="Channels of the lab" empty="No channel matches." rowAttributes={(row) => ({ 'data-status': row.original.status })} />
       {rows.length > CHANNELS_PAGE_SIZE && (
         <Pager
           label="Channel pages"

@@ -8,9 +8,10 @@ import { InvitationActions } from './invitation-actions.tsx';
 
 function columnsFor(slug: string): ColumnDef<PendingInvitation>[] {
   return [
-    { id: 'email', header: 'E-mail', accessorFn: (i) => i.email, sortingFn: 'text' },
+    { id: 'email', meta: { phone: 'title' }, header: 'E-mail', accessorFn: (i) => i.email, sortingFn: 'text' },
     {
       id: 'role',
+      meta: { phone: 'status' },
       header: 'Role',
       accessorFn: (i) => ROLES.indexOf(i.role),
       sortDescFirst: false,
@@ -19,6 +20,7 @@ function columnsFor(slug: string): ColumnDef<PendingInvitation>[] {
     { id: 'invitedBy', header: 'Invited by', accessorFn: (i) => i.invitedBy?.name ?? '—', sortingFn: 'text' },
     {
       id: 'lastSentAt',
+      meta: { phone: 'value' },
       header: 'Last sent',
       accessorFn: (i) => Date.parse(i.lastSentAt),
       cell: ({ row }) => <Instant at={row.original.lastSentAt} kind="account" />,

@@ -34,8 +34,8 @@ export function ChannelsTable({ slug, loggerId, channels, canManage }: { slug: s
   const columns = useMemo<ColumnDef<Channel>[]>(() => {
     const base: ColumnDef<Channel>[] = [
       { id: 'key', header: 'Key', accessorFn: (c) => c.key, sortingFn: 'text', cell: ({ row }) => <span className="font-mono">{row.original.key}</span> },
-      { id: 'label', header: 'Label', accessorFn: (c) => c.label, sortingFn: 'text' },
-      { id: 'unit', header: 'Unit', accessorFn: (c) => c.unit ?? '', cell: ({ row }) => row.original.unit || '—' },
+      { id: 'label', meta: { phone: 'title' }, header: 'Label', accessorFn: (c) => c.label, sortingFn: 'text' },
+      { id: 'unit', meta: { phone: 'value' }, header: 'Unit', accessorFn: (c) => c.unit ?? '', cell: ({ row }) => row.original.unit || '—' },
       { id: 'quantity', header: 'Quantity', accessorFn: (c) => c.quantity ?? '', cell: ({ row }) => row.original.quantity || '—' },
       { id: 'range', header: 'Valid range', enableSorting: false, cell: ({ row }) => <span className="font-mono">{range(row.original)}</span> },
       {
@@ -45,7 +45,13 @@ export function ChannelsTable({ slug, loggerId, channels, canManage }: { slug: s
         cell: ({ row }) => (row.original.expectedIntervalS ? formatInterval(row.original.expectedIntervalS) : 'logger’s'),
       },
       { id: 'season', header: 'Period hint', accessorFn: (c) => c.seasonalPeriodHint ?? 0, cell: ({ row }) => row.original.seasonalPeriodHint ?? '—' },
-      { id: 'status', header: 'Status', accessorFn: (c) => (c.retiredAt ? 1 : 0), cell: ({ row }) => (row.original.retiredAt ? 'retired' : 'active') },
+      {
+        id: 'status',
+        meta: { phone: 'status' },
+        header: 'Status',
+        accessorFn: (c) => (c.retiredAt ? 1 : 0),
+        cell: ({ row }) => (row.original.retiredAt ? 'retired' : 'active'),
+      },
     ];
     if (!canManage) return base;
     return [

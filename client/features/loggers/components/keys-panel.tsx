@@ -50,6 +50,7 @@ export function KeysPanel({
     () => [
       {
         id: 'prefix',
+        meta: { phone: 'title' },
         header: 'Key',
         accessorFn: (k) => k.prefix,
         sortingFn: 'text',
@@ -63,12 +64,14 @@ export function KeysPanel({
       },
       {
         id: 'lastUsed',
+        meta: { phone: 'value' },
         header: 'Last used',
         accessorFn: (k) => (k.lastUsedAt ? Date.parse(k.lastUsedAt) : -1),
         cell: ({ row }) => <Instant at={row.original.lastUsedAt} kind="account" relative />,
       },
       {
         id: 'revoked',
+        meta: { phone: 'status' },
         header: 'Revoked',
         accessorFn: (k) => (k.revokedAt ? Date.parse(k.revokedAt) : 0),
         cell: ({ row }) => (row.original.revokedAt ? <Instant at={row.original.revokedAt} kind="account" /> : <span className="text-lichen-dark">active</span>),

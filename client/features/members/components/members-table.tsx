@@ -29,6 +29,7 @@ export function MembersTable({
     const base: ColumnDef<Member>[] = [
       {
         id: 'name',
+        meta: { phone: 'title' },
         header: 'Name',
         accessorFn: (m) => m.name,
         sortingFn: 'text',
@@ -42,6 +43,7 @@ export function MembersTable({
       { id: 'email', header: 'E-mail', accessorFn: (m) => m.email, sortingFn: 'text' },
       {
         id: 'role',
+        meta: { phone: 'status' },
         header: 'Role',
         accessorFn: (m) => ROLES.indexOf(m.role),
         sortDescFirst: false,

@@ -53,27 +53,34 @@ export function QuarantineTable({
     return [
       {
         id: 'select',
+        meta: { phone: 'status' },
+        // each checkbox inside a label: on a phone the label is the 44 px touch target (client/styles.css)
         header: () => (
-          <input
-            type="checkbox"
-            aria-label="Select every row on this page"
-            checked={all}
-            onChange={(e) => onSelect(e.target.checked ? new Set(rows.map((r) => r.id)) : new Set())}
-            className="h-4 w-4 accent-lichen"
-          />
+          <label className="justify-center">
+            <input
+              type="checkbox"
+              aria-label="Select every row on this page"
+              checked={all}
+              onChange={(e) => onSelect(e.target.checked ? new Set(rows.map((r) => r.id)) : new Set())}
+              className="h-4 w-4 accent-lichen"
+            />
+          </label>
         ),
         cell: ({ row }) => (
-          <input
-            type="checkbox"
-            aria-label={`Select row ${row.original.id}`}
-            checked={selected.has(row.original.id)}
-            onChange={(e) => toggle(row.original.id, e.target.checked)}
-            className="h-4 w-4 accent-lichen"
-          />
+          <label className="justify-center">
+            <input
+              type="checkbox"
+              aria-label={`Select row ${row.original.id}`}
+              checked={selected.has(row.original.id)}
+              onChange={(e) => toggle(row.original.id, e.target.checked)}
+              className="h-4 w-4 accent-lichen"
+            />
+          </label>
         ),
       },
       {
         id: 'reason',
+        meta: { phone: 'title' },
         header: 'Reason',
         cell: ({ row }) => (
           <span className="grid gap-0.5">
@@ -88,8 +95,8 @@ export function QuarantineTable({
         cell: ({ row }) => (row.original.loggerId === null ? '—' : (loggerNames.get(row.original.loggerId) ?? `#${row.original.loggerId}`)),
       },
       { id: 'channel', header: 'Channel', cell: ({ row }) => mono(row.original.channel) },
-      { id: 'ts', header: 'Time', cell: ({ row }) => mono(row.original.ts) },
-      { id: 'value', header: 'Value', cell: ({ row }) => mono(row.original.value) },
+      { id: 'ts', meta: { phone: 'value' }, header: 'Time', cell: ({ row }) => mono(row.original.ts) },
+      { id: 'value', meta: { phone: 'value' }, header: 'Value', cell: ({ row }) => mono(row.original.value) },
       { id: 'raw', header: 'As received', cell: ({ row }) => mono(row.original.raw) },
       { id: 'received', header: 'Received', cell: ({ row }) => <Instant at={row.original.receivedAt} kind="readings" /> },
       { id: 'fix', header: 'Fix', cell: ({ row }) => <FixCell row={row.original} pending={pending} onResubmit={onResubmit} /> },

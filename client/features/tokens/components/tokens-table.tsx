@@ -33,7 +33,7 @@ function RevokeTokenButton({ slug, token }: { slug: string; token: PersonalToken
 export function TokensTable({ slug, tokens }: { slug: string; tokens: PersonalToken[] }) {
   const columns = useMemo<ColumnDef<PersonalToken>[]>(
     () => [
-      { id: 'name', header: 'Name', accessorFn: (t) => t.name, sortingFn: 'text' },
+      { id: 'name', meta: { phone: 'title' }, header: 'Name', accessorFn: (t) => t.name, sortingFn: 'text' },
       {
         id: 'prefix',
         header: 'Token',
@@ -50,12 +50,14 @@ export function TokensTable({ slug, tokens }: { slug: string; tokens: PersonalTo
       },
       {
         id: 'lastUsed',
+        meta: { phone: 'value' },
         header: 'Last used',
         accessorFn: (t) => (t.lastUsedAt ? Date.parse(t.lastUsedAt) : -1),
         cell: ({ row }) => <Instant at={row.original.lastUsedAt} kind="account" relative />,
       },
       {
         id: 'state',
+        meta: { phone: 'status' },
         header: 'State',
         accessorFn: (t) => tokenState(t),
         cell: ({ row }) => {
