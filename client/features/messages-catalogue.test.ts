@@ -30,6 +30,7 @@ const SAMPLES: Record<string, unknown[][]> = {
   'members.removeMemberQuestion': [['Odalys Brennick']],
   'members.leaveLabQuestion': [['Fernhollow Field Station']],
   'notes.lastChangedBy': [['Odalys Brennick']],
+  'channels.tooManyTogether': [[6, 'Lower terrace · Berry temperature']],
   'billing.planConfirmed': [
     ['Transect', 'payment'],
     ['Transect', 'switch'],

@@ -125,7 +125,7 @@ describe('choosing channels to open together', () => {
     expect(screen.getByTestId('chosen-count').textContent).toBe('6 of 6 chosen');
     tick('Lower terrace · Berry temperature');
     expect(screen.getByRole('alert').textContent).toBe(
-      'One chart takes at most 6 channels: Lower terrace · Berry temperature was not added. Untick one of the six to choose it instead.',
+      'One chart takes at most 6 channels: Lower terrace · Berry temperature was not added. Untick one of the 6 to choose it instead.',
     );
     expect((screen.getByRole('checkbox', { name: 'Choose Lower terrace · Berry temperature' }) as HTMLInputElement).checked).toBe(false);
     expect(screen.getByRole('link', { name: 'Open together' }).getAttribute('href')).toBe('/labs/vines/channels/together?channels=21,22,23,24,25,26');

@@ -8,6 +8,7 @@ import { filterChannels, readChannelFilter } from './channel-filter.ts';
 import { ChannelsTable, type ChannelChoice } from './channels-table.tsx';
 import { STATUS_LOOKS, StatusLegend } from './status-badge.tsx';
 import { MAX_TOGETHER } from './together-url.ts';
+import { tooManyTogether } from '../messages.ts';
 
 /**
  * The channels overview: filters (text, status, logger) kept in the page's query string so a
@@ -39,8 +40,7 @@ export function ChannelsOverview({ slug, rows, now }: { slug: string; rows: Chan
           setRefused(null);
           return setChosen(chosen.filter((id) => id !== row.id));
         }
-        if (chosen.length >= MAX_TOGETHER)
-          return setRefused(`One chart takes at most ${MAX_TOGETHER} channels: ${name} was not added. Untick one of the six to choose it instead.`);
+        if (chosen.length >= MAX_TOGETHER) return setRefused(tooManyTogether(MAX_TOGETHER, name));
         setRefused(null);
         if (!chosen.includes(row.id)) setChosen([...chosen, row.id]);
       },
