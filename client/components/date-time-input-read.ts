@@ -4,7 +4,7 @@
  * the forms keep). Every refusal and notice is written for the person at the logger, in one
  * catalogue below so the wording is reviewed in one place.
  */
-import { formatOffset, formatZoned } from './zoned-time.ts';
+import { formatOffset, formatZoned } from './clock/format.ts';
 import { instantAtWallClock } from './date-time-input-wall-clock.ts';
 
 /** Every message the date-time input can show. */

@@ -4,7 +4,7 @@
  * the clocks skip when they go forward). Shared by the date-time input (to say so) and the chart
  * time axis (to place ticks at local midnights and whole hours).
  */
-import { zoneOffsetMinutes } from './zoned-time.ts';
+import { zoneOffsetMinutes } from './clock/format.ts';
 
 const MINUTE = 60_000;
 const DAY = 86_400_000;

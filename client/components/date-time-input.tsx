@@ -1,5 +1,5 @@
 import { useId, useLayoutEffect, useRef, useState, type ChangeEvent, type KeyboardEvent } from 'react';
-import { zoneOffsetLabel } from './zoned-time.ts';
+import { zoneCaption } from './clock/format.ts';
 import { dateText, readDate, readDateTime, readDay, readTime, splitDateTime, timeText } from './date-time-input-read.ts';
 
 // 24-hour, ISO-like text fields of Lagbook's own: never the browser's date pickers, whose format
@@ -100,7 +100,7 @@ export function DateTimeInput({
   const problem = error ?? (touched && !reading.ok ? reading.problem : undefined);
   const badPart = error ? null : !reading.ok && touched ? reading.part : null;
   const notice = reading.ok ? reading.notice : null;
-  const zone = `${timeZone} (${zoneOffsetLabel(reading.ok ? reading.ms : Date.now(), timeZone)})`;
+  const zone = zoneCaption(reading.ok ? reading.ms : Date.now(), timeZone);
   const describedBy = [`${id}-zone`, hint ? `${id}-hint` : null, problem ? `${id}-error` : null, notice ? `${id}-notice` : null].filter(Boolean).join(' ');
   const setDate = (d: string) => onChange(`${d}T${time}`);
   const setTime = (t: string) => onChange(`${date}T${t}`);

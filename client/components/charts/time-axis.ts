@@ -6,7 +6,7 @@
  * of 23 or 25 hours on a daylight-saving change still gets its tick at 00:00 local, and hour
  * ticks follow the wall clock (a skipped hour is left out, a repeated one drawn once).
  */
-import { formatZoned } from '../zoned-time.ts';
+import { formatZoned } from '../clock/format.ts';
 import { instantAtWallClock, wallClockAt } from '../date-time-input-wall-clock.ts';
 import { PALETTE } from './zoom-slider.ts';
 

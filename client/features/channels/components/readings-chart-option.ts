@@ -1,5 +1,5 @@
 import type { EChartsCoreOption } from 'echarts/core';
-import { formatZoned, zoneOffsetLabel } from '../../../components/zoned-time.ts';
+import { formatZoned, zoneOffsetLabel } from '../../../components/clock/format.ts';
 import type { Series, TimeRange } from '@shared/contract/channels.ts';
 import { zoomSlider } from '../../../components/charts/zoom-slider.ts';
 import { timeLabel, zonedTimeAxis } from '../../../components/charts/time-axis.ts';

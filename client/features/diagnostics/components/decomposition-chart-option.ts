@@ -1,5 +1,5 @@
 import type { EChartsCoreOption } from 'echarts/core';
-import { formatZoned } from '../../../components/zoned-time.ts';
+import { formatZoned } from '../../../components/clock/format.ts';
 import { zonedTimeAxis } from '../../../components/charts/time-axis.ts';
 import type { Decomposition } from '@shared/contract/diagnostics.ts';
 

@@ -1,6 +1,6 @@
 import { useState, type FormEvent } from 'react';
 import { SelectField, TextField } from '../../../components/form-field.tsx';
-import { toZonedInput } from '../../../components/zoned-time.ts';
+import { toZonedInput } from '../../../components/clock/format.ts';
 import { DateTimeInput } from '../../../components/date-time-input.tsx';
 import { readDateTime } from '../../../components/date-time-input-read.ts';
 import type { DiagnosticsParams } from '@shared/contract/diagnostics.ts';

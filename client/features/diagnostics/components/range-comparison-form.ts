@@ -1,4 +1,4 @@
-import { toZonedInput } from '../../../components/zoned-time.ts';
+import { toZonedInput } from '../../../components/clock/format.ts';
 import { readDateTime } from '../../../components/date-time-input-read.ts';
 import type { ComparisonParams } from '@shared/contract/diagnostics.ts';
 import type { DiagnosticsParams } from '@shared/contract/diagnostics.ts';

@@ -4,7 +4,7 @@ import { Button } from '../../../components/button.tsx';
 import { SelectField, TextField } from '../../../components/form-field.tsx';
 import { Notice } from '../../../components/notice.tsx';
 import { fieldFromServerError } from '../../../components/server-field-error.ts';
-import { toZonedInput } from '../../../components/zoned-time.ts';
+import { toZonedInput } from '../../../components/clock/format.ts';
 import { DateTimeInput } from '../../../components/date-time-input.tsx';
 import { readDateTime } from '../../../components/date-time-input-read.ts';
 
