@@ -31,6 +31,7 @@ const SAMPLES: Record<string, unknown[][]> = {
   'members.leaveLabQuestion': [['Fernhollow Field Station']],
   'notes.lastChangedBy': [['Odalys Brennick']],
   'channels.tooManyTogether': [[6, 'Lower terrace · Berry temperature']],
+  'tokens.revokeTokenQuestion': [['Soil notebook']],
   'billing.planConfirmed': [
     ['Transect', 'payment'],
     ['Transect', 'switch'],

@@ -100,7 +100,7 @@ describe('personal tokens page', () => {
     fireEvent.change(screen.getByLabelText('Expires after (days)'), { target: { value: '400' } });
     fireEvent.click(screen.getByRole('button', { name: 'Make token' }));
     expect(await screen.findByText('must not be empty')).toBeTruthy();
-    expect(screen.getByText('must be at most 365')).toBeTruthy();
+    expect(screen.getByText('must be at most 365 days')).toBeTruthy();
     expect(api.requests.filter((r) => r.method === 'POST')).toHaveLength(0);
   });
 

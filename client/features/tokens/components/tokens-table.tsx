@@ -5,6 +5,7 @@ import { DataTable } from '../../../components/data-table.tsx';
 import { Instant } from '../../../components/clock/instant.tsx';
 import type { PersonalToken } from '@shared/contract/tokens.ts';
 import { useRevokeToken } from '../api/revoke-token.ts';
+import { revokeTokenQuestion, TOKENS_MESSAGES } from '../messages.ts';
 
 /** A token as people recognise it: the public part of `lbt_<prefix>_<secret>`, secret elided. */
 const shownToken = (prefix: string) => `lbt_${prefix}_…`;
@@ -20,7 +21,7 @@ function RevokeTokenButton({ slug, token }: { slug: string; token: PersonalToken
   return (
     <ConfirmAction
       label="Revoke"
-      question={`Revoke “${token.name}”? Scripts using it are refused from now on.`}
+      question={revokeTokenQuestion(token.name)}
       confirmLabel={`Revoke ${shownToken(token.prefix)}`}
       pending={revoke.isPending}
       onConfirm={() => revoke.mutate()}
@@ -87,7 +88,7 @@ export function TokensTable({ slug, tokens }: { slug: string; tokens: PersonalTo
       data={tokens}
       getRowId={(t) => String(t.id)}
       initialSorting={[{ id: 'created', desc: true }]}
-      empty="No tokens yet: make one for a notebook or a script."
+      empty={TOKENS_MESSAGES.none}
     />
   );
 }
