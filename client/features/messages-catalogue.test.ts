@@ -32,6 +32,7 @@ const SAMPLES: Record<string, unknown[][]> = {
   'notes.lastChangedBy': [['Odalys Brennick']],
   'channels.tooManyTogether': [[6, 'Lower terrace · Berry temperature']],
   'tokens.revokeTokenQuestion': [['Soil notebook']],
+  'audit.auditActionLabel': [['lab.created'], ['payment.some-event-this-client-does-not-know']],
   'billing.planConfirmed': [
     ['Transect', 'payment'],
     ['Transect', 'switch'],
