@@ -39,8 +39,36 @@ export interface ArmaForecast {
  */
 export function forecastArma(x: Series, model: ArmaModel, h: number): ArmaForecast {
   const fn = 'forecastArma';
-  assertSeries(x, fn);
   if (!(Number.isInteger(h) && h >= 1)) throw new AnalysisInputError(`${fn}: h must be a whole number of steps, at least 1 (got ${h})`);
+  const state = armaFilteredState(x, model, fn);
+  const mean = new Float64Array(h);
+  const se = new Float64Array(h);
+  for (let k = 0; k < h; k++) {
+    state.advance();
+    mean[k] = model.mean + state.a[0];
+    se[k] = Math.sqrt(Math.max(0, model.sigma2 * state.P[0]));
+  }
+  return { mean, se };
+}
+
+/**
+ * The state of the ARMA model after filtering the whole series (see {@link forecastArma}):
+ * the filtered state `a` and its covariance `P` (in units of σ², row-major r × r), the
+ * state-space matrices, and `advance()`, which projects the state one step (a ← T a,
+ * P ← T P T′ + R R′) in place. Shared by the forecasts and the crossing chance.
+ */
+export interface ArmaFilteredState {
+  r: number;
+  phi: Float64Array;
+  loading: Float64Array;
+  a: Float64Array;
+  P: Float64Array;
+  advance(): void;
+}
+
+/** Filters `x` through the model's state-space form; `fn` names the caller in errors. */
+export function armaFilteredState(x: Series, model: ArmaModel, fn = 'armaFilteredState'): ArmaFilteredState {
+  assertSeries(x, fn);
   if (!(Number.isFinite(model.sigma2) && model.sigma2 >= 0)) throw new AnalysisInputError(`${fn}: sigma2 must be a finite variance (got ${model.sigma2})`);
   if (!Number.isFinite(model.mean)) throw new AnalysisInputError(`${fn}: mean must be finite (got ${model.mean})`);
   const p = model.ar.length;
@@ -52,16 +80,16 @@ export function forecastArma(x: Series, model: ArmaModel, h: number): ArmaForeca
   loading[0] = 1;
   for (let j = 0; j < q; j++) loading[j + 1] = model.ma[j];
 
-  let P = new Float64Array(r * r);
+  const P = new Float64Array(r * r);
   if (!armaStationaryCovariance(phi, loading.subarray(1), r, P, new Float64Array(r * r * r * r))) {
     throw new AnalysisInputError(`${fn}: the AR part has a root on the unit circle; the model is not stationary`);
   }
-  let a = new Float64Array(r);
-  let aNext = new Float64Array(r);
-  let PNext = new Float64Array(r * r);
+  const a = new Float64Array(r);
+  const aNext = new Float64Array(r);
+  const PNext = new Float64Array(r * r);
 
-  /** aNext = T a; PNext = T P T′ + R R′ (T: φ in column 0, ones on the superdiagonal). */
-  const predict = () => {
+  /** a ← T a; P ← T P T′ + R R′ (T: φ in column 0, ones on the superdiagonal), in place. */
+  const advance = () => {
     for (let i = 0; i < r; i++) aNext[i] = phi[i] * a[0] + (i + 1 < r ? a[i + 1] : 0);
     for (let i = 0; i < r; i++) {
       for (let j = 0; j < r; j++) {
@@ -73,35 +101,23 @@ export function forecastArma(x: Series, model: ArmaModel, h: number): ArmaForeca
         PNext[i * r + j] = v + loading[i] * loading[j];
       }
     }
+    a.set(aNext);
+    P.set(PNext);
   };
 
-  const n = x.length;
-  for (let t = 0; t < n; t++) {
+  const gain = new Float64Array(r);
+  for (let t = 0; t < x.length; t++) {
     // The first state is the stationary one: the filter starts from a = 0, P = P0 at t = 0.
-    if (t > 0) {
-      predict();
-      [a, aNext] = [aNext, a];
-      [P, PNext] = [PNext, P];
-    }
+    if (t > 0) advance();
     const obs = x[t];
     if (obs !== obs) continue;
     const f = P[0];
     if (!(f > 0)) continue;
     const v = obs - model.mean - a[0];
     // Update with gain P Z′ / F, Z = (1, 0, …, 0).
-    const gain = Float64Array.from({ length: r }, (_, i) => P[i * r]);
+    for (let i = 0; i < r; i++) gain[i] = P[i * r];
     for (let i = 0; i < r; i++) a[i] += (gain[i] * v) / f;
     for (let i = 0; i < r; i++) for (let j = 0; j < r; j++) P[i * r + j] -= (gain[i] * gain[j]) / f;
   }
-
-  const mean = new Float64Array(h);
-  const se = new Float64Array(h);
-  for (let k = 0; k < h; k++) {
-    predict();
-    [a, aNext] = [aNext, a];
-    [P, PNext] = [PNext, P];
-    mean[k] = model.mean + a[0];
-    se[k] = Math.sqrt(Math.max(0, model.sigma2 * P[0]));
-  }
-  return { mean, se };
+  return { r, phi, loading, a, P, advance };
 }

@@ -5,14 +5,18 @@
  * (series, exact calls, R's coefficients and σ², its forecasts and standard errors, R version)
  * is written by forecast.R in this folder.
  *
- * Two checks: the recursion on R's own parameters (forecasts and standard errors to 1e-12
+ * The chance of crossing a limit within a horizon (armaCrossingChance) is checked against R's own
+ * simulated future paths (forecast 8.20 `simulate(fit, nsim = h, future = TRUE)`, 20,000 each)
+ * and, at one step, against the exact normal tail (`pnorm`).
+ *
+ * Two checks of the forecasts: the recursion on R's own parameters (forecasts and standard errors to 1e-12
  * relative; measured ≤ 8.2e-16 when written), and the whole path as the product runs it — our
  * own fit (fitArma) then our forecast — against R's forecasts, to the accuracy the two fits
  * agree (measured when written: forecasts within 1.0e-4 of R's one-step standard error, standard
  * errors within 3.7e-5 relative, over the ten cases and 24 steps).
  */
 import { describe, expect, it } from 'vitest';
-import { fitArma, forecastArma } from '../../server/analysis/index.ts';
+import { armaCrossingChance, fitArma, forecastArma } from '../../server/analysis/index.ts';
 import { loadReferenceFixture } from './reference-fixture.ts';
 
 const R = loadReferenceFixture('forecast-r.json');
@@ -59,6 +63,41 @@ describe('fitArma then forecastArma, against R’s fit and forecast', () => {
       }
     });
   }
+});
+
+describe('armaCrossingChance against R’s simulated future paths (forecast 8.20 simulate.Arima, future = TRUE)', () => {
+  // R's share is from 20,000 paths, ours from 20,000 (seed 1); both are Monte Carlo estimates, so
+  // they must agree within 4 combined standard errors (common practice for a simulation check).
+  // AR models only: R conditions their paths on the last p values, exactly as the filter does.
+  for (const c of R.crossings) {
+    it(`${c.series} AR(${one(c.p)}): chance of passing ${c.side === 'above' ? 'above' : 'below'} ${one(c.limit)} within ${one(c.steps)} steps`, () => {
+      const model = { ar: c.ar as number[], ma: [], mean: one(c.mean), sigma2: one(c.sigma2) };
+      const ours = armaCrossingChance(seriesOf(c.series), model, { limit: one(c.limit), side: c.side, steps: one(c.steps), draws: 20_000 });
+      const theirs = one(c.chance);
+      const se = Math.sqrt((theirs * (1 - theirs)) / one(c.draws) + ours.standardError ** 2);
+      expect(Math.abs(ours.chance - theirs)).toBeLessThan(4 * se);
+      // The chance within the horizon is never below the exact chance of crossing at its first step (R's pnorm of the one-step forecast).
+      expect(ours.chance).toBeGreaterThanOrEqual(one(c.oneStepExact) - 4 * ours.standardError);
+    });
+  }
+
+  it('one step ahead equals the normal tail of the one-step forecast (R pnorm), within Monte Carlo error', () => {
+    const c = R.crossings.find((k: { steps: number[] }) => one(k.steps) === 1);
+    const model = { ar: c.ar as number[], ma: [], mean: one(c.mean), sigma2: one(c.sigma2) };
+    const ours = armaCrossingChance(seriesOf(c.series), model, { limit: one(c.limit), side: c.side, steps: 1, draws: 200_000 });
+    expect(Math.abs(ours.chance - one(c.oneStepExact))).toBeLessThan(4 * ours.standardError);
+    expect(ours.medianFirstStep).toBe(1);
+  });
+
+  it('is repeatable for a seed, and refuses a horizon, side or number of paths it cannot use', () => {
+    const x = seriesOf('lh');
+    const model = { ar: [0.5], ma: [], mean: 2.4, sigma2: 0.2 };
+    const options = { limit: 3, side: 'above' as const, steps: 5 };
+    expect(armaCrossingChance(x, model, options)).toEqual(armaCrossingChance(x, model, options));
+    expect(() => armaCrossingChance(x, model, { ...options, steps: 0 })).toThrow('armaCrossingChance: steps must be a whole number from 1 to 10000 (got 0)');
+    expect(() => armaCrossingChance(x, model, { ...options, draws: 10 })).toThrow('draws must be a whole number from 500 to 200000');
+    expect(() => armaCrossingChance(x, model, { ...options, side: 'sideways' as 'above' })).toThrow("side must be 'above' or 'below'");
+  });
 });
 
 describe('forecastArma', () => {
