@@ -4,6 +4,7 @@ import { cleanup, fireEvent, render, screen } from '@testing-library/react';
 import { DateInput, DateTimeInput, stepDate, stepTime } from './date-time-input.tsx';
 import { readDateTime, readDay } from './date-time-input-read.ts';
 import { instantAtWallClock } from './date-time-input-wall-clock.ts';
+import { monthWeeks } from './date-time-input-month.tsx';
 
 // Check instants: the IANA time zone database as Python 3.11's zoneinfo reads it (`/usr/bin/python3`,
 // `datetime(…, tzinfo=ZoneInfo(zone), fold=0).astimezone(timezone.utc)`); Europe/Berlin changes at 01:00 UTC
@@ -184,6 +185,53 @@ describe('DateTimeInput', () => {
   });
 });
 
+describe('picking a day from a month', () => {
+  it('lays a month out in whole ISO weeks from Monday', () => {
+    // Python's calendar.Calendar(firstweekday=0).monthdatescalendar (`/usr/bin/python3`, 3.11): December 2026
+    // runs in 5 weeks from 2026-11-30 to 2027-01-03, February 2026 in 5 from 2026-01-26, March 2026 in 6 to 2026-04-05
+    const december = monthWeeks('2026-12-15');
+    expect([december.length, december[0][0], december.at(-1)![6]]).toEqual([5, '2026-11-30', '2027-01-03']);
+    const february = monthWeeks('2026-02-01');
+    expect([february.length, february[0][0], february.at(-1)![6]]).toEqual([5, '2026-01-26', '2026-03-01']);
+    const march = monthWeeks('2026-03-31');
+    expect([march.length, march[0][0], march.at(-1)![6]]).toEqual([6, '2026-02-23', '2026-04-05']);
+    expect(december.every((w) => w.length === 7)).toBe(true);
+  });
+
+  it('opens on the typed day, picks a tapped day and gives the focus back to the date field', () => {
+    render(<Harness initial="2026-12-03T14:00" />);
+    const toggle = screen.getByRole('button', { name: 'Pick the day from a month' });
+    expect(toggle.getAttribute('aria-expanded')).toBe('false');
+    fireEvent.click(toggle);
+    const month = screen.getByRole('group', { name: 'From: pick a day' });
+    expect(month.textContent).toContain('2026-12');
+    expect(screen.getByRole('button', { name: '2026-12-03' }).getAttribute('aria-pressed')).toBe('true');
+    fireEvent.click(screen.getByRole('button', { name: '2026-12-24' }));
+    expect(screen.getByTestId('value').textContent).toBe('2026-12-24T14:00');
+    expect(screen.queryByRole('group', { name: 'From: pick a day' })).toBeNull();
+    expect(document.activeElement).toBe(screen.getByLabelText('From date'));
+  });
+
+  it('moves by day, week and month from the keyboard, and Escape closes it', () => {
+    render(<Harness initial="2026-01-31T08:00" />);
+    fireEvent.click(screen.getByRole('button', { name: 'Pick the day from a month' }));
+    const month = screen.getByRole('group', { name: 'From: pick a day' });
+    const day = (d: string) => screen.getByRole('button', { name: d });
+    fireEvent.keyDown(day('2026-01-31'), { key: 'ArrowRight' });
+    expect(document.activeElement).toBe(day('2026-02-01'));
+    expect(month.textContent).toContain('2026-02');
+    fireEvent.keyDown(day('2026-02-01'), { key: 'ArrowDown' });
+    expect(document.activeElement).toBe(day('2026-02-08'));
+    fireEvent.keyDown(day('2026-02-08'), { key: 'PageDown' });
+    expect(document.activeElement).toBe(day('2026-03-08'));
+    fireEvent.click(screen.getByRole('button', { name: 'Month before' }));
+    expect(month.textContent).toContain('2026-02');
+    fireEvent.keyDown(day('2026-02-08'), { key: 'Escape' });
+    expect(screen.queryByRole('group', { name: 'From: pick a day' })).toBeNull();
+    expect(screen.getByTestId('value').textContent).toBe('2026-01-31T08:00');
+  });
+});
+
 describe('DateInput', () => {
   function DayHarness() {
     const [value, setValue] = useState('');
@@ -209,5 +257,8 @@ describe('DateInput', () => {
     input.setSelectionRange(9, 9);
     fireEvent.keyDown(input, { key: 'ArrowUp' });
     expect(screen.getByTestId('day').textContent).toBe('2026-05-01');
+    fireEvent.click(screen.getByRole('button', { name: 'Pick the day from a month' }));
+    fireEvent.click(screen.getByRole('button', { name: '2026-05-19' }));
+    expect(screen.getByTestId('day').textContent).toBe('2026-05-19');
   });
 });

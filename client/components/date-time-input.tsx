@@ -1,5 +1,6 @@
 import { useId, useLayoutEffect, useRef, useState, type ChangeEvent, type KeyboardEvent } from 'react';
-import { zoneCaption } from './clock/format.ts';
+import { formatZoned, zoneCaption } from './clock/format.ts';
+import { useMonthPicker } from './date-time-input-month.tsx';
 import { dateText, readDate, readDateTime, readDay, readTime, splitDateTime, timeText } from './date-time-input-read.ts';
 
 // 24-hour, ISO-like text fields of Lagbook's own: never the browser's date pickers, whose format
@@ -106,6 +107,8 @@ export function DateTimeInput({
   const setTime = (t: string) => onChange(`${date}T${t}`);
   const onDateKey = useArrowSteps(DATE_SEGMENTS, stepDate, setDate);
   const onTimeKey = useArrowSteps(TIME_SEGMENTS, stepTime, setTime);
+  // the month opens on today as the zone's clock reads it when no date is typed yet
+  const month = useMonthPicker({ label, date, describedBy: `${id}-legend`, fallback: () => formatZoned(Date.now(), timeZone).slice(0, 10), onPick: setDate });
   // a time typed as 9:05 or 1400 is written back as 09:05 / 14:00 when the field is left
   const tidyTime = () => {
     const t = readTime(time);
@@ -114,10 +117,13 @@ export function DateTimeInput({
 
   return (
     <fieldset className="min-w-0" aria-describedby={describedBy}>
-      <legend className="text-sm font-medium">{label}</legend>
+      <legend id={`${id}-legend`} className="text-sm font-medium">
+        {label}
+      </legend>
       <div className="mt-1 flex flex-wrap items-center gap-x-2 gap-y-1">
         <span className="inline-flex items-center gap-1">
           <input
+            ref={month.fieldRef}
             aria-label={`${label} date`}
             aria-invalid={error !== undefined || badPart === 'date' || undefined}
             inputMode="numeric"
@@ -130,6 +136,7 @@ export function DateTimeInput({
             onBlur={() => setTouched(true)}
             className={`${PART} w-[8.75rem]`}
           />
+          {month.toggle}
           <input
             aria-label={`${label} time`}
             aria-invalid={error !== undefined || badPart === 'time' || undefined}
@@ -151,6 +158,7 @@ export function DateTimeInput({
           {zone}
         </span>
       </div>
+      {month.grid}
       {hint && (
         <p id={`${id}-hint`} className="mt-1 text-xs text-ink-soft">
           {hint}
@@ -168,6 +176,12 @@ export function DateTimeInput({
       )}
     </fieldset>
   );
+}
+
+/** Today's date on the browser's clock, where the day filters count their days. */
+function todayHere(): string {
+  const now = new Date();
+  return dateText(now.getFullYear(), now.getMonth() + 1, now.getDate());
 }
 
 /**
@@ -193,26 +207,32 @@ export function DateInput({
   const reading = readDay(value);
   const problem = error ?? (touched && !reading.ok ? reading.problem : undefined);
   const onKey = useArrowSteps(DATE_SEGMENTS, stepDate, onChange);
+  const month = useMonthPicker({ label, date: value, fallback: todayHere, onPick: onChange, describedBy: `${id}-label` });
   const describedBy = [hint ? `${id}-hint` : null, problem ? `${id}-error` : null].filter(Boolean).join(' ');
   return (
     <div className="min-w-0">
-      <label htmlFor={id} className="block text-sm font-medium">
+      <label id={`${id}-label`} htmlFor={id} className="block text-sm font-medium">
         {label}
       </label>
-      <input
-        id={id}
-        aria-invalid={problem ? true : undefined}
-        aria-describedby={describedBy || undefined}
-        inputMode="numeric"
-        autoComplete="off"
-        spellCheck={false}
-        placeholder="YYYY-MM-DD"
-        value={value}
-        onChange={(e) => onChange(keep(/[^\d-]/g)(e))}
-        onKeyDown={onKey}
-        onBlur={() => setTouched(true)}
-        className={`${PART} mt-1 block w-[8.75rem]`}
-      />
+      <span className="mt-1 flex items-center gap-1">
+        <input
+          ref={month.fieldRef}
+          id={id}
+          aria-invalid={problem ? true : undefined}
+          aria-describedby={describedBy || undefined}
+          inputMode="numeric"
+          autoComplete="off"
+          spellCheck={false}
+          placeholder="YYYY-MM-DD"
+          value={value}
+          onChange={(e) => onChange(keep(/[^\d-]/g)(e))}
+          onKeyDown={onKey}
+          onBlur={() => setTouched(true)}
+          className={`${PART} w-[8.75rem]`}
+        />
+        {month.toggle}
+      </span>
+      {month.grid}
       {hint && (
         <p id={`${id}-hint`} className="mt-1 text-xs text-ink-soft">
           {hint}
