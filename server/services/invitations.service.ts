@@ -9,11 +9,12 @@ import { labsRepo, type Lab } from '../db/labs.repo.ts';
 import { crossLabRepo } from '../db/cross-lab.repo.ts';
 import type { Mailer } from '../integrations/mail/create-mailer.ts';
 import { AppError, NotFoundError, ServiceUnavailableError } from '../errors.ts';
-import { ConflictError, GoneError } from './service-errors.ts';
+import { ConflictError, GoneError, fieldConflict } from './service-errors.ts';
 import { invitationMail } from './mail/invitation-mail.ts';
 import type { Actor, LabContext } from './lab-context.ts';
 import type { PlanLimitGuard } from './billing/plan-limits.ts';
 import type { InviteMemberInput } from '../contract/invitations.ts';
+import { MEMBER_LABELS, MEMBER_REASONS } from '../contract/words/members.ts';
 
 export const INVITATION_LIFETIME_MS = 7 * 24 * 3600 * 1000;
 
@@ -67,10 +68,10 @@ export function createInvitationsService(deps: { db: Db; mailer: Mailer; publicU
       const invitations = invitationsRepo(scope);
       const members = await membershipsRepo(scope).list();
       if (members.some((m) => m.email === input.email)) {
-        throw new ConflictError('already_member', 'email: this person is already a member of the lab');
+        throw fieldConflict('already_member', 'email', MEMBER_LABELS.email, MEMBER_REASONS.alreadyMember);
       }
       if ((await invitations.pendingFor(input.email, now())).length > 0) {
-        throw new ConflictError('invitation_pending', 'email: an invitation to this address is already pending');
+        throw fieldConflict('invitation_pending', 'email', MEMBER_LABELS.email, MEMBER_REASONS.alreadyPending);
       }
       await deps.planLimits?.assertRoomFor(trx, lab.id, 'members');
       const token = randomBytes(32).toString('base64url');

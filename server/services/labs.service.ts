@@ -10,13 +10,14 @@ import type { LabBilling } from '../db/lab-billing.repo.ts';
 import { slugFromName } from '../policies/lab-slug.ts';
 import { effectivePlan } from './billing/effective-plan.ts';
 import type { PlanCatalog } from './billing/plan-catalog.ts';
-import { ConflictError, isDuplicateKey } from './service-errors.ts';
+import { ConflictError, isDuplicateKey, fieldRefusal, fieldConflict } from './service-errors.ts';
 import { isLockConflict } from '../db/db-errors.ts';
-import { AppError, ValidationError } from '../errors.ts';
+import { AppError } from '../errors.ts';
 import type { Actor } from './lab-context.ts';
 import type { CreateLabInput, UpdateLabInput } from '../contract/labs.ts';
 import { NotFoundError } from '../errors.ts';
 import type { LabContext } from './lab-context.ts';
+import { LAB_LABELS } from '../contract/words/labs.ts';
 
 /** A lab a person created, and the address they asked for (the lab's own may differ: see create). */
 export interface CreatedLab {
@@ -104,7 +105,7 @@ export function createLabsService(deps: { db: Db; caps?: LabCreationCaps; catalo
 
   function requestedSlugOf(input: CreateLabInput): string {
     const slug = input.slug ?? slugFromName(input.name);
-    if (slug.length < 3) throw new ValidationError('slug: choose an address of at least 3 letters or digits');
+    if (slug.length < 3) throw fieldRefusal('slug', LAB_LABELS.slug, 'choose an address of at least 3 letters or digits');
     return slug;
   }
 
@@ -199,7 +200,7 @@ export function createLabsService(deps: { db: Db; caps?: LabCreationCaps; catalo
         const lab = await deps.db.transaction((trx) => insertLab(trx, slug, input.name, null, existing?.id ?? null));
         return { lab, adminUserId: existing?.id ?? null };
       } catch (err) {
-        if (isDuplicateKey(err)) throw new ConflictError('slug_taken', 'slug: this address is already taken');
+        if (isDuplicateKey(err)) throw fieldConflict('slug_taken', 'slug', LAB_LABELS.slug, 'this address is already taken');
         throw err;
       }
     },

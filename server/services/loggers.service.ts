@@ -6,10 +6,11 @@ import { ingestKeysRepo, type IngestKeyInfo } from '../db/ingest-keys.repo.ts';
 import { auditRepo } from '../db/audit.repo.ts';
 import { labsRepo } from '../db/labs.repo.ts';
 import { NotFoundError } from '../errors.ts';
-import { ConflictError, isDuplicateKey } from './service-errors.ts';
+import { ConflictError, isDuplicateKey, fieldConflict } from './service-errors.ts';
 import { newIngestKey } from './ingest-key-format.ts';
 import type { Actor, LabContext } from './lab-context.ts';
 import type { PlanLimitGuard } from './billing/plan-limits.ts';
+import { CHANNEL_LABELS, LOGGER_LABELS, LOGGER_REASONS } from '../contract/words/loggers.ts';
 
 export interface LoggerDetail extends Logger {
   channels: Channel[];
@@ -31,8 +32,9 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
   const duplicateName = (err: unknown): never => {
     if (isDuplicateKey(err)) {
       const msg = String((err as Error).message);
-      if (msg.includes('channels_key_unique')) throw new ConflictError('channel_key_taken', 'key: this logger already has a channel with this key');
-      throw new ConflictError('logger_name_taken', 'name: this lab already has a logger with this name');
+      if (msg.includes('channels_key_unique'))
+        throw fieldConflict('channel_key_taken', 'key', CHANNEL_LABELS.key, 'this logger already has a channel with this key');
+      throw fieldConflict('logger_name_taken', 'name', LOGGER_LABELS.name, 'this lab already has a logger with this name');
     }
     throw err;
   };
@@ -169,7 +171,7 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
             merged.validMax !== undefined &&
             merged.validMin >= merged.validMax
           ) {
-            throw new ConflictError('invalid_range', 'validMax: must be above validMin');
+            throw fieldConflict('invalid_range', 'validMax', CHANNEL_LABELS.validMax, LOGGER_REASONS.validRangeOrder);
           }
           await channelsRepo(scope).update(channelId, patch);
           await auditRepo(scope).record({

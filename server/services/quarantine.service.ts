@@ -56,7 +56,7 @@ export function createQuarantineService(deps: { db: Db; now?: () => number; hook
         const scope = inLab(trx, lab.id);
         const found = new Set((await quarantineRepo(scope).findMany(ids)).map((r) => r.id));
         const missing = ids.filter((id) => !found.has(id));
-        if (missing.length) throw new NotFoundError(`No such quarantined row in this lab: ${missing.join(', ')}.`);
+        if (missing.length) throw new NotFoundError(rowsGone(missing.length));
         const removed = await quarantineRepo(scope).remove(ids);
         await auditRepo(scope).record({
           actorUserId: actor.id,
@@ -72,7 +72,7 @@ export function createQuarantineService(deps: { db: Db; now?: () => number; hook
       const repo = quarantineRepo(inLab(deps.db, lab.id));
       const originals = new Map((await repo.findMany(rows.map((r) => r.id))).map((o) => [o.id, o]));
       const missing = rows.filter((r) => !originals.has(r.id) || originals.get(r.id)!.loggerId === null);
-      if (missing.length) throw new NotFoundError(`No such quarantined row in this lab: ${missing.map((m) => m.id).join(', ')}.`);
+      if (missing.length) throw new NotFoundError(rowsGone(missing.length));
       const byLogger = new Map<number, Array<{ row: ResubmitRow; index: number }>>();
       rows.forEach((row, index) => {
         const loggerId = originals.get(row.id)!.loggerId!;
@@ -119,3 +119,8 @@ export function createQuarantineService(deps: { db: Db; now?: () => number; hook
 }
 
 export type QuarantineService = ReturnType<typeof createQuarantineService>;
+
+/** The refusal for chosen rows that are no longer in quarantine: how many, never their ids. */
+function rowsGone(n: number): string {
+  return `${n === 1 ? 'One of the chosen rows is' : `${n.toLocaleString('en-GB')} of the chosen rows are`} no longer in quarantine (repaired or discarded meanwhile?); reload the list and choose again.`;
+}

@@ -5,11 +5,12 @@ import { channelsRepo, type Channel } from '../db/channels.repo.ts';
 import { testReadingsRepo, type StoredTestReading } from '../db/test-readings.repo.ts';
 import { auditRepo } from '../db/audit.repo.ts';
 import { ForbiddenError, NotFoundError } from '../errors.ts';
-import { ConflictError } from './service-errors.ts';
+import { ConflictError, fieldConflict } from './service-errors.ts';
 import { checkRows } from './ingest/check-rows.ts';
 import { TEST_READING_REMOVABLE_MS, type TestReadingVerdict } from '../contract/loggers.ts';
 import type { TimeRange } from '../contract/channels.ts';
 import type { Actor, LabContext } from './lab-context.ts';
+import { TEST_READING_LABELS } from '../contract/words/loggers.ts';
 
 /** How many test readings the logger page lists. */
 export const RECENT_TEST_READINGS = 10;
@@ -94,7 +95,12 @@ export function createTestReadingService(deps: { db: Db; now?: () => number }) {
       const channel = channels.get(input.channel.trim())!;
       const outside = outsideRangeReason(input.value, channel);
       if (outside && !input.confirmOutsideRange) {
-        throw new ConflictError('outside_valid_range', `value: ${outside}; send again with confirmation to store it as a test reading`);
+        throw fieldConflict(
+          'outside_valid_range',
+          'value',
+          TEST_READING_LABELS.value,
+          `${outside}; send again with confirmation to store it as a test reading`,
+        );
       }
       const testReading = await testReadingsRepo(scope).insert({
         loggerId,
@@ -143,7 +149,7 @@ export function createTestReadingService(deps: { db: Db; now?: () => number }) {
       if (age >= TEST_READING_REMOVABLE_MS) {
         throw new ConflictError(
           'removal_window_closed',
-          `A test reading can be removed only within 10 minutes of sending; this one was sent ${Math.floor(age / 60_000)} minutes ago (${new Date(reading.sentAt).toISOString()}) and stays, marked as a test.`,
+          `A test reading can be removed only within 10 minutes of sending; this one was sent ${Math.floor(age / 60_000)} minutes ago and stays, marked as a test.`,
         );
       }
       if (reading.sentBy?.id !== actor.id) {

@@ -31,7 +31,7 @@ export function createUploadsService(deps: { db: Db; now?: () => number; hooks?:
       return previewUploadTimes(input);
     },
 
-    /** How the file will be read; a custom time pattern that cannot be read answers 400 `timePattern: …` here, before the upload starts. */
+    /** How the file will be read; a custom time pattern that cannot be read answers 400 `Pattern of the times: …` here, before the upload starts. */
     layoutOf(options: UploadOptions): UploadLayout {
       return resolveUploadLayout(options);
     },

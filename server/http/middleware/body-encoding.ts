@@ -71,7 +71,7 @@ export function refuseDeepJson(_req: unknown, _res: unknown, buf: Buffer): void 
       else if (c === 0x22) inString = false;
     } else if (c === 0x22) inString = true;
     else if (c === 0x7b || c === 0x5b) {
-      if (++depth > MAX_BODY_DEPTH) throw new AppError(400, 'invalid_input', `body: nested deeper than ${MAX_BODY_DEPTH} levels`);
+      if (++depth > MAX_BODY_DEPTH) throw new AppError(400, 'invalid_input', `The request is nested deeper than ${MAX_BODY_DEPTH} levels.`);
     } else if (c === 0x7d || c === 0x5d) depth--;
   }
 }

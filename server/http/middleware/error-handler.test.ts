@@ -5,7 +5,8 @@ import { describe, expect, it } from 'vitest';
 import { createLogWriter } from '../../log-writer.ts';
 import { channelInputSchema, createLoggerSchema } from '../../contract/loggers.ts';
 import { boundsParamsSchema } from '../../contract/alerts.ts';
-import { errorHandler, fieldRefusal, zodToValidationError } from './error-handler.ts';
+import { errorHandler, zodToValidationError } from './error-handler.ts';
+import { fieldRefusal } from '../../services/service-errors.ts';
 
 /** The ZodError of parsing `input` with `schema` (the test fails if it parses). */
 function zodError(schema: z.ZodType, input: unknown): z.ZodError {

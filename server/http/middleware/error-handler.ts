@@ -16,14 +16,6 @@ export function zodToValidationError(err: ZodError, routePath?: string): Validat
   return new ValidationError(problemsMessage(fields), fields);
 }
 
-/**
- * A refusal of one field by a service (a check the schema cannot make, e.g. a channel key
- * already taken), written like a schema's: `Label: reason.` with the field in `fields`.
- */
-export function fieldRefusal(field: string, label: string, reason: string): ValidationError {
-  return new ValidationError(problemsMessage([{ label, reason }]), [{ field, label, reason }]);
-}
-
 /** The `fields` of an answer: an error's details when they are field problems (see FieldProblem). */
 function fieldsOf(error: AppError): FieldProblem[] | undefined {
   const d = error.details;

@@ -10,7 +10,7 @@ describe('parseRuleInput', () => {
     expect(parseRuleInput(boundsParamsSchema, { high: 8 }, 'params')).toEqual({ low: null, high: 8, holdS: 0 });
   });
 
-  it('refuses with 400 invalid_input, every field named under the prefix', () => {
+  it('refuses with 400 invalid_input, every field named by its label and kept by key under the prefix', () => {
     let caught: unknown;
     try {
       parseRuleInput(boundsParamsSchema, { low: 10, high: 8, holdS: -1 }, 'params');
@@ -21,15 +21,15 @@ describe('parseRuleInput', () => {
     const err = caught as ValidationError;
     expect(err.status).toBe(400);
     expect(err.code).toBe('invalid_input');
-    expect(err.message).toBe('params.holdS: must not be negative (seconds); params.low: must be below the high limit');
+    expect(err.message).toBe('Outside the limits for at least (seconds): must not be negative (seconds). Low limit: must be below the high limit.');
     expect(err.details).toEqual([
-      { path: 'params.holdS', message: 'must not be negative (seconds)' },
-      { path: 'params.low', message: 'must be below the high limit' },
+      { field: 'params.holdS', label: 'Outside the limits for at least (seconds)', reason: 'must not be negative (seconds)' },
+      { field: 'params.low', label: 'Low limit', reason: 'must be below the high limit' },
     ]);
   });
 
-  it('names the whole body when the failure has no path and no prefix is given', () => {
-    expect(() => parseRuleInput(boundsParamsSchema, 'not an object')).toThrow(/^body: /);
+  it('names the request as a whole when the failure has no path and no prefix is given', () => {
+    expect(() => parseRuleInput(boundsParamsSchema, 'not an object')).toThrow(/^The request: must be a group of fields\.$/);
   });
 });
 

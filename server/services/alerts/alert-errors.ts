@@ -1,5 +1,6 @@
 import type { z } from 'zod';
 import { AppError, ValidationError } from '../../errors.ts';
+import { problemsMessage, problemsOfIssues } from '../../contract/words/fields.ts';
 
 /**
  * A well-formed alert rule that cannot work on what it watches (an unusual-reading cycle shorter
@@ -15,11 +16,13 @@ export class InvalidAlertRuleError extends AppError {
 /**
  * Parses part of a rule's input with its zod schema where only the service knows the schema (a
  * PATCH's new `params`, checked against the stored rule's kind). Failures are invalid input like
- * any other: a {@link ValidationError} (400 `invalid_input`) listing every field under `prefix`.
+ * any other: a {@link ValidationError} (400 `invalid_input`) listing every field under `prefix`,
+ * labelled as the rule form names it.
  */
 export function parseRuleInput<S extends z.ZodType>(schema: S, input: unknown, prefix = ''): z.infer<S> {
   const result = schema.safeParse(input);
   if (result.success) return result.data;
-  const issues = result.error.issues.map((i) => ({ path: [prefix, ...i.path.map(String)].filter(Boolean).join('.') || 'body', message: i.message }));
-  throw new ValidationError(issues.map((i) => `${i.path}: ${i.message}`).join('; '), issues);
+  const issues = result.error.issues.map((i) => ({ ...i, path: prefix ? [prefix, ...i.path] : i.path }));
+  const fields = problemsOfIssues(issues, '/alert-rules');
+  throw new ValidationError(problemsMessage(fields), fields);
 }

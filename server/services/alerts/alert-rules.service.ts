@@ -10,6 +10,8 @@ import { NotFoundError } from '../../errors.ts';
 import { PARAMS_SCHEMAS, type CreateAlertRuleInput, type UpdateAlertRuleInput } from '../../contract/alerts.ts';
 import type { Actor, LabContext } from '../lab-context.ts';
 import { InvalidAlertRuleError, parseRuleInput } from './alert-errors.ts';
+import { ALERT_RULE_LABELS } from '../../contract/words/alerts.ts';
+import { problemsMessage } from '../../contract/words/fields.ts';
 
 /** A rule as people see it: with what it watches, whether the viewer is subscribed and whether it is firing. */
 export interface AlertRuleView extends Omit<AlertRule, 'cursor'> {
@@ -18,15 +20,23 @@ export interface AlertRuleView extends Omit<AlertRule, 'cursor'> {
   openAlertId: number | null;
 }
 
+/** A rule that cannot work on what it watches (422), its field named as the rule form names it. */
+function ruleCannotWork(field: string, label: string, reason: string): InvalidAlertRuleError {
+  return new InvalidAlertRuleError(problemsMessage([{ label, reason }]), [{ field, label, reason }]);
+}
+
 const NO_RULE = 'No such alert rule in this lab.';
 
 /** The unusual-reading rule needs 2 … 20,000 readings per cycle at the channel's expected interval. */
 function checkUnusualFits(periodH: number, historyCycles: number, intervalS: number): void {
   const steps = Math.round((periodH * 3600) / intervalS);
-  if (steps < 2) throw new InvalidAlertRuleError(`params.periodH: must span at least two expected intervals of the channel (${intervalS} s each)`);
+  if (steps < 2)
+    throw ruleCannotWork('params.periodH', ALERT_RULE_LABELS.periodH, `must span at least two expected intervals of the channel (${intervalS} seconds each)`);
   if (steps * historyCycles > 60_000) {
-    throw new InvalidAlertRuleError(
-      `params.historyCycles: ${historyCycles} cycles of ${periodH} h hold ${steps * historyCycles} readings at the channel's interval of ${intervalS} s; at most 60000 (use fewer cycles)`,
+    throw ruleCannotWork(
+      'params.historyCycles',
+      ALERT_RULE_LABELS.historyCycles,
+      `${historyCycles} cycles of ${periodH} hours hold ${(steps * historyCycles).toLocaleString('en-GB')} readings at the channel's interval of ${intervalS} seconds; at most 60,000 (use fewer cycles)`,
     );
   }
 }

@@ -4,13 +4,13 @@ import { inLab } from '../../db/tenant-scope.ts';
 import { labBillingRepo, type BillingStatus } from '../../db/lab-billing.repo.ts';
 import { usageRepo, type UsageCounts, type UsageSnapshot } from '../../db/usage.repo.ts';
 import { auditRepo } from '../../db/audit.repo.ts';
-import { ValidationError } from '../../errors.ts';
-import { ConflictError } from '../service-errors.ts';
+import { ConflictError, fieldRefusal } from '../service-errors.ts';
 import type { Actor, LabContext } from '../lab-context.ts';
 import { effectivePlan, historyStart } from './effective-plan.ts';
 import { BillingUnavailableError } from './billing-errors.ts';
 import { clampToHistory, type HistoryWindow } from './plan-history.ts';
 import type { Plan, PlanCatalog, PlanLimits } from './plan-catalog.ts';
+import { BILLING_LABELS, BILLING_REASONS } from '../../contract/words/billing.ts';
 
 /** What the billing page shows. */
 export interface BillingOverview {
@@ -148,8 +148,9 @@ export function createBillingService(deps: { db: Db; stripe: Stripe; catalog: Pl
      */
     async startCheckout(lab: LabContext, actor: Actor, planKey: string): Promise<{ url: string }> {
       const plan = catalog.byKey(planKey);
-      if (!plan) throw new ValidationError(`plan: no plan "${planKey}" in the catalog`);
-      if (!plan.priceLookupKey) throw new ValidationError('plan: the free plan needs no checkout; cancel the subscription in the billing portal instead');
+      if (!plan) throw fieldRefusal('plan', BILLING_LABELS.plan, BILLING_REASONS.unknownPlan);
+      if (!plan.priceLookupKey)
+        throw fieldRefusal('plan', BILLING_LABELS.plan, 'the free plan needs no payment; to return to it, cancel the subscription under "Manage payment"');
       const row = await billingOf(lab.id).getOrCreate(catalog.free.key);
       if (row.stripeSubscriptionId && (row.status === 'active' || row.status === 'past_due')) {
         throw new ConflictError('subscription_exists', 'The lab already has a subscription: switch to another plan, or cancel it under "Manage payment".');
@@ -191,8 +192,9 @@ export function createBillingService(deps: { db: Db; stripe: Stripe; catalog: Pl
      */
     async changePlan(lab: LabContext, actor: Actor, planKey: string, acknowledgeLimits: boolean): Promise<{ plan: string; message: string }> {
       const plan = catalog.byKey(planKey);
-      if (!plan) throw new ValidationError(`plan: no plan "${planKey}" in the catalog`);
-      if (!plan.priceLookupKey) throw new ValidationError(`plan: to return to the ${plan.name} plan, cancel the subscription under "Manage payment"`);
+      if (!plan) throw fieldRefusal('plan', BILLING_LABELS.plan, BILLING_REASONS.unknownPlan);
+      if (!plan.priceLookupKey)
+        throw fieldRefusal('plan', BILLING_LABELS.plan, `to return to the ${plan.name} plan, cancel the subscription under "Manage payment"`);
       const row = await billingOf(lab.id).get();
       if (!row?.stripeSubscriptionId || row.status === 'canceled' || row.status === 'none') {
         throw new ConflictError('no_subscription', 'The lab has no subscription to change: choose a plan to subscribe to it.');

@@ -20,7 +20,7 @@ export type WebhookOutcome = 'applied' | 'unchanged' | 'duplicate' | 'unknown-la
 /** A webhook whose Stripe-Signature does not verify (wrong secret, tampered body, too old). */
 export class BadWebhookSignatureError extends AppError {
   constructor() {
-    super(400, 'bad_signature', 'Stripe-Signature: the signature does not match this endpoint’s secret (or the event is too old).');
+    super(400, 'bad_signature', 'The payment event’s signature does not match this endpoint’s secret (or the event is too old).');
   }
 }
 

@@ -82,6 +82,6 @@ describe('csvRecordChunks', () => {
     const reading = (async () => {
       for await (const records of csvRecordChunks(endless(), ',')) void records;
     })();
-    await expect(reading).rejects.toThrow('file: a line longer than 1,048,576 characters (is the delimiter right?)');
+    await expect(reading).rejects.toThrow('The file has a line longer than 1,048,576 characters (is the column separator right?).');
   });
 });

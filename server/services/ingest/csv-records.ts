@@ -127,7 +127,7 @@ export async function* csvRecordChunks(input: AsyncIterable<Buffer | string>, de
     const end = completeRecordsEnd(text);
     carry = text.slice(end);
     if (carry.length > maxRecordChars)
-      throw new ValidationError(`file: a line longer than ${maxRecordChars.toLocaleString('en')} characters (is the delimiter right?)`);
+      throw new ValidationError(`The file has a line longer than ${maxRecordChars.toLocaleString('en')} characters (is the column separator right?).`);
     if (end > 0) yield read(text.slice(0, end));
   }
   const rest = carry + decoder.end();

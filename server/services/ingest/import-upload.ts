@@ -8,6 +8,8 @@ import { ingestBatch, type IncomingReading, type IngestTarget, type QuarantinedE
 import type { TimeFormat } from './parse-reading-time.ts';
 import { compilePattern, type TimeLayout } from './time-layouts.ts';
 import type { UploadOptions, UploadTimeFormat } from '../../contract/uploads.ts';
+import { UPLOAD_LABELS } from '../../contract/words/uploads.ts';
+import { fieldRefusal } from '../service-errors.ts';
 
 export interface UploadLayout {
   format: 'long' | 'wide';
@@ -38,7 +40,7 @@ export interface UploadSummary extends UploadProgress {
 /**
  * How an upload's options say its times are read: `auto`, `iso` and the epoch formats as live
  * ingestion reads them; the other layouts, and a custom pattern (compiled here once, so a bad
- * one is refused as `timePattern: …` before anything is read), through `time-layouts.ts`.
+ * one is refused as `Pattern of the times: …` before anything is read), through `time-layouts.ts`.
  */
 export function resolveUploadLayout(options: UploadOptions): UploadLayout {
   const { timeFormat, timePattern, ...rest } = options;
@@ -48,7 +50,7 @@ export function resolveUploadLayout(options: UploadOptions): UploadLayout {
 /**
  * An upload time format (and custom pattern) as the batch options that read it: `auto`, `iso`
  * and the epoch formats by ingestion's own rules, any other layout through `time-layouts.ts`.
- * Shared by uploads and quarantine re-reads; a bad pattern answers 400 `timePattern: …`.
+ * Shared by uploads and quarantine re-reads; a bad pattern answers 400 `Pattern of the times: …`.
  */
 export function timeReadingOf(timeFormat: UploadTimeFormat, timePattern: string | undefined): { timeFormat: TimeFormat; timeLayout?: TimeLayout } {
   if (timeFormat === 'auto' || timeFormat === 'iso' || timeFormat === 'epoch-ms' || timeFormat === 'epoch-s') return { timeFormat };
@@ -56,10 +58,10 @@ export function timeReadingOf(timeFormat: UploadTimeFormat, timePattern: string 
   return { timeFormat: 'auto', timeLayout: patternLayout(timePattern) };
 }
 
-/** A custom time pattern as a layout; one it cannot read is refused as `timePattern: reason` (400). */
+/** A custom time pattern as a layout; one it cannot read is refused as `Pattern of the times: reason` (400). */
 export function patternLayout(pattern: string | undefined): TimeLayout {
   const compiled = compilePattern(pattern ?? '');
-  if ('error' in compiled) throw new ValidationError(`timePattern: ${compiled.error.replace(/^pattern: /, '')}`);
+  if ('error' in compiled) throw fieldRefusal('timePattern', UPLOAD_LABELS.timePattern, compiled.error.replace(/^pattern: /, ''));
   return { custom: compiled };
 }
 
@@ -139,7 +141,12 @@ export async function importUpload(
         header = record;
         const find = (name: string | undefined, what: string) => {
           const i = name === undefined ? -1 : header!.indexOf(name);
-          if (i < 0) throw new ValidationError(`${what}: the file has no column "${name}" (columns: ${header!.join(', ').slice(0, 200)})`);
+          if (i < 0)
+            throw fieldRefusal(
+              what,
+              (UPLOAD_LABELS as Record<string, string>)[what] ?? UPLOAD_LABELS.columns,
+              `the file has no column "${name}" (its columns: ${header!.join(', ').slice(0, 200)})`,
+            );
           return i;
         };
         timeAt = find(layout.timeColumn, 'timeColumn');
@@ -182,7 +189,7 @@ export async function importUpload(
       if (batch.length >= UPLOAD_BATCH) await flush();
     }
   }
-  if (!header) throw new ValidationError('file: it is empty (expected a header line)');
+  if (!header) throw new ValidationError('The file is empty (a header line was expected).');
   await flush();
   return summary;
 }

@@ -4,10 +4,12 @@ import { inLab } from '../../db/tenant-scope.ts';
 import { labsRepo } from '../../db/labs.repo.ts';
 import { labBillingRepo } from '../../db/lab-billing.repo.ts';
 import { labDeletionsRepo } from '../../db/lab-deletions.repo.ts';
-import { AppError, NotFoundError, ValidationError } from '../../errors.ts';
+import { AppError, NotFoundError } from '../../errors.ts';
 import { BillingUnavailableError } from '../billing/billing-errors.ts';
 import type { Actor, LabContext } from '../lab-context.ts';
 import type { DeleteLabInput, LabDeletionStarted } from '../../contract/labs.ts';
+import { LAB_LABELS } from '../../contract/words/labs.ts';
+import { fieldRefusal } from '../service-errors.ts';
 
 /** The lab owes an invoice (its subscription is past due): it cannot be deleted until that is settled. */
 export class UnpaidInvoiceError extends AppError {
@@ -83,7 +85,7 @@ export function createLabDeletionService(deps: { db: Db; stripe: Stripe; now?: (
       const current = await labsRepo(deps.db).findById(lab.id);
       if (!current) throw new NotFoundError('No lab at this address, or you are not a member of it.');
       if (input.confirmName.trim() !== current.name) {
-        throw new ValidationError(`confirmName: type the lab's name exactly as it is written ("${current.name}") to confirm the deletion`);
+        throw fieldRefusal('confirmName', LAB_LABELS.confirmName, `type the lab's name exactly as it is written ("${current.name}") to confirm the deletion`);
       }
       const at = now();
       // Closed first, so nothing reaches the lab while Stripe is asked (its cancellation webhook

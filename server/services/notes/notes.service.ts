@@ -5,7 +5,7 @@ import { noteKindsRepo, type NoteKindRow } from '../../db/note-kinds.repo.ts';
 import { channelsRepo } from '../../db/channels.repo.ts';
 import { loggersRepo } from '../../db/loggers.repo.ts';
 import { auditRepo } from '../../db/audit.repo.ts';
-import { NotFoundError, ValidationError } from '../../errors.ts';
+import { NotFoundError } from '../../errors.ts';
 import {
   DEFAULT_NOTE_KINDS,
   MAX_NOTES_LISTED,
@@ -18,6 +18,8 @@ import {
   type UpdateNoteKindInput,
 } from '../../contract/notes.ts';
 import type { Actor, LabContext } from '../lab-context.ts';
+import { NOTE_LABELS } from '../../contract/words/notes.ts';
+import { fieldRefusal } from '../service-errors.ts';
 
 const NO_NOTE = 'No such note in this lab.';
 const NO_KIND = 'No such note kind in this lab.';
@@ -86,9 +88,9 @@ export function createNotesService(deps: { db: Db; now?: () => number }) {
   async function usableKind(scope: LabScope, kindId: number, unchanged?: number): Promise<void> {
     await noteKindsRepo(scope).seedIfEmpty(DEFAULT_NOTE_KINDS);
     const kind = await noteKindsRepo(scope).find(kindId);
-    if (!kind) throw new ValidationError('kindId: no such note kind in this lab (choose one of the lab’s kinds)');
+    if (!kind) throw fieldRefusal('kindId', NOTE_LABELS.kindId, 'is not one of this lab’s kinds of note (choose one of them)');
     if (kind.retiredAt && kindId !== unchanged)
-      throw new ValidationError(`kindId: the kind "${kind.name}" is retired (choose another kind, or bring it back first)`);
+      throw fieldRefusal('kindId', NOTE_LABELS.kindId, `the kind "${kind.name}" is retired (choose another kind, or bring it back first)`);
   }
 
   async function list(lab: LabContext, filter: NotesFilter): Promise<{ notes: Note[]; truncated: boolean }> {
@@ -141,16 +143,18 @@ export function createNotesService(deps: { db: Db; now?: () => number }) {
         let where: string;
         if (input.channelId !== undefined) {
           const channel = await channelsRepo(scope).find(input.channelId);
-          if (!channel) throw new ValidationError('channelId: no such channel in this lab (pick a channel of this lab)');
-          if (channel.retiredAt) throw new ValidationError(`channelId: the channel "${channel.label}" is retired (notes go on channels in use)`);
+          if (!channel) throw fieldRefusal('channelId', NOTE_LABELS.channelId, 'is not a channel of this lab (pick one of its channels)');
+          if (channel.retiredAt)
+            throw fieldRefusal('channelId', NOTE_LABELS.channelId, `the channel "${channel.label}" is retired (notes go on channels in use)`);
           const logger = await loggersRepo(scope).find(channel.loggerId);
-          if (!logger || logger.retiredAt) throw new ValidationError(`channelId: the logger of "${channel.label}" is retired (notes go on loggers in use)`);
+          if (!logger || logger.retiredAt)
+            throw fieldRefusal('channelId', NOTE_LABELS.channelId, `the logger of "${channel.label}" is retired (notes go on loggers in use)`);
           loggerId = channel.loggerId;
           where = `"${channel.label}"`;
         } else {
           const logger = await loggersRepo(scope).find(input.loggerId!);
-          if (!logger) throw new ValidationError('loggerId: no such logger in this lab (pick a logger of this lab)');
-          if (logger.retiredAt) throw new ValidationError(`loggerId: the logger "${logger.name}" is retired (notes go on loggers in use)`);
+          if (!logger) throw fieldRefusal('loggerId', NOTE_LABELS.loggerId, 'is not a logger of this lab (pick one of its loggers)');
+          if (logger.retiredAt) throw fieldRefusal('loggerId', NOTE_LABELS.loggerId, `the logger "${logger.name}" is retired (notes go on loggers in use)`);
           loggerId = logger.id;
           where = `every channel of "${logger.name}"`;
         }
@@ -194,8 +198,11 @@ export function createNotesService(deps: { db: Db; now?: () => number }) {
         const start = input.start ?? note.start;
         const end = input.end ?? note.end;
         if (!(end > start)) {
-          throw new ValidationError(
-            `${input.end !== undefined ? 'end' : 'start'}: the note would end at or before it starts (${new Date(end).toISOString()} ≤ ${new Date(start).toISOString()}); move ${input.end !== undefined ? 'end after start' : 'start before end'}`,
+          const field = input.end !== undefined ? 'end' : 'start';
+          throw fieldRefusal(
+            field,
+            NOTE_LABELS[field],
+            `the note would end at or before it starts; move ${field === 'end' ? 'the end after the start' : 'the start before the end'}`,
           );
         }
         if (input.kindId !== undefined) await usableKind(scope, input.kindId, note.kindId);
@@ -248,7 +255,8 @@ export function createNotesService(deps: { db: Db; now?: () => number }) {
         const scope = inLab(trx, lab.id);
         const repo = noteKindsRepo(scope);
         await repo.seedIfEmpty(DEFAULT_NOTE_KINDS);
-        if (await repo.nameTaken(input.name)) throw new ValidationError(`name: the lab already has a kind called "${input.name}" (choose another name)`);
+        if (await repo.nameTaken(input.name))
+          throw fieldRefusal('name', NOTE_LABELS.name, `the lab already has a kind called "${input.name}" (choose another name)`);
         const kindId = await repo.insert(input.name);
         await auditRepo(scope).record({
           actorUserId: actor.id,
@@ -270,7 +278,7 @@ export function createNotesService(deps: { db: Db; now?: () => number }) {
         const kind = await repo.find(kindId);
         if (!kind) throw new NotFoundError(NO_KIND);
         if (input.name !== undefined && (await repo.nameTaken(input.name, kindId))) {
-          throw new ValidationError(`name: the lab already has a kind called "${input.name}" (choose another name)`);
+          throw fieldRefusal('name', NOTE_LABELS.name, `the lab already has a kind called "${input.name}" (choose another name)`);
         }
         const retiredAt = input.retired === undefined ? undefined : input.retired ? (kind.retiredAt ?? new Date(now())) : null;
         await repo.update(kindId, { name: input.name, retiredAt });

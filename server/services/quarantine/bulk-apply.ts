@@ -4,7 +4,7 @@ import { quarantineRepo, type QuarantinedRow } from '../../db/quarantine.repo.ts
 import { loggersRepo } from '../../db/loggers.repo.ts';
 import { channelsRepo } from '../../db/channels.repo.ts';
 import { auditRepo } from '../../db/audit.repo.ts';
-import { NotFoundError, ValidationError } from '../../errors.ts';
+import { NotFoundError } from '../../errors.ts';
 import { BULK_MAX_ROWS, type BulkAction, type BulkCounts, type BulkSampleRow, type BulkSelection } from '../../contract/quarantine.ts';
 import type { AuditAction } from '../../contract/audit.ts';
 import { ingestBatchInTransaction } from '../ingest/ingest-batch.ts';
@@ -13,6 +13,8 @@ import type { IngestHooks, StoredBatch } from '../ingest/ingest-hooks.ts';
 import type { Actor, LabContext } from '../lab-context.ts';
 import { groupReasons, incomingOf, planBulk, type BulkLogger, type BulkPlan } from './bulk-plan.ts';
 import { filterOf } from './filter-of.ts';
+import { QUARANTINE_LABELS } from '../../contract/words/quarantine.ts';
+import { fieldRefusal } from '../service-errors.ts';
 
 /** Rows sent through ingestion per batch (and between two progress reports). */
 export const BULK_CHUNK = 500;
@@ -49,8 +51,10 @@ export async function resolveBulkTarget(scope: LabScope, selection: BulkSelectio
   } else {
     ids = await repo.idsMatching(filterOf(selection.filter ?? {}), BULK_MAX_ROWS + 1);
     if (ids.length > BULK_MAX_ROWS) {
-      throw new ValidationError(
-        `selection: more than ${BULK_MAX_ROWS.toLocaleString('en')} rows match; narrow the filter (logger, reason, received time) and repair in parts`,
+      throw fieldRefusal(
+        'selection',
+        QUARANTINE_LABELS.selection,
+        `more than ${BULK_MAX_ROWS.toLocaleString('en-GB')} rows match; narrow the filters (logger, reason, time received) and repair in parts`,
       );
     }
   }
@@ -59,7 +63,7 @@ export async function resolveBulkTarget(scope: LabScope, selection: BulkSelectio
     const found = new Set(rows.map((r) => r.id));
     const gone = ids.filter((id) => !found.has(id));
     throw new NotFoundError(
-      `No such quarantined row in this lab: ${gone.slice(0, 10).join(', ')}${gone.length > 10 ? ' …' : ''} (repaired or discarded meanwhile? reload the list).`,
+      `${gone.length === 1 ? 'One of the chosen rows is' : `${gone.length.toLocaleString('en-GB')} of the chosen rows are`} no longer in quarantine (repaired or discarded meanwhile?); reload the list and choose again.`,
     );
   }
   const loggerIds = [...new Set(rows.map((r) => r.loggerId).filter((id): id is number => id !== null))].sort((a, b) => a - b);

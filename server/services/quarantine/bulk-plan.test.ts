@@ -33,13 +33,15 @@ const ingestPlan = (plan: ReturnType<typeof planBulk>) => {
 
 describe('planBulk', () => {
   it('refuses an empty selection for every action', () => {
-    expect(() => planBulk({ kind: 'discard', reason: 'gone' }, [], loggers, null, NOW)).toThrow('selection: no quarantined rows match');
+    expect(() => planBulk({ kind: 'discard', reason: 'gone' }, [], loggers, null, NOW)).toThrow(
+      'Rows to repair: no quarantined rows match; change the filters or choose rows.',
+    );
   });
 
   it('discards rows of no logger, but refuses to re-ingest them', () => {
     expect(planBulk({ kind: 'discard', reason: 'unplugged' }, [row({ loggerId: null })], loggers, null, NOW)).toEqual({ kind: 'discard', reason: 'unplugged' });
     expect(() => planBulk({ kind: 'reread', timeFormat: 'iso' }, [row({ loggerId: null })], loggers, null, NOW)).toThrow(
-      'selection: 1 row belong to no logger and can only be discarded',
+      'Rows to repair: 1 row belongs to no logger and can only be discarded',
     );
   });
 
@@ -51,8 +53,10 @@ describe('planBulk', () => {
     expect(plan.channelOf(row())).toBe('air_t');
   });
 
-  it('refuses a custom pattern it cannot read, naming timePattern', () => {
-    expect(() => planBulk({ kind: 'reread', timeFormat: 'pattern', timePattern: 'dd.QQ.yyyy' }, [row()], loggers, null, NOW)).toThrow(/^timePattern: /);
+  it('refuses a custom pattern it cannot read, naming the pattern field', () => {
+    expect(() => planBulk({ kind: 'reread', timeFormat: 'pattern', timePattern: 'dd.QQ.yyyy' }, [row()], loggers, null, NOW)).toThrow(
+      /^Pattern of the times: /,
+    );
   });
 
   it('shifts by the offset in ms, and refuses a shift that would move a row past now', () => {
@@ -61,7 +65,8 @@ describe('planBulk', () => {
     const plan = ingestPlan(planBulk({ kind: 'shift', offsetMinutes: 60 }, [early], loggers, null, NOW));
     expect(plan.readingFor(berlin)).toEqual({ timeFormat: 'auto', timeZone: 'Europe/Berlin', timeShiftMs: 3_600_000 });
     expect(() => planBulk({ kind: 'shift', offsetMinutes: 180 }, [early, row({ id: 11, tsRaw: 'not a time' })], loggers, null, NOW)).toThrow(
-      'offsetMinutes: would move 1 row into the future (the latest to 2026-11-24T13:00:00.000Z); use a smaller offset or narrow the selection',
+      // 10:00Z + 3 h = 13:00Z, one hour past NOW (12:00Z)
+      'Shift (minutes): would move 1 row into the future (the latest by 60 minutes); use a smaller shift or narrow the selection.',
     );
   });
 
@@ -70,12 +75,14 @@ describe('planBulk', () => {
     const plan = ingestPlan(planBulk({ kind: 'map-channel', channelId: 5 }, [row({ channelKey: 'air_temp' })], loggers, air, NOW));
     expect(plan.channelOf(row({ channelKey: 'air_temp' }))).toBe('air_t');
     expect(() => planBulk({ kind: 'map-channel', channelId: 5 }, [row(), row({ id: 11, loggerId: 2 })], loggers, air, NOW)).toThrow(
-      'channelId: "air_t" belongs to logger "Roof", but 1 selected row comes from another logger; filter the selection by that logger first',
+      'Channel to store them under: "air_t" belongs to logger "Roof", but 1 selected row comes from another logger; filter the selection by that logger first.',
     );
     expect(() => planBulk({ kind: 'map-channel', channelId: 5 }, [row()], loggers, { ...air, retiredAt: new Date(NOW) }, NOW)).toThrow(
-      'channelId: "air_t" is retired',
+      'Channel to store them under: "air_t" is retired',
     );
-    expect(() => planBulk({ kind: 'map-channel', channelId: 9 }, [row()], loggers, null, NOW)).toThrow('channelId: no channel 9 in this lab');
+    expect(() => planBulk({ kind: 'map-channel', channelId: 9 }, [row()], loggers, null, NOW)).toThrow(
+      'Channel to store them under: is not a channel of this lab',
+    );
   });
 });
 

@@ -1,10 +1,11 @@
 import type { BulkAction, BulkReasonGroup } from '../../contract/quarantine.ts';
 import type { QuarantinedRow } from '../../db/quarantine.repo.ts';
-import { ValidationError } from '../../errors.ts';
 import { readRowTime, type IncomingReading } from '../ingest/check-rows.ts';
 import { timeReadingOf } from '../ingest/import-upload.ts';
 import type { TimeFormat } from '../ingest/parse-reading-time.ts';
 import type { TimeLayout } from '../ingest/time-layouts.ts';
+import { QUARANTINE_LABELS } from '../../contract/words/quarantine.ts';
+import { fieldRefusal } from '../service-errors.ts';
 
 /** What a bulk repair needs to know of a selected row's logger. */
 export interface BulkLogger {
@@ -50,10 +51,15 @@ export function planBulk(
   channel: BulkChannel | null,
   now: number,
 ): BulkPlan {
-  if (rows.length === 0) throw new ValidationError('selection: no quarantined rows match; change the filter or choose rows');
+  if (rows.length === 0) throw fieldRefusal('selection', QUARANTINE_LABELS.selection, 'no quarantined rows match; change the filters or choose rows');
   if (action.kind === 'discard') return { kind: 'discard', reason: action.reason };
   const orphans = rows.filter((r) => r.loggerId === null || !loggers.has(r.loggerId)).length;
-  if (orphans) throw new ValidationError(`selection: ${plural(orphans, 'row')} belong to no logger and can only be discarded; narrow the selection by logger`);
+  if (orphans)
+    throw fieldRefusal(
+      'selection',
+      QUARANTINE_LABELS.selection,
+      `${plural(orphans, 'row')} ${orphans === 1 ? 'belongs' : 'belong'} to no logger and can only be discarded; narrow the selection by logger`,
+    );
   const keep = (r: QuarantinedRow) => r.channelKey;
   switch (action.kind) {
     case 'reread': {
@@ -73,20 +79,25 @@ export function planBulk(
         }
       }
       if (future) {
-        throw new ValidationError(
-          `offsetMinutes: would move ${plural(future, 'row')} into the future (the latest to ${new Date(latest).toISOString()}); use a smaller offset or narrow the selection`,
+        throw fieldRefusal(
+          'offsetMinutes',
+          QUARANTINE_LABELS.offsetMinutes,
+          `would move ${plural(future, 'row')} into the future (the latest by ${durationAhead(latest - now)}); use a smaller shift or narrow the selection`,
         );
       }
       return { kind: 'ingest', channelOf: keep, readingFor };
     }
     case 'map-channel': {
-      if (!channel) throw new ValidationError(`channelId: no channel ${action.channelId} in this lab; choose one of the logger's channels`);
-      if (channel.retiredAt) throw new ValidationError(`channelId: "${channel.key}" is retired; choose an active channel of the logger`);
+      if (!channel) throw fieldRefusal('channelId', QUARANTINE_LABELS.channelId, "is not a channel of this lab; choose one of the logger's channels");
+      if (channel.retiredAt)
+        throw fieldRefusal('channelId', QUARANTINE_LABELS.channelId, `"${channel.key}" is retired; choose a channel of the logger that is in use`);
       const elsewhere = rows.filter((r) => r.loggerId !== channel.loggerId).length;
       if (elsewhere) {
         const owner = loggers.get(channel.loggerId)?.name;
-        throw new ValidationError(
-          `channelId: "${channel.key}" belongs to ${owner ? `logger "${owner}"` : 'another logger'}, but ${plural(elsewhere, 'selected row comes', 'selected rows come')} from another logger; filter the selection by that logger first`,
+        throw fieldRefusal(
+          'channelId',
+          QUARANTINE_LABELS.channelId,
+          `"${channel.key}" belongs to ${owner ? `logger "${owner}"` : 'another logger'}, but ${plural(elsewhere, 'selected row comes', 'selected rows come')} from another logger; filter the selection by that logger first`,
         );
       }
       return { kind: 'ingest', channelOf: () => channel.key, readingFor: (l) => ({ timeFormat: 'auto', timeZone: l.timezone }) };
@@ -112,4 +123,12 @@ export function groupReasons(entries: ReadonlyArray<{ code: string; reason: stri
     else groups.set(e.code, { code: e.code, count: 1, example: e.reason });
   }
   return [...groups.values()].sort((a, b) => b.count - a.count || a.code.localeCompare(b.code));
+}
+
+/** How far ahead of now an instant lies, in words ("3 hours", "2 days"), for a refused shift. */
+function durationAhead(ms: number): string {
+  const minutes = Math.max(1, Math.ceil(ms / 60_000));
+  if (minutes < 120) return plural(minutes, 'minute');
+  const hours = Math.ceil(minutes / 60);
+  return hours < 48 ? plural(hours, 'hour') : plural(Math.ceil(hours / 24), 'day');
 }
