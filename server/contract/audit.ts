@@ -70,6 +70,9 @@ export interface AuditEntry {
   actor: { name: string; email: string } | null;
   /** One of AUDIT_ACTIONS (typed as a string: the log keeps what was recorded). */
   action: string;
+  /** What happened, in our own plain words (server/contract/words/audit.ts). */
+  sentence: string;
+  /** The summary as recorded (older entries may name raw payment events). */
   summary: string;
   details: Record<string, unknown> | null;
 }

@@ -6,6 +6,7 @@ import type { AuditEntry } from '../../db/audit.repo.ts';
 import type { CreatedLab as CreatedLabAnswer, LabDetail } from '../../contract/labs.ts';
 import type { PendingInvitation } from '../../contract/invitations.ts';
 import type { AuditEntry as AuditEntryAnswer } from '../../contract/audit.ts';
+import { auditSentence } from '../../contract/words/audit.ts';
 import type { CreatedLab } from '../../services/labs.service.ts';
 import { ROLE_PERMISSIONS, type Role } from '../../policies/permissions.ts';
 
@@ -41,7 +42,7 @@ export function presentInvitation(i: Invitation): PendingInvitation {
   };
 }
 
-/** One entry of the audit log, its time in ISO 8601. */
+/** One entry of the audit log, its time in ISO 8601, with the sentence people read (the raw action and details kept). */
 export function presentAuditEntry(e: AuditEntry): AuditEntryAnswer {
-  return { id: e.id, at: e.at.toISOString(), actor: e.actor, action: e.action, summary: e.summary, details: e.details };
+  return { id: e.id, at: e.at.toISOString(), actor: e.actor, action: e.action, sentence: auditSentence(e), summary: e.summary, details: e.details };
 }
