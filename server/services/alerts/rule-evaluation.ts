@@ -84,8 +84,8 @@ function toReadings(cols: { ts: Float64Array; values: Float64Array }): RuleReadi
 
 /** One step of a value rule over new readings (the unusual-reading rule reads its history first). */
 async function stepValueRule(ctx: EvaluationContext, rule: AlertRule, target: WatchedTarget, memory: RuleMemory, readings: RuleReading[]): Promise<RuleStep> {
-  if (rule.kind === 'bounds') return evaluateBounds(rule.params as AlertRuleParams['bounds'], memory, readings);
-  if (rule.kind === 'rate') return evaluateRate(rule.params as AlertRuleParams['rate'], memory, readings);
+  if (rule.kind === 'bounds') return evaluateBounds(rule.params as AlertRuleParams['bounds'], memory, readings, target.unit);
+  if (rule.kind === 'rate') return evaluateRate(rule.params as AlertRuleParams['rate'], memory, readings, target.unit);
   const params = rule.params as AlertRuleParams['unusual'];
   const stepMs = target.expectedIntervalS * 1000;
   const periodSteps = Math.round((params.periodH * 3_600_000) / stepMs);
@@ -102,7 +102,7 @@ async function stepValueRule(ctx: EvaluationContext, rule: AlertRule, target: Wa
     // the grid spans the whole window read, so a logger silent at either end of it leaves empty cells there (filled for the fit), not a shorter history
     scores = unusualScores({ ts: history.ts, values: history.values }, readings, stepMs, periodSteps, { from, to: first }).scores;
   }
-  return evaluateUnusualReading(params, scores, memory, readings);
+  return evaluateUnusualReading(params, scores, memory, readings, target.unit);
 }
 
 /**

@@ -64,7 +64,7 @@ describe('evaluateBounds', () => {
 
   it('says what was seen', () => {
     const [open] = evaluateBounds(freezer, FRESH_MEMORY, at([-10, -10, -10, -10, -10, -10])).transitions;
-    expect(open.detail).toBe('-10 is above the high limit -15 for 300 s');
+    expect(open.detail).toBe('-10 is above the high limit -15 for 5 minutes');
   });
 
   it('an empty batch changes nothing', () => {

@@ -1,4 +1,4 @@
-import { formatValue, type RuleMemory, type RuleReading, type RuleStep, type RuleTransition } from './rule-step.ts';
+import { durationWords, withUnit, type RuleMemory, type RuleReading, type RuleStep, type RuleTransition } from './rule-step.ts';
 
 /** Limits of a bounds rule; at least one of low and high is set (low < high when both are). */
 export interface BoundsParams {
@@ -18,7 +18,7 @@ export interface BoundsParams {
  *
  * Cost: O(n) in the number of readings.
  */
-export function evaluateBounds(params: BoundsParams, memory: RuleMemory, readings: readonly RuleReading[]): RuleStep {
+export function evaluateBounds(params: BoundsParams, memory: RuleMemory, readings: readonly RuleReading[], unit = ''): RuleStep {
   const holdMs = params.holdS * 1000;
   let { pendingSince, open } = memory;
   let previous = memory.previous;
@@ -30,15 +30,15 @@ export function evaluateBounds(params: BoundsParams, memory: RuleMemory, reading
       pendingSince ??= r.ts;
       if (!open && r.ts - pendingSince >= holdMs) {
         open = true;
-        const limit = below ? `below the low limit ${formatValue(params.low!)}` : `above the high limit ${formatValue(params.high!)}`;
-        const held = holdMs > 0 ? ` for ${Math.round((r.ts - pendingSince) / 1000)} s` : '';
-        transitions.push({ kind: 'open', ts: r.ts, value: r.value, detail: `${formatValue(r.value)} is ${limit}${held}` });
+        const limit = below ? `below the low limit ${withUnit(params.low!, unit)}` : `above the high limit ${withUnit(params.high!, unit)}`;
+        const held = holdMs > 0 ? ` for ${durationWords(r.ts - pendingSince)}` : '';
+        transitions.push({ kind: 'open', ts: r.ts, value: r.value, detail: `${withUnit(r.value, unit)} is ${limit}${held}` });
       }
     } else {
       pendingSince = null;
       if (open) {
         open = false;
-        transitions.push({ kind: 'resolve', ts: r.ts, value: r.value, detail: `${formatValue(r.value)} is back within the limits` });
+        transitions.push({ kind: 'resolve', ts: r.ts, value: r.value, detail: `${withUnit(r.value, unit)} is back within the limits` });
       }
     }
     previous = r;

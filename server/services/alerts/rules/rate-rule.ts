@@ -1,4 +1,4 @@
-import { formatValue, type RuleMemory, type RuleReading, type RuleStep, type RuleTransition } from './rule-step.ts';
+import { withUnit, type RuleMemory, type RuleReading, type RuleStep, type RuleTransition } from './rule-step.ts';
 
 /** Parameters of a rate-of-change rule. */
 export interface RateParams {
@@ -17,17 +17,17 @@ export interface RateParams {
  *
  * Cost: O(n) in the number of readings.
  */
-export function evaluateRate(params: RateParams, memory: RuleMemory, readings: readonly RuleReading[]): RuleStep {
+export function evaluateRate(params: RateParams, memory: RuleMemory, readings: readonly RuleReading[], unit = ''): RuleStep {
   let { open, previous } = memory;
   const transitions: RuleTransition[] = [];
   for (const r of readings) {
     if (previous && r.ts > previous.ts) {
       const perMinute = (r.value - previous.value) / ((r.ts - previous.ts) / 60_000);
       const watched = params.direction === 'rise' ? perMinute : params.direction === 'fall' ? -perMinute : Math.abs(perMinute);
-      const rate = `${perMinute >= 0 ? '+' : ''}${formatValue(perMinute)} per minute`;
+      const rate = `${perMinute >= 0 ? '+' : ''}${withUnit(perMinute, unit)} per minute`;
       if (watched > params.maxPerMinute && !open) {
         open = true;
-        transitions.push({ kind: 'open', ts: r.ts, value: r.value, detail: `changed at ${rate} (limit ${formatValue(params.maxPerMinute)} per minute)` });
+        transitions.push({ kind: 'open', ts: r.ts, value: r.value, detail: `changed at ${rate} (limit ${withUnit(params.maxPerMinute, unit)} per minute)` });
       } else if (watched <= params.maxPerMinute && open) {
         open = false;
         transitions.push({ kind: 'resolve', ts: r.ts, value: r.value, detail: `changes at ${rate} again, within the limit` });

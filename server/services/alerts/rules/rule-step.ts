@@ -41,3 +41,23 @@ export const FRESH_MEMORY: RuleMemory = Object.freeze({ pendingSince: null, prev
 export function formatValue(v: number): string {
   return String(Number(v.toPrecision(6)));
 }
+
+/** A value with the channel's unit for alert texts ("12.4 °C"; the number alone when the channel has no unit). */
+export function withUnit(v: number, unit = ''): string {
+  return unit.trim() ? `${formatValue(v)} ${unit.trim()}` : formatValue(v);
+}
+
+/**
+ * A duration in words for alert texts, rounded to what a person reads: seconds below two
+ * minutes, minutes below two hours, hours (and minutes) below two days, then days and hours.
+ */
+export function durationWords(ms: number): string {
+  const unit = (n: number, one: string) => `${n.toLocaleString('en-GB')} ${one}${n === 1 ? '' : 's'}`;
+  const s = Math.round(ms / 1000);
+  if (s < 120) return unit(s, 'second');
+  const min = Math.round(ms / 60_000);
+  if (min < 120) return unit(min, 'minute');
+  if (min < 48 * 60) return min % 60 ? `${unit(Math.floor(min / 60), 'hour')} ${unit(min % 60, 'minute')}` : unit(min / 60, 'hour');
+  const h = Math.round(ms / 3_600_000);
+  return h % 24 ? `${unit(Math.floor(h / 24), 'day')} ${unit(h % 24, 'hour')}` : unit(h / 24, 'day');
+}

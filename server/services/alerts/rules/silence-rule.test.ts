@@ -31,6 +31,6 @@ describe('evaluateSilence', () => {
     const since = t0;
     expect(evaluateSilence({ ...base, watchingSince: since, lastReadingTs: null, open: false, now: since + 100_000 }).transition).toBeNull();
     const r = evaluateSilence({ ...base, watchingSince: since, lastReadingTs: null, open: false, now: since + 200_000 });
-    expect(r.transition).toMatchObject({ kind: 'open', ts: since + 180_000, detail: 'no reading ever arrived (limit 3 min)' });
+    expect(r.transition).toMatchObject({ kind: 'open', ts: since + 180_000, detail: 'no reading ever arrived (limit 3 minutes)' });
   });
 });

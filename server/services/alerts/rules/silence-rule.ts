@@ -1,4 +1,4 @@
-import type { RuleTransition } from './rule-step.ts';
+import { durationWords, type RuleTransition } from './rule-step.ts';
 
 /** What a silence check needs to know. */
 export interface SilenceInput {
@@ -26,10 +26,9 @@ export function evaluateSilence(input: SilenceInput): { open: boolean; transitio
   const limitMs = input.factor * input.expectedIntervalS * 1000;
   const lastSign = input.lastReadingTs ?? input.watchingSince;
   const silentFor = input.now - lastSign;
-  const minutes = (ms: number) => `${Math.round(ms / 60_000)} min`;
   if (!input.open && silentFor > limitMs) {
-    const heard = input.lastReadingTs === null ? 'no reading ever arrived' : `no reading for ${minutes(silentFor)}`;
-    return { open: true, transition: { kind: 'open', ts: lastSign + limitMs, value: null, detail: `${heard} (limit ${minutes(limitMs)})` } };
+    const heard = input.lastReadingTs === null ? 'no reading ever arrived' : `no reading for ${durationWords(silentFor)}`;
+    return { open: true, transition: { kind: 'open', ts: lastSign + limitMs, value: null, detail: `${heard} (limit ${durationWords(limitMs)})` } };
   }
   if (input.open && silentFor <= limitMs && input.lastReadingTs !== null) {
     return { open: false, transition: { kind: 'resolve', ts: input.lastReadingTs, value: null, detail: 'readings arrive again' } };

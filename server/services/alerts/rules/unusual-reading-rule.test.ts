@@ -78,7 +78,7 @@ describe('evaluateUnusualReading', () => {
       ['open', spikeAt],
       ['resolve', spikeAt + 1],
     ]);
-    expect(transitions[0].detail).toMatch(/^24 lies \d+(\.\d+)? robust SD above the usual pattern \(limit 5\)$/);
+    expect(transitions[0].detail).toMatch(/^24 lies \d+(\.\d+)? robust SD above the usual pattern \(limit 5 robust SD\)$/);
   });
 
   it('an abnormally high afternoon peak (27 °C at 15:00) is unusual', () => {

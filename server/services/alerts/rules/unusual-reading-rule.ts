@@ -1,5 +1,5 @@
 import { regularize, stl } from '../../../analysis/index.ts';
-import { formatValue, type RuleMemory, type RuleReading, type RuleStep, type RuleTransition } from './rule-step.ts';
+import { formatValue, withUnit, type RuleMemory, type RuleReading, type RuleStep, type RuleTransition } from './rule-step.ts';
 import { robustScale } from './robust-scale.ts';
 
 /** Parameters of an unusual-reading rule. */
@@ -149,6 +149,7 @@ export function evaluateUnusualReading(
   scores: ArrayLike<number> | null,
   memory: RuleMemory,
   readings: readonly RuleReading[],
+  unit = '',
 ): RuleStep {
   let { open } = memory;
   const transitions: RuleTransition[] = [];
@@ -165,11 +166,11 @@ export function evaluateUnusualReading(
         kind: 'open',
         ts: r.ts,
         value: r.value,
-        detail: `${formatValue(r.value)} lies ${sd} ${score > 0 ? 'above' : 'below'} the usual pattern (limit ${formatValue(params.k)})`,
+        detail: `${withUnit(r.value, unit)} lies ${sd} ${score > 0 ? 'above' : 'below'} the usual pattern (limit ${formatValue(params.k)} robust SD)`,
       });
     } else if (!unusual && open) {
       open = false;
-      transitions.push({ kind: 'resolve', ts: r.ts, value: r.value, detail: `${formatValue(r.value)} fits the usual pattern again` });
+      transitions.push({ kind: 'resolve', ts: r.ts, value: r.value, detail: `${withUnit(r.value, unit)} fits the usual pattern again` });
     }
   }
   return { memory: { pendingSince: null, previous, open }, transitions };
