@@ -16,6 +16,8 @@ export default function LabAlertsRoute() {
     () => (channels.data?.channels ?? []).map((c) => ({ id: c.id, label: c.label, unit: c.unit, loggerId: c.logger.id, loggerName: c.logger.name })),
     [channels.data],
   );
+  // each alert's times on the clock of its logger (the channels list carries the loggers' zones)
+  const zones = useMemo(() => new Map((channels.data?.channels ?? []).map((c) => [c.logger.id, c.logger.timezone])), [channels.data]);
   if (!detail.permissions.includes('alerts.read')) return <MissingPermission what="the alerts" />;
   return (
     <AlertsPage
@@ -24,6 +26,7 @@ export default function LabAlertsRoute() {
       channelHref={(a) =>
         a.channelId === null ? null : `${paths.labChannel.href(slug, a.channelId)}?from=${a.openedAt - 6 * HOUR}&to=${(a.resolvedAt ?? a.openedAt) + HOUR}`
       }
+      zoneOf={(a) => (a.loggerId === null ? null : zones.get(a.loggerId))}
       can={{ manage: detail.permissions.includes('alerts.manage'), subscribe: detail.permissions.includes('alerts.subscribe') }}
     />
   );

@@ -18,6 +18,7 @@ import { useChannelNotes } from '../../features/notes/api/get-channel-notes.ts';
 import { noteSpans } from '../../features/notes/components/note-spans.ts';
 import { ChannelNotesPanel } from '../../features/notes/components/channel-notes-panel.tsx';
 import { LoadingNote, Notice } from '../../components/notice.tsx';
+import { useClock } from '../../components/clock/use-clock.ts';
 import { ApiError } from '../../lib/api-client.ts';
 import { paths } from '../paths.ts';
 import { useLabContext } from './lab-context.ts';
@@ -33,6 +34,7 @@ export default function LabChannelRoute() {
   const can = (p: (typeof detail.permissions)[number]) => detail.permissions.includes(p);
   const channel = useChannel(slug, channelId);
   const all = useChannels(slug);
+  const clock = useClock();
   // `?from=…&to=…` (epoch ms, as alert mail links carry) opens the chart on that range.
   const [search] = useSearchParams();
   const [view, setView] = useState<{ range: TimeRange; preset: RangePreset | null }>(() => {
@@ -96,14 +98,16 @@ export default function LabChannelRoute() {
           />
         }
       />
-      {can('alerts.read') && channelAlerts.data && <ChannelAlertsPanel slug={slug} alerts={channelAlerts.data.alerts} canAcknowledge={can('alerts.manage')} />}
+      {can('alerts.read') && channelAlerts.data && (
+        <ChannelAlertsPanel slug={slug} alerts={channelAlerts.data.alerts} canAcknowledge={can('alerts.manage')} loggerZone={c.logger.timezone} />
+      )}
       {can('diagnostics.read') && (
         <>
           <DiagnosticsPanel
             slug={slug}
             channelId={c.id}
             channelKey={c.key}
-            timezone={c.logger.timezone}
+            timezone={clock.zoneFor('readings', c.logger.timezone)}
             chartRange={view.range}
             canExport={can('exports.create')}
           />
@@ -115,7 +119,14 @@ export default function LabChannelRoute() {
             partners={partners}
             stepS={c.expectedIntervalS ?? c.logger.expectedIntervalS}
           />
-          <RangeComparisonPanel slug={slug} channelId={c.id} channelLabel={c.label} timezone={c.logger.timezone} chartRange={view.range} partners={partners} />
+          <RangeComparisonPanel
+            slug={slug}
+            channelId={c.id}
+            channelLabel={c.label}
+            timezone={clock.zoneFor('readings', c.logger.timezone)}
+            chartRange={view.range}
+            partners={partners}
+          />
         </>
       )}
     </div>

@@ -35,7 +35,8 @@ export function Instant({
   if (ms === null) return <span>{String(at)}</span>;
   const zone = zoneFor(kind, loggerZone);
   const text = formatInstant(ms, zone, { seconds, part });
-  const iso = new Date(ms).toISOString();
+  // the API's own ISO text when it sent one, else the instant in ISO 8601 (UTC)
+  const iso = typeof at === 'string' ? at : new Date(ms).toISOString();
   if (!relative) {
     return (
       <time dateTime={iso} title={zoneCaption(ms, zone)}>

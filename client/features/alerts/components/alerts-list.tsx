@@ -5,8 +5,7 @@ import { TextField } from '../../../components/form-field.tsx';
 import { Notice } from '../../../components/notice.tsx';
 import { useAcknowledgeAlert } from '../api/acknowledge-alert.ts';
 import type { Alert } from '@shared/contract/alerts.ts';
-
-const utc = (ms: number) => `${new Date(ms).toISOString().slice(0, 16).replace('T', ' ')} UTC`;
+import { Instant } from '../../../components/clock/instant.tsx';
 
 /** Acknowledge with a note: someone is on it, so reminders stop. */
 function AcknowledgeForm({ slug, alert }: { slug: string; alert: Alert }) {
@@ -34,12 +33,15 @@ export function AlertsList({
   channelHref,
   canAcknowledge,
   label,
+  zoneOf,
 }: {
   slug: string;
   alerts: Alert[];
   channelHref: (a: Alert) => string | null;
   canAcknowledge: boolean;
   label: string;
+  /** The IANA zone of the alert's logger, so its times show on the logger's clock (by default). */
+  zoneOf?: (a: Alert) => string | null | undefined;
 }) {
   if (alerts.length === 0) return <p className="text-sm text-ink-soft">None.</p>;
   return (
@@ -57,7 +59,13 @@ export function AlertsList({
               )}
             </p>
             <p className="text-sm">
-              Opened {utc(a.openedAt)}: {a.openedDetail}.{a.resolvedAt !== null && ` Resolved ${utc(a.resolvedAt)}: ${a.resolvedDetail ?? ''}.`}
+              Opened <Instant at={a.openedAt} kind="readings" loggerZone={zoneOf?.(a)} />: {a.openedDetail}.
+              {a.resolvedAt !== null && (
+                <>
+                  {' Resolved '}
+                  <Instant at={a.resolvedAt} kind="readings" loggerZone={zoneOf?.(a)} />: {a.resolvedDetail ?? ''}.
+                </>
+              )}
               {a.remindersSent > 0 && ` Reminders sent: ${a.remindersSent}.`}
             </p>
             {a.acknowledged ? (

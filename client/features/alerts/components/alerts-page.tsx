@@ -16,11 +16,14 @@ export function AlertsPage({
   targets,
   channelHref,
   can,
+  zoneOf,
 }: {
   slug: string;
   targets: RuleTarget[];
   channelHref: (a: Alert) => string | null;
   can: { manage: boolean; subscribe: boolean };
+  /** The IANA zone of an alert's logger (its times show on that clock by default). */
+  zoneOf?: (a: Alert) => string | null | undefined;
 }) {
   const alerts = useAlerts(slug);
   const rules = useAlertRules(slug);
@@ -43,13 +46,13 @@ export function AlertsPage({
             <h3 id="open-alerts-heading" className="text-lg font-semibold">
               Open now ({open.length})
             </h3>
-            <AlertsList slug={slug} alerts={open} channelHref={channelHref} canAcknowledge={can.manage} label="Open alerts" />
+            <AlertsList slug={slug} alerts={open} channelHref={channelHref} canAcknowledge={can.manage} label="Open alerts" zoneOf={zoneOf} />
           </section>
           <section aria-labelledby="recent-alerts-heading" className="grid gap-3">
             <h3 id="recent-alerts-heading" className="text-lg font-semibold">
               Resolved in the last 7 days
             </h3>
-            <AlertsList slug={slug} alerts={recent} channelHref={channelHref} canAcknowledge={false} label="Recent alerts" />
+            <AlertsList slug={slug} alerts={recent} channelHref={channelHref} canAcknowledge={false} label="Recent alerts" zoneOf={zoneOf} />
           </section>
         </>
       )}

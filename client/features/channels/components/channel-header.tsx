@@ -1,5 +1,6 @@
 import type { ReactNode } from 'react';
-import { formatZoned, zoneOffsetLabel } from '../../../components/zoned-time.ts';
+import { zoneCaption } from '../../../components/clock/format.ts';
+import { Instant } from '../../../components/clock/instant.tsx';
 import type { ChannelDetail } from '@shared/contract/channels.ts';
 import { ChannelValue } from './channel-value.tsx';
 import { StatusBadge } from './status-badge.tsx';
@@ -24,9 +25,20 @@ export function ChannelHeader({ channel, now }: { channel: ChannelDetail; now: n
     ['Site', channel.logger.site ?? '—'],
     ['Unit', channel.unit ?? '—'],
     ['Valid range', validRange(channel)],
-    ['Time zone', `${tz} (now ${zoneOffsetLabel(now, tz)})`],
+    ['Time zone', `${zoneCaption(now, tz)} now`],
     ['Last value', <ChannelValue key="v" value={channel.lastReading?.value} unit={channel.unit} />],
-    ['Readings', `${channel.readingCount.toLocaleString('en')}${channel.firstReading ? ` since ${formatZoned(channel.firstReading.ts, tz)}` : ''}`],
+    [
+      'Readings',
+      <span key="n">
+        {channel.readingCount.toLocaleString('en')}
+        {channel.firstReading && (
+          <>
+            {' since '}
+            <Instant at={channel.firstReading.ts} kind="readings" loggerZone={tz} />
+          </>
+        )}
+      </span>,
+    ],
   ];
   return (
     <header className="grid gap-3">

@@ -7,7 +7,8 @@ import { Button } from '../../../components/button.tsx';
 import { EChart, type ZoomWindow } from '../../../components/charts/echart.tsx';
 import { SelectField } from '../../../components/form-field.tsx';
 import { LoadingNote, Notice } from '../../../components/notice.tsx';
-import { zoneOffsetLabel } from '../../../components/zoned-time.ts';
+import { formatInstant, zoneOffsetLabel } from '../../../components/clock/format.ts';
+import { useClock } from '../../../components/clock/use-clock.ts';
 import { seriesQueryOptions } from '../api/get-series.ts';
 import { RangePicker } from './range-picker.tsx';
 import { presetRange, zoomedRange, type RangePreset } from './range-presets.ts';
@@ -48,8 +49,10 @@ export function ChannelsTogether({ slug, canExport }: { slug: string; canExport:
   const range = asked.range ?? fallback;
   const found = useTogetherChannels(slug, asked.ids);
   const plan = useMemo(() => planLines(found.channels), [found.channels]);
-  const choices = zoneChoices(plan.lines);
-  const { zone, problem: zoneProblem } = chooseZone(asked.zone, choices);
+  // the chooser offers the loggers' zones, UTC and the person's own; by default the person's clock choice decides
+  const clock = useClock();
+  const choices = [...new Set([...zoneChoices(plan.lines), clock.myZone])];
+  const { zone, problem: zoneProblem } = chooseZone(asked.zone, choices, clock.zoneFor('readings', choices[0]));
 
   // A page opened without a range (from the channels table) writes the default into its URL,
   // so the link copied from the address bar shows a colleague the same stretch of time.
@@ -194,7 +197,7 @@ function TogetherChart({
   const historyStart = Math.max(...datas.map((d) => d?.historyStartsAt ?? -Infinity));
   const cautions = lines.filter((l) => needsSafetyCaution(l.channel));
   const owners = lines.filter((l) => l.channel.logger.timezone === zone).map((l) => l.channel.logger.name);
-  const whose = zone === 'UTC' && owners.length === 0 ? 'Coordinated Universal Time' : `the clock of ${[...new Set(owners)].join(', ')}`;
+  const whose = owners.length > 0 ? `the clock of ${[...new Set(owners)].join(', ')}` : zone === 'UTC' ? 'Coordinated Universal Time' : 'your own clock';
 
   return (
     <div ref={box} className="grid min-w-0 gap-4">
@@ -222,7 +225,7 @@ function TogetherChart({
         <RangePicker key={zone} range={range} preset={preset} timezone={zone} onChange={onRange} />
         {Number.isFinite(historyStart) && (
           <Notice tone="status">
-            The lab’s plan shows readings from {new Date(historyStart).toISOString().slice(0, 10)} on; older readings are kept and come back with a plan that
+            The lab’s plan shows readings from {formatInstant(historyStart, zone, { part: 'date' })} on; older readings are kept and come back with a plan that
             keeps more history.
           </Notice>
         )}

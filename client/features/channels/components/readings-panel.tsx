@@ -2,6 +2,8 @@ import { useEffect, useMemo, useRef, type ReactNode } from 'react';
 import type { EChartsCoreOption } from 'echarts/core';
 import { EChart, type ZoomWindow } from '../../../components/charts/echart.tsx';
 import { LoadingNote, Notice } from '../../../components/notice.tsx';
+import { Instant } from '../../../components/clock/instant.tsx';
+import { useClock } from '../../../components/clock/use-clock.ts';
 import type { ChannelDetail } from '@shared/contract/channels.ts';
 import type { TimeRange } from '@shared/contract/channels.ts';
 import { readingsCsvUrl, useSeries } from '../api/get-series.ts';
@@ -102,9 +104,11 @@ export function ReadingsPanel({
   const series = useSeries(slug, channel.id, range);
   // test readings are drawn apart from the readings (their own series and marker)
   const tests = useChannelTestReadings(slug, channel.id, range).data?.testReadings ?? NO_TESTS;
+  // the chart and the range are on the clock the person chose for readings (the logger's by default)
+  const zone = useClock().zoneFor('readings', channel.logger.timezone);
   const ctx = useMemo(
-    () => ({ label: channel.label, unit: channel.unit, timezone: channel.logger.timezone, validMin: channel.validMin, validMax: channel.validMax, range }),
-    [channel, range],
+    () => ({ label: channel.label, unit: channel.unit, timezone: zone, validMin: channel.validMin, validMax: channel.validMax, range }),
+    [channel, range, zone],
   );
   const data = series.data?.series;
   const option = useMemo(
@@ -132,11 +136,11 @@ export function ReadingsPanel({
           </a>
         )}
       </div>
-      <RangePicker range={range} preset={preset} timezone={channel.logger.timezone} onChange={onRange} />
+      <RangePicker range={range} preset={preset} timezone={zone} onChange={onRange} />
       {series.data?.historyStartsAt != null && (
         <Notice tone="status">
-          The lab’s plan shows readings from {new Date(series.data.historyStartsAt).toISOString().slice(0, 10)} on; older readings are kept and come back with a
-          plan that keeps more history.
+          The lab’s plan shows readings from <Instant at={series.data.historyStartsAt} kind="readings" loggerZone={channel.logger.timezone} part="date" /> on;
+          older readings are kept and come back with a plan that keeps more history.
         </Notice>
       )}
       {series.isError ? (

@@ -59,6 +59,11 @@ describe('zones', () => {
     const choices = zoneChoices(lines);
     expect(chooseZone(null, choices)).toEqual({ zone: 'America/New_York', problem: null });
     expect(chooseZone('UTC', choices)).toEqual({ zone: 'UTC', problem: null });
+    // the person's clock choice (UTC, or their own zone when offered) is the default; the URL still wins
+    expect(chooseZone(null, choices, 'UTC')).toEqual({ zone: 'UTC', problem: null });
+    expect(chooseZone(null, [...choices, 'Asia/Tokyo'], 'Asia/Tokyo')).toEqual({ zone: 'Asia/Tokyo', problem: null });
+    expect(chooseZone('Europe/Berlin', choices, 'UTC')).toEqual({ zone: 'Europe/Berlin', problem: null });
+    expect(chooseZone(null, choices, 'Australia/Perth')).toEqual({ zone: 'America/New_York', problem: null });
     expect(chooseZone('Asia/Tokyo', choices)).toEqual({
       zone: 'America/New_York',
       problem: 'zone: “Asia/Tokyo” is neither a zone of these channels’ loggers nor UTC; showing America/New_York.',

@@ -72,11 +72,12 @@ export function zoneChoices(lines: readonly PlannedLine[]): string[] {
 }
 
 /**
- * The zone the chart is shown in: the one the URL asks for when it is among `choices`, else the
- * first channel's logger zone (with a problem saying so when the URL asked for another).
+ * The zone the chart is shown in: the one the URL asks for when it is among `choices`, else
+ * `preferred` (the zone the person's clock choice gives; it must be among `choices`) or the first
+ * channel's logger zone (with a problem saying so when the URL asked for another).
  */
-export function chooseZone(asked: string | null, choices: readonly string[]): { zone: string; problem: string | null } {
-  const fallback = choices[0] ?? 'UTC';
+export function chooseZone(asked: string | null, choices: readonly string[], preferred?: string): { zone: string; problem: string | null } {
+  const fallback = preferred && choices.includes(preferred) ? preferred : (choices[0] ?? 'UTC');
   if (asked === null || choices.includes(asked)) return { zone: asked ?? fallback, problem: null };
   const shown = asked.length > 40 ? `${asked.slice(0, 40)}…` : asked;
   return { zone: fallback, problem: `zone: “${shown}” is neither a zone of these channels’ loggers nor UTC; showing ${fallback}.` };

@@ -1,4 +1,4 @@
-import { formatZoned } from '../../../components/zoned-time.ts';
+import { formatInstant } from '../../../components/clock/format.ts';
 import type { ComparisonAnswer, RangeSummary } from '@shared/contract/diagnostics.ts';
 import { fmtSeconds, fmtStat } from './format-number.ts';
 
@@ -21,7 +21,7 @@ export function ComparisonResult({ answer, timezone }: { answer: ComparisonAnswe
       <th scope="row" className={`${TH} font-normal`}>
         <span className="font-semibold">{name}</span> <span className="text-ink-soft">{channelLabel}</span>
         <span className="block text-xs text-ink-soft">
-          {formatZoned(r.from, timezone)} to {formatZoned(r.to, timezone)}
+          {formatInstant(r.from, timezone, { named: false })} to {formatInstant(r.to, timezone, { named: false })}
         </span>
       </th>
       <td className={`${TH} font-mono`}>{r.n.toLocaleString('en')}</td>
@@ -81,7 +81,7 @@ export function ComparisonResult({ answer, timezone }: { answer: ComparisonAnswe
         </tbody>
       </table>
       <table className="w-full border-collapse text-left text-sm" data-testid="comparison-ranges">
-        <caption className="mb-1 text-left text-sm font-semibold">The two ranges (times on the logger’s clock, {timezone})</caption>
+        <caption className="mb-1 text-left text-sm font-semibold">The two ranges (times in {timezone.replaceAll('_', ' ')})</caption>
         <thead className="border-b border-rule text-xs uppercase tracking-wide text-ink-soft">
           <tr>
             <th scope="col" className={TH}>

@@ -1,6 +1,6 @@
 import { useMemo } from 'react';
 import { EChart } from '../../../components/charts/echart.tsx';
-import { formatZoned } from '../../../components/zoned-time.ts';
+import { formatInstant } from '../../../components/clock/format.ts';
 import type { DiagnosticsReport } from '@shared/contract/diagnostics.ts';
 import { decompositionChartOption } from './decomposition-chart-option.ts';
 import { withLeftOutSpans } from './left-out-spans.ts';
@@ -26,7 +26,7 @@ export function DecompositionPanel({ report, timezone, pngPrefix }: { report: Di
   const outliers =
     o.indices.length === 0
       ? 'no remainder outliers'
-      : `${o.indices.length} remainder outlier${o.indices.length === 1 ? '' : 's'} (${outlierRule(o)}), first at ${formatZoned(o.times[0], timezone)}`;
+      : `${o.indices.length} remainder outlier${o.indices.length === 1 ? '' : 's'} (${outlierRule(o)}), first at ${formatInstant(o.times[0], timezone)}`;
   const own = report.method.excludedNotes.filter((n) => n.removedFrom === report.channel.id);
   const leftOut = own.length
     ? ` Shaded: ${own.length} span${own.length === 1 ? '' : 's'} left out of the analysis (${own.map((n) => n.kind).join(', ')}).`
@@ -36,7 +36,7 @@ export function DecompositionPanel({ report, timezone, pngPrefix }: { report: Di
       <EChart
         option={option}
         label={`Seasonal decomposition (${METHOD_NAMES[d.method]}, period ${d.period} steps): observed, trend, seasonal and remainder`}
-        summary={`${METHOD_NAMES[d.method]} with a period of ${d.period} steps; ${outliers}.${leftOut} Times on the logger’s clock (${timezone}).`}
+        summary={`${METHOD_NAMES[d.method]} with a period of ${d.period} steps; ${outliers}.${leftOut} Times in ${timezone.replaceAll('_', ' ')}.`}
         height={560}
         pngName={`${pngPrefix}-decomposition`}
       />

@@ -79,7 +79,7 @@ describe('DiagnosticsPanel', () => {
     expect(coefRows[2]).toBe('μ mean21.42 %± 0.587');
     expect(coefRows[3]).toBe('σ² innovation variance0.0441');
     expect(screen.getByTestId('process-model-fitted-on').textContent).toBe(
-      'Fitted on the remainder after the 1-day cycle (288 steps): 2,016 cells of 5 min, 2026-06-01 00:00 to 2026-06-08 00:00 (UTC). About 1 in 10.2 readings is independent information.',
+      'Fitted on the remainder after the 1-day cycle (288 steps): 2,016 cells of 5 min, 2026-06-01 00:00 UTC to 2026-06-08 00:00 UTC. About 1 in 10.2 readings is independent information.',
     );
     const candidates = within(screen.getByTestId('process-model-candidates')).getAllByRole('row');
     const chosen = candidates.filter((r) => r.getAttribute('aria-current') === 'true');

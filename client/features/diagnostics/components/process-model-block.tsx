@@ -1,4 +1,4 @@
-import { formatZoned } from '../../../components/zoned-time.ts';
+import { formatInstant } from '../../../components/clock/format.ts';
 import type { ProcessModel } from '@shared/contract/diagnostics.ts';
 import { BlockSection } from './block-section.tsx';
 import { ARMA_SIGNS, armaName, coefficientRows } from './arma-notation.ts';
@@ -66,8 +66,8 @@ export function ProcessModelBlock({
       </p>
       <p data-testid="process-model-sentence">{model.sentence}</p>
       <p className="text-sm text-ink-soft" data-testid="process-model-fitted-on">
-        Fitted on {fittedOn}: {model.cells.toLocaleString('en')} cells of {fmtSeconds(stepS)}, {formatZoned(model.fittedFrom, timezone)} to{' '}
-        {formatZoned(model.fittedTo, timezone)} ({timezone}).{' '}
+        Fitted on {fittedOn}: {model.cells.toLocaleString('en')} cells of {fmtSeconds(stepS)}, {formatInstant(model.fittedFrom, timezone)} to{' '}
+        {formatInstant(model.fittedTo, timezone)}.{' '}
         {model.readingsPerIndependent === null
           ? 'The model sits at the edge of a wandering level, so it gives no figure for the independent information; see the effective sample size.'
           : model.readingsPerIndependent < 1.05

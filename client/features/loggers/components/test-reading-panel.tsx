@@ -2,7 +2,7 @@ import { useEffect, useState, type FormEvent } from 'react';
 import { Button } from '../../../components/button.tsx';
 import { SelectField, TextField } from '../../../components/form-field.tsx';
 import { Notice } from '../../../components/notice.tsx';
-import { formatZoned, zoneOffsetLabel } from '../../../components/zoned-time.ts';
+import { Instant } from '../../../components/clock/instant.tsx';
 import { ApiError } from '../../../lib/api-client.ts';
 import type { Channel, TestReading, TestReadingBody, TestReadingResult } from '@shared/contract/loggers.ts';
 import { SafetyCautionNote } from '../../../components/safety-caution-note.tsx';
@@ -27,9 +27,6 @@ function useTick(active: boolean): number {
   }, [active]);
   return now;
 }
-
-/** The time of a test reading on the logger's clock, with the zone and its offset. */
-const onLoggerClock = (ts: number, tz: string) => `${formatZoned(ts, tz, { seconds: true })} (${tz}, ${zoneOffsetLabel(ts, tz)})`;
 
 /**
  * "Remove" with the time left, for the member who sent the reading while its 10 minutes last;
@@ -73,7 +70,9 @@ function Verdict({ slug, result, receivedAt }: { slug: string; result: TestReadi
         {testReading && (
           <>
             <dt className="text-ink-soft">Kept as a test</dt>
-            <dd data-testid="kept-at">at {onLoggerClock(testReading.ts, timezone)} on the logger’s clock</dd>
+            <dd data-testid="kept-at">
+              at <Instant at={testReading.ts} kind="readings" loggerZone={timezone} seconds />
+            </dd>
             {testReading.outsideRange && (
               <>
                 <dt className="text-ink-soft">Note</dt>
@@ -103,7 +102,7 @@ function RecentTestReadings({ slug, loggerId }: { slug: string; loggerId: number
       <caption className="mb-1 text-left font-semibold">Recent test readings</caption>
       <thead className="text-left text-ink-soft">
         <tr>
-          <th className="py-1 pr-3 font-medium">Time ({tz})</th>
+          <th className="py-1 pr-3 font-medium">Time</th>
           <th className="py-1 pr-3 font-medium">Channel</th>
           <th className="py-1 pr-3 font-medium">Value</th>
           <th className="py-1 pr-3 font-medium">Sent by</th>
@@ -115,7 +114,9 @@ function RecentTestReadings({ slug, loggerId }: { slug: string; loggerId: number
       <tbody>
         {rows.map((r) => (
           <tr key={r.id} className="border-t border-rule">
-            <td className="py-1 pr-3 font-mono">{formatZoned(r.ts, tz, { seconds: true })}</td>
+            <td className="py-1 pr-3 font-mono">
+              <Instant at={r.ts} kind="readings" loggerZone={tz} seconds />
+            </td>
             <td className="py-1 pr-3 font-mono">{r.channel}</td>
             <td className="py-1 pr-3">
               {r.value}

@@ -3,7 +3,9 @@ import type { Note, NoteKind } from '@shared/contract/notes.ts';
 import { Button } from '../../../components/button.tsx';
 import { ConfirmButton } from '../../../components/confirm-button.tsx';
 import { Notice } from '../../../components/notice.tsx';
-import { formatZoned } from '../../../components/zoned-time.ts';
+import { formatInstant } from '../../../components/clock/format.ts';
+import { Instant } from '../../../components/clock/instant.tsx';
+import { useClock } from '../../../components/clock/use-clock.ts';
 import { useDeleteNote } from '../api/delete-note.ts';
 import { useUpdateNote } from '../api/update-note.ts';
 import { NoteForm } from './note-form.tsx';
@@ -36,6 +38,8 @@ export function NotesList({
   const [editing, setEditing] = useState<number | null>(null);
   const update = useUpdateNote(slug);
   const remove = useDeleteNote(slug);
+  // notes are read beside the readings: on the clock the person chose for readings (the logger's by default)
+  const zone = useClock().zoneFor('readings', timezone);
   if (notes.length === 0) return <p className="text-sm text-ink-soft">{empty}</p>;
   return (
     <ul className="grid gap-2" aria-label="Notes">
@@ -44,7 +48,7 @@ export function NotesList({
           {editing === n.id ? (
             <NoteForm
               kinds={kinds}
-              timezone={timezone}
+              timezone={zone}
               initial={n}
               defaultSpan={n}
               channelLabel={n.channelLabel}
@@ -64,7 +68,7 @@ export function NotesList({
             <div className="grid gap-1">
               <div className="flex flex-wrap items-baseline gap-x-3 gap-y-1">
                 <span className="rounded bg-slate-100 px-1.5 py-0.5 text-xs font-semibold uppercase tracking-wide text-[#3f5478]">{n.kind.name}</span>
-                <span className="font-mono text-xs">{spanWords(n.from, n.to, (ms) => formatZoned(ms, timezone))}</span>
+                <span className="font-mono text-xs">{spanWords(n.from, n.to, (ms) => formatInstant(ms, zone))}</span>
                 {(showWhere || n.channelId === null) && (
                   <span className="text-xs text-ink-soft">
                     {n.channelId === null ? `whole logger ${n.loggerName}` : `${n.loggerName} · ${n.channelLabel ?? ''}`}
@@ -74,8 +78,8 @@ export function NotesList({
               </div>
               <p className="whitespace-pre-wrap">{n.text}</p>
               <p className="text-xs text-ink-soft">
-                {n.updatedBy ? `Last changed by ${n.updatedBy.name}` : 'Written by a former member'}, {formatZoned(Date.parse(n.updatedAt), timezone)} (
-                {timezone})
+                {n.updatedBy ? `Last changed by ${n.updatedBy.name}` : 'Written by a former member'},{' '}
+                <Instant at={n.updatedAt} kind="readings" loggerZone={timezone} />
               </p>
               {canEdit && (
                 <div className="flex gap-2">
