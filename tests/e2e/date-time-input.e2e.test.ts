@@ -124,4 +124,29 @@ describe('the channel page’s own date-time input and the chart’s day ticks',
     await form.scrollIntoViewIfNeeded();
     await keepScreenshot(page, 'date-time-input-range-and-day-ticks');
   });
+
+  it('on a phone the range fields wrap without sideways scrolling, and a day can be picked from the month', async () => {
+    await page.setViewportSize({ width: 390, height: 844 });
+    const form = page.getByRole('form', { name: 'Custom range' });
+    await form.getByLabel('From date').waitFor();
+    await form.getByRole('button', { name: 'Pick the day from a month' }).first().click();
+    const month = form.getByRole('group', { name: 'From: pick a day' });
+    const fromDay = await form.getByLabel('From date').inputValue();
+    expect(await month.getByRole('button', { name: fromDay }).getAttribute('aria-pressed')).toBe('true');
+    // a finger-sized day (WCAG 2.2 SC 2.5.5's 44 px)
+    const box = await month.getByRole('button', { name: fromDay }).boundingBox();
+    expect(Math.min(box!.width, box!.height)).toBeGreaterThanOrEqual(44);
+    const widths = await page.evaluate<{ doc: number; view: number }>('({ doc: document.documentElement.scrollWidth, view: window.innerWidth })');
+    expect(widths.doc).toBeLessThanOrEqual(widths.view);
+    await month.scrollIntoViewIfNeeded();
+    await keepScreenshot(page, 'date-time-input-phone-month');
+    // the first of the shown month, picked with the keyboard from the chosen day
+    const first = `${fromDay.slice(0, 8)}01`;
+    await month.getByRole('button', { name: fromDay }).focus();
+    for (let i = Number(fromDay.slice(8)); i > 1; i--) await page.keyboard.press('ArrowLeft');
+    await page.keyboard.press('Enter');
+    expect(await form.getByLabel('From date').inputValue()).toBe(first);
+    expect(await month.count()).toBe(0);
+    await page.setViewportSize({ width: 1440, height: 900 });
+  });
 });
