@@ -10,6 +10,7 @@ import { useDeleteNote } from '../api/delete-note.ts';
 import { useUpdateNote } from '../api/update-note.ts';
 import { NoteForm } from './note-form.tsx';
 import { spanWords } from './note-spans.ts';
+import { lastChangedBy, NOTES_MESSAGES } from '../messages.ts';
 
 /**
  * Notes as a list, earliest first: kind, span on the logger's clock, where (channel or whole
@@ -23,7 +24,7 @@ export function NotesList({
   timezone,
   canEdit,
   showWhere = true,
-  empty = 'No notes in this range.',
+  empty = NOTES_MESSAGES.noneInRange,
 }: {
   slug: string;
   notes: readonly Note[];
@@ -78,7 +79,7 @@ export function NotesList({
               </div>
               <p className="whitespace-pre-wrap">{n.text}</p>
               <p className="text-xs text-ink-soft">
-                {n.updatedBy ? `Last changed by ${n.updatedBy.name}` : 'Written by a former member'},{' '}
+                {n.updatedBy ? lastChangedBy(n.updatedBy.name) : NOTES_MESSAGES.byFormerMember},{' '}
                 <Instant at={n.updatedAt} kind="readings" loggerZone={timezone} />
               </p>
               {canEdit && (
@@ -88,7 +89,7 @@ export function NotesList({
                   </Button>
                   <ConfirmButton
                     label="Delete"
-                    question="Delete this note?"
+                    question={NOTES_MESSAGES.deleteQuestion}
                     confirmLabel="Delete the note"
                     pending={remove.isPending}
                     onConfirm={() => remove.mutate(n.id)}
