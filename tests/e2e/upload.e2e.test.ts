@@ -140,8 +140,8 @@ describe('registering a logger and uploading its history through the browser', (
     const badTimeUtc = new Date(Date.parse(badTime)).toISOString();
     expect(await table.getByText(badTimeUtc, { exact: true }).count()).toBe(1);
 
-    await table.getByRole('button', { name: /^Fix row / }).click();
-    const form = page.getByRole('form', { name: /^Fix row / });
+    await table.getByRole('button', { name: /^Fix the reading of / }).click();
+    const form = page.getByRole('form', { name: /^Fix the reading of / });
     await form.getByLabel('Value').fill('16.8');
     await keepScreenshot(page, 'upload-quarantine-fix');
     await form.getByRole('button', { name: 'Re-submit' }).click();

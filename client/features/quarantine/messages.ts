@@ -57,6 +57,9 @@ export function resubmitSummary(o: { resubmitted: number; accepted: number; dupl
 /** A logger the rows name that is not in the lab's list any more (retired and hidden, or deleted): never its id. */
 export const UNLISTED_LOGGER = 'A logger no longer listed';
 
+/** The short name of a reason code this client has no words for yet (the server's own reason text is shown beside it). */
+export const OTHER_REASON = 'Other reason';
+
 /** The bulk repair form's own checks, before the server's schema. */
 export const BULK_DRAFT_MESSAGES = {
   hoursWhole: 'Hours: must be a whole number.',

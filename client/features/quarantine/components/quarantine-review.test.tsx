@@ -45,6 +45,9 @@ describe('QuarantineReview', () => {
     const api = fakeApi({ 'GET /api/v1/labs/fernhollow/quarantine': () => pageOf([BAD_VALUE], 120, '1790000000000.4321.801') });
     const { router } = renderWithProviders(<QuarantineReview slug="fernhollow" loggers={LOGGERS} />, '/q?loggerId=5&reason=bad_value&cursor=1790000000000.1.9');
     await screen.findByText('n/a');
+    // a stored reason that starts with a part key shows the part's label instead
+    expect(screen.getByText('Value: must be a finite number')).toBeTruthy();
+    expect(screen.queryByText(/^value:/)).toBeNull();
     expect(api.requests[0].path).toBe('/api/v1/labs/fernhollow/quarantine?loggerId=5&reason=bad_value&cursor=1790000000000.1.9&pageSize=50');
     expect((screen.getByLabelText('Logger') as HTMLSelectElement).value).toBe('5');
     expect(screen.getByText('1 row shown · 120 matching')).toBeTruthy();
@@ -86,7 +89,7 @@ describe('QuarantineReview', () => {
       },
     });
     renderWithProviders(<QuarantineReview slug="fernhollow" loggers={LOGGERS} />, '/q?loggerId=5');
-    fireEvent.click(await screen.findByRole('button', { name: 'Fix row 801' }));
+    fireEvent.click(await screen.findByRole('button', { name: 'Fix the reading of “air_t” at “2026-09-01T00:10:00+03:00”' }));
     const form = screen.getByRole('form', { name: 'Fix the reading of “air_t” at “2026-09-01T00:10:00+03:00”' });
     expect((within(form).getByLabelText('Time') as HTMLInputElement).value).toBe('2026-09-01T00:10:00+03:00');
     fireEvent.change(within(form).getByLabelText('Value'), { target: { value: ' 12.3 ' } });
@@ -114,7 +117,7 @@ describe('QuarantineReview', () => {
       }),
     });
     renderWithProviders(<QuarantineReview slug="fernhollow" loggers={LOGGERS} />, '/q');
-    fireEvent.click(await screen.findByRole('button', { name: 'Fix row 801' }));
+    fireEvent.click(await screen.findByRole('button', { name: 'Fix the reading of “air_t” at “2026-09-01 00:10:00”' }));
     expect(screen.getByText(/No UTC offset/)).toBeTruthy();
     fireEvent.change(screen.getByLabelText('Value'), { target: { value: '12.3' } });
     fireEvent.click(screen.getByRole('button', { name: 'Re-submit' }));
@@ -137,7 +140,7 @@ describe('QuarantineReview', () => {
     await screen.findByText('soil_t');
     expect((screen.getByRole('button', { name: 'Re-submit selected' }) as HTMLButtonElement).disabled).toBe(true);
 
-    fireEvent.click(screen.getByLabelText('Select row 802'));
+    fireEvent.click(screen.getByLabelText('Select the reading of “soil_t” at “2026-09-01T00:10:00+03:00”'));
     fireEvent.click(screen.getByRole('button', { name: 'Re-submit selected' }));
     await screen.findByText(/0 stored, 1 already stored/);
     expect(api.requests.find((r) => r.path.endsWith('/resubmit'))!.body).toEqual({

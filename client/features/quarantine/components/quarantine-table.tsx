@@ -6,6 +6,7 @@ import { Instant } from '../../../components/clock/instant.tsx';
 import type { QuarantinedRow, ResubmitRow } from '@shared/contract/quarantine.ts';
 import { FixRowForm } from './fix-row-form.tsx';
 import { isReasonCode, REASON_LABELS } from './reason-labels.ts';
+import { OTHER_REASON, plainReason, readingName, UNLISTED_LOGGER } from '../messages.ts';
 
 const mono = (text: string | null) => (text === null ? <span className="text-ink-soft">—</span> : <span className="break-all font-mono text-xs">{text}</span>);
 
@@ -14,7 +15,7 @@ function FixCell({ row, pending, onResubmit }: { row: QuarantinedRow; pending: b
   const [open, setOpen] = useState(false);
   if (!open) {
     return (
-      <Button size="sm" onClick={() => setOpen(true)} aria-label={`Fix row ${row.id}`}>
+      <Button size="sm" onClick={() => setOpen(true)} aria-label={`Fix ${readingName(row)}`}>
         Fix
       </Button>
     );
@@ -70,7 +71,7 @@ export function QuarantineTable({
           <label className="justify-center">
             <input
               type="checkbox"
-              aria-label={`Select row ${row.original.id}`}
+              aria-label={`Select ${readingName(row.original)}`}
               checked={selected.has(row.original.id)}
               onChange={(e) => toggle(row.original.id, e.target.checked)}
               className="h-4 w-4 accent-lichen"
@@ -84,15 +85,15 @@ export function QuarantineTable({
         header: 'Reason',
         cell: ({ row }) => (
           <span className="grid gap-0.5">
-            <span className="font-medium">{isReasonCode(row.original.reasonCode) ? REASON_LABELS[row.original.reasonCode] : row.original.reasonCode}</span>
-            <span className="text-xs text-ink-soft">{row.original.reason}</span>
+            <span className="font-medium">{isReasonCode(row.original.reasonCode) ? REASON_LABELS[row.original.reasonCode] : OTHER_REASON}</span>
+            <span className="text-xs text-ink-soft">{plainReason(row.original.reason)}</span>
           </span>
         ),
       },
       {
         id: 'logger',
         header: 'Logger',
-        cell: ({ row }) => (row.original.loggerId === null ? '—' : (loggerNames.get(row.original.loggerId) ?? `#${row.original.loggerId}`)),
+        cell: ({ row }) => (row.original.loggerId === null ? '—' : (loggerNames.get(row.original.loggerId) ?? UNLISTED_LOGGER)),
       },
       { id: 'channel', header: 'Channel', cell: ({ row }) => mono(row.original.channel) },
       { id: 'ts', meta: { phone: 'value' }, header: 'Time', cell: ({ row }) => mono(row.original.ts) },
