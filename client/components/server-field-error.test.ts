@@ -29,8 +29,8 @@ describe('fieldsFromServerError', () => {
   });
 
   it('keeps only the fields the form has, in the answer order', () => {
-    const err = new ApiError(400, 'invalid_input', 'Channel key (channel 2): is required. Lab name: is required.', [
-      { field: 'channels.1.key', label: 'Channel key (channel 2)', reason: 'is required' },
+    const err = new ApiError(400, 'invalid_input', 'Channel key (2nd channel): is required. Lab name: is required.', [
+      { field: 'channels.1.key', label: 'Channel key (2nd channel)', reason: 'is required' },
       { field: 'name', label: 'Lab name', reason: 'is required' },
     ]);
     expect(fieldsFromServerError(err, ['name', 'channels.1.key'])).toEqual([

@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { idParams, type IsoTime } from './common.ts';
 import { rangeFields } from './channels.ts';
 import { ALERT_REASONS } from './words/alerts.ts';
-import { REASONS } from './words/reasons.ts';
+import { atLeast, atMost, REASONS } from './words/reasons.ts';
 
 /**
  * Alert rules and alerts: the vocabulary shared by the HTTP layer, the alert services, the
@@ -19,8 +19,8 @@ const whole = (min: number, max: number, negative = 'must not be negative') =>
   z
     .number({ error: 'must be a number' })
     .int('must be a whole number')
-    .min(min, min === 0 ? negative : `must be at least ${min}`)
-    .max(max, `must be at most ${max}`);
+    .min(min, min === 0 ? negative : atLeast(min))
+    .max(max, atMost(max));
 const id = z.number({ error: 'must be a number' }).int('must be a whole number').positive(REASONS.positive);
 
 export const silenceParamsSchema = z.object({
@@ -95,7 +95,7 @@ export const updateAlertRuleSchema = z
     reminderAfterMin: common.reminderAfterMin.unwrap().unwrap().nullable().optional(),
     enabled: z.boolean({ error: 'must be true or false' }).optional(),
     /** Checked against the rule's kind by the service. */
-    params: z.record(z.string(), z.unknown(), { error: 'must be an object' }).optional(),
+    params: z.record(z.string(), z.unknown(), { error: REASONS.object }).optional(),
   })
   .strict();
 export type UpdateAlertRuleInput = z.infer<typeof updateAlertRuleSchema>;

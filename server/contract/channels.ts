@@ -3,6 +3,7 @@ import { parseReadingTime } from '../services/ingest/parse-reading-time.ts';
 import type { IsoTime } from './common.ts';
 import type { Channel } from './loggers.ts';
 import { RANGE_REASONS } from './words/channels.ts';
+import { atLeast, atMost } from './words/reasons.ts';
 
 /**
  * The channel browser: the inputs of the overview, detail, chart series and readings export,
@@ -39,7 +40,12 @@ export const timeParam = z
 
 /** A whole number from a query string within [min, max], with `field: reason` messages. */
 export const wholeNumber = (min: number, max: number) =>
-  z.coerce.number({ error: 'must be a number' }).int('must be a whole number').min(min, `must be at least ${min}`).max(max, `must be at most ${max}`);
+  z.coerce
+    .number({ error: 'must be a number' })
+    .int('must be a whole number')
+    .min(min, atLeast(min))
+    // an id's bound is no figure for people
+    .max(max, max >= 1e9 ? 'is not one Lagbook knows' : atMost(max));
 
 /** The optional `from` and `to` of a range query. */
 export const rangeFields = { from: timeParam.optional(), to: timeParam.optional() };

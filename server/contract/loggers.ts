@@ -3,7 +3,7 @@ import { idParams, pathId, type IsoTime } from './common.ts';
 import { rangeFields, resolveRange } from './channels.ts';
 import { timeZoneSchema } from './me.ts';
 import { LOGGER_REASONS } from './words/loggers.ts';
-import { REASONS } from './words/reasons.ts';
+import { atLeast, atMost, REASONS } from './words/reasons.ts';
 
 /**
  * Loggers, their channels and ingest keys, and the test reading: the input schemas (shared with
@@ -34,7 +34,7 @@ const channelFields = {
   validMin: z.number().finite().nullable().optional(),
   validMax: z.number().finite().nullable().optional(),
   expectedIntervalS: intervalSchema.nullable().optional(),
-  seasonalPeriodHint: z.number().int('must be a whole number').min(2, 'must be at least 2').max(100000, 'must be at most 100000').nullable().optional(),
+  seasonalPeriodHint: z.number().int('must be a whole number').min(2, atLeast(2)).max(100000, atMost(100000)).nullable().optional(),
 };
 
 const rangeIsOrdered = (c: { validMin?: number | null; validMax?: number | null }) =>

@@ -38,7 +38,7 @@ export function decodeQuarantineCursor(text: string): QuarantineCursorKey | null
   return { receivedAt: new Date(receivedAtMs), rowIndex, id };
 }
 
-const isoTime = z.iso.datetime({ offset: true, error: 'must be an ISO 8601 date-time with an offset, e.g. 2026-11-24T00:00:00Z' });
+const isoTime = z.iso.datetime({ offset: true, error: REASONS.isoTime });
 
 /**
  * What the quarantine list can be narrowed to (all optional): logger, reason code, the channel

@@ -142,7 +142,7 @@ export type UploadLine = ({ type: 'progress' } & ImportProgress) | ({ type: 'sum
 export const timePreviewSchema = z
   .object({
     samples: z
-      .array(z.string({ error: UPLOAD_REASONS.samplesText }).max(100, 'must be at most 100 characters'), { error: UPLOAD_REASONS.samplesText })
+      .array(z.string({ error: 'must be text' }).max(100, 'must be at most 100 characters'), { error: UPLOAD_REASONS.samplesText })
       .min(1, UPLOAD_REASONS.samplesMin)
       .max(50, 'must be at most 50 texts'),
     timeFormat: z.enum(UPLOAD_TIME_FORMATS, { error: UPLOAD_REASONS.timeFormat }).default('auto'),

@@ -37,7 +37,7 @@ function under(parent: string, labels: Labels): Labels {
 }
 
 const LOGGER_FIELDS: Labels = { ...LOGGER_LABELS, ...under('channels', CHANNEL_LABELS) };
-const QUARANTINE_FIELDS: Labels = { ...QUARANTINE_LABELS, 'action.reason': DISCARD_REASON_LABEL, 'rows.channel': 'Channel' };
+const QUARANTINE_FIELDS: Labels = { ...QUARANTINE_LABELS, 'action.reason': DISCARD_REASON_LABEL, 'rows.channel': 'Channel', 'rows.id': 'Which row' };
 
 /** The catalogue for a route path (the lab-relative path of the route table, or an absolute one); first match wins. */
 const BY_ROUTE: Array<[RegExp, Labels]> = [
@@ -65,12 +65,19 @@ const BY_ROUTE: Array<[RegExp, Labels]> = [
 /** Every catalogue at once, for a field named without its route (later areas do not override earlier ones). */
 const ANY_ROUTE: Labels = Object.assign({}, ...BY_ROUTE.map(([, labels]) => labels).reverse()) as Labels;
 
-/** What one item of a list field is called ("Channel key (channel 3)"). */
+/** What one item of a list field is called ("Channel key (3rd channel)"). */
 const ITEM_WORDS: Labels = { channels: 'channel', rows: 'row', ids: 'row', samples: 'time text' };
+
+/** 1st, 2nd, 3rd, 4th … 11th, 12th, 13th, 21st (English ordinals). */
+export function ordinal(n: number): string {
+  const tens = n % 100;
+  const suffix = tens >= 11 && tens <= 13 ? 'th' : (({ 1: 'st', 2: 'nd', 3: 'rd' } as Record<number, string>)[n % 10] ?? 'th');
+  return `${n.toLocaleString('en-GB')}${suffix}`;
+}
 
 /**
  * The label of a field by its key path: the route's catalogue (`parent.key` before `key`), then
- * any catalogue, then the key in words; list positions are named ("(channel 3)", counting from 1).
+ * any catalogue, then the key in words; list positions are named ("(3rd channel)", counting from 1).
  */
 export function fieldLabel(path: readonly PropertyKey[], routePath?: string): string {
   const labels = (routePath !== undefined && BY_ROUTE.find(([re]) => re.test(routePath))?.[1]) || ANY_ROUTE;
@@ -79,7 +86,7 @@ export function fieldLabel(path: readonly PropertyKey[], routePath?: string): st
   const leaf = keys.at(-1);
   const pair = keys.slice(-2).join('.');
   let label = leaf === undefined ? 'The request' : (labels[pair] ?? labels[leaf] ?? ANY_ROUTE[pair] ?? ANY_ROUTE[leaf] ?? capitalise(humanizeKey(leaf)));
-  const where = positions.map(({ list, n }) => `${ITEM_WORDS[list] ?? 'item'} ${n}`).join(', ');
+  const where = positions.map(({ list, n }) => `${ordinal(n)} ${ITEM_WORDS[list] ?? 'item'}`).join(', ');
   if (where) label += ` (${where})`;
   return label;
 }

@@ -4,7 +4,7 @@ import { z } from 'zod';
 import { describe, expect, it } from 'vitest';
 import { createLogWriter } from '../../log-writer.ts';
 import { channelInputSchema, createLoggerSchema } from '../../contract/loggers.ts';
-import { boundsParamsSchema } from '../../contract/alerts.ts';
+import { boundsParamsSchema, createAlertRuleSchema } from '../../contract/alerts.ts';
 import { errorHandler, zodToValidationError } from './error-handler.ts';
 import { fieldRefusal } from '../../services/service-errors.ts';
 
@@ -48,8 +48,8 @@ describe('zodToValidationError', () => {
       }),
       '/loggers',
     );
-    expect(err.details).toEqual([{ field: 'channels.1.key', label: 'Channel key (channel 2)', reason: expect.stringMatching(/^use 1 to 64 letters/) }]);
-    expect(err.message).toMatch(/^Channel key \(channel 2\): use 1 to 64 letters/);
+    expect(err.details).toEqual([{ field: 'channels.1.key', label: 'Channel key (2nd channel)', reason: expect.stringMatching(/^use 1 to 64 letters/) }]);
+    expect(err.message).toMatch(/^Channel key \(2nd channel\): use 1 to 64 letters/);
   });
 
   it('gives plain reasons for checks without their own message (wrong type, missing field)', () => {
@@ -64,6 +64,11 @@ describe('zodToValidationError', () => {
   it('lists each unknown field of a strict form under its own key, put in words', () => {
     const err = zodToValidationError(zodError(z.object({ a: z.string() }).strict(), { a: 'x', colourCode: 1 }));
     expect(err.details).toEqual([{ field: 'colourCode', label: 'Colour code', reason: 'is not a field of this form' }]);
+  });
+
+  it('names the kind as the missing field of a form that has none', () => {
+    const err = zodToValidationError(zodError(createAlertRuleSchema, { name: 'Warm' }), '/alert-rules');
+    expect(err.details).toEqual([{ field: 'kind', label: 'Kind of rule', reason: 'must be silence, bounds, rate or unusual' }]);
   });
 
   it('uses the alert rule labels for nested rule settings', () => {

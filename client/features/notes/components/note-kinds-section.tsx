@@ -3,6 +3,7 @@ import type { NoteKind } from '@shared/contract/notes.ts';
 import { Button } from '../../../components/button.tsx';
 import { TextField } from '../../../components/form-field.tsx';
 import { LoadingNote, Notice } from '../../../components/notice.tsx';
+import { fieldFromServerError } from '../../../components/server-field-error.ts';
 import { useNoteKinds } from '../api/get-note-kinds.ts';
 import { useCreateNoteKind } from '../api/create-note-kind.ts';
 import { useUpdateNoteKind } from '../api/update-note-kind.ts';
@@ -85,7 +86,7 @@ export function NoteKindsSection({ slug, canEdit }: { slug: string; canEdit: boo
             value={name}
             onChange={(e) => setName(e.target.value)}
             maxLength={40}
-            error={create.error?.message.replace(/^name: /, '')}
+            error={create.error ? (fieldFromServerError(create.error, ['name'])?.reason ?? create.error.message) : undefined}
           />
           <Button type="submit" size="sm" disabled={create.isPending || !name.trim()}>
             Add the kind
