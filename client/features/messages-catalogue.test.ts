@@ -33,6 +33,8 @@ const SAMPLES: Record<string, unknown[][]> = {
   'channels.tooManyTogether': [[6, 'Lower terrace · Berry temperature']],
   'tokens.revokeTokenQuestion': [['Soil notebook']],
   'audit.auditActionLabel': [['lab.created'], ['payment.some-event-this-client-does-not-know']],
+  'diagnostics.noTrend': [['the series is constant']],
+  'diagnostics.noModel': [['too few cells for the model']],
   'billing.planConfirmed': [
     ['Transect', 'payment'],
     ['Transect', 'switch'],

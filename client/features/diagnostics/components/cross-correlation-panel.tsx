@@ -10,6 +10,7 @@ import { fmtSeconds } from './format-number.ts';
 import { lagTimeLabel, lagWindowSteps, type LagUnit } from './lag-window.ts';
 import { RunProgress } from './run-progress.tsx';
 import { lagsOutsideBand, stemChartOption, stemSummary } from './stem-chart-option.ts';
+import { DIAGNOSTICS_MESSAGES } from '../messages.ts';
 
 /** Another channel of the lab to compare with. */
 export interface PartnerChannel {
@@ -26,7 +27,7 @@ const X_NAME = 'Lag (time): the value at +k estimates cor(this[t + k], other[t])
  */
 export function strongestLagFacts(ccf: CrossCorrelation): string {
   const s = ccf.strongest;
-  if (!s) return 'No lag could be computed.';
+  if (!s) return DIAGNOSTICS_MESSAGES.noLag;
   const span = s.lag === 0 ? 'no shift' : `${s.lag > 0 ? '+' : '−'}${fmtSeconds(Math.abs(s.lagMs) / 1000)}`;
   const verdict = s.significant ? 'beyond the band over all lags' : 'inside the band over all lags';
   return `Strongest at lag ${s.lag} steps (${span}), r = ${s.value.toFixed(3)}, ${verdict}; band ±${ccf.band.toFixed(3)} per lag, ±${ccf.simultaneousBand.toFixed(3)} over all lags (${ccf.simultaneousMethod}); ${ccf.pairs.toLocaleString('en')} paired steps. Positive lags mean this channel follows ${ccf.with.label}.`;
@@ -35,7 +36,7 @@ export function strongestLagFacts(ccf: CrossCorrelation): string {
 /** How the CCF was computed, in words: the partner's AR filter applied to both series, or why it is the raw CCF. */
 export function prewhiteningStatement(ccf: CrossCorrelation): string {
   const f = ccf.prewhitening;
-  if (ccf.method === 'raw' || !f) return 'Raw cross-correlation (not prewhitened): it is not a test of a relation between autocorrelated series.';
+  if (ccf.method === 'raw' || !f) return DIAGNOSTICS_MESSAGES.rawNotATest;
   const coefs = f.coefficients.map((c, i) => `φ${subscript(i + 1)} = ${c.toFixed(3)}`).join(', ');
   return `Prewhitened: both series were filtered with the AR(${f.order}) model fitted to ${ccf.with.label}${coefs ? ` (${coefs})` : ''}, so the persistence of either series cannot make a relation appear.`;
 }
@@ -216,7 +217,7 @@ export function CrossCorrelationPanel({
                 summary={
                   ccf.raw.strongest
                     ? `Raw CCF: largest at ${lagLabel(ccf.raw.strongest.lag)} (lag ${ccf.raw.strongest.lag}), r = ${ccf.raw.strongest.value.toFixed(3)}; not evidence of a relation.`
-                    : 'Raw CCF: no lag could be computed.'
+                    : DIAGNOSTICS_MESSAGES.rawNoLag
                 }
                 pngName={`${slug}-ccf-raw-${channelId}-${ccf.with.id}`}
               />

@@ -3,6 +3,7 @@ import type { ProcessModel } from '@shared/contract/diagnostics.ts';
 import { BlockSection } from './block-section.tsx';
 import { ARMA_SIGNS, armaName, coefficientRows } from './arma-notation.ts';
 import { fmtP, fmtSeconds, fmtStat } from './format-number.ts';
+import { noModel } from '../messages.ts';
 
 const TH = 'py-1 pr-3';
 
@@ -39,13 +40,7 @@ export function ProcessModelBlock({
   timezone: string;
 }) {
   if (!model.available) {
-    return (
-      <BlockSection
-        id="process-model-heading"
-        title="Process model"
-        missing={{ text: `No model fitted: ${model.reason}`, testId: 'process-model-unavailable' }}
-      />
-    );
+    return <BlockSection id="process-model-heading" title="Process model" missing={{ text: noModel(model.reason), testId: 'process-model-unavailable' }} />;
   }
   const m = model.chosen;
   const u = unit ? ` ${unit}` : '';

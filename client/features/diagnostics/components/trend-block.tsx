@@ -1,6 +1,7 @@
 import type { TrendAnswer } from '@shared/contract/diagnostics.ts';
 import { BlockSection } from './block-section.tsx';
 import { fmtP, fmtStat } from './format-number.ts';
+import { noTrend } from '../messages.ts';
 
 type Rate = Extract<TrendAnswer, { available: true }>['perDay'];
 
@@ -14,7 +15,7 @@ const interval = (i: [number, number]) => `${fmtStat(i[0], 4)} … ${fmtStat(i[1
  */
 export function TrendBlock({ trend }: { trend: TrendAnswer }) {
   if (!trend.available) {
-    return <BlockSection id="trend-heading" title="Trend (drift)" missing={{ text: `No trend estimated: ${trend.reason}`, testId: 'trend-unavailable' }} />;
+    return <BlockSection id="trend-heading" title="Trend (drift)" missing={{ text: noTrend(trend.reason), testId: 'trend-unavailable' }} />;
   }
   const u = trend.unit ?? 'units';
   const level = `${Math.round((1 - trend.alpha) * 1000) / 10}%`;
