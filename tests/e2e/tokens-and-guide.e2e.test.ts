@@ -92,11 +92,25 @@ describe('personal tokens in the browser', () => {
     await page.getByRole('link', { name: 'API', exact: true }).click();
     await page.waitForURL(`${suite.appUrl}/api-reference`);
     await page.getByRole('heading', { level: 1, name: 'Lagbook API' }).waitFor();
-    const op = page.getByRole('article', { name: 'post /api/v1/labs/{lab}/loggers/{loggerId}/test-reading' });
-    expect(await op.textContent()).toContain('needs the permission loggers.manage');
-    expect(await op.getByRole('rowheader', { name: 'channel' }).count()).toBe(1);
+    // our own layout: a plain title per operation, its method and path as one monospace line, fields as definition lists
+    const op = page.getByRole('article', { name: 'Send a test reading' });
+    expect(await op.getByTestId('api-request-line').textContent()).toBe('POST /api/v1/labs/{lab}/loggers/{loggerId}/test-reading');
+    expect(await op.getByTestId('api-who').textContent()).toContain('the permission loggers.manage');
+    await op.getByTestId('api-details').locator('summary').click();
+    expect(await op.locator('[data-testid="api-field"] code', { hasText: /^channel$/ }).count()).toBe(1);
     expect(await page.getByRole('link', { name: '/api/v1/openapi.json' }).getAttribute('href')).toBe('/api/v1/openapi.json');
     await keepScreenshot(page, 'api-reference');
+    // at phone width the page stacks and never scrolls sideways
+    const desktop = page.viewportSize()!;
+    await page.setViewportSize({ width: 390, height: 844 });
+    try {
+      await op.scrollIntoViewIfNeeded();
+      const widths = (await page.evaluate('({ doc: document.documentElement.scrollWidth, view: window.innerWidth })')) as { doc: number; view: number };
+      expect(widths.doc).toBeLessThanOrEqual(widths.view);
+      await keepScreenshot(page, 'api-reference-phone');
+    } finally {
+      await page.setViewportSize(desktop);
+    }
     // A full page load of the reference reaches the client too.
     await page.reload();
     await page.getByRole('heading', { level: 1, name: 'Lagbook API' }).waitFor();

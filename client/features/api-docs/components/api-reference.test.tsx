@@ -123,6 +123,10 @@ describe('API reference page', () => {
     const tokens = screen.getByRole('article', { name: 'Make a personal token' });
     expect(within(tokens).getByTestId('api-request-line').textContent).toBe('POST /api/v1/labs/{lab}/tokens');
     expect(within(tokens).getByText('Make a personal API token.')).toBeTruthy();
+    // the inputs, answers and example sit behind one closed disclosure that says what it holds
+    const details = within(tokens).getByTestId('api-details');
+    expect(details.hasAttribute('open')).toBe(false);
+    expect(details.querySelector('summary')!.textContent).toMatch(/^What it takes \(\d+ fields\), 5 possible answers and an example$/);
     // who may call it, with the roles that hold the permission (server/policies/permissions.ts)
     expect(within(tokens).getByTestId('api-who').textContent).toBe(
       'Lab members whose role holds the permission tokens.manage-own (admin, technician and scientist), signed in with a browser session.',

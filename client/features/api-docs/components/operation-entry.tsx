@@ -83,10 +83,19 @@ function AnswerList({ answers, headingId }: { answers: AnswerView[]; headingId: 
   );
 }
 
+/** What the operation's disclosure holds, e.g. "What it takes (3 fields), 6 possible answers and an example". */
+function detailsLabel(op: OperationView): string {
+  const fields = op.pathParams.length + op.queryParams.length + (op.body?.fields.length ?? 0);
+  const takes = fields === 0 ? 'Takes no fields' : `What it takes (${fields} ${fields === 1 ? 'field' : 'fields'})`;
+  const answers = op.answers.length === 0 ? 'no documented answers' : `${op.answers.length} possible ${op.answers.length === 1 ? 'answer' : 'answers'}`;
+  return `${takes}, ${answers} and an example`;
+}
+
 /**
  * One operation, read top to bottom: a plain title, the method and path as one line of
- * monospace text, what it does, who may call it, what it takes, what comes back and an example
- * request to copy.
+ * monospace text, what it does and who may call it; then, behind one plain disclosure (so the
+ * page of some 80 operations stays short enough to scan, also on a phone), what it takes, what
+ * comes back and an example request to copy.
  */
 export function OperationEntry({ op }: { op: OperationView }) {
   const example = requestExample(op);
@@ -106,19 +115,24 @@ export function OperationEntry({ op }: { op: OperationView }) {
       <p className="text-sm text-ink-soft" data-testid="api-who">
         {whoMayCall(op)}
       </p>
-      {op.pathParams.length > 0 && <FieldList title="In the path" rows={op.pathParams} />}
-      {op.queryParams.length > 0 && <FieldList title="In the query" rows={op.queryParams} />}
-      {op.body && <FieldList title={`In the body (${op.body.mediaType})`} rows={op.body.fields} />}
-      {op.answers.length > 0 && <AnswerList answers={op.answers} headingId={`op-${op.id}-answers`} />}
-      <div className="grid min-w-0 gap-1">
-        <div className="flex flex-wrap items-center justify-between gap-2">
-          <h4 className="text-sm font-semibold">Example request</h4>
-          <CopyButton text={example} what={`the example request of “${op.title}”`} />
+      <details className="group grid min-w-0 gap-3" data-testid="api-details">
+        <summary className="cursor-pointer py-2 text-sm font-medium text-lichen-dark underline underline-offset-2">{detailsLabel(op)}</summary>
+        <div className="grid min-w-0 gap-3 pt-1">
+          {op.pathParams.length > 0 && <FieldList title="In the path" rows={op.pathParams} />}
+          {op.queryParams.length > 0 && <FieldList title="In the query" rows={op.queryParams} />}
+          {op.body && <FieldList title={`In the body (${op.body.mediaType})`} rows={op.body.fields} />}
+          {op.answers.length > 0 && <AnswerList answers={op.answers} headingId={`op-${op.id}-answers`} />}
+          <div className="grid min-w-0 gap-1">
+            <div className="flex flex-wrap items-center justify-between gap-2">
+              <h4 className="text-sm font-semibold">Example request</h4>
+              <CopyButton text={example} what={`the example request of “${op.title}”`} />
+            </div>
+            <pre className="max-w-full overflow-x-auto rounded-lg bg-paper p-3 font-mono text-xs" data-testid="api-example">
+              {example}
+            </pre>
+          </div>
         </div>
-        <pre className="max-w-full overflow-x-auto rounded-lg bg-paper p-3 font-mono text-xs" data-testid="api-example">
-          {example}
-        </pre>
-      </div>
+      </details>
     </article>
   );
 }
