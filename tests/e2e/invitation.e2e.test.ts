@@ -42,8 +42,8 @@ describe('inviting someone into a new lab through the browser', () => {
     await signInThroughProvider(page, admin);
     await page.getByTestId('signed-in-name').waitFor();
 
-    // The lab switcher in the top band offers "Create a lab".
-    await page.getByRole('button', { name: /^Lab / }).click();
+    // The lab switcher in the top band names the start page (no lab is open) and offers "Create a lab".
+    await page.getByRole('button', { name: /^Start page (No lab yet|Go to a lab)/ }).click();
     await page.getByRole('link', { name: '+ Create a lab' }).click();
     await page.waitForURL(`${appUrl}/labs/new`);
     await page.getByLabel('Lab name').fill(labName);
