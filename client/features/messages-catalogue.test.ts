@@ -14,6 +14,7 @@ const READING = { logger: 'Hedgerow mast', channel: 'air temperature', ts: '2026
 const SAMPLES: Record<string, unknown[][]> = {
   'alerts.ruleMade': [['Cold room too warm', 'Room temperature']],
   'alerts.deleteRuleQuestion': [['Cold room too warm']],
+  'alerts.durationWords': [[0], [1], [300], [5400], [604_800]],
   'quarantine.rows': [[1], [12_000]],
   'quarantine.readingName': [[{ channel: 'air temperature', ts: '2026-09-01 00:10:00' }], [{ channel: null, ts: null }]],
   'quarantine.plainReason': [['ts: "2026-09-01 00:10" has no offset'], ['value: must be a number'], ['channel: no channel "x" on this logger']],

@@ -16,3 +16,21 @@ export function ruleMade(ruleName: string, watched: string): string {
 export function deleteRuleQuestion(ruleName: string): string {
   return `Delete the rule “${ruleName}”? Its past alerts stay.`;
 }
+
+const count = (n: number, one: string) => `${n} ${n === 1 ? one : `${one}s`}`;
+
+/** A duration in words ("5 minutes", "1 hour 30 minutes", "2 days"), for rule settings kept in seconds. */
+export function durationWords(seconds: number): string {
+  const s = Math.max(0, Math.round(seconds));
+  if (s === 0) return '0 seconds';
+  const parts: Array<[number, string]> = [
+    [Math.floor(s / 86_400), 'day'],
+    [Math.floor((s % 86_400) / 3600), 'hour'],
+    [Math.floor((s % 3600) / 60), 'minute'],
+    [s % 60, 'second'],
+  ];
+  return parts
+    .filter(([n]) => n > 0)
+    .map(([n, unit]) => count(n, unit))
+    .join(' ');
+}

@@ -1,4 +1,5 @@
 import type { AlertRule } from '@shared/contract/alerts.ts';
+import { durationWords } from '../messages.ts';
 
 const n = (v: unknown) => String(v);
 
@@ -16,7 +17,7 @@ export function describeAlertRule(rule: Pick<AlertRule, 'kind' | 'params' | 'wat
       ]
         .filter(Boolean)
         .join(' or ');
-      return `Readings ${limits}${Number(p.holdS) > 0 ? ` for at least ${n(p.holdS)} s` : ''}`;
+      return `Readings ${limits}${Number(p.holdS) > 0 ? ` for at least ${durationWords(Number(p.holdS))}` : ''}`;
     }
     case 'rate':
       return `${p.direction === 'rise' ? 'Rises' : p.direction === 'fall' ? 'Falls' : 'Changes'} faster than ${n(p.maxPerMinute)}${unit} per minute`;
