@@ -252,10 +252,11 @@ describe('GET /channels/:channelId/readings.csv', () => {
     expect(res.headers['content-type']).toBe('text/csv; charset=utf-8');
     expect(res.headers['content-disposition']).toBe(`attachment; filename="${f.lab.slug}-air_t-readings.csv"`);
     const lines = res.text.split('\r\n');
-    expect(lines[0]).toBe('time_utc,epoch_ms,value');
-    expect(lines[1]).toBe(`2026-03-01T00:00:01.000Z,${t0 + 1000},0.25`);
+    // the fixture's logger is on UTC: the last column is the same time on its clock
+    expect(lines[0]).toBe('time_utc,epoch_ms,value,time_local_UTC');
+    expect(lines[1]).toBe(`2026-03-01T00:00:01.000Z,${t0 + 1000},0.25,2026-03-01T00:00:01.000+00:00`);
     expect(lines).toHaveLength(1 + 24_000 + 1); // header, rows across three pages, final CRLF
-    expect(lines[24_000]).toBe(`${new Date(t0 + 24_000_000).toISOString()},${t0 + 24_000_000},6000`);
+    expect(lines[24_000]).toBe(`${new Date(t0 + 24_000_000).toISOString()},${t0 + 24_000_000},6000,2026-03-01T06:40:00.000+00:00`);
     expect(lines[24_001]).toBe('');
   });
 

@@ -3,6 +3,7 @@ import request from 'supertest';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
 import { buildMember, sessionCookieFor } from '../support/factories.ts';
 import { buildLabWithEverything } from '../support/lab-fixture.ts';
+import { onLargestPlan } from '../support/largest-plan.ts';
 import { createLogWriter } from '../../server/log-writer.ts';
 import { createMailer, type Mailer } from '../../server/integrations/mail/create-mailer.ts';
 import { ingestBatch } from '../../server/services/ingest/ingest-batch.ts';
@@ -86,7 +87,13 @@ describe('alert mails follow the reader’s clock', () => {
     // One warm reading at 2026-12-02 10:09:00 UTC opens the alert.
     const at = Date.parse('2026-12-02T10:09:00Z');
     await ingestBatch(t.db, { tenantId: f.lab.id, loggerId: f.ids.loggerId }, [{ index: 0, channel: 'air_t', ts: at, value: 12 }], { source: 'api' });
-    const run = await createAlertEvaluator({ db: t.db, mailer, logger: createLogWriter({ silent: true }), publicUrl: t.config.publicUrl }).runOnce(at + 60_000);
+    const run = await createAlertEvaluator({
+      db: t.db,
+      mailer,
+      logger: createLogWriter({ silent: true }),
+      publicUrl: t.config.publicUrl,
+      reminderAfterMin: 60,
+    }).runOnce(at + 60_000);
     expect(run.ran).toBe(true);
 
     const mailOf = async (email: string) => {
@@ -100,5 +107,36 @@ describe('alert mails follow the reader’s clock', () => {
     const utcMail = await mailOf(readers.utc.email);
     expect(utcMail).toContain('at 2026-12-02 10:09:00 UTC.');
     expect(utcMail).not.toContain('Europe/Berlin');
+  });
+});
+
+describe('the readings export carries the logger’s clock', () => {
+  it('adds a last column named after the logger’s zone, right across the spring change', async () => {
+    const f = await buildLabWithEverything(t.db);
+    const cookie = await sessionCookieFor(t.db, t.config.sessionSecret, f.founder.id);
+    await onLargestPlan(t.db, f.lab.id); // March lies beyond the free plan's history
+    await t.db('loggers').where({ tenant_id: f.lab.id, id: f.ids.loggerId }).update({ timezone: 'Europe/Berlin' });
+    // EU summer time starts 2026-03-29 01:00 UTC (Directive 2000/84/EC): 01:59:59 CET, then 03:00 CEST.
+    const before = Date.parse('2026-03-29T00:59:59Z');
+    const after = Date.parse('2026-03-29T01:00:00Z');
+    await ingestBatch(
+      t.db,
+      { tenantId: f.lab.id, loggerId: f.ids.loggerId },
+      [
+        { index: 0, channel: 'air_t', ts: before, value: 4.5 },
+        { index: 1, channel: 'air_t', ts: after, value: 4.25 },
+      ],
+      { source: 'api' },
+    );
+    const res = await request(t.app)
+      .get(`/api/v1/labs/${f.lab.slug}/channels/${f.ids.channelId}/readings.csv?from=${before}&to=${after + 1}`)
+      .set('Cookie', cookie)
+      .expect(200);
+    expect(res.text.split('\r\n')).toEqual([
+      'time_utc,epoch_ms,value,time_local_Europe/Berlin',
+      `2026-03-29T00:59:59.000Z,${before},4.5,2026-03-29T01:59:59.000+01:00`,
+      `2026-03-29T01:00:00.000Z,${after},4.25,2026-03-29T03:00:00.000+02:00`,
+      '',
+    ]);
   });
 });

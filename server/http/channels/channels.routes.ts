@@ -1,6 +1,7 @@
 import type { RequestHandler, Response } from 'express';
 import { labOf } from '../middleware/lab-guard.ts';
 import { csvLine } from '../csv-field.ts';
+import { wallClockText } from '../../policies/time-zones.ts';
 import {
   channelParams,
   readingsExportQuery,
@@ -23,6 +24,20 @@ import { withinPlanHistory, type PlanHistory } from './plan-history.ts';
 /** Writes a chunk, waiting for the socket to drain when its buffer is full (streamed exports). */
 async function writeChunk(res: Response, chunk: string): Promise<void> {
   if (!res.write(chunk)) await new Promise<void>((resolve) => res.once('drain', resolve).once('close', resolve));
+}
+
+/**
+ * An instant as ISO 8601 on the wall clock of `timeZone` with its offset
+ * (`2026-03-29T03:00:00.000+02:00`; ISO 8601-1:2019 §5.3.4.2 local time with UTC difference),
+ * for the readings export's column on the logger's clock.
+ */
+function zonedIsoTime(ms: number, timeZone: string): string {
+  const wall = wallClockText(timeZone, ms);
+  const offset = Math.round((Date.parse(`${wall.replace(' ', 'T')}Z`) - Math.floor(ms / 1000) * 1000) / 60_000);
+  const abs = Math.abs(offset);
+  const hhmm = `${String(Math.floor(abs / 60)).padStart(2, '0')}:${String(abs % 60).padStart(2, '0')}`;
+  const millis = String(((ms % 1000) + 1000) % 1000).padStart(3, '0');
+  return `${wall.replace(' ', 'T')}.${millis}${offset < 0 ? '-' : '+'}${hhmm}`;
 }
 
 /** Headers of a CSV download named `<name>.csv` (characters outside [A-Za-z0-9_.-] become "-"). */
@@ -191,18 +206,25 @@ export function channelRoutes(deps: {
       summary: "A channel's raw readings as CSV.",
       params: channelParams,
       query: readingsExportQuery(now),
-      response: { status: 200, description: 'The readings of the range as CSV (time_utc, epoch_ms, value), streamed.', mediaType: 'text/csv' },
+      response: {
+        status: 200,
+        description:
+          "The readings of the range as CSV (time_utc, epoch_ms, value, then the time on the logger's clock with its offset in a column named time_local_<the logger's IANA zone>), streamed.",
+        mediaType: 'text/csv',
+      },
       errors: OUTSIDE_PLAN_HISTORY,
       stream: true,
       handle: async ({ lab, params, query, setHeader }, { res }) => {
         const q = await withinPlanHistory(deps.billing, lab, query, setHeader);
         const channel = await channels.requireChannel(lab, params.channelId);
         csvDownload(res, `${lab.slug}-${channel.key}-readings`);
-        await writeChunk(res, csvLine(['time_utc', 'epoch_ms', 'value']));
+        const zone = channel.logger.timezone;
+        await writeChunk(res, csvLine(['time_utc', 'epoch_ms', 'value', `time_local_${zone}`]));
         for await (const page of channels.readingPages(lab, params.channelId, q)) {
           if (res.destroyed) return;
           let chunk = '';
-          for (let i = 0; i < page.ts.length; i++) chunk += csvLine([new Date(page.ts[i]).toISOString(), page.ts[i], page.values[i]]);
+          for (let i = 0; i < page.ts.length; i++)
+            chunk += csvLine([new Date(page.ts[i]).toISOString(), page.ts[i], page.values[i], zonedIsoTime(page.ts[i], zone)]);
           await writeChunk(res, chunk);
         }
         res.end();
