@@ -241,7 +241,7 @@ describe('hostile ingest bodies', () => {
     const res = await ingest().set('Content-Type', 'application/json').send(`{"readings":[{"channel":"air_t","ts":${T},"value":${deep}}]}`).expect(400);
     expect(res.body.error).toEqual({ code: 'invalid_input', message: 'body: nested deeper than 32 levels' });
     const me = await request(t.app).patch('/api/v1/me').set('Cookie', cookie).set('Content-Type', 'application/json').send(`{"timeZone":${deep}}`).expect(400);
-    expect(me.body.error).toEqual({ code: 'invalid_input', message: 'body: nested deeper than 64 levels' });
+    expect(me.body.error).toEqual({ code: 'invalid_input', message: 'The request is nested deeper than 64 levels.' });
   });
 
   it('charsets other than UTF-8 and unsupported content codings: 415; corrupt gzip: 400; good gzip is read', async () => {
@@ -282,7 +282,9 @@ describe('hostile ingest bodies', () => {
         const corrupt = Buffer.concat([gzipSync(body).subarray(0, 12), Buffer.from('not gzip at all')]);
         expect(await send(method, path, { 'content-type': 'application/json', 'content-encoding': 'gzip' }, corrupt)).toEqual({
           status: 400,
-          body: { error: { code: 'corrupt_body', message: 'body: the compressed body is corrupt or truncated (Content-Encoding says gzip or deflate).' } },
+          body: {
+            error: { code: 'corrupt_body', message: 'The request could not be read: its compressed body is corrupt or cut short (it says gzip or deflate).' },
+          },
         });
       }
       const good = await send('POST', '/api/v1/ingest', { 'content-type': 'application/json', 'content-encoding': 'gzip' }, gzipSync(json));
@@ -335,7 +337,7 @@ describe('hostile ingest bodies', () => {
     const series = (from: string) =>
       request(t.app).get(`/api/v1/labs/${f.lab.slug}/channels/${f.ids.channelId}/series?from=${from}&to=${new Date().toISOString()}`).set('Cookie', cookie);
     const res = await series(day(last + 1)).expect(400);
-    expect(res.body.error.message).toBe(`from: "${day(last + 1)}" is not a valid date and time`);
+    expect(res.body.error.message).toBe(`From: "${day(last + 1)}" is not a valid date and time.`);
     await series(day(last)).expect(200);
   });
 });

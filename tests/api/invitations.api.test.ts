@@ -89,13 +89,13 @@ describe('invitations', () => {
   });
 
   it.each([
-    [{ email: 'not-an-address', role: 'guest' }, 'email: must be a valid e-mail address'],
-    [{ email: 'a@b.example', role: 'owner' }, 'role: must be one of admin, technician, scientist, guest'],
-    [{ role: 'guest' }, 'email: Invalid input: expected string, received undefined'],
+    [{ email: 'not-an-address', role: 'guest' }, 'E-mail address: must be a valid e-mail address.'],
+    [{ email: 'a@b.example', role: 'owner' }, 'Role: must be one of admin, technician, scientist, guest.'],
+    [{ role: 'guest' }, 'E-mail address: is required.'],
   ])('refuses %j with 400 and the exact message, sending nothing', async (body, message) => {
     const before = (await fetchCapturedMail(mailUrl)).length;
     const res = await request(t.app).post(`/api/v1/labs/${lab.slug}/invitations`).set('Cookie', adminCookie).send(body).expect(400);
-    expect(res.body.error).toEqual({ code: 'invalid_input', message });
+    expect(res.body.error).toMatchObject({ code: 'invalid_input', message });
     expect(await t.db('invitations').where({ tenant_id: lab.id })).toEqual([]);
     expect((await fetchCapturedMail(mailUrl)).length).toBe(before);
   });
@@ -104,7 +104,11 @@ describe('invitations', () => {
     const email = `dup-${Date.now()}@field.example`;
     await invite(t.app, email).expect(201);
     const dup = await invite(t.app, email, 'guest').expect(409);
-    expect(dup.body.error).toEqual({ code: 'invitation_pending', message: 'email: an invitation to this address is already pending' });
+    expect(dup.body.error).toEqual({
+      code: 'invitation_pending',
+      message: 'E-mail address: an invitation to this address is already waiting.',
+      fields: [{ field: 'email', label: 'E-mail address', reason: 'an invitation to this address is already waiting' }],
+    });
     const member = await buildMember(t.db, lab, { role: 'guest' });
     const already = await invite(t.app, member.email).expect(409);
     expect(already.body.error.code).toBe('already_member');

@@ -85,13 +85,14 @@ describe('deleting a lab', () => {
     const snapshot = await snapshotOf(A.lab.id);
     for (const wrong of ['Mistaken pilot la', 'mistaken pilot lab', '']) {
       const res = await requestDeletion(wrong).expect(400);
-      expect(res.body.error).toEqual({
+      expect(res.body.error).toMatchObject({
         code: 'invalid_input',
-        message: 'confirmName: type the lab\'s name exactly as it is written ("Mistaken pilot lab") to confirm the deletion',
+        fields: [{ field: 'confirmName' }],
+        message: 'The lab\'s name, to confirm: type the lab\'s name exactly as it is written ("Mistaken pilot lab") to confirm the deletion.',
       });
     }
     const missing = await request(t.app).post(pathA('/deletion')).set('Cookie', cookieA).send({}).expect(400);
-    expect(missing.body.error.message).toBe("confirmName: type the lab's name to confirm");
+    expect(missing.body.error.message).toBe("The lab's name, to confirm: type the lab's name to confirm.");
     expect(await snapshotOf(A.lab.id)).toBe(snapshot);
   });
 

@@ -33,7 +33,7 @@ describe('POST /api/v1/labs', () => {
     expect(set.body.user.timeZone).toBe('America/New_York');
     expect((await request(t.app).get('/api/v1/me').set('Cookie', cookie).expect(200)).body.user.timeZone).toBe('America/New_York');
     const bad = await request(t.app).patch('/api/v1/me').set('Cookie', cookie).send({ timeZone: 'Mars/Olympus_Mons' }).expect(400);
-    expect(bad.body.error.message).toBe('timeZone: must be an IANA time zone such as Europe/Berlin or UTC');
+    expect(bad.body.error.message).toBe('Your time zone: must be a time zone such as Europe/Berlin or UTC.');
     expect((await request(t.app).get('/api/v1/me').set('Cookie', cookie).expect(200)).body.user.timeZone).toBe('America/New_York');
     expect((await request(t.app).patch('/api/v1/me').set('Cookie', cookie).send({ timeZone: null }).expect(200)).body.user.timeZone).toBeNull();
     await request(t.app).patch('/api/v1/me').send({ timeZone: 'UTC' }).expect(401);
@@ -44,15 +44,15 @@ describe('POST /api/v1/labs', () => {
   });
 
   it.each([
-    [{}, 'name: Invalid input: expected string, received undefined'],
-    [{ name: 'x' }, 'name: must be at least 2 characters'],
-    [{ name: 'Good name', slug: 'Bad Slug' }, 'slug: use lowercase letters, digits and single hyphens'],
-    [{ name: '!!' }, 'slug: choose an address of at least 3 letters or digits'],
+    [{}, 'Lab name: is required.'],
+    [{ name: 'x' }, 'Lab name: must be at least 2 characters.'],
+    [{ name: 'Good name', slug: 'Bad Slug' }, 'Web address: use lowercase letters, digits and single hyphens.'],
+    [{ name: '!!' }, 'Web address: choose an address of at least 3 letters or digits.'],
   ])('refuses %j with 400 and the exact message', async (body, message) => {
     const user = await buildUser(t.db);
     const cookie = await sessionCookieFor(t.db, t.config.sessionSecret, user.id);
     const res = await request(t.app).post('/api/v1/labs').set('Cookie', cookie).send(body).expect(400);
-    expect(res.body.error).toEqual({ code: 'invalid_input', message });
+    expect(res.body.error).toMatchObject({ code: 'invalid_input', message });
   });
 
   it('gives a lab at a taken address the next free variant instead of refusing (no existence oracle; see lab-oracle.api.test.ts)', async () => {
@@ -96,9 +96,9 @@ describe('members', () => {
   it('refuses an unknown role with the exact message', async () => {
     const { lab, people, cookies } = await labWith('admin', 'scientist');
     const res = await request(t.app).patch(`/api/v1/labs/${lab.slug}/members/${people[1].id}`).set('Cookie', cookies[0]).send({ role: 'owner' }).expect(400);
-    expect(res.body.error.message).toBe('role: must be one of admin, technician, scientist, guest');
+    expect(res.body.error.message).toBe('Role: must be one of admin, technician, scientist, guest.');
     const bad = await request(t.app).patch(`/api/v1/labs/${lab.slug}/members/abc`).set('Cookie', cookies[0]).send({ role: 'guest' }).expect(400);
-    expect(bad.body.error.message).toMatch(/^userId: /);
+    expect(bad.body.error.message).toMatch(/^Member: /);
   });
 
   it('the last admin can be neither demoted, removed, nor leave', async () => {
@@ -174,6 +174,6 @@ describe('audit log', () => {
       .expect(200);
     expect(byTime.body.entries.map((e: { summary: string }) => e.summary)).toEqual(['event 2', 'event 1']);
     const bad = await request(t.app).get(`/api/v1/labs/${lab.slug}/audit?pageSize=500`).set('Cookie', cookie).expect(400);
-    expect(bad.body.error.message).toBe('pageSize: must be at most 200');
+    expect(bad.body.error.message).toBe('Entries per page: must be at most 200.');
   });
 });

@@ -67,13 +67,13 @@ describe('managing personal tokens', () => {
     expect(list.body.tokens.length).toBeGreaterThan(0);
   });
 
-  it('refuses bad input with field: reason messages', async () => {
+  it('refuses bad input in plain words, the field by key', async () => {
     const cases: [object, string][] = [
-      [{ name: '', expiresInDays: 30 }, 'name: must not be empty'],
-      [{ name: 'x'.repeat(81), expiresInDays: 30 }, 'name: must be at most 80 characters'],
-      [{ name: 'ok', expiresInDays: 0 }, 'expiresInDays: must be at least 1'],
-      [{ name: 'ok', expiresInDays: 366 }, 'expiresInDays: must be at most 365'],
-      [{ name: 'ok', expiresInDays: 1.5 }, 'expiresInDays: must be a whole number'],
+      [{ name: '', expiresInDays: 30 }, 'Token name: must not be empty.'],
+      [{ name: 'x'.repeat(81), expiresInDays: 30 }, 'Token name: must be at most 80 characters.'],
+      [{ name: 'ok', expiresInDays: 0 }, 'Valid for (days): must be at least 1 day.'],
+      [{ name: 'ok', expiresInDays: 366 }, 'Valid for (days): must be at most 365 days.'],
+      [{ name: 'ok', expiresInDays: 1.5 }, 'Valid for (days): must be a whole number.'],
     ];
     for (const [body, message] of cases) {
       const res = await request(t.app).post(labPath(A, '/tokens')).set('Cookie', cookie).send(body).expect(400);

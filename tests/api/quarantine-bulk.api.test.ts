@@ -207,7 +207,7 @@ describe('shift times by a fixed offset', () => {
     const body: BulkRequest = { selection: { filter: {} }, action: { kind: 'shift', offsetMinutes: 60 } };
     for (const res of [await preview(lab, body), await start(lab, body)]) {
       expect(res.status).toBe(400);
-      expect(res.body.error.message).toMatch(/^offsetMinutes: would move 1 row into the future \(the latest to .+\); use a smaller offset/);
+      expect(res.body.error.message).toMatch(/^Shift \(minutes\): would move 1 row into the future \(the latest by .+\); use a smaller shift/);
     }
     expect(await count('quarantined_rows', lab)).toBe(1);
     expect(await count('quarantine_bulk_runs', lab)).toBe(0);
@@ -243,14 +243,14 @@ describe('map an unknown channel name to a channel', () => {
     const other = await ask(elsewhere);
     expect(other.status).toBe(400);
     expect(other.body.error.message).toBe(
-      'channelId: "air_t" belongs to logger "Greenhouse 2", but 1 selected row comes from another logger; filter the selection by that logger first',
+      'Channel to store them under: "air_t" belongs to logger "Greenhouse 2", but 1 selected row comes from another logger; filter the selection by that logger first.',
     );
     const old = await ask(retired);
     expect(old.status).toBe(400);
-    expect(old.body.error.message).toBe('channelId: "old_air" is retired; choose an active channel of the logger');
+    expect(old.body.error.message).toBe('Channel to store them under: "old_air" is retired; choose a channel of the logger that is in use.');
     const none = await ask(elsewhere + 1000);
     expect(none.status).toBe(400);
-    expect(none.body.error.message).toBe(`channelId: no channel ${elsewhere + 1000} in this lab; choose one of the logger's channels`);
+    expect(none.body.error.message).toBe("Channel to store them under: is not a channel of this lab; choose one of the logger's channels.");
     expect(await count('quarantined_rows', lab)).toBe(1);
   });
 });
@@ -273,19 +273,19 @@ describe('discard with a reason', () => {
 });
 
 describe('refusals', () => {
-  it('answers 400 field: reason for an empty selection, an unreadable pattern and bad input, and applies nothing', async () => {
+  it('answers 400 in plain words for an empty selection, an unreadable pattern and bad input, and applies nothing', async () => {
     const lab = await newLab();
     await ingest(lab, dayFirstRows(2));
     const cases: Array<[unknown, string]> = [
       [
         { selection: { filter: { reason: 'unknown_channel' } }, action: { kind: 'discard', reason: 'gone' } },
-        'selection: no quarantined rows match; change the filter or choose rows',
+        'Rows to repair: no quarantined rows match; change the filters or choose rows.',
       ],
-      [{ selection: { filter: {} }, action: { kind: 'reread', timeFormat: 'pattern', timePattern: 'dd.QQ.yyyy' } }, 'timePattern: '],
-      [{ selection: { filter: {} }, action: { kind: 'shift', offsetMinutes: 0 } }, 'action.offsetMinutes: must not be 0'],
-      [{ selection: { filter: {} }, action: { kind: 'discard', reason: '' } }, 'action.reason: say why'],
-      [{ selection: {}, action: { kind: 'discard', reason: 'gone' } }, 'selection.filter: give either filter or ids'],
-      [{ selection: { filter: {} }, action: { kind: 'reread', timeFormat: 'pattern' } }, 'action.timePattern: give the pattern'],
+      [{ selection: { filter: {} }, action: { kind: 'reread', timeFormat: 'pattern', timePattern: 'dd.QQ.yyyy' } }, 'Pattern of the times: '],
+      [{ selection: { filter: {} }, action: { kind: 'shift', offsetMinutes: 0 } }, 'Shift (minutes): must not be 0'],
+      [{ selection: { filter: {} }, action: { kind: 'discard', reason: '' } }, 'Why they are discarded: say why'],
+      [{ selection: {}, action: { kind: 'discard', reason: 'gone' } }, 'Rows matching the filters: choose rows either by the filters or one by one, not both'],
+      [{ selection: { filter: {} }, action: { kind: 'reread', timeFormat: 'pattern' } }, 'Pattern of the times: give the pattern'],
     ];
     for (const [body, message] of cases) {
       for (const res of [await preview(lab, body as BulkRequest), await start(lab, body as BulkRequest)]) {
@@ -309,7 +309,9 @@ describe('refusals', () => {
     const ids = (await quarantineIds(lab)).map((r) => r.id);
     const foreign = await preview(other, { selection: { ids }, action: { kind: 'discard', reason: 'not ours' } }, other.tech);
     expect(foreign.status).toBe(404);
-    expect(foreign.body.error.message).toBe(`No such quarantined row in this lab: ${ids[0]} (repaired or discarded meanwhile? reload the list).`);
+    expect(foreign.body.error.message).toBe(
+      'One of the chosen rows is no longer in quarantine (repaired or discarded meanwhile?); reload the list and choose again.',
+    );
     expect(await count('quarantined_rows', lab)).toBe(1);
   });
 });

@@ -174,13 +174,13 @@ describe('quarantine list: keyset pages', () => {
   it('refuses page numbers and made-up cursors with 400 and the field named', async () => {
     const lab = await newLab();
     const paged = await request(t.app).get(lab.path('/quarantine?page=50000')).set('Cookie', lab.tech).expect(400);
-    expect(paged.body.error).toEqual({ code: 'invalid_input', message: 'page: page numbers are not supported; follow nextCursor from the previous page' });
+    expect(paged.body.error).toMatchObject({ code: 'invalid_input', message: 'Page number: pages are reached with the list\'s "more" link, not by number.' });
     for (const bad of ['abc', '1.2', '1.2.3.4', '99999999999999999.1.1']) {
       const res = await request(t.app)
         .get(lab.path(`/quarantine?cursor=${bad}`))
         .set('Cookie', lab.tech)
         .expect(400);
-      expect(res.body.error.message).toBe('cursor: not a cursor of this list (send nextCursor exactly as the previous page gave it)');
+      expect(res.body.error.message).toBe('Page: is not a page of this list (open the list again from its first page).');
     }
   });
 });

@@ -171,9 +171,10 @@ describe('POST /loggers/:loggerId/test-reading', () => {
   it('asks for confirmation (409) for a value outside the valid range, then keeps it as a test reading flagged out of range', async () => {
     const channelId = await rangedChannel('fridge_t', 'Fridge temperature', -40, 60);
     const refused = await send(tech, { channel: 'fridge_t', value: -99999 }).expect(409);
-    expect(refused.body.error).toEqual({
+    expect(refused.body.error).toMatchObject({
       code: 'outside_valid_range',
-      message: 'value: -99999 °C is outside the valid range -40…60 °C; send again with confirmation to store it as a test reading',
+      fields: [{ field: 'value' }],
+      message: 'Value: -99999 °C is outside the valid range -40…60 °C; send again with confirmation to store it as a test reading.',
     });
     expect(await countRows('test_readings', { tenant_id: A.lab.id, channel_id: channelId })).toBe(0);
 
@@ -211,11 +212,11 @@ describe('POST /loggers/:loggerId/test-reading', () => {
   it('refuses non-finite, absurd or malformed input with field: reason, keeping nothing', async () => {
     const before = await countRows('test_readings', { tenant_id: A.lab.id });
     const cases: [object | string, string][] = [
-      [{ channel: 'air_t', value: 'warm' }, 'value: must be a number'],
-      [{ channel: 'air_t', value: 1e13 }, 'value: must be at most 1e12 (a test reading is a plausible measurement)'],
-      [{ channel: 'air_t', value: -1e300 }, 'value: must be at least -1e12 (a test reading is a plausible measurement)'],
-      [{ channel: 'air_t', value: 1, confirmOutsideRange: 'yes' }, 'confirmOutsideRange: must be true or false'],
-      [{ channel: '', value: 1 }, 'channel: use 1–64 letters, digits, "_", "." or "-", starting with a letter or digit'],
+      [{ channel: 'air_t', value: 'warm' }, 'Value: must be a number.'],
+      [{ channel: 'air_t', value: 1e13 }, 'Value: must lie between -1,000,000,000,000 and 1,000,000,000,000 (a test reading is a plausible measurement).'],
+      [{ channel: 'air_t', value: -1e300 }, 'Value: must lie between -1,000,000,000,000 and 1,000,000,000,000 (a test reading is a plausible measurement).'],
+      [{ channel: 'air_t', value: 1, confirmOutsideRange: 'yes' }, 'Store it although it is outside the valid range: must be true or false.'],
+      [{ channel: '', value: 1 }, 'Channel: use 1 to 64 letters, digits, "_", "." or "-", starting with a letter or digit.'],
     ];
     for (const [body, message] of cases) {
       const res = await send(tech, body as object).expect(400);
@@ -315,7 +316,7 @@ describe('reading test readings back', () => {
       .get(`${url}?from=${at}&to=${at - 5}`)
       .set('Cookie', guest)
       .expect(400);
-    expect(bad.body.error.message).toBe('to: must be after from');
+    expect(bad.body.error.message).toBe('To: must be after the start of the range.');
     const foreign = await request(app)
       .get(`${base(A)}/channels/${B.ids.channelId}/test-readings`)
       .set('Cookie', tech)

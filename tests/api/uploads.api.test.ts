@@ -88,20 +88,22 @@ describe('historical uploads', () => {
   it('reports a column that is not in the file as an error line', async () => {
     const options = { format: 'long', timeColumn: 'time', channelColumn: 'channel', valueColumn: 'value' };
     const events = ndjson((await upload(options, 'channel,ts,value\nair_t,1,2\n').expect(200)).text);
-    expect(events).toEqual([{ type: 'error', code: 'invalid_input', message: 'timeColumn: the file has no column "time" (columns: channel, ts, value)' }]);
+    expect(events).toEqual([
+      { type: 'error', code: 'invalid_input', message: 'Time column: the file has no column "time" (its columns: channel, ts, value).' },
+    ]);
   });
 
   it.each([
-    [{ format: 'long', timeColumn: 'ts' }, 'format: long format needs channelColumn and valueColumn'],
-    [{ format: 'wide', timeColumn: 'ts', columns: { a: null } }, 'columns: wide format needs at least one column mapped to a channel'],
-    [{ format: 'tall', timeColumn: 'ts' }, 'format: must be long or wide'],
+    [{ format: 'long', timeColumn: 'ts' }, 'File layout: a long file needs its channel column and its value column named.'],
+    [{ format: 'wide', timeColumn: 'ts', columns: { a: null } }, 'Columns and their channels: a wide file needs at least one column stored under a channel.'],
+    [{ format: 'tall', timeColumn: 'ts' }, 'File layout: must be long (one reading a line) or wide (one column a channel).'],
     [
       { format: 'long', timeColumn: 'ts', channelColumn: 'c', valueColumn: 'v', timeZone: 'Nowhere/Else' },
-      'timeZone: must be an IANA time zone such as Europe/Berlin or UTC',
+      'Time zone of the times: must be a time zone such as Europe/Berlin or UTC.',
     ],
   ])('refuses options %j with 400 and the exact message', async (options, message) => {
     const res = await upload(options, 'x\n').expect(400);
-    expect(res.body.error).toEqual({ code: 'invalid_input', message });
+    expect(res.body.error).toMatchObject({ code: 'invalid_input', message });
   });
 
   it("reads a day-first export (dd.mm.yyyy, semicolons) in the logger's zone when that layout is chosen: nothing quarantined", async () => {
@@ -153,7 +155,7 @@ describe('historical uploads', () => {
     ).toMatchObject({ value: 4.5 });
     const bad = await upload({ ...options, timePattern: 'yyyy-MM-dd QQQ' }, 'channel,ts,value\nair_t,2026-12-02 Q4,1\n').expect(400);
     expect(bad.body.error.code).toBe('invalid_input');
-    expect(bad.body.error.message).toMatch(/^timePattern: /);
+    expect(bad.body.error.message).toMatch(/^Pattern of the times: /);
     expect(
       await t
         .db('readings')
@@ -165,15 +167,15 @@ describe('historical uploads', () => {
   it.each([
     [
       { format: 'long', timeColumn: 'ts', channelColumn: 'c', valueColumn: 'v', timeFormat: 'pattern', timeZone: 'UTC' },
-      'timePattern: give the pattern of the time column, e.g. dd.MM.yyyy HH:mm',
+      'Pattern of the times: give the pattern of the time column, e.g. dd.MM.yyyy HH:mm.',
     ],
     [
       { format: 'long', timeColumn: 'ts', channelColumn: 'c', valueColumn: 'v', timeFormat: 'month-first-slash' },
-      "timeZone: this time layout carries no UTC offset: name the zone its times are in (the logger's own zone, usually)",
+      "Time zone of the times: these times carry no offset from UTC: name the zone they are in (usually the logger's own).",
     ],
   ])('refuses layout options %j with 400 and the exact message', async (options, message) => {
     const res = await upload(options, 'x\n').expect(400);
-    expect(res.body.error).toEqual({ code: 'invalid_input', message });
+    expect(res.body.error).toMatchObject({ code: 'invalid_input', message });
   });
 
   it('previews how the first time texts will be stored, naming the layout that reads them, before an upload starts', async () => {
@@ -197,7 +199,7 @@ describe('historical uploads', () => {
       .set('Cookie', cookie)
       .send({ samples: [], timeZone: 'Europe/Berlin' })
       .expect(400);
-    expect(bad.body.error.message).toBe('samples: give at least one time text');
+    expect(bad.body.error.message).toBe('Sample times: give at least one time text.');
   });
 
   it('415 for a body that is not a CSV file', async () => {
