@@ -95,7 +95,8 @@ describe('alert evaluation', () => {
       `${t.config.publicUrl}/labs/${s.f.lab.slug}/channels/${s.f.ids.channelId}?from=${t0 + 9 * 60_000 - 6 * 3_600_000}&to=${t0 + 9 * 60_000 + 3_600_000}`,
     );
     expect(opened.text).toContain('Reading: -10 °C at');
-    expect(opened.text).toContain('-10 is above the high limit -15 for 300 s');
+    // every number with the channel's unit, the hold time in words
+    expect(opened.text).toContain('What was seen: -10 °C is above the high limit -15 °C for 5 minutes.');
     expect(opened.text).not.toContain('your time');
     const theirs = (await fetchCapturedMail(captureUrl, { to: colleague.email })).find((m) => m.subject.includes('Alert:'))!;
     expect(theirs.text).toMatch(/Reading: -10 °C at \d{4}-\d\d-\d\d \d\d:\d\d:\d\d Asia\/Tokyo \(\d\d:\d\d UTC\)\./);
@@ -191,7 +192,7 @@ describe('alert evaluation', () => {
     expect(rows.map((r) => [Number(r.opened_at), Number(r.opened_value), Number(r.resolved_at)])).toEqual([
       [day0 + 99 * 3_600_000, 24, day0 + 100 * 3_600_000],
     ]);
-    expect(rows[0].opened_detail).toMatch(/^24 lies [\d.]+ robust SD above the usual pattern \(limit 5\)$/);
+    expect(rows[0].opened_detail).toMatch(/^24 °C lies [\d.]+ robust SD above the usual pattern \(limit 5 robust SD\)$/);
   });
 
   it('unusual reading: a spike right after a logger outage opens an alert (the empty hours before it do not stop the judgement)', async () => {
