@@ -1,4 +1,4 @@
-import { zoneOffsetMinutes, formatZoned } from '../../../components/zoned-time.ts';
+import { zoneOffsetMinutes, formatZoned } from '../../../components/clock/format.ts';
 import { aggregationOf, plottedPoints, type DrawnLine } from './together-chart-option.ts';
 
 /*
