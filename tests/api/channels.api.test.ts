@@ -222,18 +222,18 @@ describe('GET /channels/:channelId/series', () => {
     const { cookie, base, f } = await setup();
     const path = `${base}/channels/${f.ids.channelId}/series`;
     const cases: Array<[string, string]> = [
-      ['?from=2000&to=1000', 'to: must be after from'],
-      ['?from=2026-01-01T00:00:00Z&to=2026-01-01T00:00:00Z', 'to: must be after from'],
-      ['?from=0&to=700000000000', 'to: the range must be at most 20 years'],
-      ['?from=yesterday&to=1000', 'from: must be epoch milliseconds or an ISO 8601 time with a zone, e.g. 2026-03-01T00:00:00Z'],
-      ['?from=2026-01-01T00:00:00&to=1000', 'from: must be epoch milliseconds or an ISO 8601 time with a zone, e.g. 2026-03-01T00:00:00Z'],
-      ['?points=9', 'points: must be at least 10'],
-      ['?points=10001', 'points: must be at most 10000'],
-      ['?points=2.5', 'points: must be a whole number'],
+      ['?from=2000&to=1000', 'To: must be after the start of the range.'],
+      ['?from=2026-01-01T00:00:00Z&to=2026-01-01T00:00:00Z', 'To: must be after the start of the range.'],
+      ['?from=0&to=700000000000', 'To: the range must be at most 20 years.'],
+      ['?from=yesterday&to=1000', 'From: must be a date and time with its zone, e.g. 2026-03-01T00:00:00Z, or milliseconds since 1970.'],
+      ['?from=2026-01-01T00:00:00&to=1000', 'From: must be a date and time with its zone, e.g. 2026-03-01T00:00:00Z, or milliseconds since 1970.'],
+      ['?points=9', 'Points on the chart: must be at least 10.'],
+      ['?points=10001', 'Points on the chart: must be at most 10,000.'],
+      ['?points=2.5', 'Points on the chart: must be a whole number.'],
     ];
     for (const [query, message] of cases) {
       const res = await get(cookie, path + query).expect(400);
-      expect(res.body.error, query).toEqual({ code: 'invalid_input', message });
+      expect(res.body.error, query).toMatchObject({ code: 'invalid_input', message });
     }
     const missing = await get(cookie, `${base}/channels/999999999999/series`).expect(404);
     expect(missing.body.error).toEqual({ code: 'not_found', message: 'No such channel in this lab.' });
@@ -266,7 +266,7 @@ describe('GET /channels/:channelId/readings.csv', () => {
     await get(guestCookie, `${base}/channels/${f.ids.channelId}/readings.csv`).expect(403);
     const founderCookie = await sessionCookieFor(t.db, t.config.sessionSecret, f.founder.id);
     const res = await get(founderCookie, `${base}/channels/${f.ids.channelId}/readings.csv?from=5&to=5`).expect(400);
-    expect(res.body.error.message).toBe('to: must be after from');
+    expect(res.body.error.message).toBe('To: must be after the start of the range.');
   });
 });
 

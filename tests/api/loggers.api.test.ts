@@ -109,11 +109,19 @@ describe('loggers and ingest keys', () => {
   });
 
   it.each([
-    [{ name: '' }, 'name: must not be empty'],
-    [{ timezone: 'Mars/Olympus' }, 'timezone: must be an IANA time zone such as Europe/Berlin or UTC'],
-    [{ expectedIntervalS: 0 }, 'expectedIntervalS: must be at least 1 second'],
-    [{ channels: [{ key: 'bad key', label: 'x' }] }, 'channels.0.key: use 1–64 letters, digits, "_", "." or "-", starting with a letter or digit'],
-    [{ channels: [{ key: 'a', label: 'A', validMin: 5, validMax: 1 }] }, 'channels.0.validMax: validMin must be below validMax'],
+    [{ name: '' }, 'Name: must not be empty.', 'name'],
+    [{ timezone: 'Mars/Olympus' }, "Logger's time zone: must be a time zone such as Europe/Berlin or UTC.", 'timezone'],
+    [{ expectedIntervalS: 0 }, 'Expected time between readings: must be at least 1 second.', 'expectedIntervalS'],
+    [
+      { channels: [{ key: 'bad key', label: 'x' }] },
+      'Channel key (1st channel): use 1 to 64 letters, digits, "_", "." or "-", starting with a letter or digit.',
+      'channels.0.key',
+    ],
+    [
+      { channels: [{ key: 'a', label: 'A', validMin: 5, validMax: 1 }] },
+      'Highest valid value (1st channel): must be above the lowest valid value.',
+      'channels.0.validMax',
+    ],
     [
       {
         channels: [
@@ -121,18 +129,24 @@ describe('loggers and ingest keys', () => {
           { key: 'a', label: 'B' },
         ],
       },
-      'channels: channel keys must be unique within a logger',
+      'Channels: each channel of a logger needs its own channel key.',
+      'channels',
     ],
-  ])('refuses %j with 400 and the exact message', async (over, message) => {
+  ])('refuses %j with 400, the message in plain words and the field by key', async (over, message, field) => {
     const res = await request(t.app).post(base()).set('Cookie', tech).send(loggerBody(over)).expect(400);
-    expect(res.body.error).toEqual({ code: 'invalid_input', message });
+    expect(res.body.error).toMatchObject({ code: 'invalid_input', message });
+    expect(res.body.error.fields.map((p: { field: string }) => p.field)).toEqual([field]);
   });
 
   it('refuses a duplicate logger name and a duplicate channel key with 409', async () => {
     const body = loggerBody();
     const { body: created } = await request(t.app).post(base()).set('Cookie', tech).send(body).expect(201);
     const dup = await request(t.app).post(base()).set('Cookie', tech).send(body).expect(409);
-    expect(dup.body.error).toEqual({ code: 'logger_name_taken', message: 'name: this lab already has a logger with this name' });
+    expect(dup.body.error).toMatchObject({
+      code: 'logger_name_taken',
+      message: 'Name: this lab already has a logger with this name.',
+      fields: [{ field: 'name' }],
+    });
     const dupKey = await request(t.app).post(`${base()}/${created.logger.id}/channels`).set('Cookie', tech).send({ key: 'air_t', label: 'again' }).expect(409);
     expect(dupKey.body.error.code).toBe('channel_key_taken');
   });
@@ -208,6 +222,6 @@ describe('quarantine review', () => {
       .send({ ids: [123456789] })
       .expect(404);
     const res = await request(t.app).post(`/api/v1/labs/${lab.slug}/quarantine/discard`).set('Cookie', tech).send({ ids: [] }).expect(400);
-    expect(res.body.error.message).toBe('ids: choose at least one row');
+    expect(res.body.error.message).toBe('Chosen rows: choose at least one row.');
   });
 });

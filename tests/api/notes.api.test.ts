@@ -101,7 +101,7 @@ describe('note kinds', () => {
     const made = await request(t.app).post(`${base}/note-kinds`).set('Cookie', freshTech).send({ name: 'delivery' }).expect(201);
     expect(made.body.kind).toMatchObject({ name: 'delivery', retired: false, notes: 0 });
     const dup = await request(t.app).post(`${base}/note-kinds`).set('Cookie', freshTech).send({ name: 'delivery' }).expect(400);
-    expect(dup.body.error.message).toBe('name: the lab already has a kind called "delivery" (choose another name)');
+    expect(dup.body.error.message).toBe('Name of the kind: the lab already has a kind called "delivery" (choose another name).');
     const renamed = await request(t.app).patch(`${base}/note-kinds/${made.body.kind.id}`).set('Cookie', freshTech).send({ name: 'door opened' }).expect(200);
     expect(renamed.body.kind.name).toBe('door opened');
 
@@ -112,7 +112,7 @@ describe('note kinds', () => {
     const listedNotes = (await request(t.app).get(`${lab}/notes`).set('Cookie', tech).expect(200)).body.notes;
     expect(listedNotes.find((n: { id: number }) => n.id === made2.id).kind).toEqual({ id: kind.id, name: 'frost', retired: true });
     const refused = await post(tech, note({ kindId: kind.id })).expect(400);
-    expect(refused.body.error.message).toBe('kindId: the kind "frost" is retired (choose another kind, or bring it back first)');
+    expect(refused.body.error.message).toBe('Kind of note: the kind "frost" is retired (choose another kind, or bring it back first).');
     const kinds = (await request(t.app).get(`${lab}/note-kinds`).set('Cookie', guest).expect(200)).body.kinds;
     expect(kinds.find((k: { id: number }) => k.id === kind.id)).toMatchObject({ retired: true, notes: 1 });
     // another lab's kind in the path: 404; guests and scientists cannot edit kinds
@@ -191,15 +191,15 @@ describe('notes', () => {
   it('bad input answers 400 naming the field and the fix; nothing is stored', async () => {
     const before = await t.db('notes').where({ tenant_id: f.lab.id }).count({ n: '*' });
     const cases: Array<[object, string]> = [
-      [note({ end: '2026-10-06T08:00:00Z' }), 'end: must be after start (a note covers at least one millisecond)'],
-      [note({ end: '2026-10-06T07:00:00Z' }), 'end: must be after start (a note covers at least one millisecond)'],
-      [note({ text: '   ' }), 'text: must not be empty (say what happened)'],
-      [note({ kindId: 99 }), 'kindId: no such note kind in this lab (choose one of the lab’s kinds)'],
-      [note({ kindId: other.ids.kindId }), 'kindId: no such note kind in this lab (choose one of the lab’s kinds)'],
-      [note({ channelId: other.ids.channelId }), 'channelId: no such channel in this lab (pick a channel of this lab)'],
-      [note({ channelId: undefined, loggerId: other.ids.loggerId }), 'loggerId: no such logger in this lab (pick a logger of this lab)'],
-      [note({ loggerId: f.ids.loggerId }), 'channelId: give either channelId (a note on one channel) or loggerId (a note on the whole logger), not both'],
-      [note({ start: '2026-02-30T00:00:00Z' }), 'start:'],
+      [note({ end: '2026-10-06T08:00:00Z' }), 'End: must be after the start (a note covers at least one millisecond).'],
+      [note({ end: '2026-10-06T07:00:00Z' }), 'End: must be after the start (a note covers at least one millisecond).'],
+      [note({ text: '   ' }), 'Note: must not be empty (say what happened).'],
+      [note({ kindId: 99 }), 'Kind of note: is not one of this lab’s kinds of note (choose one of them).'],
+      [note({ kindId: other.ids.kindId }), 'Kind of note: is not one of this lab’s kinds of note (choose one of them).'],
+      [note({ channelId: other.ids.channelId }), 'Channel: is not a channel of this lab (pick one of its channels).'],
+      [note({ channelId: undefined, loggerId: other.ids.loggerId }), 'Logger: is not a logger of this lab (pick one of its loggers).'],
+      [note({ loggerId: f.ids.loggerId }), 'Channel: choose either one channel or a whole logger, not both.'],
+      [note({ start: '2026-02-30T00:00:00Z' }), 'Start:'],
     ];
     for (const [body, message] of cases) {
       const res = await post(tech, body).expect(400);
@@ -212,7 +212,7 @@ describe('notes', () => {
     ).body.channel.id;
     await t.db('channels').where({ tenant_id: f.lab.id, id: retiredChannel }).update({ retired_at: new Date() });
     expect((await post(tech, note({ channelId: retiredChannel })).expect(400)).body.error.message).toBe(
-      'channelId: the channel "Old probe" is retired (notes go on channels in use)',
+      'Channel: the channel "Old probe" is retired (notes go on channels in use).',
     );
     const retiredLogger = (
       await request(t.app)
@@ -223,15 +223,13 @@ describe('notes', () => {
     ).body.logger.id;
     await t.db('loggers').where({ tenant_id: f.lab.id, id: retiredLogger }).update({ retired_at: new Date() });
     expect((await post(tech, note({ channelId: undefined, loggerId: retiredLogger })).expect(400)).body.error.message).toBe(
-      'loggerId: the logger "Retired mast" is retired (notes go on loggers in use)',
+      'Logger: the logger "Retired mast" is retired (notes go on loggers in use).',
     );
     expect(await t.db('notes').where({ tenant_id: f.lab.id }).count({ n: '*' })).toEqual(before);
     // an edit that would end before the note starts
     const made = (await post(tech, note()).expect(201)).body.note;
     const res = await request(t.app).patch(`${lab}/notes/${made.id}`).set('Cookie', tech).send({ end: '2026-10-06T07:59:00Z' }).expect(400);
-    expect(res.body.error.message).toBe(
-      'end: the note would end at or before it starts (2026-10-06T07:59:00.000Z ≤ 2026-10-06T08:00:00.000Z); move end after start',
-    );
+    expect(res.body.error.message).toBe('End: the note would end at or before it starts; move the end after the start.');
     // another lab's note in the path
     await request(t.app).patch(`${lab}/notes/${other.ids.noteId}`).set('Cookie', tech).send({ text: 'x' }).expect(404);
     await request(t.app).delete(`${lab}/notes/${other.ids.noteId}`).set('Cookie', tech).expect(404);
