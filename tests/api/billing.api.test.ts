@@ -170,6 +170,10 @@ describe('upgrade through Stripe Checkout (stand-in) and back', () => {
     const actions = audit.body.entries.map((e: { action: string }) => e.action);
     expect(actions).toEqual(expect.arrayContaining(['billing.checkout-started', 'billing.plan-changed', 'billing.status-changed']));
     expect(actions.filter((a: string) => a === 'billing.plan-changed')).toHaveLength(1);
+    // people read our own sentences; the payment service's event names stay in the recorded summary
+    const changed = audit.body.entries.find((e: { action: string }) => e.action === 'billing.plan-changed');
+    expect(changed.sentence).toMatch(new RegExp(`^Plan changed from .+ to ${paidPlan.name} (after payment|after checkout|as the subscription changed)\\.$`));
+    for (const e of audit.body.entries as Array<{ sentence: string }>) expect(e.sentence).not.toMatch(/Stripe|invoice\.|customer\.|checkout\.session|past_due/);
 
     const invoices = await request(t.app).get(lab.path('/billing/invoices')).set('Cookie', lab.cookie).expect(200);
     expect(invoices.body.invoices).toHaveLength(1);
