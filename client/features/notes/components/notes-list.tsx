@@ -22,6 +22,7 @@ export function NotesList({
   notes,
   kinds,
   timezone,
+  zoneOf,
   canEdit,
   showWhere = true,
   empty = NOTES_MESSAGES.noneInRange,
@@ -29,7 +30,10 @@ export function NotesList({
   slug: string;
   notes: readonly Note[];
   kinds: readonly NoteKind[];
+  /** The logger's IANA zone (a channel's or logger's own list). */
   timezone: string;
+  /** Each note's logger zone, for a list across loggers (the lab's notes); `timezone` otherwise. */
+  zoneOf?: (n: Note) => string | undefined;
   canEdit: boolean;
   /** Name the logger and channel of each note (off on a channel's own list, where "whole logger" still shows). */
   showWhere?: boolean;
@@ -40,7 +44,9 @@ export function NotesList({
   const update = useUpdateNote(slug);
   const remove = useDeleteNote(slug);
   // notes are read beside the readings: on the clock the person chose for readings (the logger's by default)
-  const zone = useClock().zoneFor('readings', timezone);
+  const clock = useClock();
+  const loggerZone = (n: Note) => zoneOf?.(n) ?? timezone;
+  const zone = (n: Note) => clock.zoneFor('readings', loggerZone(n));
   if (notes.length === 0) return <p className="text-sm text-ink-soft">{empty}</p>;
   return (
     <ul className="grid gap-2" aria-label="Notes">
@@ -49,7 +55,7 @@ export function NotesList({
           {editing === n.id ? (
             <NoteForm
               kinds={kinds}
-              timezone={zone}
+              timezone={zone(n)}
               initial={n}
               defaultSpan={n}
               channelLabel={n.channelLabel}
@@ -69,7 +75,7 @@ export function NotesList({
             <div className="grid gap-1">
               <div className="flex flex-wrap items-baseline gap-x-3 gap-y-1">
                 <span className="rounded bg-slate-100 px-1.5 py-0.5 text-xs font-semibold uppercase tracking-wide text-[#3f5478]">{n.kind.name}</span>
-                <span className="font-mono text-xs">{spanWords(n.from, n.to, (ms) => formatInstant(ms, zone))}</span>
+                <span className="font-mono text-xs">{spanWords(n.from, n.to, (ms) => formatInstant(ms, zone(n)))}</span>
                 {(showWhere || n.channelId === null) && (
                   <span className="text-xs text-ink-soft">
                     {n.channelId === null ? `whole logger ${n.loggerName}` : `${n.loggerName} · ${n.channelLabel ?? ''}`}
@@ -80,7 +86,7 @@ export function NotesList({
               <p className="whitespace-pre-wrap">{n.text}</p>
               <p className="text-xs text-ink-soft">
                 {n.updatedBy ? lastChangedBy(n.updatedBy.name) : NOTES_MESSAGES.byFormerMember},{' '}
-                <Instant at={n.updatedAt} kind="readings" loggerZone={timezone} />
+                <Instant at={n.updatedAt} kind="readings" loggerZone={loggerZone(n)} />
               </p>
               {canEdit && (
                 <div className="flex gap-2">
