@@ -59,16 +59,16 @@ describe('registering a logger and uploading its history through the browser', (
     await page.getByLabel('Name', { exact: true }).fill(loggerName);
     await page.getByLabel('Site').fill('Reed bed, north transect');
     await page.getByLabel('Time zone').selectOption('Africa/Nairobi');
-    await page.getByLabel('Expected interval (s)', { exact: true }).fill('600');
-    await page.getByLabel('Channel 1 key').fill('air_t');
-    await page.getByLabel('Channel 1 label').fill('Air temperature');
-    await page.getByLabel('Channel 1 unit').fill('°C');
-    await page.getByLabel('Channel 1 valid minimum').fill('-40');
-    await page.getByLabel('Channel 1 valid maximum').fill('60');
+    await page.getByLabel('Expected time between readings in seconds', { exact: true }).fill('600');
+    await page.getByLabel('Channel key (1st channel)').fill('air_t');
+    await page.getByLabel('Label (1st channel)').fill('Air temperature');
+    await page.getByLabel('Unit (1st channel)').fill('°C');
+    await page.getByLabel('Lowest valid value (1st channel)').fill('-40');
+    await page.getByLabel('Highest valid value (1st channel)').fill('60');
     await page.getByRole('button', { name: '+ Add a channel' }).click();
-    await page.getByLabel('Channel 2 key').fill('rh');
-    await page.getByLabel('Channel 2 label').fill('Relative humidity');
-    await page.getByLabel('Channel 2 unit').fill('%');
+    await page.getByLabel('Channel key (2nd channel)').fill('rh');
+    await page.getByLabel('Label (2nd channel)').fill('Relative humidity');
+    await page.getByLabel('Unit (2nd channel)').fill('%');
     await keepScreenshot(page, 'upload-register-logger');
     await page.getByRole('button', { name: 'Register logger' }).click();
 

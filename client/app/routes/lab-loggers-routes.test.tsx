@@ -178,16 +178,16 @@ describe('registering a logger', () => {
     fill('Name', ' Hedgerow mast ');
     fill('Site', 'North hedge');
     fireEvent.change(screen.getByLabelText('Time zone'), { target: { value: 'Europe/Berlin' } });
-    fill('Expected interval (s)', '600');
-    fill('Channel 1 key', 'air_t');
-    fill('Channel 1 label', 'Air temperature');
-    fill('Channel 1 unit', '°C');
-    fill('Channel 1 valid minimum', '-40');
-    fill('Channel 1 valid maximum', '60');
-    fill('Channel 1 seasonal period hint', '144');
+    fill('Expected time between readings in seconds', '600');
+    fill('Channel key (1st channel)', 'air_t');
+    fill('Label (1st channel)', 'Air temperature');
+    fill('Unit (1st channel)', '°C');
+    fill('Lowest valid value (1st channel)', '-40');
+    fill('Highest valid value (1st channel)', '60');
+    fill('Readings in one cycle (1st channel)', '144');
     fireEvent.click(screen.getByRole('button', { name: '+ Add a channel' }));
-    fill('Channel 2 key', 'rh');
-    fill('Channel 2 label', 'Relative humidity');
+    fill('Channel key (2nd channel)', 'rh');
+    fill('Label (2nd channel)', 'Relative humidity');
     fireEvent.click(screen.getByRole('button', { name: 'Register logger' }));
 
     const key = await screen.findByTestId('issued-key');
@@ -233,21 +233,21 @@ describe('registering a logger', () => {
     renderWithProviders(routes, '/labs/fernhollow/loggers/new');
     await screen.findByRole('form', { name: 'Register a logger' });
     fill('Name', 'Hedgerow mast');
-    fill('Expected interval (s)', 'ten');
-    fill('Channel 1 key', 'air t');
-    fill('Channel 1 label', 'Air temperature');
-    fill('Channel 1 valid minimum', '5');
-    fill('Channel 1 valid maximum', '1');
+    fill('Expected time between readings in seconds', 'ten');
+    fill('Channel key (1st channel)', 'air t');
+    fill('Label (1st channel)', 'Air temperature');
+    fill('Lowest valid value (1st channel)', '5');
+    fill('Highest valid value (1st channel)', '1');
     fireEvent.click(screen.getByRole('button', { name: 'Register logger' }));
     // Messages from createLoggerSchema / channelInputSchema (server/contract/loggers.ts).
-    expect(await screen.findByText('use 1–64 letters, digits, "_", "." or "-", starting with a letter or digit')).toBeTruthy();
+    expect(await screen.findByText('use 1 to 64 letters, digits, "_", "." or "-", starting with a letter or digit')).toBeTruthy();
     expect(screen.getByText('must be a number')).toBeTruthy();
-    expect(screen.getByText('validMin must be below validMax')).toBeTruthy();
+    expect(screen.getByText('must be above the lowest valid value')).toBeTruthy();
     expect(api.requests.filter((r) => r.method === 'POST')).toHaveLength(0);
 
-    fill('Expected interval (s)', '600');
-    fill('Channel 1 key', 'air_t');
-    fill('Channel 1 valid maximum', '60');
+    fill('Expected time between readings in seconds', '600');
+    fill('Channel key (1st channel)', 'air_t');
+    fill('Highest valid value (1st channel)', '60');
     fireEvent.click(screen.getByRole('button', { name: 'Register logger' }));
     const name = screen.getByLabelText('Name');
     await vi.waitFor(() => expect(name.getAttribute('aria-invalid')).toBe('true'));
@@ -313,7 +313,7 @@ describe('a logger’s page', () => {
     renderWithProviders(routes, '/labs/fernhollow/loggers/5');
     fireEvent.click(await screen.findByRole('button', { name: 'Edit rh' }));
     const form = screen.getByRole('form', { name: 'Edit channel rh' });
-    fireEvent.change(within(form).getByLabelText('Key'), { target: { value: 'air_t' } });
+    fireEvent.change(within(form).getByLabelText('Channel key'), { target: { value: 'air_t' } });
     fireEvent.change(within(form).getByLabelText('Unit'), { target: { value: '% RH' } });
     fireEvent.click(within(form).getByRole('button', { name: 'Save channel' }));
     expect(await within(form).findByText('this logger already has a channel with this key')).toBeTruthy();

@@ -4,6 +4,9 @@
  * the server shares live in `@shared/contract/words/loggers.ts`.
  */
 
+/** Appended to the label of a box that takes seconds ("Expected time between readings in seconds"). */
+export const IN_SECONDS = ' in seconds';
+
 /** The test-reading value is empty or not a number (said under the Value field). */
 export const TEST_VALUE_NOT_A_NUMBER = 'Enter the value as a number, e.g. 21.5';
 

@@ -9,6 +9,8 @@ import { Notice } from '../../../components/notice.tsx';
 import { applyServerError } from '../../../components/server-field-error.ts';
 import { TimeZoneSelect } from '../../../components/time-zone-select.tsx';
 import { useUpdateLogger } from '../api/update-logger.ts';
+import { LOGGER_LABELS } from '@shared/contract/words/loggers.ts';
+import { IN_SECONDS } from '../messages.ts';
 
 type LoggerEditForm = z.input<typeof loggerPatchSchema>;
 const FIELDS = ['name', 'serial', 'site', 'timezone', 'expectedIntervalS'] as const;
@@ -37,7 +39,7 @@ export function LoggerEditForm({ slug, logger, onDone }: { slug: string; logger:
       <TextField label="Site" autoComplete="off" error={errors.site?.message} {...form.register('site')} />
       <TimeZoneSelect label="Time zone" current={logger.timezone} error={errors.timezone?.message} {...form.register('timezone')} />
       <TextField
-        label="Expected interval (s)"
+        label={`${LOGGER_LABELS.expectedIntervalS}${IN_SECONDS}`}
         inputMode="numeric"
         error={errors.expectedIntervalS?.message}
         {...form.register('expectedIntervalS', { setValueAs: requiredNumber })}

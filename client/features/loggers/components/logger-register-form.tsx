@@ -10,6 +10,8 @@ import { applyServerError } from '../../../components/server-field-error.ts';
 import { browserTimeZone, TimeZoneSelect } from '../../../components/time-zone-select.tsx';
 import { useCreateLogger, type createLogger } from '../api/create-logger.ts';
 import { ChannelFields, EMPTY_CHANNEL, type ChannelFieldName } from './channel-fields.tsx';
+import { LOGGER_LABELS } from '@shared/contract/words/loggers.ts';
+import { IN_SECONDS } from '../messages.ts';
 
 type RegisterLoggerForm = z.input<typeof createLoggerSchema>;
 export type RegisteredLogger = Awaited<ReturnType<typeof createLogger>>;
@@ -61,7 +63,7 @@ export function LoggerRegisterForm({ slug, onRegistered }: { slug: string; onReg
           {...form.register('timezone')}
         />
         <TextField
-          label="Expected interval (s)"
+          label={`${LOGGER_LABELS.expectedIntervalS}${IN_SECONDS}`}
           inputMode="numeric"
           hint="Seconds between readings; a longer silence counts as a gap."
           error={errors.expectedIntervalS?.message}
@@ -82,7 +84,7 @@ export function LoggerRegisterForm({ slug, onRegistered }: { slug: string; onReg
                 </Button>
               </div>
               <ChannelFields
-                labelPrefix={`Channel ${index + 1} `}
+                position={index + 1}
                 register={(name, options) => form.register(`channels.${index}.${name}`, options)}
                 errors={errors.channels?.[index]}
               />
