@@ -21,7 +21,7 @@ export default function LabQuarantineRoute() {
           store them under the right channel), or discard what is beyond repair.
         </p>
       </div>
-      <QuarantineReview slug={slug} loggers={loggers.data?.loggers.map((l) => ({ id: l.id, name: l.name })) ?? []} />
+      <QuarantineReview slug={slug} loggers={loggers.data?.loggers.map((l) => ({ id: l.id, name: l.name, timezone: l.timezone })) ?? []} />
     </section>
   );
 }

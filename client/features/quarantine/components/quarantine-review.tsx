@@ -28,7 +28,7 @@ export const QUARANTINE_PAGE_SIZE = 50;
  * are, fix a single row and re-submit it, download every matching row as CSV. The outcome
  * of the last re-submission stays on screen until the next action.
  */
-export function QuarantineReview({ slug, loggers }: { slug: string; loggers: Array<{ id: number; name: string }> }) {
+export function QuarantineReview({ slug, loggers }: { slug: string; loggers: Array<{ id: number; name: string; timezone?: string }> }) {
   const [filters, setFilters] = useQuarantineFilters();
   const query = {
     ...(filters.loggerId ? { loggerId: filters.loggerId } : {}),
@@ -53,6 +53,8 @@ export function QuarantineReview({ slug, loggers }: { slug: string; loggers: Arr
   // the cursors of the pages before the shown one, newest first page = null
   const [trail, setTrail] = useState<Array<string | null>>([]);
   const loggerNames = useMemo(() => new Map(loggers.map((l) => [l.id, l.name])), [loggers]);
+  // each row's received time on its logger's clock (by default)
+  const loggerZones = useMemo(() => new Map(loggers.flatMap((l) => (l.timezone ? [[l.id, l.timezone] as const] : []))), [loggers]);
 
   const pageRows = list.data?.rows;
   const send = useCallback(
@@ -205,7 +207,15 @@ export function QuarantineReview({ slug, loggers }: { slug: string; loggers: Arr
         <Notice tone="alert">{list.error.message}</Notice>
       ) : (
         <>
-          <QuarantineTable rows={rows} loggerNames={loggerNames} selected={selected} onSelect={setSelected} pending={resubmit.isPending} onResubmit={send} />
+          <QuarantineTable
+            rows={rows}
+            loggerNames={loggerNames}
+            loggerZones={loggerZones}
+            selected={selected}
+            onSelect={setSelected}
+            pending={resubmit.isPending}
+            onResubmit={send}
+          />
           <QuarantinePager
             shown={rows.length}
             total={list.data.total}

@@ -31,6 +31,7 @@ function FixCell({ row, pending, onResubmit }: { row: QuarantinedRow; pending: b
 export function QuarantineTable({
   rows,
   loggerNames,
+  loggerZones,
   selected,
   onSelect,
   pending,
@@ -38,6 +39,8 @@ export function QuarantineTable({
 }: {
   rows: QuarantinedRow[];
   loggerNames: Map<number, string>;
+  /** Each logger's IANA zone, so a row's received time shows on its logger's clock (by default). */
+  loggerZones?: ReadonlyMap<number, string>;
   selected: ReadonlySet<number>;
   onSelect: (next: Set<number>) => void;
   pending: boolean;
@@ -99,10 +102,16 @@ export function QuarantineTable({
       { id: 'ts', meta: { phone: 'value' }, header: 'Time', cell: ({ row }) => mono(row.original.ts) },
       { id: 'value', meta: { phone: 'value' }, header: 'Value', cell: ({ row }) => mono(row.original.value) },
       { id: 'raw', header: 'As received', cell: ({ row }) => mono(row.original.raw) },
-      { id: 'received', header: 'Received', cell: ({ row }) => <Instant at={row.original.receivedAt} kind="readings" /> },
+      {
+        id: 'received',
+        header: 'Received',
+        cell: ({ row }) => (
+          <Instant at={row.original.receivedAt} kind="readings" loggerZone={row.original.loggerId === null ? null : loggerZones?.get(row.original.loggerId)} />
+        ),
+      },
       { id: 'fix', header: 'Fix', cell: ({ row }) => <FixCell row={row.original} pending={pending} onResubmit={onResubmit} /> },
     ];
-  }, [rows, loggerNames, selected, onSelect, pending, onResubmit]);
+  }, [rows, loggerNames, loggerZones, selected, onSelect, pending, onResubmit]);
 
   return (
     <DataTable
