@@ -9,6 +9,7 @@ import { InvoicesTable } from './invoices-table.tsx';
 import { PlanChoices } from './plan-choices.tsx';
 import { UsageBar } from './usage-bar.tsx';
 import { UsageSparkline } from './usage-sparkline.tsx';
+import { BILLING_NOTICES, PLAN_STATE_WORDS, planConfirmed } from '../messages.ts';
 
 /** How the page was reached: straight, or back from Stripe Checkout (`?checkout=complete|cancelled`). */
 export type CheckoutReturn = 'complete' | 'cancelled' | null;
@@ -22,9 +23,8 @@ function StatusNotice({ overview }: { overview: BillingOverview }) {
       </Notice>
     );
   }
-  if (overview.status === 'past_due')
-    return <Notice tone="alert">A payment failed and the grace period is over: the free plan’s limits apply until the invoice is paid.</Notice>;
-  if (overview.status === 'canceled') return <Notice tone="status">The subscription was cancelled: the lab is on the free plan. Nothing was deleted.</Notice>;
+  if (overview.status === 'past_due') return <Notice tone="alert">{BILLING_NOTICES.graceOver}</Notice>;
+  if (overview.status === 'canceled') return <Notice tone="status">{BILLING_NOTICES.cancelled}</Notice>;
   return null;
 }
 
@@ -32,10 +32,10 @@ function CheckoutNotice({ returned, overview }: { returned: CheckoutReturn; over
   // The plan the checkout confirmed, kept: a later switch on this page must not rename it.
   const confirmedPlan = useRef<string | null>(null);
   if (confirmedPlan.current === null && isConfirmed(overview)) confirmedPlan.current = overview.plan.name;
-  if (returned === 'cancelled') return <Notice tone="status">Checkout was cancelled; nothing was charged and the plan is unchanged.</Notice>;
+  if (returned === 'cancelled') return <Notice tone="status">{BILLING_NOTICES.checkoutCancelled}</Notice>;
   if (returned !== 'complete') return null;
-  if (confirmedPlan.current !== null) return <Notice tone="status">Payment confirmed: the lab is now on the {confirmedPlan.current} plan.</Notice>;
-  return <Notice tone="status">Payment received — waiting for confirmation from Stripe. This page updates by itself.</Notice>;
+  if (confirmedPlan.current !== null) return <Notice tone="status">{planConfirmed(confirmedPlan.current, 'payment')}</Notice>;
+  return <Notice tone="status">{BILLING_NOTICES.paymentWaiting}</Notice>;
 }
 
 /**
@@ -62,15 +62,7 @@ export function BillingPage({ slug, returned }: { slug: string; returned: Checko
             <div className="flex flex-wrap items-center justify-between gap-3 rounded-lg border border-rule bg-card p-4">
               <p>
                 Plan: <strong data-testid="current-plan">{data.plan.name}</strong>
-                <span className="ml-2 text-sm text-ink-soft">
-                  {data.status === 'active'
-                    ? 'paid, active'
-                    : data.status === 'past_due'
-                      ? 'payment overdue'
-                      : data.status === 'canceled'
-                        ? 'subscription cancelled'
-                        : 'free'}
-                </span>
+                <span className="ml-2 text-sm text-ink-soft">{PLAN_STATE_WORDS[data.status]}</span>
               </p>
               <Button disabled={portal.isPending} onClick={() => portal.mutate()}>
                 Manage payment
@@ -78,12 +70,7 @@ export function BillingPage({ slug, returned }: { slug: string; returned: Checko
             </div>
             {portal.isError && <Notice tone="alert">{portal.error.message}</Notice>}
             <StatusNotice overview={data} />
-            {data.ingestionRefused && (
-              <Notice tone="alert">
-                Storage is full: new batches from the loggers are refused (they are told to retry later and keep their readings). Stored data stays readable.
-                Choose a larger plan to accept them again.
-              </Notice>
-            )}
+            {data.ingestionRefused && <Notice tone="alert">{BILLING_NOTICES.storageFull}</Notice>}
           </>
         )}
       </section>
