@@ -60,6 +60,14 @@ async function store(f: LabWithEverything, start: number, stepMs: number, values
 const mailTo = async (who: TestUser) => (await fetchCapturedMail(captureUrl, { to: who.email })).map((m) => m.subject.replace(/^\[[^\]]*\] /, ''));
 const alertsOf = (f: LabWithEverything) => t.db('alerts').where({ tenant_id: f.lab.id }).orderBy('opened_at');
 
+/** Simulated hourly readings (behaviour test): 21 °C ± 3 °C daily cycle peaking at 15:00, seeded noise ±0.2 °C, from five days ago. */
+function growthRoom(seed: number) {
+  let state = seed;
+  const noise = () => ((state = (Math.imul(state, 1664525) + 1013904223) >>> 0) / 2 ** 32 - 0.5) * 0.4;
+  const day0 = Math.floor(Date.now() / 86_400_000) * 86_400_000 - 5 * 86_400_000;
+  return { day0, usual: (h: number) => 21 + 3 * Math.cos((2 * Math.PI * (h - 15)) / 24) + noise() };
+}
+
 describe('alert evaluation', () => {
   it('bounds with hold: a single warm reading pages nobody; a sustained one opens once and resolves; each subscriber is mailed once per event', async () => {
     const s = await setup();
@@ -165,11 +173,7 @@ describe('alert evaluation', () => {
   it('unusual reading: the usual afternoon peak passes, a 3 a.m. spike of the same height opens an alert', async () => {
     const s = await setup();
     await t.db('channels').where({ tenant_id: s.f.lab.id, id: s.f.ids.channelId }).update({ expected_interval_s: 3600 });
-    // Simulated hourly readings (behaviour test): 21 °C ± 3 °C daily cycle peaking at 15:00, seeded noise ±0.2 °C.
-    let seed = 11;
-    const noise = () => ((seed = (Math.imul(seed, 1664525) + 1013904223) >>> 0) / 2 ** 32 - 0.5) * 0.4;
-    const day0 = Math.floor(Date.now() / 86_400_000) * 86_400_000 - 5 * 86_400_000;
-    const usual = (h: number) => 21 + 3 * Math.cos((2 * Math.PI * (h - 15)) / 24) + noise();
+    const { day0, usual } = growthRoom(11);
     await makeRule(s, { name: 'Growth room odd', kind: 'unusual', channelId: s.f.ids.channelId, params: { periodH: 24, k: 5, historyCycles: 3 } });
     await store(
       s.f,
@@ -198,11 +202,7 @@ describe('alert evaluation', () => {
   it('unusual reading: a spike right after a logger outage opens an alert (the empty hours before it do not stop the judgement)', async () => {
     const s = await setup();
     await t.db('channels').where({ tenant_id: s.f.lab.id, id: s.f.ids.channelId }).update({ expected_interval_s: 3600 });
-    // Simulated hourly readings (behaviour test): 21 °C ± 3 °C daily cycle peaking at 15:00, seeded noise ±0.2 °C.
-    let seed = 23;
-    const noise = () => ((seed = (Math.imul(seed, 1664525) + 1013904223) >>> 0) / 2 ** 32 - 0.5) * 0.4;
-    const day0 = Math.floor(Date.now() / 86_400_000) * 86_400_000 - 5 * 86_400_000;
-    const usual = (h: number) => 21 + 3 * Math.cos((2 * Math.PI * (h - 15)) / 24) + noise();
+    const { day0, usual } = growthRoom(23);
     await makeRule(s, { name: 'Growth room odd', kind: 'unusual', channelId: s.f.ids.channelId, params: { periodH: 24, k: 5, historyCycles: 3 } });
     // The first hour of the history is missing too (the logger was installed an hour late).
     await store(

@@ -1,6 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import type { BucketSeries, ReadingsSeries } from '@shared/contract/channels.ts';
 import { cellSizeWords, LIMIT_LABEL_ROOM, outOfRangePoints, readingsChartOption, readingsSummary } from './readings-chart-option.ts';
+import {
+  BERLIN_MARCH,
+  BERLIN_MARCH_MIDNIGHTS,
+  BERLIN_OCTOBER,
+  BERLIN_OCTOBER_MIDNIGHTS,
+  isoTicks,
+  type TimeAxis,
+} from '../../../components/charts/berlin-midnights.testkit.ts';
 
 // Small invented series (demo values) in the API's documented shapes; expectations worked by hand.
 const T0 = Date.parse('2026-01-10T00:00:00Z');
@@ -27,21 +35,6 @@ const buckets: BucketSeries = {
   mean: [3, null],
   count: [120, 0],
 };
-// Berlin midnights around the two daylight-saving Sundays of 2026 (29 March, 25 October), from the IANA
-// time zone database as Python 3.11's zoneinfo reads it (`/usr/bin/python3`:
-// `datetime(2026, 3, 30, tzinfo=ZoneInfo('Europe/Berlin')).astimezone(timezone.utc)` → 2026-03-29T22:00Z).
-const BERLIN_MARCH = { from: Date.parse('2026-03-26T12:00:00Z'), to: Date.parse('2026-03-31T12:00:00Z') };
-const BERLIN_MARCH_MIDNIGHTS = [
-  '2026-03-26T23:00:00.000Z',
-  '2026-03-27T23:00:00.000Z',
-  '2026-03-28T23:00:00.000Z',
-  '2026-03-29T22:00:00.000Z',
-  '2026-03-30T22:00:00.000Z',
-];
-const BERLIN_OCTOBER = { from: Date.parse('2026-10-23T12:00:00Z'), to: Date.parse('2026-10-27T12:00:00Z') };
-const BERLIN_OCTOBER_MIDNIGHTS = ['2026-10-23T22:00:00.000Z', '2026-10-24T22:00:00.000Z', '2026-10-25T23:00:00.000Z', '2026-10-26T23:00:00.000Z'];
-type TimeAxis = { axisTick: { customValues: number[] }; axisLabel: { customValues: number[]; formatter: (v: number) => string } };
-const isoTicks = (x: TimeAxis) => x.axisTick.customValues.map((t) => new Date(t).toISOString());
 const ctx = { label: 'Air', unit: '°C', timezone: 'Europe/Berlin', validMin: -40, validMax: 60, range: { from: T0, to: T0 + 14_400_000 } };
 
 describe('readings chart helpers', () => {

@@ -2,26 +2,18 @@ import { describe, expect, it } from 'vitest';
 import { aggregationOf, plottedPoints, togetherChartHeight, togetherChartOption, togetherSummary, type DrawnLine } from './together-chart-option.ts';
 import { planLines } from './together-lines.ts';
 import { BOARDWALK, buckets, fenChannel, readings, WEIR } from './together-fixture.ts';
+import {
+  BERLIN_MARCH,
+  BERLIN_MARCH_MIDNIGHTS,
+  BERLIN_OCTOBER,
+  BERLIN_OCTOBER_MIDNIGHTS,
+  isoTicks,
+  type TimeAxis,
+} from '../../../components/charts/berlin-midnights.testkit.ts';
 
 const T0 = Date.parse('2026-03-29T00:00:00Z');
 const MIN = 60_000;
 const RANGE = { from: T0, to: T0 + 120 * MIN };
-
-// Berlin midnights around the two daylight-saving Sundays of 2026 (29 March, 25 October), from the IANA
-// time zone database as Python 3.11's zoneinfo reads it (`/usr/bin/python3`:
-// `datetime(2026, 3, 30, tzinfo=ZoneInfo('Europe/Berlin')).astimezone(timezone.utc)` → 2026-03-29T22:00Z).
-const BERLIN_MARCH = { from: Date.parse('2026-03-26T12:00:00Z'), to: Date.parse('2026-03-31T12:00:00Z') };
-const BERLIN_MARCH_MIDNIGHTS = [
-  '2026-03-26T23:00:00.000Z',
-  '2026-03-27T23:00:00.000Z',
-  '2026-03-28T23:00:00.000Z',
-  '2026-03-29T22:00:00.000Z',
-  '2026-03-30T22:00:00.000Z',
-];
-const BERLIN_OCTOBER = { from: Date.parse('2026-10-23T12:00:00Z'), to: Date.parse('2026-10-27T12:00:00Z') };
-const BERLIN_OCTOBER_MIDNIGHTS = ['2026-10-23T22:00:00.000Z', '2026-10-24T22:00:00.000Z', '2026-10-25T23:00:00.000Z', '2026-10-26T23:00:00.000Z'];
-type TimeAxis = { axisTick: { customValues: number[] }; axisLabel: { customValues: number[]; formatter: (v: number) => string } };
-const isoTicks = (x: TimeAxis) => x.axisTick.customValues.map((t) => new Date(t).toISOString());
 
 type Axis = { name: string; position: string; offset: number };
 type Line = { name: string; yAxisIndex: number; data: Array<[number, number | null]>; lineStyle: { color: string; type: unknown }; symbol: string };

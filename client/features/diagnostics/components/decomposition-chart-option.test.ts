@@ -1,5 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import { decompositionChartOption, observedFromParts, observedOf } from './decomposition-chart-option.ts';
+import {
+  BERLIN_MARCH,
+  BERLIN_MARCH_MIDNIGHTS,
+  BERLIN_OCTOBER,
+  BERLIN_OCTOBER_MIDNIGHTS,
+  isoTicks,
+  type TimeAxis,
+} from '../../../components/charts/berlin-midnights.testkit.ts';
 
 // The additive identity observed = trend + seasonal + remainder (Cleveland et al. 1990, eq. 1 —
 // equation number from memory); parts invented for the test.
@@ -44,22 +52,6 @@ describe('observedFromParts', () => {
     ]);
   });
 });
-
-// Berlin midnights around the two daylight-saving Sundays of 2026 (29 March, 25 October), from the IANA
-// time zone database as Python 3.11's zoneinfo reads it (`/usr/bin/python3`:
-// `datetime(2026, 3, 30, tzinfo=ZoneInfo('Europe/Berlin')).astimezone(timezone.utc)` → 2026-03-29T22:00Z).
-const BERLIN_MARCH = { from: Date.parse('2026-03-26T12:00:00Z'), to: Date.parse('2026-03-31T12:00:00Z') };
-const BERLIN_MARCH_MIDNIGHTS = [
-  '2026-03-26T23:00:00.000Z',
-  '2026-03-27T23:00:00.000Z',
-  '2026-03-28T23:00:00.000Z',
-  '2026-03-29T22:00:00.000Z',
-  '2026-03-30T22:00:00.000Z',
-];
-const BERLIN_OCTOBER = { from: Date.parse('2026-10-23T12:00:00Z'), to: Date.parse('2026-10-27T12:00:00Z') };
-const BERLIN_OCTOBER_MIDNIGHTS = ['2026-10-23T22:00:00.000Z', '2026-10-24T22:00:00.000Z', '2026-10-25T23:00:00.000Z', '2026-10-26T23:00:00.000Z'];
-type TimeAxis = { axisTick: { customValues: number[] }; axisLabel: { customValues: number[]; formatter: (v: number) => string } };
-const isoTicks = (x: TimeAxis) => x.axisTick.customValues.map((t) => new Date(t).toISOString());
 
 describe('decomposition time axes', () => {
   it('tick at the logger’s local midnights on every panel, labels on the bottom one only', () => {
