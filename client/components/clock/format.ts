@@ -111,20 +111,6 @@ export function toZonedInput(ms: number, timeZone: string): string {
   return formatZoned(ms, timeZone).replace(' ', 'T');
 }
 
-/**
- * The instant at which the clock in `timeZone` reads `local` (`YYYY-MM-DDTHH:mm[:ss]`), or
- * null when `local` cannot be read. In a spring-forward gap the later offset is used; in an
- * autumn overlap the first (earlier-offset) reading wins after one correction step.
- */
-export function fromZonedInput(local: string, timeZone: string): number | null {
-  const m = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2})(?::(\d{2}))?$/.exec(local);
-  if (!m) return null;
-  const naive = Date.UTC(Number(m[1]), Number(m[2]) - 1, Number(m[3]), Number(m[4]), Number(m[5]), Number(m[6] ?? 0));
-  if (Number.isNaN(naive)) return null;
-  const first = naive - zoneOffsetMinutes(naive, timeZone) * 60_000;
-  return naive - zoneOffsetMinutes(first, timeZone) * 60_000;
-}
-
 const UNITS: Array<[Intl.RelativeTimeFormatUnit, number]> = [
   ['year', 365 * 86_400_000],
   ['month', 30 * 86_400_000],

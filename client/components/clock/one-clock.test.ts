@@ -62,7 +62,7 @@ function sources(dir = CLIENT): string[] {
   return readdirSync(dir).flatMap((name) => {
     const path = join(dir, name);
     if (statSync(path).isDirectory()) return name === 'node_modules' ? [] : sources(path);
-    return /\.tsx?$/.test(name) && !/\.test\.tsx?$/.test(name) ? [path] : [];
+    return /\.tsx?$/.test(name) && !/\.(test|testkit)\.tsx?$/.test(name) ? [path] : []; // tests and test-only check values are not pages
   });
 }
 
