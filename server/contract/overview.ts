@@ -45,7 +45,8 @@ export interface OverviewAlert {
   detail: string;
   acknowledged: boolean;
   channel: { id: number; label: string } | null;
-  logger: { id: number; name: string } | null;
+  /** The logger the alert is about, with its IANA zone (the clock its times are shown on by default). */
+  logger: { id: number; name: string; timezone: string } | null;
 }
 
 /** The alerts part (`alerts.read`). */
@@ -88,7 +89,8 @@ export interface OverviewPlan {
 /** The last finished upload of a history file (`uploads.create`), from the audit log. */
 export interface OverviewUpload {
   at: IsoTime;
-  logger: { id: number; name: string } | null;
+  /** The logger the file was for, with its IANA zone. */
+  logger: { id: number; name: string; timezone: string } | null;
   by: { name: string } | null;
   lines: number;
   accepted: number;

@@ -63,7 +63,7 @@ export function labOverviewRepo(scope: LabScope) {
       )[0] as Array<{ n: number }>;
       const [rows] = (await scope.raw(
         `SELECT alerts.id, alerts.rule_name AS ruleName, alerts.opened_at AS openedAt, alerts.opened_detail AS detail, alerts.acknowledged_at AS acknowledgedAt,
-                alerts.channel_id AS channelId, channels.label AS channelLabel, alerts.logger_id AS loggerId, loggers.name AS loggerName
+                alerts.channel_id AS channelId, channels.label AS channelLabel, alerts.logger_id AS loggerId, loggers.name AS loggerName, loggers.timezone AS loggerTimezone
          FROM alerts FORCE INDEX (alerts_one_open_per_rule)
          LEFT JOIN channels ON channels.tenant_id = alerts.tenant_id AND channels.id = alerts.channel_id
          LEFT JOIN loggers ON loggers.tenant_id = alerts.tenant_id AND loggers.id = alerts.logger_id
@@ -81,7 +81,10 @@ export function labOverviewRepo(scope: LabScope) {
           detail: r.detail as string,
           acknowledged: r.acknowledgedAt !== null && r.acknowledgedAt !== undefined,
           channel: r.channelId === null || r.channelLabel === null ? null : { id: Number(r.channelId), label: r.channelLabel as string },
-          logger: r.loggerId === null || r.loggerName === null ? null : { id: Number(r.loggerId), name: r.loggerName as string },
+          logger:
+            r.loggerId === null || r.loggerName === null
+              ? null
+              : { id: Number(r.loggerId), name: r.loggerName as string, timezone: r.loggerTimezone as string },
         })),
       };
     },
@@ -180,10 +183,10 @@ export function labOverviewRepo(scope: LabScope) {
       };
     },
 
-    /** A logger's name by id (retired ones too), or null when it is not this lab's. */
-    async loggerName(loggerId: number): Promise<string | null> {
-      const row = await scope.table('loggers').where('loggers.id', loggerId).first('loggers.name');
-      return row ? (row.name as string) : null;
+    /** A logger's name and IANA zone by id (retired ones too), or null when it is not this lab's. */
+    async loggerNameAndZone(loggerId: number): Promise<{ name: string; timezone: string } | null> {
+      const row = await scope.table('loggers').where('loggers.id', loggerId).first('loggers.name', 'loggers.timezone');
+      return row ? { name: row.name as string, timezone: row.timezone as string } : null;
     },
   };
 }

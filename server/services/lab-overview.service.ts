@@ -133,11 +133,11 @@ export function createLabOverviewService(deps: { db: Db; billing: Pick<BillingSe
     const event = await repo.latestEvent(UPLOAD_AUDIT_ACTION);
     if (!event) return null;
     const loggerId = Number(event.targetId);
-    const name = Number.isSafeInteger(loggerId) && loggerId > 0 ? await repo.loggerName(loggerId) : null;
+    const logger = Number.isSafeInteger(loggerId) && loggerId > 0 ? await repo.loggerNameAndZone(loggerId) : null;
     const d = event.details ?? {};
     return {
       at: event.at.toISOString(),
-      logger: name === null ? null : { id: loggerId, name },
+      logger: logger === null ? null : { id: loggerId, ...logger },
       by: event.actorName === null ? null : { name: event.actorName },
       lines: num(d.lines),
       accepted: num(d.accepted),

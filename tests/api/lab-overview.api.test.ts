@@ -119,6 +119,7 @@ describe('GET /overview: each attention item when its condition holds', () => {
       rule_name: 'Air too warm',
       kind: 'bounds',
       channel_id: f.ids.channelId,
+      logger_id: f.ids.loggerId,
       opened_at: clock - MIN,
       opened_value: 31,
       opened_detail: '31 is above the high limit 30',
@@ -134,7 +135,8 @@ describe('GET /overview: each attention item when its condition holds', () => {
         detail: '31 is above the high limit 30',
         acknowledged: false,
         channel: { id: f.ids.channelId, label: 'Air temperature' },
-        logger: null,
+        // with the logger's zone, so the page can show the time on the logger's clock
+        logger: { id: f.ids.loggerId, name: `Logger ${f.ids.loggerId}`, timezone: 'UTC' },
       },
     ]);
   });
@@ -174,7 +176,7 @@ describe('GET /overview: each attention item when its condition holds', () => {
       .expect(200);
     const o = await overviewOf(f.lab.slug, admin);
     expect(o.lastUpload).toMatchObject({
-      logger: { id: f.ids.loggerId, name: `Logger ${f.ids.loggerId}` },
+      logger: { id: f.ids.loggerId, name: `Logger ${f.ids.loggerId}`, timezone: 'UTC' },
       by: { name: f.founder.displayName },
       lines: 2,
       accepted: 1,

@@ -89,7 +89,7 @@ export function OverviewPanels({ o, slug, reasonLabel }: { o: LabOverviewAnswer;
                   )}
                   {a.acknowledged && <span className="text-ink-soft"> (acknowledged)</span>}
                   <span className="block text-ink-soft">{a.detail}</span>
-                  <Instant at={a.openedAt} kind="readings" relative now={now} />
+                  <Instant at={a.openedAt} kind="readings" loggerZone={a.logger?.timezone} relative now={now} />
                 </li>
               ))}
               {o.alerts.openCount > o.alerts.recent.length && <li className="text-ink-soft">and {o.alerts.openCount - o.alerts.recent.length} more</li>}
@@ -163,7 +163,7 @@ export function OverviewPanels({ o, slug, reasonLabel }: { o: LabOverviewAnswer;
             <p className="text-ink-soft">No history file uploaded yet.</p>
           ) : (
             <div className="grid gap-1">
-              <Instant at={o.lastUpload.at} kind="readings" relative now={now} />
+              <Instant at={o.lastUpload.at} kind="readings" loggerZone={o.lastUpload.logger?.timezone} relative now={now} />
               <p>
                 {o.lastUpload.logger ? (
                   <Link to={paths.labLoggerUpload.href(slug, o.lastUpload.logger.id)} className="text-lichen-dark underline">
