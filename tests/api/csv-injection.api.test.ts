@@ -60,6 +60,7 @@ describe('CSV exports neutralise formulas', () => {
       .get(`/api/v1/labs/${f.lab.slug}/channels/${f.ids.channelId}/readings.csv?from=${ts}&to=${ts + 1}`)
       .set('Cookie', cookie)
       .expect(200);
-    expect(readings.text.trim().split('\r\n')[1]).toBe(`${new Date(ts).toISOString()},${ts},-3.2`);
+    // the last column is the same instant on the logger's clock (the fixture's logger keeps UTC)
+    expect(readings.text.trim().split('\r\n')[1]).toBe(`${new Date(ts).toISOString()},${ts},-3.2,${new Date(ts).toISOString().replace('Z', '+00:00')}`);
   });
 });

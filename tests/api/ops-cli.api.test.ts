@@ -60,7 +60,7 @@ describe('operator CLI', () => {
     const s = await ops('mint-token', '--lab', lab.slug, '--email', stranger.email, '--name', 'x');
     expect([s.code, s.stderr.trim()]).toEqual([2, `ops: ${stranger.email} is not a member of ${lab.slug}.`]);
     const d = await ops('mint-token', '--lab', lab.slug, '--email', guest.email, '--name', 'x', '--days', '400');
-    expect([d.code, d.stderr.trim()]).toEqual([2, 'ops: expiresInDays: must be at most 365']);
+    expect([d.code, d.stderr.trim()]).toEqual([2, 'ops: expiresInDays: must be at most 365 days']);
     expect(await t.db('personal_tokens').where({ tenant_id: lab.id })).toHaveLength(0);
   });
 

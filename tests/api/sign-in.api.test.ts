@@ -32,8 +32,8 @@ describe('sign-in through the OpenID Connect provider', () => {
     const body = (await me.json()) as { user: Record<string, unknown>; labs: unknown[] };
     expect(body.user).toMatchObject({ email: scientist.email, name: scientist.name });
     expect(Array.isArray(body.labs)).toBe(true);
-    // Only what the presenter allows leaves the server (the time zone is the person's own setting).
-    expect(Object.keys(body.user).sort()).toEqual(['email', 'id', 'name', 'timeZone']);
+    // Only what the presenter allows leaves the server (the clock choice and the time zone is the person's own setting).
+    expect(Object.keys(body.user).sort()).toEqual(['clock', 'email', 'id', 'name', 'timeZone']);
     // The provider vouches for the address (userinfo email_verified: true): it is stored as verified.
     const row = await t.db('users').where({ email: scientist.email }).first();
     expect(Boolean(row.email_verified)).toBe(true);
