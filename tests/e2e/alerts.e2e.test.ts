@@ -77,7 +77,7 @@ describe('alerts in the browser', () => {
     await page.reload();
     const open = page.getByRole('list', { name: 'Open alerts' });
     await open.getByText(`Open: ${ruleName}`).waitFor({ timeout: 15_000 });
-    expect(await open.getByText('7.5 is above the high limit 6').count()).toBe(1);
+    expect(await open.getByText('7.5 °C is above the high limit 6 °C').count()).toBe(1);
     await keepScreenshot(page, 'alerts-open');
 
     // the mail's link opens the channel on the alert's time range, with the alert listed (and shaded: screenshot)

@@ -123,6 +123,8 @@ describe('several channels on one chart', () => {
     await page.getByLabel('Show times in').selectOption('America/Halifax');
     await page.waitForURL((u) => u.searchParams.get('zone') === 'America/Halifax');
     await chartReady();
+    // the page re-renders after the address changes; wait for the new clock before reading the sentence (a busy machine is slow)
+    await page.getByTestId('together-zone').filter({ hasText: 'America/Halifax' }).waitFor({ timeout: 15_000 });
     expect(await page.getByTestId('together-zone').textContent()).toMatch(
       /^Times are shown in America\/Halifax \(UTC−0[34]:00 .*\), the clock of Tide-pool buoy/,
     );
