@@ -26,11 +26,22 @@ const id = z.number({ error: 'must be a number' }).int('must be a whole number')
 export const silenceParamsSchema = z.object({
   factor: z.number({ error: 'must be a number' }).min(1, ALERT_REASONS.factorMin).max(1000, 'must be at most 1000'),
 });
+/**
+ * Opt-in early warning on a bounds rule: warn when the channel's fitted model gives at least
+ * `chance` of crossing a limit within `horizonMin` minutes. Null (the default) is off.
+ */
+export const earlyWarningSchema = z.object({
+  horizonMin: whole(5, 24 * 60).default(60),
+  chance: z.number({ error: 'must be a number' }).min(0.5, 'must be at least 0.5').max(0.99, 'must be at most 0.99').default(0.8),
+});
+export type EarlyWarningParams = z.infer<typeof earlyWarningSchema>;
+
 export const boundsParamsSchema = z
   .object({
     low: num().nullable().default(null),
     high: num().nullable().default(null),
     holdS: whole(0, 7 * 86_400, 'must not be negative (seconds)').default(0),
+    earlyWarning: earlyWarningSchema.nullable().default(null),
   })
   .refine((p) => p.low !== null || p.high !== null, { path: ['high'], message: ALERT_REASONS.oneLimitAtLeast })
   .refine((p) => p.low === null || p.high === null || p.low < p.high, { path: ['low'], message: ALERT_REASONS.lowBelowHigh });
@@ -133,6 +144,18 @@ export interface AlertRuleWatched {
   unit: string;
 }
 
+/** Why a rule is not watching its channel right now (the silence rule reports silence as its alert, not here). */
+export const RULE_BLIND_REASONS = ['no-readings', 'too-little-history', 'too-many-gaps', 'channel-retired', 'logger-silent'] as const;
+export type RuleBlindReason = (typeof RULE_BLIND_REASONS)[number];
+
+/** Whether a rule is watching: when it last judged a reading and, when it cannot, why and since when (epoch ms). */
+export interface RuleHealth {
+  /** Time of the last reading the rule judged; null before the first. */
+  lastJudgedAt: number | null;
+  /** Null while the rule watches. */
+  notWatching: { reason: RuleBlindReason; detail: string; since: number } | null;
+}
+
 /** An alert rule as listed: what it watches and whether the viewer is subscribed (its evaluation memory stays on the server). */
 export interface AlertRule {
   id: number;
@@ -148,6 +171,7 @@ export interface AlertRule {
   watched: AlertRuleWatched;
   subscribed: boolean;
   openAlertId: number | null;
+  health: RuleHealth;
 }
 
 /** `GET …/alert-rules`. */
@@ -167,12 +191,41 @@ export interface AlertAcknowledgement {
   note: string | null;
 }
 
+/**
+ * An alert's stage: 'crossed' — a limit or pattern was passed (every rule kind); 'expected' —
+ * a bounds rule's early warning: the projection gives a high chance of crossing soon. Both may
+ * be open at once for one rule; an expected-stage alert resolves itself when the projection
+ * falls back.
+ */
+export const ALERT_STAGES = ['crossed', 'expected'] as const;
+export type AlertStage = (typeof ALERT_STAGES)[number];
+
+/** What an early warning was based on: the model, the chance and the interval at the horizon. */
+export interface AlertProjection {
+  /** The model in words, e.g. "ARMA(1,1) on the remainder after the daily cycle". */
+  model: string;
+  limit: number;
+  side: 'high' | 'low';
+  horizonMin: number;
+  /** Chance of crossing the limit within the horizon (0–1). */
+  chance: number;
+  /** Median minutes to the first crossing among simulated paths that cross; null when none does. */
+  medianMinutesToCross: number | null;
+  /** The central interval of the projected value at the horizon. */
+  interval: { level: number; lower: number; upper: number };
+  /** Time of the last reading the projection starts from (epoch ms). */
+  from: number;
+}
+
 /** One alert: when and why it opened, whether and when it resolved, and its acknowledgement. Reading times are epoch ms like the series. */
 export interface Alert {
   id: number;
   ruleId: number;
   ruleName: string;
   kind: AlertRuleKind;
+  stage: AlertStage;
+  /** Set on an expected-stage alert. */
+  projection: AlertProjection | null;
   channelId: number | null;
   loggerId: number | null;
   open: boolean;

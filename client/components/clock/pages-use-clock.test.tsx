@@ -31,6 +31,8 @@ const alert: Alert = {
   ruleId: 2,
   ruleName: 'Bench too warm',
   kind: 'bounds',
+  stage: 'crossed',
+  projection: null,
   channelId: 5,
   loggerId: 4,
   open: true,

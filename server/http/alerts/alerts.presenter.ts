@@ -19,6 +19,8 @@ export function presentAlertRule(r: AlertRuleView): AlertRule {
     watched: r.watched,
     subscribed: r.subscribed,
     openAlertId: r.openAlertId,
+    // replaced by the rule-health work in progress (session 9): the rule's recorded health
+    health: { lastJudgedAt: null, notWatching: null },
   };
 }
 
@@ -29,6 +31,9 @@ export function presentAlert(a: AlertRecord): Alert {
     ruleId: a.ruleId,
     ruleName: a.ruleName,
     kind: a.kind,
+    // replaced by the early-warning work in progress (session 9): the alert's stored stage
+    stage: 'crossed',
+    projection: null,
     channelId: a.channelId,
     loggerId: a.loggerId,
     open: a.resolvedAt === null,

@@ -7,6 +7,8 @@ const alert = (over: Partial<Alert>): Alert => ({
   ruleId: 1,
   ruleName: 'Freezer warm',
   kind: 'bounds',
+  stage: 'crossed',
+  projection: null,
   channelId: 5,
   loggerId: null,
   open: false,

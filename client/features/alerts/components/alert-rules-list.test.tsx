@@ -21,6 +21,7 @@ const RULE: AlertRule = {
   watched: { channelId: 12, loggerId: 4, label: 'Room temperature', loggerName: 'Cold room', unit: '°C' },
   subscribed: true,
   openAlertId: null,
+  health: { lastJudgedAt: null, notWatching: null },
 };
 const PATH = '/api/v1/labs/marrowgate/alert-rules/31';
 
