@@ -48,12 +48,18 @@ start() {
   fi
   # nohup + setsid: the server outlives this script and ignores the terminal's Ctrl-C;
   # the caller stops it with `mariadb.sh stop`.
+  # Page compression (readings and rollups are PAGE_COMPRESSED=1): zlib is named explicitly
+  # because it is built into Debian's mariadbd; lz4, lzma, bzip2 and snappy come only as the
+  # separate mariadb-plugin-provider-* packages, and a table written with a provider that is later
+  # missing cannot be read. Level 6 is zlib's usual default. The storage benchmark measures lz4
+  # beside it for the record (README, storage section).
   setsid nohup mariadbd --no-defaults --user=root --datadir="$DATA" --socket="$SOCK" \
     --port="$DB_PORT" --bind-address=127.0.0.1 --pid-file="$PIDFILE" --log-error="$LOG" \
     --skip-name-resolve --local-infile=1 --character-set-server=utf8mb4 \
     --collation-server=utf8mb4_unicode_ci --skip-log-bin \
     --innodb-buffer-pool-size=512M --innodb-log-file-size=256M \
     --innodb-flush-log-at-trx-commit=1 --max-connections=300 --max-allowed-packet=64M \
+    --innodb-compression-algorithm=zlib --innodb-compression-level=6 \
     ${EXTRA_ARGS[@]+"${EXTRA_ARGS[@]}"} \
     >/dev/null 2>&1 < /dev/null &
   for _ in $(seq 1 150); do
