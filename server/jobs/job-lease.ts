@@ -1,0 +1,94 @@
+import { randomUUID } from 'node:crypto';
+import { hostname } from 'node:os';
+import type { Db } from '../db/create-db.ts';
+import { jobLeasesRepo } from '../db/job-leases.repo.ts';
+
+/** Lease names in use; each names one piece of cluster-wide work. */
+export const LEASE_NAMES = ['usage-reconciliation', 'storage-maintenance', 'retention'] as const;
+
+/** A lease this holder has taken, handed to the work it guards. */
+export interface HeldLease {
+  readonly name: string;
+  readonly fencing: number;
+  /** Extends the lease; throws LeaseLostError when another holder has taken it. */
+  renew(): Promise<void>;
+  /** Throws LeaseLostError unless this holder still holds the lease with this fencing number. */
+  assertHeld(): Promise<void>;
+}
+
+/** The lease has passed to another holder (or expired): the work must stop writing. */
+export class LeaseLostError extends Error {
+  constructor(
+    readonly leaseName: string,
+    readonly fencing: number,
+  ) {
+    super(`job lease ${leaseName} (fencing ${fencing}) is no longer held by this process`);
+    this.name = 'LeaseLostError';
+  }
+}
+
+/**
+ * A holder name unique to this process: host, process id and a random part, so two processes on
+ * one host (or a restarted process reusing a pid) never mistake each other's lease for their own.
+ */
+export function processHolderName(): string {
+  return `${hostname()}:${process.pid}:${randomUUID().slice(0, 8)}`.slice(0, 128);
+}
+
+/**
+ * Runs cluster-wide jobs under leases kept in `job_leases`, so each runs on one app server at a
+ * time however many are up. A lease is taken by an ordinary transaction (no `GET_LOCK`: named
+ * locks are local to one node of a Galera cluster) for `ttlMs`; when the holder stops renewing
+ * (it crashed, or hangs) another server takes it after expiry, with a higher fencing number, and
+ * the stale holder's `renew`/`assertHeld` then throw {@link LeaseLostError}.
+ *
+ * Time comes from the injected `now` everywhere (expiry written and compared), never from the
+ * database's clock: tests drive a simulated clock through it, and across servers the TTL is
+ * chosen far above the drift of NTP-synchronised clocks.
+ *
+ * `assertHeld` is strict: a lease past its expiry counts as lost even before anyone takes it
+ * (another server may take it at any moment), so work that can outlast its TTL calls `renew`
+ * first. `renew` succeeds as long as nobody has taken the lease since (holder and fencing
+ * unchanged), even just after expiry. Work longer than the TTL must renew on its way.
+ */
+export function createLeaseRunner(deps: { db: Db; holder: string; now?: () => Date }): {
+  /** Runs `work` only if this holder gets (or already holds) the lease `name` for `ttlMs`; releases it after. */
+  run<T>(name: string, ttlMs: number, work: (lease: HeldLease) => Promise<T>): Promise<{ ran: true; value: T } | { ran: false; heldBy: string }>;
+} {
+  const now = deps.now ?? (() => new Date());
+  const repo = jobLeasesRepo(deps.db);
+  const { holder } = deps;
+  if (holder.length === 0 || holder.length > 128) throw new Error('createLeaseRunner: holder must be 1 to 128 characters');
+
+  function heldLease(name: string, ttlMs: number, fencing: number): HeldLease {
+    return {
+      name,
+      fencing,
+      async renew() {
+        const extended = await repo.extend(name, holder, fencing, new Date(now().getTime() + ttlMs));
+        if (!extended) throw new LeaseLostError(name, fencing);
+      },
+      async assertHeld() {
+        const row = await repo.current(name);
+        if (!row || row.holder !== holder || row.fencing !== fencing || row.expiresAt.getTime() <= now().getTime()) {
+          throw new LeaseLostError(name, fencing);
+        }
+      },
+    };
+  }
+
+  return {
+    async run(name, ttlMs, work) {
+      if (!Number.isFinite(ttlMs) || ttlMs <= 0) throw new Error('createLeaseRunner.run: ttlMs must be a positive number of milliseconds');
+      const at = now();
+      const got = await repo.take(name, holder, at, new Date(at.getTime() + ttlMs));
+      if (!got.taken) return { ran: false, heldBy: got.heldBy };
+      try {
+        return { ran: true, value: await work(heldLease(name, ttlMs, got.fencing)) };
+      } finally {
+        // a lost lease is not ours to release; the conditional update then changes nothing
+        await repo.release(name, holder, got.fencing).catch(() => false);
+      }
+    },
+  };
+}
