@@ -1,4 +1,4 @@
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -61,6 +61,27 @@ describe('plan catalog', () => {
       /plans\.0\.limits\.quarantinedRows/,
     );
     expect(loadPlanCatalog('tenants/plans.json').free.limits.quarantinedRows).toBeGreaterThan(0);
+  });
+
+  it('ships every plan with an explicit removal policy that removes nothing', () => {
+    const shipped = JSON.parse(readFileSync('tenants/plans.json', 'utf8')) as { plans: Array<{ key: string; readingRemoval?: unknown }> };
+    for (const p of shipped.plans) expect(p.readingRemoval, p.key).toEqual({ enabled: false, exportDays: 30 });
+    for (const p of loadPlanCatalog('tenants/plans.json').plans) expect(p.readingRemoval.enabled).toBe(false);
+  });
+
+  it('reads a plan without a removal policy as keeping every reading, and refuses a malformed one', () => {
+    const catalog = parsePlanCatalog({ currency: 'eur', plans: [free, { ...paid, readingRemoval: { enabled: true, exportDays: 0 } }] });
+    expect(catalog.free.readingRemoval).toEqual({ enabled: false, exportDays: 30 });
+    expect(catalog.byKey('transect')?.readingRemoval).toEqual({ enabled: true, exportDays: 0 });
+    expect(() => parsePlanCatalog({ currency: 'eur', plans: [free, { ...paid, readingRemoval: { enabled: true, exportDays: -1 } }] })).toThrow(
+      /plans\.1\.readingRemoval\.exportDays/,
+    );
+    expect(() => parsePlanCatalog({ currency: 'eur', plans: [free, { ...paid, readingRemoval: { enabled: 'yes', exportDays: 5 } }] })).toThrow(
+      /plans\.1\.readingRemoval\.enabled/,
+    );
+    expect(() => parsePlanCatalog({ currency: 'eur', plans: [free, { ...paid, readingRemoval: { exportDays: 5 } }] })).toThrow(
+      /plans\.1\.readingRemoval\.enabled/,
+    );
   });
 
   it('turns a missing or malformed file into one ConfigError line', () => {

@@ -9,7 +9,7 @@ const limitsSchema = z.object({
   loggers: z.number().int().positive(),
   /** Members plus pending invitations. */
   members: z.number().int().positive(),
-  /** How many days back the lab may browse and analyse (older readings stay stored). */
+  /** How many days back the lab may browse and analyse (older readings stay stored unless `readingRemoval` is enabled). */
   historyDays: z.number().int().positive(),
   /**
    * Rows the lab may keep in quarantine (rows that could not be stored, kept for review); a
@@ -17,6 +17,28 @@ const limitsSchema = z.object({
    */
   quarantinedRows: z.number().int().positive(),
 });
+
+/**
+ * Whether the plan removes readings from storage once they are past its history, and when.
+ * Reads are limited to `limits.historyDays` whatever this says; this decides whether the older
+ * readings also leave the database (the retention job, server/services/retention/).
+ * Until a plan says otherwise nothing is removed.
+ */
+const readingRemovalSchema = z.object({
+  /**
+   * True: readings older than `historyDays + exportDays` before now are removed for good (whole
+   * UTC days, by the daily retention job). False: every reading stays stored, however old.
+   */
+  enabled: z.boolean(),
+  /**
+   * Days a reading stays stored after it has left the plan's history, so a lab (for example one
+   * that has just moved to a shorter plan) can still export it before it goes. 0 to 3,650.
+   */
+  exportDays: z.number().int().min(0).max(3650),
+});
+
+/** The policy of a plan that does not name one: nothing is removed. */
+export const KEEP_EVERY_READING = { enabled: false, exportDays: 30 } as const;
 
 const planSchema = z.object({
   key: z.string().regex(/^[a-z][a-z0-9-]{1,39}$/, 'lower-case letters, digits and -, 2 to 40 characters'),
@@ -30,6 +52,8 @@ const planSchema = z.object({
     .regex(/^[A-Za-z0-9_-]{3,200}$/)
     .nullable(),
   limits: limitsSchema,
+  /** Removal of readings past the history (see readingRemovalSchema); absent means keep everything. */
+  readingRemoval: readingRemovalSchema.default(() => ({ ...KEEP_EVERY_READING })),
 });
 
 export const planCatalogSchema = z
@@ -56,6 +80,7 @@ export const planCatalogSchema = z
 
 export type Plan = z.infer<typeof planSchema>;
 export type PlanLimits = Plan['limits'];
+export type ReadingRemoval = Plan['readingRemoval'];
 export type LimitName = 'readings' | 'loggers' | 'members' | 'quarantinedRows';
 
 /** The validated plan catalog with the look-ups billing needs. */
