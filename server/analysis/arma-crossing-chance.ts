@@ -3,8 +3,11 @@ import { type ArmaModel, armaFilteredState } from './arma-forecast.ts';
 import { seededNormalStream } from './seeded-normal-stream.ts';
 
 export interface CrossingChanceOptions {
-  /** The limit, in the series' units. */
-  limit: number;
+  /**
+   * The limit, in the series' units: one number for every step, or one per step (`steps` of
+   * them; step k's limit at index k − 1), e.g. a fixed limit minus a seasonal part continued.
+   */
+  limit: number | ArrayLike<number>;
   /** Which way counts as crossing: a value above the limit, or below it. */
   side: 'above' | 'below';
   /** Horizon in steps (1…10,000): the chance of crossing at any of the next `steps` steps. */
@@ -47,6 +50,21 @@ function semidefiniteCholesky(m: Float64Array, r: number): Float64Array {
   return l;
 }
 
+/** The limit of each of the `steps` steps, checked: a single number is repeated. */
+function limitPerStep(fn: string, limit: number | ArrayLike<number>, steps: number): Float64Array {
+  if (typeof limit === 'number') {
+    if (!Number.isFinite(limit)) throw new AnalysisInputError(`${fn}: limit must be a finite number (got ${limit})`);
+    return new Float64Array(steps).fill(limit);
+  }
+  if (limit == null || typeof limit.length !== 'number' || limit.length !== steps) {
+    throw new AnalysisInputError(`${fn}: a limit per step needs exactly ${steps} values (got ${limit == null ? 'none' : limit.length})`);
+  }
+  const out = Float64Array.from(limit);
+  const bad = out.findIndex((v) => !Number.isFinite(v));
+  if (bad >= 0) throw new AnalysisInputError(`${fn}: the limit of step ${bad + 1} must be a finite number (got ${out[bad]})`);
+  return out;
+}
+
 /**
  * The chance that a series following a fitted ARMA(p, q) model crosses a limit at some step of
  * the next `steps` steps, given everything observed so far. The future values are jointly normal
@@ -58,7 +76,8 @@ function semidefiniteCholesky(m: Float64Array, r: number): Float64Array {
  * from memory): the state one step ahead is drawn from N(T a, σ²(T P T′ + R R′)) of the filter
  * ({@link armaFilteredState}; P is kept in units of σ²), each later state as T s + R σ ε with
  * ε ~ N(0, 1), and a path's value is μ + (first state element). The parameters are taken as
- * known, as in the forecast intervals.
+ * known, as in the forecast intervals. The limit may differ by step (a seasonal part continued
+ * and taken off a fixed limit, so the chance is computed on the remainder).
  * The estimate's Monte Carlo standard error is returned with it; the default 4,000 paths give at
  * most ±0.008. Seeded, so repeatable.
  *
@@ -69,13 +88,13 @@ function semidefiniteCholesky(m: Float64Array, r: number): Float64Array {
  */
 export function armaCrossingChance(x: Series, model: ArmaModel, options: CrossingChanceOptions): CrossingChance {
   const fn = 'armaCrossingChance';
-  const { limit, side, steps, draws = 4000, seed = 1 } = options;
-  if (!Number.isFinite(limit)) throw new AnalysisInputError(`${fn}: limit must be a finite number (got ${limit})`);
+  const { side, steps, draws = 4000, seed = 1 } = options;
   if (side !== 'above' && side !== 'below') throw new AnalysisInputError(`${fn}: side must be 'above' or 'below' (got ${String(side)})`);
   if (!(Number.isInteger(steps) && steps >= 1 && steps <= 10_000))
     throw new AnalysisInputError(`${fn}: steps must be a whole number from 1 to 10000 (got ${steps})`);
   if (!(Number.isInteger(draws) && draws >= 500 && draws <= 200_000))
     throw new AnalysisInputError(`${fn}: draws must be a whole number from 500 to 200000 (got ${draws})`);
+  const limits = limitPerStep(fn, options.limit, steps);
   const state = armaFilteredState(x, model, fn);
   const { r, phi, loading } = state;
   state.advance();
@@ -101,7 +120,7 @@ export function armaCrossingChance(x: Series, model: ArmaModel, options: Crossin
         for (let i = 0; i < r; i++) s[i] = phi[i] * s0 + (i + 1 < r ? s[i + 1] : 0) + loading[i] * e;
       }
       const value = model.mean + s[0];
-      if (sign * (value - limit) > 0) {
+      if (sign * (value - limits[k - 1]) > 0) {
         firstSteps.push(k);
         break;
       }
