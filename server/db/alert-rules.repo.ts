@@ -1,7 +1,7 @@
 import type { ClockChoice } from '../contract/me.ts';
 import type { LabScope } from './tenant-scope.ts';
 import { newId } from './new-id.ts';
-import type { AlertRuleKind } from '../contract/alerts.ts';
+import type { AlertRuleKind, RuleBlindReason } from '../contract/alerts.ts';
 
 /** A rule's memory between evaluations (see migrations/20261202001600_create-alert-rules.ts). */
 export interface AlertRuleCursor {
@@ -9,6 +9,21 @@ export interface AlertRuleCursor {
   cursorTs: number | null;
   pendingSince: number | null;
   previous: { ts: number; value: number } | null;
+}
+
+/**
+ * Whether a rule is watching, as the evaluator last recorded it (see
+ * migrations/20261204120000_add-alert-rule-health.ts).
+ */
+export interface AlertRuleHealthRecord {
+  /** Time of the newest reading the rule judged; null before the first. */
+  lastJudgedAt: number | null;
+  /** Why and since when the rule cannot watch; null while it watches. */
+  notWatching: { reason: RuleBlindReason; detail: string; since: number } | null;
+  /** How many times the rule has stopped watching (the sequence of its health mails). */
+  episode: number;
+  /** When the not-watching mail of the current episode was queued; null before (or while watching). */
+  mailedAt: number | null;
 }
 
 export interface AlertRule {
@@ -26,6 +41,7 @@ export interface AlertRule {
   /** Epoch ms the rule started watching (silence counts from here when nothing ever reported). */
   watchingSince: number;
   cursor: AlertRuleCursor;
+  health: AlertRuleHealthRecord;
 }
 
 export type AlertRuleInsert = Pick<AlertRule, 'name' | 'kind' | 'channelId' | 'loggerId' | 'params' | 'reminderAfterMin' | 'enabled' | 'watchingSince'> & {
@@ -51,6 +67,12 @@ const COLUMNS = [
   'alert_rules.pending_since_ts as pendingSince',
   'alert_rules.previous_ts as previousTs',
   'alert_rules.previous_value as previousValue',
+  'alert_rules.last_judged_ts as lastJudgedTs',
+  'alert_rules.blind_reason as blindReason',
+  'alert_rules.blind_detail as blindDetail',
+  'alert_rules.blind_since as blindSince',
+  'alert_rules.blind_episode as blindEpisode',
+  'alert_rules.blind_mailed_at as blindMailedAt',
 ];
 const opt = (v: unknown) => (v === null || v === undefined ? null : Number(v));
 const toRule = (r: Record<string, unknown>): AlertRule => ({
@@ -70,6 +92,15 @@ const toRule = (r: Record<string, unknown>): AlertRule => ({
     cursorTs: opt(r.cursorTs),
     pendingSince: opt(r.pendingSince),
     previous: r.previousTs === null || r.previousTs === undefined ? null : { ts: Number(r.previousTs), value: Number(r.previousValue) },
+  },
+  health: {
+    lastJudgedAt: opt(r.lastJudgedTs),
+    notWatching:
+      r.blindReason === null || r.blindReason === undefined
+        ? null
+        : { reason: r.blindReason as RuleBlindReason, detail: (r.blindDetail as string | null) ?? '', since: Number(r.blindSince) },
+    episode: Number(r.blindEpisode ?? 0),
+    mailedAt: opt(r.blindMailedAt),
   },
 });
 
@@ -133,6 +164,39 @@ export function alertRulesRepo(scope: LabScope) {
           previous_ts: cursor.previous?.ts ?? null,
           previous_value: cursor.previous?.value ?? null,
         });
+    },
+    /** Stores whether a rule is watching (in the same transaction as its evaluation and any health mail). */
+    async saveHealth(id: number, health: AlertRuleHealthRecord): Promise<void> {
+      await scope
+        .table('alert_rules')
+        .where('alert_rules.id', id)
+        .update({
+          last_judged_ts: health.lastJudgedAt,
+          blind_reason: health.notWatching?.reason ?? null,
+          blind_detail: health.notWatching?.detail.slice(0, 500) ?? null,
+          blind_since: health.notWatching?.since ?? null,
+          blind_episode: health.episode,
+          blind_mailed_at: health.mailedAt,
+        });
+    },
+    /**
+     * Whether the watched channel, or its logger, is retired, and since when (epoch ms; the
+     * earlier of the two); null while both are in service. A rule on a retired channel cannot watch it.
+     */
+    async retirement(channelId: number): Promise<{ what: 'channel' | 'logger'; at: number } | null> {
+      const r = await scope
+        .table('channels')
+        .join('loggers', function joinLogger() {
+          this.on('loggers.tenant_id', 'channels.tenant_id').andOn('loggers.id', 'channels.logger_id');
+        })
+        .where('channels.id', channelId)
+        .first('channels.retired_at as channelRetiredAt', 'loggers.retired_at as loggerRetiredAt');
+      const at = (d: unknown) => (d instanceof Date ? d.getTime() : d === null || d === undefined ? null : new Date(d as string).getTime());
+      const channel = at(r?.channelRetiredAt);
+      const logger = at(r?.loggerRetiredAt);
+      if (channel === null && logger === null) return null;
+      if (logger !== null && (channel === null || logger < channel)) return { what: 'logger', at: logger };
+      return { what: 'channel', at: channel! };
     },
     /** Forgets a pending hold and the reference reading (after the limits change or the rule is re-enabled). */
     async resetMemory(id: number): Promise<void> {

@@ -1,10 +1,19 @@
 import type { LabScope } from './tenant-scope.ts';
 import { newId } from './new-id.ts';
 
-export type NotificationKind = 'opened' | 'reminder' | 'resolved';
+/** Mail about an alert: it opened, is still open (reminder n), resolved. */
+export type AlertNotificationKind = 'opened' | 'reminder' | 'resolved';
+/** Mail about a rule's health: it stopped watching (after its delay), it watches again. */
+export type RuleHealthNotificationKind = 'not-watching' | 'watching-again';
+export type NotificationKind = AlertNotificationKind | RuleHealthNotificationKind;
 
 export interface OutboxMessage {
   id: number;
+  /**
+   * What the mail is about, the first part of its once-only key: the alert for alert mail, the
+   * rule for a rule-health mail (ids of lab rows are random 48-bit numbers, so the two never meet;
+   * their kinds differ besides). The column keeps its first name, `alert_id`.
+   */
   alertId: number;
   userId: number;
   kind: NotificationKind;

@@ -46,3 +46,15 @@ export const ALERT_REASONS = {
   factorMin: 'must be at least 1 (one expected interval)',
   paramsNotForKind: 'are not settings of this kind of rule',
 } as const;
+
+/**
+ * Why a rule is not watching, in plain words (the rule list, the channel page and the
+ * not-watching mail): completes "Not watching since … — …".
+ */
+export const RULE_BLIND_WORDS = {
+  'no-readings': 'no reading has arrived yet',
+  'too-little-history': 'too little history to learn the usual pattern',
+  'too-many-gaps': 'too much of the history is missing',
+  'channel-retired': 'the channel is retired',
+  'logger-silent': 'the logger has gone quiet',
+} as const;

@@ -19,8 +19,8 @@ export function presentAlertRule(r: AlertRuleView): AlertRule {
     watched: r.watched,
     subscribed: r.subscribed,
     openAlertId: r.openAlertId,
-    // replaced by the rule-health work in progress (session 9): the rule's recorded health
-    health: { lastJudgedAt: null, notWatching: null },
+    // silence rules have no health of their own: a silent target is their alert
+    health: r.kind === 'silence' ? { lastJudgedAt: null, notWatching: null } : { lastJudgedAt: r.health.lastJudgedAt, notWatching: r.health.notWatching },
   };
 }
 

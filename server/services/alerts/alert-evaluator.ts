@@ -51,7 +51,9 @@ export function createAlertEvaluator(deps: AlertEvaluatorDeps) {
 
   async function context(tenantId: number, now: number): Promise<EvaluationContext | null> {
     const lab = await labsRepo(deps.db).findById(tenantId);
-    return lab ? { db: deps.db, tenantId, lab, publicUrl: deps.publicUrl, now, beforeCommit: deps.beforeRuleCommit } : null;
+    return lab
+      ? { db: deps.db, tenantId, lab, publicUrl: deps.publicUrl, now, reminderAfterMin: deps.reminderAfterMin, beforeCommit: deps.beforeRuleCommit }
+      : null;
   }
 
   /** Queues reminders for a lab's open, unacknowledged alerts whose delay has passed since their last mail. */

@@ -1,10 +1,10 @@
 import type { ClockChoice } from '../../contract/me.ts';
 import type { LabScope } from '../../db/tenant-scope.ts';
 import { alertRulesRepo } from '../../db/alert-rules.repo.ts';
-import { outboxRepo, type NotificationKind } from '../../db/notification-outbox.repo.ts';
+import { outboxRepo, type AlertNotificationKind } from '../../db/notification-outbox.repo.ts';
 import type { WatchedTarget } from '../../db/alert-readings.repo.ts';
 import { alertMail, channelLinkAt } from '../mail/alert-mail.ts';
-import { formatValue } from './rules/rule-step.ts';
+import { withUnit } from './rules/rule-step.ts';
 
 /** What a notification is about. */
 export interface NotificationSubject {
@@ -13,7 +13,7 @@ export interface NotificationSubject {
   rule: { id: number; name: string };
   target: WatchedTarget;
   alert: { id: number; openedAt: number };
-  kind: NotificationKind;
+  kind: AlertNotificationKind;
   sequence: number;
   at: number;
   /** The evaluation's clock (the mail is due from then). */
@@ -45,7 +45,8 @@ export async function queueAlertMail(scope: LabScope, n: NotificationSubject): P
     n.target.channelId === null
       ? `${n.publicUrl}/labs/${encodeURIComponent(n.lab.slug)}/alerts`
       : channelLinkAt(n.publicUrl, n.lab.slug, n.target.channelId, n.alert.openedAt, n.kind === 'resolved' ? n.at : undefined);
-  const reading = n.value === null ? null : `${formatValue(n.value)}${n.target.unit ? ` ${n.target.unit}` : ''}`;
+  // the stored reading at its own resolution (the decimals it came with), with the unit
+  const reading = n.value === null ? null : withUnit(n.value, n.target.unit);
   await outboxRepo(scope).enqueue(
     recipients.map((r) => {
       const mail = alertMail({

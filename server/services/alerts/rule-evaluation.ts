@@ -11,8 +11,10 @@ import { queueAlertMail } from './alert-notifications.ts';
 import { evaluateBounds } from './rules/bounds-rule.ts';
 import { evaluateRate } from './rules/rate-rule.ts';
 import { evaluateSilence } from './rules/silence-rule.ts';
-import { evaluateUnusualReading, unusualScores } from './rules/unusual-reading-rule.ts';
+import { evaluateUnusualReading, unusualScores, type NotJudged } from './rules/unusual-reading-rule.ts';
 import type { RuleMemory, RuleReading, RuleStep, RuleTransition } from './rules/rule-step.ts';
+import { blindMailDelayMs, decideRuleHealth, healthChange, sameHealth, type HealthObservation } from './rule-health.ts';
+import { queueRuleHealthMail } from './rule-health-notifications.ts';
 
 /** Readings judged per rule and transaction; a longer backlog is worked off in further chunks. */
 export const READINGS_PER_CHUNK = 5000;
@@ -26,6 +28,8 @@ export interface EvaluationContext {
   lab: { name: string; slug: string };
   publicUrl: string;
   now: number;
+  /** The lab's reminder delay in minutes (a rule's own wins; 0 or none: the not-watching mail waits an hour). */
+  reminderAfterMin?: number;
   /** Test seam: runs inside the rule's transaction just before it commits (throwing rolls it back). */
   beforeCommit?: (ruleId: number) => void;
 }
@@ -82,17 +86,44 @@ function toReadings(cols: { ts: Float64Array; values: Float64Array }): RuleReadi
   return Array.from(cols.ts, (ts, i) => ({ ts, value: cols.values[i] }));
 }
 
+/** A value rule's step over new readings, and whether it could judge them (and if not, why). */
+interface ValueRuleStep {
+  step: RuleStep;
+  notJudged: HealthObservation['notJudged'];
+}
+
+/** An unusual-reading rule's reason for not judging, in the rule-health reasons (no history at all is too little). */
+function blindFrom(n: NotJudged, from: number): NonNullable<HealthObservation['notJudged']> {
+  return { reason: n.reason === 'too-many-gaps' ? 'too-many-gaps' : 'too-little-history', detail: n.detail, from };
+}
+
 /** One step of a value rule over new readings (the unusual-reading rule reads its history first). */
-async function stepValueRule(ctx: EvaluationContext, rule: AlertRule, target: WatchedTarget, memory: RuleMemory, readings: RuleReading[]): Promise<RuleStep> {
-  if (rule.kind === 'bounds') return evaluateBounds(rule.params as AlertRuleParams['bounds'], memory, readings, target.unit);
-  if (rule.kind === 'rate') return evaluateRate(rule.params as AlertRuleParams['rate'], memory, readings, target.unit);
+async function stepValueRule(
+  ctx: EvaluationContext,
+  rule: AlertRule,
+  target: WatchedTarget,
+  memory: RuleMemory,
+  readings: RuleReading[],
+): Promise<ValueRuleStep> {
+  if (rule.kind === 'bounds') return { step: evaluateBounds(rule.params as AlertRuleParams['bounds'], memory, readings, target.unit), notJudged: null };
+  if (rule.kind === 'rate') return { step: evaluateRate(rule.params as AlertRuleParams['rate'], memory, readings, target.unit), notJudged: null };
   const params = rule.params as AlertRuleParams['unusual'];
   const stepMs = target.expectedIntervalS * 1000;
   const periodSteps = Math.round((params.periodH * 3_600_000) / stepMs);
   const span = periodSteps * params.historyCycles;
-  let scores: Float64Array | null = null;
-  if (periodSteps >= 2 && span <= MAX_BASELINE_CELLS) {
-    const first = readings[0].ts;
+  const first = readings[0].ts;
+  let notJudged: NotJudged;
+  if (periodSteps < 2) {
+    notJudged = {
+      reason: 'too-little-history',
+      detail: `One cycle spans fewer than two of the channel's expected intervals (${target.expectedIntervalS} seconds each): no pattern to learn.`,
+    };
+  } else if (span > MAX_BASELINE_CELLS) {
+    notJudged = {
+      reason: 'too-little-history',
+      detail: `The history would hold ${span.toLocaleString('en-GB')} readings at the channel's interval; at most ${MAX_BASELINE_CELLS.toLocaleString('en-GB')} can be compared (use fewer cycles).`,
+    };
+  } else {
     const scope = inLab(ctx.db, ctx.tenantId);
     const from = first - span * stepMs;
     const read = await channelReadingsRepo(scope).range(target.channelId!, from, first);
@@ -100,17 +131,59 @@ async function stepValueRule(ctx: EvaluationContext, rule: AlertRule, target: Wa
     const noted = await excludedNotes(scope, { id: target.channelId!, loggerId: target.loggerId }, from, first);
     const history = leaveOutNotedCells(read, noted, 1).data;
     // the grid spans the whole window read, so a logger silent at either end of it leaves empty cells there (filled for the fit), not a shorter history
-    scores = unusualScores({ ts: history.ts, values: history.values }, readings, stepMs, periodSteps, { from, to: first }).scores;
+    const scoring = unusualScores({ ts: history.ts, values: history.values }, readings, stepMs, periodSteps, { from, to: first });
+    if (scoring.scores) return { step: evaluateUnusualReading(params, scoring, memory, readings, target.unit), notJudged: null };
+    notJudged = scoring.notJudged;
   }
-  return evaluateUnusualReading(params, scores, memory, readings, target.unit);
+  return { step: evaluateUnusualReading(params, null, memory, readings, target.unit), notJudged: blindFrom(notJudged, first) };
+}
+
+/**
+ * Records whether a value rule is watching after a step ({@link decideRuleHealth}) and queues
+ * the not-watching or watching-again mail it owes ({@link healthChange}), in the caller's
+ * transaction. Writes nothing when nothing changed.
+ */
+async function recordHealth(
+  ctx: EvaluationContext,
+  scope: LabScope,
+  rule: AlertRule,
+  target: WatchedTarget,
+  seen: Pick<HealthObservation, 'judgedUpTo' | 'notJudged'>,
+): Promise<void> {
+  const prev = rule.health;
+  const next = decideRuleHealth(prev, {
+    now: ctx.now,
+    watchingSince: rule.watchingSince,
+    retirement: await alertRulesRepo(scope).retirement(rule.channelId!),
+    lastReadingTs: target.lastReadingTs,
+    expectedIntervalS: target.expectedIntervalS,
+    ...seen,
+  });
+  const change = healthChange(prev, next, ctx.now, blindMailDelayMs(rule.reminderAfterMin, ctx.reminderAfterMin));
+  if (sameHealth(prev, change.record)) return;
+  await alertRulesRepo(scope).saveHealth(rule.id, change.record);
+  const blind = change.record.notWatching ?? prev.notWatching;
+  if (change.mail && blind) {
+    await queueRuleHealthMail(scope, {
+      lab: ctx.lab,
+      publicUrl: ctx.publicUrl,
+      rule,
+      target,
+      kind: change.mail,
+      episode: change.record.episode,
+      blind,
+      now: ctx.now,
+    });
+  }
 }
 
 /**
  * Judges the readings a value rule (bounds, rate, unusual) has not seen yet, oldest first, in
- * chunks of {@link READINGS_PER_CHUNK}. Each chunk is one transaction that locks the rule's
- * row, writes the alert transitions with their queued mail and the rule's new memory together,
- * so a crash at any point loses nothing and doubles nothing: the next run starts from the last
- * committed cursor.
+ * chunks of {@link READINGS_PER_CHUNK}, and records whether the rule is watching. Each chunk is
+ * one transaction that locks the rule's row, writes the alert transitions with their queued
+ * mail, the rule's new memory and its health (with any not-watching or watching-again mail)
+ * together, so a crash at any point loses nothing and doubles nothing: the next run starts from
+ * the last committed cursor. A run with no new readings still records the health.
  */
 export async function evaluateValueRule(ctx: EvaluationContext, ruleId: number): Promise<EvaluationCounts> {
   const total = { opened: 0, resolved: 0 };
@@ -125,15 +198,28 @@ export async function evaluateValueRule(ctx: EvaluationContext, ruleId: number):
       const readings = toReadings(
         await channelReadingsRepo(inLab(ctx.db, ctx.tenantId)).range(rule.channelId, from, Number.MAX_SAFE_INTEGER, READINGS_PER_CHUNK),
       );
-      if (readings.length === 0) return false;
-      const open = (await alertsRepo(scope).openForRule(rule.id)) !== null;
-      const step = await stepValueRule(ctx, rule, target, { pendingSince: rule.cursor.pendingSince, previous: rule.cursor.previous, open }, readings);
-      const counts = await applyTransitions(ctx, scope, rule, target, step.transitions);
-      await alertRulesRepo(scope).saveCursor(rule.id, {
-        cursorTs: readings[readings.length - 1].ts,
-        pendingSince: step.memory.pendingSince,
-        previous: step.memory.previous,
-      });
+      const seen: Pick<HealthObservation, 'judgedUpTo' | 'notJudged'> = { judgedUpTo: null, notJudged: null };
+      let counts: EvaluationCounts = { opened: 0, resolved: 0 };
+      if (readings.length > 0) {
+        const open = (await alertsRepo(scope).openForRule(rule.id)) !== null;
+        const { step, notJudged } = await stepValueRule(
+          ctx,
+          rule,
+          target,
+          { pendingSince: rule.cursor.pendingSince, previous: rule.cursor.previous, open },
+          readings,
+        );
+        counts = await applyTransitions(ctx, scope, rule, target, step.transitions);
+        await alertRulesRepo(scope).saveCursor(rule.id, {
+          cursorTs: readings[readings.length - 1].ts,
+          pendingSince: step.memory.pendingSince,
+          previous: step.memory.previous,
+        });
+        if (notJudged) seen.notJudged = notJudged;
+        else seen.judgedUpTo = readings[readings.length - 1].ts;
+      }
+      // every step, with or without new readings: a rule can go blind while nothing arrives
+      await recordHealth(ctx, scope, rule, target, seen);
       ctx.beforeCommit?.(rule.id);
       total.opened += counts.opened;
       total.resolved += counts.resolved;

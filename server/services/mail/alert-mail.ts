@@ -1,9 +1,9 @@
 import type { OutgoingMail } from '../../integrations/mail/create-mailer.ts';
-import type { NotificationKind } from '../../db/notification-outbox.repo.ts';
+import type { AlertNotificationKind } from '../../db/notification-outbox.repo.ts';
 import { wallClockText } from '../../policies/time-zones.ts';
 
 /** Escapes text for HTML mail bodies. */
-function esc(s: string): string {
+export function esc(s: string): string {
   return s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 }
 
@@ -11,7 +11,7 @@ function esc(s: string): string {
 export interface AlertMailInput {
   to: string;
   labName: string;
-  kind: NotificationKind;
+  kind: AlertNotificationKind;
   /** Reminder number (1 for the first reminder); ignored for other kinds. */
   sequence: number;
   ruleName: string;
@@ -39,7 +39,7 @@ const isUtc = (zone: string) => zone === 'UTC' || zone === 'Etc/UTC';
  * a reader's zone of their own that differs, their clock first in the brackets:
  * "2026-03-04 15:30:00 Europe/Berlin (your time 2026-03-04 09:30 America/New_York; 14:30 UTC)".
  */
-function timeText(ms: number, timeZone: string, readerTimeZone?: string | null): string {
+export function timeText(ms: number, timeZone: string, readerTimeZone?: string | null): string {
   const utc = `${new Date(ms).toISOString().slice(0, 19).replace('T', ' ')} UTC`;
   const reader =
     readerTimeZone && readerTimeZone !== timeZone && !(isUtc(readerTimeZone) && isUtc(timeZone))
@@ -50,7 +50,7 @@ function timeText(ms: number, timeZone: string, readerTimeZone?: string | null):
   return `${wallClockText(timeZone, ms)} ${timeZone} (${beside})`;
 }
 
-const HEADLINE: Record<NotificationKind, string> = { opened: 'Alert', reminder: 'Still open', resolved: 'Resolved' };
+const HEADLINE: Record<AlertNotificationKind, string> = { opened: 'Alert', reminder: 'Still open', resolved: 'Resolved' };
 
 /**
  * An alert e-mail (opened, reminder, resolved): the rule, what it watches, the reading and its

@@ -13,7 +13,8 @@ export interface RateParams {
  * between them; opens at the reading whose rate exceeds `maxPerMinute` in the watched
  * direction, resolves at the first later reading whose rate is within it. The first reading a
  * rule ever sees only becomes the reference for the next. Readings must be in time order
- * (two readings with the same time are never compared). Pure.
+ * (two readings with the same time are never compared). Texts give the rate to three
+ * significant digits and the limit as it was set, with the unit. Pure.
  *
  * Cost: O(n) in the number of readings.
  */
@@ -24,7 +25,7 @@ export function evaluateRate(params: RateParams, memory: RuleMemory, readings: r
     if (previous && r.ts > previous.ts) {
       const perMinute = (r.value - previous.value) / ((r.ts - previous.ts) / 60_000);
       const watched = params.direction === 'rise' ? perMinute : params.direction === 'fall' ? -perMinute : Math.abs(perMinute);
-      const rate = `${perMinute >= 0 ? '+' : ''}${withUnit(perMinute, unit)} per minute`;
+      const rate = `${perMinute >= 0 ? '+' : ''}${withUnit(perMinute, unit, null)} per minute`;
       if (watched > params.maxPerMinute && !open) {
         open = true;
         transitions.push({ kind: 'open', ts: r.ts, value: r.value, detail: `changed at ${rate} (limit ${withUnit(params.maxPerMinute, unit)} per minute)` });

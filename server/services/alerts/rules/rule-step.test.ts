@@ -7,7 +7,10 @@ import { FRESH_MEMORY } from './rule-step.ts';
 describe('alert texts', () => {
   it('writes a value with the channel unit, or alone when the channel has none', () => {
     expect(withUnit(12.4, '°C')).toBe('12.4 °C');
-    expect(withUnit(-0.000012345678, ' %RH ')).toBe('-0.0000123457 %RH');
+    // a value's own resolution, at most six decimals
+    expect(withUnit(-0.000012345678, ' %RH ')).toBe('-0.000012 %RH');
+    // or the channel's resolution when the caller knows it
+    expect(withUnit(16.94, '°C', 1)).toBe('16.9 °C');
     expect(withUnit(3, '')).toBe('3');
   });
 

@@ -1,3 +1,5 @@
+import { formatNumber, formatReading, readingDecimals } from './alert-numbers.ts';
+
 /** One stored reading as the rules see it (epoch ms, value). */
 export interface RuleReading {
   ts: number;
@@ -37,14 +39,20 @@ export interface RuleStep {
 /** The memory of a rule that has never seen a reading. */
 export const FRESH_MEMORY: RuleMemory = Object.freeze({ pendingSince: null, previous: null, open: false });
 
-/** Formats a number for alert texts: at most 4 significant decimals, no trailing zeros. */
+/**
+ * A number as its own resolution for alert texts: as many decimals as it carries, at most six
+ * ("6", "7.5", "-0.000012"). For limits and settings a person typed.
+ */
 export function formatValue(v: number): string {
-  return String(Number(v.toPrecision(6)));
+  return formatNumber(v, readingDecimals([v]));
 }
 
-/** A value with the channel's unit for alert texts ("12.4 °C"; the number alone when the channel has no unit). */
-export function withUnit(v: number, unit = ''): string {
-  return unit.trim() ? `${formatValue(v)} ${unit.trim()}` : formatValue(v);
+/**
+ * A value with the channel's unit for alert texts ("12.4 °C"; the number alone when the channel
+ * has no unit), at `decimals` (the channel's resolution), else at the value's own.
+ */
+export function withUnit(v: number, unit = '', decimals: number | null = readingDecimals([v])): string {
+  return formatReading(v, unit, decimals);
 }
 
 /**

@@ -47,8 +47,8 @@ function feed(s: ReturnType<typeof scenario>, readings: RuleReading[]) {
   const transitions = [];
   for (const r of readings) {
     const from = r.ts - 3 * PER_DAY * STEP;
-    const scores = unusualScores(within(history, from, r.ts), [r], STEP, PER_DAY, { from, to: r.ts }).scores;
-    const step = evaluateUnusualReading(params, scores, memory, [r]);
+    const scoring = unusualScores(within(history, from, r.ts), [r], STEP, PER_DAY, { from, to: r.ts });
+    const step = evaluateUnusualReading(params, scoring.scores ? scoring : null, memory, [r]);
     memory = step.memory;
     transitions.push(...step.transitions);
     history.ts.push(r.ts);
@@ -78,7 +78,11 @@ describe('evaluateUnusualReading', () => {
       ['open', spikeAt],
       ['resolve', spikeAt + 1],
     ]);
-    expect(transitions[0].detail).toMatch(/^24 lies \d+(\.\d+)? robust SD above the usual pattern \(limit 5 robust SD\)$/);
+    // the reading at its own resolution, the usual value at the same, the distance as a rough multiple
+    expect(transitions[0].detail).toMatch(
+      /^24, about \d+(\.\d)? times the usual spread above the usual 1\d for this time of day \(limit 5 times the spread\)$/,
+    );
+    expect(transitions[1].detail).toMatch(/^\d+(\.\d+)? fits the usual pattern again \(the usual \d+(\.\d+)? for this time of day\)$/);
   });
 
   it('an abnormally high afternoon peak (27 °C at 15:00) is unusual', () => {
@@ -128,7 +132,7 @@ describe('evaluateUnusualReading', () => {
       const scoring = unusualScores(within(history, from, spike.ts), [spike], STEP, PER_DAY, { from, to: spike.ts });
       expect(scoring.notJudged).toBeNull();
       expect(scoring.scores![0]).toBeGreaterThan(params.k);
-      const step = evaluateUnusualReading(params, scoring.scores, FRESH_MEMORY, [spike]);
+      const step = evaluateUnusualReading(params, scoring.scores ? scoring : null, FRESH_MEMORY, [spike]);
       expect(step.transitions.map((t) => t.kind)).toEqual(['open']);
     });
   }

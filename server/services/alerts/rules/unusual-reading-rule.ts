@@ -1,4 +1,5 @@
 import { regularize, stl } from '../../../analysis/index.ts';
+import { readingDecimals, roughRatio } from './alert-numbers.ts';
 import { formatValue, withUnit, type RuleMemory, type RuleReading, type RuleStep, type RuleTransition } from './rule-step.ts';
 import { robustScale } from './robust-scale.ts';
 
@@ -70,8 +71,16 @@ export interface NotJudged {
   detail: string;
 }
 
+/** How unusual each new reading is: its score in robust SDs and the usual value it was compared with. */
+export interface ScoredReadings {
+  /** (value − usual) / robust SD per reading; ±Infinity when the spread is zero and the reading differs. */
+  scores: Float64Array;
+  /** The usual value at each reading's place in the cycle (seasonal + level + the centre of the remainders). */
+  usual: Float64Array;
+}
+
 /** The scores of the new readings, or why there are none. */
-export type UnusualScoring = { scores: Float64Array; notJudged: null } | { scores: null; notJudged: NotJudged };
+export type UnusualScoring = (ScoredReadings & { notJudged: null }) | { scores: null; usual: null; notJudged: NotJudged };
 
 /** Fewest cells of the last history cycle that must hold readings for the spread to be measured. */
 const MIN_SPREAD_CELLS = 8;
@@ -101,7 +110,7 @@ export function unusualScores(
   periodSteps: number,
   window?: { from: number; to: number },
 ): UnusualScoring {
-  const none = (reason: NotJudged['reason'], detail: string): UnusualScoring => ({ scores: null, notJudged: { reason, detail } });
+  const none = (reason: NotJudged['reason'], detail: string): UnusualScoring => ({ scores: null, usual: null, notJudged: { reason, detail } });
   if (history.ts.length === 0) return none('no-history', 'No readings before these to learn the usual pattern from.');
   const grid = regularize(history.ts, history.values, { step: stepMs, agg: 'mean' });
   const start = window ? Math.floor(window.from / stepMs) * stepMs : grid.start;
@@ -127,26 +136,37 @@ export function unusualScores(
     );
   }
   const { center, scale } = robustScale(errors);
-  const usual = usualAfter(values, n, periodSteps);
-  const scores = Float64Array.from(readings, (r) => {
-    const deviation = r.value - usual(Math.floor((r.ts - start) / stepMs)) - center;
+  const usualOf = usualAfter(values, n, periodSteps);
+  const usual = Float64Array.from(readings, (r) => usualOf(Math.floor((r.ts - start) / stepMs)) + center);
+  const scores = Float64Array.from(readings, (r, i) => {
+    const deviation = r.value - usual[i];
     if (scale === 0) return deviation === 0 ? 0 : Math.sign(deviation) * Infinity;
     return deviation / scale;
   });
-  return { scores, notJudged: null };
+  return { scores, usual, notJudged: null };
+}
+
+/** Where in its cycle a reading lies, in words: "for this time of day" (24 h), "of the week" (168 h), else "at this point of its 12-hour cycle". */
+export function cyclePlaceWords(periodH: number): string {
+  if (periodH === 24) return 'for this time of day';
+  if (periodH === 168) return 'for this time of the week';
+  return `at this point of its ${formatValue(periodH)}-hour cycle`;
 }
 
 /**
  * Unusual-reading rule: opens at the first reading whose score ({@link unusualScores}) lies
  * beyond `k` robust standard deviations (so the usual afternoon peak, which the seasonal
  * component carries, does not count, and an abnormal one does); resolves at the first later
- * reading within `k`. Without scores (too little history) nothing is judged. Pure.
+ * reading within `k`. Without scores (too little history) nothing is judged (the evaluator
+ * records why on the rule). Texts give the reading and the usual value at the resolution the
+ * readings carry, with the unit, and the distance as a rough multiple of the usual spread:
+ * "40.1 °C, about 49 times the usual spread above the usual 16.9 °C for this time of day". Pure.
  *
  * Cost: O(n) in the number of readings once they are scored.
  */
 export function evaluateUnusualReading(
   params: UnusualParams,
-  scores: ArrayLike<number> | null,
+  scored: ScoredReadings | null,
   memory: RuleMemory,
   readings: readonly RuleReading[],
   unit = '',
@@ -154,23 +174,25 @@ export function evaluateUnusualReading(
   let { open } = memory;
   const transitions: RuleTransition[] = [];
   const previous = readings.at(-1) ?? memory.previous;
-  if (!scores) return { memory: { ...memory, previous }, transitions };
+  if (!scored) return { memory: { ...memory, previous }, transitions };
+  const decimals = readingDecimals(readings.map((r) => r.value));
+  const place = cyclePlaceWords(params.periodH);
   for (let i = 0; i < readings.length; i++) {
     const r = readings[i];
-    const score = scores[i];
+    const score = scored.scores[i];
     const unusual = Math.abs(score) > params.k;
-    const sd = Number.isFinite(score) ? `${formatValue(Math.abs(score))} robust SD` : 'infinitely many robust SD';
+    const value = withUnit(r.value, unit, decimals);
+    const usual = `the usual ${withUnit(scored.usual[i], unit, decimals)} ${place}`;
     if (unusual && !open) {
       open = true;
-      transitions.push({
-        kind: 'open',
-        ts: r.ts,
-        value: r.value,
-        detail: `${withUnit(r.value, unit)} lies ${sd} ${score > 0 ? 'above' : 'below'} the usual pattern (limit ${formatValue(params.k)} robust SD)`,
-      });
+      const side = score > 0 ? 'above' : 'below';
+      const far = Number.isFinite(score)
+        ? `about ${roughRatio(Math.abs(score))} times the usual spread ${side} ${usual}`
+        : `${side} ${usual}, where the readings used not to vary at all`;
+      transitions.push({ kind: 'open', ts: r.ts, value: r.value, detail: `${value}, ${far} (limit ${formatValue(params.k)} times the spread)` });
     } else if (!unusual && open) {
       open = false;
-      transitions.push({ kind: 'resolve', ts: r.ts, value: r.value, detail: `${withUnit(r.value, unit)} fits the usual pattern again` });
+      transitions.push({ kind: 'resolve', ts: r.ts, value: r.value, detail: `${value} fits the usual pattern again (${usual})` });
     }
   }
   return { memory: { pendingSince: null, previous, open }, transitions };
