@@ -176,3 +176,6 @@ export async function rowsPerChannel(db: Db, table: 'readings', name: string): P
   )) as [Array<{ tenantId: number | string; channelId: number | string; n: number | string }>];
   return rows.map((r) => ({ tenantId: Number(r.tenantId), channelId: Number(r.channelId), rows: Number(r.n) }));
 }
+
+/** A month counts as closed (its rebuild may start) once its end is this far in the past: late uploads settle first. */
+export const REBUILD_GRACE_MS = 24 * 60 * 60 * 1000;
