@@ -1,12 +1,29 @@
 import type { LabScope } from './tenant-scope.ts';
 import { newId } from './new-id.ts';
-import type { AlertRuleKind } from '../contract/alerts.ts';
+import type { AlertProjection, AlertRuleKind, AlertStage } from '../contract/alerts.ts';
+
+/** One projected step of an early warning: time (epoch ms), the projected value and the central band. */
+export interface ProjectedStep {
+  at: number;
+  mean: number;
+  lower: number;
+  upper: number;
+}
+
+/** What an expected-stage alert stores: the projection it shows, and the projected path for the chart. */
+export interface StoredProjection extends AlertProjection {
+  path: ProjectedStep[];
+}
 
 export interface AlertRecord {
   id: number;
   ruleId: number;
   ruleName: string;
   kind: AlertRuleKind;
+  /** 'crossed' (a limit or pattern was passed) or 'expected' (a bounds rule's early warning). */
+  stage: AlertStage;
+  /** The latest projection of an expected-stage alert; null for crossed-stage alerts. */
+  projection: StoredProjection | null;
   channelId: number | null;
   loggerId: number | null;
   openedAt: number;
@@ -27,6 +44,8 @@ const COLUMNS = [
   'alerts.rule_id as ruleId',
   'alerts.rule_name as ruleName',
   'alerts.kind',
+  'alerts.stage',
+  'alerts.projection',
   'alerts.channel_id as channelId',
   'alerts.logger_id as loggerId',
   'alerts.opened_at as openedAt',
@@ -43,11 +62,23 @@ const COLUMNS = [
   'ack_user.email as ackEmail',
 ];
 const opt = (v: unknown) => (v === null || v === undefined ? null : Number(v));
+/** The stored projection, or null when there is none (or it cannot be read: shown as no projection). */
+function readProjection(v: unknown): StoredProjection | null {
+  if (typeof v !== 'string' || v === '') return null;
+  try {
+    const p = JSON.parse(v) as StoredProjection;
+    return p && typeof p === 'object' && typeof p.model === 'string' ? { ...p, path: Array.isArray(p.path) ? p.path : [] } : null;
+  } catch {
+    return null;
+  }
+}
 const toAlert = (r: Record<string, unknown>): AlertRecord => ({
   id: Number(r.id),
   ruleId: Number(r.ruleId),
   ruleName: r.ruleName as string,
   kind: r.kind as AlertRuleKind,
+  stage: r.stage === 'expected' ? 'expected' : 'crossed',
+  projection: readProjection(r.projection),
   channelId: opt(r.channelId),
   loggerId: opt(r.loggerId),
   openedAt: Number(r.openedAt),
@@ -71,16 +102,21 @@ export function alertsRepo(scope: LabScope) {
       const row = await base().where('alerts.id', id).first();
       return row ? toAlert(row) : null;
     },
-    /** The rule's open alert, if any. */
+    /** The rule's open crossed-stage alert, if any (an early warning open beside it is not it). */
     async openForRule(ruleId: number): Promise<AlertRecord | null> {
       const row = await base().where('alerts.open_rule_id', ruleId).first();
       return row ? toAlert(row) : null;
     },
-    /** Open alerts, and (unless `openOnly`) those opened since `since`; newest first, at most `limit`. */
+    /** The rule's open expected-stage alert (its early warning), if any. */
+    async openWarningForRule(ruleId: number): Promise<AlertRecord | null> {
+      const row = await base().where('alerts.open_warning_rule_id', ruleId).first();
+      return row ? toAlert(row) : null;
+    },
+    /** Open alerts of both stages, and (unless `openOnly`) those opened since `since`; newest first, at most `limit`. */
     async list(filter: { openOnly: boolean; since: number; channelId?: number; limit: number }): Promise<AlertRecord[]> {
       const q = base().orderBy('alerts.opened_at', 'desc').limit(filter.limit);
-      if (filter.openOnly) q.whereNotNull('alerts.open_rule_id');
-      else q.where((w) => w.whereNotNull('alerts.open_rule_id').orWhere('alerts.opened_at', '>=', filter.since));
+      if (filter.openOnly) q.where((w) => w.whereNotNull('alerts.open_rule_id').orWhereNotNull('alerts.open_warning_rule_id'));
+      else q.where((w) => w.whereNotNull('alerts.open_rule_id').orWhereNotNull('alerts.open_warning_rule_id').orWhere('alerts.opened_at', '>=', filter.since));
       if (filter.channelId !== undefined) q.where('alerts.channel_id', filter.channelId);
       return (await q).map(toAlert);
     },
@@ -94,9 +130,16 @@ export function alertsRepo(scope: LabScope) {
         .limit(1000);
       return rows.map(toAlert);
     },
-    /** Every alert still open in the lab. */
+    /**
+     * Every crossed-stage alert still open in the lab (reminders and each rule's open alert read
+     * these; early warnings resolve themselves and get no reminders — see {@link openWarnings}).
+     */
     async openAlerts(): Promise<AlertRecord[]> {
       return (await base().whereNotNull('alerts.open_rule_id')).map(toAlert);
+    },
+    /** Every expected-stage alert (early warning) still open in the lab. */
+    async openWarnings(): Promise<AlertRecord[]> {
+      return (await base().whereNotNull('alerts.open_warning_rule_id')).map(toAlert);
     },
     /** Opens an alert; `notifiedAt` (the evaluation's clock) is when its first mail was queued, reminders count from it. */
     async open(input: {
@@ -109,12 +152,19 @@ export function alertsRepo(scope: LabScope) {
       value: number | null;
       detail: string;
       notifiedAt: number;
+      /** Default 'crossed'; an 'expected' alert carries its projection and is open beside any crossed one. */
+      stage?: AlertStage;
+      projection?: StoredProjection | null;
     }): Promise<number> {
       const id = newId();
+      const expected = input.stage === 'expected';
       await scope.insert('alerts', {
         id,
         rule_id: input.ruleId,
-        open_rule_id: input.ruleId,
+        open_rule_id: expected ? null : input.ruleId,
+        open_warning_rule_id: expected ? input.ruleId : null,
+        stage: expected ? 'expected' : 'crossed',
+        projection: input.projection ? JSON.stringify(input.projection) : null,
         rule_name: input.ruleName,
         kind: input.kind,
         channel_id: input.channelId,
@@ -126,12 +176,28 @@ export function alertsRepo(scope: LabScope) {
       });
       return id;
     },
+    /** Resolves an open alert of either stage; false when it was not open. */
     async resolve(id: number, input: { at: number; value: number | null; detail: string }): Promise<boolean> {
       const n = await scope
         .table('alerts')
         .where('alerts.id', id)
-        .whereNotNull('alerts.open_rule_id')
-        .update({ open_rule_id: null, resolved_at: input.at, resolved_value: input.value, resolved_detail: input.detail.slice(0, 255) });
+        .where((w) => w.whereNotNull('alerts.open_rule_id').orWhereNotNull('alerts.open_warning_rule_id'))
+        .update({
+          open_rule_id: null,
+          open_warning_rule_id: null,
+          resolved_at: input.at,
+          resolved_value: input.value,
+          resolved_detail: input.detail.slice(0, 255),
+        });
+      return n === 1;
+    },
+    /** Replaces an open early warning's projection with the latest one (the chart draws the present course). */
+    async updateProjection(id: number, projection: StoredProjection): Promise<boolean> {
+      const n = await scope
+        .table('alerts')
+        .where('alerts.id', id)
+        .whereNotNull('alerts.open_warning_rule_id')
+        .update({ projection: JSON.stringify(projection) });
       return n === 1;
     },
     /** Counts one more reminder, only if nobody else counted it first (compare-and-set on the count). */
@@ -149,9 +215,12 @@ export function alertsRepo(scope: LabScope) {
         .where('alerts.id', id)
         .update({ acknowledged_at: at, acknowledged_by: by, acknowledgement_note: note || null });
     },
-    /** Closes a deleted rule's open alert without mail (its history stays). */
+    /** Closes a deleted (or disabled) rule's open alerts of both stages without mail (their history stays). */
     async closeForDeletedRule(ruleId: number, at: number): Promise<void> {
-      await scope.table('alerts').where('alerts.open_rule_id', ruleId).update({ open_rule_id: null, resolved_at: at, resolved_detail: 'the rule was deleted' });
+      await scope
+        .table('alerts')
+        .where((w) => w.where('alerts.open_rule_id', ruleId).orWhere('alerts.open_warning_rule_id', ruleId))
+        .update({ open_rule_id: null, open_warning_rule_id: null, resolved_at: at, resolved_detail: 'the rule was deleted' });
     },
   };
 }

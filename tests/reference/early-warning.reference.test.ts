@@ -37,7 +37,7 @@ describe('projectCrossing against R (stl + arima + predict, simulate)', () => {
     it(`${c.name}${period ? ` (cycle of ${period})` : ''} ARMA(${one(c.p)},${one(c.q)}), ${h} steps, limit ${one(c.limit)} ${c.side}`, () => {
       const x = list(c.x);
       const ours = projectCrossing(
-        { values: x, lastAt: 0, stepMs: 1, limit: one(c.limit), side: c.side, horizonSteps: h, period },
+        { values: x, lastAt: 0, stepMs: 1, limits: [{ limit: one(c.limit), side: c.side }], horizonSteps: h, period },
         { order: { p: one(c.p), q: one(c.q) }, draws: 20_000 },
       );
       expect(ours.order).toEqual({ p: one(c.p), q: one(c.q) });
@@ -52,8 +52,9 @@ describe('projectCrossing against R (stl + arima + predict, simulate)', () => {
         expect(Math.abs(ours.upper[k] - list(c.upper)[k])).toBeLessThan(2e-3 * scale);
       }
       const rChance = one(c.chance);
-      const se = Math.sqrt((rChance * (1 - rChance)) / 20_000 + (ours.chance * (1 - ours.chance)) / 20_000);
-      expect(Math.abs(ours.chance - rChance)).toBeLessThan(4 * se);
+      const { chance } = ours.crossings[0];
+      const se = Math.sqrt((rChance * (1 - rChance)) / 20_000 + (chance * (1 - chance)) / 20_000);
+      expect(Math.abs(chance - rChance)).toBeLessThan(4 * se);
       expect(ours.model).toBe(`ARMA(${one(c.p)},${one(c.q)}) ${period ? `on the remainder after the ${period}-step cycle` : 'on the readings'}`);
     });
   }

@@ -3,6 +3,21 @@ import { normalQuantile } from '../../../analysis/normal-quantile.ts';
 import { fillForDecomposition } from './fill-for-decomposition.ts';
 import { cycleWords, MIN_CYCLES } from './find-cycle.ts';
 
+/** A limit and the way of passing it that counts. */
+export interface ProjectedLimit {
+  limit: number;
+  side: 'high' | 'low';
+}
+
+/** The chance of passing one limit within the horizon. */
+export interface LimitCrossing extends ProjectedLimit {
+  /** Share of simulated future paths that pass the limit at some step, and its Monte Carlo standard error. */
+  chance: number;
+  standardError: number;
+  /** Median step (1-based) of the first crossing among paths that cross; null when none does. */
+  medianStepsToCross: number | null;
+}
+
 /** The readings on a regular grid, the limit and how far ahead to look. */
 export interface ProjectionInput {
   /** One value per grid cell, oldest first; NaN where a cell holds no reading. The last cell is the newest. */
@@ -10,9 +25,8 @@ export interface ProjectionInput {
   /** Epoch ms of the last cell (the time the projection starts from). */
   lastAt: number;
   stepMs: number;
-  limit: number;
-  /** 'high': crossing means rising above the limit; 'low': falling below it. */
-  side: 'high' | 'low';
+  /** The limits to check: 'high' means rising above it, 'low' falling below it (a bounds rule has one or both). */
+  limits: readonly ProjectedLimit[];
   /** Steps ahead (1…10,000). */
   horizonSteps: number;
   /** Steps per cycle to take off before the fit, or null for none. */
@@ -36,11 +50,8 @@ export interface CrossingProjection {
   order: { p: number; q: number };
   arma: ArmaModel;
   period: number | null;
-  /** Chance of crossing the limit at some step within the horizon, and its Monte Carlo standard error. */
-  chance: number;
-  standardError: number;
-  /** Median step (1-based) of the first crossing among paths that cross; null when none does. */
-  medianStepsToCross: number | null;
+  /** One per limit asked, in the same order. */
+  crossings: LimitCrossing[];
   level: number;
   /** The seasonal part continued, per step (zeros without a cycle). */
   seasonalAhead: Float64Array;
@@ -110,7 +121,7 @@ function chooseModel(stretch: Float64Array, order: { p: number; q: number } | un
  * Cost: the order search (six fits, each O(iterations · n)) dominates; STL is O(n).
  */
 export function projectCrossing(input: ProjectionInput, options: ProjectionOptions = {}): CrossingProjection {
-  const { stepMs, horizonSteps: h, limit, side } = input;
+  const { stepMs, horizonSteps: h } = input;
   const level = options.level ?? 0.8;
   const n = input.values.length;
   const grid = Float64Array.from(input.values);
@@ -154,12 +165,15 @@ export function projectCrossing(input: ProjectionInput, options: ProjectionOptio
     lower[k] = mean[k] - z * forecast.se[k];
     upper[k] = mean[k] + z * forecast.se[k];
   }
-  const crossing = armaCrossingChance(stretch, arma, {
-    limit: Array.from(seasonalAhead, (s) => limit - s),
-    side: side === 'high' ? 'above' : 'below',
-    steps: h,
-    draws: options.draws,
-    seed: options.seed,
+  const crossings = input.limits.map(({ limit, side }): LimitCrossing => {
+    const c = armaCrossingChance(stretch, arma, {
+      limit: Array.from(seasonalAhead, (s) => limit - s),
+      side: side === 'high' ? 'above' : 'below',
+      steps: h,
+      draws: options.draws,
+      seed: options.seed,
+    });
+    return { limit, side, chance: c.chance, standardError: c.standardError, medianStepsToCross: c.medianFirstStep };
   });
   const what = period === null ? 'on the readings' : `on the remainder after the ${cycleWords(period, stepMs)}`;
   return {
@@ -167,9 +181,7 @@ export function projectCrossing(input: ProjectionInput, options: ProjectionOptio
     order: { p: chosen.p, q: chosen.q },
     arma,
     period,
-    chance: crossing.chance,
-    standardError: crossing.standardError,
-    medianStepsToCross: crossing.medianFirstStep,
+    crossings,
     level,
     seasonalAhead,
     mean,
