@@ -1,4 +1,8 @@
 import type { LabScope } from './tenant-scope.ts';
+import { isKept } from './rollup-levels.ts';
+
+const HOUR_S = 3600;
+const DAY_S = 86400;
 
 /** One channel's readings in time order, as typed arrays (epoch ms, values). */
 export interface ReadingColumns {
@@ -93,6 +97,17 @@ export function channelReadingsRepo(scope: LabScope, options: ChannelReadingsOpt
   }
 
   /** [from, to) read by `readSlice` in concurrent slices of a grid of `stepMs` (see `sliceSteps`), joined in order. */
+  async function rollupFloors(channelIds: number[]): Promise<Map<number, number | null>> {
+    const out = new Map<number, number | null>();
+    if (channelIds.length === 0) return out;
+    const rows = await arrays(
+      `SELECT id, finest_rollup_s FROM channels WHERE tenant_id = :lab AND id IN (${channelIds.map(() => '?').join(', ')})`,
+      channelIds,
+    );
+    for (const r of rows) out.set(Number(r[0]), r[1] === null ? null : Number(r[1]));
+    return out;
+  }
+
   async function inSlices(from: number, to: number, stepMs: number, readSlice: (a: number, b: number) => Promise<ReadingColumns>): Promise<ReadingColumns> {
     return concatColumns(await Promise.all(rangeSlices(from, to, stepMs, sliceSteps, maxSlices).map(([a, b]) => readSlice(a, b))));
   }
@@ -159,23 +174,55 @@ export function channelReadingsRepo(scope: LabScope, options: ChannelReadingsOpt
     },
 
     /**
-     * Hourly means of the given hours for these channels, in one statement (the channel list
-     * keeps it on the primary key: tenant → channel → resolution → hour).
+     * The finest rollup level each channel keeps (`channels.finest_rollup_s`; null: none), one
+     * keyed look-up. A level is readable for a channel only at or above it (rollup-levels.ts).
+     */
+    rollupFloors,
+
+    /**
+     * Hourly means of the given hours for these channels: from the hour rollups of channels
+     * that keep them (one statement on the primary key: tenant → channel → resolution → hour),
+     * from the raw readings grouped by hour for the others (channels reporting hourly or
+     * slower, a reading or less per hour).
      */
     async hourlyMeans(channelIds: number[], fromHour: number, toHour: number): Promise<Array<{ channelId: number; hour: number; mean: number }>> {
       if (channelIds.length === 0) return [];
-      const rows = await arrays(
-        `SELECT channel_id, bucket_start, sum_value / count_value FROM reading_rollups
-         WHERE tenant_id = :lab AND channel_id IN (${channelIds.map(() => '?').join(', ')}) AND resolution_s = 3600 AND bucket_start >= ? AND bucket_start < ?`,
-        [...channelIds, fromHour, toHour],
-      );
-      return rows.map((r) => ({ channelId: Number(r[0]), hour: Number(r[1]), mean: Number(r[2]) }));
+      const floors = await rollupFloors(channelIds);
+      const fromRollups = channelIds.filter((id) => isKept(HOUR_S, floors.get(id) ?? null));
+      const fromRaw = channelIds.filter((id) => !isKept(HOUR_S, floors.get(id) ?? null));
+      const inList = (ids: number[]) => ids.map(() => '?').join(', ');
+      const [rolled, raw] = await Promise.all([
+        fromRollups.length === 0
+          ? []
+          : arrays(
+              `SELECT channel_id, bucket_start, sum_value / count_value FROM reading_rollups
+               WHERE tenant_id = :lab AND channel_id IN (${inList(fromRollups)}) AND resolution_s = ${HOUR_S} AND bucket_start >= ? AND bucket_start < ?`,
+              [...fromRollups, fromHour, toHour],
+            ),
+        fromRaw.length === 0
+          ? []
+          : arrays(
+              `SELECT channel_id, ts - MOD(ts, ${HOUR_S * 1000}) AS h, SUM(value) / COUNT(*) FROM readings
+               WHERE tenant_id = :lab AND channel_id IN (${inList(fromRaw)}) AND ts >= ? AND ts < ? GROUP BY channel_id, h`,
+              [...fromRaw, fromHour, toHour],
+            ),
+      ]);
+      return [...rolled, ...raw].map((r) => ({ channelId: Number(r[0]), hour: Number(r[1]), mean: Number(r[2]) }));
     },
 
-    /** Reading count (from the daily rollups) and the first reading's time (one index seek). */
+    /**
+     * Reading count and the first reading's time (one index seek). The count comes from the day
+     * rollups where the channel keeps them, else from counting its readings (a channel without
+     * rollups reports daily or slower: a few hundred readings a year).
+     */
     async extent(channelId: number): Promise<{ count: number; firstTs: number | null }> {
+      const floor = (await rollupFloors([channelId])).get(channelId) ?? null;
       const [[countRow], [firstRow]] = await Promise.all([
-        arrays('SELECT COALESCE(SUM(count_value), 0) FROM reading_rollups WHERE tenant_id = :lab AND channel_id = ? AND resolution_s = 86400', [channelId]),
+        isKept(DAY_S, floor)
+          ? arrays(`SELECT COALESCE(SUM(count_value), 0) FROM reading_rollups WHERE tenant_id = :lab AND channel_id = ? AND resolution_s = ${DAY_S}`, [
+              channelId,
+            ])
+          : arrays('SELECT COUNT(*) FROM readings WHERE tenant_id = :lab AND channel_id = ?', [channelId]),
         arrays('SELECT MIN(ts) FROM readings WHERE tenant_id = :lab AND channel_id = ?', [channelId]),
       ]);
       return { count: Number(countRow[0]), firstTs: firstRow[0] === null ? null : Number(firstRow[0]) };

@@ -1,5 +1,6 @@
 import type { LabScope } from './tenant-scope.ts';
 import { newId } from './new-id.ts';
+import { finestRollupSql } from './rollup-levels.ts';
 
 export interface Channel {
   id: number;
@@ -88,9 +89,19 @@ export function channelsRepo(scope: LabScope) {
       return row ? toChannel(row) : null;
     },
 
+    /**
+     * Adds a channel. Its finest kept rollup level follows its reporting interval (its own, else
+     * its logger's) from the start: a new channel has no readings, so no level needs building.
+     */
     async insert(loggerId: number, input: ChannelInput): Promise<number> {
       const id = newId();
       await scope.insert('channels', { id, logger_id: loggerId, ...columnsOf({ unit: '', quantity: '', ...input }) });
+      await scope.raw(
+        `UPDATE channels c JOIN loggers l ON l.tenant_id = c.tenant_id AND l.id = c.logger_id
+         SET c.finest_rollup_s = ${finestRollupSql('COALESCE(c.expected_interval_s, l.expected_interval_s)')}
+         WHERE c.tenant_id = :lab AND c.id = ?`,
+        [id],
+      );
       return id;
     },
 

@@ -3,6 +3,7 @@ import { inLab } from '../db/tenant-scope.ts';
 import { channelStateRepo, type ChannelWithState } from '../db/channel-state.repo.ts';
 import { channelReadingsRepo, type BucketRow } from '../db/channel-readings.repo.ts';
 import { ROLLUP_RESOLUTIONS_S } from '../db/readings.repo.ts';
+import { levelForBuckets } from '../db/rollup-levels.ts';
 import { NotFoundError } from '../errors.ts';
 import type { LabContext } from './lab-context.ts';
 import type { ChannelStatus, Series, SeriesQuery } from '../contract/channels.ts';
@@ -111,7 +112,9 @@ export function createChannelsService(deps: { db: Db; now?: () => number }) {
      * neighbours lie more than 3 expected intervals apart (a gap to draw). Otherwise the range is
      * cut into ⌊points/2⌋ buckets (each drawn as its min and max, so a one-reading spike stays
      * visible: the min/max envelope keeps every extreme, unlike averaging or decimation) whose
-     * width is rounded up to a multiple of the coarsest rollup resolution not wider than it;
+     * width is rounded up to a multiple of the coarsest rollup resolution not wider than it
+     * (read from that level, a coarser one that tiles the width, or the raw readings, as the
+     * channel keeps levels: see rollup-levels.ts);
      * buckets are aligned to whole multiples of their width since the epoch, so the first and
      * last may reach past from/to (the answer's from/to say what was covered). Empty buckets
      * are null.
@@ -135,12 +138,16 @@ export function createChannelsService(deps: { db: Db; now?: () => number }) {
         return { shape: 'readings', source: 'raw', resolutionS: null, bucketMs: null, from: q.from, to: q.to, t, value };
       }
       const target = (q.to - q.from) / Math.floor(q.points / 2);
-      const resolutionS = [...ROLLUP_RESOLUTIONS_S].reverse().find((r) => r * 1000 <= target) ?? null;
-      const unit = resolutionS ? resolutionS * 1000 : 1;
+      const ideal = [...ROLLUP_RESOLUTIONS_S].reverse().find((r) => r * 1000 <= target) ?? null;
+      const unit = ideal ? ideal * 1000 : 1;
       const widthMs = Math.ceil(target / unit) * unit;
       const start = Math.floor(q.from / widthMs) * widthMs;
       const count = Math.ceil((q.to - start) / widthMs);
       const end = start + count * widthMs;
+      // The width is chosen as if every level were kept, so the buckets are the same whichever
+      // level (or the raw readings, where the channel keeps no level that tiles them) fills them.
+      const floor = (await readings.rollupFloors([channelId])).get(channelId) ?? null;
+      const resolutionS = levelForBuckets(ideal, floor, widthMs);
       const rows = resolutionS
         ? await readings.rollupBuckets(channelId, resolutionS, start, end, widthMs)
         : await readings.rawBuckets(channelId, start, end, widthMs);

@@ -4,6 +4,7 @@ import { inLab } from '../db/tenant-scope.ts';
 import { channelReadingsRepo, type ReadingColumns } from '../db/channel-readings.repo.ts';
 import type { ChannelWithState } from '../db/channel-state.repo.ts';
 import { ROLLUP_RESOLUTIONS_S } from '../db/readings.repo.ts';
+import { isKept } from '../db/rollup-levels.ts';
 import {
   AnalysisInputError,
   channelDiagnostics,
@@ -145,8 +146,9 @@ export function createDiagnosticsService(deps: {
     agg: DiagnosticsParams['agg'],
   ): Promise<LoadedGrid> {
     const repo = channelReadingsRepo(inLab(deps.db, lab.id));
-    const resolutionS =
-      agg === 'mean' || agg === 'min' || agg === 'max' ? [...ROLLUP_RESOLUTIONS_S].reverse().find((r) => stepMs % (r * 1000) === 0) : undefined;
+    // The coarsest level the channel keeps whose cells tile the step (none kept: raw readings).
+    const floor = agg === 'mean' || agg === 'min' || agg === 'max' ? ((await repo.rollupFloors([channelId])).get(channelId) ?? null) : null;
+    const resolutionS = [...ROLLUP_RESOLUTIONS_S].reverse().find((r) => isKept(r, floor) && stepMs % (r * 1000) === 0);
     if (resolutionS && (agg === 'mean' || agg === 'min' || agg === 'max')) {
       const [data, buckets] = await Promise.all([
         repo.cellsFromRollups(channelId, resolutionS, range.from, range.to, stepMs, agg),

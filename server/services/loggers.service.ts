@@ -11,6 +11,7 @@ import { newIngestKey } from './ingest-key-format.ts';
 import type { Actor, LabContext } from './lab-context.ts';
 import type { PlanLimitGuard } from './billing/plan-limits.ts';
 import { CHANNEL_LABELS, LOGGER_LABELS, LOGGER_REASONS } from '../contract/words/loggers.ts';
+import { createRollupLevelsService, raiseFloorsOnEdit } from './rollup-levels.service.ts';
 
 export interface LoggerDetail extends Logger {
   channels: Channel[];
@@ -29,6 +30,7 @@ export interface IssuedKey {
  */
 export function createLoggersService(deps: { db: Db; now?: () => Date; planLimits?: PlanLimitGuard }) {
   const now = deps.now ?? (() => new Date());
+  const rollupLevels = createRollupLevelsService({ db: deps.db });
   const duplicateName = (err: unknown): never => {
     if (isDuplicateKey(err)) {
       const msg = String((err as Error).message);
@@ -97,12 +99,19 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
       }
     },
 
+    /**
+     * Edits a logger. A new reporting interval changes which rollup levels its channels keep:
+     * levels no longer kept stop being read as the edit commits; newly kept ones are built from
+     * the readings before they are read (see rollup-levels.service.ts).
+     */
     async update(lab: LabContext, actor: Actor, id: number, patch: Partial<LoggerInput>): Promise<Logger> {
+      let updated: Logger;
       try {
-        return await deps.db.transaction(async (trx) => {
+        updated = await deps.db.transaction(async (trx) => {
           const scope = inLab(trx, lab.id);
           const before = await requireLogger(scope, id, true);
           await loggersRepo(scope).update(id, patch);
+          if (patch.expectedIntervalS !== undefined) await raiseFloorsOnEdit(scope, { loggerId: id });
           await auditRepo(scope).record({
             actorUserId: actor.id,
             action: 'logger.updated',
@@ -116,6 +125,8 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
       } catch (err) {
         return duplicateName(err);
       }
+      if (patch.expectedIntervalS !== undefined) await rollupLevels.settle(lab.id, { loggerId: id });
+      return updated;
     },
 
     /** Retires a logger: its keys stop working, its readings stay. */
@@ -156,9 +167,11 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
       }
     },
 
+    /** Edits a channel; a new reporting interval changes its rollup levels as for a logger's (see `update`). */
     async updateChannel(lab: LabContext, actor: Actor, loggerId: number, channelId: number, patch: Partial<ChannelInput>): Promise<Channel> {
+      let updated: Channel;
       try {
-        return await deps.db.transaction(async (trx) => {
+        updated = await deps.db.transaction(async (trx) => {
           const scope = inLab(trx, lab.id);
           await requireLogger(scope, loggerId, true);
           const channel = await channelsRepo(scope).find(channelId);
@@ -174,6 +187,7 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
             throw fieldConflict('invalid_range', 'validMax', CHANNEL_LABELS.validMax, LOGGER_REASONS.validRangeOrder);
           }
           await channelsRepo(scope).update(channelId, patch);
+          if (patch.expectedIntervalS !== undefined) await raiseFloorsOnEdit(scope, { channelIds: [channelId] });
           await auditRepo(scope).record({
             actorUserId: actor.id,
             action: 'channel.updated',
@@ -187,6 +201,8 @@ export function createLoggersService(deps: { db: Db; now?: () => Date; planLimit
       } catch (err) {
         return duplicateName(err);
       }
+      if (patch.expectedIntervalS !== undefined) await rollupLevels.settle(lab.id, { channelIds: [channelId] });
+      return updated;
     },
 
     async retireChannel(lab: LabContext, actor: Actor, loggerId: number, channelId: number): Promise<void> {
