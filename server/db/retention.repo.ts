@@ -120,11 +120,11 @@ export function retentionRecordsRepo(db: DbOrTrx) {
     },
 
     /**
-     * The labs holding readings in one partition of `readings`. A loose index scan on the
-     * primary key's first column (one step per lab), not a count of the partition's rows.
+     * The labs holding rows in one partition of `readings` or `reading_rollups`. A loose index
+     * scan on the primary key's first column (one step per lab), not a count of the partition's rows.
      */
-    async labsInPartition(partitionName: string): Promise<number[]> {
-      const [rows] = (await db.raw(`SELECT DISTINCT tenant_id AS t FROM readings PARTITION (${checkedPartitionName(partitionName)})`)) as unknown as [
+    async labsInPartition(table: 'readings' | 'reading_rollups', partitionName: string): Promise<number[]> {
+      const [rows] = (await db.raw(`SELECT DISTINCT tenant_id AS t FROM ?? PARTITION (${checkedPartitionName(partitionName)})`, [table])) as unknown as [
         Array<{ t: number | string }>,
       ];
       return rows.map((r) => Number(r.t)).sort((a, b) => a - b);

@@ -1,0 +1,54 @@
+import type { Db } from '../../db/create-db.ts';
+import { inLab } from '../../db/tenant-scope.ts';
+import { labBillingRepo } from '../../db/lab-billing.repo.ts';
+import { retentionLabRepo, retentionRecordsRepo } from '../../db/retention.repo.ts';
+import { effectivePlan } from '../billing/effective-plan.ts';
+import type { Plan, PlanCatalog } from '../billing/plan-catalog.ts';
+import { removalHorizon } from './retention-plan.ts';
+import { RETENTION_INTERVAL_MS } from './retention-job.ts';
+
+/** What the lab's admins are told about retention (the presenter turns times into ISO text). */
+export type RetentionView =
+  | { removes: false; plan: Plan }
+  | { removes: true; plan: Plan; horizonMs: number; oldestReadingMs: number | null; readingsBeforeHorizon: number; nextRemovalMs: number };
+
+/**
+ * When the next removal runs: a day after the latest run started, or now when no run has
+ * started yet or the day is over (the job runs at start and then daily).
+ */
+export function nextRemovalAt(latestStartMs: number | null, nowMs: number): number {
+  if (latestStartMs === null) return nowMs;
+  return Math.max(nowMs, latestStartMs + RETENTION_INTERVAL_MS);
+}
+
+/**
+ * The lab's retention as its admins see it on the billing page: whether its effective plan ever
+ * removes readings and, if so, the horizon, the oldest stored reading, how many readings lie
+ * before the horizon now and when the next removal runs. Reads are keyed: one step per channel.
+ */
+export function createRetentionView(deps: { db: Db; catalog: PlanCatalog; now?: () => Date }) {
+  const now = deps.now ?? (() => new Date());
+  return {
+    async forLab(lab: { id: number }): Promise<RetentionView> {
+      const at = now().getTime();
+      const scope = inLab(deps.db, lab.id);
+      const plan = effectivePlan(await labBillingRepo(scope).get(), deps.catalog, now());
+      const horizonMs = removalHorizon({ historyDays: plan.limits.historyDays, readingRemoval: plan.readingRemoval }, at);
+      if (!Number.isFinite(horizonMs)) return { removes: false, plan };
+      const repo = retentionLabRepo(scope);
+      let readingsBeforeHorizon = 0;
+      for (const channelId of await repo.channelIds()) readingsBeforeHorizon += await repo.readingsBefore(channelId, horizonMs);
+      const latest = await retentionRecordsRepo(deps.db).latestRun();
+      return {
+        removes: true,
+        plan,
+        horizonMs,
+        oldestReadingMs: await repo.oldestReading(),
+        readingsBeforeHorizon,
+        nextRemovalMs: nextRemovalAt(latest ? latest.startedAt.getTime() : null, at),
+      };
+    },
+  };
+}
+
+export type RetentionViewService = ReturnType<typeof createRetentionView>;
