@@ -60,12 +60,12 @@ async function store(f: LabWithEverything, start: number, stepMs: number, values
 const mailTo = async (who: TestUser) => (await fetchCapturedMail(captureUrl, { to: who.email })).map((m) => m.subject.replace(/^\[[^\]]*\] /, ''));
 const alertsOf = (f: LabWithEverything) => t.db('alerts').where({ tenant_id: f.lab.id }).orderBy('opened_at');
 
-/** Simulated hourly readings (behaviour test): 21 °C ± 3 °C daily cycle peaking at 15:00, seeded noise ±0.2 °C, from five days ago. */
+/** Simulated hourly readings (behaviour test): 21 °C ± 3 °C daily cycle peaking at 15:00, seeded noise ±0.2 °C, two decimals as a logger sends them, from five days ago. */
 function growthRoom(seed: number) {
   let state = seed;
   const noise = () => ((state = (Math.imul(state, 1664525) + 1013904223) >>> 0) / 2 ** 32 - 0.5) * 0.4;
   const day0 = Math.floor(Date.now() / 86_400_000) * 86_400_000 - 5 * 86_400_000;
-  return { day0, usual: (h: number) => 21 + 3 * Math.cos((2 * Math.PI * (h - 15)) / 24) + noise() };
+  return { day0, usual: (h: number) => Math.round((21 + 3 * Math.cos((2 * Math.PI * (h - 15)) / 24) + noise()) * 100) / 100 };
 }
 
 describe('alert evaluation', () => {
@@ -196,7 +196,11 @@ describe('alert evaluation', () => {
     expect(rows.map((r) => [Number(r.opened_at), Number(r.opened_value), Number(r.resolved_at)])).toEqual([
       [day0 + 99 * 3_600_000, 24, day0 + 100 * 3_600_000],
     ]);
-    expect(rows[0].opened_detail).toMatch(/^24 °C lies [\d.]+ robust SD above the usual pattern \(limit 5 robust SD\)$/);
+    // the readings carry two decimals: the reading and the usual value at that resolution, the distance as a rough multiple, with units
+    expect(rows[0].opened_detail).toMatch(
+      /^24\.00 °C, about \d+(\.\d)? times the usual spread above the usual 1\d\.\d\d °C for this time of day \(limit 5 times the spread\)$/,
+    );
+    expect(rows[0].resolved_detail).toMatch(/^\d+\.\d\d °C fits the usual pattern again \(the usual \d+\.\d\d °C for this time of day\)$/);
   });
 
   it('unusual reading: a spike right after a logger outage opens an alert (the empty hours before it do not stop the judgement)', async () => {

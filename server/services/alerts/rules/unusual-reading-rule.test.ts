@@ -162,6 +162,16 @@ describe('evaluateUnusualReading', () => {
     });
   });
 
+  it('a channel whose readings begin inside the window has too little history (not too many gaps)', () => {
+    const s = scenario(13);
+    const next = s.reading(D3, 24);
+    const lastDay = { ts: s.history.ts.slice(2 * PER_DAY), values: s.history.values.slice(2 * PER_DAY) };
+    expect(unusualScores(lastDay, [next], STEP, PER_DAY, { from: next.ts - D3 * STEP, to: next.ts }).notJudged).toEqual({
+      reason: 'too-little-history',
+      detail: `The history holds readings for only the last ${PER_DAY} of its ${D3} steps; at least ${D3 - PER_DAY + 1} are needed to learn the usual pattern.`,
+    });
+  });
+
   it('does not modify its inputs', () => {
     const s = scenario(10);
     const frozen = { ts: Object.freeze([...s.history.ts]), values: Object.freeze([...s.history.values]) };

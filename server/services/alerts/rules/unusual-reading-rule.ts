@@ -99,7 +99,8 @@ const MIN_SPREAD_CELLS = 8;
  * reading differs. No scores, with the reason, when the history spans fewer than three cycles,
  * more than a fifth of its cells are empty, an end of it is empty for a whole cycle, or its last
  * cycle holds fewer than {@link MIN_SPREAD_CELLS} cells with readings. Readings must come after
- * the history; nothing is modified.
+ * the history; nothing is modified. A history whose first whole cycle or more is empty (the
+ * channel's readings begin inside the window) is too little history rather than too many gaps.
  *
  * Cost: two STL fits of the history, O(n) for n grid cells (see {@link stl}).
  */
@@ -121,6 +122,15 @@ export function unusualScores(
   const n = values.length;
   if (periodSteps < 2 || n < 3 * periodSteps) {
     return none('too-little-history', `The history spans ${n} steps; three full cycles (${3 * periodSteps} steps) are needed to learn the usual pattern.`);
+  }
+  let lead = 0;
+  while (lead < n && Number.isNaN(values[lead])) lead++;
+  if (lead >= periodSteps) {
+    // the channel's readings begin inside the window (a new channel, or one back after a long outage): too short, not holey
+    return none(
+      'too-little-history',
+      `The history holds readings for only the last ${n - lead} of its ${n} steps; at least ${n - periodSteps + 1} are needed to learn the usual pattern.`,
+    );
   }
   const filled = fillForFit(values, periodSteps);
   if (!filled) {
