@@ -73,24 +73,47 @@ export function channelStateRepo(scope: LabScope) {
     },
 
     /**
-     * After a batch stored new readings: for each channel, `latest` names the latest time the
-     * batch carried for it (stored now or before, so the reading exists). The channel's last
-     * reading moves to it unless it already is later, the value is taken from the stored
-     * reading (a conflicting newcomer never replaced it), and the data version goes up by one.
-     * One statement for the whole batch. The SET expressions give the same result in either
-     * evaluation order (r.ts ≥ GREATEST(old, r.ts) exactly when r.ts ≥ old), which matters
-     * because MariaDB does not promise an order for multi-table UPDATEs.
+     * After a batch stored new readings: for each channel, `ts` names the latest time the batch
+     * carried for it (stored now or before) and `added` how many readings the batch newly stored
+     * for it. The channel's last reading moves to `ts` unless it already is later, the value is
+     * taken from the stored reading (a conflicting newcomer never replaced it), the data version
+     * goes up by one and `stored_readings` by `added` — one statement for the whole batch, in
+     * the batch's transaction, so the counter is exactly the channel's row count whenever the
+     * batch commits. The readings row is LEFT-joined: should the latest reading be missing (it
+     * cannot be, short of a concurrent delete), the counter and version still move and the last
+     * reading stays. The SET expressions give the same result in either evaluation order
+     * (r.ts ≥ GREATEST(old, r.ts) exactly when r.ts ≥ old), which matters because MariaDB does
+     * not promise an order for multi-table UPDATEs.
      */
-    async advance(latest: Array<{ channelId: number; ts: number }>): Promise<void> {
+    async advance(latest: Array<{ channelId: number; ts: number; added?: number }>): Promise<void> {
       if (latest.length === 0) return;
-      const pairs = latest.map(() => '(r.channel_id = ? AND r.ts = ?)').join(' OR ');
+      const batch = latest.map((_, i) => (i === 0 ? 'SELECT ? AS id, ? AS ts, ? AS added' : 'SELECT ?, ?, ?')).join(' UNION ALL ');
       await scope.raw(
-        `UPDATE channels c JOIN readings r ON r.tenant_id = c.tenant_id AND r.channel_id = c.id
-         SET c.last_reading_value = IF(c.last_reading_ts IS NULL OR r.ts >= c.last_reading_ts, r.value, c.last_reading_value),
-             c.last_reading_ts = GREATEST(COALESCE(c.last_reading_ts, r.ts), r.ts),
-             c.data_version = c.data_version + 1
-         WHERE c.tenant_id = :lab AND r.tenant_id = :lab AND (${pairs})`,
-        latest.flatMap((l) => [l.channelId, l.ts]),
+        `UPDATE channels c
+         JOIN (${batch}) b ON b.id = c.id
+         LEFT JOIN readings r ON r.tenant_id = c.tenant_id AND r.channel_id = b.id AND r.ts = b.ts
+         SET c.last_reading_value = IF(r.ts IS NOT NULL AND (c.last_reading_ts IS NULL OR r.ts >= c.last_reading_ts), r.value, c.last_reading_value),
+             c.last_reading_ts = IF(r.ts IS NULL, c.last_reading_ts, GREATEST(COALESCE(c.last_reading_ts, r.ts), r.ts)),
+             c.data_version = c.data_version + 1,
+             c.stored_readings = c.stored_readings + b.added
+         WHERE c.tenant_id = :lab`,
+        latest.flatMap((l) => [l.channelId, l.ts, l.added ?? 0]),
+      );
+    },
+
+    /**
+     * Moves each channel's stored-readings counter by `delta` (readings stored or deleted in the
+     * caller's transaction outside `advance`: a batch some of whose rows were already stored,
+     * or retention's deletes), never below zero. One statement; zero deltas are skipped.
+     */
+    async adjustStored(deltas: Array<{ channelId: number; delta: number }>): Promise<void> {
+      const list = deltas.filter((d) => d.delta !== 0);
+      if (list.length === 0) return;
+      const cases = list.map(() => 'WHEN ? THEN ?').join(' ');
+      await scope.raw(
+        `UPDATE channels SET stored_readings = GREATEST(CAST(stored_readings AS SIGNED) + CASE id ${cases} ELSE 0 END, 0)
+         WHERE tenant_id = :lab AND id IN (${list.map(() => '?').join(', ')})`,
+        [...list.flatMap((d) => [d.channelId, d.delta]), ...list.map((d) => d.channelId)],
       );
     },
   };

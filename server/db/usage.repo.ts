@@ -13,25 +13,20 @@ export interface UsageSnapshot extends UsageCounts {
   day: string;
 }
 
-/** Rollup resolution whose counts are summed for the exact stored-readings count (one day). */
-const DAY_RESOLUTION_S = 86400;
-
 const dayOf = (v: unknown): string => (v instanceof Date ? v.toISOString().slice(0, 10) : String(v).slice(0, 10));
 
 /** Data access for one lab's usage: exact counts and the daily snapshots. */
 export function usageRepo(scope: LabScope) {
   return {
     /**
-     * Stored readings, exactly: rollups are kept current in the batch transaction and each
-     * reading sits in exactly one day bucket, so the day rollups' counts sum to the number of
-     * rows in `readings` — one small row per channel-day instead of a scan of every reading.
+     * Stored readings, exactly: the sum of the lab's per-channel counters
+     * (`channels.stored_readings`), which the ingestion transaction keeps equal to each
+     * channel's rows in `readings` (and whatever deletes readings moves down in its own
+     * transaction). A keyed read of the lab's channel rows — the primary key leads with
+     * `tenant_id` — so it touches one row per channel, never the readings or their rollups.
      */
     async storedReadings(): Promise<number> {
-      const row = await scope
-        .table('reading_rollups')
-        .where('reading_rollups.resolution_s', DAY_RESOLUTION_S)
-        .sum({ n: 'reading_rollups.count_value' })
-        .first();
+      const row = await scope.table('channels').sum({ n: 'channels.stored_readings' }).first();
       return Number(row?.n ?? 0);
     },
 

@@ -1,6 +1,8 @@
 import type { LabScope } from '../../db/tenant-scope.ts';
 import { readingsRepo, sliceColumns } from '../../db/readings.repo.ts';
 import { quarantineRepo, type QuarantineInput, type ReadingSource } from '../../db/quarantine.repo.ts';
+import { channelStateRepo } from '../../db/channel-state.repo.ts';
+import { rollbackToSavepoint, setSavepoint } from '../../db/savepoint.ts';
 import type { SortedCandidates } from './batch-candidates.ts';
 import type { IncomingReading, RejectedRow } from './check-rows.ts';
 
@@ -12,6 +14,8 @@ export interface StoredNew {
   duplicates: number;
   /** Candidates whose time already holds another value: the stored value stays, these go to quarantine. */
   conflicts: RejectedRow[];
+  /** Readings newly written per run of `sorted.runs` (same order). */
+  addedPerRun: number[];
 }
 
 /** Where a batch's quarantined rows came from. */
@@ -24,22 +28,49 @@ export interface QuarantineOrigin {
 /** Readings written per statement. */
 const INSERT_CHUNK = 5000;
 
+/** Set before a batch's insert, so a batch that meets stored rows can insert again run by run. */
+const BEFORE_INSERT = 'lagbook_store_new';
+
+/** Inserts candidates from..to (new ones only), in statements of at most INSERT_CHUNK; returns how many were new. */
+async function insertRange(readings: ReturnType<typeof readingsRepo>, columns: SortedCandidates['columns'], from: number, to: number): Promise<number> {
+  let added = 0;
+  for (let i = from; i < to; i += INSERT_CHUNK) added += await readings.insertNew(sliceColumns(columns, i, Math.min(i + INSERT_CHUNK, to)));
+  return added;
+}
+
 /**
  * Writes the batch's candidates that are new, in primary-key order, on the scope's transaction
  * (a (channel, time) already stored is left as it is). Only when some candidates were already
  * stored does it read them back, to tell a duplicate (same value) from a conflict (another
  * value, which keeps the stored one and sends the newcomer to quarantine). `rows` are the rows
  * given to the batch, so a conflict names the row it came from.
+ *
+ * Each channel's stored-readings counter must move by exactly the rows it gained. When every
+ * candidate was new (the usual case) that is each run's length, and `updateDerived` adds it in
+ * the statement that advances the channel's version. When some were already stored (a re-sent
+ * batch), the insert is undone to a savepoint and repeated one run at a time, which gives each
+ * channel's own count, and the counters are moved here (`updateDerived` then adds nothing).
+ * The usual case costs one SAVEPOINT statement more than before; a batch of one channel none.
  */
 export async function storeNew(scope: LabScope, sorted: SortedCandidates, rows: readonly IncomingReading[]): Promise<StoredNew> {
   const readings = readingsRepo(scope);
   const { columns, rowAt, runs } = sorted;
-  let accepted = 0;
-  for (let i = 0; i < columns.length; i += INSERT_CHUNK) {
-    accepted += await readings.insertNew(sliceColumns(columns, i, Math.min(i + INSERT_CHUNK, columns.length)));
-  }
   const conflicts: RejectedRow[] = [];
-  if (accepted === columns.length) return { accepted, duplicates: 0, conflicts };
+  if (columns.length === 0) return { accepted: 0, duplicates: 0, conflicts, addedPerRun: runs.map(() => 0) };
+  const severalRuns = runs.length > 1;
+  if (severalRuns) await setSavepoint(scope.db, BEFORE_INSERT);
+  let accepted = await insertRange(readings, columns, 0, columns.length);
+  if (accepted === columns.length) return { accepted, duplicates: 0, conflicts, addedPerRun: runs.map((r) => r.to - r.from) };
+
+  let addedPerRun = [accepted];
+  if (severalRuns) {
+    await rollbackToSavepoint(scope.db, BEFORE_INSERT);
+    addedPerRun = [];
+    for (const run of runs) addedPerRun.push(await insertRange(readings, columns, run.from, run.to));
+    accepted = addedPerRun.reduce((a, b) => a + b, 0);
+  }
+  await channelStateRepo(scope).adjustStored(runs.map((r, i) => ({ channelId: r.channelId, delta: addedPerRun[i] })));
+
   for (const run of runs) {
     const stored = await readings.storedAt(run.channelId, Array.from(columns.ts.subarray(run.from, run.to)));
     for (let i = run.from; i < run.to; i++) {
@@ -54,7 +85,7 @@ export async function storeNew(scope: LabScope, sorted: SortedCandidates, rows: 
       }
     }
   }
-  return { accepted, duplicates: columns.length - accepted - conflicts.length, conflicts };
+  return { accepted, duplicates: columns.length - accepted - conflicts.length, conflicts, addedPerRun };
 }
 
 const text = (v: unknown): string | null => (v === undefined || v === null ? null : typeof v === 'string' ? v : JSON.stringify(v));

@@ -19,8 +19,9 @@ export interface StoredReadings {
  * Brings what is derived from the readings up to date after a batch stored new ones, on the
  * scope's transaction so it commits or rolls back with them: the rollups of the touched buckets
  * (folded in when every candidate was new, recomputed from the stored rows otherwise), each
- * channel's latest reading and data version (see `channelStateRepo(...).advance`), and, for a
- * batch the logger sent itself, the logger's last-seen time (read from `now` at that moment).
+ * channel's latest reading, data version and stored-readings counter (see
+ * `channelStateRepo(...).advance` and `storeNew`), and, for a batch the logger sent itself,
+ * the logger's last-seen time (read from `now` at that moment).
  */
 export async function updateDerived(scope: LabScope, batch: StoredReadings, now: () => number): Promise<void> {
   const { columns, runs } = batch.sorted;
@@ -38,8 +39,11 @@ export async function updateDerived(scope: LabScope, batch: StoredReadings, now:
     }
     // Each channel's run ends with its latest time. A channel whose rows were all duplicates
     // still gets a version bump when another channel of the batch stored something (a spare
-    // cache miss, never a stale answer).
-    await channelStateRepo(scope).advance(runs.map((r) => ({ channelId: r.channelId, ts: columns.ts[r.to - 1] })));
+    // cache miss, never a stale answer). When every candidate was new, each channel gained its
+    // run's length, counted here in the same statement; otherwise `storeNew` already counted
+    // each channel's new rows exactly (it knows them run by run), so nothing is added twice.
+    const allNew = batch.accepted === columns.length;
+    await channelStateRepo(scope).advance(runs.map((r) => ({ channelId: r.channelId, ts: columns.ts[r.to - 1], added: allNew ? r.to - r.from : 0 })));
   }
   if (batch.source === 'api') await loggersRepo(scope).markSeen(batch.loggerId, now());
 }
