@@ -74,15 +74,19 @@ export async function up(knex: Knex): Promise<void> {
   }
   first = Math.max(first, addMonths(now, -MAX_MONTHS_BACK));
   const last = addMonths(now, MONTHS_AHEAD);
+  // Page compression needs a tablespace per table; a server keeping every table in the system
+  // tablespace (innodb_file_per_table=0) refuses the option, so there the tables are partitioned only.
+  const [perTable] = (await knex.raw('SELECT @@innodb_file_per_table AS on_')) as [Array<{ on_: number | string }>];
+  const compression = Number(perTable[0]?.on_ ?? 0) === 1 ? ', PAGE_COMPRESSED=1' : '';
   for (const table of PARTITIONED_TABLES) {
     if (await isConverted(knex, table)) continue;
-    await knex.raw(`ALTER TABLE ?? ALGORITHM=COPY, LOCK=SHARED, PAGE_COMPRESSED=1 ${partitionClause(table, first, last)}`, [table]);
+    await knex.raw(`ALTER TABLE ?? ALGORITHM=COPY, LOCK=SHARED${compression} ${partitionClause(table, first, last)}`, [table]);
   }
 }
 
 export async function down(knex: Knex): Promise<void> {
   for (const table of PARTITIONED_TABLES) {
     if (!(await isConverted(knex, table))) continue;
-    await knex.raw(`ALTER TABLE ?? ALGORITHM=COPY, LOCK=SHARED, PAGE_COMPRESSED=0 REMOVE PARTITIONING`, [table]);
+    await knex.raw(`ALTER TABLE ?? ALGORITHM=COPY, LOCK=SHARED, PAGE_COMPRESSED=DEFAULT REMOVE PARTITIONING`, [table]);
   }
 }

@@ -179,3 +179,24 @@ export async function rowsPerChannel(db: Db, table: 'readings', name: string): P
 
 /** A month counts as closed (its rebuild may start) once its end is this far in the past: late uploads settle first. */
 export const REBUILD_GRACE_MS = 24 * 60 * 60 * 1000;
+
+/**
+ * Makes month partitions back to the month holding `fromMs` by splitting the 'before' catch-all
+ * (for history loaded from before the first month, e.g. an import of last year's files). Returns
+ * the names made. The split copies the catch-all's rows and holds off writers to the table while
+ * it runs: instant while the catch-all is empty, as long as a copy of it otherwise.
+ */
+export async function ensureMonthsFrom(db: Db, table: PartitionedTable, fromMs: number): Promise<string[]> {
+  const before = (await listPartitions(db, table)).find((p) => p.kind === 'before');
+  if (!before) return [];
+  const first = monthStartOf(fromMs);
+  if (first >= before.monthEnd) return [];
+  const made: string[] = [];
+  const defs = [`PARTITION ${BEFORE_PARTITION} VALUES LESS THAN (${first})`];
+  for (let m = first; m < before.monthEnd; m = nextMonthStart(m)) {
+    made.push(monthPartitionName(m));
+    defs.push(`PARTITION ${monthPartitionName(m)} VALUES LESS THAN (${nextMonthStart(m)})`);
+  }
+  await db.raw(`ALTER TABLE ?? REORGANIZE PARTITION ${BEFORE_PARTITION} INTO (${defs.join(', ')})`, [table]);
+  return made;
+}

@@ -108,7 +108,14 @@ export function storageRebuildsRepo(db: Db) {
 
     async update(
       monthStart: number,
-      patch: Partial<{ status: RebuildStatus; rowsCopied: number; rowsPutBack: number; stagingSpaceId: number | null; finishedAt: Date | null; lastError: string | null }>,
+      patch: Partial<{
+        status: RebuildStatus;
+        rowsCopied: number;
+        rowsPutBack: number;
+        stagingSpaceId: number | null;
+        finishedAt: Date | null;
+        lastError: string | null;
+      }>,
     ): Promise<void> {
       const row: Record<string, unknown> = {};
       if (patch.status !== undefined) row.status = patch.status;
@@ -125,15 +132,19 @@ export function storageRebuildsRepo(db: Db) {
     },
 
     /**
-     * Creates the staging table: same columns and keys as `readings`, page-compressed, not
+     * Creates the staging table: same columns, keys and compression as `readings`, not
      * partitioned (what EXCHANGE PARTITION needs). Finishes a half-made one (still partitioned).
      */
     async ensureStaging(staging: string): Promise<void> {
       if (!(await db.schema.hasTable(staging))) await db.raw(`CREATE TABLE ?? LIKE ??`, [staging, REBUILT_TABLE]);
       const parts = firstRows<{ n: number | string }>(
-        await db.raw(`SELECT COUNT(*) AS n FROM information_schema.PARTITIONS WHERE TABLE_SCHEMA = DATABASE() AND TABLE_NAME = ? AND PARTITION_NAME IS NOT NULL`, [staging]),
+        await db.raw(
+          `SELECT COUNT(*) AS n FROM information_schema.PARTITIONS WHERE TABLE_SCHEMA = DATABASE() AND TABLE_NAME = ? AND PARTITION_NAME IS NOT NULL`,
+          [staging],
+        ),
       );
-      if (Number(parts[0]?.n ?? 0) > 0) await db.raw(`ALTER TABLE ?? PAGE_COMPRESSED=1 REMOVE PARTITIONING`, [staging]);
+      // LIKE copies the columns, keys and table options (PAGE_COMPRESSED) and the partitioning, which goes.
+      if (Number(parts[0]?.n ?? 0) > 0) await db.raw(`ALTER TABLE ?? REMOVE PARTITIONING`, [staging]);
     },
 
     async dropStaging(staging: string): Promise<void> {
@@ -155,11 +166,10 @@ export function storageRebuildsRepo(db: Db) {
     async batchEnd(source: string, partition: string | null, after: ReadingKey | null, limit: number): Promise<ReadingKey | null> {
       const from = partition ? `?? PARTITION (${checkedPartition(partition)}) r` : '?? r';
       const rows = firstRows<{ t: number | string; c: number | string; ts: number | string }>(
-        await db.raw(`SELECT r.tenant_id AS t, r.channel_id AS c, r.ts FROM ${from} WHERE ${AFTER('r')} ORDER BY r.tenant_id, r.channel_id, r.ts LIMIT 1 OFFSET ?`, [
-          source,
-          ...keyBindings(after ?? START),
-          limit - 1,
-        ]),
+        await db.raw(
+          `SELECT r.tenant_id AS t, r.channel_id AS c, r.ts FROM ${from} WHERE ${AFTER('r')} ORDER BY r.tenant_id, r.channel_id, r.ts LIMIT 1 OFFSET ?`,
+          [source, ...keyBindings(after ?? START), limit - 1],
+        ),
       );
       return rows.length === 0 ? null : { tenantId: Number(rows[0].t), channelId: Number(rows[0].c), ts: Number(rows[0].ts) };
     },
@@ -217,9 +227,11 @@ export function storageRebuildsRepo(db: Db) {
 
     /** Removes up to `limit` of one lab's rows from the partition; returns how many went. */
     async removeLabRows(partition: string, labId: number, limit: number): Promise<number> {
-      const [result] = (await db.raw(`DELETE FROM ?? PARTITION (${checkedPartition(partition)}) WHERE tenant_id = ? LIMIT ?`, [REBUILT_TABLE, labId, limit])) as [
-        { affectedRows: number },
-      ];
+      const [result] = (await db.raw(`DELETE FROM ?? PARTITION (${checkedPartition(partition)}) WHERE tenant_id = ? LIMIT ?`, [
+        REBUILT_TABLE,
+        labId,
+        limit,
+      ])) as [{ affectedRows: number }];
       return Number(result.affectedRows);
     },
 

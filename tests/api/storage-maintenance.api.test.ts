@@ -1,0 +1,213 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { buildTestApp, type TestApp } from '../support/test-app.ts';
+import { buildLabWithEverything, type LabWithEverything } from '../support/lab-fixture.ts';
+import { postBatch } from '../support/posting-logger.ts';
+import { ensureMonthsFrom, listPartitions, monthPartitionName } from '../../server/db/reading-partitions.ts';
+import { stagingTableName, storageRebuildsRepo } from '../../server/db/storage-rebuilds.repo.ts';
+import { createStorageMaintenanceJob, STORAGE_LEASE } from '../../server/services/storage/storage-maintenance-job.ts';
+import { createMonthRebuild, type RebuildStep } from '../../server/services/storage/month-rebuild.ts';
+import type { LogWriter } from '../../server/log-writer.ts';
+import { createLeaseRunner } from '../../server/jobs/job-lease.ts';
+
+/**
+ * The storage maintenance job against the real MariaDB (issue #20 item 2). Readings of past
+ * months 2026 go in through the ingestion route and directly; the job runs with a simulated
+ * clock and small batches (several batches per month), and "crashes" are thrown from its
+ * `afterStep` hook. Every check compares the exact row sets of a month before and after — a
+ * rebuild must change where the rows live, never which rows there are.
+ */
+let t: TestApp;
+let url: string;
+let A: LabWithEverything;
+let B: LabWithEverything;
+const NOW = new Date(Date.UTC(2026, 11, 4, 12));
+/** A clock at which January and February 2026 are closed (a month closes a day after its end) and March is not. */
+const MID_MARCH = new Date(Date.UTC(2026, 2, 10));
+const BATCH = 700;
+const lines: Array<{ level: string; msg: string }> = [];
+const logger: LogWriter = {
+  info: (msg) => void lines.push({ level: 'info', msg }),
+  warn: (msg) => void lines.push({ level: 'warn', msg }),
+  error: (msg) => void lines.push({ level: 'error', msg }),
+};
+
+const month = (m: number) => Date.UTC(2026, m, 1);
+type Row = [number, number, number, number];
+
+/** Every row of the month in key order. */
+async function monthRows(m: number): Promise<Row[]> {
+  const rows = (await t
+    .db('readings')
+    .where('ts', '>=', month(m))
+    .where('ts', '<', month(m + 1))
+    .orderBy(['tenant_id', 'channel_id', 'ts'])
+    .select('tenant_id', 'channel_id', 'ts', 'value')) as Array<{
+    tenant_id: number;
+    channel_id: number;
+    ts: number;
+    value: number;
+  }>;
+  return rows.map((r) => [Number(r.tenant_id), Number(r.channel_id), Number(r.ts), Number(r.value)]);
+}
+
+/** `n` readings a minute apart from the month's start for one lab's channel, inserted as ingestion stores them. */
+async function fill(lab: LabWithEverything, m: number, n: number, offsetMin = 0): Promise<void> {
+  const rows = Array.from({ length: n }, (_, i) => ({
+    tenant_id: lab.lab.id,
+    channel_id: lab.ids.channelId,
+    ts: month(m) + (offsetMin + i) * 60_000,
+    value: Math.round(Math.sin(i / 50) * 1000) / 100,
+  }));
+  for (let i = 0; i < rows.length; i += 2000) await t.db('readings').insert(rows.slice(i, i + 2000));
+}
+
+/** Posts readings of month `m` through the ingestion route (must be acknowledged). */
+async function post(lab: LabWithEverything, m: number, n: number, offsetMin: number): Promise<void> {
+  const body = JSON.stringify({
+    readings: Array.from({ length: n }, (_, i) => ({ channel: 'air_t', ts: month(m) + (offsetMin + i) * 60_000, value: 20 + i / 8 })),
+  });
+  const res = await postBatch(url, lab.ingestKey, body);
+  expect(res.status, await res.clone().text()).toBe(200);
+}
+
+const spaceOf = (m: number) => storageRebuildsRepo(t.db).spaceId('readings', monthPartitionName(month(m)));
+const recordOf = (m: number) => storageRebuildsRepo(t.db).get(month(m));
+
+beforeAll(async () => {
+  t = await buildTestApp();
+  url = await t.listen();
+  A = await buildLabWithEverything(t.db, { name: 'Cold-room lab' });
+  B = await buildLabWithEverything(t.db, { name: 'Greenhouse lab' });
+  // The fresh test database was partitioned from this month on; give 2026's past months their own partitions.
+  for (const table of ['readings', 'reading_rollups'] as const) await ensureMonthsFrom(t.db, table, month(0));
+}, 60_000);
+afterAll(async () => t?.close());
+
+describe('storage maintenance', () => {
+  it('makes month partitions three months ahead on both tables, once', async () => {
+    const job = createStorageMaintenanceJob({ db: t.db, logger, holder: 'test-a', now: () => new Date(Date.UTC(2027, 4, 20)) });
+    const made = await job.ensureMonthsAhead();
+    expect(made).toEqual(expect.arrayContaining(['readings.p202708', 'reading_rollups.p202708', 'readings.p202706']));
+    expect(await job.ensureMonthsAhead()).toEqual([]);
+    for (const table of ['readings', 'reading_rollups'] as const) {
+      const parts = await listPartitions(t.db, table);
+      const months = parts.filter((p) => p.kind === 'month').map((p) => p.name);
+      expect(months[0]).toBe('p202601');
+      expect(months[months.length - 1]).toBe('p202708');
+      expect(parts[parts.length - 1].kind).toBe('future');
+      // no gap, no overlap: each partition starts where the one before ends
+      for (let i = 1; i < parts.length; i++) expect(parts[i].monthStart).toBe(parts[i - 1].monthEnd);
+    }
+  });
+
+  it('rebuilds a closed month once with every row intact; readings posted between copy and swap are kept; a lab deleted meanwhile does not come back', async () => {
+    const C = await buildLabWithEverything(t.db, { name: 'Closing lab' });
+    await fill(A, 1, 3000);
+    await fill(B, 1, 1500);
+    await fill(C, 1, 800);
+    await post(A, 1, 200, 5000);
+    const before = await monthRows(1);
+    const spaceBefore = await spaceOf(1);
+    let posted: Row[] = [];
+    const job = createStorageMaintenanceJob({
+      db: t.db,
+      logger,
+      holder: 'test-a',
+      now: () => MID_MARCH,
+      batchRows: BATCH,
+      afterStep: async (step, name) => {
+        if (step !== 'copied' || name !== 'p202602') return;
+        // during the copy: a logger posts more of February, and lab C is deleted (the deletion job removes its rows)
+        await post(B, 1, 300, 9000);
+        posted = (await monthRows(1)).filter((r) => r[0] === B.lab.id && r[2] >= month(1) + 9000 * 60_000);
+        await t.db('labs').where({ id: C.lab.id }).update({ deleted_at: new Date() });
+        await t.db('readings').where({ tenant_id: C.lab.id }).delete();
+      },
+    });
+    const summary = await job.runOnce();
+    expect(summary.stopped).toBeNull();
+    expect(summary.rebuilt).toEqual(['p202601', 'p202602']);
+    expect(posted).toHaveLength(300);
+    const after = await monthRows(1);
+    const expected = [...before.filter((r) => r[0] !== C.lab.id), ...posted].sort((x, y) => x[0] - y[0] || x[1] - y[1] || x[2] - y[2]);
+    expect(after).toEqual(expected);
+    expect(after.some((r) => r[0] === C.lab.id)).toBe(false);
+    // the month now lives in a different tablespace (the copy), and the staging table is gone
+    expect(await spaceOf(1)).not.toBe(spaceBefore);
+    expect(await t.db.schema.hasTable(stagingTableName('p202602'))).toBe(false);
+    const record = await recordOf(1);
+    expect(record).toMatchObject({ status: 'done', rowsCopied: 3000 + 200 + 1500 + 800, lastError: null });
+    expect(record!.rowsPutBack).toBe(300);
+
+    // a second run leaves a month already done alone
+    const space = await spaceOf(1);
+    const again = await job.runOnce();
+    expect(again).toEqual({ monthsMade: [], rebuilt: [], stopped: null });
+    expect(await spaceOf(1)).toBe(space);
+    expect(await monthRows(1)).toEqual(expected);
+    // ingestion into the rebuilt month still works
+    await post(A, 1, 10, 20_000);
+    expect((await monthRows(1)).length).toBe(expected.length + 10);
+
+    const progress = await job.progress();
+    expect(progress.rebuilds.find((r) => r.partitionName === 'p202602')?.status).toBe('done');
+    expect(progress.pending).toEqual([]);
+  });
+
+  const steps: RebuildStep[] = ['copy-batch', 'copied', 'exchanged', 'put-back-batch', 'put-back'];
+  it.each(steps.map((s, i) => [s, i + 2] as const))('a crash after step %s resumes and ends with every row in readings (month %i of 2026)', async (step, m) => {
+    await fill(A, m, 2500);
+    await fill(B, m, 900);
+    const before = await monthRows(m);
+    const spaceBefore = await spaceOf(m);
+    const name = monthPartitionName(month(m));
+    let arrived: Row[] = [];
+    let crashed = false;
+    const crashing = createMonthRebuild({
+      db: t.db,
+      logger,
+      now: () => NOW,
+      batchRows: BATCH,
+      afterStep: async (s, p) => {
+        if (p !== name) return;
+        if (s === 'copied') {
+          await post(A, m, 50, 30_000);
+          arrived = (await monthRows(m)).filter((r) => r[2] >= month(m) + 30_000 * 60_000);
+        }
+        if (s === step && !crashed) {
+          crashed = true;
+          throw new Error(`simulated crash after ${s}`);
+        }
+      },
+    });
+    await expect(crashing.rebuild(name)).rejects.toThrow('simulated crash');
+    expect((await recordOf(m))?.lastError).toContain('simulated crash');
+    // every row is in readings, or (only between swap and put-back) in the old partition kept aside
+    const visible = await monthRows(m);
+    const aside =
+      (await t.db.schema.hasTable(stagingTableName(name))) && step !== 'copy-batch' && step !== 'copied'
+        ? await t.db(stagingTableName(name)).count({ n: '*' })
+        : [{ n: 0 }];
+    expect(visible.length + Number(aside[0].n)).toBeGreaterThanOrEqual(before.length);
+
+    const resumed = createMonthRebuild({ db: t.db, logger, now: () => NOW, batchRows: BATCH });
+    expect(await resumed.rebuild(name)).toBe('rebuilt');
+    const expected = [...before, ...arrived].sort((x, y) => x[0] - y[0] || x[1] - y[1] || x[2] - y[2]);
+    if (step === 'copy-batch') expect(arrived).toEqual([]); // crashed before the posting point
+    expect(await monthRows(m)).toEqual(expected);
+    expect(await recordOf(m)).toMatchObject({ status: 'done', lastError: null });
+    expect(await t.db.schema.hasTable(stagingTableName(name))).toBe(false);
+    expect(await resumed.rebuild(name)).toBe('already-done');
+    // the copy is what stays in place (a resume that missed the swap would have swapped the old partition back)
+    expect(await spaceOf(m)).not.toBe(spaceBefore);
+  });
+
+  it('a lease held by another server: the run skips quietly and changes nothing', async () => {
+    const other = createStorageMaintenanceJob({ db: t.db, logger, holder: 'server-two', now: () => NOW });
+    let inner: Awaited<ReturnType<typeof other.runOnce>> | null = null;
+    await createLeaseRunner({ db: t.db, holder: 'server-one', now: () => NOW }).run(STORAGE_LEASE, 60_000, async () => {
+      inner = await other.runOnce();
+    });
+    expect(inner).toEqual({ rebuilt: [], monthsMade: [], stopped: 'lease held by server-one' });
+  });
+});
