@@ -1,21 +1,30 @@
 /**
  * The background rebuild of closed months, as `npm run bench:storage` runs it on the "new"
- * schema: the storage maintenance job (server/services/storage/storage-maintenance-job.ts) is
- * loaded when the tree has it, so the benchmark runs on whatever is committed; without it the
- * phase is skipped with a note.
+ * schema: the storage maintenance job's `rebuildClosedMonths`
+ * (server/services/storage/storage-maintenance-job.ts) at a simulated time after the data's last
+ * month closed, so every month of the run is copied into a freshly packed, compressed partition
+ * and swapped in as the running server would do it month by month.
  */
-import { existsSync } from 'node:fs';
-import { join } from 'node:path';
-import type { NewSchema } from './storage-new-schema.ts';
-
-const JOB_FILE = join(import.meta.dirname, '..', '..', '..', 'server', 'services', 'storage', 'storage-maintenance-job.ts');
+import { createStorageMaintenanceJob } from '../../../server/services/storage/storage-maintenance-job.ts';
+import { benchLog, type NewSchema } from './storage-new-schema.ts';
 
 export type RebuildOutcome = { ran: true; detail: string } | { ran: false; note: string };
 
 /** Rebuilds every closed month of the new schema with the maintenance job, at the simulated time `nowMs`. */
 export async function rebuildClosedMonths(schema: NewSchema, nowMs: number): Promise<RebuildOutcome> {
-  if (!existsSync(JOB_FILE)) return { ran: false, note: 'server/services/storage/storage-maintenance-job.ts is not in this tree yet' };
   if (!schema.partitioned) return { ran: false, note: 'readings is not partitioned in this tree' };
   schema.setNow(nowMs);
-  return { ran: false, note: 'the maintenance job is in the tree but the benchmark does not call it yet' };
+  const job = createStorageMaintenanceJob({
+    db: schema.db,
+    logger: benchLog,
+    holder: 'storage-bench',
+    now: () => new Date(schema.now()),
+    afterStep: (step, name) => {
+      if (step === 'put-back') console.log(`  rebuilt readings ${name}`);
+    },
+  });
+  const { rebuilt, stopped } = await job.rebuildClosedMonths();
+  if (stopped) throw new Error(`the rebuild stopped: ${stopped}`);
+  if (rebuilt.length === 0) return { ran: false, note: 'no closed month to rebuild (use more --days)' };
+  return { ran: true, detail: `${rebuilt.length} month(s) of readings rebuilt (${rebuilt[0]} … ${rebuilt[rebuilt.length - 1]})` };
 }
