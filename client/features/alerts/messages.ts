@@ -34,3 +34,12 @@ export function durationWords(seconds: number): string {
     .map(([n, unit]) => count(n, unit))
     .join(' ');
 }
+
+/** A rule that judges its channel's readings: "Watching — last judged …". */
+export const RULE_WATCHING = 'Watching';
+/** A rule that cannot judge its channel: "Not watching since … — <reason>". */
+export const RULE_NOT_WATCHING = 'Not watching';
+/** Said in place of a time when a watching rule has judged nothing yet. */
+export const RULE_NOTHING_JUDGED = 'no reading judged yet';
+/** What a blind rule means for the lab, beneath its reason. */
+export const RULE_BLIND_MEANS = 'Until it watches again, this rule raises no alert; its subscribers are mailed once it has been blind for its reminder delay.';

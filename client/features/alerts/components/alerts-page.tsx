@@ -22,8 +22,8 @@ export function AlertsPage({
   targets: RuleTarget[];
   channelHref: (a: Alert) => string | null;
   can: { manage: boolean; subscribe: boolean };
-  /** The IANA zone of an alert's logger (its times show on that clock by default). */
-  zoneOf?: (a: Alert) => string | null | undefined;
+  /** The IANA zone of an alert's (or a rule's) logger (its times show on that clock by default). */
+  zoneOf?: (a: Pick<Alert, 'loggerId'>) => string | null | undefined;
 }) {
   const alerts = useAlerts(slug);
   const rules = useAlertRules(slug);
@@ -62,7 +62,15 @@ export function AlertsPage({
         </h3>
         {rules.isPending && <LoadingNote what="Loading rules…" />}
         {rules.isError && <Notice tone="alert">{rules.error.message}</Notice>}
-        {rules.data && <AlertRulesList slug={slug} rules={rules.data.rules} canManage={can.manage} canSubscribe={can.subscribe} />}
+        {rules.data && (
+          <AlertRulesList
+            slug={slug}
+            rules={rules.data.rules}
+            canManage={can.manage}
+            canSubscribe={can.subscribe}
+            zoneOf={(r) => zoneOf?.({ loggerId: r.watched.loggerId })}
+          />
+        )}
       </section>
       {can.manage && <AlertRuleForm slug={slug} targets={targets} />}
     </div>
