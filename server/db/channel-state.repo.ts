@@ -79,7 +79,8 @@ export function channelStateRepo(scope: LabScope) {
      * taken from the stored reading (a conflicting newcomer never replaced it), the data version
      * goes up by one and `stored_readings` by `added` — one statement for the whole batch, in
      * the batch's transaction, so the counter is exactly the channel's row count whenever the
-     * batch commits. The readings row is LEFT-joined: should the latest reading be missing (it
+     * batch commits. The channels are named by id as well, so the statement reads only the
+     * batch's channel rows whichever join order the optimizer picks. The readings row is LEFT-joined: should the latest reading be missing (it
      * cannot be, short of a concurrent delete), the counter and version still move and the last
      * reading stays. The SET expressions give the same result in either evaluation order
      * (r.ts ≥ GREATEST(old, r.ts) exactly when r.ts ≥ old), which matters because MariaDB does
@@ -96,8 +97,8 @@ export function channelStateRepo(scope: LabScope) {
              c.last_reading_ts = IF(r.ts IS NULL, c.last_reading_ts, GREATEST(COALESCE(c.last_reading_ts, r.ts), r.ts)),
              c.data_version = c.data_version + 1,
              c.stored_readings = c.stored_readings + b.added
-         WHERE c.tenant_id = :lab`,
-        latest.flatMap((l) => [l.channelId, l.ts, l.added ?? 0]),
+         WHERE c.tenant_id = :lab AND c.id IN (${latest.map(() => '?').join(', ')})`,
+        [...latest.flatMap((l) => [l.channelId, l.ts, l.added ?? 0]), ...latest.map((l) => l.channelId)],
       );
     },
 

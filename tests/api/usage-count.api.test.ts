@@ -11,6 +11,7 @@ import { createLeaseRunner, LeaseLostError, type HeldLease } from '../../server/
 import { createLogWriter } from '../../server/log-writer.ts';
 import { createMailer } from '../../server/integrations/mail/create-mailer.ts';
 import { loadPlanCatalog } from '../../server/services/billing/plan-catalog.ts';
+import * as backfill from '../../migrations/20261204110010_backfill-channel-stored-readings.ts';
 
 /**
  * Usage counted without scanning (issue #20 item 4): each channel's `stored_readings` counter
@@ -187,6 +188,60 @@ function tablesIn(plan: unknown): Array<{ table_name: string; key?: string; acce
   walk(plan);
   return found;
 }
+
+describe('the backfill and the counting statement', () => {
+  it('the backfill migration recounts every channel from readings, and running it again changes nothing', async () => {
+    const { f } = await twoChannelLab();
+    await post(f, [...Array.from({ length: 9 }, (_, i) => ({ channel: 'rh', ts: T0 + i * MIN, value: i })), { channel: 'air_t', ts: T0, value: 2 }]).expect(
+      200,
+    );
+    // as on a database migrated from before the counter: every channel at the column's default
+    await t.db('channels').where('tenant_id', f.lab.id).update({ stored_readings: 0 });
+    expect((await counters(f)).labCount).toBe(0);
+    await backfill.up(t.db);
+    await expectExact(f, 10);
+    await backfill.up(t.db);
+    await expectExact(f, 10);
+  });
+
+  it("the statement that advances a batch's channels reads each channel and its latest reading by primary key", async () => {
+    const { f } = await twoChannelLab();
+    // many more channels in the lab than in the batch: only the batch's two may be read
+    await t
+      .db('channels')
+      .insert(
+        Array.from({ length: 60 }, (_, i) => ({
+          tenant_id: f.lab.id,
+          id: f.ids.channelId + 2 + i,
+          logger_id: f.ids.loggerId,
+          channel_key: `x${i}`,
+          label: `X ${i}`,
+        })),
+      );
+    await t.db.raw('ANALYZE TABLE channels');
+    const sent: Array<{ sql: string; bindings: unknown[] }> = [];
+    const listen = (q: { sql: string; bindings: unknown[] }) => sent.push(q);
+    t.db.on('query', listen);
+    try {
+      await post(f, [
+        { channel: 'air_t', ts: T0, value: 1 },
+        { channel: 'rh', ts: T0, value: 2 },
+      ]).expect(200);
+    } finally {
+      t.db.removeListener('query', listen);
+    }
+    const advance = sent.filter((q) => /^UPDATE channels c\s/.test(q.sql.trim()));
+    expect(advance).toHaveLength(1);
+    const [[row]] = (await t.db.raw(`EXPLAIN FORMAT=JSON ${advance[0].sql}`, advance[0].bindings as never)) as unknown as [[{ EXPLAIN: string }]];
+    const tables = tablesIn(JSON.parse(row.EXPLAIN));
+    const byName = Object.fromEntries(tables.filter((x) => !x.table_name.startsWith('<')).map((x) => [x.table_name, x]));
+    expect(Object.keys(byName).sort()).toEqual(['c', 'r']);
+    expect(byName.c.key).toBe('PRIMARY');
+    expect(['eq_ref', 'range']).toContain(byName.c.access_type);
+    expect(byName.c.rows).toBeLessThanOrEqual(2);
+    expect(byName.r).toMatchObject({ access_type: 'eq_ref', key: 'PRIMARY' });
+  });
+});
 
 describe('the lab count is a keyed read of its channel rows', () => {
   it('ANALYZE of the query storedReadings() sends reads at most one row per channel of the lab', async () => {
