@@ -9,6 +9,7 @@ import { InvoicesTable } from './invoices-table.tsx';
 import { PlanChoices } from './plan-choices.tsx';
 import { UsageBar } from './usage-bar.tsx';
 import { UsageSparkline } from './usage-sparkline.tsx';
+import { RetentionPanel } from './retention-panel.tsx';
 import { BILLING_NOTICES, PLAN_STATE_WORDS, planConfirmed } from '../messages.ts';
 
 /** How the page was reached: straight, or back from Stripe Checkout (`?checkout=complete|cancelled`). */
@@ -100,6 +101,7 @@ export function BillingPage({ slug, returned }: { slug: string; returned: Checko
               Browsing and analysis reach back to <Instant at={data.historyStartsAt} kind="account" part="date" /> ({data.limits.historyDays} days). Older
               readings stay stored and come back with a longer plan.
             </p>
+            <RetentionPanel slug={slug} />
             <UsageSparkline points={data.trend} limit={data.limits.readings} />
           </section>
           <PlanChoices slug={slug} overview={data} />
