@@ -12,6 +12,12 @@ export interface CrossingChanceOptions {
   side: 'above' | 'below';
   /** Horizon in steps (1…10,000): the chance of crossing at any of the next `steps` steps. */
   steps: number;
+  /**
+   * When set, the series is the changes (first differences) of a level that stands at this value
+   * now, and the limit applies to the level: each path's level is this value plus the sum of its
+   * simulated changes (an ARIMA(p, 1, q) model of the level).
+   */
+  integrateFrom?: number;
   /** Simulated paths (default 4,000; 500…200,000). */
   draws?: number;
   /** Seed of the simulation (default 1), so the same inputs give the same answer. */
@@ -77,7 +83,9 @@ function limitPerStep(fn: string, limit: number | ArrayLike<number>, steps: numb
  * ({@link armaFilteredState}; P is kept in units of σ²), each later state as T s + R σ ε with
  * ε ~ N(0, 1), and a path's value is μ + (first state element). The parameters are taken as
  * known, as in the forecast intervals. The limit may differ by step (a seasonal part continued
- * and taken off a fixed limit, so the chance is computed on the remainder).
+ * and taken off a fixed limit, so the chance is computed on the remainder); with `integrateFrom`
+ * the model describes the changes of a level and the limit applies to the level (ARIMA(p, 1, q);
+ * Box, Jenkins, Reinsel & Ljung, *Time Series Analysis*, 5th ed., 2015, §4.1).
  * The estimate's Monte Carlo standard error is returned with it; the default 4,000 paths give at
  * most ±0.008. Seeded, so repeatable.
  *
@@ -95,6 +103,9 @@ export function armaCrossingChance(x: Series, model: ArmaModel, options: Crossin
   if (!(Number.isInteger(draws) && draws >= 500 && draws <= 200_000))
     throw new AnalysisInputError(`${fn}: draws must be a whole number from 500 to 200000 (got ${draws})`);
   const limits = limitPerStep(fn, options.limit, steps);
+  const integrateFrom = options.integrateFrom;
+  if (integrateFrom !== undefined && !Number.isFinite(integrateFrom))
+    throw new AnalysisInputError(`${fn}: integrateFrom must be a finite number (got ${integrateFrom})`);
   const state = armaFilteredState(x, model, fn);
   const { r, phi, loading } = state;
   state.advance();
@@ -113,13 +124,14 @@ export function armaCrossingChance(x: Series, model: ArmaModel, options: Crossin
       for (let k = 0; k <= i; k++) v += factor[i * r + k] * z[k];
       s[i] = start[i] + sigma * v;
     }
+    let level = integrateFrom ?? 0;
     for (let k = 1; k <= steps; k++) {
       if (k > 1) {
         const e = sigma * normal();
         const s0 = s[0];
         for (let i = 0; i < r; i++) s[i] = phi[i] * s0 + (i + 1 < r ? s[i + 1] : 0) + loading[i] * e;
       }
-      const value = model.mean + s[0];
+      const value = integrateFrom === undefined ? model.mean + s[0] : (level += model.mean + s[0]);
       if (sign * (value - limits[k - 1]) > 0) {
         firstSteps.push(k);
         break;
