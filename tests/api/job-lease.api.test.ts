@@ -126,6 +126,19 @@ describe('job lease', () => {
     expect(outcome.value.taken).toEqual({ ran: true, value: outcome.value.fencing + 1 });
   });
 
+  it('renewing on a clock that has not moved (same expiry written again) keeps the lease', async () => {
+    const name = leaseName();
+    const clock = simulatedClock();
+    const a = createLeaseRunner({ db: serverA, holder: 'server-a', now: clock.now });
+    const outcome = await a.run(name, TTL, async (lease) => {
+      await lease.renew();
+      await lease.renew();
+      await lease.assertHeld();
+      return 'renewed';
+    });
+    expect(outcome).toEqual({ ran: true, value: 'renewed' });
+  });
+
   it('release lets the other holder take the lease at once, and each change of holder raises the fencing number', async () => {
     const name = leaseName();
     const clock = simulatedClock();

@@ -157,13 +157,13 @@ describe('channels.stored_readings equals COUNT(*) of readings', () => {
     await expectExact(f, 599);
 
     // fix the unreadable humidity value and re-submit it (and the fixture's own quarantined row)
-    const bad = await t.db('quarantined_rows').where({ tenant_id: f.lab.id, source: 'upload', value_raw: 'oops' }).first();
+    const bad = await t.db('quarantined_rows').where({ tenant_id: f.lab.id, source: 'upload' }).first(); // the only upload row quarantined
     const resubmit = await request(t.app)
       .post(`/api/v1/labs/${f.lab.slug}/quarantine/resubmit`)
       .set('Cookie', cookie)
       .send({
         rows: [
-          { id: Number(bad.id), channel: 'rh', ts: bad.ts_raw, value: 41 },
+          { id: Number(bad.id), channel: 'rh', ts: new Date(T0 + 5 * MIN).toISOString(), value: 41 },
           { id: f.ids.quarantinedId, channel: 'air_t', ts: '2026-01-01T00:00:00Z', value: 3.5 },
         ],
       })
@@ -207,17 +207,15 @@ describe('the backfill and the counting statement', () => {
   it("the statement that advances a batch's channels reads each channel and its latest reading by primary key", async () => {
     const { f } = await twoChannelLab();
     // many more channels in the lab than in the batch: only the batch's two may be read
-    await t
-      .db('channels')
-      .insert(
-        Array.from({ length: 60 }, (_, i) => ({
-          tenant_id: f.lab.id,
-          id: f.ids.channelId + 2 + i,
-          logger_id: f.ids.loggerId,
-          channel_key: `x${i}`,
-          label: `X ${i}`,
-        })),
-      );
+    await t.db('channels').insert(
+      Array.from({ length: 60 }, (_, i) => ({
+        tenant_id: f.lab.id,
+        id: f.ids.channelId + 2 + i,
+        logger_id: f.ids.loggerId,
+        channel_key: `x${i}`,
+        label: `X ${i}`,
+      })),
+    );
     await t.db.raw('ANALYZE TABLE channels');
     const sent: Array<{ sql: string; bindings: unknown[] }> = [];
     const listen = (q: { sql: string; bindings: unknown[] }) => sent.push(q);

@@ -62,8 +62,9 @@ export async function storeNew(scope: LabScope, sorted: SortedCandidates, rows: 
   let accepted = await insertRange(readings, columns, 0, columns.length);
   if (accepted === columns.length) return { accepted, duplicates: 0, conflicts, addedPerRun: runs.map((r) => r.to - r.from) };
 
-  let addedPerRun = [accepted];
-  if (severalRuns) {
+  // nothing new (a batch sent again whole): every run added nothing, no need to insert again
+  let addedPerRun = accepted === 0 ? runs.map(() => 0) : [accepted];
+  if (severalRuns && accepted > 0) {
     await rollbackToSavepoint(scope.db, BEFORE_INSERT);
     addedPerRun = [];
     for (const run of runs) addedPerRun.push(await insertRange(readings, columns, run.from, run.to));
