@@ -7,7 +7,7 @@ import { InvalidAlertRuleError, parseRuleInput } from './alert-errors.ts';
 // invalid input like any other (400 invalid_input), while a rule that cannot work stays 422.
 describe('parseRuleInput', () => {
   it('answers the parsed value, defaults filled in', () => {
-    expect(parseRuleInput(boundsParamsSchema, { high: 8 }, 'params')).toEqual({ low: null, high: 8, holdS: 0 });
+    expect(parseRuleInput(boundsParamsSchema, { high: 8 }, 'params')).toEqual({ low: null, high: 8, holdS: 0, earlyWarning: null });
   });
 
   it('refuses with 400 invalid_input, every field named by its label and kept by key under the prefix', () => {
