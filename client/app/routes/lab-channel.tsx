@@ -99,7 +99,13 @@ export default function LabChannelRoute() {
         }
       />
       {can('alerts.read') && channelAlerts.data && (
-        <ChannelAlertsPanel slug={slug} alerts={channelAlerts.data.alerts} canAcknowledge={can('alerts.manage')} loggerZone={c.logger.timezone} />
+        <ChannelAlertsPanel
+          slug={slug}
+          channelId={c.id}
+          alerts={channelAlerts.data.alerts}
+          canAcknowledge={can('alerts.manage')}
+          loggerZone={c.logger.timezone}
+        />
       )}
       {can('diagnostics.read') && (
         <>
