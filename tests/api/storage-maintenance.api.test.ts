@@ -7,6 +7,10 @@ import { stagingTableName, storageRebuildsRepo } from '../../server/db/storage-r
 import { createStorageMaintenanceJob, STORAGE_LEASE } from '../../server/services/storage/storage-maintenance-job.ts';
 import { createMonthRebuild, type RebuildStep } from '../../server/services/storage/month-rebuild.ts';
 import type { LogWriter } from '../../server/log-writer.ts';
+import { createDb, type Db } from '../../server/db/create-db.ts';
+import { LagbookMigrationSource, migrationsDirectory } from '../../server/db/migration-source.ts';
+import { buildLab, type TestLab } from '../support/factories.ts';
+import { startPrivateMariaDb, type PrivateMariaDb } from '../support/private-mariadb.ts';
 import { createLeaseRunner } from '../../server/jobs/job-lease.ts';
 
 /**
@@ -210,4 +214,86 @@ describe('storage maintenance', () => {
     });
     expect(inner).toEqual({ rebuilt: [], monthsMade: [], stopped: 'lease held by server-one' });
   });
+});
+
+/**
+ * A rebuild that runs out of room. As in tests/api/disk-full.api.test.ts, a private MariaDB keeps
+ * every table in a capped system tablespace (`--innodb-file-per-table=0`, at most 56 MB), so
+ * InnoDB answers "the table is full" (ER_RECORD_FILE_FULL) as it does when the disk fills. A month
+ * of 450,000 readings fits once but not twice: the copy must stop with one clear log line, the
+ * month's readings stay as they were, the half-made copy goes (its room back to ingestion), and
+ * readings can still be stored.
+ */
+describe('storage maintenance on a full database', () => {
+  let server: PrivateMariaDb;
+  let full: Db;
+  let lab: TestLab;
+  const CHANNEL = 7;
+  const FEB = Date.UTC(2026, 1, 1);
+  const ROWS = 450_000;
+  const countFeb = async () => Number(((await full.raw('SELECT COUNT(*) AS n FROM readings PARTITION (p202602)')) as [Array<{ n: number }>])[0][0].n);
+
+  beforeAll(async () => {
+    server = await startPrivateMariaDb('lagbook_rebuild_full', {
+      serverArgs: ['--innodb-file-per-table=0', '--innodb-data-file-path=ibdata1:12M:autoextend:max:56M'],
+    });
+    full = createDb(server.dbConfig);
+    // The schema up to this job's own table is all the test needs (later migrations are other work).
+    const source = new LagbookMigrationSource(migrationsDirectory());
+    for (const file of await source.getMigrations()) {
+      const name = source.getMigrationName(file);
+      if (name <= '20261204110210_create-storage-rebuilds') await full.migrate.up({ migrationSource: source, tableName: 'knex_migrations', name });
+    }
+    lab = await buildLab(full, { name: 'Crowded lab' });
+    await ensureMonthsFrom(full, 'readings', Date.UTC(2026, 0, 1));
+    // 450,000 readings a second apart in February, in 50,000-row statements (small undo in the capped tablespace)
+    for (let i = 0; i < ROWS; i += 50_000) {
+      await full.raw(
+        `SET STATEMENT max_recursive_iterations = 100000 FOR INSERT INTO readings (tenant_id, channel_id, ts, value)
+         WITH RECURSIVE n(i) AS (SELECT ? UNION ALL SELECT i + 1 FROM n WHERE i < ?) SELECT ?, ?, ? + i * 1000, i / 7 FROM n`,
+        [i, i + 49_999, lab.id, CHANNEL, FEB],
+      );
+    }
+  }, 180_000);
+
+  afterAll(async () => {
+    await full?.destroy();
+    await server?.destroy();
+  }, 30_000);
+
+  it('stops the rebuild with one clear log line, keeps every reading, drops the half-made copy, and ingestion goes on', async () => {
+    expect(await countFeb()).toBe(ROWS);
+    const sumBefore = await full.raw('SELECT SUM(ts) AS s, SUM(value) AS v FROM readings PARTITION (p202602)');
+    lines.length = 0;
+    const job = createStorageMaintenanceJob({ db: full, logger, holder: 'full-test', now: () => MID_MARCH });
+    const summary = await job.runOnce();
+    expect(summary.stopped).toBe('no room left');
+    expect(summary.rebuilt).not.toContain('p202602');
+    const errors = lines.filter((l) => l.level === 'error');
+    expect(errors).toHaveLength(1);
+    expect(errors[0].msg).toContain('rebuild of readings p202602 stopped — the database has no room left');
+    expect(errors[0].msg).toContain('readings are intact and ingestion goes on');
+    expect(await countFeb()).toBe(ROWS);
+    expect(await full.raw('SELECT SUM(ts) AS s, SUM(value) AS v FROM readings PARTITION (p202602)')).toEqual(sumBefore);
+    expect(await full.schema.hasTable(stagingTableName('p202602'))).toBe(false);
+    expect(await storageRebuildsRepo(full).get(FEB)).toMatchObject({ status: 'copying', lastError: 'the database has no room left' });
+
+    // ingestion stores again (InnoDB hands the dropped copy's pages back in the background: retry as a logger would)
+    const rows = Array.from({ length: 500 }, (_, i) => ({
+      tenant_id: lab.id,
+      channel_id: CHANNEL,
+      ts: Date.UTC(2026, 2, 1) + i * 1000,
+      value: i,
+    }));
+    let stored = false;
+    for (let attempt = 0; attempt < 60 && !stored; attempt++) {
+      try {
+        await full('readings').insert(rows);
+        stored = true;
+      } catch {
+        await new Promise((r) => setTimeout(r, 500));
+      }
+    }
+    expect(stored).toBe(true);
+  }, 120_000);
 });
