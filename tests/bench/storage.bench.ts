@@ -75,23 +75,48 @@ async function medianMs(fn: () => Promise<unknown>, runs: number): Promise<numbe
   return median(times);
 }
 
-/** Wall seconds and mariadbd CPU seconds of `fn`, dirty pages flushed before the clock stops (compression is paid when pages are written). */
-async function phase<T>(srv: StorageServer, fn: () => Promise<T>): Promise<{ value: T; wallS: number; dbCpuS: number; benchCpuS: number }> {
+/**
+ * Wall seconds of `fn`, then mariadbd's CPU seconds for it including the writing of the pages it
+ * dirtied (page compression is paid when a page is written to its file, so the phase ends only
+ * when the buffer pool holds no dirty page; that wait is `flushS`, apart from the wall time).
+ */
+async function phase<T>(srv: StorageServer, fn: () => Promise<T>): Promise<{ value: T; wallS: number; flushS: number; dbCpuS: number; benchCpuS: number }> {
   await srv.flushDirtyPages();
   const cpu0 = srv.cpuSeconds();
   const bench0 = process.cpuUsage();
   const t0 = performance.now();
   const value = await fn();
-  await srv.flushDirtyPages();
+  const t1 = performance.now();
   const bench = process.cpuUsage(bench0);
-  return { value, wallS: (performance.now() - t0) / 1000, dbCpuS: srv.cpuSeconds() - cpu0, benchCpuS: (bench.user + bench.system) / 1e6 };
+  await srv.flushDirtyPages();
+  return {
+    value,
+    wallS: (t1 - t0) / 1000,
+    flushS: (performance.now() - t1) / 1000,
+    dbCpuS: srv.cpuSeconds() - cpu0,
+    benchCpuS: (bench.user + bench.system) / 1e6,
+  };
+}
+
+/**
+ * Repacks both tables of `database` with `ALTER TABLE … FORCE, ALGORITHM=INPLACE, LOCK=NONE` (an
+ * online sorted rebuild of every partition, the method the issue measured 13.7 B/reading with), as
+ * a reference for what the maintenance job's month rebuild could reach.
+ */
+async function forceRebuild(srv: StorageServer, database: string): Promise<{ wallS: number; flushS: number; dbCpuS: number; after: StorageCost }> {
+  const force = await phase(srv, async () => {
+    for (const table of ['readings', 'reading_rollups'])
+      await srv.server.asRoot(`ALTER TABLE \`${database}\`.\`${table}\` FORCE, ALGORITHM=INPLACE, LOCK=NONE`);
+  });
+  return { wallS: force.wallS, flushS: force.flushS, dbCpuS: force.dbCpuS, after: await measureStorage(srv, database) };
 }
 
 interface SchemaFigures {
   readings: number;
-  load: { wallS: number; dbCpuS: number; benchCpuS: number };
+  load: { wallS: number; flushS: number; dbCpuS: number; benchCpuS: number };
   afterLoad: StorageCost;
-  rebuild?: { outcome: RebuildOutcome; wallS: number; dbCpuS: number; after: StorageCost };
+  rebuild?: { outcome: RebuildOutcome; wallS: number; flushS: number; dbCpuS: number; after: StorageCost };
+  forced?: { wallS: number; flushS: number; dbCpuS: number; after: StorageCost };
   rawReadMs: number;
   rawReadRows: number;
   seriesMs: number;
@@ -170,7 +195,13 @@ async function runNew(srv: StorageServer, args: Args, database: string, withRead
     // the job rebuilds months that closed more than a day ago
     const rebuildAt = lastReadingMs + 2 * DAY_MS + 60_000;
     const rebuildPhase = await phase(srv, () => rebuildClosedMonths(fresh, rebuildAt));
-    const rebuild = { outcome: rebuildPhase.value, wallS: rebuildPhase.wallS, dbCpuS: rebuildPhase.dbCpuS, after: await measureStorage(srv, database) };
+    const rebuild = {
+      outcome: rebuildPhase.value,
+      wallS: rebuildPhase.wallS,
+      flushS: rebuildPhase.flushS,
+      dbCpuS: rebuildPhase.dbCpuS,
+      after: await measureStorage(srv, database),
+    };
     const figures: SchemaFigures = {
       readings: load.value,
       load,
@@ -190,6 +221,7 @@ async function runNew(srv: StorageServer, args: Args, database: string, withRead
     figures.rawReadMs = await medianMs(async () => (figures.rawReadRows = await fresh.rawRange(channelId, from, to)), 3);
     figures.seriesMs = await medianMs(async () => (figures.seriesPoints = await fresh.series(channelId, from, to, 2000)), 5);
     figures.usageMs = await medianMs(async () => (figures.usageCount = await fresh.storedReadings()), 5);
+    figures.forced = await forceRebuild(srv, database);
     if (fresh.partitioned) {
       const name = monthPartitionName(args.startMs);
       const rows = (await listPartitions(fresh.db, 'readings')).find((p) => p.name === name)?.approxRows ?? 0;
@@ -250,9 +282,9 @@ function sizeCells(cost: StorageCost, readings: number): Record<string, string> 
 
 function loadCells(f: SchemaFigures): Record<string, string> {
   return {
-    'load: wall time': `${f.load.wallS.toFixed(1)} s (${Math.round(f.readings / f.load.wallS).toLocaleString('en')} readings/s)`,
+    'load: wall time (then writing dirty pages)': `${f.load.wallS.toFixed(1)} s (${Math.round(f.readings / f.load.wallS).toLocaleString('en')} readings/s), ${f.load.flushS.toFixed(1)} s`,
     'load: MariaDB CPU s per 10⁶ readings': perMillion(f.load.dbCpuS, f.readings),
-    'load: benchmark process CPU s per 10⁶': perMillion(f.load.benchCpuS, f.readings),
+    'load: Node CPU s per 10⁶ (today: the loader; new: ingestBatch)': perMillion(f.load.benchCpuS, f.readings),
   };
 }
 
@@ -273,7 +305,7 @@ function rebuildCells(f: SchemaFigures): Record<string, string> {
   if (!r.outcome.ran) return { rebuild: `not run: ${r.outcome.note}` };
   return {
     rebuild: r.outcome.detail,
-    'rebuild: wall time': `${r.wallS.toFixed(1)} s`,
+    'rebuild: wall time (then writing dirty pages)': `${r.wallS.toFixed(1)} s, ${r.flushS.toFixed(1)} s`,
     'rebuild: MariaDB CPU s per 10⁶ readings': perMillion(r.dbCpuS, f.readings),
   };
 }
@@ -302,6 +334,18 @@ async function compareSchemas(args: Args): Promise<void> {
           ? { ...sizeCells(fresh.rebuild.after, fresh.readings), ...rebuildCells(fresh), ...readCells(fresh) }
           : { ...rebuildCells(fresh), ...readCells(fresh) },
       },
+      ...(fresh.forced
+        ? [
+            {
+              title: 'new, then ALTER … FORCE (reference)',
+              cells: {
+                ...sizeCells(fresh.forced.after, fresh.readings),
+                'ALTER … FORCE: wall time (then writing dirty pages)': `${fresh.forced.wallS.toFixed(1)} s, ${fresh.forced.flushS.toFixed(1)} s`,
+                'ALTER … FORCE: MariaDB CPU s per 10⁶ readings': perMillion(fresh.forced.dbCpuS, fresh.readings),
+              },
+            },
+          ]
+        : []),
     ]);
     console.log('');
     const total = perReading(newAfter.readings.files.allocated + newAfter.reading_rollups.files.allocated, fresh.readings);
@@ -343,13 +387,7 @@ async function compareCompression(args: Args): Promise<void> {
     const srv = await startStorageServer(DATABASE, algorithm);
     try {
       const f = await runNew(srv, args, DATABASE, false);
-      // The same repacking the issue measured, whatever the maintenance job does: every page
-      // rewritten full and compressed once more (online, ALGORITHM=INPLACE, LOCK=NONE).
-      const force = await phase(srv, async () => {
-        for (const table of ['readings', 'reading_rollups'])
-          await srv.server.asRoot(`ALTER TABLE \`${DATABASE}\`.\`${table}\` FORCE, ALGORITHM=INPLACE, LOCK=NONE`);
-      });
-      const forced = await measureStorage(srv, DATABASE);
+      const forced = await forceRebuild(srv, DATABASE);
       const cost = f.rebuild?.outcome.ran ? f.rebuild.after : f.afterLoad;
       columns.push({
         title: `new, ${algorithm}`,
@@ -360,9 +398,12 @@ async function compareCompression(args: Args): Promise<void> {
           ...(f.rebuild?.outcome.ran
             ? { 'B/reading, total, on disk, after rebuild': bpr(cost.readings.files.allocated + cost.reading_rollups.files.allocated, f.readings) }
             : {}),
-          'B/reading, readings, on disk, after ALTER … FORCE': bpr(forced.readings.files.allocated, f.readings),
-          'B/reading, total, on disk, after ALTER … FORCE': bpr(forced.readings.files.allocated + forced.reading_rollups.files.allocated, f.readings),
-          'ALTER … FORCE: wall time, MariaDB CPU s per 10⁶': `${force.wallS.toFixed(1)} s, ${perMillion(force.dbCpuS, f.readings)}`,
+          'B/reading, readings, on disk, after ALTER … FORCE': bpr(forced.after.readings.files.allocated, f.readings),
+          'B/reading, total, on disk, after ALTER … FORCE': bpr(
+            forced.after.readings.files.allocated + forced.after.reading_rollups.files.allocated,
+            f.readings,
+          ),
+          'ALTER … FORCE: wall time, MariaDB CPU s per 10⁶': `${forced.wallS.toFixed(1)} s, ${perMillion(forced.dbCpuS, f.readings)}`,
         },
       });
     } finally {
