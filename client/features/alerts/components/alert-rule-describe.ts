@@ -17,7 +17,11 @@ export function describeAlertRule(rule: Pick<AlertRule, 'kind' | 'params' | 'wat
       ]
         .filter(Boolean)
         .join(' or ');
-      return `Readings ${limits}${Number(p.holdS) > 0 ? ` for at least ${durationWords(Number(p.holdS))}` : ''}`;
+      const held = `Readings ${limits}${Number(p.holdS) > 0 ? ` for at least ${durationWords(Number(p.holdS))}` : ''}`;
+      const w = p.earlyWarning as { horizonMin?: number; chance?: number } | null | undefined;
+      return w && typeof w.horizonMin === 'number' && typeof w.chance === 'number'
+        ? `${held}; warns when a crossing within ${durationWords(w.horizonMin * 60)} is at least ${Math.round(w.chance * 100)} % likely`
+        : held;
     }
     case 'rate':
       return `${p.direction === 'rise' ? 'Rises' : p.direction === 'fall' ? 'Falls' : 'Changes'} faster than ${n(p.maxPerMinute)}${unit} per minute`;

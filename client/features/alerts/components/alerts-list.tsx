@@ -6,6 +6,8 @@ import { Notice } from '../../../components/notice.tsx';
 import { useAcknowledgeAlert } from '../api/acknowledge-alert.ts';
 import type { Alert } from '@shared/contract/alerts.ts';
 import { Instant } from '../../../components/clock/instant.tsx';
+import { STAGE_WORDS } from './early-warning-words.ts';
+import { ProjectionSummary } from './projection-summary.tsx';
 
 /** Acknowledge with a note: someone is on it, so reminders stop. */
 function AcknowledgeForm({ slug, alert }: { slug: string; alert: Alert }) {
@@ -34,6 +36,7 @@ export function AlertsList({
   canAcknowledge,
   label,
   zoneOf,
+  unitOf,
 }: {
   slug: string;
   alerts: Alert[];
@@ -42,16 +45,25 @@ export function AlertsList({
   label: string;
   /** The IANA zone of the alert's logger, so its times show on the logger's clock (by default). */
   zoneOf?: (a: Alert) => string | null | undefined;
+  /** The unit of the alert's channel, for the early warning's numbers ('' when unknown). */
+  unitOf?: (a: Alert) => string | null | undefined;
 }) {
   if (alerts.length === 0) return <p className="text-sm text-ink-soft">None.</p>;
   return (
     <ul aria-label={label} className="grid gap-3">
       {alerts.map((a) => {
         const href = channelHref(a);
+        // an early warning is told apart in words and by its dashed outline, not by colour alone
+        const expected = a.stage === 'expected';
         return (
-          <li key={a.id} className={`grid gap-1 rounded-lg border p-3 ${a.open ? 'border-alert' : 'border-rule'}`}>
+          <li
+            key={a.id}
+            data-stage={a.stage}
+            className={`grid gap-1 rounded-lg border p-3 ${expected ? 'border-dashed border-2' : ''} ${a.open ? (expected ? 'border-amber' : 'border-alert') : 'border-rule'}`}
+          >
             <p className="font-medium">
-              {a.open ? 'Open' : 'Resolved'}: {a.ruleName}
+              {a.open ? 'Open' : 'Resolved'} ·{' '}
+              <span className="rounded border border-current px-1 text-xs uppercase tracking-wide">{STAGE_WORDS[a.stage]}</span>: {a.ruleName}
               {href && (
                 <Link to={href} className="ml-2 text-sm text-lichen-dark underline underline-offset-2">
                   see the channel then
@@ -68,6 +80,7 @@ export function AlertsList({
               )}
               {a.remindersSent > 0 && ` Reminders sent: ${a.remindersSent}.`}
             </p>
+            {expected && a.projection && <ProjectionSummary projection={a.projection} unit={unitOf?.(a) ?? ''} />}
             {a.acknowledged ? (
               <p className="text-sm text-ink-soft">
                 Acknowledged by {a.acknowledged.by?.name ?? 'someone'}

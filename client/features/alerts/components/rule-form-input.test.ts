@@ -5,7 +5,14 @@ describe('the rule form', () => {
   it('makes a bounds rule body from the typed fields', () => {
     const r = checkRuleForm({ ...EMPTY_RULE_FORM, name: 'Freezer warm', target: 'channel:12', high: '-15', holdS: '300' });
     expect(r).toEqual({
-      input: { name: 'Freezer warm', kind: 'bounds', channelId: 12, params: { low: null, high: -15, holdS: 300 }, reminderAfterMin: null, enabled: true },
+      input: {
+        name: 'Freezer warm',
+        kind: 'bounds',
+        channelId: 12,
+        params: { low: null, high: -15, holdS: 300, earlyWarning: null },
+        reminderAfterMin: null,
+        enabled: true,
+      },
     });
   });
 
@@ -43,7 +50,22 @@ describe('the rule form', () => {
 
   it('fills the change form from a stored rule of each kind, and gives back the same body', () => {
     const stored = [
-      { name: 'Freezer warm', kind: 'bounds' as const, channelId: 12, loggerId: null, params: { low: null, high: -15, holdS: 300 }, reminderAfterMin: 30 },
+      {
+        name: 'Freezer warm',
+        kind: 'bounds' as const,
+        channelId: 12,
+        loggerId: null,
+        params: { low: null, high: -15, holdS: 300, earlyWarning: null },
+        reminderAfterMin: 30,
+      },
+      {
+        name: 'Cold room warm',
+        kind: 'bounds' as const,
+        channelId: 12,
+        loggerId: null,
+        params: { low: null, high: 8, holdS: 0, earlyWarning: { horizonMin: 40, chance: 0.85 } },
+        reminderAfterMin: null,
+      },
       { name: 'Quiet mast', kind: 'silence' as const, channelId: null, loggerId: 7, params: { factor: 4 }, reminderAfterMin: null },
       { name: 'Fast drop', kind: 'rate' as const, channelId: 12, loggerId: null, params: { maxPerMinute: 0.5, direction: 'fall' }, reminderAfterMin: 0 },
       { name: 'Odd night', kind: 'unusual' as const, channelId: 12, loggerId: null, params: { periodH: 24, k: 5, historyCycles: 3 }, reminderAfterMin: null },
@@ -55,6 +77,26 @@ describe('the rule form', () => {
       expect(checked).toMatchObject({ input: { name: rule.name, kind: rule.kind, params: rule.params, reminderAfterMin: rule.reminderAfterMin } });
     }
     expect(formFromRule(stored[0])).toMatchObject({ target: 'channel:12', low: '', high: '-15', holdS: '300', reminderAfterMin: '30' });
-    expect(formFromRule(stored[1]).target).toBe('logger:7');
+    expect(formFromRule(stored[1])).toMatchObject({ earlyWarning: 'on', horizonMin: '40', chancePct: '85' });
+    expect(formFromRule(stored[2]).target).toBe('logger:7');
+  });
+
+  it('an early warning: off by default, on with the look-ahead and the chance typed in percent', () => {
+    const base = { ...EMPTY_RULE_FORM, name: 'Cold room warm', target: 'channel:12', high: '8', holdS: '0' };
+    expect(checkRuleForm(base)).toMatchObject({ input: { params: { earlyWarning: null } } });
+    expect(checkRuleForm({ ...base, earlyWarning: 'on', horizonMin: '40', chancePct: '80' })).toMatchObject({
+      input: { params: { high: 8, earlyWarning: { horizonMin: 40, chance: 0.8 } } },
+    });
+  });
+
+  it('refuses the early-warning boxes in their own units', () => {
+    const base = { ...EMPTY_RULE_FORM, name: 'Cold room warm', target: 'channel:12', high: '8', earlyWarning: 'on' as const };
+    expect(checkRuleForm({ ...base, horizonMin: '2', chancePct: '120' })).toEqual({
+      errors: {
+        'params.earlyWarning.horizonMin': 'must be a whole number of minutes from 5 to 1,440 (one day)',
+        'params.earlyWarning.chance': 'must be a percentage from 50 to 99',
+      },
+    });
+    expect(checkRuleForm({ ...base, chancePct: 'lots' })).toEqual({ errors: { 'params.earlyWarning.chance': 'must be a percentage from 50 to 99' } });
   });
 });

@@ -1,5 +1,6 @@
 import { SelectField, TextField } from '../../../components/form-field.tsx';
 import type { RuleFormState } from './rule-form-input.ts';
+import { EarlyWarningFields } from './early-warning-fields.tsx';
 
 type FieldChange = (e: { target: { value: string } }) => void;
 
@@ -55,6 +56,7 @@ export function RuleParamFields({
             error={err('params.holdS')}
             hint="So that one noisy reading pages nobody."
           />
+          <EarlyWarningFields f={f} set={set} err={err} />
         </>
       )}
       {f.kind === 'silence' && (
