@@ -1,4 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import fc from 'fast-check';
 import { readFileSync, writeFileSync, mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -6,7 +7,7 @@ import { buildTestApp, type TestApp } from '../support/test-app.ts';
 import { buildLabWithEverything, type LabWithEverything } from '../support/lab-fixture.ts';
 import { ensureMonthsFrom, listPartitions, BEFORE_PARTITION, type PartitionedTable } from '../../server/db/reading-partitions.ts';
 import { retentionRecordsRepo } from '../../server/db/retention.repo.ts';
-import { loadPlanCatalog } from '../../server/services/billing/plan-catalog.ts';
+import { loadPlanCatalog, parsePlanCatalog } from '../../server/services/billing/plan-catalog.ts';
 import { createRetentionJob, labHorizons, RETENTION_LEASE } from '../../server/services/retention/retention-job.ts';
 import { dropJournaledPartition, journalPartitionDrop } from '../../server/services/retention/partition-drops.ts';
 import { createRetentionView } from '../../server/services/retention/retention-view.ts';
@@ -147,8 +148,8 @@ beforeAll(async () => {
   for (const table of ['readings', 'reading_rollups'] as const) {
     const first = (await listPartitions(t.db, table)).find((p) => p.kind !== 'before');
     originalFirstMonth.set(table, first!.monthStart);
-    // 2024 gets months of its own (the fresh database was partitioned from the month it was made in)
-    await ensureMonthsFrom(t.db, table, month(2024, 0));
+    // 2023 and 2024 get months of their own (the fresh database was partitioned from the month it was made in)
+    await ensureMonthsFrom(t.db, table, month(2023, 0));
   }
 }, 60_000);
 
@@ -321,4 +322,85 @@ describe('one retention run across app servers', () => {
     expect(after.ran).toBe(true);
     expect((await retentionRecordsRepo(t.db).latestRun())?.holder).toBe('this-app-server');
   });
+});
+
+describe('retention on random plans and readings (seeded property test on the real database)', () => {
+  const labPlan = fc.record({ historyDays: fc.integer({ min: 1, max: 300 }), exportDays: fc.integer({ min: 0, max: 30 }), enabled: fc.boolean() });
+  const range = fc.record({ startDay: fc.integer({ min: 0, max: 360 }), days: fc.integer({ min: 1, max: 70 }), stepH: fc.integer({ min: 2, max: 23 }) });
+  const round = fc.record({
+    labs: fc.array(fc.record({ plan: labPlan, ranges: fc.array(range, { minLength: 1, maxLength: 3 }) }), { minLength: 1, maxLength: 4 }),
+    /** Days after 2023-01-01 the run happens. */
+    nowDay: fc.integer({ min: 60, max: 480 }),
+  });
+  let n = 0;
+  let dropped = 0;
+  let pruned = 0;
+
+  it('leaves every reading at or after its lab’s horizon, none before a removing lab’s horizon, counters equal to COUNT(*) and rollups equal to a recount', async () => {
+    await fc.assert(
+      fc.asyncProperty(round, async ({ labs, nowDay }) => {
+        const r = n++;
+        const now = new Date(month(2023, 0) + nowDay * DAY + 13 * 3_600_000);
+        // one plan per lab, made up for the round (the free plan keeps everything)
+        const catalog = parsePlanCatalog({
+          currency: 'eur',
+          plans: [
+            {
+              key: 'seedling',
+              name: 'Seedling',
+              monthlyAmount: 0,
+              priceLookupKey: null,
+              limits: { readings: 1e9, loggers: 9, members: 9, historyDays: 90, quarantinedRows: 9 },
+            },
+            ...labs.map((l, i) => ({
+              key: `round-${r}-${i}`,
+              name: `Round ${r} plan ${i}`,
+              monthlyAmount: 100,
+              priceLookupKey: `round-${r}-${i}`,
+              limits: { readings: 1e9, loggers: 9, members: 9, historyDays: l.plan.historyDays, quarantinedRows: 9 },
+              readingRemoval: { enabled: l.plan.enabled, exportDays: l.plan.exportDays },
+            })),
+          ],
+        });
+        const made: Array<{ lab: LabWithEverything; before: Reading[]; horizon: number }> = [];
+        for (const [i, l] of labs.entries()) {
+          const lab = await buildLabWithEverything(t.db, { name: `Random lab ${r}-${i}` });
+          await onPlan(lab, `round-${r}-${i}`);
+          for (const g of l.ranges) {
+            const from = month(2023, 0) + g.startDay * DAY + g.stepH * 60_000;
+            // ranges may overlap: keep the channel's times unique
+            const have = new Set((await readingsOf(lab)).map(([, ts]) => ts));
+            const rows = [];
+            for (let ts = from; ts < from + g.days * DAY; ts += g.stepH * 3_600_000)
+              if (!have.has(ts)) rows.push({ tenant_id: lab.lab.id, channel_id: lab.ids.channelId, ts, value: (ts % 997) / 10 });
+            for (let k = 0; k < rows.length; k += 2000) await t.db('readings').insert(rows.slice(k, k + 2000));
+          }
+          await recount(lab);
+          // the horizon from the plan's own terms (not through removalHorizon)
+          const horizon = l.plan.enabled ? Math.floor((now.getTime() - (l.plan.historyDays + l.plan.exportDays) * DAY) / DAY) * DAY : Number.NEGATIVE_INFINITY;
+          made.push({ lab, before: await readingsOf(lab), horizon });
+        }
+        const run = await createRetentionJob({ db: t.db, catalog, logger, holder: 'random-rounds', now: () => now, batchRows: 37 }).runOnce();
+        expect(run.ran && run.summary.errors).toEqual([]);
+        if (run.ran) {
+          dropped += run.summary.partitionsDropped.length;
+          pruned += run.summary.readingsRemoved;
+        }
+        for (const m of made) {
+          expect(await readingsOf(m.lab)).toEqual(m.before.filter(([, ts]) => ts >= m.horizon));
+          await expectCountersExact(m.lab);
+          await expectRollupsMatchReadings(m.lab);
+        }
+        // the round's labs leave nothing behind for the next round
+        for (const m of made) {
+          await t.db('readings').where({ tenant_id: m.lab.lab.id }).delete();
+          await t.db('reading_rollups').where({ tenant_id: m.lab.lab.id }).delete();
+        }
+      }),
+      { seed: 20261204, numRuns: 6 },
+    );
+    // the seeded rounds took both paths: whole partitions dropped, and readings removed
+    expect(dropped).toBeGreaterThan(0);
+    expect(pruned).toBeGreaterThan(0);
+  }, 120_000);
 });
