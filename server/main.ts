@@ -9,6 +9,11 @@ import { createApp } from './app.ts';
 import { ConfigError } from './errors.ts';
 import { migrateToLatest } from './db/migrate.ts';
 import { createAnalysisPool } from './workers/analysis-pool.ts';
+import { serverStorageFacts } from './db/server-storage-facts.ts';
+import { checkHolePunching, logHolePunchFinding } from './services/storage/hole-punch-check.ts';
+import { createStorageMaintenanceJob } from './services/storage/storage-maintenance-job.ts';
+import { startBackgroundJobs } from './jobs/background-jobs.ts';
+import { processHolderName } from './jobs/job-lease.ts';
 
 /**
  * Lagbook's entry point: validate configuration, check the database and identity provider,
@@ -29,6 +34,11 @@ async function main(): Promise<void> {
     const applied = await migrateToLatest(db);
     logger.info('migrations applied', { applied });
   }
+  // Page compression saves disk only where the filesystem punches holes: say so at start if not (never stops the start).
+  await serverStorageFacts(db)
+    .then((facts) => checkHolePunching({ facts, databaseIsLocal: Boolean(config.db.socketPath) || ['127.0.0.1', 'localhost', '::1'].includes(config.db.host) }))
+    .then((finding) => logHolePunchFinding(logger, finding))
+    .catch((err: unknown) => logger.warn('storage: hole punching check failed', { err: String(err) }));
   const endpoints = await discoverOidcEndpoints(config.oidc.issuer);
   const mailer = createMailer(config.smtp);
   if (!(await mailer.verify())) logger.warn('the SMTP server does not answer yet; mail will be retried', { host: config.smtp.host, port: config.smtp.port });
@@ -49,7 +59,10 @@ async function main(): Promise<void> {
     server.listen(config.port, config.host, resolve);
   });
   logger.info('Lagbook is listening', { url: config.publicUrl });
-  const stopBackgroundJobs = (app.locals.startBackgroundJobs as () => () => Promise<void>)();
+  const stopAppJobs = (app.locals.startBackgroundJobs as () => () => Promise<void>)();
+  // Month partitions ahead and the rebuild of closed months, once across app servers (lease 'storage-maintenance').
+  const stopStorageJob = startBackgroundJobs([createStorageMaintenanceJob({ db, logger, holder: processHolderName() }).job], logger);
+  const stopBackgroundJobs = () => Promise.all([stopAppJobs(), stopStorageJob()]);
 
   const shutdown = () => {
     server.close(() => {
