@@ -12,6 +12,10 @@ import { createLogWriter } from '../../server/log-writer.ts';
 import { createMailer } from '../../server/integrations/mail/create-mailer.ts';
 import { loadPlanCatalog } from '../../server/services/billing/plan-catalog.ts';
 import * as backfill from '../../migrations/20261204110010_backfill-channel-stored-readings.ts';
+import { createDb } from '../../server/db/create-db.ts';
+import { migrateToLatest } from '../../server/db/migrate.ts';
+import { LagbookMigrationSource, migrationsDirectory } from '../../server/db/migration-source.ts';
+import { buildLab } from '../support/factories.ts';
 
 /**
  * Usage counted without scanning (issue #20 item 4): each channel's `stored_readings` counter
@@ -238,6 +242,51 @@ describe('the backfill and the counting statement', () => {
     expect(['eq_ref', 'range']).toContain(byName.c.access_type);
     expect(byName.c.rows).toBeLessThanOrEqual(2);
     expect(byName.r).toMatchObject({ access_type: 'eq_ref', key: 'PRIMARY' });
+  });
+});
+
+describe('migrating a database filled before the counter', () => {
+  /** The migrations of the schema as it was before this issue (all before 2026-12-04). */
+  class SchemaBeforeCounter extends LagbookMigrationSource {
+    override async getMigrations(): Promise<string[]> {
+      return (await super.getMigrations()).filter((f) => f < '20261204');
+    }
+  }
+
+  it('every channel ends with the count of its readings, and the lab count with their sum', async () => {
+    const config = t.config.db;
+    const scratch = `${config.database}_counter_backfill`;
+    await t.db.raw(`DROP DATABASE IF EXISTS \`${scratch}\``);
+    await t.db.raw(`CREATE DATABASE \`${scratch}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
+    const old = createDb({ ...config, database: scratch });
+    try {
+      await old.migrate.latest({ migrationSource: new SchemaBeforeCounter(migrationsDirectory()), tableName: 'knex_migrations' });
+      expect(await old.schema.hasColumn('channels', 'stored_readings')).toBe(false);
+      // two labs, three channels (one without readings), readings written as today's ingestion writes them
+      const expected = new Map<number, number>();
+      const labs = [await buildLab(old), await buildLab(old)];
+      for (const [l, lab] of labs.entries()) {
+        const loggerId = 1000 + l;
+        await old('loggers').insert({ tenant_id: lab.id, id: loggerId, name: `Mast ${l}`, timezone: 'UTC', expected_interval_s: 60 });
+        for (let c = 0; c < (l === 0 ? 2 : 1); c++) {
+          const channelId = 2000 + l * 10 + c;
+          await old('channels').insert({ tenant_id: lab.id, id: channelId, logger_id: loggerId, channel_key: `c${c}`, label: `C ${c}` });
+          const n = [1500, 0, 777][l * 2 + c];
+          expected.set(channelId, n);
+          const rows = Array.from({ length: n }, (_, i) => ({ tenant_id: lab.id, channel_id: channelId, ts: T0 + i * MIN, value: i / 10 }));
+          for (let i = 0; i < rows.length; i += 500) await old('readings').insert(rows.slice(i, i + 500));
+        }
+      }
+      await migrateToLatest(old);
+      const after: Array<{ id: number; stored: number }> = await old('channels').orderBy('id').select('id', 'stored_readings as stored');
+      expect(after.map((c) => [Number(c.id), Number(c.stored)])).toEqual([...expected.entries()].sort((a, b) => a[0] - b[0]));
+      expect(await usageRepo(inLab(old, labs[0].id)).storedReadings()).toBe(1500);
+      expect(await usageRepo(inLab(old, labs[1].id)).storedReadings()).toBe(777);
+      expect(await old.schema.hasTable('job_leases')).toBe(true);
+    } finally {
+      await old.destroy();
+      await t.db.raw(`DROP DATABASE IF EXISTS \`${scratch}\``);
+    }
   });
 });
 
