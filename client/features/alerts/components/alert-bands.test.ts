@@ -40,6 +40,11 @@ describe('alertBands', () => {
       { from: 995, to: 1000, label: 'Freezer warm', open: false },
     ]);
   });
+  it('names an early warning’s band as expected to cross', () => {
+    expect(alertBands([alert({ stage: 'expected', openedAt: 50, resolvedAt: null, open: true })], { from: 80, to: 1000 }, 600)).toEqual([
+      { from: 80, to: 600, label: 'Freezer warm — expected to cross (open)', open: true },
+    ]);
+  });
   it('drops alerts outside the range', () => {
     expect(alertBands([alert({ openedAt: 10, resolvedAt: 20 }), alert({ openedAt: 2000, resolvedAt: 3000 })], { from: 100, to: 1000 }, 5000)).toEqual([]);
   });

@@ -22,7 +22,8 @@ export function alertBands(alerts: readonly Alert[], range: { from: number; to: 
     if (from > to || (from === to && a.resolvedAt !== null)) continue;
     const minWidth = (range.to - range.from) / 200;
     const wideTo = Math.min(Math.max(to, from + minWidth), range.to);
-    out.push({ from: Math.min(from, wideTo - minWidth), to: wideTo, label: `${a.ruleName}${a.open ? ' (open)' : ''}`, open: a.open });
+    const stage = a.stage === 'expected' ? ' — expected to cross' : '';
+    out.push({ from: Math.min(from, wideTo - minWidth), to: wideTo, label: `${a.ruleName}${stage}${a.open ? ' (open)' : ''}`, open: a.open });
   }
   return out;
 }

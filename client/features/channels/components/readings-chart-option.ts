@@ -339,3 +339,112 @@ export function noteSpansSummary(spans: readonly NoteSpan[], range: TimeRange): 
   if (shown.length === 0) return '';
   return ` Shaded: ${shown.length} note${shown.length === 1 ? '' : 's'} (${shown.map((s) => s.label).join('; ')}).`;
 }
+
+/** One projected step of an early warning (as the server stores it with the alert). */
+export interface ProjectedStep {
+  at: number;
+  mean: number;
+  lower: number;
+  upper: number;
+}
+
+/** An open early warning's projection as the chart draws it. */
+export interface ChartProjection {
+  model: string;
+  limit: number;
+  side: 'high' | 'low';
+  horizonMin: number;
+  chance: number;
+  interval: { level: number; lower: number; upper: number };
+  from: number;
+  /** The projected course step by step; when the answer carries none, the interval at the horizon alone is drawn. */
+  path?: readonly ProjectedStep[];
+}
+
+const PROJECTION_INK = '#7a4f9a';
+const PROJECTION_FILL = 'rgba(122, 79, 154, 0.18)';
+
+/** The projection's steps, or the interval at the horizon alone when the answer has no path. */
+function projectedSteps(p: ChartProjection): ProjectedStep[] {
+  if (p.path && p.path.length > 0) return [...p.path];
+  const at = p.from + p.horizonMin * 60_000;
+  return [{ at, lower: p.interval.lower, upper: p.interval.upper, mean: (p.interval.lower + p.interval.upper) / 2 }];
+}
+
+/**
+ * The chart option with an open early warning's projection: its central course as a dashed
+ * line ("Projected course"), the central interval as a shaded band (a stacked pair: the lower
+ * edge, then the band's width above it), and the rule's limit as a dash-dotted line named with
+ * its value, each named in the legend so the look is not the only cue. The time axis is widened
+ * to the projection's end, so the look-ahead shows to the right of the newest reading. A
+ * projection that starts outside the chart's range is left out.
+ */
+export function withProjection(option: EChartsCoreOption, projection: ChartProjection | null, ctx: ReadingsChartContext): EChartsCoreOption {
+  if (!projection || projection.from < ctx.range.from || projection.from > ctx.range.to) return option;
+  const steps = projectedSteps(projection);
+  const unit = ctx.unit ? ` ${ctx.unit}` : '';
+  const level = Math.round(projection.interval.level * 100);
+  const end = steps[steps.length - 1].at;
+  const axis = option.xAxis as EChartsCoreOption & { max?: number };
+  const added: EChartsCoreOption[] = [
+    {
+      name: 'Projection band lower edge',
+      type: 'line',
+      stack: 'projection-band',
+      data: steps.map((s) => [s.at, s.lower]),
+      showSymbol: false,
+      lineStyle: { opacity: 0 },
+      tooltip: { show: false },
+      silent: true,
+      z: 2,
+    },
+    {
+      name: `${level} % projection band`,
+      type: 'line',
+      stack: 'projection-band',
+      data: steps.map((s) => [s.at, s.upper - s.lower]),
+      showSymbol: false,
+      lineStyle: { opacity: 0 },
+      itemStyle: { color: PROJECTION_FILL },
+      areaStyle: { color: PROJECTION_FILL, opacity: 1 },
+      tooltip: { show: false },
+      silent: true,
+      z: 2,
+    },
+    {
+      name: 'Projected course',
+      type: 'line',
+      data: steps.map((s) => [s.at, s.mean]),
+      showSymbol: false,
+      lineStyle: { color: PROJECTION_INK, type: 'dashed', width: 2 },
+      itemStyle: { color: PROJECTION_INK },
+      markLine: {
+        silent: true,
+        symbol: 'none',
+        lineStyle: { color: ALERT, type: 'dashdot' },
+        label: { formatter: `limit ${Number(projection.limit.toPrecision(6))}${unit}`, position: 'insideEndTop', color: ALERT },
+        data: [{ yAxis: projection.limit, name: 'rule limit' }],
+      },
+      z: 4,
+    },
+  ];
+  const series = option.series as EChartsCoreOption[];
+  const own = option.legend as (EChartsCoreOption & { data?: unknown[] }) | undefined;
+  const names = (own?.data as string[] | undefined) ?? series.map((s) => s.name as string).filter(Boolean);
+  const legend = own ? { ...own, data: [...names, 'Projected course', `${level} % projection band`] } : undefined;
+  return {
+    ...option,
+    ...(legend ? { legend } : {}),
+    xAxis: { ...axis, max: Math.max(typeof axis?.max === 'number' ? axis.max : end, end) },
+    series: [...series, ...added],
+  };
+}
+
+/** The projection drawn on the chart, in words for the figure's caption ('' when none is drawn). */
+export function projectionSummary(projection: ChartProjection | null, ctx: ReadingsChartContext): string {
+  if (!projection || projection.from < ctx.range.from || projection.from > ctx.range.to) return '';
+  const unit = ctx.unit ? ` ${ctx.unit}` : '';
+  const level = Math.round(projection.interval.level * 100);
+  const chance = Math.min(0.99, Math.max(0.01, projection.chance)).toFixed(2);
+  return ` Early warning: projected ${projection.horizonMin} minutes ahead (${projection.model}), dashed, with its ${level} % band shaded; chance of passing the limit ${Number(projection.limit.toPrecision(6))}${unit}: p ≈ ${chance}.`;
+}

@@ -12,6 +12,8 @@ import { RangePicker } from './range-picker.tsx';
 import { zoomedRange, type RangePreset } from './range-presets.ts';
 import { noteSpansSummary, readingsChartOption, readingsSummary, withNoteSpans, type NoteSpan } from './readings-chart-option.ts';
 import { testReadingsSummary, withTestReadings, type TestReadingPoint } from './readings-chart-option.ts';
+import { projectionSummary, withProjection, type ChartProjection } from './readings-chart-option.ts';
+import { useChannelAlerts } from '../../alerts/api/get-channel-alerts.ts';
 
 const ZOOM_SETTLE_MS = 450;
 
@@ -87,6 +89,7 @@ export function ReadingsPanel({
   bands = NO_BANDS,
   notes = NO_NOTES,
   beside,
+  canReadAlerts = true,
 }: {
   slug: string;
   channel: ChannelDetail;
@@ -100,6 +103,8 @@ export function ReadingsPanel({
   notes?: readonly NoteSpan[];
   /** Shown under the chart (the channel page puts the notes list there). */
   beside?: ReactNode;
+  /** Whether the person may read alerts: an open early warning's projection is drawn only then. */
+  canReadAlerts?: boolean;
 }) {
   const series = useSeries(slug, channel.id, range);
   // test readings are drawn apart from the readings (their own series and marker)
@@ -110,10 +115,19 @@ export function ReadingsPanel({
     () => ({ label: channel.label, unit: channel.unit, timezone: zone, validMin: channel.validMin, validMax: channel.validMax, range }),
     [channel, range, zone],
   );
+  // an open early warning's projection (the same query as the page's alert bands, so no second request)
+  const alerts = useChannelAlerts(slug, channel.id, range, canReadAlerts).data?.alerts;
+  const projection = useMemo(
+    () => (alerts?.find((a) => a.open && a.stage === 'expected' && a.projection)?.projection ?? null) as ChartProjection | null,
+    [alerts],
+  );
   const data = series.data?.series;
   const option = useMemo(
-    () => (data ? withNoteSpans(withBands(withTestReadings(readingsChartOption(data, ctx), tests, data, ctx), bands), notes, range) : null),
-    [data, ctx, bands, notes, range, tests],
+    () =>
+      data
+        ? withNoteSpans(withBands(withProjection(withTestReadings(readingsChartOption(data, ctx), tests, data, ctx), projection, ctx), bands), notes, range)
+        : null,
+    [data, ctx, bands, notes, range, tests, projection],
   );
 
   const timer = useRef<ReturnType<typeof setTimeout> | undefined>(undefined);
@@ -152,7 +166,7 @@ export function ReadingsPanel({
           <EChart
             option={option}
             label={`Readings of ${channel.label}`}
-            summary={readingsSummary(data, ctx) + testReadingsSummary(tests, ctx) + noteSpansSummary(notes, range)}
+            summary={readingsSummary(data, ctx) + testReadingsSummary(tests, ctx) + projectionSummary(projection, ctx) + noteSpansSummary(notes, range)}
             height={360}
             pngName={`${slug}-${channel.key}-readings`}
             onZoom={onZoom}
