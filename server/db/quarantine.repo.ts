@@ -1,5 +1,6 @@
 import type { LabScope } from './tenant-scope.ts';
 import { newId } from './new-id.ts';
+import { readCopies, storedCopies } from './quarantine-copies.ts';
 
 /** Where a reading came in: the ingest API, a file upload, or a re-submit from quarantine. */
 export type ReadingSource = 'api' | 'upload' | 'resubmit';
@@ -46,15 +47,29 @@ const COLUMNS = [
   'quarantined_rows.ts_raw as tsRaw',
   'quarantined_rows.value_raw as valueRaw',
   'quarantined_rows.raw',
+  'quarantined_rows.copied_fields as copiedFields',
   'quarantined_rows.received_at as receivedAt',
 ];
 
-const toRow = (r: Record<string, unknown>): QuarantinedRow => ({
-  ...(r as unknown as QuarantinedRow),
-  id: Number(r.id),
-  loggerId: r.loggerId === null ? null : Number(r.loggerId),
-  rowIndex: Number(r.rowIndex),
-});
+/** A selected row as a QuarantinedRow: the time and value read back from `raw` where they are copies of it (quarantine-copies.ts). */
+const toRow = (r: Record<string, unknown>): QuarantinedRow => {
+  const { copiedFields, ...rest } = r;
+  const raw = (r.raw as string | null) ?? null;
+  const copies = readCopies({
+    raw,
+    tsRaw: (r.tsRaw as string | null) ?? null,
+    valueRaw: (r.valueRaw as string | null) ?? null,
+    copiedFields: Number(copiedFields ?? 0),
+  });
+  return {
+    ...(rest as unknown as QuarantinedRow),
+    id: Number(r.id),
+    loggerId: r.loggerId === null ? null : Number(r.loggerId),
+    rowIndex: Number(r.rowIndex),
+    tsRaw: copies.tsRaw,
+    valueRaw: copies.valueRaw,
+  };
+};
 
 /** Where a page of the quarantine list ends: the sort key of its last row. */
 export interface QuarantineCursor {
@@ -103,24 +118,32 @@ export function quarantineRepo(scope: LabScope) {
   };
 
   return {
-    /** Writes quarantined rows and adds them to the lab's count (the billing row exists once plan limits counted the batch). */
+    /**
+     * Writes quarantined rows and adds them to the lab's count (the billing row exists once plan
+     * limits counted the batch). The row's text is kept once: a time or value that is a plain
+     * copy of a field of it is not stored again (see quarantine-copies.ts).
+     */
     async add(rows: QuarantineInput[]): Promise<void> {
       for (let i = 0; i < rows.length; i += 1000) {
         await scope.insert(
           'quarantined_rows',
-          rows.slice(i, i + 1000).map((r) => ({
-            id: newId(),
-            logger_id: r.loggerId,
-            source: r.source,
-            batch_ref: r.batchRef,
-            row_index: r.rowIndex,
-            reason_code: r.reasonCode,
-            reason: cut(r.reason, 255),
-            channel_key: cut(r.channelKey, 191),
-            ts_raw: cut(r.tsRaw, 191),
-            value_raw: cut(r.valueRaw, 191),
-            raw: cut(r.raw, 4000),
-          })),
+          rows.slice(i, i + 1000).map((r) => {
+            const kept = storedCopies(cut(r.raw, 4000), cut(r.tsRaw, 191), cut(r.valueRaw, 191));
+            return {
+              id: newId(),
+              logger_id: r.loggerId,
+              source: r.source,
+              batch_ref: r.batchRef,
+              row_index: r.rowIndex,
+              reason_code: r.reasonCode,
+              reason: cut(r.reason, 255),
+              channel_key: cut(r.channelKey, 191),
+              ts_raw: kept.tsRaw,
+              value_raw: kept.valueRaw,
+              raw: kept.raw,
+              copied_fields: kept.copiedFields,
+            };
+          }),
         );
       }
       if (rows.length > 0) await scope.table('lab_billing').increment('quarantined_count', rows.length);

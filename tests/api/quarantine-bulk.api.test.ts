@@ -8,6 +8,7 @@ import { quarantineCapHook } from '../../server/services/ingest/quarantine-cap.t
 import type { IngestHooks } from '../../server/services/ingest/ingest-hooks.ts';
 import type { BulkAction, BulkRequest, BulkRun } from '../../server/contract/quarantine.ts';
 import type { Actor, LabContext } from '../../server/services/lab-context.ts';
+import { readCopies } from '../../server/db/quarantine-copies.ts';
 
 /**
  * Bulk quarantine repairs (issue 18 item 2): each action's preview equals what applying it does,
@@ -87,11 +88,15 @@ const count = async (table: string, lab: Lab, where: Record<string, unknown> = {
         .first()
     )?.n,
   );
+/** The lab's quarantined rows, the time as received read back where it is kept only inside `raw` (quarantine-copies.ts). */
 const quarantineIds = async (lab: Lab) =>
-  (await t.db('quarantined_rows').where({ tenant_id: lab.f.lab.id }).orderBy('id').select('id', 'reason_code', 'ts_raw', 'raw')).map((r) => ({
-    ...r,
-    id: Number(r.id),
-  }));
+  (await t.db('quarantined_rows').where({ tenant_id: lab.f.lab.id }).orderBy('id').select('id', 'reason_code', 'ts_raw', 'raw', 'copied_fields')).map(
+    ({ copied_fields: copiedFields, ...r }) => ({
+      ...r,
+      id: Number(r.id),
+      ts_raw: readCopies({ raw: r.raw, tsRaw: r.ts_raw, valueRaw: null, copiedFields }).tsRaw,
+    }),
+  );
 
 const preview = (lab: Lab, body: BulkRequest, cookie = lab.tech) => request(t.app).post(lab.path('/quarantine/bulk/preview')).set('Cookie', cookie).send(body);
 const start = (lab: Lab, body: BulkRequest, cookie = lab.tech) => request(t.app).post(lab.path('/quarantine/bulk/runs')).set('Cookie', cookie).send(body);

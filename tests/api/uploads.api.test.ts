@@ -72,7 +72,7 @@ describe('historical uploads', () => {
     const options = { format: 'wide', timeColumn: 'epoch', columns: { t: 'air_t' }, timeFormat: 'epoch-s' };
     const summary = ndjson((await upload(options, 'epoch,t\n1790000000,1.5\n1790000060,oops\n').expect(200)).text).at(-1);
     expect(summary).toMatchObject({ accepted: 1, quarantined: 1 });
-    const row = await t.db('quarantined_rows').where({ tenant_id: f.lab.id, source: 'upload', value_raw: 'oops' }).first();
+    const row = await t.db('quarantined_rows').where({ tenant_id: f.lab.id, source: 'upload', raw: '1790000060,oops' }).first();
     expect(row.ts_raw).toBe('2026-09-21T14:14:20.000Z'); // 1790000060 s after 1970-01-01T00:00:00Z
     expect(row.raw).toBe('1790000060,oops');
     const res = await request(t.app)
