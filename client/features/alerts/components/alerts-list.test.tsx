@@ -51,9 +51,9 @@ describe('the alerts list', () => {
       <AlertsList slug="marrowgate" alerts={[CROSSED, EXPECTED]} channelHref={() => null} canAcknowledge={false} label="Alerts" unitOf={() => '°C'} />,
     );
     const [crossed, expected] = within(screen.getByRole('list', { name: 'Alerts' })).getAllByRole('listitem');
-    expect(crossed.textContent).toContain('Open · Crossed: Cold room 3 warm');
+    expect(crossed.textContent).toContain('Open: Cold room 3 warm Crossed');
     expect(crossed.textContent).not.toContain('Model');
-    expect(expected.textContent).toContain('Open · Expected to cross: Cold room 3 warm');
+    expect(expected.textContent).toContain('Open: Cold room 3 warm Expected to cross');
     expect(expected.className).toContain('border-dashed');
     expect(crossed.className).not.toContain('border-dashed');
     expect(expected.textContent).toContain('ModelARIMA(0,1,0) on the remainder after the daily cycle');

@@ -62,8 +62,8 @@ export function AlertsList({
             className={`grid gap-1 rounded-lg border p-3 ${expected ? 'border-dashed border-2' : ''} ${a.open ? (expected ? 'border-amber' : 'border-alert') : 'border-rule'}`}
           >
             <p className="font-medium">
-              {a.open ? 'Open' : 'Resolved'} ·{' '}
-              <span className="rounded border border-current px-1 text-xs uppercase tracking-wide">{STAGE_WORDS[a.stage]}</span>: {a.ruleName}
+              {a.open ? 'Open' : 'Resolved'}: {a.ruleName}{' '}
+              <span className="ml-1 rounded border border-current px-1 text-xs uppercase tracking-wide">{STAGE_WORDS[a.stage]}</span>
               {href && (
                 <Link to={href} className="ml-2 text-sm text-lichen-dark underline underline-offset-2">
                   see the channel then
