@@ -32,15 +32,21 @@ export async function pruneLab(
     const resolutions = await retentionLabRepo(inLab(db, labId)).rollupResolutions(channelId);
     for (;;) {
       await beforeEachBatch();
-      const { readings, rollupsFull } = await db.transaction(async (trx) => {
-        const repo = retentionLabRepo(inLab(trx, labId));
-        const n = await repo.deleteReadingsBefore(channelId, beforeMs, batch);
-        let full = false;
-        for (const res of resolutions) if ((await repo.deleteRollupsBefore(channelId, res, beforeMs, batch)) >= batch) full = true;
-        await repo.lowerChannelCount(channelId, n);
-        await repo.lowerLabCount(n);
-        return { readings: n, rollupsFull: full };
-      });
+      const { readings, rollupsFull } = await db.transaction(
+        async (trx) => {
+          const repo = retentionLabRepo(inLab(trx, labId));
+          const n = await repo.deleteReadingsBefore(channelId, beforeMs, batch);
+          let full = false;
+          for (const res of resolutions) if ((await repo.deleteRollupsBefore(channelId, res, beforeMs, batch)) >= batch) full = true;
+          await repo.lowerChannelCount(channelId, n);
+          await repo.lowerLabCount(n);
+          return { readings: n, rollupsFull: full };
+        },
+        // READ COMMITTED: the range delete locks the rows it removes, not the gaps around them, so a
+        // logger storing new readings of the channel is never held up by it. Locks are taken in
+        // ingestion's order (readings, rollups, channel row, the lab's billing row): no deadlock cycle.
+        { isolationLevel: 'read committed' },
+      );
       removed += readings;
       if (readings < batch && !rollupsFull) break;
     }

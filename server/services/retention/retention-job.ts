@@ -87,11 +87,12 @@ export function createRetentionJob(deps: {
     summary.resumed = { settled: resumed.settled, cancelled: resumed.cancelled };
     summary.readingsRemoved += resumed.readings;
 
-    const plan = planRetention({ horizons, partitions: await candidatePartitions(horizons) });
+    const candidates = await candidatePartitions(horizons);
+    const plan = planRetention({ horizons, partitions: candidates });
     for (const name of plan.dropPartitions) {
       await lease.renew();
-      const partition = (await candidatePartitions(horizons)).find((p) => p.name === name);
-      if (!partition) continue;
+      const partition = candidates.find((p) => p.name === name)!;
+      // decided again on the partition's exact rows per channel, which the journal keeps
       const drop = await journalPartitionDrop(db, runId, partition, horizons, now());
       if (!drop) continue;
       await lease.renew();
