@@ -39,6 +39,8 @@ describe('retention panel', () => {
     // dates go through the clock component (machine-readable instant kept)
     expect(panel.querySelector('time[datetime="2026-09-05T12:00:00.000Z"]')).not.toBeNull();
     expect(panel.textContent).not.toContain('not shown by the page');
+    // records that protect samples or people may have to be kept longer: the lab's own rules decide
+    expect(screen.getByTestId('retention-caution').textContent).toContain('may have to be kept longer under your lab’s own rules or local regulations');
   });
 
   it('says when nothing is stored before the horizon yet, and says one reading in the singular', async () => {
@@ -62,6 +64,7 @@ describe('retention panel', () => {
       'The Seedling plan never removes readings: readings older than its 90 days of history stay stored.',
     );
     expect(screen.queryByRole('link')).toBeNull();
+    expect(screen.queryByTestId('retention-caution')).toBeNull();
   });
 
   it('shows the refusal when the answer cannot be loaded', async () => {

@@ -53,6 +53,10 @@ export function RetentionPanel({ slug }: { slug: string }) {
           </>
         )}
       </p>
+      <p className="text-sm text-ink-soft" data-testid="retention-caution">
+        Records of freezers, incubators, cold rooms or gas supplies may have to be kept longer under your lab’s own rules or local regulations: keep an export
+        of them wherever those rules say, before they are removed here.
+      </p>
     </div>
   );
 }
