@@ -9,6 +9,7 @@ import { AppError, ConfigError } from '../errors.ts';
 import { createLabCommand, mintTokenCommand, registerLoggerCommand, type CommandResult } from './ops-commands.ts';
 import { seedDemo } from './seed-demo.ts';
 import { BackupError, backupCommand, restoreCommand } from './backup-commands.ts';
+import { storageReport, storageReportText } from '../services/storage/storage-report.ts';
 
 const HELP = `Lagbook operator commands
 
@@ -43,6 +44,10 @@ Commands:
       Refuses a database that already holds tables unless --force (then each table in
       the backup replaces the one of that name). Stop the app before restoring over
       its live database.
+
+  storage
+      Show how readings and rollups are stored: the month partitions of each table
+      (approximate rows) and the rebuild of closed months (status, rows, last error).
 
 Options:
   --json    print the result as JSON (for scripts)
@@ -133,6 +138,10 @@ async function run(argv: string[]): Promise<CommandResult | null> {
         return await backupCommand(config, { out: need(values, 'out'), force: values.force! });
       case 'restore':
         return await restoreCommand(db, config, { from: need(values, 'from'), database: values.database, force: values.force! });
+      case 'storage': {
+        const report = await storageReport(db, new Date());
+        return { text: storageReportText(report), json: { ...report } };
+      }
       default:
         fail(`unknown command "${command}" (see --help)`);
     }

@@ -2,7 +2,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
 import { buildLabWithEverything, type LabWithEverything } from '../support/lab-fixture.ts';
 import { postBatch } from '../support/posting-logger.ts';
-import { ensureMonthsFrom, listPartitions, monthPartitionName } from '../../server/db/reading-partitions.ts';
+import { runOps } from '../support/run-ops.ts';
+import { dropPartition, ensureMonthsFrom, listPartitions, monthPartitionName } from '../../server/db/reading-partitions.ts';
 import { stagingTableName, storageRebuildsRepo } from '../../server/db/storage-rebuilds.repo.ts';
 import { createStorageMaintenanceJob, STORAGE_LEASE } from '../../server/services/storage/storage-maintenance-job.ts';
 import { createMonthRebuild, type RebuildStep } from '../../server/services/storage/month-rebuild.ts';
@@ -204,6 +205,39 @@ describe('storage maintenance', () => {
     expect(await resumed.rebuild(name)).toBe('already-done');
     // the copy is what stays in place (a resume that missed the swap would have swapped the old partition back)
     expect(await spaceOf(m)).not.toBe(spaceBefore);
+  });
+
+  it('a month dropped (by retention) while its rebuild was unfinished: the copy goes and the record is closed', async () => {
+    await fill(A, 7, 1200);
+    const crashing = createMonthRebuild({
+      db: t.db,
+      logger,
+      now: () => NOW,
+      batchRows: BATCH,
+      afterStep: (s) => {
+        if (s === 'copied') throw new Error('simulated crash after copied');
+      },
+    });
+    await expect(crashing.rebuild('p202608')).rejects.toThrow('simulated crash');
+    expect(await t.db.schema.hasTable(stagingTableName('p202608'))).toBe(true);
+    await dropPartition(t.db, 'readings', 'p202608');
+    const job = createStorageMaintenanceJob({ db: t.db, logger, holder: 'test-a', now: () => NOW, batchRows: BATCH });
+    await job.rebuildClosedMonths();
+    expect(await t.db.schema.hasTable(stagingTableName('p202608'))).toBe(false);
+    expect(await recordOf(7)).toMatchObject({ status: 'done', lastError: 'the month was dropped before its rebuild finished' });
+    expect(await monthRows(7)).toEqual([]);
+  });
+
+  it('the ops CLI shows the partitions and the rebuilds', async () => {
+    const res = await runOps(['storage']);
+    expect(res.code, res.stderr).toBe(0);
+    expect(res.stdout).toContain('readings: ');
+    expect(res.stdout).toMatch(/p202602\s+done\s+5500 copied, 300 put back/);
+    const json = JSON.parse((await runOps(['storage', '--json'])).stdout) as { tables: Array<{ table: string; partitioned: boolean }> };
+    expect(json.tables.map((x) => [x.table, x.partitioned])).toEqual([
+      ['readings', true],
+      ['reading_rollups', true],
+    ]);
   });
 
   it('a lease held by another server: the run skips quietly and changes nothing', async () => {

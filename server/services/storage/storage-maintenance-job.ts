@@ -1,6 +1,6 @@
 import type { Db } from '../../db/create-db.ts';
 import { addMonths, ensureMonthsUpTo, isPartitioned, listPartitions, PARTITIONED_TABLES, REBUILD_GRACE_MS } from '../../db/reading-partitions.ts';
-import { storageRebuildsRepo, type RebuildRecord } from '../../db/storage-rebuilds.repo.ts';
+import { stagingTableName, storageRebuildsRepo, type RebuildRecord } from '../../db/storage-rebuilds.repo.ts';
 import type { BackgroundJob } from '../../jobs/background-jobs.ts';
 import { createLeaseRunner, type HeldLease } from '../../jobs/job-lease.ts';
 import type { LogWriter } from '../../log-writer.ts';
@@ -35,6 +35,14 @@ export interface StorageProgress {
   rebuilds: RebuildRecord[];
   /** Closed months of readings not yet rebuilt. */
   pending: string[];
+}
+
+/** Closed months of readings (ended at least REBUILD_GRACE_MS before `now`) whose rebuild is not done, oldest first. */
+export async function pendingRebuildMonths(db: Db, now: Date): Promise<string[]> {
+  if (!(await isPartitioned(db, 'readings'))) return [];
+  const done = new Set((await storageRebuildsRepo(db).all()).filter((r) => r.status === 'done').map((r) => r.partitionName));
+  const cutoff = now.getTime() - REBUILD_GRACE_MS;
+  return (await listPartitions(db, 'readings')).filter((p) => p.kind === 'month' && p.monthEnd <= cutoff && !done.has(p.name)).map((p) => p.name);
 }
 
 /**
@@ -79,12 +87,20 @@ export function createStorageMaintenanceJob(deps: {
     return made;
   }
 
-  /** Closed months of readings whose rebuild is not done, oldest first. */
-  async function pendingMonths(): Promise<string[]> {
-    if (!(await isPartitioned(deps.db, 'readings'))) return [];
-    const done = new Set((await repo.all()).filter((r) => r.status === 'done').map((r) => r.partitionName));
-    const cutoff = now().getTime() - REBUILD_GRACE_MS;
-    return (await listPartitions(deps.db, 'readings')).filter((p) => p.kind === 'month' && p.monthEnd <= cutoff && !done.has(p.name)).map((p) => p.name);
+  const pendingMonths = () => pendingRebuildMonths(deps.db, now());
+
+  /**
+   * Rebuilds left unfinished for a month whose partition is gone since (retention dropped it after
+   * a crash): the staging copy is dropped and the record closed, so nothing waits on it forever.
+   */
+  async function closeOrphans(): Promise<void> {
+    const months = new Set((await listPartitions(deps.db, 'readings')).map((p) => p.name));
+    for (const r of await repo.all()) {
+      if (r.status === 'done' || months.has(r.partitionName)) continue;
+      await repo.dropStaging(stagingTableName(r.partitionName));
+      await repo.update(r.monthStart, { status: 'done', finishedAt: now(), lastError: 'the month was dropped before its rebuild finished' });
+      deps.logger.warn('storage maintenance: a month was dropped before its rebuild finished; its copy is removed', { partition: r.partitionName });
+    }
   }
 
   /**
@@ -104,6 +120,7 @@ export function createStorageMaintenanceJob(deps: {
       },
     });
     const rebuilt: string[] = [];
+    if (await isPartitioned(deps.db, 'readings')) await closeOrphans();
     for (const name of await pendingMonths()) {
       try {
         if ((await rebuild.rebuild(name)) === 'rebuilt') {
