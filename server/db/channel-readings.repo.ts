@@ -2,7 +2,6 @@ import type { LabScope } from './tenant-scope.ts';
 import { isKept } from './rollup-levels.ts';
 
 const HOUR_S = 3600;
-const DAY_S = 86400;
 
 /** One channel's readings in time order, as typed arrays (epoch ms, values). */
 export interface ReadingColumns {
@@ -211,21 +210,15 @@ export function channelReadingsRepo(scope: LabScope, options: ChannelReadingsOpt
     },
 
     /**
-     * Reading count and the first reading's time (one index seek). The count comes from the day
-     * rollups where the channel keeps them, else from counting its readings (a channel without
-     * rollups reports daily or slower: a few hundred readings a year).
+     * Reading count and the first reading's time: the count is the channel's stored-readings
+     * counter (kept exact in the ingestion transaction, one row by key), the time one index seek.
      */
     async extent(channelId: number): Promise<{ count: number; firstTs: number | null }> {
-      const floor = (await rollupFloors([channelId])).get(channelId) ?? null;
       const [[countRow], [firstRow]] = await Promise.all([
-        isKept(DAY_S, floor)
-          ? arrays(`SELECT COALESCE(SUM(count_value), 0) FROM reading_rollups WHERE tenant_id = :lab AND channel_id = ? AND resolution_s = ${DAY_S}`, [
-              channelId,
-            ])
-          : arrays('SELECT COUNT(*) FROM readings WHERE tenant_id = :lab AND channel_id = ?', [channelId]),
+        arrays('SELECT stored_readings FROM channels WHERE tenant_id = :lab AND id = ?', [channelId]),
         arrays('SELECT MIN(ts) FROM readings WHERE tenant_id = :lab AND channel_id = ?', [channelId]),
       ]);
-      return { count: Number(countRow[0]), firstTs: firstRow[0] === null ? null : Number(firstRow[0]) };
+      return { count: Number(countRow?.[0] ?? 0), firstTs: firstRow[0] === null ? null : Number(firstRow[0]) };
     },
   };
 }
