@@ -10,6 +10,7 @@ import { retentionRecordsRepo } from '../../server/db/retention.repo.ts';
 import { loadPlanCatalog, parsePlanCatalog } from '../../server/services/billing/plan-catalog.ts';
 import { createRetentionJob, labHorizons, RETENTION_LEASE } from '../../server/services/retention/retention-job.ts';
 import { dropJournaledPartition, journalPartitionDrop } from '../../server/services/retention/partition-drops.ts';
+import { pruneLab } from '../../server/services/retention/prune-lab.ts';
 import { createRetentionView } from '../../server/services/retention/retention-view.ts';
 import { presentRetention } from '../../server/http/billing/retention.routes.ts';
 import { createLeaseRunner } from '../../server/jobs/job-lease.ts';
@@ -310,6 +311,32 @@ describe('retention after a crash', () => {
       ['p202408', false, true],
       ['p202409', true, false],
     ]);
+  });
+});
+
+describe('pruning stopped part way', () => {
+  it('keeps every batch whole: stopped after three batches, counters match what is left; the next pass finishes', async () => {
+    const D = await buildLabWithEverything(t.db, { name: 'Interrupted lab' });
+    await onPlan(D, 'transect');
+    const soil = await secondChannel(D);
+    await fill(D, D.ids.channelId, Date.UTC(2024, 9, 15), Date.UTC(2024, 10, 20));
+    await fill(D, soil, Date.UTC(2024, 9, 20), Date.UTC(2024, 10, 10), 2);
+    const all = await readingsOf(D);
+    const horizon = Date.UTC(2024, 10, 3);
+    let batches = 0;
+    const stopAfterThree = async () => {
+      if (++batches > 3) throw new Error('the process stopped here');
+    };
+    await expect(pruneLab(t.db, D.lab.id, horizon, { batchRows: 20, beforeEachBatch: stopAfterThree })).rejects.toThrow('the process stopped here');
+    const partWay = await readingsOf(D);
+    expect(partWay.length).toBe(all.length - 60); // three whole batches of 20, nothing of a fourth
+    expect(partWay.filter(([, ts]) => ts >= horizon)).toEqual(all.filter(([, ts]) => ts >= horizon));
+    await expectCountersExact(D);
+
+    expect(await pruneLab(t.db, D.lab.id, horizon, { batchRows: 20 })).toBe(all.filter(([, ts]) => ts < horizon).length - 60);
+    expect(await readingsOf(D)).toEqual(all.filter(([, ts]) => ts >= horizon));
+    await expectCountersExact(D);
+    await expectRollupsMatchReadings(D);
   });
 });
 
