@@ -443,7 +443,7 @@ describe('usage job (simulated clock)', () => {
     try {
       expect((await ingest(lab, 0, 8)).status).toBe(200);
       await counterReaches(lab, 8);
-      // a lost counter bump is repaired from the rollups
+      // a lost counter bump is repaired from the channels' counters
       await t.db('lab_billing').where('tenant_id', lab.f.lab.id).update({ readings_count: 3 });
       await job.reconcileLab(labRow);
       expect(await counter(lab)).toBe(8);

@@ -77,7 +77,7 @@ async function seedYear(stack: BenchStack, tenantId: number, channelId: number):
   }
   const scope = inLab(stack.db, tenantId);
   await readingsRepo(scope).refreshRollups([channelId], times);
-  await channelStateRepo(scope).advance([{ channelId, ts: times[times.length - 1] }]);
+  await channelStateRepo(scope).advance([{ channelId, ts: times[times.length - 1], added: times.length }]);
   console.log(`seeded ${YEAR_MINUTES.toLocaleString('en')} one-minute readings and their rollups in ${((performance.now() - started) / 1000).toFixed(1)} s`);
 }
 

@@ -81,7 +81,7 @@ async function seedReferenceChannel(stack: BenchStack, tenantId: number, channel
     [channelId],
     rows.map((r) => r[2]),
   );
-  await channelStateRepo(scope).advance([{ channelId, ts: rows[rows.length - 1][2] }]);
+  await channelStateRepo(scope).advance([{ channelId, ts: rows[rows.length - 1][2], added: rows.length }]);
 }
 
 function report(kind: Kind, seconds: number): void {

@@ -186,6 +186,7 @@ async function addRowToEveryOtherTable(db: Knex, lab: TestLab, at: { founderId: 
       count_value: 3,
     })),
   );
+  await db('channels').where({ tenant_id: lab.id, id: at.channelId }).update({ stored_readings: values.length });
   await db('audit_events').insert({
     tenant_id: lab.id,
     id: rid(),
