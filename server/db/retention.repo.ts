@@ -120,8 +120,9 @@ export function retentionRecordsRepo(db: DbOrTrx) {
     },
 
     /**
-     * The labs holding rows in one partition of `readings` or `reading_rollups`. A loose index
-     * scan on the primary key's first column (one step per lab), not a count of the partition's rows.
+     * The labs holding rows in one partition of `readings` or `reading_rollups`: MariaDB answers it
+     * by a loose index scan of the primary key's first column (EXPLAIN: "Using index for group-by"),
+     * one step per lab instead of a read of the partition's rows.
      */
     async labsInPartition(table: 'readings' | 'reading_rollups', partitionName: string): Promise<number[]> {
       const [rows] = (await db.raw(`SELECT DISTINCT tenant_id AS t FROM ?? PARTITION (${checkedPartitionName(partitionName)})`, [table])) as unknown as [
@@ -158,12 +159,22 @@ export function retentionLabRepo(scope: LabScope) {
       );
     },
 
-    /** The rollup resolutions (seconds) the channel has rows at. */
+    /**
+     * The rollup resolutions (seconds) the channel has rows at, ascending: one index dive per
+     * resolution (the next resolution above the last found), never a read of the rollup rows.
+     */
     async rollupResolutions(channelId: number): Promise<number[]> {
-      const [rows] = (await scope.raw('SELECT DISTINCT resolution_s AS r FROM reading_rollups WHERE tenant_id = :lab AND channel_id = ?', [
-        channelId,
-      ])) as unknown as [Array<{ r: number | string }>];
-      return rows.map((r) => Number(r.r));
+      const found: number[] = [];
+      for (let above = -1; ;) {
+        const [rows] = (await scope.raw('SELECT MIN(resolution_s) AS r FROM reading_rollups WHERE tenant_id = :lab AND channel_id = ? AND resolution_s > ?', [
+          channelId,
+          above,
+        ])) as unknown as [Array<{ r: number | string | null }>];
+        const r = rows[0]?.r;
+        if (r === null || r === undefined) return found;
+        above = Number(r);
+        found.push(above);
+      }
     },
 
     /**
@@ -198,11 +209,14 @@ export function retentionLabRepo(scope: LabScope) {
       await scope.raw('UPDATE lab_billing SET readings_count = readings_count - LEAST(readings_count, ?) WHERE tenant_id = :lab', [n]);
     },
 
-    /** The time (epoch ms) of the lab's oldest stored reading, or null: one step per channel (loose index scan). */
-    async oldestReading(): Promise<number | null> {
-      const [rows] = (await scope.raw(
-        'SELECT MIN(m) AS t FROM (SELECT MIN(ts) AS m FROM readings WHERE tenant_id = :lab GROUP BY channel_id) per_channel',
-      )) as unknown as [Array<{ t: number | string | null }>];
+    /**
+     * The time (epoch ms) of a channel's oldest stored reading, or null: the first key of the
+     * channel in the primary key (one index dive, whatever the channel holds).
+     */
+    async oldestReading(channelId: number): Promise<number | null> {
+      const [rows] = (await scope.raw('SELECT MIN(ts) AS t FROM readings WHERE tenant_id = :lab AND channel_id = ?', [channelId])) as unknown as [
+        Array<{ t: number | string | null }>,
+      ];
       const t = rows[0]?.t;
       return t === null || t === undefined ? null : Number(t);
     },

@@ -37,13 +37,18 @@ export function createRetentionView(deps: { db: Db; catalog: PlanCatalog; now?: 
       if (!Number.isFinite(horizonMs)) return { removes: false, plan };
       const repo = retentionLabRepo(scope);
       let readingsBeforeHorizon = 0;
-      for (const channelId of await repo.channelIds()) readingsBeforeHorizon += await repo.readingsBefore(channelId, horizonMs);
+      let oldestReadingMs: number | null = null;
+      for (const channelId of await repo.channelIds()) {
+        readingsBeforeHorizon += await repo.readingsBefore(channelId, horizonMs);
+        const oldest = await repo.oldestReading(channelId);
+        if (oldest !== null && (oldestReadingMs === null || oldest < oldestReadingMs)) oldestReadingMs = oldest;
+      }
       const latest = await retentionRecordsRepo(deps.db).latestRun();
       return {
         removes: true,
         plan,
         horizonMs,
-        oldestReadingMs: await repo.oldestReading(),
+        oldestReadingMs,
         readingsBeforeHorizon,
         nextRemovalMs: nextRemovalAt(latest ? latest.startedAt.getTime() : null, at),
       };
