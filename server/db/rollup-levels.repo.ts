@@ -26,11 +26,15 @@ const orNull = (v: unknown) => (v === null || v === undefined ? null : Number(v)
  */
 export function rollupLevelsRepo(scope: LabScope) {
   return {
-    /** The stored and wanted floors of these channels (or of one logger's channels). */
-    async levels(of: { channelIds: number[] } | { loggerId: number }): Promise<ChannelLevels[]> {
+    /** The stored and wanted floors of these channels, of one logger's channels, or of every channel of the lab. */
+    async levels(of: { channelIds: number[] } | { loggerId: number } | { wholeLab: true }): Promise<ChannelLevels[]> {
       if ('channelIds' in of && of.channelIds.length === 0) return [];
-      const [where, bindings] =
-        'channelIds' in of ? [`c.id IN (${of.channelIds.map(() => '?').join(', ')})`, of.channelIds] : ['c.logger_id = ?', [of.loggerId]];
+      const [where, bindings]: [string, unknown[]] =
+        'channelIds' in of
+          ? [`c.id IN (${of.channelIds.map(() => '?').join(', ')})`, of.channelIds]
+          : 'loggerId' in of
+            ? ['c.logger_id = ?', [of.loggerId]]
+            : ['1 = 1', []];
       const rows = await scope.arrays(`SELECT c.id, c.finest_rollup_s, ${WANTED} FROM ${CHANNELS_WITH_LOGGER} WHERE c.tenant_id = :lab AND ${where}`, bindings);
       return rows.map((r) => ({ channelId: Number(r[0]), floor: orNull(r[1]), wanted: orNull(r[2]) }));
     },

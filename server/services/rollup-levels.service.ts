@@ -86,6 +86,23 @@ export function createRollupLevelsService(deps: { db: Db }) {
       for (const c of await rollupLevelsRepo(scope).levels(target)) settled.push(await settleOne(scope, c));
       return settled;
     },
+
+    /**
+     * The same for every channel of a lab (for a maintenance job under a cluster-wide lease):
+     * finishes edits a crash cut short — a level half built, rows of a dropped level left — and
+     * trims channels written without a floor (rows made outside channels.repo.ts keep every
+     * level). Returns only the channels it changed. Costs one key seek per channel when there
+     * is nothing to do.
+     */
+    async settleLab(labId: number): Promise<SettledChannel[]> {
+      const scope = inLab(deps.db, labId);
+      const changed: SettledChannel[] = [];
+      for (const c of await rollupLevelsRepo(scope).levels({ wholeLab: true })) {
+        const done = await settleOne(scope, c);
+        if (done.from !== done.to || done.removed > 0) changed.push(done);
+      }
+      return changed;
+    },
   };
 }
 

@@ -16,6 +16,7 @@ import { onLargestPlan } from '../support/largest-plan.ts';
 import { channelDiagnostics } from '../../server/analysis/index.ts';
 import { createDb, type Db } from '../../server/db/create-db.ts';
 import { LagbookMigrationSource, migrationsDirectory } from '../../server/db/migration-source.ts';
+import { createRollupLevelsService } from '../../server/services/rollup-levels.service.ts';
 
 const MIN = 60_000;
 const HOUR = 3_600_000;
@@ -311,6 +312,30 @@ describe('an interval edit changes the levels and keeps answers right', () => {
     expect(await floorOf(air)).toBe(3600);
     expect(await levelsStored(air)).toEqual([3600, 86400]);
     expect(await floorOf(ids.fast)).toBe(60); // has its own interval
+  });
+});
+
+describe('settling a whole lab (a maintenance job finishing what a crash cut short)', () => {
+  it('builds a level an edit never finished, removes rows a cut-short removal left, and leaves settled channels alone', async () => {
+    const service = createRollupLevelsService({ db: t.db });
+    expect(await service.settleLab(f.lab.id)).toEqual([]);
+    // a finer interval written, the build never run (as after a crash right after the edit's commit)
+    await t.db('channels').where({ tenant_id: f.lab.id, id: ids.hourly }).update({ expected_interval_s: 120 });
+    // minute rows of the 1-minute channel left behind by a removal cut short
+    await t
+      .db('reading_rollups')
+      .insert({ tenant_id: f.lab.id, channel_id: ids.minute, resolution_s: 60, bucket_start: T0, min_value: 1, max_value: 1, sum_value: 1, count_value: 1 });
+    const changed = await service.settleLab(f.lab.id);
+    expect(changed.map((c) => [c.channelId, c.from, c.to, c.built, c.removed]).sort((a, b) => Number(a[0]) - Number(b[0]))).toEqual(
+      [
+        [ids.hourly, 86400, 3600, [3600], 0],
+        [ids.minute, 3600, 3600, [], 1],
+      ].sort((a, b) => Number(a[0]) - Number(b[0])),
+    );
+    for (const res of [3600, 86400]) await expectLevelMatchesRaw(t.db, f.lab.id, ids.hourly, res);
+    expect(await expectSeriesFromRaw(ids.hourly, T0, T0 + 10 * DAY, 100)).toMatchObject({ source: 'rollup', resolutionS: 3600 });
+    expect(await levelsStored(ids.minute)).toEqual([3600, 86400]);
+    expect(await service.settleLab(f.lab.id)).toEqual([]);
   });
 });
 
