@@ -94,6 +94,8 @@ export function createMonthRebuild(deps: {
     const space = await repo.spaceId(staging);
     if (space === null) throw new Error(`rebuild of readings ${partitionName}: the staging copy is missing`);
     await repo.update(monthStart, { stagingSpaceId: space });
+    // the swap is the one step two holders must never both take: renew (a lost lease throws) right before it
+    await deps.onBatch?.();
     await repo.exchange(partitionName, staging, EXCHANGE_LOCK_WAIT_S);
     await deps.afterStep?.('exchanged', partitionName);
     await repo.update(monthStart, { status: 'swapped' });
