@@ -10,8 +10,9 @@ export interface ProjectedStep {
   upper: number;
 }
 
-/** What an expected-stage alert stores: the projection it shows, and the projected path for the chart. */
+/** What an expected-stage alert stores: the projection it shows, the channel's unit for its numbers, and the projected path for the chart. */
 export interface StoredProjection extends AlertProjection {
+  unit: string;
   path: ProjectedStep[];
 }
 
@@ -67,7 +68,9 @@ function readProjection(v: unknown): StoredProjection | null {
   if (typeof v !== 'string' || v === '') return null;
   try {
     const p = JSON.parse(v) as StoredProjection;
-    return p && typeof p === 'object' && typeof p.model === 'string' ? { ...p, path: Array.isArray(p.path) ? p.path : [] } : null;
+    return p && typeof p === 'object' && typeof p.model === 'string'
+      ? { ...p, unit: typeof p.unit === 'string' ? p.unit : '', path: Array.isArray(p.path) ? p.path : [] }
+      : null;
   } catch {
     return null;
   }

@@ -94,7 +94,7 @@ describe('early warning on a bounds rule', () => {
     expect(warning.openedAt).toBe(END);
     const p = warning.projection!;
     expect(p.model).toBe('ARIMA(0,1,0) on the remainder after the daily cycle');
-    expect(p).toMatchObject({ limit: 8, side: 'high', horizonMin: 60, from: END });
+    expect(p).toMatchObject({ limit: 8, side: 'high', horizonMin: 60, from: END, unit: '°C' });
     expect(p.chance).toBeGreaterThanOrEqual(0.5);
     expect(p.interval.level).toBe(0.8);
     expect(p.interval.lower).toBeLessThan(8);

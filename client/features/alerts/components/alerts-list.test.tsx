@@ -61,4 +61,10 @@ describe('the alerts list', () => {
     expect(expected.textContent).toContain('80 % interval 7.2–8.3 °C in 1 hour');
     expect(expected.textContent).toContain('not a safety system');
   });
+
+  it('takes the unit stored with the projection when the list is given none', () => {
+    const stored = { ...EXPECTED, projection: { ...EXPECTED.projection!, unit: '°C' } as Alert['projection'] };
+    renderWithProviders(<AlertsList slug="marrowgate" alerts={[stored]} channelHref={() => null} canAcknowledge={false} label="Alerts" />);
+    expect(screen.getByRole('list', { name: 'Alerts' }).textContent).toContain('80 % interval 7.2–8.3 °C in 1 hour');
+  });
 });

@@ -373,8 +373,8 @@ function projectedSteps(p: ChartProjection): ProjectedStep[] {
 
 /**
  * The chart option with an open early warning's projection: its central course as a dashed
- * line ("Projected course"), the central interval as a shaded band (a stacked pair: the lower
- * edge, then the band's width above it), and the rule's limit as a dash-dotted line named with
+ * line ("Projected course"), the central interval as a shaded band (a stacked pair: an unnamed
+ * invisible lower edge, then the band's width above it), and the rule's limit as a dash-dotted line named with
  * its value, each named in the legend so the look is not the only cue. The time axis is widened
  * to the projection's end, so the look-ahead shows to the right of the newest reading. A
  * projection that starts outside the chart's range is left out.
@@ -388,7 +388,7 @@ export function withProjection(option: EChartsCoreOption, projection: ChartProje
   const axis = option.xAxis as EChartsCoreOption & { max?: number };
   const added: EChartsCoreOption[] = [
     {
-      name: 'Projection band lower edge',
+      // unnamed: the legend (which later steps rebuild from the series' names) lists only the band itself
       type: 'line',
       stack: 'projection-band',
       data: steps.map((s) => [s.at, s.lower]),

@@ -16,6 +16,8 @@ export interface ColdRoomOptions {
   warmingMin?: number;
   warmingBy?: number;
   rampMin?: number;
+  /** A time of the afternoon peak (epoch ms; its time of day counts): default 14:00 UTC. */
+  peakAt?: number;
 }
 
 /** Mulberry32 uniforms (Tommy Ettinger, public domain, 2017) turned normal by Box–Muller. */
@@ -31,10 +33,10 @@ function normals(seed: number): () => number {
   return () => Math.sqrt(-2 * Math.log(1 - uniform())) * Math.cos(2 * Math.PI * uniform());
 }
 
-/** The usual temperature at a time of day (UTC hours): 4 °C at 02:00, 7 °C at 14:00. */
-export function coldRoomUsual(ms: number): number {
-  const hour = (ms % 86_400_000) / 3_600_000;
-  return 5.5 + 1.5 * Math.cos((2 * Math.PI * (hour - 14)) / 24);
+/** The usual temperature at a time: 7 °C at the afternoon peak (default 14:00 UTC), 4 °C twelve hours from it. */
+export function coldRoomUsual(ms: number, peakAt = 14 * 3_600_000): number {
+  const hours = (ms - peakAt) / 3_600_000;
+  return 5.5 + 1.5 * Math.cos((2 * Math.PI * hours) / 24);
 }
 
 /** One reading a minute ending at `endAt`, oldest first. */
@@ -52,7 +54,7 @@ export function coldRoomReadings(o: ColdRoomOptions): { ts: number[]; values: nu
     const ramp = o.rampMin ?? o.warmingMin ?? 1;
     const warming = since > 0 ? Math.min(1, since / ramp) * (o.warmingBy ?? 0) : 0;
     ts.push(at);
-    values.push(Math.round((coldRoomUsual(at) + d + warming) * 100) / 100);
+    values.push(Math.round((coldRoomUsual(at, o.peakAt) + d + warming) * 100) / 100);
   }
   return { ts, values };
 }

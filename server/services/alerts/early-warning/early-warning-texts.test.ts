@@ -11,6 +11,7 @@ const projection: StoredProjection = {
   medianMinutesToCross: 25,
   interval: { level: 0.8, lower: 6.9312, upper: 8.4071 },
   from: 0,
+  unit: '°C',
   path: [],
 };
 

@@ -68,6 +68,7 @@ async function evaluateRuleWarning(ctx: EvaluationContext, ruleId: number, count
         low: seenParams.low,
         high: seenParams.high,
         earlyWarning: seenParams.earlyWarning,
+        unit: seenTarget.unit,
       },
       ctx.now,
     );

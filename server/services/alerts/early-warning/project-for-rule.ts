@@ -25,6 +25,8 @@ export interface ProjectionSubject {
   low: number | null;
   high: number | null;
   earlyWarning: EarlyWarningParams;
+  /** The channel's unit, stored with the projection so every number it shows carries it. */
+  unit: string;
 }
 
 /**
@@ -76,6 +78,7 @@ export async function projectForRule(scope: LabScope, s: ProjectionSubject, now:
         medianMinutesToCross: likeliest.medianStepsToCross === null ? null : Math.round((likeliest.medianStepsToCross * grid.stepMs) / 60_000),
         interval: { level: p.level, lower: p.lower[h - 1], upper: p.upper[h - 1] },
         from: s.lastReadingTs,
+        unit: s.unit,
         path,
       },
     };
