@@ -64,6 +64,10 @@ import { createUsageJob } from './services/billing/usage-job.ts';
 import { createBillingService } from './services/billing/billing.service.ts';
 import { createStripeWebhooks } from './services/billing/stripe-webhooks.service.ts';
 import { billingRoutes } from './http/billing/billing.routes.ts';
+import { retentionRoutes } from './http/billing/retention.routes.ts';
+import { createRetentionJob } from './services/retention/retention-job.ts';
+import { createRetentionView } from './services/retention/retention-view.ts';
+import { processHolderName } from './jobs/job-lease.ts';
 import { stripeWebhookRoutes } from './http/billing/stripe-webhooks.routes.ts';
 import { buildOpenApiDocument } from './http/openapi/openapi-document.ts';
 import { openApiRoutes } from './http/openapi/openapi.routes.ts';
@@ -131,7 +135,8 @@ export function createApp(deps: AppDeps): Express {
   // Removes deleted labs' rows in batches; a deletion request starts a run at once.
   const labDeletions = createLabDeletionService({ db, stripe: deps.billing, now: deps.now, onRequested: () => labDeletionJob.kick() });
   const labDeletionJob = createLabDeletionJob({ db, logger, now: deps.now, beforeRun: labDeletions.settleStalled });
-  const backgroundJobs: BackgroundJob[] = [usageJob.job, alerts.job, labDeletionJob.job];
+  const retentionJob = createRetentionJob({ db, catalog: plans, logger, holder: processHolderName(), now: deps.now });
+  const backgroundJobs: BackgroundJob[] = [usageJob.job, alerts.job, labDeletionJob.job, retentionJob.job];
   const quarantine = createQuarantineService({ db, now: nowMs, hooks: ingestHooks, logger });
   // Half the database pool at most for logger batches; the rest stays free for people browsing.
   const ingest = createIngestService({ db, now: nowMs, hooks: ingestHooks, maxConcurrentBatches: Math.max(1, Math.ceil(config.db.poolMax / 2)) });
@@ -174,6 +179,7 @@ export function createApp(deps: AppDeps): Express {
     ...noteRoutes({ notes }),
     ...tokenRoutes({ tokens }),
     ...billingRoutes({ billing: billingService }),
+    ...retentionRoutes({ retention: createRetentionView({ db, catalog: plans, now: deps.now }) }),
     ...overviewRoutes({ overview: createLabOverviewService({ db, billing: billingService, now: nowMs }) }),
     // Stripe signs the raw body: 'webhook-signature' mounts it before sessions and JSON parsing.
     ...stripeWebhookRoutes({

@@ -98,6 +98,7 @@ const ALLOWED: Record<string, { roles: Role[]; ok: number }> = {
   'POST /billing/plan-change': { roles: ['admin'], ok: 409 },
   'POST /billing/portal-session': { roles: ['admin'], ok: 201 },
   'GET /billing/invoices': { roles: ['admin'], ok: 200 },
+  'GET /billing/retention': { roles: ['admin'], ok: 200 },
 };
 
 type Caller = Role | 'signed-out' | 'non-member';

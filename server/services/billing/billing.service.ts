@@ -130,14 +130,18 @@ export function createBillingService(deps: { db: Db; stripe: Stripe; catalog: Pl
 
     /**
      * A time range under the lab's plan history: the plan lets the lab browse and analyse only its
-     * last `historyDays` (older readings stay stored). The range comes back unchanged, or starting
+     * last `historyDays` (older readings stay stored unless the plan's `readingRemoval` is on). The range comes back unchanged, or starting
      * at the window with `cutAtMs` set, or is refused with 402 when it lies wholly before the
      * window (`clampToHistory`). The channel browser, diagnostics, comparisons and exports all
      * pass their range through here.
      */
     async clampToPlanHistory<Q extends { from: number; to: number }>(lab: { id: number }, q: Q): Promise<{ range: Q; cutAtMs: number | null }> {
       const plan = effectivePlan(await billingOf(lab.id).get(), catalog, now());
-      const window: HistoryWindow = { earliestMs: historyStart(plan, now().getTime()), historyDays: plan.limits.historyDays };
+      const window: HistoryWindow = {
+        earliestMs: historyStart(plan, now().getTime()),
+        historyDays: plan.limits.historyDays,
+        removesOlder: plan.readingRemoval?.enabled ?? false,
+      };
       return clampToHistory(window, q);
     },
 

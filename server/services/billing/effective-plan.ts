@@ -19,7 +19,8 @@ export function effectivePlan(billing: LabBilling | null, catalog: PlanCatalog, 
 
 /**
  * The earliest reading time (epoch ms) the plan lets the lab browse and analyse: `historyDays`
- * before now. Older readings stay stored and become visible again with a longer plan.
+ * before now. Older readings stay stored (unless the plan's `readingRemoval` is on) and become
+ * visible again with a longer plan.
  */
 export function historyStart(plan: Plan, nowMs: number): number {
   return nowMs - plan.limits.historyDays * DAY_MS;

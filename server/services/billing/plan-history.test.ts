@@ -35,4 +35,11 @@ describe('clampToHistory', () => {
     }
     expect(caught).toMatchObject({ status: 402, code: 'outside_plan_history' });
   });
+
+  it('says older readings are kept only when the plan keeps them', () => {
+    const refuse = (removesOlder: boolean) => () => clampToHistory({ ...window, removesOlder }, { from: 0, to: 1 });
+    expect(refuse(false)).toThrow(/Older readings are kept, not deleted/);
+    expect(refuse(true)).toThrow(/removes older readings from storage/);
+    expect(refuse(true)).not.toThrow(/kept, not deleted/);
+  });
 });

@@ -98,8 +98,8 @@ export function BillingPage({ slug, returned }: { slug: string; returned: Checko
               />
             </div>
             <p className="text-sm text-ink-soft">
-              Browsing and analysis reach back to <Instant at={data.historyStartsAt} kind="account" part="date" /> ({data.limits.historyDays} days). Older
-              readings stay stored and come back with a longer plan.
+              Browsing and analysis reach back to <Instant at={data.historyStartsAt} kind="account" part="date" /> ({data.limits.historyDays} days). Whether
+              older readings stay stored is said just below.
             </p>
             <RetentionPanel slug={slug} />
             <UsageSparkline points={data.trend} limit={data.limits.readings} />
