@@ -18,6 +18,10 @@ async function isCompressed(knex: Knex): Promise<boolean> {
  */
 export async function up(knex: Knex): Promise<void> {
   if (await isCompressed(knex)) return;
+  // A server keeping every table in the system tablespace (innodb_file_per_table=0) refuses the
+  // option: there the table stays as it is (the rows are still stored once, see 110305).
+  const [perTable] = (await knex.raw('SELECT @@innodb_file_per_table AS on_')) as [Array<{ on_: number | string }>];
+  if (Number(perTable[0]?.on_ ?? 0) !== 1) return;
   await knex.raw('ALTER TABLE quarantined_rows PAGE_COMPRESSED=1, ALGORITHM=INPLACE, LOCK=NONE');
 }
 
