@@ -201,10 +201,10 @@ describe('early warning on a bounds rule', () => {
       opened: 0,
       resolved: 0,
       updated: 0,
-      notProjected: [{ ruleId, detail: 'only 30 of the last 30 steps hold readings; at least 60 are needed' }],
+      notProjected: [{ ruleId, reason: 'too-little-history', detail: 'only 30 of the last 30 steps hold readings; at least 60 are needed' }],
     });
     expect(await evaluateEarlyWarnings(ctxOf(s.f, END + 2 * 3_600_000))).toMatchObject({
-      notProjected: [{ ruleId, detail: 'the channel has had no reading for 2 hours' }],
+      notProjected: [{ ruleId, reason: 'logger-silent', detail: 'the channel has had no reading for 2 hours' }],
     });
   });
 });

@@ -7,7 +7,7 @@ import { queueAlertMail } from '../alert-notifications.ts';
 import type { EvaluationContext } from '../rule-evaluation.ts';
 import { decideEarlyWarning } from './early-warning-decision.ts';
 import { warningOpenedText, warningResolvedText, type WarningEnd } from './early-warning-texts.ts';
-import { projectForRule, type RuleProjection } from './project-for-rule.ts';
+import { projectForRule, type NotProjected, type RuleProjection } from './project-for-rule.ts';
 
 /** What one pass over a lab's early warnings did. */
 export interface EarlyWarningCounts {
@@ -16,7 +16,7 @@ export interface EarlyWarningCounts {
   /** Open warnings whose projection was refreshed. */
   updated: number;
   /** Rules with the warning on that could not be projected this time, and why (the rule-health work may record them). */
-  notProjected: { ruleId: number; detail: string }[];
+  notProjected: ({ ruleId: number } & NotProjected)[];
 }
 
 /** Whether a value is beyond one of a bounds rule's limits. */
@@ -72,7 +72,7 @@ async function evaluateRuleWarning(ctx: EvaluationContext, ruleId: number, count
       },
       ctx.now,
     );
-    if (projected.notProjected !== null) counts.notProjected.push({ ruleId, detail: projected.notProjected });
+    if (projected.notProjected !== null) counts.notProjected.push({ ruleId, ...projected.notProjected });
   }
   await ctx.db.transaction(async (trx) => {
     const scope = inLab(trx, ctx.tenantId);
@@ -137,7 +137,7 @@ async function evaluateRuleWarning(ctx: EvaluationContext, ruleId: number, count
           ? { why: 'fell-back', projection: projected.projection }
           : decision.why === 'crossed'
             ? { why: 'crossed' }
-            : { why: 'not-projected', detail: projected.notProjected ?? 'no projection' };
+            : { why: 'not-projected', detail: projected.notProjected?.detail ?? 'no projection' };
       await resolveWarning(ctx, scope, rule, target, warning, end);
       counts.resolved++;
     }

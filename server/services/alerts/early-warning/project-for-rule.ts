@@ -13,9 +13,19 @@ import { projectCrossing, ProjectionRefusal, type ProjectedLimit } from './proje
  * The projection of one rule's channel (the limit with the highest chance), or why there is none;
  * with the newest reading's value (null when none was read).
  */
-export type RuleProjection = ({ projection: StoredProjection; notProjected: null } | { projection: null; notProjected: string }) & {
+export type RuleProjection = ({ projection: StoredProjection; notProjected: null } | { projection: null; notProjected: NotProjected }) & {
   newestValue: number | null;
 };
+
+/**
+ * Why a rule's channel could not be projected: the reasons of rule health where they apply
+ * ('no-readings', 'logger-silent', 'too-little-history', 'too-many-gaps'), and 'no-model' when no
+ * steady model fits the recent readings; with one sentence for people.
+ */
+export interface NotProjected {
+  reason: 'no-readings' | 'logger-silent' | 'too-little-history' | 'too-many-gaps' | 'no-model';
+  detail: string;
+}
 
 /** What the projection needs of the rule and its channel. */
 export interface ProjectionSubject {
@@ -39,15 +49,21 @@ export interface ProjectionSubject {
  */
 export async function projectForRule(scope: LabScope, s: ProjectionSubject, now: number): Promise<RuleProjection> {
   const { horizonMin } = s.earlyWarning;
-  if (s.lastReadingTs === null) return { projection: null, notProjected: 'the channel has no readings yet', newestValue: null };
+  if (s.lastReadingTs === null)
+    return { projection: null, notProjected: { reason: 'no-readings', detail: 'the channel has no readings yet' }, newestValue: null };
   if (now - s.lastReadingTs > horizonMin * 60_000) {
-    return { projection: null, notProjected: `the channel has had no reading for ${durationWords(now - s.lastReadingTs)}`, newestValue: null };
+    return {
+      projection: null,
+      notProjected: { reason: 'logger-silent', detail: `the channel has had no reading for ${durationWords(now - s.lastReadingTs)}` },
+      newestValue: null,
+    };
   }
   const grid = warningGrid(s.expectedIntervalS, horizonMin);
   const to = s.lastReadingTs + 1;
   const from = to - grid.historyMs;
   const read = await channelReadingsRepo(scope).rangeForGrid(s.channelId, from, to, grid.stepMs);
-  if (read.ts.length === 0) return { projection: null, notProjected: 'the channel has no recent readings', newestValue: null };
+  if (read.ts.length === 0)
+    return { projection: null, notProjected: { reason: 'no-readings', detail: 'the channel has no recent readings' }, newestValue: null };
   const newestValue = read.values[read.values.length - 1];
   const cells = regularize(read.ts, read.values, { step: grid.stepMs, agg: 'mean' });
   const filled = fillForDecomposition(cells.values, null);
@@ -83,7 +99,7 @@ export async function projectForRule(scope: LabScope, s: ProjectionSubject, now:
       },
     };
   } catch (err) {
-    if (err instanceof ProjectionRefusal) return { projection: null, notProjected: err.message, newestValue };
+    if (err instanceof ProjectionRefusal) return { projection: null, notProjected: { reason: err.reason, detail: err.message }, newestValue };
     throw err;
   }
 }
