@@ -207,6 +207,27 @@ describe('storage maintenance', () => {
     expect(await spaceOf(m)).not.toBe(spaceBefore);
   });
 
+  it('a long transaction on readings: the swap gives up after a short wait, changes nothing, and the next try completes', async () => {
+    await fill(B, 8, 1500);
+    const before = await monthRows(8);
+    const spaceBefore = await spaceOf(8);
+    const rebuild = createMonthRebuild({ db: t.db, logger, now: () => NOW, batchRows: BATCH, exchange: { attempts: 2, lockWaitSeconds: 1, pauseMs: 100 } });
+    // an open transaction that has read readings holds the table's metadata lock until it ends
+    const trx = await t.db.transaction();
+    try {
+      await trx('readings').where({ tenant_id: B.lab.id }).first();
+      await expect(rebuild.rebuild('p202609')).rejects.toThrow(/Lock wait timeout/);
+    } finally {
+      await trx.commit();
+    }
+    expect(await recordOf(8)).toMatchObject({ status: 'copying' });
+    expect(await spaceOf(8)).toBe(spaceBefore);
+    expect(await monthRows(8)).toEqual(before);
+    expect(await rebuild.rebuild('p202609')).toBe('rebuilt');
+    expect(await monthRows(8)).toEqual(before);
+    expect(await spaceOf(8)).not.toBe(spaceBefore);
+  });
+
   it('a month dropped (by retention) while its rebuild was unfinished: the copy goes and the record is closed', async () => {
     await fill(A, 7, 1200);
     const crashing = createMonthRebuild({

@@ -1,13 +1,19 @@
 import type { Db } from '../../db/create-db.ts';
-import { isDatabaseFull } from '../../db/db-errors.ts';
+import { isDatabaseFull, isLockConflict } from '../../db/db-errors.ts';
 import { parseMonthPartitionName, PartitionNameError } from '../../db/reading-partitions.ts';
 import { stagingTableName, storageRebuildsRepo, type ReadingKey, type RebuildRecord } from '../../db/storage-rebuilds.repo.ts';
 import type { LogWriter } from '../../log-writer.ts';
 
 /** Rows per copy or put-back statement: each is its own short transaction. */
 export const REBUILD_BATCH_ROWS = 20_000;
-/** Longest wait for ingestion's transactions before the partition swap gives up for this run. */
-export const EXCHANGE_LOCK_WAIT_S = 5;
+/**
+ * Longest wait (seconds) for running transactions on `readings` before one swap attempt gives
+ * up. While the swap waits, new statements on `readings` queue behind it, so the wait is short
+ * and the swap is tried again a little later instead.
+ */
+export const EXCHANGE_LOCK_WAIT_S = 2;
+/** Swap attempts per run (a second apart) before the month waits for the next run. */
+export const EXCHANGE_ATTEMPTS = 5;
 
 /** A step of the rebuild just finished (tests throw from `afterStep` to simulate a crash there). */
 export type RebuildStep = 'copy-batch' | 'copied' | 'exchanged' | 'put-back-batch' | 'put-back';
@@ -52,12 +58,15 @@ export function createMonthRebuild(deps: {
   logger: LogWriter;
   now?: () => Date;
   batchRows?: number;
+  /** Swap attempts per run and the lock wait of each (defaults EXCHANGE_ATTEMPTS, EXCHANGE_LOCK_WAIT_S). */
+  exchange?: { attempts: number; lockWaitSeconds: number; pauseMs: number };
   /** Called between batches (the job renews its leases here; a lost lease throws and stops the rebuild). */
   onBatch?: () => Promise<void>;
   afterStep?: (step: RebuildStep, partitionName: string) => void | Promise<void>;
 }) {
   const now = deps.now ?? (() => new Date());
   const batchRows = deps.batchRows ?? REBUILD_BATCH_ROWS;
+  const exchange = deps.exchange ?? { attempts: EXCHANGE_ATTEMPTS, lockWaitSeconds: EXCHANGE_LOCK_WAIT_S, pauseMs: 1000 };
   const repo = storageRebuildsRepo(deps.db);
 
   function monthOf(partitionName: string): number {
@@ -96,7 +105,17 @@ export function createMonthRebuild(deps: {
     await repo.update(monthStart, { stagingSpaceId: space });
     // the swap is the one step two holders must never both take: renew (a lost lease throws) right before it
     await deps.onBatch?.();
-    await repo.exchange(partitionName, staging, EXCHANGE_LOCK_WAIT_S);
+    for (let attempt = 1; ; attempt++) {
+      try {
+        await repo.exchange(partitionName, staging, exchange.lockWaitSeconds);
+        break;
+      } catch (err) {
+        // a long transaction on readings holds the table: nothing changed; try again shortly
+        if (!isLockConflict(err) || attempt >= exchange.attempts) throw err;
+        await new Promise((r) => setTimeout(r, exchange.pauseMs));
+        await deps.onBatch?.();
+      }
+    }
     await deps.afterStep?.('exchanged', partitionName);
     await repo.update(monthStart, { status: 'swapped' });
   }
