@@ -12,6 +12,7 @@ export type { PortmanteauOptions, PortmanteauResult } from './portmanteau-test.t
 export { fitArma, type FitArmaOptions, type FitArmaResult } from './fit-arma.ts';
 export { forecastArma, type ArmaForecast, type ArmaModel } from './arma-forecast.ts';
 export { armaCrossingChance, type CrossingChance, type CrossingChanceOptions } from './arma-crossing-chance.ts';
+export { integratedArmaForecast } from './integrated-arma-forecast.ts';
 export { selectArma, type ArmaCandidate, type SelectArmaOptions, type SelectArmaResult } from './select-arma.ts';
 export { crossCorrelation as ccf, type CrossCorrelationOptions, type CrossCorrelationResult } from './cross-correlation.ts';
 export { arYuleWalker, type ArYuleWalkerOptions, type ArYuleWalkerResult } from './ar-yule-walker.ts';

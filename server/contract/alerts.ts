@@ -200,7 +200,15 @@ export interface AlertAcknowledgement {
 export const ALERT_STAGES = ['crossed', 'expected'] as const;
 export type AlertStage = (typeof ALERT_STAGES)[number];
 
-/** What an early warning was based on: the model, the chance and the interval at the horizon. */
+/** One projected step of an early warning: time (epoch ms), the projected value and the central band. */
+export interface ProjectedStep {
+  at: number;
+  mean: number;
+  lower: number;
+  upper: number;
+}
+
+/** What an early warning was based on: the model, the chance and the interval at the horizon, and the projected path for the chart. */
 export interface AlertProjection {
   /** The model in words, e.g. "ARMA(1,1) on the remainder after the daily cycle". */
   model: string;
@@ -215,6 +223,10 @@ export interface AlertProjection {
   interval: { level: number; lower: number; upper: number };
   /** Time of the last reading the projection starts from (epoch ms). */
   from: number;
+  /** The channel's unit, for the numbers above. */
+  unit: string;
+  /** The projection step by step up to the horizon (central value and band). */
+  path: ProjectedStep[];
 }
 
 /** One alert: when and why it opened, whether and when it resolved, and its acknowledgement. Reading times are epoch ms like the series. */

@@ -1,20 +1,11 @@
 import type { LabScope } from './tenant-scope.ts';
 import { newId } from './new-id.ts';
-import type { AlertProjection, AlertRuleKind, AlertStage } from '../contract/alerts.ts';
+import type { AlertProjection, AlertRuleKind, AlertStage, ProjectedStep } from '../contract/alerts.ts';
 
-/** One projected step of an early warning: time (epoch ms), the projected value and the central band. */
-export interface ProjectedStep {
-  at: number;
-  mean: number;
-  lower: number;
-  upper: number;
-}
+export type { ProjectedStep };
 
-/** What an expected-stage alert stores: the projection it shows, the channel's unit for its numbers, and the projected path for the chart. */
-export interface StoredProjection extends AlertProjection {
-  unit: string;
-  path: ProjectedStep[];
-}
+/** What an expected-stage alert stores: the projection as the API shows it (unit and projected path included). */
+export type StoredProjection = AlertProjection;
 
 export interface AlertRecord {
   id: number;

@@ -78,6 +78,7 @@ export default function LabChannelRoute() {
       <SafetyCautionNote channel={c} />
       <ReadingsPanel
         slug={slug}
+        canReadAlerts={can('alerts.read')}
         channel={c}
         range={view.range}
         preset={view.preset}

@@ -31,9 +31,8 @@ export function presentAlert(a: AlertRecord): Alert {
     ruleId: a.ruleId,
     ruleName: a.ruleName,
     kind: a.kind,
-    // replaced by the early-warning work in progress (session 9): the alert's stored stage
-    stage: 'crossed',
-    projection: null,
+    stage: a.stage,
+    projection: a.projection,
     channelId: a.channelId,
     loggerId: a.loggerId,
     open: a.resolvedAt === null,

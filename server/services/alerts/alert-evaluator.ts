@@ -9,6 +9,7 @@ import type { LogWriter } from '../../log-writer.ts';
 import { queueAlertMail } from './alert-notifications.ts';
 import { withEvaluatorLock } from './evaluator-lock.ts';
 import { sendDueMail } from './outbox-sender.ts';
+import { evaluateEarlyWarnings } from './early-warning/evaluate-early-warnings.ts';
 import { evaluateSilenceRule, evaluateValueRule, targetOf, type EvaluationContext } from './rule-evaluation.ts';
 
 /** What one run did (tests and logs read it). */
@@ -103,6 +104,10 @@ export function createAlertEvaluator(deps: AlertEvaluatorDeps) {
       totals.opened += c.opened;
       totals.resolved += c.resolved;
     }
+    // After the value rules: a limit alert opened in this run takes over from its early warning.
+    const warnings = await evaluateEarlyWarnings(ctx, channelIds);
+    totals.opened += warnings.opened;
+    totals.resolved += warnings.resolved;
     if (!channelIds) totals.reminders = await remind(ctx);
     const mail = await sendDueMail(deps, tenantId, now);
     totals.sent = mail.sent;

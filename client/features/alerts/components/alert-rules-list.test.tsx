@@ -40,7 +40,7 @@ describe('changing an alert rule', () => {
     expect(api.requests.find((r) => r.method === 'PATCH')?.body).toEqual({
       name: 'Cold room too warm',
       reminderAfterMin: null,
-      params: { low: null, high: 5, holdS: 120 },
+      params: { low: null, high: 5, holdS: 120, earlyWarning: null },
     });
   });
 

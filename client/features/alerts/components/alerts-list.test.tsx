@@ -42,6 +42,8 @@ const EXPECTED: Alert = {
     medianMinutesToCross: 23,
     interval: { level: 0.8, lower: 7.1842, upper: 8.3311 },
     from: Date.UTC(2026, 11, 3, 12, 30),
+    unit: '°C',
+    path: [],
   },
 };
 

@@ -6,7 +6,7 @@ import { bandWords, chanceWords, EARLY_WARNING_CAUTION, lookAheadWords } from '.
  * within the look-ahead, the central interval at its end and, when simulated paths cross, the
  * median time to the crossing; then the caution that it is an estimate, not a safety system.
  */
-export function ProjectionSummary({ projection: p, unit: given }: { projection: AlertProjection & { unit?: string }; unit: string }) {
+export function ProjectionSummary({ projection: p, unit: given }: { projection: AlertProjection; unit: string }) {
   // the server stores the channel's unit with the projection; the list's own unit wins when it has one
   const unit = given.trim() || p.unit || '';
   const limit = `${p.limit}${unit.trim() ? ` ${unit.trim()}` : ''}`;
