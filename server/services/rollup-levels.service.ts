@@ -51,7 +51,7 @@ export async function raiseFloorsOnEdit(scope: LabScope, target: IntervalEditTar
  * the next run finishes the work.
  */
 export function createRollupLevelsService(deps: { db: Db }) {
-  async function settleOne(scope: LabScope, c: ChannelLevels): Promise<SettledChannel> {
+  async function settleOne(labId: number, scope: LabScope, c: ChannelLevels): Promise<SettledChannel> {
     const repo = rollupLevelsRepo(scope);
     const out: SettledChannel = { channelId: c.channelId, from: c.floor, to: c.floor, built: [], removed: 0 };
     const finer = c.wanted !== null && (c.floor === null || c.wanted < c.floor);
@@ -61,7 +61,18 @@ export function createRollupLevelsService(deps: { db: Db }) {
       const span = await repo.readingSpan(c.channelId);
       if (span) {
         const bounds = monthBounds(span.first, span.last);
-        for (let i = 0; i + 1 < bounds.length; i++) for (const res of build) await repo.buildFromRaw(c.channelId, res, bounds[i], bounds[i + 1]);
+        for (let i = 0; i + 1 < bounds.length; i++) {
+          for (const res of build) {
+            // REPEATABLE READ: the INSERT … SELECT takes shared next-key locks on the month's
+            // readings, so a batch still writing there is waited for and counted, and one that
+            // comes later adds its readings on top of the rebuilt bucket instead of being
+            // overwritten. (Batches that began before the edit committed are already in: the
+            // edit and ingestion both lock the logger's row.)
+            await deps.db.transaction((trx) => rollupLevelsRepo(inLab(trx, labId)).buildFromRaw(c.channelId, res, bounds[i], bounds[i + 1]), {
+              isolationLevel: 'repeatable read',
+            });
+          }
+        }
       }
       if (await repo.lowerFloor(c.channelId, c.wanted!, c.floor)) {
         out.to = c.wanted;
@@ -83,7 +94,7 @@ export function createRollupLevelsService(deps: { db: Db }) {
     async settle(labId: number, target: IntervalEditTarget): Promise<SettledChannel[]> {
       const scope = inLab(deps.db, labId);
       const settled: SettledChannel[] = [];
-      for (const c of await rollupLevelsRepo(scope).levels(target)) settled.push(await settleOne(scope, c));
+      for (const c of await rollupLevelsRepo(scope).levels(target)) settled.push(await settleOne(labId, scope, c));
       return settled;
     },
 
@@ -98,7 +109,7 @@ export function createRollupLevelsService(deps: { db: Db }) {
       const scope = inLab(deps.db, labId);
       const changed: SettledChannel[] = [];
       for (const c of await rollupLevelsRepo(scope).levels({ wholeLab: true })) {
-        const done = await settleOne(scope, c);
+        const done = await settleOne(labId, scope, c);
         if (done.from !== done.to || done.removed > 0) changed.push(done);
       }
       return changed;
