@@ -1,4 +1,5 @@
 import type { ClockChoice } from '../../contract/me.ts';
+import type { AlertStage } from '../../contract/alerts.ts';
 import type { LabScope } from '../../db/tenant-scope.ts';
 import { alertRulesRepo } from '../../db/alert-rules.repo.ts';
 import { outboxRepo, type AlertNotificationKind } from '../../db/notification-outbox.repo.ts';
@@ -12,7 +13,7 @@ export interface NotificationSubject {
   publicUrl: string;
   rule: { id: number; name: string };
   target: WatchedTarget;
-  alert: { id: number; openedAt: number };
+  alert: { id: number; openedAt: number; stage?: AlertStage };
   kind: AlertNotificationKind;
   sequence: number;
   at: number;
@@ -62,6 +63,7 @@ export async function queueAlertMail(scope: LabScope, n: NotificationSubject): P
         openedAt: n.alert.openedAt,
         link,
         timeZone: mailTimeZone(r.clock, n.target.timezone, r.timeZone),
+        stage: n.alert.stage,
       });
       return {
         alertId: n.alert.id,

@@ -25,6 +25,19 @@ describe('alertMail', () => {
     expect(m.text).not.toContain('Open since');
   });
 
+  it('an early warning reads as one, from the subject on, with its own caution', () => {
+    const opened = alertMail({ ...base, kind: 'opened', sequence: 0, stage: 'expected' });
+    expect(opened.subject).toBe('[Hollowbrook Cryo Store] Early warning: Freezer too warm — Freezer 3 · Cabinet temperature');
+    expect(opened.text).toContain('an estimate from past readings, not a safety system');
+    expect(opened.html).toContain('an estimate from past readings, not a safety system');
+    expect(opened.text).toContain('no replacement for a certified alarm system');
+    const over = alertMail({ ...base, kind: 'resolved', sequence: 0, stage: 'expected' });
+    expect(over.subject).toContain('Early warning over: Freezer too warm');
+    const crossed = alertMail({ ...base, kind: 'opened', sequence: 0, stage: 'crossed' });
+    expect(crossed.subject).toContain('] Alert: Freezer too warm');
+    expect(crossed.text).not.toContain('not a safety system');
+  });
+
   it('a reminder is numbered and says since when the alert is open', () => {
     const m = alertMail({ ...base, kind: 'reminder', sequence: 2, at: at + 7_200_000 });
     expect(m.subject).toContain('Still open (reminder 2): Freezer too warm');

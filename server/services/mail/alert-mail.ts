@@ -1,6 +1,7 @@
 import type { OutgoingMail } from '../../integrations/mail/create-mailer.ts';
 import type { AlertNotificationKind } from '../../db/notification-outbox.repo.ts';
 import { wallClockText } from '../../policies/time-zones.ts';
+import type { AlertStage } from '../../contract/alerts.ts';
 
 /** Escapes text for HTML mail bodies. */
 export function esc(s: string): string {
@@ -30,6 +31,8 @@ export interface AlertMailInput {
   timeZone: string;
   /** The reader's own time zone, when they set one and it is another: their clock is added. */
   readerTimeZone?: string | null;
+  /** 'expected' for a bounds rule's early warning (its own headline and caution); default 'crossed'. */
+  stage?: AlertStage;
 }
 
 const isUtc = (zone: string) => zone === 'UTC' || zone === 'Etc/UTC';
@@ -51,6 +54,13 @@ export function timeText(ms: number, timeZone: string, readerTimeZone?: string |
 }
 
 const HEADLINE: Record<AlertNotificationKind, string> = { opened: 'Alert', reminder: 'Still open', resolved: 'Resolved' };
+/** An early warning's headlines: it is a projection, not a crossing, and reads as such from the subject on. */
+const WARNING_HEADLINE: Record<AlertNotificationKind, string> = {
+  opened: 'Early warning',
+  reminder: 'Early warning still open',
+  resolved: 'Early warning over',
+};
+const WARNING_CAUTION = 'An early warning is an estimate from past readings, not a safety system: the limit alert still opens if the limit is passed.';
 
 /**
  * An alert e-mail (opened, reminder, resolved): the rule, what it watches, the reading and its
@@ -59,7 +69,9 @@ const HEADLINE: Record<AlertNotificationKind, string> = { opened: 'Alert', remin
  */
 export function alertMail(input: AlertMailInput): OutgoingMail {
   const when = (ms: number) => timeText(ms, input.timeZone, input.readerTimeZone);
-  const headline = input.kind === 'reminder' ? `${HEADLINE.reminder} (reminder ${input.sequence})` : HEADLINE[input.kind];
+  const warning = input.stage === 'expected';
+  const headlines = warning ? WARNING_HEADLINE : HEADLINE;
+  const headline = input.kind === 'reminder' ? `${headlines.reminder} (reminder ${input.sequence})` : headlines[input.kind];
   const subject = `[${input.labName}] ${headline}: ${input.ruleName} — ${input.watched}`;
   const lines = [
     `${headline}: the rule "${input.ruleName}" on ${input.watched} in ${input.labName}.`,
@@ -70,13 +82,14 @@ export function alertMail(input: AlertMailInput): OutgoingMail {
     '',
     `See the channel at that time: ${input.link}`,
     '',
+    ...(warning ? [WARNING_CAUTION] : []),
     "Lagbook's alerts depend on networks and mail delivery and are no replacement for a certified alarm system on critical equipment; follow your lab's own safety rules and local regulations.",
     'You receive this because you subscribed to the rule; unsubscribe on the alerts page of the lab.',
   ];
   const html = `<p><strong>${esc(headline)}</strong>: the rule “${esc(input.ruleName)}” on ${esc(input.watched)} in ${esc(input.labName)}.</p>
 <p>What was seen: ${esc(input.detail)}.<br>${input.reading !== null ? `Reading: <strong>${esc(input.reading)}</strong> at ${esc(when(input.at))}.` : `At: ${esc(when(input.at))}.`}${input.kind !== 'opened' ? `<br>Open since: ${esc(when(input.openedAt))}.` : ''}</p>
 <p><a href="${esc(input.link)}">See the channel at that time</a></p>
-<p><small>Lagbook's alerts depend on networks and mail delivery and are no replacement for a certified alarm system on critical equipment; follow your lab's own safety rules and local regulations. You receive this because you subscribed to the rule; unsubscribe on the alerts page of the lab.</small></p>`;
+<p><small>${warning ? `${esc(WARNING_CAUTION)} ` : ''}Lagbook's alerts depend on networks and mail delivery and are no replacement for a certified alarm system on critical equipment; follow your lab's own safety rules and local regulations. You receive this because you subscribed to the rule; unsubscribe on the alerts page of the lab.</small></p>`;
   return { to: input.to, subject, text: lines.join('\n'), html };
 }
 
