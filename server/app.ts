@@ -66,6 +66,7 @@ import { createStripeWebhooks } from './services/billing/stripe-webhooks.service
 import { billingRoutes } from './http/billing/billing.routes.ts';
 import { retentionRoutes } from './http/billing/retention.routes.ts';
 import { createRetentionJob } from './services/retention/retention-job.ts';
+import { createStorageMaintenanceJob } from './services/storage/storage-maintenance-job.ts';
 import { createRetentionView } from './services/retention/retention-view.ts';
 import { processHolderName } from './jobs/job-lease.ts';
 import { stripeWebhookRoutes } from './http/billing/stripe-webhooks.routes.ts';
@@ -136,7 +137,9 @@ export function createApp(deps: AppDeps): Express {
   const labDeletions = createLabDeletionService({ db, stripe: deps.billing, now: deps.now, onRequested: () => labDeletionJob.kick() });
   const labDeletionJob = createLabDeletionJob({ db, logger, now: deps.now, beforeRun: labDeletions.settleStalled });
   const retentionJob = createRetentionJob({ db, catalog: plans, logger, holder: processHolderName(), now: deps.now });
-  const backgroundJobs: BackgroundJob[] = [usageJob.job, alerts.job, labDeletionJob.job, retentionJob.job];
+  // Month partitions ahead and the rebuild of closed months (lease 'storage-maintenance').
+  const storageJob = createStorageMaintenanceJob({ db, logger, holder: processHolderName(), now: deps.now });
+  const backgroundJobs: BackgroundJob[] = [usageJob.job, alerts.job, labDeletionJob.job, retentionJob.job, storageJob.job];
   const quarantine = createQuarantineService({ db, now: nowMs, hooks: ingestHooks, logger });
   // Half the database pool at most for logger batches; the rest stays free for people browsing.
   const ingest = createIngestService({ db, now: nowMs, hooks: ingestHooks, maxConcurrentBatches: Math.max(1, Math.ceil(config.db.poolMax / 2)) });

@@ -11,9 +11,6 @@ import { migrateToLatest } from './db/migrate.ts';
 import { createAnalysisPool } from './workers/analysis-pool.ts';
 import { serverStorageFacts } from './db/server-storage-facts.ts';
 import { checkHolePunching, logHolePunchFinding } from './services/storage/hole-punch-check.ts';
-import { createStorageMaintenanceJob } from './services/storage/storage-maintenance-job.ts';
-import { startBackgroundJobs } from './jobs/background-jobs.ts';
-import { processHolderName } from './jobs/job-lease.ts';
 
 /**
  * Lagbook's entry point: validate configuration, check the database and identity provider,
@@ -59,10 +56,7 @@ async function main(): Promise<void> {
     server.listen(config.port, config.host, resolve);
   });
   logger.info('Lagbook is listening', { url: config.publicUrl });
-  const stopAppJobs = (app.locals.startBackgroundJobs as () => () => Promise<void>)();
-  // Month partitions ahead and the rebuild of closed months, once across app servers (lease 'storage-maintenance').
-  const stopStorageJob = startBackgroundJobs([createStorageMaintenanceJob({ db, logger, holder: processHolderName() }).job], logger);
-  const stopBackgroundJobs = () => Promise.all([stopAppJobs(), stopStorageJob()]);
+  const stopBackgroundJobs = (app.locals.startBackgroundJobs as () => () => Promise<void>)();
 
   const shutdown = () => {
     server.close(() => {

@@ -120,7 +120,7 @@ export interface ChannelsAnswer {
   now: number;
 }
 
-/** One channel with the extent of its readings (`readingCount` from the daily rollups). */
+/** One channel with the extent of its readings (`readingCount` from the channel's stored-readings counter, kept in the batch transaction). */
 export interface ChannelDetail extends ChannelState {
   firstReading: { ts: number; time: IsoTime } | null;
   readingCount: number;

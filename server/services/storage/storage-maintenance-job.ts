@@ -5,6 +5,8 @@ import type { BackgroundJob } from '../../jobs/background-jobs.ts';
 import { createLeaseRunner, type HeldLease } from '../../jobs/job-lease.ts';
 import type { LogWriter } from '../../log-writer.ts';
 import { createMonthRebuild, RebuildOutOfRoomError, type RebuildStep } from './month-rebuild.ts';
+import { crossLabRepo } from '../../db/cross-lab.repo.ts';
+import { createRollupLevelsService } from '../rollup-levels.service.ts';
 
 /** How often the job runs in the server (it also runs once right after start). */
 export const STORAGE_JOB_INTERVAL_MS = 60 * 60_000;
@@ -26,6 +28,8 @@ export interface StorageRunSummary {
   monthsMade: string[];
   /** Months of readings rebuilt in this run (partition names). */
   rebuilt: string[];
+  /** Channels whose rollup levels were settled (a level built or removed after an interval change a crash cut short). */
+  rollupsSettled?: number;
   /** Set when the run stopped early (another holder, no room, a failure). */
   stopped: string | null;
 }
@@ -146,18 +150,40 @@ export function createStorageMaintenanceJob(deps: {
   async function runOnce(): Promise<StorageRunSummary> {
     const outcome = await leases.run(STORAGE_LEASE, STORAGE_LEASE_TTL_MS, async (storageLease) => {
       const monthsMade = await ensureMonthsAhead();
+      const rollupsSettled = await settleRollupLevels(storageLease);
       const inner = await leases.run(RETENTION_LEASE, STORAGE_LEASE_TTL_MS, (retentionLease) => rebuildClosedMonths([storageLease, retentionLease]));
       if (!inner.ran) {
         deps.logger.info('storage maintenance: retention is running elsewhere; rebuilds wait for the next run', { heldBy: inner.heldBy });
-        return { monthsMade, rebuilt: [], stopped: `retention lease held by ${inner.heldBy}` };
+        return { monthsMade, rollupsSettled, rebuilt: [], stopped: `retention lease held by ${inner.heldBy}` };
       }
-      return { monthsMade, ...inner.value };
+      return { monthsMade, rollupsSettled, ...inner.value };
     });
     if (!outcome.ran) {
       deps.logger.info('storage maintenance: another server holds the lease; skipped', { heldBy: outcome.heldBy });
       return { monthsMade: [], rebuilt: [], stopped: `lease held by ${outcome.heldBy}` };
     }
     return outcome.value;
+  }
+
+  /**
+   * Finishes rollup-level changes that an interval change started and a crash cut short (a finer
+   * level built from the history, a coarser floor's leftover rows removed), lab by lab; nothing to
+   * do is the usual case. One lab's failure is logged and retried next run.
+   */
+  async function settleRollupLevels(lease: HeldLease): Promise<number> {
+    const levels = createRollupLevelsService({ db: deps.db });
+    let settled = 0;
+    for (const lab of await crossLabRepo(deps.db).allLabs()) {
+      await lease.renew();
+      try {
+        const changed = await levels.settleLab(lab.id);
+        if (changed.length) deps.logger.info('storage maintenance: rollup levels settled', { labId: lab.id, channels: changed.map((c) => c.channelId) });
+        settled += changed.length;
+      } catch (err) {
+        deps.logger.warn('storage maintenance: settling rollup levels failed for a lab; the next run retries', { labId: lab.id, err: String(err) });
+      }
+    }
+    return settled;
   }
 
   /** The rebuild records and the closed months still waiting. */
