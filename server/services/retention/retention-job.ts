@@ -11,6 +11,7 @@ import { effectivePlan } from '../billing/effective-plan.ts';
 import type { PlanCatalog } from '../billing/plan-catalog.ts';
 import { planRetention, removalHorizon, type PartitionForPlan } from './retention-plan.ts';
 import { dropJournaledPartition, journalPartitionDrop, resolveOpenDrops, settlePartitionDrop } from './partition-drops.ts';
+import { planInForceSince } from './plan-in-force-since.ts';
 import { pruneLab, PRUNE_BATCH_ROWS } from './prune-lab.ts';
 
 /** How often retention runs in the server (it also runs once right after start). */
@@ -39,8 +40,10 @@ export interface RetentionRunSummary {
 export async function labHorizons(db: Db, catalog: PlanCatalog, at: Date): Promise<Map<number, number>> {
   const horizons = new Map<number, number>();
   for (const lab of await crossLabRepo(db).allLabs()) {
-    const plan = effectivePlan(await labBillingRepo(inLab(db, lab.id)).get(), catalog, at);
-    horizons.set(lab.id, removalHorizon({ historyDays: plan.limits.historyDays, readingRemoval: plan.readingRemoval }, at.getTime()));
+    const billing = await labBillingRepo(inLab(db, lab.id)).get();
+    const plan = effectivePlan(billing, catalog, at);
+    const policy = { historyDays: plan.limits.historyDays, readingRemoval: plan.readingRemoval, inForceSinceMs: planInForceSince(billing) };
+    horizons.set(lab.id, removalHorizon(policy, at.getTime()));
   }
   return horizons;
 }

@@ -1,6 +1,8 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { KEEP_EVERYTHING, partitionMayGo, planRetention, removalHorizon, type PartitionForPlan } from './retention-plan.ts';
+import { KEEP_EVERYTHING, partitionMayGo, planRetention, removalHorizon, removalStartsAt, type PartitionForPlan } from './retention-plan.ts';
+import { planInForceSince } from './plan-in-force-since.ts';
+import type { LabBilling } from '../../db/lab-billing.repo.ts';
 
 const DAY_MS = 86_400_000;
 const monthStart = (ms: number) => Date.UTC(new Date(ms).getUTCFullYear(), new Date(ms).getUTCMonth(), 1);
@@ -36,6 +38,41 @@ describe('removalHorizon', () => {
       ),
       { seed: 20261204, numRuns: 500 },
     );
+  });
+
+  it('removes nothing until the export days have passed since the plan took effect (a lab just moved onto a removing plan)', () => {
+    const policy = { historyDays: 90, readingRemoval: { enabled: true, exportDays: 30 } };
+    const since = now - 10 * DAY_MS;
+    expect(removalStartsAt({ ...policy, inForceSinceMs: since })).toBe(since + 30 * DAY_MS);
+    expect(removalHorizon({ ...policy, inForceSinceMs: since }, now)).toBe(KEEP_EVERYTHING);
+    expect(removalHorizon({ ...policy, inForceSinceMs: since }, since + 30 * DAY_MS - 1)).toBe(KEEP_EVERYTHING);
+    expect(removalHorizon({ ...policy, inForceSinceMs: since }, since + 30 * DAY_MS)).toBe(removalHorizon(policy, since + 30 * DAY_MS));
+    expect(removalHorizon({ ...policy, inForceSinceMs: now - 31 * DAY_MS }, now)).toBe(removalHorizon(policy, now));
+  });
+});
+
+describe('planInForceSince', () => {
+  const row = (over: Partial<LabBilling>): LabBilling =>
+    ({
+      tenantId: 1,
+      planKey: 'seedling',
+      status: 'none',
+      stripeCustomerId: null,
+      stripeSubscriptionId: null,
+      graceUntil: null,
+      stateAt: 0,
+      readingsCount: 0,
+      reconciledAt: null,
+      warnedPercent: 0,
+      ...over,
+    }) satisfies LabBilling;
+
+  it('is −∞ for a lab that never changed plan, else the later of the last state change (Stripe seconds) and the end of a payment grace', () => {
+    expect(planInForceSince(null)).toBe(Number.NEGATIVE_INFINITY);
+    expect(planInForceSince(row({}))).toBe(Number.NEGATIVE_INFINITY);
+    expect(planInForceSince(row({ stateAt: 1_790_000_000 }))).toBe(1_790_000_000_000);
+    expect(planInForceSince(row({ stateAt: 1_790_000_000, graceUntil: new Date(1_791_000_000_000) }))).toBe(1_791_000_000_000);
+    expect(planInForceSince(row({ stateAt: 1_792_000_000, graceUntil: new Date(1_791_000_000_000) }))).toBe(1_792_000_000_000);
   });
 });
 

@@ -9,6 +9,18 @@ export const KEEP_EVERYTHING = Number.NEGATIVE_INFINITY;
 export interface HorizonPolicy {
   historyDays: number;
   readingRemoval: ReadingRemoval;
+  /**
+   * When the lab's effective plan took effect (epoch ms; see `planInForceSince`). Removal waits
+   * the plan's export days after it, so a lab that has just moved onto a removing plan (a
+   * downgrade, a payment grace ending) has that long to export before anything goes. Omitted:
+   * the plan has always been in force.
+   */
+  inForceSinceMs?: number;
+}
+
+/** The first moment a removing plan may remove anything for a lab: its export days after the plan took effect. */
+export function removalStartsAt(policy: HorizonPolicy): number {
+  return (policy.inForceSinceMs ?? Number.NEGATIVE_INFINITY) + policy.readingRemoval.exportDays * DAY_MS;
 }
 
 /**
@@ -17,10 +29,12 @@ export interface HorizonPolicy {
  * `now − (historyDays + exportDays)` days — rounded down to a whole UTC day so that no rollup
  * bucket (a minute, an hour, a day: all divide a day and start on multiples of their length
  * from the epoch) straddles it, and the rollups before it can go whole while the ones after it stay
- * exact. `KEEP_EVERYTHING` (−∞) for a plan that keeps every reading.
+ * exact. `KEEP_EVERYTHING` (−∞) for a plan that keeps every reading, and until the plan's export
+ * days have passed since it took effect (`removalStartsAt`).
  */
 export function removalHorizon(policy: HorizonPolicy, nowMs: number): number {
   if (!policy.readingRemoval.enabled) return KEEP_EVERYTHING;
+  if (nowMs < removalStartsAt(policy)) return KEEP_EVERYTHING;
   const cut = nowMs - (policy.historyDays + policy.readingRemoval.exportDays) * DAY_MS;
   return Math.floor(cut / DAY_MS) * DAY_MS;
 }

@@ -4,7 +4,8 @@ import { labBillingRepo } from '../../db/lab-billing.repo.ts';
 import { retentionLabRepo, retentionRecordsRepo } from '../../db/retention.repo.ts';
 import { effectivePlan } from '../billing/effective-plan.ts';
 import type { Plan, PlanCatalog } from '../billing/plan-catalog.ts';
-import { removalHorizon } from './retention-plan.ts';
+import { removalHorizon, removalStartsAt } from './retention-plan.ts';
+import { planInForceSince } from './plan-in-force-since.ts';
 import { RETENTION_INTERVAL_MS } from './retention-job.ts';
 
 /** What the lab's admins are told about retention (the presenter turns times into ISO text). */
@@ -32,9 +33,13 @@ export function createRetentionView(deps: { db: Db; catalog: PlanCatalog; now?: 
     async forLab(lab: { id: number }): Promise<RetentionView> {
       const at = now().getTime();
       const scope = inLab(deps.db, lab.id);
-      const plan = effectivePlan(await labBillingRepo(scope).get(), deps.catalog, now());
-      const horizonMs = removalHorizon({ historyDays: plan.limits.historyDays, readingRemoval: plan.readingRemoval }, at);
-      if (!Number.isFinite(horizonMs)) return { removes: false, plan };
+      const billing = await labBillingRepo(scope).get();
+      const plan = effectivePlan(billing, deps.catalog, now());
+      if (!plan.readingRemoval.enabled) return { removes: false, plan };
+      const policy = { historyDays: plan.limits.historyDays, readingRemoval: plan.readingRemoval, inForceSinceMs: planInForceSince(billing) };
+      // a plan that took effect lately removes nothing until its export days have passed: show the horizon as of then
+      const startsAt = Math.max(at, removalStartsAt(policy));
+      const horizonMs = removalHorizon(policy, startsAt);
       const repo = retentionLabRepo(scope);
       let readingsBeforeHorizon = 0;
       let oldestReadingMs: number | null = null;
@@ -50,7 +55,7 @@ export function createRetentionView(deps: { db: Db; catalog: PlanCatalog; now?: 
         horizonMs,
         oldestReadingMs,
         readingsBeforeHorizon,
-        nextRemovalMs: nextRemovalAt(latest ? latest.startedAt.getTime() : null, at),
+        nextRemovalMs: Math.max(startsAt, nextRemovalAt(latest ? latest.startedAt.getTime() : null, at)),
       };
     },
   };
