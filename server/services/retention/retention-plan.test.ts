@@ -52,24 +52,24 @@ describe('removalHorizon', () => {
 });
 
 describe('planInForceSince', () => {
-  const row = (over: Partial<LabBilling>): LabBilling =>
-    ({
-      tenantId: 1,
-      planKey: 'seedling',
-      status: 'none',
-      stripeCustomerId: null,
-      stripeSubscriptionId: null,
-      graceUntil: null,
-      stateAt: 0,
-      readingsCount: 0,
-      reconciledAt: null,
-      warnedPercent: 0,
-      ...over,
-    }) satisfies LabBilling;
+  const base: LabBilling = {
+    tenantId: 1,
+    planKey: 'seedling',
+    status: 'none',
+    stripeCustomerId: null,
+    stripeSubscriptionId: null,
+    graceUntil: null,
+    stateAt: 0,
+    readingsCount: 0,
+    quarantinedCount: 0,
+    reconciledAt: null,
+    warnedPercent: 0,
+  };
+  const row = (over: Pick<LabBilling, 'stateAt'> & Partial<Pick<LabBilling, 'graceUntil'>>): LabBilling => ({ ...base, ...over });
 
   it('is −∞ for a lab that never changed plan, else the later of the last state change (Stripe seconds) and the end of a payment grace', () => {
     expect(planInForceSince(null)).toBe(Number.NEGATIVE_INFINITY);
-    expect(planInForceSince(row({}))).toBe(Number.NEGATIVE_INFINITY);
+    expect(planInForceSince(row({ stateAt: 0 }))).toBe(Number.NEGATIVE_INFINITY);
     expect(planInForceSince(row({ stateAt: 1_790_000_000 }))).toBe(1_790_000_000_000);
     expect(planInForceSince(row({ stateAt: 1_790_000_000, graceUntil: new Date(1_791_000_000_000) }))).toBe(1_791_000_000_000);
     expect(planInForceSince(row({ stateAt: 1_792_000_000, graceUntil: new Date(1_791_000_000_000) }))).toBe(1_792_000_000_000);
