@@ -24,3 +24,54 @@ export function startBackgroundJobs(jobs: readonly BackgroundJob[], logger: LogW
     await Promise.allSettled(jobs.map((job) => job.stop()));
   };
 }
+
+/** A job that runs on a fixed interval, as `repeatingJob` makes it, and can be asked to run at once. */
+export interface RepeatingJob extends BackgroundJob {
+  /** Starts a run now when the job is started in this process (during a run: one more right after it); a no-op otherwise. */
+  kick(): void;
+}
+
+/**
+ * A background job that runs `run` right after `start()` and then every `everyMs`, never two runs
+ * at once (an interval tick during a run is skipped). A failed run is logged as a warning with `failedMessage` and the next one retries: a
+ * database outage must not become an unhandled rejection, which would end the process. The timer
+ * does not keep the process alive; `stop()` waits for a run in progress.
+ */
+export function repeatingJob(opts: { name: string; everyMs: number; run: () => Promise<unknown>; logger: LogWriter; failedMessage: string }): RepeatingJob {
+  let timer: NodeJS.Timeout | null = null;
+  let running: Promise<void> | null = null;
+  let again = false;
+  const tick = () => {
+    if (running) return;
+    running = opts
+      .run()
+      .then(() => undefined)
+      .catch((err: unknown) => opts.logger.warn(opts.failedMessage, { err: String(err) }))
+      .finally(() => {
+        running = null;
+        if (again && timer) {
+          again = false;
+          tick();
+        }
+      });
+  };
+  return {
+    name: opts.name,
+    start() {
+      tick();
+      timer = setInterval(tick, opts.everyMs);
+      timer.unref();
+    },
+    async stop() {
+      if (timer) clearInterval(timer);
+      timer = null;
+      again = false;
+      await running;
+    },
+    kick() {
+      if (!timer) return;
+      if (running) again = true;
+      else tick();
+    },
+  };
+}

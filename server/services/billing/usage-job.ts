@@ -5,7 +5,7 @@ import { usageRepo } from '../../db/usage.repo.ts';
 import { crossLabRepo } from '../../db/cross-lab.repo.ts';
 import type { Mailer } from '../../integrations/mail/create-mailer.ts';
 import type { LogWriter } from '../../log-writer.ts';
-import type { BackgroundJob } from '../../jobs/background-jobs.ts';
+import { repeatingJob } from '../../jobs/background-jobs.ts';
 import { createLeaseRunner, LeaseLostError, processHolderName, type HeldLease } from '../../jobs/job-lease.ts';
 import { effectivePlan } from './effective-plan.ts';
 import { usageWarningMail } from './billing-mail.ts';
@@ -147,30 +147,12 @@ export function createUsageJob(deps: {
     return { ran: true, ...outcome.value };
   }
 
-  let timer: NodeJS.Timeout | null = null;
-  let running: Promise<void> | null = null;
-  const tick = () => {
-    if (running) return;
-    // A database outage must not become an unhandled rejection (that would end the process).
-    running = runOnce()
-      .then(() => undefined)
-      .catch((err: unknown) => deps.logger.warn('usage reconciliation failed; the next run retries', { err: String(err) }))
-      .finally(() => {
-        running = null;
-      });
-  };
-  const job: BackgroundJob = {
+  const job = repeatingJob({
     name: 'usage reconciliation',
-    start() {
-      tick();
-      timer = setInterval(tick, USAGE_JOB_INTERVAL_MS);
-      timer.unref();
-    },
-    async stop() {
-      if (timer) clearInterval(timer);
-      timer = null;
-      await running;
-    },
-  };
+    everyMs: USAGE_JOB_INTERVAL_MS,
+    run: runOnce,
+    logger: deps.logger,
+    failedMessage: 'usage reconciliation failed; the next run retries',
+  });
   return { job, runOnce, reconcileLab };
 }

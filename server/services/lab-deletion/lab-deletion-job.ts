@@ -1,7 +1,7 @@
 import type { Db } from '../../db/create-db.ts';
 import { inLab, type LabOwnedTable } from '../../db/tenant-scope.ts';
 import { labDeletionsRepo, labRowsRepo, type LabDeletionRecord } from '../../db/lab-deletions.repo.ts';
-import type { BackgroundJob } from '../../jobs/background-jobs.ts';
+import { repeatingJob } from '../../jobs/background-jobs.ts';
 import type { LogWriter } from '../../log-writer.ts';
 import { DELETION_ORDER } from './deletion-order.ts';
 
@@ -102,44 +102,18 @@ export function createLabDeletionJob(deps: {
     return summary;
   }
 
-  let timer: NodeJS.Timeout | null = null;
-  let running: Promise<unknown> | null = null;
-  let again = false;
-  const tick = () => {
-    if (running) {
-      again = true;
-      return;
-    }
-    running = runOnce()
-      .catch((err: unknown) => deps.logger.warn('lab deletion run failed; the next run retries', { err: String(err) }))
-      .finally(() => {
-        running = null;
-        if (again && timer) {
-          again = false;
-          tick();
-        }
-      });
-  };
-  const job: BackgroundJob = {
+  const job = repeatingJob({
     name: 'lab deletion',
-    start() {
-      tick();
-      timer = setInterval(tick, DELETION_JOB_INTERVAL_MS);
-      timer.unref();
-    },
-    async stop() {
-      if (timer) clearInterval(timer);
-      timer = null;
-      await running;
-    },
-  };
+    everyMs: DELETION_JOB_INTERVAL_MS,
+    run: runOnce,
+    logger: deps.logger,
+    failedMessage: 'lab deletion run failed; the next run retries',
+  });
   return {
     job,
     runOnce,
     /** Starts a run now if the job is running in this process (after a deletion request); a no-op in tests. */
-    kick(): void {
-      if (timer) tick();
-    },
+    kick: job.kick,
   };
 }
 

@@ -5,7 +5,7 @@ import { labBillingRepo } from '../../db/lab-billing.repo.ts';
 import { listPartitions } from '../../db/reading-partitions.ts';
 import { retentionRecordsRepo } from '../../db/retention.repo.ts';
 import type { LogWriter } from '../../log-writer.ts';
-import type { BackgroundJob } from '../../jobs/background-jobs.ts';
+import { repeatingJob } from '../../jobs/background-jobs.ts';
 import { createLeaseRunner, type HeldLease } from '../../jobs/job-lease.ts';
 import { effectivePlan } from '../billing/effective-plan.ts';
 import type { PlanCatalog } from '../billing/plan-catalog.ts';
@@ -161,30 +161,12 @@ export function createRetentionJob(deps: {
     return { ran: true, summary: outcome.value };
   }
 
-  let timer: NodeJS.Timeout | null = null;
-  let running: Promise<void> | null = null;
-  const tick = () => {
-    if (running) return;
-    // A database outage must not become an unhandled rejection (that would end the process).
-    running = runOnce()
-      .then(() => undefined)
-      .catch((err: unknown) => logger.warn('retention run failed; the next run resumes', { err: String(err) }))
-      .finally(() => {
-        running = null;
-      });
-  };
-  const job: BackgroundJob = {
+  const job = repeatingJob({
     name: 'retention',
-    start() {
-      tick();
-      timer = setInterval(tick, RETENTION_INTERVAL_MS);
-      timer.unref();
-    },
-    async stop() {
-      if (timer) clearInterval(timer);
-      timer = null;
-      await running;
-    },
-  };
+    everyMs: RETENTION_INTERVAL_MS,
+    run: runOnce,
+    logger: logger,
+    failedMessage: 'retention run failed; the next run resumes',
+  });
   return { job, runOnce };
 }

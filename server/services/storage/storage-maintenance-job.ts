@@ -1,7 +1,7 @@
 import type { Db } from '../../db/create-db.ts';
 import { addMonths, ensureMonthsUpTo, isPartitioned, listPartitions, PARTITIONED_TABLES, REBUILD_GRACE_MS } from '../../db/reading-partitions.ts';
 import { stagingTableName, storageRebuildsRepo, type RebuildRecord } from '../../db/storage-rebuilds.repo.ts';
-import type { BackgroundJob } from '../../jobs/background-jobs.ts';
+import { repeatingJob } from '../../jobs/background-jobs.ts';
 import { createLeaseRunner, type HeldLease } from '../../jobs/job-lease.ts';
 import type { LogWriter } from '../../log-writer.ts';
 import { createMonthRebuild, RebuildOutOfRoomError, type RebuildStep } from './month-rebuild.ts';
@@ -191,30 +191,13 @@ export function createStorageMaintenanceJob(deps: {
     return { rebuilds: await repo.all(), pending: await pendingMonths() };
   }
 
-  let timer: NodeJS.Timeout | null = null;
-  let running: Promise<unknown> | null = null;
-  const tick = () => {
-    if (running) return;
-    // A database outage must not become an unhandled rejection (that would end the process).
-    running = runOnce()
-      .catch((err: unknown) => deps.logger.warn('storage maintenance failed; the next run retries', { err: String(err) }))
-      .finally(() => {
-        running = null;
-      });
-  };
-  const job: BackgroundJob = {
+  const job = repeatingJob({
     name: 'storage maintenance',
-    start() {
-      tick();
-      timer = setInterval(tick, STORAGE_JOB_INTERVAL_MS);
-      timer.unref();
-    },
-    async stop() {
-      if (timer) clearInterval(timer);
-      timer = null;
-      await running;
-    },
-  };
+    everyMs: STORAGE_JOB_INTERVAL_MS,
+    run: runOnce,
+    logger: deps.logger,
+    failedMessage: 'storage maintenance failed; the next run retries',
+  });
   return { job, runOnce, ensureMonthsAhead, rebuildClosedMonths, progress };
 }
 
