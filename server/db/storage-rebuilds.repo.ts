@@ -37,8 +37,17 @@ const NOT_AFTER = (alias: string) =>
 const keyBindings = (k: ReadingKey) => [k.tenantId, k.tenantId, k.channelId, k.tenantId, k.channelId, k.ts];
 /** Below every real key (ids are unsigned and start at 1). */
 const START: ReadingKey = { tenantId: 0, channelId: 0, ts: Number.MIN_SAFE_INTEGER };
-/** The row's lab exists and is not being deleted: copies never bring back a deleted lab's readings. */
-const LAB_ALIVE = (alias: string) => `EXISTS (SELECT 1 FROM labs l WHERE l.id = ${alias}.tenant_id AND l.deleted_at IS NULL)`;
+/**
+ * The row's lab is gone for good: its row removed (the deletion job finished) or its deletion
+ * handed to the deletion job (`lab_deletions.ready_at` set: past the point where a failing Stripe
+ * call could still reopen the lab). A lab only marked deleted while its request is under way is
+ * NOT dead — the request may yet reopen it untouched — so its readings are copied like any other;
+ * the deletion job's leftover passes remove them if the deletion goes ahead.
+ */
+const LAB_DEAD = (alias: string) =>
+  `(NOT EXISTS (SELECT 1 FROM labs l WHERE l.id = ${alias}.tenant_id) OR EXISTS (SELECT 1 FROM lab_deletions d WHERE d.lab_id = ${alias}.tenant_id AND d.ready_at IS NOT NULL))`;
+/** Copies never bring back the readings of a lab gone for good. */
+const LAB_ALIVE = (alias: string) => `NOT ${LAB_DEAD(alias)}`;
 
 function checkedPartition(name: string): string {
   if (name !== BEFORE_PARTITION && parseMonthPartitionName(name) === null) throw new PartitionNameError(name);
@@ -196,8 +205,8 @@ export function storageRebuildsRepo(db: Db) {
 
     /**
      * Puts rows of the old partition (now the staging table) in (after, end] back into
-     * `readings` where it lacks them (readings that arrived during the copy), skipping labs being
-     * deleted. Returns the rows put back.
+     * `readings` where it lacks them (readings that arrived during the copy), skipping labs gone
+     * for good. Returns the rows put back.
      */
     async putBackBatch(staging: string, after: ReadingKey | null, end: ReadingKey | null): Promise<number> {
       return db.transaction(
@@ -213,12 +222,12 @@ export function storageRebuildsRepo(db: Db) {
       );
     },
 
-    /** Labs holding rows in the partition that are gone or being deleted. */
+    /** Labs holding rows in the partition that are gone for good (see LAB_DEAD). */
     async deadLabsIn(partition: string): Promise<number[]> {
       const rows = firstRows<{ t: number | string }>(
         await db.raw(
           `SELECT DISTINCT r.tenant_id AS t FROM ?? PARTITION (${checkedPartition(partition)}) r
-            WHERE NOT EXISTS (SELECT 1 FROM labs l WHERE l.id = r.tenant_id AND l.deleted_at IS NULL)`,
+            WHERE ${LAB_DEAD('r')}`,
           [REBUILT_TABLE],
         ),
       );
