@@ -144,6 +144,8 @@ describe('storage maintenance', () => {
           requested_by_email: 'test@lab.example',
           requested_at: new Date(),
           ready_at: new Date(),
+          // recorded as finished so the deletion job of other test files (same database) leaves it alone
+          finished_at: new Date(),
           rows_removed: '{}',
         });
         await t.db('readings').where({ tenant_id: C.lab.id }).delete();
