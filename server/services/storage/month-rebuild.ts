@@ -39,7 +39,10 @@ export type RebuildOutcome = 'rebuilt' | 'already-done';
  * table while it runs, so instead:
  *
  *  1. copy — the month's rows of live labs go, in key order and bounded batches (keyset
- *     pagination, READ COMMITTED, no locks on `readings`), into a page-compressed staging table;
+ *     pagination, READ COMMITTED, no locks on `readings`), into a page-compressed staging table,
+ *     which is then rebuilt by a sorted index build (`packStaging`: rows inserted in key order fill
+ *     pages to the brim, and full pages compress into one 4 KiB block more; the staging table is
+ *     private, so its lock holds nobody up);
  *  2. swap — `EXCHANGE PARTITION` puts the copy in the month's place (a metadata swap; the old
  *     partition becomes the staging table). The staging table's tablespace id is recorded first:
  *     after a crash, the partition carrying that id proves the swap happened;
@@ -96,10 +99,12 @@ export function createMonthRebuild(deps: {
     return copied;
   }
 
-  /** Step 2: records the copy's tablespace, then swaps it in for the month's partition. */
+  /** Step 2: packs the copy (a sorted rebuild of the private staging table), records its tablespace, then swaps it in for the month's partition. */
   async function swap(partitionName: string): Promise<void> {
     const monthStart = monthOf(partitionName);
     const staging = stagingTableName(partitionName);
+    // the pack makes a new tablespace: its id is read after it
+    await repo.packStaging(staging);
     const space = await repo.spaceId(staging);
     if (space === null) throw new Error(`rebuild of readings ${partitionName}: the staging copy is missing`);
     await repo.update(monthStart, { stagingSpaceId: space });
