@@ -155,7 +155,19 @@ export async function ensureMonthsUpTo(db: Db, table: PartitionedTable, untilMs:
   return made;
 }
 
-/** Drops one month partition (or the 'before' catch-all) — its rows go at once. */
+/** The table a dropped month is detached into before its file is removed, e.g. `readings_gone_p202611`. */
+export function detachedTableName(table: PartitionedTable, name: string): string {
+  return `${table}_gone_${name}`;
+}
+
+/**
+ * Drops one month partition (or empties the 'before' catch-all) — its rows go at once. A month is
+ * first detached into a table of its own (`CONVERT PARTITION … TO TABLE`, a metadata change that
+ * holds the partitioned table for milliseconds), then that table is dropped: removing a
+ * page-compressed file can take seconds where the filesystem frees thousands of punched holes
+ * one by one, and only the detached table waits for it, never ingestion. A crash between the two
+ * leaves the detached table, which `dropDetachedLeftovers` removes.
+ */
 export async function dropPartition(db: Db, table: PartitionedTable, name: string): Promise<void> {
   if (name !== BEFORE_PARTITION && parseMonthPartitionName(name) === null) throw new PartitionNameError(name);
   if (name === BEFORE_PARTITION) {
@@ -164,7 +176,22 @@ export async function dropPartition(db: Db, table: PartitionedTable, name: strin
     await db.raw(`ALTER TABLE ?? TRUNCATE PARTITION ${BEFORE_PARTITION}`, [table]);
     return;
   }
-  await db.raw(`ALTER TABLE ?? DROP PARTITION ${name}`, [table]);
+  const detached = detachedTableName(table, name);
+  await db.schema.dropTableIfExists(detached);
+  await db.raw(`ALTER TABLE ?? CONVERT PARTITION ${name} TO TABLE ??`, [table, detached]);
+  await db.schema.dropTableIfExists(detached);
+}
+
+/** Drops detached months a crash left behind (see `dropPartition`); returns their names. */
+export async function dropDetachedLeftovers(db: Db): Promise<string[]> {
+  const [rows] = (await db.raw(
+    `SELECT TABLE_NAME AS name FROM information_schema.TABLES WHERE TABLE_SCHEMA = DATABASE() AND (TABLE_NAME LIKE 'readings\\_gone\\_p%' OR TABLE_NAME LIKE 'reading\\_rollups\\_gone\\_p%')`,
+  )) as [Array<{ name: string }>];
+  const names = rows
+    .map((r) => r.name)
+    .filter((n) => PARTITIONED_TABLES.some((t) => n.startsWith(`${t}_gone_`) && parseMonthPartitionName(n.slice(t.length + 6)) !== null));
+  for (const n of names) await db.schema.dropTableIfExists(n);
+  return names;
 }
 
 /** Rows per (lab, channel) in one partition (for counters before a drop). */

@@ -3,6 +3,8 @@ import { createDb, type Db } from '../../server/db/create-db.ts';
 import { migrateToLatest } from '../../server/db/migrate.ts';
 import {
   addMonths,
+  detachedTableName,
+  dropDetachedLeftovers,
   dropPartition,
   ensureMonthsFrom,
   ensureMonthsUpTo,
@@ -89,6 +91,14 @@ describe('reading partitions', () => {
     expect(await countIn(m0, m1)).toBe(0);
     expect(await countIn(m1, addMonths(thisMonth, 1))).toBe(laterBefore);
     expect((await listPartitions(db, 'readings')).map((p) => p.name)).not.toContain(monthPartitionName(m0));
+    // the month was detached, then its table removed: nothing is left behind
+    expect(await db.schema.hasTable(detachedTableName('readings', monthPartitionName(m0)))).toBe(false);
+    // a crash between detaching and removing leaves the detached table: the leftover sweep removes it (and nothing else)
+    await db.raw('CREATE TABLE ?? LIKE ??', [detachedTableName('readings', 'p202001'), 'reading_rollups']);
+    await db.raw('CREATE TABLE ?? (id INT PRIMARY KEY)', ['readings_gone_notes']);
+    expect(await dropDetachedLeftovers(db)).toEqual([detachedTableName('readings', 'p202001')]);
+    expect(await db.schema.hasTable('readings_gone_notes')).toBe(true);
+    await db.schema.dropTable('readings_gone_notes');
 
     // the catch-all is emptied, not removed: older rows still have a place
     await dropPartition(db, 'readings', 'p_before');

@@ -1,5 +1,13 @@
 import type { Db } from '../../db/create-db.ts';
-import { addMonths, ensureMonthsUpTo, isPartitioned, listPartitions, PARTITIONED_TABLES, REBUILD_GRACE_MS } from '../../db/reading-partitions.ts';
+import {
+  addMonths,
+  dropDetachedLeftovers,
+  ensureMonthsUpTo,
+  isPartitioned,
+  listPartitions,
+  PARTITIONED_TABLES,
+  REBUILD_GRACE_MS,
+} from '../../db/reading-partitions.ts';
 import { stagingTableName, storageRebuildsRepo, type RebuildRecord } from '../../db/storage-rebuilds.repo.ts';
 import { repeatingJob } from '../../jobs/background-jobs.ts';
 import { createLeaseRunner, type HeldLease } from '../../jobs/job-lease.ts';
@@ -149,6 +157,8 @@ export function createStorageMaintenanceJob(deps: {
   /** One run under the leases: months ahead, then the rebuilds (which also hold the retention lease). */
   async function runOnce(): Promise<StorageRunSummary> {
     const outcome = await leases.run(STORAGE_LEASE, STORAGE_LEASE_TTL_MS, async (storageLease) => {
+      const leftovers = await dropDetachedLeftovers(deps.db);
+      if (leftovers.length) deps.logger.info('storage maintenance: removed months a crash left detached', { tables: leftovers });
       const monthsMade = await ensureMonthsAhead();
       const rollupsSettled = await settleRollupLevels(storageLease);
       const inner = await leases.run(RETENTION_LEASE, STORAGE_LEASE_TTL_MS, (retentionLease) => rebuildClosedMonths([storageLease, retentionLease]));
