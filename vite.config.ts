@@ -7,7 +7,8 @@ import { fileURLToPath } from 'node:url';
  * One file configures the client build (Vite) and every test suite (Vitest projects):
  * - unit: pure code beside its source, plus reference fixtures; no services needed;
  * - api: supertest against a real MariaDB started by docker-free-scripts/test.sh;
- * - e2e: Debian's Chromium driven by playwright-core against a running app.
+ * - e2e: Debian's Chromium driven by playwright-core against a running app;
+ * - cluster: the fault test on three MariaDB Galera nodes behind HAProxy (tests/cluster/).
  */
 export default defineConfig({
   root: 'client',
@@ -34,6 +35,7 @@ export default defineConfig({
           name: 'unit',
           root: '.',
           include: ['server/**/*.test.ts', 'docker-free-scripts/**/*.test.ts', 'tests/unit/**/*.test.ts', 'tests/reference/**/*.test.ts'],
+          setupFiles: ['tests/property-seed.ts'],
           testTimeout: 30_000,
         },
       },
@@ -44,7 +46,7 @@ export default defineConfig({
           root: '.',
           include: ['client/**/*.test.tsx', 'client/**/*.test.ts'],
           environment: 'jsdom',
-          setupFiles: ['client/test-setup.ts'],
+          setupFiles: ['client/test-setup.ts', 'tests/property-seed.ts'],
           testTimeout: 20_000,
         },
       },
@@ -54,6 +56,7 @@ export default defineConfig({
           name: 'api',
           root: '.',
           include: ['tests/api/**/*.test.ts'],
+          setupFiles: ['tests/property-seed.ts'],
           testTimeout: 30_000,
           hookTimeout: 60_000,
           fileParallelism: false,
@@ -67,6 +70,18 @@ export default defineConfig({
           include: ['tests/e2e/**/*.test.ts'],
           testTimeout: 90_000,
           hookTimeout: 120_000,
+          fileParallelism: false,
+        },
+      },
+      {
+        extends: true,
+        test: {
+          // A three-node Galera cluster behind HAProxy (docker-free-scripts/cluster.sh), started by the tests themselves.
+          name: 'cluster',
+          root: '.',
+          include: ['tests/cluster/**/*.test.ts'],
+          testTimeout: 300_000,
+          hookTimeout: 300_000,
           fileParallelism: false,
         },
       },

@@ -76,6 +76,19 @@ install_reference_libraries() {
   apt_install "${missing[@]}"
 }
 
+# What docker-free-scripts/cluster.sh needs for three MariaDB Galera nodes behind HAProxy, from
+# Debian's packages, installed when missing: the Galera 4 provider library, HAProxy, and rsync
+# (the state snapshot transfer that copies a node's data to a joining one).
+install_cluster_packages() {
+  local missing=()
+  [ -f /usr/lib/galera/libgalera_smm.so ] || missing+=(galera-4)
+  command -v haproxy >/dev/null || missing+=(haproxy)
+  command -v rsync >/dev/null || missing+=(rsync)
+  [ ${#missing[@]} -eq 0 ] && return
+  say "installing the cluster packages: ${missing[*]}…"
+  apt_install "${missing[@]}"
+}
+
 # Waits until an HTTP URL answers 2xx: wait_for_http <url> <seconds> <what>
 wait_for_http() {
   local url="$1" seconds="$2" what="$3"

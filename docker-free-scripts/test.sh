@@ -1,13 +1,15 @@
 #!/usr/bin/env bash
 # `npm test`: the same bootstrap as `npm start`, on a throw-away data folder and free ports,
 # then every suite: unit and client tests, API tests (supertest against the real MariaDB),
-# and browser tests (playwright-core driving Debian's Chromium). Cleans up after itself.
+# browser tests (playwright-core driving Debian's Chromium) and the cluster fault test (three
+# Galera nodes behind HAProxy, started by the test itself). Cleans up after itself.
 set -euo pipefail
 source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
 
 require_node
 apt_install_for mariadbd mariadb-server chromium chromium
 install_reference_libraries
+install_cluster_packages
 install_node_modules
 
 TEST_STATE_NAME=test-run
@@ -27,7 +29,7 @@ npx vite build --logLevel error
 
 # Each group runs in its own Vitest process so that the database-backed groups never overlap.
 FAILED=0
-for project in unit client api e2e; do
+for project in unit client api e2e cluster; do
   say "test group: $project"
   npx vitest run --project "$project" --reporter=default --reporter=json --outputFile.json="$STATE_DIR/results-$project.json" || FAILED=1
 done

@@ -129,6 +129,11 @@ describe('stl properties', () => {
   // the data rescales and shifts the components and leaves the weights alone. Generic noisy
   // series are used: where many residuals are exact zeros or rounding noise, the median scale
   // is itself rounding noise and the weights are not meaningful (in R or statsmodels either).
+  // The same holds where the reweighting collapses: on a short series the passes can zero a
+  // large share of the points until the smoothers pass exactly through the rest, and which
+  // point lands on which side of a cut-off is then decided by rounding (seen: 6 of 13 points
+  // at weight 0, a scale of 0.25·(1 + 2⁻⁵²) flipping one weight from 0.945 to 1). Series where
+  // more than a fifth of the weights are 0 are therefore left out.
   it('is equivariant under y → a·y + b, robust weights included', () => {
     fc.assert(
       fc.property(
@@ -140,6 +145,7 @@ describe('stl properties', () => {
           const base = stl(x, { period, seasonalWindow, robust: true });
           const residuals = Array.from(base.remainder, Math.abs).sort((p, q) => p - q);
           fc.pre(residuals[residuals.length >> 1] > 1e-9 * range(x));
+          fc.pre(base.weights.filter((w) => w === 0).length <= base.weights.length / 5);
           const moved = stl(
             x.map((v) => a * v + b),
             { period, seasonalWindow, robust: true },
