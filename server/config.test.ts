@@ -26,6 +26,34 @@ describe('loadConfig', () => {
     expect(loadConfig({ ...valid, LAGBOOK_DB_SOCKET: '/run/mysqld/mysqld.sock' }).db.socketPath).toBe('/run/mysqld/mysqld.sock');
   });
 
+  it("has no reader unless LAGBOOK_DB_READ_HOST and LAGBOOK_DB_READ_PORT are set; the reader takes the writer's user, database and pool size", () => {
+    expect(loadConfig(valid).dbRead).toBeNull();
+    const c = loadConfig({
+      ...valid,
+      LAGBOOK_DB_USER: 'lab',
+      LAGBOOK_DB_PASSWORD: 'pw',
+      LAGBOOK_DB_NAME: 'lagbook_a',
+      LAGBOOK_DB_POOL_MAX: '7',
+      LAGBOOK_DB_READ_HOST: '10.0.0.5',
+      LAGBOOK_DB_READ_PORT: '4341',
+    });
+    expect(c.dbRead).toEqual({ host: '10.0.0.5', port: 4341, user: 'lab', password: 'pw', database: 'lagbook_a', poolMax: 7 });
+    expect(loadConfig({ ...valid, LAGBOOK_DB_READ_HOST: 'r', LAGBOOK_DB_READ_PORT: '4341', LAGBOOK_DB_READ_POOL_MAX: '30' }).dbRead?.poolMax).toBe(30);
+  });
+
+  it('refuses half a reader setting and a reader pool size without a reader, naming the setting', () => {
+    expect(() => loadConfig({ ...valid, LAGBOOK_DB_READ_HOST: '10.0.0.5' })).toThrow('LAGBOOK_DB_READ_PORT: required when LAGBOOK_DB_READ_HOST is set');
+    expect(() => loadConfig({ ...valid, LAGBOOK_DB_READ_PORT: '4341' })).toThrow('LAGBOOK_DB_READ_HOST: required when LAGBOOK_DB_READ_PORT is set');
+    expect(() => loadConfig({ ...valid, LAGBOOK_DB_READ_POOL_MAX: '5' })).toThrow(
+      'LAGBOOK_DB_READ_POOL_MAX: set only together with LAGBOOK_DB_READ_HOST and LAGBOOK_DB_READ_PORT',
+    );
+    expect(() => loadConfig({ ...valid, LAGBOOK_DB_READ_HOST: 'r', LAGBOOK_DB_READ_PORT: '70000' })).toThrow(/LAGBOOK_DB_READ_PORT: /);
+    expect(() => loadConfig({ ...valid, LAGBOOK_DB_READ_HOST: 'r', LAGBOOK_DB_READ_PORT: '4341', LAGBOOK_DB_READ_POOL_MAX: '0' })).toThrow(
+      /LAGBOOK_DB_READ_POOL_MAX: /,
+    );
+    expect(() => loadConfig({ ...valid, LAGBOOK_DB_READ_HOST: '', LAGBOOK_DB_READ_PORT: '4341' })).toThrow(/LAGBOOK_DB_READ_HOST: /);
+  });
+
   it('lists every missing setting at once, by name, without a stack of internals', () => {
     let message = '';
     try {

@@ -27,6 +27,15 @@ const envSchema = z.object({
     .default('lagbook'),
   LAGBOOK_DB_POOL_MAX: z.coerce.number().int().min(1).max(200).default(10),
   LAGBOOK_DB_SOCKET: z.string().min(1).optional(),
+  /**
+   * An optional second address for reads that tolerate a replica's small lag (charts, diagnostics,
+   * exports, channel lists): a replica or a load balancer's reader listener. Set both or neither.
+   * User, password and database name are the writer's.
+   */
+  LAGBOOK_DB_READ_HOST: z.string().min(1).optional(),
+  LAGBOOK_DB_READ_PORT: z.coerce.number().int().min(1).max(65535).optional(),
+  /** Connections to the reader (default: LAGBOOK_DB_POOL_MAX). */
+  LAGBOOK_DB_READ_POOL_MAX: z.coerce.number().int().min(1).max(200).optional(),
 
   /** Signs the session cookie; at least 32 characters. */
   LAGBOOK_SESSION_SECRET: z.string().min(32, 'must be at least 32 characters'),
@@ -73,6 +82,11 @@ export interface Config {
   requestTimeoutS: number;
   /** `socketPath`, when set, is MariaDB's Unix socket on this machine and replaces host and port. */
   db: { host: string; port: number; socketPath?: string; user: string; password: string; database: string; poolMax: number };
+  /**
+   * The reader for lag-tolerant reads (same user, password and database as `db`), or null when
+   * LAGBOOK_DB_READ_HOST/PORT are unset and every read uses the writer.
+   */
+  dbRead: { host: string; port: number; user: string; password: string; database: string; poolMax: number } | null;
   sessionSecret: string;
   /** Cookies carry the Secure flag when Lagbook is reached over TLS. */
   secureCookies: boolean;
@@ -118,6 +132,31 @@ export function loadDatabaseConfig(env: NodeJS.ProcessEnv = process.env): Config
   };
 }
 
+/**
+ * The reader's settings: host and port must come together (one without the other is a typo, not
+ * a choice), and a reader pool size means nothing without a reader. Null when no reader is set.
+ */
+function readerSettings(e: z.infer<typeof envSchema>): Config['dbRead'] {
+  const host = e.LAGBOOK_DB_READ_HOST;
+  const port = e.LAGBOOK_DB_READ_PORT;
+  const problems: string[] = [];
+  if (host !== undefined && port === undefined) problems.push('  LAGBOOK_DB_READ_PORT: required when LAGBOOK_DB_READ_HOST is set');
+  if (port !== undefined && host === undefined) problems.push('  LAGBOOK_DB_READ_HOST: required when LAGBOOK_DB_READ_PORT is set');
+  if (host === undefined && port === undefined && e.LAGBOOK_DB_READ_POOL_MAX !== undefined) {
+    problems.push('  LAGBOOK_DB_READ_POOL_MAX: set only together with LAGBOOK_DB_READ_HOST and LAGBOOK_DB_READ_PORT');
+  }
+  if (problems.length > 0) throw new ConfigError(`Invalid configuration:\n${problems.join('\n')}`);
+  if (host === undefined || port === undefined) return null;
+  return {
+    host,
+    port,
+    user: e.LAGBOOK_DB_USER,
+    password: e.LAGBOOK_DB_PASSWORD,
+    database: e.LAGBOOK_DB_NAME,
+    poolMax: e.LAGBOOK_DB_READ_POOL_MAX ?? e.LAGBOOK_DB_POOL_MAX,
+  };
+}
+
 /** Parses and validates the environment; throws ConfigError listing every problem at once. */
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
   const parsed = envSchema.safeParse(env);
@@ -135,6 +174,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     );
   }
   const publicUrl = (e.LAGBOOK_PUBLIC_URL ?? `http://${e.LAGBOOK_HOST}:${e.LAGBOOK_PORT}`).replace(/\/$/, '');
+  const dbRead = readerSettings(e);
   return {
     env: e.NODE_ENV,
     host: e.LAGBOOK_HOST,
@@ -151,6 +191,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
       poolMax: e.LAGBOOK_DB_POOL_MAX,
       ...(e.LAGBOOK_DB_SOCKET ? { socketPath: e.LAGBOOK_DB_SOCKET } : {}),
     },
+    dbRead,
     sessionSecret: e.LAGBOOK_SESSION_SECRET,
     secureCookies: publicUrl.startsWith('https://'),
     oidc: {

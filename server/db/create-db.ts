@@ -8,8 +8,11 @@ export type Db = Knex;
  * while they fit, as strings beyond (supportBigNumbers); dates are read and written as UTC.
  * With `socketPath` (a server on the same machine) it connects through the Unix socket, which
  * skips the TCP stack on both sides: `npm run bench:ingest` spent less CPU per reading that way.
+ * With `reader` (the LAGBOOK_DB_READ_* connection, see read-replica.ts) every session is READ ONLY
+ * at REPEATABLE READ: a stray write fails there instead of landing on a replica, and a read
+ * transaction sees one snapshot whatever isolation level the server defaults to.
  */
-export function createDb(db: Config['db']): Db {
+export function createDb(db: Config['db'], options: { reader?: boolean } = {}): Db {
   return knex({
     client: 'mysql2',
     connection: {
@@ -24,9 +27,19 @@ export function createDb(db: Config['db']): Db {
       charset: 'utf8mb4',
       connectTimeout: 5000,
     },
-    pool: { min: 0, max: db.poolMax },
+    pool: { min: 0, max: db.poolMax, ...(options.reader ? { afterCreate: asReaderSession } : {}) },
     acquireConnectionTimeout: 10_000,
   });
+}
+
+/** A pool connection as `afterCreate` receives it (mysql2's callback API). */
+interface CallbackConnection {
+  query(sql: string, cb: (err: Error | null) => void): void;
+}
+
+/** Makes a new reader connection read-only with snapshot reads (see createDb). */
+function asReaderSession(conn: CallbackConnection, done: (err: Error | null, conn: CallbackConnection) => void): void {
+  conn.query('SET SESSION TRANSACTION ISOLATION LEVEL REPEATABLE READ, READ ONLY', (err) => done(err, conn));
 }
 
 /** True when the database answers a trivial query within the pool's timeout. */
