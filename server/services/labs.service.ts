@@ -11,7 +11,7 @@ import { slugFromName } from '../policies/lab-slug.ts';
 import { effectivePlan } from './billing/effective-plan.ts';
 import type { PlanCatalog } from './billing/plan-catalog.ts';
 import { ConflictError, isDuplicateKey, fieldRefusal, fieldConflict } from './service-errors.ts';
-import { isLockConflict } from '../db/db-errors.ts';
+import { retryTransaction } from '../db/retry-transaction.ts';
 import { AppError } from '../errors.ts';
 import type { Actor } from './lab-context.ts';
 import type { CreateLabInput, UpdateLabInput } from '../contract/labs.ts';
@@ -125,37 +125,39 @@ export function createLabsService(deps: { db: Db; caps?: LabCreationCaps; catalo
     /**
      * An admin renames the lab and/or changes its description. The address (slug) stays, so links
      * keep working. One transaction with the audit event (old and new values); an unchanged value
-     * is not logged as a change.
+     * is not logged as a change. A lock conflict reruns the whole transaction (`retryTransaction`).
      */
     async update(lab: LabContext, actor: Actor, input: UpdateLabInput): Promise<Lab> {
-      return deps.db.transaction(async (trx) => {
-        const repo = labsRepo(trx);
-        await repo.lock(lab.id);
-        const before = await current(trx, lab);
-        const changes: { name?: string; description?: string } = {};
-        if (input.name !== undefined && input.name !== before.name) changes.name = input.name;
-        if (input.description !== undefined && input.description !== before.description) changes.description = input.description;
-        if (Object.keys(changes).length === 0) return before;
-        const after = (await repo.update(lab.id, changes))!;
-        const what = [
-          changes.name !== undefined ? `renamed the lab from "${before.name}" to "${after.name}"` : null,
-          changes.description !== undefined ? 'changed its description' : null,
-        ]
-          .filter(Boolean)
-          .join(' and ');
-        await auditRepo(inLab(trx, lab.id)).record({
-          actorUserId: actor.id,
-          action: 'lab.updated',
-          targetType: 'lab',
-          targetId: lab.slug,
-          summary: `${actor.displayName} ${what}`,
-          details: {
-            ...(changes.name !== undefined ? { name: { from: before.name, to: after.name } } : {}),
-            ...(changes.description !== undefined ? { description: { from: before.description, to: after.description } } : {}),
-          },
-        });
-        return after;
-      });
+      return retryTransaction(() =>
+        deps.db.transaction(async (trx) => {
+          const repo = labsRepo(trx);
+          await repo.lock(lab.id);
+          const before = await current(trx, lab);
+          const changes: { name?: string; description?: string } = {};
+          if (input.name !== undefined && input.name !== before.name) changes.name = input.name;
+          if (input.description !== undefined && input.description !== before.description) changes.description = input.description;
+          if (Object.keys(changes).length === 0) return before;
+          const after = (await repo.update(lab.id, changes))!;
+          const what = [
+            changes.name !== undefined ? `renamed the lab from "${before.name}" to "${after.name}"` : null,
+            changes.description !== undefined ? 'changed its description' : null,
+          ]
+            .filter(Boolean)
+            .join(' and ');
+          await auditRepo(inLab(trx, lab.id)).record({
+            actorUserId: actor.id,
+            action: 'lab.updated',
+            targetType: 'lab',
+            targetId: lab.slug,
+            summary: `${actor.displayName} ${what}`,
+            details: {
+              ...(changes.name !== undefined ? { name: { from: before.name, to: after.name } } : {}),
+              ...(changes.description !== undefined ? { description: { from: before.description, to: after.description } } : {}),
+            },
+          });
+          return after;
+        }),
+      );
     },
 
     /**
@@ -170,19 +172,22 @@ export function createLabsService(deps: { db: Db; caps?: LabCreationCaps; catalo
       const candidates = slugCandidates(requestedSlug);
       for (let attempt = 1; ; attempt++) {
         try {
-          const lab = await deps.db.transaction(async (trx) => {
-            const repo = labsRepo(trx);
-            await repo.lockCreator(actor.id);
-            await checkCap(repo, crossLabRepo(trx), actor.id, caps, catalog);
-            const taken = await repo.takenAmong(candidates);
-            const slug = candidates.find((c) => !taken.has(c)) ?? withSuffix(requestedSlug, `-${randomBytes(3).toString('hex')}`);
-            return insertLab(trx, slug, input.name, actor, actor.id);
-          });
+          // a lock conflict (a deadlock on the slug key, or a Galera certification failure) reruns the
+          // whole transaction with back-off; what still conflicts answers 503 (nothing was created)
+          const lab = await retryTransaction(() =>
+            deps.db.transaction(async (trx) => {
+              const repo = labsRepo(trx);
+              await repo.lockCreator(actor.id);
+              await checkCap(repo, crossLabRepo(trx), actor.id, caps, catalog);
+              const taken = await repo.takenAmong(candidates);
+              const slug = candidates.find((c) => !taken.has(c)) ?? withSuffix(requestedSlug, `-${randomBytes(3).toString('hex')}`);
+              return insertLab(trx, slug, input.name, actor, actor.id);
+            }),
+          );
           return { lab, requestedSlug };
         } catch (err) {
-          // Someone else's creation took the chosen address between the look-up and the insert
-          // (or InnoDB chose this transaction as a deadlock victim on that key): start again.
-          if (!isDuplicateKey(err) && !isLockConflict(err)) throw err;
+          // Someone else's creation took the chosen address between the look-up and the insert: start again.
+          if (!isDuplicateKey(err)) throw err;
           if (attempt >= CREATE_ATTEMPTS) throw new ConflictError('slug_busy', 'Many labs are being created at this address right now; please try again.');
         }
       }
@@ -197,7 +202,7 @@ export function createLabsService(deps: { db: Db; caps?: LabCreationCaps; catalo
       const existing = await usersRepo(deps.db).findByVerifiedEmail(input.adminEmail.toLowerCase());
       const slug = requestedSlugOf(input);
       try {
-        const lab = await deps.db.transaction((trx) => insertLab(trx, slug, input.name, null, existing?.id ?? null));
+        const lab = await retryTransaction(() => deps.db.transaction((trx) => insertLab(trx, slug, input.name, null, existing?.id ?? null)));
         return { lab, adminUserId: existing?.id ?? null };
       } catch (err) {
         if (isDuplicateKey(err)) throw fieldConflict('slug_taken', 'slug', LAB_LABELS.slug, 'this address is already taken');

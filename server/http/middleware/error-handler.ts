@@ -3,7 +3,7 @@ import { ZodError } from 'zod';
 import { AppError, ServiceUnavailableError, ValidationError } from '../../errors.ts';
 import type { LogWriter } from '../../log-writer.ts';
 import { problemsMessage, problemsOfIssues, type FieldProblem } from '../../contract/words/fields.ts';
-import { isDatabaseFull, isDatabaseReadOnly, isDatabaseUnavailable, isLockConflict } from '../../db/db-errors.ts';
+import { isDatabaseFull, isDatabaseReadOnly, isDatabaseUnavailable, isLockConflict, isNodeNotReady } from '../../db/db-errors.ts';
 
 /**
  * Turns a ZodError into the one invalid-input answer: `fields` keeps each refused field's key
@@ -51,8 +51,9 @@ function bodyParserError(err: unknown): AppError | null {
 /**
  * The one error middleware: typed errors become `{ error: { code, message, fields? } }` with
  * their status (`fields` lists refused fields by key); body-parser failures (too large, bad JSON, unsupported charset or coding, corrupt
- * gzip) become 4xx; an unreachable database becomes 503 with Retry-After; anything else is
- * logged and answered 500 without internals.
+ * gzip) become 4xx; an unreachable database, a cluster node that is not ready (Galera's 1047) and a
+ * lock conflict that survived its retries (`retry-transaction.ts`) become 503 with Retry-After;
+ * anything else is logged and answered 500 without internals.
  */
 export function errorHandler(logger: LogWriter): ErrorRequestHandler {
   return (err, req, res, _next) => {
@@ -68,6 +69,8 @@ export function errorHandler(logger: LogWriter): ErrorRequestHandler {
         'The database has no room left (its disk or tablespace is full); nothing was saved. Operators must free space or grow the disk; try again later.',
         300,
       );
+    } else if (!(error instanceof AppError) && isNodeNotReady(error)) {
+      error = new ServiceUnavailableError('The database is rejoining its cluster and not ready yet; nothing was saved. Try again shortly.', 2);
     } else if (!(error instanceof AppError) && isDatabaseUnavailable(error)) {
       error = new ServiceUnavailableError('The database is unreachable; try again shortly.');
     } else if (!(error instanceof AppError) && isLockConflict(error)) {

@@ -6,7 +6,7 @@ import { loggersRepo } from '../../db/loggers.repo.ts';
 import type { ReadingSource } from '../../db/quarantine.repo.ts';
 import type { TimeFormat } from './parse-reading-time.ts';
 import type { TimeLayout } from './time-layouts.ts';
-import { isLockConflict } from '../../db/db-errors.ts';
+import { retryTransaction } from '../../db/retry-transaction.ts';
 import type { IngestHooks, StoredBatch } from './ingest-hooks.ts';
 import { checkRows, type IncomingReading } from './check-rows.ts';
 import { storeNew, storeQuarantined } from './store-new.ts';
@@ -58,24 +58,19 @@ export interface IngestOptions {
  *
  * The logger's row is locked for the transaction, so batches of one logger are applied one
  * at a time; batches of different loggers run side by side. The caller answers 2xx only after
- * this resolves, i.e. after COMMIT. A deadlock (rare) retries the whole batch.
+ * this resolves, i.e. after COMMIT. A lock conflict retries the whole batch (`retryTransaction`).
  */
 export async function ingestBatch(db: Db, target: IngestTarget, rows: IncomingReading[], opts: IngestOptions): Promise<IngestOutcome> {
-  for (let attempt = 1; ; attempt++) {
-    try {
-      // READ COMMITTED: the rollup INSERT … SELECT reads without gap locks (binary log is off),
-      // so batches of different loggers never block each other; the logger-row lock already
-      // serialises writers of the same channels.
-      const { outcome, stored } = await db.transaction((trx) => ingestBatchInTransaction(trx as unknown as Db, target, rows, opts), {
-        isolationLevel: 'read committed',
-      });
-      if (stored.accepted > 0) opts.hooks?.afterCommit?.(stored);
-      return outcome;
-    } catch (err) {
-      if (attempt < 3 && isLockConflict(err)) continue;
-      throw err;
-    }
-  }
+  // READ COMMITTED: the rollup INSERT … SELECT reads without gap locks, so batches of different
+  // loggers never block each other; the logger-row lock already serialises writers of the same
+  // channels. A lock conflict (a deadlock, or under Galera a certification failure because another
+  // node changed the logger, channel or usage row first) rolls the whole batch back: it is run
+  // again with jittered back-off, and what still fails answers 503 (nothing of it was stored).
+  const { outcome, stored } = await retryTransaction(() =>
+    db.transaction((trx) => ingestBatchInTransaction(trx as unknown as Db, target, rows, opts), { isolationLevel: 'read committed' }),
+  );
+  if (stored.accepted > 0) opts.hooks?.afterCommit?.(stored);
+  return outcome;
 }
 
 /**

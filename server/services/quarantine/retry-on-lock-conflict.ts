@@ -1,16 +1,12 @@
-import { isLockConflict } from '../../db/db-errors.ts';
+import { retryTransaction } from '../../db/retry-transaction.ts';
 
 /**
- * Runs a transaction again (at most three times in all) when MariaDB rolled it back on a
- * deadlock or a lock wait timeout: the whole transaction was undone, so running it again is safe.
+ * The quarantine's whole-transaction retry, now the shared one: runs `run` (one complete
+ * transaction) again with jittered back-off when MariaDB or Galera rolled it back on a lock
+ * conflict (see {@link retryTransaction}, which says why that is safe). Kept under this name so
+ * its callers (`quarantine.service.ts`, `bulk-runs.ts`) need no change; new code calls
+ * `retryTransaction` directly.
  */
-export async function retryOnLockConflict<T>(run: () => Promise<T>): Promise<T> {
-  for (let attempt = 1; ; attempt++) {
-    try {
-      return await run();
-    } catch (err) {
-      if (attempt < 3 && isLockConflict(err)) continue;
-      throw err;
-    }
-  }
+export function retryOnLockConflict<T>(run: () => Promise<T>): Promise<T> {
+  return retryTransaction(run);
 }
