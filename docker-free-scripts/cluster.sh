@@ -441,9 +441,10 @@ listener_answers() {
 }
 
 start() {
-  command -v mariadbd >/dev/null || fail "mariadbd not found (install Debian's mariadb-server; docker-free-scripts/install.sh does it)"
   # shellcheck source=docker-free-scripts/lib.sh
-  (source "$HERE/lib.sh" && install_cluster_packages) || fail "could not install the cluster packages"
+  (source "$HERE/lib.sh" && apt_install_for mariadbd mariadb-server && install_cluster_packages) \
+    || fail "could not install the cluster packages"
+  command -v mariadbd >/dev/null || fail "mariadbd not found (Debian package mariadb-server)"
   [ -f "$GALERA_LIB" ] || fail "the Galera provider $GALERA_LIB is missing (Debian package galera-4)"
   command -v haproxy >/dev/null || fail "haproxy not found (Debian package haproxy)"
   mkdir -p "$CLUSTER_DIR"

@@ -77,13 +77,16 @@ install_reference_libraries() {
 }
 
 # What docker-free-scripts/cluster.sh needs for three MariaDB Galera nodes behind HAProxy, from
-# Debian's packages, installed when missing: the Galera 4 provider library, HAProxy, and rsync
-# (the state snapshot transfer that copies a node's data to a joining one).
+# Debian's packages, installed when missing: the Galera 4 provider library, HAProxy, and
+# mariadb-backup with socat (the full state transfer that streams a node's data to a joining one;
+# rsync's transfer cannot be used by a root-run server, its daemon drops to 'nobody'). Node.js runs
+# the health responder HAProxy checks.
 install_cluster_packages() {
   local missing=()
   [ -f /usr/lib/galera/libgalera_smm.so ] || missing+=(galera-4)
   command -v haproxy >/dev/null || missing+=(haproxy)
-  command -v rsync >/dev/null || missing+=(rsync)
+  command -v mariadb-backup >/dev/null || missing+=(mariadb-backup)
+  command -v socat >/dev/null || missing+=(socat)
   [ ${#missing[@]} -eq 0 ] && return
   say "installing the cluster packages: ${missing[*]}…"
   apt_install "${missing[@]}"
