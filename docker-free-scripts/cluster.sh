@@ -370,7 +370,11 @@ listen reader
     server node2 127.0.0.1:$(sql_port 2) check port $(health_port 2)
     server node3 127.0.0.1:$(sql_port 3) check port $(health_port 3)
 
-# The app servers, round robin, each checked at /healthz.
+# The app servers, round robin, each checked at /healthz. Both 200 and 503 count as up: /healthz
+# answers 503 while the database does not answer, and during a writer failover that is true of
+# every app server at once; taking them all out would only swap the app's own 503 + Retry-After
+# for HAProxy's. A server that does not answer HTTP at all (stopped, hung) is taken out.
+# When no app server is up, HAProxy's own 503 carries Retry-After and the app's error shape.
 listen http
     bind 127.0.0.1:$HTTP_PORT
     mode http
@@ -381,6 +385,8 @@ listen http
     timeout server 5m
     timeout http-request 30s
     option httpchk GET /healthz
+    http-check expect rstatus ^(200|503)\$
+    http-error status 503 content-type application/json string "{\"error\":{\"code\":\"service_unavailable\",\"message\":\"No Lagbook server is answering right now; nothing was saved. Try again shortly.\"}}" hdr Retry-After 5
     default-server inter 1s fall 2 rise 1
 EOF
     printf '%s' "$servers"
