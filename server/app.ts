@@ -2,6 +2,7 @@ import express, { type Express } from 'express';
 import type Stripe from 'stripe';
 import type { Config } from './config.ts';
 import type { Db } from './db/create-db.ts';
+import { createReadReplica } from './db/read-replica.ts';
 import type { LogWriter } from './log-writer.ts';
 import type { Mailer } from './integrations/mail/create-mailer.ts';
 import type { OidcEndpoints } from './integrations/identity/oidc-discovery.ts';
@@ -79,6 +80,11 @@ import { resolveRateLimits, type RateLimits } from './http/middleware/rate-limit
 export interface AppDeps {
   config: Config;
   db: Db;
+  /**
+   * The reader (LAGBOOK_DB_READ_*) for reads that tolerate a replica's small lag: charts,
+   * diagnostics input, exports, channel lists. Default: the writer `db`. See db/read-replica.ts.
+   */
+  readDb?: Db;
   logger: LogWriter;
   identity: { endpoints: OidcEndpoints };
   mailer: Mailer;
@@ -123,6 +129,13 @@ export function createApp(deps: AppDeps): Express {
   const invitations = createInvitationsService({ db, mailer: deps.mailer, publicUrl: config.publicUrl, now: deps.now, planLimits });
   const audit = createAuditService({ db });
   const nowMs = deps.now ? () => deps.now!().getTime() : undefined;
+  // Lag-tolerant reads go to the reader when it has caught up; everything that must see its own
+  // writes (sign-in, sessions, ingestion, forms, billing, alerts, the lab guard) keeps using `db`.
+  const reads = createReadReplica({
+    writer: db,
+    reader: deps.readDb ?? null,
+    onReaderDown: (err) => logger.warn('database reader does not answer; reads use the writer for now', { err: String(err) }),
+  });
   const loggers = createLoggersService({ db, now: deps.now, planLimits });
   const alerts = createAlertsFeature({ db, mailer: deps.mailer, logger, config, now: nowMs });
   // Every way a reading comes in (API, upload, re-submit, test reading) runs the same hooks.
@@ -143,9 +156,9 @@ export function createApp(deps: AppDeps): Express {
   const quarantine = createQuarantineService({ db, now: nowMs, hooks: ingestHooks, logger });
   // Half the database pool at most for logger batches; the rest stays free for people browsing.
   const ingest = createIngestService({ db, now: nowMs, hooks: ingestHooks, maxConcurrentBatches: Math.max(1, Math.ceil(config.db.poolMax / 2)) });
-  const channels = createChannelsService({ db, now: nowMs });
+  const channels = createChannelsService({ db, reads, now: nowMs });
   const notes = createNotesService({ db, now: nowMs });
-  const diagnostics = createDiagnosticsService({ db, channels, pool: deps.analysisPool });
+  const diagnostics = createDiagnosticsService({ db, reads, channels, pool: deps.analysisPool });
   const tokens = createPersonalTokensService({ db, now: deps.now });
   const billingService = createBillingService({ db, stripe: deps.billing, catalog: plans, publicUrl: config.publicUrl, now: deps.now });
   /** The route table: every API route with its auth, input schemas and answers (see http/routes/). */
@@ -203,6 +216,8 @@ export function createApp(deps: AppDeps): Express {
   const mountContext = { guard: createLabGuard(db, { tokens }), onUndocumentedStatus: deps.onUndocumentedStatus };
   // The lab routes, for the role × route test (every lab route and its permission).
   app.locals.labRoutes = labRouteSummaries(routes) satisfies LabRouteSummary[];
+  // Which connection answered the lag-tolerant reads (tests, and a health answer that reports the reader).
+  app.locals.readReplica = reads;
   app.locals.startBackgroundJobs = (): (() => Promise<void>) => startBackgroundJobs(backgroundJobs, logger);
 
   app.use(securityHeaders({ secure: config.secureCookies }));

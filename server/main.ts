@@ -27,6 +27,16 @@ async function main(): Promise<void> {
         'Start it with docker-free-scripts/mariadb.sh start, or check the LAGBOOK_DB_* settings.',
     );
   }
+  // The reader is optional; when set it must answer at start like the writer (a typo in its
+  // address should stop the start, not hide behind the writer fallback for months).
+  const readDb = config.dbRead ? createDb(config.dbRead, { reader: true }) : undefined;
+  if (readDb && config.dbRead && !(await databaseAnswers(readDb))) {
+    await Promise.all([readDb.destroy(), db.destroy()]);
+    throw new ConfigError(
+      `The database reader at ${config.dbRead.host}:${config.dbRead.port} (${config.dbRead.database}) does not answer. ` +
+        'Check LAGBOOK_DB_READ_HOST and LAGBOOK_DB_READ_PORT, or unset both to read from the writer.',
+    );
+  }
   if (process.argv.includes('--migrate')) {
     const applied = await migrateToLatest(db);
     logger.info('migrations applied', { applied });
@@ -41,7 +51,7 @@ async function main(): Promise<void> {
   if (!(await mailer.verify())) logger.warn('the SMTP server does not answer yet; mail will be retried', { host: config.smtp.host, port: config.smtp.port });
   const billing = createStripeClient(config.stripe);
   const analysisPool = createAnalysisPool();
-  const app = createApp({ config, db, logger, identity: { endpoints }, mailer, billing, analysisPool });
+  const app = createApp({ config, db, readDb, logger, identity: { endpoints }, mailer, billing, analysisPool });
 
   const server = createServer(app);
   // Node ends any request after 5 minutes by default; a historical upload of a large export
@@ -63,7 +73,7 @@ async function main(): Promise<void> {
       void stopBackgroundJobs()
         .then(() => {
           mailer.close();
-          return Promise.all([analysisPool.close(), db.destroy()]);
+          return Promise.all([analysisPool.close(), db.destroy(), readDb?.destroy()]);
         })
         .then(() => process.exit(0));
     });

@@ -1,7 +1,10 @@
 import type { Db } from '../db/create-db.ts';
-import { inLab } from '../db/tenant-scope.ts';
+import { inLab, type DbOrTrx } from '../db/tenant-scope.ts';
+import { createReadReplica, type ReadReplica } from '../db/read-replica.ts';
 import { channelStateRepo, type ChannelWithState } from '../db/channel-state.repo.ts';
 import { channelReadingsRepo, type BucketRow } from '../db/channel-readings.repo.ts';
+
+type ChannelReadingsRepo = ReturnType<typeof channelReadingsRepo>;
 import { ROLLUP_RESOLUTIONS_S } from '../db/readings.repo.ts';
 import { levelForBuckets } from '../db/rollup-levels.ts';
 import { NotFoundError } from '../errors.ts';
@@ -64,11 +67,17 @@ function bucketSeries(rows: BucketRow[], start: number, widthMs: number, count: 
 /**
  * Browsing a lab's channels: the overview with status and sparkline, one channel's detail, its
  * series for a chart (downsampled so that extremes survive) and its readings for export.
+ * The channel row (and so its data version) always comes from the writer `db`; the readings
+ * behind a chart, a detail's extent or an export page come through `reads` (the reader when it
+ * has caught up with that version, see read-replica.ts), and the overview's list from the
+ * reader when its list of channels and loggers is the writer's. Without `reads`, everything
+ * runs on `db`.
  */
-export function createChannelsService(deps: { db: Db; now?: () => number }) {
+export function createChannelsService(deps: { db: Db; reads?: ReadReplica; now?: () => number }) {
   const now = deps.now ?? Date.now;
-  const scoped = (lab: LabContext) => {
-    const scope = inLab(deps.db, lab.id);
+  const reads = deps.reads ?? createReadReplica({ writer: deps.db });
+  const scoped = (lab: LabContext, db: DbOrTrx = deps.db) => {
+    const scope = inLab(db, lab.id);
     return { state: channelStateRepo(scope), readings: channelReadingsRepo(scope) };
   };
 
@@ -81,17 +90,20 @@ export function createChannelsService(deps: { db: Db; now?: () => number }) {
   return {
     requireChannel,
 
-    /** Every channel in use with its status and sparkline: two statements whatever the count. */
+    /** Every channel in use with its status and sparkline: two statements whatever the count (with a reader, plus its list check). */
     async overview(lab: LabContext): Promise<ChannelOverview[]> {
-      const { state, readings } = scoped(lab);
-      const channels = await state.listActive();
       const at = now();
       const startHour = Math.floor(at / HOUR_MS) * HOUR_MS - (SPARKLINE_HOURS - 1) * HOUR_MS;
-      const means = await readings.hourlyMeans(
-        channels.map((c) => c.id),
-        startHour,
-        startHour + SPARKLINE_HOURS * HOUR_MS,
-      );
+      const { channels, means } = await reads.listRead(lab.id, async (db) => {
+        const { state, readings } = scoped(lab, db);
+        const channels = await state.listActive();
+        const means = await readings.hourlyMeans(
+          channels.map((c) => c.id),
+          startHour,
+          startHour + SPARKLINE_HOURS * HOUR_MS,
+        );
+        return { channels, means };
+      });
       const lines = new Map<number, Array<number | null>>(channels.map((c) => [c.id, new Array(SPARKLINE_HOURS).fill(null)]));
       for (const m of means) {
         const line = lines.get(m.channelId);
@@ -102,7 +114,7 @@ export function createChannelsService(deps: { db: Db; now?: () => number }) {
 
     async detail(lab: LabContext, channelId: number): Promise<ChannelDetail> {
       const channel = await requireChannel(lab, channelId);
-      const extent = await scoped(lab).readings.extent(channelId);
+      const extent = await reads.channelRead(lab.id, [channel], (db) => scoped(lab, db).readings.extent(channelId));
       return { ...channel, ...channelStatus(channel, now()), firstReadingTs: extent.firstTs, readingCount: extent.count };
     },
 
@@ -121,62 +133,70 @@ export function createChannelsService(deps: { db: Db; now?: () => number }) {
      */
     async series(lab: LabContext, channelId: number, q: SeriesQuery): Promise<Series> {
       const channel = await requireChannel(lab, channelId);
-      const { readings } = scoped(lab);
-      const raw = await readings.range(channelId, q.from, q.to, q.points + 1);
-      if (raw.ts.length <= q.points) {
-        const gapMs = SILENT_AFTER_INTERVALS * channelStatus(channel, 0).intervalS * 1000;
-        const t: number[] = [];
-        const value: Array<number | null> = [];
-        for (let i = 0; i < raw.ts.length; i++) {
-          if (i > 0 && raw.ts[i] - raw.ts[i - 1] > gapMs) {
-            t.push(raw.ts[i - 1] + gapMs);
-            value.push(null);
-          }
-          t.push(raw.ts[i]);
-          value.push(raw.values[i]);
-        }
-        return { shape: 'readings', source: 'raw', resolutionS: null, bucketMs: null, from: q.from, to: q.to, t, value };
-      }
-      const target = (q.to - q.from) / Math.floor(q.points / 2);
-      const ideal = [...ROLLUP_RESOLUTIONS_S].reverse().find((r) => r * 1000 <= target) ?? null;
-      const unit = ideal ? ideal * 1000 : 1;
-      const widthMs = Math.ceil(target / unit) * unit;
-      const start = Math.floor(q.from / widthMs) * widthMs;
-      const count = Math.ceil((q.to - start) / widthMs);
-      const end = start + count * widthMs;
-      // The width is chosen as if every level were kept, so the buckets are the same whichever
-      // level (or the raw readings, where the channel keeps no level that tiles them) fills them.
-      const floor = (await readings.rollupFloors([channelId])).get(channelId) ?? null;
-      const resolutionS = levelForBuckets(ideal, floor, widthMs);
-      const rows = resolutionS
-        ? await readings.rollupBuckets(channelId, resolutionS, start, end, widthMs)
-        : await readings.rawBuckets(channelId, start, end, widthMs);
-      return {
-        shape: 'buckets',
-        source: resolutionS ? 'rollup' : 'raw',
-        resolutionS,
-        bucketMs: widthMs,
-        from: start,
-        to: end,
-        ...bucketSeries(rows, start, widthMs, count),
-      };
+      return reads.channelRead(lab.id, [channel], (db) => seriesOn(scoped(lab, db).readings, channel, q));
     },
 
     /**
      * Raw readings of [from, to) in time order, a page of up to 10,000 at a time (for streaming
-     * exports; the caller has checked the channel with `requireChannel`).
+     * exports; the caller has checked the channel with `requireChannel`). The channel's data
+     * version is read from the writer once; each page is one read through `reads`, so a reader
+     * that falls behind or goes away mid-export hands the next page to the writer.
      */
     async *readingPages(lab: LabContext, channelId: number, q: { from: number; to: number }): AsyncGenerator<{ ts: Float64Array; values: Float64Array }> {
-      const { readings } = scoped(lab);
+      const channel = await requireChannel(lab, channelId);
       let from = q.from;
       for (;;) {
-        const page = await readings.range(channelId, from, q.to, 10_000);
+        const start = from;
+        const page = await reads.channelRead(lab.id, [channel], (db) => scoped(lab, db).readings.range(channelId, start, q.to, 10_000));
         if (page.ts.length === 0) return;
         yield page;
         if (page.ts.length < 10_000) return;
         from = page.ts[page.ts.length - 1] + 1;
       }
     },
+  };
+}
+
+/** See `series` above: the answer for `channel` read from `readings` (on the connection the caller chose). */
+async function seriesOn(readings: ChannelReadingsRepo, channel: ChannelWithState, q: SeriesQuery): Promise<Series> {
+  const channelId = channel.id;
+  const raw = await readings.range(channelId, q.from, q.to, q.points + 1);
+  if (raw.ts.length <= q.points) {
+    const gapMs = SILENT_AFTER_INTERVALS * channelStatus(channel, 0).intervalS * 1000;
+    const t: number[] = [];
+    const value: Array<number | null> = [];
+    for (let i = 0; i < raw.ts.length; i++) {
+      if (i > 0 && raw.ts[i] - raw.ts[i - 1] > gapMs) {
+        t.push(raw.ts[i - 1] + gapMs);
+        value.push(null);
+      }
+      t.push(raw.ts[i]);
+      value.push(raw.values[i]);
+    }
+    return { shape: 'readings', source: 'raw', resolutionS: null, bucketMs: null, from: q.from, to: q.to, t, value };
+  }
+  const target = (q.to - q.from) / Math.floor(q.points / 2);
+  const ideal = [...ROLLUP_RESOLUTIONS_S].reverse().find((r) => r * 1000 <= target) ?? null;
+  const unit = ideal ? ideal * 1000 : 1;
+  const widthMs = Math.ceil(target / unit) * unit;
+  const start = Math.floor(q.from / widthMs) * widthMs;
+  const count = Math.ceil((q.to - start) / widthMs);
+  const end = start + count * widthMs;
+  // The width is chosen as if every level were kept, so the buckets are the same whichever
+  // level (or the raw readings, where the channel keeps no level that tiles them) fills them.
+  const floor = (await readings.rollupFloors([channelId])).get(channelId) ?? null;
+  const resolutionS = levelForBuckets(ideal, floor, widthMs);
+  const rows = resolutionS
+    ? await readings.rollupBuckets(channelId, resolutionS, start, end, widthMs)
+    : await readings.rawBuckets(channelId, start, end, widthMs);
+  return {
+    shape: 'buckets',
+    source: resolutionS ? 'rollup' : 'raw',
+    resolutionS,
+    bucketMs: widthMs,
+    from: start,
+    to: end,
+    ...bucketSeries(rows, start, widthMs, count),
   };
 }
 

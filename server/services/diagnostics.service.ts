@@ -1,6 +1,7 @@
 import { createHash } from 'node:crypto';
 import type { Db } from '../db/create-db.ts';
-import { inLab } from '../db/tenant-scope.ts';
+import { inLab, type LabScope } from '../db/tenant-scope.ts';
+import { createReadReplica, type ReadReplica } from '../db/read-replica.ts';
 import { channelReadingsRepo, type ReadingColumns } from '../db/channel-readings.repo.ts';
 import type { ChannelWithState } from '../db/channel-state.repo.ts';
 import { ROLLUP_RESOLUTIONS_S } from '../db/readings.repo.ts';
@@ -101,15 +102,20 @@ function withoutNotedCells(grid: LoadedGrid, notes: ExcludedNote[], stepMs: numb
  * read before the readings: a batch that stores new readings bumps the version, so a later
  * request never gets a result computed without them. The grids read are cached apart, under
  * the same data version: another differencing, lag or decomposition on the same range runs the
- * engine again without reading the database again.
+ * engine again without reading the database again. The grid is read through `reads` (the
+ * reader when its data version of the channel is at least the one in the key, else the writer;
+ * see read-replica.ts), so neither cache ever holds an answer older than its key; the channel
+ * rows and the notes come from the writer `db`.
  */
 export function createDiagnosticsService(deps: {
   db: Db;
+  reads?: ReadReplica;
   channels: ChannelsService;
   pool?: AnalysisPool;
   cache?: Partial<ResultCacheOptions>;
   gridCache?: Partial<ResultCacheOptions>;
 }) {
+  const reads = deps.reads ?? createReadReplica({ writer: deps.db });
   const cache = createResultCache({ ...DEFAULT_CACHE, ...deps.cache });
   const grids = createResultCache<LoadedGrid>({
     ...DEFAULT_GRID_CACHE,
@@ -132,20 +138,20 @@ export function createDiagnosticsService(deps: {
     const key = JSON.stringify([lab.id, channel.id, channel.dataVersion, range, stepMs, agg]);
     const kept = grids.get(key);
     if (kept) return kept;
-    const grid = await read(lab, channel.id, range, stepMs, agg);
+    const grid = await reads.channelRead(lab.id, [channel], (db) => read(inLab(db, lab.id), channel.id, range, stepMs, agg));
     grids.set(key, grid);
     return grid;
   }
 
   /** One channel's values on the step grid of [from, to): exact rollup cells when possible. */
   async function read(
-    lab: LabContext,
+    scope: LabScope,
     channelId: number,
     range: { from: number; to: number },
     stepMs: number,
     agg: DiagnosticsParams['agg'],
   ): Promise<LoadedGrid> {
-    const repo = channelReadingsRepo(inLab(deps.db, lab.id));
+    const repo = channelReadingsRepo(scope);
     // The coarsest level the channel keeps whose cells tile the step (none kept: raw readings).
     const floor = agg === 'mean' || agg === 'min' || agg === 'max' ? ((await repo.rollupFloors([channelId])).get(channelId) ?? null) : null;
     const resolutionS = [...ROLLUP_RESOLUTIONS_S].reverse().find((r) => isKept(r, floor) && stepMs % (r * 1000) === 0);

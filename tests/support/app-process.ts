@@ -4,14 +4,26 @@ import type { Config } from '../../server/config.ts';
 
 const ENTRY = join(import.meta.dirname, 'app-server-entry.ts');
 
-/** Lagbook's server in a child process (so a test can kill it), answering on 127.0.0.1:port. */
+/**
+ * Lagbook's server in a child process (so a test can kill it), answering on 127.0.0.1:port.
+ * `readDb` (same shape as `db`: host, port, user, password, database, poolMax) is the reader
+ * for lag-tolerant reads, as LAGBOOK_DB_READ_* sets it in production; without it every read
+ * uses `db`.
+ */
 export async function startAppProcess(
   db: Config['db'],
   port: number,
   sessionSecret: string,
+  options: { readDb?: Config['db'] } = {},
 ): Promise<{ url: string; child: ChildProcess; stopped: Promise<void> }> {
   const child = spawn('node', ['--import', 'tsx', ENTRY], {
-    env: { ...process.env, APP_PORT: String(port), APP_DB: JSON.stringify(db), APP_SESSION_SECRET: sessionSecret },
+    env: {
+      ...process.env,
+      APP_PORT: String(port),
+      APP_DB: JSON.stringify(db),
+      APP_SESSION_SECRET: sessionSecret,
+      ...(options.readDb ? { APP_READ_DB: JSON.stringify(options.readDb) } : {}),
+    },
     stdio: ['ignore', 'ignore', 'inherit'],
   });
   const stopped = new Promise<void>((resolve) => child.once('exit', () => resolve()));

@@ -2,7 +2,8 @@
  * Lagbook's real app in a process of its own, for benchmarks and crash tests, without the
  * outside services those do not exercise (no identity provider, mail or billing calls happen
  * on the paths they use). Heavy analysis runs on the worker pool, as in production. Settings:
- * APP_PORT, APP_DB (JSON of the database settings), APP_SESSION_SECRET.
+ * APP_PORT, APP_DB (JSON of the database settings), APP_SESSION_SECRET, and optionally
+ * APP_READ_DB (JSON in APP_DB's shape: the reader for lag-tolerant reads, LAGBOOK_DB_READ_*).
  */
 import { createServer } from 'node:http';
 import { createApp } from '../../server/app.ts';
@@ -24,9 +25,12 @@ const config = loadConfig({
   STRIPE_WEBHOOK_SECRET: 'whsec_bench',
 });
 const db = createDb({ ...dbConfig, poolMax: 20 });
+const readConfig = process.env.APP_READ_DB ? { poolMax: 20, ...JSON.parse(process.env.APP_READ_DB) } : null;
+const readDb = readConfig ? createDb(readConfig, { reader: true }) : undefined;
 const app = createApp({
-  config: { ...config, db: { ...dbConfig, poolMax: 20 } },
+  config: { ...config, db: { ...dbConfig, poolMax: 20 }, dbRead: readConfig },
   db,
+  readDb,
   logger: createLogWriter({ silent: true }),
   identity: {
     endpoints: {
