@@ -1,19 +1,42 @@
 import { randomUUID } from 'node:crypto';
 import { hostname } from 'node:os';
 import type { Db } from '../db/create-db.ts';
-import { jobLeasesRepo } from '../db/job-leases.repo.ts';
+import type { DbOrTrx } from '../db/tenant-scope.ts';
+import { jobLeasesRepo, type TakeResult } from '../db/job-leases.repo.ts';
 
 /** Lease names in use; each names one piece of cluster-wide work. */
-export const LEASE_NAMES = ['usage-reconciliation', 'storage-maintenance', 'retention'] as const;
+export const LEASE_NAMES = ['usage-reconciliation', 'storage-maintenance', 'retention', 'alert-evaluator'] as const;
 
 /** A lease this holder has taken, handed to the work it guards. */
 export interface HeldLease {
   readonly name: string;
+  readonly holder: string;
   readonly fencing: number;
   /** Extends the lease; throws LeaseLostError when another holder has taken it. */
   renew(): Promise<void>;
   /** Throws LeaseLostError unless this holder still holds the lease with this fencing number. */
   assertHeld(): Promise<void>;
+  /**
+   * The fencing write, inside the caller's transaction `trx` (call it first in every transaction
+   * the guarded work commits): changes the lease row only if this holder still holds it with this
+   * fencing number, and extends it by the TTL; throws LeaseLostError otherwise, which rolls the
+   * transaction back. Because the write lands in the same transaction, a takeover either waits for
+   * this commit (one node: the row lock) or makes it fail (Galera: certification), never slips in
+   * between a check and a commit as it could with {@link assertHeld}.
+   */
+  fence(trx: DbOrTrx): Promise<void>;
+}
+
+/** How `run` waits for a lease another holder has (default: it does not wait). */
+export interface LeaseWait {
+  /** Keep trying for about this many milliseconds of sleep before giving up (0: one attempt). */
+  waitMs?: number;
+  /** Mean pause between attempts; each pause is drawn from [0.5, 1.5) times it (default 100 ms). */
+  pollMs?: number;
+  /** A number in [0, 1) for the jitter (default Math.random). */
+  random?: () => number;
+  /** Waits `ms` milliseconds (default a timer; tests pass a recorder). */
+  sleep?: (ms: number) => Promise<void>;
 }
 
 /** The lease has passed to another holder (or expired): the work must stop writing. */
@@ -52,8 +75,17 @@ export function processHolderName(): string {
  * unchanged), even just after expiry. Work longer than the TTL must renew on its way.
  */
 export function createLeaseRunner(deps: { db: Db; holder: string; now?: () => Date }): {
-  /** Runs `work` only if this holder gets (or already holds) the lease `name` for `ttlMs`; releases it after. */
-  run<T>(name: string, ttlMs: number, work: (lease: HeldLease) => Promise<T>): Promise<{ ran: true; value: T } | { ran: false; heldBy: string }>;
+  /**
+   * Runs `work` only if this holder gets (or already holds) the lease `name` for `ttlMs`; releases
+   * it after. With `wait`, a lease held by another is tried again after short jittered pauses
+   * (so waiting servers do not retry in step) until `wait.waitMs` of pauses have passed.
+   */
+  run<T>(
+    name: string,
+    ttlMs: number,
+    work: (lease: HeldLease) => Promise<T>,
+    wait?: LeaseWait,
+  ): Promise<{ ran: true; value: T } | { ran: false; heldBy: string }>;
 } {
   const now = deps.now ?? (() => new Date());
   const repo = jobLeasesRepo(deps.db);
@@ -63,6 +95,7 @@ export function createLeaseRunner(deps: { db: Db; holder: string; now?: () => Da
   function heldLease(name: string, ttlMs: number, fencing: number): HeldLease {
     return {
       name,
+      holder,
       fencing,
       async renew() {
         const extended = await repo.extend(name, holder, fencing, new Date(now().getTime() + ttlMs));
@@ -74,14 +107,33 @@ export function createLeaseRunner(deps: { db: Db; holder: string; now?: () => Da
           throw new LeaseLostError(name, fencing);
         }
       },
+      async fence(trx) {
+        if (!(await repo.fence(trx, name, holder, fencing, new Date(now().getTime() + ttlMs)))) throw new LeaseLostError(name, fencing);
+      },
     };
   }
 
-  return {
-    async run(name, ttlMs, work) {
-      if (!Number.isFinite(ttlMs) || ttlMs <= 0) throw new Error('createLeaseRunner.run: ttlMs must be a positive number of milliseconds');
+  /** Takes the lease, trying again after jittered pauses while another holds it, for up to `wait.waitMs` of pauses. */
+  async function takeWaiting(name: string, ttlMs: number, wait: LeaseWait): Promise<TakeResult> {
+    const waitMs = wait.waitMs ?? 0;
+    const pollMs = wait.pollMs ?? 100;
+    const random = wait.random ?? Math.random;
+    const sleep = wait.sleep ?? ((ms: number) => new Promise<void>((resolve) => setTimeout(resolve, ms)));
+    for (let slept = 0; ;) {
       const at = now();
       const got = await repo.take(name, holder, at, new Date(at.getTime() + ttlMs));
+      if (got.taken || slept >= waitMs) return got;
+      const pause = Math.min(waitMs - slept, pollMs * (0.5 + random()));
+      await sleep(pause);
+      slept += pause;
+    }
+  }
+
+  return {
+    async run(name, ttlMs, work, wait = {}) {
+      if (!Number.isFinite(ttlMs) || ttlMs <= 0) throw new Error('createLeaseRunner.run: ttlMs must be a positive number of milliseconds');
+      if (wait.waitMs !== undefined && !(wait.waitMs >= 0)) throw new Error('createLeaseRunner.run: waitMs must be zero or more milliseconds');
+      const got = await takeWaiting(name, ttlMs, wait);
       if (!got.taken) return { ran: false, heldBy: got.heldBy };
       try {
         return { ran: true, value: await work(heldLease(name, ttlMs, got.fencing)) };

@@ -7,14 +7,19 @@ import { createDb, type Db } from '../../server/db/create-db.ts';
 import { createLogWriter } from '../../server/log-writer.ts';
 import { createMailer, type Mailer } from '../../server/integrations/mail/create-mailer.ts';
 import { ingestBatch } from '../../server/services/ingest/ingest-batch.ts';
-import { createAlertEvaluator } from '../../server/services/alerts/alert-evaluator.ts';
+import { createAlertEvaluator, EVALUATOR_LEASE, EVALUATOR_LEASE_TTL_MS } from '../../server/services/alerts/alert-evaluator.ts';
+import { evaluateValueRule } from '../../server/services/alerts/rule-evaluation.ts';
+import { createLeaseRunner, LeaseLostError } from '../../server/jobs/job-lease.ts';
+import { jobLeasesRepo } from '../../server/db/job-leases.repo.ts';
 import { fetchCapturedMail, waitForMail } from '../../docker-free-scripts/mail-capture/read-captured-mail.ts';
 
 /**
  * The alert evaluator against the real database and the local mail capture: rules fire and
  * resolve at the right readings, every notification goes out exactly once across restarts,
- * crashes, two racing evaluators and a mail server that is down. The clock is simulated
- * (passed to runOnce); readings are stored through the ingestion path.
+ * crashes, two racing evaluators and a mail server that is down; the evaluator's lease (one run
+ * at a time across servers, each scheduled cycle once, fencing, takeover after a crash). The clock
+ * is simulated (passed to runOnce, and to the lease where a test needs it to move); readings are
+ * stored through the ingestion path.
  */
 let t: TestApp;
 let mailer: Mailer;
@@ -59,6 +64,15 @@ async function store(f: LabWithEverything, start: number, stepMs: number, values
 
 const mailTo = async (who: TestUser) => (await fetchCapturedMail(captureUrl, { to: who.email })).map((m) => m.subject.replace(/^\[[^\]]*\] /, ''));
 const alertsOf = (f: LabWithEverything) => t.db('alerts').where({ tenant_id: f.lab.id }).orderBy('opened_at');
+
+/** A clock that only moves when told (the lease's clock; starts at the real time so no lease is left held for later tests). */
+function simulatedClock(start = Date.now()) {
+  let at = start;
+  return { now: () => at, advance: (ms: number) => (at += ms) };
+}
+
+/** The job_runs rows of the evaluator's cycle starting at `periodStart`. */
+const cycleRows = (periodStart: number) => t.db('job_runs').where({ name: EVALUATOR_LEASE, period_start: new Date(periodStart) });
 
 /** Simulated hourly readings (behaviour test): 21 °C ± 3 °C daily cycle peaking at 15:00, seeded noise ±0.2 °C, two decimals as a logger sends them, from five days ago. */
 function growthRoom(seed: number) {
@@ -226,17 +240,36 @@ describe('alert evaluation', () => {
     ]);
   });
 
-  it('two evaluators on two connection pools racing the same due work mail each notification once', async () => {
+  it('two evaluators on two servers in the same cycle: one runs, the other finds the cycle done; job_runs has one row; each notification is mailed once', async () => {
     const s = await setup();
     await makeRule(s, { name: 'Cold room warm', kind: 'bounds', channelId: s.f.ids.channelId, params: { high: 8 } });
     const t0 = Date.now() - 3_600_000;
     await store(s.f, t0, 60_000, [5, 9, 5, 9, 5]); // opens twice, resolves twice
     const second = createDb(t.config.db);
     extraDbs.push(second);
-    const a = evaluator();
-    const b = createAlertEvaluator({ db: second, mailer, logger, publicUrl: t.config.publicUrl, reminderAfterMin: 0 });
-    const [ra, rb] = await Promise.all([a.runOnce(t0 + 5 * 60_000), b.runOnce(t0 + 5 * 60_000)]);
-    expect(ra.ran && rb.ran).toBe(true); // the second waited for the first, then found nothing to do
+    const clock = simulatedClock();
+    const cycleMs = 30_000;
+    const a = evaluator({ holder: 'server-a', clock: clock.now, cycleMs });
+    const b = createAlertEvaluator({
+      db: second,
+      mailer,
+      logger,
+      publicUrl: t.config.publicUrl,
+      reminderAfterMin: 0,
+      holder: 'server-b',
+      clock: clock.now,
+      cycleMs,
+    });
+    // the two ticks fall 10 s apart in one 30 s cycle
+    const cycleStart = Math.floor((t0 + 5 * 60_000) / cycleMs) * cycleMs;
+    const [ra, rb] = await Promise.all([a.runOnce(cycleStart + 5_000), b.runOnce(cycleStart + 15_000)]);
+    expect([ra.ran, rb.ran].sort()).toEqual([false, true]);
+    const loser = ra.ran ? rb : ra;
+    expect(loser.skipped).toBe('cycle-done');
+    const rows = await cycleRows(cycleStart);
+    expect(rows).toHaveLength(1);
+    expect(rows[0].holder).toMatch(ra.ran ? /^server-a#/ : /^server-b#/);
+    expect(rows[0].finished_at).not.toBeNull();
     expect(await alertsOf(s.f)).toHaveLength(2);
     expect((await mailTo(s.watcher)).sort()).toEqual([
       `Alert: Cold room warm — Logger ${s.f.ids.loggerId} · Air temperature`,
@@ -245,22 +278,99 @@ describe('alert evaluation', () => {
       `Resolved: Cold room warm — Logger ${s.f.ids.loggerId} · Air temperature`,
     ]);
     expect(Number((await t.db('notification_outbox').where({ tenant_id: s.f.lab.id }).count({ n: '*' }))[0].n)).toBe(4);
+    // the next cycle runs again (on whichever server ticks first)
+    const next = await b.runOnce(cycleStart + cycleMs + 1_000);
+    expect(next.ran).toBe(true);
+    expect(await cycleRows(cycleStart + cycleMs)).toHaveLength(1);
   });
 
-  it('an evaluator that cannot get the lock within its wait skips the run', async () => {
-    const second = createDb(t.config.db);
-    extraDbs.push(second);
+  it('an evaluator that cannot get the lease within its wait skips the run and claims no cycle', async () => {
     let release!: () => void;
     const held = new Promise<void>((r) => (release = r));
-    const { withEvaluatorLock } = await import('../../server/services/alerts/evaluator-lock.ts');
-    const holding = withEvaluatorLock(t.db, 0, () => held);
+    const holding = createLeaseRunner({ db: t.db, holder: 'busy-server' }).run(EVALUATOR_LEASE, EVALUATOR_LEASE_TTL_MS, () => held);
     await new Promise((r) => setTimeout(r, 100));
-    const skipped = await createAlertEvaluator({ db: second, mailer, logger, publicUrl: t.config.publicUrl, reminderAfterMin: 0, lockWaitS: 0 }).runOnce(
-      Date.now(),
-    );
-    expect(skipped.ran).toBe(false);
+    const now = Date.now();
+    const skipped = await evaluator({ lockWaitS: 0, cycleMs: 1 }).runOnce(now);
+    expect(skipped).toMatchObject({ ran: false, skipped: 'busy' });
+    expect(await cycleRows(now)).toHaveLength(0);
     release();
     expect((await holding).ran).toBe(true);
+  });
+
+  it('after-ingest evaluation waits for the lease (short jittered pauses) and runs once the holder lets go', async () => {
+    const s = await setup();
+    await makeRule(s, { name: 'Freezer warm', kind: 'bounds', channelId: s.f.ids.channelId, params: { high: -15 } });
+    const t0 = Date.now() - 600_000;
+    await store(s.f, t0, 60_000, [-20, -10]);
+    let release!: () => void;
+    const held = new Promise<void>((r) => (release = r));
+    const holding = createLeaseRunner({ db: t.db, holder: 'busy-server' }).run(EVALUATOR_LEASE, EVALUATOR_LEASE_TTL_MS, () => held);
+    await new Promise((r) => setTimeout(r, 50));
+    setTimeout(release, 400);
+    const pauses: number[] = [];
+    const sleep = (ms: number) => {
+      pauses.push(ms);
+      return new Promise<void>((r) => setTimeout(r, ms));
+    };
+    const run = await evaluator({ lockWaitS: 5, leaseWait: { sleep, pollMs: 50 } }).evaluateChannels(s.f.lab.id, [s.f.ids.channelId], t0 + 2 * 60_000);
+    await holding;
+    expect(run).toMatchObject({ ran: true, opened: 1 });
+    expect(pauses.length).toBeGreaterThanOrEqual(3); // it waited ≈ 400 ms in pauses of 25–75 ms
+    expect(pauses.every((ms) => ms >= 25 && ms < 75)).toBe(true);
+    expect(new Set(pauses).size).toBeGreaterThan(1); // jittered, not in step
+    expect(await alertsOf(s.f)).toHaveLength(1);
+  });
+
+  it('fencing: a stale holder whose lease was taken over cannot commit a rule change; the new holder can', async () => {
+    const s = await setup();
+    const ruleId = await makeRule(s, { name: 'Incubator warm', kind: 'bounds', channelId: s.f.ids.channelId, params: { high: 38 } });
+    const t0 = Date.now() - 600_000;
+    await store(s.f, t0, 60_000, [37, 39]);
+    const clock = simulatedClock();
+    const leaseClock = () => new Date(clock.now());
+    const stale = createLeaseRunner({ db: t.db, holder: 'server-a', now: leaseClock });
+    const fresh = createLeaseRunner({ db: t.db, holder: 'server-b', now: leaseClock });
+    const ctx = { db: t.db, tenantId: s.f.lab.id, lab: { name: s.f.lab.name, slug: s.f.lab.slug }, publicUrl: t.config.publicUrl, now: t0 + 2 * 60_000 };
+    const cursor = async () => (await t.db('alert_rules').where({ tenant_id: s.f.lab.id, id: ruleId }).first()).cursor_ts;
+    const before = await cursor();
+    const outcome = await stale.run(EVALUATOR_LEASE, EVALUATOR_LEASE_TTL_MS, async (staleLease) => {
+      clock.advance(EVALUATOR_LEASE_TTL_MS + 1); // server A stalls past its TTL …
+      return fresh.run(EVALUATOR_LEASE, EVALUATOR_LEASE_TTL_MS, async (freshLease) => {
+        // … server B takes over, then A wakes up and tries to commit its step
+        await expect(evaluateValueRule({ ...ctx, fence: (trx) => staleLease.fence(trx) }, ruleId)).rejects.toBeInstanceOf(LeaseLostError);
+        const afterStale = { alerts: (await alertsOf(s.f)).length, cursor: await cursor() };
+        const counts = await evaluateValueRule({ ...ctx, fence: (trx) => freshLease.fence(trx) }, ruleId);
+        return { afterStale, counts, fencing: [staleLease.fencing, freshLease.fencing] };
+      });
+    });
+    expect(outcome.ran && outcome.value.ran).toBe(true);
+    if (!outcome.ran || !outcome.value.ran) return;
+    const { afterStale, counts, fencing } = outcome.value.value;
+    expect(afterStale).toEqual({ alerts: 0, cursor: before }); // nothing of the stale step was committed
+    expect(counts).toEqual({ opened: 1, resolved: 0 });
+    expect(fencing[1]).toBe(fencing[0] + 1);
+    expect(await alertsOf(s.f)).toHaveLength(1);
+  });
+
+  it('a holder that crashed (never released) is replaced once its lease expires, with a higher fencing number', async () => {
+    const clock = simulatedClock();
+    const leases = jobLeasesRepo(t.db);
+    const crashed = await leases.take(EVALUATOR_LEASE, 'crashed-server', new Date(clock.now()), new Date(clock.now() + EVALUATOR_LEASE_TTL_MS));
+    expect(crashed.taken).toBe(true);
+    if (!crashed.taken) return;
+    const b = evaluator({ holder: 'server-b', clock: clock.now, lockWaitS: 0, cycleMs: 1 });
+    const early = clock.now();
+    expect(await b.runOnce(early)).toMatchObject({ ran: false, skipped: 'busy' });
+    clock.advance(EVALUATOR_LEASE_TTL_MS - 1);
+    expect(await b.runOnce(early + 1)).toMatchObject({ ran: false, skipped: 'busy' });
+    clock.advance(1); // the lease expires now
+    const later = clock.now();
+    expect(await b.runOnce(later)).toMatchObject({ ran: true });
+    const [row] = await cycleRows(later);
+    expect(row.holder).toMatch(/^server-b#/);
+    expect(Number(row.fencing)).toBe(crashed.fencing + 1);
+    expect(await cycleRows(early)).toHaveLength(0);
+    expect((await leases.current(EVALUATOR_LEASE))?.holder).toBe(''); // released after the run
   });
 
   it('an evaluator stopped mid-run and restarted loses nothing and doubles nothing', async () => {

@@ -6,16 +6,41 @@ import { labsRepo } from '../../db/labs.repo.ts';
 import { crossLabRepo } from '../../db/cross-lab.repo.ts';
 import type { Mailer } from '../../integrations/mail/create-mailer.ts';
 import type { LogWriter } from '../../log-writer.ts';
+import { jobRunsRepo } from '../../db/job-runs.repo.ts';
+import { retryTransaction } from '../../db/retry-transaction.ts';
+import { createLeaseRunner, LeaseLostError, processHolderName, type HeldLease, type LeaseWait } from '../../jobs/job-lease.ts';
 import { queueAlertMail } from './alert-notifications.ts';
-import { withEvaluatorLock } from './evaluator-lock.ts';
 import { sendDueMail } from './outbox-sender.ts';
 import { evaluateEarlyWarnings } from './early-warning/evaluate-early-warnings.ts';
-import { evaluateSilenceRule, evaluateValueRule, targetOf, type EvaluationContext } from './rule-evaluation.ts';
+import { evaluateSilenceRule, evaluateValueRule, ruleTransaction, targetOf, type EvaluationContext } from './rule-evaluation.ts';
+
+/** The job lease under which every evaluation runs, one holder at a time across all app servers. */
+export const EVALUATOR_LEASE = 'alert-evaluator';
+
+/**
+ * How long the evaluator's lease holds without renewal. Every rule transaction renews it (its
+ * fencing write), and so does the start of each lab, so it only has to outlast the longest single
+ * step (one rule's chunk of 5,000 readings with an unusual-reading decomposition: seconds, not
+ * minutes). A server that dies holding it delays the others by at most this long.
+ */
+export const EVALUATOR_LEASE_TTL_MS = 120_000;
+
+/** How long cycles are remembered in `job_runs` before the evaluator prunes them. */
+export const JOB_RUNS_KEPT_MS = 7 * 86_400_000;
+
+/** Rows of `job_runs` deleted per run at most (a bounded delete; a backlog shrinks run by run). */
+const PRUNE_LIMIT = 1000;
 
 /** What one run did (tests and logs read it). */
 export interface EvaluationSummary {
-  /** False when another evaluator held the lock for longer than the wait. */
+  /** False when it did not run: see `skipped`. */
   ran: boolean;
+  /**
+   * Why it did not run (absent when it ran): `busy`, another evaluator held the lease for longer
+   * than the wait; `cycle-done`, this scheduled cycle already ran (on this or another server);
+   * `lease-lost`, the lease passed to another server mid-run, so this one stopped writing.
+   */
+  skipped?: 'busy' | 'cycle-done' | 'lease-lost';
   opened: number;
   resolved: number;
   reminders: number;
@@ -34,6 +59,19 @@ export interface AlertEvaluatorDeps {
   reminderAfterMin: number;
   /** Seconds to wait for another evaluator's run to end (default 10). */
   lockWaitS?: number;
+  /**
+   * Length of a scheduled cycle in milliseconds (the evaluation interval, which the app always
+   * passes): `runOnce(now)` claims the cycle `now` falls in, once across all servers. Without it
+   * every `runOnce` runs (still under the lease) and claims nothing: tests that drive runs one by
+   * one on simulated days shared between tests.
+   */
+  cycleMs?: number;
+  /** Names this process in the lease (default: host, pid and a random part; each run adds a sequence number). */
+  holder?: string;
+  /** The lease's clock in epoch ms (default Date.now; tests pass a simulated one). */
+  clock?: () => number;
+  /** How waiting for the lease pauses (tests pass a recorder for `sleep`). */
+  leaseWait?: Pick<LeaseWait, 'pollMs' | 'random' | 'sleep'>;
   /** Test seam: runs inside each rule's transaction just before it commits. */
   beforeRuleCommit?: (ruleId: number) => void;
 }
@@ -42,18 +80,61 @@ const EMPTY = { opened: 0, resolved: 0, reminders: 0, sent: 0, failed: 0, errors
 
 /**
  * The alert evaluator: judges new readings against value rules, the clock against silence
- * rules, sends reminders for alerts still open, and mails what the outbox holds. One evaluator
- * runs at a time across every app process (MariaDB named lock, {@link withEvaluatorLock});
- * every alert change commits together with its rule's memory and its queued mail, so a run
- * stopped anywhere is finished by the next without loss or double mail.
+ * rules, sends reminders for alerts still open, and mails what the outbox holds. Every alert
+ * change commits together with its rule's memory and its queued mail, so a run stopped anywhere
+ * is finished by the next without loss or double mail.
+ *
+ * One evaluator runs at a time across every app server: each run holds the job lease
+ * {@link EVALUATOR_LEASE} (`job-lease.ts`, an ordinary row, so it holds across a Galera cluster,
+ * where named locks would not), waiting for it up to `lockWaitS` with short jittered pauses. Every
+ * transaction of the run begins with the lease's fencing write, so a server that lost the lease
+ * (it stalled past the TTL and another took over) cannot commit anything after the takeover.
+ * A scheduled run (`runOnce`) also claims its cycle in `job_runs`, in a fenced transaction, so a
+ * cycle runs at most once however many servers tick in it; it records when the cycle finished and
+ * prunes cycles older than {@link JOB_RUNS_KEPT_MS}.
  */
 export function createAlertEvaluator(deps: AlertEvaluatorDeps) {
   const waitS = deps.lockWaitS ?? 10;
+  const { cycleMs } = deps;
+  if (cycleMs !== undefined && (!Number.isInteger(cycleMs) || cycleMs < 1))
+    throw new Error('createAlertEvaluator: cycleMs must be a whole number of milliseconds from 1');
+  const clock = deps.clock ?? Date.now;
+  const baseHolder = (deps.holder ?? processHolderName()).slice(0, 110);
+  let runSeq = 0;
+  const runs = jobRunsRepo(deps.db);
 
-  async function context(tenantId: number, now: number): Promise<EvaluationContext | null> {
+  /**
+   * Runs `work` under the evaluator's lease, as a holder of its own (this process's name and a
+   * sequence number), so two runs in one process (the schedule and an ingestion nudge) exclude
+   * each other exactly as runs on two servers do.
+   */
+  function underLease<T>(work: (lease: HeldLease) => Promise<T>) {
+    const leases = createLeaseRunner({ db: deps.db, holder: `${baseHolder}#${++runSeq}`, now: () => new Date(clock()) });
+    return leases.run(EVALUATOR_LEASE, EVALUATOR_LEASE_TTL_MS, work, { ...deps.leaseWait, waitMs: waitS * 1000 });
+  }
+
+  /** A fenced transaction, rerun on lock conflicts: `work` commits only while `lease` is held. */
+  const fenced = <T>(lease: HeldLease, work: (trx: Db) => Promise<T>) =>
+    retryTransaction(() =>
+      deps.db.transaction(async (trx) => {
+        await lease.fence(trx);
+        return work(trx as unknown as Db);
+      }),
+    );
+
+  async function context(tenantId: number, now: number, lease: HeldLease): Promise<EvaluationContext | null> {
     const lab = await labsRepo(deps.db).findById(tenantId);
     return lab
-      ? { db: deps.db, tenantId, lab, publicUrl: deps.publicUrl, now, reminderAfterMin: deps.reminderAfterMin, beforeCommit: deps.beforeRuleCommit }
+      ? {
+          db: deps.db,
+          tenantId,
+          lab,
+          publicUrl: deps.publicUrl,
+          now,
+          reminderAfterMin: deps.reminderAfterMin,
+          beforeCommit: deps.beforeRuleCommit,
+          fence: (trx) => lease.fence(trx),
+        }
       : null;
   }
 
@@ -68,9 +149,9 @@ export function createAlertEvaluator(deps: AlertEvaluatorDeps) {
       if (!rule || !rule.enabled || alert.acknowledgedAt || delayMin <= 0 || ctx.now - alert.lastNotifiedAt < delayMin * 60_000) continue;
       const target = await targetOf(scope, rule);
       if (!target) continue;
-      await deps.db.transaction(async (trx) => {
+      const queued = await ruleTransaction(ctx, async (trx) => {
         const trxScope = inLab(trx, ctx.tenantId);
-        if (!(await alertsRepo(trxScope).countReminder(alert.id, alert.remindersSent, ctx.now))) return;
+        if (!(await alertsRepo(trxScope).countReminder(alert.id, alert.remindersSent, ctx.now))) return false;
         const value = target.channelId === null ? null : alert.openedValue;
         await queueAlertMail(trxScope, {
           lab: ctx.lab,
@@ -85,15 +166,17 @@ export function createAlertEvaluator(deps: AlertEvaluatorDeps) {
           value,
           detail: `still open; when it opened: ${alert.openedDetail}`,
         });
-        count++;
+        return true;
       });
+      if (queued) count++;
     }
     return count;
   }
 
   /** Evaluates one lab: every enabled rule (or only value rules on `channelIds`), reminders, mail. */
-  async function evaluateLab(tenantId: number, now: number, channelIds?: number[]) {
-    const ctx = await context(tenantId, now);
+  async function evaluateLab(tenantId: number, now: number, lease: HeldLease, channelIds?: number[]) {
+    await lease.renew();
+    const ctx = await context(tenantId, now, lease);
     if (!ctx) return EMPTY;
     const totals = { ...EMPTY };
     const scope = inLab(deps.db, tenantId);
@@ -109,6 +192,8 @@ export function createAlertEvaluator(deps: AlertEvaluatorDeps) {
     totals.opened += warnings.opened;
     totals.resolved += warnings.resolved;
     if (!channelIds) totals.reminders = await remind(ctx);
+    // no mail from a server that lost the lease meanwhile (each message is claimed on its own row as well)
+    await lease.renew();
     const mail = await sendDueMail(deps, tenantId, now);
     totals.sent = mail.sent;
     totals.failed = mail.failed;
@@ -124,31 +209,60 @@ export function createAlertEvaluator(deps: AlertEvaluatorDeps) {
     errors: a.errors + b.errors,
   });
 
-  /** One lab's evaluation; an error stops only that lab (logged), so one broken lab never silences the others. */
-  async function evaluateLabSafely(tenantId: number, now: number, channelIds?: number[]) {
+  /**
+   * One lab's evaluation; an error stops only that lab (logged), so one broken lab never silences
+   * the others. A lost lease stops the whole run (rethrown).
+   */
+  async function evaluateLabSafely(tenantId: number, now: number, lease: HeldLease, channelIds?: number[]) {
     try {
-      return await evaluateLab(tenantId, now, channelIds);
+      return await evaluateLab(tenantId, now, lease, channelIds);
     } catch (err) {
+      if (err instanceof LeaseLostError) throw err;
       deps.logger.warn('alert evaluation of a lab stopped; the next run continues from its last commit', { tenantId, error: (err as Error).message });
       return { ...EMPTY, errors: 1 };
     }
   }
 
+  /** The summary of a run that did not run (or stopped) for `why`. */
+  const notRun = (why: NonNullable<EvaluationSummary['skipped']>): EvaluationSummary => ({ ran: false, skipped: why, ...EMPTY });
+
+  /** Runs `work` under the lease and turns "busy" and "lease lost" into summaries. */
+  async function guarded(work: (lease: HeldLease) => Promise<EvaluationSummary>): Promise<EvaluationSummary> {
+    try {
+      const r = await underLease(work);
+      return r.ran ? r.value : notRun('busy');
+    } catch (err) {
+      if (!(err instanceof LeaseLostError)) throw err;
+      deps.logger.warn('alert evaluation stopped: another server took over the evaluator lease', { fencing: err.fencing });
+      return notRun('lease-lost');
+    }
+  }
+
   return {
-    /** One full run at `now` (epoch ms) over every lab: the scheduled job and tests call it. */
+    /**
+     * One scheduled run at `now` (epoch ms) over every lab: claims the cycle `now` falls in
+     * (with `cycleMs`), or skips when it already ran; the scheduled job and tests call it.
+     */
     async runOnce(now: number): Promise<EvaluationSummary> {
-      const r = await withEvaluatorLock(deps.db, waitS, async () => {
+      return guarded(async (lease) => {
+        const cycle =
+          cycleMs === undefined
+            ? null
+            : { name: EVALUATOR_LEASE, periodStart: new Date(Math.floor(now / cycleMs) * cycleMs), holder: lease.holder, fencing: lease.fencing };
+        if (cycle && !(await fenced(lease, (trx) => runs.claim(trx, { ...cycle, startedAt: new Date(clock()) })))) return notRun('cycle-done');
         let totals = { ...EMPTY };
-        for (const tenantId of await crossLabRepo(deps.db).labsWithAlertWork()) totals = add(totals, await evaluateLabSafely(tenantId, now));
-        return totals;
+        for (const tenantId of await crossLabRepo(deps.db).labsWithAlertWork()) totals = add(totals, await evaluateLabSafely(tenantId, now, lease));
+        if (cycle) {
+          await fenced(lease, (trx) => runs.finish(trx, cycle, new Date(clock())));
+          await runs.prune(EVALUATOR_LEASE, new Date(now - JOB_RUNS_KEPT_MS), PRUNE_LIMIT);
+        }
+        return { ran: true, ...totals };
       });
-      return r.ran ? { ran: true, ...r.result } : { ran: false, ...EMPTY };
     },
 
-    /** Judges the value rules of some channels of one lab right away and sends its mail (after ingestion). */
+    /** Judges the value rules of some channels of one lab right away and sends its mail (after ingestion); claims no cycle. */
     async evaluateChannels(tenantId: number, channelIds: number[], now: number): Promise<EvaluationSummary> {
-      const r = await withEvaluatorLock(deps.db, waitS, () => evaluateLabSafely(tenantId, now, channelIds));
-      return r.ran ? { ran: true, ...r.result } : { ran: false, ...EMPTY };
+      return guarded(async (lease) => ({ ran: true, ...(await evaluateLabSafely(tenantId, now, lease, channelIds)) }));
     },
   };
 }

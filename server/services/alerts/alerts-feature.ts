@@ -8,7 +8,8 @@ import { alertEvaluationJob, alertIngestNudge } from './alert-triggers.ts';
 
 /**
  * Alerts wired together for createApp: the rules service for the routes, the evaluator (with
- * `runOnce(now)` for tests), its ingestion hook and its scheduled job.
+ * `runOnce(now)` for tests; it runs under the `alert-evaluator` lease and claims each cycle of
+ * `LAGBOOK_ALERT_EVALUATE_EVERY_S` seconds in `job_runs`), its ingestion hook and its scheduled job.
  */
 export function createAlertsFeature(deps: { db: Db; mailer: Mailer; logger: LogWriter; config: Pick<Config, 'publicUrl' | 'alerts'>; now?: () => number }) {
   const evaluator = createAlertEvaluator({
@@ -17,6 +18,8 @@ export function createAlertsFeature(deps: { db: Db; mailer: Mailer; logger: LogW
     logger: deps.logger,
     publicUrl: deps.config.publicUrl,
     reminderAfterMin: deps.config.alerts.reminderAfterMin,
+    // a scheduled run claims the cycle of this length it falls in, once across all app servers
+    cycleMs: deps.config.alerts.evaluateEveryS * 1000,
   });
   return {
     service: createAlertRulesService({ db: deps.db, now: deps.now }),

@@ -1,5 +1,6 @@
 import type { Db } from '../../db/create-db.ts';
-import { inLab, type LabScope } from '../../db/tenant-scope.ts';
+import { inLab, type DbOrTrx, type LabScope } from '../../db/tenant-scope.ts';
+import { retryTransaction } from '../../db/retry-transaction.ts';
 import { alertRulesRepo, type AlertRule } from '../../db/alert-rules.repo.ts';
 import { alertsRepo } from '../../db/alerts.repo.ts';
 import { alertReadingsRepo, type WatchedTarget } from '../../db/alert-readings.repo.ts';
@@ -32,6 +33,25 @@ export interface EvaluationContext {
   reminderAfterMin?: number;
   /** Test seam: runs inside the rule's transaction just before it commits (throwing rolls it back). */
   beforeCommit?: (ruleId: number) => void;
+  /**
+   * The evaluator lease's fencing write (`HeldLease.fence`), made first in every rule transaction:
+   * it throws LeaseLostError, rolling the transaction back, once another server holds the lease.
+   */
+  fence?: (trx: DbOrTrx) => Promise<void>;
+}
+
+/**
+ * One rule transaction: the fencing write first, then `work`; rerun as a whole on a lock conflict
+ * (a rule edited at the same moment, or a Galera certification failure), which is safe because
+ * everything it writes, queued mail included, is in the transaction.
+ */
+export function ruleTransaction<T>(ctx: EvaluationContext, work: (trx: Db) => Promise<T>): Promise<T> {
+  return retryTransaction(() =>
+    ctx.db.transaction(async (trx) => {
+      await ctx.fence?.(trx);
+      return work(trx as unknown as Db);
+    }),
+  );
 }
 
 /** What an evaluation changed. */
@@ -180,7 +200,7 @@ async function recordHealth(
 /**
  * Judges the readings a value rule (bounds, rate, unusual) has not seen yet, oldest first, in
  * chunks of {@link READINGS_PER_CHUNK}, and records whether the rule is watching. Each chunk is
- * one transaction that locks the rule's row, writes the alert transitions with their queued
+ * one (fenced) transaction that locks the rule's row, writes the alert transitions with their queued
  * mail, the rule's new memory and its health (with any not-watching or watching-again mail)
  * together, so a crash at any point loses nothing and doubles nothing: the next run starts from
  * the last committed cursor. A run with no new readings still records the health.
@@ -188,12 +208,12 @@ async function recordHealth(
 export async function evaluateValueRule(ctx: EvaluationContext, ruleId: number): Promise<EvaluationCounts> {
   const total = { opened: 0, resolved: 0 };
   for (let chunk = 0; chunk < 100; chunk++) {
-    const more = await ctx.db.transaction(async (trx) => {
+    const step = await ruleTransaction(ctx, async (trx) => {
       const scope = inLab(trx, ctx.tenantId);
       const rule = await alertRulesRepo(scope).find(ruleId, { forUpdate: true });
-      if (!rule || !rule.enabled || rule.kind === 'silence' || rule.channelId === null) return false;
+      if (!rule || !rule.enabled || rule.kind === 'silence' || rule.channelId === null) return null;
       const target = await alertReadingsRepo(scope).channelTarget(rule.channelId);
-      if (!target) return false;
+      if (!target) return null;
       const from = rule.cursor.cursorTs === null ? Number.MIN_SAFE_INTEGER : rule.cursor.cursorTs + 1;
       const readings = toReadings(
         await channelReadingsRepo(inLab(ctx.db, ctx.tenantId)).range(rule.channelId, from, Number.MAX_SAFE_INTEGER, READINGS_PER_CHUNK),
@@ -221,18 +241,20 @@ export async function evaluateValueRule(ctx: EvaluationContext, ruleId: number):
       // every step, with or without new readings: a rule can go blind while nothing arrives
       await recordHealth(ctx, scope, rule, target, seen);
       ctx.beforeCommit?.(rule.id);
-      total.opened += counts.opened;
-      total.resolved += counts.resolved;
-      return readings.length === READINGS_PER_CHUNK;
+      return { counts, more: readings.length === READINGS_PER_CHUNK };
     });
-    if (!more) break;
+    if (!step) break;
+    // counted once committed (a rerun transaction counts its own transitions)
+    total.opened += step.counts.opened;
+    total.resolved += step.counts.resolved;
+    if (!step.more) break;
   }
   return total;
 }
 
-/** Checks a silence rule against the clock, in one transaction that locks the rule's row. */
+/** Checks a silence rule against the clock, in one (fenced) transaction that locks the rule's row. */
 export async function evaluateSilenceRule(ctx: EvaluationContext, ruleId: number): Promise<EvaluationCounts> {
-  return ctx.db.transaction(async (trx) => {
+  return ruleTransaction(ctx, async (trx) => {
     const scope = inLab(trx, ctx.tenantId);
     const rule = await alertRulesRepo(scope).find(ruleId, { forUpdate: true });
     if (!rule || !rule.enabled || rule.kind !== 'silence') return { opened: 0, resolved: 0 };

@@ -4,7 +4,7 @@ import { alertReadingsRepo, type WatchedTarget } from '../../../db/alert-reading
 import { alertsRepo, type AlertRecord } from '../../../db/alerts.repo.ts';
 import { inLab, type LabScope } from '../../../db/tenant-scope.ts';
 import { queueAlertMail } from '../alert-notifications.ts';
-import type { EvaluationContext } from '../rule-evaluation.ts';
+import { ruleTransaction, type EvaluationContext } from '../rule-evaluation.ts';
 import { decideEarlyWarning } from './early-warning-decision.ts';
 import { warningOpenedText, warningResolvedText, type WarningEnd } from './early-warning-texts.ts';
 import { projectForRule, type NotProjected, type RuleProjection } from './project-for-rule.ts';
@@ -48,7 +48,8 @@ async function resolveWarning(ctx: EvaluationContext, scope: LabScope, rule: Ale
  * One rule's early warning: projects its channel (outside any transaction: reading and fitting
  * take a while and lock nothing), then, in one transaction that locks the rule's row, decides
  * ({@link decideEarlyWarning}) and opens, refreshes or resolves its expected-stage alert with the
- * mail queued beside it, so the alert and its mail commit together.
+ * mail queued beside it, so the alert and its mail commit together (a fenced transaction,
+ * {@link ruleTransaction}).
  */
 async function evaluateRuleWarning(ctx: EvaluationContext, ruleId: number, counts: EarlyWarningCounts): Promise<void> {
   const readScope = inLab(ctx.db, ctx.tenantId);
@@ -74,10 +75,11 @@ async function evaluateRuleWarning(ctx: EvaluationContext, ruleId: number, count
     );
     if (projected.notProjected !== null) counts.notProjected.push({ ruleId, ...projected.notProjected });
   }
-  await ctx.db.transaction(async (trx) => {
+  const changed = await ruleTransaction(ctx, async (trx): Promise<Omit<EarlyWarningCounts, 'notProjected'>> => {
+    const done = { opened: 0, resolved: 0, updated: 0 };
     const scope = inLab(trx, ctx.tenantId);
     const rule = await alertRulesRepo(scope).find(ruleId, { forUpdate: true });
-    if (!rule || rule.kind !== 'bounds' || rule.channelId === null) return;
+    if (!rule || rule.kind !== 'bounds' || rule.channelId === null) return done;
     const params = rule.params as AlertRuleParams['bounds'];
     const alerts = alertsRepo(scope);
     const warning = await alerts.openWarningForRule(rule.id);
@@ -87,9 +89,9 @@ async function evaluateRuleWarning(ctx: EvaluationContext, ruleId: number, count
     if (!sameRule || projected === null) {
       if (warning && (!rule.enabled || params.earlyWarning === null)) {
         await resolveWarning(ctx, scope, rule, target, warning, { why: 'rule-changed' });
-        counts.resolved++;
+        done.resolved++;
       }
-      return;
+      return done;
     }
     const decision = decideEarlyWarning({
       warningOpen: warning !== null,
@@ -128,9 +130,9 @@ async function evaluateRuleWarning(ctx: EvaluationContext, ruleId: number, count
         value: projected.newestValue,
         detail,
       });
-      counts.opened++;
+      done.opened++;
     } else if (decision.kind === 'update' && warning && projected.projection) {
-      if (await alerts.updateProjection(warning.id, projected.projection)) counts.updated++;
+      if (await alerts.updateProjection(warning.id, projected.projection)) done.updated++;
     } else if (decision.kind === 'resolve' && warning) {
       const end: WarningEnd =
         decision.why === 'fell-back' && projected.projection
@@ -139,10 +141,15 @@ async function evaluateRuleWarning(ctx: EvaluationContext, ruleId: number, count
             ? { why: 'crossed' }
             : { why: 'not-projected', detail: projected.notProjected?.detail ?? 'no projection' };
       await resolveWarning(ctx, scope, rule, target, warning, end);
-      counts.resolved++;
+      done.resolved++;
     }
     ctx.beforeCommit?.(rule.id);
+    return done;
   });
+  // counted once committed (a transaction rerun on a lock conflict counts its own changes)
+  counts.opened += changed.opened;
+  counts.resolved += changed.resolved;
+  counts.updated += changed.updated;
 }
 
 /**
