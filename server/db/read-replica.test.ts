@@ -123,6 +123,12 @@ describe('createReadReplica', () => {
     reader.fail(connectionRefused());
     expect(await reads.readerAnswers()).toBe(false);
   });
+
+  it('says the reader does not answer when it stays silent past the timeout', async () => {
+    const silent = Object.assign(standIn('reader').db, { raw: () => new Promise(() => undefined) });
+    const reads = createReadReplica({ writer: standIn('writer').db, reader: silent as Db });
+    expect(await reads.readerAnswers(20)).toBe(false);
+  });
 });
 
 describe('isReaderUnavailable', () => {

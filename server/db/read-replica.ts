@@ -35,8 +35,11 @@ export interface ReadReplica {
    * never missing or old in the list its creator sees next.
    */
   listRead<T>(labId: number, read: (db: DbOrTrx) => Promise<T>): Promise<T>;
-  /** Whether the reader answers a trivial query now; null without a reader. */
-  readerAnswers(): Promise<boolean | null>;
+  /**
+   * Whether the reader answers a trivial query within `timeoutMs` (default 1 s, so a health check
+   * never waits on a dead address's connect timeout); null without a reader.
+   */
+  readerAnswers(timeoutMs?: number): Promise<boolean | null>;
   /** Reads by outcome since start. */
   counts(): ReadCounts;
 }
@@ -166,13 +169,20 @@ export function createReadReplica(deps: {
       return viaReader(async (trx) => ((await listFingerprint(trx, labId)) === writers ? read(trx) : STALE), read);
     },
 
-    async readerAnswers() {
+    async readerAnswers(timeoutMs = 1000) {
       if (!reader) return null;
+      let timer: NodeJS.Timeout | undefined;
+      const late = new Promise<boolean>((resolve) => {
+        timer = setTimeout(() => resolve(false), timeoutMs);
+      });
+      const answer = reader.raw('SELECT 1').then(
+        () => true,
+        () => false,
+      );
       try {
-        await reader.raw('SELECT 1');
-        return true;
-      } catch {
-        return false;
+        return await Promise.race([answer, late]);
+      } finally {
+        clearTimeout(timer);
       }
     },
 
