@@ -10,6 +10,29 @@ import tseslint from 'typescript-eslint';
 import reactHooks from 'eslint-plugin-react-hooks';
 import prettier from 'eslint-config-prettier';
 
+/**
+ * Every query on a lab-owned table starts at the tenant scope (server/db/tenant-scope.ts): outside
+ * the data layer no code names the tenant column.
+ */
+const TENANT_COLUMN_OUTSIDE_DATA_LAYER = {
+  selector: 'Literal[value=/\\btenant_id\\b/], TemplateElement[value.raw=/\\btenant_id\\b/]',
+  message:
+    'tenant_id belongs to the data layer: start from the lab scope in server/db/ (inLab, xRepo(scope), :lab in raw SQL) instead of naming the column here.',
+};
+
+/**
+ * No named locks and no table locks in SQL: under a Galera cluster GET_LOCK/RELEASE_LOCK hold on
+ * one node only (MariaDB documents them as unsupported there) and LOCK TABLES is not replicated.
+ * Cluster-wide exclusion is a job lease (server/jobs/job-lease.ts); rows are locked by ordinary
+ * transactions. Tests and benchmarks (tests/**) may use them to set up a situation.
+ */
+const NAMED_OR_TABLE_LOCK = {
+  selector:
+    'Literal[value=/\\b(GET_LOCK|RELEASE_LOCK|RELEASE_ALL_LOCKS|IS_FREE_LOCK|IS_USED_LOCK)\\b|\\b(UN)?LOCK\\s+TABLES?\\b/i], TemplateElement[value.raw=/\\b(GET_LOCK|RELEASE_LOCK|RELEASE_ALL_LOCKS|IS_FREE_LOCK|IS_USED_LOCK)\\b|\\b(UN)?LOCK\\s+TABLES?\\b/i]',
+  message:
+    'No GET_LOCK/RELEASE_LOCK or LOCK TABLES: they do not hold across a Galera cluster. Use a job lease (server/jobs/job-lease.ts) or row locks in a transaction.',
+};
+
 /** Node's globals for the few plain JavaScript files (configs and scripts). */
 const nodeGlobals = { process: 'readonly', console: 'readonly', URL: 'readonly', setTimeout: 'readonly', clearTimeout: 'readonly', Buffer: 'readonly' };
 
@@ -54,20 +77,16 @@ export default defineConfig(
     },
   },
   {
-    // Every query on a lab-owned table starts at the tenant scope (server/db/tenant-scope.ts):
-    // outside the data layer no code names the tenant column.
+    // Cluster-safe SQL everywhere the app and its migrations run (later blocks repeat the rule
+    // where they set no-restricted-syntax again, since a later setting replaces an earlier one).
+    files: ['server/**/*.ts', 'migrations/**/*.ts', 'docker-free-scripts/**/*.ts'],
+    ignores: ['**/*.test.ts'],
+    rules: { 'no-restricted-syntax': ['error', NAMED_OR_TABLE_LOCK] },
+  },
+  {
     files: ['server/**/*.ts'],
     ignores: ['server/db/**', 'server/**/*.test.ts'],
-    rules: {
-      'no-restricted-syntax': [
-        'error',
-        {
-          selector: 'Literal[value=/\\btenant_id\\b/], TemplateElement[value.raw=/\\btenant_id\\b/]',
-          message:
-            'tenant_id belongs to the data layer: start from the lab scope in server/db/ (inLab, xRepo(scope), :lab in raw SQL) instead of naming the column here.',
-        },
-      ],
-    },
+    rules: { 'no-restricted-syntax': ['error', TENANT_COLUMN_OUTSIDE_DATA_LAYER, NAMED_OR_TABLE_LOCK] },
   },
   prettier,
 );

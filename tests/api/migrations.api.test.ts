@@ -79,4 +79,31 @@ describe('migrations', () => {
       .select('table_name as table');
     expect([...LAB_OWNED_TABLES].sort()).toEqual(owned.map((o) => o.table).sort());
   });
+
+  it('every table has a PRIMARY KEY (Galera replicates rows by key: a table without one cannot be certified safely), the session and migration tables included', async () => {
+    await migrateToLatest(db);
+    const rows: { table: string; engine: string; keyed: number | string }[] = await db('information_schema.tables as t')
+      .where({ 't.table_schema': scratchName, 't.table_type': 'BASE TABLE' })
+      .select(
+        't.table_name as table',
+        't.engine as engine',
+        db.raw(
+          "(SELECT COUNT(*) FROM information_schema.table_constraints c WHERE c.table_schema = t.table_schema AND c.table_name = t.table_name AND c.constraint_type = 'PRIMARY KEY') AS keyed",
+        ),
+      );
+    const names = rows.map((r) => r.table);
+    expect(names).toEqual(expect.arrayContaining(['sessions', 'knex_migrations', 'knex_migrations_lock', 'job_leases', 'job_runs', 'readings']));
+    expect(rows.filter((r) => Number(r.keyed) !== 1).map((r) => r.table)).toEqual([]);
+    // Galera replicates InnoDB only (MyISAM, Aria and MEMORY writes are not replicated)
+    expect(rows.filter((r) => r.engine !== 'InnoDB').map((r) => `${r.table}: ${r.engine}`)).toEqual([]);
+  });
+
+  it('job_runs is keyed by (name, period_start), so a cycle can be claimed once', async () => {
+    await migrateToLatest(db);
+    const key: { col: string }[] = await db('information_schema.statistics')
+      .where({ table_schema: scratchName, table_name: 'job_runs', index_name: 'PRIMARY' })
+      .orderBy('seq_in_index')
+      .select('column_name as col');
+    expect(key.map((k) => k.col)).toEqual(['name', 'period_start']);
+  });
 });
