@@ -7,7 +7,9 @@
  * from, and the app's read counters say why. The readings are simulated (behaviour checks);
  * expected values are the ones posted here.
  */
+import { spawn } from 'node:child_process';
 import { createServer } from 'node:net';
+import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { parse as parseCsv } from 'csv-parse/sync';
@@ -98,6 +100,15 @@ async function diagnostics(app: TestApp, stepS: number) {
   const trend = (res.body.decomposition.trend as Array<number | null>).filter((v): v is number => v !== null);
   return { readings: res.body.series.readings as number, trendMean: trend.reduce((s, v) => s + v, 0) / trend.length, cached: res.body.cached as boolean };
 }
+
+/** A port nobody listens on: taken from the system, then released. */
+const closedPort = () =>
+  new Promise<number>((resolve) => {
+    const probe = createServer().listen(0, '127.0.0.1', () => {
+      const { port } = probe.address() as { port: number };
+      probe.close(() => resolve(port));
+    });
+  });
 
 const counts = (app: TestApp) => (app.app.locals.readReplica as ReadReplica).counts();
 const values = (shift: number) => posted.map((p) => p.value + shift);
@@ -196,14 +207,7 @@ describe('a reader that lags behind the writer', () => {
 
 describe('a reader that does not answer', () => {
   it('never breaks browsing: series, diagnostics, export and the channel list come from the writer', async () => {
-    // A port nobody listens on: taken from the system, then released.
-    const closedPort = await new Promise<number>((resolve) => {
-      const probe = createServer().listen(0, '127.0.0.1', () => {
-        const { port } = probe.address() as { port: number };
-        probe.close(() => resolve(port));
-      });
-    });
-    const deadReader = createDb({ ...testConfig().db, database: readerName, port: closedPort }, { reader: true });
+    const deadReader = createDb({ ...testConfig().db, database: readerName, port: await closedPort() }, { reader: true });
     const down = await buildTestApp({}, { readDb: deadReader });
     try {
       expect(await (down.app.locals.readReplica as ReadReplica).readerAnswers()).toBe(false);
@@ -223,5 +227,45 @@ describe('a reader that does not answer', () => {
       await down.close();
       await deadReader.destroy();
     }
+  });
+});
+
+describe('the server start (server/main.ts)', () => {
+  /** Runs the production entry point with `env` added; resolves once it exits or `ready` sees it listening (then stops it). */
+  function runMain(env: NodeJS.ProcessEnv, ready?: (port: number) => Promise<boolean>) {
+    return async (port: number) => {
+      const child = spawn('node', ['--import', 'tsx', join(import.meta.dirname, '../../server/main.ts')], {
+        env: { ...process.env, LAGBOOK_PORT: String(port), LAGBOOK_PUBLIC_URL: `http://127.0.0.1:${port}`, ...env },
+        stdio: ['ignore', 'ignore', 'pipe'],
+      });
+      let stderr = '';
+      child.stderr!.on('data', (d: Buffer) => (stderr += d.toString()));
+      const exited = new Promise<number | null>((resolve) => child.once('exit', (code) => resolve(code)));
+      let listened = false;
+      if (ready) {
+        for (let i = 0; i < 300 && child.exitCode === null && !listened; i++) {
+          listened = await ready(port).catch(() => false);
+          if (!listened) await new Promise((r) => setTimeout(r, 100));
+        }
+        child.kill('SIGTERM');
+      }
+      const code = await exited;
+      return { code, stderr, listened };
+    };
+  }
+
+  it('stops with one clear line when the reader does not answer, and starts and stops cleanly with one that does', async () => {
+    const deadPort = await closedPort();
+    const refused = await runMain({ LAGBOOK_DB_READ_HOST: '127.0.0.1', LAGBOOK_DB_READ_PORT: String(deadPort) })(await closedPort());
+    expect(refused.code).toBe(1);
+    expect(refused.stderr).toBe(
+      `lagbook: The database reader at 127.0.0.1:${deadPort} (${writerName}) does not answer. ` +
+        'Check LAGBOOK_DB_READ_HOST and LAGBOOK_DB_READ_PORT, or unset both to read from the writer.\n',
+    );
+
+    // The writer's own address as the reader (a stand-in for a replica): the server starts, answers and stops.
+    const healthy = async (port: number) => (await fetch(`http://127.0.0.1:${port}/healthz`)).ok;
+    const started = await runMain({ LAGBOOK_DB_READ_HOST: '127.0.0.1', LAGBOOK_DB_READ_PORT: String(testConfig().db.port) }, healthy)(await closedPort());
+    expect(started).toMatchObject({ listened: true, code: 0 });
   });
 });
