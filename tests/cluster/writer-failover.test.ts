@@ -55,6 +55,7 @@ describe('the writer node dies under load', () => {
   beforeAll(async () => {
     target = await startClusterTarget({
       database: 'lagbook_cluster',
+      keepLogsIn: join(ARTIFACTS, 'cluster-failover-logs'),
       appEnv: { LAGBOOK_ALERT_EVALUATE_EVERY_S: String(EVERY_S), LAGBOOK_ALERT_REMINDER_AFTER_MIN: '0' },
     });
     appsReadyAt = Date.now();
@@ -164,6 +165,7 @@ describe('the writer node dies under load', () => {
         diagnosticsP99Ms: percentile(browse.latenciesMs.diagnostics, 99),
       },
       nodes,
+      appServers: t.apps.map((a) => ({ port: a.port, exitCode: a.child.exitCode, signal: a.child.signalCode })),
     };
     mkdirSync(ARTIFACTS, { recursive: true });
     writeFileSync(join(ARTIFACTS, 'cluster-failover.json'), `${JSON.stringify(report, null, 2)}\n`);

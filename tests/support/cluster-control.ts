@@ -104,6 +104,8 @@ export async function defineCluster(opts: { appPorts: number[]; database: string
     LAGBOOK_CLUSTER_HTTP_PORT: String(basePort + 2),
     LAGBOOK_CLUSTER_APP_PORTS: opts.appPorts.join(' '),
     LAGBOOK_DB_NAME: opts.database,
+    // a short run writes far less than cluster.sh's default 256 MB write-set cache per node
+    LAGBOOK_CLUSTER_GCACHE: process.env.LAGBOOK_CLUSTER_GCACHE ?? '64M',
   };
   const script = async (timeoutMs: number, action: string, ...args: string[]): Promise<string> => {
     try {

@@ -5,6 +5,8 @@
  * app servers behind HAProxy's HTTP listener. The same two app servers on one single MariaDB
  * (mariadb.sh) form the baseline the benchmark compares against.
  */
+import { copyFileSync, existsSync, mkdirSync, readdirSync } from 'node:fs';
+import { join } from 'node:path';
 import { createDb, type Db } from '../../server/db/create-db.ts';
 import { migrateToLatest } from '../../server/db/migrate.ts';
 import { defineCluster, type ClusterControl } from './cluster-control.ts';
@@ -39,6 +41,18 @@ export interface StackOptions {
   appEnv?: NodeJS.ProcessEnv;
   /** Progress lines (console.log by default). */
   say?: (line: string) => void;
+  /** A folder to copy the logs into when stopping (app servers, HAProxy, health checker, each node's error log). */
+  keepLogsIn?: string;
+}
+
+/** Copies the cluster's logs (`*.log` at its top, `nodeN/mysqld.err`) into `to`. */
+function copyLogs(from: string, to: string): void {
+  mkdirSync(to, { recursive: true });
+  for (const name of readdirSync(from)) if (name.endsWith('.log')) copyFileSync(join(from, name), join(to, name));
+  for (const n of [1, 2, 3]) {
+    const err = join(from, `node${n}`, 'mysqld.err');
+    if (existsSync(err)) copyFileSync(err, join(to, `node${n}-mysqld.err`));
+  }
 }
 
 /** Runs the stop steps in order, logging (never throwing) a step that fails. */
@@ -84,6 +98,7 @@ export async function startClusterTarget(opts: StackOptions): Promise<LoadTarget
     const appPorts = freePorts(2);
     const cluster = await defineCluster({ appPorts, database: opts.database });
     steps.push(() => cluster.destroy());
+    if (opts.keepLogsIn) steps.push(async () => copyLogs(cluster.dir, opts.keepLogsIn!));
     let t = Date.now();
     await cluster.start();
     say(`cluster: three nodes and HAProxy up in ${((Date.now() - t) / 1000).toFixed(1)} s (ports from ${cluster.basePort}, state ${cluster.dir})`);

@@ -1,7 +1,7 @@
 /**
  * The lab a cluster run works on (a fictional plant-growth facility): `chambers` growth-chamber
  * loggers with one air-temperature channel each, a reference logger whose soil temperature has
- * two days of one-minute readings (for diagnostics), a scientist signed in to browse, and —
+ * two days of one-minute readings (for diagnostics), a technician signed in to browse (and to make the rule), and —
  * when asked — a bounds rule on chamber 1 that the loggers' readings cross from time to time.
  * Everything is made through the app's own services and HTTP API on the target's writer.
  */
@@ -33,7 +33,7 @@ export interface WorkloadLab {
   referenceChannelId: number;
   /** [from, to) of the seeded reference readings (epoch ms). */
   referenceRange: { from: number; to: number };
-  /** The person browsing (scientist) and their session cookie. */
+  /** The person browsing (technician: may also make alert rules) and their session cookie. */
   viewer: TestUser;
   cookie: string;
   /** The chamber-1 bounds rule, when one was made. */
@@ -84,7 +84,7 @@ export async function setUpWorkloadLab(target: LoadTarget, opts: { chambers: num
   }));
   for (let i = 0; i < minutes.length; i += 1000) await postOrFail(target.ingestUrls[0], referenceKey.key, minutes.slice(i, i + 1000));
 
-  const viewer = await buildMember(db, lab, { role: 'scientist', email: `grower-${suffix}@growth-facility.example` });
+  const viewer = await buildMember(db, lab, { role: 'technician', email: `grower-${suffix}@growth-facility.example` });
   const cookie = await sessionCookieFor(db, target.sessionSecret, viewer.id);
   let alertRuleId: number | null = null;
   if (opts.alertRule) {
