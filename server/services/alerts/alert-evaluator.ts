@@ -6,9 +6,8 @@ import { labsRepo } from '../../db/labs.repo.ts';
 import { crossLabRepo } from '../../db/cross-lab.repo.ts';
 import type { Mailer } from '../../integrations/mail/create-mailer.ts';
 import type { LogWriter } from '../../log-writer.ts';
-import { jobRunsRepo } from '../../db/job-runs.repo.ts';
-import { retryTransaction } from '../../db/retry-transaction.ts';
 import { createLeaseRunner, LeaseLostError, processHolderName, type HeldLease, type LeaseWait } from '../../jobs/job-lease.ts';
+import { cycleStart, jobCycles } from '../../jobs/job-cycles.ts';
 import { queueAlertMail } from './alert-notifications.ts';
 import { sendDueMail } from './outbox-sender.ts';
 import { evaluateEarlyWarnings } from './early-warning/evaluate-early-warnings.ts';
@@ -24,12 +23,6 @@ export const EVALUATOR_LEASE = 'alert-evaluator';
  * minutes). A server that dies holding it delays the others by at most this long.
  */
 export const EVALUATOR_LEASE_TTL_MS = 120_000;
-
-/** How long cycles are remembered in `job_runs` before the evaluator prunes them. */
-export const JOB_RUNS_KEPT_MS = 7 * 86_400_000;
-
-/** Rows of `job_runs` deleted per run at most (a bounded delete; a backlog shrinks run by run). */
-const PRUNE_LIMIT = 1000;
 
 /** What one run did (tests and logs read it). */
 export interface EvaluationSummary {
@@ -91,7 +84,7 @@ const EMPTY = { opened: 0, resolved: 0, reminders: 0, sent: 0, failed: 0, errors
  * (it stalled past the TTL and another took over) cannot commit anything after the takeover.
  * A scheduled run (`runOnce`) also claims its cycle in `job_runs`, in a fenced transaction, so a
  * cycle runs at most once however many servers tick in it; it records when the cycle finished and
- * prunes cycles older than {@link JOB_RUNS_KEPT_MS}.
+ * prunes cycles older than seven days (`job-cycles.ts`).
  */
 export function createAlertEvaluator(deps: AlertEvaluatorDeps) {
   const waitS = deps.lockWaitS ?? 10;
@@ -101,7 +94,7 @@ export function createAlertEvaluator(deps: AlertEvaluatorDeps) {
   const clock = deps.clock ?? Date.now;
   const baseHolder = (deps.holder ?? processHolderName()).slice(0, 110);
   let runSeq = 0;
-  const runs = jobRunsRepo(deps.db);
+  const cycles = jobCycles(deps.db);
 
   /**
    * Runs `work` under the evaluator's lease, as a holder of its own (this process's name and a
@@ -112,15 +105,6 @@ export function createAlertEvaluator(deps: AlertEvaluatorDeps) {
     const leases = createLeaseRunner({ db: deps.db, holder: `${baseHolder}#${++runSeq}`, now: () => new Date(clock()) });
     return leases.run(EVALUATOR_LEASE, EVALUATOR_LEASE_TTL_MS, work, { ...deps.leaseWait, waitMs: waitS * 1000 });
   }
-
-  /** A fenced transaction, rerun on lock conflicts: `work` commits only while `lease` is held. */
-  const fenced = <T>(lease: HeldLease, work: (trx: Db) => Promise<T>) =>
-    retryTransaction(() =>
-      deps.db.transaction(async (trx) => {
-        await lease.fence(trx);
-        return work(trx as unknown as Db);
-      }),
-    );
 
   async function context(tenantId: number, now: number, lease: HeldLease): Promise<EvaluationContext | null> {
     const lab = await labsRepo(deps.db).findById(tenantId);
@@ -245,16 +229,13 @@ export function createAlertEvaluator(deps: AlertEvaluatorDeps) {
      */
     async runOnce(now: number): Promise<EvaluationSummary> {
       return guarded(async (lease) => {
-        const cycle =
-          cycleMs === undefined
-            ? null
-            : { name: EVALUATOR_LEASE, periodStart: new Date(Math.floor(now / cycleMs) * cycleMs), holder: lease.holder, fencing: lease.fencing };
-        if (cycle && !(await fenced(lease, (trx) => runs.claim(trx, { ...cycle, startedAt: new Date(clock()) })))) return notRun('cycle-done');
+        const periodStart = cycleMs === undefined ? null : cycleStart(now, cycleMs);
+        if (periodStart && !(await cycles.claim(lease, periodStart, new Date(clock())))) return notRun('cycle-done');
         let totals = { ...EMPTY };
         for (const tenantId of await crossLabRepo(deps.db).labsWithAlertWork()) totals = add(totals, await evaluateLabSafely(tenantId, now, lease));
-        if (cycle) {
-          await fenced(lease, (trx) => runs.finish(trx, cycle, new Date(clock())));
-          await runs.prune(EVALUATOR_LEASE, new Date(now - JOB_RUNS_KEPT_MS), PRUNE_LIMIT);
+        if (periodStart) {
+          await cycles.finish(lease, periodStart, new Date(clock()));
+          await cycles.prune(EVALUATOR_LEASE, now);
         }
         return { ran: true, ...totals };
       });
