@@ -97,7 +97,14 @@ node_pid() {
   [ -f "$pidfile" ] || return 1
   local pid
   pid="$(cat "$pidfile" 2>/dev/null)"
-  [[ "$pid" =~ ^[0-9]+$ ]] && kill -0 "$pid" 2>/dev/null && echo "$pid"
+  [[ "$pid" =~ ^[0-9]+$ ]] && process_running "$pid" && echo "$pid"
+}
+
+# The process runs (a killed one may linger as a zombie until it is reaped: that counts as gone).
+process_running() {
+  local stat
+  stat="$(ps -o stat= -p "$1" 2>/dev/null)" || return 1
+  [ -n "$stat" ] && [ "${stat:0:1}" != Z ]
 }
 
 # Pids of node N's mariadbd found by its command line (also while it is still in a state transfer,
@@ -118,7 +125,14 @@ port_free() {
   node -e "const s=require('net').createServer();s.once('error',()=>process.exit(1));s.listen(+process.argv[1],'127.0.0.1',()=>s.close(()=>process.exit(0)))" "$1"
 }
 
-pid_alive() { [ -f "$1" ] && kill -0 "$(cat "$1" 2>/dev/null)" 2>/dev/null; }
+# pid_alive <pid file> <command name>: the process in the pid file runs and is that command (a pid
+# left over from an earlier run may since belong to another program).
+pid_alive() {
+  [ -f "$1" ] || return 1
+  local pid
+  pid="$(cat "$1" 2>/dev/null)"
+  [[ "$pid" =~ ^[0-9]+$ ]] && [ "$(ps -o comm= -p "$pid" 2>/dev/null)" = "$2" ]
+}
 
 cluster_address() {
   echo "gcomm://127.0.0.1:$(galera_port 1),127.0.0.1:$(galera_port 2),127.0.0.1:$(galera_port 3)"
@@ -196,8 +210,13 @@ start_node_process() {
   write_node_config "$n"
   # nohup + setsid: the server outlives this script and ignores the terminal's Ctrl-C.
   setsid nohup mariadbd --defaults-file="$dir/my.cnf" ${position:+"$position"} ${EXTRA_ARGS[@]+"${EXTRA_ARGS[@]}"} "$@" \
-    >>"$dir/mysqld.out" 2>&1 < /dev/null &
+    >>"$dir/mysqld.out" 2>&1 < /dev/null 8>&- &
   disown
+}
+
+# The last few error lines of node N's log, indented, to stderr (before the one-line failure).
+log_errors() {
+  grep -E '\[ERROR\]|WSREP_SST: \[ERROR\]' "$(node_log "$1")" 2>/dev/null | tail -n 5 | cut -c1-300 | sed 's/^/    /' >&2 || true
 }
 
 # Waits until node N is Synced; fails with the end of its log when it dies or times out.
@@ -211,12 +230,12 @@ wait_synced() {
     # The pid file appears once the server is up; before that, the process started by
     # start_node_process may still be initialising (SST runs first).
     if ! node_process "$n" >/dev/null; then
-      tail -n 25 "$(node_log "$n")" >&2 2>/dev/null || true
+      log_errors "$n"
       fail "node $n stopped while starting (log: $(node_log "$n"))"
     fi
     sleep 0.3
   done
-  tail -n 25 "$(node_log "$n")" >&2 2>/dev/null || true
+  log_errors "$n"
   fail "node $n was not Synced within ${SYNC_TIMEOUT} s (log: $(node_log "$n"))"
 }
 
@@ -410,29 +429,29 @@ EOF
 }
 
 start_health_checker() {
-  if pid_alive "$HEALTH_PID"; then return 0; fi
+  if pid_alive "$HEALTH_PID" node; then return 0; fi
   local n
   for n in 1 2 3; do
     port_free "$(health_port "$n")" || fail "port $(health_port "$n") on 127.0.0.1 (node $n health) is in use by another program"
   done
   LAGBOOK_CLUSTER_DIR="$CLUSTER_DIR" LAGBOOK_CLUSTER_PORT="$BASE" \
-    setsid nohup node "$HERE/cluster/node-health.mjs" >>"$HEALTH_LOG" 2>&1 < /dev/null &
+    setsid nohup node "$HERE/cluster/node-health.mjs" >>"$HEALTH_LOG" 2>&1 < /dev/null 8>&- &
   echo $! > "$HEALTH_PID"
   for _ in $(seq 1 100); do
     if node -e "fetch('http://127.0.0.1:'+process.argv[1]+'/').then(()=>process.exit(0),()=>process.exit(1))" "$(health_port 1)" 2>/dev/null; then return 0; fi
-    pid_alive "$HEALTH_PID" || { tail -n 20 "$HEALTH_LOG" >&2; fail "the health checker stopped (log: $HEALTH_LOG)"; }
+    pid_alive "$HEALTH_PID" node || { tail -n 20 "$HEALTH_LOG" >&2; fail "the health checker stopped (log: $HEALTH_LOG)"; }
     sleep 0.1
   done
   fail "the health checker did not answer within 10 s (log: $HEALTH_LOG)"
 }
 
 start_haproxy() {
-  if pid_alive "$HAPROXY_PID"; then return 0; fi
+  if pid_alive "$HAPROXY_PID" haproxy; then return 0; fi
   for port in "$WRITER_PORT" "$READER_PORT" "$HTTP_PORT" "$STATS_PORT"; do
     port_free "$port" || fail "port $port on 127.0.0.1 (HAProxy) is in use by another program; set LAGBOOK_CLUSTER_PORT to a free range"
   done
   write_haproxy_config
-  setsid nohup haproxy -db -f "$HAPROXY_CFG" >>"$HAPROXY_LOG" 2>&1 < /dev/null &
+  setsid nohup haproxy -db -f "$HAPROXY_CFG" >>"$HAPROXY_LOG" 2>&1 < /dev/null 8>&- &
   echo $! > "$HAPROXY_PID"
 }
 
@@ -440,7 +459,7 @@ start_haproxy() {
 wait_listeners() {
   for _ in $(seq 1 150); do
     if listener_answers "$WRITER_PORT" && listener_answers "$READER_PORT"; then return 0; fi
-    pid_alive "$HAPROXY_PID" || { tail -n 20 "$HAPROXY_LOG" >&2; fail "HAProxy stopped (log: $HAPROXY_LOG)"; }
+    pid_alive "$HAPROXY_PID" haproxy || { tail -n 20 "$HAPROXY_LOG" >&2; fail "HAProxy stopped (log: $HAPROXY_LOG)"; }
     sleep 0.2
   done
   fail "the writer and reader listeners did not answer within 30 s (log: $HAPROXY_LOG)"
@@ -473,7 +492,10 @@ start() {
   fi
   for n in 1 2 3; do
     [ "$n" = "$first" ] && continue
-    if node_answers "$n"; then continue; fi
+    if node_answers "$n"; then
+      node_synced "$n" || wait_synced "$n" "joined"
+      continue
+    fi
     start_node_process "$n"
     wait_synced "$n" "joined"
   done
@@ -513,7 +535,7 @@ pkill_node_leftover() {
 
 stop_pidfile() {
   local file=$1
-  if pid_alive "$file"; then
+  if pid_alive "$file" "$2"; then
     local pid
     pid="$(cat "$file")"
     kill -TERM "$pid" 2>/dev/null || true
@@ -524,8 +546,8 @@ stop_pidfile() {
 }
 
 stop() {
-  stop_pidfile "$HAPROXY_PID"
-  stop_pidfile "$HEALTH_PID"
+  stop_pidfile "$HAPROXY_PID" haproxy
+  stop_pidfile "$HEALTH_PID" node
   # 3, 2, 1: node 1 shuts down last, is marked safe_to_bootstrap and starts the next cluster.
   local n
   for n in 3 2 1; do stop_node "$n"; done
@@ -591,12 +613,20 @@ print_env() {
   echo "export LAGBOOK_DB_READ_PORT=$READER_PORT"
 }
 
+# start, stop and start-node of one cluster folder run one at a time.
+# The servers started from here do not inherit the lock (8>&- on each).
+hold_lock() {
+  mkdir -p "$CLUSTER_DIR"
+  exec 8>"$CLUSTER_DIR/cluster.lock"
+  flock 8 || fail "could not lock $CLUSTER_DIR/cluster.lock"
+}
+
 case "${1:-}" in
-  start) start ;;
-  stop) stop ;;
+  start) hold_lock; start ;;
+  stop) hold_lock; stop ;;
   status) status ;;
   kill-node) check_node_number "${2:-}"; kill_node "$2" ;;
-  start-node) check_node_number "${2:-}"; start_node "$2" ;;
+  start-node) check_node_number "${2:-}"; hold_lock; start_node "$2" ;;
   env) print_env ;;
   writer) writer_node ;;
   *) echo "usage: $0 start|stop|status|kill-node N|start-node N|env|writer" >&2; exit 2 ;;
