@@ -102,7 +102,8 @@ export function jobLeasesRepo(db: Db) {
      * Returns false when someone else has taken it since (the holder or the fencing differ).
      */
     async extend(name: string, holder: string, fencing: number, expiresAt: Date): Promise<boolean> {
-      const changed = await db('job_leases').where({ name, holder, fencing }).update({ expires_at: expiresAt });
+      // one autocommit statement, so rerunning it after a lock conflict (a takeover committing at that moment) is safe
+      const changed = await retryTransaction(() => db('job_leases').where({ name, holder, fencing }).update({ expires_at: expiresAt }));
       return changed === 1;
     },
 
