@@ -257,6 +257,29 @@ init_node() {
   fi
 }
 
+# A new cluster: node 1 starts one, gets the database and user, shuts down cleanly, and its data
+# folder is copied to nodes 2 and 3 (without its write-set cache and view state). All three then
+# hold the same cluster position, so 2 and 3 join without a full state transfer (mariadb-backup's
+# transfer script waits a fixed 10 s before it streams; two of them made a new cluster take ~35 s).
+seed_new_cluster() {
+  note "creating a new cluster in $CLUSTER_DIR"
+  init_node 1
+  start_node_process 1 --wsrep-new-cluster
+  wait_synced 1 "started a new cluster"
+  ensure_database 1
+  stop_node 1 >/dev/null
+  local n copy
+  for n in 2 3; do
+    mkdir -p "$(node_dir "$n")"
+    copy="$(node_data "$n").copy"
+    rm -rf "$copy"
+    cp -a "$(node_data 1)" "$copy"
+    rm -f "$copy/galera.cache" "$copy/gvwstate.dat"
+    sed -i 's/^safe_to_bootstrap:.*/safe_to_bootstrap: 0/' "$copy/grastate.dat"
+    mv "$copy" "$(node_data "$n")"
+  done
+}
+
 # "uuid seqno safe" from node N's grastate.dat (empty when it has none).
 grastate() {
   local file
@@ -478,6 +501,7 @@ start() {
   command -v haproxy >/dev/null || fail "haproxy not found (Debian package haproxy)"
   mkdir -p "$CLUSTER_DIR"
   local started=$SECONDS n first
+  if [ ! -d "$(node_data 1)" ] && [ ! -d "$(node_data 2)" ] && [ ! -d "$(node_data 3)" ]; then seed_new_cluster; fi
   for n in 1 2 3; do init_node "$n"; done
   if first="$(running_primary_node)"; then
     note "node $first is running; starting the nodes that are not"
@@ -490,15 +514,15 @@ start() {
     start_node_process "$first" --wsrep-new-cluster
     wait_synced "$first" "started a new cluster"
   fi
+  # The other nodes join at the same time (a node that needs a full transfer while the donor is
+  # busy with another retries until it is free).
+  local joining=()
   for n in 1 2 3; do
     [ "$n" = "$first" ] && continue
-    if node_answers "$n"; then
-      node_synced "$n" || wait_synced "$n" "joined"
-      continue
-    fi
-    start_node_process "$n"
-    wait_synced "$n" "joined"
+    node_answers "$n" || node_process "$n" >/dev/null || start_node_process "$n"
+    joining+=("$n")
   done
+  for n in ${joining[@]+"${joining[@]}"}; do wait_synced "$n" "joined"; done
   ensure_database "$first"
   start_health_checker
   start_haproxy
