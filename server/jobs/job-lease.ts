@@ -73,6 +73,12 @@ export function processHolderName(): string {
  * (another server may take it at any moment), so work that can outlast its TTL calls `renew`
  * first. `renew` succeeds as long as nobody has taken the lease since (holder and fencing
  * unchanged), even just after expiry. Work longer than the TTL must renew on its way.
+ *
+ * `assertHeld` before a write leaves a gap: the lease can pass to another server between the check
+ * and the commit. Work that must never commit after a takeover calls `fence(trx)` inside each of
+ * its transactions instead (the alert evaluator does): the check becomes a write on the lease row
+ * in the same transaction, ordered against the takeover by the row lock on one node and by
+ * certification across a Galera cluster.
  */
 export function createLeaseRunner(deps: { db: Db; holder: string; now?: () => Date }): {
   /**
