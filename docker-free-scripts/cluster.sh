@@ -26,10 +26,12 @@
 #   LAGBOOK_CLUSTER_PROVIDER_OPTIONS more Galera provider options, ";"-separated (default
 #                              evs.suspect_timeout=PT3S; set it empty for Galera's 5 s)
 #
-# How it runs (see docker-free-scripts/cluster/README.md for the reasons):
-# - State transfer: rsync (wsrep_sst_method=rsync), which works with Debian's mariadb-server and
-#   rsync alone. A node that was away briefly gets the missing write sets by IST from the gcache.
-# - Bootstrap: a fresh cluster starts from node 1 (--wsrep-new-cluster). After a full stop the
+# How it runs (docker-free-scripts/cluster/README.md says more, and why):
+# - State transfer: a node that was away briefly gets the write sets it missed by IST from another
+#   node's write-set cache; a full transfer (SST) uses mariadb-backup over socat (rsync's transfer
+#   cannot write a joiner's data when the server runs as root). A new cluster is seeded from node
+#   1's data folder so nodes 2 and 3 join by IST.
+# - Bootstrap: a new cluster starts from node 1 (--wsrep-new-cluster). After a full stop the
 #   node whose grastate.dat says safe_to_bootstrap: 1 starts first (stop shuts 3, 2, 1 down in that
 #   order, so normally node 1); after a crash of every node, the one with the highest recovered
 #   position (mariadbd --wsrep-recover) is marked safe and starts first.
