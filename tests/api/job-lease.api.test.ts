@@ -175,4 +175,52 @@ describe('job lease', () => {
     await expect(a.run(leaseName(), 0, async () => 1)).rejects.toThrow(/ttlMs must be a positive/);
     expect(() => createLeaseRunner({ db: serverA, holder: '' })).toThrow(/holder must be 1 to 128/);
   });
+
+  it('with a wait, a runner polls with jittered pauses and runs once the holder releases; it gives up after the wait', async () => {
+    const name = leaseName();
+    const clock = simulatedClock();
+    const a = createLeaseRunner({ db: serverA, holder: 'server-a', now: clock.now });
+    const b = createLeaseRunner({ db: serverB, holder: 'server-b', now: clock.now });
+    const pauses: number[] = [];
+    let draws = 0;
+    const random = () => [0, 0.5, 0.99][draws++ % 3];
+    const outcome = await a.run(name, TTL, async () => {
+      // b waits while a holds: every pause is recorded, none is slept for real
+      const gaveUp = await b.run(name, TTL, async () => 'b ran', { waitMs: 500, pollMs: 100, random, sleep: async (ms) => void pauses.push(ms) });
+      return gaveUp;
+    });
+    expect(outcome).toEqual({ ran: true, value: { ran: false, heldBy: 'server-a' } });
+    expect(pauses.slice(0, 3)).toEqual([50, 100, 149]); // pollMs × [0.5, 1.5)
+    expect(pauses.reduce((x, y) => x + y, 0)).toBe(500); // the last pause is cut to the wait left
+    let released = false;
+    const waited = await a.run(name, TTL, async () => {
+      const waiting = b.run(name, TTL, async (lease) => ({ fencing: lease.fencing, afterRelease: released }), { waitMs: 5000, pollMs: 20 });
+      await new Promise((r) => setTimeout(r, 150));
+      released = true;
+      return { waiting }; // wrapped: an async function returning the promise itself would wait for it
+    });
+    // a's run ends (and releases) only after its work returns the pending promise, so b gets the lease then
+    expect(waited.ran).toBe(true);
+    if (!waited.ran) return;
+    expect(await waited.value.waiting).toMatchObject({ ran: true, value: { afterRelease: true } });
+  });
+
+  it('fence: a write on the lease row inside the caller’s transaction; refused (LeaseLostError, rolled back) after a takeover', async () => {
+    const name = leaseName();
+    const clock = simulatedClock();
+    const a = createLeaseRunner({ db: serverA, holder: 'server-a', now: clock.now });
+    const b = createLeaseRunner({ db: serverB, holder: 'server-b', now: clock.now });
+    const writes = async () => Number((await serverA('job_leases').where('name', name).first('fenced_writes')).fenced_writes);
+    await a.run(name, TTL, async (lease) => {
+      await serverA.transaction((trx) => lease.fence(trx));
+      await serverA.transaction((trx) => lease.fence(trx));
+      expect(await writes()).toBe(2); // a real change each time: under Galera the row is in the write set
+      clock.advance(TTL);
+      await b.run(name, TTL, async () => {
+        const before = await writes();
+        await expect(serverA.transaction((trx) => lease.fence(trx))).rejects.toBeInstanceOf(LeaseLostError);
+        expect(await writes()).toBe(before);
+      });
+    });
+  });
 });
