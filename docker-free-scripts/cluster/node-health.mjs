@@ -12,8 +12,8 @@ import path from 'node:path';
 import mysql from 'mysql2/promise';
 
 const clusterDir = process.env.LAGBOOK_CLUSTER_DIR;
-const base = Number(process.env.LAGBOOK_CLUSTER_PORT);
-if (!clusterDir || !Number.isInteger(base)) {
+const base = Number(process.env.LAGBOOK_CLUSTER_PORT || NaN);
+if (!clusterDir || !Number.isInteger(base) || base < 1024 || base > 65490) {
   console.error('node-health: LAGBOOK_CLUSTER_DIR and LAGBOOK_CLUSTER_PORT must be set');
   process.exit(2);
 }
