@@ -1,4 +1,17 @@
-const DB_DOWN_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', 'PROTOCOL_CONNECTION_LOST', 'ER_SERVER_SHUTDOWN', 'ER_CON_COUNT_ERROR']);
+const DB_DOWN_CODES = new Set([
+  'ECONNREFUSED',
+  'ECONNRESET',
+  'ETIMEDOUT',
+  'EPIPE',
+  'PROTOCOL_CONNECTION_LOST',
+  'ER_SERVER_SHUTDOWN',
+  'ER_CON_COUNT_ERROR',
+  // 1927: the server ended this session (an operator, or a cluster node leaving and cutting its clients)
+  'ER_CONNECTION_KILLED',
+  // 1180: a commit that failed inside the server; under Galera a node that lost the primary
+  // component answers COMMIT this way (from memory of Galera's behaviour, not reproduced here)
+  'ER_ERROR_DURING_COMMIT',
+]);
 
 /**
  * MariaDB error 1047 (`ER_UNKNOWN_COM_ERROR`): on a Galera node it means "WSREP has not yet
