@@ -1,6 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import type { Knex } from 'knex';
+import express from 'express';
+import { errorHandler } from '../../server/http/middleware/error-handler.ts';
+import { createLogWriter } from '../../server/log-writer.ts';
 import { buildTestApp, type TestApp } from '../support/test-app.ts';
 import { buildLabWithEverything, type LabWithEverything } from '../support/lab-fixture.ts';
 import { createDb, type Db } from '../../server/db/create-db.ts';
@@ -124,5 +127,24 @@ describe('certification conflicts and deadlocks are retried as whole transaction
     const after = await storedState(f);
     expect(after.readings - before.readings).toBe(4);
     expect(after.storedReadings - before.storedReadings).toBe(4);
+  });
+
+  it('what the database says during a failover answers 503 with Retry-After, never 500', async () => {
+    const cases = [
+      { code: 'ER_UNKNOWN_COM_ERROR', errno: 1047, message: 'WSREP has not yet prepared node for application use', retryAfter: '2' },
+      { code: 'ER_LOCK_DEADLOCK', errno: 1213, message: 'Deadlock found when trying to get lock; try restarting transaction', retryAfter: '1' },
+      { code: 'ER_LOCK_WAIT_TIMEOUT', errno: 1205, message: 'Lock wait timeout exceeded; try restarting transaction', retryAfter: '1' },
+      { code: 'PROTOCOL_CONNECTION_LOST', errno: undefined, message: 'Connection lost: The server closed the connection.', retryAfter: '5' },
+    ];
+    for (const c of cases) {
+      const app = express();
+      app.get('/x', () => {
+        throw Object.assign(new Error(c.message), { code: c.code, errno: c.errno });
+      });
+      app.use(errorHandler(createLogWriter({ silent: true })));
+      const res = await request(app).get('/x');
+      expect([c.code, res.status, res.headers['retry-after'], res.body.error.code]).toEqual([c.code, 503, c.retryAfter, 'service_unavailable']);
+      expect(res.body.error.message).not.toMatch(/WSREP|Deadlock|ER_/); // plain words, no internals
+    }
   });
 });
