@@ -3,9 +3,13 @@ import { hostname } from 'node:os';
 import type { Db } from '../db/create-db.ts';
 import type { DbOrTrx } from '../db/tenant-scope.ts';
 import { jobLeasesRepo, type TakeResult } from '../db/job-leases.repo.ts';
+import { fullJitterDelayMs } from '../db/retry-transaction.ts';
 
 /** Lease names in use; each names one piece of cluster-wide work. */
 export const LEASE_NAMES = ['usage-reconciliation', 'storage-maintenance', 'retention', 'alert-evaluator'] as const;
+
+/** Attempts to give a lease back after a run before leaving it to expire. */
+const RELEASE_ATTEMPTS = 5;
 
 /** A lease this holder has taken, handed to the work it guards. */
 export interface HeldLease {
@@ -119,6 +123,24 @@ export function createLeaseRunner(deps: { db: Db; holder: string; now?: () => Da
     };
   }
 
+  /**
+   * Gives the lease back after a run. A lost lease is not ours to release (the conditional update
+   * then changes nothing). The release is one idempotent statement, so when the database is briefly
+   * unreachable (a cluster failing over to another node) it is tried again a few times, with
+   * full-jitter back-off over about ten seconds: a run that ended during a failover would otherwise
+   * leave the lease to expire, and every other server would skip the job until then.
+   */
+  async function releaseSoon(name: string, fencing: number): Promise<void> {
+    for (let attempt = 1; attempt <= RELEASE_ATTEMPTS; attempt++) {
+      try {
+        await repo.release(name, holder, fencing);
+        return;
+      } catch {
+        if (attempt < RELEASE_ATTEMPTS) await new Promise((resolve) => setTimeout(resolve, fullJitterDelayMs(attempt, 500, 4000, Math.random)));
+      }
+    }
+  }
+
   /** Takes the lease, trying again after jittered pauses while another holds it, for up to `wait.waitMs` of pauses. */
   async function takeWaiting(name: string, ttlMs: number, wait: LeaseWait): Promise<TakeResult> {
     const waitMs = wait.waitMs ?? 0;
@@ -144,8 +166,7 @@ export function createLeaseRunner(deps: { db: Db; holder: string; now?: () => Da
       try {
         return { ran: true, value: await work(heldLease(name, ttlMs, got.fencing)) };
       } finally {
-        // a lost lease is not ours to release; the conditional update then changes nothing
-        await repo.release(name, holder, got.fencing).catch(() => false);
+        await releaseSoon(name, got.fencing);
       }
     },
   };

@@ -20,9 +20,10 @@ export const EVALUATOR_LEASE = 'alert-evaluator';
  * How long the evaluator's lease holds without renewal. Every rule transaction renews it (its
  * fencing write), and so does the start of each lab, so it only has to outlast the longest single
  * step (one rule's chunk of 5,000 readings with an unusual-reading decomposition: seconds, not
- * minutes). A server that dies holding it delays the others by at most this long.
+ * a minute). A server that dies holding it delays the others by at most this long (two cycles at
+ * the default 30 s interval).
  */
-export const EVALUATOR_LEASE_TTL_MS = 120_000;
+export const EVALUATOR_LEASE_TTL_MS = 60_000;
 
 /** What one run did (tests and logs read it). */
 export interface EvaluationSummary {
