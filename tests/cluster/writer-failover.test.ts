@@ -102,7 +102,7 @@ describe('the writer node dies under load', () => {
     const accepted = firstAcceptedAfter(run.tally, killAt);
     const gapS = accepted === null ? null : (accepted - killAt) / 1000;
     const silenceS = longestSilence(run.tally, killAt - 1000, run.stoppedAt) / 1000;
-    const stored = await compareStoredWithLedgers(t.db, lab.tenantId, lab.chambers, run, schedule);
+    const stored = await compareStoredWithLedgers(t.db, lab.tenantId, lab.chambers, [{ run, schedule }]);
     const counters = await compareCounters(t.db, lab.tenantId);
     const recovered = accepted === null ? runTo : wall(accepted);
     const cycles = await checkEvaluatorCycles(

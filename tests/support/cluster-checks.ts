@@ -32,13 +32,15 @@ export interface StoredReadingsFindings {
   examples: string[];
 }
 
-/** Compares each logger's stored rows with its ledger (see {@link StoredReadingsFindings}). */
+/**
+ * Compares each logger's stored rows with its ledgers (see {@link StoredReadingsFindings}); `runs`
+ * are the posting runs made on these channels, each with its schedule (their timestamps must not overlap).
+ */
 export async function compareStoredWithLedgers(
   db: Db,
   tenantId: number,
   chambers: ChamberLogger[],
-  run: LoggerRun,
-  s: LoggerSchedule,
+  runs: Array<{ run: LoggerRun; schedule: LoggerSchedule }>,
 ): Promise<StoredReadingsFindings> {
   const f: StoredReadingsFindings = {
     acknowledged: 0,
@@ -60,40 +62,41 @@ export async function compareStoredWithLedgers(
     const stored = new Map(rows.map((r) => [Number(r.ts), Number(r.value)]));
     f.stored += stored.size;
     let explained = 0;
-    for (const record of run.ledgers[c.index]) {
-      let present = 0;
-      for (let k = 0; k < s.batchSize; k++) {
-        const ts = readingTs(s, record.batch, k);
-        const value = stored.get(ts);
-        if (value === undefined) continue;
-        present++;
-        if (value !== readingValue(s, c.index, record.batch, k)) {
-          f.wrongValue++;
-          example(`chamber ${c.index + 1} batch ${record.batch} reading ${k}: stored ${value}`);
+    for (const { run, schedule: s } of runs)
+      for (const record of run.ledgers[c.index]) {
+        let present = 0;
+        for (let k = 0; k < s.batchSize; k++) {
+          const ts = readingTs(s, record.batch, k);
+          const value = stored.get(ts);
+          if (value === undefined) continue;
+          present++;
+          if (value !== readingValue(s, c.index, record.batch, k)) {
+            f.wrongValue++;
+            example(`chamber ${c.index + 1} batch ${record.batch} reading ${k}: stored ${value}`);
+          }
+        }
+        explained += present;
+        if (record.acknowledged) {
+          f.acknowledged += s.batchSize;
+          f.missing += s.batchSize - present;
+          if (present < s.batchSize) example(`chamber ${c.index + 1} batch ${record.batch}: acknowledged, ${present} of ${s.batchSize} stored`);
+          const a = record.answer!;
+          if (a.duplicates > 0 && a.duplicates < s.batchSize) {
+            f.partlyDuplicateAnswers++;
+            example(`chamber ${c.index + 1} batch ${record.batch}: answer ${JSON.stringify(a)}`);
+          }
+          if (a.duplicates === s.batchSize && record.failedAttempts === 0) {
+            f.unexplainedDuplicates++;
+            example(`chamber ${c.index + 1} batch ${record.batch}: all duplicates on the first attempt`);
+          }
+          if (a.duplicates === s.batchSize && record.failedAttempts > 0) f.committedBeforeFailure++;
+        } else if (present === 0) f.unacknowledged.absent++;
+        else if (present === s.batchSize) f.unacknowledged.whole++;
+        else {
+          f.unacknowledged.partial++;
+          example(`chamber ${c.index + 1} batch ${record.batch}: not acknowledged, ${present} of ${s.batchSize} stored`);
         }
       }
-      explained += present;
-      if (record.acknowledged) {
-        f.acknowledged += s.batchSize;
-        f.missing += s.batchSize - present;
-        if (present < s.batchSize) example(`chamber ${c.index + 1} batch ${record.batch}: acknowledged, ${present} of ${s.batchSize} stored`);
-        const a = record.answer!;
-        if (a.duplicates > 0 && a.duplicates < s.batchSize) {
-          f.partlyDuplicateAnswers++;
-          example(`chamber ${c.index + 1} batch ${record.batch}: answer ${JSON.stringify(a)}`);
-        }
-        if (a.duplicates === s.batchSize && record.failedAttempts === 0) {
-          f.unexplainedDuplicates++;
-          example(`chamber ${c.index + 1} batch ${record.batch}: all duplicates on the first attempt`);
-        }
-        if (a.duplicates === s.batchSize && record.failedAttempts > 0) f.committedBeforeFailure++;
-      } else if (present === 0) f.unacknowledged.absent++;
-      else if (present === s.batchSize) f.unacknowledged.whole++;
-      else {
-        f.unacknowledged.partial++;
-        example(`chamber ${c.index + 1} batch ${record.batch}: not acknowledged, ${present} of ${s.batchSize} stored`);
-      }
-    }
     f.unknown += stored.size - explained;
     if (stored.size > explained) example(`chamber ${c.index + 1}: ${stored.size - explained} rows from no batch that was sent`);
   }
