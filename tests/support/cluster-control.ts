@@ -9,7 +9,7 @@
  * SST B+10N+3, health check B+10N+4.
  */
 import { execFile } from 'node:child_process';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -52,6 +52,22 @@ export async function freeClusterBasePort(avoid: readonly number[] = []): Promis
     if (free.every(Boolean)) return base;
   }
   throw new Error('no free block of ports for the cluster was found in 50 tries');
+}
+
+/**
+ * Last resort when `cluster.sh stop` fails: SIGKILL to the processes named in this cluster's own
+ * pid files (the nodes, HAProxy, the health responder), so no server outlives its deleted folder.
+ */
+function killFromPidFiles(dir: string): void {
+  const files = ['haproxy.pid', 'health.pid', ...NODES.map((n) => join(`node${n}`, 'mysqld.pid'))];
+  for (const file of files) {
+    try {
+      const pid = Number(readFileSync(join(dir, file), 'utf8').trim());
+      if (Number.isInteger(pid) && pid > 1) process.kill(pid, 'SIGKILL');
+    } catch {
+      /* no such file or process */
+    }
+  }
 }
 
 /** cluster.sh failed: the action, its exit code and the tail of what it printed. */
@@ -141,7 +157,10 @@ export async function defineCluster(opts: { appPorts: number[]; database: string
     async destroy() {
       if (destroyed) return;
       destroyed = true;
-      await script(120_000, 'stop').catch((err: Error) => console.error(err.message));
+      await script(120_000, 'stop').catch((err: Error) => {
+        console.error(err.message);
+        killFromPidFiles(dir);
+      });
       rmSync(dir, { recursive: true, force: true });
     },
   };
