@@ -268,7 +268,7 @@ describe('alert evaluation', () => {
     expect(loser.skipped).toBe('cycle-done');
     const rows = await cycleRows(cycleStart);
     expect(rows).toHaveLength(1);
-    expect(rows[0].holder).toMatch(ra.ran ? /^server-a#/ : /^server-b#/);
+    expect(rows[0].holder).toBe(ra.ran ? 'server-a' : 'server-b');
     expect(rows[0].finished_at).not.toBeNull();
     expect(await alertsOf(s.f)).toHaveLength(2);
     expect((await mailTo(s.watcher)).sort()).toEqual([
@@ -367,10 +367,30 @@ describe('alert evaluation', () => {
     const later = clock.now();
     expect(await b.runOnce(later)).toMatchObject({ ran: true });
     const [row] = await cycleRows(later);
-    expect(row.holder).toMatch(/^server-b#/);
+    expect(row.holder).toBe('server-b');
     expect(Number(row.fencing)).toBe(crashed.fencing + 1);
     expect(await cycleRows(early)).toHaveLength(0);
     expect((await leases.current(EVALUATOR_LEASE))?.holder).toBe(''); // released after the run
+  });
+
+  it('runs of one server take turns without waiting on the lease; a lease it failed to release is taken straight back by its next run', async () => {
+    const s = await setup();
+    await makeRule(s, { name: 'Fridge warm', kind: 'bounds', channelId: s.f.ids.channelId, params: { high: 8 } });
+    const t0 = Date.now() - 600_000;
+    await store(s.f, t0, 60_000, [5, 9]);
+    const a = evaluator({ holder: 'server-a', lockWaitS: 0, cycleMs: 1 });
+    // the schedule and an ingestion nudge at once on one server: both run, one after the other
+    const [scheduled, nudged] = await Promise.all([a.runOnce(t0 + 2 * 60_000), a.evaluateChannels(s.f.lab.id, [s.f.ids.channelId], t0 + 2 * 60_000)]);
+    expect([scheduled.ran, nudged.ran]).toEqual([true, true]);
+    expect(await alertsOf(s.f)).toHaveLength(1);
+    // a release that never reached the database (it was failing over): the lease is still server-a's
+    const leases = jobLeasesRepo(t.db);
+    const stuck = await leases.take(EVALUATOR_LEASE, 'server-a', new Date(), new Date(Date.now() + EVALUATOR_LEASE_TTL_MS));
+    expect(stuck.taken).toBe(true);
+    const b = evaluator({ holder: 'server-b', lockWaitS: 0, cycleMs: 1 });
+    expect(await b.runOnce(Date.now())).toMatchObject({ ran: false, skipped: 'busy' });
+    expect(await a.runOnce(Date.now() + 1)).toMatchObject({ ran: true });
+    expect((await leases.current(EVALUATOR_LEASE))?.holder).toBe(''); // and released after that run
   });
 
   it('an evaluator stopped mid-run and restarted loses nothing and doubles nothing', async () => {

@@ -60,7 +60,7 @@ export interface AlertEvaluatorDeps {
    * one on simulated days shared between tests.
    */
   cycleMs?: number;
-  /** Names this process in the lease (default: host, pid and a random part; each run adds a sequence number). */
+  /** Names this process in the lease (default: host, pid and a random part). */
   holder?: string;
   /** The lease's clock in epoch ms (default Date.now; tests pass a simulated one). */
   clock?: () => number;
@@ -93,18 +93,21 @@ export function createAlertEvaluator(deps: AlertEvaluatorDeps) {
   if (cycleMs !== undefined && (!Number.isInteger(cycleMs) || cycleMs < 1))
     throw new Error('createAlertEvaluator: cycleMs must be a whole number of milliseconds from 1');
   const clock = deps.clock ?? Date.now;
-  const baseHolder = (deps.holder ?? processHolderName()).slice(0, 110);
-  let runSeq = 0;
+  const leases = createLeaseRunner({ db: deps.db, holder: deps.holder ?? processHolderName(), now: () => new Date(clock()) });
+  let queue: Promise<unknown> = Promise.resolve();
   const cycles = jobCycles(deps.db);
 
   /**
-   * Runs `work` under the evaluator's lease, as a holder of its own (this process's name and a
-   * sequence number), so two runs in one process (the schedule and an ingestion nudge) exclude
-   * each other exactly as runs on two servers do.
+   * Runs `work` under the evaluator's lease. Across servers the lease decides who runs; within this
+   * process the runs (the schedule and the ingestion nudges) take turns in a queue, because they
+   * share one holder name. Sharing it means a lease this process could not release (the database
+   * was failing over at that moment) is taken straight back by its next run instead of blocking
+   * every server until it expires.
    */
   function underLease<T>(work: (lease: HeldLease) => Promise<T>) {
-    const leases = createLeaseRunner({ db: deps.db, holder: `${baseHolder}#${++runSeq}`, now: () => new Date(clock()) });
-    return leases.run(EVALUATOR_LEASE, EVALUATOR_LEASE_TTL_MS, work, { ...deps.leaseWait, waitMs: waitS * 1000 });
+    const turn = queue.then(() => leases.run(EVALUATOR_LEASE, EVALUATOR_LEASE_TTL_MS, work, { ...deps.leaseWait, waitMs: waitS * 1000 }));
+    queue = turn.catch(() => undefined);
+    return turn;
   }
 
   async function context(tenantId: number, now: number, lease: HeldLease): Promise<EvaluationContext | null> {
