@@ -196,7 +196,7 @@ export function createApp(deps: AppDeps): Express {
     ...tokenRoutes({ tokens }),
     ...billingRoutes({ billing: billingService }),
     ...retentionRoutes({ retention: createRetentionView({ db, catalog: plans, now: deps.now }) }),
-    ...overviewRoutes({ overview: createLabOverviewService({ db, billing: billingService, now: nowMs }) }),
+    ...overviewRoutes({ overview: createLabOverviewService({ db, reads, billing: billingService, now: nowMs }) }),
     // Stripe signs the raw body: 'webhook-signature' mounts it before sessions and JSON parsing.
     ...stripeWebhookRoutes({
       webhooks: createStripeWebhooks({

@@ -11,6 +11,11 @@ import { createReadReplica, isReaderUnavailable } from './read-replica.ts';
 function standIn(name: string, versions: Array<{ id: number; dataVersion: number }> = []) {
   const log: string[] = [];
   let failWith: Error | null = null;
+  /** What the list check (one raw statement) finds: per table its count, newest id and edit sum. */
+  let list = [
+    { t: 'channels', n: 2, maxId: 9, edits: '1500' },
+    { t: 'loggers', n: 1, maxId: 4, edits: '700' },
+  ];
   const query = (table: string) => {
     const builder = {
       where: () => builder,
@@ -29,9 +34,11 @@ function standIn(name: string, versions: Array<{ id: number; dataVersion: number
       log.push('begin');
       return work(db as unknown as DbOrTrx);
     },
-    raw: async () => {
+    raw: async (sql: string) => {
       if (failWith) throw failWith;
-      return [[{ ok: 1 }]];
+      if (sql === 'SELECT 1') return [[{ ok: 1 }]];
+      log.push('list check');
+      return [list];
     },
   });
   return {
@@ -39,6 +46,10 @@ function standIn(name: string, versions: Array<{ id: number; dataVersion: number
     log,
     fail(err: Error | null) {
       failWith = err;
+    },
+    /** A channel created (or edited) here and nowhere else yet. */
+    addChannel() {
+      list = list.map((r) => (r.t === 'channels' ? { ...r, n: r.n + 1, maxId: r.maxId + 1 } : r));
     },
   };
 }
@@ -114,6 +125,18 @@ describe('createReadReplica', () => {
       }),
     ).rejects.toBe(refused);
     expect(reads.counts()).toEqual({ reader: 0, writer: 0, stale: 0, unreachable: 0 });
+  });
+
+  it('lists on the reader when its channels and loggers are the writer’s, and on the writer when the writer has one more', async () => {
+    const writer = standIn('writer');
+    const reader = standIn('reader');
+    const reads = createReadReplica({ writer: writer.db, reader: reader.db });
+    expect(await reads.listRead(1, whoAnswers)).toBe('reader');
+    expect(writer.log).toEqual(['list check']);
+    expect(reader.log).toEqual(['begin', 'list check']);
+    writer.addChannel();
+    expect(await reads.listRead(1, whoAnswers)).toBe('writer');
+    expect(reads.counts()).toEqual({ reader: 1, writer: 0, stale: 1, unreachable: 0 });
   });
 
   it('reports whether the reader answers', async () => {

@@ -1,5 +1,6 @@
 import type { Db } from '../db/create-db.ts';
 import { inLab } from '../db/tenant-scope.ts';
+import { createReadReplica, type ReadReplica } from '../db/read-replica.ts';
 import { labOverviewRepo, type LoggerSinceRow } from '../db/lab-overview.repo.ts';
 import { channelStateRepo, type ChannelWithState } from '../db/channel-state.repo.ts';
 import { labBillingRepo } from '../db/lab-billing.repo.ts';
@@ -90,10 +91,13 @@ const loggerKey = (r: LoggerSinceRow): OverviewLoggerKey => ({ logger: { id: r.l
  * A lab's overview: what needs attention (silent and out-of-range channels, open alerts,
  * quarantine, unused keys, usage against the plan, the last upload), each part read only when
  * the caller's role may see it (server/policies/permissions.ts). Bounded reads only: channel
- * state and counters ingestion keeps, indexed lists with a LIMIT, never the readings.
+ * state and counters ingestion keeps, indexed lists with a LIMIT, never the readings. The channel
+ * list comes through `reads` (the reader when its list of the lab's channels and loggers is the
+ * writer's, see read-replica.ts); alerts, quarantine, keys, plan and uploads stay on the writer.
  */
-export function createLabOverviewService(deps: { db: Db; billing: Pick<BillingService, 'overview'>; now?: () => number }) {
+export function createLabOverviewService(deps: { db: Db; reads?: ReadReplica; billing: Pick<BillingService, 'overview'>; now?: () => number }) {
   const now = deps.now ?? Date.now;
+  const reads = deps.reads ?? createReadReplica({ writer: deps.db });
 
   async function quarantinePart(labId: number): Promise<OverviewQuarantine> {
     const scope = inLab(deps.db, labId);
@@ -156,7 +160,9 @@ export function createLabOverviewService(deps: { db: Db; billing: Pick<BillingSe
       const loggerCount = await labOverviewRepo(scope).activeLoggerCount();
       const empty = loggerCount === 0;
       const answer: LabOverviewAnswer = { now: iso(at), loggerCount, empty, firstSteps: empty ? firstStepsFor(may) : [] };
-      if (may('channels.read')) answer.channels = channelsPart(empty ? [] : await channelStateRepo(scope).listActive(), at);
+      if (may('channels.read')) {
+        answer.channels = channelsPart(empty ? [] : await reads.listRead(lab.id, (db) => channelStateRepo(inLab(db, lab.id)).listActive()), at);
+      }
       if (may('alerts.read')) {
         const open = await labOverviewRepo(scope).openAlerts(RECENT_ALERTS);
         answer.alerts = { openCount: open.count, recent: open.recent.map((a) => ({ ...a, openedAt: iso(a.openedAt) })) };
