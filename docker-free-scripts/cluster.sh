@@ -207,6 +207,8 @@ start_node_process() {
     port_free "$port" || fail "port $port on 127.0.0.1 (node $n) is in use by another program; set LAGBOOK_CLUSTER_PORT to a free range"
   done
   rm -f "$(node_pidfile "$n")"
+  # Where this start's part of the log begins (wait_synced reads only that part).
+  stat -c %s "$(node_log "$n")" > "$dir/log-offset" 2>/dev/null || echo 0 > "$dir/log-offset"
   local position
   position="$(start_position_option "$n")"
   write_node_config "$n"
@@ -221,14 +223,31 @@ log_errors() {
   grep -E '\[ERROR\]|WSREP_SST: \[ERROR\]' "$(node_log "$1")" 2>/dev/null | tail -n 5 | cut -c1-300 | sed 's/^/    /' >&2 || true
 }
 
-# Waits until node N is Synced; fails with the end of its log when it dies or times out.
+# True when node N's log since its last start says Galera gave up on it ("node restart required",
+# e.g. after a failed IST): the server process stays up but never joins again by itself.
+node_gave_up() {
+  local offset
+  offset="$(cat "$(node_dir "$1")/log-offset" 2>/dev/null || echo 0)"
+  tail -c +"$((offset + 1))" "$(node_log "$1")" 2>/dev/null | grep -q 'restart required'
+}
+
+# Waits until node N is Synced; fails with the end of its log when it dies or times out. A joining
+# node that Galera gave up on is stopped and started once more (it then asks for IST or SST again).
 wait_synced() {
-  local n=$1 what=$2
+  local n=$1 what=$2 retried=0
   local deadline=$((SECONDS + SYNC_TIMEOUT))
   local started=$SECONDS
   sleep 0.3
   while [ $SECONDS -lt $deadline ]; do
     if node_synced "$n"; then note "node $n $what (Synced, $((SECONDS - started)) s)"; return 0; fi
+    if [ "$retried" = 0 ] && [ "$what" != "started a new cluster" ] && node_gave_up "$n"; then
+      retried=1
+      echo "cluster: node $n failed to join ($(grep -h 'restart required' "$(node_log "$n")" | tail -n 1 | cut -c1-200)); starting it once more" >&2
+      stop_node "$n" >/dev/null
+      start_node_process "$n"
+      sleep 0.3
+      continue
+    fi
     # The pid file appears once the server is up; before that, the process started by
     # start_node_process may still be initialising (SST runs first).
     if ! node_process "$n" >/dev/null; then
@@ -392,6 +411,10 @@ defaults
     timeout client 1h
     timeout server 1h
     timeout check 1s
+    # A connection refused by a node that died since its last check goes to the next server at
+    # once (for the writer: the next in order) instead of failing.
+    retries 2
+    option redispatch
     # Health: an HTTP probe of docker-free-scripts/cluster/node-health.mjs on the node's health
     # port; 200 only when wsrep_local_state = 4 (Synced) and wsrep_ready = ON.
     default-server inter 1s fastinter 500ms downinter 1s fall 2 rise 2 on-marked-down shutdown-sessions
@@ -516,15 +539,14 @@ start() {
     start_node_process "$first" --wsrep-new-cluster
     wait_synced "$first" "started a new cluster"
   fi
-  # The other nodes join at the same time (a node that needs a full transfer while the donor is
-  # busy with another retries until it is free).
-  local joining=()
+  # The other nodes join one after the other: two joining at once can break an IST (Galera 26.4
+  # here: "IST didn't contain all write sets" when the second join's membership change falls
+  # inside the first one's range).
   for n in 1 2 3; do
     [ "$n" = "$first" ] && continue
     node_answers "$n" || node_process "$n" >/dev/null || start_node_process "$n"
-    joining+=("$n")
+    wait_synced "$n" "joined"
   done
-  for n in ${joining[@]+"${joining[@]}"}; do wait_synced "$n" "joined"; done
   ensure_database "$first"
   start_health_checker
   start_haproxy
