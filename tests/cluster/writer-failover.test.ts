@@ -139,6 +139,9 @@ describe('the writer node dies under load', () => {
 
     const report = {
       when: new Date(runFrom).toISOString(),
+      killedAt: new Date(wall(killAt)).toISOString(),
+      firstAcceptedAt: accepted === null ? null : new Date(wall(accepted)).toISOString(),
+      stoppedAt: new Date(runTo).toISOString(),
       killedNode: killed,
       killToFirstAcceptedS: gapS,
       longestStretchWithoutAcknowledgementS: silenceS,

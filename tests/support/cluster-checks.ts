@@ -139,6 +139,8 @@ export interface CycleFindings {
   missingInWindow: number[];
   /** Rows in the whole run (any period). */
   rows: number;
+  /** Every row of the run, for the report: period start, holder, started and finished (ISO). */
+  runs: Array<{ period: string; holder: string; started: string; finished: string | null }>;
 }
 
 /**
@@ -152,13 +154,16 @@ export async function checkEvaluatorCycles(
   everyS: number,
 ): Promise<CycleFindings> {
   const step = everyS * 1000;
-  const rows: Array<{ period_start: Date; finished_at: Date | null }> = await db('job_runs')
+  const rows: Array<{ period_start: Date; holder: string; started_at: Date; finished_at: Date | null }> = await db('job_runs')
     .where({ name: 'alert-evaluator' })
     .where('period_start', '>=', new Date(range.from - step))
     .where('period_start', '<', new Date(range.to + step))
-    .select('period_start', 'finished_at');
+    .orderBy('period_start')
+    .select('period_start', 'holder', 'started_at', 'finished_at');
   const byPeriod = new Map(rows.map((r) => [new Date(r.period_start).getTime(), r]));
-  const f: CycleFindings = { expected: 0, missing: [], unfinished: [], missingInWindow: [], rows: rows.length };
+  const iso = (d: Date | null) => (d === null ? null : new Date(d).toISOString());
+  const runs = rows.map((r) => ({ period: iso(r.period_start)!, holder: r.holder, started: iso(r.started_at)!, finished: iso(r.finished_at) }));
+  const f: CycleFindings = { expected: 0, missing: [], unfinished: [], missingInWindow: [], rows: rows.length, runs };
   for (let p = Math.ceil(range.from / step) * step; p + step <= range.to; p += step) {
     const inWindow = p + step > allowed.from && p < allowed.to;
     const row = byPeriod.get(p);

@@ -5,7 +5,7 @@
  * app servers behind HAProxy's HTTP listener. The same two app servers on one single MariaDB
  * (mariadb.sh) form the baseline the benchmark compares against.
  */
-import { copyFileSync, existsSync, mkdirSync, readdirSync } from 'node:fs';
+import { copyFileSync, existsSync, mkdirSync, readdirSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
 import { createDb, type Db } from '../../server/db/create-db.ts';
 import { migrateToLatest } from '../../server/db/migrate.ts';
@@ -93,6 +93,7 @@ export async function startClusterTarget(opts: StackOptions): Promise<LoadTarget
   const stop = stopper(steps);
   const apps: ClusterAppServer[] = [];
   try {
+    if (opts.keepLogsIn) rmSync(opts.keepLogsIn, { recursive: true, force: true }); // only this run's logs
     const outside: OutsideServices = await outsideServices();
     steps.push(() => outside.stop());
     const appPorts = freePorts(2);
