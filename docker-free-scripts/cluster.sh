@@ -244,7 +244,9 @@ wait_synced() {
       retried=1
       echo "cluster: node $n failed to join ($(grep -h 'restart required' "$(node_log "$n")" | tail -n 1 | cut -c1-200)); starting it once more" >&2
       stop_node "$n" >/dev/null
-      start_node_process "$n"
+      local donor
+      donor="$(preferred_donor "$n")"
+      start_node_process "$n" ${donor:+"--wsrep-sst-donor=$donor"}
       sleep 0.3
       continue
     fi
@@ -525,7 +527,7 @@ start() {
   [ -f "$GALERA_LIB" ] || fail "the Galera provider $GALERA_LIB is missing (Debian package galera-4)"
   command -v haproxy >/dev/null || fail "haproxy not found (Debian package haproxy)"
   mkdir -p "$CLUSTER_DIR"
-  local started=$SECONDS n first
+  local started=$SECONDS n first donor
   if [ ! -d "$(node_data 1)" ] && [ ! -d "$(node_data 2)" ] && [ ! -d "$(node_data 3)" ]; then seed_new_cluster; fi
   for n in 1 2 3; do init_node "$n"; done
   if first="$(running_primary_node)"; then
@@ -544,7 +546,10 @@ start() {
   # inside the first one's range).
   for n in 1 2 3; do
     [ "$n" = "$first" ] && continue
-    node_answers "$n" || node_process "$n" >/dev/null || start_node_process "$n"
+    if ! node_answers "$n" && ! node_process "$n" >/dev/null; then
+      donor="$(preferred_donor "$n")"
+      start_node_process "$n" ${donor:+"--wsrep-sst-donor=$donor"}
+    fi
     wait_synced "$n" "joined"
   done
   ensure_database "$first"
@@ -646,12 +651,25 @@ start_node() {
     return 0
   fi
   pkill_node_leftover "$n"
-  local other
-  other="$(running_primary_node)" || fail "no running node to join; use '$0 start' to start the cluster"
-  [ -n "$other" ] || true
+  running_primary_node >/dev/null || fail "no running node to join; use '$0 start' to start the cluster"
   init_node "$n"
-  start_node_process "$n"
+  local donor
+  donor="$(preferred_donor "$n")"
+  start_node_process "$n" ${donor:+"--wsrep-sst-donor=$donor"}
   wait_synced "$n" "rejoined"
+}
+
+# The donor a rejoining node N should ask for its state: a Synced node that is not the writer, so
+# the writer never turns Donor (state 2) for the transfer and HAProxy never moves the writes
+# because of a rejoin. The trailing comma lets Galera pick any other node when that one cannot.
+# Prints nothing when there is no such node.
+preferred_donor() {
+  local n=$1 writer m
+  writer="$(writer_node 2>/dev/null)" || writer=""
+  for m in 1 2 3; do
+    [ "$m" = "$n" ] || [ "$m" = "$writer" ] && continue
+    if node_synced "$m"; then echo "node$m,"; return 0; fi
+  done
 }
 
 print_env() {
