@@ -19,6 +19,7 @@ import { buildTestApp, testConfig, type TestApp } from '../support/test-app.ts';
 import { buildMember, sessionCookieFor } from '../support/factories.ts';
 import { buildLabWithEverything, type LabWithEverything } from '../support/lab-fixture.ts';
 import { onLargestPlan } from '../support/largest-plan.ts';
+import { startAppProcess, stopAppProcess } from '../support/app-process.ts';
 import { createDb, type Db } from '../../server/db/create-db.ts';
 import type { ReadReplica } from '../../server/db/read-replica.ts';
 
@@ -301,5 +302,20 @@ describe('the server start (server/main.ts)', () => {
     const healthy = async (port: number) => (await fetch(`http://127.0.0.1:${port}/healthz`)).ok;
     const started = await runMain({ LAGBOOK_DB_READ_HOST: '127.0.0.1', LAGBOOK_DB_READ_PORT: String(testConfig().db.port) }, healthy)(await closedPort());
     expect(started).toMatchObject({ listened: true, code: 0 });
+  });
+});
+
+describe('an app process (tests/support/app-process.ts)', () => {
+  it('passes the reader on to the app it starts', async () => {
+    await syncReader();
+    const child = await startAppProcess(t.config.db, await closedPort(), t.config.sessionSecret, { readDb: { ...t.config.db, database: readerName } });
+    try {
+      const res = await fetch(`${child.url}${base}/channels/${f.ids.channelId}/series?${range()}&points=5000`, { headers: { cookie } });
+      expect(res.status).toBe(200);
+      const body = (await res.json()) as { series: { value: Array<number | null> } };
+      expect(body.series.value.filter((v) => v !== null)).toEqual(values(SHIFT));
+    } finally {
+      await stopAppProcess(child);
+    }
   });
 });
