@@ -6,7 +6,7 @@ import { sessionCookieFor } from '../support/factories.ts';
 import { buildLabWithEverything, type LabWithEverything } from '../support/lab-fixture.ts';
 import { inLab } from '../../server/db/tenant-scope.ts';
 import { usageRepo } from '../../server/db/usage.repo.ts';
-import { createUsageJob, USAGE_LEASE, USAGE_LEASE_TTL_MS } from '../../server/services/billing/usage-job.ts';
+import { createUsageJob, USAGE_JOB_INTERVAL_MS, USAGE_LEASE, USAGE_LEASE_TTL_MS } from '../../server/services/billing/usage-job.ts';
 import { createLeaseRunner, LeaseLostError, type HeldLease } from '../../server/jobs/job-lease.ts';
 import { createLogWriter } from '../../server/log-writer.ts';
 import { createMailer } from '../../server/integrations/mail/create-mailer.ts';
@@ -333,7 +333,7 @@ describe('the lab count is a keyed read of its channel rows', () => {
 });
 
 describe('usage reconciliation runs on one server at a time', () => {
-  const jobFor = (holder: string, now?: () => Date) =>
+  const jobFor = (holder: string, now?: () => Date, cycleMs?: number) =>
     createUsageJob({
       db: t.db,
       catalog: loadPlanCatalog(t.config.stripe.plansFile),
@@ -342,6 +342,7 @@ describe('usage reconciliation runs on one server at a time', () => {
       publicUrl: t.config.publicUrl,
       holder,
       now,
+      cycleMs,
     });
   const billingCount = async (f: LabWithEverything) => Number((await t.db('lab_billing').where('tenant_id', f.lab.id).first())?.readings_count ?? -1);
 
@@ -379,7 +380,7 @@ describe('usage reconciliation runs on one server at a time', () => {
     const runs = await Promise.all([jobFor('server-a').runOnce(), jobFor('server-b').runOnce()]);
     expect(runs.some((r) => r.ran)).toBe(true);
     runs.forEach((r, i) => {
-      if (!r.ran) expect(r.heldBy).toBe(i === 0 ? 'server-b' : 'server-a');
+      if (!r.ran) expect(r).toEqual({ ran: false, heldBy: i === 0 ? 'server-b' : 'server-a' });
     });
     expect(await billingCount(f)).toBe(1);
   });
@@ -408,5 +409,25 @@ describe('usage reconciliation runs on one server at a time', () => {
     });
     expect(outcome).toEqual({ ran: true, value: { ran: true, value: 2 } });
     expect(await billingCount(f)).toBe(2);
+  });
+
+  it('with cycles, a 15-minute cycle reconciles once across servers: the second server finds it done, the next cycle runs again', async () => {
+    const { f } = await twoChannelLab();
+    await post(f, [{ channel: 'air_t', ts: T0, value: 1 }]).expect(200);
+    // a cycle start of our own far from any other test's, so job_runs rows of other tests never meet it
+    let clock = Date.UTC(2031, 0, 6, 9, 0, 0) + f.lab.id * USAGE_JOB_INTERVAL_MS * 4;
+    const now = () => new Date(clock);
+    const a = jobFor('server-a', now, USAGE_JOB_INTERVAL_MS);
+    const b = jobFor('server-b', now, USAGE_JOB_INTERVAL_MS);
+    expect(await a.runOnce()).toMatchObject({ ran: true, failed: 0 });
+    await t.db('lab_billing').where('tenant_id', f.lab.id).update({ readings_count: 7 }); // drift after the run
+    clock += 60_000; // same cycle, a minute later, on the other server
+    expect(await b.runOnce()).toEqual({ ran: false, cycleDone: true });
+    expect(await billingCount(f)).toBe(7); // nothing reconciled twice in one cycle
+    const claimed = await t.db('job_runs').where('name', USAGE_LEASE).where('holder', 'server-a').select('period_start', 'finished_at');
+    expect(claimed.some((r) => new Date(r.period_start).getTime() === clock - 60_000 && r.finished_at !== null)).toBe(true);
+    clock += USAGE_JOB_INTERVAL_MS; // the next cycle
+    expect(await b.runOnce()).toMatchObject({ ran: true, failed: 0 });
+    expect(await billingCount(f)).toBe(1);
   });
 });

@@ -7,6 +7,7 @@ import type { Mailer } from '../../integrations/mail/create-mailer.ts';
 import type { LogWriter } from '../../log-writer.ts';
 import { repeatingJob } from '../../jobs/background-jobs.ts';
 import { createLeaseRunner, LeaseLostError, processHolderName, type HeldLease } from '../../jobs/job-lease.ts';
+import { cycleStart, jobCycles } from '../../jobs/job-cycles.ts';
 import { effectivePlan } from './effective-plan.ts';
 import { usageWarningMail } from './billing-mail.ts';
 import { mailLabAdmins } from './notify-admins.ts';
@@ -25,8 +26,8 @@ export const USAGE_LEASE = 'usage-reconciliation';
  */
 export const USAGE_LEASE_TTL_MS = 5 * 60_000;
 
-/** What one run of the usage job did. */
-export type UsageRunSummary = { ran: true; labs: number; failed: number } | { ran: false; heldBy: string };
+/** What one run of the usage job did (`cycleDone`: this 15-minute cycle already ran on some server). */
+export type UsageRunSummary = { ran: true; labs: number; failed: number } | { ran: false; heldBy: string } | { ran: false; cycleDone: true };
 
 /** The warning level a usage share has reached: 100, 80 or 0 (percent). */
 export function warningLevel(used: number, allowed: number): 0 | 80 | 100 {
@@ -57,9 +58,12 @@ export function createUsageJob(deps: {
   publicUrl: string;
   now?: () => Date;
   holder?: string;
+  /** Claim each cycle of this length in job_runs, once across all servers (the app passes USAGE_JOB_INTERVAL_MS; tests may leave it out). */
+  cycleMs?: number;
 }) {
   const now = deps.now ?? (() => new Date());
   const leases = createLeaseRunner({ db: deps.db, holder: deps.holder ?? processHolderName(), now });
+  const cycles = jobCycles(deps.db);
 
   /**
    * Reconciles one lab. With `lease` (the job's run), each write first checks the lease is still
@@ -124,6 +128,8 @@ export function createUsageJob(deps: {
    */
   async function runOnce(): Promise<UsageRunSummary> {
     const outcome = await leases.run(USAGE_LEASE, USAGE_LEASE_TTL_MS, async (lease) => {
+      const period = deps.cycleMs === undefined ? null : cycleStart(now().getTime(), deps.cycleMs);
+      if (period && !(await cycles.claim(lease, period, now()))) return null;
       let labs = 0;
       let failed = 0;
       for (const lab of await crossLabRepo(deps.db).allLabs()) {
@@ -138,12 +144,17 @@ export function createUsageJob(deps: {
           deps.logger.warn('usage reconciliation failed for a lab', { labId: lab.id, err: String(err) });
         }
       }
+      if (period) {
+        await cycles.finish(lease, period, now());
+        await cycles.prune(USAGE_LEASE, now().getTime());
+      }
       return { labs, failed };
     });
     if (!outcome.ran) {
       deps.logger.info('usage reconciliation skipped: another server holds the lease', { lease: USAGE_LEASE, heldBy: outcome.heldBy });
       return outcome;
     }
+    if (outcome.value === null) return { ran: false, cycleDone: true };
     return { ran: true, ...outcome.value };
   }
 
