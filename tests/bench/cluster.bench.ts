@@ -130,8 +130,8 @@ async function measure(target: LoadTarget): Promise<Figures> {
     const cluster = target.cluster;
     const killed = await cluster.writerNode();
     const unavailableBefore = loggers.tally.statuses[503] ?? 0;
-    const killAt = performance.now();
     await cluster.killNode(killed);
+    const killAt = performance.now(); // from when kill-node returned: the SIGKILL has been sent
     while (firstAcceptedAfter(loggers.tally, killAt) === null && performance.now() < killAt + 60_000) await sleep(100);
     const accepted = firstAcceptedAfter(loggers.tally, killAt);
     figures.failoverGapS = accepted === null ? null : (accepted - killAt) / 1000;

@@ -85,8 +85,10 @@ describe('the writer node dies under load', () => {
     await sleep(BEFORE_KILL_MS);
     const killed: NodeNumber = await cluster.writerNode();
     const ackedBeforeKill = loggers.tally.acks.length;
-    const killAt = performance.now();
     await cluster.killNode(killed);
+    // timed from when kill-node returned (the SIGKILL has been sent): requests sent while the script
+    // was still starting could be acknowledged by the node before it died
+    const killAt = performance.now();
     console.log(`failover: killed node ${killed} (the writer) with SIGKILL after ${ackedBeforeKill} acknowledged batches`);
     const downUntil = killAt + WHILE_DOWN_MS;
     while (performance.now() < downUntil || (firstAcceptedAfter(loggers.tally, killAt) === null && performance.now() < killAt + 60_000)) await sleep(250);
