@@ -61,7 +61,7 @@ import { alertRoutes } from './http/alerts/alerts.routes.ts';
 import { createAlertsFeature } from './services/alerts/alerts-feature.ts';
 import { loadPlanCatalog } from './services/billing/plan-catalog.ts';
 import { createPlanLimits } from './services/billing/plan-limits.ts';
-import { createUsageJob } from './services/billing/usage-job.ts';
+import { createUsageJob, USAGE_JOB_INTERVAL_MS } from './services/billing/usage-job.ts';
 import { createBillingService } from './services/billing/billing.service.ts';
 import { createStripeWebhooks } from './services/billing/stripe-webhooks.service.ts';
 import { billingRoutes } from './http/billing/billing.routes.ts';
@@ -114,7 +114,16 @@ export function createApp(deps: AppDeps): Express {
   // The plan catalog is read and validated at start: a bad file stops the server (ConfigError).
   const plans = loadPlanCatalog(config.stripe.plansFile);
   const planLimits = createPlanLimits({ db, catalog: plans, logger, now: deps.now });
-  const usageJob = createUsageJob({ db, catalog: plans, mailer: deps.mailer, logger, publicUrl: config.publicUrl, now: deps.now });
+  // Each 15-minute cycle reconciles once across app servers (claimed in job_runs).
+  const usageJob = createUsageJob({
+    db,
+    catalog: plans,
+    mailer: deps.mailer,
+    logger,
+    publicUrl: config.publicUrl,
+    now: deps.now,
+    cycleMs: USAGE_JOB_INTERVAL_MS,
+  });
   const app = express();
   app.disable('x-powered-by');
   if (config.secureCookies) app.set('trust proxy', 1);
@@ -164,7 +173,7 @@ export function createApp(deps: AppDeps): Express {
   /** The route table: every API route with its auth, input schemas and answers (see http/routes/). */
   let openApiDocument: object = {};
   const routes: Route[] = [
-    ...healthRoutes({ db }),
+    ...healthRoutes({ db, reads }),
     // the API document is built from this table (right below)
     ...openApiRoutes({ document: () => openApiDocument }),
     ...meRoutes({ me }),

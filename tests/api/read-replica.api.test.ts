@@ -244,6 +244,10 @@ describe('a reader that does not answer', () => {
     try {
       expect(await (down.app.locals.readReplica as ReadReplica).readerAnswers()).toBe(false);
       expect(await (t.app.locals.readReplica as ReadReplica).readerAnswers()).toBe(true);
+      // health names the reader but stays 200: reads then use the writer
+      const health = await request(down.app).get('/healthz');
+      expect([health.status, health.body]).toEqual([200, { status: 'ok', database: 'ok', reader: 'unreachable' }]);
+      expect((await request(t.app).get('/healthz')).body).toEqual({ status: 'ok', database: 'ok', reader: 'ok' });
       expect((await series(down)).value).toEqual(values(0));
       expect(await csv(down)).toEqual(posted.map((p) => [p.ts, p.value]));
       expect(await labExportReadings(down)).toEqual(posted.map((p) => [p.ts, p.value]));

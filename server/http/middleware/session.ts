@@ -2,6 +2,7 @@ import session from 'express-session';
 import { ConnectSessionKnexStore } from 'connect-session-knex';
 import type { RequestHandler } from 'express';
 import type { Db } from '../../db/create-db.ts';
+import { settleStoreCallbacks } from './session-store-callbacks.ts';
 
 export const SESSION_COOKIE = 'lagbook.sid';
 
@@ -24,19 +25,7 @@ export function sessionMiddleware(opts: { db: Db; secret: string; secure: boolea
   const patchable = store as unknown as { ready: Promise<void> };
   patchable.ready.catch(() => undefined);
   patchable.ready = Promise.resolve();
-  // Each store method reports a failure to express-session's callback AND rethrows it from
-  // the promise nobody awaits; on Node that unhandled rejection would end the process the
-  // first time the database went away. Keep the callback, drop the rethrow.
-  const methods = store as unknown as Record<string, (...args: unknown[]) => unknown>;
-  for (const name of ['get', 'set', 'destroy', 'touch', 'length', 'clear', 'all']) {
-    const original = methods[name];
-    if (typeof original !== 'function') continue;
-    methods[name] = function (this: unknown, ...args: unknown[]) {
-      const result = original.apply(this, args);
-      if (result instanceof Promise) result.catch(() => undefined);
-      return result;
-    };
-  }
+  settleStoreCallbacks(store);
   return session({
     name: SESSION_COOKIE,
     secret: opts.secret,
