@@ -32,17 +32,9 @@ export interface StoredReadingsFindings {
   examples: string[];
 }
 
-/**
- * Compares each logger's stored rows with its ledgers (see {@link StoredReadingsFindings}); `runs`
- * are the posting runs made on these channels, each with its schedule (their timestamps must not overlap).
- */
-export async function compareStoredWithLedgers(
-  db: Db,
-  tenantId: number,
-  chambers: ChamberLogger[],
-  runs: Array<{ run: LoggerRun; schedule: LoggerSchedule }>,
-): Promise<StoredReadingsFindings> {
-  const f: StoredReadingsFindings = {
+/** Findings with nothing counted yet. */
+export function emptyStoredFindings(): StoredReadingsFindings {
+  return {
     acknowledged: 0,
     stored: 0,
     missing: 0,
@@ -54,51 +46,76 @@ export async function compareStoredWithLedgers(
     committedBeforeFailure: 0,
     examples: [],
   };
+}
+
+/**
+ * Judges one logger's stored rows (`stored`: timestamp → value) against its ledgers in `runs`,
+ * adding to `f`. Pure, so the fault test's checker can itself be tested on planted faults.
+ */
+export function judgeStoredRows(
+  f: StoredReadingsFindings,
+  loggerIndex: number,
+  stored: ReadonlyMap<number, number>,
+  runs: ReadonlyArray<{ run: Pick<LoggerRun, 'ledgers'>; schedule: LoggerSchedule }>,
+): void {
   const example = (line: string) => void (f.examples.length < 10 && f.examples.push(line));
+  const name = `chamber ${loggerIndex + 1}`;
+  f.stored += stored.size;
+  let explained = 0;
+  for (const { run, schedule: s } of runs)
+    for (const record of run.ledgers[loggerIndex]) {
+      let present = 0;
+      for (let k = 0; k < s.batchSize; k++) {
+        const value = stored.get(readingTs(s, record.batch, k));
+        if (value === undefined) continue;
+        present++;
+        if (value !== readingValue(s, loggerIndex, record.batch, k)) {
+          f.wrongValue++;
+          example(`${name} batch ${record.batch} reading ${k}: stored ${value}`);
+        }
+      }
+      explained += present;
+      if (record.acknowledged) {
+        f.acknowledged += s.batchSize;
+        f.missing += s.batchSize - present;
+        if (present < s.batchSize) example(`${name} batch ${record.batch}: acknowledged, ${present} of ${s.batchSize} stored`);
+        const a = record.answer!;
+        if (a.duplicates > 0 && a.duplicates < s.batchSize) {
+          f.partlyDuplicateAnswers++;
+          example(`${name} batch ${record.batch}: answer ${JSON.stringify(a)}`);
+        }
+        if (a.duplicates === s.batchSize && record.failedAttempts === 0) {
+          f.unexplainedDuplicates++;
+          example(`${name} batch ${record.batch}: all duplicates on the first attempt`);
+        }
+        if (a.duplicates === s.batchSize && record.failedAttempts > 0) f.committedBeforeFailure++;
+      } else if (present === 0) f.unacknowledged.absent++;
+      else if (present === s.batchSize) f.unacknowledged.whole++;
+      else {
+        f.unacknowledged.partial++;
+        example(`${name} batch ${record.batch}: not acknowledged, ${present} of ${s.batchSize} stored`);
+      }
+    }
+  f.unknown += stored.size - explained;
+  if (stored.size > explained) example(`${name}: ${stored.size - explained} rows from no batch that was sent`);
+}
+
+/**
+ * Compares each logger's stored rows with its ledgers (see {@link StoredReadingsFindings}); `runs`
+ * are the posting runs made on these channels, each with its schedule (their timestamps must not overlap).
+ */
+export async function compareStoredWithLedgers(
+  db: Db,
+  tenantId: number,
+  chambers: ChamberLogger[],
+  runs: Array<{ run: LoggerRun; schedule: LoggerSchedule }>,
+): Promise<StoredReadingsFindings> {
+  const f = emptyStoredFindings();
   for (const c of chambers) {
     const rows: Array<{ ts: number | string; value: number }> = await db('readings')
       .where({ tenant_id: tenantId, channel_id: c.channelId })
       .select('ts', 'value');
-    const stored = new Map(rows.map((r) => [Number(r.ts), Number(r.value)]));
-    f.stored += stored.size;
-    let explained = 0;
-    for (const { run, schedule: s } of runs)
-      for (const record of run.ledgers[c.index]) {
-        let present = 0;
-        for (let k = 0; k < s.batchSize; k++) {
-          const ts = readingTs(s, record.batch, k);
-          const value = stored.get(ts);
-          if (value === undefined) continue;
-          present++;
-          if (value !== readingValue(s, c.index, record.batch, k)) {
-            f.wrongValue++;
-            example(`chamber ${c.index + 1} batch ${record.batch} reading ${k}: stored ${value}`);
-          }
-        }
-        explained += present;
-        if (record.acknowledged) {
-          f.acknowledged += s.batchSize;
-          f.missing += s.batchSize - present;
-          if (present < s.batchSize) example(`chamber ${c.index + 1} batch ${record.batch}: acknowledged, ${present} of ${s.batchSize} stored`);
-          const a = record.answer!;
-          if (a.duplicates > 0 && a.duplicates < s.batchSize) {
-            f.partlyDuplicateAnswers++;
-            example(`chamber ${c.index + 1} batch ${record.batch}: answer ${JSON.stringify(a)}`);
-          }
-          if (a.duplicates === s.batchSize && record.failedAttempts === 0) {
-            f.unexplainedDuplicates++;
-            example(`chamber ${c.index + 1} batch ${record.batch}: all duplicates on the first attempt`);
-          }
-          if (a.duplicates === s.batchSize && record.failedAttempts > 0) f.committedBeforeFailure++;
-        } else if (present === 0) f.unacknowledged.absent++;
-        else if (present === s.batchSize) f.unacknowledged.whole++;
-        else {
-          f.unacknowledged.partial++;
-          example(`chamber ${c.index + 1} batch ${record.batch}: not acknowledged, ${present} of ${s.batchSize} stored`);
-        }
-      }
-    f.unknown += stored.size - explained;
-    if (stored.size > explained) example(`chamber ${c.index + 1}: ${stored.size - explained} rows from no batch that was sent`);
+    judgeStoredRows(f, c.index, new Map(rows.map((r) => [Number(r.ts), Number(r.value)])), runs);
   }
   return f;
 }
@@ -160,9 +177,28 @@ export async function checkEvaluatorCycles(
     .where('period_start', '<', new Date(range.to + step))
     .orderBy('period_start')
     .select('period_start', 'holder', 'started_at', 'finished_at');
-  const byPeriod = new Map(rows.map((r) => [new Date(r.period_start).getTime(), r]));
   const iso = (d: Date | null) => (d === null ? null : new Date(d).toISOString());
-  const runs = rows.map((r) => ({ period: iso(r.period_start)!, holder: r.holder, started: iso(r.started_at)!, finished: iso(r.finished_at) }));
+  return judgeCycles(
+    rows.map((r) => ({ periodStart: new Date(r.period_start).getTime(), holder: r.holder, startedAt: iso(r.started_at)!, finishedAt: iso(r.finished_at) })),
+    range,
+    allowed,
+    everyS,
+  );
+}
+
+/**
+ * Judges `job_runs` rows (period start in epoch ms) against the periods of `everyS` seconds that
+ * lie wholly in `range`; periods overlapping `allowed` may be missing. Pure (tested on its own).
+ */
+export function judgeCycles(
+  rows: ReadonlyArray<{ periodStart: number; holder: string; startedAt: string; finishedAt: string | null }>,
+  range: { from: number; to: number },
+  allowed: { from: number; to: number },
+  everyS: number,
+): CycleFindings {
+  const step = everyS * 1000;
+  const byPeriod = new Map(rows.map((r) => [r.periodStart, r]));
+  const runs = rows.map((r) => ({ period: new Date(r.periodStart).toISOString(), holder: r.holder, started: r.startedAt, finished: r.finishedAt }));
   const f: CycleFindings = { expected: 0, missing: [], unfinished: [], missingInWindow: [], rows: rows.length, runs };
   for (let p = Math.ceil(range.from / step) * step; p + step <= range.to; p += step) {
     const inWindow = p + step > allowed.from && p < allowed.to;
@@ -173,7 +209,7 @@ export async function checkEvaluatorCycles(
     }
     f.expected++;
     if (!row) f.missing.push(p);
-    else if (row.finished_at === null) f.unfinished.push(p);
+    else if (row.finishedAt === null) f.unfinished.push(p);
   }
   return f;
 }
