@@ -284,6 +284,28 @@ describe('alert evaluation', () => {
     expect(await cycleRows(cycleStart + cycleMs)).toHaveLength(1);
   });
 
+  it('an after-ingest run in a cycle nobody has claimed does the whole cycle (silence rules too); the scheduled tick then finds it done', async () => {
+    const s = await setup();
+    await makeRule(s, { name: 'Cold room warm', kind: 'bounds', channelId: s.f.ids.channelId, params: { high: 8 } });
+    await makeRule(s, { name: 'Logger quiet', kind: 'silence', loggerId: s.f.ids.loggerId, params: { factor: 3 } });
+    const t0 = Date.now() - 3_600_000;
+    await store(s.f, t0, 60_000, [5, 9]); // one crossing; the logger then falls silent for an hour
+    const cycleMs = 30_000;
+    const nudged = evaluator({ holder: 'server-a', cycleMs });
+    const scheduled = evaluator({ holder: 'server-b', cycleMs });
+    const at = Math.floor(Date.now() / cycleMs) * cycleMs + 2_000 + 7 * cycleMs; // a cycle no other test has claimed
+    // the nudge names only the channel, yet the cycle's run judges the silence rule as well
+    expect(await nudged.evaluateChannels(s.f.lab.id, [s.f.ids.channelId], at)).toMatchObject({ ran: true, opened: 2 });
+    const rows = await cycleRows(Math.floor(at / cycleMs) * cycleMs);
+    expect(rows.map((r) => [r.holder, r.finished_at !== null])).toEqual([['server-a', true]]);
+    expect(await scheduled.runOnce(at + 10_000)).toMatchObject({ ran: false, skipped: 'cycle-done' });
+    // later nudges in the same cycle judge just their channels (no second cycle run)
+    await store(s.f, t0 + 2 * 60_000, 60_000, [5]);
+    expect(await nudged.evaluateChannels(s.f.lab.id, [s.f.ids.channelId], at + 20_000)).toMatchObject({ ran: true, resolved: 1 });
+    expect(await cycleRows(Math.floor(at / cycleMs) * cycleMs)).toHaveLength(1);
+    expect((await alertsOf(s.f)).map((a) => a.resolved_at === null)).toEqual([false, true]);
+  });
+
   it('an evaluator that cannot get the lease within its wait skips the run and claims no cycle', async () => {
     let release!: () => void;
     const held = new Promise<void>((r) => (release = r));
