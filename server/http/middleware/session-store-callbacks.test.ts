@@ -1,6 +1,6 @@
-import knex from 'knex';
 import { ConnectSessionKnexStore } from 'connect-session-knex';
 import { afterAll, describe, expect, it } from 'vitest';
+import { createDb } from '../../db/create-db.ts';
 import { settleStoreCallbacks } from './session-store-callbacks.ts';
 
 /**
@@ -8,13 +8,7 @@ import { settleStoreCallbacks } from './session-store-callbacks.ts';
  * writer failover: every call must answer its callback once, with the error, and leave no
  * unhandled rejection behind.
  */
-const unreachable = knex({
-  client: 'mysql2',
-  connection: { host: '127.0.0.1', port: 1, user: 'nobody', password: 'x', database: 'none', connectTimeout: 500 },
-  pool: { min: 0, max: 1 },
-  acquireConnectionTimeout: 1000,
-  log: { warn() {}, error() {}, debug() {}, deprecate() {} },
-});
+const unreachable = createDb({ host: '127.0.0.1', port: 1, user: 'nobody', password: 'x', database: 'none', poolMax: 1 });
 afterAll(() => unreachable.destroy());
 
 function storeOnUnreachableDb() {
