@@ -230,6 +230,8 @@ export interface AlertMailFindings {
   neverArrived: number;
   /** Captured mails that match no outbox row. */
   strays: number;
+  /** Outbox rows not marked sent: their kind, attempts, claim, last error and whether the mail arrived anyway. */
+  unsent: Array<{ kind: string; attempts: number; claimedUntil: number | null; lastError: string | null; arrived: boolean }>;
 }
 
 /** Warm episodes in chamber 1's stored readings, in time order. */
@@ -255,13 +257,30 @@ export async function checkAlertMail(
 ): Promise<AlertMailFindings> {
   const expected = await warmEpisodes(db, lab.tenantId, lab.channelId);
   const alerts: Array<{ resolved_at: number | null }> = await db('alerts').where({ tenant_id: lab.tenantId, rule_id: lab.ruleId }).select('resolved_at');
-  const outbox: Array<{ subject: string; body_text: string; sent_at: number | null }> = await db('notification_outbox')
+  const outbox: Array<{
+    subject: string;
+    body_text: string;
+    sent_at: number | null;
+    kind: string;
+    attempts: number;
+    claimed_until: number | null;
+    last_error: string | null;
+  }> = await db('notification_outbox')
     .where({ tenant_id: lab.tenantId })
-    .select('subject', 'body_text', 'sent_at');
+    .select('subject', 'body_text', 'sent_at', 'kind', 'attempts', 'claimed_until', 'last_error');
   const mails = await fetchCapturedMail(mailCaptureUrl, { to: lab.subscriber });
   const keyOf = (subject: string, text: string) => `${subject}\n${text.trim()}`;
   const arrived = new Map<string, number>();
   for (const m of mails) arrived.set(keyOf(m.subject, m.text), (arrived.get(keyOf(m.subject, m.text)) ?? 0) + 1);
+  const unsent = outbox
+    .filter((r) => r.sent_at === null)
+    .map((r) => ({
+      kind: r.kind,
+      attempts: Number(r.attempts),
+      claimedUntil: r.claimed_until === null ? null : Number(r.claimed_until),
+      lastError: r.last_error,
+      arrived: arrived.has(keyOf(r.subject, r.body_text)),
+    }));
   let sentTwice = 0;
   let neverArrived = 0;
   for (const row of outbox) {
@@ -282,6 +301,7 @@ export async function checkAlertMail(
     sentTwice,
     neverArrived,
     strays: [...arrived.values()].reduce((a, b) => a + b, 0),
+    unsent,
   };
 }
 
