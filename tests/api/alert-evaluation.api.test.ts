@@ -294,6 +294,16 @@ describe('alert evaluation', () => {
     const nudged = evaluator({ holder: 'server-a', cycleMs });
     const scheduled = evaluator({ holder: 'server-b', cycleMs });
     const at = Math.floor(Date.now() / cycleMs) * cycleMs + 2_000 + 7 * cycleMs; // a cycle no other test has claimed
+    // a server without the schedule (a tool, a test app) never runs a whole cycle because a batch arrived
+    const other = await setup();
+    await makeRule(other, { name: 'Cold room warm', kind: 'bounds', channelId: other.f.ids.channelId, params: { high: 8 } });
+    await store(other.f, t0, 60_000, [5, 9]);
+    expect(await evaluator({ holder: 'server-c', cycleMs }).evaluateChannels(other.f.lab.id, [other.f.ids.channelId], at)).toMatchObject({
+      ran: true,
+      opened: 1,
+    });
+    expect(await cycleRows(Math.floor(at / cycleMs) * cycleMs)).toHaveLength(0);
+    nudged.takeCyclesFromNudges(true); // as the scheduled job does while it runs
     // the nudge names only the channel, yet the cycle's run judges the silence rule as well
     expect(await nudged.evaluateChannels(s.f.lab.id, [s.f.ids.channelId], at)).toMatchObject({ ran: true, opened: 2 });
     const rows = await cycleRows(Math.floor(at / cycleMs) * cycleMs);

@@ -228,6 +228,8 @@ export function createAlertEvaluator(deps: AlertEvaluatorDeps) {
 
   /** The cycle start this process last saw claimed (by itself or another server): no need to ask again within it. */
   let knownClaimed: number | null = null;
+  /** Whether after-ingest runs take a due cycle: only on a server that runs the scheduled job (see `takeCyclesFromNudges`). */
+  let nudgesTakeCycles = false;
 
   /**
    * The scheduled cycle's work, if the cycle `now` falls in is still unclaimed: claims it, runs
@@ -271,11 +273,23 @@ export function createAlertEvaluator(deps: AlertEvaluatorDeps) {
 
     /**
      * Judges the value rules of some channels of one lab right away and sends its mail (after
-     * ingestion). When the current cycle is still unclaimed it does the whole cycle instead (which
-     * judges these channels too).
+     * ingestion). When the current cycle is still unclaimed, and this server runs the schedule, it
+     * does the whole cycle instead (which judges these channels too).
      */
     async evaluateChannels(tenantId: number, channelIds: number[], now: number): Promise<EvaluationSummary> {
-      return guarded(async (lease) => (await cycleIfDue(lease, now)) ?? { ran: true, ...(await evaluateLabSafely(tenantId, now, lease, channelIds)) });
+      return guarded(
+        async (lease) =>
+          (nudgesTakeCycles ? await cycleIfDue(lease, now) : null) ?? { ran: true, ...(await evaluateLabSafely(tenantId, now, lease, channelIds)) },
+      );
+    },
+
+    /**
+     * Lets after-ingest runs take a due cycle (on) or not (off, the default). The scheduled job
+     * turns it on while it runs: a server without the schedule (tests, tools) never runs a whole
+     * cycle because a batch arrived.
+     */
+    takeCyclesFromNudges(on: boolean): void {
+      nudgesTakeCycles = on;
     },
   };
 }

@@ -68,9 +68,12 @@ export function alertEvaluationJob(deps: { evaluator: AlertEvaluator; logger: Lo
   return {
     name: 'alert evaluation and notification sending',
     start() {
+      // while this server keeps the schedule, its after-ingest runs may take a cycle nobody has claimed yet
+      deps.evaluator.takeCyclesFromNudges(true);
       timer ??= setInterval(tick, deps.everyS * 1000);
     },
     async stop() {
+      deps.evaluator.takeCyclesFromNudges(false);
       if (timer) clearInterval(timer);
       timer = null;
       await running;
