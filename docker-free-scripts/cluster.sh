@@ -419,7 +419,7 @@ defaults
     option redispatch
     # Health: an HTTP probe of docker-free-scripts/cluster/node-health.mjs on the node's health
     # port; 200 only when wsrep_local_state = 4 (Synced) and wsrep_ready = ON.
-    default-server inter 1s fastinter 500ms downinter 1s fall 2 rise 2 on-marked-down shutdown-sessions
+    default-server inter 1s fastinter 500ms downinter 1s fall 2 rise 2
 
 # Writer: every connection to one node. node1 first, then the backups in order (HAProxy uses the
 # first healthy backup). The one-entry stick table remembers the node in use, so after a failover
@@ -428,6 +428,8 @@ defaults
 listen writer
     bind 127.0.0.1:$WRITER_PORT
     option httpchk GET /
+    # a node marked down has its sessions cut at once: clients see a lost connection, not a dead node's silence
+    default-server on-marked-down shutdown-sessions
     stick-table type integer size 1
     stick on int(1)
     server node1 127.0.0.1:$(sql_port 1) check port $(health_port 1)
@@ -439,6 +441,7 @@ listen reader
     bind 127.0.0.1:$READER_PORT
     balance roundrobin
     option httpchk GET /
+    default-server on-marked-down shutdown-sessions
     server node1 127.0.0.1:$(sql_port 1) check port $(health_port 1)
     server node2 127.0.0.1:$(sql_port 2) check port $(health_port 2)
     server node3 127.0.0.1:$(sql_port 3) check port $(health_port 3)
@@ -457,10 +460,14 @@ listen http
     timeout client 5m
     timeout server 5m
     timeout http-request 30s
+    # /healthz of a busy app server (20 loggers on 2 cores) took over 1 s at times: the fault test saw
+    # both app servers marked down at once and the requests in flight cut (502). So 5 s, three misses,
+    # and requests already being served finish even when their server is marked down.
+    timeout check 5s
     option httpchk GET /healthz
     http-check expect rstatus ^(200|503)\$
     http-error status 503 content-type application/json string "{\"error\":{\"code\":\"service_unavailable\",\"message\":\"No Lagbook server is answering right now; nothing was saved. Try again shortly.\"}}" hdr Retry-After 5
-    default-server inter 1s fall 2 rise 1
+    default-server inter 1s fall 3 rise 1
 EOF
     printf '%s' "$servers"
     cat <<EOF

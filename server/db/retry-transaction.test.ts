@@ -121,4 +121,23 @@ describe('retryTransaction', () => {
   it('refuses a bad number of attempts with a clear error', async () => {
     await expect(retryTransaction(async () => 1, { attempts: 0 })).rejects.toThrow(/attempts must be a whole number from 1/);
   });
+
+  it('retries what retryWhen names instead of lock conflicts, and still nothing else', async () => {
+    const lost = () => dbError('PROTOCOL_CONNECTION_LOST', 0);
+    const { waits, sleep } = recordingSleep();
+    const errors = [lost(), lost()];
+    let runs = 0;
+    const value = await retryTransaction(
+      async () => {
+        runs++;
+        const next = errors.shift();
+        if (next) throw next;
+        return 'marked';
+      },
+      { sleep, random: () => 0.5, retryWhen: (err) => (err as { code?: string }).code === 'PROTOCOL_CONNECTION_LOST' },
+    );
+    expect([value, runs, waits]).toEqual(['marked', 3, [12, 25]]);
+    // with that predicate a deadlock is no longer retried
+    await expect(retryTransaction(() => Promise.reject(deadlock()), { sleep, retryWhen: () => false })).rejects.toMatchObject({ code: 'ER_LOCK_DEADLOCK' });
+  });
 });

@@ -14,6 +14,12 @@ export interface RetryOptions {
   sleep?: (ms: number) => Promise<void>;
   /** Told of each conflict that is about to be retried (for logs and tests). */
   onRetry?: (attempt: number, waitMs: number, err: unknown) => void;
+  /**
+   * Which errors are retried (default {@link isLockConflict}). A caller whose `run` is safe to
+   * repeat even when an earlier attempt may have committed (one idempotent statement) may widen it,
+   * e.g. to ride out a database failover.
+   */
+  retryWhen?: (err: unknown) => boolean;
 }
 
 /** Attempts in all when a caller does not say: enough to ride out a burst of conflicts, few enough to answer within a second or two. */
@@ -60,7 +66,7 @@ export async function retryTransaction<T>(run: () => Promise<T>, opts: RetryOpti
     try {
       return await run();
     } catch (err) {
-      if (attempt >= attempts || !isLockConflict(err)) throw err;
+      if (attempt >= attempts || !(opts.retryWhen ?? isLockConflict)(err)) throw err;
       const ms = fullJitterDelayMs(attempt, baseMs, capMs, random);
       opts.onRetry?.(attempt, ms, err);
       await sleep(ms);
