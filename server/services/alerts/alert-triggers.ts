@@ -45,25 +45,43 @@ export function alertIngestNudge(deps: { evaluator: AlertEvaluator; logger: LogW
   };
 }
 
+/** Ticks that may wait for a run in progress; older ones beyond this are dropped (their cycles were long missed). */
+export const PENDING_TICKS_KEPT = 3;
+
 /**
  * The scheduled alert job: every `everyS` seconds one full evaluator run (silence, reminders,
- * queued mail, and any readings the ingestion nudge missed). `stop` waits for a run in progress.
+ * queued mail, and any readings the ingestion nudge missed). A tick that comes while a run is
+ * still going waits for it and then runs with its own time, so it claims its own cycle (a slow
+ * run, or one that waited for the lease, no longer swallows the next cycle). `stop` waits for
+ * the runs in progress.
  */
-export function alertEvaluationJob(deps: { evaluator: AlertEvaluator; logger: LogWriter; everyS: number; now?: () => number }): BackgroundJob {
+export function alertEvaluationJob(deps: {
+  evaluator: Pick<AlertEvaluator, 'runOnce' | 'takeCyclesFromNudges'>;
+  logger: LogWriter;
+  everyS: number;
+  now?: () => number;
+}): BackgroundJob & { tickNow(): Promise<void> } {
   const now = deps.now ?? Date.now;
   let timer: ReturnType<typeof setInterval> | null = null;
   let running: Promise<void> | null = null;
-  const tick = () => {
-    if (running) return;
-    running = deps.evaluator
-      .runOnce(now())
-      .then((s) => {
+  const pending: number[] = [];
+
+  async function drain(): Promise<void> {
+    for (let at = pending.shift(); at !== undefined; at = pending.shift()) {
+      try {
+        const s = await deps.evaluator.runOnce(at);
         if (s.opened || s.resolved || s.reminders || s.sent || s.failed) deps.logger.info('alert evaluation', { ...s });
-      })
-      .catch((err: Error) => deps.logger.warn('alert evaluation failed; next run retries', { error: err.message }))
-      .finally(() => {
-        running = null;
-      });
+      } catch (err) {
+        deps.logger.warn('alert evaluation failed; next run retries', { error: (err as Error).message });
+      }
+    }
+    running = null;
+  }
+
+  const tick = () => {
+    pending.push(now());
+    if (pending.length > PENDING_TICKS_KEPT) pending.shift();
+    running ??= drain();
   };
   return {
     name: 'alert evaluation and notification sending',
@@ -76,6 +94,12 @@ export function alertEvaluationJob(deps: { evaluator: AlertEvaluator; logger: Lo
       deps.evaluator.takeCyclesFromNudges(false);
       if (timer) clearInterval(timer);
       timer = null;
+      pending.length = 0;
+      await running;
+    },
+    /** Test seam: one tick now, as the timer would make it; resolves when every waiting tick has run. */
+    async tickNow() {
+      tick();
       await running;
     },
   };
