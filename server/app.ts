@@ -228,6 +228,8 @@ export function createApp(deps: AppDeps): Express {
   // Which connection answered the lag-tolerant reads (tests, and a health answer that reports the reader).
   app.locals.readReplica = reads;
   app.locals.startBackgroundJobs = (): (() => Promise<void>) => startBackgroundJobs(backgroundJobs, logger);
+  // Work started by requests that must end before the process does (main.ts and the test app call it).
+  app.locals.settleRequestWork = (): Promise<void> => alerts.settleNudges();
 
   app.use(securityHeaders({ secure: config.secureCookies }));
   // Unsupported Content-Encoding or charset: 415 before any body parser runs, on every route.

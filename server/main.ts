@@ -71,6 +71,7 @@ async function main(): Promise<void> {
   const shutdown = () => {
     server.close(() => {
       void stopBackgroundJobs()
+        .then(() => (app.locals.settleRequestWork as () => Promise<void>)())
         .then(() => {
           mailer.close();
           return Promise.all([analysisPool.close(), db.destroy(), readDb?.destroy()]);

@@ -52,6 +52,8 @@ export async function buildTestApp(overrides: Partial<Config> = {}, options: { r
         server.closeAllConnections();
         await new Promise<void>((r) => server!.close(() => r()));
       }
+      // after-ingest alert runs still going would hold the evaluator's lease past this file's end
+      await (app.locals.settleRequestWork as () => Promise<void>)();
       mailer.close();
       await Promise.all([db.destroy(), ownReader?.destroy()]);
       if (undocumented.size > 0) {

@@ -8,11 +8,23 @@ import type { AlertEvaluator } from './alert-evaluator.ts';
  * later (batches arriving meanwhile are gathered into one run). It never blocks or fails the
  * ingestion: it only schedules, and the run's errors are logged (the scheduled job catches up).
  */
-export function alertIngestNudge(deps: { evaluator: AlertEvaluator; logger: LogWriter; delayMs?: number; now?: () => number }): IngestHooks {
+export function alertIngestNudge(deps: {
+  evaluator: AlertEvaluator;
+  logger: LogWriter;
+  delayMs?: number;
+  now?: () => number;
+}): IngestHooks & { settle(): Promise<void> } {
   const delayMs = deps.delayMs ?? 250;
   const now = deps.now ?? Date.now;
   const waiting = new Map<number, Set<number>>();
   let timer: ReturnType<typeof setTimeout> | null = null;
+  const flushing = new Set<Promise<void>>();
+
+  function startFlush(): void {
+    const run = flush();
+    flushing.add(run);
+    void run.finally(() => flushing.delete(run));
+  }
 
   async function flush(): Promise<void> {
     timer = null;
@@ -35,12 +47,25 @@ export function alertIngestNudge(deps: { evaluator: AlertEvaluator; logger: LogW
         for (const c of batch.channels) set.add(c.channelId);
         waiting.set(batch.target.tenantId, set);
         if (!timer) {
-          timer = setTimeout(() => void flush(), delayMs);
+          timer = setTimeout(startFlush, delayMs);
           timer.unref?.();
         }
       } catch (err) {
         deps.logger.warn('alert nudge failed', { error: (err as Error).message });
       }
+    },
+
+    /**
+     * Runs what is still waiting at once and resolves when every run has ended (and so released
+     * the evaluator's lease). A server shutting down calls it; without it a run cut off by the exit
+     * would leave the lease held until it expires, and every other server's evaluation would wait.
+     */
+    async settle(): Promise<void> {
+      if (timer) {
+        clearTimeout(timer);
+        startFlush();
+      }
+      while (flushing.size > 0) await Promise.allSettled([...flushing]);
     },
   };
 }

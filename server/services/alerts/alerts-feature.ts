@@ -21,10 +21,13 @@ export function createAlertsFeature(deps: { db: Db; mailer: Mailer; logger: LogW
     // a scheduled run claims the cycle of this length it falls in, once across all app servers
     cycleMs: deps.config.alerts.evaluateEveryS * 1000,
   });
+  const nudge = alertIngestNudge({ evaluator, logger: deps.logger, now: deps.now });
   return {
     service: createAlertRulesService({ db: deps.db, now: deps.now }),
     evaluator,
-    ingestHooks: alertIngestNudge({ evaluator, logger: deps.logger, now: deps.now }),
+    ingestHooks: nudge,
+    /** Finishes the after-ingest runs in flight (at shutdown, so the evaluator's lease is released, not left to expire). */
+    settleNudges: () => nudge.settle(),
     job: alertEvaluationJob({ evaluator, logger: deps.logger, everyS: deps.config.alerts.evaluateEveryS, now: deps.now }),
   };
 }
