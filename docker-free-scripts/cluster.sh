@@ -41,6 +41,8 @@ set -euo pipefail
 
 HERE="$(cd "$(dirname "${BASH_SOURCE[0]}")" && pwd)"
 ROOT="$(cd "$HERE/.." && pwd)"
+# shellcheck source=docker-free-scripts/database-setup.sh
+source "$HERE/database-setup.sh"
 CLUSTER_DIR="${LAGBOOK_CLUSTER_DIR:-$ROOT/.lagbook/cluster}"
 BASE="${LAGBOOK_CLUSTER_PORT:-4340}"
 [[ "$BASE" =~ ^[0-9]+$ ]] && [ "$BASE" -ge 1024 ] && [ "$BASE" -le 65490 ] \
@@ -375,16 +377,7 @@ running_primary_node() {
 
 ensure_database() {
   local n=$1
-  node_client "$n" -e "CREATE DATABASE IF NOT EXISTS \`$DB_NAME\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;
-             CREATE USER IF NOT EXISTS 'lagbook'@'127.0.0.1' IDENTIFIED BY 'lagbook';
-             GRANT ALL PRIVILEGES ON \`$DB_NAME\`.* TO 'lagbook'@'127.0.0.1';
-             GRANT ALL PRIVILEGES ON \`${DB_NAME}\_%\`.* TO 'lagbook'@'127.0.0.1';
-             GRANT RELOAD, PROCESS ON *.* TO 'lagbook'@'127.0.0.1';
-             CREATE USER IF NOT EXISTS 'lagbook'@'localhost' IDENTIFIED BY 'lagbook';
-             GRANT ALL PRIVILEGES ON \`$DB_NAME\`.* TO 'lagbook'@'localhost';
-             GRANT ALL PRIVILEGES ON \`${DB_NAME}\_%\`.* TO 'lagbook'@'localhost';
-             GRANT RELOAD, PROCESS ON *.* TO 'lagbook'@'localhost';" \
-    || fail "could not create database $DB_NAME"
+  node_client "$n" -e "$(lagbook_database_sql "$DB_NAME")" || fail "could not create database $DB_NAME"
 }
 
 write_haproxy_config() {

@@ -16,6 +16,8 @@
 set -euo pipefail
 
 ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+# shellcheck source=docker-free-scripts/database-setup.sh
+source "$ROOT/docker-free-scripts/database-setup.sh"
 DB_DIR="${LAGBOOK_DB_DIR:-$ROOT/.lagbook/dev/mariadb}"
 DB_PORT="${LAGBOOK_DB_PORT:-4306}"
 DB_NAME="${LAGBOOK_DB_NAME:-lagbook}"
@@ -71,16 +73,7 @@ start() {
 }
 
 ensure_database() {
-  client -e "CREATE DATABASE IF NOT EXISTS \`$DB_NAME\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;
-             CREATE USER IF NOT EXISTS 'lagbook'@'127.0.0.1' IDENTIFIED BY 'lagbook';
-             GRANT ALL PRIVILEGES ON \`$DB_NAME\`.* TO 'lagbook'@'127.0.0.1';
-             GRANT ALL PRIVILEGES ON \`${DB_NAME}\_%\`.* TO 'lagbook'@'127.0.0.1';
-             GRANT RELOAD, PROCESS ON *.* TO 'lagbook'@'127.0.0.1';
-             CREATE USER IF NOT EXISTS 'lagbook'@'localhost' IDENTIFIED BY 'lagbook';
-             GRANT ALL PRIVILEGES ON \`$DB_NAME\`.* TO 'lagbook'@'localhost';
-             GRANT ALL PRIVILEGES ON \`${DB_NAME}\_%\`.* TO 'lagbook'@'localhost';
-             GRANT RELOAD, PROCESS ON *.* TO 'lagbook'@'localhost';" \
-    || fail "could not create database $DB_NAME"
+  client -e "$(lagbook_database_sql "$DB_NAME")" || fail "could not create database $DB_NAME"
 }
 
 stop() {

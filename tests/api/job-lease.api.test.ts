@@ -1,26 +1,13 @@
 import { randomUUID } from 'node:crypto';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createDb, type Db } from '../../server/db/create-db.ts';
-import { migrateToLatest } from '../../server/db/migrate.ts';
+import { describe, expect, it } from 'vitest';
 import { createLeaseRunner, LeaseLostError, type HeldLease } from '../../server/jobs/job-lease.ts';
-import { testConfig } from '../support/test-app.ts';
+import { twoServerPools } from '../support/two-server-pools.ts';
 
 /**
  * The cluster-wide job lease (issue #20 item 4). Two database pools stand for two app servers;
  * a simulated clock drives expiry, so no test waits for a TTL to pass.
  */
-let serverA: Db;
-let serverB: Db;
-
-beforeAll(async () => {
-  serverA = createDb(testConfig().db);
-  serverB = createDb(testConfig().db);
-  await migrateToLatest(serverA);
-});
-afterAll(async () => {
-  await serverA?.destroy();
-  await serverB?.destroy();
-});
+const pools = twoServerPools();
 
 /** A lease name of its own per test, so tests sharing the database never meet. */
 const leaseName = () => `test-${randomUUID().slice(0, 12)}`;
@@ -38,8 +25,8 @@ describe('job lease', () => {
     for (let round = 0; round < 10; round++) {
       const name = leaseName();
       const clock = simulatedClock();
-      const a = createLeaseRunner({ db: serverA, holder: 'server-a', now: clock.now });
-      const b = createLeaseRunner({ db: serverB, holder: 'server-b', now: clock.now });
+      const a = createLeaseRunner({ db: pools.serverA, holder: 'server-a', now: clock.now });
+      const b = createLeaseRunner({ db: pools.serverB, holder: 'server-b', now: clock.now });
       let inside = 0;
       let maxInside = 0;
       const work = async () => {
@@ -62,8 +49,8 @@ describe('job lease', () => {
   it('a held, unexpired lease refuses another holder; its holder may run again', async () => {
     const name = leaseName();
     const clock = simulatedClock();
-    const a = createLeaseRunner({ db: serverA, holder: 'server-a', now: clock.now });
-    const b = createLeaseRunner({ db: serverB, holder: 'server-b', now: clock.now });
+    const a = createLeaseRunner({ db: pools.serverA, holder: 'server-a', now: clock.now });
+    const b = createLeaseRunner({ db: pools.serverB, holder: 'server-b', now: clock.now });
     const outcome = await a.run(name, TTL, async () => {
       clock.advance(TTL - 1);
       const other = await b.run(name, TTL, async () => 'b ran');
@@ -77,8 +64,8 @@ describe('job lease', () => {
   it('a holder that stops renewing is replaced after expiry, with a higher fencing number; its renew and assertHeld throw LeaseLostError', async () => {
     const name = leaseName();
     const clock = simulatedClock();
-    const a = createLeaseRunner({ db: serverA, holder: 'server-a', now: clock.now });
-    const b = createLeaseRunner({ db: serverB, holder: 'server-b', now: clock.now });
+    const a = createLeaseRunner({ db: pools.serverA, holder: 'server-a', now: clock.now });
+    const b = createLeaseRunner({ db: pools.serverB, holder: 'server-b', now: clock.now });
     let staleLease: HeldLease | null = null;
     const outcome = await a.run(name, TTL, async (lease) => {
       staleLease = lease;
@@ -108,8 +95,8 @@ describe('job lease', () => {
   it('renewing keeps the lease past its first expiry; others are refused until the renewed expiry', async () => {
     const name = leaseName();
     const clock = simulatedClock();
-    const a = createLeaseRunner({ db: serverA, holder: 'server-a', now: clock.now });
-    const b = createLeaseRunner({ db: serverB, holder: 'server-b', now: clock.now });
+    const a = createLeaseRunner({ db: pools.serverA, holder: 'server-a', now: clock.now });
+    const b = createLeaseRunner({ db: pools.serverB, holder: 'server-b', now: clock.now });
     const outcome = await a.run(name, TTL, async (lease) => {
       clock.advance(TTL - 1_000);
       await lease.renew(); // now expires at start + 2·TTL − 1 s
@@ -129,7 +116,7 @@ describe('job lease', () => {
   it('renewing on a clock that has not moved (same expiry written again) keeps the lease', async () => {
     const name = leaseName();
     const clock = simulatedClock();
-    const a = createLeaseRunner({ db: serverA, holder: 'server-a', now: clock.now });
+    const a = createLeaseRunner({ db: pools.serverA, holder: 'server-a', now: clock.now });
     const outcome = await a.run(name, TTL, async (lease) => {
       await lease.renew();
       await lease.renew();
@@ -142,8 +129,8 @@ describe('job lease', () => {
   it('release lets the other holder take the lease at once, and each change of holder raises the fencing number', async () => {
     const name = leaseName();
     const clock = simulatedClock();
-    const a = createLeaseRunner({ db: serverA, holder: 'server-a', now: clock.now });
-    const b = createLeaseRunner({ db: serverB, holder: 'server-b', now: clock.now });
+    const a = createLeaseRunner({ db: pools.serverA, holder: 'server-a', now: clock.now });
+    const b = createLeaseRunner({ db: pools.serverB, holder: 'server-b', now: clock.now });
     const seen: number[] = [];
     for (let i = 0; i < 3; i++) {
       for (const runner of [a, b]) {
@@ -153,15 +140,15 @@ describe('job lease', () => {
       }
     }
     expect(seen).toEqual([1, 2, 3, 4, 5, 6]);
-    const [row] = await serverA('job_leases').where('name', name).select('holder', 'fencing');
+    const [row] = await pools.serverA('job_leases').where('name', name).select('holder', 'fencing');
     expect(row).toEqual({ holder: '', fencing: 6 });
   });
 
   it('a failing job still releases its lease, and the error reaches the caller', async () => {
     const name = leaseName();
     const clock = simulatedClock();
-    const a = createLeaseRunner({ db: serverA, holder: 'server-a', now: clock.now });
-    const b = createLeaseRunner({ db: serverB, holder: 'server-b', now: clock.now });
+    const a = createLeaseRunner({ db: pools.serverA, holder: 'server-a', now: clock.now });
+    const b = createLeaseRunner({ db: pools.serverB, holder: 'server-b', now: clock.now });
     await expect(
       a.run(name, TTL, async () => {
         throw new Error('the job broke');
@@ -171,16 +158,16 @@ describe('job lease', () => {
   });
 
   it('refuses a bad TTL or holder with a clear error', async () => {
-    const a = createLeaseRunner({ db: serverA, holder: 'server-a' });
+    const a = createLeaseRunner({ db: pools.serverA, holder: 'server-a' });
     await expect(a.run(leaseName(), 0, async () => 1)).rejects.toThrow(/ttlMs must be a positive/);
-    expect(() => createLeaseRunner({ db: serverA, holder: '' })).toThrow(/holder must be 1 to 128/);
+    expect(() => createLeaseRunner({ db: pools.serverA, holder: '' })).toThrow(/holder must be 1 to 128/);
   });
 
   it('with a wait, a runner polls with jittered pauses and runs once the holder releases; it gives up after the wait', async () => {
     const name = leaseName();
     const clock = simulatedClock();
-    const a = createLeaseRunner({ db: serverA, holder: 'server-a', now: clock.now });
-    const b = createLeaseRunner({ db: serverB, holder: 'server-b', now: clock.now });
+    const a = createLeaseRunner({ db: pools.serverA, holder: 'server-a', now: clock.now });
+    const b = createLeaseRunner({ db: pools.serverB, holder: 'server-b', now: clock.now });
     const pauses: number[] = [];
     let draws = 0;
     const random = () => [0, 0.5, 0.99][draws++ % 3];
@@ -208,17 +195,17 @@ describe('job lease', () => {
   it('fence: a write on the lease row inside the caller’s transaction; refused (LeaseLostError, rolled back) after a takeover', async () => {
     const name = leaseName();
     const clock = simulatedClock();
-    const a = createLeaseRunner({ db: serverA, holder: 'server-a', now: clock.now });
-    const b = createLeaseRunner({ db: serverB, holder: 'server-b', now: clock.now });
-    const writes = async () => Number((await serverA('job_leases').where('name', name).first('fenced_writes')).fenced_writes);
+    const a = createLeaseRunner({ db: pools.serverA, holder: 'server-a', now: clock.now });
+    const b = createLeaseRunner({ db: pools.serverB, holder: 'server-b', now: clock.now });
+    const writes = async () => Number((await pools.serverA('job_leases').where('name', name).first('fenced_writes')).fenced_writes);
     await a.run(name, TTL, async (lease) => {
-      await serverA.transaction((trx) => lease.fence(trx));
-      await serverA.transaction((trx) => lease.fence(trx));
+      await pools.serverA.transaction((trx) => lease.fence(trx));
+      await pools.serverA.transaction((trx) => lease.fence(trx));
       expect(await writes()).toBe(2); // a real change each time: under Galera the row is in the write set
       clock.advance(TTL);
       await b.run(name, TTL, async () => {
         const before = await writes();
-        await expect(serverA.transaction((trx) => lease.fence(trx))).rejects.toBeInstanceOf(LeaseLostError);
+        await expect(pools.serverA.transaction((trx) => lease.fence(trx))).rejects.toBeInstanceOf(LeaseLostError);
         expect(await writes()).toBe(before);
       });
     });

@@ -1,27 +1,14 @@
 import { randomUUID } from 'node:crypto';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createDb, type Db } from '../../server/db/create-db.ts';
-import { migrateToLatest } from '../../server/db/migrate.ts';
+import { describe, expect, it } from 'vitest';
 import { createLeaseRunner, LeaseLostError } from '../../server/jobs/job-lease.ts';
 import { cycleStart, jobCycles, JOB_RUNS_KEPT_MS, PRUNE_LIMIT } from '../../server/jobs/job-cycles.ts';
-import { testConfig } from '../support/test-app.ts';
+import { twoServerPools } from '../support/two-server-pools.ts';
 
 /**
  * Once-per-cycle runs of scheduled jobs (`job_runs`, server/jobs/job-cycles.ts). Two database
  * pools stand for two app servers; a simulated clock drives the leases.
  */
-let serverA: Db;
-let serverB: Db;
-
-beforeAll(async () => {
-  serverA = createDb(testConfig().db);
-  serverB = createDb(testConfig().db);
-  await migrateToLatest(serverA);
-});
-afterAll(async () => {
-  await serverA?.destroy();
-  await serverB?.destroy();
-});
+const pools = twoServerPools();
 
 /** A job name of its own per test, so tests sharing the database never meet. */
 const jobName = () => `test-cycles-${randomUUID().slice(0, 12)}`;
@@ -33,7 +20,7 @@ function simulatedClock(start = Date.UTC(2026, 11, 4, 12, 0, 0)) {
   return { now: () => new Date(t), ms: () => t, advance: (ms: number) => (t += ms) };
 }
 
-const rowsOf = (name: string) => serverA('job_runs').where('name', name).orderBy('period_start');
+const rowsOf = (name: string) => pools.serverA('job_runs').where('name', name).orderBy('period_start');
 
 describe('job cycles', () => {
   it('cycleStart floors to the interval in UTC', () => {
@@ -46,8 +33,8 @@ describe('job cycles', () => {
     const name = jobName();
     const clock = simulatedClock();
     const servers = [
-      { runner: createLeaseRunner({ db: serverA, holder: 'server-a', now: clock.now }), cycles: jobCycles(serverA) },
-      { runner: createLeaseRunner({ db: serverB, holder: 'server-b', now: clock.now }), cycles: jobCycles(serverB) },
+      { runner: createLeaseRunner({ db: pools.serverA, holder: 'server-a', now: clock.now }), cycles: jobCycles(pools.serverA) },
+      { runner: createLeaseRunner({ db: pools.serverB, holder: 'server-b', now: clock.now }), cycles: jobCycles(pools.serverB) },
     ];
     for (let round = 0; round < 8; round++) {
       const period = cycleStart(clock.ms(), CYCLE);
@@ -75,10 +62,10 @@ describe('job cycles', () => {
   it('a stale holder can neither claim nor finish a cycle after a takeover; the new holder can', async () => {
     const name = jobName();
     const clock = simulatedClock();
-    const a = createLeaseRunner({ db: serverA, holder: 'server-a', now: clock.now });
-    const b = createLeaseRunner({ db: serverB, holder: 'server-b', now: clock.now });
-    const cyclesA = jobCycles(serverA);
-    const cyclesB = jobCycles(serverB);
+    const a = createLeaseRunner({ db: pools.serverA, holder: 'server-a', now: clock.now });
+    const b = createLeaseRunner({ db: pools.serverB, holder: 'server-b', now: clock.now });
+    const cyclesA = jobCycles(pools.serverA);
+    const cyclesB = jobCycles(pools.serverB);
     const period = cycleStart(clock.ms(), CYCLE);
     const outcome = await a.run(name, TTL, async (staleLease) => {
       expect(await cyclesA.claim(staleLease, period, clock.now())).toBe(true);
@@ -112,9 +99,9 @@ describe('job cycles', () => {
       started_at: new Date(now - JOB_RUNS_KEPT_MS),
     }));
     const recent = [1, 2, 3].map((i) => ({ name, period_start: new Date(now - i * CYCLE), holder: 'recent', fencing: 1, started_at: new Date(now) }));
-    for (let i = 0; i < old.length; i += 500) await serverA('job_runs').insert(old.slice(i, i + 500));
-    await serverA('job_runs').insert(recent);
-    const cycles = jobCycles(serverA);
+    for (let i = 0; i < old.length; i += 500) await pools.serverA('job_runs').insert(old.slice(i, i + 500));
+    await pools.serverA('job_runs').insert(recent);
+    const cycles = jobCycles(pools.serverA);
     expect(await cycles.prune(name, now)).toBe(PRUNE_LIMIT);
     expect(await cycles.prune(name, now)).toBe(205);
     expect(await cycles.prune(name, now)).toBe(0);
